@@ -1,0 +1,45 @@
+/**
+ * Gradient mapping functions: the factor that multiplies G_N cos a + G_E sin a in the slant delay.
+ *
+ * "chen-herring" (default): Chen & Herring (1997), J. Geophys. Res. 102(B9), 20489–20502, eq. 8:
+ *     m_g(e) = 1 / (sin e tan e + C),  C = 0.0032   (the value of IERS Conventions (2010) ch. 9,
+ *     from memory; Chen & Herring also give 0.0031 hydrostatic, 0.0007 wet).
+ * "tilting": the tilted-atmosphere form m_g(e) = m_h(e) cot e with the hydrostatic mapping function
+ *     of the chosen model; MacMillan (1995), Geophys. Res. Lett. 22, 1041–1044; Bar-Sever et al.
+ *     (1998), J. Geophys. Res. 103, 5019–5035 (from memory).
+ *
+ * Valid for elevations (0°, 90°]; both vanish at zenith. Gradients G_N, G_E in [m].
+ */
+
+import type { MappingEvaluator } from '../mapping/types.js';
+
+export const CHEN_HERRING_C = 0.0032;
+
+export type GradientMapping = (elevationRad: number) => number;
+
+/** @param elevationRad elevation [rad] @returns gradient mapping factor [-] */
+export function chenHerringGradientMapping(elevationRad: number): number {
+  return 1 / (Math.sin(elevationRad) * Math.tan(elevationRad) + CHEN_HERRING_C);
+}
+
+export interface GradientModel {
+  key: string;
+  citation: string;
+  prepare(mapping: MappingEvaluator): GradientMapping;
+}
+
+export const GRADIENT_MODELS: Record<string, GradientModel> = {
+  'chen-herring': {
+    key: 'chen-herring',
+    citation: 'Chen & Herring (1997), C=0.0032',
+    prepare: () => chenHerringGradientMapping,
+  },
+  tilting: {
+    key: 'tilting',
+    citation: 'tilted atmosphere m_h(e) cot(e) (MacMillan 1995)',
+    prepare: (mapping) => (e) => mapping.hydrostatic(e) / Math.tan(e),
+  },
+};
+
+export const GRADIENT_MODEL_KEYS = Object.keys(GRADIENT_MODELS) as [string, ...string[]];
+export const DEFAULT_GRADIENT_MODEL = 'chen-herring';

@@ -1,0 +1,15 @@
+/**
+ * Marini (1972) continued fraction, normalised to 1 at zenith, in the three-term form used by
+ * Herring (1992) and Niell (1996), eq. 4 of the corrected reprint:
+ *
+ *   f(e; a, b, c) = (1 + a/(1 + b/(1 + c))) / (sin e + a/(sin e + b/(sin e + c)))
+ *
+ * @param sinElevation sin e of the (vacuum) elevation angle [-], in (0, 1]
+ * @param a,b,c coefficients [-]
+ * @returns mapping factor [-], 1 at zenith
+ */
+export function marini(sinElevation: number, a: number, b: number, c: number): number {
+  const top = 1 + a / (1 + b / (1 + c));
+  const bottom = sinElevation + a / (sinElevation + b / (sinElevation + c));
+  return top / bottom;
+}

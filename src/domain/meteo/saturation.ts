@@ -1,0 +1,77 @@
+/**
+ * Saturation water vapour pressure and the enhancement factor of moist air.
+ *
+ * Source: WMO Guide to Meteorological Instruments and Methods of Observation, WMO-No. 8 (2008),
+ * Annex 4.B: the Magnus-type form over a plane surface of pure water, e_w(t) = 6.112 exp(17.62 t / (243.12 + t)) hPa
+ * (confirmed, published-constants.md), and the enhancement factor f(p) = 1.0016 + 3.15e-6 p − 0.074/p (from memory).
+ * WMO defines relative humidity with respect to water also below 0 °C, so no ice branch is used.
+ */
+
+import { ModelDomainError } from '../errors.js';
+
+/** Validity of the WMO-No. 8 water formula [°C] (Annex 4.B states −45 °C to 60 °C). */
+export const SATURATION_RANGE_C = { min: -45, max: 60 } as const;
+
+/**
+ * Saturation vapour pressure over water, e_w(t), WMO-No. 8 (2008) Annex 4.B.
+ *
+ * @param temperatureC air temperature t [°C], valid −45..60 °C
+ * @returns saturation vapour pressure [hPa] (pure phase, no enhancement factor)
+ * @throws ModelDomainError outside −45..60 °C
+ */
+export function saturationVapourPressureHpa(temperatureC: number, field = 'temperature_c'): number {
+  if (!(temperatureC >= SATURATION_RANGE_C.min && temperatureC <= SATURATION_RANGE_C.max)) {
+    throw new ModelDomainError(
+      field,
+      `saturation vapour pressure (WMO-No. 8) is defined for ${SATURATION_RANGE_C.min}..${SATURATION_RANGE_C.max} °C, got ${temperatureC} °C`,
+    );
+  }
+  return 6.112 * Math.exp((17.62 * temperatureC) / (243.12 + temperatureC));
+}
+
+/**
+ * Enhancement factor of water vapour in moist air, f(p), WMO-No. 8 (2008) Annex 4.B (from memory).
+ *
+ * @param pressureHpa total air pressure p [hPa], 300..1100
+ * @returns f [-], about 1.004 at 1000 hPa
+ */
+export function enhancementFactor(pressureHpa: number): number {
+  return 1.0016 + 3.15e-6 * pressureHpa - 0.074 / pressureHpa;
+}
+
+/**
+ * Water vapour pressure of moist air from relative humidity: e = RH/100 · f(p) · e_w(t).
+ *
+ * @param relativeHumidityPct relative humidity with respect to water [%], 0..100
+ * @param temperatureC air temperature [°C]
+ * @param pressureHpa total pressure [hPa]
+ * @returns vapour pressure [hPa]
+ */
+export function vapourPressureFromRelativeHumidityHpa(
+  relativeHumidityPct: number,
+  temperatureC: number,
+  pressureHpa: number,
+): number {
+  return (relativeHumidityPct / 100) * enhancementFactor(pressureHpa) * saturationVapourPressureHpa(temperatureC);
+}
+
+/**
+ * Water vapour pressure from the dew point: e = f(p) · e_w(t_d).
+ *
+ * @param dewpointC dew-point temperature [°C]
+ * @param pressureHpa total pressure [hPa]
+ * @returns vapour pressure [hPa]
+ */
+export function vapourPressureFromDewpointHpa(dewpointC: number, pressureHpa: number): number {
+  return enhancementFactor(pressureHpa) * saturationVapourPressureHpa(dewpointC, 'dewpoint_c');
+}
+
+/**
+ * Relative humidity of a vapour pressure at a given temperature and pressure (inverse of
+ * vapourPressureFromRelativeHumidityHpa).
+ *
+ * @returns relative humidity [%]
+ */
+export function relativeHumidityPct(vapourPressureHpa: number, temperatureC: number, pressureHpa: number): number {
+  return (100 * vapourPressureHpa) / (enhancementFactor(pressureHpa) * saturationVapourPressureHpa(temperatureC));
+}

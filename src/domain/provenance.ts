@@ -1,0 +1,36 @@
+/**
+ * Provenance of a result: which models and settings produced it, and a short fingerprint of that
+ * set. Two delays are comparable (homogeneous) only when their fingerprints are equal.
+ *
+ * The fingerprint is the first 16 hex digits of SHA-256 over the canonical JSON of the sorted
+ * entries, prefixed with the scheme version, so it is stable across processes and replicas.
+ */
+
+import { createHash } from 'node:crypto';
+
+export const PROVENANCE_SCHEME = 'tropodelay-models/1';
+
+export type ModelSet = Record<string, string | number | boolean | null>;
+
+export interface Provenance {
+  models: ModelSet;
+  model_fingerprint: string;
+}
+
+export function provenance(models: ModelSet): Provenance {
+  const sorted = Object.fromEntries(Object.entries(models).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)));
+  const fingerprint = createHash('sha256')
+    .update(PROVENANCE_SCHEME + JSON.stringify(sorted))
+    .digest('hex')
+    .slice(0, 16);
+  return { models: sorted, model_fingerprint: fingerprint };
+}
+
+/** Names of the fixed models, as they appear in a result's `models`. */
+export const MODEL_NAMES = {
+  zhd: 'saastamoinen-davis-1985 (IERS 2010 eq. 9.11)',
+  saturation: 'wmo-no8-2008-magnus',
+  standardAtmosphere: 'berg-1948 (T0=18 C, RH0=50 %)',
+  tm: 'bevis-1992',
+  conversion: 'bevis-1994',
+} as const;

@@ -1,0 +1,30 @@
+/**
+ * Conversion of zenith wet delay to precipitable water, PWV = Π · ZWD.
+ *
+ * Bevis, M. et al. (1994), GPS meteorology: mapping zenith wet delays onto precipitable water,
+ * J. Appl. Meteorol. 33, 379–386, eq. 6 (constants from memory, published-constants.md):
+ *
+ *   Π = 10^6 / (ρw Rv (k3/Tm + k2'))       [-]
+ *
+ * with ρw = 1000 kg/m³, Rv = 461.5 J/(kg K), k2' = 22.1 K/hPa = 0.221 K/Pa,
+ * k3 = 3.739e5 K²/hPa = 3739 K²/Pa, Tm [K]. Π ≈ 0.15–0.16 for realistic Tm (1 mm of PWV is about
+ * 6.5 mm of ZWD).
+ *
+ * Valid for Tm 200..330 K.
+ */
+
+import { BEVIS_1994, RHO_WATER_KG_M3, RV_J_PER_KG_K } from '../constants.js';
+
+const K2_PRIME_K_PER_PA = BEVIS_1994.k2prime_K_per_hPa / 100;
+const K3_K2_PER_PA = BEVIS_1994.k3_K2_per_hPa / 100;
+
+/** @param tmK weighted mean temperature [K] @returns Π [-] */
+export function conversionFactor(tmK: number): number {
+  return 1e6 / (RHO_WATER_KG_M3 * RV_J_PER_KG_K * (K3_K2_PER_PA / tmK + K2_PRIME_K_PER_PA));
+}
+
+/** dΠ/dTm [1/K], for propagating an uncertainty of Tm. */
+export function conversionFactorPerKelvin(tmK: number): number {
+  const pi = conversionFactor(tmK);
+  return (pi * pi * RHO_WATER_KG_M3 * RV_J_PER_KG_K * K3_K2_PER_PA) / (1e6 * tmK * tmK);
+}

@@ -1,0 +1,59 @@
+/**
+ * One place maps every error to a problem response: schema violations and model-domain errors to
+ * 4xx naming the field, fastify's own 4xx (bad JSON, wrong content type, body too large) to the
+ * same shape, anything else to a 500 with a generic text and the context in the log.
+ */
+
+import type { FastifyError, FastifyInstance } from 'fastify';
+import fp from 'fastify-plugin';
+import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
+import { ModelDomainError } from '../../domain/errors.js';
+import { HttpProblem, makeProblem, sendProblem, type FieldError } from '../problem.js';
+
+function fieldFromPath(instancePath: string, context: string | undefined): string {
+  const path = instancePath.replace(/^\//, '').split('/').filter(Boolean).join('.');
+  const where = context === 'body' || context === undefined ? '' : context === 'querystring' ? 'query' : context;
+  return [where, path].filter(Boolean).join('.') || (where || 'body');
+}
+
+async function errorHandler(app: FastifyInstance): Promise<void> {
+  app.setErrorHandler((error: FastifyError, request, reply) => {
+    if (hasZodFastifySchemaValidationErrors(error)) {
+      const errors: FieldError[] = error.validation.map((v) => ({
+        field: fieldFromPath(v.instancePath, error.validationContext),
+        message: v.message ?? 'invalid value',
+      }));
+      const first = errors[0]!;
+      const more = errors.length > 1 ? ` (and ${errors.length - 1} more)` : '';
+      return sendProblem(reply, makeProblem(400, `${first.field}: ${first.message}${more}`, errors, request.url));
+    }
+    if (error instanceof ModelDomainError) {
+      return sendProblem(
+        reply,
+        makeProblem(error.status, `${error.field}: ${error.message}`, [{ field: error.field, message: error.message }], request.url),
+      );
+    }
+    if (error instanceof HttpProblem) {
+      for (const [k, v] of Object.entries(error.headers ?? {})) reply.header(k, v);
+      return sendProblem(reply, makeProblem(error.status, error.message, error.errors, request.url));
+    }
+    const status = error.statusCode ?? 500;
+    if (status >= 400 && status < 500) {
+      const detail =
+        error.code === 'FST_ERR_CTP_BODY_TOO_LARGE'
+          ? `request body is larger than this route accepts (${request.routeOptions.bodyLimit ?? app.initialConfig.bodyLimit} bytes)`
+          : error.code === 'FST_ERR_CTP_INVALID_MEDIA_TYPE'
+            ? `content type ${request.headers['content-type'] ?? '(none)'} is not accepted here; send application/json`
+            : error.message;
+      return sendProblem(reply, makeProblem(status, detail, undefined, request.url));
+    }
+    request.log.error({ err: error, route: request.routeOptions.url }, 'request failed');
+    return sendProblem(reply, makeProblem(500, 'internal error; the request id is in the x-request-id header', undefined, request.url));
+  });
+
+  app.setNotFoundHandler((request, reply) =>
+    sendProblem(reply, makeProblem(404, `no route ${request.method} ${request.url.split('?')[0]}`, undefined, request.url)),
+  );
+}
+
+export default fp(errorHandler, { name: 'error-handler' });

@@ -1,0 +1,35 @@
+/**
+ * OpenAPI 3.1 document generated from the routes' zod schemas, served at GET /openapi.json, with
+ * interactive documentation at /docs.
+ */
+
+import swagger from '@fastify/swagger';
+import swaggerUi from '@fastify/swagger-ui';
+import type { FastifyInstance } from 'fastify';
+import fp from 'fastify-plugin';
+import { jsonSchemaTransform } from 'fastify-type-provider-zod';
+import { SERVICE_VERSION } from '../../version.js';
+
+async function openapi(app: FastifyInstance): Promise<void> {
+  await app.register(swagger, {
+    openapi: {
+      openapi: '3.1.0',
+      info: {
+        title: 'tropodelay',
+        version: SERVICE_VERSION,
+        description:
+          'Tropospheric delay modelling: a-priori zenith and slant delays, mapping functions, zenith wet delay estimation and precipitable water. Errors are RFC 9457 problem details (application/problem+json) that name the offending field and its allowed range. Not certified for safety-of-life use.',
+      },
+      tags: [
+        { name: 'a-priori delays', description: 'Zenith delays, mapping factors and slant delays from models' },
+        { name: 'water vapour', description: 'Precipitable water vapour' },
+        { name: 'operations', description: 'Health and service documents' },
+      ],
+    },
+    transform: jsonSchemaTransform,
+  });
+  await app.register(swaggerUi, { routePrefix: '/docs' });
+  app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
+}
+
+export default fp(openapi, { name: 'openapi' });

@@ -1,0 +1,69 @@
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { DEG } from '../../domain/constants.js';
+import { MODEL_NAMES, provenance } from '../../domain/provenance.js';
+import { precipitableWater } from '../../domain/water-vapour/precipitable-water.js';
+import { problemSchema } from '../schemas/common.js';
+import { precipitableWaterRequest, precipitableWaterResponse } from '../schemas/precipitable-water.js';
+import { BATCH_BODY_LIMIT_BYTES } from './mapping-factors.js';
+import { canonicalEpoch } from './shared.js';
+
+const precipitableWaterRoute: FastifyPluginAsyncZod = async (app) => {
+  app.post(
+    '/v1/precipitable-water',
+    {
+      bodyLimit: BATCH_BODY_LIMIT_BYTES,
+      schema: {
+        summary: 'Precipitable water vapour from zenith delays and surface met',
+        description: `PWV = Π(Tm) · ZWD with Π from Bevis et al. (1994) and Tm from Bevis et al. (1992) or the caller. ZWD = ZTD − ZHD(P) when a total delay is given, which then needs the measured pressure (never defaulted). σ_PWV propagates ztd_sigma_m, pressure_sigma_hpa and the Tm uncertainty (4.74 K for the Bevis regression). Body limit: ${BATCH_BODY_LIMIT_BYTES} bytes (32 MiB).`,
+        tags: ['water vapour'],
+        body: precipitableWaterRequest,
+        response: { 200: precipitableWaterResponse, 400: problemSchema, 413: problemSchema },
+      },
+    },
+    async (request) => {
+      const { site, records } = request.body;
+      const latRad = site.latitude_deg * DEG;
+      const warnings: string[] = [];
+      let tmFromCaller = 0;
+      const out = records.map((r, i) => {
+        const res = precipitableWater(
+          {
+            ztdM: r.ztd_m,
+            zwdM: r.zwd_m,
+            ztdSigmaM: r.ztd_sigma_m,
+            zwdSigmaM: r.zwd_sigma_m,
+            pressureHpa: r.pressure_hpa,
+            pressureSigmaHpa: r.pressure_sigma_hpa,
+            temperatureC: r.temperature_c,
+            tmK: r.tm_k,
+            tmSigmaK: r.tm_sigma_k,
+          },
+          latRad,
+          site.height_m,
+          `records.${i}`,
+        );
+        if (r.tm_k !== undefined) tmFromCaller++;
+        warnings.push(...res.warnings);
+        return {
+          epoch: canonicalEpoch(r.epoch),
+          zhd_m: res.zhdM,
+          zwd_m: res.zwdM,
+          zwd_sigma_m: res.zwdSigmaM,
+          tm_k: res.tmK,
+          tm_sigma_k: res.tmSigmaK,
+          conversion_factor: res.conversionFactor,
+          pwv_mm: res.pwvMm,
+          pwv_sigma_mm: res.pwvSigmaMm,
+        };
+      });
+      const tm = tmFromCaller === 0 ? MODEL_NAMES.tm : tmFromCaller === records.length ? 'caller' : `${MODEL_NAMES.tm} and caller (mixed)`;
+      return {
+        records: out,
+        ...provenance({ zhd: MODEL_NAMES.zhd, tm, conversion: MODEL_NAMES.conversion }),
+        warnings,
+      };
+    },
+  );
+};
+
+export default precipitableWaterRoute;

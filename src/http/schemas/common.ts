@@ -1,0 +1,131 @@
+/**
+ * Building blocks of the request and response schemas. Every number carries its unit and its
+ * allowed range in the description (and so in the OpenAPI document), and every range violation
+ * produces a message that names the range.
+ */
+
+import { z } from 'zod';
+import { MAPPING_MODEL_KEYS } from '../../domain/mapping/registry.js';
+import { GRADIENT_MODEL_KEYS } from '../../domain/gradients/gradient-mapping.js';
+import { WET_MODEL_KEYS } from '../../domain/zenith/wet.js';
+
+interface RangeOptions {
+  /** The lower bound itself is not allowed, e.g. elevation (0, 90]. */
+  exclusiveMin?: boolean;
+}
+
+/** A finite number in [min, max] (or (min, max]) with its unit, for request fields. */
+export function bounded(min: number, max: number, unit: string, description: string, options: RangeOptions = {}) {
+  const range = `${options.exclusiveMin ? '(' : '['}${min}, ${max}] ${unit}`.trim();
+  const message = `must be a number in ${range}`;
+  const lower = options.exclusiveMin
+    ? z.number({ error: message }).gt(min, { error: message })
+    : z.number({ error: message }).gte(min, { error: message });
+  return lower.lte(max, { error: message }).describe(`${description} [${unit}], ${range}`);
+}
+
+/** A finite number > 0 (sigmas, intervals). */
+export function positive(unit: string, description: string, max = Number.MAX_VALUE) {
+  const message = max === Number.MAX_VALUE ? `must be a number > 0 ${unit}` : `must be a number in (0, ${max}] ${unit}`;
+  return z
+    .number({ error: message })
+    .gt(0, { error: message })
+    .lte(max, { error: message })
+    .describe(`${description} [${unit}], > 0${max === Number.MAX_VALUE ? '' : `, at most ${max}`}`);
+}
+
+/** Site ranges (issue 2): |latitude| ≤ 90, longitude −180..360, height −500..9000 m. */
+export const SITE_RANGES = {
+  latitude: [-90, 90],
+  longitude: [-180, 360],
+  height: [-500, 9000],
+} as const;
+
+export const siteSchema = z
+  .object({
+    latitude_deg: bounded(-90, 90, 'deg', 'Geodetic latitude'),
+    longitude_deg: bounded(-180, 360, 'deg', 'Longitude, east positive'),
+    height_m: bounded(-500, 9000, 'm', 'Height above the WGS84 ellipsoid'),
+  })
+  .describe('Site: geodetic coordinates on WGS84');
+
+const ISO_MESSAGE = 'must be an ISO 8601 date-time in UTC, e.g. 2026-03-14T12:00:00Z';
+export const epochSchema = z
+  .iso.datetime({ offset: true, error: ISO_MESSAGE })
+  .describe('Epoch, ISO 8601 date-time (UTC, e.g. 2026-03-14T12:00:00Z; an offset is converted to UTC)');
+
+export const pressureHpa = (description = 'Surface pressure') => bounded(300, 1100, 'hPa', description);
+export const temperatureC = (description = 'Air temperature') => bounded(-90, 60, '°C', description);
+export const relativeHumidityPct = () => bounded(0, 100, '%', 'Relative humidity with respect to water');
+export const dewpointC = () => bounded(-90, 60, '°C', 'Dew-point temperature');
+export const vapourPressureHpa = () => bounded(0, 200, 'hPa', 'Water vapour pressure');
+export const zwdM = (description = 'Zenith wet delay') => bounded(0, 1, 'm', description);
+export const ztdM = (description = 'Zenith total delay') => bounded(1, 3, 'm', description);
+export const zhdM = (description = 'Zenith hydrostatic delay') => bounded(1, 3, 'm', description);
+export const gradientM = (description: string) => bounded(-0.05, 0.05, 'm', description);
+export const elevationDeg = () =>
+  bounded(0, 90, 'deg', 'Vacuum (geometric) elevation angle; below 3° the answer carries a warning', { exclusiveMin: true });
+export const azimuthDeg = () => bounded(0, 360, 'deg', 'Azimuth from north through east');
+
+function keyEnum<K extends string>(keys: readonly [K, ...K[]], what: string) {
+  return z.enum(keys, { error: `must be one of: ${keys.join(', ')}` }).describe(`${what}; one of ${keys.join(', ')}`);
+}
+
+export const mappingModelSchema = keyEnum(MAPPING_MODEL_KEYS, 'Mapping function');
+export const wetModelSchema = keyEnum(WET_MODEL_KEYS, 'Zenith wet delay model');
+export const gradientModelSchema = keyEnum(GRADIENT_MODEL_KEYS, 'Gradient mapping function');
+
+export const vmf1CoefficientsSchema = z
+  .object({
+    ah: bounded(0.0005, 0.002, '', 'VMF1 hydrostatic a coefficient'),
+    aw: bounded(0, 0.001, '', 'VMF1 wet a coefficient'),
+  })
+  .describe('Coefficients for model "vmf1", from the VMF1 grids or site files for the epoch');
+
+/** Met at a site, partial allowed; at most one humidity quantity. */
+export const metSchema = z
+  .object({
+    pressure_hpa: pressureHpa().optional(),
+    temperature_c: temperatureC().optional(),
+    relative_humidity_pct: relativeHumidityPct().optional(),
+    dewpoint_c: dewpointC().optional(),
+    vapour_pressure_hpa: vapourPressureHpa().optional(),
+    height_m: bounded(-500, 9000, 'm', 'Height of the met sensor (same datum as the site); absent = at the site height').optional(),
+  })
+  .superRefine((met, ctx) => {
+    const given = (['relative_humidity_pct', 'dewpoint_c', 'vapour_pressure_hpa'] as const).filter((k) => met[k] !== undefined);
+    if (given.length > 1) {
+      ctx.addIssue({
+        code: 'custom',
+        path: [given[1]!],
+        message: `give at most one of relative_humidity_pct, dewpoint_c, vapour_pressure_hpa (got ${given.join(' and ')})`,
+      });
+    }
+  })
+  .describe('Surface met. Missing values come from the standard atmosphere at the site height (and the response says so)');
+
+export const metSourceSchema = z.enum(['measured', 'reduced', 'standard-atmosphere']);
+
+export const modelsSchema = z
+  .record(z.string(), z.union([z.string(), z.number(), z.boolean(), z.null()]))
+  .describe('The models and settings that produced this result');
+
+export const provenanceFields = {
+  models: modelsSchema,
+  model_fingerprint: z.string().describe('Short hash of `models`: results are homogeneous only when it is equal'),
+  warnings: z.array(z.string()).describe('Values defaulted or extrapolated, elevations below 3°, and similar'),
+};
+
+export const problemSchema = z
+  .object({
+    type: z.string(),
+    title: z.string(),
+    status: z.number().int(),
+    detail: z.string(),
+    instance: z.string().optional(),
+    errors: z
+      .array(z.object({ field: z.string(), message: z.string() }))
+      .optional()
+      .describe('One entry per offending field, with its allowed range'),
+  })
+  .describe('RFC 9457 problem details (application/problem+json)');

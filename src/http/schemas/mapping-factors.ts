@@ -1,0 +1,47 @@
+import { z } from 'zod';
+import {
+  elevationDeg,
+  epochSchema,
+  gradientModelSchema,
+  mappingModelSchema,
+  provenanceFields,
+  siteSchema,
+  vmf1CoefficientsSchema,
+} from './common.js';
+
+export const MAX_BATCH = 100_000;
+
+/** coefficients are needed by, and only by, models that require them. */
+export function checkCoefficients(
+  value: { model: string; coefficients?: unknown },
+  ctx: z.RefinementCtx,
+  requiresCoefficients: (model: string) => boolean,
+): void {
+  if (requiresCoefficients(value.model) && value.coefficients === undefined) {
+    ctx.addIssue({ code: 'custom', path: ['coefficients'], message: `model "${value.model}" needs coefficients {ah, aw}` });
+  }
+  if (!requiresCoefficients(value.model) && value.coefficients !== undefined) {
+    ctx.addIssue({ code: 'custom', path: ['coefficients'], message: `model "${value.model}" takes no coefficients; they are for vmf1` });
+  }
+}
+
+export const mappingFactorsRequest = z.object({
+  site: siteSchema,
+  epoch: epochSchema,
+  elevations_deg: z
+    .array(elevationDeg(), { error: 'must be an array of elevations in (0, 90] deg' })
+    .min(1, { error: `must hold 1..${MAX_BATCH} elevations` })
+    .max(MAX_BATCH, { error: `must hold 1..${MAX_BATCH} elevations` })
+    .describe(`Vacuum elevations [deg], (0, 90], 1..${MAX_BATCH} of them`),
+  model: mappingModelSchema.default('niell'),
+  coefficients: vmf1CoefficientsSchema.optional(),
+  gradient_model: gradientModelSchema.default('chen-herring'),
+});
+
+export const mappingFactorsResponse = z.object({
+  model: z.string(),
+  hydrostatic: z.array(z.number()).describe('Hydrostatic mapping factors [-], in the order of elevations_deg'),
+  wet: z.array(z.number()).describe('Wet mapping factors [-]'),
+  gradient: z.array(z.number()).describe('Gradient mapping factors [-]'),
+  ...provenanceFields,
+});

@@ -1,0 +1,91 @@
+import { z } from 'zod';
+import {
+  azimuthDeg,
+  bounded,
+  elevationDeg,
+  epochSchema,
+  gradientM,
+  gradientModelSchema,
+  mappingModelSchema,
+  metSchema,
+  provenanceFields,
+  siteSchema,
+  vmf1CoefficientsSchema,
+  wetModelSchema,
+  zhdM,
+  zwdM,
+} from './common.js';
+import { MAX_BATCH } from './mapping-factors.js';
+import { metUsedSchema } from './zenith-delays.js';
+
+const ecef = (axis: string) => bounded(-1e8, 1e8, 'm', `Satellite ${axis} coordinate, ECEF WGS84`);
+
+export const slantDelaysRequest = z
+  .object({
+    site: siteSchema,
+    epoch: epochSchema,
+    met: metSchema.optional(),
+    wet_model: wetModelSchema.default('saastamoinen'),
+    model: mappingModelSchema.default('niell'),
+    coefficients: vmf1CoefficientsSchema.optional(),
+    gradient_model: gradientModelSchema.default('chen-herring'),
+    zenith: z
+      .object({
+        zhd_m: zhdM().optional(),
+        zwd_m: zwdM().optional(),
+        north_gradient_m: gradientM('North gradient G_N').optional(),
+        east_gradient_m: gradientM('East gradient G_E').optional(),
+      })
+      .optional()
+      .describe('Zenith values to map; what is missing comes from met or the standard atmosphere (gradients: 0)'),
+    directions: z
+      .array(z.object({ elevation_deg: elevationDeg(), azimuth_deg: azimuthDeg() }))
+      .min(1, { error: `must hold 1..${MAX_BATCH} directions` })
+      .max(MAX_BATCH, { error: `must hold 1..${MAX_BATCH} directions` })
+      .optional()
+      .describe(`Directions, 1..${MAX_BATCH}; give either directions or satellites`),
+    satellites: z
+      .array(z.object({ id: z.string().min(1).max(32), x_m: ecef('X'), y_m: ecef('Y'), z_m: ecef('Z') }))
+      .min(1, { error: `must hold 1..${MAX_BATCH} satellites` })
+      .max(MAX_BATCH, { error: `must hold 1..${MAX_BATCH} satellites` })
+      .optional()
+      .describe('Satellite positions, ECEF WGS84 [m]; elevation and azimuth are computed from the site'),
+  })
+  .superRefine((body, ctx) => {
+    const n = Number(body.directions !== undefined) + Number(body.satellites !== undefined);
+    if (n !== 1) {
+      ctx.addIssue({ code: 'custom', path: ['directions'], message: 'give exactly one of directions or satellites' });
+    }
+  });
+
+export const slantSchema = z.object({
+  elevation_deg: z.number(),
+  azimuth_deg: z.number(),
+  satellite: z.string().optional(),
+  nadir_deg: z.number().optional().describe('Nadir angle at the satellite [deg] (satellites only)'),
+  mapping_hydrostatic: z.number(),
+  mapping_wet: z.number(),
+  mapping_gradient: z.number(),
+  hydrostatic_m: z.number(),
+  wet_m: z.number(),
+  gradient_m: z.number(),
+  total_m: z.number(),
+});
+
+export const slantDelaysResponse = z.object({
+  zenith: z.object({
+    zhd_m: z.number(),
+    zwd_m: z.number(),
+    ztd_m: z.number(),
+    north_gradient_m: z.number(),
+    east_gradient_m: z.number(),
+    source: z.object({
+      zhd: z.enum(['caller', 'met']),
+      zwd: z.enum(['caller', 'met']),
+      gradients: z.enum(['caller', 'none']),
+    }),
+  }),
+  met_used: metUsedSchema.optional(),
+  slants: z.array(slantSchema),
+  ...provenanceFields,
+});
