@@ -27,6 +27,8 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     ajv: undefined,
   }).withTypeProvider<ZodTypeProvider>();
 
+  // Tables (CSV) and RINEX meteorological files arrive as text; routes that take them parse them.
+  app.addContentTypeParser(['text/csv', 'text/plain'], { parseAs: 'string' }, (_request, body, done) => done(null, body));
   app.setValidatorCompiler(validatorCompiler);
   app.setSerializerCompiler(serializerCompiler);
   app.addHook('onSend', async (request, reply) => {
