@@ -1,0 +1,91 @@
+/**
+ * Versioned schema migrations, shared by both backends. Each is applied once, in order, inside a
+ * transaction, and recorded in schema_migrations (version, name, applied_at). Never edit a
+ * migration that has shipped: add the next version.
+ *
+ * The SQL is written in the subset SQLite and PostgreSQL share (TEXT, BIGINT, DOUBLE PRECISION,
+ * composite primary keys, ON DELETE CASCADE); a migration that needs dialect-specific SQL gives
+ * `sqlite` and `postgres` separately.
+ *
+ * Time series are keyed by (station_id, epoch_ms, source). The primary key's index serves the
+ * "one station, a time range" reads (station_id equality, then an epoch_ms range).
+ */
+
+export interface Migration {
+  version: number;
+  name: string;
+  sql: string | { sqlite: string; postgres: string };
+}
+
+export const MIGRATIONS: readonly Migration[] = [
+  {
+    version: 1,
+    name: 'stations, met series, model sets and delay series',
+    sql: `
+CREATE TABLE stations (
+  station_id     TEXT PRIMARY KEY,
+  name           TEXT NOT NULL,
+  latitude_deg   DOUBLE PRECISION NOT NULL,
+  longitude_deg  DOUBLE PRECISION NOT NULL,
+  height_m       DOUBLE PRECISION NOT NULL,
+  met_height_m   DOUBLE PRECISION,
+  description    TEXT,
+  created_at     TEXT NOT NULL,
+  updated_at     TEXT NOT NULL
+);
+
+CREATE TABLE met_records (
+  station_id             TEXT NOT NULL REFERENCES stations (station_id) ON DELETE CASCADE,
+  epoch_ms               BIGINT NOT NULL,
+  source                 TEXT NOT NULL,
+  pressure_hpa           DOUBLE PRECISION,
+  temperature_c          DOUBLE PRECISION,
+  relative_humidity_pct  DOUBLE PRECISION,
+  dewpoint_c             DOUBLE PRECISION,
+  vapour_pressure_hpa    DOUBLE PRECISION,
+  PRIMARY KEY (station_id, epoch_ms, source)
+);
+
+CREATE TABLE model_sets (
+  model_fingerprint  TEXT PRIMARY KEY,
+  models_json        TEXT NOT NULL
+);
+
+CREATE TABLE delay_records (
+  station_id              TEXT NOT NULL REFERENCES stations (station_id) ON DELETE CASCADE,
+  epoch_ms                BIGINT NOT NULL,
+  source                  TEXT NOT NULL,
+  ztd_m                   DOUBLE PRECISION NOT NULL,
+  ztd_sigma_m             DOUBLE PRECISION,
+  zwd_m                   DOUBLE PRECISION,
+  zwd_sigma_m             DOUBLE PRECISION,
+  north_gradient_m        DOUBLE PRECISION,
+  east_gradient_m         DOUBLE PRECISION,
+  north_gradient_sigma_m  DOUBLE PRECISION,
+  east_gradient_sigma_m   DOUBLE PRECISION,
+  model_fingerprint       TEXT NOT NULL REFERENCES model_sets (model_fingerprint),
+  PRIMARY KEY (station_id, epoch_ms, source)
+);
+
+CREATE INDEX delay_records_fingerprint ON delay_records (model_fingerprint);
+`,
+  },
+];
+
+export function migrationSql(m: Migration, dialect: 'sqlite' | 'postgres'): string {
+  return typeof m.sql === 'string' ? m.sql : m.sql[dialect];
+}
+
+/** Columns of the series tables, in the order the repositories bind them. */
+export const MET_VALUE_COLUMNS = ['pressure_hpa', 'temperature_c', 'relative_humidity_pct', 'dewpoint_c', 'vapour_pressure_hpa'] as const;
+export const DELAY_VALUE_COLUMNS = [
+  'ztd_m',
+  'ztd_sigma_m',
+  'zwd_m',
+  'zwd_sigma_m',
+  'north_gradient_m',
+  'east_gradient_m',
+  'north_gradient_sigma_m',
+  'east_gradient_sigma_m',
+  'model_fingerprint',
+] as const;

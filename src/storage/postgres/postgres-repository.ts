@@ -1,0 +1,285 @@
+/**
+ * PostgreSQL backend (pg Pool), chosen when DATABASE_URL is set. The tables live in one schema
+ * (TROPO_PG_SCHEMA, default public), created and migrated on start under a session advisory lock,
+ * so replicas that start at the same moment migrate one after the other and none sees a half-made
+ * schema. Bulk writes bind whole columns as arrays (unnest) in chunks, all in one transaction.
+ *
+ * Only bound parameters reach SQL; the schema name is checked against a strict identifier pattern
+ * (config.ts) and quoted.
+ */
+
+import pg from 'pg';
+import { MIGRATIONS, migrationSql } from '../migrations.js';
+import type { DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, TimeRange, WriteCounts } from '../repository.js';
+import { UnknownStationError } from '../repository.js';
+import { DELAY_SELECT, MET_SELECT, toDelayRow, toMetRow, toStation, type DelayDbRow, type MetDbRow, type StationDbRow } from '../rows.js';
+
+/** Key of the advisory lock that serialises migrations (an arbitrary constant of this service). */
+export const MIGRATION_LOCK_KEY = 7_421_903_311;
+/** Rows bound per statement in bulk writes. */
+const CHUNK_ROWS = 10_000;
+const SCHEMA_PATTERN = /^[a-z_][a-z0-9_]{0,62}$/;
+
+export interface PostgresOptions {
+  connectionString: string;
+  schema?: string;
+  /** Pool size (default 10). */
+  max?: number;
+}
+
+function quoteIdent(name: string): string {
+  if (!SCHEMA_PATTERN.test(name)) throw new Error(`invalid schema name ${JSON.stringify(name)}`);
+  return `"${name}"`;
+}
+
+/** Applies the pending migrations under the advisory lock; returns the versions it applied. */
+export async function migratePostgres(pool: pg.Pool, schema: string): Promise<number[]> {
+  const client = await pool.connect();
+  const applied: number[] = [];
+  try {
+    await client.query('SELECT pg_advisory_lock($1)', [MIGRATION_LOCK_KEY]);
+    try {
+      await client.query(`CREATE SCHEMA IF NOT EXISTS ${quoteIdent(schema)}`);
+      await client.query(`SET search_path TO ${quoteIdent(schema)}`);
+      await client.query(
+        'CREATE TABLE IF NOT EXISTS schema_migrations (version INTEGER PRIMARY KEY, name TEXT NOT NULL, applied_at TEXT NOT NULL)',
+      );
+      const done = new Set((await client.query<{ version: number }>('SELECT version FROM schema_migrations')).rows.map((r) => r.version));
+      for (const m of MIGRATIONS) {
+        if (done.has(m.version)) continue;
+        await client.query('BEGIN');
+        try {
+          await client.query(migrationSql(m, 'postgres'));
+          await client.query('INSERT INTO schema_migrations (version, name, applied_at) VALUES ($1, $2, $3)', [
+            m.version,
+            m.name,
+            new Date().toISOString(),
+          ]);
+          await client.query('COMMIT');
+        } catch (err) {
+          await client.query('ROLLBACK');
+          throw err;
+        }
+        applied.push(m.version);
+      }
+    } finally {
+      await client.query('SELECT pg_advisory_unlock($1)', [MIGRATION_LOCK_KEY]);
+      await client.query('RESET search_path');
+    }
+  } finally {
+    client.release();
+  }
+  return applied;
+}
+
+export class PostgresRepository implements Repository {
+  readonly backend = 'postgres' as const;
+  readonly schema: string;
+  private readonly pool: pg.Pool;
+
+  private constructor(pool: pg.Pool, schema: string) {
+    this.pool = pool;
+    this.schema = schema;
+  }
+
+  /** Connects, migrates and returns a ready repository. */
+  static async open(options: PostgresOptions): Promise<PostgresRepository> {
+    const schema = options.schema ?? 'public';
+    quoteIdent(schema);
+    const pool = new pg.Pool({
+      connectionString: options.connectionString,
+      max: options.max ?? 10,
+      // Every connection resolves the archive's table names in its schema.
+      options: `-c search_path=${schema}`,
+    });
+    pool.on('error', () => {
+      // An idle client lost its connection; the pool replaces it. Queries in flight get their own error.
+    });
+    try {
+      await migratePostgres(pool, schema);
+    } catch (err) {
+      await pool.end();
+      throw err;
+    }
+    return new PostgresRepository(pool, schema);
+  }
+
+  private async transaction<T>(work: (client: pg.PoolClient) => Promise<T>): Promise<T> {
+    const client = await this.pool.connect();
+    try {
+      await client.query('BEGIN');
+      const result = await work(client);
+      await client.query('COMMIT');
+      return result;
+    } catch (err) {
+      await client.query('ROLLBACK').catch(() => undefined);
+      throw err;
+    } finally {
+      client.release();
+    }
+  }
+
+  async putStation(stationId: string, s: StationInput): Promise<{ station: Station; created: boolean }> {
+    const now = new Date().toISOString();
+    const result = await this.pool.query<StationDbRow & { inserted: boolean }>(
+      `INSERT INTO stations (station_id, name, latitude_deg, longitude_deg, height_m, met_height_m, description, created_at, updated_at)
+       VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $8)
+       ON CONFLICT (station_id) DO UPDATE SET name = EXCLUDED.name, latitude_deg = EXCLUDED.latitude_deg,
+         longitude_deg = EXCLUDED.longitude_deg, height_m = EXCLUDED.height_m, met_height_m = EXCLUDED.met_height_m,
+         description = EXCLUDED.description, updated_at = EXCLUDED.updated_at
+       RETURNING *, (xmax = 0) AS inserted`,
+      [stationId, s.name, s.latitudeDeg, s.longitudeDeg, s.heightM, s.metHeightM, s.description, now],
+    );
+    const row = result.rows[0]!;
+    return { station: toStation(row), created: row.inserted };
+  }
+
+  async getStation(stationId: string): Promise<Station | null> {
+    const result = await this.pool.query<StationDbRow>('SELECT * FROM stations WHERE station_id = $1', [stationId]);
+    return result.rows[0] ? toStation(result.rows[0]) : null;
+  }
+
+  async listStations(): Promise<Station[]> {
+    return (await this.pool.query<StationDbRow>('SELECT * FROM stations ORDER BY station_id')).rows.map(toStation);
+  }
+
+  async deleteStation(stationId: string): Promise<boolean> {
+    const result = await this.pool.query('DELETE FROM stations WHERE station_id = $1', [stationId]);
+    return (result.rowCount ?? 0) > 0;
+  }
+
+  private async lockStation(client: pg.PoolClient, stationId: string): Promise<void> {
+    // FOR SHARE: the station cannot be deleted while its series is being written.
+    const found = await client.query('SELECT 1 FROM stations WHERE station_id = $1 FOR SHARE', [stationId]);
+    if (found.rowCount === 0) throw new UnknownStationError(stationId);
+  }
+
+  async writeMet(stationId: string, rows: readonly MetRow[]): Promise<WriteCounts> {
+    return this.transaction(async (client) => {
+      await this.lockStation(client, stationId);
+      let returned = 0;
+      let inserted = 0;
+      for (let start = 0; start < rows.length; start += CHUNK_ROWS) {
+        const chunk = rows.slice(start, start + CHUNK_ROWS);
+        const result = await client.query<{ inserted: boolean }>(
+          `INSERT INTO met_records (station_id, epoch_ms, source, pressure_hpa, temperature_c, relative_humidity_pct, dewpoint_c, vapour_pressure_hpa)
+           SELECT $1, * FROM unnest($2::bigint[], $3::text[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::float8[])
+           ON CONFLICT (station_id, epoch_ms, source) DO UPDATE SET
+             pressure_hpa = EXCLUDED.pressure_hpa, temperature_c = EXCLUDED.temperature_c,
+             relative_humidity_pct = EXCLUDED.relative_humidity_pct, dewpoint_c = EXCLUDED.dewpoint_c,
+             vapour_pressure_hpa = EXCLUDED.vapour_pressure_hpa
+           WHERE (met_records.pressure_hpa, met_records.temperature_c, met_records.relative_humidity_pct, met_records.dewpoint_c, met_records.vapour_pressure_hpa)
+             IS DISTINCT FROM (EXCLUDED.pressure_hpa, EXCLUDED.temperature_c, EXCLUDED.relative_humidity_pct, EXCLUDED.dewpoint_c, EXCLUDED.vapour_pressure_hpa)
+           RETURNING (xmax = 0) AS inserted`,
+          [
+            stationId,
+            chunk.map((r) => r.epochMs),
+            chunk.map((r) => r.source),
+            chunk.map((r) => r.pressureHpa),
+            chunk.map((r) => r.temperatureC),
+            chunk.map((r) => r.relativeHumidityPct),
+            chunk.map((r) => r.dewpointC),
+            chunk.map((r) => r.vapourPressureHpa),
+          ],
+        );
+        returned += result.rows.length;
+        for (const r of result.rows) if (r.inserted) inserted++;
+      }
+      return { inserted, updated: returned - inserted, unchanged: rows.length - returned };
+    });
+  }
+
+  async readMet(stationId: string, range: TimeRange, source?: string): Promise<MetRow[]> {
+    const result =
+      source === undefined
+        ? await this.pool.query<MetDbRow>(
+            `SELECT ${MET_SELECT} FROM met_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 ORDER BY epoch_ms, source`,
+            [stationId, range.fromMs, range.toMs],
+          )
+        : await this.pool.query<MetDbRow>(
+            `SELECT ${MET_SELECT} FROM met_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 AND source = $4 ORDER BY epoch_ms, source`,
+            [stationId, range.fromMs, range.toMs, source],
+          );
+    return result.rows.map(toMetRow);
+  }
+
+  async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts> {
+    for (const r of rows) if (r.modelFingerprint !== modelSet.modelFingerprint) throw new Error('delay row fingerprint differs from its model set');
+    return this.transaction(async (client) => {
+      await this.lockStation(client, stationId);
+      await client.query('INSERT INTO model_sets (model_fingerprint, models_json) VALUES ($1, $2) ON CONFLICT (model_fingerprint) DO NOTHING', [
+        modelSet.modelFingerprint,
+        JSON.stringify(modelSet.models),
+      ]);
+      let returned = 0;
+      let inserted = 0;
+      const cols = ['ztd_m', 'ztd_sigma_m', 'zwd_m', 'zwd_sigma_m', 'north_gradient_m', 'east_gradient_m', 'north_gradient_sigma_m', 'east_gradient_sigma_m'];
+      const current = cols.map((c) => `delay_records.${c}`).join(', ') + ', delay_records.model_fingerprint';
+      const excluded = cols.map((c) => `EXCLUDED.${c}`).join(', ') + ', EXCLUDED.model_fingerprint';
+      for (let start = 0; start < rows.length; start += CHUNK_ROWS) {
+        const chunk = rows.slice(start, start + CHUNK_ROWS);
+        const result = await client.query<{ inserted: boolean }>(
+          `INSERT INTO delay_records (station_id, epoch_ms, source, ${cols.join(', ')}, model_fingerprint)
+           SELECT $1, e, s, v1, v2, v3, v4, v5, v6, v7, v8, $12
+           FROM unnest($2::bigint[], $3::text[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::float8[], $9::float8[], $10::float8[], $11::float8[])
+             AS t (e, s, v1, v2, v3, v4, v5, v6, v7, v8)
+           ON CONFLICT (station_id, epoch_ms, source) DO UPDATE SET
+             ${cols.map((c) => `${c} = EXCLUDED.${c}`).join(', ')}, model_fingerprint = EXCLUDED.model_fingerprint
+           WHERE (${current}) IS DISTINCT FROM (${excluded})
+           RETURNING (xmax = 0) AS inserted`,
+          [
+            stationId,
+            chunk.map((r) => r.epochMs),
+            chunk.map((r) => r.source),
+            chunk.map((r) => r.ztdM),
+            chunk.map((r) => r.ztdSigmaM),
+            chunk.map((r) => r.zwdM),
+            chunk.map((r) => r.zwdSigmaM),
+            chunk.map((r) => r.northGradientM),
+            chunk.map((r) => r.eastGradientM),
+            chunk.map((r) => r.northGradientSigmaM),
+            chunk.map((r) => r.eastGradientSigmaM),
+            modelSet.modelFingerprint,
+          ],
+        );
+        returned += result.rows.length;
+        for (const r of result.rows) if (r.inserted) inserted++;
+      }
+      return { inserted, updated: returned - inserted, unchanged: rows.length - returned };
+    });
+  }
+
+  async readDelays(stationId: string, range: TimeRange, source?: string): Promise<DelayRow[]> {
+    const result =
+      source === undefined
+        ? await this.pool.query<DelayDbRow>(
+            `SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 ORDER BY epoch_ms, source`,
+            [stationId, range.fromMs, range.toMs],
+          )
+        : await this.pool.query<DelayDbRow>(
+            `SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 AND source = $4 ORDER BY epoch_ms, source`,
+            [stationId, range.fromMs, range.toMs, source],
+          );
+    return result.rows.map(toDelayRow);
+  }
+
+  async readModelSets(fingerprints: readonly string[]): Promise<StoredModelSet[]> {
+    if (fingerprints.length === 0) return [];
+    const result = await this.pool.query<{ model_fingerprint: string; models_json: string }>(
+      'SELECT model_fingerprint, models_json FROM model_sets WHERE model_fingerprint = ANY($1::text[]) ORDER BY model_fingerprint',
+      [fingerprints],
+    );
+    return result.rows.map((r) => ({ modelFingerprint: r.model_fingerprint, models: JSON.parse(r.models_json) }));
+  }
+
+  async latestEpochMs(stationId: string, series: 'met' | 'delays'): Promise<number | null> {
+    const table = series === 'met' ? 'met_records' : 'delay_records';
+    const result = await this.pool.query<{ latest: string | null }>(`SELECT MAX(epoch_ms) AS latest FROM ${table} WHERE station_id = $1`, [stationId]);
+    const latest = result.rows[0]?.latest ?? null;
+    return latest === null ? null : Number(latest);
+  }
+
+  async close(): Promise<void> {
+    await this.pool.end();
+  }
+}

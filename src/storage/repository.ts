@@ -1,0 +1,114 @@
+/**
+ * The station archive's storage interface. Two implementations share it and one contract test
+ * suite (test/storage/repository.contract.ts): SQLite (src/storage/sqlite/, the default) and
+ * PostgreSQL (src/storage/postgres/, when DATABASE_URL is set).
+ *
+ * Epochs cross this interface as milliseconds since 1970-01-01T00:00:00Z (UTC). Series rows are
+ * keyed by (station_id, epoch, source): writing the same key again replaces the values, so re-sending
+ * the same data is idempotent. Every write method runs in one transaction: it is stored whole or not
+ * at all, and is durable when the promise resolves.
+ */
+
+import type { ModelSet } from '../domain/provenance.js';
+
+export interface StationInput {
+  name: string;
+  latitudeDeg: number;
+  longitudeDeg: number;
+  heightM: number;
+  /** Height of the met sensor, same datum as heightM [m]; null = at the antenna height. */
+  metHeightM: number | null;
+  description: string | null;
+}
+
+export interface Station extends StationInput {
+  stationId: string;
+  /** ISO 8601 UTC. */
+  createdAt: string;
+  updatedAt: string;
+}
+
+export interface MetRow {
+  epochMs: number;
+  source: string;
+  pressureHpa: number | null;
+  temperatureC: number | null;
+  relativeHumidityPct: number | null;
+  dewpointC: number | null;
+  vapourPressureHpa: number | null;
+}
+
+export interface DelayRow {
+  epochMs: number;
+  source: string;
+  ztdM: number;
+  ztdSigmaM: number | null;
+  zwdM: number | null;
+  zwdSigmaM: number | null;
+  northGradientM: number | null;
+  eastGradientM: number | null;
+  northGradientSigmaM: number | null;
+  eastGradientSigmaM: number | null;
+  /** Fingerprint of the model set that produced the row (src/domain/provenance.ts). */
+  modelFingerprint: string;
+}
+
+/** A model set as stored once per fingerprint; delay rows refer to it. */
+export interface StoredModelSet {
+  modelFingerprint: string;
+  models: ModelSet;
+}
+
+export interface WriteCounts {
+  /** Keys that did not exist before. */
+  inserted: number;
+  /** Keys that existed with different values, now replaced. */
+  updated: number;
+  /** Keys that existed with the same values (an idempotent re-send). */
+  unchanged: number;
+}
+
+export interface TimeRange {
+  /** Inclusive [ms]. */
+  fromMs: number;
+  /** Inclusive [ms]. */
+  toMs: number;
+}
+
+export interface Repository {
+  readonly backend: 'sqlite' | 'postgres';
+
+  /** Creates or replaces a station; `created` tells which. */
+  putStation(stationId: string, station: StationInput): Promise<{ station: Station; created: boolean }>;
+  getStation(stationId: string): Promise<Station | null>;
+  listStations(): Promise<Station[]>;
+  /** Deletes a station and all its series; false when it did not exist. */
+  deleteStation(stationId: string): Promise<boolean>;
+
+  /** Upserts met rows of one station in one transaction. Keys must be unique within `rows`. */
+  writeMet(stationId: string, rows: readonly MetRow[]): Promise<WriteCounts>;
+  /** Met rows of one station in [fromMs, toMs], ordered by epoch then source. */
+  readMet(stationId: string, range: TimeRange, source?: string): Promise<MetRow[]>;
+
+  /**
+   * Upserts delay rows of one station and their model set in one transaction. Every row's
+   * modelFingerprint must equal modelSet.modelFingerprint. Keys must be unique within `rows`.
+   */
+  writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts>;
+  /** Delay rows of one station in [fromMs, toMs], ordered by epoch then source. */
+  readDelays(stationId: string, range: TimeRange, source?: string): Promise<DelayRow[]>;
+  /** The model sets of the given fingerprints (unknown ones are left out). */
+  readModelSets(fingerprints: readonly string[]): Promise<StoredModelSet[]>;
+
+  /** Latest epoch stored for the station in the series [ms], or null when it is empty. */
+  latestEpochMs(stationId: string, series: 'met' | 'delays'): Promise<number | null>;
+
+  close(): Promise<void>;
+}
+
+/** Raised for a write that names a station that does not exist. */
+export class UnknownStationError extends Error {
+  constructor(readonly stationId: string) {
+    super(`no station ${stationId}`);
+  }
+}

@@ -1,0 +1,229 @@
+/**
+ * The repository contract, run on every backend in BACKENDS (SQLite always; PostgreSQL when
+ * TEST_DATABASE_URL or DATABASE_URL is set, as .ci/run does). The expectations are the contract
+ * written in src/storage/repository.ts and the issue: keys (station, epoch, source), idempotent
+ * re-sends, inclusive ranges, cascade on station deletion, transactions, durability across a reopen.
+ */
+
+import { afterEach, describe, expect, it } from 'vitest';
+import { provenance } from '../../src/domain/provenance.js';
+import { createRepository, type StorageConfig } from '../../src/storage/factory.js';
+import type { DelayRow, MetRow, Repository } from '../../src/storage/repository.js';
+import { UnknownStationError } from '../../src/storage/repository.js';
+import { BACKENDS } from '../helpers/storage.js';
+
+const T0 = Date.UTC(2026, 2, 14, 0, 0, 0);
+const MIN = 60_000;
+
+const STATION = {
+  name: 'Quillmarsh Ridge (invented)',
+  latitudeDeg: 47.25,
+  longitudeDeg: 8.5,
+  heightM: 512.3,
+  metHeightM: 510.1,
+  description: 'synthetic test station',
+};
+
+function met(i: number, source = 'sensor-a', pressureHpa = 950 + i * 0.1): MetRow {
+  return {
+    epochMs: T0 + i * 5 * MIN,
+    source,
+    pressureHpa,
+    temperatureC: 12.5 + 0.01 * i,
+    relativeHumidityPct: i % 2 ? 60 : null,
+    dewpointC: null,
+    vapourPressureHpa: null,
+  };
+}
+
+const MODELS = provenance({ mapping: 'niell', cutoff_deg: 7, random_walk_m_per_sqrt_h: 0.01 });
+const MODEL_SET = { modelFingerprint: MODELS.model_fingerprint, models: MODELS.models };
+
+function delay(i: number, source = 'estimator', fingerprint = MODEL_SET.modelFingerprint): DelayRow {
+  return {
+    epochMs: T0 + i * 5 * MIN,
+    source,
+    ztdM: 2.3 + i * 1e-4,
+    ztdSigmaM: 0.004,
+    zwdM: i % 2 ? 0.12 : null,
+    zwdSigmaM: null,
+    northGradientM: -0.0003,
+    eastGradientM: 0.0001,
+    northGradientSigmaM: null,
+    eastGradientSigmaM: null,
+    modelFingerprint: fingerprint,
+  };
+}
+
+for (const backend of BACKENDS) {
+  describe(`repository contract on ${backend.name} (src/storage/repository.ts)`, () => {
+    const opened: Repository[] = [];
+    const cleanups: (() => Promise<void>)[] = [];
+    afterEach(async () => {
+      for (const r of opened.splice(0)) await r.close();
+      for (const c of cleanups.splice(0)) await c();
+    });
+    async function fresh(): Promise<{ repo: Repository; config: StorageConfig }> {
+      const { config, cleanup } = await backend.fresh();
+      cleanups.push(cleanup);
+      const repo = await createRepository(config);
+      opened.push(repo);
+      return { repo, config };
+    }
+
+    it('creates, replaces, lists and deletes stations', async () => {
+      const { repo } = await fresh();
+      expect(repo.backend).toBe(backend.name);
+      const first = await repo.putStation('QMR-1', STATION);
+      expect(first.created).toBe(true);
+      expect(first.station).toMatchObject({ stationId: 'QMR-1', ...STATION });
+      const second = await repo.putStation('QMR-1', { ...STATION, heightM: 513, description: null });
+      expect(second.created).toBe(false);
+      expect(second.station.heightM).toBe(513);
+      expect(second.station.description).toBeNull();
+      expect(second.station.createdAt).toBe(first.station.createdAt);
+      await repo.putStation('ALD_2', { ...STATION, name: 'Aldervane (invented)', metHeightM: null });
+      expect((await repo.listStations()).map((s) => s.stationId)).toEqual(['ALD_2', 'QMR-1']);
+      expect(await repo.deleteStation('ALD_2')).toBe(true);
+      expect(await repo.deleteStation('ALD_2')).toBe(false);
+      expect(await repo.getStation('ALD_2')).toBeNull();
+    });
+
+    it('stores met rows keyed by (station, epoch, source): a re-send is idempotent, a change is an update', async () => {
+      const { repo } = await fresh();
+      await repo.putStation('QMR-1', STATION);
+      const rows = Array.from({ length: 25 }, (_, i) => met(i));
+      expect(await repo.writeMet('QMR-1', rows)).toEqual({ inserted: 25, updated: 0, unchanged: 0 });
+      expect(await repo.writeMet('QMR-1', rows)).toEqual({ inserted: 0, updated: 0, unchanged: 25 });
+      const changed = [met(3, 'sensor-a', 999.9), met(25), met(3, 'sensor-b')];
+      expect(await repo.writeMet('QMR-1', changed)).toEqual({ inserted: 2, updated: 1, unchanged: 0 });
+      const all = await repo.readMet('QMR-1', { fromMs: T0, toMs: T0 + 200 * MIN });
+      expect(all).toHaveLength(27);
+      expect(all.filter((r) => r.epochMs === T0 + 15 * MIN).map((r) => [r.source, r.pressureHpa])).toEqual([
+        ['sensor-a', 999.9],
+        ['sensor-b', 950.3],
+      ]);
+      // Values come back exactly as stored (IEEE doubles, nulls kept).
+      expect(all[0]).toEqual(met(0));
+      expect(all[1]).toEqual(met(1));
+    });
+
+    it('reads an inclusive time range in epoch order, optionally of one source', async () => {
+      const { repo } = await fresh();
+      await repo.putStation('QMR-1', STATION);
+      await repo.writeMet('QMR-1', [met(4), met(2), met(0), met(1), met(3), met(2, 'sensor-b')]);
+      const range = { fromMs: T0 + 5 * MIN, toMs: T0 + 15 * MIN };
+      expect((await repo.readMet('QMR-1', range)).map((r) => [(r.epochMs - T0) / MIN, r.source])).toEqual([
+        [5, 'sensor-a'],
+        [10, 'sensor-a'],
+        [10, 'sensor-b'],
+        [15, 'sensor-a'],
+      ]);
+      expect((await repo.readMet('QMR-1', range, 'sensor-b')).map((r) => r.source)).toEqual(['sensor-b']);
+      expect(await repo.readMet('OTHER', range)).toEqual([]);
+      expect(await repo.latestEpochMs('QMR-1', 'met')).toBe(T0 + 20 * MIN);
+      expect(await repo.latestEpochMs('QMR-1', 'delays')).toBeNull();
+    });
+
+    it('stores delay rows with their model set; the fingerprint leads back to the models', async () => {
+      const { repo } = await fresh();
+      await repo.putStation('QMR-1', STATION);
+      const rows = Array.from({ length: 12 }, (_, i) => delay(i));
+      expect(await repo.writeDelays('QMR-1', rows, MODEL_SET)).toEqual({ inserted: 12, updated: 0, unchanged: 0 });
+      expect(await repo.writeDelays('QMR-1', rows, MODEL_SET)).toEqual({ inserted: 0, updated: 0, unchanged: 12 });
+      const other = provenance({ source: 'elsewhere' });
+      const otherSet = { modelFingerprint: other.model_fingerprint, models: other.models };
+      expect(await repo.writeDelays('QMR-1', [delay(2, 'estimator', otherSet.modelFingerprint)], otherSet)).toEqual({
+        inserted: 0,
+        updated: 1,
+        unchanged: 0,
+      });
+      const back = await repo.readDelays('QMR-1', { fromMs: T0, toMs: T0 + 11 * 5 * MIN });
+      expect(back).toHaveLength(12);
+      expect(back[0]).toEqual(rows[0]);
+      expect(back[1]).toEqual(rows[1]);
+      expect(back[2]!.modelFingerprint).toBe(otherSet.modelFingerprint);
+      const sets = await repo.readModelSets([MODEL_SET.modelFingerprint, otherSet.modelFingerprint, 'unknown']);
+      expect(sets).toHaveLength(2);
+      expect(sets.find((s) => s.modelFingerprint === MODEL_SET.modelFingerprint)!.models).toEqual(MODELS.models);
+      // Recomputing the fingerprint from the stored models gives the stored fingerprint (src/domain/provenance.ts).
+      for (const s of sets) expect(provenance(s.models).model_fingerprint).toBe(s.modelFingerprint);
+    });
+
+    it('refuses series for an unknown station and stores nothing', async () => {
+      const { repo } = await fresh();
+      await expect(repo.writeMet('NOPE', [met(0)])).rejects.toBeInstanceOf(UnknownStationError);
+      await expect(repo.writeDelays('NOPE', [delay(0)], MODEL_SET)).rejects.toBeInstanceOf(UnknownStationError);
+      expect(await repo.readModelSets([MODEL_SET.modelFingerprint])).toEqual([]);
+    });
+
+    it('a failed bulk write stores none of its rows (one transaction)', async () => {
+      const { repo } = await fresh();
+      await repo.putStation('QMR-1', STATION);
+      const rows = Array.from({ length: 50 }, (_, i) => delay(i));
+      // The 40th row carries a fingerprint that is not its model set's: the write must fail whole.
+      rows[40] = { ...rows[40]!, modelFingerprint: 'ffffffffffffffff' };
+      await expect(repo.writeDelays('QMR-1', rows, MODEL_SET)).rejects.toThrow();
+      expect(await repo.readDelays('QMR-1', { fromMs: 0, toMs: T0 * 2 })).toEqual([]);
+    });
+
+    it('deleting a station deletes its met and delay series', async () => {
+      const { repo } = await fresh();
+      await repo.putStation('QMR-1', STATION);
+      await repo.putStation('KEEP', STATION);
+      await repo.writeMet('QMR-1', [met(0), met(1)]);
+      await repo.writeDelays('QMR-1', [delay(0)], MODEL_SET);
+      await repo.writeMet('KEEP', [met(0)]);
+      expect(await repo.deleteStation('QMR-1')).toBe(true);
+      await repo.putStation('QMR-1', STATION);
+      const all = { fromMs: 0, toMs: T0 * 2 };
+      expect(await repo.readMet('QMR-1', all)).toEqual([]);
+      expect(await repo.readDelays('QMR-1', all)).toEqual([]);
+      expect(await repo.readMet('KEEP', all)).toHaveLength(1);
+    });
+
+    it('keeps everything across a close and reopen of the same storage (restart)', async () => {
+      const { repo, config } = await fresh();
+      await repo.putStation('QMR-1', STATION);
+      await repo.writeMet('QMR-1', Array.from({ length: 100 }, (_, i) => met(i)));
+      await repo.writeDelays('QMR-1', Array.from({ length: 10 }, (_, i) => delay(i)), MODEL_SET);
+      await repo.close();
+      opened.splice(opened.indexOf(repo), 1);
+      const again = await createRepository(config); // migrations are not re-applied
+      opened.push(again);
+      expect(await again.getStation('QMR-1')).toMatchObject(STATION);
+      expect(await again.readMet('QMR-1', { fromMs: 0, toMs: T0 * 2 })).toHaveLength(100);
+      expect(await again.readDelays('QMR-1', { fromMs: 0, toMs: T0 * 2 })).toHaveLength(10);
+    });
+
+    it('bulk-writes 20 000 rows in one call (chunked binding on PostgreSQL)', async () => {
+      const { repo } = await fresh();
+      await repo.putStation('QMR-1', STATION);
+      const rows = Array.from({ length: 20_000 }, (_, i) => met(i));
+      expect(await repo.writeMet('QMR-1', rows)).toEqual({ inserted: 20_000, updated: 0, unchanged: 0 });
+      const back = await repo.readMet('QMR-1', { fromMs: T0, toMs: T0 + 19_999 * 5 * MIN });
+      expect(back).toHaveLength(20_000);
+      expect(back[19_999]).toEqual(rows[19_999]);
+    });
+
+    if (backend.name === 'postgres') {
+      it('two replicas starting at once migrate safely (advisory lock): both open, one schema version', async () => {
+        const { config, cleanup } = await backend.fresh();
+        cleanups.push(cleanup);
+        const [a, b] = await Promise.all([createRepository(config), createRepository(config)]);
+        opened.push(a, b);
+        await a.putStation('QMR-1', STATION);
+        expect((await b.getStation('QMR-1'))!.name).toBe(STATION.name);
+        const pg = await import('pg');
+        const client = new pg.default.Client({ connectionString: config.databaseUrl });
+        await client.connect();
+        try {
+          const versions = await client.query(`SELECT version FROM "${config.pgSchema}".schema_migrations ORDER BY version`);
+          expect(versions.rows.map((r) => r.version)).toEqual([1]);
+        } finally {
+          await client.end();
+        }
+      });
+    }
+  });
+}
