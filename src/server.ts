@@ -3,7 +3,7 @@
  */
 
 import { ConfigError, loadConfig } from './config.js';
-import { buildApp } from './http/app.js';
+import { archiveOptionsFromConfig, buildApp } from './http/app.js';
 
 async function main(): Promise<void> {
   let config;
@@ -16,10 +16,20 @@ async function main(): Promise<void> {
     }
     throw err;
   }
-  const app = await buildApp({ logger: { level: config.LOG_LEVEL } });
+  // Keys never reach the log: the Authorization header is redacted wherever a request is logged.
+  let app;
+  try {
+    app = await buildApp({
+      logger: { level: config.LOG_LEVEL, redact: ['req.headers.authorization', 'headers.authorization'] },
+      archive: archiveOptionsFromConfig(config),
+    });
+  } catch (err) {
+    process.stderr.write(`tropodelay: cannot start: ${(err as Error).message}\n`);
+    process.exit(1);
+  }
   const close = async (signal: string) => {
     app.log.info({ signal }, 'shutting down');
-    await app.close();
+    await app.close(); // closes the repository (storage plugin's onClose)
     process.exit(0);
   };
   process.once('SIGTERM', () => void close('SIGTERM'));

@@ -6,17 +6,58 @@
 import { randomUUID } from 'node:crypto';
 import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastify';
 import { serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
+import { DEFAULT_MAX_READ_RANGE_DAYS, type Config } from '../config.js';
+import type { StorageConfig } from '../storage/factory.js';
+import type { Repository } from '../storage/repository.js';
+import auth from './plugins/auth.js';
 import errorHandler from './plugins/error-handler.js';
+import storage from './plugins/storage.js';
 import openapi from './plugins/openapi.js';
 import healthRoute from './routes/health.js';
 import mappingFactorsRoute from './routes/mapping-factors.js';
 import precipitableWaterRoute from './routes/precipitable-water.js';
 import slantDelaysRoute from './routes/slant-delays.js';
+import stationDelaysRoute from './routes/station-delays.js';
+import stationMetRoute from './routes/station-met.js';
+import stationPwvRoute from './routes/station-precipitable-water.js';
+import stationsRoute from './routes/stations.js';
 import zenithDelaysRoute from './routes/zenith-delays.js';
+
+export interface ArchiveOptions {
+  storage: StorageConfig;
+  /** A repository built elsewhere instead of one from `storage` (closed with the app). */
+  repository?: Repository;
+  /** Bearer keys for writes; empty = the generated key file in keyDir. */
+  apiKeys: readonly string[];
+  /** Where the generated key file lives (the data directory); absent = a throw-away key in memory. */
+  keyDir?: string;
+  readKeysRequired: boolean;
+  maxReadRangeDays: number;
+}
 
 export interface AppOptions {
   logger?: FastifyServerOptions['logger'];
+  /** The station archive; absent = an empty in-memory SQLite archive that nobody can write to. */
+  archive?: ArchiveOptions;
 }
+
+/** Archive options from the validated environment (server.ts). */
+export function archiveOptionsFromConfig(config: Config): ArchiveOptions {
+  return {
+    storage: { dataDir: config.TROPO_DATA_DIR, databaseUrl: config.DATABASE_URL, pgSchema: config.TROPO_PG_SCHEMA },
+    apiKeys: config.TROPO_API_KEYS,
+    keyDir: config.TROPO_DATA_DIR,
+    readKeysRequired: config.TROPO_READ_KEYS_REQUIRED,
+    maxReadRangeDays: config.TROPO_MAX_READ_RANGE_DAYS,
+  };
+}
+
+const IN_MEMORY_ARCHIVE: ArchiveOptions = {
+  storage: { dataDir: ':memory:' },
+  apiKeys: [],
+  readKeysRequired: false,
+  maxReadRangeDays: DEFAULT_MAX_READ_RANGE_DAYS,
+};
 
 export async function buildApp(options: AppOptions = {}): Promise<FastifyInstance> {
   const app = Fastify({
@@ -35,13 +76,25 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     reply.header('x-request-id', request.id);
   });
 
+  const archive = options.archive ?? IN_MEMORY_ARCHIVE;
   await app.register(errorHandler);
   await app.register(openapi);
+  await app.register(storage, { storage: archive.storage, ...(archive.repository ? { repository: archive.repository } : {}) });
+  await app.register(auth, {
+    keys: archive.apiKeys,
+    readKeysRequired: archive.readKeysRequired,
+    ...(archive.keyDir ? { keyDir: archive.keyDir } : {}),
+  });
   await app.register(healthRoute);
   await app.register(zenithDelaysRoute);
   await app.register(mappingFactorsRoute);
   await app.register(slantDelaysRoute);
   await app.register(precipitableWaterRoute);
+  const stationOptions = { maxReadRangeDays: archive.maxReadRangeDays };
+  await app.register(stationsRoute);
+  await app.register(stationMetRoute, stationOptions);
+  await app.register(stationDelaysRoute, stationOptions);
+  await app.register(stationPwvRoute, stationOptions);
   await app.ready();
   return app;
 }

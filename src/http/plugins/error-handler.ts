@@ -8,6 +8,7 @@ import type { FastifyError, FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
 import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
 import { ModelDomainError } from '../../domain/errors.js';
+import { UnknownStationError } from '../../storage/repository.js';
 import { HttpProblem, makeProblem, sendProblem, type FieldError } from '../problem.js';
 
 function fieldFromPath(instancePath: string, context: string | undefined): string {
@@ -31,6 +32,12 @@ async function errorHandler(app: FastifyInstance): Promise<void> {
       return sendProblem(
         reply,
         makeProblem(error.status, `${error.field}: ${error.message}`, [{ field: error.field, message: error.message }], request.url),
+      );
+    }
+    if (error instanceof UnknownStationError) {
+      return sendProblem(
+        reply,
+        makeProblem(404, `no station "${error.stationId}"`, [{ field: 'params.station_id', message: 'no such station' }], request.url),
       );
     }
     if (error instanceof HttpProblem) {

@@ -1,0 +1,148 @@
+/**
+ * Turning a series upload into rows: JSON records checked one by one against their schema, a CSV
+ * table (src/formats/met-csv.ts) or a RINEX meteorological file (src/formats/rinex-met.ts). Bad
+ * records are listed by index or line and left out; a body that is not what its content type
+ * claims is a 400 and nothing of it is stored.
+ */
+
+import type { z } from 'zod';
+import { CsvFormatError, parseMetCsv } from '../../formats/met-csv.js';
+import { looksLikeRinexMet, parseRinexMet, RinexFormatError } from '../../formats/rinex-met.js';
+import type { MetRow } from '../../storage/repository.js';
+import { HttpProblem } from '../problem.js';
+import { MAX_REJECTED_LISTED, metRecordSchema } from '../schemas/met.js';
+
+export interface Rejected {
+  index?: number;
+  line?: number;
+  reason: string;
+}
+
+export function issueText(prefix: string, error: z.ZodError): string {
+  return error.issues.map((i) => `${[prefix, ...i.path.map(String)].filter(Boolean).join('.')}: ${i.message}`).join('; ');
+}
+
+/** Keeps the first record of each epoch; later ones are rejected. */
+export function dropDuplicateEpochs<T extends { epochMs: number }>(
+  items: { where: { index?: number; line?: number }; row: T }[],
+  rejected: Rejected[],
+): T[] {
+  const seen = new Map<number, string>();
+  const out: T[] = [];
+  for (const { where, row } of items) {
+    const first = seen.get(row.epochMs);
+    if (first !== undefined) {
+      rejected.push({ ...where, reason: `epoch ${new Date(row.epochMs).toISOString()} appears twice in this upload (first at ${first}); the first is kept` });
+      continue;
+    }
+    seen.set(row.epochMs, where.index !== undefined ? `index ${where.index}` : `line ${where.line}`);
+    out.push(row);
+  }
+  return out;
+}
+
+export function listRejected(rejected: Rejected[]): { rejected: Rejected[]; rejected_count: number } {
+  const sorted = [...rejected].sort((a, b) => (a.index ?? a.line ?? 0) - (b.index ?? b.line ?? 0));
+  return { rejected: sorted.slice(0, MAX_REJECTED_LISTED), rejected_count: rejected.length };
+}
+
+/** Nothing usable: a 400 listing the first problems. */
+export function nothingUsable(rejected: Rejected[]): HttpProblem {
+  const first = [...rejected].sort((a, b) => (a.index ?? a.line ?? 0) - (b.index ?? b.line ?? 0)).slice(0, 100);
+  return new HttpProblem(
+    400,
+    `none of the ${rejected.length} records can be stored; first: ${first[0] ? first[0].reason : 'no records'}`,
+    first.map((r) => ({ field: r.index !== undefined ? `records.${r.index}` : `line ${r.line}`, message: r.reason })),
+  );
+}
+
+export interface MetUpload {
+  format: 'json' | 'csv' | 'rinex-met';
+  rows: MetRow[];
+  rejected: Rejected[];
+  warnings: string[];
+  rinex?: { version: string; marker_name: string | null; observation_types: string[]; ignored_values: Record<string, number> };
+}
+
+const toRow = (epochMs: number, source: string, r: z.infer<typeof metRecordSchema>): MetRow => ({
+  epochMs,
+  source,
+  pressureHpa: r.pressure_hpa ?? null,
+  temperatureC: r.temperature_c ?? null,
+  relativeHumidityPct: r.relative_humidity_pct ?? null,
+  dewpointC: r.dewpoint_c ?? null,
+  vapourPressureHpa: r.vapour_pressure_hpa ?? null,
+});
+
+export function readMetUpload(body: unknown, contentType: string, source: string): MetUpload {
+  const rejected: Rejected[] = [];
+  if (typeof body !== 'string') {
+    const records = (body as { records: unknown[] }).records;
+    const items: { where: { index: number }; row: MetRow }[] = [];
+    records.forEach((record, index) => {
+      const parsed = metRecordSchema.safeParse(record);
+      if (!parsed.success) rejected.push({ index, reason: issueText(`records.${index}`, parsed.error) });
+      else items.push({ where: { index }, row: toRow(Date.parse(parsed.data.epoch), source, parsed.data) });
+    });
+    return { format: 'json', rows: dropDuplicateEpochs(items, rejected), rejected, warnings: [] };
+  }
+
+  if (contentType.startsWith('text/csv')) {
+    let table;
+    try {
+      table = parseMetCsv(body);
+    } catch (err) {
+      if (err instanceof CsvFormatError) throw new HttpProblem(400, `the body is not a met CSV table: ${err.message}`, [{ field: 'body', message: err.message }]);
+      throw err;
+    }
+    rejected.push(...table.problems);
+    const items: { where: { line: number }; row: MetRow }[] = [];
+    for (const { line, values } of table.rows) {
+      const parsed = metRecordSchema.safeParse(values);
+      if (!parsed.success) rejected.push({ line, reason: issueText('', parsed.error) });
+      else items.push({ where: { line }, row: toRow(Date.parse(parsed.data.epoch), source, parsed.data) });
+    }
+    return { format: 'csv', rows: dropDuplicateEpochs(items, rejected), rejected, warnings: [] };
+  }
+
+  // text/plain: a RINEX meteorological file, recognised by its header.
+  if (!looksLikeRinexMet(body)) {
+    throw new HttpProblem(
+      400,
+      'a text/plain body must be a RINEX meteorological file (first line: version, type "M" in column 21, label "RINEX VERSION / TYPE" in columns 61-80); send CSV as text/csv and records as application/json',
+      [{ field: 'body', message: 'not a RINEX meteorological file' }],
+    );
+  }
+  let file;
+  try {
+    file = parseRinexMet(body);
+  } catch (err) {
+    if (err instanceof RinexFormatError) throw new HttpProblem(400, err.message, [{ field: `body line ${err.line}`, message: err.message }]);
+    throw err;
+  }
+  rejected.push(...file.rejected);
+  const items = file.records.map((r) => ({
+    where: { line: r.line },
+    row: {
+      epochMs: r.epochMs,
+      source,
+      pressureHpa: r.pressureHpa,
+      temperatureC: r.temperatureC,
+      relativeHumidityPct: r.relativeHumidityPct,
+      dewpointC: null,
+      vapourPressureHpa: null,
+    },
+  }));
+  const warnings: string[] = ['RINEX met epochs are GPS time; they were converted to UTC (GPS − UTC leap seconds)'];
+  const ignored = Object.entries(file.ignoredValues);
+  if (ignored.length) {
+    warnings.push(`observation types other than PR, TD, HR are not stored: ${ignored.map(([t, n]) => `${t} (${n} values)`).join(', ')}`);
+  }
+  return {
+    format: 'rinex-met',
+    rows: dropDuplicateEpochs(items, rejected),
+    rejected,
+    warnings,
+    rinex: { version: file.version, marker_name: file.markerName, observation_types: file.observationTypes, ignored_values: file.ignoredValues },
+  };
+}

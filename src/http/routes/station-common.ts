@@ -1,0 +1,81 @@
+/**
+ * Pieces the station routes share: the station or a 404, the station's JSON shape, CSV replies,
+ * and a body validator that checks only the envelope of a series upload (its records are checked
+ * one by one by the route, so one bad record does not refuse the others).
+ */
+
+import type { FastifyReply, FastifySchemaCompiler } from 'fastify';
+import { validatorCompiler } from 'fastify-type-provider-zod';
+import type { z } from 'zod';
+import { csvCell } from '../../formats/met-csv.js';
+import type { Repository, Station } from '../../storage/repository.js';
+import { HttpProblem } from '../problem.js';
+
+export interface StationRouteOptions {
+  /** Longest from..to of one read [days]. */
+  maxReadRangeDays: number;
+}
+
+export async function requireStation(repository: Repository, stationId: string): Promise<Station> {
+  const station = await repository.getStation(stationId);
+  if (!station) {
+    throw new HttpProblem(404, `no station "${stationId}"; create it with PUT /v1/stations/${stationId}`, [
+      { field: 'params.station_id', message: 'no such station' },
+    ]);
+  }
+  return station;
+}
+
+export function stationJson(s: Station) {
+  const base = `/v1/stations/${encodeURIComponent(s.stationId)}`;
+  return {
+    station_id: s.stationId,
+    name: s.name,
+    latitude_deg: s.latitudeDeg,
+    longitude_deg: s.longitudeDeg,
+    height_m: s.heightM,
+    met_height_m: s.metHeightM,
+    description: s.description,
+    created_at: s.createdAt,
+    updated_at: s.updatedAt,
+    links: { met: `${base}/met`, delays: `${base}/delays`, precipitable_water: `${base}/precipitable-water` },
+  };
+}
+
+export const isoEpoch = (ms: number) => new Date(ms).toISOString();
+
+/** A CSV reply: one header row with the field names, then one row per record. */
+export function sendCsv<K extends string>(
+  reply: FastifyReply,
+  columns: readonly K[],
+  records: readonly Record<K, string | number | boolean | null>[],
+  headers: Record<string, string> = {},
+): FastifyReply {
+  const lines = new Array<string>(records.length + 1);
+  lines[0] = columns.join(',');
+  for (let i = 0; i < records.length; i++) {
+    const r = records[i]!;
+    let line = '';
+    for (let c = 0; c < columns.length; c++) line += (c ? ',' : '') + csvCell(r[columns[c]!]);
+    lines[i + 1] = line;
+  }
+  for (const [k, v] of Object.entries(headers)) reply.header(k, v);
+  return reply.type('text/csv; charset=utf-8').send(lines.join('\n') + '\n');
+}
+
+/**
+ * Route validator: the body is checked against `envelope` (a text body — CSV, RINEX — passes as
+ * is); params and query against their own schemas. The route's documented body schema still
+ * describes each record in the OpenAPI document.
+ */
+// fastify types a route's validatorCompiler with the whole route schema; each call gets one part's zod schema.
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export function envelopeValidator(envelope: z.ZodType): FastifySchemaCompiler<any> {
+  return (route: { schema: z.ZodType; method: string; url: string; httpPart?: string }) => {
+    if (route.httpPart === 'body') {
+      const validate = validatorCompiler({ ...(route as Parameters<typeof validatorCompiler>[0]), schema: envelope });
+      return (data: unknown) => (typeof data === 'string' ? { value: data } : validate(data));
+    }
+    return validatorCompiler(route as Parameters<typeof validatorCompiler>[0]);
+  };
+}

@@ -1,0 +1,117 @@
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { provenance } from '../../domain/provenance.js';
+import type { DelayRow } from '../../storage/repository.js';
+import { summariseModelSets } from '../../services/homogeneity.js';
+import { problemSchema } from '../schemas/common.js';
+import { DELAY_CSV_COLUMNS, delayDepositEnvelope, delayDepositJsonBody, delayDepositResponse, delayReadQuery, delayReadResponse, delayRecordSchema } from '../schemas/delays.js';
+import { stationParams } from '../schemas/stations.js';
+import { BATCH_BODY_LIMIT_BYTES } from './mapping-factors.js';
+import { envelopeValidator, isoEpoch, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
+import { resolveSeriesRange } from './series-range.js';
+import { dropDuplicateEpochs, issueText, listRejected, nothingUsable, type Rejected } from './series-ingest.js';
+
+/** Key under which a deposit's `source` enters its model set. */
+export const DEPOSIT_SOURCE_KEY = 'deposited_by';
+
+const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
+  app.post(
+    '/v1/stations/:station_id/delays',
+    {
+      bodyLimit: BATCH_BODY_LIMIT_BYTES,
+      validatorCompiler: envelopeValidator(delayDepositEnvelope),
+      schema: {
+        summary: 'Deposit a zenith total delay series computed elsewhere',
+        description: `Stores the records keyed by (epoch, source) with the fingerprint of \`models\` plus \`${DEPOSIT_SOURCE_KEY}: source\`: a retrieval shows it and says when a range mixes fingerprints. Bad records are listed in \`rejected\`, the good ones stored; none good is a 400. Body limit: ${BATCH_BODY_LIMIT_BYTES} bytes (32 MiB). Writes need \`Authorization: Bearer <key>\`.`,
+        tags: ['station archive'],
+        security: [{ bearerKey: [] }],
+        params: stationParams,
+        body: delayDepositJsonBody,
+        response: { 200: delayDepositResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 404: problemSchema, 413: problemSchema, 415: problemSchema },
+      },
+    },
+    async (request) => {
+      const stationId = request.params.station_id;
+      await requireStation(app.repository, stationId);
+      const body = request.body as unknown;
+      if (typeof body === 'string') {
+        throw Object.assign(new Error('send the delay series as application/json'), { statusCode: 415, code: 'FST_ERR_CTP_INVALID_MEDIA_TYPE' });
+      }
+      const { records, source, models } = body as { records: unknown[]; source: string; models?: Record<string, string | number | boolean | null> };
+      const set = provenance({ ...(models ?? {}), [DEPOSIT_SOURCE_KEY]: source });
+      const rejected: Rejected[] = [];
+      const items: { where: { index: number }; row: DelayRow }[] = [];
+      records.forEach((record, index) => {
+        const parsed = delayRecordSchema.safeParse(record);
+        if (!parsed.success) {
+          rejected.push({ index, reason: issueText(`records.${index}`, parsed.error) });
+          return;
+        }
+        const r = parsed.data;
+        items.push({
+          where: { index },
+          row: {
+            epochMs: Date.parse(r.epoch),
+            source,
+            ztdM: r.ztd_m,
+            ztdSigmaM: r.ztd_sigma_m ?? null,
+            zwdM: r.zwd_m ?? null,
+            zwdSigmaM: r.zwd_sigma_m ?? null,
+            northGradientM: r.north_gradient_m ?? null,
+            eastGradientM: r.east_gradient_m ?? null,
+            northGradientSigmaM: r.north_gradient_sigma_m ?? null,
+            eastGradientSigmaM: r.east_gradient_sigma_m ?? null,
+            modelFingerprint: set.model_fingerprint,
+          },
+        });
+      });
+      const rows = dropDuplicateEpochs(items, rejected);
+      if (rows.length === 0) throw nothingUsable(rejected);
+      const counts = await app.repository.writeDelays(stationId, rows, { modelFingerprint: set.model_fingerprint, models: set.models });
+      return { station_id: stationId, source, ...counts, ...listRejected(rejected), warnings: [], ...set };
+    },
+  );
+
+  app.get(
+    '/v1/stations/:station_id/delays',
+    {
+      schema: {
+        summary: 'Stored delay series of a station in a time range',
+        description: `Every record carries its source and model fingerprint; \`homogeneous\` is false (with a warning listing the fingerprints and their epochs) when the range mixes model sets. from/to inclusive, ISO 8601; one request reads at most ${options.maxReadRangeDays} days. format=csv answers text/csv with a header row of the field names and the headers x-homogeneous and x-model-fingerprints.`,
+        tags: ['station archive'],
+        params: stationParams,
+        querystring: delayReadQuery,
+        response: { 200: delayReadResponse, 400: problemSchema, 404: problemSchema },
+      },
+    },
+    async (request, reply) => {
+      const stationId = request.params.station_id;
+      await requireStation(app.repository, stationId);
+      const range = await resolveSeriesRange(app.repository, stationId, 'delays', request.query, options.maxReadRangeDays);
+      const rows = await app.repository.readDelays(stationId, range, request.query.source);
+      const fingerprints = [...new Set(rows.map((r) => r.modelFingerprint))];
+      const summary = summariseModelSets(rows, await app.repository.readModelSets(fingerprints));
+      const records = rows.map((r) => ({
+        epoch: isoEpoch(r.epochMs),
+        ztd_m: r.ztdM,
+        ztd_sigma_m: r.ztdSigmaM,
+        zwd_m: r.zwdM,
+        zwd_sigma_m: r.zwdSigmaM,
+        north_gradient_m: r.northGradientM,
+        east_gradient_m: r.eastGradientM,
+        north_gradient_sigma_m: r.northGradientSigmaM,
+        east_gradient_sigma_m: r.eastGradientSigmaM,
+        source: r.source,
+        model_fingerprint: r.modelFingerprint,
+      }));
+      if (request.query.format === 'csv') {
+        return sendCsv(reply, DELAY_CSV_COLUMNS, records, {
+          'x-homogeneous': String(summary.homogeneous),
+          'x-model-fingerprints': fingerprints.join(','),
+        });
+      }
+      return { station_id: stationId, from: isoEpoch(range.fromMs), to: isoEpoch(range.toMs), records, ...summary };
+    },
+  );
+};
+
+export default stationDelaysRoute;

@@ -1,0 +1,86 @@
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { BATCH_BODY_LIMIT_BYTES } from './mapping-factors.js';
+import { problemSchema } from '../schemas/common.js';
+import { DEFAULT_MET_SOURCE, MET_CSV_OUTPUT_COLUMNS, ingestQuery, metIngestEnvelope, metIngestJsonBody, metIngestResponse, metReadQuery, metReadResponse } from '../schemas/met.js';
+import { stationParams } from '../schemas/stations.js';
+import { envelopeValidator, isoEpoch, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
+import { resolveSeriesRange } from './series-range.js';
+import { listRejected, nothingUsable, readMetUpload } from './series-ingest.js';
+
+const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
+  app.post(
+    '/v1/stations/:station_id/met',
+    {
+      bodyLimit: BATCH_BODY_LIMIT_BYTES,
+      validatorCompiler: envelopeValidator(metIngestEnvelope),
+      schema: {
+        summary: 'Store met records of a station (JSON, CSV or a RINEX meteorological file)',
+        description: [
+          'The body is one of:',
+          '- application/json: `{ records: [...], source? }` as below;',
+          '- text/csv: a header row with the field names of a record (epoch, pressure_hpa, temperature_c, relative_humidity_pct, dewpoint_c, vapour_pressure_hpa), then one record per row; `?source=` names the producer;',
+          '- text/plain: a RINEX meteorological observation file, version 2.10/2.11 or 3.00-3.05, recognised by its header. PR, TD and HR are stored; other observation types (ZW, ZD, ZT, WD, WS, RI, HI, ...) are counted in `rinex.ignored_values` and not stored; epochs (GPS time) are converted to UTC.',
+          'Records are keyed by (epoch, source): sending the same records again changes nothing. Each record needs pressure_hpa or temperature_c and at most one humidity field. Bad records are listed in `rejected` (by index or line) and the good ones stored; a body that is not what its content type claims, or has no good record, is a 400 and stores nothing.',
+          `Body limit: ${BATCH_BODY_LIMIT_BYTES} bytes (32 MiB). Writes need \`Authorization: Bearer <key>\`.`,
+        ].join('\n'),
+        tags: ['station archive'],
+        security: [{ bearerKey: [] }],
+        params: stationParams,
+        querystring: ingestQuery,
+        body: metIngestJsonBody,
+        response: { 200: metIngestResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 404: problemSchema, 413: problemSchema, 415: problemSchema },
+      },
+    },
+    async (request) => {
+      const stationId = request.params.station_id;
+      await requireStation(app.repository, stationId);
+      const body = request.body as unknown;
+      const source = (typeof body === 'string' ? undefined : (body as { source?: string }).source) ?? request.query.source ?? DEFAULT_MET_SOURCE;
+      const upload = readMetUpload(body, request.headers['content-type'] ?? 'application/json', source);
+      if (upload.rows.length === 0) throw nothingUsable(upload.rejected);
+      const counts = await app.repository.writeMet(stationId, upload.rows);
+      return {
+        station_id: stationId,
+        source,
+        format: upload.format,
+        ...counts,
+        ...listRejected(upload.rejected),
+        warnings: upload.warnings,
+        ...(upload.rinex ? { rinex: upload.rinex } : {}),
+      };
+    },
+  );
+
+  app.get(
+    '/v1/stations/:station_id/met',
+    {
+      schema: {
+        summary: 'Met records of a station in a time range, as stored',
+        description: `from/to inclusive, ISO 8601; one request reads at most ${options.maxReadRangeDays} days (TROPO_MAX_READ_RANGE_DAYS). format=csv answers text/csv with a header row of the field names.`,
+        tags: ['station archive'],
+        params: stationParams,
+        querystring: metReadQuery,
+        response: { 200: metReadResponse, 400: problemSchema, 404: problemSchema },
+      },
+    },
+    async (request, reply) => {
+      const stationId = request.params.station_id;
+      await requireStation(app.repository, stationId);
+      const range = await resolveSeriesRange(app.repository, stationId, 'met', request.query, options.maxReadRangeDays);
+      const rows = await app.repository.readMet(stationId, range, request.query.source);
+      const records = rows.map((r) => ({
+        epoch: isoEpoch(r.epochMs),
+        source: r.source,
+        pressure_hpa: r.pressureHpa,
+        temperature_c: r.temperatureC,
+        relative_humidity_pct: r.relativeHumidityPct,
+        dewpoint_c: r.dewpointC,
+        vapour_pressure_hpa: r.vapourPressureHpa,
+      }));
+      if (request.query.format === 'csv') return sendCsv(reply, MET_CSV_OUTPUT_COLUMNS, records);
+      return { station_id: stationId, from: isoEpoch(range.fromMs), to: isoEpoch(range.toMs), records };
+    },
+  );
+};
+
+export default stationMetRoute;

@@ -1,0 +1,81 @@
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { summariseModelSets } from '../../services/homogeneity.js';
+import { retrievalProvenance, stationPrecipitableWater } from '../../services/station-pwv.js';
+import { problemSchema } from '../schemas/common.js';
+import { STATION_PWV_CSV_COLUMNS, stationPwvQuery, stationPwvResponse } from '../schemas/station-precipitable-water.js';
+import { stationParams } from '../schemas/stations.js';
+import { isoEpoch, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
+import { resolveSeriesRange } from './series-range.js';
+
+const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
+  app.get(
+    '/v1/stations/:station_id/precipitable-water',
+    {
+      schema: {
+        summary: 'Precipitable water for the stored delays of a station',
+        description: [
+          'For each stored delay epoch in the range: pressure and temperature interpolated linearly in time from the stored met series (not across gaps longer than max_met_gap_s, default 3 h; never extrapolated), reduced from met_height_m to the antenna height; ZHD (Saastamoinen/Davis 1985), ZWD = ZTD − ZHD, Tm (Bevis et al. 1992), PWV = Π(Tm)·ZWD (Bevis et al. 1994) and its sigma.',
+          'Quality flag per record, most severe first: met-missing (no PWV: no pressure or temperature within the gap limit), delay-sigma-large (ztd_sigma_m > max_ztd_sigma_m, default 0.01 m), delay-sigma-unknown (no ztd_sigma_m; pwv_sigma_mm null), met-interpolated, ok.',
+          `\`homogeneous\` is false when the delays of the range come from more than one model set. One request reads at most ${options.maxReadRangeDays} days. format=csv answers text/csv with a header row of the record field names and the headers x-homogeneous and x-model-fingerprints.`,
+        ].join('\n'),
+        tags: ['station archive', 'water vapour'],
+        params: stationParams,
+        querystring: stationPwvQuery,
+        response: { 200: stationPwvResponse, 400: problemSchema, 404: problemSchema },
+      },
+    },
+    async (request, reply) => {
+      const stationId = request.params.station_id;
+      const q = request.query;
+      const station = await requireStation(app.repository, stationId);
+      const range = await resolveSeriesRange(app.repository, stationId, 'delays', q, options.maxReadRangeDays);
+      const maxMetGapMs = q.max_met_gap_s * 1000;
+      const delays = await app.repository.readDelays(stationId, range, q.source);
+      const met = delays.length
+        ? await app.repository.readMet(stationId, { fromMs: delays[0]!.epochMs - maxMetGapMs, toMs: delays[delays.length - 1]!.epochMs + maxMetGapMs }, q.met_source)
+        : [];
+      const result = stationPrecipitableWater(station, delays, met, { maxMetGapMs, maxZtdSigmaM: q.max_ztd_sigma_m });
+      const fingerprints = [...new Set(delays.map((r) => r.modelFingerprint))];
+      const summary = summariseModelSets(delays, await app.repository.readModelSets(fingerprints));
+      const records = result.records.map((r) => ({
+        epoch: isoEpoch(r.epochMs),
+        source: r.source,
+        model_fingerprint: r.modelFingerprint,
+        ztd_m: r.ztdM,
+        ztd_sigma_m: r.ztdSigmaM,
+        pressure_hpa: r.pressureHpa,
+        temperature_c: r.temperatureC,
+        zhd_m: r.zhdM,
+        zwd_m: r.zwdM,
+        zwd_sigma_m: r.zwdSigmaM,
+        tm_k: r.tmK,
+        tm_sigma_k: r.tmSigmaK,
+        conversion_factor: r.conversionFactor,
+        pwv_mm: r.pwvMm,
+        pwv_sigma_mm: r.pwvSigmaMm,
+        quality: r.quality,
+        pressure_quality: r.pressureQuality,
+        temperature_quality: r.temperatureQuality,
+      }));
+      if (q.format === 'csv') {
+        return sendCsv(reply, STATION_PWV_CSV_COLUMNS, records, {
+          'x-homogeneous': String(summary.homogeneous),
+          'x-model-fingerprints': fingerprints.join(','),
+        });
+      }
+      const retrieval = retrievalProvenance(maxMetGapMs);
+      return {
+        station_id: stationId,
+        from: isoEpoch(range.fromMs),
+        to: isoEpoch(range.toMs),
+        records,
+        homogeneous: summary.homogeneous,
+        model_sets: summary.model_sets,
+        warnings: [...summary.warnings, ...result.warnings],
+        retrieval: { ...retrieval, max_met_gap_s: q.max_met_gap_s, max_ztd_sigma_m: q.max_ztd_sigma_m },
+      };
+    },
+  );
+};
+
+export default stationPwvRoute;

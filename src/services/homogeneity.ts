@@ -1,0 +1,51 @@
+/**
+ * Whether a range of stored delays is homogeneous: produced by one model set (one fingerprint).
+ * Summarises the model sets met in the range with the epochs and sources they cover, and words a
+ * warning when there is more than one.
+ */
+
+import type { StoredModelSet } from '../storage/repository.js';
+
+export interface ModelSetSummary {
+  model_fingerprint: string;
+  models: StoredModelSet['models'];
+  sources: string[];
+  first_epoch: string;
+  last_epoch: string;
+  count: number;
+}
+
+export function summariseModelSets(
+  rows: readonly { epochMs: number; source: string; modelFingerprint: string }[],
+  sets: readonly StoredModelSet[],
+): { homogeneous: boolean; model_sets: ModelSetSummary[]; warnings: string[] } {
+  const byFingerprint = new Map<string, { first: number; last: number; count: number; sources: Set<string> }>();
+  for (const r of rows) {
+    let s = byFingerprint.get(r.modelFingerprint);
+    if (!s) byFingerprint.set(r.modelFingerprint, (s = { first: r.epochMs, last: r.epochMs, count: 0, sources: new Set() }));
+    s.first = Math.min(s.first, r.epochMs);
+    s.last = Math.max(s.last, r.epochMs);
+    s.count++;
+    s.sources.add(r.source);
+  }
+  const models = new Map(sets.map((s) => [s.modelFingerprint, s.models]));
+  const model_sets = [...byFingerprint.entries()]
+    .map(([fp, s]) => ({
+      model_fingerprint: fp,
+      models: models.get(fp) ?? {},
+      sources: [...s.sources].sort(),
+      first_epoch: new Date(s.first).toISOString(),
+      last_epoch: new Date(s.last).toISOString(),
+      count: s.count,
+    }))
+    .sort((a, b) => (a.first_epoch < b.first_epoch ? -1 : a.first_epoch > b.first_epoch ? 1 : a.model_fingerprint < b.model_fingerprint ? -1 : 1));
+  const homogeneous = model_sets.length <= 1;
+  const warnings = homogeneous
+    ? []
+    : [
+        `the range mixes ${model_sets.length} model sets, so the series is not homogeneous: ${model_sets
+          .map((m) => `${m.model_fingerprint} (${m.sources.join(', ')}) ${m.first_epoch}..${m.last_epoch}, ${m.count} records`)
+          .join('; ')}`,
+      ];
+  return { homogeneous, model_sets, warnings };
+}

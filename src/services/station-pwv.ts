@@ -1,0 +1,190 @@
+/**
+ * Precipitable water for the stored delay series of a station, from its stored met series.
+ *
+ * For each delay row (epoch t, ZTD):
+ *  1. pressure and temperature at t, interpolated linearly in time from the met records
+ *     (src/domain/meteo/met-interpolation.ts: never across a gap longer than maxMetGapMs, default
+ *     3 h, never extrapolated);
+ *  2. reduced from the met sensor height to the antenna height when the station gives met_height_m
+ *     (src/domain/meteo/height-reduction.ts: hypsometric pressure, −6.5 K/km);
+ *  3. ZHD (Saastamoinen/Davis), ZWD = ZTD − ZHD, Tm (Bevis 1992), PWV = Π(Tm)·ZWD (Bevis 1994) and
+ *     σ_PWV, by src/domain/water-vapour/precipitable-water.ts.
+ *
+ * No pressure (or no temperature) → no PWV (null), never a defaulted value.
+ *
+ * Quality flag per record, most severe first:
+ *   met-missing          pressure or temperature missing at t (no record within the gap limit): no PWV
+ *   delay-sigma-large    ztd_sigma_m > maxZtdSigmaM (default 10 mm)
+ *   delay-sigma-unknown  the delay row has no ztd_sigma_m: PWV given, pwv_sigma_mm null
+ *   met-interpolated     pressure or temperature interpolated between two records
+ *   ok                   met records at t itself, sigma known and small
+ */
+
+import { DEG } from '../domain/constants.js';
+import { checkReductionHeight, reducePressureHpa, reduceTemperatureC } from '../domain/meteo/height-reduction.js';
+import { DEFAULT_MAX_MET_GAP_MS, interpolateSeries, type InterpolationQuality, type TimedValue } from '../domain/meteo/met-interpolation.js';
+import { MODEL_NAMES, provenance } from '../domain/provenance.js';
+import { precipitableWater } from '../domain/water-vapour/precipitable-water.js';
+import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
+import type { DelayRow, MetRow, Station } from '../storage/repository.js';
+
+/** ztd_sigma_m above this flags "delay-sigma-large" [m] (our choice: 10 mm of ZTD ≈ 1.5 mm of PWV). */
+export const DEFAULT_MAX_ZTD_SIGMA_M = 0.01;
+
+export const PWV_QUALITY_FLAGS = ['met-missing', 'delay-sigma-large', 'delay-sigma-unknown', 'met-interpolated', 'ok'] as const;
+export type PwvQuality = (typeof PWV_QUALITY_FLAGS)[number];
+
+export interface StationPwvRecord {
+  epochMs: number;
+  source: string;
+  modelFingerprint: string;
+  ztdM: number;
+  ztdSigmaM: number | null;
+  pressureHpa: number | null;
+  temperatureC: number | null;
+  zhdM: number | null;
+  zwdM: number | null;
+  zwdSigmaM: number | null;
+  tmK: number | null;
+  tmSigmaK: number | null;
+  conversionFactor: number | null;
+  pwvMm: number | null;
+  pwvSigmaMm: number | null;
+  quality: PwvQuality;
+  pressureQuality: InterpolationQuality;
+  temperatureQuality: InterpolationQuality;
+}
+
+export interface StationPwvOptions {
+  maxMetGapMs?: number;
+  maxZtdSigmaM?: number;
+}
+
+const MAX_WARNINGS = 20;
+
+/** The models of the retrieval itself, for its provenance. */
+export function retrievalProvenance(maxMetGapMs: number) {
+  return provenance({
+    zhd: MODEL_NAMES.zhd,
+    tm: MODEL_NAMES.tm,
+    conversion: MODEL_NAMES.conversion,
+    met_interpolation: 'linear in time, no extrapolation',
+    max_met_gap_s: maxMetGapMs / 1000,
+    met_reduction: 'hypsometric pressure, -6.5 K/km',
+  });
+}
+
+/** One value per epoch from met rows sorted by (epoch, source): the first non-null at each epoch. */
+function series(met: readonly MetRow[], pick: (r: MetRow) => number | null): TimedValue[] {
+  const out: TimedValue[] = [];
+  for (const r of met) {
+    const v = pick(r);
+    if (v === null) continue;
+    if (out.length && out[out.length - 1]!.epochMs === r.epochMs) continue;
+    out.push({ epochMs: r.epochMs, value: v });
+  }
+  return out;
+}
+
+/**
+ * @param station the station (coordinates [deg, m], met sensor height [m])
+ * @param delays delay rows sorted by epoch
+ * @param met met rows sorted by (epoch, source), covering the delay epochs ± the gap limit
+ */
+export function stationPrecipitableWater(
+  station: Station,
+  delays: readonly DelayRow[],
+  met: readonly MetRow[],
+  options: StationPwvOptions = {},
+): { records: StationPwvRecord[]; warnings: string[] } {
+  const maxMetGapMs = options.maxMetGapMs ?? DEFAULT_MAX_MET_GAP_MS;
+  const maxZtdSigmaM = options.maxZtdSigmaM ?? DEFAULT_MAX_ZTD_SIGMA_M;
+  const latRad = station.latitudeDeg * DEG;
+  const dHeightM = station.metHeightM === null ? 0 : station.heightM - station.metHeightM;
+  checkReductionHeight(dHeightM, 'station.met_height_m');
+
+  const epochs = delays.map((d) => d.epochMs);
+  const pressures = interpolateSeries(series(met, (r) => r.pressureHpa), epochs, maxMetGapMs);
+  const temperatures = interpolateSeries(series(met, (r) => r.temperatureC), epochs, maxMetGapMs);
+
+  const warnings: string[] = [];
+  let extraWarnings = 0;
+  const counts: Record<PwvQuality, number> = { 'met-missing': 0, 'delay-sigma-large': 0, 'delay-sigma-unknown': 0, 'met-interpolated': 0, ok: 0 };
+  const records = delays.map((d, i): StationPwvRecord => {
+    const p = pressures[i]!;
+    const t = temperatures[i]!;
+    const base = {
+      epochMs: d.epochMs,
+      source: d.source,
+      modelFingerprint: d.modelFingerprint,
+      ztdM: d.ztdM,
+      ztdSigmaM: d.ztdSigmaM,
+      pressureQuality: p.quality,
+      temperatureQuality: t.quality,
+    };
+    const empty = { zhdM: null, zwdM: null, zwdSigmaM: null, tmK: null, tmSigmaK: null, conversionFactor: null, pwvMm: null, pwvSigmaMm: null };
+    if (p.value === null || t.value === null) {
+      counts['met-missing']++;
+      // ZHD still follows from a pressure taken at the antenna height itself.
+      const zhdM = p.value !== null && dHeightM === 0 ? zenithHydrostaticDelayM(p.value, latRad, station.heightM) : null;
+      return {
+        ...base,
+        ...empty,
+        pressureHpa: p.value !== null && dHeightM === 0 ? p.value : null,
+        temperatureC: t.value !== null ? reduceTemperatureC(t.value, dHeightM) : null,
+        zhdM,
+        zwdM: zhdM === null ? null : d.ztdM - zhdM,
+        quality: 'met-missing',
+      };
+    }
+    const pressureHpa = dHeightM === 0 ? p.value : reducePressureHpa(p.value, t.value, dHeightM);
+    const temperatureC = reduceTemperatureC(t.value, dHeightM);
+    const res = precipitableWater(
+      { ztdM: d.ztdM, ztdSigmaM: d.ztdSigmaM ?? undefined, pressureHpa, temperatureC },
+      latRad,
+      station.heightM,
+      `records.${i}`,
+    );
+    for (const w of res.warnings) {
+      if (warnings.length < MAX_WARNINGS) warnings.push(w);
+      else extraWarnings++;
+    }
+    const sigmaKnown = d.ztdSigmaM !== null;
+    const quality: PwvQuality =
+      sigmaKnown && d.ztdSigmaM! > maxZtdSigmaM
+        ? 'delay-sigma-large'
+        : !sigmaKnown
+          ? 'delay-sigma-unknown'
+          : p.quality === 'interpolated' || t.quality === 'interpolated'
+            ? 'met-interpolated'
+            : 'ok';
+    counts[quality]++;
+    return {
+      ...base,
+      pressureHpa,
+      temperatureC,
+      zhdM: res.zhdM,
+      zwdM: res.zwdM,
+      zwdSigmaM: sigmaKnown ? res.zwdSigmaM : null,
+      tmK: res.tmK,
+      tmSigmaK: res.tmSigmaK,
+      conversionFactor: res.conversionFactor,
+      pwvMm: res.pwvMm,
+      pwvSigmaMm: sigmaKnown ? res.pwvSigmaMm : null,
+      quality,
+    };
+  });
+  if (extraWarnings > 0) warnings.push(`… and ${extraWarnings} more warnings of the same kinds`);
+  if (counts['met-missing'] > 0) {
+    warnings.push(
+      `${counts['met-missing']} of ${records.length} records have no PWV: no pressure or temperature record within ${maxMetGapMs / 1000} s on both sides of their epoch (quality "met-missing")`,
+    );
+  }
+  if (counts['delay-sigma-unknown'] > 0) {
+    warnings.push(`${counts['delay-sigma-unknown']} records have no ztd_sigma_m: their pwv_sigma_mm is null (quality "delay-sigma-unknown")`);
+  }
+  if (counts['delay-sigma-large'] > 0) {
+    warnings.push(`${counts['delay-sigma-large']} records have ztd_sigma_m above ${maxZtdSigmaM} m (quality "delay-sigma-large")`);
+  }
+  return { records, warnings };
+}
