@@ -90,6 +90,7 @@ export function parseMetCsv(text: string): { rows: CsvRow[]; problems: CsvRowPro
 /** Quotes a CSV cell when it needs it (RFC 4180). */
 export function csvCell(value: string | number | boolean | null | undefined): string {
   if (value === null || value === undefined) return '';
+  if (typeof value === 'number') return String(value);
   const s = String(value);
   return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }

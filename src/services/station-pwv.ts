@@ -110,32 +110,42 @@ export function stationPrecipitableWater(
   const warnings: string[] = [];
   let extraWarnings = 0;
   const counts: Record<PwvQuality, number> = { 'met-missing': 0, 'delay-sigma-large': 0, 'delay-sigma-unknown': 0, 'met-interpolated': 0, ok: 0 };
-  const records = delays.map((d, i): StationPwvRecord => {
+  const records = new Array<StationPwvRecord>(delays.length);
+  for (let i = 0; i < delays.length; i++) {
+    const d = delays[i]!;
     const p = pressures[i]!;
     const t = temperatures[i]!;
-    const base = {
+    const record: StationPwvRecord = {
       epochMs: d.epochMs,
       source: d.source,
       modelFingerprint: d.modelFingerprint,
       ztdM: d.ztdM,
       ztdSigmaM: d.ztdSigmaM,
+      pressureHpa: null,
+      temperatureC: null,
+      zhdM: null,
+      zwdM: null,
+      zwdSigmaM: null,
+      tmK: null,
+      tmSigmaK: null,
+      conversionFactor: null,
+      pwvMm: null,
+      pwvSigmaMm: null,
+      quality: 'met-missing',
       pressureQuality: p.quality,
       temperatureQuality: t.quality,
     };
-    const empty = { zhdM: null, zwdM: null, zwdSigmaM: null, tmK: null, tmSigmaK: null, conversionFactor: null, pwvMm: null, pwvSigmaMm: null };
+    records[i] = record;
     if (p.value === null || t.value === null) {
       counts['met-missing']++;
+      if (t.value !== null) record.temperatureC = reduceTemperatureC(t.value, dHeightM);
       // ZHD still follows from a pressure taken at the antenna height itself.
-      const zhdM = p.value !== null && dHeightM === 0 ? zenithHydrostaticDelayM(p.value, latRad, station.heightM) : null;
-      return {
-        ...base,
-        ...empty,
-        pressureHpa: p.value !== null && dHeightM === 0 ? p.value : null,
-        temperatureC: t.value !== null ? reduceTemperatureC(t.value, dHeightM) : null,
-        zhdM,
-        zwdM: zhdM === null ? null : d.ztdM - zhdM,
-        quality: 'met-missing',
-      };
+      if (p.value !== null && dHeightM === 0) {
+        record.pressureHpa = p.value;
+        record.zhdM = zenithHydrostaticDelayM(p.value, latRad, station.heightM);
+        record.zwdM = d.ztdM - record.zhdM;
+      }
+      continue;
     }
     const pressureHpa = dHeightM === 0 ? p.value : reducePressureHpa(p.value, t.value, dHeightM);
     const temperatureC = reduceTemperatureC(t.value, dHeightM);
@@ -159,21 +169,18 @@ export function stationPrecipitableWater(
             ? 'met-interpolated'
             : 'ok';
     counts[quality]++;
-    return {
-      ...base,
-      pressureHpa,
-      temperatureC,
-      zhdM: res.zhdM,
-      zwdM: res.zwdM,
-      zwdSigmaM: sigmaKnown ? res.zwdSigmaM : null,
-      tmK: res.tmK,
-      tmSigmaK: res.tmSigmaK,
-      conversionFactor: res.conversionFactor,
-      pwvMm: res.pwvMm,
-      pwvSigmaMm: sigmaKnown ? res.pwvSigmaMm : null,
-      quality,
-    };
-  });
+    record.pressureHpa = pressureHpa;
+    record.temperatureC = temperatureC;
+    record.zhdM = res.zhdM;
+    record.zwdM = res.zwdM;
+    record.zwdSigmaM = sigmaKnown ? res.zwdSigmaM : null;
+    record.tmK = res.tmK;
+    record.tmSigmaK = res.tmSigmaK;
+    record.conversionFactor = res.conversionFactor;
+    record.pwvMm = res.pwvMm;
+    record.pwvSigmaMm = sigmaKnown ? res.pwvSigmaMm : null;
+    record.quality = quality;
+  }
   if (extraWarnings > 0) warnings.push(`… and ${extraWarnings} more warnings of the same kinds`);
   if (counts['met-missing'] > 0) {
     warnings.push(

@@ -29,55 +29,7 @@ export const toStation = (r: StationDbRow): Station => ({
   updatedAt: r.updated_at,
 });
 
-export interface MetDbRow {
-  epoch_ms: number | string;
-  source: string;
-  pressure_hpa: number | null;
-  temperature_c: number | null;
-  relative_humidity_pct: number | null;
-  dewpoint_c: number | null;
-  vapour_pressure_hpa: number | null;
-}
-
-export const toMetRow = (r: MetDbRow): MetRow => ({
-  epochMs: Number(r.epoch_ms),
-  source: r.source,
-  pressureHpa: r.pressure_hpa,
-  temperatureC: r.temperature_c,
-  relativeHumidityPct: r.relative_humidity_pct,
-  dewpointC: r.dewpoint_c,
-  vapourPressureHpa: r.vapour_pressure_hpa,
-});
-
 export const metValues = (r: MetRow) => [r.pressureHpa, r.temperatureC, r.relativeHumidityPct, r.dewpointC, r.vapourPressureHpa];
-
-export interface DelayDbRow {
-  epoch_ms: number | string;
-  source: string;
-  ztd_m: number;
-  ztd_sigma_m: number | null;
-  zwd_m: number | null;
-  zwd_sigma_m: number | null;
-  north_gradient_m: number | null;
-  east_gradient_m: number | null;
-  north_gradient_sigma_m: number | null;
-  east_gradient_sigma_m: number | null;
-  model_fingerprint: string;
-}
-
-export const toDelayRow = (r: DelayDbRow): DelayRow => ({
-  epochMs: Number(r.epoch_ms),
-  source: r.source,
-  ztdM: r.ztd_m,
-  ztdSigmaM: r.ztd_sigma_m,
-  zwdM: r.zwd_m,
-  zwdSigmaM: r.zwd_sigma_m,
-  northGradientM: r.north_gradient_m,
-  eastGradientM: r.east_gradient_m,
-  northGradientSigmaM: r.north_gradient_sigma_m,
-  eastGradientSigmaM: r.east_gradient_sigma_m,
-  modelFingerprint: r.model_fingerprint,
-});
 
 export const delayValues = (r: DelayRow) => [
   r.ztdM,
@@ -95,3 +47,29 @@ export const delayValues = (r: DelayRow) => [
 export const MET_SELECT = 'epoch_ms, source, pressure_hpa, temperature_c, relative_humidity_pct, dewpoint_c, vapour_pressure_hpa';
 export const DELAY_SELECT =
   'epoch_ms, source, ztd_m, ztd_sigma_m, zwd_m, zwd_sigma_m, north_gradient_m, east_gradient_m, north_gradient_sigma_m, east_gradient_sigma_m, model_fingerprint';
+
+/** Rows as arrays in the column order of MET_SELECT / DELAY_SELECT (fewer allocations on big reads). */
+export type MetArrayRow = [number | string, string, number | null, number | null, number | null, number | null, number | null];
+export const metFromArray = (r: MetArrayRow): MetRow => ({
+  epochMs: Number(r[0]),
+  source: r[1],
+  pressureHpa: r[2],
+  temperatureC: r[3],
+  relativeHumidityPct: r[4],
+  dewpointC: r[5],
+  vapourPressureHpa: r[6],
+});
+
+export const delayFromArray = (r: unknown[]): DelayRow => ({
+  epochMs: Number(r[0]),
+  source: r[1] as string,
+  ztdM: r[2] as number,
+  ztdSigmaM: r[3] as number | null,
+  zwdM: r[4] as number | null,
+  zwdSigmaM: r[5] as number | null,
+  northGradientM: r[6] as number | null,
+  eastGradientM: r[7] as number | null,
+  northGradientSigmaM: r[8] as number | null,
+  eastGradientSigmaM: r[9] as number | null,
+  modelFingerprint: r[10] as string,
+});

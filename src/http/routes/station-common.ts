@@ -44,24 +44,24 @@ export function stationJson(s: Station) {
 
 export const isoEpoch = (ms: number) => new Date(ms).toISOString();
 
-/** A CSV reply: one header row with the field names, then one row per record. */
-export function sendCsv<K extends string>(
-  reply: FastifyReply,
-  columns: readonly K[],
-  records: readonly Record<K, string | number | boolean | null>[],
-  headers: Record<string, string> = {},
-): FastifyReply {
-  const lines = new Array<string>(records.length + 1);
+/** A CSV reply: one header row with the field names, then one line per row (`line` joins the cells with csvCell). */
+export function sendCsv<T>(reply: FastifyReply, columns: readonly string[], rows: readonly T[], line: (row: T) => string, headers: Record<string, string> = {}): FastifyReply {
+  const lines = new Array<string>(rows.length + 2);
   lines[0] = columns.join(',');
-  for (let i = 0; i < records.length; i++) {
-    const r = records[i]!;
-    let line = '';
-    for (let c = 0; c < columns.length; c++) line += (c ? ',' : '') + csvCell(r[columns[c]!]);
-    lines[i + 1] = line;
-  }
+  for (let i = 0; i < rows.length; i++) lines[i + 1] = line(rows[i]!);
+  lines[rows.length + 1] = '';
   for (const [k, v] of Object.entries(headers)) reply.header(k, v);
-  return reply.type('text/csv; charset=utf-8').send(lines.join('\n') + '\n');
+  return reply.type('text/csv; charset=utf-8').send(lines.join('\n'));
 }
+
+/** CSV cells of a record whose keys are the columns. */
+export const recordLine =
+  (columns: readonly string[]) =>
+  (r: Record<string, string | number | boolean | null>): string => {
+    let out = '';
+    for (let c = 0; c < columns.length; c++) out += (c ? ',' : '') + csvCell(r[columns[c]!]);
+    return out;
+  };
 
 /**
  * Route validator: the body is checked against `envelope` (a text body — CSV, RINEX — passes as

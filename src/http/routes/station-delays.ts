@@ -6,7 +6,7 @@ import { problemSchema } from '../schemas/common.js';
 import { DELAY_CSV_COLUMNS, delayDepositEnvelope, delayDepositJsonBody, delayDepositResponse, delayReadQuery, delayReadResponse, delayRecordSchema } from '../schemas/delays.js';
 import { stationParams } from '../schemas/stations.js';
 import { BATCH_BODY_LIMIT_BYTES } from './mapping-factors.js';
-import { envelopeValidator, isoEpoch, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
+import { envelopeValidator, isoEpoch, recordLine, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
 import { dropDuplicateEpochs, issueText, listRejected, nothingUsable, type Rejected } from './series-ingest.js';
 
@@ -104,7 +104,7 @@ const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (ap
         model_fingerprint: r.modelFingerprint,
       }));
       if (request.query.format === 'csv') {
-        return sendCsv(reply, DELAY_CSV_COLUMNS, records, {
+        return sendCsv(reply, DELAY_CSV_COLUMNS, records, recordLine(DELAY_CSV_COLUMNS), {
           'x-homogeneous': String(summary.homogeneous),
           'x-model-fingerprints': fingerprints.join(','),
         });

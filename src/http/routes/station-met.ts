@@ -3,7 +3,7 @@ import { BATCH_BODY_LIMIT_BYTES } from './mapping-factors.js';
 import { problemSchema } from '../schemas/common.js';
 import { DEFAULT_MET_SOURCE, MET_CSV_OUTPUT_COLUMNS, ingestQuery, metIngestEnvelope, metIngestJsonBody, metIngestResponse, metReadQuery, metReadResponse } from '../schemas/met.js';
 import { stationParams } from '../schemas/stations.js';
-import { envelopeValidator, isoEpoch, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
+import { envelopeValidator, isoEpoch, recordLine, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
 import { listRejected, nothingUsable, readMetUpload } from './series-ingest.js';
 
@@ -77,7 +77,7 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         dewpoint_c: r.dewpointC,
         vapour_pressure_hpa: r.vapourPressureHpa,
       }));
-      if (request.query.format === 'csv') return sendCsv(reply, MET_CSV_OUTPUT_COLUMNS, records);
+      if (request.query.format === 'csv') return sendCsv(reply, MET_CSV_OUTPUT_COLUMNS, records, recordLine(MET_CSV_OUTPUT_COLUMNS));
       return { station_id: stationId, from: isoEpoch(range.fromMs), to: isoEpoch(range.toMs), records };
     },
   );

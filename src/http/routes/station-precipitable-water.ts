@@ -1,11 +1,37 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { summariseModelSets } from '../../services/homogeneity.js';
-import { retrievalProvenance, stationPrecipitableWater } from '../../services/station-pwv.js';
+import { csvCell } from '../../formats/met-csv.js';
+import { retrievalProvenance, stationPrecipitableWater, type StationPwvRecord } from '../../services/station-pwv.js';
 import { problemSchema } from '../schemas/common.js';
 import { STATION_PWV_CSV_COLUMNS, stationPwvQuery, stationPwvResponse } from '../schemas/station-precipitable-water.js';
 import { stationParams } from '../schemas/stations.js';
 import { isoEpoch, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
+
+const pwvJson = (r: StationPwvRecord) => ({
+  epoch: isoEpoch(r.epochMs),
+  source: r.source,
+  model_fingerprint: r.modelFingerprint,
+  ztd_m: r.ztdM,
+  ztd_sigma_m: r.ztdSigmaM,
+  pressure_hpa: r.pressureHpa,
+  temperature_c: r.temperatureC,
+  zhd_m: r.zhdM,
+  zwd_m: r.zwdM,
+  zwd_sigma_m: r.zwdSigmaM,
+  tm_k: r.tmK,
+  tm_sigma_k: r.tmSigmaK,
+  conversion_factor: r.conversionFactor,
+  pwv_mm: r.pwvMm,
+  pwv_sigma_mm: r.pwvSigmaMm,
+  quality: r.quality,
+  pressure_quality: r.pressureQuality,
+  temperature_quality: r.temperatureQuality,
+});
+
+/** One CSV line in the order of STATION_PWV_CSV_COLUMNS (a test checks the header against the JSON keys). */
+const pwvCsvLine = (r: StationPwvRecord): string =>
+  `${isoEpoch(r.epochMs)},${csvCell(r.source)},${r.modelFingerprint},${r.ztdM},${csvCell(r.ztdSigmaM)},${csvCell(r.pressureHpa)},${csvCell(r.temperatureC)},${csvCell(r.zhdM)},${csvCell(r.zwdM)},${csvCell(r.zwdSigmaM)},${csvCell(r.tmK)},${csvCell(r.tmSigmaK)},${csvCell(r.conversionFactor)},${csvCell(r.pwvMm)},${csvCell(r.pwvSigmaMm)},${r.quality},${r.pressureQuality},${r.temperatureQuality}`;
 
 const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
   app.get(
@@ -37,32 +63,14 @@ const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       const result = stationPrecipitableWater(station, delays, met, { maxMetGapMs, maxZtdSigmaM: q.max_ztd_sigma_m });
       const fingerprints = [...new Set(delays.map((r) => r.modelFingerprint))];
       const summary = summariseModelSets(delays, await app.repository.readModelSets(fingerprints));
-      const records = result.records.map((r) => ({
-        epoch: isoEpoch(r.epochMs),
-        source: r.source,
-        model_fingerprint: r.modelFingerprint,
-        ztd_m: r.ztdM,
-        ztd_sigma_m: r.ztdSigmaM,
-        pressure_hpa: r.pressureHpa,
-        temperature_c: r.temperatureC,
-        zhd_m: r.zhdM,
-        zwd_m: r.zwdM,
-        zwd_sigma_m: r.zwdSigmaM,
-        tm_k: r.tmK,
-        tm_sigma_k: r.tmSigmaK,
-        conversion_factor: r.conversionFactor,
-        pwv_mm: r.pwvMm,
-        pwv_sigma_mm: r.pwvSigmaMm,
-        quality: r.quality,
-        pressure_quality: r.pressureQuality,
-        temperature_quality: r.temperatureQuality,
-      }));
       if (q.format === 'csv') {
-        return sendCsv(reply, STATION_PWV_CSV_COLUMNS, records, {
+        // Straight from the computed records to text: no intermediate objects for a station-year.
+        return sendCsv(reply, STATION_PWV_CSV_COLUMNS, result.records, pwvCsvLine, {
           'x-homogeneous': String(summary.homogeneous),
           'x-model-fingerprints': fingerprints.join(','),
         });
       }
+      const records = result.records.map(pwvJson);
       const retrieval = retrievalProvenance(maxMetGapMs);
       return {
         station_id: stationId,

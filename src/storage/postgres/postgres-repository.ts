@@ -12,7 +12,7 @@ import pg from 'pg';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
 import type { DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, TimeRange, WriteCounts } from '../repository.js';
 import { UnknownStationError } from '../repository.js';
-import { DELAY_SELECT, MET_SELECT, toDelayRow, toMetRow, toStation, type DelayDbRow, type MetDbRow, type StationDbRow } from '../rows.js';
+import { DELAY_SELECT, MET_SELECT, delayFromArray, metFromArray, toStation, type MetArrayRow, type StationDbRow } from '../rows.js';
 
 /** Key of the advisory lock that serialises migrations (an arbitrary constant of this service). */
 export const MIGRATION_LOCK_KEY = 7_421_903_311;
@@ -190,17 +190,15 @@ export class PostgresRepository implements Repository {
   }
 
   async readMet(stationId: string, range: TimeRange, source?: string): Promise<MetRow[]> {
-    const result =
-      source === undefined
-        ? await this.pool.query<MetDbRow>(
-            `SELECT ${MET_SELECT} FROM met_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 ORDER BY epoch_ms, source`,
-            [stationId, range.fromMs, range.toMs],
-          )
-        : await this.pool.query<MetDbRow>(
-            `SELECT ${MET_SELECT} FROM met_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 AND source = $4 ORDER BY epoch_ms, source`,
-            [stationId, range.fromMs, range.toMs, source],
-          );
-    return result.rows.map(toMetRow);
+    const result = await this.pool.query<MetArrayRow>({
+      text:
+        source === undefined
+          ? `SELECT ${MET_SELECT} FROM met_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 ORDER BY epoch_ms, source`
+          : `SELECT ${MET_SELECT} FROM met_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 AND source = $4 ORDER BY epoch_ms, source`,
+      values: source === undefined ? [stationId, range.fromMs, range.toMs] : [stationId, range.fromMs, range.toMs, source],
+      rowMode: 'array',
+    });
+    return result.rows.map(metFromArray);
   }
 
   async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts> {
@@ -250,17 +248,15 @@ export class PostgresRepository implements Repository {
   }
 
   async readDelays(stationId: string, range: TimeRange, source?: string): Promise<DelayRow[]> {
-    const result =
-      source === undefined
-        ? await this.pool.query<DelayDbRow>(
-            `SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 ORDER BY epoch_ms, source`,
-            [stationId, range.fromMs, range.toMs],
-          )
-        : await this.pool.query<DelayDbRow>(
-            `SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 AND source = $4 ORDER BY epoch_ms, source`,
-            [stationId, range.fromMs, range.toMs, source],
-          );
-    return result.rows.map(toDelayRow);
+    const result = await this.pool.query<unknown[]>({
+      text:
+        source === undefined
+          ? `SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 ORDER BY epoch_ms, source`
+          : `SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 AND source = $4 ORDER BY epoch_ms, source`,
+      values: source === undefined ? [stationId, range.fromMs, range.toMs] : [stationId, range.fromMs, range.toMs, source],
+      rowMode: 'array',
+    });
+    return result.rows.map(delayFromArray);
   }
 
   async readModelSets(fingerprints: readonly string[]): Promise<StoredModelSet[]> {

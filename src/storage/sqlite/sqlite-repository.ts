@@ -13,18 +13,7 @@ import Database from 'better-sqlite3';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
 import type { DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, TimeRange, WriteCounts } from '../repository.js';
 import { UnknownStationError } from '../repository.js';
-import {
-  DELAY_SELECT,
-  MET_SELECT,
-  delayValues,
-  metValues,
-  toDelayRow,
-  toMetRow,
-  toStation,
-  type DelayDbRow,
-  type MetDbRow,
-  type StationDbRow,
-} from '../rows.js';
+import { DELAY_SELECT, MET_SELECT, delayFromArray, delayValues, metFromArray, metValues, toStation, type MetArrayRow, type StationDbRow } from '../rows.js';
 
 export const SQLITE_FILE_NAME = 'tropodelay.sqlite';
 
@@ -94,10 +83,12 @@ export class SqliteRepository implements Repository {
          VALUES (?, ?, ?, ?, ?, ?, ?, ?) ON CONFLICT (station_id, epoch_ms, source) DO NOTHING`,
       ),
       updateMet: this.db.prepare(`UPDATE met_records SET ${metSet} WHERE station_id = ? AND epoch_ms = ? AND source = ? AND (${metDiffers})`),
-      readMet: this.db.prepare(`SELECT ${MET_SELECT} FROM met_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? ORDER BY epoch_ms, source`),
-      readMetSource: this.db.prepare(
-        `SELECT ${MET_SELECT} FROM met_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? AND source = ? ORDER BY epoch_ms, source`,
-      ),
+      readMet: this.db
+        .prepare(`SELECT ${MET_SELECT} FROM met_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? ORDER BY epoch_ms, source`)
+        .raw(true),
+      readMetSource: this.db
+        .prepare(`SELECT ${MET_SELECT} FROM met_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? AND source = ? ORDER BY epoch_ms, source`)
+        .raw(true),
       insertModelSet: this.db.prepare('INSERT INTO model_sets (model_fingerprint, models_json) VALUES (?, ?) ON CONFLICT (model_fingerprint) DO NOTHING'),
       insertDelay: this.db.prepare(
         `INSERT INTO delay_records (station_id, epoch_ms, source, ztd_m, ztd_sigma_m, zwd_m, zwd_sigma_m, north_gradient_m, east_gradient_m,
@@ -107,12 +98,12 @@ export class SqliteRepository implements Repository {
       updateDelay: this.db.prepare(
         `UPDATE delay_records SET ${delaySet} WHERE station_id = ? AND epoch_ms = ? AND source = ? AND (${delayDiffers})`,
       ),
-      readDelays: this.db.prepare(
-        `SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? ORDER BY epoch_ms, source`,
-      ),
-      readDelaysSource: this.db.prepare(
-        `SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? AND source = ? ORDER BY epoch_ms, source`,
-      ),
+      readDelays: this.db
+        .prepare(`SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? ORDER BY epoch_ms, source`)
+        .raw(true),
+      readDelaysSource: this.db
+        .prepare(`SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? AND source = ? ORDER BY epoch_ms, source`)
+        .raw(true),
       latestMet: this.db.prepare('SELECT MAX(epoch_ms) AS latest FROM met_records WHERE station_id = ?'),
       latestDelays: this.db.prepare('SELECT MAX(epoch_ms) AS latest FROM delay_records WHERE station_id = ?'),
     };
@@ -165,8 +156,8 @@ export class SqliteRepository implements Repository {
       source === undefined
         ? this.stmt.readMet.all(stationId, range.fromMs, range.toMs)
         : this.stmt.readMetSource.all(stationId, range.fromMs, range.toMs, source)
-    ) as MetDbRow[];
-    return rows.map(toMetRow);
+    ) as MetArrayRow[];
+    return rows.map(metFromArray);
   }
 
   async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts> {
@@ -191,8 +182,8 @@ export class SqliteRepository implements Repository {
       source === undefined
         ? this.stmt.readDelays.all(stationId, range.fromMs, range.toMs)
         : this.stmt.readDelaysSource.all(stationId, range.fromMs, range.toMs, source)
-    ) as DelayDbRow[];
-    return rows.map(toDelayRow);
+    ) as unknown[][];
+    return rows.map(delayFromArray);
   }
 
   async readModelSets(fingerprints: readonly string[]): Promise<StoredModelSet[]> {
