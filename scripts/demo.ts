@@ -1,0 +1,104 @@
+/**
+ * `npm run demo`: loads an invented demo network into the station archive and shows where to read
+ * it. The three stations (QUILL, BRACK, SALTM), their names and places are invented; all data is
+ * synthetic, made by scripts/synthetic/network.ts from a known truth.
+ *
+ *  1. creates the stations;
+ *  2. stores three days of hourly met per station from fixtures/demo/ (QUILL as JSON, BRACK as CSV,
+ *     SALTM as RINEX met 2.11 and 3.04 files), writing the fixtures first if they are missing;
+ *  3. deposits a 15-minute ZTD series per station: the generator's true ZTD plus 4 mm of white noise
+ *     (seeded), with the models that describe it;
+ *  4. reads the PWV back and compares it with the generator's true PWV;
+ *  5. prints the retrieval URLs.
+ *
+ * It works on the storage the service uses (TROPO_DATA_DIR, default ./data, or DATABASE_URL), in
+ * process, with the configured or generated bearer key; start the service afterwards with
+ * `npm start` and open the URLs. Running it again changes nothing (the writes are idempotent).
+ */
+
+import { existsSync, readFileSync } from 'node:fs';
+import { loadConfig } from '../src/config.js';
+import { archiveOptionsFromConfig, buildApp } from '../src/http/app.js';
+import { loadOrCreateKeyFile } from '../src/http/plugins/auth.js';
+import { DEMO_DAYS, DEMO_SEEDS, DEMO_START_MS, FIXTURE_DIR, writeDemoFixtures } from './generate-fixtures.js';
+import { DEMO_NETWORK, gaussian, mulberry32, truthSeries } from './synthetic/network.js';
+
+const QUARTER_HOUR = 900_000;
+const ZTD_NOISE_M = 0.004;
+
+const config = loadConfig();
+const archive = archiveOptionsFromConfig(config);
+const key = config.TROPO_API_KEYS[0] ?? loadOrCreateKeyFile(config.TROPO_DATA_DIR).key;
+const app = await buildApp({ archive });
+const auth = { authorization: `Bearer ${key}` };
+
+async function call(method: 'PUT' | 'POST' | 'GET', url: string, payload?: string | object, contentType = 'application/json') {
+  const res = await app.inject({ method, url, headers: { ...auth, 'content-type': contentType }, ...(payload === undefined ? {} : { payload }) });
+  if (res.statusCode >= 300) throw new Error(`${method} ${url}: ${res.statusCode} ${res.body}`);
+  return res.json();
+}
+
+try {
+  if (!existsSync(new URL('SALTM-met-day3.rnx', FIXTURE_DIR))) writeDemoFixtures();
+  const fixture = (name: string) => readFileSync(new URL(name, FIXTURE_DIR), 'utf8');
+  process.stdout.write('tropodelay demo: an invented network (names and places are not real), synthetic data with a known truth\n\n');
+
+  for (const s of DEMO_NETWORK) {
+    await call('PUT', `/v1/stations/${s.stationId}`, {
+      name: s.name,
+      latitude_deg: s.latitudeDeg,
+      longitude_deg: s.longitudeDeg,
+      height_m: s.heightM,
+      description: s.description,
+    });
+  }
+
+  const met = [
+    ['QUILL', 'JSON', await call('POST', '/v1/stations/QUILL/met', fixture('QUILL-met.json'))],
+    ['BRACK', 'CSV', await call('POST', '/v1/stations/BRACK/met?source=brack-logger', fixture('BRACK-met.csv'), 'text/csv')],
+    ['SALTM', 'RINEX 2.11', await call('POST', '/v1/stations/SALTM/met?source=saltm-rinex', fixture('SALTM-met-days1-2.26m'), 'text/plain')],
+    ['SALTM', 'RINEX 3.04', await call('POST', '/v1/stations/SALTM/met?source=saltm-rinex', fixture('SALTM-met-day3.rnx'), 'text/plain')],
+  ] as const;
+  for (const [id, form, r] of met) {
+    process.stdout.write(`met ${id.padEnd(5)} as ${form.padEnd(10)}: ${r.inserted} inserted, ${r.updated} updated, ${r.unchanged} unchanged, ${r.rejected_count} rejected\n`);
+  }
+
+  const count = DEMO_DAYS * 96 - 4; // inside the met coverage (hourly met over 3 days)
+  for (const s of DEMO_NETWORK) {
+    const truth = truthSeries(s, DEMO_START_MS, count, QUARTER_HOUR, DEMO_SEEDS[s.stationId]);
+    const noise = mulberry32(100 + DEMO_SEEDS[s.stationId]!);
+    const res = await call('POST', `/v1/stations/${s.stationId}/delays`, {
+      source: 'demo-truth-plus-noise',
+      models: { generator: 'scripts/synthetic/network.ts', ztd_noise_m: ZTD_NOISE_M, zhd: 'saastamoinen (IERS 2010 eq. 9.11)', tm: 'bevis-1992' },
+      records: truth.map((t) => ({
+        epoch: new Date(t.epochMs).toISOString(),
+        ztd_m: Math.round((t.ztdM + ZTD_NOISE_M * gaussian(noise)) * 1e5) / 1e5,
+        ztd_sigma_m: ZTD_NOISE_M,
+      })),
+    });
+    const pwv = await call('GET', `/v1/stations/${s.stationId}/precipitable-water?from=${new Date(DEMO_START_MS).toISOString()}&to=${new Date(DEMO_START_MS + DEMO_DAYS * 86_400_000).toISOString()}`);
+    let sum2 = 0;
+    let n = 0;
+    pwv.records.forEach((r: { pwv_mm: number | null }, i: number) => {
+      if (r.pwv_mm === null) return;
+      sum2 += (r.pwv_mm - truth[i]!.pwvMm) ** 2;
+      n++;
+    });
+    process.stdout.write(
+      `delays ${s.stationId.padEnd(5)}: ${res.inserted + res.updated + res.unchanged} ZTD records (fingerprint ${res.model_fingerprint}); PWV for ${n}, rms vs truth ${Math.sqrt(sum2 / n).toFixed(2)} mm (4 mm ZTD noise ≈ 0.6 mm PWV)\n`,
+    );
+  }
+
+  const base = `http://${config.HOST}:${config.PORT}`;
+  const from = new Date(DEMO_START_MS).toISOString();
+  const to = new Date(DEMO_START_MS + DEMO_DAYS * 86_400_000).toISOString();
+  process.stdout.write(`\nStart the service (npm start) and read:\n`);
+  process.stdout.write(`  ${base}/v1/stations\n`);
+  for (const s of DEMO_NETWORK) {
+    process.stdout.write(`  ${base}/v1/stations/${s.stationId}/precipitable-water?from=${from}&to=${to}&format=csv\n`);
+  }
+  process.stdout.write(`  ${base}/v1/stations/QUILL/met?from=${from}&to=${to}\n`);
+  process.stdout.write(`  ${base}/v1/stations/QUILL/delays?from=${from}&to=${to}\n`);
+} finally {
+  await app.close();
+}
