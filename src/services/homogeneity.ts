@@ -44,7 +44,7 @@ export function summariseModelSets(
     ? []
     : [
         `the range mixes ${model_sets.length} model sets, so the series is not homogeneous: ${model_sets
-          .map((m) => `${m.model_fingerprint} (${m.sources.join(', ')}) ${m.first_epoch}..${m.last_epoch}, ${m.count} records`)
+          .map((m) => `${m.model_fingerprint} (${m.sources.join(', ')}) ${m.first_epoch}..${m.last_epoch}, ${m.count} record${m.count === 1 ? '' : 's'}`)
           .join('; ')}`,
       ];
   return { homogeneous, model_sets, warnings };

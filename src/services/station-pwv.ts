@@ -184,14 +184,14 @@ export function stationPrecipitableWater(
   if (extraWarnings > 0) warnings.push(`… and ${extraWarnings} more warnings of the same kinds`);
   if (counts['met-missing'] > 0) {
     warnings.push(
-      `${counts['met-missing']} of ${records.length} records have no PWV: no pressure or temperature record within ${maxMetGapMs / 1000} s on both sides of their epoch (quality "met-missing")`,
+      `${counts['met-missing']} of ${records.length} record(s) have no PWV: no pressure or temperature record within ${maxMetGapMs / 1000} s on both sides of their epoch (quality "met-missing")`,
     );
   }
   if (counts['delay-sigma-unknown'] > 0) {
-    warnings.push(`${counts['delay-sigma-unknown']} records have no ztd_sigma_m: their pwv_sigma_mm is null (quality "delay-sigma-unknown")`);
+    warnings.push(`${counts['delay-sigma-unknown']} record(s) have no ztd_sigma_m: their pwv_sigma_mm is null (quality "delay-sigma-unknown")`);
   }
   if (counts['delay-sigma-large'] > 0) {
-    warnings.push(`${counts['delay-sigma-large']} records have ztd_sigma_m above ${maxZtdSigmaM} m (quality "delay-sigma-large")`);
+    warnings.push(`${counts['delay-sigma-large']} record(s) have ztd_sigma_m above ${maxZtdSigmaM} m (quality "delay-sigma-large")`);
   }
   return { records, warnings };
 }

@@ -122,7 +122,7 @@ for (const backend of BACKENDS) {
       expect(r[4]).toMatchObject({ quality: 'met-missing', pwv_mm: null, zhd_m: null, pressure_quality: 'missing' });
       // 10:00 temperature measured, no pressure → no PWV, never a defaulted pressure
       expect(r[5]).toMatchObject({ quality: 'met-missing', pwv_mm: null, pressure_hpa: null, temperature_quality: 'measured' });
-      expect(res.body.warnings.join(' ')).toMatch(/2 of 6 records have no PWV/);
+      expect(res.body.warnings.join(' ')).toMatch(/2 of 6 record\(s\) have no PWV/);
 
       // The gap limit is a parameter: 6 h bridges the outage.
       const wide = await api().get('/v1/stations/FERN/precipitable-water').query({ from: iso(T0), to: iso(T0 + 12 * H), max_met_gap_s: 6 * 3600 }).expect(200);
