@@ -4,10 +4,15 @@
  */
 
 import { randomUUID } from 'node:crypto';
-import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastify';
+import Fastify, { LogController, type FastifyInstance, type FastifyServerOptions } from 'fastify';
 import { validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
+import { defaultConfig, type Config } from '../config.js';
+import edge from './plugins/edge.js';
 import errorHandler from './plugins/error-handler.js';
+import metrics from './plugins/metrics.js';
 import openapi from './plugins/openapi.js';
+import readiness from './plugins/readiness.js';
+import requestLog from './plugins/request-log.js';
 import healthRoute from './routes/health.js';
 import mappingFactorsRoute from './routes/mapping-factors.js';
 import precipitableWaterRoute from './routes/precipitable-water.js';
@@ -15,16 +20,20 @@ import slantDelaysRoute from './routes/slant-delays.js';
 import zenithDelaysRoute from './routes/zenith-delays.js';
 
 export interface AppOptions {
+  config?: Partial<Config>;
   logger?: FastifyServerOptions['logger'];
 }
 
 export async function buildApp(options: AppOptions = {}): Promise<FastifyInstance> {
+  const config = defaultConfig(options.config);
   const app = Fastify({
     logger: options.logger ?? false,
+    // plugins/request-log.ts writes one line per request instead of fastify's two.
+    logController: new LogController({ disableRequestLogging: true }),
     bodyLimit: 1024 * 1024,
+    requestTimeout: config.REQUEST_TIMEOUT_MS,
     requestIdHeader: 'x-request-id',
     genReqId: () => randomUUID(),
-    ajv: undefined,
   }).withTypeProvider<ZodTypeProvider>();
 
   // Tables (CSV) and RINEX meteorological files arrive as text; routes that take them parse them.
@@ -40,7 +49,11 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   });
 
   await app.register(errorHandler);
+  await app.register(requestLog);
+  await app.register(metrics);
+  await app.register(edge, { config });
   await app.register(openapi);
+  await app.register(readiness);
   await app.register(healthRoute);
   await app.register(zenithDelaysRoute);
   await app.register(mappingFactorsRoute);
