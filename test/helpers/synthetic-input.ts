@@ -38,6 +38,6 @@ export function toEstimationInput(
       residualM: o.residualM.slice(),
       ...(withSigmas ? { sigmaM: o.sigmaM.slice() } : {}),
     },
-    options: { ...TEST_OPTIONS, ...options },
+    options: structuredClone({ ...TEST_OPTIONS, ...options }),
   };
 }
