@@ -14,6 +14,12 @@
  *
  * Constraints: x_{j+1} − x_j = 0 ± q √(Δ/1 h) (random walk), x_0 = 0 ± σ_0 (a priori).
  *
+ * Structure used for speed: the partials of an observation are a = B m, with
+ * m = (m_w(e), m_g(e) cos a, m_g(e) sin a) and B the epoch's 6×3 matrix of interpolation weights
+ * (1 − α, α for ZWD nodes j, j+1; 1 − β, β for gradient nodes l, l+1). So per observation only the
+ * 3×3 sums Σ w (m − m̄)(m − m̄)ᵀ are accumulated, and N_k = B M Bᵀ once per epoch; likewise
+ * (a − ū)ᵀ Q (a − ū) = (m − m̄)ᵀ (Bᵀ Q B) (m − m̄) for the residual variances.
+ *
  * Residual standard deviations (for screening): Q_v = Q_ℓ − Ā Q_x̄ Āᵀ of the full system, which
  * with the biases eliminated is, per observation,
  *     σ_v² = σ_i² − 1/s − (a_i − ū)ᵀ Q (a_i − ū)      (without bias: σ_i² − a_iᵀ Q a_i)

@@ -22,7 +22,7 @@ import {
   zwdM,
 } from './common.js';
 
-/** Body limit of the route [bytes]: 64 MiB, room for 7 days of 30 s data (~140 000 observations, ~17 MB of JSON). */
+/** Body limit of the route [bytes]: 64 MiB, room for 7 days of 30 s data (~160 000 observations, ~21 MB of JSON). */
 export const ZWD_BODY_LIMIT_BYTES = 64 * 1024 * 1024;
 export const MAX_OBSERVATIONS = 500_000;
 export const MAX_MET_RECORDS = 100_000;
