@@ -18,6 +18,7 @@ import mappingFactorsRoute from './routes/mapping-factors.js';
 import precipitableWaterRoute from './routes/precipitable-water.js';
 import slantDelaysRoute from './routes/slant-delays.js';
 import zenithDelaysRoute from './routes/zenith-delays.js';
+import zwdEstimatesRoute from './routes/zwd-estimates.js';
 
 export interface AppOptions {
   config?: Partial<Config>;
@@ -59,6 +60,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(mappingFactorsRoute);
   await app.register(slantDelaysRoute);
   await app.register(precipitableWaterRoute);
+  await app.register(zwdEstimatesRoute);
   await app.ready();
   return app;
 }
