@@ -1,32 +1,43 @@
 /**
- * Configuration from the environment, validated at start. An invalid value stops the start with a
- * message naming the variable.
+ * Configuration from the environment, validated at start with zod. An invalid value stops the
+ * start with a message naming the variable. README.md has the table of every variable.
  */
 
+import { availableParallelism } from 'node:os';
 import { z } from 'zod';
 
-/** Longest from..to range one read request may ask for [days] (default: one year plus a leap day). */
+/** Longest from..to range one read of a station series may ask for [days] (a station-year plus a leap day). */
 export const DEFAULT_MAX_READ_RANGE_DAYS = 366;
 
 const booleanFlag = z
-  .enum(['true', 'false', '1', '0', ''], { error: 'must be true or false' })
-  .default('false')
-  .transform((v) => v === 'true' || v === '1');
+  .enum(['true', 'false', '1', '0', 'yes', 'no'], { error: 'must be true or false' })
+  .transform((v) => v === 'true' || v === '1' || v === 'yes');
 
-const configSchema = z.object({
-  PORT: z.coerce.number().int().min(0).max(65535).default(8080).describe('TCP port to listen on'),
+const integer = (min: number, max: number) =>
+  z.coerce
+    .number({ error: `must be a whole number in ${min}..${max}` })
+    .int({ error: `must be a whole number in ${min}..${max}` })
+    .min(min, { error: `must be a whole number in ${min}..${max}` })
+    .max(max, { error: `must be a whole number in ${min}..${max}` });
+
+export const configSchema = z.object({
+  PORT: integer(0, 65535).default(8080).describe('TCP port to listen on'),
   HOST: z.string().min(1).default('127.0.0.1').describe('Address to bind; 0.0.0.0 in a container'),
-  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info').describe('pino log level'),
-  TROPO_DATA_DIR: z
-    .string()
-    .min(1, { error: 'must be a directory path' })
-    .default('./data')
-    .describe('Directory of the SQLite database and of the generated API key file'),
+  LOG_LEVEL: z
+    .enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'], { error: 'must be one of fatal, error, warn, info, debug, trace, silent' })
+    .default('info'),
+  REQUEST_TIMEOUT_MS: integer(1000, 3_600_000).default(120_000).describe('Longest time to receive and answer one request'),
+  SHUTDOWN_TIMEOUT_MS: integer(0, 600_000).default(25_000).describe('Longest wait for in-flight requests on SIGTERM'),
+  ESTIMATION_WORKERS: integer(1, 256).default(availableParallelism()).describe('Worker threads for estimation'),
+  ESTIMATION_QUEUE_LIMIT: integer(0, 10_000).default(32).describe('Estimations waiting for a worker before 503'),
+  RATE_LIMIT_PER_MINUTE: integer(0, 10_000_000).default(0).describe('Requests per minute per key or address; 0 = off'),
+  CORS_ORIGINS: z.string().default('').describe('Comma-separated allowed origins, or * ; empty = CORS off'),
+  SECURITY_HEADERS: booleanFlag.default(false).describe('Send the usual security headers (helmet)'),
+  TROPO_DATA_DIR: z.string().min(1, { error: 'must be a directory path' }).default('./data').describe('Directory of the SQLite database and of the generated API key file'),
   DATABASE_URL: z
     .string()
     .regex(/^postgres(ql)?:\/\//, { error: 'must be a postgres:// or postgresql:// connection URL' })
     .optional()
-    .or(z.literal('').transform(() => undefined))
     .describe('PostgreSQL connection URL; when set, the archive is stored there instead of SQLite'),
   TROPO_PG_SCHEMA: z
     .string()
@@ -39,11 +50,11 @@ const configSchema = z.object({
     .transform((v) => v.split(',').map((k) => k.trim()).filter(Boolean))
     .refine((keys) => keys.every((k) => k.length >= 16), { error: 'every key must have at least 16 characters' })
     .describe('Comma-separated bearer keys allowed to write (and to read when TROPO_READ_KEYS_REQUIRED=true)'),
-  TROPO_READ_KEYS_REQUIRED: booleanFlag.describe('Whether reads of /v1/stations need a key too'),
+  TROPO_READ_KEYS_REQUIRED: booleanFlag.default(false).describe('Whether reads of /v1/stations need a key too'),
   TROPO_MAX_READ_RANGE_DAYS: z.coerce
-    .number({ error: 'must be a number of days' })
-    .positive({ error: 'must be a number of days > 0' })
-    .max(36600, { error: 'must be at most 36600 days' })
+    .number({ error: 'must be a number of days in (0, 36600]' })
+    .positive({ error: 'must be a number of days in (0, 36600]' })
+    .max(36600, { error: 'must be a number of days in (0, 36600]' })
     .default(DEFAULT_MAX_READ_RANGE_DAYS)
     .describe('Longest from..to range of one read of a station series [days]'),
 });
@@ -52,13 +63,21 @@ export type Config = z.infer<typeof configSchema>;
 
 export class ConfigError extends Error {}
 
+/** Defaults for everything, for tests and tools that build the app without an environment. */
+export function defaultConfig(overrides: Partial<Config> = {}): Config {
+  return { ...configSchema.parse({}), ...overrides };
+}
+
+/** Variables whose values never appear in an error message. */
+const SECRET_VARIABLES = new Set(['TROPO_API_KEYS', 'DATABASE_URL']);
+
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
-  const parsed = configSchema.safeParse(env);
+  const relevant = Object.fromEntries(Object.keys(configSchema.shape).filter((k) => env[k] !== undefined && env[k] !== '').map((k) => [k, env[k]]));
+  const parsed = configSchema.safeParse(relevant);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => {
       const name = String(i.path[0]);
-      // Never echo a key back: name the variable only.
-      const shown = name === 'TROPO_API_KEYS' || name === 'DATABASE_URL' ? '(value hidden)' : JSON.stringify(env[name]);
+      const shown = SECRET_VARIABLES.has(name) ? '(value hidden)' : JSON.stringify(env[name]);
       return `${name}=${shown}: ${i.message}`;
     });
     throw new ConfigError(`invalid configuration: ${lines.join('; ')}`);

@@ -1,12 +1,14 @@
 /**
- * Entry point: reads the configuration, builds the app, listens, and shuts down on SIGTERM/SIGINT.
+ * Entry point: reads the configuration, builds the app, listens, and shuts down gracefully on
+ * SIGTERM/SIGINT: stop accepting, let in-flight requests finish (bounded by SHUTDOWN_TIMEOUT_MS),
+ * close the database (the storage plugin's onClose) and the worker pool, exit 0.
  */
 
-import { ConfigError, loadConfig } from './config.js';
+import { ConfigError, loadConfig, type Config } from './config.js';
 import { archiveOptionsFromConfig, buildApp } from './http/app.js';
 
 async function main(): Promise<void> {
-  let config;
+  let config: Config;
   try {
     config = loadConfig();
   } catch (err) {
@@ -17,24 +19,38 @@ async function main(): Promise<void> {
     throw err;
   }
   // Keys never reach the log: the Authorization header is redacted wherever a request is logged.
-  let app;
-  try {
-    app = await buildApp({
-      logger: { level: config.LOG_LEVEL, redact: ['req.headers.authorization', 'headers.authorization'] },
-      archive: archiveOptionsFromConfig(config),
-    });
-  } catch (err) {
-    process.stderr.write(`tropodelay: cannot start: ${(err as Error).message}\n`);
-    process.exit(1);
-  }
-  const close = async (signal: string) => {
-    app.log.info({ signal }, 'shutting down');
-    await app.close(); // closes the repository (storage plugin's onClose)
-    process.exit(0);
+  const app = await buildApp({
+    config,
+    logger: { level: config.LOG_LEVEL, redact: ['req.headers.authorization', 'headers.authorization'] },
+    archive: archiveOptionsFromConfig(config),
+  });
+
+  let closing = false;
+  const shutdown = async (signal: string) => {
+    if (closing) return;
+    closing = true;
+    app.log.info({ signal, timeoutMs: config.SHUTDOWN_TIMEOUT_MS }, 'shutting down: finishing in-flight requests');
+    const timer = setTimeout(() => {
+      app.log.error({ timeoutMs: config.SHUTDOWN_TIMEOUT_MS }, 'in-flight requests did not finish in time; exiting');
+      process.exit(1);
+    }, config.SHUTDOWN_TIMEOUT_MS);
+    timer.unref();
+    try {
+      await app.close();
+      app.log.info('shut down cleanly');
+      process.exit(0);
+    } catch (err) {
+      app.log.error({ err }, 'error while shutting down');
+      process.exit(1);
+    }
   };
-  process.once('SIGTERM', () => void close('SIGTERM'));
-  process.once('SIGINT', () => void close('SIGINT'));
+  process.once('SIGTERM', () => void shutdown('SIGTERM'));
+  process.once('SIGINT', () => void shutdown('SIGINT'));
+
   await app.listen({ port: config.PORT, host: config.HOST });
 }
 
-void main();
+main().catch((err: unknown) => {
+  process.stderr.write(`tropodelay: failed to start: ${err instanceof Error ? err.message : String(err)}\n`);
+  process.exit(1);
+});

@@ -17,7 +17,21 @@ export interface Provenance {
   model_fingerprint: string;
 }
 
+const cache = new Map<string, Provenance>();
+const CACHE_LIMIT = 1000;
+
+/** Provenance of a model set; memoised, since a service sees few distinct sets. */
 export function provenance(models: ModelSet): Provenance {
+  const key = JSON.stringify(models);
+  const hit = cache.get(key);
+  if (hit) return hit;
+  const computed = computeProvenance(models);
+  if (cache.size >= CACHE_LIMIT) cache.clear();
+  cache.set(key, computed);
+  return computed;
+}
+
+function computeProvenance(models: ModelSet): Provenance {
   const sorted = Object.fromEntries(Object.entries(models).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)));
   const fingerprint = createHash('sha256')
     .update(PROVENANCE_SCHEME + JSON.stringify(sorted))

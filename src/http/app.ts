@@ -4,15 +4,19 @@
  */
 
 import { randomUUID } from 'node:crypto';
-import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastify';
-import { serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
-import { DEFAULT_MAX_READ_RANGE_DAYS, type Config } from '../config.js';
+import Fastify, { LogController, type FastifyInstance, type FastifyServerOptions } from 'fastify';
+import { validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
+import { DEFAULT_MAX_READ_RANGE_DAYS, defaultConfig, type Config } from '../config.js';
 import type { StorageConfig } from '../storage/factory.js';
 import type { Repository } from '../storage/repository.js';
 import auth from './plugins/auth.js';
+import edge from './plugins/edge.js';
 import errorHandler from './plugins/error-handler.js';
-import storage from './plugins/storage.js';
+import metrics from './plugins/metrics.js';
 import openapi from './plugins/openapi.js';
+import readiness from './plugins/readiness.js';
+import requestLog from './plugins/request-log.js';
+import storage from './plugins/storage.js';
 import healthRoute from './routes/health.js';
 import mappingFactorsRoute from './routes/mapping-factors.js';
 import precipitableWaterRoute from './routes/precipitable-water.js';
@@ -20,8 +24,10 @@ import slantDelaysRoute from './routes/slant-delays.js';
 import stationDelaysRoute from './routes/station-delays.js';
 import stationMetRoute from './routes/station-met.js';
 import stationPwvRoute from './routes/station-precipitable-water.js';
+import stationZwdEstimatesRoute from './routes/station-zwd-estimates.js';
 import stationsRoute from './routes/stations.js';
 import zenithDelaysRoute from './routes/zenith-delays.js';
+import zwdEstimatesRoute from './routes/zwd-estimates.js';
 
 export interface ArchiveOptions {
   storage: StorageConfig;
@@ -36,12 +42,16 @@ export interface ArchiveOptions {
 }
 
 export interface AppOptions {
+  config?: Partial<Config>;
   logger?: FastifyServerOptions['logger'];
-  /** The station archive; absent = an empty in-memory SQLite archive that nobody can write to. */
+  /**
+   * The station archive. server.ts passes archiveOptionsFromConfig(config); absent = an empty
+   * in-memory SQLite archive that nobody can write to (tests of other routes, `npm run openapi`).
+   */
   archive?: ArchiveOptions;
 }
 
-/** Archive options from the validated environment (server.ts). */
+/** Archive options from the validated environment (server.ts, the demo). */
 export function archiveOptionsFromConfig(config: Config): ArchiveOptions {
   return {
     storage: { dataDir: config.TROPO_DATA_DIR, databaseUrl: config.DATABASE_URL, pgSchema: config.TROPO_PG_SCHEMA },
@@ -60,25 +70,36 @@ const IN_MEMORY_ARCHIVE: ArchiveOptions = {
 };
 
 export async function buildApp(options: AppOptions = {}): Promise<FastifyInstance> {
+  const config = defaultConfig(options.config);
   const app = Fastify({
     logger: options.logger ?? false,
+    // plugins/request-log.ts writes one line per request instead of fastify's two.
+    logController: new LogController({ disableRequestLogging: true }),
     bodyLimit: 1024 * 1024,
+    requestTimeout: config.REQUEST_TIMEOUT_MS,
     requestIdHeader: 'x-request-id',
     genReqId: () => randomUUID(),
-    ajv: undefined,
   }).withTypeProvider<ZodTypeProvider>();
 
   // Tables (CSV) and RINEX meteorological files arrive as text; routes that take them parse them.
   app.addContentTypeParser(['text/csv', 'text/plain'], { parseAs: 'string' }, (_request, body, done) => done(null, body));
   app.setValidatorCompiler(validatorCompiler);
-  app.setSerializerCompiler(serializerCompiler);
+  // Responses are built field by field in the handlers, so they are serialised with plain
+  // JSON.stringify; the response schemas document them (OpenAPI) and test/http/response-schemas.test.ts
+  // checks every route's answers against them. (Validating each response with zod costs a third of
+  // the throughput of a single-point request.)
+  app.setSerializerCompiler(() => (data) => JSON.stringify(data));
   app.addHook('onSend', async (request, reply) => {
     reply.header('x-request-id', request.id);
   });
 
-  const archive = options.archive ?? IN_MEMORY_ARCHIVE;
   await app.register(errorHandler);
+  await app.register(requestLog);
+  await app.register(metrics);
+  await app.register(edge, { config });
   await app.register(openapi);
+  await app.register(readiness);
+  const archive = options.archive ?? IN_MEMORY_ARCHIVE;
   await app.register(storage, { storage: archive.storage, ...(archive.repository ? { repository: archive.repository } : {}) });
   await app.register(auth, {
     keys: archive.apiKeys,
@@ -90,11 +111,13 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(mappingFactorsRoute);
   await app.register(slantDelaysRoute);
   await app.register(precipitableWaterRoute);
+  await app.register(zwdEstimatesRoute);
   const stationOptions = { maxReadRangeDays: archive.maxReadRangeDays };
   await app.register(stationsRoute);
   await app.register(stationMetRoute, stationOptions);
   await app.register(stationDelaysRoute, stationOptions);
   await app.register(stationPwvRoute, stationOptions);
+  await app.register(stationZwdEstimatesRoute, stationOptions);
   await app.ready();
   return app;
 }

@@ -59,6 +59,8 @@ export function sendProblem(reply: FastifyReply, problem: Problem): FastifyReply
 
 /** An error a route throws to answer with a problem (a 4xx the schema cannot express). */
 export class HttpProblem extends Error {
+  /** Mirrors `status` for plugins that read `statusCode` from what they throw. */
+  readonly statusCode: number;
   constructor(
     readonly status: number,
     message: string,
@@ -66,5 +68,6 @@ export class HttpProblem extends Error {
     readonly headers?: Record<string, string>,
   ) {
     super(message);
+    this.statusCode = status;
   }
 }

@@ -103,6 +103,9 @@ export interface Repository {
   /** Latest epoch stored for the station in the series [ms], or null when it is empty. */
   latestEpochMs(stationId: string, series: 'met' | 'delays'): Promise<number | null>;
 
+  /** Answers when the database is reachable and its schema is at the latest migration; throws otherwise. */
+  ping(): Promise<void>;
+
   close(): Promise<void>;
 }
 

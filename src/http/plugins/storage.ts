@@ -23,6 +23,8 @@ export interface StoragePluginOptions {
 async function storage(app: FastifyInstance, options: StoragePluginOptions): Promise<void> {
   const repository = options.repository ?? (await createRepository(options.storage));
   app.decorate('repository', repository);
+  // GET /v1/ready answers 503 while the database does not answer or is not migrated.
+  if (app.hasDecorator('addReadinessCheck')) app.addReadinessCheck('database', () => repository.ping());
   app.addHook('onClose', async () => {
     await repository.close();
   });

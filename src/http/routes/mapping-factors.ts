@@ -43,7 +43,7 @@ const mappingFactorsRoute: FastifyPluginAsyncZod = async (app) => {
         hydrostatic,
         wet,
         gradient,
-        ...provenance(mappingProvenance(model, gradient_model, coefficients)),
+        ...provenance(mappingProvenance(model, gradient_model)),
         warnings: lowElevationWarning(elevations_deg),
       };
     },

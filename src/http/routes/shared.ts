@@ -59,10 +59,13 @@ export function prepareMapping(
   });
 }
 
-export function mappingProvenance(model: MappingModelKey, gradientModel: string, coefficients?: { ah: number; aw: number }) {
+/**
+ * Provenance of the mapping part. Caller coefficients (VMF1 a values) are inputs that change with
+ * every epoch, not settings, so they do not enter the fingerprint.
+ */
+export function mappingProvenance(model: MappingModelKey, gradientModel: string) {
   return {
     mapping: `${model}: ${MAPPING_MODELS[model].citation}`,
-    ...(coefficients ? { mapping_ah: coefficients.ah, mapping_aw: coefficients.aw } : {}),
     gradient_mapping: `${gradientModel}: ${GRADIENT_MODELS[gradientModel]!.citation}`,
   };
 }

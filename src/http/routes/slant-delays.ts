@@ -118,7 +118,7 @@ const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
         slants,
         ...provenance({
           ...(apriori ? zenithProvenance(body.wet_model) : { zhd: 'caller', zwd: 'caller' }),
-          ...mappingProvenance(body.model, body.gradient_model, body.coefficients),
+          ...mappingProvenance(body.model, body.gradient_model),
         }),
         warnings,
       };

@@ -275,6 +275,12 @@ export class PostgresRepository implements Repository {
     return latest === null ? null : Number(latest);
   }
 
+  async ping(): Promise<void> {
+    const result = await this.pool.query<{ version: number | null }>('SELECT MAX(version) AS version FROM schema_migrations');
+    const latest = MIGRATIONS[MIGRATIONS.length - 1]!.version;
+    if (result.rows[0]?.version !== latest) throw new Error(`schema at migration ${result.rows[0]?.version ?? 'none'}, expected ${latest}`);
+  }
+
   async close(): Promise<void> {
     await this.pool.end();
   }

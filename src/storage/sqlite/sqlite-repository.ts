@@ -200,6 +200,12 @@ export class SqliteRepository implements Repository {
     return row.latest === null ? null : Number(row.latest);
   }
 
+  async ping(): Promise<void> {
+    const row = this.db.prepare('SELECT MAX(version) AS version FROM schema_migrations').get() as { version: number | null };
+    const latest = MIGRATIONS[MIGRATIONS.length - 1]!.version;
+    if (row.version !== latest) throw new Error(`schema at migration ${row.version}, expected ${latest}`);
+  }
+
   async close(): Promise<void> {
     if (this.db.open) this.db.close();
   }

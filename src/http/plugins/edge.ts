@@ -1,0 +1,46 @@
+/**
+ * What sits at the edge of the service, all off by default inside an agency network and switched on
+ * by configuration: security headers (@fastify/helmet), CORS (@fastify/cors) and rate limiting per
+ * API key or client address (@fastify/rate-limit).
+ */
+
+import { createHash } from 'node:crypto';
+import cors from '@fastify/cors';
+import helmet from '@fastify/helmet';
+import rateLimit from '@fastify/rate-limit';
+import type { FastifyInstance } from 'fastify';
+import fp from 'fastify-plugin';
+import type { Config } from '../../config.js';
+import { HttpProblem } from '../problem.js';
+
+export interface EdgeOptions {
+  config: Pick<Config, 'SECURITY_HEADERS' | 'CORS_ORIGINS' | 'RATE_LIMIT_PER_MINUTE'>;
+}
+
+async function edge(app: FastifyInstance, { config }: EdgeOptions): Promise<void> {
+  if (config.SECURITY_HEADERS) {
+    // The interactive docs at /docs load their own scripts and styles, which a strict CSP would block.
+    await app.register(helmet, { contentSecurityPolicy: false });
+  }
+  const origins = config.CORS_ORIGINS.split(',').map((s) => s.trim()).filter(Boolean);
+  if (origins.length > 0) {
+    await app.register(cors, { origin: origins.includes('*') ? true : origins, exposedHeaders: ['x-request-id', 'retry-after'] });
+  }
+  if (config.RATE_LIMIT_PER_MINUTE > 0) {
+    await app.register(rateLimit, {
+      max: config.RATE_LIMIT_PER_MINUTE,
+      timeWindow: 60_000,
+      // One budget per API key (hashed: keys are never kept in clear) or, without a key, per address.
+      keyGenerator: (request) => {
+        const auth = request.headers.authorization;
+        return auth ? `key:${createHash('sha256').update(auth).digest('hex').slice(0, 16)}` : `ip:${request.ip}`;
+      },
+      allowList: (request) => ['/v1/health', '/v1/ready', '/metrics'].includes(request.url.split('?')[0]!),
+      // The plugin throws what this returns; the error handler turns it into a problem response.
+      errorResponseBuilder: (_request, context) =>
+        new HttpProblem(429, `more than ${context.max} requests per minute; retry after ${Math.ceil(context.ttl / 1000)} s`),
+    });
+  }
+}
+
+export default fp(edge, { name: 'edge' });

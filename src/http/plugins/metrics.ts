@@ -1,0 +1,79 @@
+/**
+ * Prometheus metrics (prom-client), served at GET /metrics in the text exposition format:
+ * request counts and latency per route and status, estimation run time and size, process metrics.
+ * Each app has its own registry, so several apps in one process (tests) do not collide.
+ */
+
+import type { FastifyInstance } from 'fastify';
+import fp from 'fastify-plugin';
+import { collectDefaultMetrics, Counter, Gauge, Histogram, Registry } from 'prom-client';
+
+export interface ServiceMetrics {
+  registry: Registry;
+  requests: Counter<'method' | 'route' | 'status'>;
+  requestDuration: Histogram<'method' | 'route' | 'status'>;
+  /** Run time of one estimation, labelled by what ran [s]. */
+  computeDuration: Histogram<'task'>;
+  /** Size of one estimation: observations. */
+  computeSize: Histogram<'task'>;
+  /** Tasks waiting for a worker thread. */
+  workerQueue: Gauge;
+}
+
+declare module 'fastify' {
+  interface FastifyInstance {
+    metrics: ServiceMetrics;
+  }
+}
+
+async function metrics(app: FastifyInstance): Promise<void> {
+  const registry = new Registry();
+  collectDefaultMetrics({ register: registry, prefix: 'tropodelay_' });
+  const m: ServiceMetrics = {
+    registry,
+    requests: new Counter({
+      name: 'tropodelay_http_requests_total',
+      help: 'HTTP requests answered, by method, route pattern and status',
+      labelNames: ['method', 'route', 'status'],
+      registers: [registry],
+    }),
+    requestDuration: new Histogram({
+      name: 'tropodelay_http_request_duration_seconds',
+      help: 'Time from receiving a request to sending its answer [s]',
+      labelNames: ['method', 'route', 'status'],
+      buckets: [0.001, 0.0025, 0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1, 2.5, 5, 10, 30],
+      registers: [registry],
+    }),
+    computeDuration: new Histogram({
+      name: 'tropodelay_compute_duration_seconds',
+      help: 'Run time of one off-loop computation (estimation, ray tracing) in a worker [s]',
+      labelNames: ['task'],
+      buckets: [0.001, 0.005, 0.01, 0.05, 0.1, 0.25, 0.5, 1, 2.5, 5, 10, 30, 60],
+      registers: [registry],
+    }),
+    computeSize: new Histogram({
+      name: 'tropodelay_compute_size',
+      help: 'Size of one off-loop computation (observations or levels)',
+      labelNames: ['task'],
+      buckets: [10, 100, 1000, 10_000, 100_000, 1_000_000],
+      registers: [registry],
+    }),
+    workerQueue: new Gauge({ name: 'tropodelay_worker_queue_length', help: 'Computations waiting for a worker thread', registers: [registry] }),
+  };
+  app.decorate('metrics', m);
+
+  app.addHook('onResponse', async (request, reply) => {
+    // Unmatched URLs are counted under one label, so scanners cannot blow up the label set.
+    const route = request.routeOptions.url ?? 'unmatched';
+    const labels = { method: request.method, route, status: String(reply.statusCode) };
+    m.requests.inc(labels);
+    m.requestDuration.observe(labels, reply.elapsedTime / 1000);
+  });
+
+  app.get('/metrics', { schema: { hide: true } }, async (_request, reply) => {
+    reply.type(registry.contentType);
+    return registry.metrics();
+  });
+}
+
+export default fp(metrics, { name: 'metrics' });

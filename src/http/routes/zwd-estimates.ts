@@ -1,0 +1,49 @@
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { runZwdEstimation } from '../../services/zwd-estimation.js';
+import { HttpProblem } from '../problem.js';
+import { problemSchema } from '../schemas/common.js';
+import {
+  MAX_OBSERVATIONS,
+  ZWD_BODY_LIMIT_BYTES,
+  zwdCsvQuerySchema,
+  zwdEstimatesRequest,
+  zwdEstimatesResponse,
+} from '../schemas/zwd-estimates.js';
+import { csvRequestBody } from '../zwd-csv.js';
+
+const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
+  app.post(
+    '/v1/zwd-estimates',
+    {
+      bodyLimit: ZWD_BODY_LIMIT_BYTES,
+      schema: {
+        summary: 'Zenith wet delay and gradients estimated from residuals, with random-walk constraints',
+        description: [
+          'Least-squares estimate of r_i = m_w(e_i) δw(t_k) + m_g(e_i) [cos a_i G_N(t_k) + sin a_i G_E(t_k)] + b_k + ε_i with Niell (1996) wet mapping at the site latitude, Chen & Herring (1997) gradient mapping (C = 0.0032), δw, G_N, G_E piecewise linear between nodes T0 + jΔ under random-walk constraints, and one free bias b_k per epoch (pre-eliminated).',
+          'Formal errors of the nodes and of δw at every epoch (with the covariance of the adjacent nodes); outlier screening by the normalised residual τ = v/(σ̂0 σ_v) (Pope 1976).',
+          'With met records, each epoch also gets ZHD from the measured pressure, ZWD = ZTD − ZHD, Tm (Bevis et al. 1992) and PWV (Bevis et al. 1994).',
+          `Bodies: application/json (this schema) or text/csv: a table with the header row epoch,satellite,elevation_deg,azimuth_deg,residual_m[,sigma_m], with the site and options as query parameters (latitude_deg, longitude_deg, height_m required; zwd_interval_s, gradients=on|off, gradient_interval_s, ..., "null" or "off" for null). Up to ${MAX_OBSERVATIONS} observations. Body limit: ${ZWD_BODY_LIMIT_BYTES} bytes (64 MiB; 7 days of 30 s data is about 21 MB of JSON).`,
+        ].join(' '),
+        tags: ['estimation'],
+        querystring: zwdCsvQuerySchema,
+        body: zwdEstimatesRequest,
+        response: { 200: zwdEstimatesResponse, 400: problemSchema, 413: problemSchema, 415: problemSchema, 422: problemSchema },
+      },
+      preValidation: async (request) => {
+        if (typeof request.body !== 'string') return;
+        const type = (request.headers['content-type'] ?? '').split(';')[0]!.trim().toLowerCase();
+        if (type !== 'text/csv') {
+          throw new HttpProblem(415, `content type ${type || '(none)'} is not accepted here; send application/json or text/csv`);
+        }
+        // Not yet validated: the body schema validates it next, exactly like a JSON body.
+        request.body = csvRequestBody(request.body, request.query) as typeof request.body;
+      },
+    },
+    async (request) => {
+      const { site, ...body } = request.body;
+      return runZwdEstimation(site, body);
+    },
+  );
+};
+
+export default zwdEstimatesRoute;

@@ -1,0 +1,209 @@
+import { describe, expect, it } from 'vitest';
+import { generateSyntheticResiduals } from '../../scripts/synthetic-residuals.js';
+import { ModelDomainError } from '../../src/domain/errors.js';
+import { estimateZwd, estimateZwdOutcome } from '../../src/estimation/estimate.js';
+import type { ZwdEstimationInput } from '../../src/estimation/types.js';
+import { denseZwdEstimate } from '../helpers/dense-estimation.js';
+import { toEstimationInput } from '../helpers/synthetic-input.js';
+import { M } from '../helpers/units.js';
+
+const LATITUDE_DEG = 46.2;
+const SAME_M = 1e-6 * M;
+const H = 3600;
+
+function thrown(f: () => unknown): ModelDomainError {
+  try {
+    f();
+  } catch (err) {
+    if (err instanceof ModelDomainError) return err;
+    throw err;
+  }
+  throw new Error('expected a ModelDomainError');
+}
+
+describe('a single epoch (issue: one node when there is a single epoch)', () => {
+  const data = generateSyntheticResiduals({ durationS: 0, latitudeDeg: LATITUDE_DEG });
+  const input = toEstimationInput(data, LATITUDE_DEG, { scaleSigmas: false, outlierThreshold: null });
+  const out = estimateZwd(input);
+
+  it('has one ZWD node and one gradient node, at the epoch, and one series entry', () => {
+    expect(out.zwdNodes.length).toBe(1);
+    expect(out.gradientNodes.length).toBe(1);
+    expect(out.epochs.length).toBe(1);
+    expect(out.zwdNodes[0]!.epochMs).toBe(data.observations.epochMs[0]);
+    expect(out.epochs[0]!.correctionM).toBe(out.zwdNodes[0]!.correctionM);
+    expect(out.epochs[0]!.sigmaM).toBeCloseTo(out.zwdNodes[0]!.sigmaM, 15);
+  });
+
+  it('equals the dense solution (biases as unknowns)', () => {
+    const dense = denseZwdEstimate(input);
+    expect(Math.abs(out.zwdNodes[0]!.correctionM - dense.zwdNodesM[0]!)).toBeLessThan(SAME_M);
+    expect(Math.abs(out.zwdNodes[0]!.sigmaM - dense.zwdNodeSigmaM[0]!)).toBeLessThan(SAME_M);
+    expect(Math.abs(out.gradientNodes[0]!.northM - dense.northNodesM[0]!)).toBeLessThan(SAME_M);
+    expect(out.statistics.degreesOfFreedom).toBe(dense.degreesOfFreedom);
+  });
+});
+
+describe('a gap of several hours', () => {
+  // 10 h of data with nothing from 3 h to 7 h.
+  const data = generateSyntheticResiduals({ durationS: 10 * H, samplingS: 60, latitudeDeg: LATITUDE_DEG, gaps: [[3 * H, 7 * H]] });
+  const input = toEstimationInput(data, LATITUDE_DEG, { scaleSigmas: false, outlierThreshold: null });
+  const out = estimateZwd(input);
+  const t0 = data.observations.epochMs[0]!;
+  const at = (hours: number) => out.zwdNodes.find((n) => n.epochMs === t0 + hours * H * 1000)!;
+
+  it('keeps the nodes in the gap (constrained by the random walk only) and no series entries there', () => {
+    expect(out.zwdNodes.length).toBe(121);
+    expect(out.epochs.some((e) => e.epochMs > t0 + 3 * H * 1000 && e.epochMs < t0 + 7 * H * 1000)).toBe(false);
+  });
+
+  it('sigma grows into the gap and is largest in its middle: q √(Δt) of a random walk bridged from both ends', () => {
+    const outside = at(1).sigmaM;
+    expect(at(4).sigmaM).toBeGreaterThan(3 * outside);
+    expect(at(5).sigmaM).toBeGreaterThan(at(4).sigmaM);
+    expect(at(5).sigmaM).toBeGreaterThan(at(6).sigmaM);
+    // Brownian bridge over T = 4 h: σ(mid) = q √(T/4) = 0.01 m/√h · 1 √h = 10 mm (plus the end-point errors, common practice).
+    expect(at(5).sigmaM).toBeGreaterThan(0.0095);
+    expect(at(5).sigmaM).toBeLessThan(0.0110);
+  });
+
+  it('in the gap the estimate is the straight line between the edges (random-walk smoothing)', () => {
+    const a = at(3).correctionM;
+    const b = at(7).correctionM;
+    expect(at(5).correctionM).toBeCloseTo((a + b) / 2, 9);
+  });
+
+  it('equals the dense solution', () => {
+    const dense = denseZwdEstimate(input);
+    out.zwdNodes.forEach((n, j) => {
+      expect(Math.abs(n.correctionM - dense.zwdNodesM[j]!)).toBeLessThan(SAME_M);
+      expect(Math.abs(n.sigmaM - dense.zwdNodeSigmaM[j]!)).toBeLessThan(SAME_M);
+    });
+  });
+});
+
+describe('bad input and a system that cannot be solved', () => {
+  const base = () => toEstimationInput(generateSyntheticResiduals({ durationS: 2 * H, samplingS: 120, latitudeDeg: LATITUDE_DEG }), LATITUDE_DEG);
+
+  it('duplicate (epoch, satellite): 400 naming both observations', () => {
+    const input = base();
+    const o = input.observations;
+    o.epochMs.push(o.epochMs[3]!);
+    o.satellite.push(o.satellite[3]!);
+    o.elevationRad.push(0.5);
+    o.azimuthRad.push(1);
+    o.residualM.push(0);
+    const err = thrown(() => estimateZwd(input));
+    expect(err.status).toBe(400);
+    expect(err.field).toBe(`observations.${o.epochMs.length - 1}`);
+    expect(err.message).toMatch(/also observations\.3/);
+  });
+
+  it('a duplicate below the cutoff is still a duplicate', () => {
+    const input = base();
+    const o = input.observations;
+    o.epochMs.push(o.epochMs[0]!, o.epochMs[0]!);
+    o.satellite.push('X99', 'X99');
+    o.elevationRad.push(0.02, 0.03);
+    o.azimuthRad.push(1, 2);
+    o.residualM.push(0, 0);
+    expect(thrown(() => estimateZwd(input)).status).toBe(400);
+  });
+
+  it('nothing at or above the cutoff: 422 stating the cutoff', () => {
+    const input = base();
+    input.options.elevationCutoffRad = (89 * Math.PI) / 180;
+    const err = thrown(() => estimateZwd(input));
+    expect(err.status).toBe(422);
+    expect(err.message).toMatch(/89\.00°/);
+  });
+
+  it('too many nodes for the span: 400 naming the interval option', () => {
+    const input = base();
+    input.options.zwd.intervalS = 0.01;
+    const err = thrown(() => estimateZwd(input));
+    expect(err.status).toBe(400);
+    expect(err.field).toBe('options.zwd_interval_s');
+  });
+
+  it('a node in a gap without random-walk or a-priori constraints: 422 naming the node and saying why', () => {
+    const data = generateSyntheticResiduals({ durationS: 3 * H, samplingS: 120, latitudeDeg: LATITUDE_DEG, gaps: [[1 * H, 2 * H]] });
+    const input = toEstimationInput(data, LATITUDE_DEG, {
+      zwd: { intervalS: 600, randomWalkMPerSqrtH: null, aprioriSigmaM: null },
+      gradients: null,
+    });
+    const err = thrown(() => estimateZwd(input));
+    expect(err.status).toBe(422);
+    expect(err.field).toBe('observations');
+    expect(err.message).toMatch(/zenith wet delay node 7 at 2026-03-14T01:10:00\.000Z is not determined: no observation touches it/);
+    expect(err.message).toMatch(/zwd_random_walk_m_per_sqrt_h is null/);
+  });
+
+  it('one satellite per epoch with epoch biases and no constraints: the ZWD cannot be told from the bias (422)', () => {
+    const data = generateSyntheticResiduals({ durationS: 1 * H, samplingS: 120, latitudeDeg: LATITUDE_DEG });
+    const o = data.observations;
+    const first = new Map<number, number>();
+    o.epochMs.forEach((t, i) => first.has(t) || first.set(t, i));
+    const keep = [...first.values()];
+    const single = {
+      ...data,
+      observations: {
+        epochMs: keep.map((i) => o.epochMs[i]!),
+        satellite: keep.map((i) => o.satellite[i]!),
+        elevationDeg: keep.map((i) => o.elevationDeg[i]!),
+        azimuthDeg: keep.map((i) => o.azimuthDeg[i]!),
+        residualM: keep.map((i) => o.residualM[i]!),
+        sigmaM: keep.map((i) => o.sigmaM[i]!),
+      },
+    };
+    const input = toEstimationInput(single, LATITUDE_DEG, {
+      zwd: { intervalS: 600, randomWalkMPerSqrtH: null, aprioriSigmaM: null },
+      gradients: null,
+      elevationCutoffRad: 0,
+    });
+    const err = thrown(() => estimateZwd(input));
+    expect(err.status).toBe(422);
+    expect(err.message).toMatch(/zenith wet delay node 0 .* observations touch it, but they do not separate it .* epoch_bias/);
+    // With the default constraints the same data are solvable: the a-priori constraint decides,
+    // and with one observation per epoch there are no degrees of freedom.
+    const constrained = estimateZwd({ ...input, options: { ...input.options, zwd: { intervalS: 600, randomWalkMPerSqrtH: 0.01, aprioriSigmaM: 0.5 } } });
+    expect(constrained.statistics.degreesOfFreedom).toBe(0);
+    expect(constrained.statistics.varianceFactor).toBeNull();
+    expect(constrained.zwdNodes[0]!.sigmaM).toBeCloseTo(0.5, 6); // the a-priori σ: the data add nothing
+    expect(constrained.warnings.join(' ')).toMatch(/no degrees of freedom/);
+  });
+
+  it('estimateZwdOutcome returns domain errors as plain data (for a worker thread)', () => {
+    const input = base();
+    input.options.elevationCutoffRad = (89 * Math.PI) / 180;
+    const outcome = estimateZwdOutcome(input);
+    expect(outcome.ok).toBe(false);
+    if (!outcome.ok) expect(outcome.error).toEqual({ field: 'observations', message: expect.stringMatching(/cutoff/), status: 422 });
+    expect(structuredClone(outcome)).toEqual(outcome);
+    const good = estimateZwdOutcome(base());
+    expect(good.ok && structuredClone(good.output)).toEqual(good.ok && good.output);
+  });
+});
+
+describe('screening limits', () => {
+  it('stops at max_rejections with a warning and screening_complete false', () => {
+    const data = generateSyntheticResiduals({ durationS: 4 * H, latitudeDeg: LATITUDE_DEG, grossErrors: 8 });
+    const input: ZwdEstimationInput = toEstimationInput(data, LATITUDE_DEG, { maxRejections: 3 });
+    const out = estimateZwd(input);
+    expect(out.rejected.length).toBe(3);
+    expect(out.statistics.screeningComplete).toBe(false);
+    expect(out.warnings.join(' ')).toMatch(/stopped after 3 rejections/);
+  });
+
+  it('formal errors scaled by √(variance factor) when scale_sigmas is on', () => {
+    const data = generateSyntheticResiduals({ durationS: 2 * H, latitudeDeg: LATITUDE_DEG, sigma0M: 0.006 });
+    const input = toEstimationInput(data, LATITUDE_DEG, { outlierThreshold: null }); // assumes σ0 = 3 mm: variance factor ≈ 4
+    const unscaled = estimateZwd({ ...input, options: { ...input.options, scaleSigmas: false } });
+    const scaled = estimateZwd({ ...input, options: { ...input.options, scaleSigmas: true } });
+    const vf = scaled.statistics.varianceFactor!;
+    expect(vf).toBeGreaterThan(3);
+    expect(vf).toBeLessThan(5);
+    expect(scaled.statistics.sigmaScale).toBeCloseTo(Math.sqrt(vf), 12);
+    scaled.zwdNodes.forEach((n, j) => expect(n.sigmaM).toBeCloseTo(unscaled.zwdNodes[j]!.sigmaM * Math.sqrt(vf), 12));
+  });
+});
