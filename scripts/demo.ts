@@ -7,8 +7,10 @@
  *  2. stores three days of hourly met per station from fixtures/demo/ (QUILL as JSON, BRACK as CSV,
  *     SALTM as RINEX met 2.11 and 3.04 files), writing the fixtures first if they are missing;
  *  3. deposits a 15-minute ZTD series per station: the generator's true ZTD plus 4 mm of white noise
- *     (seeded), with the models that describe it;
- *  4. reads the PWV back and compares it with the generator's true PWV;
+ *     (seeded), with the models that describe it, and reads the PWV back against the true PWV;
+ *  4. runs the ZWD estimation for each station on six hours of 30 s residuals generated from a known
+ *     random-walk ZWD (scripts/synthetic-residuals.ts), with the station's stored met, and stores the
+ *     result as a second delay series (so the first six hours mix two model sets: the retrieval says so);
  *  5. prints the retrieval URLs.
  *
  * It works on the storage the service uses (TROPO_DATA_DIR, default ./data, or DATABASE_URL), in
@@ -21,7 +23,8 @@ import { loadConfig } from '../src/config.js';
 import { archiveOptionsFromConfig, buildApp } from '../src/http/app.js';
 import { loadOrCreateKeyFile } from '../src/http/plugins/auth.js';
 import { DEMO_DAYS, DEMO_SEEDS, DEMO_START_MS, FIXTURE_DIR, writeDemoFixtures } from './generate-fixtures.js';
-import { DEMO_NETWORK, gaussian, mulberry32, truthSeries } from './synthetic/network.js';
+import { generateSyntheticResiduals, toRequestBody, truthZwdAt } from './synthetic-residuals.js';
+import { DEMO_NETWORK, gaussian, mulberry32, saastamoinenZhdM, truthSeries } from './synthetic/network.js';
 
 const QUARTER_HOUR = 900_000;
 const ZTD_NOISE_M = 0.004;
@@ -76,7 +79,10 @@ try {
         ztd_sigma_m: ZTD_NOISE_M,
       })),
     });
-    const pwv = await call('GET', `/v1/stations/${s.stationId}/precipitable-water?from=${new Date(DEMO_START_MS).toISOString()}&to=${new Date(DEMO_START_MS + DEMO_DAYS * 86_400_000).toISOString()}`);
+    const pwv = await call(
+      'GET',
+      `/v1/stations/${s.stationId}/precipitable-water?source=demo-truth-plus-noise&from=${new Date(DEMO_START_MS).toISOString()}&to=${new Date(DEMO_START_MS + DEMO_DAYS * 86_400_000).toISOString()}`,
+    );
     let sum2 = 0;
     let n = 0;
     pwv.records.forEach((r: { pwv_mm: number | null }, i: number) => {
@@ -89,6 +95,34 @@ try {
     );
   }
 
+  process.stdout.write('\n');
+  for (const s of DEMO_NETWORK) {
+    // Six hours of 30 s residuals from a known random-walk ZWD (δw) with the station's coordinates.
+    const data = generateSyntheticResiduals({
+      seed: DEMO_SEEDS[s.stationId]!,
+      startIso: new Date(DEMO_START_MS + 3_600_000).toISOString(),
+      durationS: 6 * 3600,
+      latitudeDeg: s.latitudeDeg,
+      longitudeDeg: s.longitudeDeg,
+      heightM: s.heightM,
+    });
+    const { observations } = toRequestBody(data, { latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, heightM: s.heightM });
+    // The residuals were formed with this a-priori: ZHD of the met at the start, ZWD 0.
+    const startMet = truthSeries(s, DEMO_START_MS + 3_600_000, 1, 1, DEMO_SEEDS[s.stationId])[0]!;
+    const aprioriZhdM = Math.round(saastamoinenZhdM(startMet.pressureHpa, s.latitudeDeg, s.heightM) * 1e4) / 1e4;
+    const res = await call('POST', `/v1/stations/${s.stationId}/zwd-estimates`, {
+      observations,
+      apriori: { zhd_m: aprioriZhdM, zwd_m: 0 },
+      options: { zwd_interval_s: 900 },
+      source: 'demo-estimation',
+    });
+    let sum2 = 0;
+    for (const e of res.series) sum2 += (e.correction_m - truthZwdAt(data.truth, Date.parse(e.epoch))) ** 2;
+    process.stdout.write(
+      `estimation ${s.stationId.padEnd(5)}: ${observations.length} residuals, ${res.series.length} epochs stored (met: ${res.met_used}, fingerprint ${res.model_fingerprint}); ZWD correction rms vs truth ${(Math.sqrt(sum2 / res.series.length) * 1000).toFixed(1)} mm\n`,
+    );
+  }
+
   const base = `http://${config.HOST}:${config.PORT}`;
   const from = new Date(DEMO_START_MS).toISOString();
   const to = new Date(DEMO_START_MS + DEMO_DAYS * 86_400_000).toISOString();
@@ -98,7 +132,10 @@ try {
     process.stdout.write(`  ${base}/v1/stations/${s.stationId}/precipitable-water?from=${from}&to=${to}&format=csv\n`);
   }
   process.stdout.write(`  ${base}/v1/stations/QUILL/met?from=${from}&to=${to}\n`);
-  process.stdout.write(`  ${base}/v1/stations/QUILL/delays?from=${from}&to=${to}\n`);
+  process.stdout.write(`  ${base}/v1/stations/QUILL/delays?from=${from}&to=${to}   (homogeneous: false: two model sets in 01:00-07:00)\n`);
+  process.stdout.write(
+    `  ${base}/v1/stations/QUILL/precipitable-water?source=demo-estimation&from=${new Date(DEMO_START_MS + 3_600_000).toISOString()}&to=${new Date(DEMO_START_MS + 7 * 3_600_000).toISOString()}\n`,
+  );
 } finally {
   await app.close();
 }
