@@ -1,6 +1,7 @@
 /** Archive configuration variables (issue 4): defaults, and invalid values stop the start naming the variable. */
 import { describe, expect, it } from 'vitest';
 import { ConfigError, DEFAULT_MAX_READ_RANGE_DAYS, loadConfig } from '../src/config.js';
+import { archiveOptionsFromConfig } from '../src/http/app.js';
 
 describe('archive configuration (src/config.ts; README table)', () => {
   it('has the documented defaults', () => {
@@ -33,6 +34,11 @@ describe('archive configuration (src/config.ts; README table)', () => {
   ])('%s=%s stops the start with a message naming the variable', (name, value) => {
     expect(() => loadConfig({ [name]: value })).toThrow(ConfigError);
     expect(() => loadConfig({ [name]: value })).toThrow(new RegExp(`^invalid configuration: ${name}=`));
+  });
+
+  it('with DATABASE_URL and no keys, the generated key file still goes to TROPO_DATA_DIR', () => {
+    const archive = archiveOptionsFromConfig(loadConfig({ DATABASE_URL: 'postgres://u@127.0.0.1/db', TROPO_DATA_DIR: '/srv/tropo' }));
+    expect(archive).toMatchObject({ keyDir: '/srv/tropo', apiKeys: [], storage: { databaseUrl: 'postgres://u@127.0.0.1/db', pgSchema: 'public' } });
   });
 
   it('never echoes a key or a database URL in the message', () => {

@@ -75,17 +75,3 @@ CREATE INDEX delay_records_fingerprint ON delay_records (model_fingerprint);
 export function migrationSql(m: Migration, dialect: 'sqlite' | 'postgres'): string {
   return typeof m.sql === 'string' ? m.sql : m.sql[dialect];
 }
-
-/** Columns of the series tables, in the order the repositories bind them. */
-export const MET_VALUE_COLUMNS = ['pressure_hpa', 'temperature_c', 'relative_humidity_pct', 'dewpoint_c', 'vapour_pressure_hpa'] as const;
-export const DELAY_VALUE_COLUMNS = [
-  'ztd_m',
-  'ztd_sigma_m',
-  'zwd_m',
-  'zwd_sigma_m',
-  'north_gradient_m',
-  'east_gradient_m',
-  'north_gradient_sigma_m',
-  'east_gradient_sigma_m',
-  'model_fingerprint',
-] as const;

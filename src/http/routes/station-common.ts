@@ -54,14 +54,11 @@ export function sendCsv<T>(reply: FastifyReply, columns: readonly string[], rows
   return reply.type('text/csv; charset=utf-8').send(lines.join('\n'));
 }
 
-/** CSV cells of a record whose keys are the columns. */
+/** CSV cells of a record whose keys are the columns (text cells quoted when they need it; null empty). */
 export const recordLine =
   (columns: readonly string[]) =>
-  (r: Record<string, string | number | boolean | null>): string => {
-    let out = '';
-    for (let c = 0; c < columns.length; c++) out += (c ? ',' : '') + csvCell(r[columns[c]!]);
-    return out;
-  };
+  (r: Record<string, string | number | boolean | null>): string =>
+    columns.map((c) => (typeof r[c] === 'string' ? csvCell(r[c]) : r[c])).join(',');
 
 /**
  * Route validator: the body is checked against `envelope` (a text body — CSV, RINEX — passes as
