@@ -153,10 +153,10 @@ export function stationPrecipitableWater(
       { ztdM: d.ztdM, ztdSigmaM: d.ztdSigmaM ?? undefined, pressureHpa, temperatureC },
       latRad,
       station.heightM,
-      `records.${i}`,
     );
     for (const w of res.warnings) {
-      if (warnings.length < MAX_WARNINGS) warnings.push(w);
+      // The field prefix is added only here: a string per record would cost a station-year 100k strings.
+      if (warnings.length < MAX_WARNINGS) warnings.push(`records.${i}.${w}`);
       else extraWarnings++;
     }
     const sigmaKnown = d.ztdSigmaM !== null;

@@ -12,7 +12,8 @@ import { resolveSeriesRange } from './series-range.js';
  * Output precision, far below every uncertainty involved (and it halves the size and the time of a
  * station-year as CSV): delays 1 µm, PWV 0.0001 mm, pressure 0.0001 hPa, temperatures 0.0001 K, Π 1e-8.
  */
-const round = (x: number | null, digits: number): number | null => (x === null ? null : Math.round(x * 10 ** digits) / 10 ** digits);
+const SCALE = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8];
+const round = (x: number | null, digits: number): number | null => (x === null ? null : Math.round(x * SCALE[digits]!) / SCALE[digits]!);
 export const OUTPUT_DECIMALS = { m: 6, mm: 4, hpa: 4, k: 4, pi: 8 } as const;
 const D = OUTPUT_DECIMALS;
 
