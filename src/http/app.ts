@@ -7,6 +7,7 @@ import { randomUUID } from 'node:crypto';
 import Fastify, { LogController, type FastifyInstance, type FastifyServerOptions } from 'fastify';
 import { validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
 import { defaultConfig, type Config } from '../config.js';
+import computePool from './plugins/compute-pool.js';
 import edge from './plugins/edge.js';
 import errorHandler from './plugins/error-handler.js';
 import metrics from './plugins/metrics.js';
@@ -53,6 +54,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(requestLog);
   await app.register(metrics);
   await app.register(edge, { config });
+  await app.register(computePool, { config });
   await app.register(openapi);
   await app.register(readiness);
   await app.register(healthRoute);

@@ -41,7 +41,7 @@ const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
     },
     async (request) => {
       const { site, ...body } = request.body;
-      return runZwdEstimation(site, body);
+      return runZwdEstimation(site, body, (input) => app.compute.run('zwd-estimate', input, input.observations.epochMs.length));
     },
   );
 };
