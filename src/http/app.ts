@@ -11,6 +11,7 @@ import openapi from './plugins/openapi.js';
 import healthRoute from './routes/health.js';
 import mappingFactorsRoute from './routes/mapping-factors.js';
 import precipitableWaterRoute from './routes/precipitable-water.js';
+import profileDelaysRoute from './routes/profile-delays.js';
 import slantDelaysRoute from './routes/slant-delays.js';
 import zenithDelaysRoute from './routes/zenith-delays.js';
 
@@ -42,6 +43,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(mappingFactorsRoute);
   await app.register(slantDelaysRoute);
   await app.register(precipitableWaterRoute);
+  await app.register(profileDelaysRoute);
   await app.ready();
   return app;
 }
