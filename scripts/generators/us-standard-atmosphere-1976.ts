@@ -121,6 +121,13 @@ export interface ColumnOptions {
   surfaceRelativeHumidityPct?: number;
   /** Height above which the column is dry [m]. */
   dryAboveM?: number;
+  /** Added to the standard's temperature at every height [K] (warmer or colder climates); default 0. */
+  temperatureOffsetK?: number;
+}
+
+/** Temperature of a column at a height [K]: the standard's plus the offset. */
+export function columnTemperatureK(heightM: number, options: ColumnOptions): number {
+  return ussa1976(heightM).temperatureK + (options.temperatureOffsetK ?? 0);
 }
 
 /** Ratio of the molecular weights of water and dry air, Mw/M0 = 18.01528/28.9644 [-]. */
@@ -140,13 +147,13 @@ export function ruleRelativeHumidityPct(heightM: number, options: ColumnOptions)
   return rh0 * (1 - (0.8 * Math.min(Math.max(heightM, 0), 10_000)) / 10_000);
 }
 
-/** Vapour pressure of the synthetic rule at a height [hPa]: RH/100 · e_w(T) with the standard's T. */
+/** Vapour pressure of the synthetic rule at a height [hPa]: RH/100 · e_w(T) with the column's T. */
 export function ruleVapourPressureHpa(heightM: number, options: ColumnOptions): number {
-  return (ruleRelativeHumidityPct(heightM, options) / 100) * generatorSaturationHpa(ussa1976(heightM).temperatureK - 273.15);
+  return (ruleRelativeHumidityPct(heightM, options) / 100) * generatorSaturationHpa(columnTemperatureK(heightM, options) - 273.15);
 }
 
 /**
- * Pressure of the humid column [hPa]: the standard's temperature and the humidity rule, in
+ * Pressure of the humid column [hPa]: the column's temperature and the humidity rule, in
  * hydrostatic balance with the standard's gravity,
  *   dP/dz = −g(z) ρ = −g(z) (P − (1 − ε) e) / (Rd T)
  * (the virtual-temperature form of the hydrostatic equation), integrated from 1013.25 hPa at 0 m
@@ -154,7 +161,7 @@ export function ruleVapourPressureHpa(heightM: number, options: ColumnOptions): 
  */
 export function humidPressureHpa(heightsM: readonly number[], options: ColumnOptions): number[] {
   const slope = (z: number, p: number) => {
-    const tK = ussa1976(z).temperatureK;
+    const tK = columnTemperatureK(z, options);
     return (-ussaGravity(z) * (p - (1 - GENERATOR_EPSILON) * ruleVapourPressureHpa(z, options))) / (GENERATOR_RD * tK);
   };
   const out: number[] = [];
@@ -181,13 +188,14 @@ export function humidPressureHpa(heightsM: readonly number[], options: ColumnOpt
  * A column at the given geometric altitudes (ascending, ≥ 0 m). Humidity rule (synthetic, not a
  * climatology): RH(z) = RH0 (1 − 0.8 z / 10 km) up to 10 km, RH0/5 from 10 km to `dryAboveM`
  * (default 16 km), 0 above; e = RH/100 · e_w(T) with the generator's own e_w. A dry column has the
- * standard's pressures; a humid one the pressures of `humidPressureHpa`.
+ * standard's pressures; a humid one, or one with a temperature offset, the pressures of
+ * `humidPressureHpa`.
  */
 export function column(heightsM: readonly number[], options: ColumnOptions = {}): GeneratedLevel[] {
-  const humid = (options.surfaceRelativeHumidityPct ?? 0) > 0;
-  const pressures = humid ? humidPressureHpa(heightsM, options) : heightsM.map((h) => ussa1976(h).pressureHpa);
+  const integrate = (options.surfaceRelativeHumidityPct ?? 0) > 0 || (options.temperatureOffsetK ?? 0) !== 0;
+  const pressures = integrate ? humidPressureHpa(heightsM, options) : heightsM.map((h) => ussa1976(h).pressureHpa);
   return heightsM.map((heightM, i) => {
-    const { temperatureK } = ussa1976(heightM);
+    const temperatureK = columnTemperatureK(heightM, options);
     const relativeHumidityPct = ruleRelativeHumidityPct(heightM, options);
     return {
       heightM,

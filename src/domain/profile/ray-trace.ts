@@ -8,8 +8,9 @@
  *   n r cos θ = a (constant along the ray)
  *
  * θ is the local elevation of the ray. A chord from radius r1 (elevation θ1) to r2 has length
- * (r2² − r1²)/(r2 sin θ2' + r1 sin θ1), with cos θ2' = r1 cos θ1 / r2, and advances the central angle
- * by θ2' − θ1.
+ * ds = (r2² − r1²)/(r2 sin θ2' + r1 sin θ1), with cos θ2' = r1 cos θ1 / r2, and advances the central
+ * angle by θ2' − θ1 = asin(ds cos θ1 / r2) (law of sines in the triangle centre–entry–exit; this form
+ * keeps full precision where the difference of the two angles would not).
  *
  * Definitions (issue 6):
  * - the launch (apparent) elevation θ0 is the ray's elevation at the antenna, in the lowest shell;
@@ -87,7 +88,7 @@ export function traceRay(column: TraceableColumn, launchRad: number): RayTrace |
     const s1 = Math.sqrt((1 - c1) * (1 + c1));
     const s2 = Math.sqrt((1 - c2) * (1 + c2));
     const ds = ((r2 - r1) * (r2 + r1)) / (r2 * s2 + r1 * s1);
-    centralAngleRad += Math.atan2(s2, c2) - Math.atan2(s1, c1);
+    centralAngleRad += Math.asin((c1 * ds) / r2); // law of sines in the triangle centre–entry–exit: no cancellation
     pathLengthM += ds;
     hydrostatic += hydrostaticN[j]! * ds;
     wet += wetN[j]! * ds;
@@ -96,7 +97,10 @@ export function traceRay(column: TraceableColumn, launchRad: number): RayTrace |
   const cTop = a / rTop; // n = 1 above the column
   const thetaTop = Math.atan2(Math.sqrt((1 - cTop) * (1 + cTop)), cTop);
   const vacuumElevationRad = thetaTop - centralAngleRad;
-  const projection = rTop * Math.sin(centralAngleRad) * Math.cos(vacuumElevationRad) + (rTop * Math.cos(centralAngleRad) - r0) * Math.sin(vacuumElevationRad);
+  // r_top cos ψ − r0 written as (r_top − r0) − 2 r_top sin²(ψ/2) to keep its digits.
+  const halfAngleSin = Math.sin(centralAngleRad / 2);
+  const rise = rTop - r0 - 2 * rTop * halfAngleSin * halfAngleSin;
+  const projection = rTop * Math.sin(centralAngleRad) * Math.cos(vacuumElevationRad) + rise * Math.sin(vacuumElevationRad);
   return {
     launchRad,
     vacuumElevationRad,
