@@ -293,6 +293,9 @@ export function interpolateInLayer(column: Column, i: number, heightM: number): 
 export function columnFromSite(column: Column, siteHeightM: number, warnings: string[], bottomField = 'levels.0.height_m'): PreparedColumn {
   const n = column.heightM.length;
   const z0 = column.heightM[0]!;
+  if (!(siteHeightM < column.heightM[n - 1]!)) {
+    throw new ModelDomainError('site.height_m', `the site (${siteHeightM} m) must lie below the top level of the profile (${fmt(column.heightM[n - 1]!)} m)`, 400);
+  }
   if (z0 > siteHeightM) {
     const dz = z0 - siteHeightM;
     if (dz > MAX_DOWNWARD_EXTENSION_M) {
@@ -322,7 +325,7 @@ export function columnFromSite(column: Column, siteHeightM: number, warnings: st
     };
   }
   let i = 0;
-  while (column.heightM[i + 1]! <= siteHeightM) i++; // the top is above any site (MIN_TOP_HEIGHT_M > 9000 m)
+  while (column.heightM[i + 1]! <= siteHeightM) i++; // stops below the top (checked above)
   if (column.heightM[i] === siteHeightM) {
     if (i > 0) warnings.push(`${i} levels below the site height were not used; the column starts at level ${i}`);
     return { ...sliceColumn(column, i), levelsUsed: n - i, levelsBelowSite: i, extendedDownM: 0 };

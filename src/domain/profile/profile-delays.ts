@@ -16,7 +16,6 @@
  * pressures are in hydrostatic balance (otherwise a warning says by how much they are not).
  */
 
-import { DEG } from '../constants.js';
 import { gaussianRadiusM } from '../geometry/earth-radius.js';
 import type { MappingEvaluator } from '../mapping/types.js';
 import { PER_N_UNIT } from './constants.js';
@@ -202,6 +201,3 @@ export function computeProfileDelays(input: ProfileDelaysInput): ProfileDelaysRe
     warnings,
   };
 }
-
-/** Degrees helper for callers that report angles. */
-export const radToDeg = (rad: number): number => rad / DEG;

@@ -113,6 +113,9 @@ describe('the column starts at the site height', () => {
     expect(Math.abs(c.pressureHpa[0]! - ussa1976(700).pressureHpa)).toBeLessThan(0.02 * HPA);
     expect(Math.abs(c.temperatureK[0]! - ussa1976(700).temperatureK)).toBeLessThan(0.01);
   });
+  it('the site must lie below the top', () => {
+    expect(() => columnFromSite(levels, 20_000, [])).toThrow(/must lie below the top level/);
+  });
   it('but not by more than 1000 m', () => {
     const above = validateLevels(toDomainLevels(column(evenHeightsM(500, 1500, 20_000))), gravity, 0, []);
     expect(() => columnFromSite(above, 0, [])).toThrow(/extended down to the site by at most 1000 m/);
