@@ -91,6 +91,7 @@ const HUMIDITY_FIELDS: Record<HumidityQuantity, keyof ProfileLevelInput> = {
 };
 
 const at = (i: number, field: string) => `levels.${i}.${field}`;
+const count = (n: number, noun: string) => `${n} ${noun}${n === 1 ? '' : 's'}`;
 const fmt = (x: number, digits = 3) => Number(x.toPrecision(digits + 3)).toString();
 
 /**
@@ -196,7 +197,7 @@ export function validateLevels(
   }
   if (extrapolated.length) {
     warnings.push(
-      `${extrapolated.length} levels colder than −45 °C give humidity as relative humidity or dew point (levels ${listIndices(extrapolated)}): the WMO-No. 8 saturation formula is extrapolated there (vapour pressures below 0.1 hPa)`,
+      `${count(extrapolated.length, 'level')} colder than −45 °C ${extrapolated.length === 1 ? 'gives' : 'give'} humidity as relative humidity or dew point (${extrapolated.length === 1 ? 'level' : 'levels'} ${listIndices(extrapolated)}): the WMO-No. 8 saturation formula is extrapolated there (vapour pressures below 0.1 hPa)`,
     );
   }
   if (usesGeopotential) {
@@ -238,11 +239,11 @@ function checkLayers(column: Column, gravity: GravityAtLatitude, warnings: strin
   }
   if (inconsistent.length) {
     warnings.push(
-      `${inconsistent.length} layers (levels ${inconsistent.slice(0, 8).join(', ')}${inconsistent.length > 8 ? ', …' : ''}) are thicker or thinner than their pressures and temperatures allow by more than ${HYPSOMETRIC_TOLERANCE * 100} % (${firstExample}); check heights, pressures and units`,
+      `${count(inconsistent.length, 'layer')} (levels ${inconsistent.slice(0, 8).join(', ')}${inconsistent.length > 8 ? ', …' : ''}) ${inconsistent.length === 1 ? 'is' : 'are'} thicker or thinner than their pressures and temperatures allow by more than ${HYPSOMETRIC_TOLERANCE * 100} % (${firstExample}); check heights, pressures and units`,
     );
   }
   if (thick.length) {
-    warnings.push(`${thick.length} layers are thicker than ${THICK_LAYER_WARNING_M} m (from levels ${listIndices(thick)}); values inside them are interpolated`);
+    warnings.push(`${count(thick.length, 'layer')} thicker than ${THICK_LAYER_WARNING_M} m (from levels ${listIndices(thick)}); values inside them are interpolated`);
   }
 }
 
@@ -327,12 +328,12 @@ export function columnFromSite(column: Column, siteHeightM: number, warnings: st
   let i = 0;
   while (column.heightM[i + 1]! <= siteHeightM) i++; // stops below the top (checked above)
   if (column.heightM[i] === siteHeightM) {
-    if (i > 0) warnings.push(`${i} levels below the site height were not used; the column starts at level ${i}`);
+    if (i > 0) warnings.push(`${count(i, 'level')} below the site height not used; the column starts at level ${i}`);
     return { ...sliceColumn(column, i), levelsUsed: n - i, levelsBelowSite: i, extendedDownM: 0 };
   }
   const bottom = interpolateInLayer(column, i, siteHeightM);
   const rest = sliceColumn(column, i + 1);
-  warnings.push(`${i + 1} levels below the site height were not used; the column starts at the site height, interpolated between levels ${i} and ${i + 1}`);
+  warnings.push(`${count(i + 1, 'level')} below the site height not used; the column starts at the site height, interpolated between levels ${i} and ${i + 1}`);
   return {
     heightM: prepend(siteHeightM, rest.heightM),
     pressureHpa: prepend(bottom.pressureHpa, rest.pressureHpa),
