@@ -174,10 +174,10 @@ export function validateLevels(
     }
     const saturation = moistSaturationVapourPressureHpa(level.temperatureC, level.pressureHpa);
     if (quantity !== 'relative_humidity_pct' && e > (SUPERSATURATION_LIMIT_PCT / 100) * saturation) {
-      const what = quantity === 'dewpoint_c' ? `dew point ${value} °C above the temperature ${level.temperatureC} °C` : `vapour pressure ${fmt(e)} hPa`;
+      const what = quantity === 'dewpoint_c' ? `dew point ${value} °C is above the temperature ${level.temperatureC} °C` : `gives a vapour pressure of ${fmt(e)} hPa`;
       throw new ModelDomainError(
         at(i, quantity),
-        `${what} is ${fmt((100 * e) / saturation)} % of saturation at ${level.temperatureC} °C (${fmt(saturation)} hPa); at most ${SUPERSATURATION_LIMIT_PCT} % is accepted`,
+        `${what}: ${((100 * e) / saturation).toFixed(1)} % of saturation (${fmt(saturation)} hPa at ${level.temperatureC} °C); at most ${SUPERSATURATION_LIMIT_PCT} % is accepted`,
         400,
       );
     }
