@@ -15,6 +15,9 @@
  * temperature: only its shape (the scale height Rd T/γ) does, and with it a little of the
  * hydrostatic mapping factor at low elevations. The wet delay above the top is taken as zero
  * (profile-delays.ts warns when the vapour pressure at the top makes that questionable).
+ *
+ * Valid for a top above 10 km (levels.ts enforces it), where at most about a quarter of the ZHD lies in
+ * the extension; any top temperature > 0 K.
  */
 
 import { RD_J_PER_KG_K } from '../constants.js';

@@ -14,6 +14,10 @@
  *   carries a warning naming the levels);
  * - the enhancement-factor fit drops below 1 (unphysical) under about 46 hPa; above the 50 hPa level
  *   f = 1 is used (a change of 0.03 % of a vapour pressure that is below 0.01 hPa there).
+ *
+ * Valid for the API's level ranges (t −130..60 °C, p 0..1100 hPa, q 0..0.04 kg/kg); nothing is
+ * clamped. Whether the result is physical (not above saturation, below the total pressure) is
+ * checked by levels.ts, which names the level.
  */
 
 import { CELSIUS_ZERO_K } from '../constants.js';

@@ -15,6 +15,9 @@
  * - Tm = ∫(e/T) dz / ∫(e/T²) dz (Davis et al. 1985, eq. 18; Bevis et al. 1992, eq. 9);
  *   null for a dry column.
  * - Mean gravity of the column g_m = Ps / ∫dP/γ [m/s²] (what Saastamoinen's formula approximates).
+ *
+ * Valid for any column built by shells.ts (pressures decreasing, temperatures > 0 K). Outputs in m,
+ * mm (PWV) and K (Tm).
  */
 
 import { RD_J_PER_KG_K, RHO_WATER_KG_M3 } from '../constants.js';

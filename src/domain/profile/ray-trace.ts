@@ -27,6 +27,10 @@
  * `traceToVacuumElevation` iterates on the launch angle (secant steps kept inside a bracket, with
  * bisection as the fall-back) until the vacuum elevation is met within 1e-10 rad: at 5° the slant
  * delay changes by about 300 m per radian of elevation, so the iteration error is below 0.1 µm.
+ *
+ * Valid for launch angles [0, π/2] and vacuum elevations (0, π/2] (the API refuses 0 and below); a
+ * direction no ray from the antenna reaches is a ModelDomainError (422), never a clamped answer.
+ * The satellite is taken at infinity (parallel rays), the definition of issue 6.
  */
 
 import { ModelDomainError } from '../errors.js';
