@@ -17,6 +17,7 @@ import requestLog from './plugins/request-log.js';
 import healthRoute from './routes/health.js';
 import mappingFactorsRoute from './routes/mapping-factors.js';
 import precipitableWaterRoute from './routes/precipitable-water.js';
+import profileDelaysRoute from './routes/profile-delays.js';
 import slantDelaysRoute from './routes/slant-delays.js';
 import zenithDelaysRoute from './routes/zenith-delays.js';
 import zwdEstimatesRoute from './routes/zwd-estimates.js';
@@ -63,6 +64,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(slantDelaysRoute);
   await app.register(precipitableWaterRoute);
   await app.register(zwdEstimatesRoute);
+  await app.register(profileDelaysRoute);
   await app.ready();
   return app;
 }
