@@ -133,20 +133,12 @@ function collapseWarnings(lines: string[]): string[] {
   return [...counts].map(([l, c]) => (c > 1 ? `${l} (${c} epochs)` : l));
 }
 
-/** Runs the estimation proper: inline by default, in a worker thread from the HTTP routes. */
-export type Estimator = (input: ZwdEstimationInput) => Promise<ZwdEstimationOutput>;
-
 /**
  * @param site the station (deg, m)
  * @param body validated body (zwdEstimationBody)
- * @param estimate where estimateZwd runs (inline by default)
  * @throws ModelDomainError 400/422 (the error handler turns it into a problem response)
  */
-export async function runZwdEstimation(
-  site: ZwdSite,
-  body: ZwdEstimationBody,
-  estimate: Estimator = async (input) => estimateZwd(input),
-): Promise<ZwdEstimatesResponse> {
+export async function runZwdEstimation(site: ZwdSite, body: ZwdEstimationBody): Promise<ZwdEstimatesResponse> {
   const latitudeRad = site.latitude_deg * DEG;
   const warnings: string[] = [];
   const zhdSource = body.apriori?.zhd_m === undefined ? ('standard-atmosphere' as const) : ('caller' as const);
@@ -158,7 +150,7 @@ export async function runZwdEstimation(
     );
   }
 
-  const output: ZwdEstimationOutput = await estimate(toEstimationInput(site, body));
+  const output: ZwdEstimationOutput = estimateZwd(toEstimationInput(site, body));
   warnings.push(...output.warnings);
 
   const epochsMs = output.epochs.map((e) => e.epochMs);

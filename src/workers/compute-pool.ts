@@ -5,8 +5,8 @@
  */
 
 import { Piscina } from 'piscina';
-import { ModelDomainError } from '../domain/errors.js';
-import type { ComputeResponse, ComputeTaskInput, ComputeTaskName } from './tasks.js';
+import type { TaskOutcome } from '../services/zwd-request.js';
+import type { ComputeResponse, ComputeTaskInput, ComputeTaskName, ComputeTaskOutput } from './tasks.js';
 
 export interface ComputePoolOptions {
   /** Worker threads (default: the machine's cores). */
@@ -23,7 +23,12 @@ export class ComputePoolFullError extends Error {
   }
 }
 
-type DataOutcome<O> = { ok: true; output: O } | { ok: false; error: { field: string; message: string; status: 400 | 422 } };
+/** A task's error outcome (a 4xx of the caller's making), rethrown on the calling side. */
+export class ComputeTaskError extends Error {
+  constructor(readonly error: Extract<TaskOutcome<unknown>, { ok: false }>['error']) {
+    super(error.detail);
+  }
+}
 
 /** Running from TypeScript sources (tests, `tsx`), the worker loads them through tsx as well. */
 function workerLocation(): { filename: string; execArgv: string[] } {
@@ -45,14 +50,15 @@ export class ComputePool {
   }
 
   /**
-   * Runs a task in a worker. A model-domain error of the task is rethrown as ModelDomainError.
+   * Runs a task in a worker.
    *
    * @throws ComputePoolFullError when the queue is full
+   * @throws ComputeTaskError when the task answers with an error outcome
    */
-  async run<T extends ComputeTaskName, O>(task: T, input: ComputeTaskInput<T>): Promise<O> {
+  async run<T extends ComputeTaskName>(task: T, input: ComputeTaskInput<T>): Promise<ComputeTaskOutput<T>> {
     const pool = (this.pool ??= new Piscina({
       ...workerLocation(),
-      minThreads: 1,
+      minThreads: this.options.threads, // all started at once: no thread is spawned in the middle of a load
       maxThreads: this.options.threads,
       maxQueue: this.options.queueLimit,
       idleTimeout: 60_000,
@@ -65,8 +71,8 @@ export class ComputePool {
       throw err;
     }
     this.options.onTaskDone?.(task, response.durationMs / 1000);
-    const outcome = response.outcome as DataOutcome<O>;
-    if (!outcome.ok) throw new ModelDomainError(outcome.error.field, outcome.error.message, outcome.error.status);
+    const outcome = response.outcome as TaskOutcome<ComputeTaskOutput<T>>;
+    if (!outcome.ok) throw new ComputeTaskError(outcome.error);
     return outcome.output;
   }
 

@@ -2,6 +2,6 @@
 
 import { runComputeTask, type ComputeRequest, type ComputeResponse } from './tasks.js';
 
-export default function computeWorker(request: ComputeRequest): ComputeResponse {
+export default function computeWorker(request: ComputeRequest): Promise<ComputeResponse> {
   return runComputeTask(request);
 }

@@ -1,18 +1,19 @@
 /**
  * The computations that run off the event loop, in worker threads, by name. Each takes plain,
- * structured-cloneable data and returns plain data; a model-domain error comes back as data
- * ({ ok: false, error }) because thrown errors lose their fields across the thread boundary.
+ * structured-cloneable data and returns a TaskOutcome: errors come back as data because thrown
+ * errors lose their fields across the thread boundary.
  */
 
-import { estimateZwdOutcome } from '../estimation/estimate.js';
+import { handleZwdRequest } from '../services/zwd-request.js';
 
 export const COMPUTE_TASKS = {
-  'zwd-estimate': estimateZwdOutcome,
+  /** A whole POST .../zwd-estimates request: parse, validate, estimate, serialise. */
+  'zwd-estimate-request': handleZwdRequest,
 } as const;
 
 export type ComputeTaskName = keyof typeof COMPUTE_TASKS;
 export type ComputeTaskInput<T extends ComputeTaskName> = Parameters<(typeof COMPUTE_TASKS)[T]>[0];
-export type ComputeTaskOutcome<T extends ComputeTaskName> = ReturnType<(typeof COMPUTE_TASKS)[T]>;
+export type ComputeTaskOutput<T extends ComputeTaskName> = Extract<Awaited<ReturnType<(typeof COMPUTE_TASKS)[T]>>, { ok: true }>['output'];
 
 export interface ComputeRequest {
   task: ComputeTaskName;
@@ -25,11 +26,11 @@ export interface ComputeResponse {
   durationMs: number;
 }
 
-/** Runs one task (in a worker, or inline when no pool is used). */
-export function runComputeTask(request: ComputeRequest): ComputeResponse {
+/** Runs one task (in a worker thread). */
+export async function runComputeTask(request: ComputeRequest): Promise<ComputeResponse> {
   const started = performance.now();
-  const run = COMPUTE_TASKS[request.task] as (input: unknown) => unknown;
+  const run = COMPUTE_TASKS[request.task] as ((input: unknown) => Promise<unknown>) | undefined;
   if (!run) throw new Error(`unknown compute task ${request.task}`);
-  const outcome = run(request.input);
+  const outcome = await run(request.input);
   return { outcome, durationMs: performance.now() - started };
 }

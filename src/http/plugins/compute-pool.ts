@@ -7,12 +7,13 @@
 import type { FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
 import type { Config } from '../../config.js';
-import { ComputePool, ComputePoolFullError } from '../../workers/compute-pool.js';
+import { ComputePool, ComputePoolFullError, ComputeTaskError } from '../../workers/compute-pool.js';
 import { HttpProblem } from '../problem.js';
-import type { ComputeTaskInput, ComputeTaskName } from '../../workers/tasks.js';
+import type { ComputeTaskInput, ComputeTaskName, ComputeTaskOutput } from '../../workers/tasks.js';
 
 export interface Compute {
-  run<T extends ComputeTaskName, O>(task: T, input: ComputeTaskInput<T>, size: number): Promise<O>;
+  /** Runs a task in a worker; a full queue is a 503 problem, a task's error outcome its 4xx problem. */
+  run<T extends ComputeTaskName>(task: T, input: ComputeTaskInput<T>): Promise<ComputeTaskOutput<T>>;
 }
 
 declare module 'fastify' {
@@ -32,14 +33,16 @@ async function computePool(app: FastifyInstance, { config }: ComputePoolPluginOp
     onTaskDone: (task, durationS) => app.metrics.computeDuration.observe({ task }, durationS),
   });
   app.decorate('compute', {
-    async run<T extends ComputeTaskName, O>(task: T, input: ComputeTaskInput<T>, size: number): Promise<O> {
-      app.metrics.computeSize.observe({ task }, size);
+    async run<T extends ComputeTaskName>(task: T, input: ComputeTaskInput<T>): Promise<ComputeTaskOutput<T>> {
       try {
-        return await pool.run<T, O>(task, input);
+        const output = await pool.run(task, input);
+        app.metrics.computeSize.observe({ task }, output.observations);
+        return output;
       } catch (err) {
         if (err instanceof ComputePoolFullError) {
           throw new HttpProblem(503, err.message, undefined, { 'retry-after': String(err.retryAfterS) });
         }
+        if (err instanceof ComputeTaskError) throw new HttpProblem(err.error.status, err.error.detail, err.error.errors);
         throw err;
       } finally {
         app.metrics.workerQueue.set(pool.queued);
