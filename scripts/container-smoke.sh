@@ -4,7 +4,8 @@
 #   1. starts and answers GET /v1/health,
 #   2. answers a real computation (POST /v1/zenith-delays, numbers checked against IERS 2010 eq. 9.11)
 #      and a bad request with a 400 problem,
-#   3. loads the better-sqlite3 native addon and can write its data volume /data,
+#   3. loads the better-sqlite3 native addon and can write its data volume /data (root file system
+#      read-only, as docker/compose.yaml runs it),
 #   4. reports healthy through the image's HEALTHCHECK (`podman healthcheck run`),
 #   5. runs as a non-root user,
 #   6. exits with code 0 on `podman stop` (SIGTERM), before the stop timeout.
@@ -157,10 +158,11 @@ phase_done
 phase "run on 127.0.0.1 and check"
 PORT="$(node -e "const s = require('node:net').createServer().listen(0, '127.0.0.1', () => { console.log(s.address().port); s.close(); })")"
 BASE_URL="http://127.0.0.1:$PORT"
-without_systemd_noise podman run --detach --pull=never --name "$CONTAINER" --label "$LABEL" \
+# --read-only as docker/compose.yaml runs it: the service may write to its volume /data (and /tmp) only.
+without_systemd_noise podman run --detach --pull=never --name "$CONTAINER" --label "$LABEL" --read-only \
   --publish "127.0.0.1:$PORT:8080" --health-interval disable "$IMAGE" > /dev/null \
   || fail "podman run failed"
-log "container $CONTAINER on $BASE_URL"
+log "container $CONTAINER on $BASE_URL (read-only root file system)"
 show_logs() { log "container log:"; podman logs "$CONTAINER" 2>&1 | tail -n 40 | sed 's/^/    | /'; }
 
 node "$HERE/http-checks.mjs" wait "$BASE_URL" 30 2>&1 | sed 's/^/    /' || { show_logs; fail "the service did not start"; }
