@@ -3,7 +3,8 @@
  * HTTP checks of container-smoke.sh against the running container (loopback only).
  *
  *   node http-checks.mjs wait BASE_URL SECONDS   polls GET /v1/health until 200 {"status":"ok"}
- *   node http-checks.mjs compute BASE_URL        POST /v1/zenith-delays: checks the numbers and a 400 problem
+ *   node http-checks.mjs compute BASE_URL        POST /v1/zenith-delays: checks the numbers and a 400 problem;
+ *                                                POST /v1/zwd-estimates (worker pool) and GET /v1/ready
  *
  * Prints one line per check; exits 1 with the reason when one fails.
  */
@@ -83,6 +84,43 @@ async function compute() {
   console.log(`POST /v1/zenith-delays with pressure_hpa=5000 -> 400 ${type.split(';')[0]} naming the field`);
 }
 
+/**
+ * A small ZWD estimation, which runs in the image's worker-thread pool: residuals built from a known
+ * correction of 0.02 m mapped with 1/sin e (close to the wet mapping above 15°) plus a large bias per
+ * epoch; the estimate must come back near 0.02 m (within 2 mm: the cosecant differs from the Niell
+ * wet function by up to 0.3 % at these elevations). Also checks GET /v1/ready.
+ */
+async function estimate() {
+  const sky = [[15, 30], [25, 100], [40, 200], [60, 300], [75, 45], [33, 150], [20, 260]];
+  const observations = [];
+  for (let k = 0; k < 12; k++) {
+    const epoch = new Date(Date.UTC(2026, 2, 14, 0, 5 * k)).toISOString();
+    sky.forEach(([e, a], s) => {
+      const residual = 0.02 / Math.sin((e * Math.PI) / 180) + 0.5 * k;
+      observations.push({ epoch, satellite: `X${s}`, elevation_deg: e, azimuth_deg: a, residual_m: Number(residual.toFixed(6)) });
+    });
+  }
+  const response = await fetch(`${baseUrl}/v1/zwd-estimates`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ site: { latitude_deg: 47.25, longitude_deg: 8.5, height_m: 180 }, observations, options: { gradients: null } }),
+    signal: AbortSignal.timeout(20000),
+  });
+  const body = await response.json();
+  if (response.status !== 200) fail(`POST /v1/zwd-estimates -> ${response.status} ${JSON.stringify(body)}`);
+  const correction = body.zwd_nodes[0].correction_m;
+  if (!(Math.abs(correction - 0.02) < 0.002)) fail(`estimated ZWD correction ${correction} m, want 0.02 ± 0.002 m`);
+  console.log(`POST /v1/zwd-estimates (worker thread) -> 200, correction_m=${correction.toFixed(4)} (truth 0.02)`);
+
+  const ready = await fetch(`${baseUrl}/v1/ready`, { signal: AbortSignal.timeout(5000) });
+  const readyBody = await ready.json();
+  if (ready.status !== 200 || readyBody.status !== 'ready') fail(`GET /v1/ready -> ${ready.status} ${JSON.stringify(readyBody)}`);
+  console.log(`GET /v1/ready -> 200 ${JSON.stringify(readyBody)}`);
+}
+
 if (command === 'wait') await waitHealthy(Number(secondsText ?? '30'));
-else if (command === 'compute') await compute();
+else if (command === 'compute') {
+  await compute();
+  await estimate();
+}
 else fail(`unknown command ${command}`);
