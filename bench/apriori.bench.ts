@@ -9,7 +9,7 @@ import { DEG } from '../src/domain/constants.js';
 import { GRADIENT_MODELS } from '../src/domain/gradients/gradient-mapping.js';
 import { niellModel } from '../src/domain/mapping/niell.js';
 import { allocateSlantBatch, computeSlantDelays } from '../src/domain/slant.js';
-import { startServerProcess } from './lib/server-process.js';
+import { startServerProcess } from '../test/helpers/server-process.js';
 
 function slantThroughput(): number {
   const n = 100_000;

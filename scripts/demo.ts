@@ -110,11 +110,10 @@ try {
     // The residuals were formed with this a-priori: ZHD of the met at the start, ZWD 0.
     const startMet = truthSeries(s, DEMO_START_MS + 3_600_000, 1, 1, DEMO_SEEDS[s.stationId])[0]!;
     const aprioriZhdM = Math.round(saastamoinenZhdM(startMet.pressureHpa, s.latitudeDeg, s.heightM) * 1e4) / 1e4;
-    const res = await call('POST', `/v1/stations/${s.stationId}/zwd-estimates`, {
+    const res = await call('POST', `/v1/stations/${s.stationId}/zwd-estimates?source=demo-estimation`, {
       observations,
       apriori: { zhd_m: aprioriZhdM, zwd_m: 0 },
       options: { zwd_interval_s: 900 },
-      source: 'demo-estimation',
     });
     let sum2 = 0;
     for (const e of res.series) sum2 += (e.correction_m - truthZwdAt(data.truth, Date.parse(e.epoch))) ** 2;

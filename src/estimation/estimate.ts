@@ -18,7 +18,6 @@ import type {
   GradientNodeEstimate,
   RejectedObservation,
   ZwdEstimationInput,
-  ZwdEstimationOutcome,
   ZwdEstimationOutput,
   ZwdNodeEstimate,
 } from './types.js';
@@ -115,16 +114,6 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
     },
     warnings,
   };
-}
-
-/** estimateZwd for callers across a thread boundary: domain errors come back as plain data. */
-export function estimateZwdOutcome(input: ZwdEstimationInput): ZwdEstimationOutcome {
-  try {
-    return { ok: true, output: estimateZwd(input) };
-  } catch (err) {
-    if (err instanceof ModelDomainError) return { ok: false, error: { field: err.field, message: err.message, status: err.status } };
-    throw err;
-  }
 }
 
 function checkColumns(input: ZwdEstimationInput): void {

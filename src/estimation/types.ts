@@ -150,7 +150,3 @@ export interface ZwdEstimationOutput {
   warnings: string[];
 }
 
-/** Outcome for callers across a thread boundary, where thrown errors lose their fields. */
-export type ZwdEstimationOutcome =
-  | { ok: true; output: ZwdEstimationOutput }
-  | { ok: false; error: { field: string; message: string; status: 400 | 422 } };

@@ -10,6 +10,7 @@ import { DEFAULT_MAX_READ_RANGE_DAYS, defaultConfig, type Config } from '../conf
 import type { StorageConfig } from '../storage/factory.js';
 import type { Repository } from '../storage/repository.js';
 import auth from './plugins/auth.js';
+import computePool from './plugins/compute-pool.js';
 import edge from './plugins/edge.js';
 import errorHandler from './plugins/error-handler.js';
 import metrics from './plugins/metrics.js';
@@ -20,6 +21,7 @@ import storage from './plugins/storage.js';
 import healthRoute from './routes/health.js';
 import mappingFactorsRoute from './routes/mapping-factors.js';
 import precipitableWaterRoute from './routes/precipitable-water.js';
+import profileDelaysRoute from './routes/profile-delays.js';
 import slantDelaysRoute from './routes/slant-delays.js';
 import stationDelaysRoute from './routes/station-delays.js';
 import stationMetRoute from './routes/station-met.js';
@@ -97,6 +99,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(requestLog);
   await app.register(metrics);
   await app.register(edge, { config });
+  await app.register(computePool, { config });
   await app.register(openapi);
   await app.register(readiness);
   const archive = options.archive ?? IN_MEMORY_ARCHIVE;
@@ -118,6 +121,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(stationDelaysRoute, stationOptions);
   await app.register(stationPwvRoute, stationOptions);
   await app.register(stationZwdEstimatesRoute, stationOptions);
+  await app.register(profileDelaysRoute);
   await app.ready();
   return app;
 }

@@ -7,6 +7,7 @@
  */
 
 import { CsvError, parse } from 'csv-parse/sync';
+import { detailOf, issuesToFieldErrors } from './field-errors.js';
 import { HttpProblem } from './problem.js';
 import { zwdCsvQuerySchema, type ZwdCsvQuery } from './schemas/zwd-estimates.js';
 
@@ -60,16 +61,18 @@ export function parseObservationCsv(text: string): Record<string, unknown>[] {
   return out;
 }
 
-/** Builds the JSON-equivalent request from a CSV table and the query parameters. */
-export function csvRequestBody(text: string, rawQuery: unknown): Record<string, unknown> {
+/**
+ * Builds the JSON-equivalent request from a CSV table and the query parameters. With
+ * `siteKnown` (a station's estimation) the site parameters are not needed and not put in.
+ */
+export function csvRequestBody(text: string, rawQuery: unknown, siteKnown = false): Record<string, unknown> {
   const parsed = zwdCsvQuerySchema.safeParse(rawQuery ?? {});
   if (!parsed.success) {
-    const errors = parsed.error.issues.map((i) => ({ field: ['query', ...i.path.map(String)].join('.'), message: i.message }));
-    const more = errors.length > 1 ? ` (and ${errors.length - 1} more)` : '';
-    throw new HttpProblem(400, `${errors[0]!.field}: ${errors[0]!.message}${more}`, errors);
+    const errors = issuesToFieldErrors(parsed.error.issues, 'query');
+    throw new HttpProblem(400, detailOf(errors), errors);
   }
   const q: ZwdCsvQuery = parsed.data;
-  const missingSite = (['latitude_deg', 'longitude_deg', 'height_m'] as const).filter((k) => q[k] === undefined);
+  const missingSite = siteKnown ? [] : (['latitude_deg', 'longitude_deg', 'height_m'] as const).filter((k) => q[k] === undefined);
   if (missingSite.length) {
     const errors = missingSite.map((k) => ({ field: `query.${k}`, message: 'required with a text/csv body (the site)' }));
     throw new HttpProblem(400, `${errors[0]!.field}: ${errors[0]!.message}`, errors);
@@ -78,7 +81,7 @@ export function csvRequestBody(text: string, rawQuery: unknown): Record<string, 
     Object.entries({ zhd_m: q.apriori_zhd_m, zwd_m: q.apriori_zwd_m }).filter(([, v]) => v !== undefined),
   );
   return {
-    site: { latitude_deg: q.latitude_deg, longitude_deg: q.longitude_deg, height_m: q.height_m },
+    ...(siteKnown ? {} : { site: { latitude_deg: q.latitude_deg, longitude_deg: q.longitude_deg, height_m: q.height_m } }),
     observations: parseObservationCsv(text),
     ...(Object.keys(apriori).length ? { apriori } : {}),
     options: {

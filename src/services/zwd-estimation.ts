@@ -138,7 +138,7 @@ function collapseWarnings(lines: string[]): string[] {
  * @param body validated body (zwdEstimationBody)
  * @throws ModelDomainError 400/422 (the error handler turns it into a problem response)
  */
-export function runZwdEstimation(site: ZwdSite, body: ZwdEstimationBody): ZwdEstimatesResponse {
+export async function runZwdEstimation(site: ZwdSite, body: ZwdEstimationBody): Promise<ZwdEstimatesResponse> {
   const latitudeRad = site.latitude_deg * DEG;
   const warnings: string[] = [];
   const zhdSource = body.apriori?.zhd_m === undefined ? ('standard-atmosphere' as const) : ('caller' as const);

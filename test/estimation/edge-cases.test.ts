@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { generateSyntheticResiduals } from '../../scripts/synthetic-residuals.js';
 import { ModelDomainError } from '../../src/domain/errors.js';
-import { estimateZwd, estimateZwdOutcome } from '../../src/estimation/estimate.js';
+import { estimateZwd } from '../../src/estimation/estimate.js';
 import type { ZwdEstimationInput } from '../../src/estimation/types.js';
 import { denseZwdEstimate } from '../helpers/dense-estimation.js';
 import { toEstimationInput } from '../helpers/synthetic-input.js';
@@ -171,17 +171,6 @@ describe('bad input and a system that cannot be solved', () => {
     expect(constrained.statistics.varianceFactor).toBeNull();
     expect(constrained.zwdNodes[0]!.sigmaM).toBeCloseTo(0.5, 6); // the a-priori σ: the data add nothing
     expect(constrained.warnings.join(' ')).toMatch(/no degrees of freedom/);
-  });
-
-  it('estimateZwdOutcome returns domain errors as plain data (for a worker thread)', () => {
-    const input = base();
-    input.options.elevationCutoffRad = (89 * Math.PI) / 180;
-    const outcome = estimateZwdOutcome(input);
-    expect(outcome.ok).toBe(false);
-    if (!outcome.ok) expect(outcome.error).toEqual({ field: 'observations', message: expect.stringMatching(/cutoff/), status: 422 });
-    expect(structuredClone(outcome)).toEqual(outcome);
-    const good = estimateZwdOutcome(base());
-    expect(good.ok && structuredClone(good.output)).toEqual(good.ok && good.output);
   });
 });
 

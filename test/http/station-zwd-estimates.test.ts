@@ -8,7 +8,8 @@
  */
 
 import { describe, expect, it } from 'vitest';
-import { generateSyntheticResiduals, toRequestBody } from '../../scripts/synthetic-residuals.js';
+import { generateSyntheticResiduals, toCsv, toRequestBody } from '../../scripts/synthetic-residuals.js';
+import { scanEpochRange } from '../../src/http/routes/station-zwd-estimates.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
 
@@ -30,9 +31,9 @@ for (const backend of BACKENDS) {
       await api().post('/v1/stations/EST1/met').set('authorization', auth).send({ records: MET, source: 'mast' }).expect(200);
 
       const res = await api()
-        .post('/v1/stations/EST1/zwd-estimates')
+        .post('/v1/stations/EST1/zwd-estimates?source=run-1')
         .set('authorization', auth)
-        .send({ observations, apriori: APRIORI, options: OPTIONS, source: 'run-1' })
+        .send({ observations, apriori: APRIORI, options: OPTIONS })
         .expect(200);
       expect(res.body.met_used).toBe('archive');
       expect(res.body.stored).toEqual({ source: 'run-1', inserted: res.body.series.length, updated: 0, unchanged: 0 });
@@ -70,8 +71,24 @@ for (const backend of BACKENDS) {
       });
 
       // The same request again: the series is unchanged.
-      const again = await api().post('/v1/stations/EST1/zwd-estimates').set('authorization', auth).send({ observations, apriori: APRIORI, options: OPTIONS, source: 'run-1' }).expect(200);
+      const again = await api().post('/v1/stations/EST1/zwd-estimates?source=run-1').set('authorization', auth).send({ observations, apriori: APRIORI, options: OPTIONS }).expect(200);
       expect(again.body.stored).toMatchObject({ inserted: 0, updated: 0, unchanged: res.body.series.length });
+    });
+
+    it('takes a CSV body with the options as query parameters, like /v1/zwd-estimates', async () => {
+      await api().put('/v1/stations/CSV1').set('authorization', auth).send({ name: 'Estimation CSV (invented)', ...SITE }).expect(201);
+      await api().post('/v1/stations/CSV1/met').set('authorization', auth).send({ records: MET }).expect(200);
+      const csv = await api()
+        .post('/v1/stations/CSV1/zwd-estimates?source=csv-run&apriori_zhd_m=2.17&apriori_zwd_m=0.05&zwd_interval_s=900')
+        .set('authorization', auth)
+        .set('content-type', 'text/csv')
+        .send(toCsv(data))
+        .expect(200);
+      const json = await api().post('/v1/zwd-estimates').send({ site: SITE, observations, apriori: APRIORI, options: OPTIONS, met: MET }).expect(200);
+      expect(csv.body).toMatchObject({ met_used: 'archive', stored: { source: 'csv-run', inserted: json.body.series.length } });
+      // The CSV carries the generator's residuals at 5 decimals like the JSON body, so the results agree.
+      expect(csv.body.zwd_nodes).toEqual(json.body.zwd_nodes);
+      expect(csv.body.model_fingerprint).toBe(json.body.model_fingerprint);
     });
 
     it('prefers the request met; says when there is none; refuses `site`, unknown stations and missing keys', async () => {
@@ -90,3 +107,12 @@ for (const backend of BACKENDS) {
     });
   });
 }
+
+describe('scanEpochRange (finds the stored met window without parsing the body)', () => {
+  it('reads the first and last epoch of JSON and CSV bodies', () => {
+    const json = JSON.stringify({ observations: [{ epoch: '2026-01-01T00:00:30Z' }, { epoch: '2026-01-01T00:00:00Z' }, { epoch: '2026-01-01T02:00:00+01:00' }] });
+    expect(scanEpochRange(json, 'json')).toEqual({ firstMs: Date.UTC(2026, 0, 1), lastMs: Date.UTC(2026, 0, 1, 1) });
+    expect(scanEpochRange('epoch,satellite\n2026-01-01T00:00:30Z,G01\n2026-01-01T00:00:00Z,G02\n', 'csv')).toEqual({ firstMs: Date.UTC(2026, 0, 1), lastMs: Date.UTC(2026, 0, 1, 0, 0, 30) });
+    expect(scanEpochRange('{"observations": []}', 'json')).toBeNull();
+  });
+});

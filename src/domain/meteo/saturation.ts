@@ -26,6 +26,18 @@ export function saturationVapourPressureHpa(temperatureC: number, field = 'tempe
       `saturation vapour pressure (WMO-No. 8) is defined for ${SATURATION_RANGE_C.min}..${SATURATION_RANGE_C.max} °C, got ${temperatureC} °C`,
     );
   }
+  return magnusSaturationVapourPressureHpa(temperatureC);
+}
+
+/**
+ * The WMO-No. 8 (2008) Annex 4.B formula itself, without the range check: for callers that
+ * extrapolate it knowingly and say so (atmospheric profiles reach −90 °C, where the vapour pressure
+ * is below 0.001 hPa and a few per cent of it do not matter).
+ *
+ * @param temperatureC air temperature t [°C]
+ * @returns saturation vapour pressure over water [hPa]
+ */
+export function magnusSaturationVapourPressureHpa(temperatureC: number): number {
   return 6.112 * Math.exp((17.62 * temperatureC) / (243.12 + temperatureC));
 }
 

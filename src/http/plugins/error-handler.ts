@@ -8,13 +8,14 @@ import type { FastifyError, FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
 import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
 import { ModelDomainError } from '../../domain/errors.js';
+import { detailOf, fieldName } from '../field-errors.js';
 import { UnknownStationError } from '../../storage/repository.js';
 import { HttpProblem, makeProblem, sendProblem, type FieldError } from '../problem.js';
 
 function fieldFromPath(instancePath: string, context: string | undefined): string {
-  const path = instancePath.replace(/^\//, '').split('/').filter(Boolean).join('.');
-  const where = context === 'body' || context === undefined ? '' : context === 'querystring' ? 'query' : context;
-  return [where, path].filter(Boolean).join('.') || (where || 'body');
+  const path = instancePath.replace(/^\//, '').split('/').filter(Boolean);
+  const location = context === undefined || context === 'body' ? 'body' : context === 'querystring' ? 'query' : (context as 'params' | 'headers');
+  return fieldName(path, location);
 }
 
 async function errorHandler(app: FastifyInstance): Promise<void> {
@@ -24,9 +25,7 @@ async function errorHandler(app: FastifyInstance): Promise<void> {
         field: fieldFromPath(v.instancePath, error.validationContext),
         message: v.message ?? 'invalid value',
       }));
-      const first = errors[0]!;
-      const more = errors.length > 1 ? ` (and ${errors.length - 1} more)` : '';
-      return sendProblem(reply, makeProblem(400, `${first.field}: ${first.message}${more}`, errors, request.url));
+      return sendProblem(reply, makeProblem(400, detailOf(errors), errors, request.url));
     }
     if (error instanceof ModelDomainError) {
       return sendProblem(

@@ -26,6 +26,8 @@ async function openapi(app: FastifyInstance): Promise<void> {
       tags: [
         { name: 'a-priori delays', description: 'Zenith delays, mapping factors and slant delays from models' },
         { name: 'water vapour', description: 'Precipitable water vapour' },
+        { name: 'estimation', description: 'Zenith wet delay and gradients estimated from observation residuals' },
+        { name: 'atmospheric profiles', description: 'Delays, precipitable water and mapping factors integrated and ray-traced through a vertical profile' },
         {
           name: 'station archive',
           description: 'Stations with their stored met and delay series, and precipitable water retrieved from them. Writes need `Authorization: Bearer <key>`',

@@ -1,5 +1,4 @@
-import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { runZwdEstimation } from '../../services/zwd-estimation.js';
+import { validatorCompiler, type FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { HttpProblem } from '../problem.js';
 import { problemSchema } from '../schemas/common.js';
 import {
@@ -9,9 +8,11 @@ import {
   zwdEstimatesRequest,
   zwdEstimatesResponse,
 } from '../schemas/zwd-estimates.js';
-import { csvRequestBody } from '../zwd-csv.js';
 
 const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
+  // In this route's scope JSON bodies stay bytes: the worker thread parses them (see the handler).
+  app.removeContentTypeParser('application/json');
+  app.addContentTypeParser('application/json', { parseAs: 'buffer' }, (_request, body, done) => done(null, body));
   app.post(
     '/v1/zwd-estimates',
     {
@@ -29,19 +30,22 @@ const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
         body: zwdEstimatesRequest,
         response: { 200: zwdEstimatesResponse, 400: problemSchema, 413: problemSchema, 415: problemSchema, 422: problemSchema },
       },
-      preValidation: async (request) => {
-        if (typeof request.body !== 'string') return;
-        const type = (request.headers['content-type'] ?? '').split(';')[0]!.trim().toLowerCase();
-        if (type !== 'text/csv') {
-          throw new HttpProblem(415, `content type ${type || '(none)'} is not accepted here; send application/json or text/csv`);
-        }
-        // Not yet validated: the body schema validates it next, exactly like a JSON body.
-        request.body = csvRequestBody(request.body, request.query) as typeof request.body;
-      },
+      // The body is parsed and validated against the schema above in a worker thread, together with
+      // the estimation (services/zwd-request.ts), so it reaches the handler as raw bytes or text.
+      validatorCompiler: ({ httpPart }) => (httpPart === 'body' ? (data: unknown) => ({ value: data }) : validatorCompiler({ schema: zwdCsvQuerySchema, httpPart, method: 'POST', url: '/v1/zwd-estimates' })),
     },
-    async (request) => {
-      const { site, ...body } = request.body;
-      return runZwdEstimation(site, body);
+    async (request, reply) => {
+      const raw = request.body as unknown as Buffer | string;
+      const type = (request.headers['content-type'] ?? '').split(';')[0]!.trim().toLowerCase();
+      const format = type === 'text/csv' ? 'csv' : type === 'application/json' ? 'json' : undefined;
+      if (!format) throw new HttpProblem(415, `content type ${type || '(none)'} is not accepted here; send application/json or text/csv`);
+      const output = await app.compute.run('zwd-estimate-request', {
+        body: typeof raw === 'string' ? raw : new Uint8Array(raw.buffer, raw.byteOffset, raw.byteLength),
+        format,
+        query: request.query as Record<string, unknown>,
+      });
+      // Already serialised in the worker; a string payload is sent as it is.
+      return reply.type('application/json').send(output.json as never);
     },
   );
 };

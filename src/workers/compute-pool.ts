@@ -1,0 +1,90 @@
+/**
+ * A pool of worker threads (piscina) for the heavy computations, so that health checks, metrics and
+ * light requests never wait behind an estimation. The queue in front of the workers is bounded;
+ * when it is full a request is refused with 503 and a Retry-After header instead of piling up.
+ */
+
+import { Piscina } from 'piscina';
+import type { TaskOutcome } from '../services/zwd-request.js';
+import type { ComputeResponse, ComputeTaskInput, ComputeTaskName, ComputeTaskOutput } from './tasks.js';
+
+export interface ComputePoolOptions {
+  /** Worker threads (default: the machine's cores). */
+  threads: number;
+  /** Tasks that may wait for a worker before new ones are refused. */
+  queueLimit: number;
+  /** Called after each task with its name, size and run time [s]. */
+  onTaskDone?: (task: ComputeTaskName, durationS: number) => void;
+}
+
+export class ComputePoolFullError extends Error {
+  constructor(readonly retryAfterS: number) {
+    super(`all computation workers are busy and the queue is full; retry in ${retryAfterS} s`);
+  }
+}
+
+/** A task's error outcome (a 4xx of the caller's making), rethrown on the calling side. */
+export class ComputeTaskError extends Error {
+  constructor(readonly error: Extract<TaskOutcome<unknown>, { ok: false }>['error']) {
+    super(error.detail);
+  }
+}
+
+/** Running from TypeScript sources (tests, `tsx`), the worker loads them through tsx as well. */
+function workerLocation(): { filename: string; execArgv: string[] } {
+  const fromSource = import.meta.url.endsWith('.ts');
+  return {
+    filename: new URL(`./compute-worker.${fromSource ? 'ts' : 'js'}`, import.meta.url).href,
+    execArgv: fromSource ? ['--import', 'tsx'] : [],
+  };
+}
+
+export class ComputePool {
+  private pool: Piscina | undefined;
+
+  constructor(private readonly options: ComputePoolOptions) {}
+
+  /** Tasks waiting for a worker. */
+  get queued(): number {
+    return this.pool?.queueSize ?? 0;
+  }
+
+  /**
+   * Runs a task in a worker.
+   *
+   * @throws ComputePoolFullError when the queue is full
+   * @throws ComputeTaskError when the task answers with an error outcome
+   */
+  async run<T extends ComputeTaskName>(task: T, input: ComputeTaskInput<T>): Promise<ComputeTaskOutput<T>> {
+    const pool = (this.pool ??= new Piscina({
+      ...workerLocation(),
+      minThreads: this.options.threads, // all started at once: no thread is spawned in the middle of a load
+      maxThreads: this.options.threads,
+      maxQueue: this.options.queueLimit,
+      idleTimeout: 60_000,
+    }));
+    let response: ComputeResponse;
+    try {
+      response = (await pool.run({ task, input })) as ComputeResponse;
+    } catch (err) {
+      if (err instanceof Error && /queue is at limit/i.test(err.message)) throw new ComputePoolFullError(this.retryAfterS());
+      throw err;
+    }
+    this.options.onTaskDone?.(task, response.durationMs / 1000);
+    const outcome = response.outcome as TaskOutcome<ComputeTaskOutput<T>>;
+    if (!outcome.ok) throw new ComputeTaskError(outcome.error);
+    return outcome.output;
+  }
+
+  /** A hint for Retry-After [s]: the mean run time times the tasks ahead, at least 1 s. */
+  private retryAfterS(): number {
+    const meanMs = this.pool?.histogram.runTime.mean ?? 0;
+    const meanS = meanMs > 0 ? meanMs / 1000 : 1;
+    return Math.max(1, Math.ceil((meanS * (this.queued + 1)) / this.options.threads));
+  }
+
+  async close(): Promise<void> {
+    await this.pool?.destroy();
+    this.pool = undefined;
+  }
+}
