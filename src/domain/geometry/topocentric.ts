@@ -62,7 +62,8 @@ export function lookAngles(latitudeRad: number, longitudeRad: number, site: Ecef
   const north = -sinLat * cosLon * dx - sinLat * sinLon * dy + cosLat * dz;
   const up = cosLat * cosLon * dx + cosLat * sinLon * dy + sinLat * dz;
   const rangeM = Math.hypot(east, north, up);
-  const elevationRad = Math.asin(up / rangeM);
+  // atan2 rather than asin(up/range): well conditioned near the zenith too.
+  const elevationRad = Math.atan2(up, Math.hypot(east, north));
   let azimuthRad = Math.atan2(east, north);
   if (azimuthRad < 0) azimuthRad += 2 * Math.PI;
   // Nadir angle: angle at the satellite between −r_sat and (site − sat).
