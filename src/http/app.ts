@@ -91,8 +91,9 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   // checks every route's answers against them. (Validating each response with zod costs a third of
   // the throughput of a single-point request.)
   app.setSerializerCompiler(() => (data) => JSON.stringify(data));
-  app.addHook('onSend', async (request, reply) => {
+  app.addHook('onRequest', (request, reply, done) => {
     reply.header('x-request-id', request.id);
+    done();
   });
 
   await app.register(errorHandler);

@@ -3,12 +3,19 @@
  * No bodies, no headers (so no keys), by default.
  */
 
-import type { FastifyInstance } from 'fastify';
+import type { FastifyBaseLogger, FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
 
+/** pino's loggers can say whether a level is on; building the record is skipped when it is not. */
+function isInfoEnabled(log: FastifyBaseLogger): boolean {
+  const pinoLike = log as FastifyBaseLogger & { isLevelEnabled?: (level: string) => boolean };
+  return pinoLike.isLevelEnabled ? pinoLike.isLevelEnabled('info') : true;
+}
+
 async function requestLog(app: FastifyInstance): Promise<void> {
-  app.addHook('onResponse', async (request, reply) => {
-    request.log.info(
+  app.addHook('onResponse', (request, reply, done) => {
+    if (isInfoEnabled(request.log)) {
+      request.log.info(
       {
         method: request.method,
         route: request.routeOptions.url ?? 'unmatched',
@@ -17,7 +24,9 @@ async function requestLog(app: FastifyInstance): Promise<void> {
         durationMs: Math.round(reply.elapsedTime * 10) / 10,
       },
       'request completed',
-    );
+      );
+    }
+    done();
   });
 }
 

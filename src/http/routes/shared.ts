@@ -7,7 +7,7 @@ import { GRADIENT_MODELS } from '../../domain/gradients/gradient-mapping.js';
 import { MAPPING_MODELS, type MappingModelKey } from '../../domain/mapping/registry.js';
 import type { MappingEvaluator } from '../../domain/mapping/types.js';
 import type { MetInput } from '../../domain/meteo/surface-met.js';
-import { MODEL_NAMES } from '../../domain/provenance.js';
+import { MODEL_NAMES, provenance, type ModelSet, type Provenance } from '../../domain/provenance.js';
 import type { Site } from '../../domain/site.js';
 import { fractionalDayOfYear } from '../../domain/time.js';
 import { WET_MODELS } from '../../domain/zenith/wet.js';
@@ -68,6 +68,13 @@ export function mappingProvenance(model: MappingModelKey, gradientModel: string)
     mapping: `${model}: ${MAPPING_MODELS[model].citation}`,
     gradient_mapping: `${gradientModel}: ${GRADIENT_MODELS[gradientModel]!.citation}`,
   };
+}
+
+/** Provenance of a route's fixed model choices, computed once per combination of keys. */
+export function memoProvenance(cache: Map<string, Provenance>, key: string, models: () => ModelSet): Provenance {
+  let hit = cache.get(key);
+  if (!hit) cache.set(key, (hit = provenance(models())));
+  return hit;
 }
 
 export function zenithProvenance(wetModel: string) {

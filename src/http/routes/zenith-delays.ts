@@ -1,9 +1,11 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { provenance } from '../../domain/provenance.js';
 import { aprioriZenithDelays } from '../../domain/zenith/apriori.js';
 import { problemSchema } from '../schemas/common.js';
 import { zenithDelaysRequest, zenithDelaysResponse } from '../schemas/zenith-delays.js';
-import { toMetInput, toSite, zenithProvenance } from './shared.js';
+import type { Provenance } from '../../domain/provenance.js';
+import { memoProvenance, toMetInput, toSite, zenithProvenance } from './shared.js';
+
+const PROVENANCE = new Map<string, Provenance>();
 
 const zenithDelaysRoute: FastifyPluginAsyncZod = async (app) => {
   app.post(
@@ -31,7 +33,7 @@ const zenithDelaysRoute: FastifyPluginAsyncZod = async (app) => {
           vapour_pressure_hpa: z.met.vapourPressureHpa,
           source: z.met.source,
         },
-        ...provenance(zenithProvenance(wet_model)),
+        ...memoProvenance(PROVENANCE, wet_model, () => zenithProvenance(wet_model)),
         warnings: z.met.warnings,
       };
     },
