@@ -26,7 +26,8 @@ export const configSchema = z.object({
   LOG_LEVEL: z
     .enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'], { error: 'must be one of fatal, error, warn, info, debug, trace, silent' })
     .default('info'),
-  REQUEST_TIMEOUT_MS: integer(1000, 3_600_000).default(120_000).describe('Longest time to receive and answer one request'),
+  REQUEST_TIMEOUT_MS: integer(1000, 3_600_000).default(120_000).describe('Longest time to receive one whole request from the client'),
+  TRUST_PROXY: booleanFlag.default(false).describe('Take the client address from X-Forwarded-For (behind a load balancer)'),
   SHUTDOWN_TIMEOUT_MS: integer(0, 600_000).default(25_000).describe('Longest wait for in-flight requests on SIGTERM'),
   ESTIMATION_WORKERS: integer(1, 256).default(availableParallelism()).describe('Worker threads for estimation'),
   ESTIMATION_QUEUE_LIMIT: integer(0, 10_000).default(32).describe('Estimations waiting for a worker before 503'),

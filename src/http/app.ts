@@ -79,6 +79,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     logController: new LogController({ disableRequestLogging: true }),
     bodyLimit: 1024 * 1024,
     requestTimeout: config.REQUEST_TIMEOUT_MS,
+    trustProxy: config.TRUST_PROXY,
     requestIdHeader: 'x-request-id',
     genReqId: () => randomUUID(),
   }).withTypeProvider<ZodTypeProvider>();

@@ -106,7 +106,16 @@ export interface Repository {
   /** Answers when the database is reachable and its schema is at the latest migration; throws otherwise. */
   ping(): Promise<void>;
 
+  /** Connections of the backend, for the metrics: open, idle, and requests waiting for one. */
+  connectionStats(): ConnectionStats;
+
   close(): Promise<void>;
+}
+
+export interface ConnectionStats {
+  total: number;
+  idle: number;
+  waiting: number;
 }
 
 /** Raised for a write that names a station that does not exist. */

@@ -124,6 +124,13 @@ describe('PostgreSQL connection URI (PostgreSQL documentation, libpq "Connection
     expect(decodeURIComponent(url.password)).toBe(interpolate(database.POSTGRES_PASSWORD!, env));
   });
 
+  it('gives both replicas the same write keys from the environment (a generated key would differ per container)', () => {
+    const keys = REPLICAS.map((r) => compose.services[r]?.environment?.TROPO_API_KEYS);
+    expect(keys[0]).toMatch(/^\$\{TROPODELAY_API_KEYS:\?[^}]+\}$/);
+    expect(keys[1]).toBe(keys[0]);
+    expect(() => interpolate(keys[0]!, {})).toThrow(/TROPODELAY_API_KEYS/);
+  });
+
   it('ships no password: it must come from the environment, and compose refuses to start without it', () => {
     expect(database.POSTGRES_PASSWORD).toMatch(/^\$\{TROPODELAY_DB_PASSWORD:\?[^}]+\}$/);
     expect(() => interpolate(compose.services[REPLICAS[0]]!.environment!.DATABASE_URL!, {})).toThrow(/TROPODELAY_DB_PASSWORD/);

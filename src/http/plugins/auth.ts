@@ -18,6 +18,13 @@ import type { FastifyInstance, FastifyRequest } from 'fastify';
 import fp from 'fastify-plugin';
 import { HttpProblem } from '../problem.js';
 
+declare module 'fastify' {
+  interface FastifyInstance {
+    /** Short hash of the bearer key in an Authorization header when it is an accepted key, else null. */
+    acceptedKeyId(authorization: string | undefined): string | null;
+  }
+}
+
 export const KEY_FILE_NAME = 'api-key';
 const PROTECTED_PREFIX = '/v1/stations';
 const WRITE_METHODS = new Set(['PUT', 'POST', 'PATCH', 'DELETE']);
@@ -70,6 +77,13 @@ async function auth(app: FastifyInstance, options: AuthPluginOptions): Promise<v
     for (const k of digests) ok = timingSafeEqual(d, k) || ok; // no early exit
     return ok;
   };
+
+  // For the rate limit: a budget per accepted key, identified by a short hash (never the key).
+  app.decorate('acceptedKeyId', (authorization: string | undefined): string | null => {
+    const match = authorization ? /^Bearer\s+(\S+)\s*$/i.exec(authorization) : null;
+    if (!match || !isAccepted(match[1]!)) return null;
+    return digest(match[1]!).toString('hex').slice(0, 16);
+  });
 
   app.addHook('onRequest', async (request: FastifyRequest) => {
     const url = request.routeOptions.url ?? request.url;

@@ -4,7 +4,6 @@
  * API key or client address (@fastify/rate-limit).
  */
 
-import { createHash } from 'node:crypto';
 import cors from '@fastify/cors';
 import helmet from '@fastify/helmet';
 import rateLimit from '@fastify/rate-limit';
@@ -30,10 +29,11 @@ async function edge(app: FastifyInstance, { config }: EdgeOptions): Promise<void
     await app.register(rateLimit, {
       max: config.RATE_LIMIT_PER_MINUTE,
       timeWindow: 60_000,
-      // One budget per API key (hashed: keys are never kept in clear) or, without a key, per address.
+      // One budget per accepted API key (by a hash: keys are never kept in clear); anything else, an
+      // invalid key included, shares the budget of its client address (behind a proxy set TRUST_PROXY).
       keyGenerator: (request) => {
-        const auth = request.headers.authorization;
-        return auth ? `key:${createHash('sha256').update(auth).digest('hex').slice(0, 16)}` : `ip:${request.ip}`;
+        const keyId = app.hasDecorator('acceptedKeyId') ? app.acceptedKeyId(request.headers.authorization) : null;
+        return keyId ? `key:${keyId}` : `ip:${request.ip}`;
       },
       allowList: (request) => ['/v1/health', '/v1/ready', '/metrics'].includes(request.url.split('?')[0]!),
       // The plugin throws what this returns; the error handler turns it into a problem response.

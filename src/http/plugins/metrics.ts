@@ -46,20 +46,35 @@ async function metrics(app: FastifyInstance): Promise<void> {
     }),
     computeDuration: new Histogram({
       name: 'tropodelay_compute_duration_seconds',
-      help: 'Run time of one off-loop computation (estimation, ray tracing) in a worker [s]',
+      help: 'Run time of one computation in a worker thread (a ZWD estimation request) [s]',
       labelNames: ['task'],
       buckets: [0.001, 0.005, 0.01, 0.05, 0.1, 0.25, 0.5, 1, 2.5, 5, 10, 30, 60],
       registers: [registry],
     }),
     computeSize: new Histogram({
       name: 'tropodelay_compute_size',
-      help: 'Size of one off-loop computation (observations or levels)',
+      help: 'Size of one computation in a worker thread (observations)',
       labelNames: ['task'],
       buckets: [10, 100, 1000, 10_000, 100_000, 1_000_000],
       registers: [registry],
     }),
     workerQueue: new Gauge({ name: 'tropodelay_worker_queue_length', help: 'Computations waiting for a worker thread', registers: [registry] }),
   };
+  // Database connections, read at scrape time from the repository (decorated later by the storage plugin).
+  new Gauge({
+    name: 'tropodelay_db_connections',
+    help: 'Database connections by state: total (open), idle, waiting (requests queued for a connection)',
+    labelNames: ['state'],
+    registers: [registry],
+    collect() {
+      const repository = (app as FastifyInstance & { repository?: { connectionStats(): { total: number; idle: number; waiting: number } } }).repository;
+      if (!repository) return;
+      const stats = repository.connectionStats();
+      this.set({ state: 'total' }, stats.total);
+      this.set({ state: 'idle' }, stats.idle);
+      this.set({ state: 'waiting' }, stats.waiting);
+    },
+  });
   app.decorate('metrics', m);
 
   // Label children cached per (method, route, status): prom-client hashes a label object on every

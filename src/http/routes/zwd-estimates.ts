@@ -28,7 +28,7 @@ const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
         tags: ['estimation'],
         querystring: zwdCsvQuerySchema,
         body: zwdEstimatesRequest,
-        response: { 200: zwdEstimatesResponse, 400: problemSchema, 413: problemSchema, 415: problemSchema, 422: problemSchema },
+        response: { 200: zwdEstimatesResponse, 400: problemSchema, 413: problemSchema, 415: problemSchema, 422: problemSchema, 503: problemSchema },
       },
       // The body is parsed and validated against the schema above in a worker thread, together with
       // the estimation (services/zwd-request.ts), so it reaches the handler as raw bytes or text.

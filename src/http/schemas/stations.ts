@@ -65,7 +65,7 @@ export const seriesFormatSchema = z
   .default('json')
   .describe('json (default) or csv (one header row with the JSON field names)');
 
-/** from/to of a series read; resolution of defaults and the maximum range: src/services/series-range.ts. */
+/** from/to of a series read; resolution of defaults and the maximum range: src/http/routes/series-range.ts. */
 export const seriesQueryFields = {
   from: epochSchema.optional().describe('Start of the range, inclusive (ISO 8601). Default: `to` minus the maximum range'),
   to: epochSchema

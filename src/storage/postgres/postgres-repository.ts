@@ -10,7 +10,7 @@
 
 import pg from 'pg';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
-import type { DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, TimeRange, WriteCounts } from '../repository.js';
+import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, TimeRange, WriteCounts } from '../repository.js';
 import { UnknownStationError } from '../repository.js';
 import { DELAY_SELECT, MET_SELECT, delayFromArray, metFromArray, toStation, type MetArrayRow, type StationDbRow } from '../rows.js';
 
@@ -273,6 +273,10 @@ export class PostgresRepository implements Repository {
     const result = await this.pool.query<{ latest: string | null }>(`SELECT MAX(epoch_ms) AS latest FROM ${table} WHERE station_id = $1`, [stationId]);
     const latest = result.rows[0]?.latest ?? null;
     return latest === null ? null : Number(latest);
+  }
+
+  connectionStats(): ConnectionStats {
+    return { total: this.pool.totalCount, idle: this.pool.idleCount, waiting: this.pool.waitingCount };
   }
 
   async ping(): Promise<void> {

@@ -11,7 +11,7 @@ import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
-import type { DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, TimeRange, WriteCounts } from '../repository.js';
+import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, TimeRange, WriteCounts } from '../repository.js';
 import { UnknownStationError } from '../repository.js';
 import { DELAY_SELECT, MET_SELECT, delayFromArray, delayValues, metFromArray, metValues, toStation, type MetArrayRow, type StationDbRow } from '../rows.js';
 
@@ -198,6 +198,11 @@ export class SqliteRepository implements Repository {
   async latestEpochMs(stationId: string, series: 'met' | 'delays'): Promise<number | null> {
     const row = (series === 'met' ? this.stmt.latestMet : this.stmt.latestDelays).get(stationId) as { latest: number | null };
     return row.latest === null ? null : Number(row.latest);
+  }
+
+  /** One synchronous connection, never waited for (better-sqlite3 runs each statement to completion). */
+  connectionStats(): ConnectionStats {
+    return { total: 1, idle: 1, waiting: 0 };
   }
 
   async ping(): Promise<void> {
