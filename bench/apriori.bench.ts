@@ -46,31 +46,43 @@ async function requestsPerSecond(url: string, init: { method: 'GET' | 'POST'; bo
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 
-export default async function bench(): Promise<string[]> {
-  const perSecond = slantThroughput();
-  // The service runs in its own process; autocannon loads it from this one (2 cores: one each).
-  const server = await startServerProcess();
+/** Health and zenith-delays alternately, three times, against a service started with `env`. */
+async function httpRatio(env: Record<string, string>) {
+  const server = await startServerProcess(env, true);
   const body = JSON.stringify({
     site: { latitude_deg: 47.5, longitude_deg: 8.25, height_m: 420 },
     epoch: '2026-06-21T06:30:00Z',
     met: { pressure_hpa: 965.3, temperature_c: 18.2, relative_humidity_pct: 61 },
   });
-  await requestsPerSecond(`${server.baseUrl}/v1/health`, { method: 'GET' }); // warm-up
-  await requestsPerSecond(`${server.baseUrl}/v1/zenith-delays`, { method: 'POST', body });
-  // Alternate the two routes so that a change in machine load affects both alike.
-  const health: number[] = [];
-  const zenith: number[] = [];
-  const ratios: number[] = [];
-  for (let round = 0; round < 3; round++) {
-    health.push(await requestsPerSecond(`${server.baseUrl}/v1/health`, { method: 'GET' }));
-    zenith.push(await requestsPerSecond(`${server.baseUrl}/v1/zenith-delays`, { method: 'POST', body }));
-    ratios.push(zenith.at(-1)! / health.at(-1)!);
+  try {
+    await requestsPerSecond(`${server.baseUrl}/v1/health`, { method: 'GET' }); // warm-up
+    await requestsPerSecond(`${server.baseUrl}/v1/zenith-delays`, { method: 'POST', body });
+    // Alternate the two routes so that a change in machine load affects both alike.
+    const health: number[] = [];
+    const zenith: number[] = [];
+    const ratios: number[] = [];
+    for (let round = 0; round < 3; round++) {
+      health.push(await requestsPerSecond(`${server.baseUrl}/v1/health`, { method: 'GET' }));
+      zenith.push(await requestsPerSecond(`${server.baseUrl}/v1/zenith-delays`, { method: 'POST', body }));
+      ratios.push(zenith.at(-1)! / health.at(-1)!);
+    }
+    return { health: median(health), zenith: median(zenith), ratio: median(ratios) };
+  } finally {
+    await server.stop();
   }
-  await server.stop();
+}
+
+export default async function bench(): Promise<string[]> {
+  const perSecond = slantThroughput();
+  // The service runs in its own process; autocannon loads it from this one (2 cores: one each).
+  const logged = await httpRatio({ LOG_LEVEL: 'info' });
+  const quiet = await httpRatio({ LOG_LEVEL: 'warn' });
+  const line = (name: string, r: { health: number; zenith: number; ratio: number }) =>
+    `${name}: GET /v1/health ${r.health.toFixed(0)} req/s, POST /v1/zenith-delays (single point) ${r.zenith.toFixed(0)} req/s, ratio ${r.ratio.toFixed(2)} (target ≥ 0.6)`;
   return [
     `slant delays in-process (Niell + Chen & Herring, one core): ${(perSecond / 1e6).toFixed(2)} million/s (target ≥ 5)`,
-    `HTTP GET /v1/health: ${median(health).toFixed(0)} req/s (median of 3 runs of 3 s, 10 connections)`,
-    `HTTP POST /v1/zenith-delays (single point): ${median(zenith).toFixed(0)} req/s`,
-    `ratio zenith-delays / health: ${median(ratios).toFixed(2)} (target ≥ 0.6)`,
+    line('HTTP, default configuration (LOG_LEVEL=info, one log line per request)', logged),
+    line('HTTP, request logging off (LOG_LEVEL=warn)', quiet),
+    '(medians of 3 alternating runs of 3 s, 10 connections, service in its own process)',
   ];
 }

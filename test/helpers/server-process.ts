@@ -23,11 +23,15 @@ export interface ServerProcess {
   stop(): Promise<number | null>;
 }
 
-export async function startServerProcess(env: Record<string, string> = {}): Promise<ServerProcess> {
+/**
+ * @param env extra environment (LOG_LEVEL defaults to warn)
+ * @param discardLogs send the service's stdout (its log lines) nowhere, e.g. to measure at LOG_LEVEL=info
+ */
+export async function startServerProcess(env: Record<string, string> = {}, discardLogs = false): Promise<ServerProcess> {
   const port = await freePort();
   const child = spawn(process.execPath, ['--import', 'tsx', 'src/server.ts'], {
     env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', LOG_LEVEL: 'warn', ...env },
-    stdio: ['ignore', 'inherit', 'inherit'],
+    stdio: ['ignore', discardLogs ? 'ignore' : 'inherit', 'inherit'],
   });
   const baseUrl = `http://127.0.0.1:${port}`;
   const deadline = Date.now() + 30_000;
