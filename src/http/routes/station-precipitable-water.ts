@@ -1,5 +1,6 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { summariseModelSets } from '../../services/homogeneity.js';
+import { roundedDecimalText } from '../../formats/decimal-text.js';
 import { csvCell } from '../../formats/met-csv.js';
 import { retrievalProvenance, stationPrecipitableWater, type StationPwvRecord } from '../../services/station-pwv.js';
 import { problemSchema } from '../schemas/common.js';
@@ -38,9 +39,12 @@ const pwvJson = (r: StationPwvRecord) => ({
   temperature_quality: r.temperatureQuality,
 });
 
+/** A rounded CSV cell: empty for null, else the text String(round(x, digits)) would give. */
+const roundedCell = (x: number | null, digits: number): string => (x === null ? '' : roundedDecimalText(x, digits));
+
 /**
  * One CSV line in the order of STATION_PWV_CSV_COLUMNS (a test checks it against the JSON record).
- * Array.join writes null as an empty cell and is about three times faster than a template here.
+ * Array.join makes one flat string, about three times faster here than a template of many parts.
  */
 const pwvCsvLine = (r: StationPwvRecord): string =>
   [
@@ -49,16 +53,16 @@ const pwvCsvLine = (r: StationPwvRecord): string =>
     r.modelFingerprint,
     r.ztdM,
     r.ztdSigmaM,
-    round(r.pressureHpa, D.hpa),
-    round(r.temperatureC, D.k),
-    round(r.zhdM, D.m),
-    round(r.zwdM, D.m),
-    round(r.zwdSigmaM, D.m),
-    round(r.tmK, D.k),
-    round(r.tmSigmaK, D.k),
-    round(r.conversionFactor, D.pi),
-    round(r.pwvMm, D.mm),
-    round(r.pwvSigmaMm, D.mm),
+    roundedCell(r.pressureHpa, D.hpa),
+    roundedCell(r.temperatureC, D.k),
+    roundedCell(r.zhdM, D.m),
+    roundedCell(r.zwdM, D.m),
+    roundedCell(r.zwdSigmaM, D.m),
+    roundedCell(r.tmK, D.k),
+    roundedCell(r.tmSigmaK, D.k),
+    roundedCell(r.conversionFactor, D.pi),
+    roundedCell(r.pwvMm, D.mm),
+    roundedCell(r.pwvSigmaMm, D.mm),
     r.quality,
     r.pressureQuality,
     r.temperatureQuality,
