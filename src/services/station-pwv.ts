@@ -24,7 +24,7 @@ import { DEG } from '../domain/constants.js';
 import { checkReductionHeight, reducePressureHpa, reduceTemperatureC } from '../domain/meteo/height-reduction.js';
 import { DEFAULT_MAX_MET_GAP_MS, interpolateSeries, type InterpolationQuality, type TimedValue } from '../domain/meteo/met-interpolation.js';
 import { MODEL_NAMES, provenance } from '../domain/provenance.js';
-import { precipitableWater } from '../domain/water-vapour/precipitable-water.js';
+import { negativeWetDelayWarning, precipitableWaterFromSurfaceMet, tmExtrapolatedWarning } from '../domain/water-vapour/precipitable-water.js';
 import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
 import type { DelayRow, MetRow, Station } from '../storage/repository.js';
 
@@ -149,14 +149,14 @@ export function stationPrecipitableWater(
     }
     const pressureHpa = dHeightM === 0 ? p.value : reducePressureHpa(p.value, t.value, dHeightM);
     const temperatureC = reduceTemperatureC(t.value, dHeightM);
-    const res = precipitableWater(
-      { ztdM: d.ztdM, ztdSigmaM: d.ztdSigmaM ?? undefined, pressureHpa, temperatureC },
-      latRad,
-      station.heightM,
-    );
-    for (const w of res.warnings) {
-      // The field prefix is added only here: a string per record would cost a station-year 100k strings.
-      if (warnings.length < MAX_WARNINGS) warnings.push(`records.${i}.${w}`);
+    const res = precipitableWaterFromSurfaceMet(d.ztdM, d.ztdSigmaM, pressureHpa, temperatureC, latRad, station.heightM);
+    // Warning texts only for the first MAX_WARNINGS (the field prefix makes each one a new string).
+    if (res.wetDelayNegative) {
+      if (warnings.length < MAX_WARNINGS) warnings.push(negativeWetDelayWarning(res.zwdM, `records.${i}`));
+      else extraWarnings++;
+    }
+    if (res.tmExtrapolated) {
+      if (warnings.length < MAX_WARNINGS) warnings.push(tmExtrapolatedWarning(temperatureC, `records.${i}`));
       else extraWarnings++;
     }
     const sigmaKnown = d.ztdSigmaM !== null;
