@@ -26,7 +26,7 @@ import { DEFAULT_MAX_MET_GAP_MS, interpolateSeries, type InterpolationQuality, t
 import { MODEL_NAMES, provenance } from '../domain/provenance.js';
 import { negativeWetDelayWarning, precipitableWaterFromSurfaceMet, tmExtrapolatedWarning } from '../domain/water-vapour/precipitable-water.js';
 import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
-import type { DelayRow, MetRow, Station } from '../storage/repository.js';
+import type { Station, SurfaceMetRow, ZenithDelayRow } from '../storage/repository.js';
 
 /** ztd_sigma_m above this flags "delay-sigma-large" [m] (our choice: 10 mm of ZTD ≈ 1.5 mm of PWV). */
 export const DEFAULT_MAX_ZTD_SIGMA_M = 0.01;
@@ -75,7 +75,7 @@ export function retrievalProvenance(maxMetGapMs: number) {
 }
 
 /** One value per epoch from met rows sorted by (epoch, source): the first non-null at each epoch. */
-function series(met: readonly MetRow[], pick: (r: MetRow) => number | null): TimedValue[] {
+function series(met: readonly SurfaceMetRow[], pick: (r: SurfaceMetRow) => number | null): TimedValue[] {
   const out: TimedValue[] = [];
   for (const r of met) {
     const v = pick(r);
@@ -93,8 +93,8 @@ function series(met: readonly MetRow[], pick: (r: MetRow) => number | null): Tim
  */
 export function stationPrecipitableWater(
   station: Station,
-  delays: readonly DelayRow[],
-  met: readonly MetRow[],
+  delays: readonly ZenithDelayRow[],
+  met: readonly SurfaceMetRow[],
   options: StationPwvOptions = {},
 ): { records: StationPwvRecord[]; warnings: string[] } {
   const maxMetGapMs = options.maxMetGapMs ?? DEFAULT_MAX_MET_GAP_MS;

@@ -91,9 +91,9 @@ const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       const station = await requireStation(app.repository, stationId);
       const range = await resolveSeriesRange(app.repository, stationId, 'delays', q, options.maxReadRangeDays);
       const maxMetGapMs = q.max_met_gap_s * 1000;
-      const delays = await app.repository.readDelays(stationId, range, q.source);
+      const delays = await app.repository.readZenithDelays(stationId, range, q.source);
       const met = delays.length
-        ? await app.repository.readMet(stationId, { fromMs: delays[0]!.epochMs - maxMetGapMs, toMs: delays[delays.length - 1]!.epochMs + maxMetGapMs }, q.met_source)
+        ? await app.repository.readSurfaceMet(stationId, { fromMs: delays[0]!.epochMs - maxMetGapMs, toMs: delays[delays.length - 1]!.epochMs + maxMetGapMs }, q.met_source)
         : [];
       const result = stationPrecipitableWater(station, delays, met, { maxMetGapMs, maxZtdSigmaM: q.max_ztd_sigma_m });
       const fingerprints = [...new Set(delays.map((r) => r.modelFingerprint))];
