@@ -39,8 +39,36 @@ const pwvJson = (r: StationPwvRecord) => ({
   temperature_quality: r.temperatureQuality,
 });
 
-/** A rounded CSV cell: empty for null, else the text String(round(x, digits)) would give. */
-const roundedCell = (x: number | null, digits: number): string => (x === null ? '' : roundedDecimalText(x, digits));
+/**
+ * Cells of one CSV column: empty for null, else the text String(round(x, digits)) would give (or
+ * String(x) without `digits`). The text of the last value is kept, because sigmas and Tm sigma
+ * repeat row after row (a pure memo: the same value always gives the same text).
+ */
+function csvColumn(digits?: number): (x: number | null) => string {
+  let lastValue: number | null = null;
+  let lastText = '';
+  return (x) => {
+    if (x === null) return '';
+    if (x !== lastValue) {
+      lastValue = x;
+      lastText = digits === undefined ? String(x) : roundedDecimalText(x, digits);
+    }
+    return lastText;
+  };
+}
+const cell = {
+  ztdSigma: csvColumn(),
+  pressure: csvColumn(D.hpa),
+  temperature: csvColumn(D.k),
+  zhd: csvColumn(D.m),
+  zwd: csvColumn(D.m),
+  zwdSigma: csvColumn(D.m),
+  tm: csvColumn(D.k),
+  tmSigma: csvColumn(D.k),
+  conversionFactor: csvColumn(D.pi),
+  pwv: csvColumn(D.mm),
+  pwvSigma: csvColumn(D.mm),
+};
 
 /**
  * One CSV line in the order of STATION_PWV_CSV_COLUMNS (a test checks it against the JSON record).
@@ -52,17 +80,17 @@ const pwvCsvLine = (r: StationPwvRecord): string =>
     csvCell(r.source),
     r.modelFingerprint,
     r.ztdM,
-    r.ztdSigmaM,
-    roundedCell(r.pressureHpa, D.hpa),
-    roundedCell(r.temperatureC, D.k),
-    roundedCell(r.zhdM, D.m),
-    roundedCell(r.zwdM, D.m),
-    roundedCell(r.zwdSigmaM, D.m),
-    roundedCell(r.tmK, D.k),
-    roundedCell(r.tmSigmaK, D.k),
-    roundedCell(r.conversionFactor, D.pi),
-    roundedCell(r.pwvMm, D.mm),
-    roundedCell(r.pwvSigmaMm, D.mm),
+    cell.ztdSigma(r.ztdSigmaM),
+    cell.pressure(r.pressureHpa),
+    cell.temperature(r.temperatureC),
+    cell.zhd(r.zhdM),
+    cell.zwd(r.zwdM),
+    cell.zwdSigma(r.zwdSigmaM),
+    cell.tm(r.tmK),
+    cell.tmSigma(r.tmSigmaK),
+    cell.conversionFactor(r.conversionFactor),
+    cell.pwv(r.pwvMm),
+    cell.pwvSigma(r.pwvSigmaMm),
     r.quality,
     r.pressureQuality,
     r.temperatureQuality,
