@@ -24,9 +24,9 @@ import { DEG } from '../domain/constants.js';
 import { checkReductionHeight, reducePressureHpa, reduceTemperatureC } from '../domain/meteo/height-reduction.js';
 import { DEFAULT_MAX_MET_GAP_MS, interpolateSeries, type InterpolationQuality, type TimedValue } from '../domain/meteo/met-interpolation.js';
 import { MODEL_NAMES, provenance } from '../domain/provenance.js';
-import { precipitableWater } from '../domain/water-vapour/precipitable-water.js';
+import { negativeWetDelayWarning, precipitableWaterFromSurfaceMet, tmExtrapolatedWarning } from '../domain/water-vapour/precipitable-water.js';
 import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
-import type { DelayRow, MetRow, Station } from '../storage/repository.js';
+import type { Station, SurfaceMetRow, ZenithDelayRow } from '../storage/repository.js';
 
 /** ztd_sigma_m above this flags "delay-sigma-large" [m] (our choice: 10 mm of ZTD ≈ 1.5 mm of PWV). */
 export const DEFAULT_MAX_ZTD_SIGMA_M = 0.01;
@@ -75,7 +75,7 @@ export function retrievalProvenance(maxMetGapMs: number) {
 }
 
 /** One value per epoch from met rows sorted by (epoch, source): the first non-null at each epoch. */
-function series(met: readonly MetRow[], pick: (r: MetRow) => number | null): TimedValue[] {
+function series(met: readonly SurfaceMetRow[], pick: (r: SurfaceMetRow) => number | null): TimedValue[] {
   const out: TimedValue[] = [];
   for (const r of met) {
     const v = pick(r);
@@ -93,8 +93,8 @@ function series(met: readonly MetRow[], pick: (r: MetRow) => number | null): Tim
  */
 export function stationPrecipitableWater(
   station: Station,
-  delays: readonly DelayRow[],
-  met: readonly MetRow[],
+  delays: readonly ZenithDelayRow[],
+  met: readonly SurfaceMetRow[],
   options: StationPwvOptions = {},
 ): { records: StationPwvRecord[]; warnings: string[] } {
   const maxMetGapMs = options.maxMetGapMs ?? DEFAULT_MAX_MET_GAP_MS;
@@ -149,14 +149,14 @@ export function stationPrecipitableWater(
     }
     const pressureHpa = dHeightM === 0 ? p.value : reducePressureHpa(p.value, t.value, dHeightM);
     const temperatureC = reduceTemperatureC(t.value, dHeightM);
-    const res = precipitableWater(
-      { ztdM: d.ztdM, ztdSigmaM: d.ztdSigmaM ?? undefined, pressureHpa, temperatureC },
-      latRad,
-      station.heightM,
-    );
-    for (const w of res.warnings) {
-      // The field prefix is added only here: a string per record would cost a station-year 100k strings.
-      if (warnings.length < MAX_WARNINGS) warnings.push(`records.${i}.${w}`);
+    const res = precipitableWaterFromSurfaceMet(d.ztdM, d.ztdSigmaM, pressureHpa, temperatureC, latRad, station.heightM);
+    // Warning texts only for the first MAX_WARNINGS (the field prefix makes each one a new string).
+    if (res.wetDelayNegative) {
+      if (warnings.length < MAX_WARNINGS) warnings.push(negativeWetDelayWarning(res.zwdM, `records.${i}`));
+      else extraWarnings++;
+    }
+    if (res.tmExtrapolated) {
+      if (warnings.length < MAX_WARNINGS) warnings.push(tmExtrapolatedWarning(temperatureC, `records.${i}`));
       else extraWarnings++;
     }
     const sigmaKnown = d.ztdSigmaM !== null;

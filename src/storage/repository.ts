@@ -53,6 +53,12 @@ export interface DelayRow {
   modelFingerprint: string;
 }
 
+/** The columns of a delay row that a PWV retrieval needs (readZenithDelays). */
+export type ZenithDelayRow = Pick<DelayRow, 'epochMs' | 'source' | 'ztdM' | 'ztdSigmaM' | 'modelFingerprint'>;
+
+/** The columns of a met row that a PWV retrieval needs (readSurfaceMet). */
+export type SurfaceMetRow = Pick<MetRow, 'epochMs' | 'source' | 'pressureHpa' | 'temperatureC'>;
+
 /** A model set as stored once per fingerprint; delay rows refer to it. */
 export interface StoredModelSet {
   modelFingerprint: string;
@@ -89,6 +95,8 @@ export interface Repository {
   writeMet(stationId: string, rows: readonly MetRow[]): Promise<WriteCounts>;
   /** Met rows of one station in [fromMs, toMs], ordered by epoch then source. */
   readMet(stationId: string, range: TimeRange, source?: string): Promise<MetRow[]>;
+  /** The same rows as readMet with pressure and temperature only (half the columns: a station-year is 100 000 rows). */
+  readSurfaceMet(stationId: string, range: TimeRange, source?: string): Promise<SurfaceMetRow[]>;
 
   /**
    * Upserts delay rows of one station and their model set in one transaction. Every row's
@@ -97,6 +105,8 @@ export interface Repository {
   writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts>;
   /** Delay rows of one station in [fromMs, toMs], ordered by epoch then source. */
   readDelays(stationId: string, range: TimeRange, source?: string): Promise<DelayRow[]>;
+  /** The same rows as readDelays with the zenith total delay only (ZenithDelayRow). */
+  readZenithDelays(stationId: string, range: TimeRange, source?: string): Promise<ZenithDelayRow[]>;
   /** The model sets of the given fingerprints (unknown ones are left out). */
   readModelSets(fingerprints: readonly string[]): Promise<StoredModelSet[]>;
 

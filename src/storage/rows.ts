@@ -3,7 +3,7 @@
  * backends. PostgreSQL returns BIGINT as a string; Number() is exact for epochs (< 2^53 ms).
  */
 
-import type { DelayRow, MetRow, Station } from './repository.js';
+import type { DelayRow, MetRow, Station, SurfaceMetRow, ZenithDelayRow } from './repository.js';
 
 export interface StationDbRow {
   station_id: string;
@@ -72,4 +72,23 @@ export const delayFromArray = (r: unknown[]): DelayRow => ({
   northGradientSigmaM: r[8] as number | null,
   eastGradientSigmaM: r[9] as number | null,
   modelFingerprint: r[10] as string,
+});
+
+/** Narrow reads for the PWV retrieval: the columns of SurfaceMetRow / ZenithDelayRow, in this order. */
+export const SURFACE_MET_SELECT = 'epoch_ms, source, pressure_hpa, temperature_c';
+export const ZENITH_DELAY_SELECT = 'epoch_ms, source, ztd_m, ztd_sigma_m, model_fingerprint';
+
+export const surfaceMetFromArray = (r: unknown[]): SurfaceMetRow => ({
+  epochMs: Number(r[0]),
+  source: r[1] as string,
+  pressureHpa: r[2] as number | null,
+  temperatureC: r[3] as number | null,
+});
+
+export const zenithDelayFromArray = (r: unknown[]): ZenithDelayRow => ({
+  epochMs: Number(r[0]),
+  source: r[1] as string,
+  ztdM: r[2] as number,
+  ztdSigmaM: r[3] as number | null,
+  modelFingerprint: r[4] as string,
 });

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { DEG } from '../../src/domain/constants.js';
 import { conversionFactor } from '../../src/domain/water-vapour/conversion.js';
 import { bevisMeanTemperatureK } from '../../src/domain/water-vapour/mean-temperature.js';
-import { precipitableWater } from '../../src/domain/water-vapour/precipitable-water.js';
+import { negativeWetDelayWarning, precipitableWater, precipitableWaterFromSurfaceMet, tmExtrapolatedWarning } from '../../src/domain/water-vapour/precipitable-water.js';
 import { zenithHydrostaticDelayM } from '../../src/domain/zenith/hydrostatic.js';
 
 describe('conversion factor Π of Bevis et al. (1994)', () => {
@@ -67,5 +67,27 @@ describe('precipitable water from a total delay and surface met', () => {
   it('never defaults the pressure that decides the answer, nor the temperature', () => {
     expect(() => precipitableWater({ ztdM: 2.4, temperatureC: 10 }, lat, h, 'records.2')).toThrow(/pressure/);
     expect(() => precipitableWater({ zwdM: 0.1 }, lat, h)).toThrow(/needs temperature_c .* or tm_k/);
+  });
+});
+
+describe('precipitableWaterFromSurfaceMet, the series path: the same numbers as precipitableWater (the single definition)', () => {
+  // Its results feed the station PWV retrieval; they must be bit-identical to the checked function above.
+  const LAT_RAD = 47.1 * DEG;
+  const HEIGHT_M = 512.3;
+  it.each([
+    [2.4731, 0.0042, 990.6, 23.5],
+    [2.3, null, 955.2, -12.4],
+    [2.1, 0.004, 991.4, 22.9], // negative ZWD → warning
+    [2.4, 0.02, 1012.0, 51.0], // Ts = 324 K, above the Bevis fit data (240..320 K) → warning
+  ])('ZTD %s m, σ %s m, P %s hPa, T %s °C', (ztdM, ztdSigmaM, pressureHpa, temperatureC) => {
+    const series = precipitableWaterFromSurfaceMet(ztdM, ztdSigmaM, pressureHpa, temperatureC, LAT_RAD, HEIGHT_M);
+    const single = precipitableWater({ ztdM, ztdSigmaM: ztdSigmaM ?? undefined, pressureHpa, temperatureC }, LAT_RAD, HEIGHT_M, 'records.7');
+    const { warnings, ...numbers } = single;
+    expect(series).toEqual({ ...numbers, wetDelayNegative: series.zwdM < 0, tmExtrapolated: series.tmExtrapolated });
+    const texts = [
+      ...(series.wetDelayNegative ? [negativeWetDelayWarning(series.zwdM, 'records.7')] : []),
+      ...(series.tmExtrapolated ? [tmExtrapolatedWarning(temperatureC, 'records.7')] : []),
+    ];
+    expect(texts).toEqual(warnings);
   });
 });

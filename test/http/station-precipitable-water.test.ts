@@ -65,6 +65,39 @@ const DELAYS = [
 ];
 
 /**
+ * CSV of the station PWV retrieval pinned byte for byte (regression pin, captured from the
+ * implementation at commit c921cd2, before the batch fast path): the header, epoch text, rounding
+ * (1 µm, 0.0001 mm, 0.0001 hPa/K, Π 1e-8), empty cells for null, negative values and quality flags.
+ * Its PWV cells are checked against the written-out formulas in the test below.
+ */
+const PINNED_HEADER =
+  'epoch,source,model_fingerprint,ztd_m,ztd_sigma_m,pressure_hpa,temperature_c,zhd_m,zwd_m,zwd_sigma_m,tm_k,tm_sigma_k,conversion_factor,pwv_mm,pwv_sigma_mm,quality,pressure_quality,temperature_quality';
+const PINNED_CSV_PINA = [
+  PINNED_HEADER,
+  '2026-07-10T01:00:00.000Z,ref,55b7ed3531923e75,2.4731,0.0042,990.6,23.5,2.255468,0.217632,0.0042,283.788,4.74,0.16174934,35.2018,0.8921,ok,measured,measured',
+  '2026-07-10T01:15:00.000Z,ref,55b7ed3531923e75,2.4702,0.0042,990.8,23.35,2.255924,0.214276,0.0042,283.68,4.74,0.1616888,34.6461,0.8862,met-interpolated,interpolated,interpolated',
+  '2026-07-10T02:00:00.000Z,low,2bb4e1e1d0fa5616,2.1,0.004,991.4,22.9,2.25729,-0.15729,0.004,283.356,4.74,0.16150717,-25.4034,0.7694,ok,measured,measured',
+  '2026-07-10T02:30:00.000Z,ref,55b7ed3531923e75,2.465,0.025,991.2,22.45,2.256834,0.208166,0.025,283.032,4.74,0.16132554,33.5825,4.0709,delay-sigma-large,interpolated,interpolated',
+  '2026-07-10T03:00:00.000Z,ref,55b7ed3531923e75,2.4611,,991,22,2.256379,0.204721,,282.708,4.74,0.1611439,32.9896,,delay-sigma-unknown,measured,measured',
+  '2026-07-10T05:00:00.000Z,ref,55b7ed3531923e75,2.45,0.004,,,,,,,,,,,met-missing,missing,missing',
+  '2026-07-10T10:00:00.000Z,ref,55b7ed3531923e75,2.44,0.004,993.6,17.5,2.262299,0.177701,0.004,279.468,4.74,0.1593271,28.3126,0.7933,met-interpolated,interpolated,measured',
+  '2026-07-10T11:00:00.000Z,ref,55b7ed3531923e75,2.43,0.004,994.2,,2.263665,0.166335,,,,,,,met-missing,measured,missing',
+  '',
+].join('\n');
+const PINNED_CSV_PINB = [
+  PINNED_HEADER,
+  '2026-07-10T01:00:00.000Z,ref,55b7ed3531923e75,2.4731,0.0042,990.3719,23.487,2.254949,0.218151,0.0042,283.7786,4.74,0.16174409,35.2847,0.893,ok,measured,measured',
+  '2026-07-10T01:15:00.000Z,ref,55b7ed3531923e75,2.4702,0.0042,990.5717,23.337,2.255404,0.214796,0.0042,283.6706,4.74,0.16168355,34.729,0.8871,met-interpolated,interpolated,interpolated',
+  '2026-07-10T02:00:00.000Z,low,2bb4e1e1d0fa5616,2.1,0.004,991.1712,22.887,2.256769,-0.156769,0.004,283.3466,4.74,0.16150192,-25.3184,0.7687,ok,measured,measured',
+  '2026-07-10T02:30:00.000Z,ref,55b7ed3531923e75,2.465,0.025,990.9709,22.437,2.256313,0.208687,0.025,283.0226,4.74,0.16132029,33.6655,4.071,delay-sigma-large,interpolated,interpolated',
+  '2026-07-10T03:00:00.000Z,ref,55b7ed3531923e75,2.4611,,990.7706,21.987,2.255857,0.205243,,282.6986,4.74,0.16113865,33.0726,,delay-sigma-unknown,measured,measured',
+  '2026-07-10T05:00:00.000Z,ref,55b7ed3531923e75,2.45,0.004,,,,,,,,,,,met-missing,missing,missing',
+  '2026-07-10T10:00:00.000Z,ref,55b7ed3531923e75,2.44,0.004,993.3664,17.487,2.261767,0.178233,0.004,279.4586,4.74,0.15932185,28.3964,0.7941,met-interpolated,interpolated,measured',
+  '2026-07-10T11:00:00.000Z,ref,55b7ed3531923e75,2.43,0.004,,,,,,,,,,,met-missing,measured,missing',
+  '',
+].join('\n');
+
+/**
  * Agreement with the written-out formulas [mm of PWV]: the output precision, 0.0001 mm (a wrong
  * coefficient, e.g. 0.002277 for 0.0022768 m/hPa, moves PWV by about 0.03 mm).
  */
@@ -129,6 +162,42 @@ for (const backend of BACKENDS) {
       const p4 = 991.0 + (2 / 6) * (993.0 - 991.0);
       const t4 = 22.0 + (2 / 6) * (18.0 - 22.0);
       expect(Math.abs(wide.body.records[4].pwv_mm - expected(2.45, 0.004, p4, t4).pwv_mm)).toBeLessThan(TOL_PWV_MM);
+    });
+
+    it('answers CSV byte for byte as pinned (regression pin of the text format, rounding and flags)', async () => {
+      // Two stations: met at the antenna (PINA) and a met sensor 2 m below it (PINB). The series cover
+      // every flag, a pressure-only epoch (ZHD without PWV at PINA), a negative wet delay and two sources.
+      const met = [...MET, { h: 11, p: 994.2, t: null }];
+      const delays = [...DELAYS, { h: 11, ztd: 2.43, sigma: 0.004 }, { h: 2, ztd: 2.1, sigma: 0.004 }];
+      for (const [id, metHeightM] of [['PINA', null], ['PINB', HEIGHT_M - 2]] as const) {
+        await api().put(`/v1/stations/${id}`).set('authorization', auth).send({ ...STATION, met_height_m: metHeightM }).expect(201);
+        await api()
+          .post(`/v1/stations/${id}/met`)
+          .set('authorization', auth)
+          .send({ records: met.map((m) => ({ epoch: iso(T0 + m.h * H), pressure_hpa: m.p, temperature_c: m.t })) })
+          .expect(200);
+        await api()
+          .post(`/v1/stations/${id}/delays`)
+          .set('authorization', auth)
+          .send({ source: 'ref', records: delays.filter((d) => d.ztd > 2.2).map((d) => ({ epoch: iso(T0 + d.h * H), ztd_m: d.ztd, ztd_sigma_m: d.sigma })) })
+          .expect(200);
+        await api()
+          .post(`/v1/stations/${id}/delays`)
+          .set('authorization', auth)
+          .send({ source: 'low', records: delays.filter((d) => d.ztd <= 2.2).map((d) => ({ epoch: iso(T0 + d.h * H), ztd_m: d.ztd, ztd_sigma_m: d.sigma })) })
+          .expect(200);
+      }
+      const csvOf = async (id: string) =>
+        (await api().get(`/v1/stations/${id}/precipitable-water`).query({ from: iso(T0), to: iso(T0 + 12 * H), format: 'csv' }).expect(200)).text;
+      expect(await csvOf('PINA')).toBe(PINNED_CSV_PINA);
+      expect(await csvOf('PINB')).toBe(PINNED_CSV_PINB);
+      // The pinned PWV cells themselves agree with the written-out formulas (met at the antenna).
+      for (const line of PINNED_CSV_PINA.trim().split('\n').slice(1)) {
+        const c = line.split(',');
+        if (c[13] === '') continue;
+        const e = expected(Number(c[3]), c[4] === '' ? null : Number(c[4]), Number(c[5]), Number(c[6]));
+        expect(Math.abs(Number(c[13]) - e.pwv_mm)).toBeLessThan(1e-4); // output precision 0.0001 mm, plus 0.5e-4 hPa of pressure rounding
+      }
     });
 
     it('reduces met measured below the antenna to the antenna height (hypsometric equation, −6.5 K/km)', async () => {

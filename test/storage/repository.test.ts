@@ -150,6 +150,22 @@ for (const backend of BACKENDS) {
       for (const s of sets) expect(provenance(s.models).model_fingerprint).toBe(s.modelFingerprint);
     });
 
+    it('reads the narrow PWV columns: the same rows, order and values as the full reads', async () => {
+      const { repo } = await fresh();
+      await repo.putStation('QMR-1', STATION);
+      await repo.writeMet('QMR-1', [met(3), met(0), met(1, 'sensor-a', 951.25), met(1, 'sensor-b'), { ...met(2), pressureHpa: null }]);
+      await repo.writeDelays('QMR-1', [delay(2), delay(0), { ...delay(1), ztdSigmaM: null }, delay(1, 'second')], MODEL_SET);
+      const range = { fromMs: T0, toMs: T0 + 10 * MIN };
+      const pickMet = ({ epochMs, source, pressureHpa, temperatureC }: MetRow) => ({ epochMs, source, pressureHpa, temperatureC });
+      const pickDelay = ({ epochMs, source, ztdM, ztdSigmaM, modelFingerprint }: DelayRow) => ({ epochMs, source, ztdM, ztdSigmaM, modelFingerprint });
+      expect(await repo.readSurfaceMet('QMR-1', range)).toEqual((await repo.readMet('QMR-1', range)).map(pickMet));
+      expect(await repo.readSurfaceMet('QMR-1', range, 'sensor-b')).toEqual((await repo.readMet('QMR-1', range, 'sensor-b')).map(pickMet));
+      expect(await repo.readZenithDelays('QMR-1', range)).toEqual((await repo.readDelays('QMR-1', range)).map(pickDelay));
+      expect(await repo.readZenithDelays('QMR-1', range, 'second')).toEqual([pickDelay(delay(1, 'second'))]);
+      expect(await repo.readSurfaceMet('QMR-1', range)).toHaveLength(4);
+      expect(await repo.readZenithDelays('QMR-1', range)).toHaveLength(4);
+    });
+
     it('refuses series for an unknown station and stores nothing', async () => {
       const { repo } = await fresh();
       await expect(repo.writeMet('NOPE', [met(0)])).rejects.toBeInstanceOf(UnknownStationError);

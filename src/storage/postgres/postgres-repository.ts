@@ -10,9 +10,21 @@
 
 import pg from 'pg';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
-import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, TimeRange, WriteCounts } from '../repository.js';
+import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, SurfaceMetRow, TimeRange, WriteCounts, ZenithDelayRow } from '../repository.js';
 import { UnknownStationError } from '../repository.js';
-import { DELAY_SELECT, MET_SELECT, delayFromArray, metFromArray, toStation, type MetArrayRow, type StationDbRow } from '../rows.js';
+import {
+  DELAY_SELECT,
+  MET_SELECT,
+  SURFACE_MET_SELECT,
+  ZENITH_DELAY_SELECT,
+  delayFromArray,
+  metFromArray,
+  surfaceMetFromArray,
+  toStation,
+  zenithDelayFromArray,
+  type MetArrayRow,
+  type StationDbRow,
+} from '../rows.js';
 
 /** Key of the advisory lock that serialises migrations (an arbitrary constant of this service). */
 export const MIGRATION_LOCK_KEY = 7_421_903_311;
@@ -201,6 +213,18 @@ export class PostgresRepository implements Repository {
     return result.rows.map(metFromArray);
   }
 
+  async readSurfaceMet(stationId: string, range: TimeRange, source?: string): Promise<SurfaceMetRow[]> {
+    const result = await this.pool.query<unknown[]>({
+      text:
+        source === undefined
+          ? `SELECT ${SURFACE_MET_SELECT} FROM met_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 ORDER BY epoch_ms, source`
+          : `SELECT ${SURFACE_MET_SELECT} FROM met_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 AND source = $4 ORDER BY epoch_ms, source`,
+      values: source === undefined ? [stationId, range.fromMs, range.toMs] : [stationId, range.fromMs, range.toMs, source],
+      rowMode: 'array',
+    });
+    return result.rows.map(surfaceMetFromArray);
+  }
+
   async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts> {
     for (const r of rows) if (r.modelFingerprint !== modelSet.modelFingerprint) throw new Error('delay row fingerprint differs from its model set');
     return this.transaction(async (client) => {
@@ -257,6 +281,18 @@ export class PostgresRepository implements Repository {
       rowMode: 'array',
     });
     return result.rows.map(delayFromArray);
+  }
+
+  async readZenithDelays(stationId: string, range: TimeRange, source?: string): Promise<ZenithDelayRow[]> {
+    const result = await this.pool.query<unknown[]>({
+      text:
+        source === undefined
+          ? `SELECT ${ZENITH_DELAY_SELECT} FROM delay_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 ORDER BY epoch_ms, source`
+          : `SELECT ${ZENITH_DELAY_SELECT} FROM delay_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 AND source = $4 ORDER BY epoch_ms, source`,
+      values: source === undefined ? [stationId, range.fromMs, range.toMs] : [stationId, range.fromMs, range.toMs, source],
+      rowMode: 'array',
+    });
+    return result.rows.map(zenithDelayFromArray);
   }
 
   async readModelSets(fingerprints: readonly string[]): Promise<StoredModelSet[]> {

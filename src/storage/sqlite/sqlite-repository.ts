@@ -11,9 +11,23 @@ import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
-import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, TimeRange, WriteCounts } from '../repository.js';
+import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, SurfaceMetRow, TimeRange, WriteCounts, ZenithDelayRow } from '../repository.js';
 import { UnknownStationError } from '../repository.js';
-import { DELAY_SELECT, MET_SELECT, delayFromArray, delayValues, metFromArray, metValues, toStation, type MetArrayRow, type StationDbRow } from '../rows.js';
+import {
+  DELAY_SELECT,
+  MET_SELECT,
+  SURFACE_MET_SELECT,
+  ZENITH_DELAY_SELECT,
+  delayFromArray,
+  delayValues,
+  metFromArray,
+  metValues,
+  surfaceMetFromArray,
+  toStation,
+  zenithDelayFromArray,
+  type MetArrayRow,
+  type StationDbRow,
+} from '../rows.js';
 
 export const SQLITE_FILE_NAME = 'tropodelay.sqlite';
 
@@ -89,6 +103,12 @@ export class SqliteRepository implements Repository {
       readMetSource: this.db
         .prepare(`SELECT ${MET_SELECT} FROM met_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? AND source = ? ORDER BY epoch_ms, source`)
         .raw(true),
+      readSurfaceMet: this.db
+        .prepare(`SELECT ${SURFACE_MET_SELECT} FROM met_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? ORDER BY epoch_ms, source`)
+        .raw(true),
+      readSurfaceMetSource: this.db
+        .prepare(`SELECT ${SURFACE_MET_SELECT} FROM met_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? AND source = ? ORDER BY epoch_ms, source`)
+        .raw(true),
       insertModelSet: this.db.prepare('INSERT INTO model_sets (model_fingerprint, models_json) VALUES (?, ?) ON CONFLICT (model_fingerprint) DO NOTHING'),
       insertDelay: this.db.prepare(
         `INSERT INTO delay_records (station_id, epoch_ms, source, ztd_m, ztd_sigma_m, zwd_m, zwd_sigma_m, north_gradient_m, east_gradient_m,
@@ -103,6 +123,12 @@ export class SqliteRepository implements Repository {
         .raw(true),
       readDelaysSource: this.db
         .prepare(`SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? AND source = ? ORDER BY epoch_ms, source`)
+        .raw(true),
+      readZenithDelays: this.db
+        .prepare(`SELECT ${ZENITH_DELAY_SELECT} FROM delay_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? ORDER BY epoch_ms, source`)
+        .raw(true),
+      readZenithDelaysSource: this.db
+        .prepare(`SELECT ${ZENITH_DELAY_SELECT} FROM delay_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? AND source = ? ORDER BY epoch_ms, source`)
         .raw(true),
       latestMet: this.db.prepare('SELECT MAX(epoch_ms) AS latest FROM met_records WHERE station_id = ?'),
       latestDelays: this.db.prepare('SELECT MAX(epoch_ms) AS latest FROM delay_records WHERE station_id = ?'),
@@ -160,6 +186,15 @@ export class SqliteRepository implements Repository {
     return rows.map(metFromArray);
   }
 
+  async readSurfaceMet(stationId: string, range: TimeRange, source?: string): Promise<SurfaceMetRow[]> {
+    const rows = (
+      source === undefined
+        ? this.stmt.readSurfaceMet.all(stationId, range.fromMs, range.toMs)
+        : this.stmt.readSurfaceMetSource.all(stationId, range.fromMs, range.toMs, source)
+    ) as unknown[][];
+    return rows.map(surfaceMetFromArray);
+  }
+
   async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts> {
     const tx = this.db.transaction(() => {
       if (!this.stmt.getStation.get(stationId)) throw new UnknownStationError(stationId);
@@ -184,6 +219,15 @@ export class SqliteRepository implements Repository {
         : this.stmt.readDelaysSource.all(stationId, range.fromMs, range.toMs, source)
     ) as unknown[][];
     return rows.map(delayFromArray);
+  }
+
+  async readZenithDelays(stationId: string, range: TimeRange, source?: string): Promise<ZenithDelayRow[]> {
+    const rows = (
+      source === undefined
+        ? this.stmt.readZenithDelays.all(stationId, range.fromMs, range.toMs)
+        : this.stmt.readZenithDelaysSource.all(stationId, range.fromMs, range.toMs, source)
+    ) as unknown[][];
+    return rows.map(zenithDelayFromArray);
   }
 
   async readModelSets(fingerprints: readonly string[]): Promise<StoredModelSet[]> {
