@@ -35,16 +35,9 @@ export const DEMO_NETWORK: SyntheticStation[] = [
   { stationId: 'SALTM', name: 'Saltmere Point', latitudeDeg: 38.74, longitudeDeg: -9.61, heightM: 92.0, description: 'Invented coastal station (demo data)' },
 ];
 
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+// One seeded generator for all synthetic data (scripts/synthetic-residuals.ts), re-exported here.
+export { mulberry32 } from '../synthetic-residuals.js';
+import { mulberry32 } from '../synthetic-residuals.js';
 
 /** Standard normal deviate from a uniform generator (Box–Muller). */
 export function gaussian(random: () => number): number {
