@@ -99,10 +99,10 @@ describe('Dockerfile reference: multi-stage build, base image argument', () => {
 });
 
 describe('Dockerfile reference: the service is PID 1 and gets SIGTERM itself', () => {
-  it('starts node directly with the exec form CMD ["node", "dist/server.js"] (the shell form runs under /bin/sh -c, which does not pass signals on)', () => {
+  it('starts node directly with the exec form CMD ["node", …, "dist/server.js"] (the shell form runs under /bin/sh -c, which does not pass signals on)', () => {
     const cmds = finalOf('CMD');
     expect(cmds).toHaveLength(1);
-    expect(execForm(cmds[0]!.args)).toEqual(['node', 'dist/server.js']);
+    expect(execForm(cmds[0]!.args)).toEqual(['node', '--max-semi-space-size=32', 'dist/server.js']);
     expect(finalOf('ENTRYPOINT')).toHaveLength(0); // no wrapper script in front of node
   });
 
