@@ -92,3 +92,19 @@ export const zenithDelayFromArray = (r: unknown[]): ZenithDelayRow => ({
   ztdSigmaM: r[3] as number | null,
   modelFingerprint: r[4] as string,
 });
+
+/**
+ * SQL of a one-station time-range read, ordered by (epoch, source), bounds inclusive, optionally of
+ * one source. `table` and `columns` are this module's constants, never caller input; the values are
+ * bound parameters: `?` for SQLite, `$1..$4` for PostgreSQL.
+ */
+export function rangeReadSql(
+  table: 'met_records' | 'delay_records',
+  columns: string,
+  bySource: boolean,
+  dialect: 'sqlite' | 'postgres',
+): string {
+  const p = (n: number) => (dialect === 'sqlite' ? '?' : `$${n}`);
+  const source = bySource ? ` AND source = ${p(4)}` : '';
+  return `SELECT ${columns} FROM ${table} WHERE station_id = ${p(1)} AND epoch_ms BETWEEN ${p(2)} AND ${p(3)}${source} ORDER BY epoch_ms, source`;
+}

@@ -24,6 +24,7 @@ import {
   zenithDelayFromArray,
   type MetArrayRow,
   type StationDbRow,
+  rangeReadSql,
 } from '../rows.js';
 
 /** Key of the advisory lock that serialises migrations (an arbitrary constant of this service). */
@@ -202,27 +203,11 @@ export class PostgresRepository implements Repository {
   }
 
   async readMet(stationId: string, range: TimeRange, source?: string): Promise<MetRow[]> {
-    const result = await this.pool.query<MetArrayRow>({
-      text:
-        source === undefined
-          ? `SELECT ${MET_SELECT} FROM met_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 ORDER BY epoch_ms, source`
-          : `SELECT ${MET_SELECT} FROM met_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 AND source = $4 ORDER BY epoch_ms, source`,
-      values: source === undefined ? [stationId, range.fromMs, range.toMs] : [stationId, range.fromMs, range.toMs, source],
-      rowMode: 'array',
-    });
-    return result.rows.map(metFromArray);
+    return (await this.readRange('met_records', MET_SELECT, stationId, range, source)).map((row) => metFromArray(row as MetArrayRow));
   }
 
   async readSurfaceMet(stationId: string, range: TimeRange, source?: string): Promise<SurfaceMetRow[]> {
-    const result = await this.pool.query<unknown[]>({
-      text:
-        source === undefined
-          ? `SELECT ${SURFACE_MET_SELECT} FROM met_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 ORDER BY epoch_ms, source`
-          : `SELECT ${SURFACE_MET_SELECT} FROM met_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 AND source = $4 ORDER BY epoch_ms, source`,
-      values: source === undefined ? [stationId, range.fromMs, range.toMs] : [stationId, range.fromMs, range.toMs, source],
-      rowMode: 'array',
-    });
-    return result.rows.map(surfaceMetFromArray);
+    return (await this.readRange('met_records', SURFACE_MET_SELECT, stationId, range, source)).map(surfaceMetFromArray);
   }
 
   async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts> {
@@ -272,27 +257,11 @@ export class PostgresRepository implements Repository {
   }
 
   async readDelays(stationId: string, range: TimeRange, source?: string): Promise<DelayRow[]> {
-    const result = await this.pool.query<unknown[]>({
-      text:
-        source === undefined
-          ? `SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 ORDER BY epoch_ms, source`
-          : `SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 AND source = $4 ORDER BY epoch_ms, source`,
-      values: source === undefined ? [stationId, range.fromMs, range.toMs] : [stationId, range.fromMs, range.toMs, source],
-      rowMode: 'array',
-    });
-    return result.rows.map(delayFromArray);
+    return (await this.readRange('delay_records', DELAY_SELECT, stationId, range, source)).map(delayFromArray);
   }
 
   async readZenithDelays(stationId: string, range: TimeRange, source?: string): Promise<ZenithDelayRow[]> {
-    const result = await this.pool.query<unknown[]>({
-      text:
-        source === undefined
-          ? `SELECT ${ZENITH_DELAY_SELECT} FROM delay_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 ORDER BY epoch_ms, source`
-          : `SELECT ${ZENITH_DELAY_SELECT} FROM delay_records WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 AND source = $4 ORDER BY epoch_ms, source`,
-      values: source === undefined ? [stationId, range.fromMs, range.toMs] : [stationId, range.fromMs, range.toMs, source],
-      rowMode: 'array',
-    });
-    return result.rows.map(zenithDelayFromArray);
+    return (await this.readRange('delay_records', ZENITH_DELAY_SELECT, stationId, range, source)).map(zenithDelayFromArray);
   }
 
   async readModelSets(fingerprints: readonly string[]): Promise<StoredModelSet[]> {
@@ -309,6 +278,16 @@ export class PostgresRepository implements Repository {
     const result = await this.pool.query<{ latest: string | null }>(`SELECT MAX(epoch_ms) AS latest FROM ${table} WHERE station_id = $1`, [stationId]);
     const latest = result.rows[0]?.latest ?? null;
     return latest === null ? null : Number(latest);
+  }
+
+  /** Raw rows of a one-station time-range read. */
+  private async readRange(table: 'met_records' | 'delay_records', columns: string, stationId: string, range: TimeRange, source?: string): Promise<unknown[][]> {
+    const result = await this.pool.query<unknown[]>({
+      text: rangeReadSql(table, columns, source !== undefined, 'postgres'),
+      values: source === undefined ? [stationId, range.fromMs, range.toMs] : [stationId, range.fromMs, range.toMs, source],
+      rowMode: 'array',
+    });
+    return result.rows;
   }
 
   connectionStats(): ConnectionStats {

@@ -27,6 +27,7 @@ import {
   zenithDelayFromArray,
   type MetArrayRow,
   type StationDbRow,
+  rangeReadSql,
 } from '../rows.js';
 
 export const SQLITE_FILE_NAME = 'tropodelay.sqlite';
@@ -97,18 +98,6 @@ export class SqliteRepository implements Repository {
          VALUES (?, ?, ?, ?, ?, ?, ?, ?) ON CONFLICT (station_id, epoch_ms, source) DO NOTHING`,
       ),
       updateMet: this.db.prepare(`UPDATE met_records SET ${metSet} WHERE station_id = ? AND epoch_ms = ? AND source = ? AND (${metDiffers})`),
-      readMet: this.db
-        .prepare(`SELECT ${MET_SELECT} FROM met_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? ORDER BY epoch_ms, source`)
-        .raw(true),
-      readMetSource: this.db
-        .prepare(`SELECT ${MET_SELECT} FROM met_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? AND source = ? ORDER BY epoch_ms, source`)
-        .raw(true),
-      readSurfaceMet: this.db
-        .prepare(`SELECT ${SURFACE_MET_SELECT} FROM met_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? ORDER BY epoch_ms, source`)
-        .raw(true),
-      readSurfaceMetSource: this.db
-        .prepare(`SELECT ${SURFACE_MET_SELECT} FROM met_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? AND source = ? ORDER BY epoch_ms, source`)
-        .raw(true),
       insertModelSet: this.db.prepare('INSERT INTO model_sets (model_fingerprint, models_json) VALUES (?, ?) ON CONFLICT (model_fingerprint) DO NOTHING'),
       insertDelay: this.db.prepare(
         `INSERT INTO delay_records (station_id, epoch_ms, source, ztd_m, ztd_sigma_m, zwd_m, zwd_sigma_m, north_gradient_m, east_gradient_m,
@@ -118,18 +107,6 @@ export class SqliteRepository implements Repository {
       updateDelay: this.db.prepare(
         `UPDATE delay_records SET ${delaySet} WHERE station_id = ? AND epoch_ms = ? AND source = ? AND (${delayDiffers})`,
       ),
-      readDelays: this.db
-        .prepare(`SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? ORDER BY epoch_ms, source`)
-        .raw(true),
-      readDelaysSource: this.db
-        .prepare(`SELECT ${DELAY_SELECT} FROM delay_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? AND source = ? ORDER BY epoch_ms, source`)
-        .raw(true),
-      readZenithDelays: this.db
-        .prepare(`SELECT ${ZENITH_DELAY_SELECT} FROM delay_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? ORDER BY epoch_ms, source`)
-        .raw(true),
-      readZenithDelaysSource: this.db
-        .prepare(`SELECT ${ZENITH_DELAY_SELECT} FROM delay_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? AND source = ? ORDER BY epoch_ms, source`)
-        .raw(true),
       latestMet: this.db.prepare('SELECT MAX(epoch_ms) AS latest FROM met_records WHERE station_id = ?'),
       latestDelays: this.db.prepare('SELECT MAX(epoch_ms) AS latest FROM delay_records WHERE station_id = ?'),
     };
@@ -178,21 +155,11 @@ export class SqliteRepository implements Repository {
   }
 
   async readMet(stationId: string, range: TimeRange, source?: string): Promise<MetRow[]> {
-    const rows = (
-      source === undefined
-        ? this.stmt.readMet.all(stationId, range.fromMs, range.toMs)
-        : this.stmt.readMetSource.all(stationId, range.fromMs, range.toMs, source)
-    ) as MetArrayRow[];
-    return rows.map(metFromArray);
+    return this.readRange('met_records', MET_SELECT, stationId, range, source).map((row) => metFromArray(row as MetArrayRow));
   }
 
   async readSurfaceMet(stationId: string, range: TimeRange, source?: string): Promise<SurfaceMetRow[]> {
-    const rows = (
-      source === undefined
-        ? this.stmt.readSurfaceMet.all(stationId, range.fromMs, range.toMs)
-        : this.stmt.readSurfaceMetSource.all(stationId, range.fromMs, range.toMs, source)
-    ) as unknown[][];
-    return rows.map(surfaceMetFromArray);
+    return this.readRange('met_records', SURFACE_MET_SELECT, stationId, range, source).map(surfaceMetFromArray);
   }
 
   async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts> {
@@ -213,21 +180,11 @@ export class SqliteRepository implements Repository {
   }
 
   async readDelays(stationId: string, range: TimeRange, source?: string): Promise<DelayRow[]> {
-    const rows = (
-      source === undefined
-        ? this.stmt.readDelays.all(stationId, range.fromMs, range.toMs)
-        : this.stmt.readDelaysSource.all(stationId, range.fromMs, range.toMs, source)
-    ) as unknown[][];
-    return rows.map(delayFromArray);
+    return this.readRange('delay_records', DELAY_SELECT, stationId, range, source).map(delayFromArray);
   }
 
   async readZenithDelays(stationId: string, range: TimeRange, source?: string): Promise<ZenithDelayRow[]> {
-    const rows = (
-      source === undefined
-        ? this.stmt.readZenithDelays.all(stationId, range.fromMs, range.toMs)
-        : this.stmt.readZenithDelaysSource.all(stationId, range.fromMs, range.toMs, source)
-    ) as unknown[][];
-    return rows.map(zenithDelayFromArray);
+    return this.readRange('delay_records', ZENITH_DELAY_SELECT, stationId, range, source).map(zenithDelayFromArray);
   }
 
   async readModelSets(fingerprints: readonly string[]): Promise<StoredModelSet[]> {
@@ -247,6 +204,17 @@ export class SqliteRepository implements Repository {
   /** One synchronous connection, never waited for (better-sqlite3 runs each statement to completion). */
   connectionStats(): ConnectionStats {
     return { total: 1, idle: 1, waiting: 0 };
+  }
+
+  private readonly rangeStatements = new Map<string, Database.Statement>();
+
+  /** Raw rows of a one-station time-range read; statements prepared once per shape. */
+  private readRange(table: 'met_records' | 'delay_records', columns: string, stationId: string, range: TimeRange, source?: string): unknown[][] {
+    const sql = rangeReadSql(table, columns, source !== undefined, 'sqlite');
+    let statement = this.rangeStatements.get(sql);
+    if (!statement) this.rangeStatements.set(sql, (statement = this.db.prepare(sql).raw(true)));
+    const values = source === undefined ? [stationId, range.fromMs, range.toMs] : [stationId, range.fromMs, range.toMs, source];
+    return statement.all(...values) as unknown[][];
   }
 
   async ping(): Promise<void> {
