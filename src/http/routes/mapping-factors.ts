@@ -1,15 +1,12 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { DEG } from '../../domain/constants.js';
 import { GRADIENT_MODELS } from '../../domain/gradients/gradient-mapping.js';
-import { MAPPING_MODELS } from '../../domain/mapping/registry.js';
 import { provenance } from '../../domain/provenance.js';
 import { problemSchema } from '../schemas/common.js';
 import { checkCoefficients, mappingFactorsRequest, mappingFactorsResponse } from '../schemas/mapping-factors.js';
 import { lowElevationWarning, mappingProvenance, prepareMapping, toSite } from './shared.js';
 
 export const BATCH_BODY_LIMIT_BYTES = 32 * 1024 * 1024;
-
-const requiresCoefficients = (m: string) => MAPPING_MODELS[m as keyof typeof MAPPING_MODELS]?.requiresCoefficients ?? false;
 
 const mappingFactorsRoute: FastifyPluginAsyncZod = async (app) => {
   app.post(
@@ -20,7 +17,7 @@ const mappingFactorsRoute: FastifyPluginAsyncZod = async (app) => {
         summary: 'Hydrostatic, wet and gradient mapping factors at given elevations',
         description: `Mapping functions in the normalised continued-fraction form (Marini 1972): niell (Niell 1996, default), vmf1 (Boehm et al. 2006 with caller a coefficients), chao (Chao 1972), cosecant. Gradient mapping: chen-herring (default) or tilting. Body limit: ${BATCH_BODY_LIMIT_BYTES} bytes (32 MiB).`,
         tags: ['a-priori delays'],
-        body: mappingFactorsRequest.superRefine((v, ctx) => checkCoefficients(v, ctx, requiresCoefficients)),
+        body: mappingFactorsRequest.superRefine((v, ctx) => checkCoefficients(v, ctx)),
         response: { 200: mappingFactorsResponse, 400: problemSchema, 413: problemSchema },
       },
     },

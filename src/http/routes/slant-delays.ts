@@ -3,7 +3,6 @@ import { DEG } from '../../domain/constants.js';
 import { ModelDomainError } from '../../domain/errors.js';
 import { geodeticToEcef, lookAngles } from '../../domain/geometry/topocentric.js';
 import { GRADIENT_MODELS } from '../../domain/gradients/gradient-mapping.js';
-import { MAPPING_MODELS } from '../../domain/mapping/registry.js';
 import { provenance } from '../../domain/provenance.js';
 import { allocateSlantBatch, computeSlantDelays } from '../../domain/slant.js';
 import { aprioriZenithDelays } from '../../domain/zenith/apriori.js';
@@ -12,8 +11,6 @@ import { checkCoefficients } from '../schemas/mapping-factors.js';
 import { slantDelaysRequest, slantDelaysResponse } from '../schemas/slant-delays.js';
 import { BATCH_BODY_LIMIT_BYTES } from './mapping-factors.js';
 import { lowElevationWarning, mappingProvenance, prepareMapping, toMetInput, toSite, zenithProvenance } from './shared.js';
-
-const requiresCoefficients = (m: string) => MAPPING_MODELS[m as keyof typeof MAPPING_MODELS]?.requiresCoefficients ?? false;
 
 const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
   app.post(
@@ -24,7 +21,7 @@ const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
         summary: 'Slant delays along directions or towards satellites',
         description: `slant = m_h ZHD + m_w ZWD + m_g (G_N cos a + G_E sin a). Zenith values not supplied come from met or the standard atmosphere; gradients default to 0. Directions may be given as elevation/azimuth or as satellite ECEF positions (WGS84). Up to 100 000 directions. Body limit: ${BATCH_BODY_LIMIT_BYTES} bytes (32 MiB).`,
         tags: ['a-priori delays'],
-        body: slantDelaysRequest.superRefine((v, ctx) => checkCoefficients(v, ctx, requiresCoefficients)),
+        body: slantDelaysRequest.superRefine((v, ctx) => checkCoefficients(v, ctx)),
         response: { 200: slantDelaysResponse, 400: problemSchema, 413: problemSchema },
       },
     },

@@ -34,6 +34,12 @@ export function positive(unit: string, description: string, max = Number.MAX_VAL
     .describe(`${description} [${unit}], > 0${max === Number.MAX_VALUE ? '' : `, at most ${max}`}`);
 }
 
+/** An array of 1..max items, with one message naming the allowed count, e.g. "must hold 1..100000 records". */
+export function sizedArray<T extends z.ZodArray<z.ZodType>>(array: T, max: number, noun: string): T {
+  const message = `must hold 1..${max} ${noun}`;
+  return array.min(1, { error: message }).max(max, { error: message }) as T;
+}
+
 /** Site ranges (issue 2): |latitude| ≤ 90, longitude −180..360, height −500..9000 m. */
 export const SITE_RANGES = {
   latitude: [-90, 90],

@@ -4,7 +4,7 @@
  */
 
 import { z } from 'zod';
-import { epochSchema, gradientM, modelsSchema, positive, ztdM, zwdM } from './common.js';
+import { epochSchema, gradientM, modelsSchema, positive, ztdM, zwdM, sizedArray } from './common.js';
 import { MAX_BATCH } from './mapping-factors.js';
 import { ingestResponseFields } from './met.js';
 import { seriesQueryFields, seriesRangeResponseFields, sourceSchema } from './stations.js';
@@ -35,20 +35,16 @@ export const depositModelsSchema = modelsSchema
   );
 
 export const delayDepositJsonBody = z.object({
-  records: z
-    .array(delayRecordSchema)
-    .min(1, { error: `must hold 1..${MAX_BATCH} records` })
-    .max(MAX_BATCH, { error: `must hold 1..${MAX_BATCH} records` })
+  records: sizedArray(z
+    .array(delayRecordSchema), MAX_BATCH, 'records')
     .describe(`1..${MAX_BATCH} delay records; each is checked on its own: bad ones are reported in \`rejected\`, the good ones stored`),
   source: sourceSchema.describe('Producer of the series (required): part of the key and of the fingerprint'),
   models: depositModelsSchema.optional(),
 });
 
 export const delayDepositEnvelope = z.object({
-  records: z
-    .array(z.unknown())
-    .min(1, { error: `must hold 1..${MAX_BATCH} records` })
-    .max(MAX_BATCH, { error: `must hold 1..${MAX_BATCH} records` }),
+  records: sizedArray(z
+    .array(z.unknown()), MAX_BATCH, 'records'),
   source: sourceSchema,
   models: depositModelsSchema.optional(),
 });

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { MAPPING_MODELS, type MappingModelKey } from '../../domain/mapping/registry.js';
 import {
   elevationDeg,
   epochSchema,
@@ -7,20 +8,18 @@ import {
   provenanceFields,
   siteSchema,
   vmf1CoefficientsSchema,
+  sizedArray,
 } from './common.js';
 
 export const MAX_BATCH = 100_000;
 
-/** coefficients are needed by, and only by, models that require them. */
-export function checkCoefficients(
-  value: { model: string; coefficients?: unknown },
-  ctx: z.RefinementCtx,
-  requiresCoefficients: (model: string) => boolean,
-): void {
-  if (requiresCoefficients(value.model) && value.coefficients === undefined) {
+/** coefficients are needed by, and only by, the models of the registry that require them. */
+export function checkCoefficients(value: { model: MappingModelKey; coefficients?: unknown }, ctx: z.RefinementCtx): void {
+  const required = MAPPING_MODELS[value.model].requiresCoefficients;
+  if (required && value.coefficients === undefined) {
     ctx.addIssue({ code: 'custom', path: ['coefficients'], message: `model "${value.model}" needs coefficients {ah, aw}` });
   }
-  if (!requiresCoefficients(value.model) && value.coefficients !== undefined) {
+  if (!required && value.coefficients !== undefined) {
     ctx.addIssue({ code: 'custom', path: ['coefficients'], message: `model "${value.model}" takes no coefficients; they are for vmf1` });
   }
 }
@@ -28,10 +27,11 @@ export function checkCoefficients(
 export const mappingFactorsRequest = z.object({
   site: siteSchema,
   epoch: epochSchema,
-  elevations_deg: z
-    .array(elevationDeg(), { error: 'must be an array of elevations in (0, 90] deg' })
-    .min(1, { error: `must hold 1..${MAX_BATCH} elevations` })
-    .max(MAX_BATCH, { error: `must hold 1..${MAX_BATCH} elevations` })
+  elevations_deg: sizedArray(
+    z.array(elevationDeg(), { error: 'must be an array of elevations in (0, 90] deg' }),
+    MAX_BATCH,
+    'elevations',
+  )
     .describe(`Vacuum elevations [deg], (0, 90], 1..${MAX_BATCH} of them`),
   model: mappingModelSchema.default('niell'),
   coefficients: vmf1CoefficientsSchema.optional(),

@@ -3,7 +3,7 @@
  */
 
 import { z } from 'zod';
-import { dewpointC, epochSchema, pressureHpa, relativeHumidityPct, temperatureC, vapourPressureHpa } from './common.js';
+import { dewpointC, epochSchema, pressureHpa, relativeHumidityPct, temperatureC, vapourPressureHpa, sizedArray } from './common.js';
 import { MAX_BATCH } from './mapping-factors.js';
 import { seriesQueryFields, seriesRangeResponseFields, sourceSchema } from './stations.js';
 
@@ -34,20 +34,16 @@ export const metRecordSchema = z
   });
 
 export const metIngestJsonBody = z.object({
-  records: z
-    .array(metRecordSchema)
-    .min(1, { error: `must hold 1..${MAX_BATCH} records` })
-    .max(MAX_BATCH, { error: `must hold 1..${MAX_BATCH} records` })
+  records: sizedArray(z
+    .array(metRecordSchema), MAX_BATCH, 'records')
     .describe(`1..${MAX_BATCH} met records; each is checked on its own: bad ones are reported in \`rejected\`, the good ones stored`),
   source: sourceSchema.optional().describe(`Producer of the records (default "${DEFAULT_MET_SOURCE}")`),
 });
 
 /** The envelope actually enforced before per-record checks (records are checked one by one). */
 export const metIngestEnvelope = z.object({
-  records: z
-    .array(z.unknown())
-    .min(1, { error: `must hold 1..${MAX_BATCH} records` })
-    .max(MAX_BATCH, { error: `must hold 1..${MAX_BATCH} records` }),
+  records: sizedArray(z
+    .array(z.unknown()), MAX_BATCH, 'records'),
   source: sourceSchema.optional(),
 });
 

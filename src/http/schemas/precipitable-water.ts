@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { bounded, epochSchema, positive, pressureHpa, provenanceFields, siteSchema, temperatureC, ztdM, zwdM } from './common.js';
+import { bounded, epochSchema, positive, pressureHpa, provenanceFields, siteSchema, temperatureC, ztdM, zwdM, sizedArray } from './common.js';
 import { MAX_BATCH } from './mapping-factors.js';
 
 export const pwvRecordRequest = z.object({
@@ -17,10 +17,8 @@ export const pwvRecordRequest = z.object({
 
 export const precipitableWaterRequest = z.object({
   site: siteSchema,
-  records: z
-    .array(pwvRecordRequest)
-    .min(1, { error: `must hold 1..${MAX_BATCH} records` })
-    .max(MAX_BATCH, { error: `must hold 1..${MAX_BATCH} records` }),
+  records: sizedArray(z
+    .array(pwvRecordRequest), MAX_BATCH, 'records'),
 });
 
 export const pwvRecordResponse = z.object({

@@ -11,6 +11,7 @@ import {
   siteSchema,
   vapourPressureHpa,
   vmf1CoefficientsSchema,
+  sizedArray,
 } from './common.js';
 
 /** Each elevation is a launch-angle iteration of a few traces through every shell; 100 bound a request to ~0.1 s of CPU even with 10 000 levels. */
@@ -54,10 +55,11 @@ export const profileDelaysRequest = z.object({
     .boolean({ error: 'must be true or false' })
     .default(false)
     .describe('Include the inverse compressibility factors of Owens (1967) in the refractivity; default false (ideal gas)'),
-  elevations_deg: z
-    .array(elevationDeg(), { error: `must be an array of 1..${MAX_PROFILE_ELEVATIONS} elevations in (0, 90] deg` })
-    .min(1, { error: `must hold 1..${MAX_PROFILE_ELEVATIONS} elevations` })
-    .max(MAX_PROFILE_ELEVATIONS, { error: `must hold 1..${MAX_PROFILE_ELEVATIONS} elevations` })
+  elevations_deg: sizedArray(
+    z.array(elevationDeg(), { error: `must be an array of 1..${MAX_PROFILE_ELEVATIONS} elevations in (0, 90] deg` }),
+    MAX_PROFILE_ELEVATIONS,
+    'elevations',
+  )
     .optional()
     .describe(`Vacuum (geometric) elevations to trace rays at [deg], (0, 90], 1..${MAX_PROFILE_ELEVATIONS}; absent = no slants`),
   mapping_model: mappingModelSchema.default('niell').describe('Mapping function set beside the traced factors; default niell'),

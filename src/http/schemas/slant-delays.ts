@@ -14,6 +14,7 @@ import {
   wetModelSchema,
   zhdM,
   zwdM,
+  sizedArray,
 } from './common.js';
 import { MAX_BATCH } from './mapping-factors.js';
 import { metUsedSchema } from './zenith-delays.js';
@@ -38,16 +39,12 @@ export const slantDelaysRequest = z
       })
       .optional()
       .describe('Zenith values to map; what is missing comes from met or the standard atmosphere (gradients: 0)'),
-    directions: z
-      .array(z.object({ elevation_deg: elevationDeg(), azimuth_deg: azimuthDeg() }))
-      .min(1, { error: `must hold 1..${MAX_BATCH} directions` })
-      .max(MAX_BATCH, { error: `must hold 1..${MAX_BATCH} directions` })
+    directions: sizedArray(z
+      .array(z.object({ elevation_deg: elevationDeg(), azimuth_deg: azimuthDeg() })), MAX_BATCH, 'directions')
       .optional()
       .describe(`Directions, 1..${MAX_BATCH}; give either directions or satellites`),
-    satellites: z
-      .array(z.object({ id: z.string().min(1).max(32), x_m: ecef('X'), y_m: ecef('Y'), z_m: ecef('Z') }))
-      .min(1, { error: `must hold 1..${MAX_BATCH} satellites` })
-      .max(MAX_BATCH, { error: `must hold 1..${MAX_BATCH} satellites` })
+    satellites: sizedArray(z
+      .array(z.object({ id: z.string().min(1).max(32), x_m: ecef('X'), y_m: ecef('Y'), z_m: ecef('Z') })), MAX_BATCH, 'satellites')
       .optional()
       .describe('Satellite positions, ECEF WGS84 [m]; elevation and azimuth are computed from the site'),
   })

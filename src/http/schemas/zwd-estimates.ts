@@ -20,6 +20,7 @@ import {
   temperatureC,
   zhdM,
   zwdM,
+  sizedArray,
 } from './common.js';
 
 /** Body limit of the route [bytes]: 64 MiB, room for 7 days of 30 s data (~160 000 observations, ~21 MB of JSON). */
@@ -147,10 +148,8 @@ export const zwdOptionsSchema = z
   .describe('Estimation options; every one has a default');
 
 export const zwdEstimationBody = z.strictObject({
-  observations: z
-    .array(zwdObservationSchema, { error: 'must be an array of observations' })
-    .min(1, { error: `must hold 1..${MAX_OBSERVATIONS} observations` })
-    .max(MAX_OBSERVATIONS, { error: `must hold 1..${MAX_OBSERVATIONS} observations` })
+  observations: sizedArray(z
+    .array(zwdObservationSchema, { error: 'must be an array of observations' }), MAX_OBSERVATIONS, 'observations')
     .describe('Residuals of one station, in any order; grouped by epoch'),
   apriori: zwdAprioriSchema.optional(),
   met: z
