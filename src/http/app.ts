@@ -9,6 +9,8 @@ import { validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-z
 import { DEFAULT_MAX_READ_RANGE_DAYS, defaultConfig, type Config } from '../config.js';
 import type { StorageConfig } from '../storage/factory.js';
 import type { Repository } from '../storage/repository.js';
+import { MAX_QUERY_VALUE_CHARS } from '../limits.js';
+import { HttpProblem } from './problem.js';
 import auth from './plugins/auth.js';
 import computePool from './plugins/compute-pool.js';
 import edge from './plugins/edge.js';
@@ -71,6 +73,20 @@ const IN_MEMORY_ARCHIVE: ArchiveOptions = {
   maxReadRangeDays: DEFAULT_MAX_READ_RANGE_DAYS,
 };
 
+/** A 400 naming the first query parameter whose value is longer than MAX_QUERY_VALUE_CHARS, else undefined. */
+function overlongQueryValue(query: unknown): HttpProblem | undefined {
+  if (!query || typeof query !== 'object') return undefined;
+  for (const [name, value] of Object.entries(query)) {
+    for (const v of Array.isArray(value) ? value : [value]) {
+      if (typeof v === 'string' && v.length > MAX_QUERY_VALUE_CHARS) {
+        const message = `a value of ${v.length} characters; at most ${MAX_QUERY_VALUE_CHARS}`;
+        return new HttpProblem(400, `query.${name}: ${message}`, [{ field: `query.${name}`, message }]);
+      }
+    }
+  }
+  return undefined;
+}
+
 export async function buildApp(options: AppOptions = {}): Promise<FastifyInstance> {
   const config = defaultConfig(options.config);
   const app = Fastify({
@@ -96,6 +112,8 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     reply.header('x-request-id', request.id);
     done();
   });
+  // Every query value is length-capped before any schema or pattern looks at it (issue 11 item 3).
+  app.addHook('preValidation', (request, _reply, done) => done(overlongQueryValue(request.query)));
 
   await app.register(errorHandler);
   await app.register(requestLog);

@@ -2,19 +2,48 @@
  * A pool of worker threads (piscina) for the heavy computations, so that health checks, metrics and
  * light requests never wait behind an estimation. The queue in front of the workers is bounded;
  * when it is full a request is refused with 503 and a Retry-After header instead of piling up.
+ *
+ * The pool knows no task itself: the layer that owns a task registers it by module and export name
+ * (src/http/compute-tasks.ts for the request tasks), and the worker thread imports that module
+ * (compute-worker.ts). So nothing here imports the layers above.
  */
 
 import { Piscina } from 'piscina';
-import type { TaskOutcome } from '../services/zwd-request.js';
-import type { ComputeResponse, ComputeTaskInput, ComputeTaskName, ComputeTaskOutput } from './tasks.js';
+import type { TaskError, TaskOutcome } from './task-outcome.js';
 
-export interface ComputePoolOptions {
+/** A task: plain, structured-cloneable data in, a TaskOutcome out. */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export type ComputeTask = (input: any) => Promise<TaskOutcome<unknown>>;
+
+/** Where a task lives: the module's URL and the name of its exported function. */
+export interface TaskLocation {
+  module: string;
+  exportName: string;
+}
+
+export type TaskInput<F extends ComputeTask> = Parameters<F>[0];
+export type TaskOutput<F extends ComputeTask> = Extract<Awaited<ReturnType<F>>, { ok: true }>['output'];
+
+export interface ComputePoolOptions<Tasks extends Record<string, ComputeTask>> {
   /** Worker threads (default: the machine's cores). */
   threads: number;
   /** Tasks that may wait for a worker before new ones are refused. */
   queueLimit: number;
-  /** Called after each task with its name, size and run time [s]. */
-  onTaskDone?: (task: ComputeTaskName, durationS: number) => void;
+  /** The tasks by name. */
+  tasks: { [K in keyof Tasks]: TaskLocation };
+  /** Called after each task with its name and run time [s]. */
+  onTaskDone?: (task: keyof Tasks & string, durationS: number) => void;
+}
+
+/** What the worker thread gets and answers (compute-worker.ts). */
+export interface ComputeRequest extends TaskLocation {
+  input: unknown;
+}
+
+export interface ComputeResponse {
+  outcome: unknown;
+  /** Run time inside the worker [ms]. */
+  durationMs: number;
 }
 
 export class ComputePoolFullError extends Error {
@@ -25,7 +54,7 @@ export class ComputePoolFullError extends Error {
 
 /** A task's error outcome (a 4xx of the caller's making), rethrown on the calling side. */
 export class ComputeTaskError extends Error {
-  constructor(readonly error: Extract<TaskOutcome<unknown>, { ok: false }>['error']) {
+  constructor(readonly error: TaskError) {
     super(error.detail);
   }
 }
@@ -39,10 +68,10 @@ function workerLocation(): { filename: string; execArgv: string[] } {
   };
 }
 
-export class ComputePool {
+export class ComputePool<Tasks extends Record<string, ComputeTask>> {
   private pool: Piscina | undefined;
 
-  constructor(private readonly options: ComputePoolOptions) {}
+  constructor(private readonly options: ComputePoolOptions<Tasks>) {}
 
   /** Tasks waiting for a worker. */
   get queued(): number {
@@ -55,7 +84,7 @@ export class ComputePool {
    * @throws ComputePoolFullError when the queue is full
    * @throws ComputeTaskError when the task answers with an error outcome
    */
-  async run<T extends ComputeTaskName>(task: T, input: ComputeTaskInput<T>): Promise<ComputeTaskOutput<T>> {
+  async run<K extends keyof Tasks & string>(task: K, input: TaskInput<Tasks[K]>): Promise<TaskOutput<Tasks[K]>> {
     const pool = (this.pool ??= new Piscina({
       ...workerLocation(),
       minThreads: this.options.threads, // all started at once: no thread is spawned in the middle of a load
@@ -63,15 +92,16 @@ export class ComputePool {
       maxQueue: this.options.queueLimit,
       idleTimeout: 60_000,
     }));
+    const location = this.options.tasks[task];
     let response: ComputeResponse;
     try {
-      response = (await pool.run({ task, input })) as ComputeResponse;
+      response = (await pool.run({ ...location, input } satisfies ComputeRequest)) as ComputeResponse;
     } catch (err) {
       if (err instanceof Error && /queue is at limit/i.test(err.message)) throw new ComputePoolFullError(this.retryAfterS());
       throw err;
     }
     this.options.onTaskDone?.(task, response.durationMs / 1000);
-    const outcome = response.outcome as TaskOutcome<ComputeTaskOutput<T>>;
+    const outcome = response.outcome as TaskOutcome<TaskOutput<Tasks[K]>>;
     if (!outcome.ok) throw new ComputeTaskError(outcome.error);
     return outcome.output;
   }

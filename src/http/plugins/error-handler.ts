@@ -8,6 +8,8 @@ import type { FastifyError, FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
 import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
 import { ModelDomainError } from '../../domain/errors.js';
+import { FormatError } from '../../formats/format-error.js';
+import { CallerError } from '../../services/caller-error.js';
 import { detailOf, fieldName } from '../field-errors.js';
 import { UnknownStationError } from '../../storage/repository.js';
 import { HttpProblem, makeProblem, sendProblem, type FieldError } from '../problem.js';
@@ -32,6 +34,13 @@ async function errorHandler(app: FastifyInstance): Promise<void> {
         reply,
         makeProblem(error.status, `${error.field}: ${error.message}`, [{ field: error.field, message: error.message }], request.url),
       );
+    }
+    // Errors of the inner layers in domain terms (src/services, src/formats).
+    if (error instanceof CallerError) {
+      return sendProblem(reply, makeProblem(error.status, error.message, error.errors, request.url));
+    }
+    if (error instanceof FormatError) {
+      return sendProblem(reply, makeProblem(400, error.message, [{ field: error.field, message: error.reason }], request.url));
     }
     if (error instanceof UnknownStationError) {
       return sendProblem(

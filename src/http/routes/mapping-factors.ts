@@ -2,11 +2,10 @@ import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { DEG } from '../../domain/constants.js';
 import { GRADIENT_MODELS } from '../../domain/gradients/gradient-mapping.js';
 import { provenance } from '../../domain/provenance.js';
+import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
 import { problemSchema } from '../schemas/common.js';
 import { checkCoefficients, mappingFactorsRequest, mappingFactorsResponse } from '../schemas/mapping-factors.js';
 import { lowElevationWarning, mappingProvenance, prepareMapping, toSite } from './shared.js';
-
-export const BATCH_BODY_LIMIT_BYTES = 32 * 1024 * 1024;
 
 const mappingFactorsRoute: FastifyPluginAsyncZod = async (app) => {
   app.post(

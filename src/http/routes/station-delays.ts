@@ -5,7 +5,7 @@ import { summariseModelSets } from '../../services/homogeneity.js';
 import { problemSchema } from '../schemas/common.js';
 import { DELAY_CSV_COLUMNS, delayDepositEnvelope, delayDepositJsonBody, delayDepositResponse, delayReadQuery, delayReadResponse, delayRecordSchema } from '../schemas/delays.js';
 import { stationParams } from '../schemas/stations.js';
-import { BATCH_BODY_LIMIT_BYTES } from './mapping-factors.js';
+import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
 import { envelopeValidator, isoEpoch, recordLine, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
 import { dropDuplicateEpochs, issueText, listRejected, nothingUsable, type Rejected } from './series-ingest.js';
