@@ -16,7 +16,7 @@
  * - Noise: N(0, σ_i²), σ_i = σ0 / sin e (the estimator's "elevation" weighting).
  * - Gross errors: a chosen number of observations get ±(12..20) σ_i added, at most one per epoch.
  * - Mapping: Niell (1996) wet, Marini continued fraction, coefficients of Niell (1996) Table 3
- *   (published-constants.md, confirmed); gradients Chen & Herring (1997) m_g = 1/(sin e tan e + 0.0032).
+ *   (docs/constants.md, confirmed); gradients Chen & Herring (1997) m_g = 1/(sin e tan e + 0.0032).
  *
  * CLI: `npx tsx scripts/synthetic-residuals.ts [--hours 6] [--sampling 30] [--seed 1] [--csv]`
  * prints a request body for POST /v1/zwd-estimates (JSON), or the observation table (CSV).
@@ -60,7 +60,7 @@ export function gaussian(uniform: () => number): () => number {
   };
 }
 
-/** Niell (1996) Table 3 wet coefficients at 15°, 30°, 45°, 60°, 75° (published-constants.md, confirmed). */
+/** Niell (1996) Table 3 wet coefficients at 15°, 30°, 45°, 60°, 75° (docs/constants.md, confirmed). */
 const NIELL_WET_TABLE = {
   a: [5.8021897e-4, 5.6794847e-4, 5.8118019e-4, 5.9727542e-4, 6.1641693e-4],
   b: [1.4275268e-3, 1.5138625e-3, 1.4572752e-3, 1.5007428e-3, 1.7599082e-3],

@@ -5,7 +5,7 @@
  *
  * U.S. Standard Atmosphere, 1976 (NOAA/NASA/USAF, Washington D.C.), Part 1 (values from memory,
  * checked in test/domain/profile/us-standard-atmosphere-1976.test.ts against the check values of
- * published-constants.md):
+ * docs/constants.md):
  * - geopotential altitude H [m'] from geometric altitude Z [m]: H = r0 Z / (r0 + Z), r0 = 6 356 766 m
  *   (eq. 18 there);
  * - seven layers in geopotential altitude with linear molecular-scale temperature T_M = T_b + L_b (H − H_b)
