@@ -67,9 +67,12 @@ export const PLACEHOLDER = '…';
 /** The port the documentation shows. */
 export const SHOWN_PORT = 8080;
 
-/** Splits a marker's volatile list: words are JSON keys, `/…/` items regular expressions. */
+/**
+ * Splits a marker's volatile list at white space: words are JSON keys, `/…/` items regular expressions
+ * (which may contain spaces; write a `/` inside one as `\/`).
+ */
 export function parseVolatile(list: string | undefined): string[] {
-  return (list ?? '').split(/\s+/).filter((item) => item !== '');
+  return (list ?? '').match(/\/(?:[^/\\]|\\.)+\/|\S+/g) ?? [];
 }
 
 /** The marked examples of one markdown file, in order. Throws for a marker that is not followed by a fence. */
@@ -366,5 +369,8 @@ async function main(): Promise<void> {
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
-  await main();
+  main().catch((err: unknown) => {
+    process.stderr.write(`check-examples: ${err instanceof Error ? err.stack ?? err.message : String(err)}\n`);
+    process.exit(1);
+  });
 }
