@@ -24,6 +24,7 @@ import healthRoute from './routes/health.js';
 import mappingFactorsRoute from './routes/mapping-factors.js';
 import precipitableWaterRoute from './routes/precipitable-water.js';
 import profileDelaysRoute from './routes/profile-delays.js';
+import rootRoute from './routes/root.js';
 import slantDelaysRoute from './routes/slant-delays.js';
 import stationDelaysRoute from './routes/station-delays.js';
 import stationMetRoute from './routes/station-met.js';
@@ -129,6 +130,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     readKeysRequired: archive.readKeysRequired,
     ...(archive.keyDir ? { keyDir: archive.keyDir } : {}),
   });
+  await app.register(rootRoute);
   await app.register(healthRoute);
   await app.register(zenithDelaysRoute);
   await app.register(mappingFactorsRoute);
