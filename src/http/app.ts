@@ -11,7 +11,7 @@ import type { StorageConfig } from '../storage/factory.js';
 import type { Repository } from '../storage/repository.js';
 import auth from './plugins/auth.js';
 import computePool from './plugins/compute-pool.js';
-import edge from './plugins/edge.js';
+import edge, { trustProxyOption } from './plugins/edge.js';
 import errorHandler from './plugins/error-handler.js';
 import metrics from './plugins/metrics.js';
 import openapi from './plugins/openapi.js';
@@ -56,7 +56,14 @@ export interface AppOptions {
 /** Archive options from the validated environment (server.ts, the demo). */
 export function archiveOptionsFromConfig(config: Config): ArchiveOptions {
   return {
-    storage: { dataDir: config.TROPO_DATA_DIR, databaseUrl: config.DATABASE_URL, pgSchema: config.TROPO_PG_SCHEMA },
+    storage: {
+      dataDir: config.TROPO_DATA_DIR,
+      databaseUrl: config.DATABASE_URL,
+      pgSchema: config.TROPO_PG_SCHEMA,
+      connectTimeoutMs: config.DB_CONNECT_TIMEOUT_MS,
+      statementTimeoutMs: config.DB_STATEMENT_TIMEOUT_MS,
+      minFreeDiskBytes: config.TROPO_MIN_FREE_DISK_MB * 1024 * 1024,
+    },
     apiKeys: config.TROPO_API_KEYS,
     keyDir: config.TROPO_DATA_DIR,
     readKeysRequired: config.TROPO_READ_KEYS_REQUIRED,
@@ -79,7 +86,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     logController: new LogController({ disableRequestLogging: true }),
     bodyLimit: 1024 * 1024,
     requestTimeout: config.REQUEST_TIMEOUT_MS,
-    trustProxy: config.TRUST_PROXY,
+    trustProxy: trustProxyOption(config.TRUST_PROXY),
     requestIdHeader: 'x-request-id',
     genReqId: () => randomUUID(),
   }).withTypeProvider<ZodTypeProvider>();
@@ -103,7 +110,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(edge, { config });
   await app.register(computePool, { config });
   await app.register(openapi);
-  await app.register(readiness);
+  await app.register(readiness, { timeoutMs: config.READY_CHECK_TIMEOUT_MS });
   const archive = options.archive ?? IN_MEMORY_ARCHIVE;
   await app.register(storage, { storage: archive.storage, ...(archive.repository ? { repository: archive.repository } : {}) });
   await app.register(auth, {

@@ -14,13 +14,33 @@ export interface StorageConfig {
   databaseUrl?: string | undefined;
   /** PostgreSQL schema (default public). */
   pgSchema?: string | undefined;
+  /** PostgreSQL: longest wait for a connection [ms] (DB_CONNECT_TIMEOUT_MS). */
+  connectTimeoutMs?: number | undefined;
+  /** PostgreSQL statement timeout [ms]; SQLite's busy wait uses it too (DB_STATEMENT_TIMEOUT_MS). */
+  statementTimeoutMs?: number | undefined;
+  /** Free space of dataDir below which readiness fails [bytes] (TROPO_MIN_FREE_DISK_MB); 0 or unset = no floor. */
+  minFreeDiskBytes?: number | undefined;
 }
 
-export async function createRepository(config: StorageConfig): Promise<Repository> {
+export interface RepositoryHooks {
+  /** Told about a connection error outside a query (already handled; for the log). */
+  onConnectionError?: (err: Error) => void;
+}
+
+export async function createRepository(config: StorageConfig, hooks: RepositoryHooks = {}): Promise<Repository> {
   if (config.databaseUrl) {
-    return PostgresRepository.open({ connectionString: config.databaseUrl, schema: config.pgSchema ?? 'public' });
+    return PostgresRepository.open({
+      connectionString: config.databaseUrl,
+      schema: config.pgSchema ?? 'public',
+      ...(config.connectTimeoutMs !== undefined ? { connectTimeoutMs: config.connectTimeoutMs } : {}),
+      ...(config.statementTimeoutMs !== undefined ? { statementTimeoutMs: config.statementTimeoutMs } : {}),
+      ...(hooks.onConnectionError ? { onConnectionError: hooks.onConnectionError } : {}),
+    });
   }
-  return new SqliteRepository({ dataDir: config.dataDir });
+  return new SqliteRepository({
+    dataDir: config.dataDir,
+    ...(config.statementTimeoutMs !== undefined ? { busyTimeoutMs: config.statementTimeoutMs } : {}),
+  });
 }
 
 /** Where the data of a configuration lives, for the start-up log line (never the password). */

@@ -1,7 +1,9 @@
 /**
  * One place maps every error to a problem response: schema violations and model-domain errors to
  * 4xx naming the field, fastify's own 4xx (bad JSON, wrong content type, body too large) to the
- * same shape, anything else to a 500 with a generic text and the context in the log.
+ * same shape, a storage failure (database unreachable or too slow, disk full or read-only, a lock
+ * conflict that outlived its retries) to a 503 with Retry-After and a text without driver detail,
+ * anything else to a 500 with a generic text and the context in the log.
  */
 
 import type { FastifyError, FastifyInstance } from 'fastify';
@@ -10,6 +12,7 @@ import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
 import { ModelDomainError } from '../../domain/errors.js';
 import { detailOf, fieldName } from '../field-errors.js';
 import { UnknownStationError } from '../../storage/repository.js';
+import { storageUnavailable } from '../../storage/errors.js';
 import { HttpProblem, makeProblem, sendProblem, type FieldError } from '../problem.js';
 
 function fieldFromPath(instancePath: string, context: string | undefined): string {
@@ -42,6 +45,16 @@ async function errorHandler(app: FastifyInstance): Promise<void> {
     if (error instanceof HttpProblem) {
       for (const [k, v] of Object.entries(error.headers ?? {})) reply.header(k, v);
       return sendProblem(reply, makeProblem(error.status, error.message, error.errors, request.url));
+    }
+    const unavailable = storageUnavailable(error);
+    if (unavailable) {
+      // The driver's text (host, file path, SQL) stays in the log, found by the request id.
+      request.log.error({ err: error, route: request.routeOptions.url, failure: unavailable.failure }, 'storage unavailable');
+      reply.header('retry-after', String(unavailable.retryAfterS));
+      return sendProblem(
+        reply,
+        makeProblem(503, `${unavailable.message}; retry after ${unavailable.retryAfterS} s (request id in the x-request-id header)`, undefined, request.url),
+      );
     }
     const status = error.statusCode ?? 500;
     if (status >= 400 && status < 500) {
