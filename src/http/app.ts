@@ -12,7 +12,8 @@ import type { Repository } from '../storage/repository.js';
 import auth from './plugins/auth.js';
 import computePool from './plugins/compute-pool.js';
 import edge, { trustProxyOption } from './plugins/edge.js';
-import errorHandler from './plugins/error-handler.js';
+import errorHandler, { routerErrorHandler } from './plugins/error-handler.js';
+import jsonBody from './plugins/json-body.js';
 import metrics from './plugins/metrics.js';
 import openapi from './plugins/openapi.js';
 import readiness from './plugins/readiness.js';
@@ -89,6 +90,8 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     trustProxy: trustProxyOption(config.TRUST_PROXY),
     requestIdHeader: 'x-request-id',
     genReqId: () => randomUUID(),
+    // Bad percent-encoding and over-long path segments get the problem shape too.
+    frameworkErrors: routerErrorHandler,
   }).withTypeProvider<ZodTypeProvider>();
 
   // Tables (CSV) and RINEX meteorological files arrive as text; routes that take them parse them.
@@ -105,6 +108,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   });
 
   await app.register(errorHandler);
+  await app.register(jsonBody);
   await app.register(requestLog);
   await app.register(metrics);
   await app.register(edge, { config });

@@ -6,7 +6,7 @@
  * anything else to a 500 with a generic text and the context in the log.
  */
 
-import type { FastifyError, FastifyInstance } from 'fastify';
+import type { FastifyError, FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import fp from 'fastify-plugin';
 import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
 import { ModelDomainError } from '../../domain/errors.js';
@@ -19,6 +19,23 @@ function fieldFromPath(instancePath: string, context: string | undefined): strin
   const path = instancePath.replace(/^\//, '').split('/').filter(Boolean);
   const location = context === undefined || context === 'body' ? 'body' : context === 'querystring' ? 'query' : (context as 'params' | 'headers');
   return fieldName(path, location);
+}
+
+/**
+ * Fastify's `frameworkErrors` option (app.ts): errors the router raises before any route or error
+ * handler runs (a path that is not valid percent-encoding, a path parameter longer than the router's
+ * maxParamLength), answered in the same problem shape as everything else.
+ */
+export function routerErrorHandler(error: FastifyError, request: FastifyRequest, reply: FastifyReply): void {
+  const path = request.url.split('?')[0] ?? '';
+  const detail =
+    error.code === 'FST_ERR_BAD_URL'
+      ? 'the request path is not valid percent-encoding (RFC 3986): encode reserved and non-ASCII characters as %XX of their UTF-8 bytes'
+      : error.code === 'FST_ERR_MAX_PARAM_LENGTH'
+        ? 'a path segment is longer than the router accepts (100 characters); no identifier of this service is that long'
+        : 'the request could not be routed';
+  const status = error.code === 'FST_ERR_MAX_PARAM_LENGTH' ? 414 : (error.statusCode ?? 400);
+  void sendProblem(reply, makeProblem(status >= 400 && status < 500 ? status : 400, detail, undefined, path.slice(0, 200)));
 }
 
 async function errorHandler(app: FastifyInstance): Promise<void> {
