@@ -75,12 +75,13 @@ function sqliteFailure(code: string): StorageFailure | null {
  * client-side query_timeout, a pool that waited connectionTimeoutMillis for a connection.
  */
 const PG_MESSAGES: [RegExp, StorageFailure][] = [
+  // first match wins: the timeout form before the general "Connection terminated"
+  [/^Connection terminated due to connection timeout/i, 'timeout'],
   [/^Connection terminated/i, 'unreachable'],
   [/^Client has encountered a connection error and is not queryable/i, 'unreachable'],
   [/^Client was closed and is not queryable/i, 'unreachable'],
   [/^Query read timeout/i, 'timeout'],
   [/^timeout exceeded when trying to connect/i, 'timeout'],
-  [/^Connection terminated due to connection timeout/i, 'timeout'],
 ];
 
 function errorCode(err: unknown): string {
