@@ -4,6 +4,7 @@
  */
 
 import type { FastifyInstance } from 'fastify';
+import { existsSync } from 'node:fs';
 import fp from 'fastify-plugin';
 import { checkDataDir } from '../../storage/disk-check.js';
 import { createRepository, describeStorage, type StorageConfig } from '../../storage/factory.js';
@@ -34,7 +35,8 @@ async function storage(app: FastifyInstance, options: StoragePluginOptions): Pro
   if (app.hasDecorator('addReadinessCheck')) {
     app.addReadinessCheck('database', () => repository.ping());
     const dir = options.storage.dataDir;
-    if (dir !== ':memory:') {
+    // With PostgreSQL the directory holds only the generated key file and may not exist at all.
+    if (dir !== ':memory:' && (repository.backend === 'sqlite' || existsSync(dir))) {
       app.addReadinessCheck('data_dir', () => checkDataDir({ dir, minFreeBytes: options.storage.minFreeDiskBytes ?? 0 }));
     }
   }
