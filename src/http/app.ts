@@ -13,8 +13,9 @@ import { MAX_QUERY_VALUE_CHARS } from '../limits.js';
 import { HttpProblem } from './problem.js';
 import auth from './plugins/auth.js';
 import computePool from './plugins/compute-pool.js';
-import edge from './plugins/edge.js';
-import errorHandler from './plugins/error-handler.js';
+import edge, { trustProxyOption } from './plugins/edge.js';
+import errorHandler, { routerErrorHandler } from './plugins/error-handler.js';
+import jsonBody from './plugins/json-body.js';
 import metrics from './plugins/metrics.js';
 import openapi from './plugins/openapi.js';
 import readiness from './plugins/readiness.js';
@@ -59,7 +60,14 @@ export interface AppOptions {
 /** Archive options from the validated environment (server.ts, the demo). */
 export function archiveOptionsFromConfig(config: Config): ArchiveOptions {
   return {
-    storage: { dataDir: config.TROPO_DATA_DIR, databaseUrl: config.DATABASE_URL, pgSchema: config.TROPO_PG_SCHEMA },
+    storage: {
+      dataDir: config.TROPO_DATA_DIR,
+      databaseUrl: config.DATABASE_URL,
+      pgSchema: config.TROPO_PG_SCHEMA,
+      connectTimeoutMs: config.DB_CONNECT_TIMEOUT_MS,
+      statementTimeoutMs: config.DB_STATEMENT_TIMEOUT_MS,
+      minFreeDiskBytes: config.TROPO_MIN_FREE_DISK_MB * 1024 * 1024,
+    },
     apiKeys: config.TROPO_API_KEYS,
     keyDir: config.TROPO_DATA_DIR,
     readKeysRequired: config.TROPO_READ_KEYS_REQUIRED,
@@ -96,9 +104,11 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     logController: new LogController({ disableRequestLogging: true }),
     bodyLimit: 1024 * 1024,
     requestTimeout: config.REQUEST_TIMEOUT_MS,
-    trustProxy: config.TRUST_PROXY,
+    trustProxy: trustProxyOption(config.TRUST_PROXY),
     requestIdHeader: 'x-request-id',
     genReqId: () => randomUUID(),
+    // Bad percent-encoding and over-long path segments get the problem shape too.
+    frameworkErrors: routerErrorHandler,
   }).withTypeProvider<ZodTypeProvider>();
 
   // Tables (CSV) and RINEX meteorological files arrive as text; routes that take them parse them.
@@ -117,12 +127,13 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   app.addHook('preValidation', (request, _reply, done) => done(overlongQueryValue(request.query)));
 
   await app.register(errorHandler);
+  await app.register(jsonBody);
   await app.register(requestLog);
   await app.register(metrics);
   await app.register(edge, { config });
   await app.register(computePool, { config });
   await app.register(openapi);
-  await app.register(readiness);
+  await app.register(readiness, { timeoutMs: config.READY_CHECK_TIMEOUT_MS });
   const archive = options.archive ?? IN_MEMORY_ARCHIVE;
   await app.register(storage, { storage: archive.storage, ...(archive.repository ? { repository: archive.repository } : {}) });
   await app.register(auth, {

@@ -68,8 +68,25 @@ function workerLocation(): { filename: string; execArgv: string[] } {
   };
 }
 
+/**
+ * Retry-After for a refused task [s]: the work ahead of it spread over the threads. Every task ahead
+ * (queued or running) takes about the mean run time; the threads work through them in parallel, so
+ * the queue has room again after about (queued + running) × mean / threads. At least 1 s (the
+ * header's unit), rounded up. With no task measured yet the mean is taken as 1 s.
+ */
+export function retryAfterEstimateS(load: { queued: number; running: number; threads: number; meanRunS: number | null }): number {
+  const meanS = load.meanRunS !== null && load.meanRunS > 0 ? load.meanRunS : 1;
+  return Math.max(1, Math.ceil(((load.queued + load.running) * meanS) / Math.max(1, load.threads)));
+}
+
+/** Weight of the newest run time in the moving mean: about the last 10 tasks count. */
+const MEAN_WEIGHT = 0.2;
+
 export class ComputePool<Tasks extends Record<string, ComputeTask>> {
   private pool: Piscina | undefined;
+  private running = 0;
+  /** Exponentially weighted mean run time of recent tasks [s]; null before the first. */
+  private meanRunS: number | null = null;
 
   constructor(private readonly options: ComputePoolOptions<Tasks>) {}
 
@@ -94,23 +111,36 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
     }));
     const location = this.options.tasks[task];
     let response: ComputeResponse;
+    this.running++;
     try {
       response = (await pool.run({ ...location, input } satisfies ComputeRequest)) as ComputeResponse;
     } catch (err) {
+      this.running--;
       if (err instanceof Error && /queue is at limit/i.test(err.message)) throw new ComputePoolFullError(this.retryAfterS());
       throw err;
     }
-    this.options.onTaskDone?.(task, response.durationMs / 1000);
+    this.running--;
+    const durationS = response.durationMs / 1000;
+    this.meanRunS = this.meanRunS === null ? durationS : this.meanRunS + MEAN_WEIGHT * (durationS - this.meanRunS);
+    this.options.onTaskDone?.(task, durationS);
     const outcome = response.outcome as TaskOutcome<TaskOutput<Tasks[K]>>;
     if (!outcome.ok) throw new ComputeTaskError(outcome.error);
     return outcome.output;
   }
 
-  /** A hint for Retry-After [s]: the mean run time times the tasks ahead, at least 1 s. */
+  /**
+   * A hint for Retry-After [s] from the real queue (retryAfterEstimateS). `running` counts the tasks
+   * handed to piscina and not yet answered, queued ones included, so the tasks on the threads are
+   * running − queued.
+   */
   private retryAfterS(): number {
-    const meanMs = this.pool?.histogram.runTime.mean ?? 0;
-    const meanS = meanMs > 0 ? meanMs / 1000 : 1;
-    return Math.max(1, Math.ceil((meanS * (this.queued + 1)) / this.options.threads));
+    const queued = this.queued;
+    return retryAfterEstimateS({
+      queued,
+      running: Math.max(0, Math.min(this.options.threads, this.running - queued)),
+      threads: this.options.threads,
+      meanRunS: this.meanRunS,
+    });
   }
 
   async close(): Promise<void> {
