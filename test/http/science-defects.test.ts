@@ -9,15 +9,16 @@ import { DEG, M, MM } from '../helpers/units.js';
 const epoch = '2026-06-21T06:30:00Z';
 // Invented station 500 m above sea level; its ellipsoidal height follows from the geoid undulation the service reports.
 const place = { latitude_deg: 46.2, longitude_deg: 7.4 };
+/** EGM96 undulation there [m], as the service reports it in geoid_undulation_m (checked below). */
+const PLACE_UNDULATION_M = 51.39;
 
 describe('VMF1 coefficients at the site get no height correction (Boehm et al. 2006; Niell 1996 eq. 6)', () => {
   const api = useApp();
   const coefficients = { ah: 0.00124, aw: 0.00061 };
 
   async function slant(heightReference: 'site' | 'sea-level' | undefined, elevationDeg: number) {
-    const n = (await api().post('/v1/zenith-delays').send({ site: { ...place, height_m: 0 }, epoch }).expect(200)).body.geoid_undulation_m;
     const body = {
-      site: { ...place, height_m: 500 + n },
+      site: { ...place, height_m: 500 + PLACE_UNDULATION_M },
       epoch,
       model: 'vmf1',
       coefficients: { ...coefficients, ...(heightReference ? { height_reference: heightReference } : {}) },
@@ -45,6 +46,7 @@ describe('VMF1 coefficients at the site get no height correction (Boehm et al. 2
     expect(sea.models.mapping_height_correction).toMatch(/sea level/);
     expect(site.model_fingerprint).not.toBe(sea.model_fingerprint);
     expect(site.warnings.join(' ')).not.toMatch(/height_reference/);
+    expect(Math.abs(site.geoid_undulation_m - PLACE_UNDULATION_M)).toBeLessThan(0.01 * M);
   });
 
   it('without height_reference the grid meaning ("sea-level") is assumed and the answer says so', async () => {
