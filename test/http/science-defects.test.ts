@@ -2,6 +2,7 @@
  * Issue 10, item 5 (science defects) through HTTP: each case here failed before the fix.
  */
 import { describe, expect, it } from 'vitest';
+import { column, evenHeightsM, toApiLevels } from '../../scripts/generators/us-standard-atmosphere-1976.js';
 import { precipitableWaterResponse } from '../../src/http/schemas/precipitable-water.js';
 import { useApp, problemFields } from '../helpers/app.js';
 import { DEG, M, MM } from '../helpers/units.js';
@@ -178,6 +179,23 @@ describe('heights above sea level from the EGM96 geoid (NGA check values, from m
     // computes that height for h = 300 + 2N.
     const ellipsoidTakenForSeaLevel = (await send(300 + 2 * n)).body;
     expect(Math.abs(ellipsoidTakenForSeaLevel.slants[0].hydrostatic_m - fixed.slants[0].hydrostatic_m - 2.5 * MM * (n / 50))).toBeLessThan(0.2 * MM);
+  });
+});
+
+describe('profile levels in geopotential heights are placed with the EGM96 undulation when none is given', () => {
+  const api = useApp();
+
+  it('a site on the geoid (height_m = N) gets the column bottom at N and the same delays as with geoid_undulation_m = N', async () => {
+    const generated = column(evenHeightsM(1000, 0, 30_000), { surfaceRelativeHumidityPct: 60 }); // U.S. Standard Atmosphere (1976) generator
+    const site = { latitude_deg: 38.625473, longitude_deg: 359.9995 }; // N ≈ +50.0 m (NGA check point, from memory)
+    const epoch = '2026-04-29T12:00:00Z';
+    const levels = toApiLevels(generated, 'vapour_pressure_hpa', 'geopotential_height_m');
+    const n = 50.036; // EGM96 15′ grid at this point (test/domain/geoid.test.ts: within 0.1 m of NGA's 50.065 m)
+    const implicit = (await api().post('/v1/profile-delays').send({ site: { ...site, height_m: n }, epoch, levels }).expect(200)).body;
+    const explicit = (await api().post('/v1/profile-delays').send({ site: { ...site, height_m: n }, epoch, levels, geoid_undulation_m: n }).expect(200)).body;
+    expect(Math.abs(implicit.column.bottom_height_m - n)).toBeLessThan(0.01);
+    expect(Math.abs(implicit.zhd_m - explicit.zhd_m)).toBeLessThan(0.001 * MM);
+    expect(implicit.warnings.join(' ')).toMatch(/EGM96 geoid undulation 50\.0\d m/);
   });
 });
 
