@@ -24,9 +24,9 @@ const HEALTH_BOUND_MS = 2000;
 describe('estimation off the event loop', () => {
   it(`GET /v1/health answers while both workers are busy with estimations, each answer within ${HEALTH_BOUND_MS} ms`, async () => {
     server = await startServerProcess({ ESTIMATION_WORKERS: '2', ESTIMATION_QUEUE_LIMIT: '64' });
-    // Four estimations of one day with 200 gross errors rejected one per solution (about 200 re-solves
-    // each, seconds of CPU) for two workers: until the first of them answers, both workers are busy.
-    const requests = [1, 2, 3, 4].map((seed) => postJson(server!.baseUrl, '/v1/zwd-estimates', slowEstimationBody(24, seed, 200)));
+    // Two estimations of one day with 50 gross errors rejected one per solution (about 50 re-solves
+    // each, about a second of CPU), one per worker: until the first of them answers, both workers are busy.
+    const requests = [1, 2].map((seed) => postJson(server!.baseUrl, '/v1/zwd-estimates', slowEstimationBody(24, seed, 50)));
     await Promise.all(requests.map((r) => r.sent));
     const busySince = performance.now();
     let firstAnsweredAt = Infinity;
@@ -44,8 +44,8 @@ describe('estimation off the event loop', () => {
     }
     const answers = await Promise.all(requests.map((r) => r.answer));
 
-    expect(answers.map((a) => a.status)).toEqual([200, 200, 200, 200]);
-    // Health answered while no estimation had answered yet: it does not wait for the workers.
+    expect(answers.map((a) => a.status)).toEqual([200, 200]);
+    // Health answered while neither estimation had answered yet: it does not wait for the workers.
     const whileBusy = health.filter((h) => h.answeredAt < firstAnsweredAt);
     const busyS = ((firstAnsweredAt - busySince) / 1000).toFixed(2);
     expect(whileBusy.length, `health answers during the ${busyS} s before the first estimation answered`).toBeGreaterThanOrEqual(5);
