@@ -30,7 +30,11 @@ describe('estimation off the event loop', () => {
     await Promise.all(requests.map((r) => r.sent));
     const busySince = performance.now();
     let firstAnsweredAt = Infinity;
-    for (const r of requests) void r.answer.then((a) => (firstAnsweredAt = Math.min(firstAnsweredAt, a.answeredAt)), () => undefined);
+    for (const r of requests)
+      void r.answer.then(
+        (a) => (firstAnsweredAt = Math.min(firstAnsweredAt, a.answeredAt)),
+        () => undefined,
+      );
 
     const health: { latencyMs: number; answeredAt: number }[] = [];
     while (firstAnsweredAt === Infinity) {
@@ -50,7 +54,9 @@ describe('estimation off the event loop', () => {
     const busyS = ((firstAnsweredAt - busySince) / 1000).toFixed(2);
     expect(whileBusy.length, `health answers during the ${busyS} s before the first estimation answered`).toBeGreaterThanOrEqual(5);
     const slowest = Math.max(...health.map((h) => h.latencyMs));
-    expect(slowest, `slowest of ${health.length} health answers [ms]; first estimation answered after ${busyS} s`).toBeLessThan(HEALTH_BOUND_MS);
+    expect(slowest, `slowest of ${health.length} health answers [ms]; first estimation answered after ${busyS} s`).toBeLessThan(
+      HEALTH_BOUND_MS,
+    );
   }, 120_000);
 
   it('a full queue answers 503 with Retry-After rather than piling work up', async () => {
