@@ -360,6 +360,11 @@ async function main(): Promise<void> {
     process.stdout.write(HELP);
     return;
   }
+  const missing = ['bash', 'curl', 'jq'].filter((tool) => spawnSync('sh', ['-c', `command -v ${tool}`]).status !== 0);
+  if (missing.length > 0) {
+    process.stderr.write(`check-examples: the examples need ${missing.join(', ')}; install them first (Debian: apt-get install ${missing.join(' ')})\n`);
+    process.exit(2);
+  }
   const files = parsed.positionals.length > 0 ? parsed.positionals.map((f) => relative(ROOT, join(process.cwd(), f))) : defaultFiles();
   const started = Date.now();
   let filesWithExamples = 0;
