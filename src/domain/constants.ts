@@ -48,6 +48,17 @@ export const BEVIS_1994 = {
 } as const;
 
 /**
+ * Standard uncertainties of the refractivity constants as Bevis et al. (1994) quote them (from
+ * memory): k1 = 77.60 ± 0.05 K/hPa, k2' = 22.1 ± 2.2 K/hPa, k3 = (3.739 ± 0.012)e5 K²/hPa.
+ * They are common to every PWV value (systematic), not independent from record to record.
+ */
+export const BEVIS_1994_SIGMA = {
+  k1_K_per_hPa: 0.05,
+  k2prime_K_per_hPa: 2.2,
+  k3_K2_per_hPa: 0.012e5,
+} as const;
+
+/**
  * Standard lapse rate of temperature in the troposphere [K/m] (negative: temperature falls with height).
  * U.S. Standard Atmosphere (1976), −6.5 K/km up to 11 km geopotential.
  */
