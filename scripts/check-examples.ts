@@ -282,12 +282,12 @@ export function defaultFiles(root = ROOT): string[] {
   return ['README.md', ...docs];
 }
 
-/** Runs the examples of one file; returns false at the first mismatch (after printing it). */
-async function checkFile(file: string, update: boolean): Promise<boolean> {
+/** Runs the examples of one file; returns the number of commands run, or null at the first mismatch (after printing it). */
+async function checkFile(file: string, update: boolean): Promise<number | null> {
   const path = join(ROOT, file);
   const markdown = readFileSync(path, 'utf8');
   const blocks = parseExamples(markdown, file);
-  if (blocks.length === 0) return true;
+  if (blocks.length === 0) return 0;
   const steps = blocks.reduce((n, b) => n + b.steps.length, 0);
   process.stdout.write(`${file}: ${blocks.length} examples, ${steps} commands\n`);
   const work = mkdtempSync(join(tmpdir(), 'tropodelay-examples-'));
@@ -296,12 +296,14 @@ async function checkFile(file: string, update: boolean): Promise<boolean> {
   const shell = new Shell(cleanEnv(dataDir));
   const outputs: string[][] = [];
   let ok = true;
+  let ran = 0;
   try {
     for (const block of blocks) {
       const blockOutputs: string[] = [];
       outputs.push(blockOutputs);
       for (const step of block.steps) {
         const started = Date.now();
+        ran++;
         const { output, status } = await shell.run(toServicePort(step.command, service.port));
         const printed = toShownPort(output, service.port);
         blockOutputs.push(printed);
@@ -310,13 +312,13 @@ async function checkFile(file: string, update: boolean): Promise<boolean> {
         if (status !== 0) {
           process.stdout.write(`\nFAIL ${where}: the command exited with status ${status}\n${shownCommand}\n${printed}\n`);
           if (service.child.exitCode !== null) process.stdout.write(`service log:\n${service.log()}\n`);
-          return false;
+          return null;
         }
         const diff = compareOutput(step.expected, printed, block.volatile);
         if (diff !== null && !update) {
           process.stdout.write(`\nFAIL ${where}: the output differs from the one shown\n${shownCommand}\n${diff}\n`);
           process.stdout.write('(run `npm run check-examples -- --update` to take the printed outputs, then review the diff)\n');
-          return false;
+          return null;
         }
         process.stdout.write(`  ${diff === null ? 'ok     ' : 'updated'} ${where} ${step.command.split('\n')[0]!.slice(0, 90)} (${Date.now() - started} ms)\n`);
       }
@@ -336,7 +338,7 @@ async function checkFile(file: string, update: boolean): Promise<boolean> {
     await stopService(service);
     rmSync(work, { recursive: true, force: true });
   }
-  return ok;
+  return ok ? ran : null;
 }
 
 const HELP = `Usage: npm run check-examples [-- --update] [-- FILE.md ...]
@@ -358,14 +360,24 @@ async function main(): Promise<void> {
     process.stdout.write(HELP);
     return;
   }
+  const missing = ['bash', 'curl', 'jq'].filter((tool) => spawnSync('sh', ['-c', `command -v ${tool}`]).status !== 0);
+  if (missing.length > 0) {
+    process.stderr.write(`check-examples: the examples need ${missing.join(', ')}; install them first (Debian: apt-get install ${missing.join(' ')})\n`);
+    process.exit(2);
+  }
   const files = parsed.positionals.length > 0 ? parsed.positionals.map((f) => relative(ROOT, join(process.cwd(), f))) : defaultFiles();
   const started = Date.now();
-  let checked = 0;
+  let filesWithExamples = 0;
+  let commands = 0;
   for (const file of files) {
-    if (!(await checkFile(file, parsed.values.update === true))) process.exit(1);
-    checked++;
+    const ran = await checkFile(file, parsed.values.update === true);
+    if (ran === null) process.exit(1);
+    if (ran > 0) filesWithExamples++;
+    commands += ran;
   }
-  process.stdout.write(`check-examples: ${checked} files, every example ${parsed.values.update ? 'run and its output taken' : 'matched'} (${((Date.now() - started) / 1000).toFixed(1)} s)\n`);
+  process.stdout.write(
+    `check-examples: ${commands} commands in ${filesWithExamples} of ${files.length} files, every one ${parsed.values.update ? 'run and its output taken' : 'matched'} (${((Date.now() - started) / 1000).toFixed(1)} s)\n`,
+  );
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
