@@ -19,7 +19,7 @@ const LATITUDE_DEG = 46.2;
 function smallProblem(overrides: Partial<SyntheticOptions>, options: Partial<ZwdEstimationOptions>, withSigmas = false) {
   const synthetic: Partial<SyntheticOptions> = { durationS: 3 * 3600, samplingS: 90, latitudeDeg: LATITUDE_DEG, ...overrides };
   const data = generateSyntheticResiduals(synthetic);
-  return toEstimationInput(data, LATITUDE_DEG, { scaleSigmas: false, ...options }, withSigmas);
+  return toEstimationInput(data, LATITUDE_DEG, { scaleSigmas: false, correlatedNoise: false, ...options }, withSigmas);
 }
 
 function expectSameSolution(fast: ZwdEstimationOutput, dense: DenseResult) {
