@@ -74,7 +74,7 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
     degreesOfFreedom = solution.observationsUsed + solution.constraints - unknowns;
     varianceFactor = degreesOfFreedom > 0 ? solution.weightedSquareSum / degreesOfFreedom : null;
     if (options.scaleSigmas && reweightings < MAX_REWEIGHTINGS) {
-      const next = varianceComponents(design, solution, used, options.weighting, weighting, givenScale);
+      const next = varianceComponents(design, solution, used, options.weighting, weighting, givenScale, screeningBound(options.outlierThreshold, varianceFactor));
       if (next.changed) {
         weighting = next.weighting;
         givenScale = next.givenScale;
@@ -181,6 +181,9 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
  * One component ("elevation": θ_b only; "uniform": θ_a only) reduces to θ = σ² vᵀPv / Σ r_i,
  * the variance factor of the observations alone. A negative component is set to 0 and the other
  * refitted. Observations with their own sigma get one common factor vᵀPv/Σ r_i of their own.
+ * Observations that screening would reject (|τ| > k) are left out, so that gross errors do not
+ * inflate the weights before they are rejected (their share is below 1e-4 for Gaussian noise at
+ * k = 4; a robust choice, common practice).
  */
 function varianceComponents(
   design: Design,
@@ -189,6 +192,7 @@ function varianceComponents(
   scheme: ZwdEstimationInput['options']['weighting'],
   current: { a: number; b: number },
   givenScale: number,
+  bound: number,
 ): { changed: boolean; weighting: { a: number; b: number }; givenScale: number } {
   // Normal equations of the fit (sums for θ_a, θ_b) and the given-sigma factor.
   let saa = 0, sab = 0, sbb = 0, sa = 0, sb = 0;
@@ -199,6 +203,7 @@ function varianceComponents(
     const r = solution.residualVarianceM2[s]! / sigma2;
     if (!(r > 1e-6)) continue;
     const v2 = solution.fittedResidualM[s]! ** 2;
+    if (v2 > bound * solution.residualVarianceM2[s]!) continue; // a rejection candidate: not noise
     if (!Number.isNaN(design.givenSigmaM[s]!)) {
       givenOmega += v2 / sigma2;
       givenRedundancy += r;
@@ -231,6 +236,11 @@ function varianceComponents(
     Math.max(rel(thetaA, current.a ** 2), rel(thetaB, current.b ** 2), rel(nextGiven, givenScale)) > REWEIGHTING_TOLERANCE &&
     thetaA + thetaB > 0;
   return { changed, weighting: { a: Math.sqrt(thetaA), b: Math.sqrt(thetaB) }, givenScale: nextGiven };
+}
+
+/** (k σ̂0)²: |v| above k σ̂0 σ_v is a rejection candidate; Infinity without screening. */
+function screeningBound(threshold: number | null, varianceFactor: number | null): number {
+  return threshold === null ? Infinity : threshold * threshold * (varianceFactor ?? 1);
 }
 
 interface NoiseInflation {

@@ -17,8 +17,11 @@
  *   + 0.2 mm diurnal − a 0.9 mm Gaussian pulse (σ = 30 min) at the front. ("random-walk"): ZWD
  *   and gradients pure random walks with given q (the estimator's own prior).
  * - Epoch clocks: 100 km + a random walk of 30 m per epoch + uniform ±1 km per epoch.
- * - Noise: σ_i = σ0/sin e; a share c of the variance is AR(1) per satellite arc with correlation
+ * - Noise: σ_i² = a² + σ0²/sin²e (a = 0 by default); a share c of the variance is AR(1) per satellite arc with correlation
  *   time τ (exp(−Δt/τ) between samples of one arc), the rest white.
+ * - Wet mapping: Niell (1996), or VMF1 (Boehm, Werl & Schuh 2006: Marini form with the caller's
+ *   aw, b = 0.00146, c = 0.04391; from memory, as in published-constants.md) with aw changing
+ *   linearly over the day.
  * - Gross errors: ±(8..30) σ_i on distinct (epoch, satellite) pairs.
  * - A gap: no epochs in [gapStartS, gapEndS).
  */
@@ -59,6 +62,10 @@ export interface SkyOptions {
   minElevationDeg: number;
   constellations: Array<keyof typeof CONSTELLATIONS>;
   sigma0M: number;
+  /** Elevation-independent part a of the noise, σ² = a² + σ0²/sin²e [m] (0: σ0/sin e). */
+  sigmaConstantM: number;
+  /** Wet mapping: Niell (default) or VMF1 with aw varying linearly over the day (aw at start, at end). */
+  vmf1Aw: [number, number] | null;
   /** Share of the noise variance that is AR(1) per satellite arc [0..1]. */
   correlatedShare: number;
   correlationTimeS: number;
@@ -81,6 +88,8 @@ export const REALISTIC_DAY: SkyOptions = {
   minElevationDeg: 5,
   constellations: ['gps', 'glonass', 'galileo', 'beidou'],
   sigma0M: 0.003,
+  sigmaConstantM: 0,
+  vmf1Aw: null,
   correlatedShare: 0.7,
   correlationTimeS: 600,
   grossErrors: 100,
@@ -256,14 +265,15 @@ export function simulateSky(overrides: Partial<SkyOptions> = {}): Sky {
         state = normal();
       }
       arState.set(s.id, { tS, u: state });
-      const sigma = o.sigma0M / Math.sin(elevation);
+      const sigma = Math.sqrt(o.sigmaConstantM ** 2 + (o.sigma0M / Math.sin(elevation)) ** 2);
       const noise = sigma * (ar * state + white * normal());
       const mg = chenHerringMapping(elevation);
       out.epochMs.push(epochMs);
       out.satellite.push(s.id);
       out.elevationRad.push(elevation);
       out.azimuthRad.push(azimuth);
-      out.residualM.push(niellWetMapping(o.latitudeDeg, elevation) * w + mg * (Math.cos(azimuth) * gn + Math.sin(azimuth) * ge) + bias + noise);
+      const mw = o.vmf1Aw ? vmf1Wet(vmf1AwAt(o, tS), elevation) : niellWetMapping(o.latitudeDeg, elevation);
+      out.residualM.push(mw * w + mg * (Math.cos(azimuth) * gn + Math.sin(azimuth) * ge) + bias + noise);
       sigmaOf.push(sigma);
     }
     out.inView.min = Math.min(out.inView.min, visible);
@@ -279,4 +289,18 @@ export function simulateSky(overrides: Partial<SkyOptions> = {}): Sky {
     out.residualM[i]! += (8 + 22 * uniform()) * sigmaOf[i]! * (uniform() < 0.5 ? -1 : 1);
   }
   return out;
+}
+
+/** VMF1 aw of the simulated day at t seconds after the start (linear from start to end value). */
+export function vmf1AwAt(o: SkyOptions, tS: number): number {
+  const [a0, a1] = o.vmf1Aw!;
+  return a0 + ((a1 - a0) * tS) / o.durationS;
+}
+
+/** VMF1 wet mapping factor, Marini's continued fraction with b = 0.00146, c = 0.04391. */
+export function vmf1Wet(aw: number, elevationRad: number): number {
+  const b = 0.00146;
+  const c = 0.04391;
+  const s = Math.sin(elevationRad);
+  return (1 + aw / (1 + b / (1 + c))) / (s + aw / (s + b / (s + c)));
 }
