@@ -12,7 +12,7 @@
  *        ρ(m) = Σ z_t z_{t+m} / n_m  ÷  Σ z² / n,
  *    for m = 1, 2, … up to the first lag where ρ(m) < 2/√n_m (the first lag not significant at
  *    about 95 %; a truncation in the spirit of Geyer's initial sequence, Geyer (1992), Statistical
- *    Science 7, 473–483; from memory), at most MAX_LAG_S.
+ *    Science 7, 473–483; from memory), at most MAX_LAG_S (1 h).
  * 2. Inflation. In steady state the estimate of a random walk (step variance Q per epoch) from
  *    per-epoch information I (noise variance R = 1/I) is the two-sided exponential smoother
  *        x̂_k = Σ_j w_j y_{k+j},  w_j = (1 − λ)/(1 + λ) λ^|j|,  λ + 1/λ = 2 + Q I,
@@ -33,61 +33,93 @@
 import type { Design } from './design.js';
 import { EPOCH_NORMAL_ENTRIES, type Solution } from './least-squares.js';
 
-/** Longest lag the autocorrelation is estimated for [s]: 2 h. */
-export const MAX_LAG_S = 7200;
+/** Longest lag the autocorrelation is estimated for [s]: 1 h (correlation times up to ~20 min). */
+export const MAX_LAG_S = 3600;
+/** Every lag up to this one is evaluated ... */
+const DENSE_LAGS = 20;
+/** ... then every LAG_STEP-th. */
+const LAG_STEP = 4;
 
 /**
  * ρ(1), ρ(2), … of the normalised residuals per satellite arc (see header), at the sampling
  * interval samplingMs; empty when lag 1 is already not significant or there are too few pairs.
+ * One pass over the pairs of each satellite up to MAX_LAG_S apart (cost n × evaluated lags).
  *
  * @param satellite satellite of each design observation
  */
 export function residualAutocorrelation(design: Design, solution: Solution, used: Uint8Array, satellite: readonly string[], samplingMs: number): number[] {
-  // Arcs: per satellite, the design indices in epoch order (the design is sorted by epoch).
-  const bySatellite = new Map<string, number[]>();
-  for (let s = 0; s < used.length; s++) {
+  // Per satellite, its used observations in epoch order (the design is sorted by epoch), packed
+  // satellite after satellite into t (epoch) and z (normalised residual).
+  const n = used.length;
+  const satId = new Int32Array(n);
+  const ids = new Map<string, number>();
+  const counts: number[] = [];
+  let total = 0;
+  for (let s = 0; s < n; s++) {
     if (!used[s]) continue;
-    let list = bySatellite.get(satellite[s]!);
-    if (!list) bySatellite.set(satellite[s]!, (list = []));
-    list.push(s);
+    let id = ids.get(satellite[s]!);
+    if (id === undefined) {
+      id = counts.length;
+      ids.set(satellite[s]!, id);
+      counts.push(0);
+    }
+    satId[s] = id;
+    counts[id]!++;
+    total++;
   }
-  const epochOf = new Float64Array(used.length);
-  for (let k = 0; k + 1 < design.epochStart.length; k++) epochOf.fill(design.epochMs[k]!, design.epochStart[k]!, design.epochStart[k + 1]!);
-  const z = new Float64Array(used.length);
+  if (total < 10) return [];
+  const start = new Int32Array(counts.length + 1);
+  for (let id = 0; id < counts.length; id++) start[id + 1] = start[id]! + counts[id]!;
+  const fill = start.slice(0, counts.length);
+  const t = new Float64Array(total);
+  const z = new Float64Array(total);
   let c0 = 0;
-  let n = 0;
-  for (let s = 0; s < used.length; s++) {
-    if (!used[s]) continue;
-    z[s] = solution.fittedResidualM[s]! / design.sigmaM[s]!;
-    c0 += z[s]! * z[s]!;
-    n++;
+  for (let k = 0; k + 1 < design.epochStart.length; k++) {
+    for (let s = design.epochStart[k]!; s < design.epochStart[k + 1]!; s++) {
+      if (!used[s]) continue;
+      const at = fill[satId[s]!]!++;
+      t[at] = design.epochMs[k]!;
+      const value = solution.fittedResidualM[s]! / design.sigmaM[s]!;
+      z[at] = value;
+      c0 += value * value;
+    }
   }
-  if (n < 10 || !(c0 > 0)) return [];
-  c0 /= n;
-  const arcs = [...bySatellite.values()];
-  const maxLag = Math.max(1, Math.floor(MAX_LAG_S / (samplingMs / 1000)));
-  const rho: number[] = [];
-  for (let m = 1; m <= maxLag; m++) {
-    const lagMs = m * samplingMs;
-    let sum = 0;
-    let pairs = 0;
-    for (const arc of arcs) {
-      // Pairs exactly m intervals apart: with gaps the partner is at most m places further on.
-      let j = 0;
-      for (let i = 0; i < arc.length; i++) {
-        const target = epochOf[arc[i]!]! + lagMs;
-        if (j <= i) j = i + 1;
-        while (j < arc.length && epochOf[arc[j]!]! < target - 0.5) j++;
-        if (j >= arc.length) break;
-        if (Math.abs(epochOf[arc[j]!]! - target) <= 0.5) {
-          sum += z[arc[i]!]! * z[arc[j]!]!;
-          pairs++;
-        }
+  if (!(c0 > 0)) return [];
+  c0 /= total;
+  const maxLag = Math.max(1, Math.min(Math.floor(MAX_LAG_S / (samplingMs / 1000)), 1000));
+  // Lags evaluated: every lag up to DENSE_LAGS, then every LAG_STEP-th (ρ is smooth there; the
+  // lags between are interpolated linearly).
+  const lags: number[] = [];
+  for (let m = 1; m <= maxLag; m += m < DENSE_LAGS ? 1 : LAG_STEP) lags.push(m);
+  const sums = new Float64Array(lags.length);
+  const pairs = new Float64Array(lags.length);
+  for (let id = 0; id < counts.length; id++) {
+    const end = start[id + 1]!;
+    for (let i = start[id]!; i < end; i++) {
+      const ti = t[i]!;
+      const zi = z[i]!;
+      // In an arc without gaps the partner m intervals on is m places on; where the arc has a gap
+      // the pair is skipped (pairs are lost independently of their values: no bias).
+      for (let l = 0; l < lags.length; l++) {
+        const m = lags[l]!;
+        const j = i + m;
+        if (j >= end) break;
+        if (Math.abs(t[j]! - ti - m * samplingMs) > 0.5) continue;
+        sums[l]! += zi * z[j]!;
+        pairs[l]!++;
       }
     }
-    if (pairs < 10) break;
-    const r = sum / pairs / c0;
-    if (r < 2 / Math.sqrt(pairs)) break;
+  }
+  const rho: number[] = [];
+  for (let l = 0; l < lags.length; l++) {
+    if (pairs[l]! < 10) break;
+    const r = sums[l]! / pairs[l]! / c0;
+    if (r < 2 / Math.sqrt(pairs[l]!)) break;
+    // Lags skipped since the previous evaluated one: linear between the two.
+    const previous = rho.length;
+    const m = lags[l]!;
+    const before = previous > 0 ? rho[previous - 1]! : 1;
+    for (let k = previous + 1; k < m; k++) rho.push(before + ((r - before) * (k - previous)) / (m - previous));
     rho.push(r);
   }
   return rho;
@@ -102,8 +134,7 @@ export function residualAutocorrelation(design: Design, solution: Solution, used
  */
 export function varianceInflation(information: number, stepVariance: number | null, rho: readonly number[]): number {
   if (rho.length === 0 || !(information > 0)) return 1;
-  const qi = stepVariance === null ? 0 : stepVariance * information;
-  const lambda = 1 + qi / 2 - Math.sqrt(qi + (qi * qi) / 4);
+  const lambda = kernelFactor(information, stepVariance);
   let sum = 0;
   if (lambda >= 1 - 1e-12) {
     for (const r of rho) sum += r; // S(m)/S(0) → 1 for an unconstrained (constant) parameter
@@ -119,6 +150,16 @@ export function varianceInflation(information: number, stepVariance: number | nu
   const r = 1 + 2 * sum;
   const noiseShare = (1 + lambda * lambda) / (1 + lambda) ** 2;
   return Math.max(1, 1 + noiseShare * (r - 1));
+}
+
+/**
+ * λ of the smoother kernel w_j ∝ λ^|j|: the root in (0, 1] of λ + 1/λ = 2 + Q I (see header).
+ *
+ * @param information I [1/m²]  @param stepVariance Q [m²]; null = no random walk (λ = 1)
+ */
+export function kernelFactor(information: number, stepVariance: number | null): number {
+  const qi = stepVariance === null ? 0 : stepVariance * Math.max(information, 0);
+  return 1 + qi / 2 - Math.sqrt(qi + (qi * qi) / 4);
 }
 
 /**

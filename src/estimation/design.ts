@@ -143,7 +143,9 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   // All observations in epoch order (stable sort: ties keep the input order); duplicates are
   // checked on all of them, then those below the cutoff are dropped (and counted).
   const all = Array.from({ length: n }, (_, i) => i);
-  all.sort((a, b) => obs.epochMs[a]! - obs.epochMs[b]!);
+  let sorted = true;
+  for (let i = 1; i < n && sorted; i++) sorted = obs.epochMs[i - 1]! <= obs.epochMs[i]!;
+  if (!sorted) all.sort((a, b) => obs.epochMs[a]! - obs.epochMs[b]!);
   checkDuplicates(input, all);
   const kept: number[] = [];
   let belowCutoff = 0;

@@ -14,10 +14,10 @@
  */
 
 import { ModelDomainError } from '../domain/errors.js';
-import { epochInformation, residualAutocorrelation, varianceInflation } from './correlated-noise.js';
+import { epochInformation, kernelFactor, residualAutocorrelation, varianceInflation } from './correlated-noise.js';
 import { buildDesign, initialWeighting, locate, nodeEpochMs, setWeights, type Design, type NodeLayout } from './design.js';
 import { SingularParameterError } from './frontal-ldl.js';
-import { rejectionCandidates } from './outliers.js';
+import { epochStateRejectionWindowMs, nodeRejectionWindowMs, rejectionCandidates } from './outliers.js';
 import { MIN_TESTABLE_REDUNDANCY, parameterLayout, solveOnce, type ParameterLayout, type Solution } from './least-squares.js';
 import type {
   ElevationBandStatistics,
@@ -67,53 +67,61 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
   let degreesOfFreedom: number;
   let unknowns: number;
 
+  // Each pass: solve; re-estimate the observation weights (variance components, from the
+  // observations that are not rejection candidates) and reject this pass's candidates; re-solve
+  // while either changed anything.
+  let screening = options.outlierThreshold !== null;
   for (;;) {
     solution = solveNamed(design, layout, input, used);
     solutions++;
     unknowns = layout.parameters + (options.epochBias ? solution.epochsUsed : 0);
     degreesOfFreedom = solution.observationsUsed + solution.constraints - unknowns;
     varianceFactor = degreesOfFreedom > 0 ? solution.weightedSquareSum / degreesOfFreedom : null;
-    if (options.scaleSigmas && reweightings < MAX_REWEIGHTINGS) {
+    let changed = false;
+    const candidates = screening
+      ? rejectionCandidates(
+          design,
+          solution,
+          used,
+          varianceFactor === null ? 1 : Math.sqrt(varianceFactor),
+          options.outlierThreshold!,
+          options.outlierRejection,
+          rejectionWindowMs(input, design, layout, solution),
+        )
+      : [];
+    if (options.scaleSigmas && reweightings < MAX_REWEIGHTINGS && varianceFactor !== null) {
       const next = varianceComponents(design, solution, used, options.weighting, weighting, givenScale, screeningBound(options.outlierThreshold, varianceFactor));
       if (next.changed) {
         weighting = next.weighting;
         givenScale = next.givenScale;
         setWeights(design, weighting.a, weighting.b, givenScale);
         reweightings++;
-        continue;
+        changed = true;
       }
     }
-    if (options.outlierThreshold === null) break;
-    const candidates = rejectionCandidates(
-      design,
-      solution,
-      used,
-      varianceFactor === null ? 1 : Math.sqrt(varianceFactor),
-      options.outlierThreshold,
-      options.outlierRejection,
-      options.zwd.intervalS,
-    );
-    if (candidates.length === 0) break;
-    if (rejected.length >= options.maxRejections) {
+    if (candidates.length > 0 && rejected.length >= options.maxRejections) {
       screeningComplete = false;
+      screening = false;
       warnings.push(
         `outlier screening stopped after ${rejected.length} rejections (options.max_rejections); ${candidates.length > 1 ? 'normalised residuals' : 'a normalised residual'} up to ${Math.abs(candidates[0]!.normalizedResidual).toFixed(1)} remain above ${options.outlierThreshold}: check sigma0_m and the residuals`,
       );
-      break;
+    } else {
+      for (const c of candidates.slice(0, options.maxRejections - rejected.length)) {
+        const i = design.inputIndex[c.index]!;
+        rejected.push({
+          index: i,
+          epochMs: input.observations.epochMs[i]!,
+          satellite: input.observations.satellite[i]!,
+          residualM: input.observations.residualM[i]!,
+          fittedResidualM: solution.fittedResidualM[c.index]!,
+          normalizedResidual: c.normalizedResidual,
+        });
+        rejectedDesign.push(c.index);
+        used[c.index] = 0;
+        changed = true;
+      }
     }
-    for (const c of candidates.slice(0, options.maxRejections - rejected.length)) {
-      const i = design.inputIndex[c.index]!;
-      rejected.push({
-        index: i,
-        epochMs: input.observations.epochMs[i]!,
-        satellite: input.observations.satellite[i]!,
-        residualM: input.observations.residualM[i]!,
-        fittedResidualM: solution.fittedResidualM[c.index]!,
-        normalizedResidual: c.normalizedResidual,
-      });
-      rejectedDesign.push(c.index);
-      used[c.index] = 0;
-    }
+    if (!changed) break;
   }
   if (options.scaleSigmas && reweightings >= MAX_REWEIGHTINGS) {
     warnings.push(`the observation variance components did not settle within ${MAX_REWEIGHTINGS} re-weightings: formal errors may be off by a few per cent`);
@@ -236,6 +244,37 @@ function varianceComponents(
     Math.max(rel(thetaA, current.a ** 2), rel(thetaB, current.b ** 2), rel(nextGiven, givenScale)) > REWEIGHTING_TOLERANCE &&
     thetaA + thetaB > 0;
   return { changed, weighting: { a: Math.sqrt(thetaA), b: Math.sqrt(thetaB) }, givenScale: nextGiven };
+}
+
+/** Window of "one-per-window" screening (outliers.ts) [ms]. */
+function rejectionWindowMs(input: ZwdEstimationInput, design: Design, layout: ParameterLayout, solution: Solution): number {
+  const { options } = input;
+  let windowMs = 0;
+  if (design.zwd.regular) windowMs = nodeRejectionWindowMs(options.zwd.intervalS);
+  if (design.gradients?.regular && options.gradients) windowMs = Math.max(windowMs, nodeRejectionWindowMs(options.gradients.intervalS));
+  if (design.zwd.regular && (!design.gradients || design.gradients.regular)) return windowMs;
+  const epochs = design.epochMs.length;
+  if (epochs < 2) return windowMs;
+  const samplingMs = medianSpacingMs(design.epochMs);
+  const hours = samplingMs / 3_600_000;
+  const withGradients = layout.gradientCount > 0;
+  const zwdQ = options.zwd.randomWalkMPerSqrtH === null ? null : options.zwd.randomWalkMPerSqrtH ** 2 * hours;
+  const gradientQ = options.gradients?.randomWalkMPerSqrtH == null ? null : options.gradients.randomWalkMPerSqrtH ** 2 * hours;
+  const lw: number[] = [];
+  const ln: number[] = [];
+  const le: number[] = [];
+  for (let k = 0; k < epochs; k++) {
+    const [iW, iN, iE] = epochInformation(solution, k, withGradients);
+    if (!(iW > 0)) continue;
+    if (!design.zwd.regular) lw.push(kernelFactor(iW, zwdQ));
+    if (withGradients && !design.gradients!.regular) {
+      ln.push(kernelFactor(iN, gradientQ));
+      le.push(kernelFactor(iE, gradientQ));
+    }
+  }
+  const median = (xs: number[]) => (xs.sort((a, b) => a - b), xs[Math.floor(xs.length / 2)]!);
+  const lambdas = [lw, ln, le].filter((xs) => xs.length > 0).map(median);
+  return Math.max(windowMs, epochStateRejectionWindowMs(lambdas, samplingMs));
 }
 
 /** (k σ̂0)²: |v| above k σ̂0 σ_v is a rejection candidate; Infinity without screening. */
