@@ -186,7 +186,11 @@ export interface ZwdEstimationStatistics {
   rmsM: number;
   /** σ̂0² = (vᵀPv + constraint residuals) / degrees of freedom; null when that is 0. */
   varianceFactor: number | null;
-  /** The factor the formal errors were multiplied with (√variance factor, or 1). */
+  /**
+   * The factor the formal errors were multiplied with: 1. Since issue 10 the variance factor
+   * re-weights the observations (variance components, scaleSigmas) and the formal errors follow
+   * from the re-solved system; the random-walk prior is never scaled. Kept for the API.
+   */
   sigmaScale: number;
   /** Solutions computed (1 + rejections). */
   solutions: number;
