@@ -249,12 +249,10 @@ function varianceComponents(
 /** Window of "one-per-window" screening (outliers.ts) [ms]. */
 function rejectionWindowMs(input: ZwdEstimationInput, design: Design, layout: ParameterLayout, solution: Solution): number {
   const { options } = input;
-  let windowMs = 0;
-  if (design.zwd.regular) windowMs = nodeRejectionWindowMs(options.zwd.intervalS);
-  if (design.gradients?.regular && options.gradients) windowMs = Math.max(windowMs, nodeRejectionWindowMs(options.gradients.intervalS));
-  if (design.zwd.regular && (!design.gradients || design.gradients.regular)) return windowMs;
+  // Piecewise-linear ZWD nodes: the ZWD interval decides (as before issue 10).
+  if (design.zwd.regular) return nodeRejectionWindowMs(options.zwd.intervalS);
   const epochs = design.epochMs.length;
-  if (epochs < 2) return windowMs;
+  if (epochs < 2) return 0;
   const samplingMs = medianSpacingMs(design.epochMs);
   const hours = samplingMs / 3_600_000;
   const withGradients = layout.gradientCount > 0;
@@ -274,7 +272,7 @@ function rejectionWindowMs(input: ZwdEstimationInput, design: Design, layout: Pa
   }
   const median = (xs: number[]) => (xs.sort((a, b) => a - b), xs[Math.floor(xs.length / 2)]!);
   const lambdas = [lw, ln, le].filter((xs) => xs.length > 0).map(median);
-  return Math.max(windowMs, epochStateRejectionWindowMs(lambdas, samplingMs));
+  return epochStateRejectionWindowMs(lambdas, samplingMs);
 }
 
 /** (k σ̂0)²: |v| above k σ̂0 σ_v is a rejection candidate; Infinity without screening. */
