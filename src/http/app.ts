@@ -11,6 +11,7 @@ import type { StorageConfig } from '../storage/factory.js';
 import type { Repository } from '../storage/repository.js';
 import { MAX_QUERY_VALUE_CHARS } from '../limits.js';
 import { HttpProblem } from './problem.js';
+import { checkResponsesAgainstSchemas } from './response-check.js';
 import auth from './plugins/auth.js';
 import computePool from './plugins/compute-pool.js';
 import edge from './plugins/edge.js';
@@ -53,6 +54,8 @@ export interface AppOptions {
    * in-memory SQLite archive that nobody can write to (tests of other routes, `npm run openapi`).
    */
   archive?: ArchiveOptions;
+  /** Check every JSON answer against its route's response schema (tests; see response-check.ts). */
+  validateResponses?: boolean;
 }
 
 /** Archive options from the validated environment (server.ts, the demo). */
@@ -112,6 +115,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     reply.header('x-request-id', request.id);
     done();
   });
+  if (options.validateResponses) checkResponsesAgainstSchemas(app);
   // Every query value is length-capped before any schema or pattern looks at it (issue 11 item 3).
   app.addHook('preValidation', (request, _reply, done) => done(overlongQueryValue(request.query)));
 

@@ -17,7 +17,7 @@ const precipitableWaterRoute: FastifyPluginAsyncZod = async (app) => {
         description: `PWV = Π(Tm) · ZWD with Π from Bevis et al. (1994) and Tm from Bevis et al. (1992) or the caller. ZWD = ZTD − ZHD(P) when a total delay is given, which then needs the measured pressure (never defaulted). σ_PWV propagates ztd_sigma_m, pressure_sigma_hpa and the Tm uncertainty (4.74 K for the Bevis regression). Body limit: ${BATCH_BODY_LIMIT_BYTES} bytes (32 MiB).`,
         tags: ['water vapour'],
         body: precipitableWaterRequest,
-        response: { 200: precipitableWaterResponse, 400: problemSchema, 413: problemSchema },
+        response: { 200: precipitableWaterResponse, 400: problemSchema, 413: problemSchema, 415: problemSchema },
       },
     },
     async (request) => {

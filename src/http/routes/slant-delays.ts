@@ -22,7 +22,7 @@ const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
         description: `slant = m_h ZHD + m_w ZWD + m_g (G_N cos a + G_E sin a). Zenith values not supplied come from met or the standard atmosphere; gradients default to 0. Directions may be given as elevation/azimuth or as satellite ECEF positions (WGS84). Up to 100 000 directions. Body limit: ${BATCH_BODY_LIMIT_BYTES} bytes (32 MiB).`,
         tags: ['a-priori delays'],
         body: slantDelaysRequest.superRefine((v, ctx) => checkCoefficients(v, ctx)),
-        response: { 200: slantDelaysResponse, 400: problemSchema, 413: problemSchema },
+        response: { 200: slantDelaysResponse, 400: problemSchema, 413: problemSchema, 415: problemSchema },
       },
     },
     async (request) => {

@@ -110,7 +110,7 @@ const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         tags: ['station archive', 'water vapour'],
         params: stationParams,
         querystring: stationPwvQuery,
-        response: { 200: stationPwvResponse, 400: problemSchema, 404: problemSchema },
+        response: { 200: stationPwvResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 404: problemSchema },
       },
     },
     async (request, reply) => {
