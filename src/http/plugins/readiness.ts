@@ -7,6 +7,7 @@
 import type { FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
 import { z } from 'zod';
+import { problemSchema } from '../schemas/common.js';
 
 type Check = () => Promise<void>;
 
@@ -35,7 +36,7 @@ async function readiness(app: FastifyInstance): Promise<void> {
       schema: {
         summary: 'Readiness: dependencies reachable (database, migrations); 503 otherwise or while shutting down',
         tags: ['operations'],
-        response: { 200: readyResponse, 503: readyResponse },
+        response: { 200: readyResponse, 400: problemSchema, 503: readyResponse },
       },
     },
     async (_request, reply) => {
