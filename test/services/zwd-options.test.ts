@@ -61,7 +61,8 @@ describe.each(ENTRY_POINTS)('%s: every option reaches the estimator and the fing
     expect(called.elevationCutoffRad).toBeCloseTo(EXPECTED_ESTIMATOR_OPTIONS.elevationCutoffRad, 15);
     expect({ ...called, elevationCutoffRad: 0 }).toEqual({ ...EXPECTED_ESTIMATOR_OPTIONS, elevationCutoffRad: 0 });
 
-    const json = 'station' in input ? `${outcome.output.json}}` : outcome.output.json;
+    const text = new TextDecoder().decode(outcome.output.json);
+    const json = 'station' in input ? `${text}}` : text;
     const answer = JSON.parse(json) as { models: Record<string, unknown>; series: { met?: string }[]; model_fingerprint: string };
     for (const [name, value] of Object.entries(EXPECTED_MODEL_SETTINGS)) expect(answer.models[name], name).toEqual(value);
     if ('station' in input) expect(outcome.output.models).toEqual(answer.models);
@@ -83,7 +84,7 @@ describe('gradients off', () => {
       const outcome = await handleZwdRequest(input);
       if (!outcome.ok) throw new Error(outcome.error.detail);
       expect(vi.mocked(estimate.estimateZwd).mock.calls[0]![0].options.gradients).toBeNull();
-      const models = JSON.parse(outcome.output.json).models;
+      const models = JSON.parse(new TextDecoder().decode(outcome.output.json)).models;
       expect(models).toMatchObject({ gradient_mapping: 'none', gradient_interval_s: null, gradient_random_walk_m_per_sqrt_h: null, gradient_apriori_sigma_m: null });
     }
   });
