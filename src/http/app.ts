@@ -119,6 +119,18 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   // Every query value is length-capped before any schema or pattern looks at it (issue 11 item 3).
   app.addHook('preValidation', (request, _reply, done) => done(overlongQueryValue(request.query)));
 
+  // Plugins, in this order (each declares what it needs with fastify-plugin `dependencies`, so a
+  // wrong order fails at start instead of misbehaving):
+  //  1. error-handler   first, so that every later plugin's and route's error becomes a problem
+  //  2. request-log     one line per request, for everything below
+  //  3. metrics         app.metrics, used by compute-pool (dependency) and read by /metrics
+  //  4. edge            helmet, CORS, rate limit: before any route answers
+  //  5. compute-pool    app.compute (depends on metrics)
+  //  6. openapi         collects the routes registered after it
+  //  7. readiness       app.addReadinessCheck, used by storage (dependency)
+  //  8. storage         app.repository (depends on readiness)
+  //  9. auth            bearer keys; its hooks guard the routes registered after it
+  // then the routes, which use app.compute, app.repository and auth's guards.
   await app.register(errorHandler);
   await app.register(requestLog);
   await app.register(metrics);
