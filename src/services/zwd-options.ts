@@ -333,3 +333,11 @@ export function optionsMarkdown(): string {
     OPTIONS_DOC_END,
   ].join('\n');
 }
+
+/** `markdown` with the text between the option-table markers replaced by optionsMarkdown(). */
+export function withOptionsTable(markdown: string): string {
+  const begin = markdown.indexOf(OPTIONS_DOC_BEGIN);
+  const end = markdown.indexOf(OPTIONS_DOC_END);
+  if (begin < 0 || end < begin) throw new Error('the option-table markers are missing');
+  return markdown.slice(0, begin) + optionsMarkdown() + markdown.slice(end + OPTIONS_DOC_END.length);
+}

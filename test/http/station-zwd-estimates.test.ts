@@ -91,6 +91,38 @@ for (const backend of BACKENDS) {
       expect(csv.body.model_fingerprint).toBe(json.body.model_fingerprint);
     });
 
+    it('finds the epoch column wherever it is in a CSV body (issue 11 item 9): stored met used, no false warning', async () => {
+      await api().put('/v1/stations/CSV2').set('authorization', auth).send({ name: 'Epoch column last (invented)', ...SITE }).expect(201);
+      await api().post('/v1/stations/CSV2/met').set('authorization', auth).send({ records: MET }).expect(200);
+      const lines = toCsv(data).trim().split('\n');
+      const epochLast = lines.map((line) => {
+        const cells = line.split(',');
+        return [...cells.slice(1), cells[0]].join(',');
+      });
+      const res = await api()
+        .post('/v1/stations/CSV2/zwd-estimates?apriori_zhd_m=2.17&apriori_zwd_m=0.05&zwd_interval_s=900')
+        .set('authorization', auth)
+        .set('content-type', 'text/csv')
+        .send(epochLast.join('\n') + '\n')
+        .expect(200);
+      expect(res.body.met_used).toBe('archive');
+      expect(res.body.warnings.join(' ')).not.toMatch(/neither in the request nor stored/);
+      expect(res.body.series[0].pwv_mm).toEqual(expect.any(Number));
+    });
+
+    it('bounds the stored-met read like the read routes (issue 11 item 10): observations two years apart are a 400, nothing stored', async () => {
+      await api().put('/v1/stations/FAR1').set('authorization', auth).send({ name: 'Far apart (invented)', ...SITE }).expect(201);
+      await api().post('/v1/stations/FAR1/met').set('authorization', auth).send({ records: MET }).expect(200);
+      const far = [
+        { ...observations[0]!, epoch: '2024-01-01T00:00:00Z' },
+        { ...observations[1]!, epoch: '2026-01-01T00:00:00Z' },
+      ];
+      const res = await api().post('/v1/stations/FAR1/zwd-estimates').set('authorization', auth).send({ observations: far }).expect(400);
+      expect(res.body.errors).toEqual([{ field: 'observations', message: expect.stringMatching(/span 731\.00 days.*at most 366 days of stored met: send `met` in the request or split/) }]);
+      const stored = await api().get('/v1/stations/FAR1/delays').query({ from: '2023-12-31T00:00:00Z', to: '2024-12-30T00:00:00Z' }).expect(200);
+      expect(stored.body.records).toEqual([]);
+    });
+
     it('prefers the request met; says when there is none; refuses `site`, unknown stations and missing keys', async () => {
       await api().put('/v1/stations/EST2').set('authorization', auth).send({ name: 'Estimation test 2 (invented)', ...SITE }).expect(201);
       const withMet = await api().post('/v1/stations/EST2/zwd-estimates').set('authorization', auth).send({ observations, apriori: APRIORI, met: MET, options: OPTIONS }).expect(200);
