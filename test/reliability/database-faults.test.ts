@@ -127,8 +127,9 @@ describe.skipIf(!TEST_PG_URL)('PostgreSQL backend of an in-flight upload termina
         const outcome = await uploadAndTerminate(`/v1/stations/QRIDGE/${series}`, body);
         expect(server.child.exitCode, 'the server process exited').toBeNull();
         const stored = await storedRows(table, k);
-        if (!outcome.terminated) {
-          // The upload finished before the poller saw its transaction: an ordinary success.
+        if (!outcome.terminated || outcome.status === 200) {
+          // A miss: the upload finished before the poller saw its transaction, or the signal reached a
+          // session whose statement had just ended (pg_terminate_backend only sends it). An ordinary success.
           expect(outcome.status).toBe(200);
           expect(stored).toBe(RECORDS);
           continue;
