@@ -23,7 +23,8 @@
  * ignored. The shown output keeps the values of a real run. Commands use port 8080 and the data folder
  * `${TROPO_DATA_DIR:-data}`; the script runs them against its own port and folder and shows 8080 again.
  *
- * `--update` rewrites the shown outputs from the real ones (after a change of an output, check the diff).
+ * `--update` rewrites the shown outputs that differ from the real ones (after a change of an output, check
+ * the diff); matching outputs keep their shown text, volatile values included.
  * Exit code 0 when every example matched, 1 at the first mismatch (with a diff), 2 for a usage error.
  */
 
@@ -306,7 +307,6 @@ async function checkFile(file: string, update: boolean): Promise<number | null> 
         ran++;
         const { output, status } = await shell.run(toServicePort(step.command, service.port));
         const printed = toShownPort(output, service.port);
-        blockOutputs.push(printed);
         const where = `${file}:${block.line}`;
         const shownCommand = step.commandLines.join('\n');
         if (status !== 0) {
@@ -315,6 +315,9 @@ async function checkFile(file: string, update: boolean): Promise<number | null> 
           return null;
         }
         const diff = compareOutput(step.expected, printed, block.volatile);
+        // --update takes the printed output only where it differs: a match keeps the shown one (its
+        // volatile values too), so the rewrite changes no more lines than the outputs did.
+        blockOutputs.push(diff === null ? step.expected : printed);
         if (diff !== null && !update) {
           process.stdout.write(`\nFAIL ${where}: the output differs from the one shown\n${shownCommand}\n${diff}\n`);
           process.stdout.write('(run `npm run check-examples -- --update` to take the printed outputs, then review the diff)\n');
