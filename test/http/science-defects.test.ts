@@ -1,6 +1,7 @@
 /**
  * Issue 10, item 5 (science defects) through HTTP: each case here failed before the fix.
  */
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { column, evenHeightsM, toApiLevels } from '../../scripts/generators/us-standard-atmosphere-1976.js';
 import { precipitableWaterResponse } from '../../src/http/schemas/precipitable-water.js';
@@ -240,6 +241,22 @@ describe('cosmetic defects', () => {
       const r = await api().post('/v1/mapping-factors').send({ site, epoch, elevations_deg: [90], gradient_model }).expect(200);
       expect(r.body.gradient[0]).toBe(0);
     }
+  });
+
+  it.each([[1e-310], [0.001]])('a profile traced at %f° keeps every traced number and gives no mapping-function factor there (was null or −487)', async (e) => {
+    const example = JSON.parse(readFileSync(new URL('../../fixtures/profiles/ussa1976-45n.json', import.meta.url), 'utf8'));
+    const r = await api().post('/v1/profile-delays').send({ ...example, elevations_deg: [e, 5] }).expect(200);
+    const [low, five] = r.body.slants;
+    for (const k of ['apparent_elevation_deg', 'refraction_deg', 'hydrostatic_m', 'wet_m', 'total_m', 'bending_m', 'mapping_hydrostatic', 'mapping_wet']) {
+      expect(Number.isFinite(low[k]), k).toBe(true);
+    }
+    // refraction at the horizon ≈ 0.5–0.6° (common practice)
+    expect(low.refraction_deg).toBeGreaterThan(0.45);
+    expect(low.refraction_deg).toBeLessThan(0.7);
+    expect(low.model_mapping_hydrostatic).toBeNull();
+    expect(low.model_mapping_wet).toBeNull();
+    expect(five.model_mapping_hydrostatic).toBeGreaterThan(10);
+    expect(r.body.warnings.join(' ')).toMatch(/1 elevation\(s\) below 1°: the mapping function is not evaluated/);
   });
 
   it.each([[1e-310], [1e-300], [0.5]])('an elevation of %f° is refused with a 400 naming it (was 200 with null or absurd factors)', async (e) => {

@@ -11,8 +11,9 @@ const SITE = { latitude_deg: 46.2, longitude_deg: 7.4, height_m: 520 };
 const H = 3600;
 const DEG = Math.PI / 180;
 
-// Two hours of 30 s synthetic residuals with three gross errors (scripts/synthetic-residuals.ts).
-const data = generateSyntheticResiduals({ durationS: 2 * H, grossErrors: 3, latitudeDeg: SITE.latitude_deg, seed: 4 });
+// Two hours of 120 s synthetic residuals with three gross errors (scripts/synthetic-residuals.ts);
+// 120 s keeps the dense reference (a state per epoch since issue 10) small.
+const data = generateSyntheticResiduals({ durationS: 2 * H, samplingS: 120, grossErrors: 3, latitudeDeg: SITE.latitude_deg, seed: 4 });
 const requestBody = toRequestBody(data);
 type Observation = (typeof requestBody.observations)[number];
 const body = (extra: Record<string, unknown> = {}) => ({ ...structuredClone(requestBody), ...extra });

@@ -101,8 +101,8 @@ const profileDelaysRoute: FastifyPluginAsyncZod = async (app) => {
                 bending_m: s.bendingM,
                 mapping_hydrostatic: s.mappingHydrostatic,
                 mapping_wet: s.mappingWet,
-                model_mapping_hydrostatic: s.modelMappingHydrostatic!,
-                model_mapping_wet: s.modelMappingWet!,
+                model_mapping_hydrostatic: s.modelMappingHydrostatic,
+                model_mapping_wet: s.modelMappingWet,
               })),
             }
           : {}),

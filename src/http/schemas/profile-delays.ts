@@ -80,8 +80,8 @@ export const profileSlantSchema = z.object({
   bending_m: z.number().describe('Geometric bending term, ray length minus the projection of station-to-exit onto the outgoing direction [m]; part of hydrostatic_m'),
   mapping_hydrostatic: z.number().describe('Ray-traced hydrostatic mapping factor [-]'),
   mapping_wet: z.number().nullable().describe('Ray-traced wet mapping factor [-]; null for a dry column'),
-  model_mapping_hydrostatic: z.number().describe('Hydrostatic mapping factor of mapping_model at the vacuum elevation [-]'),
-  model_mapping_wet: z.number().describe('Wet mapping factor of mapping_model at the vacuum elevation [-]'),
+  model_mapping_hydrostatic: z.number().nullable().describe('Hydrostatic mapping factor of mapping_model at the vacuum elevation [-]; null below 1°, where mapping functions are not evaluated'),
+  model_mapping_wet: z.number().nullable().describe('Wet mapping factor of mapping_model at the vacuum elevation [-]; null below 1°'),
 });
 
 export const profileDelaysResponse = z.object({
