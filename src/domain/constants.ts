@@ -2,7 +2,7 @@
  * Physical constants used by the models, each with its unit and authority.
  *
  * Where a value is recalled rather than checked against the publication, the comment
- * says "from memory" (see ../shared/references/published-constants.md for the
+ * says "from memory" (see docs/constants.md for the
  * transcription status of every value).
  */
 
@@ -26,7 +26,7 @@ export const RHO_WATER_KG_M3 = 1000;
 /**
  * Mean gravity at the centroid of the atmospheric column used by Saastamoinen's formula [m/s²].
  * Saastamoinen (1972); Davis et al. (1985). From memory; consistent with the ZHD constant
- * 0.0022768 = 1e-6 · 77.604 · 287.0464 / 9.784 (published-constants.md).
+ * 0.0022768 = 1e-6 · 77.604 · 287.0464 / 9.784 (docs/constants.md).
  */
 export const G_MEAN_M_S2 = 9.784;
 

@@ -6,7 +6,7 @@ import { niellModel } from '../../src/domain/mapping/niell.js';
 import { assumedHeightReferenceWarning, vmf1Model } from '../../src/domain/mapping/vmf1.js';
 import { DEG, MM } from '../helpers/units.js';
 
-// The normalised continued fraction of Marini (1972) as Niell (1996) writes it, eq. 4 (published-constants.md).
+// The normalised continued fraction of Marini (1972) as Niell (1996) writes it, eq. 4 (docs/constants.md).
 const f = (e: number, a: number, b: number, c: number) =>
   (1 + a / (1 + b / (1 + c))) / (Math.sin(e) + a / (Math.sin(e) + b / (Math.sin(e) + c)));
 

@@ -6,7 +6,7 @@ import { negativeWetDelayWarning, precipitableWater, precipitableWaterFromSurfac
 import { zenithHydrostaticDelayM } from '../../src/domain/zenith/hydrostatic.js';
 
 describe('conversion factor Π of Bevis et al. (1994)', () => {
-  // Values computed from Π = 1e6/(ρw Rv (k3/Tm + k2')) with the Bevis (1994) constants (published-constants.md).
+  // Values computed from Π = 1e6/(ρw Rv (k3/Tm + k2')) with the Bevis (1994) constants (docs/constants.md).
   it.each([
     [250, 0.1428],
     [270, 0.154],

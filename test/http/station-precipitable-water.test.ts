@@ -273,7 +273,7 @@ for (const backend of BACKENDS) {
       expect(lines[0]!.split(',')).toEqual(Object.keys(res.body.records[0]));
       expect(lines).toHaveLength(96);
       for (const k of [0, 50, 94]) {
-        expect(lines[k + 1]!.split(',')).toEqual(Object.values(res.body.records[k]).map((v) => (v === null ? '' : String(v))));
+        expect(lines[k + 1]!.split(',')).toEqual(Object.values(res.body.records[k]).map((v) => (v === null ? '' : String(v as string | number | boolean))));
       }
     });
   });

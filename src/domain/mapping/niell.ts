@@ -4,7 +4,7 @@
  * Niell, A. E. (1996), Global mapping functions for the atmosphere delay at radio wavelengths,
  * J. Geophys. Res. 101(B2), 3227–3246 (corrected reprint). Coefficients: Table 3 there, confirmed
  * against the reproduction in Leick, Rapoport & Tatarnikov, GPS Satellite Surveying, Table 6.1
- * (hydrostatic) and a journal reproduction (wet); see published-constants.md.
+ * (hydrostatic) and a journal reproduction (wet); see docs/constants.md.
  *
  * - Latitude: linear interpolation in |φ| between 15° and 75°, held constant outside (confirmed).
  * - Seasonal term: p(φ, t) = p_avg(φ) − p_amp(φ) cos(2π (doy − 28)/365.25) (minus sign and 365.25

@@ -3,7 +3,7 @@
  *
  * Source: WMO Guide to Meteorological Instruments and Methods of Observation, WMO-No. 8 (2008),
  * Annex 4.B: the Magnus-type form over a plane surface of pure water, e_w(t) = 6.112 exp(17.62 t / (243.12 + t)) hPa
- * (confirmed, published-constants.md), and the enhancement factor f(p) = 1.0016 + 3.15e-6 p − 0.074/p (from memory).
+ * (confirmed, docs/constants.md), and the enhancement factor f(p) = 1.0016 + 3.15e-6 p − 0.074/p (from memory).
  * WMO defines relative humidity with respect to water also below 0 °C, so no ice branch is used.
  */
 

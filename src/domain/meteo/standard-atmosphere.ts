@@ -9,7 +9,7 @@
  *   RH = RH0 exp(−6.396e-4 h)      [%]
  * with reference values at mean sea level P0 = 1013.25 hPa, T0 = 18 °C and RH0 = 50 %.
  * T0 = 18 °C is the textbook choice we follow; other texts use 15 °C (from memory, see
- * published-constants.md). h is the height above mean sea level [m]; callers with ellipsoidal
+ * docs/constants.md). h is the height above mean sea level [m]; callers with ellipsoidal
  * heights subtract the geoid undulation first (geometry/geoid.ts).
  *
  * Valid for h in −500..9000 m (the site range); the form follows the U.S. Standard Atmosphere

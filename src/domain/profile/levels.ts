@@ -42,7 +42,10 @@ import {
 
 export const MIN_LEVELS = 5;
 export const MAX_LEVELS = 10_000;
-/** Lowest admissible top of a profile [m above the ellipsoid]: above it the extension is dry and holds about a quarter of the ZHD at most. */
+/**
+ * Lowest admissible top of a profile [m above the ellipsoid]: above it the extension is dry and holds about a
+ * quarter of the ZHD at most.
+ */
 export const MIN_TOP_HEIGHT_M = 10_000;
 /** Largest distance a profile is extended down to the site [m] (as for surface met, height-reduction.ts). */
 export const MAX_DOWNWARD_EXTENSION_M = 1000;

@@ -30,7 +30,10 @@ import { traceRay, traceToVacuumElevation } from './ray-trace.js';
 import { DEFAULT_REFRACTIVITY_CONSTANTS, REFRACTIVITY_CONSTANT_SETS, type RefractivityConstantsKey } from './refractivity.js';
 import { buildShellColumn } from './shells.js';
 
-/** Height over which vapour above the top is assumed to decay, for the missing-wet-delay warning [m] (common practice: ~2 km vapour scale height). */
+/**
+ * Height over which vapour above the top is assumed to decay, for the missing-wet-delay warning [m]
+ * (common practice: ~2 km vapour scale height).
+ */
 const VAPOUR_SCALE_HEIGHT_M = 2000;
 /** Missing wet delay above the top that triggers a warning [m]. */
 const MISSING_WET_WARNING_M = 0.5e-3;

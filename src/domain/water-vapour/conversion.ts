@@ -2,7 +2,7 @@
  * Conversion of zenith wet delay to precipitable water, PWV = Π · ZWD.
  *
  * Bevis, M. et al. (1994), GPS meteorology: mapping zenith wet delays onto precipitable water,
- * J. Appl. Meteorol. 33, 379–386, eq. 6 (constants from memory, published-constants.md):
+ * J. Appl. Meteorol. 33, 379–386, eq. 6 (constants from memory, docs/constants.md):
  *
  *   Π = 10^6 / (ρw Rv (k3/Tm + k2'))       [-]
  *

@@ -5,11 +5,10 @@ import { GRADIENT_MODELS } from '../../domain/gradients/gradient-mapping.js';
 import { checkMappingElevation } from '../../domain/mapping/elevation-range.js';
 import { assumedHeightReferenceWarning } from '../../domain/mapping/vmf1.js';
 import { provenance } from '../../domain/provenance.js';
+import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
 import { problemSchema } from '../schemas/common.js';
 import { checkCoefficients, mappingFactorsRequest, mappingFactorsResponse } from '../schemas/mapping-factors.js';
 import { lowElevationWarning, mappingProvenance, prepareMapping, toCoefficients, toSite } from './shared.js';
-
-export const BATCH_BODY_LIMIT_BYTES = 32 * 1024 * 1024;
 
 const mappingFactorsRoute: FastifyPluginAsyncZod = async (app) => {
   app.post(

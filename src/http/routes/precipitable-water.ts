@@ -4,7 +4,7 @@ import { MODEL_NAMES, provenance } from '../../domain/provenance.js';
 import { precipitableWater } from '../../domain/water-vapour/precipitable-water.js';
 import { problemSchema } from '../schemas/common.js';
 import { precipitableWaterRequest, precipitableWaterResponse } from '../schemas/precipitable-water.js';
-import { BATCH_BODY_LIMIT_BYTES } from './mapping-factors.js';
+import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
 import { canonicalEpoch } from './shared.js';
 
 const precipitableWaterRoute: FastifyPluginAsyncZod = async (app) => {

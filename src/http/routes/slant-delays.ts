@@ -12,7 +12,7 @@ import { aprioriZenithDelays } from '../../domain/zenith/apriori.js';
 import { problemSchema } from '../schemas/common.js';
 import { checkCoefficients } from '../schemas/mapping-factors.js';
 import { slantDelaysRequest, slantDelaysResponse } from '../schemas/slant-delays.js';
-import { BATCH_BODY_LIMIT_BYTES } from './mapping-factors.js';
+import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
 import { lowElevationWarning, mappingProvenance, prepareMapping, toCoefficients, toMetInput, toSite, zenithProvenance } from './shared.js';
 
 const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {

@@ -14,7 +14,10 @@ import {
   sizedArray,
 } from './common.js';
 
-/** Each elevation is a launch-angle iteration of a few traces through every shell; 100 bound a request to ~0.1 s of CPU even with 10 000 levels. */
+/**
+ * Each elevation is a launch-angle iteration of a few traces through every shell; 100 bound a request to
+ * ~0.1 s of CPU even with 10 000 levels.
+ */
 export const MAX_PROFILE_ELEVATIONS = 100;
 
 export const profileLevelSchema = z
