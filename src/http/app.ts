@@ -23,6 +23,7 @@ import mappingFactorsRoute from './routes/mapping-factors.js';
 import networkPwvRoute from './routes/network-precipitable-water.js';
 import precipitableWaterRoute from './routes/precipitable-water.js';
 import profileDelaysRoute from './routes/profile-delays.js';
+import rootRoute from './routes/root.js';
 import slantDelaysRoute from './routes/slant-delays.js';
 import stationDelaysRoute from './routes/station-delays.js';
 import stationMetRoute from './routes/station-met.js';
@@ -113,6 +114,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     ...(archive.keyDir ? { keyDir: archive.keyDir } : {}),
   });
   await app.register(healthRoute);
+  await app.register(rootRoute);
   await app.register(zenithDelaysRoute);
   await app.register(mappingFactorsRoute);
   await app.register(slantDelaysRoute);

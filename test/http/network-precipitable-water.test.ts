@@ -295,3 +295,11 @@ for (const backend of BACKENDS) {
     });
   });
 }
+
+describe('network reads are archive reads (TROPO_READ_KEYS_REQUIRED)', () => {
+  const { api, auth } = useArchiveApp(BACKENDS[0]!, { readKeysRequired: true });
+  it('needs a key when read keys are required', async () => {
+    await api().get('/v1/network/precipitable-water').query({ latest: 'true' }).expect(401);
+    await api().get('/v1/network/precipitable-water').query({ latest: 'true' }).set('authorization', auth).expect(200);
+  });
+});

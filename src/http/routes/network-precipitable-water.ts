@@ -189,16 +189,16 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       }
       const sourceCounts = await app.repository.countDelaySources(rankRanges);
 
-      const stationById = new Map(stations.map((s) => [s.stationId, s]));
       const results: NetworkStationPwv[] = [];
       const usedDelays: ZenithDelayRow[] = [];
       const warnings: string[] = [];
-      for (const r of ranges) {
-        const rows = delaysByStation.get(r.stationId) ?? [];
-        const result = networkStationPwv(stationById.get(r.stationId)!, rows, metByStation.get(r.stationId) ?? [], choice, {
+      // Every selected station appears in `stations`, also those with nothing in their range (or no series at all).
+      for (const s of stations) {
+        const rows = delaysByStation.get(s.stationId) ?? [];
+        const result = networkStationPwv(s, rows, metByStation.get(s.stationId) ?? [], choice, {
           maxMetGapMs,
           maxZtdSigmaM: q.max_ztd_sigma_m,
-        }, sourceCounts.get(r.stationId));
+        }, sourceCounts.get(s.stationId));
         results.push(result);
         for (const d of result.delays) usedDelays.push(d);
         warnings.push(...result.warnings);
@@ -246,15 +246,15 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         source: choice.kind === 'one' ? choice.source : choice.kind,
         stations: results.map((res, k) => {
           const s = res.station;
-          const range = rangeOf.get(s.stationId)!;
+          const range = rangeOf.get(s.stationId);
           return {
             station_id: s.stationId,
             name: s.name,
             latitude_deg: s.latitudeDeg,
             longitude_deg: s.longitudeDeg,
             height_m: s.heightM,
-            from: isoEpoch(range.fromMs),
-            to: isoEpoch(range.toMs),
+            from: range ? isoEpoch(range.fromMs) : null,
+            to: range ? isoEpoch(range.toMs) : null,
             sources: res.sources,
             record_count: intervalsByStation === null ? res.records.length : intervalsByStation[k]!.length,
           };

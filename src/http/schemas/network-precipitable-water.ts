@@ -119,8 +119,8 @@ const networkStation = z.object({
   latitude_deg: z.number().describe('[deg]'),
   longitude_deg: z.number().describe('[deg]'),
   height_m: z.number().describe('Antenna height above the WGS84 ellipsoid [m]'),
-  from: z.string().describe('Start of the range read for this station (inclusive)'),
-  to: z.string().describe('End of the range read for this station (inclusive)'),
+  from: z.string().nullable().describe('Start of the range read for this station (inclusive); null when nothing was read (latest or since: no delays stored, or none after since)'),
+  to: z.string().nullable().describe('End of the range read for this station (inclusive)'),
   sources: z.array(z.string()).describe('Sources of the delay rows read, in preference order (most rows over the UTC day(s) of the range first, ties by name)'),
   record_count: z.number().int().describe('Records (or intervals) of this station in the answer'),
 });
