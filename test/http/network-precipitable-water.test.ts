@@ -12,6 +12,7 @@
  */
 
 import { parse } from 'csv-parse/sync';
+import { NetCDFReader } from 'netcdfjs';
 import { describe, expect, it } from 'vitest';
 import { networkPwvResponse } from '../../src/http/schemas/network-precipitable-water.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
@@ -265,6 +266,42 @@ for (const backend of BACKENDS) {
         const rows = parse(res.text, { columns: true }) as Record<string, string>[];
         expect(rows).toHaveLength(1);
         expect(rows[0]).toMatchObject({ count: '5', excluded_count: '1', count_delay_sigma_large: '1', count_ok: '1', count_met_interpolated: '4', sources: MAIN });
+      });
+    });
+
+    describe('netCDF (CF-1.8 timeSeries), read back with netcdfjs', () => {
+      const binary = (res: NodeJS.ReadableStream, done: (err: Error | null, body: Buffer) => void) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => done(null, Buffer.concat(chunks)));
+      };
+      it('records: the same PWV as the JSON answer (float32), stations × common epochs, flags', async () => {
+        const query = { stations: 'NWA,NWB', from: iso(T0), to: iso(T0 + H - 1) };
+        const res = await get({ ...query, format: 'netcdf' }).buffer(true).parse(binary as never).expect(200);
+        expect(res.headers['content-type']).toBe('application/x-netcdf');
+        expect(res.headers['content-disposition']).toBe('attachment; filename="network-pwv-20260710T1000.nc"');
+        const nc = new NetCDFReader(res.body as Buffer);
+        expect(nc.getAttribute('featureType')).toBe('timeSeries');
+        expect(nc.dimensions.map((d) => [d.name, d.size])).toEqual([['station', 2], ['time', 6], ['id_strlen', 3]]);
+        const json = await get(query).expect(200);
+        const pwv = nc.getDataVariable('pwv') as number[];
+        const times = nc.getDataVariable('time') as number[];
+        json.body.records.forEach((r: { station_id: string; epoch: string; pwv_mm: number; quality: string }) => {
+          const at = (r.station_id === 'NWA' ? 0 : 6) + times.indexOf(Date.parse(r.epoch) / 1000);
+          expect(pwv[at]).toBeCloseTo(r.pwv_mm, 3); // float32 and the JSON's 0.0001 mm rounding
+        });
+      });
+
+      it('interval means: time_bnds and cell_methods; refused with source=all', async () => {
+        const res = await get({ stations: 'NWC', from: '2026-07-10', to: '2026-07-10', interval: 'PT1H', format: 'netcdf' }).buffer(true).parse(binary as never).expect(200);
+        const nc = new NetCDFReader(res.body as Buffer);
+        const t = T0 / 1000;
+        expect(nc.getDataVariable('time_bnds')).toEqual([t, t + 3600, t + 3600, t + 7200, t + 7200, t + 10800, t + 10800, t + 14400]);
+        const pwvAttrs = Object.fromEntries((nc.variables.find((v) => v.name === 'pwv')!.attributes as unknown as { name: string; value: unknown }[]).map((a) => [a.name, a.value]));
+        expect(pwvAttrs.cell_methods).toBe('time: mean');
+        expect(nc.getDataVariable('count')).toEqual([6, 5, 6, 6]);
+        const bad = await get({ stations: 'NWC', epoch: iso(T0), format: 'netcdf', source: 'all' }).expect(400);
+        expect(JSON.stringify(bad.body.errors)).toContain('query.format');
       });
     });
 

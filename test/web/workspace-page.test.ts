@@ -7,7 +7,7 @@
  *   - choosing another hour (keyboard on the hour slider) recolours the map;
  *   - choosing a station draws its PWV series with the σ band and the flagged epochs (pixels of the
  *     band and flag colours on the chart canvas), and the met panel;
- *   - the CSV download parses and matches the API; the PNG download is a PNG;
+ *   - the CSV and netCDF downloads parse (csv-parse, netcdfjs) and agree; the PNG download is a PNG;
  *   - axe-core finds no serious or critical accessibility violation;
  *   - the keyboard alone reaches every control;
  *   - no request leaves the service's origin (every request is intercepted and checked).
@@ -20,6 +20,7 @@ import type { AddressInfo } from 'node:net';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { interpolateViridis } from 'd3-scale-chromatic';
+import { NetCDFReader } from 'netcdfjs';
 import type { FastifyInstance } from 'fastify';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -182,6 +183,14 @@ describe.skipIf(skipReason !== null)('workspace page in chromium', () => {
     const network = parse(readFileSync((await netDownload.path())!, 'utf8'), { columns: true }) as Record<string, string>[];
     expect(network.length).toBe(STATIONS - 1);
     expect(Object.keys(network[0]!)).toContain('latitude_deg');
+    const [ncDownload] = await Promise.all([page.waitForEvent('download'), page.click('#station-nc')]);
+    const nc = new NetCDFReader(readFileSync((await ncDownload.path())!));
+    expect(nc.getAttribute('featureType')).toBe('timeSeries');
+    expect(nc.dimensions.find((d) => d.name === 'time')!.size).toBe(EPOCHS_SHOWN);
+    const pwv = nc.getDataVariable('pwv') as number[];
+    expect(pwv).toHaveLength(rows.length);
+    const worst = Math.max(...pwv.map((v, i) => Math.abs(v - Number(rows[i]!.pwv_mm))));
+    expect(worst).toBeLessThan(2e-4); // float32 of ~20 mm (2e-6 mm) plus the CSV's 0.0001 mm rounding
   });
 
   it('has no serious or critical accessibility violation (axe-core)', async () => {

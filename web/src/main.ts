@@ -73,6 +73,7 @@ async function loadHour(): Promise<void> {
   );
   tableStatus.textContent = `(${new Date(state.hourMs).toISOString().slice(0, 13)}Z: ${present.length} of ${answer.stations.length} stations with a value)`;
   $<HTMLAnchorElement>('network-csv').href = networkUrl({ ...params, format: 'csv' });
+  $<HTMLAnchorElement>('network-nc').href = networkUrl({ ...params, format: 'netcdf' });
   document.body.dataset.hour = isoHour(state.hourMs);
 }
 
@@ -157,6 +158,7 @@ async function loadStation(): Promise<void> {
   );
   definitionList($('coverage'), coverage(records));
   $<HTMLAnchorElement>('station-csv').href = networkUrl({ ...params, format: 'csv' });
+  $<HTMLAnchorElement>('station-nc').href = networkUrl({ ...params, format: 'netcdf' });
   const name = answer.stations[0]?.name ?? '';
   stationStatus.textContent = `${state.stationId} ${name}: ${records.length} epochs, ${from.slice(0, 16)}Z to ${to.slice(0, 16)}Z`;
   document.body.dataset.station = state.stationId;

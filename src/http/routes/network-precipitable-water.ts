@@ -1,3 +1,4 @@
+import type { FastifyReply } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { csvCell } from '../../formats/met-csv.js';
 import { intervalMeans, type IntervalMean } from '../../services/interval-means.js';
@@ -5,6 +6,7 @@ import { networkStationPwv, type NetworkStationPwv, type SourceChoice } from '..
 import { summariseModelSets } from '../../services/homogeneity.js';
 import { PWV_QUALITY_FLAGS, retrievalProvenance, type StationPwvRecord } from '../../services/station-pwv.js';
 import type { Station, StationRange, ZenithDelayRow } from '../../storage/repository.js';
+import { intervalsNetcdf, recordsNetcdf } from '../network-netcdf.js';
 import { HttpProblem } from '../problem.js';
 import { problemSchema } from '../schemas/common.js';
 import {
@@ -105,7 +107,7 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
           'Quality flags, most severe first: met-missing (no PWV), delay-sigma-large (ztd_sigma_m > max_ztd_sigma_m), delay-sigma-unknown (no pwv_sigma_mm), met-interpolated, ok.',
           'Sources: by default one value per station and epoch, from the best-ranked source present at that epoch; a station\'s sources are ranked by their number of delay rows over the whole UTC day(s) of the range (most first, ties by name) and listed in that order in `stations[].sources`. `source=all` gives every row; `source=<name>` one source.',
           'Aggregation (`interval`, e.g. PT1H): means over [start, start + interval) aligned on 00:00 UTC; see the interval parameter and the intervals[] fields for the method of σ.',
-          `Limit: the stations' ranges add up to at most ${maxStationDays} station-days per request (e.g. 1000 stations × ${((maxStationDays / 1000) * 24).toFixed(1)} h). format=csv answers text/csv (an attachment) with the station coordinates on every row.`,
+          `Limit: the stations' ranges add up to at most ${maxStationDays} station-days per request (e.g. 1000 stations × ${((maxStationDays / 1000) * 24).toFixed(1)} h). format=csv answers text/csv (an attachment) with the station coordinates on every row; format=netcdf a CF-1.8 timeSeries netCDF file.`,
         ].join('\n'),
         tags: ['station archive', 'water vapour'],
         querystring: networkPwvQuery,
@@ -211,6 +213,24 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       const toMs = ranges.length ? Math.max(...ranges.map((r) => r.toMs)) : fromMs;
       const rangeOf = new Map(ranges.map((r) => [r.stationId, r]));
 
+      if (q.format === 'netcdf') {
+        if (choice.kind === 'all') {
+          throw new HttpProblem(400, 'format=netcdf holds one value per station and epoch: use the default source preference or one source', [
+            { field: 'query.format', message: 'netcdf is not available with source=all' },
+          ]);
+        }
+        const hasData = intervalsByStation === null ? results.some((r) => r.records.length > 0) : intervalsByStation.some((l) => l.length > 0);
+        if (!hasData) throw new HttpProblem(404, 'no records in the range for the selected stations: nothing to write as netCDF', [{ field: 'query.format', message: 'no data to write' }]);
+        const ctx = { requestUrl: request.url, modelFingerprints: fingerprints, retrievalFingerprint: retrievalProvenance(maxMetGapMs).model_fingerprint };
+        const bytes = intervalsByStation === null ? recordsNetcdf(results, ctx) : intervalsNetcdf(results, intervalsByStation, intervalMs! / 1000, ctx);
+        const stamp = isoEpoch(fromMs).slice(0, 16).replace(/[-:]/g, '');
+        reply
+          .header('content-disposition', `attachment; filename="network-pwv-${stamp}${intervalMs === null ? '' : `-${intervalMs / 1000}s`}.nc"`)
+          .header('x-homogeneous', String(summary.homogeneous))
+          .type('application/x-netcdf');
+        // A binary body: sent past the JSON response schema (which describes format=json).
+        return (reply as FastifyReply).send(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength));
+      }
       if (q.format === 'csv') {
         const lines: string[] = [];
         const header = intervalMs === null ? NETWORK_PWV_CSV_COLUMNS : NETWORK_INTERVAL_CSV_COLUMNS;

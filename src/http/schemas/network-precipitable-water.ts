@@ -10,13 +10,22 @@ import { provenanceFields } from './common.js';
 import { modelSetSummary } from './delays.js';
 import { rangeBoundSchema } from './range-bounds.js';
 import { stationPwvQuery } from './station-precipitable-water.js';
-import { seriesFormatSchema, SOURCE_PATTERN, STATION_ID_PATTERN } from './stations.js';
+import { SOURCE_PATTERN, STATION_ID_PATTERN } from './stations.js';
 
 /** Most stations named in `stations`. */
 export const NETWORK_MAX_STATIONS = 2000;
 /** Interval limits [s]: from one minute to one day, a divisor of one day. */
 export const INTERVAL_MIN_S = 60;
 export const INTERVAL_MAX_S = 86_400;
+
+export const NETWORK_FORMATS = ['json', 'csv', 'netcdf'] as const;
+const networkFormat = z
+  .enum(NETWORK_FORMATS, { error: `must be one of: ${NETWORK_FORMATS.join(', ')}` })
+  .default('json')
+  .describe(
+    'json (default); csv (an attachment, one header row, station coordinates on every row); netcdf (an attachment: netCDF-3 64-bit offset, ' +
+      'CF-1.8 timeSeries, stations × a common time axis, missing values as _FillValue; not with source=all)',
+  );
 
 const STATIONS_MESSAGE = `must be a comma-separated list of 1..${NETWORK_MAX_STATIONS} station ids (letters, digits, "-", "_")`;
 const BBOX_MESSAGE = 'must be west,south,east,north in degrees: longitudes in [-180, 180], latitudes in [-90, 90], south <= north (west > east crosses 180°)';
@@ -109,7 +118,7 @@ export const networkPwvQuery = z
     source: sourceQuery,
     max_met_gap_s: stationPwvQuery.shape.max_met_gap_s,
     max_ztd_sigma_m: stationPwvQuery.shape.max_ztd_sigma_m,
-    format: seriesFormatSchema,
+    format: networkFormat,
   })
   .describe('Exactly one of epoch, from (with optional to), since, latest=true');
 
