@@ -256,9 +256,14 @@ for (const backend of BACKENDS) {
         const rows = parse(res.text, { columns: true }) as Record<string, string>[];
         expect(rows).toHaveLength(4);
         expect(Object.keys(rows[0]!).slice(0, 5)).toEqual(['station_id', 'latitude_deg', 'longitude_deg', 'height_m', 'epoch']);
-        expect(rows[1]).toMatchObject({ station_id: 'NWB', latitude_deg: '48', longitude_deg: '11', height_m: '520', quality: 'ok' });
+        expect(rows[1]).toMatchObject({ station_id: 'NWB', latitude_deg: '48.000000', longitude_deg: '11.000000', height_m: '520.000', quality: 'ok' });
         const json = await get({ epoch: iso(T0 + 2 * H) }).expect(200);
         expect(rows.map((r) => Number(r.pwv_mm))).toEqual(json.body.records.map((r: { pwv_mm: number }) => r.pwv_mm));
+        // One precision per quantity: every cell of a column has the same number of decimals.
+        const decimals = (cell: string) => cell.split('.')[1]?.length ?? 0;
+        for (const [column, places] of Object.entries({ ztd_m: 6, ztd_sigma_m: 6, pressure_hpa: 4, temperature_c: 4, pwv_mm: 4, pwv_sigma_mm: 4 })) {
+          expect(rows.map((r) => decimals(r[column]!)), column).toEqual(rows.map(() => places));
+        }
       });
 
       it('interval CSV has the counts per quality flag as columns', async () => {
@@ -266,6 +271,8 @@ for (const backend of BACKENDS) {
         const rows = parse(res.text, { columns: true }) as Record<string, string>[];
         expect(rows).toHaveLength(1);
         expect(rows[0]).toMatchObject({ count: '5', excluded_count: '1', count_delay_sigma_large: '1', count_ok: '1', count_met_interpolated: '4', sources: MAIN });
+        expect(rows[0]!.pwv_mm).toMatch(/^-?\d+\.\d{4}$/); // (this invented station's ZTD gives negative PWV: written as computed)
+        expect(rows[0]!.ztd_m).toMatch(/^\d\.\d{6}$/);
       });
     });
 

@@ -24,6 +24,12 @@ import { DAY_MS } from './series-range.js';
 const D = OUTPUT_DECIMALS;
 const SCALE = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8];
 const round = (x: number | null, digits: number): number | null => (x === null ? null : Math.round(x * SCALE[digits]!) / SCALE[digits]!);
+/**
+ * CSV cell with a fixed count of decimals per quantity (the JSON's rounding, trailing zeros kept, so
+ * every value of a column has the same precision): m 6 (1 µm), mm 4, hPa 4, °C 4; empty for null.
+ * Coordinates: 6 decimals of a degree (0.1 m), heights 3 (1 mm).
+ */
+const fixed = (x: number | null, digits: number): string => (x === null ? '' : x.toFixed(digits));
 
 /** Longitude in (−180, 180] [deg] (stations may be stored in 0..360). */
 const wrapLongitude = (lon: number) => (lon > 180 ? lon - 360 : lon);
@@ -236,17 +242,31 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         const header = intervalMs === null ? NETWORK_PWV_CSV_COLUMNS : NETWORK_INTERVAL_CSV_COLUMNS;
         results.forEach((res, k) => {
           const s = res.station;
-          const place = [csvCell(s.stationId), s.latitudeDeg, s.longitudeDeg, s.heightM].join(',');
+          const place = [csvCell(s.stationId), s.latitudeDeg.toFixed(6), s.longitudeDeg.toFixed(6), s.heightM.toFixed(3)].join(',');
           if (intervalsByStation === null) {
             for (const rec of res.records) {
-              const j = recordJson(s.stationId, rec);
-              lines.push(`${place},${[j.epoch, csvCell(j.source), j.model_fingerprint, j.ztd_m, j.ztd_sigma_m, j.pressure_hpa, j.temperature_c, j.pwv_mm, j.pwv_sigma_mm, j.quality].map((v) => csvCell(v)).join(',')}`);
+              lines.push(
+                `${place},${[isoEpoch(rec.epochMs), csvCell(rec.source), rec.modelFingerprint, fixed(rec.ztdM, D.m), fixed(rec.ztdSigmaM, D.m), fixed(rec.pressureHpa, D.hpa), fixed(rec.temperatureC, D.k), fixed(rec.pwvMm, D.mm), fixed(rec.pwvSigmaMm, D.mm), rec.quality].join(',')}`,
+              );
             }
           } else {
             for (const m of intervalsByStation[k]!) {
-              const j = intervalJson(s.stationId, m, intervalMs!);
-              const cells = [j.epoch, j.interval_end, j.count, j.excluded_count, j.pwv_mm, j.pwv_sigma_mm, j.pwv_sd_mm, j.ztd_count, j.ztd_m, j.ztd_sigma_m, j.ztd_sd_m, j.sources.join(' ')];
-              lines.push(`${place},${[...cells, ...PWV_QUALITY_FLAGS.map((f) => m.qualityCounts[f])].map((v) => csvCell(v)).join(',')}`);
+              const cells = [
+                isoEpoch(m.startMs),
+                isoEpoch(m.startMs + intervalMs!),
+                m.count,
+                m.excludedCount,
+                fixed(m.pwvMm, D.mm),
+                fixed(m.pwvSigmaMm, D.mm),
+                fixed(m.pwvSdMm, D.mm),
+                m.ztdCount,
+                fixed(m.ztdM, D.m),
+                fixed(m.ztdSigmaM, D.m),
+                fixed(m.ztdSdM, D.m),
+                csvCell(m.sources.join(' ')),
+                ...PWV_QUALITY_FLAGS.map((f) => m.qualityCounts[f]),
+              ];
+              lines.push(`${place},${cells.join(',')}`);
             }
           }
         });
