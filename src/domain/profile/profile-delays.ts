@@ -16,7 +16,9 @@
  * pressures are in hydrostatic balance (otherwise a warning says by how much they are not).
  */
 
+import { DEG } from '../constants.js';
 import { gaussianRadiusM } from '../geometry/earth-radius.js';
+import { geoidUndulationM } from '../geometry/geoid.js';
 import type { MappingEvaluator } from '../mapping/types.js';
 import { PER_N_UNIT } from './constants.js';
 import { isothermalExtension } from './extension.js';
@@ -27,7 +29,10 @@ import { traceRay, traceToVacuumElevation } from './ray-trace.js';
 import { DEFAULT_REFRACTIVITY_CONSTANTS, REFRACTIVITY_CONSTANT_SETS, type RefractivityConstantsKey } from './refractivity.js';
 import { buildShellColumn } from './shells.js';
 
-/** Height over which vapour above the top is assumed to decay, for the missing-wet-delay warning [m] (common practice: ~2 km vapour scale height). */
+/**
+ * Height over which vapour above the top is assumed to decay, for the missing-wet-delay warning [m]
+ * (common practice: ~2 km vapour scale height).
+ */
 const VAPOUR_SCALE_HEIGHT_M = 2000;
 /** Missing wet delay above the top that triggers a warning [m]. */
 const MISSING_WET_WARNING_M = 0.5e-3;
@@ -42,8 +47,13 @@ export interface ProfileDelaysInput {
   /** Site height above the ellipsoid [m]; the column starts here. */
   siteHeightM: number;
   levels: readonly ProfileLevelInput[];
-  /** Geoid undulation at the site [m], for geopotential heights; default 0. */
+  /**
+   * Geoid undulation at the site [m], for geopotential heights; default: EGM96 at the site when
+   * `longitudeRad` is given (geometry/geoid.ts), else 0 (with a warning).
+   */
   geoidUndulationM?: number | undefined;
+  /** Longitude of the site [rad], east positive; for the EGM96 undulation when none is given. */
+  longitudeRad?: number | undefined;
   constants?: RefractivityConstantsKey | undefined;
   /** Include the compressibility factors of Owens (1967); default false. */
   compressibility?: boolean | undefined;
@@ -109,7 +119,10 @@ export function computeProfileDelays(input: ProfileDelaysInput): ProfileDelaysRe
   const earthRadiusM = gaussianRadiusM(input.latitudeRad);
   const firstHeightField = input.levels[0]?.heightM === undefined ? 'levels.0.geopotential_height_m' : 'levels.0.height_m';
 
-  const levels = validateLevels(input.levels, gravity, input.geoidUndulationM ?? 0, warnings);
+  const geoidSource = input.geoidUndulationM !== undefined ? 'caller' : input.longitudeRad !== undefined ? 'egm96' : 'none';
+  const undulationM =
+    input.geoidUndulationM ?? (input.longitudeRad !== undefined ? geoidUndulationM(input.latitudeRad / DEG, input.longitudeRad / DEG) : 0);
+  const levels = validateLevels(input.levels, gravity, undulationM, warnings, geoidSource);
   const column = columnFromSite(levels, input.siteHeightM, warnings, firstHeightField);
   const top = column.heightM.length - 1;
   const extension = isothermalExtension(
