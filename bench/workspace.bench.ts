@@ -96,7 +96,8 @@ async function page(): Promise<string[]> {
     await seedWorkspaceNetwork(app.repository, { stations: STATIONS, days: 0.125, stepMin: 0.5, startMs: T0 });
     // One station-year at 5 min ending at the network's hours: 105 120 delay rows and hourly met.
     const yearStart = T0 + 3 * 3_600_000 - 365 * 86_400_000;
-    await seedWorkspaceNetwork(app.repository, { stations: 1, days: 365, stepMin: 5, startMs: yearStart }); // WS0001, overwritten with a year
+    // WS0001 again, now with a year of data.
+    await seedWorkspaceNetwork(app.repository, { stations: 1, days: 365, stepMin: 5, startMs: yearStart });
     await app.listen({ port: 0, host: '127.0.0.1' });
     const base = `http://127.0.0.1:${(app.server.address() as AddressInfo).port}/`;
     const network: number[] = [];
@@ -119,7 +120,11 @@ async function page(): Promise<string[]> {
       await p.waitForFunction(() => performance.getEntriesByName('station-draw').length > 0, undefined, { timeout: 120_000 });
       const [drawMs, dataAt, points] = await p.evaluate(() => {
         const m = performance.getEntriesByName('station-draw')[0]!;
-        return [m.duration, m.startTime, Number(/(\d+) epochs/.exec(document.querySelector('#station-status')!.textContent ?? '')?.[1] ?? 0)];
+        return [
+          m.duration,
+          m.startTime,
+          Number(/(\d+) epochs/.exec(document.querySelector('#station-status')!.textContent ?? '')?.[1] ?? 0),
+        ];
       });
       if (i > 0) {
         network.push(drawn);

@@ -36,7 +36,10 @@ export interface NcVariable {
   /** Dimension names, slowest varying first. */
   dimensions: readonly string[];
   attributes: Record<string, NcAttributeValue>;
-  /** Values in row-major order: numbers (null = the _FillValue attribute, else the format's default fill) or, for char, one string per row. */
+  /**
+   * Values in row-major order: numbers (null = the _FillValue attribute, else the format's default fill)
+   * or, for char, one string per row.
+   */
   values: readonly (number | null)[] | readonly string[];
 }
 
@@ -198,7 +201,8 @@ export function writeNetcdfClassic(file: NcFile): Uint8Array {
     const start = w.length;
     const count = v.dimensions.reduce((n, d) => n * lengthOf.get(d)!, 1);
     const rows = v.type === 'char' ? count / lengthOf.get(v.dimensions[v.dimensions.length - 1]!)! : count;
-    if (v.values.length !== rows) throw new Error(`variable ${v.name}: ${v.values.length} values for dimensions (${v.dimensions.join(', ')}) of ${rows}`);
+    if (v.values.length !== rows)
+      throw new Error(`variable ${v.name}: ${v.values.length} values for dimensions (${v.dimensions.join(', ')}) of ${rows}`);
     if (v.type === 'char') {
       const rowLength = lengthOf.get(v.dimensions[v.dimensions.length - 1]!)!;
       for (const s of v.values as readonly string[]) {

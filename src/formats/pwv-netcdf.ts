@@ -35,11 +35,19 @@ const f = (...values: number[]) => ({ type: 'float' as const, values });
 
 export const QUANTITIES = {
   pwv: { long_name: 'precipitable water vapour', standard_name: 'lwe_thickness_of_atmosphere_mass_content_of_water_vapor', units: 'mm' },
-  pwv_sigma: { long_name: 'standard uncertainty of the precipitable water vapour', standard_name: 'lwe_thickness_of_atmosphere_mass_content_of_water_vapor standard_error', units: 'mm' },
+  pwv_sigma: {
+    long_name: 'standard uncertainty of the precipitable water vapour',
+    standard_name: 'lwe_thickness_of_atmosphere_mass_content_of_water_vapor standard_error',
+    units: 'mm',
+  },
   pwv_sd: { long_name: 'sample standard deviation of the precipitable water vapour within the interval', units: 'mm' },
   ztd: { long_name: 'zenith total delay', units: 'm' },
   ztd_sigma: { long_name: 'standard uncertainty of the zenith total delay', units: 'm' },
-  air_pressure: { long_name: 'pressure at the antenna height used for the hydrostatic delay', standard_name: 'surface_air_pressure', units: 'hPa' },
+  air_pressure: {
+    long_name: 'pressure at the antenna height used for the hydrostatic delay',
+    standard_name: 'surface_air_pressure',
+    units: 'hPa',
+  },
   air_temperature: { long_name: 'air temperature at the antenna height used for Tm', standard_name: 'air_temperature', units: 'degC' },
   count: { long_name: 'number of records in the PWV mean', units: '1' },
 } as const;
@@ -97,7 +105,13 @@ export function writePwvNetcdf(input: PwvNetcdfInput): Uint8Array {
       name: 'height',
       type: 'double',
       dimensions: ['station'],
-      attributes: { standard_name: 'height_above_reference_ellipsoid', long_name: 'antenna height above the WGS84 ellipsoid', units: 'm', positive: 'up', axis: 'Z' },
+      attributes: {
+        standard_name: 'height_above_reference_ellipsoid',
+        long_name: 'antenna height above the WGS84 ellipsoid',
+        units: 'm',
+        positive: 'up',
+        axis: 'Z',
+      },
       values: input.stations.map((s) => s.heightM),
     },
     {
@@ -131,7 +145,13 @@ export function writePwvNetcdf(input: PwvNetcdfInput): Uint8Array {
       attributes.cell_methods = q.key === 'pwv_sd' ? 'time: standard_deviation' : 'time: mean';
     }
     if (input.flags && q.key !== 'count') attributes.ancillary_variables = 'quality_flag';
-    variables.push({ name: q.key, type: q.key === 'count' ? 'int' : 'float', dimensions: ['station', 'time'], attributes, values: q.values });
+    variables.push({
+      name: q.key,
+      type: q.key === 'count' ? 'int' : 'float',
+      dimensions: ['station', 'time'],
+      attributes,
+      values: q.values,
+    });
   }
   if (input.flags) {
     variables.push({

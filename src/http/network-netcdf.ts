@@ -45,7 +45,10 @@ export function recordsNetcdf(results: readonly NetworkStationPwv[], ctx: Networ
   const nTime = times.length;
   const cells = results.length * nTime;
   const keys = ['pwv', 'pwv_sigma', 'ztd', 'ztd_sigma', 'air_pressure', 'air_temperature'] as const;
-  const columns = Object.fromEntries(keys.map((k) => [k, new Array<number | null>(cells).fill(null)])) as Record<(typeof keys)[number], (number | null)[]>;
+  const columns = Object.fromEntries(keys.map((k) => [k, new Array<number | null>(cells).fill(null)])) as Record<
+    (typeof keys)[number],
+    (number | null)[]
+  >;
   const flags: (number | null)[] = new Array(cells).fill(null);
   const flagIndex = new Map(PWV_QUALITY_FLAGS.map((q, i) => [q, i]));
   results.forEach((res, s) => {
@@ -72,12 +75,20 @@ export function recordsNetcdf(results: readonly NetworkStationPwv[], ctx: Networ
 }
 
 /** Interval means: pwv, pwv_sigma (σ of the mean), pwv_sd, count, ztd, ztd_sigma with time_bnds. */
-export function intervalsNetcdf(results: readonly NetworkStationPwv[], intervals: readonly IntervalMean[][], intervalS: number, ctx: NetworkNetcdfContext): Uint8Array {
+export function intervalsNetcdf(
+  results: readonly NetworkStationPwv[],
+  intervals: readonly IntervalMean[][],
+  intervalS: number,
+  ctx: NetworkNetcdfContext,
+): Uint8Array {
   const { times, index } = timeAxis(intervals.map((list) => list.map((m) => m.startMs)));
   const nTime = times.length;
   const cells = results.length * nTime;
   const keys = ['pwv', 'pwv_sigma', 'pwv_sd', 'count', 'ztd', 'ztd_sigma'] as const;
-  const columns = Object.fromEntries(keys.map((k) => [k, new Array<number | null>(cells).fill(null)])) as Record<(typeof keys)[number], (number | null)[]>;
+  const columns = Object.fromEntries(keys.map((k) => [k, new Array<number | null>(cells).fill(null)])) as Record<
+    (typeof keys)[number],
+    (number | null)[]
+  >;
   intervals.forEach((list, s) => {
     for (const m of list) {
       const at = s * nTime + index.get(m.startMs)!;
@@ -99,7 +110,7 @@ export function intervalsNetcdf(results: readonly NetworkStationPwv[], intervals
     globals: {
       ...globals(ctx, `means of the PWV records over [start, start + ${intervalS} s) aligned on 00:00 UTC`),
       averaging_method:
-        'arithmetic mean of the PWV records flagged ok, met-interpolated or delay-sigma-unknown; pwv_sigma = mean of the records\' sigma (errors taken as fully correlated within the interval); pwv_sd = sample standard deviation',
+        "arithmetic mean of the PWV records flagged ok, met-interpolated or delay-sigma-unknown; pwv_sigma = mean of the records' sigma (errors taken as fully correlated within the interval); pwv_sd = sample standard deviation",
     },
   });
 }

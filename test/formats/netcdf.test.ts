@@ -29,11 +29,18 @@ const PYTHON = ['/usr/bin/python3', 'python3'].find((python) => {
   }
 });
 const hasPythonNetcdf = PYTHON !== undefined;
-if (!hasPythonNetcdf) console.warn('netCDF read-back with python3-netcdf4/python3-xarray skipped: not installed (apt-get install python3-netcdf4 python3-xarray)');
+if (!hasPythonNetcdf)
+  console.warn(
+    'netCDF read-back with python3-netcdf4/python3-xarray skipped: not installed (apt-get install python3-netcdf4 python3-xarray)',
+  );
 
 describe('netCDF classic format specification: a file laid out by hand', () => {
   it('writes one int variable of one dimension exactly as the specification lays it out', () => {
-    const bytes = writeNetcdfClassic({ dimensions: [{ name: 'x', length: 2 }], attributes: {}, variables: [{ name: 'v', type: 'int', dimensions: ['x'], attributes: {}, values: [1, -2] }] });
+    const bytes = writeNetcdfClassic({
+      dimensions: [{ name: 'x', length: 2 }],
+      attributes: {},
+      variables: [{ name: 'v', type: 'int', dimensions: ['x'], attributes: {}, values: [1, -2] }],
+    });
     // prettier-ignore
     const expected = [
       0x43, 0x44, 0x46, 0x02,          // magic 'CDF', version 2 (64-bit offset)
@@ -55,7 +62,13 @@ describe('netCDF classic format specification: a file laid out by hand', () => {
   });
 
   it('refuses a value count that does not match the dimensions, and names outside the allowed pattern', () => {
-    expect(() => writeNetcdfClassic({ dimensions: [{ name: 'x', length: 3 }], attributes: {}, variables: [{ name: 'v', type: 'int', dimensions: ['x'], attributes: {}, values: [1, 2] }] })).toThrow(/2 values/);
+    expect(() =>
+      writeNetcdfClassic({
+        dimensions: [{ name: 'x', length: 3 }],
+        attributes: {},
+        variables: [{ name: 'v', type: 'int', dimensions: ['x'], attributes: {}, values: [1, 2] }],
+      }),
+    ).toThrow(/2 values/);
     expect(() => writeNetcdfClassic({ dimensions: [{ name: '1x', length: 1 }], attributes: {}, variables: [] })).toThrow(/not allowed/);
   });
 });
@@ -70,7 +83,13 @@ const GENERIC = writeNetcdfClassic({
   variables: [
     { name: 'b', type: 'byte', dimensions: ['row'], attributes: {}, values: [-1, 0, 127] },
     { name: 's', type: 'short', dimensions: ['row'], attributes: { units: 'm' }, values: [-300, 0, 300] },
-    { name: 'f', type: 'float', dimensions: ['row', 'col'], attributes: { _FillValue: { type: 'float', values: [NC_FILL.float] } }, values: [0.5, 1.25, null, -2, 3, 4] },
+    {
+      name: 'f',
+      type: 'float',
+      dimensions: ['row', 'col'],
+      attributes: { _FillValue: { type: 'float', values: [NC_FILL.float] } },
+      values: [0.5, 1.25, null, -2, 3, 4],
+    },
     { name: 'd', type: 'double', dimensions: ['row', 'col'], attributes: {}, values: [1e-9, 2.5, 3, 4, 5, 6.125] },
     { name: 'names', type: 'char', dimensions: ['row', 'len'], attributes: {}, values: ['ab', 'cdefg', 'h'] },
   ],
@@ -121,9 +140,19 @@ describe('CF-1.8 timeSeries file (CF Conventions 1.8 §9, Example H.2)', () => {
     const r = new NetCDFReader(CF_FILE);
     expect(r.getAttribute('Conventions')).toBe('CF-1.8');
     expect(r.getAttribute('featureType')).toBe('timeSeries');
-    const attrs = (name: string) => Object.fromEntries((r.variables.find((v) => v.name === name)!.attributes as unknown as { name: string; value: unknown }[]).map((a) => [a.name, a.value]));
+    const attrs = (name: string) =>
+      Object.fromEntries(
+        (r.variables.find((v) => v.name === name)!.attributes as unknown as { name: string; value: unknown }[]).map((a) => [
+          a.name,
+          a.value,
+        ]),
+      );
     expect(attrs('station_id').cf_role).toBe('timeseries_id');
-    expect(attrs('pwv')).toMatchObject({ standard_name: 'lwe_thickness_of_atmosphere_mass_content_of_water_vapor', units: 'mm', coordinates: 'lat lon height station_id' });
+    expect(attrs('pwv')).toMatchObject({
+      standard_name: 'lwe_thickness_of_atmosphere_mass_content_of_water_vapor',
+      units: 'mm',
+      coordinates: 'lat lon height station_id',
+    });
     expect(attrs('lat')).toMatchObject({ standard_name: 'latitude', units: 'degrees_north' });
     expect(attrs('lon')).toMatchObject({ standard_name: 'longitude', units: 'degrees_east' });
     expect(attrs('height')).toMatchObject({ standard_name: 'height_above_reference_ellipsoid', units: 'm' });

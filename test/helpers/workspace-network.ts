@@ -15,8 +15,18 @@ import { round1, truthSeries, type SyntheticStation } from '../../scripts/synthe
 
 /** Inland places (lat, lon) [deg]: each more than 50 km from any coast. */
 const INLAND: [number, number][] = [
-  [48.5, 9.0], [50.1, 8.0], [47.0, 2.0], [46.6, 11.4], [51.4, 10.5], [49.6, 17.8],
-  [52.0, 13.0], [44.3, 4.6], [48.0, 16.0], [50.4, 4.9], [47.4, 6.5], [45.6, 9.6],
+  [48.5, 9.0],
+  [50.1, 8.0],
+  [47.0, 2.0],
+  [46.6, 11.4],
+  [51.4, 10.5],
+  [49.6, 17.8],
+  [52.0, 13.0],
+  [44.3, 4.6],
+  [48.0, 16.0],
+  [50.4, 4.9],
+  [47.4, 6.5],
+  [45.6, 9.6],
 ];
 const SYLLABLES = ['bra', 'cen', 'dor', 'fal', 'gry', 'hol', 'isk', 'kel', 'lum', 'mor', 'nev', 'pel', 'quo', 'rist', 'sal', 'tov'];
 
@@ -54,7 +64,14 @@ export async function seedWorkspaceNetwork(repo: Repository, options: SeedOption
   const count = Math.round((options.days * 86_400_000) / stepMs);
   const modelSet = { modelFingerprint: WORKSPACE_MODELS.model_fingerprint, models: WORKSPACE_MODELS.models };
   for (const [i, s] of stations.entries()) {
-    await repo.putStation(s.stationId, { name: s.name, latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, heightM: s.heightM, metHeightM: null, description: s.description });
+    await repo.putStation(s.stationId, {
+      name: s.name,
+      latitudeDeg: s.latitudeDeg,
+      longitudeDeg: s.longitudeDeg,
+      heightM: s.heightM,
+      metHeightM: null,
+      description: s.description,
+    });
     if (i === stations.length - 1 && stations.length > 3) continue;
     const truth = truthSeries(s, options.startMs, count, stepMs, i + 1);
     const met: MetRow[] = [];
@@ -62,7 +79,15 @@ export async function seedWorkspaceNetwork(repo: Repository, options: SeedOption
       if (r.epochMs % 3_600_000 !== 0) continue;
       const hour = (r.epochMs - options.startMs) / 3_600_000;
       if (i === 3 && hour >= 6 && hour < 14) continue;
-      met.push({ epochMs: r.epochMs, source: 'met-sensor', pressureHpa: round1(r.pressureHpa), temperatureC: round1(r.temperatureC), relativeHumidityPct: round1(r.relativeHumidityPct), dewpointC: null, vapourPressureHpa: null });
+      met.push({
+        epochMs: r.epochMs,
+        source: 'met-sensor',
+        pressureHpa: round1(r.pressureHpa),
+        temperatureC: round1(r.temperatureC),
+        relativeHumidityPct: round1(r.relativeHumidityPct),
+        dewpointC: null,
+        vapourPressureHpa: null,
+      });
     }
     await repo.writeMet(s.stationId, met);
     const delays: DelayRow[] = truth.map((r, k) => ({

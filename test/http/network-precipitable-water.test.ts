@@ -4,7 +4,8 @@
  *
  *   ZHD = 0.0022768 P / (1 − 0.00266 cos 2φ − 0.28e-6 H)  [m]   IERS Conventions (2010) eq. 9.11 (from memory)
  *   Tm  = 70.2 + 0.72 Ts  [K]                               Bevis et al. (1992) (from memory)
- *   Π   = 10^6 / (ρw Rv (k3/Tm + k2'))                       Bevis et al. (1994); ρw 1000, Rv 461.5, k3 3739 K²/Pa, k2' 0.221 K/Pa (from memory)
+ *   Π   = 10^6 / (ρw Rv (k3/Tm + k2'))                       Bevis et al. (1994);
+ *                                                            ρw 1000, Rv 461.5, k3 3739 K²/Pa, k2' 0.221 K/Pa (from memory)
  *   PWV = Π (ZTD − ZHD);  σ_PWV² = (Π σ_ZTD)² + (ZWD ∂Π/∂Tm · 4.74 K)²   (Bevis 1992 Tm scatter, from memory)
  *   met between hourly records: linear in time (common practice)
  * and against the documented rules of the route: source preference, interval means (arithmetic mean,
@@ -87,21 +88,37 @@ for (const backend of BACKENDS) {
 
     it('seeds five invented stations', async () => {
       for (const s of STATIONS) {
-        await api().put(`/v1/stations/${s.id}`).set('authorization', auth).send({ name: s.name, latitude_deg: s.lat, longitude_deg: s.lon, height_m: s.h }).expect(201);
-        const met = [0, 1, 2, 3, 4].map((hour) => ({ epoch: iso(T0 + hour * H), pressure_hpa: metAt(s, hour).p, temperature_c: metAt(s, hour).t }));
+        await api()
+          .put(`/v1/stations/${s.id}`)
+          .set('authorization', auth)
+          .send({ name: s.name, latitude_deg: s.lat, longitude_deg: s.lon, height_m: s.h })
+          .expect(201);
+        const met = [0, 1, 2, 3, 4].map((hour) => ({
+          epoch: iso(T0 + hour * H),
+          pressure_hpa: metAt(s, hour).p,
+          temperature_c: metAt(s, hour).t,
+        }));
         await api().post(`/v1/stations/${s.id}/met`).set('authorization', auth).send({ records: met }).expect(200);
         if (s.id === 'NWE') continue;
         await api()
           .post(`/v1/stations/${s.id}/delays`)
           .set('authorization', auth)
-          .send({ source: MAIN, records: mainDelays(s).filter((d) => !(s.id === 'NWB' && d.t === T0 + H)).map((d) => ({ epoch: iso(d.t), ztd_m: d.ztd, ztd_sigma_m: d.sigma })) })
+          .send({
+            source: MAIN,
+            records: mainDelays(s)
+              .filter((d) => !(s.id === 'NWB' && d.t === T0 + H))
+              .map((d) => ({ epoch: iso(d.t), ztd_m: d.ztd, ztd_sigma_m: d.sigma })),
+          })
           .expect(200);
       }
       // A second source at NWA (12:00..12:30, 4 rows, ZTD 5 cm higher) and NWB (11:00 only: fills the gap of the main source).
       await api()
         .post('/v1/stations/NWA/delays')
         .set('authorization', auth)
-        .send({ source: SPARE, records: [0, 1, 2, 3].map((k) => ({ epoch: iso(T0 + 2 * H + k * 10 * MIN), ztd_m: 2.35 + 0.001 * k, ztd_sigma_m: 0.005 })) })
+        .send({
+          source: SPARE,
+          records: [0, 1, 2, 3].map((k) => ({ epoch: iso(T0 + 2 * H + k * 10 * MIN), ztd_m: 2.35 + 0.001 * k, ztd_sigma_m: 0.005 })),
+        })
         .expect(200);
       await api()
         .post('/v1/stations/NWB/delays')
@@ -135,7 +152,10 @@ for (const backend of BACKENDS) {
 
       it('agrees with the one-station route record by record', async () => {
         const net = await get({ stations: 'NWC', from: iso(T0), to: iso(T0 + 4 * H) }).expect(200);
-        const one = await api().get('/v1/stations/NWC/precipitable-water').query({ from: iso(T0), to: iso(T0 + 4 * H) }).expect(200);
+        const one = await api()
+          .get('/v1/stations/NWC/precipitable-water')
+          .query({ from: iso(T0), to: iso(T0 + 4 * H) })
+          .expect(200);
         expect(net.body.records).toHaveLength(one.body.records.length);
         net.body.records.forEach((r: Record<string, unknown>, i: number) => {
           const o = one.body.records[i];
@@ -150,7 +170,9 @@ for (const backend of BACKENDS) {
         const keys = res.body.records.map((r: { station_id: string; epoch: string }) => `${r.station_id} ${r.epoch}`);
         expect(new Set(keys).size).toBe(keys.length);
         expect(res.body.records.filter((r: { station_id: string }) => r.station_id === 'NWA')).toHaveLength(24);
-        expect(res.body.records.filter((r: { source: string; station_id: string }) => r.station_id === 'NWA' && r.source === SPARE)).toHaveLength(0);
+        expect(
+          res.body.records.filter((r: { source: string; station_id: string }) => r.station_id === 'NWA' && r.source === SPARE),
+        ).toHaveLength(0);
         // NWB: the main source lacks 11:00, the spare fills it
         const nwb = res.body.records.filter((r: { station_id: string }) => r.station_id === 'NWB');
         expect(nwb).toHaveLength(24);
@@ -256,13 +278,29 @@ for (const backend of BACKENDS) {
         const rows = parse(res.text, { columns: true }) as Record<string, string>[];
         expect(rows).toHaveLength(4);
         expect(Object.keys(rows[0]!).slice(0, 5)).toEqual(['station_id', 'latitude_deg', 'longitude_deg', 'height_m', 'epoch']);
-        expect(rows[1]).toMatchObject({ station_id: 'NWB', latitude_deg: '48.000000', longitude_deg: '11.000000', height_m: '520.000', quality: 'ok' });
+        expect(rows[1]).toMatchObject({
+          station_id: 'NWB',
+          latitude_deg: '48.000000',
+          longitude_deg: '11.000000',
+          height_m: '520.000',
+          quality: 'ok',
+        });
         const json = await get({ epoch: iso(T0 + 2 * H) }).expect(200);
         expect(rows.map((r) => Number(r.pwv_mm))).toEqual(json.body.records.map((r: { pwv_mm: number }) => r.pwv_mm));
         // One precision per quantity: every cell of a column has the same number of decimals.
         const decimals = (cell: string) => cell.split('.')[1]?.length ?? 0;
-        for (const [column, places] of Object.entries({ ztd_m: 6, ztd_sigma_m: 6, pressure_hpa: 4, temperature_c: 4, pwv_mm: 4, pwv_sigma_mm: 4 })) {
-          expect(rows.map((r) => decimals(r[column]!)), column).toEqual(rows.map(() => places));
+        for (const [column, places] of Object.entries({
+          ztd_m: 6,
+          ztd_sigma_m: 6,
+          pressure_hpa: 4,
+          temperature_c: 4,
+          pwv_mm: 4,
+          pwv_sigma_mm: 4,
+        })) {
+          expect(
+            rows.map((r) => decimals(r[column]!)),
+            column,
+          ).toEqual(rows.map(() => places));
         }
       });
 
@@ -270,7 +308,14 @@ for (const backend of BACKENDS) {
         const res = await get({ stations: 'NWC', epoch: iso(T0 + H), interval: 'PT1H', format: 'csv' }).expect(200);
         const rows = parse(res.text, { columns: true }) as Record<string, string>[];
         expect(rows).toHaveLength(1);
-        expect(rows[0]).toMatchObject({ count: '5', excluded_count: '1', count_delay_sigma_large: '1', count_ok: '1', count_met_interpolated: '4', sources: MAIN });
+        expect(rows[0]).toMatchObject({
+          count: '5',
+          excluded_count: '1',
+          count_delay_sigma_large: '1',
+          count_ok: '1',
+          count_met_interpolated: '4',
+          sources: MAIN,
+        });
         expect(rows[0]!.pwv_mm).toMatch(/^-?\d+\.\d{4}$/); // (this invented station's ZTD gives negative PWV: written as computed)
         expect(rows[0]!.ztd_m).toMatch(/^\d\.\d{6}$/);
       });
@@ -284,12 +329,19 @@ for (const backend of BACKENDS) {
       };
       it('records: the same PWV as the JSON answer (float32), stations × common epochs, flags', async () => {
         const query = { stations: 'NWA,NWB', from: iso(T0), to: iso(T0 + H - 1) };
-        const res = await get({ ...query, format: 'netcdf' }).buffer(true).parse(binary as never).expect(200);
+        const res = await get({ ...query, format: 'netcdf' })
+          .buffer(true)
+          .parse(binary as never)
+          .expect(200);
         expect(res.headers['content-type']).toBe('application/x-netcdf');
         expect(res.headers['content-disposition']).toBe('attachment; filename="network-pwv-20260710T1000.nc"');
         const nc = new NetCDFReader(res.body as Buffer);
         expect(nc.getAttribute('featureType')).toBe('timeSeries');
-        expect(nc.dimensions.map((d) => [d.name, d.size])).toEqual([['station', 2], ['time', 6], ['id_strlen', 3]]);
+        expect(nc.dimensions.map((d) => [d.name, d.size])).toEqual([
+          ['station', 2],
+          ['time', 6],
+          ['id_strlen', 3],
+        ]);
         const json = await get(query).expect(200);
         const pwv = nc.getDataVariable('pwv') as number[];
         const times = nc.getDataVariable('time') as number[];
@@ -300,11 +352,19 @@ for (const backend of BACKENDS) {
       });
 
       it('interval means: time_bnds and cell_methods; refused with source=all', async () => {
-        const res = await get({ stations: 'NWC', from: '2026-07-10', to: '2026-07-10', interval: 'PT1H', format: 'netcdf' }).buffer(true).parse(binary as never).expect(200);
+        const res = await get({ stations: 'NWC', from: '2026-07-10', to: '2026-07-10', interval: 'PT1H', format: 'netcdf' })
+          .buffer(true)
+          .parse(binary as never)
+          .expect(200);
         const nc = new NetCDFReader(res.body as Buffer);
         const t = T0 / 1000;
         expect(nc.getDataVariable('time_bnds')).toEqual([t, t + 3600, t + 3600, t + 7200, t + 7200, t + 10800, t + 10800, t + 14400]);
-        const pwvAttrs = Object.fromEntries((nc.variables.find((v) => v.name === 'pwv')!.attributes as unknown as { name: string; value: unknown }[]).map((a) => [a.name, a.value]));
+        const pwvAttrs = Object.fromEntries(
+          (nc.variables.find((v) => v.name === 'pwv')!.attributes as unknown as { name: string; value: unknown }[]).map((a) => [
+            a.name,
+            a.value,
+          ]),
+        );
         expect(pwvAttrs.cell_methods).toBe('time: mean');
         expect(nc.getDataVariable('count')).toEqual([6, 5, 6, 6]);
         const bad = await get({ stations: 'NWC', epoch: iso(T0), format: 'netcdf', source: 'all' }).expect(400);

@@ -16,8 +16,17 @@ const models = provenance({ test: 'network reads' });
 const modelSet = { modelFingerprint: models.model_fingerprint, models: models.models };
 
 const delay = (epochMs: number, source: string, ztdM: number): DelayRow => ({
-  epochMs, source, ztdM, ztdSigmaM: 0.004, zwdM: null, zwdSigmaM: null, northGradientM: null, eastGradientM: null,
-  northGradientSigmaM: null, eastGradientSigmaM: null, modelFingerprint: models.model_fingerprint,
+  epochMs,
+  source,
+  ztdM,
+  ztdSigmaM: 0.004,
+  zwdM: null,
+  zwdSigmaM: null,
+  northGradientM: null,
+  eastGradientM: null,
+  northGradientSigmaM: null,
+  eastGradientSigmaM: null,
+  modelFingerprint: models.model_fingerprint,
 });
 
 for (const backend of BACKENDS) {
@@ -35,7 +44,18 @@ for (const backend of BACKENDS) {
         const rows = Array.from({ length: 30 }, (_, k) => delay(T0 + k * 5 * MIN, 'a', 2.3 + 0.001 * k + i));
         rows.push(delay(T0 + 10 * MIN, 'b', 2.5), delay(T0 + 20 * MIN, 'b', 2.5));
         await repo.writeDelays(id, rows, modelSet);
-        await repo.writeMet(id, [0, 1, 2].map((h) => ({ epochMs: T0 + h * 3_600_000, source: 'm', pressureHpa: 1000 + h, temperatureC: 10 + i, relativeHumidityPct: null, dewpointC: null, vapourPressureHpa: null })));
+        await repo.writeMet(
+          id,
+          [0, 1, 2].map((h) => ({
+            epochMs: T0 + h * 3_600_000,
+            source: 'm',
+            pressureHpa: 1000 + h,
+            temperatureC: 10 + i,
+            relativeHumidityPct: null,
+            dewpointC: null,
+            vapourPressureHpa: null,
+          })),
+        );
       }
     });
     afterAll(async () => {

@@ -59,7 +59,9 @@ describe.skipIf(skipReason !== null)('workspace page in chromium', () => {
     await buildWeb();
     const fresh = await sqliteBackend.fresh();
     cleanup = fresh.cleanup;
-    app = await buildApp({ archive: { storage: fresh.config, apiKeys: [TEST_KEY], keyDir: fresh.config.dataDir, readKeysRequired: false, maxReadRangeDays: 366 } });
+    app = await buildApp({
+      archive: { storage: fresh.config, apiKeys: [TEST_KEY], keyDir: fresh.config.dataDir, readKeysRequired: false, maxReadRangeDays: 366 },
+    });
     await seedWorkspaceNetwork(app.repository, { stations: STATIONS, days: 2, stepMin: 5, startMs: START_MS });
     await app.listen({ port: 0, host: '127.0.0.1' });
     origin = `http://127.0.0.1:${(app.server.address() as AddressInfo).port}`;
@@ -91,7 +93,9 @@ describe.skipIf(skipReason !== null)('workspace page in chromium', () => {
     return new Map(body.intervals.map((m) => [m.station_id, m.pwv_mm]));
   };
   const mapState = () =>
-    page.$$eval('#map circle.station', (cs) => cs.map((c) => ({ id: c.getAttribute('data-station'), fill: c.getAttribute('fill'), pwv: c.getAttribute('data-pwv-mm') })));
+    page.$$eval('#map circle.station', (cs) =>
+      cs.map((c) => ({ id: c.getAttribute('data-station'), fill: c.getAttribute('fill'), pwv: c.getAttribute('data-pwv-mm') })),
+    );
 
   it('shows every station on the map, coloured by the hourly mean PWV of the API (viridis, 0–60 mm)', async () => {
     const circles = await mapState();
@@ -143,7 +147,11 @@ describe.skipIf(skipReason !== null)('workspace page in chromium', () => {
     await page.click('#station-table tbody button[aria-label="Show the series of WS0002"]');
     await page.waitForSelector('body[data-station="WS0002"]');
     await page.click('.spans button[data-days="7"]');
-    await page.waitForFunction(() => document.querySelector('#station-status')?.textContent?.includes('WS0002') && !document.querySelector('#station-status')?.textContent?.includes('Loading'));
+    await page.waitForFunction(
+      () =>
+        document.querySelector('#station-status')?.textContent?.includes('WS0002') &&
+        !document.querySelector('#station-status')?.textContent?.includes('Loading'),
+    );
     // Pixels on the PWV canvas (transparent where nothing is drawn): the band rgba(35,57,91,0.18) and the flag colour #b5179e.
     const pixels = await page.$eval('#pwv-chart canvas', (canvas) => {
       const ctx = (canvas as HTMLCanvasElement).getContext('2d')!;
@@ -204,10 +212,12 @@ describe.skipIf(skipReason !== null)('workspace page in chromium', () => {
 
   it('reaches every control with the keyboard alone', async () => {
     const controls = await page.$$eval('button, select, input, a[href], [tabindex]:not([tabindex="-1"])', (els) =>
-      els.filter((e) => !(e as HTMLElement).hidden && (e as HTMLElement).offsetParent !== null).map((e, i) => {
-        e.setAttribute('data-control', String(i));
-        return String(i);
-      }),
+      els
+        .filter((e) => !(e as HTMLElement).hidden && (e as HTMLElement).offsetParent !== null)
+        .map((e, i) => {
+          e.setAttribute('data-control', String(i));
+          return String(i);
+        }),
     );
     await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
     await page.mouse.click(5, 5);

@@ -117,7 +117,11 @@ function definitionList(dl: HTMLElement, items: [string, string][]): void {
 function coverage(records: PwvRecord[]): [string, string][] {
   if (records.length === 0) return [['records', 'none in this span']];
   const t = records.map((r) => Date.parse(r.epoch));
-  const steps = t.slice(1).map((x, i) => x - t[i]!).filter((d) => d > 0).sort((a, b) => a - b);
+  const steps = t
+    .slice(1)
+    .map((x, i) => x - t[i]!)
+    .filter((d) => d > 0)
+    .sort((a, b) => a - b);
   const typical = steps.length ? steps[Math.floor(steps.length / 2)]! : 0;
   const limit = Math.max(3 * typical, 15 * 60_000);
   const gaps: [number, number][] = [];
@@ -187,7 +191,11 @@ async function start(): Promise<void> {
   const newest = latest.intervals.reduce((m, x) => Math.max(m, Date.parse(x.epoch)), Number.NEGATIVE_INFINITY);
   setHour(Number.isFinite(newest) ? newest : Date.now());
   for (const s of latest.stations) stationSelect.append(new Option(`${s.station_id} ${s.name}`, s.station_id));
-  state.map = await drawMap($('map') as unknown as SVGSVGElement, latest.stations, (id) => void pickStation(id).catch((e) => report(e, stationStatus)));
+  state.map = await drawMap(
+    $('map') as unknown as SVGSVGElement,
+    latest.stations,
+    (id) => void pickStation(id).catch((e) => report(e, stationStatus)),
+  );
   $('map-caption').textContent = `${latest.stations.length} stations coloured by hourly mean PWV (grey ring: no value that hour)`;
   await loadHour();
   await new Promise<void>((resolve) => requestAnimationFrame(() => resolve()));

@@ -102,7 +102,15 @@ export function drawLegend(svg: SVGSVGElement, scale: ColourScale): void {
   const steps = 60;
   for (let i = 0; i < steps; i++) {
     const v = scale.minMm + ((i + 0.5) / steps) * (scale.maxMm - scale.minMm);
-    svg.append(el('rect', { x: (x0 + (i * barW) / steps).toFixed(2), y: 4, width: (barW / steps + 0.5).toFixed(2), height: 14, fill: colourOf(v, scale) }));
+    svg.append(
+      el('rect', {
+        x: (x0 + (i * barW) / steps).toFixed(2),
+        y: 4,
+        width: (barW / steps + 0.5).toFixed(2),
+        height: 14,
+        fill: colourOf(v, scale),
+      }),
+    );
   }
   const span = scale.maxMm - scale.minMm;
   const step = span > 30 ? 10 : 5;

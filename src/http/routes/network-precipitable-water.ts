@@ -51,9 +51,11 @@ function timeMode(q: Query): 'epoch' | 'range' | 'since' | 'latest' {
     q.latest === true && 'latest',
   ].filter((x): x is 'epoch' | 'range' | 'since' | 'latest' => x !== false);
   if (given.length !== 1) {
-    throw new HttpProblem(400, `give exactly one of: epoch, from (with optional to), since, latest=true (got ${given.length === 0 ? 'none' : given.join(' and ')})`, [
-      { field: 'query.epoch', message: 'exactly one of epoch, from/to, since, latest=true' },
-    ]);
+    throw new HttpProblem(
+      400,
+      `give exactly one of: epoch, from (with optional to), since, latest=true (got ${given.length === 0 ? 'none' : given.join(' and ')})`,
+      [{ field: 'query.epoch', message: 'exactly one of epoch, from/to, since, latest=true' }],
+    );
   }
   if (given[0] === 'range' && q.from === undefined) {
     throw new HttpProblem(400, 'query.to needs query.from', [{ field: 'query.from', message: 'required with query.to' }]);
@@ -96,7 +98,13 @@ const intervalJson = (stationId: string, m: IntervalMean, intervalMs: number) =>
 function stationIntervals(result: NetworkStationPwv, intervalMs: number, perSource: boolean): IntervalMean[] {
   if (!perSource) return intervalMeans(result.records, intervalMs);
   const out: IntervalMean[] = [];
-  for (const source of [...result.sources].sort()) out.push(...intervalMeans(result.records.filter((r) => r.source === source), intervalMs));
+  for (const source of [...result.sources].sort())
+    out.push(
+      ...intervalMeans(
+        result.records.filter((r) => r.source === source),
+        intervalMs,
+      ),
+    );
   return out.sort((a, b) => a.startMs - b.startMs);
 }
 
@@ -108,10 +116,10 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       schema: {
         summary: 'PWV and ZTD of many stations in one call (at an epoch, over a range, since an epoch, latest; records or interval means)',
         description: [
-          'Stations: all, a list (`stations`), or those inside `bbox`. Time: exactly one of `epoch`, `from`/`to`, `since` (exclusive; up to each station\'s latest delay epoch), `latest=true` (each station\'s latest delay epoch). Dates alone are whole UTC days.',
+          "Stations: all, a list (`stations`), or those inside `bbox`. Time: exactly one of `epoch`, `from`/`to`, `since` (exclusive; up to each station's latest delay epoch), `latest=true` (each station's latest delay epoch). Dates alone are whole UTC days.",
           'PWV per record as GET /v1/stations/{station_id}/precipitable-water computes it: met interpolated in time (not across gaps longer than max_met_gap_s) and reduced to the antenna height; ZHD (Saastamoinen/Davis 1985), ZWD = ZTD − ZHD, Tm (Bevis et al. 1992), PWV = Π(Tm)·ZWD (Bevis et al. 1994).',
           'Quality flags, most severe first: met-missing (no PWV), delay-sigma-large (ztd_sigma_m > max_ztd_sigma_m), delay-sigma-unknown (no pwv_sigma_mm), met-interpolated, ok.',
-          'Sources: by default one value per station and epoch, from the best-ranked source present at that epoch; a station\'s sources are ranked by their number of delay rows over the whole UTC day(s) of the range (most first, ties by name) and listed in that order in `stations[].sources`. `source=all` gives every row; `source=<name>` one source.',
+          "Sources: by default one value per station and epoch, from the best-ranked source present at that epoch; a station's sources are ranked by their number of delay rows over the whole UTC day(s) of the range (most first, ties by name) and listed in that order in `stations[].sources`. `source=all` gives every row; `source=<name>` one source.",
           'Aggregation (`interval`, e.g. PT1H): means over [start, start + interval) aligned on 00:00 UTC; see the interval parameter and the intervals[] fields for the method of σ.',
           `Limit: the stations' ranges add up to at most ${maxStationDays} station-days per request (e.g. 1000 stations × ${((maxStationDays / 1000) * 24).toFixed(1)} h). format=csv answers text/csv (an attachment) with the station coordinates on every row; format=netcdf a CF-1.8 timeSeries netCDF file.`,
         ].join('\n'),
@@ -130,16 +138,22 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         const byId = new Map(stations.map((s) => [s.stationId, s]));
         const unknown = q.stations.filter((id) => !byId.has(id));
         if (unknown.length > 0) {
-          throw new HttpProblem(404, `no station ${unknown.slice(0, 10).map((id) => `"${id}"`).join(', ')}${unknown.length > 10 ? ` and ${unknown.length - 10} more` : ''}; GET /v1/stations lists them`, [
-            { field: 'query.stations', message: `unknown station id(s): ${unknown.slice(0, 10).join(', ')}` },
-          ]);
+          throw new HttpProblem(
+            404,
+            `no station ${unknown
+              .slice(0, 10)
+              .map((id) => `"${id}"`)
+              .join(', ')}${unknown.length > 10 ? ` and ${unknown.length - 10} more` : ''}; GET /v1/stations lists them`,
+            [{ field: 'query.stations', message: `unknown station id(s): ${unknown.slice(0, 10).join(', ')}` }],
+          );
         }
         stations = q.stations.map((id) => byId.get(id)!);
       }
       if (q.bbox !== undefined) stations = stations.filter((s) => insideBox(s, q.bbox!));
 
       /** [start, end] of the interval that holds t (or [t, t] without interval). */
-      const around = (t: number): [number, number] => (intervalMs === null ? [t, t] : [Math.floor(t / intervalMs) * intervalMs, Math.floor(t / intervalMs) * intervalMs + intervalMs - 1]);
+      const around = (t: number): [number, number] =>
+        intervalMs === null ? [t, t] : [Math.floor(t / intervalMs) * intervalMs, Math.floor(t / intervalMs) * intervalMs + intervalMs - 1];
       const ranges: StationRange[] = [];
       if (mode === 'epoch') {
         const [fromMs, toMs] = around(rangeStartMs(q.epoch!));
@@ -149,15 +163,23 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         let toMs: number;
         if (q.to !== undefined) toMs = rangeEndMs(q.to);
         else {
-          const latestByStation = await app.repository.latestEpochsMs(stations.map((s) => s.stationId), 'delays');
+          const latestByStation = await app.repository.latestEpochsMs(
+            stations.map((s) => s.stationId),
+            'delays',
+          );
           toMs = Math.max(fromMs, ...latestByStation.values());
         }
         if (fromMs > toMs) {
-          throw new HttpProblem(400, `query.from (${q.from}) must not be after query.to (${q.to})`, [{ field: 'query.from', message: 'must be at or before query.to' }]);
+          throw new HttpProblem(400, `query.from (${q.from}) must not be after query.to (${q.to})`, [
+            { field: 'query.from', message: 'must be at or before query.to' },
+          ]);
         }
         for (const s of stations) ranges.push({ stationId: s.stationId, fromMs, toMs });
       } else {
-        const latestByStation = await app.repository.latestEpochsMs(stations.map((s) => s.stationId), 'delays');
+        const latestByStation = await app.repository.latestEpochsMs(
+          stations.map((s) => s.stationId),
+          'delays',
+        );
         const sinceMs = mode === 'since' ? rangeEndMs(q.since!) + 1 : null;
         for (const s of stations) {
           const latestMs = latestByStation.get(s.stationId);
@@ -173,11 +195,17 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         throw new HttpProblem(
           400,
           `the request spans ${stationDays.toFixed(1)} station-days (${ranges.length} stations); one request reads at most ${maxStationDays} station-days: narrow the range or the stations (bbox, stations)`,
-          [{ field: mode === 'since' ? 'query.since' : 'query.to', message: `the stations' ranges must add up to at most ${maxStationDays} days` }],
+          [
+            {
+              field: mode === 'since' ? 'query.since' : 'query.to',
+              message: `the stations' ranges must add up to at most ${maxStationDays} days`,
+            },
+          ],
         );
       }
 
-      const choice: SourceChoice = q.source === undefined ? { kind: 'preferred' } : q.source === 'all' ? { kind: 'all' } : { kind: 'one', source: q.source };
+      const choice: SourceChoice =
+        q.source === undefined ? { kind: 'preferred' } : q.source === 'all' ? { kind: 'all' } : { kind: 'one', source: q.source };
       const maxMetGapMs = q.max_met_gap_s * 1000;
       const delaysByStation = await app.repository.readZenithDelaysMany(ranges, choice.kind === 'one' ? choice.source : undefined);
       const metRanges: StationRange[] = [];
@@ -191,7 +219,11 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         for (const r of ranges) {
           const rows = delaysByStation.get(r.stationId);
           if (rows && rows.some((d) => d.source !== rows[0]!.source)) {
-            rankRanges.push({ stationId: r.stationId, fromMs: Math.floor(r.fromMs / DAY_MS) * DAY_MS, toMs: Math.floor(r.toMs / DAY_MS) * DAY_MS + DAY_MS - 1 });
+            rankRanges.push({
+              stationId: r.stationId,
+              fromMs: Math.floor(r.fromMs / DAY_MS) * DAY_MS,
+              toMs: Math.floor(r.toMs / DAY_MS) * DAY_MS + DAY_MS - 1,
+            });
           }
         }
       }
@@ -203,17 +235,25 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       // Every selected station appears in `stations`, also those with nothing in their range (or no series at all).
       for (const s of stations) {
         const rows = delaysByStation.get(s.stationId) ?? [];
-        const result = networkStationPwv(s, rows, metByStation.get(s.stationId) ?? [], choice, {
-          maxMetGapMs,
-          maxZtdSigmaM: q.max_ztd_sigma_m,
-        }, sourceCounts.get(s.stationId));
+        const result = networkStationPwv(
+          s,
+          rows,
+          metByStation.get(s.stationId) ?? [],
+          choice,
+          {
+            maxMetGapMs,
+            maxZtdSigmaM: q.max_ztd_sigma_m,
+          },
+          sourceCounts.get(s.stationId),
+        );
         results.push(result);
         for (const d of result.delays) usedDelays.push(d);
         warnings.push(...result.warnings);
       }
       const fingerprints = [...new Set(usedDelays.map((d) => d.modelFingerprint))];
       const summary = summariseModelSets(usedDelays, await app.repository.readModelSets(fingerprints));
-      const intervalsByStation = intervalMs === null ? null : results.map((res) => stationIntervals(res, intervalMs, choice.kind === 'all'));
+      const intervalsByStation =
+        intervalMs === null ? null : results.map((res) => stationIntervals(res, intervalMs, choice.kind === 'all'));
 
       const fromMs = ranges.length ? Math.min(...ranges.map((r) => r.fromMs)) : mode === 'epoch' ? rangeStartMs(q.epoch!) : Date.now();
       const toMs = ranges.length ? Math.max(...ranges.map((r) => r.toMs)) : fromMs;
@@ -221,17 +261,31 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
 
       if (q.format === 'netcdf') {
         if (choice.kind === 'all') {
-          throw new HttpProblem(400, 'format=netcdf holds one value per station and epoch: use the default source preference or one source', [
-            { field: 'query.format', message: 'netcdf is not available with source=all' },
-          ]);
+          throw new HttpProblem(
+            400,
+            'format=netcdf holds one value per station and epoch: use the default source preference or one source',
+            [{ field: 'query.format', message: 'netcdf is not available with source=all' }],
+          );
         }
-        const hasData = intervalsByStation === null ? results.some((r) => r.records.length > 0) : intervalsByStation.some((l) => l.length > 0);
-        if (!hasData) throw new HttpProblem(404, 'no records in the range for the selected stations: nothing to write as netCDF', [{ field: 'query.format', message: 'no data to write' }]);
-        const ctx = { requestUrl: request.url, modelFingerprints: fingerprints, retrievalFingerprint: retrievalProvenance(maxMetGapMs).model_fingerprint };
-        const bytes = intervalsByStation === null ? recordsNetcdf(results, ctx) : intervalsNetcdf(results, intervalsByStation, intervalMs! / 1000, ctx);
+        const hasData =
+          intervalsByStation === null ? results.some((r) => r.records.length > 0) : intervalsByStation.some((l) => l.length > 0);
+        if (!hasData)
+          throw new HttpProblem(404, 'no records in the range for the selected stations: nothing to write as netCDF', [
+            { field: 'query.format', message: 'no data to write' },
+          ]);
+        const ctx = {
+          requestUrl: request.url,
+          modelFingerprints: fingerprints,
+          retrievalFingerprint: retrievalProvenance(maxMetGapMs).model_fingerprint,
+        };
+        const bytes =
+          intervalsByStation === null ? recordsNetcdf(results, ctx) : intervalsNetcdf(results, intervalsByStation, intervalMs! / 1000, ctx);
         const stamp = isoEpoch(fromMs).slice(0, 16).replace(/[-:]/g, '');
         reply
-          .header('content-disposition', `attachment; filename="network-pwv-${stamp}${intervalMs === null ? '' : `-${intervalMs / 1000}s`}.nc"`)
+          .header(
+            'content-disposition',
+            `attachment; filename="network-pwv-${stamp}${intervalMs === null ? '' : `-${intervalMs / 1000}s`}.nc"`,
+          )
           .header('x-homogeneous', String(summary.homogeneous))
           .type('application/x-netcdf');
         // A binary body: sent past the JSON response schema (which describes format=json).
@@ -300,7 +354,10 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
           };
         }),
         records: intervalsByStation === null ? results.flatMap((res) => res.records.map((r) => recordJson(res.station.stationId, r))) : [],
-        intervals: intervalsByStation === null ? [] : results.flatMap((res, k) => intervalsByStation[k]!.map((m) => intervalJson(res.station.stationId, m, intervalMs!))),
+        intervals:
+          intervalsByStation === null
+            ? []
+            : results.flatMap((res, k) => intervalsByStation[k]!.map((m) => intervalJson(res.station.stationId, m, intervalMs!))),
         homogeneous: summary.homogeneous,
         model_sets: summary.model_sets,
         warnings: [...summary.warnings, ...warnings],

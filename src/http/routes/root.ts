@@ -56,7 +56,11 @@ const rootRoute: FastifyPluginAsync<RootRouteOptions> = async (app, options) => 
 
   app.get('/', { schema: { hide: true } }, async (_request, reply) => {
     const body = await file('index.html');
-    return reply.header('content-security-policy', PAGE_CSP).header('cache-control', 'no-cache').type('text/html; charset=utf-8').send(body);
+    return reply
+      .header('content-security-policy', PAGE_CSP)
+      .header('cache-control', 'no-cache')
+      .type('text/html; charset=utf-8')
+      .send(body);
   });
 
   app.get<{ Params: { name: string } }>('/assets/:name', { schema: { hide: true } }, async (request, reply) => {

@@ -28,7 +28,8 @@ const networkFormat = z
   );
 
 const STATIONS_MESSAGE = `must be a comma-separated list of 1..${NETWORK_MAX_STATIONS} station ids (letters, digits, "-", "_")`;
-const BBOX_MESSAGE = 'must be west,south,east,north in degrees: longitudes in [-180, 180], latitudes in [-90, 90], south <= north (west > east crosses 180°)';
+const BBOX_MESSAGE =
+  'must be west,south,east,north in degrees: longitudes in [-180, 180], latitudes in [-90, 90], south <= north (west > east crosses 180°)';
 const INTERVAL_MESSAGE = `must be an ISO 8601 duration of hours, minutes or seconds (PT1H, PT30M, PT600S) or P1D, from ${INTERVAL_MIN_S} s to 1 day and dividing one day`;
 const SOURCE_MESSAGE = 'must be "all" or a source name (1-64 characters of letters, digits and . _ : @ / -)';
 
@@ -56,7 +57,14 @@ const bbox = z
   .transform((s, ctx): BoundingBox => {
     const v = s.split(',').map((x) => (x.trim() === '' ? Number.NaN : Number(x)));
     const [w, so, e, n] = v as [number, number, number, number];
-    const ok = v.length === 4 && v.every(Number.isFinite) && Math.abs(w) <= 180 && Math.abs(e) <= 180 && Math.abs(so) <= 90 && Math.abs(n) <= 90 && so <= n;
+    const ok =
+      v.length === 4 &&
+      v.every(Number.isFinite) &&
+      Math.abs(w) <= 180 &&
+      Math.abs(e) <= 180 &&
+      Math.abs(so) <= 90 &&
+      Math.abs(n) <= 90 &&
+      so <= n;
     if (!ok) {
       ctx.addIssue({ code: 'custom', message: BBOX_MESSAGE });
       return z.NEVER;
@@ -100,7 +108,7 @@ const sourceQuery = z
   .refine((s) => s === 'all' || SOURCE_PATTERN.test(s), { error: SOURCE_MESSAGE })
   .optional()
   .describe(
-    'Default: one value per station and epoch, from the station\'s preferred source: its sources ranked by their number of delay rows over the whole UTC day(s) of the range ' +
+    "Default: one value per station and epoch, from the station's preferred source: its sources ranked by their number of delay rows over the whole UTC day(s) of the range " +
       '(most first, ties by name), the best-ranked source present at each epoch (reported per station as `sources`). "all": every row of every source. ' +
       'A source name: only that source.',
   );
@@ -111,7 +119,9 @@ export const networkPwvQuery = z
     bbox: bbox.optional(),
     epoch: rangeBoundSchema.optional().describe('One epoch (with interval: the interval that holds it). Not with from/to, since or latest'),
     from: rangeBoundSchema.optional().describe('Start of the range, inclusive (date-time, or a date for 00:00Z of that day)'),
-    to: rangeBoundSchema.optional().describe('End of the range, inclusive (date-time, or a date for the whole UTC day); default: from plus the maximum range'),
+    to: rangeBoundSchema
+      .optional()
+      .describe('End of the range, inclusive (date-time, or a date for the whole UTC day); default: from plus the maximum range'),
     since: rangeBoundSchema.optional().describe('Records after this epoch (exclusive), for regular delivery: pass the last epoch received'),
     latest: latest.optional(),
     interval: interval.optional(),
@@ -128,16 +138,25 @@ const networkStation = z.object({
   latitude_deg: z.number().describe('[deg]'),
   longitude_deg: z.number().describe('[deg]'),
   height_m: z.number().describe('Antenna height above the WGS84 ellipsoid [m]'),
-  from: z.string().nullable().describe('Start of the range read for this station (inclusive); null when nothing was read (latest or since: no delays stored, or none after since)'),
+  from: z
+    .string()
+    .nullable()
+    .describe(
+      'Start of the range read for this station (inclusive); null when nothing was read (latest or since: no delays stored, or none after since)',
+    ),
   to: z.string().nullable().describe('End of the range read for this station (inclusive)'),
-  sources: z.array(z.string()).describe('Sources of the delay rows read, in preference order (most rows over the UTC day(s) of the range first, ties by name)'),
+  sources: z
+    .array(z.string())
+    .describe('Sources of the delay rows read, in preference order (most rows over the UTC day(s) of the range first, ties by name)'),
   record_count: z.number().int().describe('Records (or intervals) of this station in the answer'),
 });
 
-const qualityEnum = z.enum(PWV_QUALITY_FLAGS).describe(
-  `Most severe first: met-missing (no PWV: no pressure or temperature within max_met_gap_s), delay-sigma-large (ztd_sigma_m > max_ztd_sigma_m), ` +
-    `delay-sigma-unknown (no ztd_sigma_m: no pwv_sigma_mm), met-interpolated (met interpolated in time), ok`,
-);
+const qualityEnum = z
+  .enum(PWV_QUALITY_FLAGS)
+  .describe(
+    `Most severe first: met-missing (no PWV: no pressure or temperature within max_met_gap_s), delay-sigma-large (ztd_sigma_m > max_ztd_sigma_m), ` +
+      `delay-sigma-unknown (no ztd_sigma_m: no pwv_sigma_mm), met-interpolated (met interpolated in time), ok`,
+  );
 
 export const networkPwvRecord = z.object({
   station_id: z.string(),
@@ -161,7 +180,10 @@ export const networkIntervalMean = z.object({
   count: z.number().int().describe('Records whose PWV enters the mean (quality ok, met-interpolated, delay-sigma-unknown)'),
   excluded_count: z.number().int().describe('Records left out of the PWV mean (met-missing, delay-sigma-large)'),
   pwv_mm: z.number().nullable().describe('Mean PWV [mm]; null when count = 0'),
-  pwv_sigma_mm: z.number().nullable().describe('σ of the mean PWV: mean of the records\' σ (errors fully correlated within the interval) [mm]; null when any σ is unknown'),
+  pwv_sigma_mm: z
+    .number()
+    .nullable()
+    .describe("σ of the mean PWV: mean of the records' σ (errors fully correlated within the interval) [mm]; null when any σ is unknown"),
   pwv_sd_mm: z.number().nullable().describe('Sample standard deviation of the PWV values in the interval [mm]; null when count < 2'),
   ztd_count: z.number().int().describe('Records whose ZTD enters the mean (all but delay-sigma-large)'),
   ztd_m: z.number().nullable().describe('Mean ZTD [m]'),
@@ -171,22 +193,37 @@ export const networkIntervalMean = z.object({
 });
 
 export const networkPwvResponse = z.object({
-  from: z.string().describe('Earliest start of the stations\' ranges'),
-  to: z.string().describe('Latest end of the stations\' ranges'),
+  from: z.string().describe("Earliest start of the stations' ranges"),
+  to: z.string().describe("Latest end of the stations' ranges"),
   interval_s: z.number().nullable().describe('Length of the intervals [s]; null for records'),
   source: z.string().describe('"preferred" (the default), "all" or the one source read'),
   stations: z.array(networkStation),
-  records: z.array(networkPwvRecord).describe('Without interval: one per station and epoch (per source with source=all), ordered by station then epoch'),
-  intervals: z.array(networkIntervalMean).describe('With interval: one per station and interval holding records (per source with source=all)'),
+  records: z
+    .array(networkPwvRecord)
+    .describe('Without interval: one per station and epoch (per source with source=all), ordered by station then epoch'),
+  intervals: z
+    .array(networkIntervalMean)
+    .describe('With interval: one per station and interval holding records (per source with source=all)'),
   homogeneous: z.boolean().describe('True when every delay row used comes from one model set'),
   model_sets: z.array(modelSetSummary),
   warnings: z.array(z.string()),
   retrieval: z
-    .object({ models: provenanceFields.models, model_fingerprint: provenanceFields.model_fingerprint, max_met_gap_s: z.number(), max_ztd_sigma_m: z.number() })
+    .object({
+      models: provenanceFields.models,
+      model_fingerprint: provenanceFields.model_fingerprint,
+      max_met_gap_s: z.number(),
+      max_ztd_sigma_m: z.number(),
+    })
     .describe('Models and settings of the PWV retrieval itself (ZHD, Tm, Π, met interpolation)'),
 });
 
-export const NETWORK_PWV_CSV_COLUMNS = ['station_id', 'latitude_deg', 'longitude_deg', 'height_m', ...Object.keys(networkPwvRecord.shape).slice(1)] as const;
+export const NETWORK_PWV_CSV_COLUMNS = [
+  'station_id',
+  'latitude_deg',
+  'longitude_deg',
+  'height_m',
+  ...Object.keys(networkPwvRecord.shape).slice(1),
+] as const;
 export const NETWORK_INTERVAL_CSV_COLUMNS = [
   'station_id',
   'latitude_deg',
