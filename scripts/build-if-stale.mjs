@@ -16,7 +16,9 @@ import { fileURLToPath } from 'node:url';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const entry = join(root, 'dist', 'server.js');
-const inputs = ['src', 'tsconfig.json', 'tsconfig.build.json', 'package-lock.json'].map((p) => join(root, p));
+const inputs = ['src', 'web', 'tsconfig.json', 'tsconfig.build.json', 'package-lock.json'].map((p) => join(root, p));
+// The workspace page (web/, built by scripts/build-web.ts into dist/web) is part of the build.
+const page = join(root, 'dist', 'web', 'index.html');
 
 /** Newest modification time [ms] of a file or of every file under a directory; 0 when it does not exist. */
 function newestMtimeMs(path) {
@@ -31,7 +33,7 @@ function newestMtimeMs(path) {
 const builtMs = existsSync(entry) ? statSync(entry).mtimeMs : 0;
 const sourcesMs = Math.max(...inputs.map(newestMtimeMs));
 const hasSources = existsSync(join(root, 'src'));
-const stale = builtMs === 0 || (hasSources && sourcesMs > builtMs);
+const stale = builtMs === 0 || (hasSources && sourcesMs > builtMs) || (existsSync(join(root, 'web')) && !existsSync(page));
 
 if (process.argv.includes('--check')) process.exit(stale ? 1 : 0);
 if (!stale) process.exit(0);
@@ -56,5 +58,13 @@ const result = spawnSync(process.execPath, [tsc, '-p', join(root, 'tsconfig.buil
 if (result.status !== 0) {
   process.stderr.write('tropodelay: the build failed (see above); nothing was started.\n');
   process.exit(result.status ?? 1);
+}
+if (existsSync(join(root, 'web'))) {
+  const tsx = createRequire(import.meta.url).resolve('tsx/cli');
+  const web = spawnSync(process.execPath, [tsx, join(root, 'scripts', 'build-web.ts')], { stdio: 'inherit' });
+  if (web.status !== 0) {
+    process.stderr.write('tropodelay: the page build (scripts/build-web.ts) failed (see above); nothing was started.\n');
+    process.exit(web.status ?? 1);
+  }
 }
 process.stderr.write(`tropodelay: built dist/ in ${((Date.now() - started) / 1000).toFixed(1)} s\n`);

@@ -24,6 +24,7 @@ import requestLog from './plugins/request-log.js';
 import storage from './plugins/storage.js';
 import healthRoute from './routes/health.js';
 import mappingFactorsRoute from './routes/mapping-factors.js';
+import networkPwvRoute from './routes/network-precipitable-water.js';
 import precipitableWaterRoute from './routes/precipitable-water.js';
 import profileDelaysRoute from './routes/profile-delays.js';
 import rootRoute from './routes/root.js';
@@ -170,6 +171,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(stationDelaysRoute, stationOptions);
   await app.register(stationPwvRoute, stationOptions);
   await app.register(stationZwdEstimatesRoute, stationOptions);
+  await app.register(networkPwvRoute, stationOptions);
   await app.register(profileDelaysRoute);
   await app.ready();
   return app;

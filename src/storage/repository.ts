@@ -81,6 +81,11 @@ export interface TimeRange {
   toMs: number;
 }
 
+/** One station's time range in a many-station read (readZenithDelaysMany, readSurfaceMetMany). */
+export interface StationRange extends TimeRange {
+  stationId: string;
+}
+
 export interface Repository {
   readonly backend: 'sqlite' | 'postgres';
 
@@ -109,6 +114,17 @@ export interface Repository {
   readZenithDelays(stationId: string, range: TimeRange, source?: string): Promise<ZenithDelayRow[]>;
   /** The model sets of the given fingerprints (unknown ones are left out). */
   readModelSets(fingerprints: readonly string[]): Promise<StoredModelSet[]>;
+
+  /**
+   * Network reads: the rows of readZenithDelays / readSurfaceMet for many stations in one round trip,
+   * by station id (stations without rows are absent), each list ordered by epoch then source.
+   */
+  readZenithDelaysMany(ranges: readonly StationRange[], source?: string): Promise<Map<string, ZenithDelayRow[]>>;
+  readSurfaceMetMany(ranges: readonly StationRange[]): Promise<Map<string, SurfaceMetRow[]>>;
+  /** Delay rows per source within each station's range: station id → source → count (empty stations absent). */
+  countDelaySources(ranges: readonly StationRange[]): Promise<Map<string, Map<string, number>>>;
+  /** Latest epoch of the series per station [ms] (stations with an empty series are absent). */
+  latestEpochsMs(stationIds: readonly string[], series: 'met' | 'delays'): Promise<Map<string, number>>;
 
   /** Latest epoch stored for the station in the series [ms], or null when it is empty. */
   latestEpochMs(stationId: string, series: 'met' | 'delays'): Promise<number | null>;

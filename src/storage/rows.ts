@@ -108,3 +108,20 @@ export function rangeReadSql(
   const source = bySource ? ` AND source = ${p(4)}` : '';
   return `SELECT ${columns} FROM ${table} WHERE station_id = ${p(1)} AND epoch_ms BETWEEN ${p(2)} AND ${p(3)}${source} ORDER BY epoch_ms, source`;
 }
+
+/** Rows of a many-station read (`station_id` first, then `columns`) grouped by station, in read order. */
+export function groupByStation<T>(rows: readonly unknown[][], toRow: (r: unknown[]) => T): Map<string, T[]> {
+  const out = new Map<string, T[]>();
+  let currentId: string | undefined;
+  let current: T[] = [];
+  for (const r of rows) {
+    const id = r[0] as string;
+    if (id !== currentId) {
+      currentId = id;
+      current = out.get(id) ?? [];
+      out.set(id, current);
+    }
+    current.push(toRow(r.slice(1)));
+  }
+  return out;
+}

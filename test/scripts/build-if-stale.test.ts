@@ -30,6 +30,15 @@ function run(...args: string[]) {
 afterEach(() => rmSync(root, { recursive: true, force: true }));
 
 describe('scripts/build-if-stale.mjs', () => {
+  it('a tree with the page sources (web/) but no built page (dist/web/index.html) is stale', () => {
+    tree({ 'src/server.ts': T0, 'src/http/app.ts': T0, 'web/index.html': T0, 'dist/server.js': later(10) });
+    utimesSync(join(root, 'web'), T0, T0);
+    expect(run('--check').status).toBe(1);
+    mkdirSync(join(root, 'dist/web'), { recursive: true });
+    writeFileSync(join(root, 'dist/web/index.html'), '');
+    expect(run('--check').status).toBe(0);
+  });
+
   it('dist/ newer than every source: current (exit 0), nothing printed', () => {
     tree({ 'src/server.ts': T0, 'src/http/app.ts': T0, 'tsconfig.json': T0, 'dist/server.js': later(10) });
     expect(run('--check').status).toBe(0);

@@ -26,7 +26,8 @@ declare module 'fastify' {
 }
 
 export const KEY_FILE_NAME = 'api-key';
-const PROTECTED_PREFIX = '/v1/stations';
+/** The station archive's routes: one station's series and the network reads across stations. */
+const PROTECTED_PREFIXES = ['/v1/stations', '/v1/network'];
 const WRITE_METHODS = new Set(['PUT', 'POST', 'PATCH', 'DELETE']);
 
 export interface AuthPluginOptions {
@@ -87,7 +88,7 @@ async function auth(app: FastifyInstance, options: AuthPluginOptions): Promise<v
 
   app.addHook('onRequest', async (request: FastifyRequest) => {
     const url = request.routeOptions.url ?? request.url;
-    if (!url.startsWith(PROTECTED_PREFIX)) return;
+    if (!PROTECTED_PREFIXES.some((p) => url.startsWith(p))) return;
     const isWrite = WRITE_METHODS.has(request.method);
     if (!isWrite && !options.readKeysRequired) return;
     const header = request.headers.authorization;

@@ -9,6 +9,7 @@
 
 import type { Repository, TimeRange } from '../../storage/repository.js';
 import { HttpProblem } from '../problem.js';
+import { rangeEndMs, rangeStartMs } from '../schemas/range-bounds.js';
 
 export const DAY_MS = 86_400_000;
 
@@ -20,8 +21,8 @@ export async function resolveSeriesRange(
   maxRangeDays: number,
 ): Promise<TimeRange> {
   const maxMs = Math.round(maxRangeDays * DAY_MS);
-  const fromMs = query.from === undefined ? undefined : Date.parse(query.from);
-  const toMs = query.to === undefined ? undefined : Date.parse(query.to);
+  const fromMs = query.from === undefined ? undefined : rangeStartMs(query.from);
+  const toMs = query.to === undefined ? undefined : rangeEndMs(query.to);
   if (fromMs !== undefined && toMs !== undefined) {
     if (fromMs > toMs) {
       throw new HttpProblem(400, `query.from (${query.from}) must not be after query.to (${query.to})`, [

@@ -5,7 +5,8 @@
 
 import { z } from 'zod';
 import { MAX_REDUCTION_HEIGHT_DIFFERENCE_M } from '../../domain/meteo/height-reduction.js';
-import { bounded, epochSchema } from './common.js';
+import { bounded } from './common.js';
+import { rangeBoundSchema } from './range-bounds.js';
 
 export const STATION_ID_PATTERN = /^[A-Za-z0-9_-]{1,32}$/;
 const STATION_ID_MESSAGE = 'must be 1-32 characters of letters, digits, "-" and "_"';
@@ -67,10 +68,10 @@ export const seriesFormatSchema = z
 
 /** from/to of a series read; resolution of defaults and the maximum range: src/http/routes/series-range.ts. */
 export const seriesQueryFields = {
-  from: epochSchema.optional().describe('Start of the range, inclusive (ISO 8601). Default: `to` minus the maximum range'),
-  to: epochSchema
+  from: rangeBoundSchema.optional().describe('Start of the range, inclusive (ISO 8601 date-time, or a date for 00:00Z of that day). Default: `to` minus the maximum range'),
+  to: rangeBoundSchema
     .optional()
-    .describe('End of the range, inclusive (ISO 8601). Default: `from` plus the maximum range, or the latest stored epoch when neither is given'),
+    .describe('End of the range, inclusive (ISO 8601 date-time, or a date for the whole of that UTC day). Default: `from` plus the maximum range, or the latest stored epoch when neither is given'),
   format: seriesFormatSchema,
   source: sourceSchema.optional().describe('Only the rows of this source'),
 };

@@ -18,7 +18,7 @@
 
 import pg from 'pg';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
-import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, SurfaceMetRow, TimeRange, WriteCounts, ZenithDelayRow } from '../repository.js';
+import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StationRange, StoredModelSet, SurfaceMetRow, TimeRange, WriteCounts, ZenithDelayRow } from '../repository.js';
 import { UnknownStationError } from '../repository.js';
 import { withConflictRetry } from '../errors.js';
 import {
@@ -34,6 +34,7 @@ import {
   type MetArrayRow,
   type StationDbRow,
   rangeReadSql,
+  groupByStation,
 } from '../rows.js';
 
 /** Key of the advisory lock that serialises migrations (an arbitrary constant of this service). */
@@ -332,6 +333,67 @@ export class PostgresRepository implements Repository {
     const result = await this.pool.query<{ latest: string | null }>(`SELECT MAX(epoch_ms) AS latest FROM ${table} WHERE station_id = $1`, [stationId]);
     const latest = result.rows[0]?.latest ?? null;
     return latest === null ? null : Number(latest);
+  }
+
+  async readZenithDelaysMany(ranges: readonly StationRange[], source?: string): Promise<Map<string, ZenithDelayRow[]>> {
+    return groupByStation(await this.readRanges('delay_records', ZENITH_DELAY_SELECT, ranges, source), zenithDelayFromArray);
+  }
+
+  async readSurfaceMetMany(ranges: readonly StationRange[]): Promise<Map<string, SurfaceMetRow[]>> {
+    return groupByStation(await this.readRanges('met_records', SURFACE_MET_SELECT, ranges), surfaceMetFromArray);
+  }
+
+  async countDelaySources(ranges: readonly StationRange[]): Promise<Map<string, Map<string, number>>> {
+    const out = new Map<string, Map<string, number>>();
+    if (ranges.length === 0) return out;
+    const result = await this.pool.query<[string, string, string]>({
+      text:
+        'SELECT t.station_id, t.source, COUNT(*) FROM unnest($1::text[], $2::bigint[], $3::bigint[]) AS q(station_id, from_ms, to_ms) ' +
+        'JOIN delay_records t ON t.station_id = q.station_id AND t.epoch_ms BETWEEN q.from_ms AND q.to_ms GROUP BY t.station_id, t.source',
+      values: [ranges.map((r) => r.stationId), ranges.map((r) => r.fromMs), ranges.map((r) => r.toMs)],
+      rowMode: 'array',
+    });
+    for (const [id, source, n] of result.rows) {
+      let m = out.get(id);
+      if (!m) out.set(id, (m = new Map()));
+      m.set(source, Number(n));
+    }
+    return out;
+  }
+
+  async latestEpochsMs(stationIds: readonly string[], series: 'met' | 'delays'): Promise<Map<string, number>> {
+    const table = series === 'met' ? 'met_records' : 'delay_records';
+    if (stationIds.length === 0) return new Map();
+    // One index probe per station (max of the primary key's epoch within the station).
+    const result = await this.pool.query<[string, string | null]>({
+      text: `SELECT q.id, (SELECT MAX(epoch_ms) FROM ${table} t WHERE t.station_id = q.id) FROM unnest($1::text[]) AS q(id)`,
+      values: [stationIds],
+      rowMode: 'array',
+    });
+    const out = new Map<string, number>();
+    for (const [id, latest] of result.rows) if (latest !== null) out.set(id, Number(latest));
+    return out;
+  }
+
+  /**
+   * Raw rows (station_id first) of many one-station range reads in one statement: the ranges are
+   * bound as three arrays and joined on the primary key (station_id, epoch_ms).
+   */
+  private async readRanges(table: 'met_records' | 'delay_records', columns: string, ranges: readonly StationRange[], source?: string): Promise<unknown[][]> {
+    if (ranges.length === 0) return [];
+    const qualified = columns.split(', ').map((c) => `t.${c}`).join(', ');
+    const bySource = source === undefined ? '' : ' AND t.source = $4';
+    const values: unknown[] = [ranges.map((r) => r.stationId), ranges.map((r) => r.fromMs), ranges.map((r) => r.toMs)];
+    if (source !== undefined) values.push(source);
+    const result = await this.pool.query<unknown[]>({
+      text:
+        `SELECT t.station_id, ${qualified} FROM unnest($1::text[], $2::bigint[], $3::bigint[]) AS q(station_id, from_ms, to_ms) ` +
+        `JOIN ${table} t ON t.station_id = q.station_id AND t.epoch_ms BETWEEN q.from_ms AND q.to_ms${bySource} ` +
+        'ORDER BY t.station_id, t.epoch_ms, t.source',
+      values,
+      rowMode: 'array',
+    });
+    return result.rows;
   }
 
   /** Raw rows of a one-station time-range read. */

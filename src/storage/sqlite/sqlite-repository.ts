@@ -16,7 +16,7 @@ import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
-import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, SurfaceMetRow, TimeRange, WriteCounts, ZenithDelayRow } from '../repository.js';
+import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StationRange, StoredModelSet, SurfaceMetRow, TimeRange, WriteCounts, ZenithDelayRow } from '../repository.js';
 import { UnknownStationError } from '../repository.js';
 import { withConflictRetry } from '../errors.js';
 import {
@@ -34,6 +34,7 @@ import {
   type MetArrayRow,
   type StationDbRow,
   rangeReadSql,
+  groupByStation,
 } from '../rows.js';
 
 export const SQLITE_FILE_NAME = 'tropodelay.sqlite';
@@ -203,6 +204,51 @@ export class SqliteRepository implements Repository {
       .prepare(`SELECT model_fingerprint, models_json FROM model_sets WHERE model_fingerprint IN (${placeholders}) ORDER BY model_fingerprint`)
       .all(...fingerprints) as { model_fingerprint: string; models_json: string }[];
     return rows.map((r) => ({ modelFingerprint: r.model_fingerprint, models: JSON.parse(r.models_json) }));
+  }
+
+  async readZenithDelaysMany(ranges: readonly StationRange[], source?: string): Promise<Map<string, ZenithDelayRow[]>> {
+    return groupByStation(this.readRanges('delay_records', ZENITH_DELAY_SELECT, ranges, source), zenithDelayFromArray);
+  }
+
+  async readSurfaceMetMany(ranges: readonly StationRange[]): Promise<Map<string, SurfaceMetRow[]>> {
+    return groupByStation(this.readRanges('met_records', SURFACE_MET_SELECT, ranges), surfaceMetFromArray);
+  }
+
+  async countDelaySources(ranges: readonly StationRange[]): Promise<Map<string, Map<string, number>>> {
+    const statement = (this.countSourcesStatement ??= this.db
+      .prepare('SELECT source, COUNT(*) FROM delay_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? GROUP BY source')
+      .raw(true));
+    const out = new Map<string, Map<string, number>>();
+    for (const r of ranges) {
+      const rows = statement.all(r.stationId, r.fromMs, r.toMs) as [string, number][];
+      if (rows.length) out.set(r.stationId, new Map(rows.map(([source, n]) => [source, Number(n)])));
+    }
+    return out;
+  }
+
+  private countSourcesStatement: Database.Statement | undefined;
+
+  async latestEpochsMs(stationIds: readonly string[], series: 'met' | 'delays'): Promise<Map<string, number>> {
+    const statement = series === 'met' ? this.stmt.latestMet : this.stmt.latestDelays;
+    const out = new Map<string, number>();
+    for (const id of stationIds) {
+      const row = statement.get(id) as { latest: number | null };
+      if (row.latest !== null) out.set(id, Number(row.latest));
+    }
+    return out;
+  }
+
+  /**
+   * Raw rows (station_id first) of many one-station range reads: one indexed statement per station,
+   * run back to back (better-sqlite3 is in-process, so a loop costs no round trips).
+   */
+  private readRanges(table: 'met_records' | 'delay_records', columns: string, ranges: readonly StationRange[], source?: string): unknown[][] {
+    const out: unknown[][] = [];
+    const withId = `station_id, ${columns}`;
+    for (const r of ranges) {
+      for (const row of this.readRange(table, withId, r.stationId, r, source)) out.push(row);
+    }
+    return out;
   }
 
   async latestEpochMs(stationId: string, series: 'met' | 'delays'): Promise<number | null> {

@@ -1,0 +1,260 @@
+/** The workspace page: wiring of the network view (map, legend, table) and the station view (charts, flags, coverage). */
+import 'uplot/dist/uPlot.min.css';
+import './style.css';
+import { getJson, networkUrl, type NetworkAnswer, type PwvRecord } from './api.js';
+import { StationCharts, type PwvColumns } from './chart.js';
+import { FLAG_TEXT, MARKED_FLAGS } from './flags.js';
+import { drawLegend, drawMap, type StationMap } from './map.js';
+import { FIXED_SCALE, fittedScale } from './palette.js';
+import { StationTable } from './table.js';
+
+const $ = <T extends HTMLElement>(id: string) => document.getElementById(id) as T;
+const HOUR_MS = 3_600_000;
+const DAY_MS = 86_400_000;
+
+const state = {
+  hourMs: 0,
+  stationId: null as string | null,
+  spanDays: 1,
+  source: '',
+  map: null as StationMap | null,
+};
+
+const dayInput = $<HTMLInputElement>('day');
+const hourInput = $<HTMLInputElement>('hour');
+const hourText = $<HTMLOutputElement>('hour-text');
+const scaleSelect = $<HTMLSelectElement>('scale');
+const stationSelect = $<HTMLSelectElement>('station-select');
+const sourceSelect = $<HTMLSelectElement>('source-select');
+const tableStatus = $('table-status');
+const stationStatus = $('station-status');
+const charts = new StationCharts($('pwv-chart'), $('met-chart'));
+const table = new StationTable($<HTMLTableElement>('station-table'), (id) => void pickStation(id));
+
+const isoHour = (ms: number) => new Date(ms).toISOString().slice(0, 19) + 'Z';
+
+function setHour(ms: number): void {
+  state.hourMs = Math.floor(ms / HOUR_MS) * HOUR_MS;
+  const d = new Date(state.hourMs);
+  dayInput.value = d.toISOString().slice(0, 10);
+  hourInput.value = String(d.getUTCHours());
+  hourText.value = `${d.toISOString().slice(11, 16)}Z`;
+}
+
+function hourFromControls(): number {
+  return Date.parse(`${dayInput.value}T00:00:00Z`) + Number(hourInput.value) * HOUR_MS;
+}
+
+async function loadHour(): Promise<void> {
+  const params = { epoch: isoHour(state.hourMs), interval: 'PT1H' };
+  tableStatus.textContent = `(${new Date(state.hourMs).toISOString().slice(0, 13)}Z, loading…)`;
+  const answer = await getJson<NetworkAnswer>(networkUrl(params));
+  const values = new Map<string, number | null>();
+  const byStation = new Map(answer.intervals.map((m) => [m.station_id, m]));
+  for (const s of answer.stations) values.set(s.station_id, byStation.get(s.station_id)?.pwv_mm ?? null);
+  const present = [...values.values()].filter((v): v is number => v !== null);
+  const scale = scaleSelect.value === 'fit' ? fittedScale(present) : FIXED_SCALE;
+  state.map?.colour(values, scale);
+  drawLegend($('legend') as unknown as SVGSVGElement, scale);
+  table.setRows(
+    answer.stations.map((s) => {
+      const m = byStation.get(s.station_id);
+      return {
+        stationId: s.station_id,
+        name: s.name,
+        latitudeDeg: s.latitude_deg,
+        longitudeDeg: s.longitude_deg,
+        pwvMm: m?.pwv_mm ?? null,
+        sigmaMm: m?.pwv_sigma_mm ?? null,
+        count: m?.count ?? 0,
+        excluded: m?.excluded_count ?? 0,
+      };
+    }),
+  );
+  tableStatus.textContent = `(${new Date(state.hourMs).toISOString().slice(0, 13)}Z: ${present.length} of ${answer.stations.length} stations with a value)`;
+  $<HTMLAnchorElement>('network-csv').href = networkUrl({ ...params, format: 'csv' });
+  $<HTMLAnchorElement>('network-nc').href = networkUrl({ ...params, format: 'netcdf' });
+  document.body.dataset.hour = isoHour(state.hourMs);
+}
+
+function columns(records: PwvRecord[]): PwvColumns {
+  const n = records.length;
+  const c: PwvColumns = {
+    t: new Float64Array(n),
+    pwv: new Array(n),
+    lower: new Array(n),
+    upper: new Array(n),
+    flagged: new Array(n),
+    pressure: new Array(n),
+    temperature: new Array(n),
+  };
+  for (let i = 0; i < n; i++) {
+    const r = records[i]!;
+    c.t[i] = Date.parse(r.epoch) / 1000;
+    c.pwv[i] = r.pwv_mm;
+    const s = r.pwv_sigma_mm;
+    c.lower[i] = r.pwv_mm !== null && s !== null ? r.pwv_mm - s : null;
+    c.upper[i] = r.pwv_mm !== null && s !== null ? r.pwv_mm + s : null;
+    c.flagged[i] = MARKED_FLAGS.includes(r.quality) ? r.pwv_mm : null;
+    c.pressure[i] = r.pressure_hpa;
+    c.temperature[i] = r.temperature_c;
+  }
+  return c;
+}
+
+function definitionList(dl: HTMLElement, items: [string, string][]): void {
+  dl.replaceChildren();
+  for (const [term, text] of items) {
+    const dt = document.createElement('dt');
+    dt.textContent = term;
+    const dd = document.createElement('dd');
+    dd.textContent = text;
+    dl.append(dt, dd);
+  }
+}
+
+/** First/last epoch, sources and the gaps longer than three typical spacings (and 15 min). */
+function coverage(records: PwvRecord[]): [string, string][] {
+  if (records.length === 0) return [['records', 'none in this span']];
+  const t = records.map((r) => Date.parse(r.epoch));
+  const steps = t
+    .slice(1)
+    .map((x, i) => x - t[i]!)
+    .filter((d) => d > 0)
+    .sort((a, b) => a - b);
+  const typical = steps.length ? steps[Math.floor(steps.length / 2)]! : 0;
+  const limit = Math.max(3 * typical, 15 * 60_000);
+  const gaps: [number, number][] = [];
+  for (let i = 1; i < t.length; i++) if (t[i]! - t[i - 1]! > limit) gaps.push([t[i - 1]!, t[i]!]);
+  const sources = new Map<string, number>();
+  for (const r of records) sources.set(r.source, (sources.get(r.source) ?? 0) + 1);
+  const fmt = (ms: number) => `${new Date(ms).toISOString().slice(0, 16)}Z`;
+  const longest = [...gaps].sort((a, b) => b[1] - b[0] - (a[1] - a[0])).slice(0, 6);
+  return [
+    ['first epoch', fmt(t[0]!)],
+    ['last epoch', fmt(t[t.length - 1]!)],
+    ['records', `${records.length} (typical spacing ${typical / 1000} s)`],
+    ['sources', [...sources].map(([s, n]) => `${s} (${n})`).join(', ')],
+    ['gaps', gaps.length === 0 ? 'none' : `${gaps.length}; longest: ${longest.map(([a, b]) => `${fmt(a)} → ${fmt(b)}`).join('; ')}`],
+  ];
+}
+
+async function loadStation(): Promise<void> {
+  if (state.stationId === null) return;
+  const toMs = state.hourMs + HOUR_MS - 1;
+  const from = new Date(toMs + 1 - state.spanDays * DAY_MS).toISOString();
+  const to = new Date(toMs).toISOString();
+  const params: Record<string, string> = { stations: state.stationId, from, to };
+  if (state.source) params.source = state.source;
+  stationStatus.textContent = `Loading ${state.stationId}…`;
+  const answer = await getJson<NetworkAnswer>(networkUrl(params));
+  const records = answer.records;
+  const known = new Set([...sourceSelect.options].map((o) => o.value));
+  for (const s of answer.stations[0]?.sources ?? []) {
+    if (!known.has(s)) sourceSelect.append(new Option(s, s));
+  }
+  performance.mark('station-data');
+  charts.draw(columns(records));
+  await new Promise<void>((resolve) => requestAnimationFrame(() => resolve()));
+  performance.measure('station-draw', 'station-data');
+  const counts = new Map<string, number>();
+  for (const r of records) counts.set(r.quality, (counts.get(r.quality) ?? 0) + 1);
+  definitionList(
+    $('flag-list'),
+    Object.keys(FLAG_TEXT).map((f) => [`${f}: ${counts.get(f) ?? 0}`, FLAG_TEXT[f]!] as [string, string]),
+  );
+  definitionList($('coverage'), coverage(records));
+  $<HTMLAnchorElement>('station-csv').href = networkUrl({ ...params, format: 'csv' });
+  $<HTMLAnchorElement>('station-nc').href = networkUrl({ ...params, format: 'netcdf' });
+  const name = answer.stations[0]?.name ?? '';
+  stationStatus.textContent = `${state.stationId} ${name}: ${records.length} epochs, ${from.slice(0, 16)}Z to ${to.slice(0, 16)}Z`;
+  document.body.dataset.station = state.stationId;
+}
+
+async function pickStation(id: string): Promise<void> {
+  if (state.stationId !== id) {
+    state.stationId = id;
+    state.source = '';
+    sourceSelect.replaceChildren(new Option('preferred (one value per epoch)', ''));
+  }
+  stationSelect.value = id;
+  state.map?.select(id);
+  await loadStation();
+}
+
+function report(err: unknown, where: HTMLElement): void {
+  where.textContent = `Could not load: ${err instanceof Error ? err.message : String(err)}`;
+}
+
+async function start(): Promise<void> {
+  const latest = await getJson<NetworkAnswer>(networkUrl({ latest: 'true', interval: 'PT1H' }));
+  const newest = latest.intervals.reduce((m, x) => Math.max(m, Date.parse(x.epoch)), Number.NEGATIVE_INFINITY);
+  setHour(Number.isFinite(newest) ? newest : Date.now());
+  for (const s of latest.stations) stationSelect.append(new Option(`${s.station_id} ${s.name}`, s.station_id));
+  state.map = await drawMap(
+    $('map') as unknown as SVGSVGElement,
+    latest.stations,
+    (id) => void pickStation(id).catch((e) => report(e, stationStatus)),
+  );
+  $('map-caption').textContent = `${latest.stations.length} stations coloured by hourly mean PWV (grey ring: no value that hour)`;
+  await loadHour();
+  await new Promise<void>((resolve) => requestAnimationFrame(() => resolve()));
+  performance.mark('network-drawn'); // read by bench/workspace.bench.ts
+  if (latest.stations[0]) await pickStation(latest.stations[0].station_id);
+  document.body.dataset.ready = 'true';
+}
+
+const refresh = () => {
+  void loadHour()
+    .then(() => loadStation())
+    .catch((e) => report(e, tableStatus));
+};
+const step = (hours: number) => {
+  setHour(state.hourMs + hours * HOUR_MS);
+  refresh();
+};
+hourInput.addEventListener('input', () => {
+  setHour(hourFromControls());
+  refresh();
+});
+dayInput.addEventListener('change', () => {
+  if (dayInput.value) {
+    setHour(hourFromControls());
+    refresh();
+  }
+});
+$('hour-prev').addEventListener('click', () => step(-1));
+$('hour-next').addEventListener('click', () => step(1));
+$('hour-latest').addEventListener('click', () => {
+  void getJson<NetworkAnswer>(networkUrl({ latest: 'true', interval: 'PT1H' })).then((a) => {
+    const newest = a.intervals.reduce((m, x) => Math.max(m, Date.parse(x.epoch)), Number.NEGATIVE_INFINITY);
+    if (Number.isFinite(newest)) step((newest - state.hourMs) / HOUR_MS);
+  });
+});
+scaleSelect.addEventListener('change', () => void loadHour().catch((e) => report(e, tableStatus)));
+stationSelect.addEventListener('change', () => void pickStation(stationSelect.value).catch((e) => report(e, stationStatus)));
+sourceSelect.addEventListener('change', () => {
+  state.source = sourceSelect.value;
+  void loadStation().catch((e) => report(e, stationStatus));
+});
+for (const b of document.querySelectorAll<HTMLButtonElement>('.spans button')) {
+  b.addEventListener('click', () => {
+    state.spanDays = Number(b.dataset.days);
+    for (const o of document.querySelectorAll<HTMLButtonElement>('.spans button')) o.setAttribute('aria-pressed', String(o === b));
+    void loadStation().catch((e) => report(e, stationStatus));
+  });
+}
+$('chart-png').addEventListener('click', () => {
+  void charts.pngBlob().then((blob) => {
+    if (!blob) return;
+    const a = document.createElement('a');
+    a.href = URL.createObjectURL(blob);
+    a.download = `pwv-${state.stationId ?? 'station'}-${isoHour(state.hourMs).slice(0, 13)}.png`;
+    a.click();
+    setTimeout(() => URL.revokeObjectURL(a.href), 10_000);
+  });
+});
+$('time-controls').addEventListener('submit', (e) => e.preventDefault());
+$('station-controls').addEventListener('submit', (e) => e.preventDefault());
+
+start().catch((e) => report(e, tableStatus));
