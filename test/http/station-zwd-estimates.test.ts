@@ -9,6 +9,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { generateSyntheticResiduals, toCsv, toRequestBody } from '../../scripts/synthetic-residuals.js';
+import { storedMetFor } from '../../src/http/routes/station-zwd-estimates.js';
 import { scanZwdRequest } from '../../src/http/tasks/zwd-request.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
@@ -159,5 +160,36 @@ describe('scanZwdRequest (first pass of a station estimation: the stored met win
   it('finds the epoch column wherever it is (issue 11 item 9: only the first column worked)', async () => {
     const csv = 'satellite,elevation_deg,azimuth_deg,residual_m,epoch\nG01,30,40,0.1,2026-01-01T00:00:30Z\nG02,30,40,0.1,2026-01-01T00:05:00Z\n';
     expect((await scan(csv, 'csv')).range).toEqual({ firstMs: Date.UTC(2026, 0, 1, 0, 0, 30), lastMs: Date.UTC(2026, 0, 1, 0, 5) });
+  });
+});
+
+describe('storedMetFor (the bounded stored-met read of a station estimation, issue 11 item 10)', () => {
+  const station = { stationId: 'X', name: 'x', latitudeDeg: 46.2, longitudeDeg: 7.4, heightM: 520, metHeightM: null, description: null, createdAt: '', updatedAt: '' };
+  const rows = (n: number) =>
+    Array.from({ length: n }, (_, k) => ({ epochMs: k * 1000, source: 's', pressureHpa: 950, temperatureC: 10, relativeHumidityPct: null, dewpointC: null, vapourPressureHpa: null }));
+  const repositoryWith = (n: number, reads: { fromMs: number; toMs: number }[]) =>
+    ({
+      readMet: async (_id: string, range: { fromMs: number; toMs: number }) => {
+        reads.push(range);
+        return rows(n);
+      },
+    }) as unknown as Parameters<typeof storedMetFor>[0];
+
+  it('reads the range ± 1 day, and refuses more than 100 000 records naming observations', async () => {
+    const reads: { fromMs: number; toMs: number }[] = [];
+    const met = await storedMetFor(repositoryWith(100_000, reads), station as never, { range: { firstMs: 0, lastMs: 3_600_000 }, hasMet: false }, 366);
+    expect(met?.epochMs.length).toBe(100_000);
+    expect(reads).toEqual([{ fromMs: -86_400_000, toMs: 3_600_000 + 86_400_000 }]);
+    await expect(storedMetFor(repositoryWith(100_001, []), station as never, { range: { firstMs: 0, lastMs: 3_600_000 }, hasMet: false }, 366)).rejects.toMatchObject({
+      status: 400,
+      errors: [{ field: 'observations', message: expect.stringMatching(/100001 stored met records.*at most 100000/) }],
+    });
+  });
+
+  it('does not read when the body has met or no epoch could be read', async () => {
+    const reads: { fromMs: number; toMs: number }[] = [];
+    expect(await storedMetFor(repositoryWith(10, reads), station as never, { range: { firstMs: 0, lastMs: 1 }, hasMet: true }, 366)).toBeUndefined();
+    expect(await storedMetFor(repositoryWith(10, reads), station as never, { range: null, hasMet: false }, 366)).toBeUndefined();
+    expect(reads).toEqual([]);
   });
 });
