@@ -22,6 +22,10 @@ export const NON_DEFAULT: Record<string, number | boolean | string> = {
   outlierRejection: 'one-per-solution',
   maxRejections: 50,
   scaleSigmas: false,
+  sigmaConstantM: 0.001,
+  parametrisation: 'nodes',
+  correlatedNoise: false,
+  wetMapping: 'chao',
   metMaxGapS: 600,
 };
 
@@ -52,6 +56,10 @@ export const EXPECTED_ESTIMATOR_OPTIONS: ZwdEstimationOptions = {
   outlierRejection: 'one-per-solution',
   maxRejections: 50,
   scaleSigmas: false,
+  sigmaConstantM: 0.001,
+  parametrisation: 'nodes',
+  correlatedNoise: false,
+  wetMapping: { model: 'chao' },
 };
 
 /** The settings `models` must record, by flatName (outlier_rejection as its model text). */
@@ -70,6 +78,10 @@ export const EXPECTED_MODEL_SETTINGS: Record<string, number | boolean | string> 
   outlier_rejection: 'one-per-solution',
   max_rejections: 50,
   scale_sigmas: false,
+  sigma_constant_m: 0.001,
+  parametrisation: 'nodes',
+  correlated_noise: false,
+  wet_mapping: 'chao',
   met_max_gap_s: 600,
 };
 
