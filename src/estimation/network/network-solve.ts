@@ -1,0 +1,480 @@
+/**
+ * One least-squares solution of the network: the clocks of every epoch eliminated by
+ * EpochClockSystem (epoch-clocks.ts), the reduced epoch normals R (in the epoch's z of every
+ * station) mapped to the nodes through the interpolation weights (x_node → z = Bᵀx, so N += B R Bᵀ)
+ * and accumulated, with the random-walk and a-priori constraints of the single-station estimator
+ * (../least-squares.ts: randomWalkWeight, constraintCount), in the network frontal solver. Then, in
+ * the reverse sweep that computes the selected inverse, per epoch: post-fit residuals, their
+ * standard deviations σ_v (for screening), and the covariances of every station's ZWD at the epoch
+ * (absolute, relative to the reference station, network mean, and the mean's correlation with the
+ * satellite clocks).
+ *
+ * Parameters: station s owns ids [s·P, (s+1)·P): ZWD nodes, north nodes, east nodes (P per station),
+ * all stations on the same node layout.
+ */
+
+import { constraintCount, randomWalkWeight, type ParameterLayout } from '../least-squares.js';
+import type { PiecewiseLinearSettings, ZwdEstimationOptions } from '../types.js';
+import { EpochClockSystem } from './epoch-clocks.js';
+import type { NetworkDesign } from './network-design.js';
+import { NetworkFrontal } from './network-frontal.js';
+
+export interface EpochCovariances {
+  /** Per station (NaN when the station has no epoch here): σ² of δw(t) and of δw − δw_ref [m²]. */
+  variance: Float64Array;
+  relativeVariance: Float64Array;
+  /** Variance of the mean δw of all stations [m²]. */
+  meanVariance: number;
+  /** Correlation of that mean with the mean satellite clock; NaN without satellite clocks. */
+  meanClockCorrelation: number;
+}
+
+export interface NetworkSolution {
+  x: Float64Array;
+  inverseDiagonal: Float64Array;
+  /** Per station: Cov(x_node, x_ref node) of the ZWD nodes [m²]. */
+  nodeCovarianceWithReference: Float64Array[];
+  /** Per parameter p: Cov(x_p, x_{p+1}) when p + 1 is the next node of the same family [m²]. */
+  adjacentCovariance: Float64Array;
+  /** Per station design observation: post-fit residual [m] and σ_v² [m²] (0 when not included). */
+  fittedResidualM: Float64Array[];
+  residualVarianceM2: Float64Array[];
+  /** Receiver clock estimate per station epoch [m] (NaN when not estimated or datum-dependent). */
+  receiverClockM: Float64Array[];
+  /** Per station design observation: 1 when it took part (used and informative). */
+  included: Uint8Array[];
+  /** Per network epoch. */
+  epochs: EpochCovariances[];
+  weightedSquareSum: number;
+  residualSquareSumM2: number;
+  observationsUsed: number;
+  clockUnknowns: number;
+  constraints: number;
+}
+
+/** Layout of one station's parameters, in the shape the single-station helpers take. */
+export function stationLayout(net: NetworkDesign): ParameterLayout {
+  const zwdCount = net.zwd.count;
+  const gradientCount = net.gradients?.count ?? 0;
+  return { zwdCount, gradientCount, northOffset: zwdCount, eastOffset: zwdCount + gradientCount, parameters: zwdCount + 2 * gradientCount };
+}
+
+interface Family {
+  offset: number;
+  count: number;
+  settings: PiecewiseLinearSettings;
+  current: number;
+}
+
+/**
+ * @param used per station, 1 for each design observation that takes part
+ * @param reference station index the relative variances refer to
+ * @throws SingularParameterError (from the frontal solver) naming an undetermined parameter
+ */
+export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptions, used: readonly Uint8Array[], reference: number): NetworkSolution {
+  const S = net.stations.length;
+  const layout = stationLayout(net);
+  const P = layout.parameters;
+  const d = net.gradients ? 3 : 1;
+  const local = net.gradients ? 6 : 2;
+  const frontal = new NetworkFrontal(S * P, S * local);
+  const families: Family[] = [];
+  for (let s = 0; s < S; s++) {
+    const o = s * P;
+    families.push({ offset: o, count: layout.zwdCount, settings: options.zwd, current: -1 });
+    if (options.gradients) {
+      families.push({ offset: o + layout.northOffset, count: layout.gradientCount, settings: options.gradients, current: -1 });
+      families.push({ offset: o + layout.eastOffset, count: layout.gradientCount, settings: options.gradients, current: -1 });
+    }
+  }
+  const advance = (f: Family, interval: number) => {
+    const rw = randomWalkWeight(f.settings);
+    if (f.current < 0) {
+      frontal.activate(f.offset);
+      if (f.settings.aprioriSigmaM !== null) frontal.addValueConstraint(f.offset, 1 / f.settings.aprioriSigmaM ** 2);
+      if (f.count > 1) {
+        frontal.activate(f.offset + 1);
+        if (rw !== null) frontal.addDifferenceConstraint(f.offset + 1, f.offset, rw);
+      }
+      f.current = 0;
+    }
+    while (f.current < interval) {
+      frontal.eliminate(f.offset + f.current);
+      frontal.activate(f.offset + f.current + 2);
+      if (rw !== null) frontal.addDifferenceConstraint(f.offset + f.current + 2, f.offset + f.current + 1, rw);
+      f.current++;
+    }
+  };
+  const perStation = families.length / S;
+
+  let maxEntries = 1;
+  for (let k = 0; k < net.epochMs.length; k++) maxEntries = Math.max(maxEntries, net.entryStart[k + 1]! - net.entryStart[k]!);
+  const sys = new EpochClockSystem(net, maxEntries);
+  const epochs = net.epochMs.length;
+  const stamp = new Int32Array(epochs);
+  // Local parameter ids and interpolation weights of station s at epoch k: a_p = interp[p] · m[family[p]].
+  const ids = new Int32Array(local * S);
+  const interp = new Float64Array(local * S);
+  const fam = net.gradients ? [0, 0, 1, 1, 2, 2] : [0, 0];
+  const fillLocal = (k: number, s: number) => {
+    const o = s * P;
+    const base = s * local;
+    const j = net.zwdInterval[k]!;
+    const alpha = net.zwdAlpha[k]!;
+    ids[base] = o + j;
+    ids[base + 1] = layout.zwdCount > 1 ? o + j + 1 : -1;
+    interp[base] = 1 - alpha;
+    interp[base + 1] = alpha;
+    if (net.gradients) {
+      const l = net.gradientInterval[k]!;
+      const beta = net.gradientAlpha[k]!;
+      const two = layout.gradientCount > 1;
+      ids[base + 2] = o + layout.northOffset + l;
+      ids[base + 3] = two ? o + layout.northOffset + l + 1 : -1;
+      ids[base + 4] = o + layout.eastOffset + l;
+      ids[base + 5] = two ? o + layout.eastOffset + l + 1 : -1;
+      interp[base + 2] = interp[base + 4] = 1 - beta;
+      interp[base + 3] = interp[base + 5] = beta;
+    }
+  };
+  const slots = new Int32Array(local * S);
+  let clockUnknowns = 0;
+
+  // Forward pass: assembly and elimination.
+  for (let k = 0; k < epochs; k++) {
+    for (let s = 0; s < S; s++) {
+      advance(families[s * perStation]!, net.zwdInterval[k]!);
+      for (let f = 1; f < perStation; f++) advance(families[s * perStation + f]!, net.gradientInterval[k]!);
+    }
+    stamp[k] = frontal.eliminatedCount;
+    if (!sys.build(k, used)) continue;
+    const Sp = sys.presentCount;
+    clockUnknowns += (net.receiverClocks ? Sp - sys.datums : 0) + (net.satelliteClocks ? sys.satellites : 0);
+    const dz = d * Sp;
+    for (let a = 0; a < Sp; a++) {
+      const s = sys.present[a]!;
+      fillLocal(k, s);
+      for (let p = 0; p < local; p++) {
+        const id = ids[s * local + p]!;
+        slots[a * local + p] = id >= 0 ? frontal.slot(id) : -1;
+        if (id >= 0) frontal.addDirectDiagonal(id, interp[s * local + p]! ** 2 * sys.direct[d * a + fam[p]!]!);
+      }
+    }
+    // N += B R Bᵀ, g += B r_z.
+    for (let a = 0; a < Sp; a++) {
+      const sa = sys.present[a]!;
+      for (let p = 0; p < local; p++) {
+        const sp = slots[a * local + p]!;
+        if (sp < 0) continue;
+        const bp = interp[sa * local + p]!;
+        const rowR = (d * a + fam[p]!) * dz;
+        frontal.addRhsAtSlot(sp, bp * sys.rz[d * a + fam[p]!]!);
+        for (let b = 0; b <= a; b++) {
+          const sb = sys.present[b]!;
+          const qEnd = b === a ? p + 1 : local;
+          for (let q = 0; q < qEnd; q++) {
+            const sq = slots[b * local + q]!;
+            if (sq < 0) continue;
+            frontal.addAtSlots(sp, sq, bp * interp[sb * local + q]! * sys.r[rowR + d * b + fam[q]!]!);
+          }
+        }
+      }
+    }
+  }
+  frontal.eliminateAll();
+  const x = frontal.solve();
+
+  // Reverse sweep: selected inverse, residuals, σ_v, epoch covariances.
+  const fittedResidualM = net.stations.map((st) => new Float64Array(st.design.residualM.length));
+  const residualVarianceM2 = net.stations.map((st) => new Float64Array(st.design.residualM.length));
+  const receiverClockM = net.stations.map((st) => new Float64Array(st.design.epochMs.length).fill(Number.NaN));
+  const included = net.stations.map((st) => new Uint8Array(st.design.residualM.length));
+  const nodeCovarianceWithReference = net.stations.map(() => new Float64Array(layout.zwdCount).fill(Number.NaN));
+  const adjacentCovariance = new Float64Array(S * P);
+  const familyEnd = (id: number) => {
+    const j = id % P;
+    return j === layout.zwdCount - 1 || j === layout.eastOffset - 1 || j === P - 1;
+  };
+  const epochCov: EpochCovariances[] = new Array(epochs);
+  const byStamp = new Map<number, number[]>();
+  for (let k = 0; k < epochs; k++) {
+    const list = byStamp.get(stamp[k]!);
+    if (list) list.push(k);
+    else byStamp.set(stamp[k]!, [k]);
+  }
+  const stationEpochAt = net.stations.map((st) => {
+    const m = new Int32Array(epochs).fill(-1);
+    st.networkEpoch.forEach((ke, ks) => (m[ke] = ks));
+    return m;
+  });
+  let weightedSquareSum = 0;
+  let residualSquareSumM2 = 0;
+  let observationsUsed = 0;
+  const refOffset = reference * P;
+  const maxDz = d * S;
+  const q = new Float64Array(maxDz * maxDz);
+  const zhat = new Float64Array(maxDz);
+  const rho = new Float64Array(S);
+  const qBeta = new Float64Array(S * maxDz);
+  const betaQBeta = new Float64Array(S);
+  const gamma = new Float64Array(maxDz);
+  const qGamma = new Float64Array(maxDz);
+  const m = new Float64Array(3);
+
+  frontal.reverseSweep({
+    onPair(p, r, z) {
+      const lo = Math.min(p, r);
+      if (Math.max(p, r) === lo + 1 && !familyEnd(lo)) adjacentCovariance[lo] = z;
+      // ZWD node j of a station with the reference station's node j.
+      const sp = Math.floor(p / P);
+      const sr = Math.floor(r / P);
+      const jp = p - sp * P;
+      const jr = r - sr * P;
+      if (jp !== jr || jp >= layout.zwdCount) return;
+      if (sr === reference) nodeCovarianceWithReference[sp]![jp] = z;
+      else if (sp === reference) nodeCovarianceWithReference[sr]![jr] = z;
+    },
+    onStamp(c, get) {
+      const list = byStamp.get(c);
+      if (!list) return;
+      for (const k of list) {
+        epochCov[k] = epochCovariances(k, get);
+        if (!sys.build(k, used)) continue;
+        residualsOfEpoch(k, get);
+      }
+    },
+  });
+  for (let s = 0; s < S; s++) nodeCovarianceWithReference[s]!.forEach((v, j) => {
+    if (Number.isNaN(v) && s === reference) nodeCovarianceWithReference[s]![j] = frontal.inverseDiagonal[refOffset + j]!;
+  });
+
+  function wetCoefficients(k: number, s: number, out: { p0: number; p1: number; w0: number; w1: number }) {
+    const j = net.zwdInterval[k]!;
+    out.p0 = s * P + j;
+    out.w0 = 1 - net.zwdAlpha[k]!;
+    out.p1 = layout.zwdCount > 1 ? s * P + j + 1 : -1;
+    out.w1 = net.zwdAlpha[k]!;
+  }
+
+  function epochCovariances(k: number, get: (p: number, q: number) => number): EpochCovariances {
+    const variance = new Float64Array(S).fill(Number.NaN);
+    const relativeVariance = new Float64Array(S).fill(Number.NaN);
+    const cs = Array.from({ length: S }, () => ({ p0: 0, p1: 0, w0: 0, w1: 0 }));
+    for (let s = 0; s < S; s++) wetCoefficients(k, s, cs[s]!);
+    const cov = (s: number, t: number) => {
+      const a = cs[s]!;
+      const b = cs[t]!;
+      let v = a.w0 * b.w0 * get(a.p0, b.p0);
+      if (a.p1 >= 0) v += a.w1 * b.w0 * get(a.p1, b.p0);
+      if (b.p1 >= 0) v += a.w0 * b.w1 * get(a.p0, b.p1);
+      if (a.p1 >= 0 && b.p1 >= 0) v += a.w1 * b.w1 * get(a.p1, b.p1);
+      return v;
+    };
+    let meanVariance = 0;
+    const rowSum = new Float64Array(S);
+    for (let s = 0; s < S; s++) {
+      for (let t = 0; t <= s; t++) {
+        const v = cov(s, t);
+        rowSum[s]! += v;
+        if (t !== s) rowSum[t]! += v;
+        meanVariance += t === s ? v : 2 * v;
+      }
+    }
+    meanVariance /= S * S;
+    const vRef = cov(reference, reference);
+    for (let s = 0; s < S; s++) {
+      if (stationEpochAt[s]![k]! < 0) continue;
+      const vs = cov(s, s);
+      variance[s] = vs;
+      relativeVariance[s] = s === reference ? 0 : Math.max(vs + vRef - 2 * cov(s, reference), 0);
+    }
+    return { variance, relativeVariance, meanVariance, meanClockCorrelation: Number.NaN };
+  }
+
+  function residualsOfEpoch(k: number, get: (p: number, q: number) => number): void {
+    const Sp = sys.presentCount;
+    const dz = d * Sp;
+    // ẑ = Bᵀx and Q_zz = Bᵀ Q B for the present stations.
+    for (let a = 0; a < Sp; a++) fillLocal(k, sys.present[a]!);
+    for (let a = 0; a < Sp; a++) {
+      const sa = sys.present[a]!;
+      for (let f = 0; f < d; f++) zhat[d * a + f] = 0;
+      for (let p = 0; p < local; p++) {
+        const id = ids[sa * local + p]!;
+        if (id >= 0) zhat[d * a + fam[p]!]! += interp[sa * local + p]! * x[id]!;
+      }
+    }
+    for (let a = 0; a < Sp; a++) {
+      const sa = sys.present[a]!;
+      for (let b = 0; b <= a; b++) {
+        const sb = sys.present[b]!;
+        for (let f = 0; f < d; f++) for (let g = 0; g < d; g++) q[(d * a + f) * dz + d * b + g] = 0;
+        for (let p = 0; p < local; p++) {
+          const ip = ids[sa * local + p]!;
+          if (ip < 0) continue;
+          const wp = interp[sa * local + p]!;
+          for (let r = 0; r < local; r++) {
+            const ir = ids[sb * local + r]!;
+            if (ir < 0) continue;
+            q[(d * a + fam[p]!) * dz + d * b + fam[r]!]! += wp * interp[sb * local + r]! * get(ip, ir);
+          }
+        }
+        for (let f = 0; f < d; f++) for (let g = 0; g < d; g++) q[(d * b + g) * dz + d * a + f] = q[(d * a + f) * dz + d * b + g]!;
+      }
+    }
+    // Clocks: ρ̂ = t − K ẑ (datum clocks 0); σ̂_k = (G_k − h_kᵀ[ẑ; ρ̂]) / D_k.
+    if (net.receiverClocks) {
+      for (let a = 0; a < Sp; a++) {
+        let v = sys.t[a]!;
+        for (let p = 0; p < dz; p++) v -= sys.k[a * dz + p]! * zhat[p]!;
+        rho[a] = sys.datum[a] ? 0 : v;
+      }
+    }
+    const e0 = net.entryStart[k]!;
+    const e1 = net.entryStart[k + 1]!;
+    // Residuals without the satellite clock first.
+    const pre = new Float64Array(e1 - e0);
+    for (let e = e0; e < e1; e++) {
+      if (!sys.included[e - e0]) continue;
+      const s = net.entryStation[e]!;
+      const i = net.entryObservation[e]!;
+      const a = sys.localOf[s]!;
+      sys.mapping(s, i, m);
+      let v = net.stations[s]!.reducedResidualM[i]!;
+      for (let f = 0; f < d; f++) v -= m[f]! * zhat[d * a + f]!;
+      if (net.receiverClocks) v -= rho[a]!;
+      pre[e - e0] = v;
+    }
+    if (net.receiverClocks && !net.satelliteClocks) {
+      for (let a = 0; a < Sp; a++) {
+        const s = sys.present[a]!;
+        const ks = stationEpochAt[s]![k]!;
+        receiverClockM[s]![ks] = rho[a]! + net.stations[s]!.receiverShiftM[ks]!;
+      }
+    }
+    // β_a = row a of K, Q β_a, β_aᵀ Q β_a.
+    if (net.receiverClocks) {
+      for (let a = 0; a < Sp; a++) {
+        let bqb = 0;
+        for (let p = 0; p < dz; p++) {
+          let v = 0;
+          for (let r = 0; r < dz; r++) v += q[p * dz + r]! * sys.k[a * dz + r]!;
+          qBeta[a * maxDz + p] = v;
+          bqb += sys.k[a * dz + p]! * v;
+        }
+        betaQBeta[a] = bqb;
+      }
+    }
+    const Sinv = sys.sInv;
+    for (let kk = 0; kk < sys.satellites || (!net.satelliteClocks && kk === 0); kk++) {
+      // With satellite clocks: one group per satellite; without: all entries in one pass.
+      const ea = net.satelliteClocks ? sys.satFirst[kk]! : e0;
+      const eb = net.satelliteClocks ? ea + sys.satCount[kk]! : e1;
+      let sat = 0;
+      let invD = 0;
+      let gqg = 0;
+      let hth = 0;
+      const tau = new Float64Array(Sp);
+      if (net.satelliteClocks) {
+        const D = sys.satD[kk]!;
+        invD = 1 / D;
+        let wsum = 0;
+        for (let e = ea; e < eb; e++) {
+          if (!sys.included[e - e0]) continue;
+          const w = net.stations[net.entryStation[e]!]!.design.weight[net.entryObservation[e]!]!;
+          wsum += w * pre[e - e0]!;
+        }
+        sat = wsum / D;
+        // γ = h̃_z − Kᵀ h̃_ρ, τ = S⁻¹ h̃_ρ.
+        gamma.fill(0, 0, dz);
+        for (let e = ea; e < eb; e++) {
+          if (!sys.included[e - e0]) continue;
+          const s = net.entryStation[e]!;
+          const i = net.entryObservation[e]!;
+          const a = sys.localOf[s]!;
+          const wD = net.stations[s]!.design.weight[i]! * invD;
+          sys.mapping(s, i, m);
+          for (let f = 0; f < d; f++) gamma[d * a + f]! += wD * m[f]!;
+          if (net.receiverClocks) {
+            for (let p = 0; p < dz; p++) gamma[p]! -= sys.k[a * dz + p]! * wD;
+            for (let b = 0; b < Sp; b++) tau[b]! += Sinv[b * Sp + a]! * wD;
+          }
+        }
+        for (let p = 0; p < dz; p++) {
+          let v = 0;
+          for (let r = 0; r < dz; r++) v += q[p * dz + r]! * gamma[r]!;
+          qGamma[p] = v;
+          gqg += gamma[p]! * v;
+        }
+        if (net.receiverClocks) {
+          for (let e = ea; e < eb; e++) {
+            if (!sys.included[e - e0]) continue;
+            const s = net.entryStation[e]!;
+            hth += net.stations[s]!.design.weight[net.entryObservation[e]!]! * invD * tau[sys.localOf[s]!]!;
+          }
+        }
+      }
+      for (let e = ea; e < eb; e++) {
+        if (!sys.included[e - e0]) continue;
+        const s = net.entryStation[e]!;
+        const i = net.entryObservation[e]!;
+        const st = net.stations[s]!;
+        const a = sys.localOf[s]!;
+        const w = st.design.weight[i]!;
+        const v = pre[e - e0]! - sat;
+        fittedResidualM[s]![i] = v;
+        included[s]![i] = 1;
+        observationsUsed++;
+        weightedSquareSum += w * v * v;
+        residualSquareSumM2 += v * v;
+        sys.mapping(s, i, m);
+        // u₂ᵀ Q u₂ with u₂ = E_a m − β_a − γ_k.
+        let quad = 0;
+        for (let f = 0; f < d; f++) for (let g = 0; g < d; g++) quad += m[f]! * q[(d * a + f) * dz + d * a + g]! * m[g]!;
+        if (net.receiverClocks) {
+          quad += betaQBeta[a]!;
+          for (let f = 0; f < d; f++) quad -= 2 * m[f]! * qBeta[a * maxDz + d * a + f]!;
+        }
+        let rhoTerm = 0;
+        if (net.receiverClocks) rhoTerm = Sinv[a * Sp + a]!;
+        if (net.satelliteClocks) {
+          quad += gqg;
+          for (let f = 0; f < d; f++) quad -= 2 * m[f]! * qGamma[d * a + f]!;
+          if (net.receiverClocks) {
+            let bqg = 0;
+            for (let p = 0; p < dz; p++) bqg += sys.k[a * dz + p]! * qGamma[p]!;
+            quad += 2 * bqg;
+            rhoTerm += -2 * tau[a]! + hth;
+          }
+        }
+        const sigma = st.design.sigmaM[i]!;
+        residualVarianceM2[s]![i] = sigma * sigma - invD - rhoTerm - quad;
+      }
+      if (!net.satelliteClocks) break;
+    }
+  }
+
+  // Constraint residuals.
+  for (const f of families) {
+    if (f.settings.aprioriSigmaM !== null) weightedSquareSum += (x[f.offset]! / f.settings.aprioriSigmaM) ** 2;
+    const rw = randomWalkWeight(f.settings);
+    if (rw !== null) for (let j = 0; j + 1 < f.count; j++) weightedSquareSum += rw * (x[f.offset + j + 1]! - x[f.offset + j]!) ** 2;
+  }
+
+  return {
+    x,
+    inverseDiagonal: frontal.inverseDiagonal,
+    nodeCovarianceWithReference,
+    adjacentCovariance,
+    fittedResidualM,
+    residualVarianceM2,
+    receiverClockM,
+    included,
+    epochs: epochCov,
+    weightedSquareSum,
+    residualSquareSumM2,
+    observationsUsed,
+    clockUnknowns,
+    constraints: S * constraintCount(layout, options),
+  };
+}
