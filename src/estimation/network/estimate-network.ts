@@ -127,6 +127,11 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
     if (singles.pairs > 0) {
       warnings.push(`${singles.observations} observations of ${singles.pairs} (epoch, satellite) pairs seen by one station only were not used: with satellite clocks estimated they carry no information`);
     }
+    for (const r of results) {
+      if (r.statistics.observationsUsed === 0) {
+        warnings.push(`station ${r.station} shares no satellite with another station at any epoch: with satellite clocks estimated its observations carry no information, and its values are the a-priori constraints only`);
+      }
+    }
     if (singles.epochs > 0) warnings.push(`${singles.epochs} epochs with observations of one station only carry no information with satellite clocks estimated`);
     if (meanEstimated !== null && meanEstimated > options.commonModeSigmaThresholdM) {
       warnings.push(
