@@ -6,30 +6,35 @@
  *
  *   r = mᵀ z_a + ρ_a + σ_k + ε,     m = (m_w(e), m_g(e) cos A, m_g(e) sin A)
  *
- * z_a = (δw, G_N, G_E) of station a at t (interpolated from its nodes: z_a = B_aᵀ x), ρ_a the
- * receiver clock, σ_k the satellite clock (sign absorbed), ε ~ N(0, 1/w). Mapping functions as in
- * ../design.ts.
+ * z_a = (δw, G_N, G_E) of station a at t (interpolated from its nodes: z_a = B_aᵀ x; δw only when
+ * no gradients are estimated), ρ_a the receiver clock, σ_k the satellite clock (sign absorbed),
+ * ε ~ N(0, 1/w). Mapping functions as in ../design.ts.
  *
- * Elimination, in two stages, for unknowns w = [z; ρ] and σ:
- *  1. Each satellite clock touches only the observations of that satellite: with D_k = Σ w_i,
- *     G_k = Σ w_i r_i and h_k = Σ w_i f_i (f_i the partials of observation i in w), eliminating σ_k
- *     is the rank-one downdate  N_ww −= h_k h_kᵀ / D_k,  g_w −= h_k G_k / D_k.
- *     A satellite seen by one station only cancels its observation entirely (no clock information);
- *     such observations are left out beforehand and counted.
- *  2. The receiver clocks: S = N_ρρ (after stage 1). With satellite clocks estimated, all clocks
- *     of a connected group of stations (linked by common satellites) can shift together: S is
- *     singular, one defect per group. The datum: the clock of the first station of each group (in
- *     station order) is fixed to zero (removed from the unknowns). The troposphere estimates do not
- *     depend on this choice (only the clocks do). With K = S⁻¹ N_ρz:
- *       R = N_zz − N_zρ K,   g_z' = g_z − N_zρ S⁻¹ g_ρ.
+ * Elimination in two stages (e.g. Koch (1999), Parameter Estimation and Hypothesis Testing in
+ * Linear Models, ch. 3, from memory; common practice in GNSS network processing):
+ *  1. Receiver clocks. ρ_a touches only station a's observations: with D_a = Σ w, the weighted means
+ *     m̄_a, r̄_a over them, c = m − m̄_a and ω_ak = w_ak / D_a, eliminating ρ_a leaves
+ *       N_zz = Σ w c cᵀ (block diagonal),   N_zσ[a, k] = w_ak c_ak,   g_z = Σ w c (r − r̄_a),
+ *       N_σσ = diag(Σ_a w_ak) − Σ_a D_a ω_a ω_aᵀ,   g_σ[k] = Σ_a w_ak (r_ak − r̄_a),
+ *     the centred form of the single-station code (no digits lost to clock offsets of 300 km).
+ *  2. Satellite clocks (K of them, dense K×K). All clocks of a connected group of stations (linked
+ *     by common satellites) can shift together: N_σσ is singular, one defect per group. The datum:
+ *     the clock of the group's first satellite (in order of first appearance in the input) is fixed
+ *     (removed from the unknowns). The troposphere does not depend on this choice; the clocks do.
+ *     With S = N_σσ (datum removed), K_σ = S⁻¹ N_σz and t = S⁻¹ g_σ:
+ *       R = N_zz − N_zσ K_σ,   r_z = g_z − N_zσ t.
+ *  Receiver clocks are eliminated first because they are diagonal and a regional network has more
+ *  stations than satellites in view: the dense stage costs O(K²·dS + K·(dS)²) per epoch.
+ *  A satellite seen by one station only cancels its observation entirely (no clock information):
+ *  such observations are left out beforehand and counted.
  *
- * Residual variances for screening (Q_v = Q_ℓ − A Q Aᵀ of the full system, evaluated through the two
- * stages; for a nuisance block c eliminated from [y; c], fᵀQf = e_cᵀ N_cc⁻¹ e_c + uᵀ Q_yy u with
+ * Residual variances for screening (Q_v = Q_ℓ − A Q Aᵀ of the full system, through both stages;
+ * for a nuisance block c eliminated from [y; c], fᵀQf = e_cᵀ N_cc⁻¹ e_c + uᵀ Q_yy u with
  * u = f_y − (N_cc⁻¹ N_cy)ᵀ e_c):
- *   σ_v² = σ² − 1/D_k − u₁ρᵀ S⁻¹ u₁ρ − u₂ᵀ Q_zz u₂,
- *   u₁ = f − h_k/D_k,   u₂ = u₁z − Kᵀ u₁ρ = E_a m − β_a − γ_k,
- * β_a = Kᵀe_a (row a of K), γ_k = h̃_kz − Kᵀ h̃_kρ (h̃ = h/D), Q_zz the covariance of z from the
- * global selected inverse. Terms without a satellite clock (satellite clocks known) drop out.
+ *   σ_v² = σ² − 1/D_a − (e_k − ω_a)ᵀ S⁻¹ (e_k − ω_a) − u₂ᵀ Q_zz u₂,
+ *   u₂ = E_a c − β_k + γ_a,   β_k = K_σᵀ e_k (row k of K_σ),   γ_a = K_σᵀ ω_a,
+ * Q_zz the covariance of z from the global selected inverse (network-solve.ts). Terms of a stage
+ * that is absent (receiver clocks off, satellite clocks known) drop out.
  */
 
 import type { NetworkDesign } from './network-design.js';
@@ -45,65 +50,81 @@ export class EpochClockSystem {
   /** Local satellites: first entry and count of each (entries are sorted by satellite). */
   readonly satFirst: Int32Array;
   readonly satCount: Int32Array;
-  readonly satD: Float64Array;
-  readonly satG: Float64Array;
   satellites = 0;
+  /** Datum (fixed) clock of each local satellite. */
+  readonly satDatum: Uint8Array;
+  datums = 0;
   /** Included entries (used, and with a satellite clock: seen by ≥ 2 stations). */
   readonly included: Uint8Array;
-  /** Datum (fixed) receiver clock of each local station. */
-  readonly datum: Uint8Array;
-  datums = 0;
-  /** Dense matrices over w = [z (d·S'); ρ (S')] (row-major, leading dimension ld). */
-  readonly n: Float64Array;
-  readonly g: Float64Array;
-  /** S⁻¹ (S'×S', zero rows/columns for datum clocks), K = S⁻¹ N_ρz (S'×dS'), t = S⁻¹ g_ρ. */
+  /** Per entry of the epoch (offset from its first entry): local station, local satellite, weight, partials m and c = m − m̄_a, residual r − r̄_a. */
+  readonly entryLocal: Int32Array;
+  readonly entrySat: Int32Array;
+  readonly entryWeight: Float64Array;
+  readonly entryMapping: Float64Array;
+  readonly entryCentred: Float64Array;
+  readonly entryResidual: Float64Array;
+  /** Per local station: D_a = Σ w, m̄_a (3), r̄_a (0 without receiver clocks). */
+  readonly stationD: Float64Array;
+  readonly stationMeanMapping: Float64Array;
+  readonly stationMeanResidual: Float64Array;
+  /** Entries of local station a: stationEntry[stationStart[a] .. stationStart[a+1]). */
+  readonly stationStart: Int32Array;
+  readonly stationEntry: Int32Array;
+  /** N_zσ (dS'×K), S⁻¹ (K×K, zero rows/columns for datum clocks), K_σ = S⁻¹ N_σz (K×dS'), t = S⁻¹ g_σ. */
+  readonly nzs: Float64Array;
   readonly sInv: Float64Array;
-  readonly k: Float64Array;
+  readonly ks: Float64Array;
   readonly t: Float64Array;
   /** Reduced normal matrix R (dS'×dS') and right-hand side. */
   readonly r: Float64Array;
   readonly rz: Float64Array;
-  /** Own-diagonal contribution Σ w m_f² per local station and family (singularity test). */
+  /** Own-diagonal contribution Σ w m_f² per local station and family (singularity test, before any elimination). */
   readonly direct: Float64Array;
-  private readonly ld: number;
+  private readonly sss: Float64Array;
+  private readonly gs: Float64Array;
   private readonly work: Float64Array;
   private readonly parent: Int32Array;
+  private readonly counter: Int32Array;
+  private readonly maxSats: number;
 
   constructor(
     private readonly net: NetworkDesign,
     maxEntries: number,
   ) {
     const S = net.stations.length;
+    const K = Math.max(1, Math.min(maxEntries, net.satellites.length));
+    this.maxSats = K;
     this.d = net.gradients ? 3 : 1;
     this.present = new Int32Array(S);
     this.localOf = new Int32Array(S).fill(-1);
-    this.satFirst = new Int32Array(maxEntries + 1);
-    this.satCount = new Int32Array(maxEntries + 1);
-    this.satD = new Float64Array(maxEntries + 1);
-    this.satG = new Float64Array(maxEntries + 1);
+    this.satFirst = new Int32Array(K + 1);
+    this.satCount = new Int32Array(K + 1);
+    this.satDatum = new Uint8Array(K);
     this.included = new Uint8Array(maxEntries);
-    this.datum = new Uint8Array(S);
-    this.ld = (this.d + 1) * S;
-    this.n = new Float64Array(this.ld * this.ld);
-    this.g = new Float64Array(this.ld);
-    this.sInv = new Float64Array(S * S);
-    this.k = new Float64Array(S * this.d * S);
-    this.t = new Float64Array(S);
-    this.r = new Float64Array(this.d * S * this.d * S);
-    this.rz = new Float64Array(this.d * S);
-    this.direct = new Float64Array(this.d * S);
-    this.work = new Float64Array(S * S);
-    this.parent = new Int32Array(S);
-  }
-
-  /** Partials m of design observation i of station s, into out[0..d). */
-  mapping(s: number, i: number, out: Float64Array): void {
-    const design = this.net.stations[s]!.design;
-    out[0] = design.wetMapping[i]!;
-    if (this.d === 3) {
-      out[1] = design.northMapping[i]!;
-      out[2] = design.eastMapping[i]!;
-    }
+    this.entryLocal = new Int32Array(maxEntries);
+    this.entrySat = new Int32Array(maxEntries);
+    this.entryWeight = new Float64Array(maxEntries);
+    this.entryMapping = new Float64Array(3 * maxEntries);
+    this.entryCentred = new Float64Array(3 * maxEntries);
+    this.entryResidual = new Float64Array(maxEntries);
+    this.stationD = new Float64Array(S);
+    this.stationMeanMapping = new Float64Array(3 * S);
+    this.stationMeanResidual = new Float64Array(S);
+    this.stationStart = new Int32Array(S + 1);
+    this.stationEntry = new Int32Array(maxEntries);
+    const dz = this.d * S;
+    this.nzs = new Float64Array(dz * K);
+    this.sInv = new Float64Array(K * K);
+    this.ks = new Float64Array(K * dz);
+    this.t = new Float64Array(K);
+    this.r = new Float64Array(dz * dz);
+    this.rz = new Float64Array(dz);
+    this.direct = new Float64Array(dz);
+    this.sss = new Float64Array(K * K);
+    this.gs = new Float64Array(K);
+    this.work = new Float64Array(K * K);
+    this.parent = new Int32Array(K);
+    this.counter = new Int32Array(S);
   }
 
   /**
@@ -114,12 +135,14 @@ export class EpochClockSystem {
   build(epoch: number, used: readonly Uint8Array[]): boolean {
     const net = this.net;
     const d = this.d;
+    const rc = net.receiverClocks;
+    const sc = net.satelliteClocks;
     const a0 = net.entryStart[epoch]!;
     const a1 = net.entryStart[epoch + 1]!;
     for (let a = 0; a < this.presentCount; a++) this.localOf[this.present[a]!] = -1;
     this.presentCount = 0;
     this.satellites = 0;
-    // Satellites and included entries.
+    // Satellites, included entries, present stations.
     for (let e = a0; e < a1; ) {
       let f = e;
       let usedCount = 0;
@@ -127,10 +150,11 @@ export class EpochClockSystem {
         if (used[net.entryStation[f]!]![net.entryObservation[f]!]) usedCount++;
         f++;
       }
-      const keep = usedCount >= (net.satelliteClocks ? 2 : 1);
+      const keep = usedCount >= (sc ? 2 : 1);
       for (let x = e; x < f; x++) {
         const inc = keep && used[net.entryStation[x]!]![net.entryObservation[x]!] ? 1 : 0;
         this.included[x - a0] = inc;
+        this.entrySat[x - a0] = this.satellites;
         if (inc && this.localOf[net.entryStation[x]!]! < 0) {
           this.localOf[net.entryStation[x]!] = this.presentCount;
           this.present[this.presentCount++] = net.entryStation[x]!;
@@ -145,203 +169,217 @@ export class EpochClockSystem {
     }
     const Sp = this.presentCount;
     if (Sp === 0) return false;
+    const K = sc ? this.satellites : 0;
     const dz = d * Sp;
-    const nw = net.receiverClocks ? dz + Sp : dz;
-    const ld = this.ld;
-    const N = this.n;
-    const g = this.g;
-    for (let i = 0; i < nw; i++) {
-      g[i] = 0;
-      N.fill(0, i * ld, i * ld + nw);
-    }
-    this.direct.fill(0, 0, dz);
-    const m = new Float64Array(3);
-    const h = new Float64Array(4);
+    const eL = this.entryLocal;
+    const eW = this.entryWeight;
+    const eM = this.entryMapping;
+    const eC = this.entryCentred;
+    const eR = this.entryResidual;
+    const D = this.stationD;
+    const mbar = this.stationMeanMapping;
+    const rbar = this.stationMeanResidual;
+    const start = this.stationStart;
+    D.fill(0, 0, Sp);
+    mbar.fill(0, 0, 3 * Sp);
+    rbar.fill(0, 0, Sp);
+    start.fill(0, 0, Sp + 1);
 
+    // Entry data; station sums.
     for (let e = a0; e < a1; e++) {
-      if (!this.included[e - a0]) continue;
+      const x = e - a0;
+      if (!this.included[x]) continue;
       const s = net.entryStation[e]!;
       const i = net.entryObservation[e]!;
       const st = net.stations[s]!;
-      const w = st.design.weight[i]!;
-      const r = st.reducedResidualM[i]!;
+      const design = st.design;
+      const w = design.weight[i]!;
       const a = this.localOf[s]!;
-      this.mapping(s, i, m);
+      eL[x] = a;
+      eW[x] = w;
+      eR[x] = st.reducedResidualM[i]!;
+      eM[3 * x] = design.wetMapping[i]!;
+      eM[3 * x + 1] = d === 3 ? design.northMapping[i]! : 0;
+      eM[3 * x + 2] = d === 3 ? design.eastMapping[i]! : 0;
+      start[a + 1]!++;
+      D[a]! += w;
+      if (rc) {
+        mbar[3 * a]! += w * eM[3 * x]!;
+        mbar[3 * a + 1]! += w * eM[3 * x + 1]!;
+        mbar[3 * a + 2]! += w * eM[3 * x + 2]!;
+        rbar[a]! += w * eR[x]!;
+      }
+    }
+    for (let a = 0; a < Sp; a++) start[a + 1]! += start[a]!;
+    const fill = this.counter;
+    for (let a = 0; a < Sp; a++) fill[a] = start[a]!;
+    for (let x = 0; x < a1 - a0; x++) if (this.included[x]) this.stationEntry[fill[eL[x]!]!++] = x;
+    if (rc) {
+      for (let a = 0; a < Sp; a++) {
+        const inv = 1 / D[a]!;
+        mbar[3 * a]! *= inv;
+        mbar[3 * a + 1]! *= inv;
+        mbar[3 * a + 2]! *= inv;
+        rbar[a]! *= inv;
+      }
+    }
+
+    // Stage 1: receiver clocks eliminated (centred sums).
+    const R = this.r;
+    const rz = this.rz;
+    R.fill(0, 0, dz * dz);
+    rz.fill(0, 0, dz);
+    this.direct.fill(0, 0, dz);
+    const nzs = this.nzs;
+    const sss = this.sss;
+    const gs = this.gs;
+    if (sc) {
+      nzs.fill(0, 0, dz * K);
+      sss.fill(0, 0, K * K);
+      gs.fill(0, 0, K);
+    }
+    for (let x = 0; x < a1 - a0; x++) {
+      if (!this.included[x]) continue;
+      const a = eL[x]!;
+      const w = eW[x]!;
+      const dr = eR[x]! - rbar[a]!;
+      eR[x] = dr;
+      for (let p = 0; p < 3; p++) eC[3 * x + p] = eM[3 * x + p]! - mbar[3 * a + p]!;
       const za = d * a;
       for (let p = 0; p < d; p++) {
-        const wp = w * m[p]!;
-        for (let q = 0; q < d; q++) N[(za + p) * ld + za + q]! += wp * m[q]!;
-        g[za + p]! += wp * r;
-        this.direct[za + p]! += wp * m[p]!;
-        if (net.receiverClocks) {
-          N[(za + p) * ld + dz + a]! += wp;
-          N[(dz + a) * ld + za + p]! += wp;
-        }
+        const cp = eC[3 * x + p]!;
+        const row = (za + p) * dz + za;
+        for (let q = 0; q < d; q++) R[row + q]! += w * cp * eC[3 * x + q]!;
+        rz[za + p]! += w * cp * dr;
+        this.direct[za + p]! += w * eM[3 * x + p]! * eM[3 * x + p]!;
       }
-      if (net.receiverClocks) {
-        N[(dz + a) * ld + dz + a]! += w;
-        g[dz + a]! += w * r;
-      }
-    }
-
-    // Stage 1: satellite clocks (rank-one downdates over the satellite's observations).
-    if (net.satelliteClocks) {
-      for (let k = 0; k < this.satellites; k++) {
-        const e0 = this.satFirst[k]!;
-        const e1 = e0 + this.satCount[k]!;
-        let D = 0;
-        let G = 0;
-        for (let e = e0; e < e1; e++) {
-          if (!this.included[e - a0]) continue;
-          const st = net.stations[net.entryStation[e]!]!;
-          const i = net.entryObservation[e]!;
-          D += st.design.weight[i]!;
-          G += st.design.weight[i]! * st.reducedResidualM[i]!;
-        }
-        this.satD[k] = D;
-        this.satG[k] = G;
-        for (let e = e0; e < e1; e++) {
-          if (!this.included[e - a0]) continue;
-          const s = net.entryStation[e]!;
-          const i = net.entryObservation[e]!;
-          const w = net.stations[s]!.design.weight[i]!;
-          this.mapping(s, i, m);
-          for (let p = 0; p < d; p++) h[p] = w * m[p]!;
-          h[d] = w;
-          const a = this.localOf[s]!;
-          // Rows of observation e against every observation of the satellite.
-          for (let f = e0; f < e1; f++) {
-            if (!this.included[f - a0]) continue;
-            const s2 = net.entryStation[f]!;
-            const i2 = net.entryObservation[f]!;
-            const w2 = net.stations[s2]!.design.weight[i2]! / D;
-            this.mapping(s2, i2, m);
-            const b = this.localOf[s2]!;
-            for (let p = 0; p <= d; p++) {
-              if (p === d && !net.receiverClocks) continue;
-              const row = (p < d ? d * a + p : dz + a) * ld;
-              const hp = h[p]!;
-              for (let q = 0; q < d; q++) N[row + d * b + q]! -= hp * w2 * m[q]!;
-              if (net.receiverClocks) N[row + dz + b]! -= hp * w2;
-            }
-          }
-          for (let p = 0; p <= d; p++) {
-            if (p === d && !net.receiverClocks) continue;
-            g[p < d ? d * a + p : dz + a]! -= (h[p]! * G) / D;
-          }
-        }
+      if (sc) {
+        const k = this.entrySat[x]!;
+        for (let p = 0; p < d; p++) nzs[(za + p) * K + k]! += w * eC[3 * x + p]!;
+        gs[k]! += w * dr;
+        sss[k * K + k]! += w;
       }
     }
-
-    // Stage 2: receiver clocks, one datum clock per connected group of stations.
-    const rd = this.r;
-    const rz = this.rz;
-    if (!net.receiverClocks) {
-      for (let p = 0; p < dz; p++) {
-        rz[p] = g[p]!;
-        for (let q = 0; q < dz; q++) rd[p * dz + q] = N[p * ld + q]!;
-      }
+    if (!sc) {
       this.datums = 0;
       return true;
     }
-    this.findDatum(a0, a1);
-    const sInv = this.sInv;
-    invertWithDatum(N, ld, dz, Sp, this.datum, sInv, this.work);
-    // K = S⁻¹ N_ρz, t = S⁻¹ g_ρ.
-    const K = this.k;
-    for (let a = 0; a < Sp; a++) {
-      let tv = 0;
-      for (let q = 0; q < dz; q++) K[a * dz + q] = 0;
-      for (let b = 0; b < Sp; b++) {
-        const v = sInv[a * Sp + b]!;
-        if (v === 0) continue;
-        const row = (dz + b) * ld;
-        for (let q = 0; q < dz; q++) K[a * dz + q]! += v * N[row + q]!;
-        tv += v * g[dz + b]!;
+    if (rc) {
+      // N_σσ −= Σ_a w_ak w_ak' / D_a over pairs of the station's satellites.
+      for (let a = 0; a < Sp; a++) {
+        const inv = 1 / D[a]!;
+        for (let u = start[a]!; u < start[a + 1]!; u++) {
+          const x = this.stationEntry[u]!;
+          const wx = eW[x]! * inv;
+          const row = this.entrySat[x]! * K;
+          for (let v = start[a]!; v < start[a + 1]!; v++) {
+            const y = this.stationEntry[v]!;
+            sss[row + this.entrySat[y]!]! -= wx * eW[y]!;
+          }
+        }
       }
-      this.t[a] = tv;
     }
-    // R = N_zz − N_zρ K, g_z' = g_z − N_zρ t.
-    for (let p = 0; p < dz; p++) {
-      let v = g[p]!;
-      for (let a = 0; a < Sp; a++) v -= N[p * ld + dz + a]! * this.t[a]!;
-      rz[p] = v;
-      for (let q = 0; q < dz; q++) {
-        let x = N[p * ld + q]!;
-        for (let a = 0; a < Sp; a++) x -= N[p * ld + dz + a]! * K[a * dz + q]!;
-        rd[p * dz + q] = x;
+
+    // Stage 2: satellite clocks, one datum clock per connected group.
+    this.findDatum(K);
+    invertWithDatum(sss, K, this.satDatum, this.sInv, this.work);
+    const sInv = this.sInv;
+    const ks = this.ks;
+    const t = this.t;
+    // K_σ = S⁻¹ N_σz (K×dz), t = S⁻¹ g_σ.
+    ks.fill(0, 0, K * dz);
+    for (let k = 0; k < K; k++) {
+      let tv = 0;
+      const rowK = k * dz;
+      for (let l = 0; l < K; l++) {
+        const v = sInv[k * K + l]!;
+        if (v === 0) continue;
+        tv += v * gs[l]!;
+        for (let q = 0; q < dz; q++) ks[rowK + q]! += v * nzs[q * K + l]!;
       }
+      t[k] = tv;
+    }
+    // R −= N_zσ K_σ, r_z −= N_zσ t.
+    for (let p = 0; p < dz; p++) {
+      const rowR = p * dz;
+      let v = rz[p]!;
+      for (let k = 0; k < K; k++) {
+        const c = nzs[p * K + k]!;
+        if (c === 0) continue;
+        v -= c * t[k]!;
+        const rowK = k * dz;
+        for (let q = 0; q < dz; q++) R[rowR + q]! -= c * ks[rowK + q]!;
+      }
+      rz[p] = v;
     }
     return true;
   }
 
-  /** Union–find over stations linked by a common satellite; the first station of each group is the datum. */
-  private findDatum(a0: number, a1: number): void {
-    const net = this.net;
-    const Sp = this.presentCount;
-    const parent = this.parent;
-    for (let a = 0; a < Sp; a++) parent[a] = a;
-    const root = (a: number): number => {
-      while (parent[a] !== a) {
-        parent[a] = parent[parent[a]!]!;
-        a = parent[a]!;
-      }
-      return a;
-    };
-    this.datum.fill(0, 0, Sp);
+  /**
+   * Datum of the satellite clocks: with receiver clocks estimated, every connected group of
+   * satellites (linked through stations that see both) has one defect; its first satellite's clock
+   * is fixed. Without receiver clocks there is no defect.
+   */
+  private findDatum(K: number): void {
+    this.satDatum.fill(0, 0, K);
     this.datums = 0;
-    if (!net.satelliteClocks) return;
-    for (let k = 0; k < this.satellites; k++) {
-      let firstLocal = -1;
-      for (let e = this.satFirst[k]!; e < this.satFirst[k]! + this.satCount[k]!; e++) {
-        if (!this.included[e - a0]) continue;
-        const a = this.localOf[net.entryStation[e]!]!;
-        if (firstLocal < 0) firstLocal = a;
-        else {
-          const ra = root(a);
-          const rb = root(firstLocal);
-          if (ra !== rb) parent[Math.max(ra, rb)] = Math.min(ra, rb);
-        }
+    if (!this.net.receiverClocks) return;
+    const parent = this.parent;
+    for (let k = 0; k < K; k++) parent[k] = k;
+    const root = (k: number): number => {
+      while (parent[k] !== k) {
+        parent[k] = parent[parent[k]!]!;
+        k = parent[k]!;
+      }
+      return k;
+    };
+    for (let a = 0; a < this.presentCount; a++) {
+      const u0 = this.stationStart[a]!;
+      const first = this.entrySat[this.stationEntry[u0]!]!;
+      for (let u = u0 + 1; u < this.stationStart[a + 1]!; u++) {
+        const ra = root(this.entrySat[this.stationEntry[u]!]!);
+        const rb = root(first);
+        if (ra !== rb) parent[Math.max(ra, rb)] = Math.min(ra, rb);
       }
     }
-    void a1;
-    // The datum station of a group: the one with the smallest station index.
-    const best = new Int32Array(Sp).fill(-1);
-    for (let a = 0; a < Sp; a++) {
-      const r = root(a);
-      if (best[r]! < 0 || this.present[a]! < this.present[best[r]!]!) best[r] = a;
-    }
-    for (let a = 0; a < Sp; a++) {
-      if (best[a]! >= 0) {
-        this.datum[best[a]!] = 1;
+    for (let k = 0; k < K; k++) {
+      if (root(k) === k) {
+        this.satDatum[k] = 1;
         this.datums++;
       }
     }
   }
+
+  /** Number of satellite clocks (0 without satellite clocks). */
+  get satelliteClockCount(): number {
+    return this.net.satelliteClocks ? this.satellites : 0;
+  }
+
+  get maxSatellites(): number {
+    return this.maxSats;
+  }
 }
 
 /**
- * S⁻¹ of the receiver-clock block N[dz.., dz..] (S'×S') with the datum clocks removed (their rows
- * and columns of the result are zero): Cholesky of the remaining block and its inverse.
+ * S⁻¹ of the K×K satellite-clock block with the datum clocks removed (their rows and columns of
+ * the result are zero): Cholesky of the remaining block and its inverse.
  */
-function invertWithDatum(N: Float64Array, ld: number, dz: number, Sp: number, datum: Uint8Array, out: Float64Array, work: Float64Array): void {
+function invertWithDatum(S: Float64Array, K: number, datum: Uint8Array, out: Float64Array, work: Float64Array): void {
   const idx: number[] = [];
-  for (let a = 0; a < Sp; a++) if (!datum[a]) idx.push(a);
+  for (let k = 0; k < K; k++) if (!datum[k]) idx.push(k);
   const n = idx.length;
-  out.fill(0, 0, Sp * Sp);
+  out.fill(0, 0, K * K);
   if (n === 0) return;
-  // Cholesky L (lower) in work (n×n).
   for (let i = 0; i < n; i++) {
     for (let j = 0; j <= i; j++) {
-      let v = N[(dz + idx[i]!) * ld + dz + idx[j]!]!;
+      let v = S[idx[i]! * K + idx[j]!]!;
       for (let q = 0; q < j; q++) v -= work[i * n + q]! * work[j * n + q]!;
       if (i === j) {
-        if (!(v > 0)) throw new Error('receiver-clock block is not positive definite');
+        if (!(v > 0)) throw new Error('satellite-clock block is not positive definite');
         work[i * n + i] = Math.sqrt(v);
       } else work[i * n + j] = v / work[j * n + j]!;
     }
   }
-  // Inverse: solve L Lᵀ X = I column by column.
   const col = new Float64Array(n);
   for (let c = 0; c < n; c++) {
     col.fill(0);
@@ -356,6 +394,6 @@ function invertWithDatum(N: Float64Array, ld: number, dz: number, Sp: number, da
       for (let q = i + 1; q < n; q++) v -= work[q * n + i]! * col[q]!;
       col[i] = v / work[i * n + i]!;
     }
-    for (let i = 0; i < n; i++) out[idx[i]! * Sp + idx[c]!] = col[i]!;
+    for (let i = 0; i < n; i++) out[idx[i]! * K + idx[c]!] = col[i]!;
   }
 }

@@ -413,6 +413,7 @@ function stationResults(problem: SubProblem, input: NetworkEstimationInput, refe
   const x = solution.x;
   const diag = solution.inverseDiagonal;
   const adj = solution.adjacentCovariance;
+  const singleCounts = singleStationCounts(net).perStation;
   return net.stations.map((st, s) => {
     const o = s * P;
     const ro = reference * P;
@@ -461,7 +462,7 @@ function stationResults(problem: SubProblem, input: NetworkEstimationInput, refe
       };
     });
     const belowCutoff = d.observationsBelowCutoff;
-    const singles = singleStationCounts(net).perStation[s]!;
+    const singles = singleCounts[s]!;
     return {
       station: st.name,
       zwdNodes,

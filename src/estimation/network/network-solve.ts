@@ -149,7 +149,7 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
     stamp[k] = frontal.eliminatedCount;
     if (!sys.build(k, used)) continue;
     const Sp = sys.presentCount;
-    clockUnknowns += (net.receiverClocks ? Sp - sys.datums : 0) + (net.satelliteClocks ? sys.satellites : 0);
+    clockUnknowns += (net.receiverClocks ? Sp : 0) + sys.satelliteClockCount - sys.datums;
     const dz = d * Sp;
     for (let a = 0; a < Sp; a++) {
       const s = sys.present[a]!;
@@ -214,12 +214,14 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
   const maxDz = d * S;
   const q = new Float64Array(maxDz * maxDz);
   const zhat = new Float64Array(maxDz);
-  const rho = new Float64Array(S);
-  const qBeta = new Float64Array(S * maxDz);
-  const betaQBeta = new Float64Array(S);
-  const gamma = new Float64Array(maxDz);
-  const qGamma = new Float64Array(maxDz);
-  const m = new Float64Array(3);
+  const maxK = sys.maxSatellites;
+  const satClock = new Float64Array(maxK);
+  const phi = new Float64Array(maxDz * maxK);
+  const psi = new Float64Array(maxK * maxK);
+  const omega = new Float64Array(maxK);
+  const tau = new Float64Array(maxK);
+  const psiOmega = new Float64Array(maxK);
+  const phiOmega = new Float64Array(3);
 
   frontal.reverseSweep({
     onPair(p, r, z) {
@@ -294,6 +296,8 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
   function residualsOfEpoch(k: number, get: (p: number, q: number) => number): void {
     const Sp = sys.presentCount;
     const dz = d * Sp;
+    const K = sys.satelliteClockCount;
+    const rc = net.receiverClocks;
     // ẑ = Bᵀx and Q_zz = Bᵀ Q B for the present stations.
     for (let a = 0; a < Sp; a++) fillLocal(k, sys.present[a]!);
     for (let a = 0; a < Sp; a++) {
@@ -322,135 +326,109 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
         for (let f = 0; f < d; f++) for (let g = 0; g < d; g++) q[(d * b + g) * dz + d * a + f] = q[(d * a + f) * dz + d * b + g]!;
       }
     }
-    // Clocks: ρ̂ = t − K ẑ (datum clocks 0); σ̂_k = (G_k − h_kᵀ[ẑ; ρ̂]) / D_k.
-    if (net.receiverClocks) {
-      for (let a = 0; a < Sp; a++) {
-        let v = sys.t[a]!;
-        for (let p = 0; p < dz; p++) v -= sys.k[a * dz + p]! * zhat[p]!;
-        rho[a] = sys.datum[a] ? 0 : v;
+    // Satellite clocks σ̂ = t − K_σ ẑ (datum 0); Φ = Q K_σᵀ (dz×K), Ψ = K_σ Φ (K×K).
+    const ks = sys.ks;
+    for (let kk = 0; kk < K; kk++) {
+      let v = sys.t[kk]!;
+      for (let p = 0; p < dz; p++) v -= ks[kk * dz + p]! * zhat[p]!;
+      satClock[kk] = sys.satDatum[kk] ? 0 : v;
+    }
+    for (let p = 0; p < dz; p++) {
+      for (let kk = 0; kk < K; kk++) {
+        let v = 0;
+        const rowQ = p * dz;
+        const rowK = kk * dz;
+        for (let r = 0; r < dz; r++) v += q[rowQ + r]! * ks[rowK + r]!;
+        phi[p * K + kk] = v;
       }
     }
-    const e0 = net.entryStart[k]!;
-    const e1 = net.entryStart[k + 1]!;
-    // Residuals without the satellite clock first.
-    const pre = new Float64Array(e1 - e0);
-    for (let e = e0; e < e1; e++) {
-      if (!sys.included[e - e0]) continue;
-      const s = net.entryStation[e]!;
-      const i = net.entryObservation[e]!;
-      const a = sys.localOf[s]!;
-      sys.mapping(s, i, m);
-      let v = net.stations[s]!.reducedResidualM[i]!;
-      for (let f = 0; f < d; f++) v -= m[f]! * zhat[d * a + f]!;
-      if (net.receiverClocks) v -= rho[a]!;
-      pre[e - e0] = v;
-    }
-    if (net.receiverClocks && !net.satelliteClocks) {
-      for (let a = 0; a < Sp; a++) {
-        const s = sys.present[a]!;
-        const ks = stationEpochAt[s]![k]!;
-        receiverClockM[s]![ks] = rho[a]! + net.stations[s]!.receiverShiftM[ks]!;
-      }
-    }
-    // β_a = row a of K, Q β_a, β_aᵀ Q β_a.
-    if (net.receiverClocks) {
-      for (let a = 0; a < Sp; a++) {
-        let bqb = 0;
-        for (let p = 0; p < dz; p++) {
-          let v = 0;
-          for (let r = 0; r < dz; r++) v += q[p * dz + r]! * sys.k[a * dz + r]!;
-          qBeta[a * maxDz + p] = v;
-          bqb += sys.k[a * dz + p]! * v;
-        }
-        betaQBeta[a] = bqb;
+    for (let k1 = 0; k1 < K; k1++) {
+      for (let k2 = 0; k2 < K; k2++) {
+        let v = 0;
+        for (let p = 0; p < dz; p++) v += ks[k1 * dz + p]! * phi[p * K + k2]!;
+        psi[k1 * K + k2] = v;
       }
     }
     const Sinv = sys.sInv;
-    for (let kk = 0; kk < sys.satellites || (!net.satelliteClocks && kk === 0); kk++) {
-      // With satellite clocks: one group per satellite; without: all entries in one pass.
-      const ea = net.satelliteClocks ? sys.satFirst[kk]! : e0;
-      const eb = net.satelliteClocks ? ea + sys.satCount[kk]! : e1;
-      let sat = 0;
-      let invD = 0;
-      let gqg = 0;
-      let hth = 0;
-      const tau = new Float64Array(Sp);
-      if (net.satelliteClocks) {
-        const D = sys.satD[kk]!;
-        invD = 1 / D;
-        let wsum = 0;
-        for (let e = ea; e < eb; e++) {
-          if (!sys.included[e - e0]) continue;
-          const w = net.stations[net.entryStation[e]!]!.design.weight[net.entryObservation[e]!]!;
-          wsum += w * pre[e - e0]!;
-        }
-        sat = wsum / D;
-        // γ = h̃_z − Kᵀ h̃_ρ, τ = S⁻¹ h̃_ρ.
-        gamma.fill(0, 0, dz);
-        for (let e = ea; e < eb; e++) {
-          if (!sys.included[e - e0]) continue;
-          const s = net.entryStation[e]!;
-          const i = net.entryObservation[e]!;
-          const a = sys.localOf[s]!;
-          const wD = net.stations[s]!.design.weight[i]! * invD;
-          sys.mapping(s, i, m);
-          for (let f = 0; f < d; f++) gamma[d * a + f]! += wD * m[f]!;
-          if (net.receiverClocks) {
-            for (let p = 0; p < dz; p++) gamma[p]! -= sys.k[a * dz + p]! * wD;
-            for (let b = 0; b < Sp; b++) tau[b]! += Sinv[b * Sp + a]! * wD;
+    const eL = sys.entryLocal;
+    const eW = sys.entryWeight;
+    const eM = sys.entryMapping;
+    const eC = sys.entryCentred;
+    const eR = sys.entryResidual;
+    const eS = sys.entrySat;
+    const e0 = net.entryStart[k]!;
+    for (let a = 0; a < Sp; a++) {
+      const s = sys.present[a]!;
+      const st = net.stations[s]!;
+      const u0 = sys.stationStart[a]!;
+      const u1 = sys.stationStart[a + 1]!;
+      const Da = sys.stationD[a]!;
+      // ω_a (satellite weights of the station / D_a), τ_a = S⁻¹ ω_a, Φ ω_a, ω Ψ ω, (Ψ ω)_k, ω·σ̂.
+      omega.fill(0, 0, K);
+      if (rc && K > 0) for (let u = u0; u < u1; u++) omega[eS[sys.stationEntry[u]!]!]! += eW[sys.stationEntry[u]!]! / Da;
+      let omegaClock = 0;
+      let omegaTau = 0;
+      let omegaPsiOmega = 0;
+      if (rc && K > 0) {
+        for (let k1 = 0; k1 < K; k1++) {
+          let tv = 0;
+          let pv = 0;
+          for (let k2 = 0; k2 < K; k2++) {
+            tv += Sinv[k1 * K + k2]! * omega[k2]!;
+            pv += psi[k1 * K + k2]! * omega[k2]!;
           }
+          tau[k1] = tv;
+          psiOmega[k1] = pv;
+          omegaClock += omega[k1]! * satClock[k1]!;
+          omegaTau += omega[k1]! * tv;
+          omegaPsiOmega += omega[k1]! * pv;
         }
-        for (let p = 0; p < dz; p++) {
+        for (let f = 0; f < d; f++) {
           let v = 0;
-          for (let r = 0; r < dz; r++) v += q[p * dz + r]! * gamma[r]!;
-          qGamma[p] = v;
-          gqg += gamma[p]! * v;
-        }
-        if (net.receiverClocks) {
-          for (let e = ea; e < eb; e++) {
-            if (!sys.included[e - e0]) continue;
-            const s = net.entryStation[e]!;
-            hth += net.stations[s]!.design.weight[net.entryObservation[e]!]! * invD * tau[sys.localOf[s]!]!;
-          }
+          const row = (d * a + f) * K;
+          for (let k1 = 0; k1 < K; k1++) v += phi[row + k1]! * omega[k1]!;
+          phiOmega[f] = v;
         }
       }
-      for (let e = ea; e < eb; e++) {
-        if (!sys.included[e - e0]) continue;
-        const s = net.entryStation[e]!;
-        const i = net.entryObservation[e]!;
-        const st = net.stations[s]!;
-        const a = sys.localOf[s]!;
-        const w = st.design.weight[i]!;
-        const v = pre[e - e0]! - sat;
+      const ks2 = stationEpochAt[s]![k]!;
+      if (rc && K === 0) {
+        // Receiver clock = epoch bias (satellite clocks known): ρ̂ = r̄ − m̄ᵀẑ, plus the part removed beforehand.
+        let v = sys.stationMeanResidual[a]!;
+        for (let f = 0; f < d; f++) v -= sys.stationMeanMapping[3 * a + f]! * zhat[d * a + f]!;
+        receiverClockM[s]![ks2] = v + st.receiverShiftM[ks2]!;
+      }
+      for (let u = u0; u < u1; u++) {
+        const xe = sys.stationEntry[u]!;
+        const kk = eS[xe]!;
+        const i = net.entryObservation[e0 + xe]!;
+        const w = eW[xe]!;
+        // v = (r − r̄) − cᵀẑ − (σ̂_k − Σ ω σ̂)
+        let v = eR[xe]!;
+        for (let f = 0; f < d; f++) v -= (rc ? eC[3 * xe + f]! : eM[3 * xe + f]!) * zhat[d * a + f]!;
+        if (K > 0) v -= satClock[kk]! - omegaClock;
         fittedResidualM[s]![i] = v;
         included[s]![i] = 1;
         observationsUsed++;
         weightedSquareSum += w * v * v;
         residualSquareSumM2 += v * v;
-        sys.mapping(s, i, m);
-        // u₂ᵀ Q u₂ with u₂ = E_a m − β_a − γ_k.
+        // u₂ = E_a c − β_k + γ_a
         let quad = 0;
-        for (let f = 0; f < d; f++) for (let g = 0; g < d; g++) quad += m[f]! * q[(d * a + f) * dz + d * a + g]! * m[g]!;
-        if (net.receiverClocks) {
-          quad += betaQBeta[a]!;
-          for (let f = 0; f < d; f++) quad -= 2 * m[f]! * qBeta[a * maxDz + d * a + f]!;
-        }
-        let rhoTerm = 0;
-        if (net.receiverClocks) rhoTerm = Sinv[a * Sp + a]!;
-        if (net.satelliteClocks) {
-          quad += gqg;
-          for (let f = 0; f < d; f++) quad -= 2 * m[f]! * qGamma[d * a + f]!;
-          if (net.receiverClocks) {
-            let bqg = 0;
-            for (let p = 0; p < dz; p++) bqg += sys.k[a * dz + p]! * qGamma[p]!;
-            quad += 2 * bqg;
-            rhoTerm += -2 * tau[a]! + hth;
+        const cx = rc ? eC : eM;
+        for (let f = 0; f < d; f++) for (let g = 0; g < d; g++) quad += cx[3 * xe + f]! * q[(d * a + f) * dz + d * a + g]! * cx[3 * xe + g]!;
+        let clockTerm = rc ? 1 / Da : 0;
+        if (K > 0) {
+          quad += psi[kk * K + kk]!;
+          for (let f = 0; f < d; f++) quad -= 2 * cx[3 * xe + f]! * phi[(d * a + f) * K + kk]!;
+          clockTerm += Sinv[kk * K + kk]!;
+          if (rc) {
+            quad += omegaPsiOmega - 2 * psiOmega[kk]!;
+            for (let f = 0; f < d; f++) quad += 2 * cx[3 * xe + f]! * phiOmega[f]!;
+            clockTerm += omegaTau - 2 * tau[kk]!;
           }
         }
         const sigma = st.design.sigmaM[i]!;
-        residualVarianceM2[s]![i] = sigma * sigma - invD - rhoTerm - quad;
+        residualVarianceM2[s]![i] = sigma * sigma - clockTerm - quad;
       }
-      if (!net.satelliteClocks) break;
     }
   }
 
