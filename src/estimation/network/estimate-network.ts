@@ -102,7 +102,6 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
     commonMode = {
       meanZwdSigmaClocksEstimatedM: meanEstimated,
       meanZwdSigmaClocksKnownM: meanKnown,
-      correlationWithSatelliteClocks: null,
       ...geometry,
     };
     statistics = {
@@ -149,7 +148,7 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
       1,
       problems.map((p) => p.sigmaScale),
     );
-    commonMode = { meanZwdSigmaClocksEstimatedM: null, meanZwdSigmaClocksKnownM: meanKnown, correlationWithSatelliteClocks: null, ...geometry };
+    commonMode = { meanZwdSigmaClocksEstimatedM: null, meanZwdSigmaClocksKnownM: meanKnown, ...geometry };
     const sum = (f: (p: SubProblem) => number) => problems.reduce((n, p) => n + f(p), 0);
     const dof = sum((p) => p.degreesOfFreedom);
     const wss = sum((p) => p.solution.weightedSquareSum);

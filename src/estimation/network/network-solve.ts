@@ -25,8 +25,6 @@ export interface EpochCovariances {
   relativeVariance: Float64Array;
   /** Variance of the mean δw of all stations [m²]. */
   meanVariance: number;
-  /** Correlation of that mean with the mean satellite clock; NaN without satellite clocks. */
-  meanClockCorrelation: number;
 }
 
 export interface NetworkSolution {
@@ -290,7 +288,7 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
       variance[s] = vs;
       relativeVariance[s] = s === reference ? 0 : Math.max(vs + vRef - 2 * cov(s, reference), 0);
     }
-    return { variance, relativeVariance, meanVariance, meanClockCorrelation: Number.NaN };
+    return { variance, relativeVariance, meanVariance };
   }
 
   function residualsOfEpoch(k: number, get: (p: number, q: number) => number): void {

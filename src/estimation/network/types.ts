@@ -87,12 +87,6 @@ export interface NetworkCommonMode {
   meanZwdSigmaClocksEstimatedM: number | null;
   /** The same with the satellite clocks known (independent stations) [m]. */
   meanZwdSigmaClocksKnownM: number;
-  /**
-   * Median over epochs of the correlation of the network-mean ZWD with the mean of the satellite
-   * clocks estimated at that epoch (datum: one reference receiver clock per epoch); null when the
-   * satellite clocks are known.
-   */
-  correlationWithSatelliteClocks: number | null;
   /** Largest distance between two stations (chord) [km]. */
   extentKm: number;
   /** Largest angle between the directions to two stations, seen from a GNSS satellite 20 200 km above the centroid [deg]. */
