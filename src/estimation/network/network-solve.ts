@@ -6,8 +6,7 @@
  * (../least-squares.ts: randomWalkWeight, constraintCount), in the network frontal solver. Then, in
  * the reverse sweep that computes the selected inverse, per epoch: post-fit residuals, their
  * standard deviations σ_v (for screening), and the covariances of every station's ZWD at the epoch
- * (absolute, relative to the reference station, network mean, and the mean's correlation with the
- * satellite clocks).
+ * (absolute, relative to the reference station, and of the network mean).
  *
  * Parameters: station s owns ids [s·P, (s+1)·P): ZWD nodes, north nodes, east nodes (P per station),
  * all stations on the same node layout.
