@@ -102,6 +102,7 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
     commonMode = {
       meanZwdSigmaClocksEstimatedM: meanEstimated,
       meanZwdSigmaClocksKnownM: meanKnown,
+      correlationWithClocks: median(problem.solution.epochs.map((e) => e.meanClockCorrelation)),
       ...geometry,
     };
     statistics = {
@@ -148,7 +149,7 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
       1,
       problems.map((p) => p.sigmaScale),
     );
-    commonMode = { meanZwdSigmaClocksEstimatedM: null, meanZwdSigmaClocksKnownM: meanKnown, ...geometry };
+    commonMode = { meanZwdSigmaClocksEstimatedM: null, meanZwdSigmaClocksKnownM: meanKnown, correlationWithClocks: null, ...geometry };
     const sum = (f: (p: SubProblem) => number) => problems.reduce((n, p) => n + f(p), 0);
     const dof = sum((p) => p.degreesOfFreedom);
     const wss = sum((p) => p.solution.weightedSquareSum);

@@ -24,6 +24,11 @@ export interface EpochCovariances {
   relativeVariance: Float64Array;
   /** Variance of the mean δw of all stations [m²]. */
   meanVariance: number;
+  /**
+   * Correlation of the network mean with the epoch's mean clock term (the mean over the used
+   * observations of ρ_a + σ_k: datum-free); NaN without satellite clocks.
+   */
+  meanClockCorrelation: number;
 }
 
 export interface NetworkSolution {
@@ -240,6 +245,7 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
         epochCov[k] = epochCovariances(k, get);
         if (!sys.build(k, used)) continue;
         residualsOfEpoch(k, get);
+        if (net.satelliteClocks) epochCov[k]!.meanClockCorrelation = clockCorrelation(k, get, epochCov[k]!.meanVariance);
       }
     },
   });
@@ -287,7 +293,7 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
       variance[s] = vs;
       relativeVariance[s] = s === reference ? 0 : Math.max(vs + vRef - 2 * cov(s, reference), 0);
     }
-    return { variance, relativeVariance, meanVariance };
+    return { variance, relativeVariance, meanVariance, meanClockCorrelation: Number.NaN };
   }
 
   function residualsOfEpoch(k: number, get: (p: number, q: number) => number): void {
@@ -427,6 +433,74 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
         residualVarianceM2[s]![i] = sigma * sigma - clockTerm - quad;
       }
     }
+  }
+
+  /**
+   * Correlation of the network-mean ZWD ζ with χ = Σ_a (n_a/n) ρ̂_a + Σ_k (n_k/n) σ̂_k (n_a, n_k, n:
+   * used observations per station, per satellite, in all). Through the two stages (epoch-clocks.ts):
+   * χ = const + u₂ᵀẑ with u₁ = (−(n_a/n) m̄_a at z_a; e_σ − Σ_a (n_a/n) ω_a at σ), u₂ = u₁z − K_σᵀu₁σ;
+   * Var χ = Σ_a (n_a/n)²/D_a + u₁σᵀS⁻¹u₁σ + u₂ᵀQ_zz u₂, Cov(χ, ζ) = u₂ᵀ Cov(ẑ, ζ).
+   * Must run right after residualsOfEpoch(k) (it uses Q_zz and the epoch system).
+   */
+  function clockCorrelation(k: number, get: (p: number, q: number) => number, meanVariance: number): number {
+    const Sp = sys.presentCount;
+    const dz = d * Sp;
+    const K = sys.satelliteClockCount;
+    const rc = net.receiverClocks;
+    const n = sys.stationStart[Sp]!;
+    if (n === 0 || K === 0) return Number.NaN;
+    const u1s = new Float64Array(K);
+    const u2 = new Float64Array(dz);
+    for (let kk = 0; kk < K; kk++) {
+      let c = 0;
+      for (let e = sys.satFirst[kk]!; e < sys.satFirst[kk]! + sys.satCount[kk]!; e++) c += sys.included[e - net.entryStart[k]!]!;
+      u1s[kk] = c / n;
+    }
+    let varChi = 0;
+    if (rc) {
+      for (let a = 0; a < Sp; a++) {
+        const ea = (sys.stationStart[a + 1]! - sys.stationStart[a]!) / n;
+        const Da = sys.stationD[a]!;
+        varChi += (ea * ea) / Da;
+        for (let f = 0; f < d; f++) u2[d * a + f] = -ea * sys.stationMeanMapping[3 * a + f]!;
+        for (let u = sys.stationStart[a]!; u < sys.stationStart[a + 1]!; u++) {
+          const xe = sys.stationEntry[u]!;
+          u1s[sys.entrySat[xe]!]! -= (ea * sys.entryWeight[xe]!) / Da;
+        }
+      }
+    }
+    for (let kk = 0; kk < K; kk++) {
+      const v = u1s[kk]!;
+      if (v === 0) continue;
+      for (let p = 0; p < dz; p++) u2[p]! -= sys.ks[kk * dz + p]! * v;
+      for (let l = 0; l < K; l++) varChi += v * sys.sInv[kk * K + l]! * u1s[l]!;
+    }
+    for (let p = 0; p < dz; p++) {
+      let v = 0;
+      for (let r = 0; r < dz; r++) v += q[p * dz + r]! * u2[r]!;
+      varChi += u2[p]! * v;
+    }
+    // Cov(ẑ, ζ), ζ = (1/S) Σ_t δw_t(t_k).
+    const j = net.zwdInterval[k]!;
+    const alpha = net.zwdAlpha[k]!;
+    let cov = 0;
+    for (let a = 0; a < Sp; a++) {
+      const sa = sys.present[a]!;
+      fillLocal(k, sa);
+      for (let p = 0; p < local; p++) {
+        const ip = ids[sa * local + p]!;
+        if (ip < 0) continue;
+        const coefficient = interp[sa * local + p]! * u2[d * a + fam[p]!]!;
+        if (coefficient === 0) continue;
+        let c = 0;
+        for (let t = 0; t < S; t++) {
+          c += (1 - alpha) * get(ip, t * P + j);
+          if (layout.zwdCount > 1) c += alpha * get(ip, t * P + j + 1);
+        }
+        cov += (coefficient * c) / S;
+      }
+    }
+    return varChi > 0 && meanVariance > 0 ? cov / Math.sqrt(varChi * meanVariance) : Number.NaN;
   }
 
   // Constraint residuals.

@@ -87,6 +87,12 @@ export interface NetworkCommonMode {
   meanZwdSigmaClocksEstimatedM: number | null;
   /** The same with the satellite clocks known (independent stations) [m]. */
   meanZwdSigmaClocksKnownM: number;
+  /**
+   * Median over epochs of the correlation of the network-mean ZWD with the epoch's mean clock term
+   * (mean over the used observations of receiver + satellite clock: independent of the clock
+   * datum); near ±1 when the common mode is absorbed by the clocks; null when satellite clocks are known.
+   */
+  correlationWithClocks: number | null;
   /** Largest distance between two stations (chord) [km]. */
   extentKm: number;
   /** Largest angle between the directions to two stations, seen from a GNSS satellite 20 200 km above the centroid [deg]. */

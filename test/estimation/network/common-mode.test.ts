@@ -82,6 +82,8 @@ describe('300-km network, 1 h of 60-s data, gradients estimated, +5 cm common of
     expect(out.commonMode.extentNadirDeg).toBeLessThan(0.9);
     expect(out.warnings.join(' ')).toMatch(/absolute ZWD level is poorly determined/);
     for (const x of at) expect(x.sigma).toBeGreaterThan(OFFSET / 2);
+    // The network mean moves with the clocks (common practice: that is what "absorbed" means).
+    expect(out.commonMode.correlationWithClocks!).toBeLessThan(-0.99);
   });
 
   it('does not determine the offset: the estimate cannot be told from "no offset" at 2σ, and the errors stay within 3σ', () => {
@@ -111,6 +113,7 @@ describe('the same plus three stations 2 400–5 700 km away', () => {
     expect(Math.abs(meanError)).toBeLessThan(2 * meanSigma);
     expect(out.warnings.join(' ')).not.toMatch(/absolute ZWD level/);
     expect(out.commonMode.extentNadirDeg).toBeGreaterThan(10);
+    expect(Math.abs(out.commonMode.correlationWithClocks!)).toBeLessThan(0.9);
   });
 
   it('errors within 3σ for every station, absolute and relative', () => {

@@ -34,6 +34,11 @@ export interface DenseNetworkResult {
   degreesOfFreedom: number;
   /** Normalised residuals (Pope τ with σ̂0 = √variance factor) per input observation; NaN when not used. */
   tau: number[];
+  /**
+   * Median over epochs of corr(network-mean ZWD, χ), χ = mean over the observations of satellites
+   * seen by ≥ 2 stations of (receiver clock + satellite clock).
+   */
+  clockCorrelation: number;
 }
 
 interface Layout {
@@ -229,7 +234,40 @@ export function denseZeroDifference(input: NetworkEstimationInput, reference: nu
     const qv = 1 / row.w - q;
     if (qv > 1e-8 / row.w) tau[row.i] = residual.get(row.i)! / (Math.sqrt(varianceFactor) * Math.sqrt(qv));
   }
-  return { ...summarise(input, L, epochs, x, Q, reference), varianceFactor, degreesOfFreedom: dof, tau };
+  // χ and ζ per epoch.
+  const S = input.stations.length;
+  const correlations = epochs.map((t) => {
+    const here = rows.filter((i) => o.epochMs[i] === t);
+    const perSat = new Map<string, number>();
+    for (const i of here) perSat.set(o.satellite[i]!, (perSat.get(o.satellite[i]!) ?? 0) + 1);
+    const informative = here.filter((i) => perSat.get(o.satellite[i]!)! >= 2);
+    const f = new Map<number, number>();
+    for (const i of informative) {
+      const s = stationIdx.get(o.station[i]!)!;
+      for (const key of [`r${t}/${s}`, `s${t}/${o.satellite[i]}`]) {
+        const c = clockCol.get(key);
+        if (c !== undefined) f.set(c, (f.get(c) ?? 0) + 1 / informative.length);
+      }
+    }
+    const u = (t - L.t0) / L.zwdDt;
+    const j = L.zwdCount === 1 ? 0 : Math.min(Math.max(Math.floor(u), 0), L.zwdCount - 2);
+    const a = L.zwdCount === 1 ? 0 : u - j;
+    const lambda = new Map<number, number>();
+    for (let s = 0; s < S; s++) {
+      lambda.set(s * L.per + j, (1 - a) / S);
+      if (L.zwdCount > 1) lambda.set(s * L.per + j + 1, a / S);
+    }
+    const quad = (x1: Map<number, number>, x2: Map<number, number>) => {
+      let v = 0;
+      for (const [p, wp] of x1) for (const [q, wq] of x2) v += wp * wq * Q.get(p, q);
+      return v;
+    };
+    return quad(f, lambda) / Math.sqrt(quad(f, f) * quad(lambda, lambda));
+  });
+  const sorted = correlations.slice().sort((p, q) => p - q);
+  const h = Math.floor(sorted.length / 2);
+  const clockCorrelation = sorted.length % 2 ? sorted[h]! : (sorted[h - 1]! + sorted[h]!) / 2;
+  return { ...summarise(input, L, epochs, x, Q, reference), varianceFactor, degreesOfFreedom: dof, tau, clockCorrelation };
 }
 
 export function denseDoubleDifference(input: NetworkEstimationInput, reference: number): Omit<DenseNetworkResult, 'tau' | 'varianceFactor' | 'degreesOfFreedom'> {

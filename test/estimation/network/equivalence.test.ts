@@ -130,6 +130,9 @@ describe('all clocks as explicit parameters (dense zero differences, ml-matrix)'
     const net = estimateNetwork(input);
     expectEqual(net, dense);
     expect(net.statistics.degreesOfFreedom).toBe(dense.degreesOfFreedom);
+    // The common-mode diagnostic: correlation of the network mean with the mean clock term (datum-free).
+    expect(Math.abs(net.commonMode.correlationWithClocks! - dense.clockCorrelation)).toBeLessThan(1e-6);
+    expect(Math.abs(dense.clockCorrelation)).toBeGreaterThan(0.5);
     expect(Math.abs(net.statistics.varianceFactor! / dense.varianceFactor - 1)).toBeLessThan(1e-6);
   });
 

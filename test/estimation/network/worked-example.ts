@@ -44,7 +44,7 @@ function run(label: string, stations: SimStation[], hours: number, samplingS: nu
   const mm = (v: number) => (v * 1000).toFixed(1);
   console.log(`\n### ${label}`);
   console.log(
-    `satellite clocks ${out.satelliteClocks}; extent ${out.commonMode.extentKm.toFixed(0)} km, ${out.commonMode.extentNadirDeg.toFixed(2)}° nadir; σ(network mean) ${out.commonMode.meanZwdSigmaClocksEstimatedM === null ? '—' : mm(out.commonMode.meanZwdSigmaClocksEstimatedM)} mm with clocks estimated, ${mm(out.commonMode.meanZwdSigmaClocksKnownM)} mm known; observations used ${out.statistics.observationsUsed}, single-station satellites ${out.statistics.singleStationSatellites}; variance factor ${out.statistics.varianceFactor?.toFixed(3)}`,
+    `satellite clocks ${out.satelliteClocks}; extent ${out.commonMode.extentKm.toFixed(0)} km, ${out.commonMode.extentNadirDeg.toFixed(2)}° nadir; σ(network mean) ${out.commonMode.meanZwdSigmaClocksEstimatedM === null ? '—' : mm(out.commonMode.meanZwdSigmaClocksEstimatedM)} mm with clocks estimated, ${mm(out.commonMode.meanZwdSigmaClocksKnownM)} mm known; correlation with the clocks ${out.commonMode.correlationWithClocks?.toFixed(3) ?? '—'}; observations used ${out.statistics.observationsUsed}, single-station satellites ${out.statistics.singleStationSatellites}; variance factor ${out.statistics.varianceFactor?.toFixed(3)}`,
   );
   const ref = out.stations.findIndex((r) => r.station === 'FENWICK');
   const errRef = out.stations[ref]!.epochs.find((e) => e.epochMs === mid)!.correctionM - truthZwd(sim, ref, mid);
