@@ -107,6 +107,28 @@ export class NetworkFrontal {
     if (sp !== sq) this.front[sq * this.maxFront + sp]! += v;
   }
 
+  /**
+   * Adds B R Bᵀ for `count` local parameters: N[slot_i, slot_j] += c_i c_j R[row_i, row_j] and
+   * g[slot_i] += c_i r[row_i] (R symmetric, leading dimension ld; slots distinct).
+   */
+  addProjected(count: number, slots: Int32Array, c: Float64Array, rows: Int32Array, R: Float64Array, ld: number, r: Float64Array): void {
+    const mf = this.maxFront;
+    const front = this.front;
+    for (let i = 0; i < count; i++) {
+      const si = slots[i]!;
+      const ci = c[i]!;
+      const rowR = rows[i]! * ld;
+      this.rhsFront[si]! += ci * r[rows[i]!]!;
+      const rowF = si * mf;
+      for (let j = 0; j < i; j++) {
+        const v = ci * c[j]! * R[rowR + rows[j]!]!;
+        front[rowF + slots[j]!]! += v;
+        front[slots[j]! * mf + si]! += v;
+      }
+      front[rowF + si]! += ci * ci * R[rowR + rows[i]!]!;
+    }
+  }
+
   addRhsAtSlot(sp: number, v: number): void {
     this.rhsFront[sp]! += v;
   }

@@ -140,6 +140,9 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
     }
   };
   const slots = new Int32Array(local * S);
+  const projSlots = new Int32Array(local * S);
+  const projCoeff = new Float64Array(local * S);
+  const projRows = new Int32Array(local * S);
   let clockUnknowns = 0;
 
   // Forward pass: assembly and elimination.
@@ -163,25 +166,19 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
       }
     }
     // N += B R Bᵀ, g += B r_z.
+    let count = 0;
     for (let a = 0; a < Sp; a++) {
       const sa = sys.present[a]!;
       for (let p = 0; p < local; p++) {
         const sp = slots[a * local + p]!;
         if (sp < 0) continue;
-        const bp = interp[sa * local + p]!;
-        const rowR = (d * a + fam[p]!) * dz;
-        frontal.addRhsAtSlot(sp, bp * sys.rz[d * a + fam[p]!]!);
-        for (let b = 0; b <= a; b++) {
-          const sb = sys.present[b]!;
-          const qEnd = b === a ? p + 1 : local;
-          for (let q = 0; q < qEnd; q++) {
-            const sq = slots[b * local + q]!;
-            if (sq < 0) continue;
-            frontal.addAtSlots(sp, sq, bp * interp[sb * local + q]! * sys.r[rowR + d * b + fam[q]!]!);
-          }
-        }
+        projSlots[count] = sp;
+        projCoeff[count] = interp[sa * local + p]!;
+        projRows[count] = d * a + fam[p]!;
+        count++;
       }
     }
+    frontal.addProjected(count, projSlots, projCoeff, projRows, sys.r, dz, sys.rz);
   }
   frontal.eliminateAll();
   const x = frontal.solve();

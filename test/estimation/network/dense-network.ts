@@ -270,7 +270,7 @@ export function denseZeroDifference(input: NetworkEstimationInput, reference: nu
   return { ...summarise(input, L, epochs, x, Q, reference), varianceFactor, degreesOfFreedom: dof, tau, clockCorrelation };
 }
 
-export function denseDoubleDifference(input: NetworkEstimationInput, reference: number): Omit<DenseNetworkResult, 'tau' | 'varianceFactor' | 'degreesOfFreedom'> {
+export function denseDoubleDifference(input: NetworkEstimationInput, reference: number): Omit<DenseNetworkResult, 'tau' | 'varianceFactor' | 'degreesOfFreedom' | 'clockCorrelation'> {
   const o = input.observations;
   const rows = used(input);
   const epochs = [...new Set(rows.map((i) => o.epochMs[i]!))].sort((a, b) => a - b);
