@@ -95,10 +95,10 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
       const net = buildNetworkDesign(obs, [sub], options, false);
       return { net, solution: solveNamed(net, options, [problem.used[s]!], 0) };
     });
-    results = stationResults(problem, input, reference);
+    results = stationResults(problem, reference);
     const singles = singleStationCounts(problem.net);
     const meanEstimated = median(problem.solution.epochs.map((e) => Math.sqrt(e.meanVariance) * problem.sigmaScale));
-    const meanKnown = knownMeanSigma(known, problem.net, problem.sigmaScale);
+    const meanKnown = knownMeanSigma(known, known.map(() => problem.sigmaScale));
     commonMode = {
       meanZwdSigmaClocksEstimatedM: meanEstimated,
       meanZwdSigmaClocksKnownM: meanKnown,
@@ -140,13 +140,11 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
     }
   } else {
     const problems = subsets.map((sub) => solveWithScreening(buildNetworkDesign(obs, [sub], options, false), { ...input, stations: [stations[sub.index]!] }, 0));
-    results = problems.map((p) => stationResults(p, { ...input, stations: [stations[p.net.stations[0]!.index]!] }, 0)[0]!);
-    addKnownRelative(results, problems, reference);
+    results = problems.map((p) => stationResults(p, 0)[0]!);
+    addKnownRelative(results, reference);
     problems.forEach((p) => warnings.push(...p.warnings.map((w) => `station ${p.net.stations[0]!.name}: ${w}`)));
     const meanKnown = knownMeanSigma(
       problems.map((p) => ({ net: p.net, solution: p.solution })),
-      null,
-      1,
       problems.map((p) => p.sigmaScale),
     );
     commonMode = { meanZwdSigmaClocksEstimatedM: null, meanZwdSigmaClocksKnownM: meanKnown, correlationWithClocks: null, ...geometry };
@@ -406,7 +404,7 @@ function interpolated(x: Float64Array, diag: Float64Array, adj: Float64Array, p:
   return { value: b * x[p]! + alpha * x[p + 1]!, sigma: Math.sqrt(Math.max(variance, 0)) * scale };
 }
 
-function stationResults(problem: SubProblem, input: NetworkEstimationInput, reference: number): NetworkStationResult[] {
+function stationResults(problem: SubProblem, reference: number): NetworkStationResult[] {
   const { net, solution, sigmaScale: scale } = problem;
   const layout = stationLayout(net);
   const P = layout.parameters;
@@ -481,7 +479,6 @@ function stationResults(problem: SubProblem, input: NetworkEstimationInput, refe
       medianRelativeSigmaM: median(epochs.map((e) => e.relativeSigmaM)) ?? Number.NaN,
     };
   });
-  void input;
 }
 
 /** Satellites seen by one station at an epoch (all observations taken as used), and epochs with one station. */
@@ -513,10 +510,10 @@ function singleStationCounts(net: NetworkDesign): { observations: number; pairs:
  * σ of the network-mean ZWD with the satellite clocks known (independent stations): median over
  * the epochs at which every station has an epoch of √(Σ σ_s²)/S.
  */
-function knownMeanSigma(known: { net: NetworkDesign; solution: NetworkSolution }[], _network: NetworkDesign | null, scale: number, scales?: number[]): number {
+function knownMeanSigma(known: { net: NetworkDesign; solution: NetworkSolution }[], scales: number[]): number {
   const byEpoch = new Map<number, { sum: number; count: number }>();
   known.forEach(({ net, solution }, i) => {
-    const f = (scales ? scales[i]! : scale) ** 2;
+    const f = scales[i]! ** 2;
     const st = net.stations[0]!;
     st.design.epochMs.forEach((t, ks) => {
       const v = solution.epochs[st.networkEpoch[ks]!]!.variance[0]! * f;
@@ -532,7 +529,7 @@ function knownMeanSigma(known: { net: NetworkDesign; solution: NetworkSolution }
 }
 
 /** Satellite clocks known: stations are independent, σ²(δw_s − δw_ref) = σ_s² + σ_ref² at common epochs. */
-function addKnownRelative(results: NetworkStationResult[], problems: SubProblem[], reference: number): void {
+function addKnownRelative(results: NetworkStationResult[], reference: number): void {
   const ref = results[reference]!;
   const refEpoch = new Map(ref.epochs.map((e) => [e.epochMs, e.sigmaM]));
   const refNode = new Map(ref.zwdNodes.map((n) => [n.epochMs, n.sigmaM]));
@@ -547,7 +544,6 @@ function addKnownRelative(results: NetworkStationResult[], problems: SubProblem[
     }
     r.medianRelativeSigmaM = median(r.epochs.map((e) => e.relativeSigmaM)) ?? Number.NaN;
   });
-  void problems;
 }
 
 function median(values: number[]): number | null {
