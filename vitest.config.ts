@@ -1,8 +1,7 @@
 import { defineConfig } from 'vitest/config';
 
-// `npm test` runs test/ops/off-loop.test.ts in a second pass on its own: it measures how quickly
-// the service answers while estimations load the CPU, which other test files running beside it
-// would disturb.
+// No test measures speed (that is `npm run bench`), so every file runs in the one pass of `npm test`,
+// beside the others, on however busy a machine.
 export default defineConfig({
   test: {
     include: ['test/**/*.test.ts'],

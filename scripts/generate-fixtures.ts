@@ -7,7 +7,9 @@
  */
 
 import { mkdirSync, writeFileSync } from 'node:fs';
+import { pathToFileURL } from 'node:url';
 import { writeRinexMet } from '../src/formats/rinex-met-writer.js';
+import { type CliSpec, epochOption, runCli } from './cli.js';
 import { DEMO_NETWORK, round1, truthSeries } from './synthetic/network.js';
 
 export const DEMO_START_MS = Date.UTC(2026, 2, 1);
@@ -16,20 +18,24 @@ const HOUR = 3_600_000;
 export const DEMO_SEEDS: Record<string, number> = { QUILL: 11, BRACK: 12, SALTM: 13 };
 export const FIXTURE_DIR = new URL('../fixtures/demo/', import.meta.url);
 
-export function demoMet(stationId: string) {
+export function demoMet(stationId: string, startMs = DEMO_START_MS) {
   const station = DEMO_NETWORK.find((s) => s.stationId === stationId)!;
-  return truthSeries(station, DEMO_START_MS, DEMO_DAYS * 24, HOUR, DEMO_SEEDS[stationId]);
+  return truthSeries(station, startMs, DEMO_DAYS * 24, HOUR, DEMO_SEEDS[stationId]);
 }
 
-export function writeDemoFixtures(): string[] {
-  mkdirSync(FIXTURE_DIR, { recursive: true });
+/**
+ * Writes the four demo files. Defaults: the committed fixtures (start DEMO_START_MS, folder
+ * fixtures/demo/); another start or folder gives the same network and seeds shifted in time.
+ */
+export function writeDemoFixtures(startMs = DEMO_START_MS, dir: URL = FIXTURE_DIR, shownDir = 'fixtures/demo/'): string[] {
+  mkdirSync(dir, { recursive: true });
   const written: string[] = [];
   const write = (name: string, text: string) => {
-    writeFileSync(new URL(name, FIXTURE_DIR), text);
-    written.push(`fixtures/demo/${name}`);
+    writeFileSync(new URL(name, dir), text);
+    written.push(`${shownDir}${name}`);
   };
 
-  const quill = demoMet('QUILL');
+  const quill = demoMet('QUILL', startMs);
   write(
     'QUILL-met.json',
     JSON.stringify(
@@ -47,18 +53,18 @@ export function writeDemoFixtures(): string[] {
     ) + '\n',
   );
 
-  const brack = demoMet('BRACK');
+  const brack = demoMet('BRACK', startMs);
   write(
     'BRACK-met.csv',
     ['epoch,pressure_hpa,temperature_c,relative_humidity_pct', ...brack.map((t) => `${new Date(t.epochMs).toISOString()},${round1(t.pressureHpa)},${round1(t.temperatureC)},${round1(t.relativeHumidityPct)}`)].join('\n') + '\n',
   );
 
-  const salt = demoMet('SALTM');
+  const salt = demoMet('SALTM', startMs);
   const common = {
     markerName: 'SALTM',
     program: 'tropodelay-demo',
     runBy: 'synthetic',
-    createdAt: new Date(DEMO_START_MS),
+    createdAt: new Date(startMs),
     comments: ['INVENTED DEMO STATION; SYNTHETIC DATA WITH A KNOWN TRUTH'],
     observationTypes: ['PR', 'TD', 'HR'],
     sensors: [
@@ -73,6 +79,22 @@ export function writeDemoFixtures(): string[] {
   return written;
 }
 
+export const FIXTURES_CLI: CliSpec = {
+  command: 'npx tsx scripts/generate-fixtures.ts',
+  summary:
+    `Writes the invented demo network's met files (${DEMO_DAYS} days of hourly met per station: QUILL as JSON, BRACK as CSV,\n` +
+    'SALTM as RINEX met 2.11 and 3.04) from the seeded generator. `npm run fixtures` rewrites the committed ones.',
+  options: {
+    start: { type: 'string', value: 'EPOCH', description: 'first epoch, ISO 8601 with a zone', default: new Date(DEMO_START_MS).toISOString() },
+    out: { type: 'string', value: 'FOLDER', description: 'folder to write the four files into (created)', default: 'fixtures/demo/' },
+  },
+  examples: ['npx tsx scripts/generate-fixtures.ts --start 2026-07-10T00:00:00Z --out demo-met/'],
+};
+
 if (import.meta.url === `file://${process.argv[1]}`) {
-  for (const f of writeDemoFixtures()) process.stdout.write(`wrote ${f}\n`);
+  runCli(FIXTURES_CLI, (values) => {
+    const out = String(values.out).endsWith('/') ? String(values.out) : `${String(values.out)}/`;
+    const dir = out === 'fixtures/demo/' ? FIXTURE_DIR : pathToFileURL(out.startsWith('/') ? out : `${process.cwd()}/${out}`);
+    for (const f of writeDemoFixtures(epochOption(values, 'start'), dir, out)) process.stdout.write(`wrote ${f}\n`);
+  });
 }

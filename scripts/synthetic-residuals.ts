@@ -16,11 +16,13 @@
  * - Noise: N(0, σ_i²), σ_i = σ0 / sin e (the estimator's "elevation" weighting).
  * - Gross errors: a chosen number of observations get ±(12..20) σ_i added, at most one per epoch.
  * - Mapping: Niell (1996) wet, Marini continued fraction, coefficients of Niell (1996) Table 3
- *   (published-constants.md, confirmed); gradients Chen & Herring (1997) m_g = 1/(sin e tan e + 0.0032).
+ *   (docs/constants.md, confirmed); gradients Chen & Herring (1997) m_g = 1/(sin e tan e + 0.0032).
  *
- * CLI: `npx tsx scripts/synthetic-residuals.ts [--hours 6] [--sampling 30] [--seed 1] [--csv]`
- * prints a request body for POST /v1/zwd-estimates (JSON), or the observation table (CSV).
+ * CLI: `npx tsx scripts/synthetic-residuals.ts --help` lists the options (--start, --hours, --out, ...);
+ * it writes a request body for POST /v1/zwd-estimates (JSON), or the observation table (CSV).
  */
+
+import { type CliSpec, epochOption, numberOption, runCli, UsageError, writeOutput } from './cli.js';
 
 export const ORBIT_RADIUS_M = 26_560_000;
 export const ORBIT_INCLINATION_RAD = (55 * Math.PI) / 180;
@@ -60,7 +62,7 @@ export function gaussian(uniform: () => number): () => number {
   };
 }
 
-/** Niell (1996) Table 3 wet coefficients at 15°, 30°, 45°, 60°, 75° (published-constants.md, confirmed). */
+/** Niell (1996) Table 3 wet coefficients at 15°, 30°, 45°, 60°, 75° (docs/constants.md, confirmed). */
 const NIELL_WET_TABLE = {
   a: [5.8021897e-4, 5.6794847e-4, 5.8118019e-4, 5.9727542e-4, 6.1641693e-4],
   b: [1.4275268e-3, 1.5138625e-3, 1.4572752e-3, 1.5007428e-3, 1.7599082e-3],
@@ -314,19 +316,56 @@ export function toCsv(data: SyntheticData): string {
   return lines.join('\n') + '\n';
 }
 
-if (import.meta.url === `file://${process.argv[1]}`) {
-  const args = process.argv.slice(2);
-  const value = (name: string, fallback: number) => {
-    const i = args.indexOf(`--${name}`);
-    return i >= 0 ? Number(args[i + 1]) : fallback;
-  };
+/** The command line: options, their defaults and the help text (`--help`). */
+export const SYNTHETIC_CLI: CliSpec = {
+  command: 'npx tsx scripts/synthetic-residuals.ts',
+  summary:
+    'Synthetic GNSS residuals with a known random-walk ZWD and gradients (seeded, reproducible) at an invented site\n' +
+    `(${DEFAULT_SYNTHETIC.latitudeDeg}° N, ${DEFAULT_SYNTHETIC.longitudeDeg}° E, ${DEFAULT_SYNTHETIC.heightM} m): a JSON request body for POST /v1/zwd-estimates, or with --csv\n` +
+    'the observation table. Writes to --out, else to standard output.',
+  options: {
+    start: { type: 'string', value: 'EPOCH', description: 'first epoch, ISO 8601 with a zone', default: DEFAULT_SYNTHETIC.startIso },
+    hours: { type: 'string', value: 'HOURS', description: 'length of the series [h], 0.01..240', default: '6' },
+    sampling: { type: 'string', value: 'SECONDS', description: 'sampling interval [s], 1..3600', default: '30' },
+    seed: { type: 'string', value: 'N', description: 'seed of the generator (integer)', default: '1' },
+    gross: { type: 'string', value: 'N', description: 'number of gross errors (12..20 sigma) to add', default: '0' },
+    bias: { type: 'string', value: 'METRES', description: 'epoch biases uniform in +-METRES', default: String(DEFAULT_SYNTHETIC.biasAmplitudeM) },
+    csv: { type: 'boolean', description: 'write the CSV table (epoch,satellite,elevation_deg,azimuth_deg,residual_m) instead of JSON' },
+    station: { type: 'boolean', description: 'JSON body for POST /v1/stations/{station_id}/zwd-estimates: no site (the station is the site)' },
+    'apriori-zhd': { type: 'string', value: 'METRES', description: 'put apriori.zhd_m into the JSON body' },
+    'zwd-interval': { type: 'string', value: 'SECONDS', description: 'put options.zwd_interval_s into the JSON body' },
+    out: { type: 'string', value: 'FILE', description: 'file to write (its folder is created); without it, standard output' },
+  },
+  examples: [
+    'npx tsx scripts/synthetic-residuals.ts --hours 0.5 --csv --out residuals.csv',
+    'npx tsx scripts/synthetic-residuals.ts --station --start 2026-07-10T00:30:00Z --hours 1 --apriori-zhd 2.2546 --zwd-interval 900 --out zwd-body.json',
+  ],
+};
+
+/** The file or text the command line writes for its parsed options. */
+export function syntheticCliOutput(values: Record<string, string | boolean | undefined>): string {
   const options: Partial<SyntheticOptions> = {
-    seed: value('seed', 1),
-    durationS: value('hours', 6) * 3600,
-    samplingS: value('sampling', 30),
-    biasAmplitudeM: value('bias', DEFAULT_SYNTHETIC.biasAmplitudeM),
-    grossErrors: value('gross', 0),
+    seed: numberOption(values, 'seed', 0, 2 ** 32 - 1),
+    startIso: new Date(epochOption(values, 'start')).toISOString(),
+    durationS: numberOption(values, 'hours', 0.01, 240) * 3600,
+    samplingS: numberOption(values, 'sampling', 1, 3600),
+    biasAmplitudeM: numberOption(values, 'bias', 0, 1e9),
+    grossErrors: numberOption(values, 'gross', 0, 10_000),
   };
   const data = generateSyntheticResiduals(options);
-  process.stdout.write(args.includes('--csv') ? toCsv(data) : JSON.stringify(toRequestBody(data, options)) + '\n');
+  if (values.csv) {
+    if (values.station || values['apriori-zhd'] !== undefined || values['zwd-interval'] !== undefined) {
+      throw new UsageError('--station, --apriori-zhd and --zwd-interval shape the JSON body; with --csv put them in the query of the request');
+    }
+    return toCsv(data);
+  }
+  const { site, ...rest } = toRequestBody(data, options);
+  const body: Record<string, unknown> = values.station ? { ...rest } : { site, ...rest };
+  if (values['apriori-zhd'] !== undefined) body.apriori = { zhd_m: numberOption(values, 'apriori-zhd', 0, 3) };
+  if (values['zwd-interval'] !== undefined) body.options = { zwd_interval_s: numberOption(values, 'zwd-interval', 30, 86_400) };
+  return JSON.stringify(body) + '\n';
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) {
+  runCli(SYNTHETIC_CLI, (values) => writeOutput(syntheticCliOutput(values), values.out));
 }

@@ -20,6 +20,31 @@ const integer = (min: number, max: number) =>
     .min(min, { error: `must be a whole number in ${min}..${max}` })
     .max(max, { error: `must be a whole number in ${min}..${max}` });
 
+/**
+ * TRUST_PROXY: which hops in front of the service may set X-Forwarded-For. `false` (default) trusts
+ * none: the client address is the TCP peer. A whole number n trusts the n nearest hops (1 = one load
+ * balancer in front). A comma-separated list of addresses or CIDRs trusts the hops at those
+ * addresses. The old `true` means 1 hop (never "trust every hop", which let any client choose its
+ * own address with a forged header); configWarnings() says so at start.
+ */
+export type TrustProxy = false | number | string[];
+const TRUST_PROXY_MESSAGE = 'must be false, a hop count 1..16, or comma-separated addresses/CIDRs of the trusted proxies';
+const ADDRESS_OR_CIDR = /^(?:\d{1,3}(?:\.\d{1,3}){3}(?:\/\d{1,2})?|[0-9a-fA-F:]*:[0-9a-fA-F:.]*(?:\/\d{1,3})?|loopback|linklocal|uniquelocal)$/;
+const trustProxySetting = z.string().transform((raw, ctx): TrustProxy => {
+  const v = raw.trim().toLowerCase();
+  if (['false', '0', 'no'].includes(v)) return false;
+  if (['true', 'yes'].includes(v)) return 1;
+  if (/^\d+$/.test(v)) {
+    const n = Number(v);
+    if (n >= 1 && n <= 16) return n;
+  } else {
+    const list = v.split(',').map((s) => s.trim()).filter(Boolean);
+    if (list.length > 0 && list.every((s) => ADDRESS_OR_CIDR.test(s))) return list;
+  }
+  ctx.addIssue({ code: 'custom', message: TRUST_PROXY_MESSAGE });
+  return z.NEVER;
+});
+
 export const configSchema = z.object({
   PORT: integer(0, 65535).default(8080).describe('TCP port to listen on'),
   HOST: z.string().min(1).default('127.0.0.1').describe('Address to bind; 0.0.0.0 in a container'),
@@ -27,7 +52,9 @@ export const configSchema = z.object({
     .enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'], { error: 'must be one of fatal, error, warn, info, debug, trace, silent' })
     .default('info'),
   REQUEST_TIMEOUT_MS: integer(1000, 3_600_000).default(120_000).describe('Longest time to receive one whole request from the client'),
-  TRUST_PROXY: booleanFlag.default(false).describe('Take the client address from X-Forwarded-For (behind a load balancer)'),
+  TRUST_PROXY: trustProxySetting
+    .default(false)
+    .describe('Proxies trusted to set X-Forwarded-For: false, a hop count, or addresses/CIDRs (true = 1 hop)'),
   SHUTDOWN_TIMEOUT_MS: integer(0, 600_000).default(25_000).describe('Longest wait for in-flight requests on SIGTERM'),
   ESTIMATION_WORKERS: integer(1, 256).default(availableParallelism()).describe('Worker threads for estimation'),
   ESTIMATION_QUEUE_LIMIT: integer(0, 10_000).default(32).describe('Estimations waiting for a worker before 503'),
@@ -52,6 +79,16 @@ export const configSchema = z.object({
     .refine((keys) => keys.every((k) => k.length >= 16), { error: 'every key must have at least 16 characters' })
     .describe('Comma-separated bearer keys allowed to write (and to read when TROPO_READ_KEYS_REQUIRED=true)'),
   TROPO_READ_KEYS_REQUIRED: booleanFlag.default(false).describe('Whether reads of /v1/stations need a key too'),
+  DB_CONNECT_TIMEOUT_MS: integer(100, 600_000)
+    .default(5_000)
+    .describe('Longest wait for a PostgreSQL connection (a new one or one from the pool) before 503 [ms]'),
+  DB_STATEMENT_TIMEOUT_MS: integer(100, 3_600_000)
+    .default(30_000)
+    .describe('Longest run of one SQL statement (server side) and wait for its answer (client side, + 1 s) before 503 [ms]'),
+  READY_CHECK_TIMEOUT_MS: integer(100, 60_000).default(2_000).describe('Deadline of each readiness check of GET /v1/ready [ms]'),
+  TROPO_MIN_FREE_DISK_MB: integer(0, 10_000_000)
+    .default(64)
+    .describe('Free space below which the data directory counts as full for GET /v1/ready [MiB]; 0 = no check'),
   TROPO_MAX_READ_RANGE_DAYS: z.coerce
     .number({ error: 'must be a number of days in (0, 36600]' })
     .positive({ error: 'must be a number of days in (0, 36600]' })
@@ -71,6 +108,18 @@ export function defaultConfig(overrides: Partial<Config> = {}): Config {
 
 /** Variables whose values never appear in an error message. */
 const SECRET_VARIABLES = new Set(['TROPO_API_KEYS', 'DATABASE_URL']);
+
+/** Settings that work but deserve a line in the start-up log (server.ts logs them). */
+export function configWarnings(env: NodeJS.ProcessEnv = process.env): string[] {
+  const warnings: string[] = [];
+  const trust = env.TRUST_PROXY?.trim().toLowerCase();
+  if (trust === 'true' || trust === 'yes') {
+    warnings.push(
+      'TRUST_PROXY=true is taken as 1 trusted hop (the load balancer in front): set the hop count or the proxy addresses/CIDRs explicitly',
+    );
+  }
+  return warnings;
+}
 
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const relevant = Object.fromEntries(Object.keys(configSchema.shape).filter((k) => env[k] !== undefined && env[k] !== '').map((k) => [k, env[k]]));

@@ -1,10 +1,13 @@
 /**
  * Entry point: reads the configuration, builds the app, listens, and shuts down gracefully on
- * SIGTERM/SIGINT: stop accepting, let in-flight requests finish (bounded by SHUTDOWN_TIMEOUT_MS),
+ * SIGTERM/SIGINT: stop accepting, close idle keep-alive connections at once (Node's server.close),
+ * answer in-flight requests with `Connection: close` (the readiness plugin) so their connections
+ * close after the answer, refuse requests that still arrive on an open connection with 503
+ * (fastify's return503OnClosing), let in-flight requests finish (bounded by SHUTDOWN_TIMEOUT_MS),
  * close the database (the storage plugin's onClose) and the worker pool, exit 0.
  */
 
-import { ConfigError, loadConfig, type Config } from './config.js';
+import { ConfigError, configWarnings, loadConfig, type Config } from './config.js';
 import { archiveOptionsFromConfig, buildApp } from './http/app.js';
 
 async function main(): Promise<void> {
@@ -24,6 +27,7 @@ async function main(): Promise<void> {
     logger: { level: config.LOG_LEVEL, redact: ['req.headers.authorization', 'headers.authorization'] },
     archive: archiveOptionsFromConfig(config),
   });
+  for (const warning of configWarnings()) app.log.warn(warning);
 
   let closing = false;
   const shutdown = async (signal: string) => {

@@ -38,6 +38,7 @@ if (requested.length === 0) {
 }
 
 const nativeArch = execFileSync('dpkg', ['--print-architecture'], { encoding: 'utf8' }).trim();
+// eslint-disable-next-line no-template-curly-in-string -- dpkg-query's own ${field} placeholders
 const format = '${Package}\t${Architecture}\t${db:Status-Abbrev}\t${Provides}\t${Pre-Depends}\t${Depends}\n';
 /** name -> { arch, depends } of installed packages (native architecture or `all`). */
 const installed = new Map();
@@ -56,7 +57,7 @@ for (const row of execFileSync('dpkg-query', ['-W', '-f', format], { encoding: '
 
 /** "libc6:any (>= 2.34) [amd64] <!nocheck>" -> "libc6" */
 function bareName(relation) {
-  return relation.trim().split(/[\s(\[<]/)[0].replace(/:[a-z0-9-]+$/, '');
+  return relation.trim().split(/[\s([<]/)[0].replace(/:[a-z0-9-]+$/, '');
 }
 
 function resolve(name) {

@@ -5,7 +5,7 @@
  *
  * U.S. Standard Atmosphere, 1976 (NOAA/NASA/USAF, Washington D.C.), Part 1 (values from memory,
  * checked in test/domain/profile/us-standard-atmosphere-1976.test.ts against the check values of
- * published-constants.md):
+ * docs/constants.md):
  * - geopotential altitude H [m'] from geometric altitude Z [m]: H = r0 Z / (r0 + Z), r0 = 6 356 766 m
  *   (eq. 18 there);
  * - seven layers in geopotential altitude with linear molecular-scale temperature T_M = T_b + L_b (H − H_b)
@@ -27,6 +27,7 @@
  */
 
 import { writeFileSync } from 'node:fs';
+import { type CliSpec, epochOption, runCli, writeOutput } from '../cli.js';
 
 /** Effective Earth radius of the standard's geopotential definition [m]. */
 export const USSA_R0_M = 6_356_766;
@@ -243,7 +244,7 @@ export function toApiLevels(
 }
 
 /** The example request of the documentation: 40 levels from 0 to 30 km, RH0 = 70 %, site at 45° N. */
-export function exampleRequest() {
+export function exampleRequest(epochIso = '2026-04-29T07:00:00Z') {
   const heights = stretchedHeightsM(40, 0, 30_000).map((h) => Math.round(h));
   const levels = column(heights, { surfaceRelativeHumidityPct: 70 }).map((l) => ({
     height_m: l.heightM,
@@ -253,14 +254,31 @@ export function exampleRequest() {
   }));
   return {
     site: { latitude_deg: 45, longitude_deg: 10, height_m: 0 },
-    epoch: '2026-04-29T07:00:00Z',
+    epoch: epochIso,
     levels,
     elevations_deg: [3, 5, 10, 15, 30, 90],
   };
 }
 
+export const USSA_CLI: CliSpec = {
+  command: 'npx tsx scripts/generators/us-standard-atmosphere-1976.ts',
+  summary:
+    'Writes the documentation\'s example request for POST /v1/profile-delays: the U.S. Standard Atmosphere 1976 at 45° N,\n' +
+    '40 levels from 0 to 30 km, 70 % surface relative humidity.',
+  options: {
+    start: { type: 'string', value: 'EPOCH', description: 'epoch of the request, ISO 8601 with a zone', default: '2026-04-29T07:00:00Z' },
+    out: { type: 'string', value: 'FILE', description: 'file to write ("-": standard output)', default: 'fixtures/profiles/ussa1976-45n.json' },
+  },
+};
+
 if (import.meta.url === `file://${process.argv[1]}`) {
-  const target = new URL('../../fixtures/profiles/ussa1976-45n.json', import.meta.url);
-  writeFileSync(target, JSON.stringify(exampleRequest(), null, 2) + '\n');
-  process.stdout.write(`wrote ${target.pathname}\n`);
+  runCli(USSA_CLI, (values) => {
+    const epochIso = new Date(epochOption(values, 'start')).toISOString().replace('.000Z', 'Z');
+    const text = JSON.stringify(exampleRequest(epochIso), null, 2) + '\n';
+    if (values.out === USSA_CLI.options.out!.default) {
+      const target = new URL('../../fixtures/profiles/ussa1976-45n.json', import.meta.url);
+      writeFileSync(target, text);
+      process.stdout.write(`wrote ${target.pathname}\n`);
+    } else writeOutput(text, values.out);
+  });
 }

@@ -2,7 +2,7 @@
  * Physical constants used by the models, each with its unit and authority.
  *
  * Where a value is recalled rather than checked against the publication, the comment
- * says "from memory" (see ../shared/references/published-constants.md for the
+ * says "from memory" (see docs/constants.md for the
  * transcription status of every value).
  */
 
@@ -26,7 +26,7 @@ export const RHO_WATER_KG_M3 = 1000;
 /**
  * Mean gravity at the centroid of the atmospheric column used by Saastamoinen's formula [m/s²].
  * Saastamoinen (1972); Davis et al. (1985). From memory; consistent with the ZHD constant
- * 0.0022768 = 1e-6 · 77.604 · 287.0464 / 9.784 (published-constants.md).
+ * 0.0022768 = 1e-6 · 77.604 · 287.0464 / 9.784 (docs/constants.md).
  */
 export const G_MEAN_M_S2 = 9.784;
 
@@ -45,6 +45,17 @@ export const BEVIS_1994 = {
   k2_K_per_hPa: 70.4,
   k3_K2_per_hPa: 3.739e5,
   k2prime_K_per_hPa: 22.1,
+} as const;
+
+/**
+ * Standard uncertainties of the refractivity constants as Bevis et al. (1994) quote them (from
+ * memory): k1 = 77.60 ± 0.05 K/hPa, k2' = 22.1 ± 2.2 K/hPa, k3 = (3.739 ± 0.012)e5 K²/hPa.
+ * They are common to every PWV value (systematic), not independent from record to record.
+ */
+export const BEVIS_1994_SIGMA = {
+  k1_K_per_hPa: 0.05,
+  k2prime_K_per_hPa: 2.2,
+  k3_K2_per_hPa: 0.012e5,
 } as const;
 
 /**

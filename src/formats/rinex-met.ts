@@ -25,6 +25,7 @@
  * Pure: text in, values out; no I/O.
  */
 
+import { readNumber } from './number-text.js';
 import { gpsToUtcMs } from '../domain/time-scales.js';
 
 export const USED_RINEX_MET_TYPES = ['PR', 'TD', 'HR'] as const;
@@ -87,8 +88,7 @@ export function looksLikeRinexMet(text: string): boolean {
 function parseField(raw: string): number | null | 'bad' {
   const s = raw.trim();
   if (s === '') return null;
-  if (!/^[+-]?(\d+\.?\d*|\.\d+)([eEdD][+-]?\d+)?$/.test(s)) return 'bad';
-  return Number(s.replace(/[dD]/, 'e'));
+  return readNumber(s, { fortranExponent: true }) ?? 'bad';
 }
 
 export function parseRinexMet(text: string): RinexMetFile {

@@ -9,10 +9,13 @@ import { validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-z
 import { DEFAULT_MAX_READ_RANGE_DAYS, defaultConfig, type Config } from '../config.js';
 import type { StorageConfig } from '../storage/factory.js';
 import type { Repository } from '../storage/repository.js';
+import { MAX_QUERY_VALUE_CHARS } from '../limits.js';
+import { HttpProblem } from './problem.js';
 import auth from './plugins/auth.js';
 import computePool from './plugins/compute-pool.js';
-import edge from './plugins/edge.js';
-import errorHandler from './plugins/error-handler.js';
+import edge, { trustProxyOption } from './plugins/edge.js';
+import errorHandler, { routerErrorHandler } from './plugins/error-handler.js';
+import jsonBody from './plugins/json-body.js';
 import metrics from './plugins/metrics.js';
 import openapi from './plugins/openapi.js';
 import readiness from './plugins/readiness.js';
@@ -22,6 +25,7 @@ import healthRoute from './routes/health.js';
 import mappingFactorsRoute from './routes/mapping-factors.js';
 import precipitableWaterRoute from './routes/precipitable-water.js';
 import profileDelaysRoute from './routes/profile-delays.js';
+import rootRoute from './routes/root.js';
 import slantDelaysRoute from './routes/slant-delays.js';
 import stationDelaysRoute from './routes/station-delays.js';
 import stationMetRoute from './routes/station-met.js';
@@ -56,7 +60,14 @@ export interface AppOptions {
 /** Archive options from the validated environment (server.ts, the demo). */
 export function archiveOptionsFromConfig(config: Config): ArchiveOptions {
   return {
-    storage: { dataDir: config.TROPO_DATA_DIR, databaseUrl: config.DATABASE_URL, pgSchema: config.TROPO_PG_SCHEMA },
+    storage: {
+      dataDir: config.TROPO_DATA_DIR,
+      databaseUrl: config.DATABASE_URL,
+      pgSchema: config.TROPO_PG_SCHEMA,
+      connectTimeoutMs: config.DB_CONNECT_TIMEOUT_MS,
+      statementTimeoutMs: config.DB_STATEMENT_TIMEOUT_MS,
+      minFreeDiskBytes: config.TROPO_MIN_FREE_DISK_MB * 1024 * 1024,
+    },
     apiKeys: config.TROPO_API_KEYS,
     keyDir: config.TROPO_DATA_DIR,
     readKeysRequired: config.TROPO_READ_KEYS_REQUIRED,
@@ -71,6 +82,20 @@ const IN_MEMORY_ARCHIVE: ArchiveOptions = {
   maxReadRangeDays: DEFAULT_MAX_READ_RANGE_DAYS,
 };
 
+/** A 400 naming the first query parameter whose value is longer than MAX_QUERY_VALUE_CHARS, else undefined. */
+function overlongQueryValue(query: unknown): HttpProblem | undefined {
+  if (!query || typeof query !== 'object') return undefined;
+  for (const [name, value] of Object.entries(query)) {
+    for (const v of Array.isArray(value) ? value : [value]) {
+      if (typeof v === 'string' && v.length > MAX_QUERY_VALUE_CHARS) {
+        const message = `a value of ${v.length} characters; at most ${MAX_QUERY_VALUE_CHARS}`;
+        return new HttpProblem(400, `query.${name}: ${message}`, [{ field: `query.${name}`, message }]);
+      }
+    }
+  }
+  return undefined;
+}
+
 export async function buildApp(options: AppOptions = {}): Promise<FastifyInstance> {
   const config = defaultConfig(options.config);
   const app = Fastify({
@@ -79,9 +104,11 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     logController: new LogController({ disableRequestLogging: true }),
     bodyLimit: 1024 * 1024,
     requestTimeout: config.REQUEST_TIMEOUT_MS,
-    trustProxy: config.TRUST_PROXY,
+    trustProxy: trustProxyOption(config.TRUST_PROXY),
     requestIdHeader: 'x-request-id',
     genReqId: () => randomUUID(),
+    // Bad percent-encoding and over-long path segments get the problem shape too.
+    frameworkErrors: routerErrorHandler,
   }).withTypeProvider<ZodTypeProvider>();
 
   // Tables (CSV) and RINEX meteorological files arrive as text; routes that take them parse them.
@@ -96,14 +123,17 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     reply.header('x-request-id', request.id);
     done();
   });
+  // Every query value is length-capped before any schema or pattern looks at it (issue 11 item 3).
+  app.addHook('preValidation', (request, _reply, done) => done(overlongQueryValue(request.query)));
 
   await app.register(errorHandler);
+  await app.register(jsonBody);
   await app.register(requestLog);
   await app.register(metrics);
   await app.register(edge, { config });
   await app.register(computePool, { config });
   await app.register(openapi);
-  await app.register(readiness);
+  await app.register(readiness, { timeoutMs: config.READY_CHECK_TIMEOUT_MS });
   const archive = options.archive ?? IN_MEMORY_ARCHIVE;
   await app.register(storage, { storage: archive.storage, ...(archive.repository ? { repository: archive.repository } : {}) });
   await app.register(auth, {
@@ -111,6 +141,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     readKeysRequired: archive.readKeysRequired,
     ...(archive.keyDir ? { keyDir: archive.keyDir } : {}),
   });
+  await app.register(rootRoute);
   await app.register(healthRoute);
   await app.register(zenithDelaysRoute);
   await app.register(mappingFactorsRoute);

@@ -30,6 +30,7 @@ const TITLES: Record<number, string> = {
   408: 'Request timeout',
   409: 'Conflict',
   413: 'Request body too large',
+  414: 'URI too long',
   415: 'Unsupported media type',
   422: 'The model cannot answer',
   429: 'Too many requests',

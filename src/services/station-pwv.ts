@@ -21,12 +21,12 @@
  */
 
 import { DEG } from '../domain/constants.js';
-import { checkReductionHeight, reducePressureHpa, reduceTemperatureC } from '../domain/meteo/height-reduction.js';
 import { DEFAULT_MAX_MET_GAP_MS, interpolateSeries, type InterpolationQuality, type TimedValue } from '../domain/meteo/met-interpolation.js';
 import { MODEL_NAMES, provenance } from '../domain/provenance.js';
 import { negativeWetDelayWarning, precipitableWaterFromSurfaceMet, tmExtrapolatedWarning } from '../domain/water-vapour/precipitable-water.js';
 import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
 import type { Station, SurfaceMetRow, ZenithDelayRow } from '../storage/repository.js';
+import { antennaReduction } from './station-met.js';
 
 /** ztd_sigma_m above this flags "delay-sigma-large" [m] (our choice: 10 mm of ZTD ≈ 1.5 mm of PWV). */
 export const DEFAULT_MAX_ZTD_SIGMA_M = 0.01;
@@ -68,6 +68,7 @@ export function retrievalProvenance(maxMetGapMs: number) {
     zhd: MODEL_NAMES.zhd,
     tm: MODEL_NAMES.tm,
     conversion: MODEL_NAMES.conversion,
+    pwv_sigma: MODEL_NAMES.pwvSigma,
     met_interpolation: 'linear in time, no extrapolation',
     max_met_gap_s: maxMetGapMs / 1000,
     met_reduction: 'hypsometric pressure, -6.5 K/km',
@@ -100,8 +101,8 @@ export function stationPrecipitableWater(
   const maxMetGapMs = options.maxMetGapMs ?? DEFAULT_MAX_MET_GAP_MS;
   const maxZtdSigmaM = options.maxZtdSigmaM ?? DEFAULT_MAX_ZTD_SIGMA_M;
   const latRad = station.latitudeDeg * DEG;
-  const dHeightM = station.metHeightM === null ? 0 : station.heightM - station.metHeightM;
-  checkReductionHeight(dHeightM, 'station.met_height_m');
+  const reduce = antennaReduction(station);
+  const dHeightM = reduce.dHeightM;
 
   const epochs = delays.map((d) => d.epochMs);
   const pressures = interpolateSeries(series(met, (r) => r.pressureHpa), epochs, maxMetGapMs);
@@ -138,7 +139,7 @@ export function stationPrecipitableWater(
     records[i] = record;
     if (p.value === null || t.value === null) {
       counts['met-missing']++;
-      if (t.value !== null) record.temperatureC = reduceTemperatureC(t.value, dHeightM);
+      if (t.value !== null) record.temperatureC = reduce.temperatureC(t.value);
       // ZHD still follows from a pressure taken at the antenna height itself.
       if (p.value !== null && dHeightM === 0) {
         record.pressureHpa = p.value;
@@ -147,8 +148,8 @@ export function stationPrecipitableWater(
       }
       continue;
     }
-    const pressureHpa = dHeightM === 0 ? p.value : reducePressureHpa(p.value, t.value, dHeightM);
-    const temperatureC = reduceTemperatureC(t.value, dHeightM);
+    const pressureHpa = reduce.pressureHpa(p.value, t.value);
+    const temperatureC = reduce.temperatureC(t.value);
     const res = precipitableWaterFromSurfaceMet(d.ztdM, d.ztdSigmaM, pressureHpa, temperatureC, latRad, station.heightM);
     // Warning texts only for the first MAX_WARNINGS (the field prefix makes each one a new string).
     if (res.wetDelayNegative) {

@@ -14,13 +14,37 @@ export interface StorageConfig {
   databaseUrl?: string | undefined;
   /** PostgreSQL schema (default public). */
   pgSchema?: string | undefined;
+  /** PostgreSQL: longest wait for a connection [ms] (DB_CONNECT_TIMEOUT_MS). */
+  connectTimeoutMs?: number | undefined;
+  /** PostgreSQL statement timeout [ms] (DB_STATEMENT_TIMEOUT_MS); SQLite's busy wait is the smaller of it and 5 s. */
+  statementTimeoutMs?: number | undefined;
+  /** Free space of dataDir below which readiness fails [bytes] (TROPO_MIN_FREE_DISK_MB); 0 or unset = no floor. */
+  minFreeDiskBytes?: number | undefined;
 }
 
-export async function createRepository(config: StorageConfig): Promise<Repository> {
+export interface RepositoryHooks {
+  /** Told about a connection error outside a query (already handled; for the log). */
+  onConnectionError?: (err: Error) => void;
+}
+
+/** Longest wait of a SQLite write for another process's lock [ms]. */
+const SQLITE_BUSY_TIMEOUT_MS = 5_000;
+
+export async function createRepository(config: StorageConfig, hooks: RepositoryHooks = {}): Promise<Repository> {
   if (config.databaseUrl) {
-    return PostgresRepository.open({ connectionString: config.databaseUrl, schema: config.pgSchema ?? 'public' });
+    return PostgresRepository.open({
+      connectionString: config.databaseUrl,
+      schema: config.pgSchema ?? 'public',
+      ...(config.connectTimeoutMs !== undefined ? { connectTimeoutMs: config.connectTimeoutMs } : {}),
+      ...(config.statementTimeoutMs !== undefined ? { statementTimeoutMs: config.statementTimeoutMs } : {}),
+      ...(hooks.onConnectionError ? { onConnectionError: hooks.onConnectionError } : {}),
+    });
   }
-  return new SqliteRepository({ dataDir: config.dataDir });
+  return new SqliteRepository({
+    dataDir: config.dataDir,
+    // A write waits for another process's lock at most this long (then a few retries, then 503).
+    busyTimeoutMs: Math.min(config.statementTimeoutMs ?? SQLITE_BUSY_TIMEOUT_MS, SQLITE_BUSY_TIMEOUT_MS),
+  });
 }
 
 /** Where the data of a configuration lives, for the start-up log line (never the password). */

@@ -2,19 +2,48 @@
  * A pool of worker threads (piscina) for the heavy computations, so that health checks, metrics and
  * light requests never wait behind an estimation. The queue in front of the workers is bounded;
  * when it is full a request is refused with 503 and a Retry-After header instead of piling up.
+ *
+ * The pool knows no task itself: the layer that owns a task registers it by module and export name
+ * (src/http/compute-tasks.ts for the request tasks), and the worker thread imports that module
+ * (compute-worker.ts). So nothing here imports the layers above.
  */
 
 import { Piscina } from 'piscina';
-import type { TaskOutcome } from '../services/zwd-request.js';
-import type { ComputeResponse, ComputeTaskInput, ComputeTaskName, ComputeTaskOutput } from './tasks.js';
+import type { TaskError, TaskOutcome } from './task-outcome.js';
 
-export interface ComputePoolOptions {
+/** A task: plain, structured-cloneable data in, a TaskOutcome out. */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export type ComputeTask = (input: any) => Promise<TaskOutcome<unknown>>;
+
+/** Where a task lives: the module's URL and the name of its exported function. */
+export interface TaskLocation {
+  module: string;
+  exportName: string;
+}
+
+export type TaskInput<F extends ComputeTask> = Parameters<F>[0];
+export type TaskOutput<F extends ComputeTask> = Extract<Awaited<ReturnType<F>>, { ok: true }>['output'];
+
+export interface ComputePoolOptions<Tasks extends Record<string, ComputeTask>> {
   /** Worker threads (default: the machine's cores). */
   threads: number;
   /** Tasks that may wait for a worker before new ones are refused. */
   queueLimit: number;
-  /** Called after each task with its name, size and run time [s]. */
-  onTaskDone?: (task: ComputeTaskName, durationS: number) => void;
+  /** The tasks by name. */
+  tasks: { [K in keyof Tasks]: TaskLocation };
+  /** Called after each task with its name and run time [s]. */
+  onTaskDone?: (task: keyof Tasks & string, durationS: number) => void;
+}
+
+/** What the worker thread gets and answers (compute-worker.ts). */
+export interface ComputeRequest extends TaskLocation {
+  input: unknown;
+}
+
+export interface ComputeResponse {
+  outcome: unknown;
+  /** Run time inside the worker [ms]. */
+  durationMs: number;
 }
 
 export class ComputePoolFullError extends Error {
@@ -25,7 +54,7 @@ export class ComputePoolFullError extends Error {
 
 /** A task's error outcome (a 4xx of the caller's making), rethrown on the calling side. */
 export class ComputeTaskError extends Error {
-  constructor(readonly error: Extract<TaskOutcome<unknown>, { ok: false }>['error']) {
+  constructor(readonly error: TaskError) {
     super(error.detail);
   }
 }
@@ -39,10 +68,27 @@ function workerLocation(): { filename: string; execArgv: string[] } {
   };
 }
 
-export class ComputePool {
-  private pool: Piscina | undefined;
+/**
+ * Retry-After for a refused task [s]: the work ahead of it spread over the threads. Every task ahead
+ * (queued or running) takes about the mean run time; the threads work through them in parallel, so
+ * the queue has room again after about (queued + running) × mean / threads. At least 1 s (the
+ * header's unit), rounded up. With no task measured yet the mean is taken as 1 s.
+ */
+export function retryAfterEstimateS(load: { queued: number; running: number; threads: number; meanRunS: number | null }): number {
+  const meanS = load.meanRunS !== null && load.meanRunS > 0 ? load.meanRunS : 1;
+  return Math.max(1, Math.ceil(((load.queued + load.running) * meanS) / Math.max(1, load.threads)));
+}
 
-  constructor(private readonly options: ComputePoolOptions) {}
+/** Weight of the newest run time in the moving mean: about the last 10 tasks count. */
+const MEAN_WEIGHT = 0.2;
+
+export class ComputePool<Tasks extends Record<string, ComputeTask>> {
+  private pool: Piscina | undefined;
+  private running = 0;
+  /** Exponentially weighted mean run time of recent tasks [s]; null before the first. */
+  private meanRunS: number | null = null;
+
+  constructor(private readonly options: ComputePoolOptions<Tasks>) {}
 
   /** Tasks waiting for a worker. */
   get queued(): number {
@@ -55,7 +101,7 @@ export class ComputePool {
    * @throws ComputePoolFullError when the queue is full
    * @throws ComputeTaskError when the task answers with an error outcome
    */
-  async run<T extends ComputeTaskName>(task: T, input: ComputeTaskInput<T>): Promise<ComputeTaskOutput<T>> {
+  async run<K extends keyof Tasks & string>(task: K, input: TaskInput<Tasks[K]>): Promise<TaskOutput<Tasks[K]>> {
     const pool = (this.pool ??= new Piscina({
       ...workerLocation(),
       minThreads: this.options.threads, // all started at once: no thread is spawned in the middle of a load
@@ -63,24 +109,38 @@ export class ComputePool {
       maxQueue: this.options.queueLimit,
       idleTimeout: 60_000,
     }));
+    const location = this.options.tasks[task];
     let response: ComputeResponse;
+    this.running++;
     try {
-      response = (await pool.run({ task, input })) as ComputeResponse;
+      response = (await pool.run({ ...location, input } satisfies ComputeRequest)) as ComputeResponse;
     } catch (err) {
+      this.running--;
       if (err instanceof Error && /queue is at limit/i.test(err.message)) throw new ComputePoolFullError(this.retryAfterS());
       throw err;
     }
-    this.options.onTaskDone?.(task, response.durationMs / 1000);
-    const outcome = response.outcome as TaskOutcome<ComputeTaskOutput<T>>;
+    this.running--;
+    const durationS = response.durationMs / 1000;
+    this.meanRunS = this.meanRunS === null ? durationS : this.meanRunS + MEAN_WEIGHT * (durationS - this.meanRunS);
+    this.options.onTaskDone?.(task, durationS);
+    const outcome = response.outcome as TaskOutcome<TaskOutput<Tasks[K]>>;
     if (!outcome.ok) throw new ComputeTaskError(outcome.error);
     return outcome.output;
   }
 
-  /** A hint for Retry-After [s]: the mean run time times the tasks ahead, at least 1 s. */
+  /**
+   * A hint for Retry-After [s] from the real queue (retryAfterEstimateS). `running` counts the tasks
+   * handed to piscina and not yet answered, queued ones included, so the tasks on the threads are
+   * running − queued.
+   */
   private retryAfterS(): number {
-    const meanMs = this.pool?.histogram.runTime.mean ?? 0;
-    const meanS = meanMs > 0 ? meanMs / 1000 : 1;
-    return Math.max(1, Math.ceil((meanS * (this.queued + 1)) / this.options.threads));
+    const queued = this.queued;
+    return retryAfterEstimateS({
+      queued,
+      running: Math.max(0, Math.min(this.options.threads, this.running - queued)),
+      threads: this.options.threads,
+      meanRunS: this.meanRunS,
+    });
   }
 
   async close(): Promise<void> {

@@ -7,14 +7,14 @@ import { niellModel } from '../../src/domain/mapping/niell.js';
 import { MAPPING_MODELS } from '../../src/domain/mapping/registry.js';
 import { vmf1Model } from '../../src/domain/mapping/vmf1.js';
 
-// The normalised continued fraction of Marini (1972) as Niell (1996) writes it, eq. 4 (published-constants.md).
+// The normalised continued fraction of Marini (1972) as Niell (1996) writes it, eq. 4 (docs/constants.md).
 const f = (e: number, a: number, b: number, c: number) =>
   (1 + a / (1 + b / (1 + c))) / (Math.sin(e) + a / (Math.sin(e) + b / (Math.sin(e) + c)));
 
 const niell = (latDeg: number, doy: number, heightM = 0) =>
   niellModel.prepare({ latitudeRad: latDeg * DEG, heightM, dayOfYear: doy });
 
-describe('Niell (1996) mapping functions against the published coefficient table (Table 3, confirmed in published-constants.md)', () => {
+describe('Niell (1996) mapping functions against the published coefficient table (Table 3, confirmed in docs/constants.md)', () => {
   // Transcribed here independently of src/: 45° row, and the height-correction coefficients.
   const AVG_45 = { a: 1.2465397e-3, b: 2.9288445e-3, c: 63.721774e-3 };
   const AMP_45 = { a: 2.6523662e-5, b: 3.0160779e-5, c: 4.3497037e-5 };

@@ -5,7 +5,7 @@ import { standardAtmosphere } from '../../src/domain/meteo/standard-atmosphere.j
 import { resolveSurfaceMet } from '../../src/domain/meteo/surface-met.js';
 
 describe('saturation vapour pressure over water, WMO-No. 8 (2008) Annex 4.B', () => {
-  // Handbook values: CRC Handbook of Chemistry and Physics, 73rd ed.; IAPWS (Wagner & Pruß) — published-constants.md.
+  // Handbook values: CRC Handbook of Chemistry and Physics, 73rd ed.; IAPWS (Wagner & Pruß) — docs/constants.md.
   // The Magnus form is stated to agree with them to about 0.3 % between 0 and 30 °C.
   it.each([
     [0, 6.1129, 6.1121],
@@ -39,7 +39,7 @@ describe('saturation vapour pressure over water, WMO-No. 8 (2008) Annex 4.B', ()
 });
 
 describe('standard atmosphere (Berg 1948 form) against the U.S. Standard Atmosphere 1976', () => {
-  // U.S. Standard Atmosphere (1976), geometric altitude (published-constants.md, computed from the defining constants).
+  // U.S. Standard Atmosphere (1976), geometric altitude (docs/constants.md, computed from the defining constants).
   it.each([
     [0, 1013.25],
     [1000, 898.76],

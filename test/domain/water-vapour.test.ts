@@ -6,7 +6,7 @@ import { negativeWetDelayWarning, precipitableWater, precipitableWaterFromSurfac
 import { zenithHydrostaticDelayM } from '../../src/domain/zenith/hydrostatic.js';
 
 describe('conversion factor Π of Bevis et al. (1994)', () => {
-  // Values computed from Π = 1e6/(ρw Rv (k3/Tm + k2')) with the Bevis (1994) constants (published-constants.md).
+  // Values computed from Π = 1e6/(ρw Rv (k3/Tm + k2')) with the Bevis (1994) constants (docs/constants.md).
   it.each([
     [250, 0.1428],
     [270, 0.154],
@@ -50,8 +50,13 @@ describe('precipitable water from a total delay and surface met', () => {
     const dZtd = (pwv(2.4 + d, 1000, 270) - pwv(2.4 - d, 1000, 270)) / (2 * d);
     const dP = (pwv(2.4, 1000 + d, 270) - pwv(2.4, 1000 - d, 270)) / (2 * d);
     const dTm = (pwv(2.4, 1000, 270 + d) - pwv(2.4, 1000, 270 - d)) / (2 * d);
-    const expected = Math.hypot(dZtd * 0.004, dP * 0.5, dTm * 3);
-    expect(r.pwvSigmaMm).toBeCloseTo(expected, 5);
+    expect(r.sigmaBudget.delayMm!).toBeCloseTo(Math.abs(dZtd) * 0.004, 5);
+    expect(r.sigmaBudget.pressureMm).toBeCloseTo(Math.abs(dP) * 0.5, 5);
+    expect(r.sigmaBudget.tmMm).toBeCloseTo(Math.abs(dTm) * 3, 5);
+    // the total also holds the ZHD-model and refractivity terms (test/domain/pwv-sigma-budget.test.ts)
+    const b = r.sigmaBudget;
+    expect(r.pwvSigmaMm).toBeCloseTo(Math.hypot(b.delayMm!, b.pressureMm, b.zhdModelMm, b.temperatureMm, b.tmMm, b.refractivityMm), 12);
+    expect(r.pwvSigmaMm).toBeGreaterThan(Math.hypot(dZtd * 0.004, dP * 0.5, dTm * 3));
     // 4 mm of ZTD is about 0.6 mm of PWV (common practice: ratio ≈ 1/6.5)
     expect(Math.abs(dZtd * 0.004 - 0.62)).toBeLessThan(0.03);
   });

@@ -24,7 +24,7 @@ describe('Saastamoinen hydrostatic delay, IERS Conventions (2010) eq. 9.11 (Davi
     expect(Math.abs(zenithHydrostaticDelayM(p, lat * DEG, h) - iers(p, lat, h))).toBeLessThan(0.001 * MM);
   });
 
-  it('its constant 0.0022768 m/hPa is 1e-6 k1 Rd / g_m with k1 = 77.604 K/hPa, Rd = 287.0464 J/(kg K), g_m = 9.784 m/s² (published-constants.md)', () => {
+  it('its constant 0.0022768 m/hPa is 1e-6 k1 Rd / g_m with k1 = 77.604 K/hPa, Rd = 287.0464 J/(kg K), g_m = 9.784 m/s² (docs/constants.md)', () => {
     const perHpa = zenithHydrostaticDelayM(1, 45 * DEG, 0); // cos 90° = 0, H = 0: the bare constant
     expect(perHpa).toBeCloseTo((1e-6 * 77.604 * 287.0464) / 9.784, 7);
   });

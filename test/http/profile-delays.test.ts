@@ -131,7 +131,10 @@ describe('POST /v1/profile-delays', () => {
       ['pressure out of range', (b) => (b.levels[0].pressure_hpa = 0), 'levels.0.pressure_hpa', /\(0, 1100\] hPa/],
       ['temperature out of range', (b) => (b.levels[2].temperature_c = 75), 'levels.2.temperature_c', /\[-130, 60\] °C/],
       ['elevation 0', (b) => (b.elevations_deg = [0]), 'elevations_deg.0', /\(0, 90\] deg/],
-      ['profile far above the site', (b) => (b.site.height_m = -500) && b.levels.forEach((l: { height_m: number }) => (l.height_m += 1000)), 'levels.0.height_m', /at most 1000 m/],
+      ['profile far above the site', (b) => {
+        b.site.height_m = -500;
+        for (const l of b.levels as { height_m: number }[]) l.height_m += 1000;
+      }, 'levels.0.height_m', /at most 1000 m/],
     ];
     it.each(cases)('%s', async (_name, mutate, field, message) => {
       const body = clone();

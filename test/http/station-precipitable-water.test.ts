@@ -30,18 +30,34 @@ function zhdM(pHpa: number): number {
   return (0.0022768 * pHpa) / (1 - 0.00266 * Math.cos((2 * LAT_DEG * Math.PI) / 180) - 0.28e-6 * HEIGHT_M);
 }
 const tmK = (tC: number) => 70.2 + 0.72 * (tC + 273.15);
-const pi = (tm: number) => 1e6 / (1000 * 461.5 * (3739 / tm + 0.221));
+// Bevis et al. (1994) eq. 6 with k2' [K/Pa] and k3 [K²/Pa] (constants from memory)
+const pi = (tm: number, k2 = 0.221, k3 = 3739) => 1e6 / (1000 * 461.5 * (k3 / tm + k2));
+/**
+ * The stored-series PWV and its σ budget written out: delay σ; pressure σ 0.5 hPa and surface
+ * temperature σ 0.5 K (the documented defaults; stored met has no sigmas); the ±0.0000005 m/hPa of
+ * the Saastamoinen constant (IERS 2010 eq. 9.11, from memory); the 4.74 K scatter of the Bevis Tm;
+ * k2' ± 2.2 K/hPa and k3 ± 0.012e5 K²/hPa (Bevis et al. 1994, from memory).
+ */
 function expected(ztd: number, sigma: number | null, pHpa: number, tC: number) {
   const tm = tmK(tC);
   const zwd = ztd - zhdM(pHpa);
   const dPiDTm = (pi(tm + 0.01) - pi(tm - 0.01)) / 0.02;
+  const dPiDk2 = (pi(tm, 0.221 + 1e-4) - pi(tm, 0.221 - 1e-4)) / 2e-4;
+  const dPiDk3 = (pi(tm, 0.221, 3739 + 0.01) - pi(tm, 0.221, 3739 - 0.01)) / 0.02;
+  const pressureM = (zhdM(pHpa + 0.5) - zhdM(pHpa - 0.5)) / 2; // σ_P = 0.5 hPa
+  const zhdModelM = zhdM(pHpa) * (0.0000005 / 0.0022768);
+  const zwdSigma = sigma === null ? null : Math.hypot(sigma, pressureM, zhdModelM);
   return {
     zhd_m: zhdM(pHpa),
     zwd_m: zwd,
+    zwd_sigma_m: zwdSigma,
     tm_k: tm,
     conversion_factor: pi(tm),
     pwv_mm: pi(tm) * zwd * 1000,
-    pwv_sigma_mm: sigma === null ? null : Math.hypot(pi(tm) * sigma, zwd * dPiDTm * 4.74) * 1000,
+    pwv_sigma_mm:
+      zwdSigma === null
+        ? null
+        : Math.hypot(pi(tm) * zwdSigma, zwd * dPiDTm * 4.74, zwd * dPiDTm * 0.72 * 0.5, zwd * dPiDk2 * 0.022, zwd * dPiDk3 * 12) * 1000,
   };
 }
 
@@ -66,7 +82,8 @@ const DELAYS = [
 
 /**
  * CSV of the station PWV retrieval pinned byte for byte (regression pin, captured from the
- * implementation at commit c921cd2, before the batch fast path): the header, epoch text, rounding
+ * implementation at commit c921cd2, before the batch fast path; σ cells re-captured when the σ budget
+ * became complete, issue 10): the header, epoch text, rounding
  * (1 µm, 0.0001 mm, 0.0001 hPa/K, Π 1e-8), empty cells for null, negative values and quality flags.
  * Its PWV cells are checked against the written-out formulas in the test below.
  */
@@ -74,25 +91,25 @@ const PINNED_HEADER =
   'epoch,source,model_fingerprint,ztd_m,ztd_sigma_m,pressure_hpa,temperature_c,zhd_m,zwd_m,zwd_sigma_m,tm_k,tm_sigma_k,conversion_factor,pwv_mm,pwv_sigma_mm,quality,pressure_quality,temperature_quality';
 const PINNED_CSV_PINA = [
   PINNED_HEADER,
-  '2026-07-10T01:00:00.000Z,ref,55b7ed3531923e75,2.4731,0.0042,990.6,23.5,2.255468,0.217632,0.0042,283.788,4.74,0.16174934,35.2018,0.8921,ok,measured,measured',
-  '2026-07-10T01:15:00.000Z,ref,55b7ed3531923e75,2.4702,0.0042,990.8,23.35,2.255924,0.214276,0.0042,283.68,4.74,0.1616888,34.6461,0.8862,met-interpolated,interpolated,interpolated',
-  '2026-07-10T02:00:00.000Z,low,2bb4e1e1d0fa5616,2.1,0.004,991.4,22.9,2.25729,-0.15729,0.004,283.356,4.74,0.16150717,-25.4034,0.7694,ok,measured,measured',
-  '2026-07-10T02:30:00.000Z,ref,55b7ed3531923e75,2.465,0.025,991.2,22.45,2.256834,0.208166,0.025,283.032,4.74,0.16132554,33.5825,4.0709,delay-sigma-large,interpolated,interpolated',
+  '2026-07-10T01:00:00.000Z,ref,55b7ed3531923e75,2.4731,0.0042,990.6,23.5,2.255468,0.217632,0.00438,283.788,4.74,0.16174934,35.2018,0.924,ok,measured,measured',
+  '2026-07-10T01:15:00.000Z,ref,55b7ed3531923e75,2.4702,0.0042,990.8,23.35,2.255924,0.214276,0.00438,283.68,4.74,0.1616888,34.6461,0.918,met-interpolated,interpolated,interpolated',
+  '2026-07-10T02:00:00.000Z,low,2bb4e1e1d0fa5616,2.1,0.004,991.4,22.9,2.25729,-0.15729,0.004188,283.356,4.74,0.16150717,-25.4034,0.8009,ok,measured,measured',
+  '2026-07-10T02:30:00.000Z,ref,55b7ed3531923e75,2.465,0.025,991.2,22.45,2.256834,0.208166,0.025031,283.032,4.74,0.16132554,33.5825,4.0778,delay-sigma-large,interpolated,interpolated',
   '2026-07-10T03:00:00.000Z,ref,55b7ed3531923e75,2.4611,,991,22,2.256379,0.204721,,282.708,4.74,0.1611439,32.9896,,delay-sigma-unknown,measured,measured',
   '2026-07-10T05:00:00.000Z,ref,55b7ed3531923e75,2.45,0.004,,,,,,,,,,,met-missing,missing,missing',
-  '2026-07-10T10:00:00.000Z,ref,55b7ed3531923e75,2.44,0.004,993.6,17.5,2.262299,0.177701,0.004,279.468,4.74,0.1593271,28.3126,0.7933,met-interpolated,interpolated,measured',
+  '2026-07-10T10:00:00.000Z,ref,55b7ed3531923e75,2.44,0.004,993.6,17.5,2.262299,0.177701,0.004188,279.468,4.74,0.1593271,28.3126,0.8245,met-interpolated,interpolated,measured',
   '2026-07-10T11:00:00.000Z,ref,55b7ed3531923e75,2.43,0.004,994.2,,2.263665,0.166335,,,,,,,met-missing,measured,missing',
   '',
 ].join('\n');
 const PINNED_CSV_PINB = [
   PINNED_HEADER,
-  '2026-07-10T01:00:00.000Z,ref,55b7ed3531923e75,2.4731,0.0042,990.3719,23.487,2.254949,0.218151,0.0042,283.7786,4.74,0.16174409,35.2847,0.893,ok,measured,measured',
-  '2026-07-10T01:15:00.000Z,ref,55b7ed3531923e75,2.4702,0.0042,990.5717,23.337,2.255404,0.214796,0.0042,283.6706,4.74,0.16168355,34.729,0.8871,met-interpolated,interpolated,interpolated',
-  '2026-07-10T02:00:00.000Z,low,2bb4e1e1d0fa5616,2.1,0.004,991.1712,22.887,2.256769,-0.156769,0.004,283.3466,4.74,0.16150192,-25.3184,0.7687,ok,measured,measured',
-  '2026-07-10T02:30:00.000Z,ref,55b7ed3531923e75,2.465,0.025,990.9709,22.437,2.256313,0.208687,0.025,283.0226,4.74,0.16132029,33.6655,4.071,delay-sigma-large,interpolated,interpolated',
+  '2026-07-10T01:00:00.000Z,ref,55b7ed3531923e75,2.4731,0.0042,990.3719,23.487,2.254949,0.218151,0.00438,283.7786,4.74,0.16174409,35.2847,0.9249,ok,measured,measured',
+  '2026-07-10T01:15:00.000Z,ref,55b7ed3531923e75,2.4702,0.0042,990.5717,23.337,2.255404,0.214796,0.00438,283.6706,4.74,0.16168355,34.729,0.9189,met-interpolated,interpolated,interpolated',
+  '2026-07-10T02:00:00.000Z,low,2bb4e1e1d0fa5616,2.1,0.004,991.1712,22.887,2.256769,-0.156769,0.004188,283.3466,4.74,0.16150192,-25.3184,0.8001,ok,measured,measured',
+  '2026-07-10T02:30:00.000Z,ref,55b7ed3531923e75,2.465,0.025,990.9709,22.437,2.256313,0.208687,0.025031,283.0226,4.74,0.16132029,33.6655,4.0779,delay-sigma-large,interpolated,interpolated',
   '2026-07-10T03:00:00.000Z,ref,55b7ed3531923e75,2.4611,,990.7706,21.987,2.255857,0.205243,,282.6986,4.74,0.16113865,33.0726,,delay-sigma-unknown,measured,measured',
   '2026-07-10T05:00:00.000Z,ref,55b7ed3531923e75,2.45,0.004,,,,,,,,,,,met-missing,missing,missing',
-  '2026-07-10T10:00:00.000Z,ref,55b7ed3531923e75,2.44,0.004,993.3664,17.487,2.261767,0.178233,0.004,279.4586,4.74,0.15932185,28.3964,0.7941,met-interpolated,interpolated,measured',
+  '2026-07-10T10:00:00.000Z,ref,55b7ed3531923e75,2.44,0.004,993.3664,17.487,2.261767,0.178233,0.004188,279.4586,4.74,0.15932185,28.3964,0.8254,met-interpolated,interpolated,measured',
   '2026-07-10T11:00:00.000Z,ref,55b7ed3531923e75,2.43,0.004,,,,,,,,,,,met-missing,measured,missing',
   '',
 ].join('\n');
@@ -197,6 +214,8 @@ for (const backend of BACKENDS) {
         if (c[13] === '') continue;
         const e = expected(Number(c[3]), c[4] === '' ? null : Number(c[4]), Number(c[5]), Number(c[6]));
         expect(Math.abs(Number(c[13]) - e.pwv_mm)).toBeLessThan(1e-4); // output precision 0.0001 mm, plus 0.5e-4 hPa of pressure rounding
+        if (c[14] !== '') expect(Math.abs(Number(c[14]) - e.pwv_sigma_mm!)).toBeLessThan(1e-4); // the whole σ budget
+        if (c[9] !== '') expect(Math.abs(Number(c[9]) - e.zwd_sigma_m!)).toBeLessThan(1e-6);
       }
     });
 
@@ -254,7 +273,7 @@ for (const backend of BACKENDS) {
       expect(lines[0]!.split(',')).toEqual(Object.keys(res.body.records[0]));
       expect(lines).toHaveLength(96);
       for (const k of [0, 50, 94]) {
-        expect(lines[k + 1]!.split(',')).toEqual(Object.values(res.body.records[k]).map((v) => (v === null ? '' : String(v))));
+        expect(lines[k + 1]!.split(',')).toEqual(Object.values(res.body.records[k]).map((v) => (v === null ? '' : String(v as string | number | boolean))));
       }
     });
   });

@@ -9,7 +9,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { generateSyntheticResiduals, toCsv, toRequestBody } from '../../scripts/synthetic-residuals.js';
-import { scanEpochRange } from '../../src/http/routes/station-zwd-estimates.js';
+import { scanZwdRequest } from '../../src/http/tasks/zwd-request.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
 
@@ -108,11 +108,24 @@ for (const backend of BACKENDS) {
   });
 }
 
-describe('scanEpochRange (finds the stored met window without parsing the body)', () => {
-  it('reads the first and last epoch of JSON and CSV bodies', () => {
+describe('scanZwdRequest (first pass of a station estimation: the stored met window)', () => {
+  const scan = async (body: string, format: 'json' | 'csv') => {
+    const outcome = await scanZwdRequest({ body, format });
+    if (!outcome.ok) throw new Error(outcome.error.detail);
+    return outcome.output;
+  };
+  it('reads the first and last observation epoch of JSON and CSV bodies, and whether JSON carries met', async () => {
     const json = JSON.stringify({ observations: [{ epoch: '2026-01-01T00:00:30Z' }, { epoch: '2026-01-01T00:00:00Z' }, { epoch: '2026-01-01T02:00:00+01:00' }] });
-    expect(scanEpochRange(json, 'json')).toEqual({ firstMs: Date.UTC(2026, 0, 1), lastMs: Date.UTC(2026, 0, 1, 1) });
-    expect(scanEpochRange('epoch,satellite\n2026-01-01T00:00:30Z,G01\n2026-01-01T00:00:00Z,G02\n', 'csv')).toEqual({ firstMs: Date.UTC(2026, 0, 1), lastMs: Date.UTC(2026, 0, 1, 0, 0, 30) });
-    expect(scanEpochRange('{"observations": []}', 'json')).toBeNull();
+    expect(await scan(json, 'json')).toMatchObject({ range: { firstMs: Date.UTC(2026, 0, 1), lastMs: Date.UTC(2026, 0, 1, 1) }, hasMet: false });
+    expect((await scan(JSON.stringify({ observations: [{ epoch: '2026-01-01T00:00:00Z' }], met: [] }), 'json')).hasMet).toBe(true);
+    const csv = 'epoch,satellite,elevation_deg,azimuth_deg,residual_m\n2026-01-01T00:00:30Z,G01,30,40,0.1\n2026-01-01T00:00:00Z,G02,30,40,0.1\n';
+    expect((await scan(csv, 'csv')).range).toEqual({ firstMs: Date.UTC(2026, 0, 1), lastMs: Date.UTC(2026, 0, 1, 0, 0, 30) });
+    expect((await scan('{"observations": []}', 'json')).range).toBeNull();
+    expect((await scan('{not json', 'json')).range).toBeNull();
+  });
+
+  it('finds the epoch column wherever it is (issue 11 item 9: only the first column worked)', async () => {
+    const csv = 'satellite,elevation_deg,azimuth_deg,residual_m,epoch\nG01,30,40,0.1,2026-01-01T00:00:30Z\nG02,30,40,0.1,2026-01-01T00:05:00Z\n';
+    expect((await scan(csv, 'csv')).range).toEqual({ firstMs: Date.UTC(2026, 0, 1, 0, 0, 30), lastMs: Date.UTC(2026, 0, 1, 0, 5) });
   });
 });

@@ -11,8 +11,9 @@ const SITE = { latitude_deg: 46.2, longitude_deg: 7.4, height_m: 520 };
 const H = 3600;
 const DEG = Math.PI / 180;
 
-// Two hours of 30 s synthetic residuals with three gross errors (scripts/synthetic-residuals.ts).
-const data = generateSyntheticResiduals({ durationS: 2 * H, grossErrors: 3, latitudeDeg: SITE.latitude_deg, seed: 4 });
+// Two hours of 120 s synthetic residuals with three gross errors (scripts/synthetic-residuals.ts);
+// 120 s keeps the dense reference (a state per epoch since issue 10) small.
+const data = generateSyntheticResiduals({ durationS: 2 * H, samplingS: 120, grossErrors: 3, latitudeDeg: SITE.latitude_deg, seed: 4 });
 const requestBody = toRequestBody(data);
 type Observation = (typeof requestBody.observations)[number];
 const body = (extra: Record<string, unknown> = {}) => ({ ...structuredClone(requestBody), ...extra });
@@ -35,7 +36,7 @@ function inputFor(observations: Observation[], options: Partial<ZwdEstimationInp
 /** Saastamoinen ZHD, IERS Conventions (2010) eq. 9.11 (from memory), written out here independently. */
 const saastamoinenZhdM = (pressureHpa: number) =>
   (0.0022768 * pressureHpa) / (1 - 0.00266 * Math.cos(2 * SITE.latitude_deg * DEG) - 0.28e-6 * SITE.height_m);
-/** Bevis et al. (1994) Π with k2' = 0.221 K/Pa, k3 = 3739 K²/Pa, ρw Rv = 1000 · 461.5 (published-constants.md, from memory). */
+/** Bevis et al. (1994) Π with k2' = 0.221 K/Pa, k3 = 3739 K²/Pa, ρw Rv = 1000 · 461.5 (docs/constants.md, from memory). */
 const bevisPi = (tmK: number) => 1e6 / (1000 * 461.5 * (3739 / tmK + 0.221));
 
 describe('POST /v1/zwd-estimates with a JSON body', () => {

@@ -10,6 +10,11 @@ describe('configuration from the environment', () => {
     expect(c.LOG_LEVEL).toBe('info');
     expect(c.RATE_LIMIT_PER_MINUTE).toBe(0);
     expect(c.SECURITY_HEADERS).toBe(false);
+    expect(c.TRUST_PROXY).toBe(false);
+    expect(c.DB_CONNECT_TIMEOUT_MS).toBe(5_000);
+    expect(c.DB_STATEMENT_TIMEOUT_MS).toBe(30_000);
+    expect(c.READY_CHECK_TIMEOUT_MS).toBe(2_000);
+    expect(c.TROPO_MIN_FREE_DISK_MB).toBe(64);
   });
 
   it.each([
@@ -18,6 +23,9 @@ describe('configuration from the environment', () => {
     ['LOG_LEVEL', 'loud', /LOG_LEVEL="loud": must be one of/],
     ['SECURITY_HEADERS', 'maybe', /SECURITY_HEADERS="maybe": must be true or false/],
     ['ESTIMATION_WORKERS', '0', /ESTIMATION_WORKERS="0"/],
+    ['DB_STATEMENT_TIMEOUT_MS', '50', /DB_STATEMENT_TIMEOUT_MS="50": must be a whole number in 100..3600000/],
+    ['READY_CHECK_TIMEOUT_MS', '90000', /READY_CHECK_TIMEOUT_MS="90000"/],
+    ['TRUST_PROXY', '*', /TRUST_PROXY="\*": must be false, a hop count/],
   ])('rejects %s=%s naming the variable', (name, value, message) => {
     expect(() => loadConfig({ [name]: value })).toThrow(ConfigError);
     expect(() => loadConfig({ [name]: value })).toThrow(message);

@@ -78,8 +78,10 @@ describe('Dockerfile reference: multi-stage build, base image argument', () => {
     expect(arg?.args).toMatch(/^BASE_IMAGE=node:22[-.]/);
   });
 
+  // eslint-disable-next-line no-template-curly-in-string -- the Dockerfile's own ${BASE_IMAGE}
   it('has build stages and a final stage FROM ${BASE_IMAGE}', () => {
     expect(parsed.stages.length).toBeGreaterThanOrEqual(2);
+    // eslint-disable-next-line no-template-curly-in-string -- the Dockerfile's own ${BASE_IMAGE}
     expect(final.from).toBe('${BASE_IMAGE}');
   });
 

@@ -34,7 +34,7 @@ export function geodeticToEcef(latitudeRad: number, longitudeRad: number, height
 export interface LookAngles {
   /** Elevation above the ellipsoid's tangent plane [rad], −π/2..π/2. */
   elevationRad: number;
-  /** Azimuth from north through east [rad], 0..2π. */
+  /** Azimuth from north through east [rad], [0, 2π). */
   azimuthRad: number;
   /** Nadir angle at the satellite, between its geocentre direction and the site [rad]. */
   nadirRad: number;
@@ -64,11 +64,28 @@ export function lookAngles(latitudeRad: number, longitudeRad: number, site: Ecef
   const rangeM = Math.hypot(east, north, up);
   // atan2 rather than asin(up/range): well conditioned near the zenith too.
   const elevationRad = Math.atan2(up, Math.hypot(east, north));
-  let azimuthRad = Math.atan2(east, north);
-  if (azimuthRad < 0) azimuthRad += 2 * Math.PI;
+  const azimuthRad = normaliseAzimuthRad(Math.atan2(east, north));
   // Nadir angle: angle at the satellite between −r_sat and (site − sat).
   const rSat = Math.hypot(target.xM, target.yM, target.zM);
   const cosNadir = (target.xM * dx + target.yM * dy + target.zM * dz) / (rSat * rangeM);
   const nadirRad = Math.acos(Math.min(1, Math.max(-1, cosNadir)));
   return { elevationRad, azimuthRad, nadirRad, rangeM };
+}
+
+/**
+ * An azimuth in [0, 2π) [rad]. −1e-17 + 2π rounds to 2π in floating point, which a caller would read
+ * as "360°": such values become 0.
+ */
+export function normaliseAzimuthRad(azimuthRad: number): number {
+  const full = 2 * Math.PI;
+  let a = azimuthRad % full;
+  if (a < 0) a += full;
+  return a >= full ? 0 : a;
+}
+
+/** An azimuth in [0, 360) [deg]; 360 becomes 0 (the same direction). */
+export function normaliseAzimuthDeg(azimuthDeg: number): number {
+  let a = azimuthDeg % 360;
+  if (a < 0) a += 360;
+  return a >= 360 ? 0 : a;
 }

@@ -8,7 +8,8 @@
  *     of the chosen model; MacMillan (1995), Geophys. Res. Lett. 22, 1041–1044; Bar-Sever et al.
  *     (1998), J. Geophys. Res. 103, 5019–5035 (from memory).
  *
- * Valid for elevations (0°, 90°]; both vanish at zenith. Gradients G_N, G_E in [m].
+ * Valid for elevations (0°, 90°]; both vanish at zenith, where they return exactly 0 (in floating
+ * point tan(π/2) is 1.6e16, not infinite, and the formulas would give 6e-17). Gradients G_N, G_E in [m].
  */
 
 import type { MappingEvaluator } from '../mapping/types.js';
@@ -17,8 +18,12 @@ export const CHEN_HERRING_C = 0.0032;
 
 export type GradientMapping = (elevationRad: number) => number;
 
-/** @param elevationRad elevation [rad] @returns gradient mapping factor [-] */
+/** The zenith [rad]: 90 · (π/180) is exactly π/2 in floating point. */
+const ZENITH_RAD = Math.PI / 2;
+
+/** @param elevationRad elevation [rad], (0, π/2] @returns gradient mapping factor [-], 0 at the zenith */
 export function chenHerringGradientMapping(elevationRad: number): number {
+  if (elevationRad >= ZENITH_RAD) return 0;
   return 1 / (Math.sin(elevationRad) * Math.tan(elevationRad) + CHEN_HERRING_C);
 }
 
@@ -37,7 +42,7 @@ export const GRADIENT_MODELS: Record<string, GradientModel> = {
   tilting: {
     key: 'tilting',
     citation: 'tilted atmosphere m_h(e) cot(e) (MacMillan 1995)',
-    prepare: (mapping) => (e) => mapping.hydrostatic(e) / Math.tan(e),
+    prepare: (mapping) => (e) => (e >= ZENITH_RAD ? 0 : mapping.hydrostatic(e) / Math.tan(e)),
   },
 };
 

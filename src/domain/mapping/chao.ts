@@ -28,5 +28,6 @@ export const chaoModel: MappingModel = {
   key: 'chao',
   citation: 'Chao (1972)',
   requiresCoefficients: false,
+  heightCorrection: () => 'none',
   prepare: () => evaluator,
 };

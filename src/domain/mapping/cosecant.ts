@@ -14,5 +14,6 @@ export const cosecantModel: MappingModel = {
   key: 'cosecant',
   citation: 'cosecant 1/sin(e)',
   requiresCoefficients: false,
+  heightCorrection: () => 'none',
   prepare: () => evaluator,
 };

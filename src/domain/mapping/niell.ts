@@ -4,14 +4,17 @@
  * Niell, A. E. (1996), Global mapping functions for the atmosphere delay at radio wavelengths,
  * J. Geophys. Res. 101(B2), 3227–3246 (corrected reprint). Coefficients: Table 3 there, confirmed
  * against the reproduction in Leick, Rapoport & Tatarnikov, GPS Satellite Surveying, Table 6.1
- * (hydrostatic) and a journal reproduction (wet); see published-constants.md.
+ * (hydrostatic) and a journal reproduction (wet); see docs/constants.md.
  *
  * - Latitude: linear interpolation in |φ| between 15° and 75°, held constant outside (confirmed).
  * - Seasonal term: p(φ, t) = p_avg(φ) − p_amp(φ) cos(2π (doy − 28)/365.25) (minus sign and 365.25
  *   confirmed; T0 = 28 from memory); in the southern hemisphere half a year, 365.25/2 d, is added
  *   to doy (from memory).
  * - Height correction (hydrostatic only), eq. 6:
- *     Δm(e) = (1/sin e − f(e; a_ht, b_ht, c_ht)) · H,  H in km (confirmed).
+ *     Δm(e) = (1/sin e − f(e; a_ht, b_ht, c_ht)) · H,  H in km (confirmed), H the height above
+ *     mean sea level (Niell's fit is against sea-level heights): callers pass the API's ellipsoidal
+ *     height minus the geoid undulation (geometry/geoid.ts). Δm is about 0.02 per km at 5°, so a
+ *     50 m undulation taken for height would move a 5° slant by about 2.5 mm.
  *
  * Valid for elevations (0°, 90°]; Niell states the fit against ray traces at 3° and above. The
  * functions are evaluated below 3° too; callers attach a warning there.
@@ -88,11 +91,15 @@ export function niellWetCoefficients(latitudeRad: number): { a: number; b: numbe
   };
 }
 
+/** `models` entry of Niell's height correction from the height above sea level. */
+export const NIELL_HEIGHT_CORRECTION_NAME = 'niell-1996 eq. 6, from the height above sea level (geoid)';
+
 /**
  * Niell height correction Δm(e) [-], added to the hydrostatic mapping factor.
  *
- * @param sinElevation sin e [-]
- * @param heightKm site height [km]
+ * @param sinElevation sin e [-], (0, 1]
+ * @param heightKm site height above mean sea level [km]; negative below sea level (the
+ *   correction is then negative, a linear extrapolation of Niell's fit)
  */
 export function niellHeightCorrection(sinElevation: number, heightKm: number): number {
   const { a, b, c } = NIELL_HEIGHT_CORRECTION;
@@ -103,6 +110,7 @@ export const niellModel: MappingModel = {
   key: 'niell',
   citation: 'Niell (1996)',
   requiresCoefficients: false,
+  heightCorrection: () => NIELL_HEIGHT_CORRECTION_NAME,
   prepare(context: MappingContext): MappingEvaluator {
     const h = niellHydrostaticCoefficients(context.latitudeRad, context.dayOfYear);
     const w = niellWetCoefficients(context.latitudeRad);

@@ -1,13 +1,33 @@
+/**
+ * What the caller's mapping coefficients refer to, for the hydrostatic height correction:
+ * - "sea-level": coefficients of a grid or of mean sea level (the VMF1 grids); Niell's (1996) height
+ *   correction carries them from sea level to the site's height above sea level;
+ * - "site": coefficients computed for the site itself (ray traces at the station, the VMF1 site
+ *   files); they already hold the site's height, so no height correction is added.
+ */
+export type CoefficientsHeightReference = 'site' | 'sea-level';
+export const COEFFICIENTS_HEIGHT_REFERENCES = ['site', 'sea-level'] as const satisfies readonly CoefficientsHeightReference[];
+
+/** Caller-supplied coefficients for models that need them (VMF1 a coefficients). */
+export interface MappingCoefficients {
+  ah: number;
+  aw: number;
+  /** What ah refers to; absent = DEFAULT_COEFFICIENTS_HEIGHT_REFERENCE (the caller is warned). */
+  heightReference?: CoefficientsHeightReference | undefined;
+}
+
 /** Site and epoch a mapping function is prepared for. */
 export interface MappingContext {
   /** Geodetic latitude [rad]. */
   latitudeRad: number;
-  /** Site height [m] (above the ellipsoid in the API; Niell's height correction uses it in km). */
+  /**
+   * Height of the site above mean sea level, H [m] (orthometric: the API's ellipsoidal height minus
+   * the geoid undulation, geometry/geoid.ts). Niell's height correction uses it in km.
+   */
   heightM: number;
   /** Fractional day of year in UTC, 1 January 00:00 = 1.0 [d]. */
   dayOfYear: number;
-  /** Caller-supplied coefficients for models that need them (VMF1 a coefficients). */
-  coefficients?: { ah: number; aw: number } | undefined;
+  coefficients?: MappingCoefficients | undefined;
 }
 
 /** A mapping function evaluated for one site and epoch. */
@@ -26,4 +46,9 @@ export interface MappingModel {
   /** True when the caller must send `coefficients`. */
   requiresCoefficients: boolean;
   prepare(context: MappingContext): MappingEvaluator;
+  /**
+   * The hydrostatic height correction this model applies for these coefficients, as it appears in a
+   * result's `models` (key `mapping_height_correction`): "none" or the method and the height it uses.
+   */
+  heightCorrection(coefficients?: MappingCoefficients): string;
 }

@@ -9,19 +9,38 @@
  * - wet: b = 0.00146, c = 0.04391;
  * - the a coefficients (`coefficients.ah`, `coefficients.aw`) come from the caller, normally from
  *   the published grids or site files for the epoch;
- * - Niell's (1996) height correction is added to the hydrostatic factor (the a coefficients refer to
- *   the surface of the grid's orography/ sea level; see the paper).
+ * - Niell's (1996) height correction is added to the hydrostatic factor only where the a
+ *   coefficients refer to mean sea level (the grids: `heightReference` "sea-level"), from the height
+ *   above sea level; coefficients computed for the site itself (`heightReference` "site": ray traces
+ *   at the station, the site files) already hold its height, and a correction would count it twice
+ *   (about 24 mm of slant at 5° and 11 mm at 7° for a station 500 m above sea level).
+ *   The default, when the caller does not say, is "sea-level": it is what the service did before the
+ *   choice existed (so stored results keep their meaning) and what grid users need; the caller is
+ *   warned that it was assumed (see DEFAULT_COEFFICIENTS_HEIGHT_REFERENCE).
  *
  * Valid for elevations (0°, 90°]; the a coefficients are expected in 0.0005..0.002 (ah) and
  * 0..0.001 (aw) (common practice) and validated by the API.
  */
 
 import { marini } from './continued-fraction.js';
-import { niellHeightCorrection } from './niell.js';
-import type { MappingContext, MappingEvaluator, MappingModel } from './types.js';
+import { NIELL_HEIGHT_CORRECTION_NAME, niellHeightCorrection } from './niell.js';
+import type { CoefficientsHeightReference, MappingCoefficients, MappingContext, MappingEvaluator, MappingModel } from './types.js';
 import { ModelDomainError } from '../errors.js';
 
 export const VMF1_HYDROSTATIC_B = 0.0029;
+
+/** What VMF1 coefficients refer to when the caller does not say (see the module comment). */
+export const DEFAULT_COEFFICIENTS_HEIGHT_REFERENCE: CoefficientsHeightReference = 'sea-level';
+
+/** The height reference in force for these coefficients. */
+export const coefficientsHeightReference = (coefficients?: MappingCoefficients): CoefficientsHeightReference =>
+  coefficients?.heightReference ?? DEFAULT_COEFFICIENTS_HEIGHT_REFERENCE;
+
+/** Warning text when the height reference of VMF1 coefficients was assumed, or null when given. */
+export function assumedHeightReferenceWarning(coefficients?: MappingCoefficients): string | null {
+  if (!coefficients || coefficients.heightReference !== undefined) return null;
+  return `coefficients.height_reference not given: "${DEFAULT_COEFFICIENTS_HEIGHT_REFERENCE}" assumed (grid coefficients; Niell's height correction added from the height above sea level); send "site" for coefficients computed at the site`;
+}
 export const VMF1_WET_B = 0.00146;
 export const VMF1_WET_C = 0.04391;
 
@@ -42,8 +61,10 @@ export function vmf1HydrostaticC(latitudeRad: number, dayOfYear: number): number
 
 export const vmf1Model: MappingModel = {
   key: 'vmf1',
-  citation: 'Boehm, Werl & Schuh (2006) VMF1 with caller a coefficients, Niell (1996) height correction',
+  citation: 'Boehm, Werl & Schuh (2006) VMF1 with caller a coefficients',
   requiresCoefficients: true,
+  heightCorrection: (coefficients) =>
+    coefficientsHeightReference(coefficients) === 'site' ? 'none (coefficients at the site)' : `${NIELL_HEIGHT_CORRECTION_NAME}, coefficients at sea level`,
   prepare(context: MappingContext): MappingEvaluator {
     if (!context.coefficients) {
       throw new ModelDomainError('coefficients', 'model "vmf1" needs coefficients {ah, aw}', 400);
@@ -51,10 +72,11 @@ export const vmf1Model: MappingModel = {
     const { ah, aw } = context.coefficients;
     const ch = vmf1HydrostaticC(context.latitudeRad, context.dayOfYear);
     const heightKm = context.heightM / 1000;
+    const correct = coefficientsHeightReference(context.coefficients) === 'sea-level';
     return {
       hydrostatic(elevationRad: number): number {
         const s = Math.sin(elevationRad);
-        return marini(s, ah, VMF1_HYDROSTATIC_B, ch) + niellHeightCorrection(s, heightKm);
+        return marini(s, ah, VMF1_HYDROSTATIC_B, ch) + (correct ? niellHeightCorrection(s, heightKm) : 0);
       },
       wet(elevationRad: number): number {
         return marini(Math.sin(elevationRad), aw, VMF1_WET_B, VMF1_WET_C);

@@ -9,7 +9,8 @@
  *   RH = RH0 exp(−6.396e-4 h)      [%]
  * with reference values at mean sea level P0 = 1013.25 hPa, T0 = 18 °C and RH0 = 50 %.
  * T0 = 18 °C is the textbook choice we follow; other texts use 15 °C (from memory, see
- * published-constants.md). h is the height above sea level [m]; we use the site height as given.
+ * docs/constants.md). h is the height above mean sea level [m]; callers with ellipsoidal
+ * heights subtract the geoid undulation first (geometry/geoid.ts).
  *
  * Valid for h in −500..9000 m (the site range); the form follows the U.S. Standard Atmosphere
  * (1976) pressure to within 0.3 % there.
@@ -44,7 +45,7 @@ export interface SurfaceMet {
 export function standardAtmosphere(heightM: number): SurfaceMet {
   const { min, max } = STANDARD_ATMOSPHERE_HEIGHT_RANGE_M;
   if (!(heightM >= min && heightM <= max)) {
-    throw new ModelDomainError('site.height_m', `standard atmosphere is defined for ${min}..${max} m, got ${heightM} m`);
+    throw new ModelDomainError('site.height_m', `standard atmosphere is defined for ${min}..${max} m above sea level, got ${heightM} m`);
   }
   const pressureHpa = BERG_REFERENCE.pressureHpa * Math.pow(1 - 2.26e-5 * heightM, 5.225);
   const temperatureK = BERG_REFERENCE.temperatureC + CELSIUS_ZERO_K - 0.0065 * heightM;

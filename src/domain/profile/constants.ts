@@ -1,6 +1,6 @@
 /**
  * Constants of the profile computations, each with its unit and authority. Values recalled rather
- * than checked against the publication say "from memory" (see published-constants.md).
+ * than checked against the publication say "from memory" (see docs/constants.md).
  */
 
 import { RD_J_PER_KG_K, RV_J_PER_KG_K } from '../constants.js';

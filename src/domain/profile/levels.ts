@@ -42,7 +42,10 @@ import {
 
 export const MIN_LEVELS = 5;
 export const MAX_LEVELS = 10_000;
-/** Lowest admissible top of a profile [m above the ellipsoid]: above it the extension is dry and holds about a quarter of the ZHD at most. */
+/**
+ * Lowest admissible top of a profile [m above the ellipsoid]: above it the extension is dry and holds about a
+ * quarter of the ZHD at most.
+ */
 export const MIN_TOP_HEIGHT_M = 10_000;
 /** Largest distance a profile is extended down to the site [m] (as for surface met, height-reduction.ts). */
 export const MAX_DOWNWARD_EXTENSION_M = 1000;
@@ -101,6 +104,7 @@ const fmt = (x: number, digits = 3) => Number(x.toPrecision(digits + 3)).toStrin
  * @param gravity normal gravity at the site latitude (for geopotential heights)
  * @param geoidUndulationM geoid undulation N at the site [m] (ellipsoidal = orthometric + N)
  * @param warnings collects what the caller should know
+ * @param geoidSource where N comes from: the caller, the EGM96 model (geometry/geoid.ts), or nowhere (N = 0)
  * @throws ModelDomainError (400) naming levels.<i>.<field> and the rule it breaks
  */
 export function validateLevels(
@@ -108,6 +112,7 @@ export function validateLevels(
   gravity: GravityAtLatitude,
   geoidUndulationM: number,
   warnings: string[],
+  geoidSource: 'caller' | 'egm96' | 'none' = geoidUndulationM === 0 ? 'none' : 'caller',
 ): Column {
   const n = levels.length;
   if (n < MIN_LEVELS || n > MAX_LEVELS) {
@@ -202,9 +207,11 @@ export function validateLevels(
   }
   if (usesGeopotential) {
     warnings.push(
-      geoidUndulationM === 0
+      geoidSource === 'none'
         ? 'geopotential heights converted with WGS84 normal gravity at the site latitude; geoid_undulation_m not given, so heights above mean sea level are taken as heights above the ellipsoid'
-        : `geopotential heights converted with WGS84 normal gravity at the site latitude and the geoid undulation ${geoidUndulationM} m`,
+        : geoidSource === 'egm96'
+          ? `geopotential heights converted with WGS84 normal gravity at the site latitude and the EGM96 geoid undulation ${geoidUndulationM.toFixed(2)} m (geoid_undulation_m not given)`
+          : `geopotential heights converted with WGS84 normal gravity at the site latitude and the geoid undulation ${geoidUndulationM} m`,
     );
   }
   checkLayers({ heightM, pressureHpa, temperatureK, vapourPressureHpa }, gravity, warnings);

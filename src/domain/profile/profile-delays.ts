@@ -16,7 +16,10 @@
  * pressures are in hydrostatic balance (otherwise a warning says by how much they are not).
  */
 
+import { DEG } from '../constants.js';
 import { gaussianRadiusM } from '../geometry/earth-radius.js';
+import { geoidUndulationM } from '../geometry/geoid.js';
+import { MAPPING_MIN_ELEVATION_DEG, mappingDefinedAt } from '../mapping/elevation-range.js';
 import type { MappingEvaluator } from '../mapping/types.js';
 import { PER_N_UNIT } from './constants.js';
 import { isothermalExtension } from './extension.js';
@@ -27,7 +30,10 @@ import { traceRay, traceToVacuumElevation } from './ray-trace.js';
 import { DEFAULT_REFRACTIVITY_CONSTANTS, REFRACTIVITY_CONSTANT_SETS, type RefractivityConstantsKey } from './refractivity.js';
 import { buildShellColumn } from './shells.js';
 
-/** Height over which vapour above the top is assumed to decay, for the missing-wet-delay warning [m] (common practice: ~2 km vapour scale height). */
+/**
+ * Height over which vapour above the top is assumed to decay, for the missing-wet-delay warning [m]
+ * (common practice: ~2 km vapour scale height).
+ */
 const VAPOUR_SCALE_HEIGHT_M = 2000;
 /** Missing wet delay above the top that triggers a warning [m]. */
 const MISSING_WET_WARNING_M = 0.5e-3;
@@ -42,8 +48,13 @@ export interface ProfileDelaysInput {
   /** Site height above the ellipsoid [m]; the column starts here. */
   siteHeightM: number;
   levels: readonly ProfileLevelInput[];
-  /** Geoid undulation at the site [m], for geopotential heights; default 0. */
+  /**
+   * Geoid undulation at the site [m], for geopotential heights; default: EGM96 at the site when
+   * `longitudeRad` is given (geometry/geoid.ts), else 0 (with a warning).
+   */
   geoidUndulationM?: number | undefined;
+  /** Longitude of the site [rad], east positive; for the EGM96 undulation when none is given. */
+  longitudeRad?: number | undefined;
   constants?: RefractivityConstantsKey | undefined;
   /** Include the compressibility factors of Owens (1967); default false. */
   compressibility?: boolean | undefined;
@@ -109,7 +120,10 @@ export function computeProfileDelays(input: ProfileDelaysInput): ProfileDelaysRe
   const earthRadiusM = gaussianRadiusM(input.latitudeRad);
   const firstHeightField = input.levels[0]?.heightM === undefined ? 'levels.0.geopotential_height_m' : 'levels.0.height_m';
 
-  const levels = validateLevels(input.levels, gravity, input.geoidUndulationM ?? 0, warnings);
+  const geoidSource = input.geoidUndulationM !== undefined ? 'caller' : input.longitudeRad !== undefined ? 'egm96' : 'none';
+  const undulationM =
+    input.geoidUndulationM ?? (input.longitudeRad !== undefined ? geoidUndulationM(input.latitudeRad / DEG, input.longitudeRad / DEG) : 0);
+  const levels = validateLevels(input.levels, gravity, undulationM, warnings, geoidSource);
   const column = columnFromSite(levels, input.siteHeightM, warnings, firstHeightField);
   const top = column.heightM.length - 1;
   const extension = isothermalExtension(
@@ -152,6 +166,7 @@ export function computeProfileDelays(input: ProfileDelaysInput): ProfileDelaysRe
       const mappingHydrostatic = (trace.hydrostaticExcessM + trace.bendingM) / zenithHydrostaticM;
       const mappingWet = zenith.zwdM > DRY_COLUMN_ZWD_M ? trace.wetExcessM / zenith.zwdM : null;
       const hydrostaticM = mappingHydrostatic * zenith.zhdM;
+      const mappingDefined = mappingDefinedAt(elevationRad / DEG);
       return {
         elevationRad,
         apparentElevationRad: trace.launchRad,
@@ -162,11 +177,18 @@ export function computeProfileDelays(input: ProfileDelaysInput): ProfileDelaysRe
         bendingM: trace.bendingM,
         mappingHydrostatic,
         mappingWet,
-        modelMappingHydrostatic: input.modelMapping ? input.modelMapping.hydrostatic(elevationRad) : null,
-        modelMappingWet: input.modelMapping ? input.modelMapping.wet(elevationRad) : null,
+        // Mapping functions are not evaluated below their floor (mapping/elevation-range.ts): null there.
+        modelMappingHydrostatic: input.modelMapping && mappingDefined ? input.modelMapping.hydrostatic(elevationRad) : null,
+        modelMappingWet: input.modelMapping && mappingDefined ? input.modelMapping.wet(elevationRad) : null,
       };
     });
     if (zenith.zwdM <= DRY_COLUMN_ZWD_M) warnings.push('the column is dry: wet mapping factors are not defined (null)');
+    const belowFloor = input.modelMapping ? input.elevationsRad.filter((e) => !mappingDefinedAt(e / DEG)).length : 0;
+    if (belowFloor > 0) {
+      warnings.push(
+        `${belowFloor} elevation(s) below ${MAPPING_MIN_ELEVATION_DEG}°: the mapping function is not evaluated there (model_mapping_hydrostatic and model_mapping_wet are null); the traced values stand`,
+      );
+    }
   }
 
   return {

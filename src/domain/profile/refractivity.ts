@@ -13,7 +13,7 @@
  * with ε = Rd/Rv. The hydrostatic part depends on the total density only, so its zenith integral
  * follows from surface pressure and gravity (integrate.ts).
  *
- * The constant sets a caller can choose (all from memory; published-constants.md):
+ * The constant sets a caller can choose (all from memory; docs/constants.md):
  * - "smith-weintraub-1953": Smith, E. K. & Weintraub, S. (1953), The constants in the equation for
  *   atmospheric refractive index at radio frequencies, Proc. IRE 41(8), 1035–1037:
  *   k1 = 77.61 K/hPa, k2 = 72 K/hPa, k3 = 3.75e5 K²/hPa (as tabulated by Bevis et al. 1994, Table 1);

@@ -5,18 +5,60 @@
  *   Tm  = caller's tm_k, else Bevis et al. (1992) from the surface temperature
  *   PWV = Π(Tm) · ZWD           (Bevis et al. 1994)
  *
- * Uncertainty, first-order propagation with independent inputs:
- *   σ_ZWD² = σ_ZTD² + (∂ZHD/∂P · σ_P)²           (or the caller's σ_ZWD)
- *   σ_PWV² = (Π σ_ZWD)² + (ZWD · ∂Π/∂Tm · σ_Tm)²
- * with σ_Tm = 4.74 K (the scatter of the Bevis regression) when Tm comes from it, and the caller's
- * tm_sigma_k (default 0) when Tm is supplied.
+ * Uncertainty budget: first-order propagation, each term in mm of PWV and reported on its own
+ * (PwvSigmaBudget); σ_PWV is their root sum of squares, i.e. the inputs are taken as independent.
+ *
+ * | term          | σ of the input                                   | default when not given                       |
+ * |---------------|--------------------------------------------------|----------------------------------------------|
+ * | delay         | ztd_sigma_m (or zwd_sigma_m)                     | none: unknown, flagged (σ_PWV is then null at the API) |
+ * | pressure      | pressure_sigma_hpa, through ∂ZHD/∂P              | 0.5 hPa (a station barometer, common practice) |
+ * | zhd_model     | ± 0.0000005 m/hPa of the Saastamoinen constant   | always (IERS 2010 eq. 9.11, from memory)      |
+ * | temperature   | temperature_sigma_k, through Tm = 70.2 + 0.72 Ts | 0.5 K (a screened sensor, common practice)    |
+ * | tm            | tm_sigma_k, or the Bevis regression's scatter    | 4.74 K (Bevis 1992, from memory); 2 K for a caller's tm_k (weighted-mean temperatures from weather models, common practice) |
+ * | refractivity  | k2' ± 2.2 K/hPa, k3 ± 0.012e5 K²/hPa             | always (Bevis et al. 1994, from memory)       |
+ *
+ * The pressure and ZHD-model terms enter only when ZWD is formed here from a total delay; the
+ * temperature term only when Tm comes from the Bevis regression. The refractivity term is common
+ * to all values (systematic): it does not average out over a series. The mapping functions do not
+ * enter here: they act on the zenith delay while it is estimated, and belong to its σ.
+ * Defaults are listed in `defaulted` (API field names) so that a caller can see what was assumed.
  */
 
 import { CELSIUS_ZERO_K } from '../constants.js';
 import { ModelDomainError } from '../errors.js';
-import { zenithHydrostaticDelayM, zenithHydrostaticDelayPerHpa } from '../zenith/hydrostatic.js';
-import { conversionFactor, conversionFactorPerKelvin } from './conversion.js';
-import { BEVIS_TM_FIT_RANGE_K, BEVIS_TM_SIGMA_K, bevisMeanTemperatureK } from './mean-temperature.js';
+import {
+  SAASTAMOINEN_ZHD_M_PER_HPA,
+  SAASTAMOINEN_ZHD_M_PER_HPA_SIGMA,
+  zenithHydrostaticDelayM,
+  zenithHydrostaticDelayPerHpa,
+} from '../zenith/hydrostatic.js';
+import { conversionFactor, conversionFactorPerKelvin, conversionFactorSigmaFromConstants } from './conversion.js';
+import { BEVIS_TM_FIT_RANGE_K, BEVIS_TM_SIGMA_K, BEVIS_TM_SLOPE, bevisMeanTemperatureK } from './mean-temperature.js';
+
+/** Defaults of the budget's input sigmas (see the module comment for their sources). */
+export const PWV_SIGMA_DEFAULTS = {
+  /** Barometer [hPa] (common practice). */
+  pressureSigmaHpa: 0.5,
+  /** Surface temperature sensor [K] (common practice). */
+  temperatureSigmaK: 0.5,
+  /** Caller's Tm without a σ [K] (common practice). */
+  callerTmSigmaK: 2,
+} as const;
+
+/** Relative standard uncertainty of the Saastamoinen ZHD (IERS 2010 eq. 9.11, from memory) [-]. */
+export const ZHD_MODEL_RELATIVE_SIGMA = SAASTAMOINEN_ZHD_M_PER_HPA_SIGMA / SAASTAMOINEN_ZHD_M_PER_HPA;
+
+/** The σ_PWV budget, each term in mm of PWV (null: the term's σ is unknown). */
+export interface PwvSigmaBudget {
+  delayMm: number | null;
+  pressureMm: number;
+  zhdModelMm: number;
+  temperatureMm: number;
+  tmMm: number;
+  refractivityMm: number;
+  /** API names of the input sigmas that were defaulted, e.g. "pressure_sigma_hpa". */
+  defaulted: string[];
+}
 
 export interface PwvInput {
   ztdM?: number | undefined;
@@ -26,6 +68,7 @@ export interface PwvInput {
   pressureHpa?: number | undefined;
   pressureSigmaHpa?: number | undefined;
   temperatureC?: number | undefined;
+  temperatureSigmaK?: number | undefined;
   tmK?: number | undefined;
   tmSigmaK?: number | undefined;
 }
@@ -33,12 +76,17 @@ export interface PwvInput {
 export interface PwvResult {
   zhdM: number | null;
   zwdM: number;
+  /** σ of ZWD [m]: delay, pressure and ZHD-model terms (without the delay's when it is unknown). */
   zwdSigmaM: number;
   tmK: number;
   tmSigmaK: number;
   conversionFactor: number;
   pwvMm: number;
+  /** σ of PWV [mm], all terms of `sigmaBudget` (without the delay's when it is unknown). */
   pwvSigmaMm: number;
+  /** False when neither ztd_sigma_m nor zwd_sigma_m was given: the σ above lack their largest term. */
+  delaySigmaKnown: boolean;
+  sigmaBudget: PwvSigmaBudget;
   warnings: string[];
 }
 
@@ -55,18 +103,24 @@ export function precipitableWater(input: PwvInput, latitudeRad: number, heightM:
 
   let zhdM: number | null = null;
   let zwdM: number;
-  let zwdSigmaM: number;
+  let delaySigmaM: number | undefined;
+  const defaulted: string[] = [];
+  let pressureSigmaHpa = 0;
+  let splitZhdM: number | null = null;
   if (input.ztdM !== undefined) {
     if (input.pressureHpa === undefined) {
       throw new ModelDomainError(at('pressure_hpa'), 'a total delay needs the measured surface pressure (300..1100 hPa) to split off the hydrostatic part; it is never defaulted', 400);
     }
     zhdM = zenithHydrostaticDelayM(input.pressureHpa, latitudeRad, heightM);
+    splitZhdM = zhdM;
     zwdM = input.ztdM - zhdM;
-    zwdSigmaM = wetDelaySigmaM(input.ztdSigmaM ?? 0, input.pressureSigmaHpa ?? 0, latitudeRad, heightM);
+    delaySigmaM = input.ztdSigmaM;
+    pressureSigmaHpa = input.pressureSigmaHpa ?? PWV_SIGMA_DEFAULTS.pressureSigmaHpa;
+    if (input.pressureSigmaHpa === undefined) defaulted.push('pressure_sigma_hpa');
   } else if (input.zwdM !== undefined) {
     if (input.pressureHpa !== undefined) zhdM = zenithHydrostaticDelayM(input.pressureHpa, latitudeRad, heightM);
     zwdM = input.zwdM;
-    zwdSigmaM = input.zwdSigmaM ?? input.ztdSigmaM ?? 0;
+    delaySigmaM = input.zwdSigmaM ?? input.ztdSigmaM;
   } else {
     throw new ModelDomainError(at('ztd_m'), 'one of ztd_m (1..3 m) or zwd_m (0..1 m) is required', 400);
   }
@@ -74,19 +128,23 @@ export function precipitableWater(input: PwvInput, latitudeRad: number, heightM:
 
   let tmK: number;
   let tmSigmaK: number;
+  let temperatureSigmaK = 0;
   if (input.tmK !== undefined) {
     tmK = input.tmK;
-    tmSigmaK = input.tmSigmaK ?? 0;
+    tmSigmaK = input.tmSigmaK ?? PWV_SIGMA_DEFAULTS.callerTmSigmaK;
+    if (input.tmSigmaK === undefined) defaulted.push('tm_sigma_k');
   } else if (input.temperatureC !== undefined) {
     tmK = bevisMeanTemperatureK(input.temperatureC + CELSIUS_ZERO_K);
     tmSigmaK = BEVIS_TM_SIGMA_K;
+    temperatureSigmaK = input.temperatureSigmaK ?? PWV_SIGMA_DEFAULTS.temperatureSigmaK;
+    if (input.temperatureSigmaK === undefined) defaulted.push('temperature_sigma_k');
     if (outsideBevisFit(input.temperatureC)) warnings.push(tmExtrapolatedWarning(input.temperatureC, field));
   } else {
     throw new ModelDomainError(at('temperature_c'), 'PWV needs temperature_c (−90..60 °C) or tm_k (200..330 K); neither is defaulted', 400);
   }
 
-  const pwv = pwvFromWetDelay(zwdM, zwdSigmaM, tmK, tmSigmaK);
-  return { zhdM, zwdM, zwdSigmaM, tmK, tmSigmaK, conversionFactor: pwv.conversionFactor, pwvMm: pwv.pwvMm, pwvSigmaMm: pwv.pwvSigmaMm, warnings };
+  const pwv = pwvWithBudget({ zwdM, delaySigmaM, splitZhdM, pressureSigmaHpa, tmK, tmSigmaK, temperatureSigmaK, latitudeRad, heightM });
+  return { zhdM, ...pwv, tmK, tmSigmaK, sigmaBudget: { ...pwv.sigmaBudget, defaulted }, warnings };
 }
 
 /** The numbers of precipitableWater for one record of a series, with its two warning conditions as flags. */
@@ -99,12 +157,12 @@ export interface SurfaceMetPwv extends Omit<PwvResult, 'zhdM' | 'warnings'> {
 }
 
 /**
- * precipitableWater for the common case of a stored series — ZTD, measured pressure (σ_P = 0) and
- * temperature, Tm from Bevis — by the same steps and functions, with the same results, but without
- * the checks of optional inputs and without building warning texts: a station-year has 100 000
- * records and almost never a warning.
+ * precipitableWater for the common case of a stored series — ZTD, measured pressure and
+ * temperature (their sigmas defaulted), Tm from Bevis — by the same steps and functions, with the
+ * same results, but without the checks of optional inputs and without building warning texts: a
+ * station-year has 100 000 records and almost never a warning.
  *
- * @param ztdM zenith total delay [m]; ztdSigmaM its sigma [m] (null: unknown, taken as 0)
+ * @param ztdM zenith total delay [m]; ztdSigmaM its sigma [m] (null: unknown, `delaySigmaKnown` false)
  * @param pressureHpa surface pressure at the antenna [hPa]; temperatureC surface temperature [°C]
  * @param latitudeRad geodetic latitude [rad]; heightM site height [m]
  */
@@ -118,37 +176,88 @@ export function precipitableWaterFromSurfaceMet(
 ): SurfaceMetPwv {
   const zhdM = zenithHydrostaticDelayM(pressureHpa, latitudeRad, heightM);
   const zwdM = ztdM - zhdM;
-  const zwdSigmaM = wetDelaySigmaM(ztdSigmaM ?? 0, 0, latitudeRad, heightM);
   const tmK = bevisMeanTemperatureK(temperatureC + CELSIUS_ZERO_K);
-  const pwv = pwvFromWetDelay(zwdM, zwdSigmaM, tmK, BEVIS_TM_SIGMA_K);
-  return {
-    zhdM,
+  const pwv = pwvWithBudget({
     zwdM,
-    zwdSigmaM,
+    delaySigmaM: ztdSigmaM ?? undefined,
+    splitZhdM: zhdM,
+    pressureSigmaHpa: PWV_SIGMA_DEFAULTS.pressureSigmaHpa,
     tmK,
     tmSigmaK: BEVIS_TM_SIGMA_K,
-    conversionFactor: pwv.conversionFactor,
-    pwvMm: pwv.pwvMm,
-    pwvSigmaMm: pwv.pwvSigmaMm,
+    temperatureSigmaK: PWV_SIGMA_DEFAULTS.temperatureSigmaK,
+    latitudeRad,
+    heightM,
+  });
+  return {
+    zhdM,
+    ...pwv,
+    tmK,
+    tmSigmaK: BEVIS_TM_SIGMA_K,
+    sigmaBudget: { ...pwv.sigmaBudget, defaulted: [...SERIES_DEFAULTED] },
     wetDelayNegative: zwdM < 0,
     tmExtrapolated: outsideBevisFit(temperatureC),
   };
 }
 
-/** σ_ZWD² = σ_ZTD² + (∂ZHD/∂P · σ_P)² [m], for ZWD = ZTD − ZHD(P) with independent errors. */
-function wetDelaySigmaM(ztdSigmaM: number, pressureSigmaHpa: number, latitudeRad: number, heightM: number): number {
-  return Math.hypot(ztdSigmaM, zenithHydrostaticDelayPerHpa(latitudeRad, heightM) * pressureSigmaHpa);
+/** Input sigmas the series path always defaults (stored met carries none). */
+const SERIES_DEFAULTED = ['pressure_sigma_hpa', 'temperature_sigma_k'] as const;
+
+interface BudgetInput {
+  zwdM: number;
+  /** σ of the delay [m]; undefined: unknown. */
+  delaySigmaM: number | undefined;
+  /** The ZHD subtracted from a total delay [m], or null when ZWD was given. */
+  splitZhdM: number | null;
+  pressureSigmaHpa: number;
+  tmK: number;
+  tmSigmaK: number;
+  /** σ of the surface temperature behind a Bevis Tm [K]; 0 when Tm is the caller's. */
+  temperatureSigmaK: number;
+  latitudeRad: number;
+  heightM: number;
 }
 
 /**
- * PWV = Π(Tm)·ZWD (Bevis et al. 1994) and σ_PWV² = (Π σ_ZWD)² + (ZWD · ∂Π/∂Tm · σ_Tm)²: the
- * numeric core of both functions above. ZWD, σ_ZWD [m]; Tm, σ_Tm [K]; Π [-]; PWV, σ_PWV [mm].
+ * PWV = Π(Tm)·ZWD (Bevis et al. 1994) and its budget: the numeric core of both functions above.
+ *   delay        Π σ_delay
+ *   pressure     Π ∂ZHD/∂P σ_P                     (ZWD from a total delay only)
+ *   zhd_model    Π ZHD σ_c/c, c the Saastamoinen constant
+ *   temperature  ZWD ∂Π/∂Tm · 0.72 σ_Ts            (Tm from Bevis only)
+ *   tm           ZWD ∂Π/∂Tm σ_Tm
+ *   refractivity ZWD σ_Π(k2', k3)
+ * ZWD, σ [m]; Tm, σ [K]; Π [-]; PWV and the terms [mm].
  */
-function pwvFromWetDelay(zwdM: number, zwdSigmaM: number, tmK: number, tmSigmaK: number) {
-  const pi = conversionFactor(tmK);
-  const pwvM = pi * zwdM;
-  const pwvSigmaM = Math.hypot(pi * zwdSigmaM, zwdM * conversionFactorPerKelvin(tmK) * tmSigmaK);
-  return { conversionFactor: pi, pwvMm: pwvM * 1000, pwvSigmaMm: pwvSigmaM * 1000 };
+function pwvWithBudget(b: BudgetInput) {
+  const pi = conversionFactor(b.tmK);
+  const dPiDTm = conversionFactorPerKelvin(b.tmK);
+  const absZwdM = Math.abs(b.zwdM);
+  const pressureSigmaM = b.splitZhdM === null ? 0 : zenithHydrostaticDelayPerHpa(b.latitudeRad, b.heightM) * b.pressureSigmaHpa;
+  const zhdModelSigmaM = b.splitZhdM === null ? 0 : b.splitZhdM * ZHD_MODEL_RELATIVE_SIGMA;
+  const delaySigmaKnown = b.delaySigmaM !== undefined;
+  const sigmaBudget = {
+    delayMm: delaySigmaKnown ? pi * b.delaySigmaM! * 1000 : null,
+    pressureMm: pi * pressureSigmaM * 1000,
+    zhdModelMm: pi * zhdModelSigmaM * 1000,
+    temperatureMm: absZwdM * dPiDTm * BEVIS_TM_SLOPE * b.temperatureSigmaK * 1000,
+    tmMm: absZwdM * dPiDTm * b.tmSigmaK * 1000,
+    refractivityMm: absZwdM * conversionFactorSigmaFromConstants(b.tmK) * 1000,
+  };
+  return {
+    zwdM: b.zwdM,
+    zwdSigmaM: Math.hypot(b.delaySigmaM ?? 0, pressureSigmaM, zhdModelSigmaM),
+    conversionFactor: pi,
+    pwvMm: pi * b.zwdM * 1000,
+    pwvSigmaMm: Math.hypot(
+      sigmaBudget.delayMm ?? 0,
+      sigmaBudget.pressureMm,
+      sigmaBudget.zhdModelMm,
+      sigmaBudget.temperatureMm,
+      sigmaBudget.tmMm,
+      sigmaBudget.refractivityMm,
+    ),
+    delaySigmaKnown,
+    sigmaBudget,
+  };
 }
 
 /** Surface temperature [°C] outside the data of the Bevis Tm regression (BEVIS_TM_FIT_RANGE_K). */

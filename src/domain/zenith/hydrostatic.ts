@@ -18,6 +18,14 @@
 export const SAASTAMOINEN_ZHD_M_PER_HPA = 0.0022768;
 
 /**
+ * Standard uncertainty of that constant [m/hPa]: IERS Conventions (2010) eq. 9.11 writes it
+ * (0.0022768 ± 0.0000005) (from memory): a relative 2.2e-4, 0.5 mm of a 2.3 m ZHD. This is the
+ * ZHD model error the PWV budget carries; departures from hydrostatic equilibrium (strong winds,
+ * fronts) are not included.
+ */
+export const SAASTAMOINEN_ZHD_M_PER_HPA_SIGMA = 0.0000005;
+
+/**
  * Gravity-variation factor of the hydrostatic delay, 1 − 0.00266 cos 2φ − 0.28e-6 H [-].
  * IERS Conventions (2010) eq. 9.11 denominator.
  */

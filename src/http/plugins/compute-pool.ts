@@ -7,9 +7,12 @@
 import type { FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
 import type { Config } from '../../config.js';
-import { ComputePool, ComputePoolFullError, ComputeTaskError } from '../../workers/compute-pool.js';
+import { ComputePool, ComputePoolFullError, ComputeTaskError, type TaskInput, type TaskOutput } from '../../workers/compute-pool.js';
+import { COMPUTE_TASKS, type ComputeTaskName, type ComputeTasks } from '../compute-tasks.js';
 import { HttpProblem } from '../problem.js';
-import type { ComputeTaskInput, ComputeTaskName, ComputeTaskOutput } from '../../workers/tasks.js';
+
+type ComputeTaskInput<T extends ComputeTaskName> = TaskInput<ComputeTasks[T]>;
+type ComputeTaskOutput<T extends ComputeTaskName> = TaskOutput<ComputeTasks[T]>;
 
 export interface Compute {
   /** Runs a task in a worker; a full queue is a 503 problem, a task's error outcome its 4xx problem. */
@@ -27,7 +30,8 @@ export interface ComputePoolPluginOptions {
 }
 
 async function computePool(app: FastifyInstance, { config }: ComputePoolPluginOptions): Promise<void> {
-  const pool = new ComputePool({
+  const pool = new ComputePool<ComputeTasks>({
+    tasks: COMPUTE_TASKS,
     threads: config.ESTIMATION_WORKERS,
     queueLimit: config.ESTIMATION_QUEUE_LIMIT,
     onTaskDone: (task, durationS) => app.metrics.computeDuration.observe({ task }, durationS),

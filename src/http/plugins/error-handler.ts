@@ -1,21 +1,43 @@
 /**
  * One place maps every error to a problem response: schema violations and model-domain errors to
  * 4xx naming the field, fastify's own 4xx (bad JSON, wrong content type, body too large) to the
- * same shape, anything else to a 500 with a generic text and the context in the log.
+ * same shape, a storage failure (database unreachable or too slow, disk full or read-only, a lock
+ * conflict that outlived its retries) to a 503 with Retry-After and a text without driver detail,
+ * anything else to a 500 with a generic text and the context in the log.
  */
 
-import type { FastifyError, FastifyInstance } from 'fastify';
+import type { FastifyError, FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import fp from 'fastify-plugin';
 import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
 import { ModelDomainError } from '../../domain/errors.js';
+import { FormatError } from '../../formats/format-error.js';
+import { CallerError } from '../../services/caller-error.js';
 import { detailOf, fieldName } from '../field-errors.js';
 import { UnknownStationError } from '../../storage/repository.js';
+import { storageUnavailable } from '../../storage/errors.js';
 import { HttpProblem, makeProblem, sendProblem, type FieldError } from '../problem.js';
 
 function fieldFromPath(instancePath: string, context: string | undefined): string {
   const path = instancePath.replace(/^\//, '').split('/').filter(Boolean);
   const location = context === undefined || context === 'body' ? 'body' : context === 'querystring' ? 'query' : (context as 'params' | 'headers');
   return fieldName(path, location);
+}
+
+/**
+ * Fastify's `frameworkErrors` option (app.ts): errors the router raises before any route or error
+ * handler runs (a path that is not valid percent-encoding, a path parameter longer than the router's
+ * maxParamLength), answered in the same problem shape as everything else.
+ */
+export function routerErrorHandler(error: FastifyError, request: FastifyRequest, reply: FastifyReply): void {
+  const path = request.url.split('?')[0] ?? '';
+  const detail =
+    error.code === 'FST_ERR_BAD_URL'
+      ? 'the request path is not valid percent-encoding (RFC 3986): encode reserved and non-ASCII characters as %XX of their UTF-8 bytes'
+      : error.code === 'FST_ERR_MAX_PARAM_LENGTH'
+        ? 'a path segment is longer than the router accepts (100 characters); no identifier of this service is that long'
+        : 'the request could not be routed';
+  const status = error.code === 'FST_ERR_MAX_PARAM_LENGTH' ? 414 : (error.statusCode ?? 400);
+  void sendProblem(reply, makeProblem(status >= 400 && status < 500 ? status : 400, detail, undefined, path.slice(0, 200)));
 }
 
 async function errorHandler(app: FastifyInstance): Promise<void> {
@@ -33,6 +55,13 @@ async function errorHandler(app: FastifyInstance): Promise<void> {
         makeProblem(error.status, `${error.field}: ${error.message}`, [{ field: error.field, message: error.message }], request.url),
       );
     }
+    // Errors of the inner layers in domain terms (src/services, src/formats).
+    if (error instanceof CallerError) {
+      return sendProblem(reply, makeProblem(error.status, error.message, error.errors, request.url));
+    }
+    if (error instanceof FormatError) {
+      return sendProblem(reply, makeProblem(400, error.message, [{ field: error.field, message: error.reason }], request.url));
+    }
     if (error instanceof UnknownStationError) {
       return sendProblem(
         reply,
@@ -42,6 +71,16 @@ async function errorHandler(app: FastifyInstance): Promise<void> {
     if (error instanceof HttpProblem) {
       for (const [k, v] of Object.entries(error.headers ?? {})) reply.header(k, v);
       return sendProblem(reply, makeProblem(error.status, error.message, error.errors, request.url));
+    }
+    const unavailable = storageUnavailable(error);
+    if (unavailable) {
+      // The driver's text (host, file path, SQL) stays in the log, found by the request id.
+      request.log.error({ err: error, route: request.routeOptions.url, failure: unavailable.failure }, 'storage unavailable');
+      reply.header('retry-after', String(unavailable.retryAfterS));
+      return sendProblem(
+        reply,
+        makeProblem(503, `${unavailable.message}; retry after ${unavailable.retryAfterS} s (request id in the x-request-id header)`, undefined, request.url),
+      );
     }
     const status = error.statusCode ?? 500;
     if (status >= 400 && status < 500) {

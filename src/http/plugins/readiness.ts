@@ -1,12 +1,22 @@
 /**
  * GET /v1/ready: 200 when every registered readiness check passes (e.g. the database answers and
- * its migrations are applied), 503 otherwise or while the service shuts down. Plugins that own a
- * dependency register a check with `app.addReadinessCheck(name, fn)`.
+ * its migrations are applied, the data directory takes writes), 503 otherwise or while the service
+ * shuts down. Plugins that own a dependency register a check with `app.addReadinessCheck(name, fn)`.
+ *
+ * The checks run in parallel, each with a deadline (READY_CHECK_TIMEOUT_MS): a blackholed database
+ * makes the probe answer 503 in time instead of hanging the load balancer's probe. The answer is
+ * public, so a failed check says only what kind of failure it was; the driver's text is logged with
+ * the request id.
+ *
+ * It also owns the "closing" state of a shutdown: from the first moment of app.close() every answer
+ * carries `Connection: close`, so a keep-alive client whose request was in flight does not hold the
+ * server open after its answer (server.ts).
  */
 
 import type { FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
 import { z } from 'zod';
+import { storageUnavailable } from '../../storage/errors.js';
 
 type Check = () => Promise<void>;
 
@@ -21,12 +31,37 @@ const readyResponse = z.object({
   checks: z.record(z.string(), z.string()).describe('Each check: "ok" or why it failed'),
 });
 
-async function readiness(app: FastifyInstance): Promise<void> {
+export interface ReadinessOptions {
+  /** Deadline of each check [ms] (READY_CHECK_TIMEOUT_MS). */
+  timeoutMs?: number;
+}
+
+/** A check's outcome as the public answer shows it. */
+async function runCheck(check: Check, timeoutMs: number): Promise<{ ok: true } | { ok: false; text: string; err?: unknown }> {
+  let timer: NodeJS.Timeout | undefined;
+  const deadline = new Promise<'timeout'>((resolve) => {
+    timer = setTimeout(() => resolve('timeout'), timeoutMs);
+  });
+  try {
+    const outcome = await Promise.race([check().then(() => 'ok' as const), deadline]);
+    return outcome === 'ok' ? { ok: true } : { ok: false, text: `no answer within ${timeoutMs} ms` };
+  } catch (err) {
+    return { ok: false, text: storageUnavailable(err)?.message ?? 'failed (the reason is in the service log)', err };
+  } finally {
+    clearTimeout(timer);
+  }
+}
+
+async function readiness(app: FastifyInstance, options: ReadinessOptions): Promise<void> {
   const checks = new Map<string, Check>();
+  const timeoutMs = options.timeoutMs ?? 2_000;
   let closing = false;
   app.decorate('addReadinessCheck', (name: string, check: Check) => void checks.set(name, check));
   app.addHook('preClose', async () => {
     closing = true;
+  });
+  app.addHook('onSend', async (request, reply) => {
+    if (closing && request.raw.httpVersionMajor < 2) reply.header('connection', 'close');
   });
 
   app.get(
@@ -38,17 +73,18 @@ async function readiness(app: FastifyInstance): Promise<void> {
         response: { 200: readyResponse, 503: readyResponse },
       },
     },
-    async (_request, reply) => {
+    async (request, reply) => {
       const results: Record<string, string> = {};
       let ok = !closing;
       if (closing) results['shutdown'] = 'the service is shutting down';
-      for (const [name, check] of checks) {
-        try {
-          await check();
+      const outcomes = await Promise.all([...checks].map(async ([name, check]) => [name, await runCheck(check, timeoutMs)] as const));
+      for (const [name, outcome] of outcomes) {
+        if (outcome.ok) {
           results[name] = 'ok';
-        } catch (err) {
+        } else {
           ok = false;
-          results[name] = err instanceof Error ? err.message : String(err);
+          results[name] = outcome.text;
+          request.log.warn({ check: name, err: outcome.err, reason: outcome.text }, 'readiness check failed');
         }
       }
       return reply.code(ok ? 200 : 503).send({ status: ok ? 'ready' : 'not-ready', checks: results });

@@ -4,7 +4,9 @@
  */
 
 import type { FastifyInstance } from 'fastify';
+import { existsSync } from 'node:fs';
 import fp from 'fastify-plugin';
+import { checkDataDir } from '../../storage/disk-check.js';
 import { createRepository, describeStorage, type StorageConfig } from '../../storage/factory.js';
 import type { Repository } from '../../storage/repository.js';
 
@@ -21,10 +23,23 @@ export interface StoragePluginOptions {
 }
 
 async function storage(app: FastifyInstance, options: StoragePluginOptions): Promise<void> {
-  const repository = options.repository ?? (await createRepository(options.storage));
+  const repository =
+    options.repository ??
+    (await createRepository(options.storage, {
+      // A dropped connection outside a query is handled (the pool replaces it); it is worth a log line.
+      onConnectionError: (err) => app.log.warn({ err }, 'database connection lost'),
+    }));
   app.decorate('repository', repository);
-  // GET /v1/ready answers 503 while the database does not answer or is not migrated.
-  if (app.hasDecorator('addReadinessCheck')) app.addReadinessCheck('database', () => repository.ping());
+  // GET /v1/ready answers 503 while the database does not answer or is not migrated, and while the
+  // data directory (the SQLite file, the key file) is full or read-only.
+  if (app.hasDecorator('addReadinessCheck')) {
+    app.addReadinessCheck('database', () => repository.ping());
+    const dir = options.storage.dataDir;
+    // With PostgreSQL the directory holds only the generated key file and may not exist at all.
+    if (dir !== ':memory:' && (repository.backend === 'sqlite' || existsSync(dir))) {
+      app.addReadinessCheck('data_dir', () => checkDataDir({ dir, minFreeBytes: options.storage.minFreeDiskBytes ?? 0 }));
+    }
+  }
   app.addHook('onClose', async () => {
     await repository.close();
   });

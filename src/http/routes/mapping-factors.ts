@@ -1,12 +1,14 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { DEG } from '../../domain/constants.js';
+import { geoidUndulationM } from '../../domain/geometry/geoid.js';
 import { GRADIENT_MODELS } from '../../domain/gradients/gradient-mapping.js';
+import { checkMappingElevation } from '../../domain/mapping/elevation-range.js';
+import { assumedHeightReferenceWarning } from '../../domain/mapping/vmf1.js';
 import { provenance } from '../../domain/provenance.js';
+import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
 import { problemSchema } from '../schemas/common.js';
 import { checkCoefficients, mappingFactorsRequest, mappingFactorsResponse } from '../schemas/mapping-factors.js';
-import { lowElevationWarning, mappingProvenance, prepareMapping, toSite } from './shared.js';
-
-export const BATCH_BODY_LIMIT_BYTES = 32 * 1024 * 1024;
+import { lowElevationWarning, mappingProvenance, prepareMapping, toCoefficients, toSite } from './shared.js';
 
 const mappingFactorsRoute: FastifyPluginAsyncZod = async (app) => {
   app.post(
@@ -23,6 +25,7 @@ const mappingFactorsRoute: FastifyPluginAsyncZod = async (app) => {
     },
     async (request) => {
       const { site, epoch, elevations_deg, model, coefficients, gradient_model } = request.body;
+      elevations_deg.forEach((e, i) => checkMappingElevation(e, `elevations_deg.${i}`));
       const mapping = prepareMapping(toSite(site), epoch, model, coefficients);
       const gradientMapping = GRADIENT_MODELS[gradient_model]!.prepare(mapping);
       const n = elevations_deg.length;
@@ -35,13 +38,15 @@ const mappingFactorsRoute: FastifyPluginAsyncZod = async (app) => {
         wet[i] = mapping.wet(e);
         gradient[i] = gradientMapping(e);
       }
+      const assumed = assumedHeightReferenceWarning(toCoefficients(coefficients));
       return {
         model,
         hydrostatic,
         wet,
         gradient,
-        ...provenance(mappingProvenance(model, gradient_model)),
-        warnings: lowElevationWarning(elevations_deg),
+        geoid_undulation_m: geoidUndulationM(site.latitude_deg, site.longitude_deg),
+        ...provenance(mappingProvenance(model, gradient_model, coefficients)),
+        warnings: [...(assumed ? [assumed] : []), ...lowElevationWarning(elevations_deg)],
       };
     },
   );

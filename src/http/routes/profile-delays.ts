@@ -8,7 +8,8 @@ import { MODEL_NAMES, provenance } from '../../domain/provenance.js';
 import { problemSchema } from '../schemas/common.js';
 import { checkCoefficients } from '../schemas/mapping-factors.js';
 import { profileDelaysRequest, profileDelaysResponse } from '../schemas/profile-delays.js';
-import { lowElevationWarning, prepareMapping, toSite } from './shared.js';
+import { assumedHeightReferenceWarning } from '../../domain/mapping/vmf1.js';
+import { lowElevationWarning, prepareMapping, toCoefficients, toSite } from './shared.js';
 
 /** 10 000 levels of about 150 bytes each fit with room to spare. */
 export const PROFILE_BODY_LIMIT_BYTES = 4 * 1024 * 1024;
@@ -34,6 +35,7 @@ const profileDelaysRoute: FastifyPluginAsyncZod = async (app) => {
       const modelMapping = prepareMapping(site, body.epoch, body.mapping_model, body.coefficients);
       const result = computeProfileDelays({
         latitudeRad: site.latitudeDeg * DEG,
+        longitudeRad: site.longitudeDeg * DEG,
         siteHeightM: site.heightM,
         levels: body.levels.map((l) => ({
           heightM: l.height_m,
@@ -54,6 +56,8 @@ const profileDelaysRoute: FastifyPluginAsyncZod = async (app) => {
       const warnings = [...result.warnings, ...(body.elevations_deg ? lowElevationWarning(body.elevations_deg) : [])];
       const constants = REFRACTIVITY_CONSTANT_SETS[body.refractivity_constants];
       const mapping = MAPPING_MODELS[body.mapping_model];
+      const assumedReference = assumedHeightReferenceWarning(toCoefficients(body.coefficients));
+      if (assumedReference) warnings.push(assumedReference);
       return {
         zhd_m: result.zhdM,
         zwd_m: result.zwdM,
@@ -97,8 +101,8 @@ const profileDelaysRoute: FastifyPluginAsyncZod = async (app) => {
                 bending_m: s.bendingM,
                 mapping_hydrostatic: s.mappingHydrostatic,
                 mapping_wet: s.mappingWet,
-                model_mapping_hydrostatic: s.modelMappingHydrostatic!,
-                model_mapping_wet: s.modelMappingWet!,
+                model_mapping_hydrostatic: s.modelMappingHydrostatic,
+                model_mapping_wet: s.modelMappingWet,
               })),
             }
           : {}),
@@ -113,6 +117,7 @@ const profileDelaysRoute: FastifyPluginAsyncZod = async (app) => {
           ray_tracing: 'spherical shells, Bouguer n r cos(theta) = const, Gaussian radius, vacuum elevations, bending in the hydrostatic part',
           saturation: `${MODEL_NAMES.saturation}, extrapolated below -45 C`,
           mapping: `${body.mapping_model}: ${mapping.citation}`,
+          mapping_height_correction: mapping.heightCorrection(toCoefficients(body.coefficients)),
           ...(body.coefficients ? { mapping_ah: body.coefficients.ah, mapping_aw: body.coefficients.aw } : {}),
         }),
         warnings,

@@ -3,9 +3,11 @@
  */
 
 import { DEG } from '../../domain/constants.js';
+import { GEOID_MODEL_NAME, geoidUndulationM } from '../../domain/geometry/geoid.js';
 import { GRADIENT_MODELS } from '../../domain/gradients/gradient-mapping.js';
+import { belowMappingFit, MAPPING_FIT_MIN_ELEVATION_DEG } from '../../domain/mapping/elevation-range.js';
 import { MAPPING_MODELS, type MappingModelKey } from '../../domain/mapping/registry.js';
-import type { MappingEvaluator } from '../../domain/mapping/types.js';
+import type { CoefficientsHeightReference, MappingCoefficients, MappingEvaluator } from '../../domain/mapping/types.js';
 import type { MetInput } from '../../domain/meteo/surface-met.js';
 import { MODEL_NAMES, provenance, type ModelSet, type Provenance } from '../../domain/provenance.js';
 import type { Site } from '../../domain/site.js';
@@ -13,7 +15,7 @@ import { fractionalDayOfYear } from '../../domain/time.js';
 import { WET_MODELS } from '../../domain/zenith/wet.js';
 
 /** Elevations below this get a warning [deg] (Niell's fit is stated from 3° up). */
-export const LOW_ELEVATION_WARNING_DEG = 3;
+export const LOW_ELEVATION_WARNING_DEG = MAPPING_FIT_MIN_ELEVATION_DEG;
 
 export interface SiteBody {
   latitude_deg: number;
@@ -45,27 +47,36 @@ export const toMetInput = (m: MetBody | undefined): MetInput | undefined =>
 /** ISO 8601 with offset → canonical UTC string. */
 export const canonicalEpoch = (iso: string): string => new Date(iso).toISOString();
 
-export function prepareMapping(
-  site: Site,
-  epochIso: string,
-  model: MappingModelKey,
-  coefficients?: { ah: number; aw: number },
-): MappingEvaluator {
+/** VMF1 coefficients as the API sends them. */
+export interface CoefficientsBody {
+  ah: number;
+  aw: number;
+  height_reference?: CoefficientsHeightReference | undefined;
+}
+
+export const toCoefficients = (c: CoefficientsBody | undefined): MappingCoefficients | undefined =>
+  c && { ah: c.ah, aw: c.aw, heightReference: c.height_reference };
+
+/** The mapping function for a site (ellipsoidal height, taken to sea level by the EGM96 geoid) and epoch. */
+export function prepareMapping(site: Site, epochIso: string, model: MappingModelKey, coefficients?: CoefficientsBody): MappingEvaluator {
   return MAPPING_MODELS[model].prepare({
     latitudeRad: site.latitudeDeg * DEG,
-    heightM: site.heightM,
+    heightM: site.heightM - geoidUndulationM(site.latitudeDeg, site.longitudeDeg),
     dayOfYear: fractionalDayOfYear(new Date(epochIso)),
-    coefficients,
+    coefficients: toCoefficients(coefficients),
   });
 }
 
 /**
  * Provenance of the mapping part. Caller coefficients (VMF1 a values) are inputs that change with
- * every epoch, not settings, so they do not enter the fingerprint.
+ * every epoch, not settings, so they do not enter the fingerprint; what they refer to (site or sea
+ * level) decides the height correction, which does.
  */
-export function mappingProvenance(model: MappingModelKey, gradientModel: string) {
+export function mappingProvenance(model: MappingModelKey, gradientModel: string, coefficients?: CoefficientsBody) {
   return {
     mapping: `${model}: ${MAPPING_MODELS[model].citation}`,
+    mapping_height_correction: MAPPING_MODELS[model].heightCorrection(toCoefficients(coefficients)),
+    geoid: GEOID_MODEL_NAME,
     gradient_mapping: `${gradientModel}: ${GRADIENT_MODELS[gradientModel]!.citation}`,
   };
 }
@@ -83,6 +94,7 @@ export function zenithProvenance(wetModel: string) {
     zwd: `${wetModel}: ${WET_MODELS[wetModel]!.citation}`,
     saturation: MODEL_NAMES.saturation,
     standard_atmosphere: MODEL_NAMES.standardAtmosphere,
+    geoid: GEOID_MODEL_NAME,
     met_reduction: 'hypsometric pressure, -6.5 K/km, constant RH',
   };
 }
@@ -92,7 +104,7 @@ export function lowElevationWarning(elevationsDeg: ArrayLike<number>, what = 'el
   const low: number[] = [];
   let count = 0;
   for (let i = 0; i < elevationsDeg.length; i++) {
-    if (elevationsDeg[i]! < LOW_ELEVATION_WARNING_DEG) {
+    if (belowMappingFit(elevationsDeg[i]!)) {
       count++;
       if (low.length < 10) low.push(i);
     }

@@ -1,16 +1,19 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { DEG } from '../../domain/constants.js';
 import { ModelDomainError } from '../../domain/errors.js';
-import { geodeticToEcef, lookAngles } from '../../domain/geometry/topocentric.js';
+import { geoidUndulationM } from '../../domain/geometry/geoid.js';
+import { geodeticToEcef, lookAngles, normaliseAzimuthDeg } from '../../domain/geometry/topocentric.js';
 import { GRADIENT_MODELS } from '../../domain/gradients/gradient-mapping.js';
+import { checkMappingElevation } from '../../domain/mapping/elevation-range.js';
+import { assumedHeightReferenceWarning } from '../../domain/mapping/vmf1.js';
 import { provenance } from '../../domain/provenance.js';
 import { allocateSlantBatch, computeSlantDelays } from '../../domain/slant.js';
 import { aprioriZenithDelays } from '../../domain/zenith/apriori.js';
 import { problemSchema } from '../schemas/common.js';
 import { checkCoefficients } from '../schemas/mapping-factors.js';
 import { slantDelaysRequest, slantDelaysResponse } from '../schemas/slant-delays.js';
-import { BATCH_BODY_LIMIT_BYTES } from './mapping-factors.js';
-import { lowElevationWarning, mappingProvenance, prepareMapping, toMetInput, toSite, zenithProvenance } from './shared.js';
+import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
+import { lowElevationWarning, mappingProvenance, prepareMapping, toCoefficients, toMetInput, toSite, zenithProvenance } from './shared.js';
 
 const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
   app.post(
@@ -45,6 +48,7 @@ const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
       const nadirDeg = body.satellites ? new Float64Array(n) : undefined;
       if (body.directions) {
         body.directions.forEach((d, i) => {
+          checkMappingElevation(d.elevation_deg, `directions.${i}.elevation_deg`);
           elevationsRad[i] = d.elevation_deg * DEG;
           azimuthsRad[i] = d.azimuth_deg * DEG;
         });
@@ -61,6 +65,7 @@ const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
               400,
             );
           }
+          checkMappingElevation(look.elevationRad / DEG, `satellites.${i}`);
           elevationsRad[i] = look.elevationRad;
           azimuthsRad[i] = look.azimuthRad;
           nadirDeg![i] = look.nadirRad / DEG;
@@ -68,6 +73,8 @@ const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
       }
 
       const mapping = prepareMapping(site, body.epoch, body.model, body.coefficients);
+      const assumed = assumedHeightReferenceWarning(toCoefficients(body.coefficients));
+      if (assumed) warnings.push(assumed);
       const gradientMapping = GRADIENT_MODELS[body.gradient_model]!.prepare(mapping);
       const out = computeSlantDelays(mapping, gradientMapping, { zhdM, zwdM, northGradientM, eastGradientM }, elevationsRad, azimuthsRad, allocateSlantBatch(n));
 
@@ -77,7 +84,7 @@ const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
       for (let i = 0; i < n; i++) {
         slants[i] = {
           elevation_deg: body.directions ? body.directions[i]!.elevation_deg : elevationsDeg[i]!,
-          azimuth_deg: body.directions ? body.directions[i]!.azimuth_deg : azimuthsRad[i]! / DEG,
+          azimuth_deg: normaliseAzimuthDeg(body.directions ? body.directions[i]!.azimuth_deg : azimuthsRad[i]! / DEG),
           ...(body.satellites ? { satellite: body.satellites[i]!.id, nadir_deg: nadirDeg![i]! } : {}),
           mapping_hydrostatic: out.mappingHydrostatic[i]!,
           mapping_wet: out.mappingWet[i]!,
@@ -113,9 +120,10 @@ const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
             }
           : {}),
         slants,
+        geoid_undulation_m: apriori?.geoidUndulationM ?? geoidUndulationM(site.latitudeDeg, site.longitudeDeg),
         ...provenance({
           ...(apriori ? zenithProvenance(body.wet_model) : { zhd: 'caller', zwd: 'caller' }),
-          ...mappingProvenance(body.model, body.gradient_model),
+          ...mappingProvenance(body.model, body.gradient_model, body.coefficients),
         }),
         warnings,
       };

@@ -5,10 +5,11 @@ import { summariseModelSets } from '../../services/homogeneity.js';
 import { problemSchema } from '../schemas/common.js';
 import { DELAY_CSV_COLUMNS, delayDepositEnvelope, delayDepositJsonBody, delayDepositResponse, delayReadQuery, delayReadResponse, delayRecordSchema } from '../schemas/delays.js';
 import { stationParams } from '../schemas/stations.js';
-import { BATCH_BODY_LIMIT_BYTES } from './mapping-factors.js';
+import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
 import { envelopeValidator, isoEpoch, recordLine, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
 import { dropDuplicateEpochs, issueText, listRejected, nothingUsable, type Rejected } from './series-ingest.js';
+import { modelFingerprintHeaders } from '../fingerprint-headers.js';
 
 /** Key under which a deposit's `source` enters its model set. */
 export const DEPOSIT_SOURCE_KEY = 'deposited_by';
@@ -106,7 +107,7 @@ const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (ap
       if (request.query.format === 'csv') {
         return sendCsv(reply, DELAY_CSV_COLUMNS, records, recordLine(DELAY_CSV_COLUMNS), {
           'x-homogeneous': String(summary.homogeneous),
-          'x-model-fingerprints': fingerprints.join(','),
+          ...modelFingerprintHeaders(fingerprints),
         });
       }
       return { station_id: stationId, from: isoEpoch(range.fromMs), to: isoEpoch(range.toMs), records, ...summary };

@@ -1,5 +1,5 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { BATCH_BODY_LIMIT_BYTES } from './mapping-factors.js';
+import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
 import { problemSchema } from '../schemas/common.js';
 import { DEFAULT_MET_SOURCE, MET_CSV_OUTPUT_COLUMNS, ingestQuery, metIngestEnvelope, metIngestJsonBody, metIngestResponse, metReadQuery, metReadResponse } from '../schemas/met.js';
 import { stationParams } from '../schemas/stations.js';

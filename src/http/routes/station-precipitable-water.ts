@@ -8,6 +8,7 @@ import { STATION_PWV_CSV_COLUMNS, stationPwvQuery, stationPwvResponse } from '..
 import { stationParams } from '../schemas/stations.js';
 import { isoEpoch, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
+import { modelFingerprintHeaders } from '../fingerprint-headers.js';
 
 /**
  * Output precision, far below every uncertainty involved (and it halves the size and the time of a
@@ -130,7 +131,7 @@ const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         // Straight from the computed records to text: no intermediate objects for a station-year.
         return sendCsv(reply, STATION_PWV_CSV_COLUMNS, result.records, pwvCsvLine, {
           'x-homogeneous': String(summary.homogeneous),
-          'x-model-fingerprints': fingerprints.join(','),
+          ...modelFingerprintHeaders(fingerprints),
         });
       }
       const records = result.records.map(pwvJson);

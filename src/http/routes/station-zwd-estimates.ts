@@ -1,76 +1,95 @@
 /**
  * POST /v1/stations/{station_id}/zwd-estimates: the ZWD estimation of /v1/zwd-estimates for a
- * station. The station's coordinates are the site; its stored met series serves as `met` unless the
- * request carries its own; the result is stored as the station's delay series (ZTD, ZWD, gradients
- * and their sigmas) under the result's fingerprint, and returned.
+ * station. The station's coordinates are the site; its stored met series (at the antenna height,
+ * src/services/station-met.ts) serves as `met` unless the request carries its own; the result is
+ * stored as the station's delay series under the result's fingerprint, and returned.
  *
- * Like /v1/zwd-estimates, the body stays bytes on the event loop and is parsed, validated and
- * estimated in the worker pool (services/zwd-request.ts, with `site`, `defaultMet` and `keepResult`).
- * To pick the stored met before that, the event loop only scans the body for its first and last
- * epoch (scanEpochRange).
+ * Steps (the body stays bytes on the event loop):
+ *   1. scan (worker): the observations' epoch range, from the `epoch` field or column wherever it
+ *      is, and whether the body has met;
+ *   2. stored met around that range (read only without met in the body), bounded like the read
+ *      routes: a span longer than the maximum read range, or more than MAX_MET_RECORDS records,
+ *      is a 400 that says to send `met` or split the observations;
+ *   3. estimate (worker): the JSON answer and the delay columns to store;
+ *   4. store the delay rows, append `station_id` and `stored` to the answer.
  */
 
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { validatorCompiler } from 'fastify-type-provider-zod';
-import { reducePressureHpa, reduceTemperatureC } from '../../domain/meteo/height-reduction.js';
-import type { DelayRow, MetRow, Station } from '../../storage/repository.js';
-import { HttpProblem } from '../problem.js';
+import { MAX_MET_GAP_S, MAX_MET_RECORDS, MAX_OBSERVATIONS, ZWD_BODY_LIMIT_BYTES } from '../../limits.js';
+import { CallerError } from '../../services/caller-error.js';
+import { storedMetAtAntenna, type MetColumns } from '../../services/station-met.js';
+import type { DelayColumns } from '../../services/zwd-estimation.js';
+import type { DelayRow, Repository, Station, WriteCounts } from '../../storage/repository.js';
+import { bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf } from '../raw-body.js';
 import { problemSchema } from '../schemas/common.js';
 import { DEFAULT_ESTIMATE_SOURCE, stationZwdEstimatesQuery, stationZwdEstimatesResponse } from '../schemas/station-zwd-estimates.js';
 import { stationParams } from '../schemas/stations.js';
-import { MAX_OBSERVATIONS, ZWD_BODY_LIMIT_BYTES, zwdEstimationBody } from '../schemas/zwd-estimates.js';
+import { zwdEstimationBody } from '../schemas/zwd-estimates.js';
 import { requireStation, type StationRouteOptions } from './station-common.js';
+import { DAY_MS } from './series-range.js';
 
-/** Stored met is read this far around the observations: the largest options.met_max_gap_s allowed [ms]. */
-const MET_WINDOW_MS = 86_400_000;
-
-/**
- * Stored met rows → the estimation's met records at the antenna height: rows with both pressure and
- * temperature, one per epoch (the first source in name order), reduced from met_height_m.
- */
-export function archiveMet(station: Station, rows: readonly MetRow[]) {
-  const dHeightM = station.metHeightM === null ? 0 : station.heightM - station.metHeightM;
-  const out: { epoch: string; pressure_hpa: number; temperature_c: number }[] = [];
-  let lastEpochMs = Number.NaN;
-  for (const r of rows) {
-    if (r.pressureHpa === null || r.temperatureC === null || r.epochMs === lastEpochMs) continue;
-    lastEpochMs = r.epochMs;
-    out.push({
-      epoch: new Date(r.epochMs).toISOString(),
-      pressure_hpa: dHeightM === 0 ? r.pressureHpa : reducePressureHpa(r.pressureHpa, r.temperatureC, dHeightM),
-      temperature_c: reduceTemperatureC(r.temperatureC, dHeightM),
-    });
-  }
-  return out;
-}
+/** Stored met is read this far around the observations: the largest met_max_gap_s allowed [ms]. */
+const MET_WINDOW_MS = MAX_MET_GAP_S * 1000;
 
 /**
- * First and last epoch of the observations in a body, without parsing it (the worker does): the
- * values of "epoch" keys in JSON (met epochs included, which only widens the window), the first
- * cell of each CSV data row. Unparseable values are left to the worker's validation.
- * @returns [ms, ms], or null when no epoch is found
+ * Step 2: the station's stored met around the observations, at the antenna height; undefined when
+ * the body has its own met or no epoch could be read (the estimation then says why).
+ * @throws CallerError 400 when the read would exceed the read-range or met-record limits
  */
-export function scanEpochRange(text: string, format: 'json' | 'csv'): { firstMs: number; lastMs: number } | null {
-  const pattern = format === 'json' ? /"epoch"\s*:\s*"([^"]{1,64})"/g : /^([^,\r\n]{1,64}),/gm;
-  let first = Infinity;
-  let last = -Infinity;
-  let previous = '';
-  for (const m of text.matchAll(pattern)) {
-    const value = m[1]!;
-    if (value === previous) continue; // observations come grouped by epoch
-    previous = value;
-    const ms = Date.parse(value);
-    if (Number.isNaN(ms)) continue; // the CSV header, or an error the worker reports
-    if (ms < first) first = ms;
-    if (ms > last) last = ms;
+export async function storedMetFor(
+  repository: Repository,
+  station: Station,
+  scan: { range: { firstMs: number; lastMs: number } | null; hasMet: boolean },
+  maxReadRangeDays: number,
+): Promise<MetColumns | undefined> {
+  if (scan.hasMet || !scan.range) return undefined;
+  const fromMs = scan.range.firstMs - MET_WINDOW_MS;
+  const toMs = scan.range.lastMs + MET_WINDOW_MS;
+  const spanDays = (toMs - fromMs) / DAY_MS;
+  if (spanDays > maxReadRangeDays) {
+    throw CallerError.field(
+      400,
+      'observations',
+      `the observations span ${((scan.range.lastMs - scan.range.firstMs) / DAY_MS).toFixed(2)} days; with the stored met read 1 day around them that is ${spanDays.toFixed(2)} days, and one request reads at most ${maxReadRangeDays} days of stored met: send \`met\` in the request or split the observations`,
+    );
   }
-  return first <= last ? { firstMs: first, lastMs: last } : null;
+  const rows = await repository.readMet(station.stationId, { fromMs, toMs });
+  const met = storedMetAtAntenna(station, rows);
+  if (met.epochMs.length > MAX_MET_RECORDS) {
+    throw CallerError.field(
+      400,
+      'observations',
+      `the station has ${met.epochMs.length} stored met records around the observations; an estimation uses at most ${MAX_MET_RECORDS}: send \`met\` in the request or split the observations`,
+    );
+  }
+  return met;
 }
 
-const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app) => {
-  // In this route's scope JSON bodies stay bytes: the worker thread parses them.
-  app.removeContentTypeParser('application/json');
-  app.addContentTypeParser('application/json', { parseAs: 'buffer' }, (_request, body, done) => done(null, body));
+const orNull = (x: number) => (Number.isNaN(x) ? null : x);
+
+/** Step 4: the delay columns of the worker as rows of the station's delay series. */
+export function delayRows(c: DelayColumns, source: string, modelFingerprint: string): DelayRow[] {
+  const rows = new Array<DelayRow>(c.epochMs.length);
+  for (let k = 0; k < rows.length; k++) {
+    rows[k] = {
+      epochMs: c.epochMs[k]!,
+      source,
+      ztdM: c.ztdM[k]!,
+      ztdSigmaM: c.sigmaM[k]!,
+      zwdM: c.zwdM[k]!,
+      zwdSigmaM: c.sigmaM[k]!,
+      northGradientM: orNull(c.northGradientM[k]!),
+      eastGradientM: orNull(c.eastGradientM[k]!),
+      northGradientSigmaM: orNull(c.northGradientSigmaM[k]!),
+      eastGradientSigmaM: orNull(c.eastGradientSigmaM[k]!),
+      modelFingerprint,
+    };
+  }
+  return rows;
+}
+
+const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
+  keepJsonBodiesAsBytes(app);
   app.post(
     '/v1/stations/:station_id/zwd-estimates',
     {
@@ -79,7 +98,8 @@ const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = asy
         summary: 'Estimate ZWD and gradients for a station and store the result as its delay series',
         description: [
           'The request of POST /v1/zwd-estimates without `site`: the station gives latitude, longitude and height (JSON body, or text/csv with the options as query parameters).',
-          "Without `met` in the request, the station's stored met series (records with pressure and temperature, reduced from met_height_m to the antenna height; at one epoch the first source in name order) around the observations serves as `met`.",
+          "Without `met` in the request, the station's stored met series (records with pressure and temperature, reduced from met_height_m to the antenna height; at one epoch the first source in name order) from 1 day before the first to 1 day after the last observation serves as `met`.",
+          `That read is bounded like the read routes: a span longer than the maximum read range (TROPO_MAX_READ_RANGE_DAYS) or more than ${MAX_MET_RECORDS} stored met records is a 400 naming \`observations\`.`,
           'The result is returned as by /v1/zwd-estimates and stored as the station\'s delay series under `?source=` (default "zwd-estimates") and the result\'s model_fingerprint: per epoch ztd_m, ztd_sigma_m = sigma_m (the a-priori ZHD is a fixed value), zwd_m, zwd_sigma_m, gradients and their sigmas.',
           `Up to ${MAX_OBSERVATIONS} observations. Body limit: ${ZWD_BODY_LIMIT_BYTES} bytes. Writes need \`Authorization: Bearer <key>\`.`,
         ].join(' '),
@@ -100,63 +120,34 @@ const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = asy
           503: problemSchema,
         },
       },
-      // The body is validated in the worker (see above); params and query here.
-      validatorCompiler: (route) =>
-        route.httpPart === 'body' ? (data: unknown) => ({ value: data }) : validatorCompiler(route as unknown as Parameters<typeof validatorCompiler>[0]),
+      validatorCompiler: bodyInWorkerValidator,
     },
     async (request, reply) => {
       const stationId = request.params.station_id;
       const station = await requireStation(app.repository, stationId);
       const source = request.query.source ?? DEFAULT_ESTIMATE_SOURCE;
-      const raw = request.body as unknown as Buffer | string;
-      const type = (request.headers['content-type'] ?? '').split(';')[0]!.trim().toLowerCase();
-      const format = type === 'text/csv' ? 'csv' : type === 'application/json' ? 'json' : undefined;
-      if (!format) throw new HttpProblem(415, `content type ${type || '(none)'} is not accepted here; send application/json or text/csv`);
-      const text = typeof raw === 'string' ? raw : raw.toString('utf8');
-
-      const requestHasMet = format === 'json' && /"met"\s*:\s*\[/.test(text);
-      let defaultMet: ReturnType<typeof archiveMet> | undefined;
-      if (!requestHasMet) {
-        const range = scanEpochRange(text, format);
-        if (range) {
-          const rows = await app.repository.readMet(stationId, { fromMs: range.firstMs - MET_WINDOW_MS, toMs: range.lastMs + MET_WINDOW_MS });
-          defaultMet = archiveMet(station, rows);
-        }
-      }
-      const metUsed = requestHasMet ? 'request' : defaultMet && defaultMet.length > 0 ? 'archive' : 'none';
-
-      const output = await app.compute.run('zwd-estimate-request', {
-        body: text,
-        format,
-        query: request.query as Record<string, unknown>,
-        site: { latitude_deg: station.latitudeDeg, longitude_deg: station.longitudeDeg, height_m: station.heightM },
-        defaultMet,
-        keepResult: true,
-      });
-      const result = output.result!;
-      const rows: DelayRow[] = result.series.map((e) => ({
-        epochMs: Date.parse(e.epoch),
-        source,
-        ztdM: e.ztd_m,
-        ztdSigmaM: e.sigma_m,
-        zwdM: e.zwd_m,
-        zwdSigmaM: e.sigma_m,
-        northGradientM: e.north_gradient_m,
-        eastGradientM: e.east_gradient_m,
-        northGradientSigmaM: e.north_gradient_sigma_m,
-        eastGradientSigmaM: e.east_gradient_sigma_m,
-        modelFingerprint: result.model_fingerprint,
-      }));
-      const counts =
-        rows.length > 0
-          ? await app.repository.writeDelays(stationId, rows, { modelFingerprint: result.model_fingerprint, models: result.models })
-          : { inserted: 0, updated: 0, unchanged: 0 };
-      const warnings = [...result.warnings];
-      if (metUsed === 'archive') warnings.push(`met: ${defaultMet!.length} records of the station's stored met series`);
-      if (metUsed === 'none') warnings.push('met: neither in the request nor stored for this station around the observations; no ZHD or PWV per epoch');
-      return reply.type('application/json').send({ ...result, warnings, station_id: stationId, met_used: metUsed, stored: { source, ...counts } });
+      const raw = rawBodyOf(request);
+      const scan = await app.compute.run('zwd-request-scan', raw);
+      const storedMet = await storedMetFor(app.repository, station, scan, options.maxReadRangeDays);
+      const site = { latitudeDeg: station.latitudeDeg, longitudeDeg: station.longitudeDeg, heightM: station.heightM };
+      const output = await app.compute.run('zwd-estimate-request', { ...raw, query: request.query as Record<string, unknown>, station: { site, storedMet } });
+      const stored = await storeDelays(app.repository, stationId, source, output);
+      return reply
+        .type('application/json')
+        .send(`${output.json},"station_id":${JSON.stringify(stationId)},"stored":${JSON.stringify({ source, ...stored })}}` as never);
     },
   );
 };
+
+async function storeDelays(
+  repository: Repository,
+  stationId: string,
+  source: string,
+  output: { delays?: DelayColumns | undefined; modelFingerprint?: string | undefined; models?: Record<string, string | number | boolean | null> | undefined },
+): Promise<WriteCounts> {
+  const rows = delayRows(output.delays!, source, output.modelFingerprint!);
+  if (rows.length === 0) return { inserted: 0, updated: 0, unchanged: 0 };
+  return repository.writeDelays(stationId, rows, { modelFingerprint: output.modelFingerprint!, models: output.models! });
+}
 
 export default stationZwdEstimatesRoute;

@@ -33,6 +33,7 @@ const zenithDelaysRoute: FastifyPluginAsyncZod = async (app) => {
           vapour_pressure_hpa: z.met.vapourPressureHpa,
           source: z.met.source,
         },
+        geoid_undulation_m: z.geoidUndulationM,
         ...memoProvenance(PROVENANCE, wet_model, () => zenithProvenance(wet_model)),
         warnings: z.met.warnings,
       };

@@ -1,18 +1,15 @@
-import { validatorCompiler, type FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { HttpProblem } from '../problem.js';
+/**
+ * POST /v1/zwd-estimates: the body stays bytes on the event loop; parsing, validation, the
+ * estimation and the serialisation run in the worker pool (src/http/tasks/zwd-request.ts).
+ */
+
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf } from '../raw-body.js';
 import { problemSchema } from '../schemas/common.js';
-import {
-  MAX_OBSERVATIONS,
-  ZWD_BODY_LIMIT_BYTES,
-  zwdCsvQuerySchema,
-  zwdEstimatesRequest,
-  zwdEstimatesResponse,
-} from '../schemas/zwd-estimates.js';
+import { MAX_OBSERVATIONS, ZWD_BODY_LIMIT_BYTES, zwdCsvQuerySchema, zwdEstimatesRequest, zwdEstimatesResponse } from '../schemas/zwd-estimates.js';
 
 const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
-  // In this route's scope JSON bodies stay bytes: the worker thread parses them (see the handler).
-  app.removeContentTypeParser('application/json');
-  app.addContentTypeParser('application/json', { parseAs: 'buffer' }, (_request, body, done) => done(null, body));
+  keepJsonBodiesAsBytes(app);
   app.post(
     '/v1/zwd-estimates',
     {
@@ -30,20 +27,10 @@ const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
         body: zwdEstimatesRequest,
         response: { 200: zwdEstimatesResponse, 400: problemSchema, 413: problemSchema, 415: problemSchema, 422: problemSchema, 503: problemSchema },
       },
-      // The body is parsed and validated against the schema above in a worker thread, together with
-      // the estimation (services/zwd-request.ts), so it reaches the handler as raw bytes or text.
-      validatorCompiler: ({ httpPart }) => (httpPart === 'body' ? (data: unknown) => ({ value: data }) : validatorCompiler({ schema: zwdCsvQuerySchema, httpPart, method: 'POST', url: '/v1/zwd-estimates' })),
+      validatorCompiler: bodyInWorkerValidator,
     },
     async (request, reply) => {
-      const raw = request.body as unknown as Buffer | string;
-      const type = (request.headers['content-type'] ?? '').split(';')[0]!.trim().toLowerCase();
-      const format = type === 'text/csv' ? 'csv' : type === 'application/json' ? 'json' : undefined;
-      if (!format) throw new HttpProblem(415, `content type ${type || '(none)'} is not accepted here; send application/json or text/csv`);
-      const output = await app.compute.run('zwd-estimate-request', {
-        body: typeof raw === 'string' ? raw : new Uint8Array(raw.buffer, raw.byteOffset, raw.byteLength),
-        format,
-        query: request.query as Record<string, unknown>,
-      });
+      const output = await app.compute.run('zwd-estimate-request', { ...rawBodyOf(request), query: request.query as Record<string, unknown> });
       // Already serialised in the worker; a string payload is sent as it is.
       return reply.type('application/json').send(output.json as never);
     },

@@ -6,6 +6,8 @@
 
 import { z } from 'zod';
 import { MAPPING_MODEL_KEYS } from '../../domain/mapping/registry.js';
+import { COEFFICIENTS_HEIGHT_REFERENCES } from '../../domain/mapping/types.js';
+import { DEFAULT_COEFFICIENTS_HEIGHT_REFERENCE } from '../../domain/mapping/vmf1.js';
 import { GRADIENT_MODEL_KEYS } from '../../domain/gradients/gradient-mapping.js';
 import { WET_MODEL_KEYS } from '../../domain/zenith/wet.js';
 
@@ -70,7 +72,7 @@ export const ztdM = (description = 'Zenith total delay') => bounded(1, 3, 'm', d
 export const zhdM = (description = 'Zenith hydrostatic delay') => bounded(1, 3, 'm', description);
 export const gradientM = (description: string) => bounded(-0.05, 0.05, 'm', description);
 export const elevationDeg = () =>
-  bounded(0, 90, 'deg', 'Vacuum (geometric) elevation angle; below 3° the answer carries a warning', { exclusiveMin: true });
+  bounded(0, 90, 'deg', 'Vacuum (geometric) elevation angle; below 3° the answer carries a warning; mapping functions refuse elevations below 1° (a profile is still traced there)', { exclusiveMin: true });
 export const azimuthDeg = () => bounded(0, 360, 'deg', 'Azimuth from north through east');
 
 function keyEnum<K extends string>(keys: readonly [K, ...K[]], what: string) {
@@ -85,6 +87,12 @@ export const vmf1CoefficientsSchema = z
   .object({
     ah: bounded(0.0005, 0.002, '', 'VMF1 hydrostatic a coefficient'),
     aw: bounded(0, 0.001, '', 'VMF1 wet a coefficient'),
+    height_reference: z
+      .enum(COEFFICIENTS_HEIGHT_REFERENCES, { error: `must be one of: ${COEFFICIENTS_HEIGHT_REFERENCES.join(', ')}` })
+      .optional()
+      .describe(
+        `What ah refers to: "sea-level" (grid coefficients: Niell's height correction is added from the site's height above sea level) or "site" (coefficients computed at the site: no height correction). Absent: "${DEFAULT_COEFFICIENTS_HEIGHT_REFERENCE}", with a warning`,
+      ),
   })
   .describe('Coefficients for model "vmf1", from the VMF1 grids or site files for the epoch');
 
@@ -115,6 +123,10 @@ export const metSourceSchema = z.enum(['measured', 'reduced', 'standard-atmosphe
 export const modelsSchema = z
   .record(z.string(), z.union([z.string(), z.number(), z.boolean(), z.null()]))
   .describe('The models and settings that produced this result');
+
+export const geoidUndulationField = z
+  .number()
+  .describe('EGM96 geoid undulation N at the site [m]: heights above sea level (Niell height correction, standard atmosphere) are height_m − N');
 
 export const provenanceFields = {
   models: modelsSchema,

@@ -9,6 +9,7 @@ import {
   siteSchema,
   vmf1CoefficientsSchema,
   sizedArray,
+  geoidUndulationField,
 } from './common.js';
 
 export const MAX_BATCH = 100_000;
@@ -43,5 +44,6 @@ export const mappingFactorsResponse = z.object({
   hydrostatic: z.array(z.number()).describe('Hydrostatic mapping factors [-], in the order of elevations_deg'),
   wet: z.array(z.number()).describe('Wet mapping factors [-]'),
   gradient: z.array(z.number()).describe('Gradient mapping factors [-]'),
+  geoid_undulation_m: geoidUndulationField,
   ...provenanceFields,
 });

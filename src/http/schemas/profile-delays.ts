@@ -14,7 +14,10 @@ import {
   sizedArray,
 } from './common.js';
 
-/** Each elevation is a launch-angle iteration of a few traces through every shell; 100 bound a request to ~0.1 s of CPU even with 10 000 levels. */
+/**
+ * Each elevation is a launch-angle iteration of a few traces through every shell; 100 bound a request to
+ * ~0.1 s of CPU even with 10 000 levels.
+ */
 export const MAX_PROFILE_ELEVATIONS = 100;
 
 export const profileLevelSchema = z
@@ -64,7 +67,7 @@ export const profileDelaysRequest = z.object({
     .describe(`Vacuum (geometric) elevations to trace rays at [deg], (0, 90], 1..${MAX_PROFILE_ELEVATIONS}; absent = no slants`),
   mapping_model: mappingModelSchema.default('niell').describe('Mapping function set beside the traced factors; default niell'),
   coefficients: vmf1CoefficientsSchema.optional(),
-  geoid_undulation_m: bounded(-120, 100, 'm', 'Geoid undulation at the site, for geopotential heights; default 0').optional(),
+  geoid_undulation_m: bounded(-120, 100, 'm', 'Geoid undulation at the site, for geopotential heights; default: EGM96 at the site (the warnings say so)').optional(),
 });
 
 export const profileSlantSchema = z.object({
@@ -77,8 +80,8 @@ export const profileSlantSchema = z.object({
   bending_m: z.number().describe('Geometric bending term, ray length minus the projection of station-to-exit onto the outgoing direction [m]; part of hydrostatic_m'),
   mapping_hydrostatic: z.number().describe('Ray-traced hydrostatic mapping factor [-]'),
   mapping_wet: z.number().nullable().describe('Ray-traced wet mapping factor [-]; null for a dry column'),
-  model_mapping_hydrostatic: z.number().describe('Hydrostatic mapping factor of mapping_model at the vacuum elevation [-]'),
-  model_mapping_wet: z.number().describe('Wet mapping factor of mapping_model at the vacuum elevation [-]'),
+  model_mapping_hydrostatic: z.number().nullable().describe('Hydrostatic mapping factor of mapping_model at the vacuum elevation [-]; null below 1°, where mapping functions are not evaluated'),
+  model_mapping_wet: z.number().nullable().describe('Wet mapping factor of mapping_model at the vacuum elevation [-]; null below 1°'),
 });
 
 export const profileDelaysResponse = z.object({

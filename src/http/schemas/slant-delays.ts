@@ -15,6 +15,7 @@ import {
   zhdM,
   zwdM,
   sizedArray,
+  geoidUndulationField,
 } from './common.js';
 import { MAX_BATCH } from './mapping-factors.js';
 import { metUsedSchema } from './zenith-delays.js';
@@ -56,8 +57,8 @@ export const slantDelaysRequest = z
   });
 
 export const slantSchema = z.object({
-  elevation_deg: z.number(),
-  azimuth_deg: z.number(),
+  elevation_deg: z.number().describe('Vacuum elevation [deg]'),
+  azimuth_deg: z.number().describe('Azimuth from north through east [deg], [0, 360) (360 is returned as 0)'),
   satellite: z.string().optional(),
   nadir_deg: z.number().optional().describe('Nadir angle at the satellite [deg] (satellites only)'),
   mapping_hydrostatic: z.number(),
@@ -84,5 +85,6 @@ export const slantDelaysResponse = z.object({
   }),
   met_used: metUsedSchema.optional(),
   slants: z.array(slantSchema),
+  geoid_undulation_m: geoidUndulationField,
   ...provenanceFields,
 });

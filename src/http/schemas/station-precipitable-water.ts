@@ -6,7 +6,7 @@
 import { z } from 'zod';
 import { DEFAULT_MAX_MET_GAP_MS } from '../../domain/meteo/met-interpolation.js';
 import { DEFAULT_MAX_ZTD_SIGMA_M, PWV_QUALITY_FLAGS } from '../../services/station-pwv.js';
-import { bounded, provenanceFields } from './common.js';
+import { provenanceFields } from './common.js';
 import { homogeneityFields } from './delays.js';
 import { seriesQueryFields, seriesRangeResponseFields, sourceSchema } from './stations.js';
 

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { epochSchema, metSchema, metSourceSchema, provenanceFields, siteSchema, wetModelSchema } from './common.js';
+import { epochSchema, geoidUndulationField, metSchema, metSourceSchema, provenanceFields, siteSchema, wetModelSchema } from './common.js';
 
 export const zenithDelaysRequest = z.object({
   site: siteSchema,
@@ -20,5 +20,6 @@ export const zenithDelaysResponse = z.object({
   zwd_m: z.number().describe('Zenith wet delay [m]'),
   ztd_m: z.number().describe('Zenith total delay [m]'),
   met_used: metUsedSchema,
+  geoid_undulation_m: geoidUndulationField,
   ...provenanceFields,
 });

@@ -22,33 +22,11 @@ import {
   zwdM,
   sizedArray,
 } from './common.js';
+import { MAX_MET_RECORDS, MAX_OBSERVATIONS, MAX_QUERY_VALUE_CHARS } from '../../limits.js';
+import { readNumber } from '../../formats/number-text.js';
+import { GRADIENTS_GROUP, rangeText, ZWD_OPTIONS, type OptionSpec } from '../../services/zwd-options.js';
 
-/** Body limit of the route [bytes]: 64 MiB, room for 7 days of 30 s data (~160 000 observations, ~21 MB of JSON). */
-export const ZWD_BODY_LIMIT_BYTES = 64 * 1024 * 1024;
-export const MAX_OBSERVATIONS = 500_000;
-export const MAX_MET_RECORDS = 100_000;
-/** Longest node interval [s]: 30 days. */
-export const MAX_INTERVAL_S = 30 * 86_400;
-
-/** Defaults of every option (README table). */
-export const ZWD_DEFAULTS = {
-  zwd_interval_s: 300,
-  zwd_random_walk_m_per_sqrt_h: 0.01,
-  zwd_apriori_sigma_m: 0.5,
-  gradients: { interval_s: 21_600, random_walk_m_per_sqrt_h: 0.001, apriori_sigma_m: 0.01 },
-  epoch_bias: true,
-  weighting: 'elevation' as const,
-  sigma0_m: 0.003,
-  elevation_cutoff_deg: 7,
-  outlier_threshold: 4,
-  outlier_rejection: 'one-per-window' as const,
-  max_rejections: 1000,
-  scale_sigmas: true,
-  met_max_gap_s: 10_800,
-};
-
-export const WEIGHTING_SCHEMES = ['elevation', 'uniform'] as const;
-export const OUTLIER_REJECTION_MODES = ['one-per-window', 'one-per-solution'] as const;
+export { MAX_INTERVAL_S, MAX_MET_RECORDS, MAX_OBSERVATIONS, ZWD_BODY_LIMIT_BYTES } from '../../limits.js';
 
 export const zwdObservationSchema = z.strictObject({
   epoch: epochSchema,
@@ -77,75 +55,37 @@ export const zwdAprioriSchema = z
   })
   .describe('The a-priori zenith delays the residuals were formed with');
 
-const nullableRandomWalk = (what: string, fallback: number) =>
-  positive('m/√h', `Random-walk density q of ${what}: adjacent nodes x_{j+1} − x_j = 0 ± q √(Δ/1 h); null = no constraint`, 10)
-    .nullable()
-    .default(fallback);
+/** The zod schema of one option of the table (src/services/zwd-options.ts): range, message, default, description. */
+export function optionSchema(spec: OptionSpec): z.ZodType {
+  if (spec.type === 'boolean') {
+    return z.boolean({ error: 'must be true or false' }).default(spec.default).describe(spec.description);
+  }
+  if (spec.type === 'enum') {
+    const message = `must be one of: ${spec.values.join(', ')}`;
+    return z.enum(spec.values, { error: message }).default(spec.default).describe(`${spec.description}; one of ${spec.values.join(', ')}`);
+  }
+  const range = rangeText(spec);
+  const message = `must be ${spec.type === 'integer' ? 'an integer' : 'a number'} in ${range}`;
+  let n = z.number({ error: message });
+  if (spec.type === 'integer') n = n.int({ error: message });
+  n = spec.minExclusive ? n.gt(spec.min, { error: message }) : n.gte(spec.min, { error: message });
+  n = spec.maxExclusive ? n.lt(spec.max, { error: message }) : n.lte(spec.max, { error: message });
+  const description = `${spec.description} [${spec.unit}], ${range}${spec.nullMeans ? `; null = ${spec.nullMeans}` : ''}`;
+  return (spec.nullMeans ? n.nullable().default(spec.default) : n.default(spec.default as number)).describe(description);
+}
 
-const nullableApriori = (what: string, fallback: number, max: number) =>
-  positive('m', `A-priori constraint on the first ${what} node, x_0 = 0 ± σ; null = none`, max).nullable().default(fallback);
+const specs = ZWD_OPTIONS as readonly OptionSpec[];
+const fieldsOf = (group: 'gradients' | undefined) =>
+  Object.fromEntries(specs.filter((s) => s.group === group).map((s) => [s.name, optionSchema(s)])) as Record<string, z.ZodType>;
 
-/** Fields of options.gradients (also the gradient_* query parameters of a CSV request). */
-export const zwdGradientOptionFields = {
-  interval_s: positive('s', 'Spacing of the gradient nodes', MAX_INTERVAL_S).default(ZWD_DEFAULTS.gradients.interval_s),
-  random_walk_m_per_sqrt_h: nullableRandomWalk('each gradient component', ZWD_DEFAULTS.gradients.random_walk_m_per_sqrt_h),
-  apriori_sigma_m: nullableApriori('gradient', ZWD_DEFAULTS.gradients.apriori_sigma_m, 1),
-};
+/** Fields of options.gradients. */
+export const zwdGradientOptionsSchema = z.strictObject(fieldsOf('gradients')).describe(GRADIENTS_GROUP.description);
 
-export const zwdGradientOptionsSchema = z
-  .strictObject(zwdGradientOptionFields)
-  .describe('Horizontal gradients G_N, G_E (Chen & Herring 1997 mapping), piecewise linear; null = not estimated');
-
-const CUTOFF_MESSAGE = 'must be a number in [0, 90) deg';
-
-/** Fields of options (also the query parameters of a CSV request). */
-export const zwdOptionFields = {
-  zwd_interval_s: positive('s', 'Spacing Δ of the ZWD nodes T0 + jΔ (T0 the first epoch used)', MAX_INTERVAL_S).default(ZWD_DEFAULTS.zwd_interval_s),
-  zwd_random_walk_m_per_sqrt_h: nullableRandomWalk('the ZWD', ZWD_DEFAULTS.zwd_random_walk_m_per_sqrt_h),
-  zwd_apriori_sigma_m: nullableApriori('ZWD', ZWD_DEFAULTS.zwd_apriori_sigma_m, 10),
-  gradients: zwdGradientOptionsSchema.nullable().prefault({}),
-  epoch_bias: z
-    .boolean({ error: 'must be true or false' })
-    .default(ZWD_DEFAULTS.epoch_bias)
-    .describe('Estimate one free bias per epoch (receiver clock and other common terms); pre-eliminated'),
-  weighting: z
-    .enum(WEIGHTING_SCHEMES, { error: `must be one of: ${WEIGHTING_SCHEMES.join(', ')}` })
-    .default(ZWD_DEFAULTS.weighting)
-    .describe('σ_i of observations without sigma_m: sigma0_m / sin(e) ("elevation") or sigma0_m ("uniform")'),
-  sigma0_m: positive('m', 'σ0 of the weighting scheme (zenith standard deviation of a residual)', 1).default(ZWD_DEFAULTS.sigma0_m),
-  elevation_cutoff_deg: z
-    .number({ error: CUTOFF_MESSAGE })
-    .gte(0, { error: CUTOFF_MESSAGE })
-    .lt(90, { error: CUTOFF_MESSAGE })
-    .default(ZWD_DEFAULTS.elevation_cutoff_deg)
-    .describe('Observations below this elevation are dropped (and counted) [deg], [0, 90)'),
-  outlier_threshold: bounded(2, 1000, '', 'Reject while the largest |normalised residual| (Pope τ = v/(σ̂0 σ_v)) exceeds k; null = no screening')
-    .nullable()
-    .default(ZWD_DEFAULTS.outlier_threshold),
-  outlier_rejection: z
-    .enum(OUTLIER_REJECTION_MODES, { error: `must be one of: ${OUTLIER_REJECTION_MODES.join(', ')}` })
-    .default(ZWD_DEFAULTS.outlier_rejection)
-    .describe(
-      'one-per-solution: reject the largest τ > k, re-solve, repeat. one-per-window: in each iteration also reject the largest τ > k of every stretch more than max(3 ZWD intervals, 30 min) away from the others (same result at a cost linear in the span)',
-    ),
-  max_rejections: z
-    .number({ error: 'must be an integer in [0, 100000]' })
-    .int({ error: 'must be an integer in [0, 100000]' })
-    .min(0, { error: 'must be an integer in [0, 100000]' })
-    .max(100_000, { error: 'must be an integer in [0, 100000]' })
-    .default(ZWD_DEFAULTS.max_rejections)
-    .describe('Screening stops after this many rejections, with a warning'),
-  scale_sigmas: z
-    .boolean({ error: 'must be true or false' })
-    .default(ZWD_DEFAULTS.scale_sigmas)
-    .describe('Multiply formal errors by √variance_factor (a-posteriori); false = a-priori formal errors'),
-  met_max_gap_s: positive('s', 'Longest gap between met records that is interpolated across', 86_400).default(ZWD_DEFAULTS.met_max_gap_s),
-};
-
+/** options: strict (a misspelt option is an error, not a silently used default); every option has a default. */
 export const zwdOptionsSchema = z
-  .strictObject(zwdOptionFields)
+  .strictObject({ ...fieldsOf(undefined), gradients: zwdGradientOptionsSchema.nullable().prefault({}) })
   .prefault({})
-  .describe('Estimation options; every one has a default');
+  .describe('Estimation options; every one has a default (docs/zwd-estimation.md lists them)');
 
 export const zwdEstimationBody = z.strictObject({
   observations: sizedArray(z
@@ -167,45 +107,50 @@ export type ZwdEstimationBody = z.output<typeof zwdEstimationBody>;
 // ---------------------------------------------------------------------------------------------
 // text/csv requests: the observation table is the body, site and options are query parameters.
 
-/** Query-string value → JSON value: "null"/"off"/"none" → null, "true"/"false" → boolean, numerals → number. */
-function fromQueryString(value: unknown): unknown {
+/**
+ * Query-string value → JSON value: "null"/"off"/"none" → null, "true"/"false" → boolean, numerals →
+ * number (readNumber); anything else stays text for the option's schema to refuse. Values longer
+ * than MAX_QUERY_VALUE_CHARS are refused before anything looks at them.
+ */
+function fromQueryString(value: unknown, ctx: { addIssue: (issue: { code: 'custom'; message: string; input: unknown }) => void }): unknown {
   if (typeof value !== 'string') return value;
+  if (value.length > MAX_QUERY_VALUE_CHARS) {
+    ctx.addIssue({ code: 'custom', message: `a value of ${value.length} characters; at most ${MAX_QUERY_VALUE_CHARS}`, input: value.slice(0, 20) });
+    return z.NEVER;
+  }
   const v = value.trim();
   if (v === 'null' || v === 'off' || v === 'none') return null;
   if (v === 'true' || v === 'false') return v === 'true';
-  return /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(v) ? Number(v) : value;
+  return readNumber(v) ?? value;
 }
 
-const param = <T extends z.ZodType>(schema: T) => z.preprocess(fromQueryString, schema);
+/** A query parameter read from text by fromQueryString, then checked by `schema`. */
+export const queryParam = <T extends z.ZodType>(schema: T) => z.preprocess(fromQueryString, schema);
+
+/** The option query parameters of a text/csv request, one per table entry (by flatName), and gradients=on|off. */
+export const zwdOptionQueryFields = {
+  ...Object.fromEntries(specs.map((s) => [s.flatName, queryParam(optionSchema(s))])),
+  gradients: z.enum(['on', 'off'], { error: 'must be on or off' }).default('on').describe('Estimate gradients (on) or not (off)'),
+} as Record<string, z.ZodType>;
 
 /** Query parameters of a text/csv request (ignored for JSON bodies). Site parameters are required with CSV. */
 export const zwdCsvQuerySchema = z.object({
-  latitude_deg: param(siteSchema.shape.latitude_deg.optional()),
-  longitude_deg: param(siteSchema.shape.longitude_deg.optional()),
-  height_m: param(siteSchema.shape.height_m.optional()),
-  apriori_zhd_m: param(zwdAprioriSchema.shape.zhd_m),
-  apriori_zwd_m: param(zwdAprioriSchema.shape.zwd_m),
-  zwd_interval_s: param(zwdOptionFields.zwd_interval_s),
-  zwd_random_walk_m_per_sqrt_h: param(zwdOptionFields.zwd_random_walk_m_per_sqrt_h),
-  zwd_apriori_sigma_m: param(zwdOptionFields.zwd_apriori_sigma_m),
-  gradients: z
-    .enum(['on', 'off'], { error: 'must be on or off' })
-    .default('on')
-    .describe('Estimate gradients (on) or not (off)'),
-  gradient_interval_s: param(zwdGradientOptionFields.interval_s),
-  gradient_random_walk_m_per_sqrt_h: param(zwdGradientOptionFields.random_walk_m_per_sqrt_h),
-  gradient_apriori_sigma_m: param(zwdGradientOptionFields.apriori_sigma_m),
-  epoch_bias: param(zwdOptionFields.epoch_bias),
-  weighting: zwdOptionFields.weighting,
-  sigma0_m: param(zwdOptionFields.sigma0_m),
-  elevation_cutoff_deg: param(zwdOptionFields.elevation_cutoff_deg),
-  outlier_threshold: param(zwdOptionFields.outlier_threshold),
-  outlier_rejection: zwdOptionFields.outlier_rejection,
-  max_rejections: param(zwdOptionFields.max_rejections),
-  scale_sigmas: param(zwdOptionFields.scale_sigmas),
+  latitude_deg: queryParam(siteSchema.shape.latitude_deg.optional()),
+  longitude_deg: queryParam(siteSchema.shape.longitude_deg.optional()),
+  height_m: queryParam(siteSchema.shape.height_m.optional()),
+  apriori_zhd_m: queryParam(zwdAprioriSchema.shape.zhd_m),
+  apriori_zwd_m: queryParam(zwdAprioriSchema.shape.zwd_m),
+  ...zwdOptionQueryFields,
 });
 
-export type ZwdCsvQuery = z.output<typeof zwdCsvQuerySchema>;
+/** Query values (as validated) → the JSON `options` object they stand for. */
+export function optionsFromQuery(q: Record<string, unknown>): Record<string, unknown> {
+  const top: Record<string, unknown> = {};
+  const gradients: Record<string, unknown> = {};
+  for (const s of specs) (s.group === 'gradients' ? gradients : top)[s.name] = q[s.flatName];
+  return { ...top, gradients: q.gradients === 'off' ? null : gradients };
+}
+
 export type ZwdEstimationOptionsBody = z.output<typeof zwdOptionsSchema>;
 
 // ---------------------------------------------------------------------------------------------

@@ -4,6 +4,14 @@
  * so replicas that start at the same moment migrate one after the other and none sees a half-made
  * schema. Bulk writes bind whole columns as arrays (unnest) in chunks, all in one transaction.
  *
+ * Faults: every pooled client carries an 'error' listener for its whole life (a connection that
+ * drops while checked out, e.g. pg_terminate_backend or a failover, otherwise raises an unhandled
+ * 'error' event and ends the process); connections have a connect/acquire timeout, TCP keepalive, a
+ * server-side statement_timeout and a client-side query timeout a second longer (a blackholed server
+ * never answers the server-side one). Writes lock rows in key order and run again on a deadlock or
+ * serialization failure (withConflictRetry); what still fails reaches the HTTP edge as a driver error
+ * that storage/errors.ts classifies.
+ *
  * Only bound parameters reach SQL; the schema name is checked against a strict identifier pattern
  * (config.ts) and quoted.
  */
@@ -12,6 +20,7 @@ import pg from 'pg';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
 import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, SurfaceMetRow, TimeRange, WriteCounts, ZenithDelayRow } from '../repository.js';
 import { UnknownStationError } from '../repository.js';
+import { withConflictRetry } from '../errors.js';
 import {
   DELAY_SELECT,
   MET_SELECT,
@@ -38,6 +47,23 @@ export interface PostgresOptions {
   schema?: string;
   /** Pool size (default 10). */
   max?: number;
+  /** Longest wait for a connection, new or from the pool [ms] (default 5000). */
+  connectTimeoutMs?: number;
+  /** statement_timeout of every session [ms]; the client gives up 1 s later (default 30 000). */
+  statementTimeoutMs?: number;
+  /** Told about connection errors outside a query (they are handled; this is for the log). */
+  onConnectionError?: (err: Error) => void;
+}
+
+/** Default timeouts [ms] (README configuration table: DB_CONNECT_TIMEOUT_MS, DB_STATEMENT_TIMEOUT_MS). */
+export const DEFAULT_CONNECT_TIMEOUT_MS = 5_000;
+export const DEFAULT_STATEMENT_TIMEOUT_MS = 30_000;
+/** Idle time before the first TCP keepalive probe [ms]: a dead peer is noticed in about a minute, not hours. */
+const KEEPALIVE_DELAY_MS = 10_000;
+
+/** Orders rows by their key (epoch, then source) so that every writer locks them in the same order. */
+function byKey<T extends { epochMs: number; source: string }>(rows: readonly T[]): T[] {
+  return [...rows].sort((a, b) => a.epochMs - b.epochMs || (a.source < b.source ? -1 : a.source > b.source ? 1 : 0));
 }
 
 function quoteIdent(name: string): string {
@@ -50,6 +76,9 @@ export async function migratePostgres(pool: pg.Pool, schema: string): Promise<nu
   const client = await pool.connect();
   const applied: number[] = [];
   try {
+    // Waiting for another replica's migration, or a migration of a big table, may take longer than
+    // the statement timeout meant for requests.
+    await client.query('SET statement_timeout = 0');
     await client.query('SELECT pg_advisory_lock($1)', [MIGRATION_LOCK_KEY]);
     try {
       await client.query(`CREATE SCHEMA IF NOT EXISTS ${quoteIdent(schema)}`);
@@ -78,6 +107,7 @@ export async function migratePostgres(pool: pg.Pool, schema: string): Promise<nu
     } finally {
       await client.query('SELECT pg_advisory_unlock($1)', [MIGRATION_LOCK_KEY]);
       await client.query('RESET search_path');
+      await client.query('RESET statement_timeout');
     }
   } finally {
     client.release();
@@ -99,15 +129,27 @@ export class PostgresRepository implements Repository {
   static async open(options: PostgresOptions): Promise<PostgresRepository> {
     const schema = options.schema ?? 'public';
     quoteIdent(schema);
+    const statementTimeoutMs = options.statementTimeoutMs ?? DEFAULT_STATEMENT_TIMEOUT_MS;
+    const onConnectionError = options.onConnectionError ?? (() => undefined);
     const pool = new pg.Pool({
       connectionString: options.connectionString,
       max: options.max ?? 10,
       // Every connection resolves the archive's table names in its schema.
       options: `-c search_path=${schema}`,
+      connectionTimeoutMillis: options.connectTimeoutMs ?? DEFAULT_CONNECT_TIMEOUT_MS,
+      keepAlive: true,
+      keepAliveInitialDelayMillis: KEEPALIVE_DELAY_MS,
+      statement_timeout: statementTimeoutMs,
+      // A session that died inside a transaction frees its locks after this long.
+      idle_in_transaction_session_timeout: statementTimeoutMs,
+      query_timeout: statementTimeoutMs + 1_000,
     });
-    pool.on('error', () => {
-      // An idle client lost its connection; the pool replaces it. Queries in flight get their own error.
-    });
+    // An idle client lost its connection; the pool drops it and opens a new one when needed.
+    pool.on('error', onConnectionError);
+    // The pool listens for errors only while a client is idle. A client checked out by a request
+    // whose connection drops between two queries (or under a query: pg emits 'error' as well as
+    // failing the query) would raise an unhandled 'error' event; this listener stays for its life.
+    pool.on('connect', (client) => client.on('error', onConnectionError));
     try {
       await migratePostgres(pool, schema);
     } catch (err) {
@@ -117,19 +159,29 @@ export class PostgresRepository implements Repository {
     return new PostgresRepository(pool, schema);
   }
 
+  /**
+   * Runs `work` in one transaction, and all of it again on a deadlock or serialization failure
+   * (withConflictRetry; the failed attempt was rolled back whole). A client whose ROLLBACK fails
+   * (its connection is gone) is destroyed instead of going back to the pool.
+   */
   private async transaction<T>(work: (client: pg.PoolClient) => Promise<T>): Promise<T> {
-    const client = await this.pool.connect();
-    try {
-      await client.query('BEGIN');
-      const result = await work(client);
-      await client.query('COMMIT');
-      return result;
-    } catch (err) {
-      await client.query('ROLLBACK').catch(() => undefined);
-      throw err;
-    } finally {
-      client.release();
-    }
+    return withConflictRetry(async () => {
+      const client = await this.pool.connect();
+      let broken: Error | undefined;
+      try {
+        await client.query('BEGIN');
+        const result = await work(client);
+        await client.query('COMMIT');
+        return result;
+      } catch (err) {
+        await client.query('ROLLBACK').catch((rollbackErr: unknown) => {
+          broken = rollbackErr instanceof Error ? rollbackErr : new Error(String(rollbackErr));
+        });
+        throw err;
+      } finally {
+        client.release(broken);
+      }
+    });
   }
 
   async putStation(stationId: string, s: StationInput): Promise<{ station: Station; created: boolean }> {
@@ -172,8 +224,9 @@ export class PostgresRepository implements Repository {
       await this.lockStation(client, stationId);
       let returned = 0;
       let inserted = 0;
-      for (let start = 0; start < rows.length; start += CHUNK_ROWS) {
-        const chunk = rows.slice(start, start + CHUNK_ROWS);
+      const sorted = byKey(rows);
+      for (let start = 0; start < sorted.length; start += CHUNK_ROWS) {
+        const chunk = sorted.slice(start, start + CHUNK_ROWS);
         const result = await client.query<{ inserted: boolean }>(
           `INSERT INTO met_records (station_id, epoch_ms, source, pressure_hpa, temperature_c, relative_humidity_pct, dewpoint_c, vapour_pressure_hpa)
            SELECT $1, * FROM unnest($2::bigint[], $3::text[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::float8[])
@@ -223,8 +276,9 @@ export class PostgresRepository implements Repository {
       const cols = ['ztd_m', 'ztd_sigma_m', 'zwd_m', 'zwd_sigma_m', 'north_gradient_m', 'east_gradient_m', 'north_gradient_sigma_m', 'east_gradient_sigma_m'];
       const current = cols.map((c) => `delay_records.${c}`).join(', ') + ', delay_records.model_fingerprint';
       const excluded = cols.map((c) => `EXCLUDED.${c}`).join(', ') + ', EXCLUDED.model_fingerprint';
-      for (let start = 0; start < rows.length; start += CHUNK_ROWS) {
-        const chunk = rows.slice(start, start + CHUNK_ROWS);
+      const sorted = byKey(rows);
+      for (let start = 0; start < sorted.length; start += CHUNK_ROWS) {
+        const chunk = sorted.slice(start, start + CHUNK_ROWS);
         const result = await client.query<{ inserted: boolean }>(
           `INSERT INTO delay_records (station_id, epoch_ms, source, ${cols.join(', ')}, model_fingerprint)
            SELECT $1, e, s, v1, v2, v3, v4, v5, v6, v7, v8, $12

@@ -4,6 +4,11 @@
  * returns and survives a crash of the process or of the machine. better-sqlite3 is synchronous;
  * the methods still return promises to share the Repository interface.
  *
+ * Faults: a write that finds the database locked by another process waits up to busyTimeoutMs, then
+ * runs again a few times (withConflictRetry); a full disk (SQLITE_FULL), a read-only file and I/O
+ * errors reach the HTTP edge as driver errors that storage/errors.ts classifies (503). Every write
+ * is one transaction, so a failed one leaves nothing behind.
+ *
  * Only bound parameters reach SQL.
  */
 
@@ -13,6 +18,7 @@ import Database from 'better-sqlite3';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
 import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StoredModelSet, SurfaceMetRow, TimeRange, WriteCounts, ZenithDelayRow } from '../repository.js';
 import { UnknownStationError } from '../repository.js';
+import { withConflictRetry } from '../errors.js';
 import {
   DELAY_SELECT,
   MET_SELECT,
@@ -35,6 +41,8 @@ export const SQLITE_FILE_NAME = 'tropodelay.sqlite';
 export interface SqliteOptions {
   /** Directory of the database file, created when missing; ':memory:' for a throw-away database. */
   dataDir: string;
+  /** How long a statement waits for another process's write lock [ms] (default 5000). */
+  busyTimeoutMs?: number;
 }
 
 export function migrateSqlite(db: Database.Database): number[] {
@@ -71,7 +79,7 @@ export class SqliteRepository implements Repository {
     this.db.pragma('journal_mode = WAL');
     this.db.pragma('synchronous = FULL');
     this.db.pragma('foreign_keys = ON');
-    this.db.pragma('busy_timeout = 5000');
+    this.db.pragma(`busy_timeout = ${Math.round(options.busyTimeoutMs ?? 5000)}`);
     migrateSqlite(this.db);
 
     const metSet = 'pressure_hpa = ?, temperature_c = ?, relative_humidity_pct = ?, dewpoint_c = ?, vapour_pressure_hpa = ?';
@@ -123,7 +131,7 @@ export class SqliteRepository implements Repository {
       }
       return { station: toStation(this.stmt.getStation.get(stationId) as StationDbRow), created: !existing };
     });
-    return tx.immediate();
+    return withConflictRetry(async () => tx.immediate());
   }
 
   async getStation(stationId: string): Promise<Station | null> {
@@ -136,7 +144,8 @@ export class SqliteRepository implements Repository {
   }
 
   async deleteStation(stationId: string): Promise<boolean> {
-    return this.db.transaction(() => this.stmt.deleteStation.run(stationId).changes > 0).immediate();
+    const tx = this.db.transaction(() => this.stmt.deleteStation.run(stationId).changes > 0);
+    return withConflictRetry(async () => tx.immediate());
   }
 
   async writeMet(stationId: string, rows: readonly MetRow[]): Promise<WriteCounts> {
@@ -151,7 +160,7 @@ export class SqliteRepository implements Repository {
       }
       return counts;
     });
-    return tx.immediate();
+    return withConflictRetry(async () => tx.immediate());
   }
 
   async readMet(stationId: string, range: TimeRange, source?: string): Promise<MetRow[]> {
@@ -176,7 +185,7 @@ export class SqliteRepository implements Repository {
       }
       return counts;
     });
-    return tx.immediate();
+    return withConflictRetry(async () => tx.immediate());
   }
 
   async readDelays(stationId: string, range: TimeRange, source?: string): Promise<DelayRow[]> {

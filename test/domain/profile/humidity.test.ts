@@ -4,7 +4,7 @@ import { moistSaturationVapourPressureHpa, profileEnhancementFactor, vapourPress
 import { HPA } from '../../helpers/units.js';
 
 describe('humidity quantities of a level → vapour pressure', () => {
-  it('saturation over water at 20 °C, 1000 hPa: CRC Handbook 23.388 hPa (73rd ed.; published-constants.md) times f(p) ≈ 1.0047 (WMO-No. 8, from memory), within the 0.3 % of the Magnus form', () => {
+  it('saturation over water at 20 °C, 1000 hPa: CRC Handbook 23.388 hPa (73rd ed.; docs/constants.md) times f(p) ≈ 1.0047 (WMO-No. 8, from memory), within the 0.3 % of the Magnus form', () => {
     const e = vapourPressureOfLevelHpa('relative_humidity_pct', 100, 20, 1000);
     expect(Math.abs(e / (23.388 * 1.0047) - 1)).toBeLessThan(0.003);
   });

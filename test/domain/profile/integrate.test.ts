@@ -14,7 +14,7 @@ import { computeProfileDelays } from '../../../src/domain/profile/profile-delays
 import { simpson, toDomainLevels } from '../../helpers/profiles.js';
 import { DEG, MM } from '../../helpers/units.js';
 
-/** Saastamoinen ZHD in the form of Davis et al. (1985), IERS Conventions (2010) eq. 9.11 (constant from memory; published-constants.md). */
+/** Saastamoinen ZHD in the form of Davis et al. (1985), IERS Conventions (2010) eq. 9.11 (constant from memory; docs/constants.md). */
 const saastamoinenZhdM = (pressureHpa: number, latitudeDeg: number, heightM: number) =>
   (0.0022768 * pressureHpa) / (1 - 0.00266 * Math.cos(2 * latitudeDeg * DEG) - 0.28e-6 * heightM);
 
@@ -140,7 +140,7 @@ describe('humid columns against the generator’s truth (U.S. Standard Atmospher
 
 describe('Tm plausibility for realistic columns', () => {
   // Common practice: Tm lies between the surface temperature and about 30 K below it; Bevis et al.
-  // (1992) fit Tm = 70.2 + 0.72 Ts with an rms scatter of 4.74 K (from memory; published-constants.md):
+  // (1992) fit Tm = 70.2 + 0.72 Ts with an rms scatter of 4.74 K (from memory; docs/constants.md):
   // we ask for agreement within 3 × 4.74 K.
   it.each([
     [-15, 70, 0],

@@ -8,7 +8,7 @@ import {
   wetRefractivity,
 } from '../../../src/domain/profile/refractivity.js';
 
-/** Published constant sets, typed here from the sources (all from memory; published-constants.md). [k1 K/hPa, k2 K/hPa, k3 K²/hPa] */
+/** Published constant sets, typed here from the sources (all from memory; docs/constants.md). [k1 K/hPa, k2 K/hPa, k3 K²/hPa] */
 const PUBLISHED = {
   // Smith & Weintraub (1953), Proc. IRE 41, 1035–1037, as tabulated by Bevis et al. (1994) Table 1.
   'smith-weintraub-1953': [77.61, 72, 3.75e5],
@@ -68,7 +68,7 @@ describe('hydrostatic/wet split of Davis et al. (1985), Radio Sci. 20, 1593–16
     }
   });
 
-  it('1e-6 k1 Rd / g_m with Thayer’s k1 is Saastamoinen’s 0.0022768 m/hPa (IERS Conventions 2010 eq. 9.11; published-constants.md)', () => {
+  it('1e-6 k1 Rd / g_m with Thayer’s k1 is Saastamoinen’s 0.0022768 m/hPa (IERS Conventions 2010 eq. 9.11; docs/constants.md)', () => {
     const zhdPerHpa = (1e-6 * REFRACTIVITY_CONSTANT_SETS['thayer-1974'].k1KPerHpa * 287.0464) / 9.784;
     expect(Math.abs(zhdPerHpa - 0.0022768)).toBeLessThan(5e-8);
   });

@@ -12,7 +12,7 @@ import {
 } from '../../../scripts/generators/us-standard-atmosphere-1976.js';
 import { HPA } from '../../helpers/units.js';
 
-describe('U.S. Standard Atmosphere 1976, geometric altitudes (published-constants.md, computed from the defining constants)', () => {
+describe('U.S. Standard Atmosphere 1976, geometric altitudes (docs/constants.md, computed from the defining constants)', () => {
   // [altitude m, pressure hPa, temperature K]; pressures given to 0.01 hPa, temperatures to 0.001 K.
   const TABLE: [number, number, number][] = [
     [0, 1013.25, 288.15],

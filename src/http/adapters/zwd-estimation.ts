@@ -1,0 +1,137 @@
+/**
+ * Adapters of the ZWD estimation between the API shape (snake_case, unit suffixes, degrees, ISO
+ * epochs) and the domain shape of src/services/zwd-estimation.ts (camelCase, SI, radians, ms).
+ */
+
+import { DEG } from '../../domain/constants.js';
+import type { Site } from '../../domain/site.js';
+import type { MetColumns } from '../../services/station-met.js';
+import { warningTexts } from '../../services/warnings.js';
+import type { ZwdEstimationRequest, ZwdEstimationResult } from '../../services/zwd-estimation.js';
+import { GRADIENTS_GROUP, ZWD_OPTIONS, type OptionSpec, type ZwdOptionValues } from '../../services/zwd-options.js';
+import type { ZwdEstimatesResponse, ZwdEstimationBody } from '../schemas/zwd-estimates.js';
+
+const iso = (ms: number) => new Date(ms).toISOString();
+
+/** options (validated, defaults applied) → domain option values, entry by entry of the table. */
+export function toOptionValues(options: ZwdEstimationBody['options']): ZwdOptionValues {
+  const o = options as Record<string, unknown> & { gradients: Record<string, unknown> | null };
+  const values: Record<string, unknown> = { gradients: o.gradients !== null };
+  for (const spec of ZWD_OPTIONS as readonly OptionSpec[]) {
+    values[spec.key] = spec.group === GRADIENTS_GROUP.name ? (o.gradients?.[spec.name] ?? spec.default) : o[spec.name];
+  }
+  return values as ZwdOptionValues;
+}
+
+/** The validated body (site from the body or the station) → the domain request. `storedMet` serves when the body has no met. */
+export function toZwdRequest(site: Site, body: ZwdEstimationBody, storedMet?: MetColumns): ZwdEstimationRequest {
+  const n = body.observations.length;
+  const epochMs = new Array<number>(n);
+  const satellite = new Array<string>(n);
+  const elevationRad = new Array<number>(n);
+  const azimuthRad = new Array<number>(n);
+  const residualM = new Array<number>(n);
+  let sigmaM: (number | null)[] | undefined;
+  for (let i = 0; i < n; i++) {
+    const obs = body.observations[i]!;
+    epochMs[i] = Date.parse(obs.epoch);
+    satellite[i] = obs.satellite;
+    elevationRad[i] = obs.elevation_deg * DEG;
+    azimuthRad[i] = obs.azimuth_deg * DEG;
+    residualM[i] = obs.residual_m;
+    if (obs.sigma_m !== undefined) {
+      sigmaM ??= new Array<number | null>(n).fill(null);
+      sigmaM[i] = obs.sigma_m;
+    }
+  }
+  const met: MetColumns | undefined = body.met
+    ? {
+        epochMs: body.met.map((r) => Date.parse(r.epoch)),
+        pressureHpa: body.met.map((r) => r.pressure_hpa),
+        temperatureC: body.met.map((r) => r.temperature_c),
+      }
+    : storedMet && storedMet.epochMs.length > 0
+      ? storedMet
+      : undefined;
+  return {
+    site,
+    observations: { epochMs, satellite, elevationRad, azimuthRad, residualM, sigmaM },
+    apriori: { zhdM: body.apriori?.zhd_m, zwdM: body.apriori?.zwd_m },
+    met,
+    options: toOptionValues(body.options),
+  };
+}
+
+/** The domain result → the API answer of POST /v1/zwd-estimates. */
+export function zwdEstimatesResponseOf(r: ZwdEstimationResult, extraWarnings: readonly string[] = []): ZwdEstimatesResponse {
+  const { estimate: out, aprioriZwdM } = r;
+  const aprioriZtdM = r.aprioriZhdM + aprioriZwdM;
+  const s = out.statistics;
+  return {
+    zwd_nodes: out.zwdNodes.map((n) => ({ epoch: iso(n.epochMs), correction_m: n.correctionM, zwd_m: aprioriZwdM + n.correctionM, sigma_m: n.sigmaM })),
+    gradient_nodes: out.gradientNodes.map((g) => ({
+      epoch: iso(g.epochMs),
+      north_m: g.northM,
+      east_m: g.eastM,
+      north_sigma_m: g.northSigmaM,
+      east_sigma_m: g.eastSigmaM,
+    })),
+    series: out.epochs.map((e, k) => {
+      const base = {
+        epoch: iso(e.epochMs),
+        correction_m: e.correctionM,
+        zwd_m: aprioriZwdM + e.correctionM,
+        sigma_m: e.sigmaM,
+        north_gradient_m: e.northGradientM,
+        east_gradient_m: e.eastGradientM,
+        north_gradient_sigma_m: e.northGradientSigmaM,
+        east_gradient_sigma_m: e.eastGradientSigmaM,
+        epoch_bias_m: e.epochBiasM,
+        observations: e.observationsUsed,
+        ztd_m: aprioriZtdM + e.correctionM,
+      };
+      const m = r.epochMet?.[k];
+      if (!m) return base;
+      if (m.met === 'missing') return { ...base, met: m.met };
+      return {
+        ...base,
+        met: m.met,
+        zhd_m: m.zhdM!,
+        zwd_m: m.zwdM!,
+        tm_k: m.tmK!,
+        pwv_mm: m.pwvMm!,
+        pwv_sigma_mm: m.pwvSigmaMm!,
+        pwv_total_sigma_mm: m.pwvTotalSigmaMm!,
+      };
+    }),
+    rejected: out.rejected.map((x) => ({
+      index: x.index,
+      epoch: iso(x.epochMs),
+      satellite: x.satellite,
+      residual_m: x.residualM,
+      fitted_residual_m: x.fittedResidualM,
+      normalized_residual: x.normalizedResidual,
+    })),
+    statistics: {
+      observations_total: s.observationsTotal,
+      observations_below_cutoff: s.observationsBelowCutoff,
+      observations_used: s.observationsUsed,
+      observations_rejected: s.observationsRejected,
+      epochs: s.epochs,
+      zwd_nodes: s.zwdNodes,
+      gradient_nodes: s.gradientNodes,
+      unknowns: s.unknowns,
+      constraints: s.constraints,
+      degrees_of_freedom: s.degreesOfFreedom,
+      rms_m: s.rmsM,
+      variance_factor: s.varianceFactor,
+      sigma_scale: s.sigmaScale,
+      solutions: s.solutions,
+      screening_complete: s.screeningComplete,
+    },
+    apriori: { zhd_m: r.aprioriZhdM, zwd_m: aprioriZwdM, zhd_source: r.zhdSource },
+    models: r.models,
+    model_fingerprint: r.modelFingerprint,
+    warnings: [...warningTexts(r.warnings), ...extraWarnings],
+  };
+}

@@ -1,0 +1,26 @@
+/**
+ * The request tasks that run in the worker pool (src/workers), by name: where each lives (module
+ * and export, loaded by the worker thread) and, for the types of `app.compute.run`, what it is.
+ * Adding a task: a function of plain data returning a TaskOutcome (src/http/tasks/ for request
+ * work at the HTTP edge), one line in each of the two tables below.
+ */
+
+import type { TaskLocation } from '../workers/compute-pool.js';
+import type { handleZwdRequest, scanZwdRequest } from './tasks/zwd-request.js';
+
+export type ComputeTasks = {
+  /** A whole POST .../zwd-estimates request: parse, validate, estimate, serialise (and for a station, the rows to store). */
+  'zwd-estimate-request': typeof handleZwdRequest;
+  /** First pass of a station's estimation: the epoch range of the observations and whether the body has met. */
+  'zwd-request-scan': typeof scanZwdRequest;
+};
+
+export type ComputeTaskName = keyof ComputeTasks;
+
+const ext = import.meta.url.endsWith('.ts') ? 'ts' : 'js';
+const zwdRequestModule = new URL(`./tasks/zwd-request.${ext}`, import.meta.url).href;
+
+export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
+  'zwd-estimate-request': { module: zwdRequestModule, exportName: 'handleZwdRequest' },
+  'zwd-request-scan': { module: zwdRequestModule, exportName: 'scanZwdRequest' },
+};

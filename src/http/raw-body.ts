@@ -1,0 +1,35 @@
+/**
+ * The raw-body pipeline of the ZWD-estimation routes (one for both): in the route's scope JSON stays
+ * bytes, the body part of the route schema is not validated on the event loop (the worker validates
+ * it against the same schema, src/http/tasks/zwd-request.ts), and the content type picks the format.
+ */
+
+import type { FastifyInstance, FastifyRequest, FastifySchemaCompiler } from 'fastify';
+import { validatorCompiler } from 'fastify-type-provider-zod';
+import { HttpProblem } from './problem.js';
+
+/** In this plugin scope, application/json bodies reach the handler as a Buffer. */
+export function keepJsonBodiesAsBytes(app: FastifyInstance): void {
+  app.removeContentTypeParser('application/json');
+  app.addContentTypeParser('application/json', { parseAs: 'buffer' }, (_request, body, done) => done(null, body));
+}
+
+/** Route validator: params and query as usual; the body passes through (validated in the worker). */
+// fastify types a route's validatorCompiler with the whole route schema; each call gets one part's zod schema.
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export const bodyInWorkerValidator: FastifySchemaCompiler<any> = (route) =>
+  route.httpPart === 'body' ? (data: unknown) => ({ value: data }) : validatorCompiler(route as unknown as Parameters<typeof validatorCompiler>[0]);
+
+export interface RawBody {
+  body: Uint8Array | string;
+  format: 'json' | 'csv';
+}
+
+/** The body as bytes (JSON) or text (CSV); any other content type is a 415. */
+export function rawBodyOf(request: FastifyRequest): RawBody {
+  const raw = request.body as Buffer | string;
+  const type = (request.headers['content-type'] ?? '').split(';')[0]!.trim().toLowerCase();
+  const format = type === 'text/csv' ? 'csv' : type === 'application/json' ? 'json' : undefined;
+  if (!format) throw new HttpProblem(415, `content type ${type || '(none)'} is not accepted here; send application/json or text/csv`);
+  return { body: typeof raw === 'string' ? raw : new Uint8Array(raw.buffer, raw.byteOffset, raw.byteLength), format };
+}

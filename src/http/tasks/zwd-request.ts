@@ -1,0 +1,179 @@
+/**
+ * The ZWD-estimation requests as compute tasks (run in a worker thread by src/workers): the body
+ * bytes are parsed (JSON, or CSV by src/formats/observation-csv.ts with the options from the query),
+ * validated against the route's schema, turned into the domain request (adapters), estimated by
+ * src/services/zwd-estimation.ts, and the answer is serialised here. What comes back to the event
+ * loop is only what the route sends (the JSON text) and, for a station, the delay columns it stores.
+ *
+ * This module is the HTTP edge running off the loop: it uses the zod schemas of src/http, which the
+ * inner layers never import. src/http/compute-tasks.ts registers it with the pool.
+ */
+
+import { ModelDomainError } from '../../domain/errors.js';
+import type { Site } from '../../domain/site.js';
+import { FormatError } from '../../formats/format-error.js';
+import { readObservationCsv } from '../../formats/observation-csv.js';
+import { CallerError } from '../../services/caller-error.js';
+import type { MetColumns } from '../../services/station-met.js';
+import { delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
+import type { TaskOutcome } from '../../workers/task-outcome.js';
+import { toZwdRequest, zwdEstimatesResponseOf } from '../adapters/zwd-estimation.js';
+import { detailOf, issuesToFieldErrors } from '../field-errors.js';
+import type { FieldError } from '../problem.js';
+import { optionsFromQuery, zwdCsvQuerySchema, zwdEstimatesRequest, zwdEstimationBody, type ZwdEstimationBody } from '../schemas/zwd-estimates.js';
+
+export interface ZwdRequestTaskInput {
+  /** The request body as received: JSON bytes or CSV text. */
+  body: Uint8Array | string;
+  format: 'json' | 'csv';
+  /** Raw query parameters (options of a CSV request). */
+  query: Record<string, unknown>;
+  /** A station's estimation: the site is the station's (then `site` in the body is refused). */
+  station?: {
+    site: Site;
+    /** The station's stored met at the antenna height, used when the body has no met. */
+    storedMet?: MetColumns | undefined;
+    /** Warnings the route adds (e.g. a bounded met read). */
+    warnings?: string[] | undefined;
+  };
+}
+
+export interface ZwdRequestTaskOutput {
+  /** The answer as JSON text. For a station: without its closing brace, so the route appends `stored`. */
+  json: string;
+  /** Observations sent, for the metrics. */
+  observations: number;
+  /** A station's estimation: what to store. */
+  delays?: DelayColumns;
+  modelFingerprint?: string;
+  models?: Record<string, string | number | boolean | null>;
+}
+
+function fail(status: number, errors: FieldError[]): TaskOutcome<never> {
+  return { ok: false, error: { status, detail: detailOf(errors), errors } };
+}
+
+const bodyText = (body: Uint8Array | string) =>
+  typeof body === 'string' ? body : Buffer.from(body.buffer, body.byteOffset, body.byteLength).toString('utf8');
+
+/** The body as the JSON-equivalent object: a CSV table plus query options, or the parsed JSON. */
+function rawBody(input: ZwdRequestTaskInput, text: string, siteKnown: boolean): unknown {
+  if (input.format === 'json') {
+    try {
+      return JSON.parse(text);
+    } catch (err) {
+      throw new FormatError('body', `not valid JSON (${err instanceof Error ? err.message : String(err)})`);
+    }
+  }
+  const parsed = zwdCsvQuerySchema.safeParse(input.query ?? {});
+  if (!parsed.success) {
+    const errors = issuesToFieldErrors(parsed.error.issues, 'query');
+    throw new CallerError(400, detailOf(errors), errors);
+  }
+  const q = parsed.data as Record<string, unknown>;
+  const missingSite = siteKnown ? [] : (['latitude_deg', 'longitude_deg', 'height_m'] as const).filter((k) => q[k] === undefined);
+  if (missingSite.length) {
+    const errors = missingSite.map((k) => ({ field: `query.${k}`, message: 'required with a text/csv body (the site)' }));
+    throw new CallerError(400, `${errors[0]!.field}: ${errors[0]!.message}`, errors);
+  }
+  const apriori = Object.fromEntries(Object.entries({ zhd_m: q.apriori_zhd_m, zwd_m: q.apriori_zwd_m }).filter(([, v]) => v !== undefined));
+  return {
+    ...(siteKnown ? {} : { site: { latitude_deg: q.latitude_deg, longitude_deg: q.longitude_deg, height_m: q.height_m } }),
+    observations: readObservationCsv(text),
+    ...(Object.keys(apriori).length ? { apriori } : {}),
+    options: optionsFromQuery(q),
+  };
+}
+
+/** Errors of the caller's making as data; anything else is rethrown (a 500). */
+function asOutcome(err: unknown): TaskOutcome<never> {
+  if (err instanceof FormatError) return fail(400, [{ field: err.field, message: err.reason }]);
+  if (err instanceof CallerError) return { ok: false, error: { status: err.status, detail: err.message, ...(err.errors.length ? { errors: err.errors } : {}) } };
+  if (err instanceof ModelDomainError) return fail(err.status, [{ field: err.field, message: err.message }]);
+  throw err;
+}
+
+/** POST /v1/zwd-estimates and POST /v1/stations/{id}/zwd-estimates: parse, validate, estimate, serialise. */
+export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<TaskOutcome<ZwdRequestTaskOutput>> {
+  try {
+    const station = input.station;
+    const raw = rawBody(input, bodyText(input.body), station !== undefined);
+    let site: Site;
+    let body: ZwdEstimationBody;
+    if (station) {
+      const parsed = zwdEstimationBody.safeParse(raw);
+      if (!parsed.success) return fail(400, issuesToFieldErrors(parsed.error.issues));
+      site = station.site;
+      body = parsed.data;
+    } else {
+      const parsed = zwdEstimatesRequest.safeParse(raw);
+      if (!parsed.success) return fail(400, issuesToFieldErrors(parsed.error.issues));
+      const { site: s, ...rest } = parsed.data;
+      site = { latitudeDeg: s.latitude_deg, longitudeDeg: s.longitude_deg, heightM: s.height_m };
+      body = rest;
+    }
+    const request = toZwdRequest(site, body, station?.storedMet);
+    const result = runZwdEstimation(request);
+    if (!station) return { ok: true, output: { json: JSON.stringify(zwdEstimatesResponseOf(result)), observations: body.observations.length } };
+
+    const metUsed = body.met !== undefined ? 'request' : request.met ? 'archive' : 'none';
+    const metWarnings = [
+      ...(station.warnings ?? []),
+      ...(metUsed === 'archive' ? [`met: ${request.met!.epochMs.length} records of the station's stored met series`] : []),
+      ...(metUsed === 'none' ? ['met: neither in the request nor stored for this station around the observations; no ZHD or PWV per epoch'] : []),
+    ];
+    const json = JSON.stringify({ ...zwdEstimatesResponseOf(result, metWarnings), met_used: metUsed });
+    return {
+      ok: true,
+      output: {
+        json: json.slice(0, -1),
+        observations: body.observations.length,
+        delays: delayColumns(result),
+        modelFingerprint: result.modelFingerprint,
+        models: result.models,
+      },
+    };
+  } catch (err) {
+    return asOutcome(err);
+  }
+}
+
+export interface EpochRangeOutput {
+  /** First and last observation epoch [ms]; null when none could be read (the estimation task then reports why). */
+  range: { firstMs: number; lastMs: number } | null;
+  /** The body carries its own met (JSON `met`). */
+  hasMet: boolean;
+  observations: number;
+}
+
+/**
+ * The first pass of a station's estimation: the observation epoch range (from the `epoch` field or
+ * column, wherever it is) and whether the body has met, so that the route reads only the stored met
+ * it needs. Errors are left to the estimation task.
+ */
+export async function scanZwdRequest(input: Pick<ZwdRequestTaskInput, 'body' | 'format'>): Promise<TaskOutcome<EpochRangeOutput>> {
+  let epochs: unknown[] = [];
+  let hasMet = false;
+  try {
+    const text = bodyText(input.body);
+    if (input.format === 'csv') {
+      epochs = readObservationCsv(text).map((r) => r.epoch);
+    } else {
+      const parsed = JSON.parse(text) as { observations?: unknown; met?: unknown } | null;
+      hasMet = parsed !== null && typeof parsed === 'object' && parsed.met !== undefined;
+      if (parsed && Array.isArray(parsed.observations)) epochs = parsed.observations.map((o) => (o && typeof o === 'object' ? (o as { epoch?: unknown }).epoch : undefined));
+    }
+  } catch {
+    return { ok: true, output: { range: null, hasMet, observations: 0 } };
+  }
+  let firstMs = Infinity;
+  let lastMs = -Infinity;
+  for (const e of epochs) {
+    if (typeof e !== 'string' || e.length > 64) continue;
+    const ms = Date.parse(e);
+    if (Number.isNaN(ms)) continue;
+    if (ms < firstMs) firstMs = ms;
+    if (ms > lastMs) lastMs = ms;
+  }
+  return { ok: true, output: { range: firstMs <= lastMs ? { firstMs, lastMs } : null, hasMet, observations: epochs.length } };
+}
