@@ -27,7 +27,7 @@ import { geodeticToEcef, type Ecef } from '../../domain/geometry/topocentric.js'
 import { nodeEpochMs } from '../design.js';
 import { SingularParameterError } from '../frontal-ldl.js';
 import { MIN_TESTABLE_REDUNDANCY } from '../least-squares.js';
-import { rejectionWindowIntervals } from '../outliers.js';
+import { nodeRejectionWindowMs } from '../outliers.js';
 import type { GradientNodeEstimate, RejectedObservation } from '../types.js';
 import { buildNetworkDesign, type NetworkDesign, type StationSubset } from './network-design.js';
 import { solveNetworkOnce, stationLayout, type NetworkSolution } from './network-solve.js';
@@ -77,6 +77,15 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
   const ecef = stations.map((s) => geodeticToEcef(s.latitudeRad, s.longitudeRad, s.heightM));
   const reference = referenceStation(input, ecef);
   const warnings: string[] = [];
+  if ((options.parametrisation ?? 'every-epoch') !== 'nodes') {
+    warnings.push(`the network estimator uses piecewise-linear nodes (parametrisation "nodes", ZWD every ${options.zwd.intervalS} s), not a state at every epoch`);
+  }
+  if (options.correlatedNoise ?? true) {
+    warnings.push('formal errors are not inflated for time-correlated residuals (not implemented for networks): they describe white noise only');
+  }
+  if (options.scaleSigmas) {
+    warnings.push('scale_sigmas: the formal errors are multiplied by √(variance factor); the observation weights are not re-estimated by variance components as in the single-station estimator');
+  }
   const estimated = options.satelliteClocks === 'estimated' && stations.length > 1;
   if (options.satelliteClocks === 'estimated' && stations.length === 1) {
     warnings.push('a network of one station: satellite clocks cannot be estimated from one station, so they were taken as known (the single-station solution)');
@@ -373,24 +382,22 @@ function networkCandidates(
   if (above.length === 0) return [];
   above.sort((a, b) => Math.abs(b.tau) - Math.abs(a.tau) || a.station - b.station || a.index - b.index);
   if (mode === 'one-per-solution') return [above[0]!];
-  const window = rejectionWindowIntervals(zwdIntervalS);
+  // Greedy in decreasing |τ| (outliers.ts): taken when no taken candidate of the same station is
+  // within the window and none of any station is at the same epoch.
+  const windowMs = nodeRejectionWindowMs(zwdIntervalS);
   const epochOf = net.stations.map((st) => {
     const out = new Int32Array(st.design.residualM.length);
     for (let k = 0; k + 1 < st.design.epochStart.length; k++) out.fill(st.networkEpoch[k]!, st.design.epochStart[k]!, st.design.epochStart[k + 1]!);
     return out;
   });
-  const taken = net.stations.map(() => new Uint8Array(net.zwd.count));
+  const takenMs = net.stations.map(() => [] as number[]);
   const takenEpochs = new Set<number>();
   const out: Candidate[] = [];
   for (const c of above) {
     const k = epochOf[c.station]![c.index]!;
-    const j = net.zwdInterval[k]!;
-    if (takenEpochs.has(k)) continue;
-    let free = true;
-    const t = taken[c.station]!;
-    for (let x = Math.max(0, j - window); x <= Math.min(net.zwd.count - 1, j + window) && free; x++) if (t[x]) free = false;
-    if (!free) continue;
-    t[j] = 1;
+    const t = net.epochMs[k]!;
+    if (takenEpochs.has(k) || takenMs[c.station]!.some((u) => Math.abs(u - t) < windowMs)) continue;
+    takenMs[c.station]!.push(t);
     takenEpochs.add(k);
     out.push(c);
   }
@@ -412,7 +419,22 @@ function stationResults(problem: SubProblem, reference: number): NetworkStationR
   const diag = solution.inverseDiagonal;
   const adj = solution.adjacentCovariance;
   const singleCounts = singleStationCounts(net).perStation;
+  /** Included observations of station s within one node interval of each node. */
+  const nearby = (s: number, nodes: Float64Array, intervalMs: number) => {
+    const out = new Array<number>(nodes.length).fill(0);
+    const d = net.stations[s]!.design;
+    for (let ks = 0; ks < d.epochMs.length; ks++) {
+      let n = 0;
+      for (let i = d.epochStart[ks]!; i < d.epochStart[ks + 1]!; i++) n += solution.included[s]![i]!;
+      if (n === 0) continue;
+      const t = d.epochMs[ks]!;
+      for (let j = 0; j < nodes.length; j++) if (Math.abs(nodes[j]! - t) <= intervalMs) out[j]! += n;
+    }
+    return out;
+  };
   return net.stations.map((st, s) => {
+    const zwdNearby = nearby(s, net.zwd.nodeMs, net.zwd.intervalMs);
+    const gradientNearby = net.gradients ? nearby(s, net.gradients.nodeMs, net.gradients.intervalMs) : [];
     const o = s * P;
     const ro = reference * P;
     const zwdNodes = Array.from({ length: layout.zwdCount }, (_, j) => {
@@ -423,12 +445,20 @@ function stationResults(problem: SubProblem, reference: number): NetworkStationR
         correctionM: x[o + j]!,
         sigmaM: Math.sqrt(diag[o + j]!) * scale,
         relativeSigmaM: Number.isNaN(rel) ? null : Math.sqrt(Math.max(rel, 0)) * scale,
+        observationsNearby: zwdNearby[j]!,
       };
     });
     const gradientNodes: GradientNodeEstimate[] = Array.from({ length: layout.gradientCount }, (_, l) => {
       const n = o + layout.northOffset + l;
       const e = o + layout.eastOffset + l;
-      return { epochMs: nodeEpochMs(net.gradients!, l), northM: x[n]!, eastM: x[e]!, northSigmaM: Math.sqrt(diag[n]!) * scale, eastSigmaM: Math.sqrt(diag[e]!) * scale };
+      return {
+        epochMs: nodeEpochMs(net.gradients!, l),
+        northM: x[n]!,
+        eastM: x[e]!,
+        northSigmaM: Math.sqrt(diag[n]!) * scale,
+        eastSigmaM: Math.sqrt(diag[e]!) * scale,
+        observationsNearby: gradientNearby[l]!,
+      };
     });
     const d = st.design;
     const epochs: NetworkEpochEstimate[] = Array.from({ length: d.epochMs.length }, (_, ks) => {

@@ -83,6 +83,8 @@ export function buildNetworkDesign(
   options: ZwdEstimationOptions,
   satelliteClocks: boolean,
 ): NetworkDesign {
+  // The network solver works with regular nodes (the single-station "nodes" parametrisation).
+  const stationOptions: ZwdEstimationOptions = { ...options, parametrisation: 'nodes' };
   const designs: Design[] = subsets.map((st) => {
     const pick = <T>(c: readonly T[]) => st.observations.map((i) => c[i]!);
     try {
@@ -96,7 +98,7 @@ export function buildNetworkDesign(
           residualM: pick(columns.residualM),
           sigmaM: columns.sigmaM ? pick(columns.sigmaM) : undefined,
         },
-        options,
+        options: stationOptions,
       });
     } catch (err) {
       if (err instanceof ModelDomainError && err.status === 422) {

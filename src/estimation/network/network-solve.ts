@@ -12,7 +12,7 @@
  * all stations on the same node layout.
  */
 
-import { constraintCount, randomWalkWeight, type ParameterLayout } from '../least-squares.js';
+import { constraintCount, randomWalkStepWeight, type ParameterLayout } from '../least-squares.js';
 import type { PiecewiseLinearSettings, ZwdEstimationOptions } from '../types.js';
 import { EpochClockSystem } from './epoch-clocks.js';
 import type { NetworkDesign } from './network-design.js';
@@ -66,7 +66,12 @@ interface Family {
   count: number;
   settings: PiecewiseLinearSettings;
   current: number;
+  /** Node epochs [ms] (random-walk step weights follow the actual spacing). */
+  nodeMs: Float64Array;
 }
+
+/** Weight of the random-walk step between nodes j and j + 1 of a family, or null (none). */
+const stepWeight = (f: Family, j: number) => randomWalkStepWeight(f.settings, f.nodeMs[j]!, f.nodeMs[j + 1]!);
 
 /**
  * @param used per station, 1 for each design observation that takes part
@@ -83,19 +88,19 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
   const families: Family[] = [];
   for (let s = 0; s < S; s++) {
     const o = s * P;
-    families.push({ offset: o, count: layout.zwdCount, settings: options.zwd, current: -1 });
+    families.push({ offset: o, count: layout.zwdCount, settings: options.zwd, current: -1, nodeMs: net.zwd.nodeMs });
     if (options.gradients) {
-      families.push({ offset: o + layout.northOffset, count: layout.gradientCount, settings: options.gradients, current: -1 });
-      families.push({ offset: o + layout.eastOffset, count: layout.gradientCount, settings: options.gradients, current: -1 });
+      families.push({ offset: o + layout.northOffset, count: layout.gradientCount, settings: options.gradients, current: -1, nodeMs: net.gradients!.nodeMs });
+      families.push({ offset: o + layout.eastOffset, count: layout.gradientCount, settings: options.gradients, current: -1, nodeMs: net.gradients!.nodeMs });
     }
   }
   const advance = (f: Family, interval: number) => {
-    const rw = randomWalkWeight(f.settings);
     if (f.current < 0) {
       frontal.activate(f.offset);
       if (f.settings.aprioriSigmaM !== null) frontal.addValueConstraint(f.offset, 1 / f.settings.aprioriSigmaM ** 2);
       if (f.count > 1) {
         frontal.activate(f.offset + 1);
+        const rw = stepWeight(f, 0);
         if (rw !== null) frontal.addDifferenceConstraint(f.offset + 1, f.offset, rw);
       }
       f.current = 0;
@@ -103,6 +108,7 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
     while (f.current < interval) {
       frontal.eliminate(f.offset + f.current);
       frontal.activate(f.offset + f.current + 2);
+      const rw = stepWeight(f, f.current + 1);
       if (rw !== null) frontal.addDifferenceConstraint(f.offset + f.current + 2, f.offset + f.current + 1, rw);
       f.current++;
     }
@@ -503,8 +509,10 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
   // Constraint residuals.
   for (const f of families) {
     if (f.settings.aprioriSigmaM !== null) weightedSquareSum += (x[f.offset]! / f.settings.aprioriSigmaM) ** 2;
-    const rw = randomWalkWeight(f.settings);
-    if (rw !== null) for (let j = 0; j + 1 < f.count; j++) weightedSquareSum += rw * (x[f.offset + j + 1]! - x[f.offset + j]!) ** 2;
+    for (let j = 0; j + 1 < f.count; j++) {
+      const rw = stepWeight(f, j);
+      if (rw !== null) weightedSquareSum += rw * (x[f.offset + j + 1]! - x[f.offset + j]!) ** 2;
+    }
   }
 
   return {

@@ -42,7 +42,9 @@ export interface DenseNetworkResult {
 }
 
 interface Layout {
+  /** First ZWD node and first gradient node: multiples of the interval since 1970 (round UTC epochs). */
   t0: number;
+  gradT0: number;
   zwdDt: number;
   zwdCount: number;
   gradDt: number;
@@ -51,13 +53,22 @@ interface Layout {
 }
 
 function layoutOf(input: NetworkEstimationInput, epochs: number[]): Layout {
-  const t0 = epochs[0]!;
-  const span = epochs[epochs.length - 1]! - t0;
+  const first = epochs[0]!;
+  const last = epochs[epochs.length - 1]!;
   const o = input.options;
-  const count = (dtS: number) => Math.max(0, Math.ceil(span / (dtS * 1000) - 1e-9)) + 1;
+  const start = (dtS: number) => Math.floor(first / (dtS * 1000) + 1e-9) * dtS * 1000;
+  const count = (dtS: number) => Math.max(0, Math.ceil((last - start(dtS)) / (dtS * 1000) - 1e-9)) + 1;
   const zwdCount = count(o.zwd.intervalS);
   const gradCount = o.gradients ? count(o.gradients.intervalS) : 0;
-  return { t0, zwdDt: o.zwd.intervalS * 1000, zwdCount, gradDt: (o.gradients?.intervalS ?? 1) * 1000, gradCount, per: zwdCount + 2 * gradCount };
+  return {
+    t0: start(o.zwd.intervalS),
+    gradT0: o.gradients ? start(o.gradients.intervalS) : 0,
+    zwdDt: o.zwd.intervalS * 1000,
+    zwdCount,
+    gradDt: (o.gradients?.intervalS ?? 1) * 1000,
+    gradCount,
+    per: zwdCount + 2 * gradCount,
+  };
 }
 
 /** Columns and values of the node partials of one observation (station s). */
@@ -69,13 +80,13 @@ function nodePartials(input: NetworkEstimationInput, L: Layout, s: number, i: nu
   const mw = niellWetMapping(latDeg, e);
   const cols: number[] = [];
   const vals: number[] = [];
-  const interp = (count: number, dt: number, offset: number, m: number) => {
+  const interp = (count: number, dt: number, offset: number, m: number, t0 = L.t0) => {
     if (count === 1) {
       cols.push(offset);
       vals.push(m);
       return;
     }
-    const u = (o.epochMs[i]! - L.t0) / dt;
+    const u = (o.epochMs[i]! - t0) / dt;
     const j = Math.min(Math.max(Math.floor(u), 0), count - 2);
     const a = u - j;
     cols.push(offset + j, offset + j + 1);
@@ -85,8 +96,8 @@ function nodePartials(input: NetworkEstimationInput, L: Layout, s: number, i: nu
   interp(L.zwdCount, L.zwdDt, base, mw);
   if (L.gradCount > 0) {
     const mg = chenHerringMapping(e);
-    interp(L.gradCount, L.gradDt, base + L.zwdCount, mg * Math.cos(az));
-    interp(L.gradCount, L.gradDt, base + L.zwdCount + L.gradCount, mg * Math.sin(az));
+    interp(L.gradCount, L.gradDt, base + L.zwdCount, mg * Math.cos(az), L.gradT0);
+    interp(L.gradCount, L.gradDt, base + L.zwdCount + L.gradCount, mg * Math.sin(az), L.gradT0);
   }
   return { cols, vals };
 }

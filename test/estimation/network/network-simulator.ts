@@ -207,6 +207,8 @@ export function networkOptions(overrides: Partial<NetworkEstimationOptions> = {}
     outlierRejection: 'one-per-window',
     maxRejections: 1000,
     scaleSigmas: false,
+    parametrisation: 'nodes',
+    correlatedNoise: false,
     satelliteClocks: 'estimated',
     referenceStation: null,
     commonModeSigmaThresholdM: 0.005,
