@@ -1,0 +1,584 @@
+/**
+ * Network ZWD estimation: the entry point. Zero-difference residuals of several stations, ZWD and
+ * gradients per station with the random-walk model of the single-station estimator, and
+ *
+ * - satelliteClocks "estimated": per epoch one clock per receiver and per satellite, eliminated
+ *   epoch by epoch from the normal equations (epoch-clocks.ts). This gives the same troposphere
+ *   estimates and covariances as double differences weighted with their full covariance (common
+ *   practice; checked in test/estimation/network/equivalence.test.ts). The clocks have one datum
+ *   defect per connected group of stations and epoch, fixed by one reference receiver clock; the
+ *   troposphere does not depend on it. Satellites seen by one station at an epoch carry no
+ *   information and are dropped (counted); so is an epoch with one station.
+ * - satelliteClocks "known" (precise point positioning): the network splits into independent
+ *   single-station problems; each is solved on its own (own node layout, variance factor and
+ *   screening), which equals the single-station estimator for that station's data.
+ *
+ * A network of one station is solved as in the "known" case (satellite clocks cannot be estimated
+ * from one station), with a warning when "estimated" was asked for.
+ *
+ * Outlier screening across the network (estimated clocks): Pope's τ with the network's variance
+ * factor; in "one-per-window" mode the candidates of one iteration are at least the window apart
+ * within a station (outliers.ts) and never at the same epoch as another candidate (a gross error
+ * leaks through the satellite clock into the other stations' residuals of that epoch).
+ */
+
+import { ModelDomainError } from '../../domain/errors.js';
+import { geodeticToEcef, type Ecef } from '../../domain/geometry/topocentric.js';
+import { nodeEpochMs } from '../design.js';
+import { SingularParameterError } from '../frontal-ldl.js';
+import { MIN_TESTABLE_REDUNDANCY } from '../least-squares.js';
+import { nodeRejectionWindowMs } from '../outliers.js';
+import type { GradientNodeEstimate, RejectedObservation } from '../types.js';
+import { buildNetworkDesign, type NetworkDesign, type StationSubset } from './network-design.js';
+import { solveNetworkOnce, stationLayout, type NetworkSolution } from './network-solve.js';
+import type {
+  NetworkCommonMode,
+  NetworkEpochEstimate,
+  NetworkEstimationInput,
+  NetworkEstimationOutput,
+  NetworkStationResult,
+} from './types.js';
+
+/** Niell (1996) fitted the mapping functions from 3° elevation up [rad]. */
+const MAPPING_FIT_LOWEST_ELEVATION_RAD = (3 * Math.PI) / 180;
+/** GNSS orbit height for the nadir-angle extent (GPS: 26 560 km radius − 6 371 km ≈ 20 200 km) [m]. */
+const GNSS_ORBIT_HEIGHT_M = 20_200_000;
+const EARTH_MEAN_RADIUS_M = 6_371_000;
+
+interface SubProblem {
+  net: NetworkDesign;
+  used: Uint8Array[];
+  solution: NetworkSolution;
+  rejected: RejectedObservation[][];
+  varianceFactor: number | null;
+  degreesOfFreedom: number;
+  unknowns: number;
+  sigmaScale: number;
+  solutions: number;
+  screeningComplete: boolean;
+  warnings: string[];
+}
+
+/**
+ * @throws ModelDomainError 400 for inconsistent input (unknown or duplicate station, duplicate
+ *         (station, epoch, satellite), unknown reference station), 422 when a station has nothing
+ *         above the cutoff or a node is not determined
+ */
+export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimationOutput {
+  const { stations, observations: obs, options } = input;
+  checkInput(input);
+  const stationIndex = new Map(stations.map((s, i) => [s.name, i]));
+  const subsets: StationSubset[] = stations.map((s, i) => ({ name: s.name, index: i, latitudeRad: s.latitudeRad, observations: [] }));
+  for (let i = 0; i < obs.epochMs.length; i++) subsets[stationIndex.get(obs.station[i]!)!]!.observations.push(i);
+  const empty = subsets.filter((s) => s.observations.length === 0).map((s) => s.name);
+  if (empty.length > 0) {
+    throw new ModelDomainError('stations', `station${empty.length > 1 ? 's' : ''} ${empty.join(', ')} ha${empty.length > 1 ? 've' : 's'} no observations: remove ${empty.length > 1 ? 'them' : 'it'} from stations or send observations`, 400);
+  }
+  const ecef = stations.map((s) => geodeticToEcef(s.latitudeRad, s.longitudeRad, s.heightM));
+  const reference = referenceStation(input, ecef);
+  const warnings: string[] = [];
+  if ((options.parametrisation ?? 'every-epoch') !== 'nodes') {
+    warnings.push(`the network estimator uses piecewise-linear nodes (parametrisation "nodes", ZWD every ${options.zwd.intervalS} s), not a state at every epoch`);
+  }
+  if (options.correlatedNoise ?? true) {
+    warnings.push('formal errors are not inflated for time-correlated residuals (not implemented for networks): they describe white noise only');
+  }
+  if (options.scaleSigmas) {
+    warnings.push('scale_sigmas: the formal errors are multiplied by √(variance factor); the observation weights are not re-estimated by variance components as in the single-station estimator');
+  }
+  const estimated = options.satelliteClocks === 'estimated' && stations.length > 1;
+  if (options.satelliteClocks === 'estimated' && stations.length === 1) {
+    warnings.push('a network of one station: satellite clocks cannot be estimated from one station, so they were taken as known (the single-station solution)');
+  }
+
+  let results: NetworkStationResult[];
+  let commonMode: NetworkCommonMode;
+  let statistics: NetworkEstimationOutput['statistics'];
+  const geometry = networkExtent(ecef);
+
+  if (estimated) {
+    const problem = solveWithScreening(buildNetworkDesign(obs, subsets, options, true), input, reference);
+    warnings.push(...problem.warnings);
+    // The same data with the satellite clocks known, for the common-mode comparison.
+    const known = subsets.map((sub, s) => {
+      const net = buildNetworkDesign(obs, [sub], options, false);
+      return { net, solution: solveNamed(net, options, [problem.used[s]!], 0) };
+    });
+    results = stationResults(problem, reference);
+    const singles = singleStationCounts(problem.net);
+    const meanEstimated = median(problem.solution.epochs.map((e) => Math.sqrt(e.meanVariance) * problem.sigmaScale));
+    const meanKnown = knownMeanSigma(known, known.map(() => problem.sigmaScale));
+    commonMode = {
+      meanZwdSigmaClocksEstimatedM: meanEstimated,
+      meanZwdSigmaClocksKnownM: meanKnown,
+      correlationWithClocks: median(problem.solution.epochs.map((e) => e.meanClockCorrelation)),
+      ...geometry,
+    };
+    statistics = {
+      stations: stations.length,
+      epochs: problem.net.epochMs.length,
+      observationsTotal: obs.epochMs.length,
+      observationsUsed: problem.solution.observationsUsed,
+      observationsRejected: problem.rejected.reduce((n, r) => n + r.length, 0),
+      observationsSingleStationSatellite: singles.observations,
+      singleStationSatellites: singles.pairs,
+      singleStationEpochs: singles.epochs,
+      unknowns: problem.unknowns,
+      clockUnknowns: problem.solution.clockUnknowns,
+      constraints: problem.solution.constraints,
+      degreesOfFreedom: problem.degreesOfFreedom,
+      rmsM: Math.sqrt(problem.solution.residualSquareSumM2 / problem.solution.observationsUsed),
+      varianceFactor: problem.varianceFactor,
+      sigmaScale: problem.sigmaScale,
+      solutions: problem.solutions,
+      screeningComplete: problem.screeningComplete,
+    };
+    if (singles.pairs > 0) {
+      warnings.push(`${singles.observations} observations of ${singles.pairs} (epoch, satellite) pairs seen by one station only were not used: with satellite clocks estimated they carry no information`);
+    }
+    for (const r of results) {
+      if (r.statistics.observationsUsed === 0) {
+        warnings.push(`station ${r.station} shares no satellite with another station at any epoch: with satellite clocks estimated its observations carry no information, and its values are the a-priori constraints only`);
+      }
+    }
+    if (singles.epochs > 0) warnings.push(`${singles.epochs} epochs with observations of one station only carry no information with satellite clocks estimated`);
+    if (meanEstimated !== null && meanEstimated > options.commonModeSigmaThresholdM) {
+      warnings.push(
+        `the absolute ZWD level is poorly determined: σ of the network-mean ZWD is ${(meanEstimated * 1000).toFixed(1)} mm (threshold ${(options.commonModeSigmaThresholdM * 1000).toFixed(1)} mm; ${(meanKnown * 1000).toFixed(1)} mm with satellite clocks known). The network spans ${geometry.extentKm.toFixed(0)} km, ${geometry.extentNadirDeg.toFixed(2)}° of nadir angle seen from the satellites: only ZWD differences between stations are well determined; add distant stations or use known satellite clocks`,
+      );
+    }
+  } else {
+    const problems = subsets.map((sub) => solveWithScreening(buildNetworkDesign(obs, [sub], options, false), { ...input, stations: [stations[sub.index]!] }, 0));
+    results = problems.map((p) => stationResults(p, 0)[0]!);
+    addKnownRelative(results, reference);
+    problems.forEach((p) => warnings.push(...p.warnings.map((w) => `station ${p.net.stations[0]!.name}: ${w}`)));
+    const meanKnown = knownMeanSigma(
+      problems.map((p) => ({ net: p.net, solution: p.solution })),
+      problems.map((p) => p.sigmaScale),
+    );
+    commonMode = { meanZwdSigmaClocksEstimatedM: null, meanZwdSigmaClocksKnownM: meanKnown, correlationWithClocks: null, ...geometry };
+    const sum = (f: (p: SubProblem) => number) => problems.reduce((n, p) => n + f(p), 0);
+    const dof = sum((p) => p.degreesOfFreedom);
+    const wss = sum((p) => p.solution.weightedSquareSum);
+    const epochsAll = new Set<number>();
+    for (const p of problems) for (const t of p.net.epochMs) epochsAll.add(t);
+    statistics = {
+      stations: stations.length,
+      epochs: epochsAll.size,
+      observationsTotal: obs.epochMs.length,
+      observationsUsed: sum((p) => p.solution.observationsUsed),
+      observationsRejected: sum((p) => p.rejected[0]!.length),
+      observationsSingleStationSatellite: 0,
+      singleStationSatellites: 0,
+      singleStationEpochs: 0,
+      unknowns: sum((p) => p.unknowns),
+      clockUnknowns: sum((p) => p.solution.clockUnknowns),
+      constraints: sum((p) => p.solution.constraints),
+      degreesOfFreedom: dof,
+      rmsM: Math.sqrt(sum((p) => p.solution.residualSquareSumM2) / sum((p) => p.solution.observationsUsed)),
+      varianceFactor: dof > 0 ? wss / dof : null,
+      sigmaScale: problems.length === 1 ? problems[0]!.sigmaScale : Number.NaN,
+      solutions: sum((p) => p.solutions),
+      screeningComplete: problems.every((p) => p.screeningComplete),
+    };
+  }
+  return {
+    referenceStation: stations[reference]!.name,
+    satelliteClocks: estimated ? 'estimated' : 'known',
+    stations: results,
+    commonMode,
+    statistics,
+    warnings,
+  };
+}
+
+function checkInput(input: NetworkEstimationInput): void {
+  const { stations, observations: o, options } = input;
+  if (stations.length === 0) throw new ModelDomainError('stations', 'at least one station is needed', 400);
+  const names = new Map<string, number>();
+  stations.forEach((s, i) => {
+    const other = names.get(s.name);
+    if (other !== undefined) throw new ModelDomainError(`stations.${i}.name`, `duplicate station name ${s.name} (also stations.${other}); names must be unique`, 400);
+    names.set(s.name, i);
+  });
+  const n = o.epochMs.length;
+  for (const [name, column] of [
+    ['station', o.station],
+    ['satellite', o.satellite],
+    ['elevation', o.elevationRad],
+    ['azimuth', o.azimuthRad],
+    ['residual', o.residualM],
+    ...(o.sigmaM ? [['sigma', o.sigmaM] as const] : []),
+  ] as const) {
+    if (column.length !== n) throw new Error(`observation column ${name} has ${column.length} entries, epochs ${n}`);
+  }
+  if (n === 0) throw new ModelDomainError('observations', 'at least one observation is needed', 400);
+  const seen = new Map<string, number>();
+  for (let i = 0; i < n; i++) {
+    if (!names.has(o.station[i]!)) {
+      throw new ModelDomainError(`observations.${i}.station`, `station ${o.station[i]} is not in stations (known: ${[...names.keys()].slice(0, 10).join(', ')}${names.size > 10 ? ', …' : ''}); add it to stations with its site`, 400);
+    }
+    const key = `${o.station[i]}\u0000${o.epochMs[i]}\u0000${o.satellite[i]}`;
+    const other = seen.get(key);
+    if (other !== undefined) {
+      throw new ModelDomainError(
+        `observations.${i}`,
+        `duplicate observation: station ${o.station[i]}, satellite ${o.satellite[i]} at ${new Date(o.epochMs[i]!).toISOString()} is also observations.${other}; each (station, epoch, satellite) may appear once`,
+        400,
+      );
+    }
+    seen.set(key, i);
+  }
+  if (options.referenceStation !== null && !names.has(options.referenceStation)) {
+    throw new ModelDomainError('options.reference_station', `reference station ${options.referenceStation} is not in stations; name one of them or leave it out (the most central station is taken)`, 400);
+  }
+}
+
+/** The caller's reference station, or the one closest to the centroid of all stations. */
+function referenceStation(input: NetworkEstimationInput, ecef: Ecef[]): number {
+  if (input.options.referenceStation !== null) return input.stations.findIndex((s) => s.name === input.options.referenceStation);
+  const c = ecef.reduce((a, p) => ({ xM: a.xM + p.xM / ecef.length, yM: a.yM + p.yM / ecef.length, zM: a.zM + p.zM / ecef.length }), { xM: 0, yM: 0, zM: 0 });
+  let best = 0;
+  let bestD = Infinity;
+  ecef.forEach((p, i) => {
+    const d = Math.hypot(p.xM - c.xM, p.yM - c.yM, p.zM - c.zM);
+    if (d < bestD) {
+      bestD = d;
+      best = i;
+    }
+  });
+  return best;
+}
+
+/**
+ * Largest chord between two stations [km], and the largest angle between the directions to two
+ * stations seen from a satellite GNSS_ORBIT_HEIGHT_M above the centroid [deg] (the whole Earth
+ * spans about ±14° seen from such a satellite; common practice).
+ */
+export function networkExtent(ecef: Ecef[]): { extentKm: number; extentNadirDeg: number } {
+  const c = ecef.reduce((a, p) => ({ xM: a.xM + p.xM / ecef.length, yM: a.yM + p.yM / ecef.length, zM: a.zM + p.zM / ecef.length }), { xM: 0, yM: 0, zM: 0 });
+  const norm = Math.hypot(c.xM, c.yM, c.zM) || 1;
+  const r = EARTH_MEAN_RADIUS_M + GNSS_ORBIT_HEIGHT_M;
+  const sat = { xM: (c.xM / norm) * r, yM: (c.yM / norm) * r, zM: (c.zM / norm) * r };
+  let chord = 0;
+  let angle = 0;
+  for (let i = 0; i < ecef.length; i++) {
+    for (let j = 0; j < i; j++) {
+      const a = ecef[i]!;
+      const b = ecef[j]!;
+      chord = Math.max(chord, Math.hypot(a.xM - b.xM, a.yM - b.yM, a.zM - b.zM));
+      const u = [a.xM - sat.xM, a.yM - sat.yM, a.zM - sat.zM];
+      const v = [b.xM - sat.xM, b.yM - sat.yM, b.zM - sat.zM];
+      const cos = (u[0]! * v[0]! + u[1]! * v[1]! + u[2]! * v[2]!) / (Math.hypot(...u) * Math.hypot(...v));
+      angle = Math.max(angle, Math.acos(Math.min(1, cos)));
+    }
+  }
+  return { extentKm: chord / 1000, extentNadirDeg: (angle * 180) / Math.PI };
+}
+
+function solveNamed(net: NetworkDesign, options: NetworkEstimationInput['options'], used: Uint8Array[], reference: number): NetworkSolution {
+  try {
+    return solveNetworkOnce(net, options, used, reference);
+  } catch (err) {
+    if (!(err instanceof SingularParameterError)) throw err;
+    const P = net.stationParameters;
+    const s = Math.floor(err.parameter / P);
+    const layout = stationLayout(net);
+    const j = err.parameter - s * P;
+    const [name, node, nodes] =
+      j < layout.zwdCount ? ['zenith wet delay', j, net.zwd] : j < layout.eastOffset ? ['north gradient', j - layout.northOffset, net.gradients!] : ['east gradient', j - layout.eastOffset, net.gradients!];
+    throw new ModelDomainError(
+      'observations',
+      `the system is singular: the ${name} node ${node} of station ${net.stations[s]!.name} at ${new Date(nodeEpochMs(nodes, node)).toISOString()} is not determined by the observations and constraints${net.satelliteClocks ? ' (with satellite clocks estimated, a station needs satellites that other stations see at the same epochs)' : ''}. Add observations or constraints (random walk, a-priori sigma)`,
+      422,
+    );
+  }
+}
+
+function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, reference: number): SubProblem {
+  const { options } = input;
+  const obs = input.observations;
+  const S = net.stations.length;
+  const used = net.stations.map((st) => new Uint8Array(st.design.residualM.length).fill(1));
+  const rejected: RejectedObservation[][] = net.stations.map(() => []);
+  const warnings: string[] = [];
+  const layout = stationLayout(net);
+  let solutions = 0;
+  let screeningComplete = true;
+  let solution: NetworkSolution;
+  let varianceFactor: number | null;
+  let degreesOfFreedom: number;
+  let unknowns: number;
+  let total = 0;
+  for (;;) {
+    solution = solveNamed(net, options, used, reference);
+    solutions++;
+    unknowns = S * layout.parameters + solution.clockUnknowns;
+    degreesOfFreedom = solution.observationsUsed + solution.constraints - unknowns;
+    varianceFactor = degreesOfFreedom > 0 ? solution.weightedSquareSum / degreesOfFreedom : null;
+    if (options.outlierThreshold === null) break;
+    const candidates = networkCandidates(net, solution, varianceFactor === null ? 1 : Math.sqrt(varianceFactor), options.outlierThreshold, options.outlierRejection, options.zwd.intervalS);
+    if (candidates.length === 0) break;
+    if (total >= options.maxRejections) {
+      screeningComplete = false;
+      warnings.push(
+        `outlier screening stopped after ${total} rejections (options.max_rejections); ${candidates.length > 1 ? 'normalised residuals' : 'a normalised residual'} up to ${Math.abs(candidates[0]!.tau).toFixed(1)} remain above ${options.outlierThreshold}: check sigma0_m and the residuals`,
+      );
+      break;
+    }
+    for (const c of candidates.slice(0, options.maxRejections - total)) {
+      const st = net.stations[c.station]!;
+      const i = st.networkIndex[c.index]!;
+      rejected[c.station]!.push({
+        index: i,
+        epochMs: obs.epochMs[i]!,
+        satellite: obs.satellite[i]!,
+        residualM: obs.residualM[i]!,
+        fittedResidualM: solution.fittedResidualM[c.station]![c.index]!,
+        normalizedResidual: c.tau,
+      });
+      used[c.station]![c.index] = 0;
+      total++;
+    }
+  }
+  const sigmaScale = options.scaleSigmas && varianceFactor !== null ? Math.sqrt(varianceFactor) : 1;
+  if (varianceFactor === null) {
+    warnings.push('no degrees of freedom (one observation per epoch with epoch_bias on, or as many unknowns as observations): the variance factor is not estimable and formal errors are not scaled');
+  }
+  let low = 0;
+  net.stations.forEach((st, s) => {
+    for (let i = 0; i < st.design.elevationRad.length; i++) if (solution.included[s]![i] && st.design.elevationRad[i]! < MAPPING_FIT_LOWEST_ELEVATION_RAD) low++;
+  });
+  if (low > 0) warnings.push(`${low} observations below 3° were used: the Niell mapping functions are fitted from 3° up and are extrapolated there`);
+  return { net, used, solution, rejected, varianceFactor, degreesOfFreedom, unknowns, sigmaScale, solutions, screeningComplete, warnings };
+}
+
+interface Candidate {
+  station: number;
+  index: number;
+  tau: number;
+}
+
+/** Rejection candidates across the network (module comment); largest |τ| first. */
+function networkCandidates(
+  net: NetworkDesign,
+  solution: NetworkSolution,
+  sigmaZero: number,
+  threshold: number,
+  mode: 'one-per-solution' | 'one-per-window',
+  zwdIntervalS: number,
+): Candidate[] {
+  const above: Candidate[] = [];
+  net.stations.forEach((st, s) => {
+    for (let i = 0; i < st.design.residualM.length; i++) {
+      if (!solution.included[s]![i]) continue;
+      const sigma = st.design.sigmaM[i]!;
+      const qv = solution.residualVarianceM2[s]![i]!;
+      if (!(qv > MIN_TESTABLE_REDUNDANCY * sigma * sigma)) continue;
+      const tau = solution.fittedResidualM[s]![i]! / (sigmaZero * Math.sqrt(qv));
+      if (Math.abs(tau) > threshold) above.push({ station: s, index: i, tau });
+    }
+  });
+  if (above.length === 0) return [];
+  above.sort((a, b) => Math.abs(b.tau) - Math.abs(a.tau) || a.station - b.station || a.index - b.index);
+  if (mode === 'one-per-solution') return [above[0]!];
+  // Greedy in decreasing |τ| (outliers.ts): taken when no taken candidate of the same station is
+  // within the window and none of any station is at the same epoch.
+  const windowMs = nodeRejectionWindowMs(zwdIntervalS);
+  const epochOf = net.stations.map((st) => {
+    const out = new Int32Array(st.design.residualM.length);
+    for (let k = 0; k + 1 < st.design.epochStart.length; k++) out.fill(st.networkEpoch[k]!, st.design.epochStart[k]!, st.design.epochStart[k + 1]!);
+    return out;
+  });
+  const takenMs = net.stations.map(() => [] as number[]);
+  const takenEpochs = new Set<number>();
+  const out: Candidate[] = [];
+  for (const c of above) {
+    const k = epochOf[c.station]![c.index]!;
+    const t = net.epochMs[k]!;
+    if (takenEpochs.has(k) || takenMs[c.station]!.some((u) => Math.abs(u - t) < windowMs)) continue;
+    takenMs[c.station]!.push(t);
+    takenEpochs.add(k);
+    out.push(c);
+  }
+  return out;
+}
+
+function interpolated(x: Float64Array, diag: Float64Array, adj: Float64Array, p: number, two: boolean, alpha: number, scale: number) {
+  if (!two) return { value: x[p]!, sigma: Math.sqrt(diag[p]!) * scale };
+  const b = 1 - alpha;
+  const variance = b * b * diag[p]! + 2 * alpha * b * adj[p]! + alpha * alpha * diag[p + 1]!;
+  return { value: b * x[p]! + alpha * x[p + 1]!, sigma: Math.sqrt(Math.max(variance, 0)) * scale };
+}
+
+function stationResults(problem: SubProblem, reference: number): NetworkStationResult[] {
+  const { net, solution, sigmaScale: scale } = problem;
+  const layout = stationLayout(net);
+  const P = layout.parameters;
+  const x = solution.x;
+  const diag = solution.inverseDiagonal;
+  const adj = solution.adjacentCovariance;
+  const singleCounts = singleStationCounts(net).perStation;
+  /** Included observations of station s within one node interval of each node. */
+  const nearby = (s: number, nodes: Float64Array, intervalMs: number) => {
+    const out = new Array<number>(nodes.length).fill(0);
+    const d = net.stations[s]!.design;
+    for (let ks = 0; ks < d.epochMs.length; ks++) {
+      let n = 0;
+      for (let i = d.epochStart[ks]!; i < d.epochStart[ks + 1]!; i++) n += solution.included[s]![i]!;
+      if (n === 0) continue;
+      const t = d.epochMs[ks]!;
+      for (let j = 0; j < nodes.length; j++) if (Math.abs(nodes[j]! - t) <= intervalMs) out[j]! += n;
+    }
+    return out;
+  };
+  return net.stations.map((st, s) => {
+    const zwdNearby = nearby(s, net.zwd.nodeMs, net.zwd.intervalMs);
+    const gradientNearby = net.gradients ? nearby(s, net.gradients.nodeMs, net.gradients.intervalMs) : [];
+    const o = s * P;
+    const ro = reference * P;
+    const zwdNodes = Array.from({ length: layout.zwdCount }, (_, j) => {
+      const cov = solution.nodeCovarianceWithReference[s]![j]!;
+      const rel = s === reference ? 0 : diag[o + j]! + diag[ro + j]! - 2 * cov;
+      return {
+        epochMs: nodeEpochMs(net.zwd, j),
+        correctionM: x[o + j]!,
+        sigmaM: Math.sqrt(diag[o + j]!) * scale,
+        relativeSigmaM: Number.isNaN(rel) ? null : Math.sqrt(Math.max(rel, 0)) * scale,
+        observationsNearby: zwdNearby[j]!,
+      };
+    });
+    const gradientNodes: GradientNodeEstimate[] = Array.from({ length: layout.gradientCount }, (_, l) => {
+      const n = o + layout.northOffset + l;
+      const e = o + layout.eastOffset + l;
+      return {
+        epochMs: nodeEpochMs(net.gradients!, l),
+        northM: x[n]!,
+        eastM: x[e]!,
+        northSigmaM: Math.sqrt(diag[n]!) * scale,
+        eastSigmaM: Math.sqrt(diag[e]!) * scale,
+        observationsNearby: gradientNearby[l]!,
+      };
+    });
+    const d = st.design;
+    const epochs: NetworkEpochEstimate[] = Array.from({ length: d.epochMs.length }, (_, ks) => {
+      const k = st.networkEpoch[ks]!;
+      const w = interpolated(x, diag, adj, o + net.zwdInterval[k]!, layout.zwdCount > 1, net.zwdAlpha[k]!, scale);
+      let north = null;
+      let east = null;
+      if (layout.gradientCount > 0) {
+        const l = net.gradientInterval[k]!;
+        const two = layout.gradientCount > 1;
+        north = interpolated(x, diag, adj, o + layout.northOffset + l, two, net.gradientAlpha[k]!, scale);
+        east = interpolated(x, diag, adj, o + layout.eastOffset + l, two, net.gradientAlpha[k]!, scale);
+      }
+      let count = 0;
+      for (let i = d.epochStart[ks]!; i < d.epochStart[ks + 1]!; i++) count += solution.included[s]![i]!;
+      const ec = solution.epochs[k]!;
+      const bias = solution.receiverClockM[s]![ks]!;
+      return {
+        epochMs: d.epochMs[ks]!,
+        correctionM: w.value,
+        sigmaM: Math.sqrt(Math.max(ec.variance[s]!, 0)) * scale,
+        relativeSigmaM: Math.sqrt(ec.relativeVariance[s]!) * scale,
+        northGradientM: north?.value ?? null,
+        eastGradientM: east?.value ?? null,
+        northGradientSigmaM: north?.sigma ?? null,
+        eastGradientSigmaM: east?.sigma ?? null,
+        epochBiasM: Number.isNaN(bias) ? null : bias,
+        observationsUsed: count,
+      };
+    });
+    const belowCutoff = d.observationsBelowCutoff;
+    const singles = singleCounts[s]!;
+    return {
+      station: st.name,
+      zwdNodes,
+      gradientNodes,
+      epochs,
+      rejected: problem.rejected[s]!,
+      statistics: {
+        observationsTotal: d.residualM.length + belowCutoff,
+        observationsBelowCutoff: belowCutoff,
+        observationsSingleStationSatellite: singles,
+        observationsUsed: solution.included[s]!.reduce((n, v) => n + v, 0),
+        observationsRejected: problem.rejected[s]!.length,
+        epochs: d.epochMs.length,
+      },
+      medianSigmaM: median(epochs.map((e) => e.sigmaM)) ?? Number.NaN,
+      medianRelativeSigmaM: median(epochs.map((e) => e.relativeSigmaM)) ?? Number.NaN,
+    };
+  });
+}
+
+/** Satellites seen by one station at an epoch (all observations taken as used), and epochs with one station. */
+function singleStationCounts(net: NetworkDesign): { observations: number; pairs: number; epochs: number; perStation: number[] } {
+  const perStation = net.stations.map(() => 0);
+  let pairs = 0;
+  let epochs = 0;
+  if (!net.satelliteClocks) return { observations: 0, pairs: 0, epochs: 0, perStation };
+  for (let k = 0; k < net.epochMs.length; k++) {
+    const a = net.entryStart[k]!;
+    const b = net.entryStart[k + 1]!;
+    const stationsHere = new Set<number>();
+    for (let e = a; e < b; ) {
+      let f = e;
+      while (f < b && net.entrySatellite[f] === net.entrySatellite[e]) f++;
+      if (f - e === 1) {
+        pairs++;
+        perStation[net.entryStation[e]!]!++;
+      }
+      for (let x = e; x < f; x++) stationsHere.add(net.entryStation[x]!);
+      e = f;
+    }
+    if (stationsHere.size === 1) epochs++;
+  }
+  return { observations: pairs, pairs, epochs, perStation };
+}
+
+/**
+ * σ of the network-mean ZWD with the satellite clocks known (independent stations): median over
+ * the epochs at which every station has an epoch of √(Σ σ_s²)/S.
+ */
+function knownMeanSigma(known: { net: NetworkDesign; solution: NetworkSolution }[], scales: number[]): number {
+  const byEpoch = new Map<number, { sum: number; count: number }>();
+  known.forEach(({ net, solution }, i) => {
+    const f = scales[i]! ** 2;
+    const st = net.stations[0]!;
+    st.design.epochMs.forEach((t, ks) => {
+      const v = solution.epochs[st.networkEpoch[ks]!]!.variance[0]! * f;
+      const e = byEpoch.get(t) ?? { sum: 0, count: 0 };
+      e.sum += v;
+      e.count++;
+      byEpoch.set(t, e);
+    });
+  });
+  const S = known.length;
+  const values = [...byEpoch.values()].filter((e) => e.count === S).map((e) => Math.sqrt(e.sum) / S);
+  return median(values) ?? Number.NaN;
+}
+
+/** Satellite clocks known: stations are independent, σ²(δw_s − δw_ref) = σ_s² + σ_ref² at common epochs. */
+function addKnownRelative(results: NetworkStationResult[], reference: number): void {
+  const ref = results[reference]!;
+  const refEpoch = new Map(ref.epochs.map((e) => [e.epochMs, e.sigmaM]));
+  const refNode = new Map(ref.zwdNodes.map((n) => [n.epochMs, n.sigmaM]));
+  results.forEach((r, s) => {
+    for (const e of r.epochs) {
+      const v = refEpoch.get(e.epochMs);
+      e.relativeSigmaM = s === reference ? 0 : v === undefined ? Number.NaN : Math.hypot(e.sigmaM, v);
+    }
+    for (const n of r.zwdNodes) {
+      const v = refNode.get(n.epochMs);
+      n.relativeSigmaM = s === reference ? 0 : v === undefined ? null : Math.hypot(n.sigmaM, v);
+    }
+    r.medianRelativeSigmaM = median(r.epochs.map((e) => e.relativeSigmaM)) ?? Number.NaN;
+  });
+}
+
+function median(values: number[]): number | null {
+  const v = values.filter((x) => Number.isFinite(x)).sort((a, b) => a - b);
+  if (v.length === 0) return null;
+  const h = Math.floor(v.length / 2);
+  return v.length % 2 ? v[h]! : (v[h - 1]! + v[h]!) / 2;
+}

@@ -1,0 +1,289 @@
+/**
+ * Frontal LDLᵀ for the network normal equations, with a selected inverse computed by a reverse
+ * sweep over the front.
+ *
+ * The single-station solver (../frontal-ldl.ts) keeps at most six parameters in its front. In a
+ * network every epoch couples the ZWD and gradient nodes of all stations (through the clocks that
+ * were eliminated), so the front holds 6 S parameters (S stations) and is dense. The method is the
+ * same (Irons (1970), Int. J. Numer. Meth. Eng. 2, 5–32, from memory: parameters enter the front
+ * when first needed and are eliminated as soon as nothing later uses them), with two changes:
+ *
+ * - neighbour lists of any length (the single-station code stores at most 255);
+ * - the selected inverse (Takahashi, Fagan & Chen (1973); Erisman & Tinney (1975), from memory),
+ *     Z_pq = −Σ_{r∈S_p} L_rp Z_rq  (q ∈ S_p),   Z_pp = 1/d_p − Σ_{q∈S_p} L_qp Z_pq,
+ *   is evaluated in reverse elimination order while a dense "reverse front" holds Z for exactly the
+ *   parameters that were in the forward front at that moment. So every Z_rq the recursion needs is
+ *   a lookup in a dense array (O(F²) per parameter, F the front size), and at each point of the
+ *   forward assembly (a stamp = number of parameters eliminated then) the caller can read the full
+ *   covariance block of the parameters that were in the front (`onStamp`): that is where the
+ *   network code reads the covariance of every station's nodes at an epoch.
+ *
+ * A pivot that is not positive or below PIVOT_TOLERANCE times the parameter's own accumulated
+ * diagonal means the parameter is not determined: SingularParameterError names it.
+ */
+
+import { PIVOT_TOLERANCE, SingularParameterError } from '../frontal-ldl.js';
+
+export interface ReverseSweepVisitor {
+  /** Called once for every pair (p, q) on the factor's pattern, p ≠ q, with Z_pq = (N⁻¹)_pq. */
+  onPair?(p: number, q: number, zpq: number): void;
+  /**
+   * Called for every stamp c = P..0 after the reverse front holds the parameters that were in the
+   * forward front when `eliminatedCount` was c; `get(p, q)` reads (N⁻¹)_pq for two of them.
+   */
+  onStamp?(stamp: number, get: (p: number, q: number) => number): void;
+}
+
+export class NetworkFrontal {
+  private readonly slotOf: Int32Array;
+  private readonly paramAt: Int32Array;
+  private readonly front: Float64Array;
+  private readonly rhsFront: Float64Array;
+  private readonly directDiagonal: Float64Array;
+  private readonly activation: Int32Array;
+  private readonly position: Int32Array;
+  private readonly order: Int32Array;
+  private readonly pivot: Float64Array;
+  private readonly forward: Float64Array;
+  private readonly neighbourStart: Int32Array;
+  private neighbour: Int32Array;
+  private factor: Float64Array;
+  private stored = 0;
+  private eliminated = 0;
+  /** Diagonal of N⁻¹ after reverseSweep(). */
+  readonly inverseDiagonal: Float64Array;
+
+  constructor(
+    readonly parameters: number,
+    readonly maxFront: number,
+  ) {
+    this.slotOf = new Int32Array(parameters).fill(-1);
+    this.paramAt = new Int32Array(maxFront).fill(-1);
+    this.front = new Float64Array(maxFront * maxFront);
+    this.rhsFront = new Float64Array(maxFront);
+    this.directDiagonal = new Float64Array(parameters);
+    this.activation = new Int32Array(parameters).fill(-1);
+    this.position = new Int32Array(parameters).fill(-1);
+    this.order = new Int32Array(parameters);
+    this.pivot = new Float64Array(parameters);
+    this.forward = new Float64Array(parameters);
+    this.neighbourStart = new Int32Array(parameters + 1);
+    const initial = Math.max(16, Math.min(parameters * (maxFront - 1), 1 << 20));
+    this.neighbour = new Int32Array(initial);
+    this.factor = new Float64Array(initial);
+    this.inverseDiagonal = new Float64Array(parameters);
+  }
+
+  /** Number of parameters eliminated so far (the stamp of the current assembly point). */
+  get eliminatedCount(): number {
+    return this.eliminated;
+  }
+
+  slot(p: number): number {
+    const s = this.slotOf[p]!;
+    if (s < 0) throw new Error(`parameter ${p} is not in the front`);
+    return s;
+  }
+
+  activate(p: number): void {
+    if (this.activation[p]! >= 0) throw new Error(`parameter ${p} was activated before`);
+    let s = 0;
+    while (s < this.maxFront && this.paramAt[s]! >= 0) s++;
+    if (s === this.maxFront) throw new Error('front is full');
+    this.paramAt[s] = p;
+    this.slotOf[p] = s;
+    this.activation[p] = this.eliminated;
+    const mf = this.maxFront;
+    for (let t = 0; t < mf; t++) {
+      this.front[s * mf + t] = 0;
+      this.front[t * mf + s] = 0;
+    }
+    this.rhsFront[s] = 0;
+  }
+
+  /** Adds v to N_pq and N_qp (once to N_pp when p = q), by front slots. */
+  addAtSlots(sp: number, sq: number, v: number): void {
+    this.front[sp * this.maxFront + sq]! += v;
+    if (sp !== sq) this.front[sq * this.maxFront + sp]! += v;
+  }
+
+  /**
+   * Adds B R Bᵀ for `count` local parameters: N[slot_i, slot_j] += c_i c_j R[row_i, row_j] and
+   * g[slot_i] += c_i r[row_i] (R symmetric, leading dimension ld; slots distinct).
+   */
+  addProjected(count: number, slots: Int32Array, c: Float64Array, rows: Int32Array, R: Float64Array, ld: number, r: Float64Array): void {
+    const mf = this.maxFront;
+    const front = this.front;
+    for (let i = 0; i < count; i++) {
+      const si = slots[i]!;
+      const ci = c[i]!;
+      const rowR = rows[i]! * ld;
+      this.rhsFront[si]! += ci * r[rows[i]!]!;
+      const rowF = si * mf;
+      for (let j = 0; j < i; j++) {
+        const v = ci * c[j]! * R[rowR + rows[j]!]!;
+        front[rowF + slots[j]!]! += v;
+        front[slots[j]! * mf + si]! += v;
+      }
+      front[rowF + si]! += ci * ci * R[rowR + rows[i]!]!;
+    }
+  }
+
+  addRhsAtSlot(sp: number, v: number): void {
+    this.rhsFront[sp]! += v;
+  }
+
+  /** The parameter's own diagonal contribution before any elimination (for the singularity test). */
+  addDirectDiagonal(p: number, v: number): void {
+    this.directDiagonal[p]! += v;
+  }
+
+  /** Pseudo-observation x_p − x_q = 0 ± σ with weight w = 1/σ². */
+  addDifferenceConstraint(p: number, q: number, weight: number): void {
+    const sp = this.slot(p);
+    const sq = this.slot(q);
+    const mf = this.maxFront;
+    this.front[sp * mf + sp]! += weight;
+    this.front[sq * mf + sq]! += weight;
+    this.front[sp * mf + sq]! -= weight;
+    this.front[sq * mf + sp]! -= weight;
+    this.directDiagonal[p]! += weight;
+    this.directDiagonal[q]! += weight;
+  }
+
+  /** Pseudo-observation x_p = 0 ± σ with weight w = 1/σ². */
+  addValueConstraint(p: number, weight: number): void {
+    const sp = this.slot(p);
+    this.front[sp * this.maxFront + sp]! += weight;
+    this.directDiagonal[p]! += weight;
+  }
+
+  private reserve(extra: number): void {
+    if (this.stored + extra <= this.neighbour.length) return;
+    const size = Math.max(this.stored + extra, Math.ceil(this.neighbour.length * 1.5));
+    const n = new Int32Array(size);
+    n.set(this.neighbour.subarray(0, this.stored));
+    const f = new Float64Array(size);
+    f.set(this.factor.subarray(0, this.stored));
+    this.neighbour = n;
+    this.factor = f;
+  }
+
+  /** Eliminates p: one pivot, one column of L, Schur complement into the rest of the front. */
+  eliminate(p: number): void {
+    const s = this.slot(p);
+    const mf = this.maxFront;
+    const d = this.front[s * mf + s]!;
+    if (!(d > PIVOT_TOLERANCE * this.directDiagonal[p]!) || !(d > 0)) throw new SingularParameterError(p);
+    this.reserve(mf);
+    const base = this.stored;
+    let count = 0;
+    const gs = this.rhsFront[s]!;
+    const rowS = s * mf;
+    for (let t = 0; t < mf; t++) {
+      const q = this.paramAt[t]!;
+      if (t === s || q < 0) continue;
+      const l = this.front[t * mf + s]! / d;
+      this.neighbour[base + count] = q;
+      this.factor[base + count] = l;
+      count++;
+      if (l !== 0) {
+        const rowT = t * mf;
+        for (let u = 0; u < mf; u++) this.front[rowT + u]! -= l * this.front[rowS + u]!;
+        this.rhsFront[t]! -= l * gs;
+      }
+    }
+    this.stored += count;
+    this.neighbourStart[this.eliminated] = base;
+    this.neighbourStart[this.eliminated + 1] = base + count;
+    this.pivot[p] = d;
+    this.forward[p] = gs;
+    this.position[p] = this.eliminated;
+    this.order[this.eliminated++] = p;
+    this.paramAt[s] = -1;
+    this.slotOf[p] = -1;
+  }
+
+  eliminateAll(): void {
+    for (let s = 0; s < this.maxFront; s++) {
+      const p = this.paramAt[s]!;
+      if (p >= 0) this.eliminate(p);
+    }
+    if (this.eliminated !== this.parameters) throw new Error(`${this.parameters - this.eliminated} parameters were never eliminated`);
+  }
+
+  /** Solution of N x = g (after eliminateAll). */
+  solve(): Float64Array {
+    const x = new Float64Array(this.parameters);
+    for (let k = this.parameters - 1; k >= 0; k--) {
+      const p = this.order[k]!;
+      let v = this.forward[p]! / this.pivot[p]!;
+      for (let c = this.neighbourStart[k]!; c < this.neighbourStart[k + 1]!; c++) v -= this.factor[c]! * x[this.neighbour[c]!]!;
+      x[p] = v;
+    }
+    return x;
+  }
+
+  /** Selected inverse by the reverse sweep (module comment); fills inverseDiagonal. */
+  reverseSweep(visitor: ReverseSweepVisitor = {}): void {
+    const P = this.parameters;
+    const mf = this.maxFront;
+    const z = new Float64Array(mf * mf);
+    const rslot = new Int32Array(P).fill(-1);
+    const rparam = new Int32Array(mf).fill(-1);
+    // Parameters by activation stamp, to leave the reverse front when the sweep passes it.
+    const byActivation = new Int32Array(P + 2);
+    for (let p = 0; p < P; p++) byActivation[this.activation[p]! + 1]!++;
+    for (let c = 1; c < P + 2; c++) byActivation[c]! += byActivation[c - 1]!;
+    const activatedAt = new Int32Array(P);
+    const fill = byActivation.slice();
+    for (let p = 0; p < P; p++) activatedAt[fill[this.activation[p]!]!++] = p;
+    const get = (p: number, q: number): number => {
+      const a = rslot[p]!;
+      const b = rslot[q]!;
+      if (a < 0 || b < 0) throw new Error(`element (${p}, ${q}) of the inverse is not in the reverse front`);
+      return z[a * mf + b]!;
+    };
+    const zrow = new Float64Array(mf);
+    const nslots = new Int32Array(mf);
+    for (let c = P; c >= 0; c--) {
+      if (c + 1 <= P) {
+        for (let i = byActivation[c + 1]!; i < byActivation[c + 2]!; i++) {
+          const q = activatedAt[i]!;
+          const s = rslot[q]!;
+          if (s >= 0) {
+            rslot[q] = -1;
+            rparam[s] = -1;
+          }
+        }
+      }
+      if (c < P) {
+        const p = this.order[c]!;
+        const start = this.neighbourStart[c]!;
+        const count = this.neighbourStart[c + 1]! - start;
+        for (let a = 0; a < count; a++) nslots[a] = rslot[this.neighbour[start + a]!]!;
+        let zpp = 1 / this.pivot[p]!;
+        for (let a = 0; a < count; a++) {
+          const row = nslots[a]! * mf;
+          let v = 0;
+          for (let b = 0; b < count; b++) v -= this.factor[start + b]! * z[row + nslots[b]!]!;
+          zrow[a] = v;
+          zpp -= this.factor[start + a]! * v;
+        }
+        let s = 0;
+        while (rparam[s]! >= 0) s++;
+        rparam[s] = p;
+        rslot[p] = s;
+        z[s * mf + s] = zpp;
+        this.inverseDiagonal[p] = zpp;
+        for (let a = 0; a < count; a++) {
+          const t = nslots[a]!;
+          z[s * mf + t] = zrow[a]!;
+          z[t * mf + s] = zrow[a]!;
+          visitor.onPair?.(p, this.neighbour[start + a]!, zrow[a]!);
+        }
+      }
+      visitor.onStamp?.(c, get);
+    }
+  }
+}

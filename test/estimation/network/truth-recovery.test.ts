@@ -1,0 +1,90 @@
+/**
+ * Truth recovery (issue 12): a seeded 10-station, 1-day simulation (a regional cluster and distant
+ * stations, σ0 = 3 mm with σ0/sin e weighting and gross errors as in the single-station validation)
+ * with satellite and receiver clocks estimated. The ZWD differences to the reference station must
+ * have a normalised estimation error squared (NEES, mean of (error/σ)²) in 0.5–2: the formal errors
+ * describe the actual errors (common practice for a consistency check).
+ */
+
+import { describe, expect, it } from 'vitest';
+import { estimateNetwork } from '../../../src/estimation/network/estimate-network.js';
+import { networkOptions, simulateNetwork, stationAt, toNetworkInput, truthZwd } from './network-simulator.js';
+
+const C = [50.2, 4.6] as const;
+
+describe('10 stations, 1 day, clocks estimated: NEES of ZWD differences to the reference station', () => {
+  const sim = simulateNetwork({
+    seed: 41,
+    stations: [
+      stationAt('PENROSE', ...C, 0, 0),
+      stationAt('QUARRY', ...C, 120, 20),
+      stationAt('RUSHMERE', ...C, 180, 100),
+      stationAt('SALTCOTE', ...C, 90, 170),
+      stationAt('TARNWICK', ...C, 200, 250),
+      stationAt('UPLANDS', ...C, 140, 320),
+      stationAt('VALEHEAD', ...C, 600, 60),
+      stationAt('WESTHOLT', ...C, 2100, 230),
+      stationAt('YARROWBY', ...C, 3500, 120),
+      stationAt('ZEALCOMBE', ...C, 5200, 290),
+    ],
+    startIso: '2026-09-10T00:00:00Z',
+    durationS: 86_400,
+    samplingS: 120,
+    minElevationDeg: 3,
+    sigma0M: 0.003,
+    satellitesPerPlane: 5,
+    zwd: { intervalS: 3600, randomWalkMPerSqrtH: 0.01, initialSigmaM: 0.05 },
+    gradients: { intervalS: 21_600, randomWalkMPerSqrtH: 0.001, initialSigmaM: 0.0005 },
+    commonOffsetM: 0,
+    receiverClockAmplitudeM: 300_000,
+    satelliteClockAmplitudeM: 300_000,
+    grossErrors: 20,
+  });
+  const out = estimateNetwork(
+    toNetworkInput(
+      sim,
+      networkOptions({
+        referenceStation: 'PENROSE',
+        zwd: { intervalS: 3600, randomWalkMPerSqrtH: 0.01, aprioriSigmaM: 0.5 },
+        scaleSigmas: true,
+      }),
+    ),
+  );
+
+  it('NEES of node differences in 0.5–2; absolute NEES too', () => {
+    const ref = 0;
+    let nees = 0;
+    let neesAbs = 0;
+    let n = 0;
+    let nAbs = 0;
+    out.stations.forEach((st, s) => {
+      st.zwdNodes.forEach((node, j) => {
+        const err = node.correctionM - truthZwd(sim, s, node.epochMs);
+        neesAbs += (err / node.sigmaM) ** 2;
+        nAbs++;
+        if (s === ref) return;
+        const errRef = out.stations[ref]!.zwdNodes[j]!.correctionM - truthZwd(sim, ref, node.epochMs);
+        nees += ((err - errRef) / node.relativeSigmaM!) ** 2;
+        n++;
+      });
+    });
+    nees /= n;
+    neesAbs /= nAbs;
+    expect(n).toBe(9 * 25);
+    expect(nees).toBeGreaterThan(0.5);
+    expect(nees).toBeLessThan(2);
+    expect(neesAbs).toBeGreaterThan(0.5);
+    expect(neesAbs).toBeLessThan(2);
+  });
+
+  it('flags the injected gross errors (≤ 5 false alarms) and keeps the variance factor near 1', () => {
+    const rejected = new Set(out.stations.flatMap((s) => s.rejected.map((r) => r.index)));
+    const caught = sim.grossErrorIndices.filter((i) => rejected.has(i)).length;
+    // A gross error on a satellite that no other station sees at that epoch carries no information and is dropped instead.
+    const dropped = sim.grossErrorIndices.length - caught;
+    expect(dropped).toBeLessThanOrEqual(2);
+    expect(rejected.size - caught).toBeLessThanOrEqual(5);
+    expect(out.statistics.varianceFactor!).toBeGreaterThan(0.9);
+    expect(out.statistics.varianceFactor!).toBeLessThan(1.1);
+  });
+});
