@@ -14,6 +14,11 @@ const HTTP_PACKAGES = 'node_modules/(fastify|fastify-plugin|fastify-type-provide
 /** Packages and core modules that do I/O or logging: none of them in the pure physics. */
 const IO_PACKAGES = 'node_modules/(fastify|fastify-plugin|fastify-type-provider-zod|@fastify/[^/]+|zod|pino|pg|better-sqlite3|piscina)/';
 const FS_MODULES = '^(node:)?fs(/promises)?$';
+/**
+ * Leaf modules at the top of src/: plain constants that every layer outside the physics may read (the service's
+ * limits, its version). They import nothing (rule leaf-modules-import-nothing), so reading them adds no edge.
+ */
+const LEAF_MODULES = '^src/(limits|version)\\.ts$';
 
 /** @type {import('dependency-cruiser').IConfiguration} */
 module.exports = {
@@ -49,9 +54,9 @@ module.exports = {
     {
       name: 'formats-only-domain',
       severity: 'error',
-      comment: 'Readers and writers of text formats build on the domain only (time scales, units).',
+      comment: 'Readers and writers of text formats build on the domain only (time scales, units), and read the limits.',
       from: { path: '^src/formats/' },
-      to: { path: '^src/', pathNot: '^src/(formats|domain)/' },
+      to: { path: '^src/', pathNot: ['^src/(formats|domain)/', LEAF_MODULES] },
     },
     {
       name: 'services-not-outward',
@@ -60,7 +65,7 @@ module.exports = {
         'Use cases in domain shapes: they call domain, estimation, formats and storage, never src/http (API shapes), ' +
         'src/workers (who runs them) or src/server.ts.',
       from: { path: '^src/services/' },
-      to: { path: '^src/', pathNot: '^src/(services|domain|estimation|formats|storage)/' },
+      to: { path: '^src/', pathNot: ['^src/(services|domain|estimation|formats|storage)/', LEAF_MODULES] },
     },
     {
       name: 'services-storage-interfaces-only',
@@ -91,6 +96,15 @@ module.exports = {
       to: { path: '^src/http/' },
     },
     {
+      name: 'config-at-the-edge',
+      comment:
+        'src/config.ts (environment, validated with zod) and src/server.ts are read by src/http and src/server.ts only: ' +
+        'inner layers get their settings as arguments, and so never reach zod through the configuration.',
+      severity: 'error',
+      from: { path: '^src/', pathNot: '^src/http/|^src/server\\.ts$' },
+      to: { path: '^src/(config|server)\\.ts$' },
+    },
+    {
       name: 'http-packages-at-the-edge',
       severity: 'error',
       comment:
@@ -98,6 +112,13 @@ module.exports = {
         'src/server.ts starts fastify, so both are allowed.',
       from: { path: '^src/', pathNot: '^src/http/|^src/config\\.ts$|^src/server\\.ts$' },
       to: { path: HTTP_PACKAGES },
+    },
+    {
+      name: 'leaf-modules-import-nothing',
+      severity: 'error',
+      comment: 'src/limits.ts and src/version.ts are read from every layer, so they import nothing themselves.',
+      from: { path: LEAF_MODULES },
+      to: { path: '.' },
     },
     {
       name: 'no-dev-deps-in-src',

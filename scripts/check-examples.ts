@@ -23,7 +23,8 @@
  * ignored. The shown output keeps the values of a real run. Commands use port 8080 and the data folder
  * `${TROPO_DATA_DIR:-data}`; the script runs them against its own port and folder and shows 8080 again.
  *
- * `--update` rewrites the shown outputs from the real ones (after a change of an output, check the diff).
+ * `--update` rewrites the shown outputs that differ from the real ones (after a change of an output, check
+ * the diff); matching outputs keep their shown text, volatile values included.
  * Exit code 0 when every example matched, 1 at the first mismatch (with a diff), 2 for a usage error.
  */
 
@@ -110,7 +111,8 @@ export function parseExamples(markdown: string, file: string): ExampleBlock[] {
 export function parseSteps(content: string[], where: string): ExampleStep[] {
   const steps: ExampleStep[] = [];
   let k = 0;
-  if (content.length > 0 && !content[0]!.startsWith(PROMPT)) throw new Error(`${where}: an example block must start with a command line ("$ ...")`);
+  if (content.length > 0 && !content[0]!.startsWith(PROMPT))
+    throw new Error(`${where}: an example block must start with a command line ("$ ...")`);
   while (k < content.length) {
     const commandLines = [content[k]!];
     while (commandLines.at(-1)!.endsWith('\\') && k + 1 < content.length) commandLines.push(content[++k]!);
@@ -131,7 +133,10 @@ export function normalise(text: string, volatile: readonly string[]): string {
       out = out.replace(new RegExp(item.slice(1, -1), 'gm'), PLACEHOLDER);
     } else {
       const key = item.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
-      out = out.replace(new RegExp(`("${key}"\\s*:\\s*)("(?:[^"\\\\]|\\\\.)*"|-?\\d[\\d.eE+-]*|null|true|false)`, 'g'), `$1"${PLACEHOLDER}"`);
+      out = out.replace(
+        new RegExp(`("${key}"\\s*:\\s*)("(?:[^"\\\\]|\\\\.)*"|-?\\d[\\d.eE+-]*|null|true|false)`, 'g'),
+        `$1"${PLACEHOLDER}"`,
+      );
     }
   }
   return out
@@ -146,10 +151,7 @@ export function compareOutput(expected: string, actual: string, volatile: readon
   const want = normalise(expected, volatile);
   const got = normalise(actual, volatile);
   if (want === got) return null;
-  return createTwoFilesPatch('shown', 'printed', `${want}\n`, `${got}\n`, '', '', { context: 3 })
-    .split('\n')
-    .slice(2)
-    .join('\n');
+  return createTwoFilesPatch('shown', 'printed', `${want}\n`, `${got}\n`, '', '', { context: 3 }).split('\n').slice(2).join('\n');
 }
 
 /** The command with the shown port replaced by the service's. */
@@ -198,7 +200,16 @@ async function freePort(): Promise<number> {
 /** The environment of the service and of the shell: the defaults a reader has, with our port and data folder. */
 function cleanEnv(dataDir: string): NodeJS.ProcessEnv {
   const env: NodeJS.ProcessEnv = { ...process.env, TROPO_DATA_DIR: dataDir, TZ: 'UTC', LC_ALL: 'C' };
-  for (const name of ['DATABASE_URL', 'TROPO_API_KEYS', 'TROPO_READ_KEYS_REQUIRED', 'RATE_LIMIT_PER_MINUTE', 'PORT', 'HOST', 'NODE_OPTIONS']) delete env[name];
+  for (const name of [
+    'DATABASE_URL',
+    'TROPO_API_KEYS',
+    'TROPO_READ_KEYS_REQUIRED',
+    'RATE_LIMIT_PER_MINUTE',
+    'PORT',
+    'HOST',
+    'NODE_OPTIONS',
+  ])
+    delete env[name];
   return env;
 }
 
@@ -213,7 +224,11 @@ async function startService(dataDir: string): Promise<Service> {
   if (build.status !== 0) throw new Error('the build failed');
   const port = await freePort();
   const env = { ...cleanEnv(dataDir), PORT: String(port), HOST: '127.0.0.1', LOG_LEVEL: 'warn' };
-  const child = spawn(process.execPath, ['--max-semi-space-size=32', join(ROOT, 'dist/server.js')], { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'] });
+  const child = spawn(process.execPath, ['--max-semi-space-size=32', join(ROOT, 'dist/server.js')], {
+    cwd: ROOT,
+    env,
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
   let log = '';
   child.stdout!.on('data', (d: Buffer) => (log += d.toString()));
   child.stderr!.on('data', (d: Buffer) => (log += d.toString()));
@@ -263,7 +278,8 @@ class Shell {
       const m = done.exec(this.buffer);
       if (m) return { output: this.buffer.slice(0, m.index), status: Number(m[1]) };
       if (this.child.exitCode !== null) throw new Error(`the shell exited (code ${this.child.exitCode}); output so far:\n${this.buffer}`);
-      if (Date.now() > deadline) throw new Error(`the command did not finish within ${COMMAND_TIMEOUT_MS / 1000} s; output so far:\n${this.buffer}`);
+      if (Date.now() > deadline)
+        throw new Error(`the command did not finish within ${COMMAND_TIMEOUT_MS / 1000} s; output so far:\n${this.buffer}`);
       await new Promise((r) => setTimeout(r, 20));
     }
   }
@@ -282,12 +298,12 @@ export function defaultFiles(root = ROOT): string[] {
   return ['README.md', ...docs];
 }
 
-/** Runs the examples of one file; returns false at the first mismatch (after printing it). */
-async function checkFile(file: string, update: boolean): Promise<boolean> {
+/** Runs the examples of one file; returns the number of commands run, or null at the first mismatch (after printing it). */
+async function checkFile(file: string, update: boolean): Promise<number | null> {
   const path = join(ROOT, file);
   const markdown = readFileSync(path, 'utf8');
   const blocks = parseExamples(markdown, file);
-  if (blocks.length === 0) return true;
+  if (blocks.length === 0) return 0;
   const steps = blocks.reduce((n, b) => n + b.steps.length, 0);
   process.stdout.write(`${file}: ${blocks.length} examples, ${steps} commands\n`);
   const work = mkdtempSync(join(tmpdir(), 'tropodelay-examples-'));
@@ -296,29 +312,35 @@ async function checkFile(file: string, update: boolean): Promise<boolean> {
   const shell = new Shell(cleanEnv(dataDir));
   const outputs: string[][] = [];
   let ok = true;
+  let ran = 0;
   try {
     for (const block of blocks) {
       const blockOutputs: string[] = [];
       outputs.push(blockOutputs);
       for (const step of block.steps) {
         const started = Date.now();
+        ran++;
         const { output, status } = await shell.run(toServicePort(step.command, service.port));
         const printed = toShownPort(output, service.port);
-        blockOutputs.push(printed);
         const where = `${file}:${block.line}`;
         const shownCommand = step.commandLines.join('\n');
         if (status !== 0) {
           process.stdout.write(`\nFAIL ${where}: the command exited with status ${status}\n${shownCommand}\n${printed}\n`);
           if (service.child.exitCode !== null) process.stdout.write(`service log:\n${service.log()}\n`);
-          return false;
+          return null;
         }
         const diff = compareOutput(step.expected, printed, block.volatile);
+        // --update takes the printed output only where it differs: a match keeps the shown one (its
+        // volatile values too), so the rewrite changes no more lines than the outputs did.
+        blockOutputs.push(diff === null ? step.expected : printed);
         if (diff !== null && !update) {
           process.stdout.write(`\nFAIL ${where}: the output differs from the one shown\n${shownCommand}\n${diff}\n`);
           process.stdout.write('(run `npm run check-examples -- --update` to take the printed outputs, then review the diff)\n');
-          return false;
+          return null;
         }
-        process.stdout.write(`  ${diff === null ? 'ok     ' : 'updated'} ${where} ${step.command.split('\n')[0]!.slice(0, 90)} (${Date.now() - started} ms)\n`);
+        process.stdout.write(
+          `  ${diff === null ? 'ok     ' : 'updated'} ${where} ${step.command.split('\n')[0]!.slice(0, 90)} (${Date.now() - started} ms)\n`,
+        );
       }
     }
     if (update) {
@@ -336,7 +358,7 @@ async function checkFile(file: string, update: boolean): Promise<boolean> {
     await stopService(service);
     rmSync(work, { recursive: true, force: true });
   }
-  return ok;
+  return ok ? ran : null;
 }
 
 const HELP = `Usage: npm run check-examples [-- --update] [-- FILE.md ...]
@@ -349,7 +371,11 @@ shown in the markdown. --update rewrites the shown outputs from the printed ones
 async function main(): Promise<void> {
   let parsed;
   try {
-    parsed = parseArgs({ args: process.argv.slice(2), allowPositionals: true, options: { update: { type: 'boolean' }, help: { type: 'boolean', short: 'h' } } });
+    parsed = parseArgs({
+      args: process.argv.slice(2),
+      allowPositionals: true,
+      options: { update: { type: 'boolean' }, help: { type: 'boolean', short: 'h' } },
+    });
   } catch (err) {
     process.stderr.write(`check-examples: ${err instanceof Error ? err.message : String(err)}\n(see --help)\n`);
     process.exit(2);
@@ -358,19 +384,31 @@ async function main(): Promise<void> {
     process.stdout.write(HELP);
     return;
   }
+  const missing = ['bash', 'curl', 'jq'].filter((tool) => spawnSync('sh', ['-c', `command -v ${tool}`]).status !== 0);
+  if (missing.length > 0) {
+    process.stderr.write(
+      `check-examples: the examples need ${missing.join(', ')}; install them first (Debian: apt-get install ${missing.join(' ')})\n`,
+    );
+    process.exit(2);
+  }
   const files = parsed.positionals.length > 0 ? parsed.positionals.map((f) => relative(ROOT, join(process.cwd(), f))) : defaultFiles();
   const started = Date.now();
-  let checked = 0;
+  let filesWithExamples = 0;
+  let commands = 0;
   for (const file of files) {
-    if (!(await checkFile(file, parsed.values.update === true))) process.exit(1);
-    checked++;
+    const ran = await checkFile(file, parsed.values.update === true);
+    if (ran === null) process.exit(1);
+    if (ran > 0) filesWithExamples++;
+    commands += ran;
   }
-  process.stdout.write(`check-examples: ${checked} files, every example ${parsed.values.update ? 'run and its output taken' : 'matched'} (${((Date.now() - started) / 1000).toFixed(1)} s)\n`);
+  process.stdout.write(
+    `check-examples: ${commands} commands in ${filesWithExamples} of ${files.length} files, every one ${parsed.values.update ? 'run and its output taken' : 'matched'} (${((Date.now() - started) / 1000).toFixed(1)} s)\n`,
+  );
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
   main().catch((err: unknown) => {
-    process.stderr.write(`check-examples: ${err instanceof Error ? err.stack ?? err.message : String(err)}\n`);
+    process.stderr.write(`check-examples: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}\n`);
     process.exit(1);
   });
 }

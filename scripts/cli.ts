@@ -53,7 +53,10 @@ export function parseCli(spec: CliSpec, argv: string[]): { help: boolean; values
       strict: true,
       allowPositionals: false,
       options: Object.fromEntries(
-        Object.entries({ ...spec.options, help: HELP_OPTION }).map(([name, o]) => [name, { type: o.type, ...(name === 'help' ? { short: 'h' } : {}) }]),
+        Object.entries({ ...spec.options, help: HELP_OPTION }).map(([name, o]) => [
+          name,
+          { type: o.type, ...(name === 'help' ? { short: 'h' } : {}) },
+        ]),
       ),
     });
   } catch (err) {
@@ -71,15 +74,18 @@ export function parseCli(spec: CliSpec, argv: string[]): { help: boolean; values
 export function numberOption(values: Record<string, string | boolean | undefined>, name: string, min: number, max: number): number {
   const text = values[name];
   const n = typeof text === 'string' && text.trim() !== '' ? Number(text) : Number.NaN;
-  if (!Number.isFinite(n) || n < min || n > max) throw new UsageError(`--${name} must be a number in [${min}, ${max}], got ${JSON.stringify(text)}`);
+  if (!Number.isFinite(n) || n < min || n > max)
+    throw new UsageError(`--${name} must be a number in [${min}, ${max}], got ${JSON.stringify(text)}`);
   return n;
 }
 
 /** An ISO 8601 date-time with a zone (Z or ±hh:mm) from option `name`, as epoch milliseconds. */
 export function epochOption(values: Record<string, string | boolean | undefined>, name: string): number {
   const text = values[name];
-  const ms = typeof text === 'string' && /^\d{4}-\d\d-\d\dT\d\d:\d\d(:\d\d(\.\d+)?)?(Z|[+-]\d\d:\d\d)$/.test(text) ? Date.parse(text) : Number.NaN;
-  if (!Number.isFinite(ms)) throw new UsageError(`--${name} must be an ISO 8601 date-time with a zone, e.g. 2026-07-10T00:00:00Z, got ${JSON.stringify(text)}`);
+  const ms =
+    typeof text === 'string' && /^\d{4}-\d\d-\d\dT\d\d:\d\d(:\d\d(\.\d+)?)?(Z|[+-]\d\d:\d\d)$/.test(text) ? Date.parse(text) : Number.NaN;
+  if (!Number.isFinite(ms))
+    throw new UsageError(`--${name} must be an ISO 8601 date-time with a zone, e.g. 2026-07-10T00:00:00Z, got ${JSON.stringify(text)}`);
   return ms;
 }
 
@@ -87,7 +93,11 @@ export function epochOption(values: Record<string, string | boolean | undefined>
  * Runs a generator's command line: prints the help for `--help`, reports a usage error with exit
  * code 2, else calls `main` with the parsed values.
  */
-export function runCli(spec: CliSpec, main: (values: Record<string, string | boolean | undefined>) => void, argv = process.argv.slice(2)): void {
+export function runCli(
+  spec: CliSpec,
+  main: (values: Record<string, string | boolean | undefined>) => void,
+  argv = process.argv.slice(2),
+): void {
   try {
     const { help, values } = parseCli(spec, argv);
     if (help) {

@@ -3,41 +3,55 @@
  *
  *   r_i = m_w(e_i) δw(t_k) + m_g(e_i) [cos a_i G_N(t_k) + sin a_i G_E(t_k)] + b_k + ε_i
  *
- * - m_w: Niell (1996) wet mapping function at the site latitude (domain/mapping/niell.ts);
+ * - m_w: the wet mapping function of options.wetMapping (default Niell (1996) at the site latitude;
+ *   VMF1 with per-epoch coefficients; domain/mapping/registry.ts);
  * - m_g: Chen & Herring (1997) gradient mapping, C = 0.0032 (domain/gradients/gradient-mapping.ts);
- * - δw, G_N, G_E piecewise linear between nodes T0 + jΔ, j = 0..J (node layout below);
+ * - δw, G_N, G_E random walks with a state at every epoch ("every-epoch", default), or piecewise
+ *   linear between nodes jΔ on round UTC epochs ("nodes") (node layout below);
  * - b_k one bias per epoch (pre-eliminated by the normal-equation code);
- * - σ_i = sigma_m, else σ0/sin e ("elevation") or σ0 ("uniform"); weight 1/σ_i².
+ * - σ_i = sigma_m, else σ² = a² + b²/sin²e (setWeights; "elevation": a = 0, b = σ0; "uniform":
+ *   a = σ0, b = 0); weight 1/σ_i².
  *
  * This file groups observations by epoch, lays out the nodes and computes the partial derivatives.
  */
 
 import { ModelDomainError } from '../domain/errors.js';
 import { chenHerringGradientMapping } from '../domain/gradients/gradient-mapping.js';
-import { marini } from '../domain/mapping/continued-fraction.js';
-import { niellWetCoefficients } from '../domain/mapping/niell.js';
+import { DEFAULT_MAPPING_MODEL, MAPPING_MODELS } from '../domain/mapping/registry.js';
+import { fractionalDayOfYear } from '../domain/time.js';
 import type { ZwdEstimationInput } from './types.js';
 
 /** Largest number of nodes of one parameter; more is a request error (interval too short for the span). */
 export const MAX_NODES = 200_000;
 
-/** Nodes T0 + jΔ, j = 0..count−1. */
+/**
+ * Node epochs of one parameter family: regular nodes jΔ on round UTC epochs ("nodes", and the
+ * output nodes of "every-epoch"), or one state per epoch ("every-epoch").
+ */
 export interface NodeLayout {
-  firstEpochMs: number;
+  /** Node epochs [ms], increasing. */
+  nodeMs: Float64Array;
+  /** Nominal spacing Δ [ms] (the option; the actual spacing of "every-epoch" states varies). */
   intervalMs: number;
   /** J + 1. */
   count: number;
+  /** True when nodeMs[j] = first + jΔ (locate() then needs no search). */
+  regular: boolean;
 }
 
 /**
- * J is the smallest integer with T0 + JΔ ≥ last epoch (one node for a single epoch). A relative
- * tolerance of 1e-9 Δ keeps an epoch that falls on a node (up to rounding) from adding a node.
+ * Regular nodes on round UTC epochs: the first node is the last multiple of Δ since
+ * 1970-01-01T00:00Z at or before the first epoch (so 300 s nodes sit at :00, :05, …, 1 h nodes on
+ * the hour, whatever the first observation), the last the first multiple at or after the last
+ * epoch. A relative tolerance of 1e-9 Δ keeps an epoch that falls on a node (up to rounding) from
+ * adding a node.
  *
- * @param firstEpochMs T0 [ms]  @param lastEpochMs last epoch [ms]  @param intervalS Δ [s], > 0
+ * @param firstEpochMs first epoch [ms]  @param lastEpochMs last epoch [ms]  @param intervalS Δ [s], > 0
  */
 export function nodeLayout(firstEpochMs: number, lastEpochMs: number, intervalS: number, field: string): NodeLayout {
   const intervalMs = intervalS * 1000;
-  const spanIntervals = (lastEpochMs - firstEpochMs) / intervalMs;
+  const first = Math.floor(firstEpochMs / intervalMs + 1e-9) * intervalMs;
+  const spanIntervals = (lastEpochMs - first) / intervalMs;
   const j = Math.max(0, Math.ceil(spanIntervals - 1e-9));
   if (j + 1 > MAX_NODES) {
     throw new ModelDomainError(
@@ -46,20 +60,40 @@ export function nodeLayout(firstEpochMs: number, lastEpochMs: number, intervalS:
       400,
     );
   }
-  return { firstEpochMs, intervalMs, count: j + 1 };
+  const nodeMs = new Float64Array(j + 1);
+  for (let i = 0; i <= j; i++) nodeMs[i] = first + i * intervalMs;
+  return { nodeMs, intervalMs, count: j + 1, regular: true };
 }
 
-export const nodeEpochMs = (layout: NodeLayout, j: number): number => layout.firstEpochMs + j * layout.intervalMs;
+/** One state per epoch ("every-epoch"). */
+export function epochStateLayout(epochMs: Float64Array, intervalS: number): NodeLayout {
+  return { nodeMs: epochMs, intervalMs: intervalS * 1000, count: epochMs.length, regular: false };
+}
+
+export const nodeEpochMs = (layout: NodeLayout, j: number): number => layout.nodeMs[j]!;
 
 /**
  * Interval j (nodes j and j+1) holding an epoch, and the weight α of node j+1:
- * x(t) = (1 − α) x_j + α x_{j+1}. With a single node, j = 0 and α = 0.
+ * x(t) = (1 − α) x_j + α x_{j+1}. With a single node, j = 0 and α = 0. Outside the nodes, the
+ * nearest interval with α < 0 or α > 1 (callers that extrapolate check for it).
  */
 export function locate(layout: NodeLayout, epochMs: number): { interval: number; alpha: number } {
   if (layout.count === 1) return { interval: 0, alpha: 0 };
-  const u = (epochMs - layout.firstEpochMs) / layout.intervalMs;
-  const interval = Math.min(Math.max(Math.floor(u), 0), layout.count - 2);
-  return { interval, alpha: u - interval };
+  const t = layout.nodeMs;
+  let interval: number;
+  if (layout.regular) {
+    interval = Math.min(Math.max(Math.floor((epochMs - t[0]!) / layout.intervalMs), 0), layout.count - 2);
+  } else {
+    let lo = 0;
+    let hi = layout.count - 1;
+    while (hi - lo > 1) {
+      const mid = (lo + hi) >> 1;
+      if (t[mid]! <= epochMs) lo = mid;
+      else hi = mid;
+    }
+    interval = lo;
+  }
+  return { interval, alpha: (epochMs - t[interval]!) / (t[interval + 1]! - t[interval]!) };
 }
 
 /** Observations above the cutoff, sorted by epoch, with everything the normal equations need. */
@@ -73,14 +107,22 @@ export interface Design {
   /** 1/σ_i² [1/m²]. */
   weight: Float64Array;
   sigmaM: Float64Array;
-  /** Niell wet mapping factor m_w(e) [-]. */
+  /** σ_i given by the caller [m], NaN where the weighting scheme gives it. */
+  givenSigmaM: Float64Array;
+  /** Wet mapping factor m_w(e) of the chosen model [-]. */
   wetMapping: Float64Array;
   /** m_g(e) cos a and m_g(e) sin a [-]. */
   northMapping: Float64Array;
   eastMapping: Float64Array;
   elevationRad: Float64Array;
+  /** The states of the solution (every epoch, or the regular nodes). */
   zwd: NodeLayout;
   gradients: NodeLayout | null;
+  /** The nodes of the output: regular, on round UTC epochs. */
+  zwdOutput: NodeLayout;
+  gradientOutput: NodeLayout | null;
+  /** Warnings about the parametrisation (a family that fell back to nodes). */
+  parametrisationNotes: string[];
   /** Per epoch: interval and node-(j+1) weight in each layout. */
   zwdInterval: Int32Array;
   zwdAlpha: Float64Array;
@@ -101,7 +143,9 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   // All observations in epoch order (stable sort: ties keep the input order); duplicates are
   // checked on all of them, then those below the cutoff are dropped (and counted).
   const all = Array.from({ length: n }, (_, i) => i);
-  all.sort((a, b) => obs.epochMs[a]! - obs.epochMs[b]!);
+  let sorted = true;
+  for (let i = 1; i < n && sorted; i++) sorted = obs.epochMs[i - 1]! <= obs.epochMs[i]!;
+  if (!sorted) all.sort((a, b) => obs.epochMs[a]! - obs.epochMs[b]!);
   checkDuplicates(input, all);
   const kept: number[] = [];
   let belowCutoff = 0;
@@ -130,35 +174,53 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   }
   epochStarts.push(m);
 
-  const wet = niellWetCoefficients(input.latitudeRad);
+  const epochMsAll = Float64Array.from(epochTimes);
+  const wetAt = wetMappingPerEpoch(input, epochMsAll);
   const residualM = new Float64Array(m);
   const weight = new Float64Array(m);
   const sigmaM = new Float64Array(m);
+  const givenSigmaM = new Float64Array(m).fill(Number.NaN);
   const wetMapping = new Float64Array(m);
   const northMapping = new Float64Array(m);
   const eastMapping = new Float64Array(m);
   const elevationRad = new Float64Array(m);
+  for (let k = 0; k < epochTimes.length; k++) {
+    const wet = wetAt(k);
+    for (let s = epochStarts[k]!; s < epochStarts[k + 1]!; s++) wetMapping[s] = wet(obs.elevationRad[inputIndex[s]!]!);
+  }
   for (let s = 0; s < m; s++) {
     const i = inputIndex[s]!;
     const e = obs.elevationRad[i]!;
-    const sinE = Math.sin(e);
     const given = obs.sigmaM?.[i];
-    const sigma = given ?? (options.weighting === 'elevation' ? options.sigma0M / sinE : options.sigma0M);
+    if (given !== undefined && given !== null) givenSigmaM[s] = given;
     residualM[s] = obs.residualM[i]!;
-    sigmaM[s] = sigma;
-    weight[s] = 1 / (sigma * sigma);
-    wetMapping[s] = marini(sinE, wet.a, wet.b, wet.c);
     const mg = chenHerringGradientMapping(e);
     northMapping[s] = mg * Math.cos(obs.azimuthRad[i]!);
     eastMapping[s] = mg * Math.sin(obs.azimuthRad[i]!);
     elevationRad[s] = e;
   }
 
+  const { a, b } = initialWeighting(options);
+  setWeights({ elevationRad, givenSigmaM, sigmaM, weight }, a, b, 1);
+
   const epochs = epochTimes.length;
   const first = epochTimes[0]!;
   const last = epochTimes[epochs - 1]!;
-  const zwd = nodeLayout(first, last, options.zwd.intervalS, 'options.zwd_interval_s');
-  const gradients = options.gradients ? nodeLayout(first, last, options.gradients.intervalS, 'options.gradients.interval_s') : null;
+  const parametrisation = options.parametrisation ?? 'every-epoch';
+  const zwdOutput = nodeLayout(first, last, options.zwd.intervalS, 'options.zwd_interval_s');
+  const gradientOutput = options.gradients ? nodeLayout(first, last, options.gradients.intervalS, 'options.gradients.interval_s') : null;
+  // Every-epoch states need a random walk to tie consecutive epochs; a family without one keeps
+  // piecewise-linear nodes (and says so).
+  const notes: string[] = [];
+  const everyEpoch = (settings: { randomWalkMPerSqrtH: number | null }, name: string) => {
+    if (parametrisation !== 'every-epoch') return false;
+    if (settings.randomWalkMPerSqrtH !== null) return true;
+    notes.push(`${name} has no random walk: it is piecewise linear between its nodes (parametrisation "nodes"), and its variation between nodes is not in the formal errors`);
+    return false;
+  };
+  const zwd = everyEpoch(options.zwd, 'the ZWD') ? epochStateLayout(epochMsAll, options.zwd.intervalS) : zwdOutput;
+  const gradients =
+    gradientOutput && everyEpoch(options.gradients!, 'each gradient component') ? epochStateLayout(epochMsAll, options.gradients!.intervalS) : gradientOutput;
   const zwdInterval = new Int32Array(epochs);
   const zwdAlpha = new Float64Array(epochs);
   const gradientInterval = new Int32Array(epochs);
@@ -177,21 +239,96 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   return {
     inputIndex,
     epochStart: Int32Array.from(epochStarts),
-    epochMs: Float64Array.from(epochTimes),
+    epochMs: epochMsAll,
     residualM,
     weight,
     sigmaM,
+    givenSigmaM,
     wetMapping,
     northMapping,
     eastMapping,
     elevationRad,
     zwd,
     gradients,
+    zwdOutput,
+    gradientOutput,
+    parametrisationNotes: notes,
     zwdInterval,
     zwdAlpha,
     gradientInterval,
     gradientAlpha,
     observationsBelowCutoff: belowCutoff,
+  };
+}
+
+/**
+ * Starting weights σ² = a² + b²/sin²e of the scheme: "elevation" a = 0, b = σ0; "uniform" a = σ0,
+ * b = 0; "elevation-components" a = sigmaConstantM (default σ0/3, common practice), b = σ0.
+ */
+export function initialWeighting(options: ZwdEstimationInput['options']): { a: number; b: number } {
+  if (options.weighting === 'uniform') return { a: options.sigma0M, b: 0 };
+  if (options.weighting === 'elevation') return { a: 0, b: options.sigma0M };
+  return { a: options.sigmaConstantM ?? options.sigma0M / 3, b: options.sigma0M };
+}
+
+/**
+ * σ_i² = a² + b²/sin²e_i for observations without their own sigma; the caller's σ_i times √scale
+ * for the others (scale: the observations' variance factor of the caller's sigmas).
+ */
+export function setWeights(
+  d: Pick<Design, 'elevationRad' | 'givenSigmaM' | 'sigmaM' | 'weight'>,
+  a: number,
+  b: number,
+  givenScale: number,
+): void {
+  for (let s = 0; s < d.sigmaM.length; s++) {
+    const given = d.givenSigmaM[s]!;
+    const sinE = Math.sin(d.elevationRad[s]!);
+    const variance = Number.isNaN(given) ? a * a + (b * b) / (sinE * sinE) : given * given * givenScale;
+    d.sigmaM[s] = Math.sqrt(variance);
+    d.weight[s] = 1 / variance;
+  }
+}
+
+/**
+ * The chosen wet mapping function (src/domain/mapping/registry.ts) per epoch: models without
+ * coefficients are prepared once; models with coefficients (VMF1 aw) once per epoch, with the
+ * coefficients interpolated linearly in time (held constant outside the given epochs).
+ */
+function wetMappingPerEpoch(input: ZwdEstimationInput, epochMs: Float64Array): (k: number) => (elevationRad: number) => number {
+  const choice = input.options.wetMapping ?? { model: DEFAULT_MAPPING_MODEL };
+  const model = MAPPING_MODELS[choice.model];
+  if (!model) {
+    throw new ModelDomainError('options.wet_mapping', `unknown mapping function "${String(choice.model)}"; one of ${Object.keys(MAPPING_MODELS).join(', ')}`, 400);
+  }
+  const context = (ms: number) => ({ latitudeRad: input.latitudeRad, heightM: input.heightM ?? 0, dayOfYear: fractionalDayOfYear(new Date(ms)) });
+  if (!model.requiresCoefficients) {
+    const evaluator = model.prepare(context(epochMs[0]!));
+    const wet = (e: number) => evaluator.wet(e);
+    return () => wet;
+  }
+  const c = choice.coefficients;
+  if (!c || c.epochMs.length === 0 || c.aw.length !== c.epochMs.length || c.ah.length !== c.epochMs.length) {
+    throw new ModelDomainError(
+      'options.wet_mapping.coefficients',
+      `mapping function "${choice.model}" needs per-epoch coefficients (epochs, ah, aw of equal length, at least one)`,
+      400,
+    );
+  }
+  const order = c.epochMs.map((_, i) => i).sort((p, q) => c.epochMs[p]! - c.epochMs[q]!);
+  const times = order.map((i) => c.epochMs[i]!);
+  const at = (column: number[], ms: number) => {
+    if (ms <= times[0]!) return column[order[0]!]!;
+    if (ms >= times[times.length - 1]!) return column[order[order.length - 1]!]!;
+    let j = 0;
+    while (times[j + 1]! < ms) j++;
+    const f = (ms - times[j]!) / (times[j + 1]! - times[j]!);
+    return column[order[j]!]! * (1 - f) + column[order[j + 1]!]! * f;
+  };
+  return (k) => {
+    const ms = epochMs[k]!;
+    const evaluator = model.prepare({ ...context(ms), coefficients: { ah: at(c.ah, ms), aw: at(c.aw, ms) } });
+    return (e: number) => evaluator.wet(e);
   };
 }
 

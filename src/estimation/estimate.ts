@@ -2,28 +2,47 @@
  * Zenith wet delay (and gradient) estimation from residuals with random-walk constraints: the entry
  * point. Plain data in, plain data out (types.ts), so it can run in a worker thread.
  *
- *   design.ts        grouping by epoch, node layout, partial derivatives, weights
- *   least-squares.ts per-epoch bias elimination, constraints, one solution, residuals and σ_v
- *   frontal-ldl.ts   linear-time LDLᵀ and selected inverse (formal variances and covariances)
- *   outliers.ts      Pope's τ for screening
+ *   design.ts          grouping by epoch, node layout, partial derivatives, weights
+ *   least-squares.ts   per-epoch bias elimination, constraints, one solution, residuals and σ_v
+ *   frontal-ldl.ts     linear-time LDLᵀ and selected inverse (formal variances and covariances)
+ *   outliers.ts        Pope's τ for screening
+ *   correlated-noise.ts residual autocorrelation per satellite arc, variance inflation
+ *
+ * The loop: solve; re-estimate the observation weights (variance components) until they settle;
+ * screen for outliers and re-solve; then inflate the formal variances for the time-correlated
+ * noise and report the nodes on round UTC epochs (docs/zwd-estimation.md, "Formal errors").
  */
 
 import { ModelDomainError } from '../domain/errors.js';
-import { buildDesign, nodeEpochMs, type Design } from './design.js';
+import { epochInformation, kernelFactor, residualAutocorrelation, varianceInflation } from './correlated-noise.js';
+import { buildDesign, initialWeighting, locate, nodeEpochMs, setWeights, type Design, type NodeLayout } from './design.js';
 import { SingularParameterError } from './frontal-ldl.js';
-import { rejectionCandidates } from './outliers.js';
-import { parameterLayout, solveOnce, type ParameterLayout, type Solution } from './least-squares.js';
+import { epochStateRejectionWindowMs, nodeRejectionWindowMs, rejectionCandidates } from './outliers.js';
+import { MIN_TESTABLE_REDUNDANCY, parameterLayout, solveOnce, type ParameterLayout, type Solution } from './least-squares.js';
 import type {
+  ElevationBandStatistics,
   EpochEstimate,
   GradientNodeEstimate,
   RejectedObservation,
   ZwdEstimationInput,
   ZwdEstimationOutput,
+  ZwdEstimationStatistics,
   ZwdNodeEstimate,
 } from './types.js';
 
 /** Niell (1996) fitted the mapping functions from 3° elevation up [rad]. */
 const MAPPING_FIT_LOWEST_ELEVATION_RAD = (3 * Math.PI) / 180;
+
+/** Re-weightings of the variance-component estimation at most (each costs a solution). */
+export const MAX_REWEIGHTINGS = 4;
+/** Relative change of an observation variance component below which the weights are kept. */
+export const REWEIGHTING_TOLERANCE = 0.05;
+/** Elevation band edges of the diagnostic [deg]. */
+export const ELEVATION_BAND_EDGES_DEG = [0, 5, 7, 10, 15, 20, 30, 45, 60, 90.000001] as const;
+/** A band whose normalised residual RMS exceeds this gets a warning (its weights are too optimistic). */
+export const BAND_RMS_WARNING = 1.5;
+/** ... or whose rejections exceed this share of its observations. */
+export const BAND_REJECTION_WARNING = 0.02;
 
 /**
  * @throws ModelDomainError 400 for inconsistent input (duplicate (epoch, satellite), too many
@@ -36,7 +55,11 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
   const layout = parameterLayout(design);
   const used = new Uint8Array(design.residualM.length).fill(1);
   const rejected: RejectedObservation[] = [];
-  const warnings: string[] = [];
+  const rejectedDesign: number[] = [];
+  const warnings: string[] = [...design.parametrisationNotes];
+  let weighting = initialWeighting(options);
+  let givenScale = 1;
+  let reweightings = 0;
   let screeningComplete = true;
   let solutions = 0;
   let solution: Solution;
@@ -44,56 +67,90 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
   let degreesOfFreedom: number;
   let unknowns: number;
 
+  // Each pass: solve; re-estimate the observation weights (variance components, from the
+  // observations that are not rejection candidates) and reject this pass's candidates; re-solve
+  // while either changed anything.
+  let screening = options.outlierThreshold !== null;
   for (;;) {
     solution = solveNamed(design, layout, input, used);
     solutions++;
     unknowns = layout.parameters + (options.epochBias ? solution.epochsUsed : 0);
     degreesOfFreedom = solution.observationsUsed + solution.constraints - unknowns;
     varianceFactor = degreesOfFreedom > 0 ? solution.weightedSquareSum / degreesOfFreedom : null;
-    if (options.outlierThreshold === null) break;
-    const candidates = rejectionCandidates(
-      design,
-      solution,
-      used,
-      varianceFactor === null ? 1 : Math.sqrt(varianceFactor),
-      options.outlierThreshold,
-      options.outlierRejection,
-      options.zwd.intervalS,
-    );
-    if (candidates.length === 0) break;
-    if (rejected.length >= options.maxRejections) {
+    let changed = false;
+    const candidates = screening
+      ? rejectionCandidates(
+          design,
+          solution,
+          used,
+          varianceFactor === null ? 1 : Math.sqrt(varianceFactor),
+          options.outlierThreshold!,
+          options.outlierRejection,
+          rejectionWindowMs(input, design, layout, solution),
+        )
+      : [];
+    if (options.scaleSigmas && reweightings < MAX_REWEIGHTINGS && varianceFactor !== null) {
+      const next = varianceComponents(design, solution, used, options.weighting, weighting, givenScale, screeningBound(options.outlierThreshold, varianceFactor));
+      if (next.changed) {
+        weighting = next.weighting;
+        givenScale = next.givenScale;
+        setWeights(design, weighting.a, weighting.b, givenScale);
+        reweightings++;
+        changed = true;
+      }
+    }
+    if (candidates.length > 0 && rejected.length >= options.maxRejections) {
       screeningComplete = false;
+      screening = false;
       warnings.push(
         `outlier screening stopped after ${rejected.length} rejections (options.max_rejections); ${candidates.length > 1 ? 'normalised residuals' : 'a normalised residual'} up to ${Math.abs(candidates[0]!.normalizedResidual).toFixed(1)} remain above ${options.outlierThreshold}: check sigma0_m and the residuals`,
       );
-      break;
+    } else {
+      for (const c of candidates.slice(0, options.maxRejections - rejected.length)) {
+        const i = design.inputIndex[c.index]!;
+        rejected.push({
+          index: i,
+          epochMs: input.observations.epochMs[i]!,
+          satellite: input.observations.satellite[i]!,
+          residualM: input.observations.residualM[i]!,
+          fittedResidualM: solution.fittedResidualM[c.index]!,
+          normalizedResidual: c.normalizedResidual,
+        });
+        rejectedDesign.push(c.index);
+        used[c.index] = 0;
+        changed = true;
+      }
     }
-    for (const c of candidates.slice(0, options.maxRejections - rejected.length)) {
-      const i = design.inputIndex[c.index]!;
-      rejected.push({
-        index: i,
-        epochMs: input.observations.epochMs[i]!,
-        satellite: input.observations.satellite[i]!,
-        residualM: input.observations.residualM[i]!,
-        fittedResidualM: solution.fittedResidualM[c.index]!,
-        normalizedResidual: c.normalizedResidual,
-      });
-      used[c.index] = 0;
-    }
+    if (!changed) break;
   }
-
-  const sigmaScale = options.scaleSigmas && varianceFactor !== null ? Math.sqrt(varianceFactor) : 1;
+  if (options.scaleSigmas && reweightings >= MAX_REWEIGHTINGS) {
+    warnings.push(`the observation variance components did not settle within ${MAX_REWEIGHTINGS} re-weightings: formal errors may be off by a few per cent`);
+  }
   if (varianceFactor === null) {
-    warnings.push('no degrees of freedom (one observation per epoch with epoch_bias on, or as many unknowns as observations): the variance factor is not estimable and formal errors are not scaled');
+    warnings.push('no degrees of freedom (one observation per epoch with epoch_bias on, or as many unknowns as observations): the variance factor is not estimable and the weights are not re-estimated');
   }
   let low = 0;
   for (let s = 0; s < used.length; s++) if (used[s] && design.elevationRad[s]! < MAPPING_FIT_LOWEST_ELEVATION_RAD) low++;
-  if (low > 0) warnings.push(`${low} observations below 3° were used: the Niell mapping functions are fitted from 3° up and are extrapolated there`);
+  if (low > 0) warnings.push(`${low} observations below 3° were used: the mapping functions are fitted from 3° up and are extrapolated there`);
+
+  const noise = noiseInflation(input, design, layout, solution, used);
+  const bands = elevationBands(design, solution, used, rejectedDesign);
+  for (const b of bands) {
+    const name = `${((b.lowerRad * 180) / Math.PI).toFixed(0)}–${Math.min(90, (b.upperRad * 180) / Math.PI).toFixed(0)}°`;
+    const total = b.observationsUsed + b.observationsRejected;
+    if (b.normalisedRms !== null && b.normalisedRms > BAND_RMS_WARNING) {
+      warnings.push(`residuals at ${name} are ${b.normalisedRms.toFixed(1)} times their expected size: the weighting underrates the noise there (try options.weighting "elevation-components")`);
+    } else if (total > 0 && b.observationsRejected > BAND_REJECTION_WARNING * total && b.observationsRejected > 2) {
+      warnings.push(`${b.observationsRejected} of ${total} observations at ${name} were rejected (${((100 * b.observationsRejected) / total).toFixed(1)} %): more than gross errors explain; check the weighting there`);
+    }
+  }
+  const zwdOut = zwdNodes(input, design, layout, solution, used, noise);
+  const gradientOut = gradientNodes(input, design, layout, solution, used, noise);
 
   return {
-    zwdNodes: zwdNodes(design, layout, solution, sigmaScale),
-    gradientNodes: gradientNodes(design, layout, solution, sigmaScale),
-    epochs: epochEstimates(design, layout, solution, used, sigmaScale),
+    zwdNodes: zwdOut,
+    gradientNodes: gradientOut,
+    epochs: epochEstimates(design, layout, solution, used, noise),
     rejected,
     statistics: {
       observationsTotal: input.observations.epochMs.length,
@@ -101,19 +158,221 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
       observationsUsed: solution.observationsUsed,
       observationsRejected: rejected.length,
       epochs: design.epochMs.length,
-      zwdNodes: layout.zwdCount,
-      gradientNodes: layout.gradientCount,
+      zwdNodes: design.zwdOutput.count,
+      gradientNodes: design.gradientOutput?.count ?? 0,
       unknowns,
       constraints: solution.constraints,
       degreesOfFreedom,
       rmsM: Math.sqrt(solution.residualSquareSumM2 / solution.observationsUsed),
       varianceFactor,
-      sigmaScale,
+      sigmaScale: 1,
       solutions,
       screeningComplete,
+      weightingConstantM: weighting.a,
+      weightingElevationM: weighting.b,
+      elevationBands: bands,
+      noiseCorrelation: noise.statistics,
+      zwdNodesWithoutData: zwdOut.filter((n) => n.observationsNearby === 0).length,
+      gradientNodesWithoutData: gradientOut.filter((n) => n.observationsNearby === 0).length,
     },
     warnings,
   };
+}
+
+/**
+ * Variance-component estimation of the observation weights (the random-walk and a-priori
+ * constraints keep their sigmas): E[v_i²] = r_i σ_i² with r_i = σ_v_i²/σ_i² the redundancy
+ * number, so for σ_i² = θ_a + θ_b/sin²e the components follow from
+ *     Σ_i ω_i (v_i² − r_i (θ_a + θ_b g_i))² → min,  g_i = 1/sin²e_i,  ω_i = 1/(r_i σ_i²)²
+ * (a weighted fit of the squared residuals; equivalent at convergence to Helmert's and Förstner's
+ * iterative estimates, Koch (1999) ch. 3.6; Förstner (1979), AVN 86, 446–453; from memory).
+ * One component ("elevation": θ_b only; "uniform": θ_a only) reduces to θ = σ² vᵀPv / Σ r_i,
+ * the variance factor of the observations alone. A negative component is set to 0 and the other
+ * refitted. Observations with their own sigma get one common factor vᵀPv/Σ r_i of their own.
+ * Observations that screening would reject (|τ| > k) are left out, so that gross errors do not
+ * inflate the weights before they are rejected (their share is below 1e-4 for Gaussian noise at
+ * k = 4; a robust choice, common practice).
+ */
+function varianceComponents(
+  design: Design,
+  solution: Solution,
+  used: Uint8Array,
+  scheme: ZwdEstimationInput['options']['weighting'],
+  current: { a: number; b: number },
+  givenScale: number,
+  bound: number,
+): { changed: boolean; weighting: { a: number; b: number }; givenScale: number } {
+  // Normal equations of the fit (sums for θ_a, θ_b) and the given-sigma factor.
+  let saa = 0, sab = 0, sbb = 0, sa = 0, sb = 0;
+  let givenOmega = 0, givenRedundancy = 0;
+  for (let s = 0; s < used.length; s++) {
+    if (!used[s]) continue;
+    const sigma2 = design.sigmaM[s]! ** 2;
+    const r = solution.residualVarianceM2[s]! / sigma2;
+    if (!(r > 1e-6)) continue;
+    const v2 = solution.fittedResidualM[s]! ** 2;
+    if (v2 > bound * solution.residualVarianceM2[s]!) continue; // a rejection candidate: not noise
+    if (!Number.isNaN(design.givenSigmaM[s]!)) {
+      givenOmega += v2 / sigma2;
+      givenRedundancy += r;
+      continue;
+    }
+    const g = 1 / Math.sin(design.elevationRad[s]!) ** 2;
+    const omega = 1 / (r * sigma2) ** 2;
+    const ua = r;
+    const ub = r * g;
+    saa += omega * ua * ua;
+    sab += omega * ua * ub;
+    sbb += omega * ub * ub;
+    sa += omega * ua * v2;
+    sb += omega * ub * v2;
+  }
+  let thetaA = current.a ** 2;
+  let thetaB = current.b ** 2;
+  if (scheme === 'elevation' && sbb > 0) thetaB = sb / sbb;
+  else if (scheme === 'uniform' && saa > 0) thetaA = sa / saa;
+  else if (scheme === 'elevation-components' && saa > 0 && sbb > 0) {
+    const det = saa * sbb - sab * sab;
+    thetaA = (sbb * sa - sab * sb) / det;
+    thetaB = (saa * sb - sab * sa) / det;
+    if (!(thetaA >= 0)) [thetaA, thetaB] = [0, sb / sbb];
+    else if (!(thetaB >= 0)) [thetaA, thetaB] = [sa / saa, 0];
+  }
+  const nextGiven = givenRedundancy > 0 ? (givenScale * givenOmega) / givenRedundancy : givenScale;
+  const rel = (next: number, now: number) => (now > 0 ? Math.abs(next / now - 1) : next > 0 ? Infinity : 0);
+  const changed =
+    Math.max(rel(thetaA, current.a ** 2), rel(thetaB, current.b ** 2), rel(nextGiven, givenScale)) > REWEIGHTING_TOLERANCE &&
+    thetaA + thetaB > 0;
+  return { changed, weighting: { a: Math.sqrt(thetaA), b: Math.sqrt(thetaB) }, givenScale: nextGiven };
+}
+
+/** Window of "one-per-window" screening (outliers.ts) [ms]. */
+function rejectionWindowMs(input: ZwdEstimationInput, design: Design, layout: ParameterLayout, solution: Solution): number {
+  const { options } = input;
+  // Piecewise-linear ZWD nodes: the ZWD interval decides (as before issue 10).
+  if (design.zwd.regular) return nodeRejectionWindowMs(options.zwd.intervalS);
+  const epochs = design.epochMs.length;
+  if (epochs < 2) return 0;
+  const samplingMs = medianSpacingMs(design.epochMs);
+  const hours = samplingMs / 3_600_000;
+  const withGradients = layout.gradientCount > 0;
+  const zwdQ = options.zwd.randomWalkMPerSqrtH === null ? null : options.zwd.randomWalkMPerSqrtH ** 2 * hours;
+  const gradientQ = options.gradients?.randomWalkMPerSqrtH == null ? null : options.gradients.randomWalkMPerSqrtH ** 2 * hours;
+  const lw: number[] = [];
+  const ln: number[] = [];
+  const le: number[] = [];
+  for (let k = 0; k < epochs; k++) {
+    const [iW, iN, iE] = epochInformation(solution, k, withGradients);
+    if (!(iW > 0)) continue;
+    if (!design.zwd.regular) lw.push(kernelFactor(iW, zwdQ));
+    if (withGradients && !design.gradients!.regular) {
+      ln.push(kernelFactor(iN, gradientQ));
+      le.push(kernelFactor(iE, gradientQ));
+    }
+  }
+  const median = (xs: number[]) => (xs.sort((a, b) => a - b), xs[Math.floor(xs.length / 2)]!);
+  const lambdas = [lw, ln, le].filter((xs) => xs.length > 0).map(median);
+  return epochStateRejectionWindowMs(lambdas, samplingMs);
+}
+
+/** (k σ̂0)²: |v| above k σ̂0 σ_v is a rejection candidate; Infinity without screening. */
+function screeningBound(threshold: number | null, varianceFactor: number | null): number {
+  return threshold === null ? Infinity : threshold * threshold * (varianceFactor ?? 1);
+}
+
+interface NoiseInflation {
+  /** Variance factor per epoch of ZWD, north, east (1 without correlated noise). */
+  zwd: Float64Array;
+  north: Float64Array;
+  east: Float64Array;
+  statistics: ZwdEstimationStatistics['noiseCorrelation'];
+}
+
+/** The correlated-noise inflation of every epoch (correlated-noise.ts); all 1 when switched off. */
+function noiseInflation(input: ZwdEstimationInput, design: Design, layout: ParameterLayout, solution: Solution, used: Uint8Array): NoiseInflation {
+  const epochs = design.epochMs.length;
+  const ones = () => new Float64Array(epochs).fill(1);
+  const none: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
+  if (input.options.correlatedNoise === false || epochs < 3) return none;
+  const samplingMs = medianSpacingMs(design.epochMs);
+  const satellite = Array.from(design.inputIndex, (i) => input.observations.satellite[i]!);
+  const rho = residualAutocorrelation(design, solution, used, satellite, samplingMs);
+  const hours = samplingMs / 3_600_000;
+  const stepVariance = (q: number | null) => (q === null ? null : q * q * hours);
+  const qW = stepVariance(input.options.zwd.randomWalkMPerSqrtH);
+  const qG = input.options.gradients ? stepVariance(input.options.gradients.randomWalkMPerSqrtH) : null;
+  const out: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
+  const withGradients = layout.gradientCount > 0;
+  let sumW = 0, sumG = 0, count = 0;
+  for (let k = 0; k < epochs; k++) {
+    const [iW, iN, iE] = epochInformation(solution, k, withGradients);
+    out.zwd[k] = varianceInflation(iW, qW, rho);
+    if (withGradients) {
+      out.north[k] = varianceInflation(iN, qG, rho);
+      out.east[k] = varianceInflation(iE, qG, rho);
+    }
+    if (iW > 0) {
+      sumW += out.zwd[k]!;
+      sumG += (out.north[k]! + out.east[k]!) / 2;
+      count++;
+    }
+  }
+  out.statistics = {
+    samplingS: samplingMs / 1000,
+    autocorrelation: rho,
+    zwdVarianceInflation: count ? sumW / count : 1,
+    gradientVarianceInflation: withGradients && count ? sumG / count : 1,
+  };
+  return out;
+}
+
+function medianSpacingMs(epochMs: Float64Array): number {
+  const d: number[] = [];
+  for (let k = 1; k < epochMs.length; k++) d.push(epochMs[k]! - epochMs[k - 1]!);
+  d.sort((a, b) => a - b);
+  return d[Math.floor(d.length / 2)]!;
+}
+
+/** Post-fit residuals and rejections per elevation band. */
+function elevationBands(design: Design, solution: Solution, used: Uint8Array, rejectedDesign: readonly number[]): ElevationBandStatistics[] {
+  const edges = ELEVATION_BAND_EDGES_DEG.map((d) => (d * Math.PI) / 180);
+  const nb = edges.length - 1;
+  const count = new Float64Array(nb);
+  const sumV2 = new Float64Array(nb);
+  const sumTau2 = new Float64Array(nb);
+  const tested = new Float64Array(nb);
+  const rejectedCount = new Float64Array(nb);
+  const band = (e: number) => {
+    let b = 0;
+    while (b < nb - 1 && e >= edges[b + 1]!) b++;
+    return b;
+  };
+  for (let s = 0; s < used.length; s++) {
+    if (!used[s]) continue;
+    const b = band(design.elevationRad[s]!);
+    const v = solution.fittedResidualM[s]!;
+    count[b]!++;
+    sumV2[b]! += v * v;
+    const qv = solution.residualVarianceM2[s]!;
+    if (qv > MIN_TESTABLE_REDUNDANCY * design.sigmaM[s]! ** 2) {
+      sumTau2[b]! += (v * v) / qv;
+      tested[b]!++;
+    }
+  }
+  for (const s of rejectedDesign) rejectedCount[band(design.elevationRad[s]!)]!++;
+  const out: ElevationBandStatistics[] = [];
+  for (let b = 0; b < nb; b++) {
+    if (count[b] === 0 && rejectedCount[b] === 0) continue;
+    out.push({
+      lowerRad: edges[b]!,
+      upperRad: Math.min(edges[b + 1]!, Math.PI / 2),
+      observationsUsed: count[b]!,
+      observationsRejected: rejectedCount[b]!,
+      rmsM: count[b]! > 0 ? Math.sqrt(sumV2[b]! / count[b]!) : null,
+      normalisedRms: tested[b]! > 0 ? Math.sqrt(sumTau2[b]! / tested[b]!) : null,
+    });
+  }
+  return out;
 }
 
 function checkColumns(input: ZwdEstimationInput): void {
@@ -169,52 +428,123 @@ function singularMessage(design: Design, layout: ParameterLayout, input: ZwdEsti
   return `the system is singular: the ${name} node ${node} at ${new Date(nodeEpochMs(nodes, node)).toISOString()} is not determined: ${why}${loose.length ? `, and ${loose.join(' and ')}` : ''}. Add observations or constraints (random walk, a-priori sigma)`;
 }
 
-function zwdNodes(design: Design, layout: ParameterLayout, solution: Solution, scale: number): ZwdNodeEstimate[] {
-  const out: ZwdNodeEstimate[] = new Array(layout.zwdCount);
-  for (let j = 0; j < layout.zwdCount; j++) {
-    out[j] = { epochMs: nodeEpochMs(design.zwd, j), correctionM: solution.x[j]!, sigmaM: Math.sqrt(solution.inverse.diagonal[j]!) * scale };
+/** Used observations per epoch. */
+function usedPerEpoch(design: Design, used: Uint8Array): Int32Array {
+  const out = new Int32Array(design.epochMs.length);
+  for (let k = 0; k < out.length; k++) for (let s = design.epochStart[k]!; s < design.epochStart[k + 1]!; s++) out[k]! += used[s]!;
+  return out;
+}
+
+/** Index of the epoch nearest to t (epochs sorted). */
+function nearestEpoch(epochMs: Float64Array, t: number): number {
+  let lo = 0;
+  let hi = epochMs.length - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (epochMs[mid]! <= t) lo = mid;
+    else hi = mid;
+  }
+  return Math.abs(epochMs[hi]! - t) < Math.abs(epochMs[lo]! - t) ? hi : lo;
+}
+
+/** For each output node, the used observations within one interval of it. */
+function observationsNearby(design: Design, nodes: NodeLayout, perEpoch: Int32Array): number[] {
+  const out: number[] = [];
+  let lo = 0;
+  let hi = 0;
+  let inside = 0;
+  for (let j = 0; j < nodes.count; j++) {
+    const t = nodes.nodeMs[j]!;
+    while (hi < perEpoch.length && design.epochMs[hi]! < t + nodes.intervalMs) inside += perEpoch[hi++]!;
+    while (lo < hi && design.epochMs[lo]! <= t - nodes.intervalMs) inside -= perEpoch[lo++]!;
+    out.push(inside);
   }
   return out;
 }
 
-function gradientNodes(design: Design, layout: ParameterLayout, solution: Solution, scale: number): GradientNodeEstimate[] {
-  const out: GradientNodeEstimate[] = new Array(layout.gradientCount);
-  for (let l = 0; l < layout.gradientCount; l++) {
-    const n = layout.northOffset + l;
-    const e = layout.eastOffset + l;
-    out[l] = {
-      epochMs: nodeEpochMs(design.gradients!, l),
-      northM: solution.x[n]!,
-      eastM: solution.x[e]!,
-      northSigmaM: Math.sqrt(solution.inverse.diagonal[n]!) * scale,
-      eastSigmaM: Math.sqrt(solution.inverse.diagonal[e]!) * scale,
+/**
+ * Value and variance of a family at an output node from the states: between two states the
+ * straight line plus the Brownian-bridge variance q² (t_b − t_a) α (1 − α) of a random walk tied
+ * at both states (every-epoch states; for "nodes" α = 0); before the first or after the last state
+ * the end state plus q² |t − t_end| (random-walk extrapolation). The correlated-noise factor of the
+ * nearest epoch multiplies the part that comes from the states.
+ *
+ * @param offset parameter id of the family's first state
+ * @param inflation per-epoch variance factors of the family
+ */
+function atNode(
+  design: Design,
+  states: NodeLayout,
+  offset: number,
+  q: number | null,
+  solution: Solution,
+  t: number,
+  inflation: Float64Array,
+): { value: number; variance: number } {
+  const { interval: j, alpha } = locate(states, t);
+  const factor = inflation[nearestEpoch(design.epochMs, t)]!;
+  const qq = q === null ? Infinity : q * q;
+  if (states.count === 1 || alpha < 0 || alpha > 1) {
+    const end = states.count === 1 ? 0 : alpha < 0 ? j : j + 1;
+    const dtH = Math.abs(t - states.nodeMs[end]!) / 3_600_000;
+    return { value: solution.x[offset + end]!, variance: solution.inverse.diagonal[offset + end]! * factor + (dtH > 0 ? qq * dtH : 0) };
+  }
+  const w = interpolate(solution, offset + j, offset + j + 1, alpha);
+  const spanH = (states.nodeMs[j + 1]! - states.nodeMs[j]!) / 3_600_000;
+  const bridge = !states.regular && alpha > 0 && alpha < 1 ? qq * spanH * alpha * (1 - alpha) : 0;
+  return { value: w.value, variance: w.variance * factor + bridge };
+}
+
+function zwdNodes(input: ZwdEstimationInput, design: Design, layout: ParameterLayout, solution: Solution, used: Uint8Array, noise: NoiseInflation): ZwdNodeEstimate[] {
+  const nearby = observationsNearby(design, design.zwdOutput, usedPerEpoch(design, used));
+  return Array.from({ length: design.zwdOutput.count }, (_, j) => {
+    const t = design.zwdOutput.nodeMs[j]!;
+    const w = atNode(design, design.zwd, 0, input.options.zwd.randomWalkMPerSqrtH, solution, t, noise.zwd);
+    return { epochMs: t, correctionM: w.value, sigmaM: Math.sqrt(w.variance), observationsNearby: nearby[j]! };
+  });
+}
+
+function gradientNodes(input: ZwdEstimationInput, design: Design, layout: ParameterLayout, solution: Solution, used: Uint8Array, noise: NoiseInflation): GradientNodeEstimate[] {
+  if (!design.gradientOutput || !design.gradients || !input.options.gradients) return [];
+  const nearby = observationsNearby(design, design.gradientOutput, usedPerEpoch(design, used));
+  const q = input.options.gradients.randomWalkMPerSqrtH;
+  return Array.from({ length: design.gradientOutput.count }, (_, l) => {
+    const t = design.gradientOutput!.nodeMs[l]!;
+    const n = atNode(design, design.gradients!, layout.northOffset, q, solution, t, noise.north);
+    const e = atNode(design, design.gradients!, layout.eastOffset, q, solution, t, noise.east);
+    return {
+      epochMs: t,
+      northM: n.value,
+      eastM: e.value,
+      northSigmaM: Math.sqrt(n.variance),
+      eastSigmaM: Math.sqrt(e.variance),
+      observationsNearby: nearby[l]!,
     };
-  }
-  return out;
+  });
 }
 
-/** Value and standard deviation of (1 − α) x_p + α x_q, with the covariance of the two nodes. */
-function interpolate(solution: Solution, p: number, q: number, alpha: number, scale: number): { value: number; sigma: number } {
-  if (q < 0) return { value: solution.x[p]!, sigma: Math.sqrt(solution.inverse.diagonal[p]!) * scale };
+/** Value and variance of (1 − α) x_p + α x_q, with the covariance of the two nodes. */
+function interpolate(solution: Solution, p: number, q: number, alpha: number): { value: number; variance: number } {
+  if (q < 0) return { value: solution.x[p]!, variance: solution.inverse.diagonal[p]! };
   const b = 1 - alpha;
   const variance =
     b * b * solution.inverse.diagonal[p]! + 2 * alpha * b * solution.inverse.get(p, q) + alpha * alpha * solution.inverse.diagonal[q]!;
-  return { value: b * solution.x[p]! + alpha * solution.x[q]!, sigma: Math.sqrt(Math.max(variance, 0)) * scale };
+  return { value: b * solution.x[p]! + alpha * solution.x[q]!, variance: Math.max(variance, 0) };
 }
 
-function epochEstimates(design: Design, layout: ParameterLayout, solution: Solution, used: Uint8Array, scale: number): EpochEstimate[] {
+function epochEstimates(design: Design, layout: ParameterLayout, solution: Solution, used: Uint8Array, noise: NoiseInflation): EpochEstimate[] {
   const epochs = design.epochMs.length;
   const out: EpochEstimate[] = new Array(epochs);
   for (let k = 0; k < epochs; k++) {
     const j = design.zwdInterval[k]!;
-    const w = interpolate(solution, j, layout.zwdCount > 1 ? j + 1 : -1, design.zwdAlpha[k]!, scale);
+    const w = interpolate(solution, j, layout.zwdCount > 1 ? j + 1 : -1, design.zwdAlpha[k]!);
     let north = null;
     let east = null;
     if (layout.gradientCount > 0) {
       const l = design.gradientInterval[k]!;
       const two = layout.gradientCount > 1;
-      north = interpolate(solution, layout.northOffset + l, two ? layout.northOffset + l + 1 : -1, design.gradientAlpha[k]!, scale);
-      east = interpolate(solution, layout.eastOffset + l, two ? layout.eastOffset + l + 1 : -1, design.gradientAlpha[k]!, scale);
+      north = interpolate(solution, layout.northOffset + l, two ? layout.northOffset + l + 1 : -1, design.gradientAlpha[k]!);
+      east = interpolate(solution, layout.eastOffset + l, two ? layout.eastOffset + l + 1 : -1, design.gradientAlpha[k]!);
     }
     let count = 0;
     for (let s = design.epochStart[k]!; s < design.epochStart[k + 1]!; s++) count += used[s]!;
@@ -222,11 +552,11 @@ function epochEstimates(design: Design, layout: ParameterLayout, solution: Solut
     out[k] = {
       epochMs: design.epochMs[k]!,
       correctionM: w.value,
-      sigmaM: w.sigma,
+      sigmaM: Math.sqrt(w.variance * noise.zwd[k]!),
       northGradientM: north?.value ?? null,
       eastGradientM: east?.value ?? null,
-      northGradientSigmaM: north?.sigma ?? null,
-      eastGradientSigmaM: east?.sigma ?? null,
+      northGradientSigmaM: north ? Math.sqrt(north.variance * noise.north[k]!) : null,
+      eastGradientSigmaM: east ? Math.sqrt(east.variance * noise.east[k]!) : null,
       epochBiasM: Number.isNaN(bias) ? null : bias,
       observationsUsed: count,
     };

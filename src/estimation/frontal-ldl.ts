@@ -227,7 +227,10 @@ export class SelectedInverse {
   /** (N⁻¹)_pq; throws when p and q never shared the front (the element is not computed). */
   get(p: number, q: number): number {
     if (p === q) return this.diagonal[p]!;
-    const [first, second] = this.position[p]! < this.position[q]! ? [p, q] : [q, p];
+    // The one eliminated first holds the element (no array destructuring: this is a hot path).
+    const pFirst = this.position[p]! < this.position[q]!;
+    const first = pFirst ? p : q;
+    const second = pFirst ? q : p;
     const base = first * this.width;
     for (let c = 0; c < this.neighbourCount[first]!; c++) {
       if (this.neighbour[base + c] === second) return this.offDiagonal[base + c]!;

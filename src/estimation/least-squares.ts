@@ -12,7 +12,12 @@
  * cost no digits. The node estimates equal those of the full system with b_k as unknowns; the
  * biases follow as b̂_k = Σ w_i (r_i − a_iᵀx̂) / s.
  *
- * Constraints: x_{j+1} − x_j = 0 ± q √(Δ/1 h) (random walk), x_0 = 0 ± σ_0 (a priori).
+ * Constraints: x_{j+1} − x_j = 0 ± q √((t_{j+1} − t_j)/1 h) (random walk between consecutive
+ * states, whatever their spacing), x_0 = 0 ± σ_0 (a priori).
+ *
+ * solveOnce runs four named steps: assembleAndFactor (normal equations epoch by epoch into the
+ * frontal factorisation), the solution and selected inverse, postFitResiduals (v, b̂, σ_v²) and
+ * constraintResiduals (their share of Ω).
  *
  * Structure used for speed: the partials of an observation are a = B m, with
  * m = (m_w(e), m_g(e) cos a, m_g(e) sin a) and B the epoch's 6×3 matrix of interpolation weights
@@ -61,6 +66,12 @@ export interface Solution {
   residualVarianceM2: Float64Array;
   /** vᵀPv of the observations plus the weighted squares of the constraint residuals [-]. */
   weightedSquareSum: number;
+  /** vᵀPv of the observations alone [-]. */
+  observationSquareSum: number;
+  /** Σ σ_v_i²/σ_i² over the used observations: their redundancy (degrees of freedom they carry) [-]. */
+  observationRedundancy: number;
+  /** Per epoch the centred 3×3 normal matrix entries (EPOCH_NORMAL_ENTRIES each) [1/m²]; 0 without data. */
+  epochNormal: Float64Array;
   /** Σ v_i² of the used observations [m²]. */
   residualSquareSumM2: number;
   observationsUsed: number;
@@ -73,16 +84,27 @@ interface Family {
   offset: number;
   count: number;
   settings: PiecewiseLinearSettings;
+  nodeMs: Float64Array;
   current: number;
 }
 
-/** Weight of a random-walk step between adjacent nodes, 1/(q² Δ[h]) [1/m²]. */
-export const randomWalkWeight = (settings: PiecewiseLinearSettings): number | null =>
-  settings.randomWalkMPerSqrtH === null ? null : 1 / (settings.randomWalkMPerSqrtH ** 2 * (settings.intervalS / 3600));
+/** Weight of the random-walk step between states at t_a and t_b [ms], 1/(q² (t_b − t_a)[h]) [1/m²]. */
+export function randomWalkStepWeight(settings: PiecewiseLinearSettings, fromMs: number, toMs: number): number | null {
+  return settings.randomWalkMPerSqrtH === null ? null : 1 / (settings.randomWalkMPerSqrtH ** 2 * ((toMs - fromMs) / 3_600_000));
+}
 
 export function constraintCount(layout: ParameterLayout, options: ZwdEstimationOptions): number {
   const perFamily = (count: number, s: PiecewiseLinearSettings) => (s.aprioriSigmaM === null ? 0 : 1) + (s.randomWalkMPerSqrtH === null ? 0 : count - 1);
   return perFamily(layout.zwdCount, options.zwd) + (options.gradients ? 2 * perFamily(layout.gradientCount, options.gradients) : 0);
+}
+
+function families(design: Design, layout: ParameterLayout, options: ZwdEstimationOptions): Family[] {
+  const out: Family[] = [{ offset: 0, count: layout.zwdCount, settings: options.zwd, nodeMs: design.zwd.nodeMs, current: -1 }];
+  if (options.gradients && design.gradients) {
+    out.push({ offset: layout.northOffset, count: layout.gradientCount, settings: options.gradients, nodeMs: design.gradients.nodeMs, current: -1 });
+    out.push({ offset: layout.eastOffset, count: layout.gradientCount, settings: options.gradients, nodeMs: design.gradients.nodeMs, current: -1 });
+  }
+  return out;
 }
 
 /**
@@ -115,54 +137,83 @@ function epochParameters(design: Design, layout: ParameterLayout, k: number, ids
 /** Family (0 ZWD, 1 north, 2 east) of each local parameter. */
 const FAMILY = [0, 0, 1, 1, 2, 2] as const;
 
+/** Per epoch, the six distinct entries of the centred 3×3 normal matrix M (WW, WN, WE, NN, NE, EE). */
+export const EPOCH_NORMAL_ENTRIES = 6;
+
 /**
  * @param used 1 for each design observation that takes part (0 = rejected)
  * @throws SingularParameterError when a node is not determined by the data and constraints
  */
 export function solveOnce(design: Design, options: ZwdEstimationOptions, used: Uint8Array): Solution {
   const layout = parameterLayout(design);
+  const fams = families(design, layout, options);
+  const assembled = assembleAndFactor(design, layout, fams, options.epochBias, used);
+  const x = assembled.solver.solve();
+  const inverse = assembled.solver.selectedInverse();
+  const residuals = postFitResiduals(design, layout, options.epochBias, used, x, inverse);
+  const constraintSquareSum = constraintResiduals(fams, x);
+  return {
+    x,
+    inverse,
+    biasM: residuals.biasM,
+    fittedResidualM: residuals.fittedResidualM,
+    residualVarianceM2: residuals.residualVarianceM2,
+    weightedSquareSum: residuals.observationSquareSum + constraintSquareSum,
+    observationSquareSum: residuals.observationSquareSum,
+    observationRedundancy: residuals.observationRedundancy,
+    residualSquareSumM2: residuals.residualSquareSumM2,
+    observationsUsed: assembled.observationsUsed,
+    epochsUsed: assembled.epochsUsed,
+    epochNormal: assembled.epochNormal,
+    constraints: constraintCount(layout, options),
+  };
+}
+
+/**
+ * Normal equations epoch by epoch into the frontal factorisation: the constraints of each node as
+ * it enters the front, then the epoch's bias-reduced 3×3 sums mapped to its nodes (N_k = B M Bᵀ).
+ */
+function assembleAndFactor(design: Design, layout: ParameterLayout, fams: Family[], bias: boolean, used: Uint8Array) {
   const withGradients = layout.gradientCount > 0;
   const nLocal = withGradients ? LOCAL_PARAMETERS : 2;
   const solver = new FrontalLdl(layout.parameters, nLocal);
-  const families: Family[] = [{ offset: 0, count: layout.zwdCount, settings: options.zwd, current: -1 }];
-  if (options.gradients) {
-    families.push({ offset: layout.northOffset, count: layout.gradientCount, settings: options.gradients, current: -1 });
-    families.push({ offset: layout.eastOffset, count: layout.gradientCount, settings: options.gradients, current: -1 });
-  }
 
+  const rwConstraint = (f: Family, j: number) => {
+    const w = randomWalkStepWeight(f.settings, f.nodeMs[j - 1]!, f.nodeMs[j]!);
+    if (w !== null) solver.addDifferenceConstraint(f.offset + j, f.offset + j - 1, w);
+  };
   const advance = (f: Family, interval: number) => {
-    const rw = randomWalkWeight(f.settings);
     if (f.current < 0) {
       solver.activate(f.offset);
       if (f.settings.aprioriSigmaM !== null) solver.addValueConstraint(f.offset, 1 / f.settings.aprioriSigmaM ** 2);
       if (f.count > 1) {
         solver.activate(f.offset + 1);
-        if (rw !== null) solver.addDifferenceConstraint(f.offset + 1, f.offset, rw);
+        rwConstraint(f, 1);
       }
       f.current = 0;
     }
     while (f.current < interval) {
       solver.eliminate(f.offset + f.current);
       solver.activate(f.offset + f.current + 2);
-      if (rw !== null) solver.addDifferenceConstraint(f.offset + f.current + 2, f.offset + f.current + 1, rw);
+      rwConstraint(f, f.current + 2);
       f.current++;
     }
   };
 
   const epochs = design.epochMs.length;
-  const bias = options.epochBias;
   const wet = design.wetMapping;
   const north = design.northMapping;
   const east = design.eastMapping;
   const ids = new Int32Array(LOCAL_PARAMETERS);
   const slots = new Int32Array(LOCAL_PARAMETERS);
   const interp = new Float64Array(LOCAL_PARAMETERS);
+  const epochNormal = new Float64Array(epochs * EPOCH_NORMAL_ENTRIES);
   let observationsUsed = 0;
   let epochsUsed = 0;
 
   for (let k = 0; k < epochs; k++) {
-    advance(families[0]!, design.zwdInterval[k]!);
-    for (let f = 1; f < families.length; f++) advance(families[f]!, design.gradientInterval[k]!);
+    advance(fams[0]!, design.zwdInterval[k]!);
+    for (let f = 1; f < fams.length; f++) advance(fams[f]!, design.gradientInterval[k]!);
     const start = design.epochStart[k]!;
     const end = design.epochStart[k + 1]!;
 
@@ -218,6 +269,7 @@ export function solveOnce(design: Design, options: ZwdEstimationOptions, used: U
         dE += w * east[s]! * east[s]!;
       }
     }
+    epochNormal.set([mWW, mWN, mWE, mNN, mNE, mEE], k * EPOCH_NORMAL_ENTRIES);
     // N_k = B M Bᵀ, g_k = B h, added to the front.
     const m3 = [mWW, mWN, mWE, mWN, mNN, mNE, mWE, mNE, mEE];
     const h3 = [hW, hN, hE];
@@ -237,16 +289,29 @@ export function solveOnce(design: Design, options: ZwdEstimationOptions, used: U
     }
   }
   solver.eliminateAll();
-  const x = solver.solve();
-  const inverse = solver.selectedInverse();
+  return { solver, observationsUsed, epochsUsed, epochNormal };
+}
 
-  // Residuals, biases and residual variances.
+/**
+ * Post-fit residuals v_i, epoch biases b̂_k and residual variances σ_v_i² (header), with the
+ * observations' share of Ω (vᵀPv) and their redundancy Σ σ_v_i²/σ_i².
+ */
+function postFitResiduals(design: Design, layout: ParameterLayout, bias: boolean, used: Uint8Array, x: Float64Array, inverse: SelectedInverse) {
+  const withGradients = layout.gradientCount > 0;
+  const nLocal = withGradients ? LOCAL_PARAMETERS : 2;
+  const epochs = design.epochMs.length;
+  const wet = design.wetMapping;
+  const north = design.northMapping;
+  const east = design.eastMapping;
+  const ids = new Int32Array(LOCAL_PARAMETERS);
+  const interp = new Float64Array(LOCAL_PARAMETERS);
   const biasM = new Float64Array(epochs).fill(Number.NaN);
   const fittedResidualM = new Float64Array(design.residualM.length);
   const residualVarianceM2 = new Float64Array(design.residualM.length);
   const q6 = new Float64Array(LOCAL_PARAMETERS * LOCAL_PARAMETERS);
   const q3 = new Float64Array(9);
-  let weightedSquareSum = 0;
+  let observationSquareSum = 0;
+  let observationRedundancy = 0;
   let residualSquareSumM2 = 0;
   for (let k = 0; k < epochs; k++) {
     epochParameters(design, layout, k, ids, interp);
@@ -294,7 +359,8 @@ export function solveOnce(design: Design, options: ZwdEstimationOptions, used: U
       if (!used[s]) continue;
       const v = fittedResidualM[s]! - b;
       fittedResidualM[s] = v;
-      weightedSquareSum += design.weight[s]! * v * v;
+      const w = design.weight[s]!;
+      observationSquareSum += w * v * v;
       residualSquareSumM2 += v * v;
       const cw = wet[s]! - mW;
       let quad = qWW * cw * cw;
@@ -304,29 +370,23 @@ export function solveOnce(design: Design, options: ZwdEstimationOptions, used: U
         quad += 2 * (qWN * cw * cn + qWE * cw * ce + qNE * cn * ce) + qNN * cn * cn + qEE * ce * ce;
       }
       const sigma = design.sigmaM[s]!;
-      residualVarianceM2[s] = sigma * sigma - biasVariance - quad;
+      const qv = sigma * sigma - biasVariance - quad;
+      residualVarianceM2[s] = qv;
+      observationRedundancy += qv * w;
     }
   }
+  return { biasM, fittedResidualM, residualVarianceM2, observationSquareSum, observationRedundancy, residualSquareSumM2 };
+}
 
-  // Constraint residuals.
-  for (const f of families) {
-    if (f.settings.aprioriSigmaM !== null) weightedSquareSum += (x[f.offset]! / f.settings.aprioriSigmaM) ** 2;
-    const rw = randomWalkWeight(f.settings);
-    if (rw !== null) {
-      for (let j = 0; j + 1 < f.count; j++) weightedSquareSum += rw * (x[f.offset + j + 1]! - x[f.offset + j]!) ** 2;
+/** Ω share of the constraints: Σ w (x_{j+1} − x_j)² and (x_0/σ_0)². */
+function constraintResiduals(fams: Family[], x: Float64Array): number {
+  let sum = 0;
+  for (const f of fams) {
+    if (f.settings.aprioriSigmaM !== null) sum += (x[f.offset]! / f.settings.aprioriSigmaM) ** 2;
+    for (let j = 0; j + 1 < f.count; j++) {
+      const w = randomWalkStepWeight(f.settings, f.nodeMs[j]!, f.nodeMs[j + 1]!);
+      if (w !== null) sum += w * (x[f.offset + j + 1]! - x[f.offset + j]!) ** 2;
     }
   }
-
-  return {
-    x,
-    inverse,
-    biasM,
-    fittedResidualM,
-    residualVarianceM2,
-    weightedSquareSum,
-    residualSquareSumM2,
-    observationsUsed,
-    epochsUsed,
-    constraints: constraintCount(layout, options),
-  };
+  return sum;
 }

@@ -16,14 +16,17 @@
  * until no |τ| exceeds k. Rejecting one observation per solution makes the cost grow with the
  * number of rejections times the number of observations, i.e. quadratically with the time span
  * when outliers occur at a steady rate. Mode "one-per-window" (the default) therefore rejects in
- * one iteration the largest |τ| > k and, greedily in decreasing |τ|, every further candidate whose
- * ZWD interval is more than `window` intervals from all candidates taken so far, window =
- * max(3, ⌈1800 s / Δ⌉) intervals (at least 30 min). A gross error shifts the estimates around its
- * own epoch over about √(R)/q (R the white-noise density of the epoch-wise ZWD information, q the
- * random walk; a few minutes for 30 s data and 10 mm/√h), so candidates that far apart do not mask
- * or inflate each other; the result is the one-at-a-time result (checked in the tests against
- * the dense one-at-a-time reference) at a cost linear in the span. "one-per-solution" is the
- * textbook loop for those who want it.
+ * one iteration the largest |τ| > k and, greedily in decreasing |τ|, every further candidate more
+ * than a window W from all candidates taken so far. A gross error shifts the estimates around its
+ * own epoch over the length of the smoother's kernel, so candidates that far apart do not mask or
+ * inflate each other; the result is the one-at-a-time result (checked in the tests against the
+ * dense one-at-a-time reference) at a cost linear in the span. W:
+ * - piecewise-linear nodes: max(3 Δ, 1800 s), Δ the node spacing (a node's influence spans 2 Δ);
+ * - states at every epoch: the kernel w_j ∝ λ^|j| of the random-walk smoother (correlated-noise.ts,
+ *   λ + 1/λ = 2 + Q I) falls below 1e-3 after n = ln(1e-3)/ln λ epochs; W = n sampling intervals
+ *   for the slowest family (median λ over the epochs), between 300 s and 1800 s. For 30 s data of
+ *   four constellations λ ≈ 0.4–0.6, so W is the 300 s floor.
+ * "one-per-solution" is the textbook loop for those who want it.
  *
  * Observations with redundancy σ_v²/σ² below MIN_TESTABLE_REDUNDANCY cannot be tested (they alone
  * determine a parameter) and are never rejected, so screening never makes the system singular.
@@ -45,9 +48,24 @@ export interface RejectionCandidate {
   normalizedResidual: number;
 }
 
-/** Window of "one-per-window" mode in ZWD intervals. */
-export function rejectionWindowIntervals(zwdIntervalS: number): number {
-  return Math.max(MIN_REJECTION_WINDOW_INTERVALS, Math.ceil(MIN_REJECTION_WINDOW_S / zwdIntervalS - 1e-9));
+/** Shortest window of "one-per-window" mode with states at every epoch [s]. */
+export const MIN_EPOCH_STATE_WINDOW_S = 300;
+
+/** Window W of "one-per-window" mode with piecewise-linear nodes of spacing Δ [ms]. */
+export function nodeRejectionWindowMs(zwdIntervalS: number): number {
+  return Math.max(MIN_REJECTION_WINDOW_INTERVALS * zwdIntervalS, MIN_REJECTION_WINDOW_S) * 1000;
+}
+
+/**
+ * Window W with states at every epoch [ms]: see header.
+ *
+ * @param lambdas median kernel factor λ of each family, in (0, 1]
+ * @param samplingMs epoch spacing [ms]
+ */
+export function epochStateRejectionWindowMs(lambdas: readonly number[], samplingMs: number): number {
+  let epochs = 0;
+  for (const l of lambdas) epochs = Math.max(epochs, l >= 1 ? Infinity : l <= 0 ? 1 : Math.log(1e-3) / Math.log(l));
+  return Math.min(Math.max(epochs * samplingMs, MIN_EPOCH_STATE_WINDOW_S * 1000), MIN_REJECTION_WINDOW_S * 1000);
 }
 
 /**
@@ -63,7 +81,7 @@ export function rejectionCandidates(
   sigmaZero: number,
   threshold: number,
   mode: OutlierRejectionMode,
-  zwdIntervalS: number,
+  windowMs: number,
 ): RejectionCandidate[] {
   const above: RejectionCandidate[] = [];
   for (let s = 0; s < used.length; s++) {
@@ -78,17 +96,14 @@ export function rejectionCandidates(
   above.sort((a, b) => Math.abs(b.normalizedResidual) - Math.abs(a.normalizedResidual) || a.index - b.index);
   if (mode === 'one-per-solution') return [above[0]!];
 
-  // Interval of each observation's epoch (the design keeps it per epoch).
+  // Greedy in decreasing |τ|: a candidate is taken when no taken one is within the window.
   const epochOf = epochIndexOf(design);
-  const window = rejectionWindowIntervals(zwdIntervalS);
-  const taken = new Uint8Array(design.zwd.count);
+  const takenMs: number[] = [];
   const out: RejectionCandidate[] = [];
   for (const c of above) {
-    const j = design.zwdInterval[epochOf[c.index]!]!;
-    let free = true;
-    for (let d = Math.max(0, j - window); d <= Math.min(design.zwd.count - 1, j + window) && free; d++) if (taken[d]) free = false;
-    if (!free) continue;
-    taken[j] = 1;
+    const t = design.epochMs[epochOf[c.index]!]!;
+    if (takenMs.some((u) => Math.abs(u - t) < windowMs)) continue;
+    takenMs.push(t);
     out.push(c);
   }
   return out;

@@ -7,6 +7,8 @@
  * delays and sigmas in metres.
  */
 
+import type { MappingModelKey } from '../domain/mapping/registry.js';
+
 /** Observations as columns: element i of every array belongs to observation i. */
 export interface ZwdObservationColumns {
   /** Epoch of each observation [ms since 1970, UTC]. Any order; observations are grouped by epoch. */
@@ -33,7 +35,36 @@ export interface PiecewiseLinearSettings {
   aprioriSigmaM: number | null;
 }
 
-export type WeightingScheme = 'elevation' | 'uniform';
+/**
+ * σ_i of an observation without its own sigma:
+ * - "elevation": σ0/sin e;
+ * - "uniform": σ0;
+ * - "elevation-components": σ² = a² + b²/sin²e with b = σ0 and a = sigmaConstantM (both
+ *   re-estimated from the residuals when scaleSigmas is on, variance-component estimation).
+ */
+export type WeightingScheme = 'elevation' | 'uniform' | 'elevation-components';
+
+/**
+ * Where the random-walk states sit:
+ * - "every-epoch" (default): a state of ZWD and of each gradient component at every epoch with
+ *   observations, random walk between consecutive epochs (weight 1/(q² Δt)); the nodes of the
+ *   output are the states interpolated to round UTC epochs T = jΔ with the Brownian-bridge variance.
+ *   The random-walk model is then exact at every epoch, whatever Δ is.
+ * - "nodes": piecewise-linear between nodes on round UTC epochs T = jΔ (the older model; the
+ *   variation of the truth between nodes is not in the formal errors).
+ */
+export type Parametrisation = 'every-epoch' | 'nodes';
+
+/** Wet mapping function of the estimator: a key of src/domain/mapping/registry.ts. */
+export interface WetMappingChoice {
+  /** "niell" (default), "vmf1" (needs coefficients), "chao", "cosecant". */
+  model: MappingModelKey;
+  /**
+   * Per-epoch coefficients (VMF1 aw, and ah for completeness), linear in time between the given
+   * epochs, held constant outside them; required by models with requiresCoefficients.
+   */
+  coefficients?: { epochMs: number[]; ah: number[]; aw: number[] } | undefined;
+}
 
 export type OutlierRejectionMode = 'one-per-solution' | 'one-per-window';
 
@@ -59,13 +90,31 @@ export interface ZwdEstimationOptions {
   outlierRejection: OutlierRejectionMode;
   /** Screening stops (with a warning) after this many rejections. */
   maxRejections: number;
-  /** Multiply formal errors by √(variance factor) (when the degrees of freedom are > 0). */
+  /**
+   * Variance-component estimation of the observation weights: the observation sigmas (σ0, or a and
+   * b of "elevation-components") are re-estimated from the residuals and the solution repeated, so
+   * that the observations' variance factor is 1; the random-walk and a-priori constraints keep
+   * their stated sigmas (they are not scaled). false: the weights as given.
+   */
   scaleSigmas: boolean;
+  /** Default "every-epoch". */
+  parametrisation?: Parametrisation | undefined;
+  /** a of "elevation-components" [m], ≥ 0; default sigma0M/3 (a starting value when estimated). */
+  sigmaConstantM?: number | undefined;
+  /**
+   * Estimate the residuals' time correlation per satellite arc and inflate the formal errors by it
+   * (correlated-noise.ts). Default true.
+   */
+  correlatedNoise?: boolean | undefined;
+  /** Default { model: "niell" }. */
+  wetMapping?: WetMappingChoice | undefined;
 }
 
 export interface ZwdEstimationInput {
   /** Geodetic latitude of the site [rad], for the Niell wet mapping coefficients. */
   latitudeRad: number;
+  /** Site height [m], for mapping functions that use it (default 0). */
+  heightM?: number | undefined;
   observations: ZwdObservationColumns;
   options: ZwdEstimationOptions;
 }
@@ -76,6 +125,8 @@ export interface ZwdNodeEstimate {
   correctionM: number;
   /** Formal standard deviation [m]. */
   sigmaM: number;
+  /** Used observations within one node interval of the node; 0 = the value comes from the random walk alone. */
+  observationsNearby: number;
 }
 
 export interface GradientNodeEstimate {
@@ -84,6 +135,8 @@ export interface GradientNodeEstimate {
   eastM: number;
   northSigmaM: number;
   eastSigmaM: number;
+  /** Used observations within one node interval of the node; 0 = from the random walk alone. */
+  observationsNearby: number;
 }
 
 export interface EpochEstimate {
@@ -133,12 +186,48 @@ export interface ZwdEstimationStatistics {
   rmsM: number;
   /** σ̂0² = (vᵀPv + constraint residuals) / degrees of freedom; null when that is 0. */
   varianceFactor: number | null;
-  /** The factor the formal errors were multiplied with (√variance factor, or 1). */
+  /**
+   * The factor the formal errors were multiplied with: 1. Since issue 10 the variance factor
+   * re-weights the observations (variance components, scaleSigmas) and the formal errors follow
+   * from the re-solved system; the random-walk prior is never scaled. Kept for the API.
+   */
   sigmaScale: number;
   /** Solutions computed (1 + rejections). */
   solutions: number;
   /** false when screening stopped at maxRejections with residuals above the threshold left. */
   screeningComplete: boolean;
+  /** The weights in the final solution: σ² = a² + b²/sin²e (b only: "elevation"; a only: "uniform") [m]. */
+  weightingConstantM: number;
+  weightingElevationM: number;
+  /** Post-fit residuals and rejections per elevation band (a diagnostic of the weighting). */
+  elevationBands: ElevationBandStatistics[];
+  /** Time correlation of the residuals and what it did to the formal errors; null when not estimated. */
+  noiseCorrelation: NoiseCorrelationStatistics | null;
+  /** Output nodes with no used observation within one interval (ZWD, gradients). */
+  zwdNodesWithoutData: number;
+  gradientNodesWithoutData: number;
+}
+
+export interface ElevationBandStatistics {
+  /** [lowerRad, upperRad) of the band [rad]. */
+  lowerRad: number;
+  upperRad: number;
+  observationsUsed: number;
+  observationsRejected: number;
+  /** RMS of the post-fit residuals of the used observations [m]; null without any. */
+  rmsM: number | null;
+  /** RMS of v_i/σ_v_i (≈ 1 when the weights fit this band) [-]; null without any. */
+  normalisedRms: number | null;
+}
+
+export interface NoiseCorrelationStatistics {
+  /** Sampling interval the lags are counted in [s]. */
+  samplingS: number;
+  /** Autocorrelation of the normalised residuals at lag 1, 2, … (pooled over satellite arcs), up to the first insignificant lag. */
+  autocorrelation: number[];
+  /** Mean factor the ZWD and gradient variances were multiplied with over the epochs [-]. */
+  zwdVarianceInflation: number;
+  gradientVarianceInflation: number;
 }
 
 export interface ZwdEstimationOutput {

@@ -11,6 +11,7 @@ import type { StorageConfig } from '../storage/factory.js';
 import type { Repository } from '../storage/repository.js';
 import { MAX_QUERY_VALUE_CHARS } from '../limits.js';
 import { HttpProblem } from './problem.js';
+import { checkResponsesAgainstSchemas } from './response-check.js';
 import auth from './plugins/auth.js';
 import computePool from './plugins/compute-pool.js';
 import edge, { trustProxyOption } from './plugins/edge.js';
@@ -56,6 +57,8 @@ export interface AppOptions {
    * in-memory SQLite archive that nobody can write to (tests of other routes, `npm run openapi`).
    */
   archive?: ArchiveOptions;
+  /** Check every JSON answer against its route's response schema (tests; see response-check.ts). */
+  validateResponses?: boolean;
 }
 
 /** Archive options from the validated environment (server.ts, the demo). */
@@ -124,9 +127,22 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     reply.header('x-request-id', request.id);
     done();
   });
+  if (options.validateResponses) checkResponsesAgainstSchemas(app);
   // Every query value is length-capped before any schema or pattern looks at it (issue 11 item 3).
   app.addHook('preValidation', (request, _reply, done) => done(overlongQueryValue(request.query)));
 
+  // Plugins, in this order (each declares what it needs with fastify-plugin `dependencies`, so a
+  // wrong order fails at start instead of misbehaving):
+  //  1. error-handler   first, so that every later plugin's and route's error becomes a problem
+  //  2. request-log     one line per request, for everything below
+  //  3. metrics         app.metrics, used by compute-pool (dependency) and read by /metrics
+  //  4. edge            helmet, CORS, rate limit: before any route answers
+  //  5. compute-pool    app.compute (depends on metrics)
+  //  6. openapi         collects the routes registered after it
+  //  7. readiness       app.addReadinessCheck, used by storage (dependency)
+  //  8. storage         app.repository (depends on readiness)
+  //  9. auth            bearer keys; its hooks guard the routes registered after it
+  // then the routes, which use app.compute, app.repository and auth's guards.
   await app.register(errorHandler);
   await app.register(jsonBody);
   await app.register(requestLog);

@@ -25,11 +25,27 @@ export interface RawBody {
   format: 'json' | 'csv';
 }
 
-/** The body as bytes (JSON) or text (CSV); any other content type is a 415. */
+/**
+ * Bytes the worker pool can move (transfer) instead of copying: the array must own its whole
+ * buffer (a small Buffer is a slice of Node's shared pool, which must not be detached; it is copied).
+ */
+export function movableBytes(bytes: Uint8Array): Uint8Array<ArrayBuffer> {
+  return bytes.buffer instanceof ArrayBuffer && bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength
+    ? (bytes as Uint8Array<ArrayBuffer>)
+    : new Uint8Array(bytes);
+}
+
+/** The array buffers to move with a raw body (none for text). */
+export const transferOf = (raw: RawBody): ArrayBuffer[] => (typeof raw.body === 'string' ? [] : [raw.body.buffer as ArrayBuffer]);
+
+/** Bytes from a worker as a Buffer for the reply, without a copy. */
+export const asBuffer = (bytes: Uint8Array): Buffer => Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+
+/** The body as bytes (JSON; movable to a worker) or text (CSV); any other content type is a 415. */
 export function rawBodyOf(request: FastifyRequest): RawBody {
   const raw = request.body as Buffer | string;
   const type = (request.headers['content-type'] ?? '').split(';')[0]!.trim().toLowerCase();
   const format = type === 'text/csv' ? 'csv' : type === 'application/json' ? 'json' : undefined;
   if (!format) throw new HttpProblem(415, `content type ${type || '(none)'} is not accepted here; send application/json or text/csv`);
-  return { body: typeof raw === 'string' ? raw : new Uint8Array(raw.buffer, raw.byteOffset, raw.byteLength), format };
+  return { body: typeof raw === 'string' ? raw : movableBytes(new Uint8Array(raw.buffer, raw.byteOffset, raw.byteLength)), format };
 }

@@ -9,6 +9,7 @@
 import { DEG } from '../domain/constants.js';
 import { ModelDomainError } from '../domain/errors.js';
 import { GRADIENT_MODELS } from '../domain/gradients/gradient-mapping.js';
+import { MAPPING_MODELS, type MappingModelKey } from '../domain/mapping/registry.js';
 import { interpolateSeries, type InterpolationQuality } from '../domain/meteo/met-interpolation.js';
 import { standardAtmosphere } from '../domain/meteo/standard-atmosphere.js';
 import { MODEL_NAMES, provenance, type ModelSet } from '../domain/provenance.js';
@@ -75,14 +76,21 @@ export function toEstimatorOptions(o: ZwdOptionValues): ZwdEstimationOptions {
     outlierRejection: o.outlierRejection,
     maxRejections: o.maxRejections,
     scaleSigmas: o.scaleSigmas,
+    sigmaConstantM: o.sigmaConstantM ?? undefined,
+    parametrisation: o.parametrisation,
+    correlatedNoise: o.correlatedNoise,
+    wetMapping: { model: o.wetMapping as MappingModelKey },
   };
 }
 
 /** Models and settings of a result: two series are comparable only when the fingerprints match. */
 export function zwdModels(options: ZwdOptionValues, zhdSource: 'caller' | 'standard-atmosphere'): ModelSet {
   return {
-    estimator: 'least squares, piecewise-linear nodes, random-walk constraints, epoch biases pre-eliminated',
-    mapping: 'niell: Niell (1996) wet, at the site latitude',
+    estimator:
+      options.parametrisation === 'every-epoch'
+        ? 'least squares, random-walk states at every epoch (nodes on round UTC epochs with Brownian-bridge variance), epoch biases pre-eliminated, observation variance components, formal errors inflated for residual time correlation per satellite arc'
+        : 'least squares, piecewise-linear nodes on round UTC epochs, random-walk constraints, epoch biases pre-eliminated, observation variance components',
+    mapping: `${options.wetMapping}: ${MAPPING_MODELS[options.wetMapping as MappingModelKey].citation} wet, at the site latitude`,
     gradient_mapping: options.gradients ? `chen-herring: ${GRADIENT_MODELS['chen-herring']!.citation}` : 'none',
     apriori_zhd: zhdSource === 'caller' ? 'caller' : `${MODEL_NAMES.zhd} with ${MODEL_NAMES.standardAtmosphere}`,
     zhd: MODEL_NAMES.zhd,
@@ -164,7 +172,7 @@ export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationRe
     );
   }
 
-  const estimate = estimateZwd({ latitudeRad, observations: request.observations, options: toEstimatorOptions(options) });
+  const estimate = estimateZwd({ latitudeRad, heightM: request.site.heightM, observations: request.observations, options: toEstimatorOptions(options) });
   warnings.push(...estimate.warnings.map((text) => warning('estimator', text)));
 
   const perEpoch: Warning[] = [];

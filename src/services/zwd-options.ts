@@ -17,9 +17,13 @@
  */
 
 import { MAX_INTERVAL_S, MAX_MET_GAP_S } from '../limits.js';
-import { MIN_REJECTION_WINDOW_INTERVALS, MIN_REJECTION_WINDOW_S } from '../estimation/outliers.js';
+import { MAPPING_MODEL_KEYS } from '../domain/mapping/registry.js';
+import { MIN_EPOCH_STATE_WINDOW_S, MIN_REJECTION_WINDOW_INTERVALS, MIN_REJECTION_WINDOW_S } from '../estimation/outliers.js';
 
-export const WEIGHTING_SCHEMES = ['elevation', 'uniform'] as const;
+export const WEIGHTING_SCHEMES = ['elevation', 'uniform', 'elevation-components'] as const;
+export const PARAMETRISATIONS = ['every-epoch', 'nodes'] as const;
+/** Wet mapping functions of the estimator that need no per-epoch coefficients (the registry's others). */
+export const WET_MAPPING_MODELS = MAPPING_MODEL_KEYS.filter((k) => k !== 'vmf1') as unknown as readonly [string, ...string[]];
 export const OUTLIER_REJECTION_MODES = ['one-per-window', 'one-per-solution'] as const;
 
 interface OptionCommon {
@@ -69,7 +73,7 @@ export type OptionSpec = NumberOptionSpec | BooleanOptionSpec | EnumOptionSpec;
 export const GRADIENTS_GROUP = {
   name: 'gradients',
   default: true,
-  description: 'Horizontal gradients G_N, G_E (Chen & Herring 1997 mapping), piecewise linear; null (text/csv: gradients=off) = not estimated',
+  description: 'Horizontal gradients G_N, G_E (Chen & Herring 1997 mapping), random walks like the ZWD; null (text/csv: gradients=off) = not estimated',
 } as const;
 
 export const ZWD_OPTIONS = [
@@ -83,7 +87,7 @@ export const ZWD_OPTIONS = [
     max: MAX_INTERVAL_S,
     default: 300,
     unit: 's',
-    description: 'Spacing Δ of the ZWD nodes T0 + jΔ (T0 the first epoch used)',
+    description: 'Spacing Δ of the ZWD nodes of the output, on round UTC epochs jΔ (multiples of Δ since 1970-01-01T00:00Z); with parametrisation "nodes" also the spacing of the piecewise-linear model',
     fingerprint: 'setting',
   },
   {
@@ -97,7 +101,7 @@ export const ZWD_OPTIONS = [
     nullMeans: 'no constraint',
     default: 0.01,
     unit: 'm/√h',
-    description: 'Random-walk density q of the ZWD: adjacent nodes x_{j+1} − x_j = 0 ± q √(Δ/1 h)',
+    description: 'Random-walk density q of the ZWD: consecutive states x_{j+1} − x_j = 0 ± q √(Δt/1 h) (states at every epoch, or nodes)',
     fingerprint: 'setting',
   },
   {
@@ -125,7 +129,7 @@ export const ZWD_OPTIONS = [
     max: MAX_INTERVAL_S,
     default: 21_600,
     unit: 's',
-    description: 'Spacing of the gradient nodes',
+    description: 'Spacing of the gradient nodes of the output (round UTC epochs; with parametrisation "nodes" the model\'s nodes)',
     fingerprint: 'setting',
   },
   {
@@ -140,7 +144,7 @@ export const ZWD_OPTIONS = [
     nullMeans: 'no constraint',
     default: 0.001,
     unit: 'm/√h',
-    description: 'Random-walk density q of each gradient component: adjacent nodes x_{j+1} − x_j = 0 ± q √(Δ/1 h)',
+    description: 'Random-walk density q of each gradient component: consecutive states x_{j+1} − x_j = 0 ± q √(Δt/1 h)',
     fingerprint: 'setting',
   },
   {
@@ -176,7 +180,8 @@ export const ZWD_OPTIONS = [
     values: WEIGHTING_SCHEMES,
     default: 'elevation',
     unit: '',
-    description: 'σ_i of observations without sigma_m: sigma0_m / sin(e) ("elevation") or sigma0_m ("uniform")',
+    description:
+      'σ_i of observations without sigma_m, σ² = a² + b²/sin²e: "elevation" b = sigma0_m, a = 0; "uniform" a = sigma0_m, b = 0; "elevation-components" b = sigma0_m and a = sigma_constant_m (both re-estimated with scale_sigmas)',
     fingerprint: 'setting',
   },
   {
@@ -226,10 +231,12 @@ export const ZWD_OPTIONS = [
     values: OUTLIER_REJECTION_MODES,
     default: 'one-per-window',
     modelText: (v: string) =>
-      v === 'one-per-window' ? `one-per-window (max(${MIN_REJECTION_WINDOW_INTERVALS} intervals, ${MIN_REJECTION_WINDOW_S} s))` : v,
+      v === 'one-per-window'
+        ? `one-per-window (nodes: max(${MIN_REJECTION_WINDOW_INTERVALS} intervals, ${MIN_REJECTION_WINDOW_S} s); every-epoch: smoother kernel length, ${MIN_EPOCH_STATE_WINDOW_S}-${MIN_REJECTION_WINDOW_S} s)`
+        : v,
     unit: '',
     description:
-      'one-per-solution: reject the largest τ > k, re-solve, repeat. one-per-window: in each iteration also reject the largest τ > k of every stretch more than max(3 ZWD intervals, 30 min) away from the others (same result at a cost linear in the span)',
+      'one-per-solution: reject the largest τ > k, re-solve, repeat. one-per-window: in each iteration also reject the largest τ > k of every stretch more than a window away from the others (nodes: max(3 ZWD intervals, 30 min); every-epoch: the smoother kernel length, 5–30 min; same result at a cost linear in the span)',
     fingerprint: 'setting',
   },
   {
@@ -251,7 +258,54 @@ export const ZWD_OPTIONS = [
     type: 'boolean',
     default: true,
     unit: '',
-    description: 'Multiply formal errors by √variance_factor (a-posteriori); false = a-priori formal errors',
+    description:
+      'Re-estimate the observation weights from the residuals (variance components: σ0, or a and b of "elevation-components") and solve again; the random-walk and a-priori constraints keep their sigmas. false = the weights as given',
+    fingerprint: 'setting',
+  },
+  {
+    key: 'sigmaConstantM',
+    name: 'sigma_constant_m',
+    flatName: 'sigma_constant_m',
+    type: 'number',
+    min: 0,
+    max: 1,
+    nullMeans: 'sigma0_m / 3',
+    default: null,
+    unit: 'm',
+    description: 'a of weighting "elevation-components" (σ² = a² + b²/sin²e), the starting value when scale_sigmas re-estimates it; ignored by the other schemes',
+    fingerprint: 'setting',
+  },
+  {
+    key: 'parametrisation',
+    name: 'parametrisation',
+    flatName: 'parametrisation',
+    type: 'enum',
+    values: PARAMETRISATIONS,
+    default: 'every-epoch',
+    unit: '',
+    description:
+      'every-epoch: a random-walk state of ZWD and gradients at every epoch, nodes interpolated with the Brownian-bridge variance (formal errors hold at any node spacing). nodes: piecewise linear between the nodes (the variation between nodes is not in σ)',
+    fingerprint: 'setting',
+  },
+  {
+    key: 'correlatedNoise',
+    name: 'correlated_noise',
+    flatName: 'correlated_noise',
+    type: 'boolean',
+    default: true,
+    unit: '',
+    description: 'Estimate the residuals\' time correlation per satellite arc and inflate the formal errors by it (docs/zwd-estimation.md, "Formal errors")',
+    fingerprint: 'setting',
+  },
+  {
+    key: 'wetMapping',
+    name: 'wet_mapping',
+    flatName: 'wet_mapping',
+    type: 'enum',
+    values: WET_MAPPING_MODELS,
+    default: 'niell',
+    unit: '',
+    description: 'Wet mapping function of the estimator (src/domain/mapping registry; VMF1 needs per-epoch coefficients and is not offered here yet)',
     fingerprint: 'setting',
   },
   {
@@ -332,4 +386,12 @@ export function optionsMarkdown(): string {
     '',
     OPTIONS_DOC_END,
   ].join('\n');
+}
+
+/** `markdown` with the text between the option-table markers replaced by optionsMarkdown(). */
+export function withOptionsTable(markdown: string): string {
+  const begin = markdown.indexOf(OPTIONS_DOC_BEGIN);
+  const end = markdown.indexOf(OPTIONS_DOC_END);
+  if (begin < 0 || end < begin) throw new Error('the option-table markers are missing');
+  return markdown.slice(0, begin) + optionsMarkdown() + markdown.slice(end + OPTIONS_DOC_END.length);
 }

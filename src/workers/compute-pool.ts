@@ -96,12 +96,14 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
   }
 
   /**
-   * Runs a task in a worker.
+   * Runs a task in a worker. `transfer`: array buffers of the input moved to the worker instead of
+   * copied (they are detached here afterwards); the worker moves the typed arrays of its output back
+   * the same way (compute-worker.ts).
    *
    * @throws ComputePoolFullError when the queue is full
    * @throws ComputeTaskError when the task answers with an error outcome
    */
-  async run<K extends keyof Tasks & string>(task: K, input: TaskInput<Tasks[K]>): Promise<TaskOutput<Tasks[K]>> {
+  async run<K extends keyof Tasks & string>(task: K, input: TaskInput<Tasks[K]>, transfer: ArrayBuffer[] = []): Promise<TaskOutput<Tasks[K]>> {
     const pool = (this.pool ??= new Piscina({
       ...workerLocation(),
       minThreads: this.options.threads, // all started at once: no thread is spawned in the middle of a load
@@ -113,7 +115,7 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
     let response: ComputeResponse;
     this.running++;
     try {
-      response = (await pool.run({ ...location, input } satisfies ComputeRequest)) as ComputeResponse;
+      response = (await pool.run({ ...location, input } satisfies ComputeRequest, { transferList: transfer })) as ComputeResponse;
     } catch (err) {
       this.running--;
       if (err instanceof Error && /queue is at limit/i.test(err.message)) throw new ComputePoolFullError(this.retryAfterS());

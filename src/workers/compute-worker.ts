@@ -5,6 +5,7 @@
 
 import { createRequire } from 'node:module';
 import { fileURLToPath } from 'node:url';
+import { move, transferableSymbol, valueSymbol } from 'piscina';
 import type { ComputeRequest, ComputeResponse } from './compute-pool.js';
 
 const modules = new Map<string, Promise<Record<string, unknown>>>();
@@ -25,5 +26,26 @@ export default async function computeWorker(request: ComputeRequest): Promise<Co
   if (typeof run !== 'function') throw new Error(`compute task ${request.exportName} not found in ${request.module}`);
   const started = performance.now();
   const outcome: unknown = await run(request.input);
-  return { outcome, durationMs: performance.now() - started };
+  const response: ComputeResponse = { outcome, durationMs: performance.now() - started };
+  const transfer = ownedBuffers(outcome);
+  // A movable result: piscina transfers these buffers to the caller instead of copying them.
+  return (transfer.length ? move({ [transferableSymbol]: transfer, [valueSymbol]: response } as never) : response) as ComputeResponse;
+}
+
+/**
+ * Array buffers of typed arrays in the outcome's output (two levels deep) that the arrays own whole:
+ * moving a buffer shared with other data (a Buffer pool slice) would detach that data too.
+ */
+function ownedBuffers(outcome: unknown): ArrayBuffer[] {
+  const output = (outcome as { ok?: boolean; output?: unknown }).output;
+  const found = new Set<ArrayBuffer>();
+  const visit = (value: unknown, depth: number) => {
+    if (ArrayBuffer.isView(value)) {
+      if (value.buffer instanceof ArrayBuffer && value.byteOffset === 0 && value.byteLength === value.buffer.byteLength) found.add(value.buffer);
+    } else if (depth < 2 && value !== null && typeof value === 'object' && !Array.isArray(value)) {
+      for (const v of Object.values(value)) visit(v, depth + 1);
+    }
+  };
+  visit(output, 0);
+  return [...found];
 }

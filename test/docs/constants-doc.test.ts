@@ -3,7 +3,12 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { BEVIS_1994 } from '../../src/domain/constants.js';
-import { NIELL_HEIGHT_CORRECTION, NIELL_HYDROSTATIC_AMPLITUDE, NIELL_HYDROSTATIC_AVERAGE, NIELL_WET } from '../../src/domain/mapping/niell.js';
+import {
+  NIELL_HEIGHT_CORRECTION,
+  NIELL_HYDROSTATIC_AMPLITUDE,
+  NIELL_HYDROSTATIC_AVERAGE,
+  NIELL_WET,
+} from '../../src/domain/mapping/niell.js';
 import { REFRACTIVITY_CONSTANT_SETS } from '../../src/domain/profile/refractivity.js';
 
 // docs/constants.md is the in-repository record of which constants are confirmed and which are from
@@ -37,7 +42,10 @@ describe('docs/constants.md against the code', () => {
     for (const set of Object.values(REFRACTIVITY_CONSTANT_SETS)) {
       const line = DOC.split('\n').find((l) => l.startsWith(`| \`${set.key}\``));
       expect(line, set.key).toBeDefined();
-      const [k1, k2, k3] = line!.split('|').slice(2, 5).map((cell) => Number(cell.trim()));
+      const [k1, k2, k3] = line!
+        .split('|')
+        .slice(2, 5)
+        .map((cell) => Number(cell.trim()));
       expect([k1, k2, k3], set.key).toEqual([set.k1KPerHpa, set.k2KPerHpa, set.k3K2PerHpa]);
     }
     expect(DOC).toContain(`k1 = ${BEVIS_1994.k1_K_per_hPa.toFixed(2)} K/hPa, k2 = ${BEVIS_1994.k2_K_per_hPa} K/hPa`);
@@ -46,10 +54,14 @@ describe('docs/constants.md against the code', () => {
   it('no source, test, script or doc points at a notes file outside the repository', () => {
     // git grep over the tracked tree (status 1: no match). The old pointer named a file beside the checkout.
     const outside = ['published', 'constants'].join('-');
-    const result = spawnSync('git', ['grep', '-l', '-e', outside, '-e', '\\.\\./shared/', '--', 'src', 'test', 'scripts', 'bench', 'docs', 'README.md', 'DEVELOPERS.md'], {
-      cwd: fileURLToPath(new URL('../..', import.meta.url)),
-      encoding: 'utf8',
-    });
+    const result = spawnSync(
+      'git',
+      ['grep', '-l', '-e', outside, '-e', '\\.\\./shared/', '--', 'src', 'test', 'scripts', 'bench', 'docs', 'README.md', 'DEVELOPERS.md'],
+      {
+        cwd: fileURLToPath(new URL('../..', import.meta.url)),
+        encoding: 'utf8',
+      },
+    );
     expect(result.stdout).toBe('');
     expect(result.status).toBe(1);
   });

@@ -29,7 +29,10 @@ describe('ZHD at every temperature the API accepts (Saastamoinen/Davis needs onl
 
   it('the saturation formula itself still refuses below −45 °C unless told to extrapolate (WMO-No. 8 states −45..60 °C)', () => {
     expect(() => saturationVapourPressureHpa(-50)).toThrow(/-45..60/);
-    expect(saturationVapourPressureHpa(-50, 'temperature_c', 'extrapolate')).toBeCloseTo(6.112 * Math.exp((17.62 * -50) / (243.12 - 50)), 12);
+    expect(saturationVapourPressureHpa(-50, 'temperature_c', 'extrapolate')).toBeCloseTo(
+      6.112 * Math.exp((17.62 * -50) / (243.12 - 50)),
+      12,
+    );
   });
 
   it('met resolution warns once and keeps the pressure as measured', () => {

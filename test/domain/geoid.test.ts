@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { geoidUndulationM, siteHeights } from '../../src/domain/geometry/geoid.js';
 import { M } from '../helpers/units.js';
 
-describe('EGM96 geoid undulation against NGA test points (the check values distributed with NGA\'s EGM96 interpolation program, from memory)', () => {
+describe("EGM96 geoid undulation against NGA test points (the check values distributed with NGA's EGM96 interpolation program, from memory)", () => {
   // latitude [deg], longitude [deg east, 0..360], N [m] from the spherical-harmonic synthesis.
   // The 15′ grid with bilinear interpolation differs from the synthesis by a few cm (common practice);
   // a tolerance of 0.1 m still catches a swapped latitude/longitude, a sign or a wrong grid row (metres).

@@ -13,7 +13,7 @@ const f = (e: number, a: number, b: number, c: number) =>
 /** ZHD of a station 500 m above sea level, about 955 hPa (IERS 2010 eq. 9.11, common practice) [m]. */
 const ZHD_500_M = 2.18;
 
-describe('VMF1 (Boehm et al. 2006): Niell\'s height correction only for coefficients that refer to sea level', () => {
+describe("VMF1 (Boehm et al. 2006): Niell's height correction only for coefficients that refer to sea level", () => {
   const context = { latitudeRad: 46 * DEG, heightM: 500, dayOfYear: 200 };
   const ah = 0.00124;
   const aw = 0.00061;
@@ -55,7 +55,7 @@ describe('VMF1 (Boehm et al. 2006): Niell\'s height correction only for coeffici
 });
 
 describe('Niell (1996) height correction from the height above sea level: a 50 m geoid undulation matters', () => {
-  it('moves a 5° slant by about 2.5 mm (issue 10\'s figure, ZHD 2.3 m; ±0.2 mm)', () => {
+  it("moves a 5° slant by about 2.5 mm (issue 10's figure, ZHD 2.3 m; ±0.2 mm)", () => {
     const context = { latitudeRad: 47 * DEG, dayOfYear: 100 };
     const ellipsoidal = niellModel.prepare({ ...context, heightM: 350 });
     const seaLevel = niellModel.prepare({ ...context, heightM: 300 }); // N = 50 m

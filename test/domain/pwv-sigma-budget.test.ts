@@ -52,7 +52,7 @@ describe('σ_PWV budget, term by term, by finite differences', () => {
     expect(r.sigmaBudget.defaulted).toContain('temperature_sigma_k');
   });
 
-  it('Tm: |∂PWV/∂Tm| · 4.74 K for the Bevis regression (Bevis 1992, from memory) and · 2 K for a caller\'s tm_k without σ', () => {
+  it("Tm: |∂PWV/∂Tm| · 4.74 K for the Bevis regression (Bevis 1992, from memory) and · 2 K for a caller's tm_k without σ", () => {
     const tm0 = 70.2 + 0.72 * (base.temperatureC + 273.15);
     const dTm = derivative((x) => pwv({ ztdM: base.ztdM, pressureHpa: base.pressureHpa, tmK: x }), tm0, 1e-4);
     expect(r.sigmaBudget.tmMm).toBeCloseTo(Math.abs(dTm) * 4.74, 6);

@@ -19,7 +19,7 @@ const LATITUDE_DEG = 46.2;
 function smallProblem(overrides: Partial<SyntheticOptions>, options: Partial<ZwdEstimationOptions>, withSigmas = false) {
   const synthetic: Partial<SyntheticOptions> = { durationS: 3 * 3600, samplingS: 90, latitudeDeg: LATITUDE_DEG, ...overrides };
   const data = generateSyntheticResiduals(synthetic);
-  return toEstimationInput(data, LATITUDE_DEG, { scaleSigmas: false, ...options }, withSigmas);
+  return toEstimationInput(data, LATITUDE_DEG, { scaleSigmas: false, correlatedNoise: false, ...options }, withSigmas);
 }
 
 function expectSameSolution(fast: ZwdEstimationOutput, dense: DenseResult) {
@@ -92,7 +92,8 @@ describe('dense least squares with explicit epoch biases (ml-matrix), same numbe
   });
 
   it('outlier screening rejects the same observations as the dense one-at-a-time loop, in both modes', () => {
-    const input = smallProblem({ grossErrors: 6, seed: 5 }, { outlierThreshold: 4 });
+    // 180 s sampling: with a state per epoch the dense one-at-a-time loop costs O(u³) per rejection.
+    const input = smallProblem({ grossErrors: 6, seed: 5, samplingS: 180 }, { outlierThreshold: 4 });
     const dense = denseZwdEstimate(input);
     expect(dense.rejected.length).toBeGreaterThanOrEqual(6);
     for (const mode of ['one-per-solution', 'one-per-window'] as const) {
@@ -107,7 +108,7 @@ describe('dense least squares with explicit epoch biases (ml-matrix), same numbe
   });
 
   it('does not depend on the order of the observations (shuffled input gives the same numbers)', () => {
-    const input = smallProblem({ grossErrors: 2 }, {});
+    const input = smallProblem({ grossErrors: 2, samplingS: 180 }, {});
     const rand = mulberry32(99);
     const order = input.observations.epochMs.map((_, i) => i);
     for (let i = order.length - 1; i > 0; i--) {
@@ -132,5 +133,23 @@ describe('dense least squares with explicit epoch biases (ml-matrix), same numbe
     // Rejected observations are reported by their index in the (shuffled) input.
     expect(new Set(b.rejected.map((r) => order[r.index]))).toEqual(new Set(a.rejected.map((r) => r.index)));
     expectSameSolution(b, denseZwdEstimate(shuffled));
+  });
+
+  // Issue 10: the new parameters and layouts.
+  it('every-epoch states across a 40-min gap, output nodes bridged in it; weighting a² + b²/sin²e', () => {
+    const input = smallProblem(
+      { gaps: [[3600, 6000]] },
+      { weighting: 'elevation-components', sigmaConstantM: 0.002, outlierThreshold: null, gradients: { intervalS: 1800, randomWalkMPerSqrtH: 0.001, aprioriSigmaM: 0.01 } },
+    );
+    const fast = estimateZwd(input);
+    expect(fast.zwdNodes.filter((n) => n.observationsNearby === 0).length).toBeGreaterThan(0);
+    expectSameSolution(fast, denseZwdEstimate(input));
+  });
+
+  it('the older piecewise-linear model ("nodes") on round UTC nodes, data starting off the grid', () => {
+    const input = smallProblem({ startIso: '2026-03-14T00:07:30Z' }, { parametrisation: 'nodes', outlierThreshold: null });
+    const fast = estimateZwd(input);
+    expect(new Date(fast.zwdNodes[0]!.epochMs).toISOString()).toBe('2026-03-14T00:05:00.000Z');
+    expectSameSolution(fast, denseZwdEstimate(input));
   });
 });

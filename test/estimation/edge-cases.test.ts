@@ -23,7 +23,7 @@ function thrown(f: () => unknown): ModelDomainError {
 
 describe('a single epoch (issue: one node when there is a single epoch)', () => {
   const data = generateSyntheticResiduals({ durationS: 0, latitudeDeg: LATITUDE_DEG });
-  const input = toEstimationInput(data, LATITUDE_DEG, { scaleSigmas: false, outlierThreshold: null });
+  const input = toEstimationInput(data, LATITUDE_DEG, { scaleSigmas: false, correlatedNoise: false, outlierThreshold: null });
   const out = estimateZwd(input);
 
   it('has one ZWD node and one gradient node, at the epoch, and one series entry', () => {
@@ -46,8 +46,9 @@ describe('a single epoch (issue: one node when there is a single epoch)', () => 
 
 describe('a gap of several hours', () => {
   // 10 h of data with nothing from 3 h to 7 h.
-  const data = generateSyntheticResiduals({ durationS: 10 * H, samplingS: 60, latitudeDeg: LATITUDE_DEG, gaps: [[3 * H, 7 * H]] });
-  const input = toEstimationInput(data, LATITUDE_DEG, { scaleSigmas: false, outlierThreshold: null });
+  // 300 s sampling keeps the dense reference (a state per epoch) small.
+  const data = generateSyntheticResiduals({ durationS: 10 * H, samplingS: 300, latitudeDeg: LATITUDE_DEG, gaps: [[3 * H, 7 * H]] });
+  const input = toEstimationInput(data, LATITUDE_DEG, { scaleSigmas: false, correlatedNoise: false, outlierThreshold: null });
   const out = estimateZwd(input);
   const t0 = data.observations.epochMs[0]!;
   const at = (hours: number) => out.zwdNodes.find((n) => n.epochMs === t0 + hours * H * 1000)!;
@@ -131,6 +132,7 @@ describe('bad input and a system that cannot be solved', () => {
     const input = toEstimationInput(data, LATITUDE_DEG, {
       zwd: { intervalS: 600, randomWalkMPerSqrtH: null, aprioriSigmaM: null },
       gradients: null,
+      parametrisation: 'nodes',
     });
     const err = thrown(() => estimateZwd(input));
     expect(err.status).toBe(422);
@@ -184,15 +186,35 @@ describe('screening limits', () => {
     expect(out.warnings.join(' ')).toMatch(/stopped after 3 rejections/);
   });
 
-  it('formal errors scaled by √(variance factor) when scale_sigmas is on', () => {
+  // Variance-component estimation (issue 10): scale_sigmas re-estimates the observation weights
+  // and re-solves; the random-walk prior keeps its stated q, so a wrong sigma0 neither shrinks nor
+  // inflates what the random walk alone determines.
+  it('scale_sigmas re-estimates σ0 from the residuals (data with 6 mm, option 3 mm) and gives the σ of the right σ0', () => {
     const data = generateSyntheticResiduals({ durationS: 2 * H, latitudeDeg: LATITUDE_DEG, sigma0M: 0.006 });
-    const input = toEstimationInput(data, LATITUDE_DEG, { outlierThreshold: null }); // assumes σ0 = 3 mm: variance factor ≈ 4
-    const unscaled = estimateZwd({ ...input, options: { ...input.options, scaleSigmas: false } });
+    const input = toEstimationInput(data, LATITUDE_DEG, { outlierThreshold: null, correlatedNoise: false });
     const scaled = estimateZwd({ ...input, options: { ...input.options, scaleSigmas: true } });
-    const vf = scaled.statistics.varianceFactor!;
-    expect(vf).toBeGreaterThan(3);
-    expect(vf).toBeLessThan(5);
-    expect(scaled.statistics.sigmaScale).toBeCloseTo(Math.sqrt(vf), 12);
-    scaled.zwdNodes.forEach((n, j) => expect(n.sigmaM).toBeCloseTo(unscaled.zwdNodes[j]!.sigmaM * Math.sqrt(vf), 12));
+    const right = estimateZwd({ ...input, options: { ...input.options, scaleSigmas: false, sigma0M: 0.006 } });
+    // σ0 of the generator: 6 mm; the estimate from ~5000 residuals is good to a few per cent.
+    expect(scaled.statistics.weightingElevationM).toBeGreaterThan(0.006 * 0.95);
+    expect(scaled.statistics.weightingElevationM).toBeLessThan(0.006 * 1.05);
+    expect(scaled.statistics.varianceFactor!).toBeGreaterThan(0.9);
+    expect(scaled.statistics.varianceFactor!).toBeLessThan(1.1);
+    expect(scaled.statistics.solutions).toBeGreaterThan(1);
+    scaled.zwdNodes.forEach((n, j) => expect(Math.abs(n.sigmaM / right.zwdNodes[j]!.sigmaM - 1)).toBeLessThan(0.05));
+  });
+
+  it('a σ0 too large (10 mm on 3 mm data) does not shrink σ inside a 4-h gap (the random walk keeps its q)', () => {
+    const data = generateSyntheticResiduals({ durationS: 10 * H, samplingS: 120, latitudeDeg: LATITUDE_DEG, gaps: [[3 * H, 7 * H]] });
+    const input = toEstimationInput(data, LATITUDE_DEG, { outlierThreshold: null, correlatedNoise: false, gradients: null });
+    const wrong = estimateZwd({ ...input, options: { ...input.options, scaleSigmas: true, sigma0M: 0.01 } });
+    const right = estimateZwd({ ...input, options: { ...input.options, scaleSigmas: false, sigma0M: 0.003 } });
+    const mid = Date.parse('2026-03-14T05:00:00Z');
+    const a = wrong.zwdNodes.find((n) => n.epochMs === mid)!;
+    const b = right.zwdNodes.find((n) => n.epochMs === mid)!;
+    // Brownian bridge over 4 h with q = 10 mm/√h: 10 mm in the middle (common practice).
+    expect(b.sigmaM).toBeGreaterThan(0.0095);
+    expect(Math.abs(a.sigmaM / b.sigmaM - 1)).toBeLessThan(0.02);
+    expect(a.observationsNearby).toBe(0);
+    expect(wrong.statistics.zwdNodesWithoutData).toBeGreaterThan(30);
   });
 });

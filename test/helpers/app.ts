@@ -10,7 +10,7 @@ import { buildApp } from '../../src/http/app.js';
 export function useApp(): () => request.Agent {
   let app: FastifyInstance;
   beforeAll(async () => {
-    app = await buildApp();
+    app = await buildApp({ validateResponses: true });
   });
   afterAll(async () => {
     await app.close();

@@ -26,6 +26,7 @@ export function useArchiveApp(backend: BackendUnderTest, archive: Partial<Archiv
     const fresh = await backend.fresh();
     cleanup = fresh.cleanup;
     app = await buildApp({
+      validateResponses: true,
       ...options,
       archive: { storage: fresh.config, apiKeys: [TEST_KEY], keyDir: fresh.config.dataDir, readKeysRequired: false, maxReadRangeDays: 366, ...archive },
     });

@@ -1,5 +1,7 @@
 /**
- * Dense reference for the ZWD estimator: the same model (issue 3) solved the textbook way, with
+ * Dense reference for the ZWD estimator: the same model (issues 3 and 10: states at every epoch or
+ * piecewise-linear nodes on round UTC epochs, random walk between consecutive states, weights
+ * σ0/sin e, σ0 or a² + b²/sin²e) solved the textbook way, with
  * every epoch bias b_k carried as an explicit unknown, the full normal matrix formed densely and
  * solved with ml-matrix's Cholesky decomposition, and the covariance as the full inverse.
  *
@@ -63,36 +65,57 @@ export function denseZwdEstimate(input: ZwdEstimationInput, denseOptions: DenseO
   const epochIndex = new Map(epochList.map((t, k) => [t, k]));
   const t0 = epochList[0]!;
   const tLast = epochList[epochList.length - 1]!;
-  const nodesFor = (intervalS: number) => Math.max(0, Math.ceil((tLast - t0) / (intervalS * 1000) - 1e-9)) + 1;
-  const nW = nodesFor(opt.zwd.intervalS);
-  const nG = opt.gradients ? nodesFor(opt.gradients.intervalS) : 0;
+  const everyEpoch = (opt.parametrisation ?? 'every-epoch') === 'every-epoch';
+  // Regular nodes on round UTC epochs: multiples of Δ since 1970 from the last one at or before the
+  // first epoch to the first one at or after the last.
+  const roundNodes = (intervalS: number) => {
+    const d = intervalS * 1000;
+    const first = Math.floor(t0 / d + 1e-9) * d;
+    const count = Math.max(0, Math.ceil((tLast - first) / d - 1e-9)) + 1;
+    return Array.from({ length: count }, (_, j) => first + j * d);
+  };
+  // States of the solution: one per epoch, or the regular nodes.
+  const stateTimes = (intervalS: number) => (everyEpoch ? epochList : roundNodes(intervalS));
+  const zwdTimes = stateTimes(opt.zwd.intervalS);
+  const gradientTimes = opt.gradients ? stateTimes(opt.gradients.intervalS) : [];
+  const nW = zwdTimes.length;
+  const nG = gradientTimes.length;
   const nK = opt.epochBias ? epochList.length : 0;
   const u = nW + 2 * nG + nK;
 
-  // Interpolation weights of the nodes around t: [[node, weight], ...].
-  const hat = (t: number, intervalS: number, count: number): Array<[number, number]> => {
-    if (count === 1) return [[0, 1]];
-    const pos = (t - t0) / (intervalS * 1000);
-    const j = Math.min(Math.floor(pos), count - 2);
+  // Interpolation weights of the states around t: [[state, weight], ...] (linear search: small cases).
+  const hat = (t: number, times: readonly number[]): Array<[number, number]> => {
+    if (times.length === 1) return [[0, 1]];
+    let j = 0;
+    while (j < times.length - 2 && times[j + 1]! <= t) j++;
+    const alpha = (t - times[j]!) / (times[j + 1]! - times[j]!);
     return [
-      [j, 1 - (pos - j)],
-      [j + 1, pos - j],
+      [j, 1 - alpha],
+      [j + 1, alpha],
     ];
   };
+  const sigmaOf = (e: number) => {
+    const s0 = opt.sigma0M;
+    if (opt.weighting === 'uniform') return s0;
+    if (opt.weighting === 'elevation') return s0 / Math.sin(e);
+    const a = opt.sigmaConstantM ?? s0 / 3;
+    return Math.sqrt(a * a + (s0 * s0) / Math.sin(e) ** 2);
+  };
+  if ((opt.wetMapping?.model ?? 'niell') !== 'niell') throw new Error('the dense reference knows the Niell wet mapping only');
 
   const rows: Row[] = kept.map((i) => {
     const e = o.elevationRad[i]!;
     const a = o.azimuthRad[i]!;
-    const sigma = o.sigmaM?.[i] ?? (opt.weighting === 'elevation' ? opt.sigma0M / Math.sin(e) : opt.sigma0M);
+    const sigma = o.sigmaM?.[i] ?? sigmaOf(e);
     const cols: number[] = [];
     const vals: number[] = [];
-    for (const [j, h] of hat(o.epochMs[i]!, opt.zwd.intervalS, nW)) {
+    for (const [j, h] of hat(o.epochMs[i]!, zwdTimes)) {
       cols.push(j);
       vals.push(h * niellWetMapping(latDeg, e));
     }
     if (opt.gradients) {
       const mg = chenHerringMapping(e);
-      for (const [l, h] of hat(o.epochMs[i]!, opt.gradients.intervalS, nG)) {
+      for (const [l, h] of hat(o.epochMs[i]!, gradientTimes)) {
         cols.push(nW + l, nW + nG + l);
         vals.push(h * mg * Math.cos(a), h * mg * Math.sin(a));
       }
@@ -106,17 +129,19 @@ export function denseZwdEstimate(input: ZwdEstimationInput, denseOptions: DenseO
 
   // Pseudo-observations: value 0 with weight, on a linear combination of unknowns.
   const constraints: Array<{ cols: number[]; vals: number[]; w: number }> = [];
-  const family = (offset: number, count: number, s: { intervalS: number; randomWalkMPerSqrtH: number | null; aprioriSigmaM: number | null }) => {
+  const family = (offset: number, times: readonly number[], s: { randomWalkMPerSqrtH: number | null; aprioriSigmaM: number | null }) => {
     if (s.aprioriSigmaM !== null) constraints.push({ cols: [offset], vals: [1], w: 1 / s.aprioriSigmaM ** 2 });
     if (s.randomWalkMPerSqrtH !== null) {
-      const w = 1 / (s.randomWalkMPerSqrtH ** 2 * (s.intervalS / 3600));
-      for (let j = 0; j + 1 < count; j++) constraints.push({ cols: [offset + j, offset + j + 1], vals: [-1, 1], w });
+      for (let j = 0; j + 1 < times.length; j++) {
+        const w = 1 / (s.randomWalkMPerSqrtH ** 2 * ((times[j + 1]! - times[j]!) / 3_600_000));
+        constraints.push({ cols: [offset + j, offset + j + 1], vals: [-1, 1], w });
+      }
     }
   };
-  family(0, nW, opt.zwd);
+  family(0, zwdTimes, opt.zwd);
   if (opt.gradients) {
-    family(nW, nG, opt.gradients);
-    family(nW + nG, nG, opt.gradients);
+    family(nW, gradientTimes, opt.gradients);
+    family(nW + nG, gradientTimes, opt.gradients);
   }
 
   const active = rows.map(() => true);
@@ -188,7 +213,6 @@ export function denseZwdEstimate(input: ZwdEstimationInput, denseOptions: DenseO
       continue;
     }
 
-    const sd = (j: number) => (q ? Math.sqrt(q.get(j, j)) : Number.NaN);
     const combo = (pairs: Array<[number, number]>) => {
       let value = 0;
       let variance = 0;
@@ -200,17 +224,37 @@ export function denseZwdEstimate(input: ZwdEstimationInput, denseOptions: DenseO
     };
     const shift = (pairs: Array<[number, number]>, offset: number) => pairs.map(([j, h]) => [j + offset, h] as [number, number]);
     const perEpoch = epochList.map((t) => ({
-      w: combo(hat(t, opt.zwd.intervalS, nW)),
-      n: opt.gradients ? combo(shift(hat(t, opt.gradients.intervalS, nG), nW)) : null,
-      e: opt.gradients ? combo(shift(hat(t, opt.gradients.intervalS, nG), nW + nG)) : null,
+      w: combo(hat(t, zwdTimes)),
+      n: opt.gradients ? combo(shift(hat(t, gradientTimes), nW)) : null,
+      e: opt.gradients ? combo(shift(hat(t, gradientTimes), nW + nG)) : null,
     }));
+    // Output nodes on round UTC epochs: the states there; between every-epoch states the straight
+    // line plus the Brownian-bridge variance q² Δt α(1 − α), beyond the ends the end state plus q² |Δt|.
+    const outputNodes = (intervalS: number, times: readonly number[], offset: number, qRw: number | null) =>
+      roundNodes(intervalS).map((t) => {
+        const qq = qRw === null ? Infinity : qRw * qRw;
+        if (t < times[0]! || t > times[times.length - 1]!) {
+          const end = t < times[0]! ? 0 : times.length - 1;
+          const c = combo([[offset + end, 1]]);
+          return { value: c.value, sigma: Math.sqrt(c.sigma ** 2 + (qq * Math.abs(t - times[end]!)) / 3_600_000) };
+        }
+        const pairs = hat(t, times);
+        const c = combo(shift(pairs, offset));
+        const alpha = pairs.length > 1 ? pairs[1]![1] : 0;
+        const j = pairs[0]![0];
+        const bridge = everyEpoch && alpha > 0 && alpha < 1 ? (qq * ((times[j + 1]! - times[j]!) / 3_600_000)) * alpha * (1 - alpha) : 0;
+        return { value: c.value, sigma: Math.sqrt(c.sigma ** 2 + bridge) };
+      });
+    const zwdOut = outputNodes(opt.zwd.intervalS, zwdTimes, 0, opt.zwd.randomWalkMPerSqrtH);
+    const northOut = opt.gradients ? outputNodes(opt.gradients.intervalS, gradientTimes, nW, opt.gradients.randomWalkMPerSqrtH) : [];
+    const eastOut = opt.gradients ? outputNodes(opt.gradients.intervalS, gradientTimes, nW + nG, opt.gradients.randomWalkMPerSqrtH) : [];
     return {
-      zwdNodesM: x.slice(0, nW),
-      zwdNodeSigmaM: Array.from({ length: nW }, (_, j) => sd(j)),
-      northNodesM: x.slice(nW, nW + nG),
-      eastNodesM: x.slice(nW + nG, nW + 2 * nG),
-      northNodeSigmaM: Array.from({ length: nG }, (_, l) => sd(nW + l)),
-      eastNodeSigmaM: Array.from({ length: nG }, (_, l) => sd(nW + nG + l)),
+      zwdNodesM: zwdOut.map((c) => c.value),
+      zwdNodeSigmaM: zwdOut.map((c) => c.sigma),
+      northNodesM: northOut.map((c) => c.value),
+      eastNodesM: eastOut.map((c) => c.value),
+      northNodeSigmaM: northOut.map((c) => c.sigma),
+      eastNodeSigmaM: eastOut.map((c) => c.sigma),
       epochMs: epochList,
       epochCorrectionM: perEpoch.map((p) => p.w.value),
       epochSigmaM: perEpoch.map((p) => p.w.sigma),

@@ -47,7 +47,13 @@ export function postJson(baseUrl: string, path: string, body: string): PostInFli
         const chunks: Buffer[] = [];
         res.on('data', (c: Buffer) => chunks.push(c));
         res.on('end', () =>
-          resolve({ status: res.statusCode!, headers: res.headers, body: Buffer.concat(chunks).toString('utf8'), sentAt, answeredAt: performance.now() }),
+          resolve({
+            status: res.statusCode!,
+            headers: res.headers,
+            body: Buffer.concat(chunks).toString('utf8'),
+            sentAt,
+            answeredAt: performance.now(),
+          }),
         );
       },
     );

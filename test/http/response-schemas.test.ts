@@ -1,10 +1,18 @@
 /**
- * Responses are serialised with plain JSON.stringify (src/http/app.ts), so this file checks that
- * what each route answers conforms to the response schema it documents in the OpenAPI document.
+ * Responses are serialised with plain JSON.stringify (src/http/app.ts). Every HTTP test builds the
+ * app with `validateResponses` (test/helpers), so each JSON answer any test receives is checked
+ * against its route's response schema for that status (src/http/response-check.ts); this file
+ * checks that the check itself catches drift, that every route of the OpenAPI document has a
+ * response schema, and a few answers explicitly.
  */
 
 import type { z } from 'zod';
+import { readFileSync } from 'node:fs';
+import Fastify from 'fastify';
+import { serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
+import { z as zod } from 'zod';
 import { describe, expect, it } from 'vitest';
+import { checkResponsesAgainstSchemas } from '../../src/http/response-check.js';
 import { mappingFactorsResponse } from '../../src/http/schemas/mapping-factors.js';
 import { precipitableWaterResponse } from '../../src/http/schemas/precipitable-water.js';
 import { slantDelaysResponse } from '../../src/http/schemas/slant-delays.js';
@@ -35,5 +43,50 @@ describe('responses conform to their documented schemas', () => {
   it('errors conform to the problem schema', async () => {
     const r = await api().post('/v1/zenith-delays').send({}).expect(400);
     expect(problemSchema.safeParse(r.body).success).toBe(true);
+  });
+});
+
+describe('every route documents its answers (OpenAPI document)', () => {
+  const doc = JSON.parse(readFileSync(new URL('../../openapi/openapi.json', import.meta.url), 'utf8')) as {
+    paths: Record<string, Record<string, { responses: Record<string, { content?: Record<string, { schema?: unknown }> }> }>>;
+  };
+  const operations = Object.entries(doc.paths).flatMap(([path, ops]) => Object.entries(ops).map(([method, op]) => [`${method.toUpperCase()} ${path}`, op] as const));
+  it('has the routes of the service (18 operations)', () => {
+    expect(operations.length).toBe(18);
+  });
+  it.each(operations)('%s has a success response with a schema, and problem schemas for its errors', (_name, op) => {
+    const success = Object.entries(op.responses).filter(([status]) => status.startsWith('2'));
+    expect(success.length).toBeGreaterThan(0);
+    for (const [status, r] of success) if (status !== '204') expect(r.content?.['application/json']?.schema).toBeDefined();
+    for (const [, r] of Object.entries(op.responses).filter(([status]) => /^[45]/.test(status))) {
+      expect(r.content?.['application/json']?.schema).toBeDefined();
+    }
+  });
+});
+
+describe('the response check catches drift (src/http/response-check.ts)', () => {
+  async function tinyApp() {
+    const app = Fastify().withTypeProvider<ZodTypeProvider>();
+    app.setValidatorCompiler(validatorCompiler);
+    app.setSerializerCompiler(() => (data) => JSON.stringify(data));
+    checkResponsesAgainstSchemas(app);
+    app.setErrorHandler((error: Error, _request, reply) => reply.code(500).send({ message: error.message })); // as src/http/plugins/error-handler.ts: 500
+    const schema = { response: { 200: zod.object({ zwd_m: zod.number() }) } };
+    app.get('/right', { schema }, async () => ({ zwd_m: 0.1 }));
+    app.get('/renamed-field', { schema }, async () => ({ zwd_mm: 100 }) as never);
+    app.get('/undocumented-status', { schema }, async (_request, reply) => reply.code(404 as 200).send({ zwd_m: 1 }));
+    await app.ready();
+    return app;
+  }
+  it('passes a matching answer and turns a mismatch or an undocumented status into a 500 naming it', async () => {
+    const app = await tinyApp();
+    expect((await app.inject('/right')).statusCode).toBe(200);
+    const renamed = await app.inject('/renamed-field');
+    expect(renamed.statusCode).toBe(500);
+    expect(renamed.json().message).toMatch(/GET \/renamed-field answered 200 not matching its response schema: zwd_m/);
+    const undocumented = await app.inject('/undocumented-status');
+    expect(undocumented.statusCode).toBe(500);
+    expect(undocumented.json().message).toMatch(/answered 404, which its response schemas do not document/);
+    await app.close();
   });
 });

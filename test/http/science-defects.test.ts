@@ -1,6 +1,7 @@
 /**
  * Issue 10, item 5 (science defects) through HTTP: each case here failed before the fix.
  */
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { column, evenHeightsM, toApiLevels } from '../../scripts/generators/us-standard-atmosphere-1976.js';
 import { precipitableWaterResponse } from '../../src/http/schemas/precipitable-water.js';
@@ -60,7 +61,13 @@ describe('VMF1 coefficients at the site get no height correction (Boehm et al. 2
   it('refuses an unknown height_reference, naming the field and the choices', async () => {
     const r = await api()
       .post('/v1/mapping-factors')
-      .send({ site: { ...place, height_m: 500 }, epoch, elevations_deg: [5], model: 'vmf1', coefficients: { ...coefficients, height_reference: 'ground' } })
+      .send({
+        site: { ...place, height_m: 500 },
+        epoch,
+        elevations_deg: [5],
+        model: 'vmf1',
+        coefficients: { ...coefficients, height_reference: 'ground' },
+      })
       .expect(400);
     expect(problemFields(r.body)).toContain('coefficients.height_reference');
     expect(r.body.detail).toMatch(/site, sea-level/);
@@ -92,7 +99,7 @@ describe('PWV σ budget (Bevis et al. 1992, 1994; IERS 2010): no term silently 0
   const api = useApp();
   const site = { latitude_deg: 47.5, longitude_deg: 8.25, height_m: 420 };
 
-  it('a record without the delay\'s σ gets pwv_sigma_mm null and a warning, not 0', async () => {
+  it("a record without the delay's σ gets pwv_sigma_mm null and a warning, not 0", async () => {
     const r = await api()
       .post('/v1/precipitable-water')
       .send({ site, records: [{ epoch, zwd_m: 0.12, temperature_c: 15 }] })
@@ -105,7 +112,10 @@ describe('PWV σ budget (Bevis et al. 1992, 1994; IERS 2010): no term silently 0
 
   it('sigma_budget=true lists every term; pressure is 0.5 hPa by default, not 0; the total is their root sum of squares', async () => {
     const rec = { epoch, ztd_m: 2.35, ztd_sigma_m: 0.004, pressure_hpa: 962, temperature_c: 16 };
-    const r = await api().post('/v1/precipitable-water').send({ site, sigma_budget: true, records: [rec] }).expect(200);
+    const r = await api()
+      .post('/v1/precipitable-water')
+      .send({ site, sigma_budget: true, records: [rec] })
+      .expect(200);
     precipitableWaterResponse.parse(r.body);
     const out = r.body.records[0];
     const b = out.sigma_budget;
@@ -124,9 +134,20 @@ describe('PWV σ budget (Bevis et al. 1992, 1994; IERS 2010): no term silently 0
     expect(r.body.models.pwv_sigma).toMatch(/0\.5 hPa/);
   });
 
-  it('a caller\'s pressure and temperature sigmas replace the defaults', async () => {
-    const rec = { epoch, ztd_m: 2.35, ztd_sigma_m: 0.004, pressure_hpa: 962, pressure_sigma_hpa: 0.1, temperature_c: 16, temperature_sigma_k: 2 };
-    const r = await api().post('/v1/precipitable-water').send({ site, sigma_budget: true, records: [rec] }).expect(200);
+  it("a caller's pressure and temperature sigmas replace the defaults", async () => {
+    const rec = {
+      epoch,
+      ztd_m: 2.35,
+      ztd_sigma_m: 0.004,
+      pressure_hpa: 962,
+      pressure_sigma_hpa: 0.1,
+      temperature_c: 16,
+      temperature_sigma_k: 2,
+    };
+    const r = await api()
+      .post('/v1/precipitable-water')
+      .send({ site, sigma_budget: true, records: [rec] })
+      .expect(200);
     const b = r.body.records[0].sigma_budget;
     expect(b.defaulted).toEqual([]);
     const d = await api()
@@ -154,7 +175,12 @@ describe('heights above sea level from the EGM96 geoid (NGA check values, from m
     const lat = 38.628155;
     const heights = [];
     for (const lon of [269.779155, 359.9995]) {
-      const n = (await api().post('/v1/zenith-delays').send({ site: { latitude_deg: lat, longitude_deg: lon, height_m: 0 }, epoch }).expect(200)).body.geoid_undulation_m;
+      const n = (
+        await api()
+          .post('/v1/zenith-delays')
+          .send({ site: { latitude_deg: lat, longitude_deg: lon, height_m: 0 }, epoch })
+          .expect(200)
+      ).body.geoid_undulation_m;
       const r = await api()
         .post('/v1/mapping-factors')
         .send({ site: { latitude_deg: lat, longitude_deg: lon, height_m: 300 + n }, epoch, elevations_deg: [5] })
@@ -166,19 +192,26 @@ describe('heights above sea level from the EGM96 geoid (NGA check values, from m
     expect(heights[0]!.hydrostatic).toBeCloseTo(heights[1]!.hydrostatic, 12);
   });
 
-  it('a 50 m undulation is 2.5 mm of slant at 5° (issue 10\'s figure; ±0.2 mm)', async () => {
+  it("a 50 m undulation is 2.5 mm of slant at 5° (issue 10's figure; ±0.2 mm)", async () => {
     const site = { latitude_deg: 38.625473, longitude_deg: 359.9995 }; // N ≈ +50 m
     const send = (height_m: number) =>
       api()
         .post('/v1/slant-delays')
-        .send({ site: { ...site, height_m }, epoch, zenith: { zhd_m: 2.3, zwd_m: 0.1 }, directions: [{ elevation_deg: 5, azimuth_deg: 0 }] })
+        .send({
+          site: { ...site, height_m },
+          epoch,
+          zenith: { zhd_m: 2.3, zwd_m: 0.1 },
+          directions: [{ elevation_deg: 5, azimuth_deg: 0 }],
+        })
         .expect(200);
     const n = (await send(300)).body.geoid_undulation_m;
     const fixed = (await send(300 + n)).body; // 300 m above sea level
     // Before the fix the service took h = 300 + N for the height above sea level; the fixed service
     // computes that height for h = 300 + 2N.
     const ellipsoidTakenForSeaLevel = (await send(300 + 2 * n)).body;
-    expect(Math.abs(ellipsoidTakenForSeaLevel.slants[0].hydrostatic_m - fixed.slants[0].hydrostatic_m - 2.5 * MM * (n / 50))).toBeLessThan(0.2 * MM);
+    expect(Math.abs(ellipsoidTakenForSeaLevel.slants[0].hydrostatic_m - fixed.slants[0].hydrostatic_m - 2.5 * MM * (n / 50))).toBeLessThan(
+      0.2 * MM,
+    );
   });
 });
 
@@ -186,13 +219,24 @@ describe('profile levels in geopotential heights are placed with the EGM96 undul
   const api = useApp();
 
   it('a site on the geoid (height_m = N) gets the column bottom at N and the same delays as with geoid_undulation_m = N', async () => {
-    const generated = column(evenHeightsM(1000, 0, 30_000), { surfaceRelativeHumidityPct: 60 }); // U.S. Standard Atmosphere (1976) generator
+    // U.S. Standard Atmosphere (1976) generator
+    const generated = column(evenHeightsM(1000, 0, 30_000), { surfaceRelativeHumidityPct: 60 });
     const site = { latitude_deg: 38.625473, longitude_deg: 359.9995 }; // N ≈ +50.0 m (NGA check point, from memory)
     const epoch = '2026-04-29T12:00:00Z';
     const levels = toApiLevels(generated, 'vapour_pressure_hpa', 'geopotential_height_m');
     const n = 50.036; // EGM96 15′ grid at this point (test/domain/geoid.test.ts: within 0.1 m of NGA's 50.065 m)
-    const implicit = (await api().post('/v1/profile-delays').send({ site: { ...site, height_m: n }, epoch, levels }).expect(200)).body;
-    const explicit = (await api().post('/v1/profile-delays').send({ site: { ...site, height_m: n }, epoch, levels, geoid_undulation_m: n }).expect(200)).body;
+    const implicit = (
+      await api()
+        .post('/v1/profile-delays')
+        .send({ site: { ...site, height_m: n }, epoch, levels })
+        .expect(200)
+    ).body;
+    const explicit = (
+      await api()
+        .post('/v1/profile-delays')
+        .send({ site: { ...site, height_m: n }, epoch, levels, geoid_undulation_m: n })
+        .expect(200)
+    ).body;
     expect(Math.abs(implicit.column.bottom_height_m - n)).toBeLessThan(0.01);
     expect(Math.abs(implicit.zhd_m - explicit.zhd_m)).toBeLessThan(0.001 * MM);
     expect(implicit.warnings.join(' ')).toMatch(/EGM96 geoid undulation 50\.0\d m/);
@@ -210,7 +254,11 @@ describe('cosmetic defects', () => {
     const a = 6378137;
     const e2 = 0.0066943799901413165; // WGS84 (NIMA TR8350.2 Table 3.1)
     const nRad = a / Math.sqrt(1 - e2 * Math.sin(lat) ** 2);
-    const s = [(nRad + 420) * Math.cos(lat) * Math.cos(lon), (nRad + 420) * Math.cos(lat) * Math.sin(lon), (nRad * (1 - e2) + 420) * Math.sin(lat)];
+    const s = [
+      (nRad + 420) * Math.cos(lat) * Math.cos(lon),
+      (nRad + 420) * Math.cos(lat) * Math.sin(lon),
+      (nRad * (1 - e2) + 420) * Math.sin(lat),
+    ];
     const north = [-Math.sin(lat) * Math.cos(lon), -Math.sin(lat) * Math.sin(lon), Math.cos(lat)];
     const up = [Math.cos(lat) * Math.cos(lon), Math.cos(lat) * Math.sin(lon), Math.sin(lat)];
     const r = 2.2e7;
@@ -224,7 +272,10 @@ describe('cosmetic defects', () => {
   });
 
   it('azimuth 360 never appears: a direction sent as 360° and a satellite due north come back as 0', async () => {
-    const d = await api().post('/v1/slant-delays').send({ site, epoch, directions: [{ elevation_deg: 30, azimuth_deg: 360 }] }).expect(200);
+    const d = await api()
+      .post('/v1/slant-delays')
+      .send({ site, epoch, directions: [{ elevation_deg: 30, azimuth_deg: 360 }] })
+      .expect(200);
     expect(d.body.slants[0].azimuth_deg).toBe(0);
     // due north of the site at 60° elevation; the east component rounds to −2.3e-10 m, which made 360
     const s = await api()
@@ -237,16 +288,59 @@ describe('cosmetic defects', () => {
 
   it('the gradient factor at 90° is exactly 0 (was 6e-17), for both gradient models', async () => {
     for (const gradient_model of ['chen-herring', 'tilting']) {
-      const r = await api().post('/v1/mapping-factors').send({ site, epoch, elevations_deg: [90], gradient_model }).expect(200);
+      const r = await api()
+        .post('/v1/mapping-factors')
+        .send({ site, epoch, elevations_deg: [90], gradient_model })
+        .expect(200);
       expect(r.body.gradient[0]).toBe(0);
     }
   });
 
-  it.each([[1e-310], [1e-300], [0.5]])('an elevation of %f° is refused with a 400 naming it (was 200 with null or absurd factors)', async (e) => {
-    const r = await api().post('/v1/mapping-factors').send({ site, epoch, elevations_deg: [10, e] }).expect(400);
-    expect(problemFields(r.body)).toContain('elevations_deg.1');
-    expect(r.body.detail).toMatch(/below 1°/);
-    const s = await api().post('/v1/slant-delays').send({ site, epoch, directions: [{ elevation_deg: e, azimuth_deg: 0 }] }).expect(400);
-    expect(problemFields(s.body)).toContain('directions.0.elevation_deg');
-  });
+  it.each([[1e-310], [0.001]])(
+    'a profile traced at %f° keeps every traced number and gives no mapping-function factor there (was null or −487)',
+    async (e) => {
+      const example = JSON.parse(readFileSync(new URL('../../fixtures/profiles/ussa1976-45n.json', import.meta.url), 'utf8'));
+      const r = await api()
+        .post('/v1/profile-delays')
+        .send({ ...example, elevations_deg: [e, 5] })
+        .expect(200);
+      const [low, five] = r.body.slants;
+      for (const k of [
+        'apparent_elevation_deg',
+        'refraction_deg',
+        'hydrostatic_m',
+        'wet_m',
+        'total_m',
+        'bending_m',
+        'mapping_hydrostatic',
+        'mapping_wet',
+      ]) {
+        expect(Number.isFinite(low[k]), k).toBe(true);
+      }
+      // refraction at the horizon ≈ 0.5–0.6° (common practice)
+      expect(low.refraction_deg).toBeGreaterThan(0.45);
+      expect(low.refraction_deg).toBeLessThan(0.7);
+      expect(low.model_mapping_hydrostatic).toBeNull();
+      expect(low.model_mapping_wet).toBeNull();
+      expect(five.model_mapping_hydrostatic).toBeGreaterThan(10);
+      expect(r.body.warnings.join(' ')).toMatch(/1 elevation\(s\) below 1°: the mapping function is not evaluated/);
+    },
+  );
+
+  it.each([[1e-310], [1e-300], [0.5]])(
+    'an elevation of %f° is refused with a 400 naming it (was 200 with null or absurd factors)',
+    async (e) => {
+      const r = await api()
+        .post('/v1/mapping-factors')
+        .send({ site, epoch, elevations_deg: [10, e] })
+        .expect(400);
+      expect(problemFields(r.body)).toContain('elevations_deg.1');
+      expect(r.body.detail).toMatch(/below 1°/);
+      const s = await api()
+        .post('/v1/slant-delays')
+        .send({ site, epoch, directions: [{ elevation_deg: e, azimuth_deg: 0 }] })
+        .expect(400);
+      expect(problemFields(s.body)).toContain('directions.0.elevation_deg');
+    },
+  );
 });

@@ -15,6 +15,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { DEMO_NETWORK, round1, truthSeries } from '../../scripts/synthetic/network.js';
+import { problemFields } from '../helpers/app.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
 
@@ -174,11 +175,19 @@ for (const backend of BACKENDS) {
       expect(r[5]).toMatchObject({ quality: 'met-missing', pwv_mm: null, pressure_hpa: null, temperature_quality: 'measured' });
       expect(res.body.warnings.join(' ')).toMatch(/2 of 6 record\(s\) have no PWV/);
 
-      // The gap limit is a parameter: 6 h bridges the outage.
-      const wide = await api().get('/v1/stations/FERN/precipitable-water').query({ from: iso(T0), to: iso(T0 + 12 * H), max_met_gap_s: 6 * 3600 }).expect(200);
+      // The gap limit is a parameter: 6 h bridges the outage. met_max_gap_s is its name (as on the
+      // estimation); the old max_met_gap_s still works, with a deprecation warning.
+      const wide = await api().get('/v1/stations/FERN/precipitable-water').query({ from: iso(T0), to: iso(T0 + 12 * H), met_max_gap_s: 6 * 3600 }).expect(200);
       const p4 = 991.0 + (2 / 6) * (993.0 - 991.0);
       const t4 = 22.0 + (2 / 6) * (18.0 - 22.0);
       expect(Math.abs(wide.body.records[4].pwv_mm - expected(2.45, 0.004, p4, t4).pwv_mm)).toBeLessThan(TOL_PWV_MM);
+      expect(wide.body.retrieval).toMatchObject({ met_max_gap_s: 6 * 3600 });
+      expect(wide.body.warnings.join(' ')).not.toMatch(/deprecated/);
+      const alias = await api().get('/v1/stations/FERN/precipitable-water').query({ from: iso(T0), to: iso(T0 + 12 * H), max_met_gap_s: 6 * 3600 }).expect(200);
+      expect(alias.body.records).toEqual(wide.body.records);
+      expect(alias.body.warnings.join(' ')).toMatch(/query\.max_met_gap_s is deprecated: use met_max_gap_s/);
+      const both = await api().get('/v1/stations/FERN/precipitable-water').query({ from: iso(T0), to: iso(T0 + 12 * H), met_max_gap_s: 600, max_met_gap_s: 6 * 3600 }).expect(400);
+      expect(problemFields(both.body)).toEqual(['query.max_met_gap_s']);
     });
 
     it('answers CSV byte for byte as pinned (regression pin of the text format, rounding and flags)', async () => {

@@ -9,6 +9,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { generateSyntheticResiduals, toCsv, toRequestBody } from '../../scripts/synthetic-residuals.js';
+import { storedMetFor } from '../../src/http/routes/station-zwd-estimates.js';
 import { scanZwdRequest } from '../../src/http/tasks/zwd-request.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
@@ -91,6 +92,38 @@ for (const backend of BACKENDS) {
       expect(csv.body.model_fingerprint).toBe(json.body.model_fingerprint);
     });
 
+    it('finds the epoch column wherever it is in a CSV body (issue 11 item 9): stored met used, no false warning', async () => {
+      await api().put('/v1/stations/CSV2').set('authorization', auth).send({ name: 'Epoch column last (invented)', ...SITE }).expect(201);
+      await api().post('/v1/stations/CSV2/met').set('authorization', auth).send({ records: MET }).expect(200);
+      const lines = toCsv(data).trim().split('\n');
+      const epochLast = lines.map((line) => {
+        const cells = line.split(',');
+        return [...cells.slice(1), cells[0]].join(',');
+      });
+      const res = await api()
+        .post('/v1/stations/CSV2/zwd-estimates?apriori_zhd_m=2.17&apriori_zwd_m=0.05&zwd_interval_s=900')
+        .set('authorization', auth)
+        .set('content-type', 'text/csv')
+        .send(epochLast.join('\n') + '\n')
+        .expect(200);
+      expect(res.body.met_used).toBe('archive');
+      expect(res.body.warnings.join(' ')).not.toMatch(/neither in the request nor stored/);
+      expect(res.body.series[0].pwv_mm).toEqual(expect.any(Number));
+    });
+
+    it('bounds the stored-met read like the read routes (issue 11 item 10): observations two years apart are a 400, nothing stored', async () => {
+      await api().put('/v1/stations/FAR1').set('authorization', auth).send({ name: 'Far apart (invented)', ...SITE }).expect(201);
+      await api().post('/v1/stations/FAR1/met').set('authorization', auth).send({ records: MET }).expect(200);
+      const far = [
+        { ...observations[0]!, epoch: '2024-01-01T00:00:00Z' },
+        { ...observations[1]!, epoch: '2026-01-01T00:00:00Z' },
+      ];
+      const res = await api().post('/v1/stations/FAR1/zwd-estimates').set('authorization', auth).send({ observations: far }).expect(400);
+      expect(res.body.errors).toEqual([{ field: 'observations', message: expect.stringMatching(/span 731\.00 days.*at most 366 days of stored met: send `met` in the request or split/) }]);
+      const stored = await api().get('/v1/stations/FAR1/delays').query({ from: '2023-12-31T00:00:00Z', to: '2024-12-30T00:00:00Z' }).expect(200);
+      expect(stored.body.records).toEqual([]);
+    });
+
     it('prefers the request met; says when there is none; refuses `site`, unknown stations and missing keys', async () => {
       await api().put('/v1/stations/EST2').set('authorization', auth).send({ name: 'Estimation test 2 (invented)', ...SITE }).expect(201);
       const withMet = await api().post('/v1/stations/EST2/zwd-estimates').set('authorization', auth).send({ observations, apriori: APRIORI, met: MET, options: OPTIONS }).expect(200);
@@ -127,5 +160,36 @@ describe('scanZwdRequest (first pass of a station estimation: the stored met win
   it('finds the epoch column wherever it is (issue 11 item 9: only the first column worked)', async () => {
     const csv = 'satellite,elevation_deg,azimuth_deg,residual_m,epoch\nG01,30,40,0.1,2026-01-01T00:00:30Z\nG02,30,40,0.1,2026-01-01T00:05:00Z\n';
     expect((await scan(csv, 'csv')).range).toEqual({ firstMs: Date.UTC(2026, 0, 1, 0, 0, 30), lastMs: Date.UTC(2026, 0, 1, 0, 5) });
+  });
+});
+
+describe('storedMetFor (the bounded stored-met read of a station estimation, issue 11 item 10)', () => {
+  const station = { stationId: 'X', name: 'x', latitudeDeg: 46.2, longitudeDeg: 7.4, heightM: 520, metHeightM: null, description: null, createdAt: '', updatedAt: '' };
+  const rows = (n: number) =>
+    Array.from({ length: n }, (_, k) => ({ epochMs: k * 1000, source: 's', pressureHpa: 950, temperatureC: 10, relativeHumidityPct: null, dewpointC: null, vapourPressureHpa: null }));
+  const repositoryWith = (n: number, reads: { fromMs: number; toMs: number }[]) =>
+    ({
+      readMet: async (_id: string, range: { fromMs: number; toMs: number }) => {
+        reads.push(range);
+        return rows(n);
+      },
+    }) as unknown as Parameters<typeof storedMetFor>[0];
+
+  it('reads the range ± 1 day, and refuses more than 100 000 records naming observations', async () => {
+    const reads: { fromMs: number; toMs: number }[] = [];
+    const met = await storedMetFor(repositoryWith(100_000, reads), station as never, { range: { firstMs: 0, lastMs: 3_600_000 }, hasMet: false }, 366);
+    expect(met?.epochMs.length).toBe(100_000);
+    expect(reads).toEqual([{ fromMs: -86_400_000, toMs: 3_600_000 + 86_400_000 }]);
+    await expect(storedMetFor(repositoryWith(100_001, []), station as never, { range: { firstMs: 0, lastMs: 3_600_000 }, hasMet: false }, 366)).rejects.toMatchObject({
+      status: 400,
+      errors: [{ field: 'observations', message: expect.stringMatching(/100001 stored met records.*at most 100000/) }],
+    });
+  });
+
+  it('does not read when the body has met or no epoch could be read', async () => {
+    const reads: { fromMs: number; toMs: number }[] = [];
+    expect(await storedMetFor(repositoryWith(10, reads), station as never, { range: { firstMs: 0, lastMs: 1 }, hasMet: true }, 366)).toBeUndefined();
+    expect(await storedMetFor(repositoryWith(10, reads), station as never, { range: null, hasMet: false }, 366)).toBeUndefined();
+    expect(reads).toEqual([]);
   });
 });

@@ -11,8 +11,9 @@ const SITE = { latitude_deg: 46.2, longitude_deg: 7.4, height_m: 520 };
 const H = 3600;
 const DEG = Math.PI / 180;
 
-// Two hours of 30 s synthetic residuals with three gross errors (scripts/synthetic-residuals.ts).
-const data = generateSyntheticResiduals({ durationS: 2 * H, grossErrors: 3, latitudeDeg: SITE.latitude_deg, seed: 4 });
+// Two hours of 120 s synthetic residuals with three gross errors (scripts/synthetic-residuals.ts);
+// 120 s keeps the dense reference (a state per epoch since issue 10) small.
+const data = generateSyntheticResiduals({ durationS: 2 * H, samplingS: 120, grossErrors: 3, latitudeDeg: SITE.latitude_deg, seed: 4 });
 const requestBody = toRequestBody(data);
 type Observation = (typeof requestBody.observations)[number];
 const body = (extra: Record<string, unknown> = {}) => ({ ...structuredClone(requestBody), ...extra });
@@ -351,5 +352,63 @@ describe('bad input (issue 3): clear 4xx problems naming the field', () => {
     expect(Object.keys(op.requestBody.content['application/json'].schema.properties)).toEqual(
       expect.arrayContaining(['site', 'observations', 'apriori', 'met', 'options']),
     );
+  });
+});
+
+// Issue 10: the estimator options of the honest formal errors, through HTTP (JSON and text/csv).
+describe('issue 10 options: parametrisation, weighting components, correlated noise, wet mapping', () => {
+  const api = useApp();
+
+  it('defaults: states at every epoch, correlated-noise statistics, band statistics, node flags, named in models', async () => {
+    const res = await api().post(ROUTE).send(body({ site: SITE })).expect(200);
+    const s = res.body.statistics;
+    expect(res.body.models).toMatchObject({ parametrisation: 'every-epoch', correlated_noise: true, wet_mapping: 'niell', sigma_constant_m: null });
+    expect(res.body.models.estimator).toMatch(/random-walk states at every epoch/);
+    expect(s.sigma_scale).toBe(1);
+    expect(s.weighting_constant_m).toBe(0);
+    // The generator's σ0 is 3 mm: the re-estimated b is close to it (common practice: a few % from ~1000 residuals).
+    expect(s.weighting_elevation_m).toBeGreaterThan(0.0025);
+    expect(s.weighting_elevation_m).toBeLessThan(0.0035);
+    expect(s.elevation_bands.reduce((n: number, b: { observations_used: number }) => n + b.observations_used, 0)).toBe(s.observations_used);
+    expect(s.elevation_bands[0].lower_deg).toBeCloseTo(7, 9);
+    expect(s.noise_correlation).toMatchObject({ sampling_s: 120 });
+    expect(res.body.zwd_nodes.every((n: { observations_nearby: number }) => n.observations_nearby > 0)).toBe(true);
+    expect(s.zwd_nodes_without_data).toBe(0);
+  });
+
+  it('each option changes the answer and the fingerprint; the older model is parametrisation "nodes"', async () => {
+    const base = await api().post(ROUTE).send(body({ site: SITE })).expect(200);
+    for (const options of [
+      { parametrisation: 'nodes' },
+      { correlated_noise: false },
+      { weighting: 'elevation-components', sigma_constant_m: 0.001 },
+      { wet_mapping: 'chao' },
+    ]) {
+      const res = await api().post(ROUTE).send(body({ site: SITE, options })).expect(200);
+      expect(res.body.model_fingerprint, JSON.stringify(options)).not.toBe(base.body.model_fingerprint);
+      for (const [k, v] of Object.entries(options)) expect(res.body.models[k]).toBe(v);
+    }
+    const off = await api().post(ROUTE).send(body({ site: SITE, options: { correlated_noise: false } })).expect(200);
+    expect(off.body.statistics.noise_correlation).toBeNull();
+    const nodes = await api().post(ROUTE).send(body({ site: SITE, options: { parametrisation: 'nodes' } })).expect(200);
+    expect(nodes.body.models.estimator).toMatch(/piecewise-linear nodes/);
+  });
+
+  it('text/csv query parameters for the same options; bad values are 400s naming the field and the choices', async () => {
+    const csv = toCsv({ ...data, observations: { ...data.observations } });
+    const query = { latitude_deg: SITE.latitude_deg, longitude_deg: SITE.longitude_deg, height_m: SITE.height_m };
+    const res = await api()
+      .post(ROUTE)
+      .query({ ...query, parametrisation: 'nodes', weighting: 'elevation-components', correlated_noise: 'false', wet_mapping: 'niell' })
+      .set('content-type', 'text/csv')
+      .send(csv)
+      .expect(200);
+    expect(res.body.models).toMatchObject({ parametrisation: 'nodes', weighting: 'elevation-components', correlated_noise: false });
+    const bad = await api().post(ROUTE).send(body({ site: SITE, options: { parametrisation: 'epochs' } })).expect(400);
+    expect(problemFields(bad.body)).toContain('options.parametrisation');
+    const vmf = await api().post(ROUTE).send(body({ site: SITE, options: { wet_mapping: 'vmf1' } })).expect(400);
+    expect(problemFields(vmf.body)).toContain('options.wet_mapping');
+    const negative = await api().post(ROUTE).send(body({ site: SITE, options: { sigma_constant_m: -0.001 } })).expect(400);
+    expect(problemFields(negative.body)).toContain('options.sigma_constant_m');
   });
 });

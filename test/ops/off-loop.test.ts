@@ -24,13 +24,17 @@ const HEALTH_BOUND_MS = 2000;
 describe('estimation off the event loop', () => {
   it(`GET /v1/health answers while both workers are busy with estimations, each answer within ${HEALTH_BOUND_MS} ms`, async () => {
     server = await startServerProcess({ ESTIMATION_WORKERS: '2', ESTIMATION_QUEUE_LIMIT: '64' });
-    // Four estimations of one day with 200 gross errors rejected one per solution (about 200 re-solves
-    // each, seconds of CPU) for two workers: until the first of them answers, both workers are busy.
-    const requests = [1, 2, 3, 4].map((seed) => postJson(server!.baseUrl, '/v1/zwd-estimates', slowEstimationBody(24, seed, 200)));
+    // Two estimations of one day with 50 gross errors rejected one per solution (about 50 re-solves
+    // each, about a second of CPU), one per worker: until the first of them answers, both workers are busy.
+    const requests = [1, 2].map((seed) => postJson(server!.baseUrl, '/v1/zwd-estimates', slowEstimationBody(24, seed, 50)));
     await Promise.all(requests.map((r) => r.sent));
     const busySince = performance.now();
     let firstAnsweredAt = Infinity;
-    for (const r of requests) void r.answer.then((a) => (firstAnsweredAt = Math.min(firstAnsweredAt, a.answeredAt)), () => undefined);
+    for (const r of requests)
+      void r.answer.then(
+        (a) => (firstAnsweredAt = Math.min(firstAnsweredAt, a.answeredAt)),
+        () => undefined,
+      );
 
     const health: { latencyMs: number; answeredAt: number }[] = [];
     while (firstAnsweredAt === Infinity) {
@@ -44,13 +48,15 @@ describe('estimation off the event loop', () => {
     }
     const answers = await Promise.all(requests.map((r) => r.answer));
 
-    expect(answers.map((a) => a.status)).toEqual([200, 200, 200, 200]);
-    // Health answered while no estimation had answered yet: it does not wait for the workers.
+    expect(answers.map((a) => a.status)).toEqual([200, 200]);
+    // Health answered while neither estimation had answered yet: it does not wait for the workers.
     const whileBusy = health.filter((h) => h.answeredAt < firstAnsweredAt);
     const busyS = ((firstAnsweredAt - busySince) / 1000).toFixed(2);
     expect(whileBusy.length, `health answers during the ${busyS} s before the first estimation answered`).toBeGreaterThanOrEqual(5);
     const slowest = Math.max(...health.map((h) => h.latencyMs));
-    expect(slowest, `slowest of ${health.length} health answers [ms]; first estimation answered after ${busyS} s`).toBeLessThan(HEALTH_BOUND_MS);
+    expect(slowest, `slowest of ${health.length} health answers [ms]; first estimation answered after ${busyS} s`).toBeLessThan(
+      HEALTH_BOUND_MS,
+    );
   }, 120_000);
 
   it('a full queue answers 503 with Retry-After rather than piling work up', async () => {

@@ -6,7 +6,9 @@
  * - the backend of an in-flight upload is terminated (pg_terminate_backend from a second
  *   connection, what a failover or a database restart does to a session) ten times per series: the
  *   process stays up, every such request answers 503 with Retry-After, the batch is stored whole or
- *   not at all, and sending it again stores all of it;
+ *   not at all, and sending it again stores all of it. The same for a station estimation, whose write
+ *   is short: the test holds the station row locked so that the write's session waits where the
+ *   test can find and terminate it;
  * - the database is blackholed (a TCP relay in this test that keeps the connections open and stops
  *   forwarding, like a dead network path): /v1/ready answers 503 within 5 s and an archive read
  *   answers 503 within the configured statement timeout; once the path heals, the service is ready
@@ -19,6 +21,7 @@ import { randomBytes } from 'node:crypto';
 import { createServer, connect, type Server, type Socket } from 'node:net';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { generateSyntheticResiduals, toRequestBody } from '../../scripts/synthetic-residuals.js';
 import { TEST_KEY } from '../helpers/archive-app.js';
 import { startServerProcess, type ServerProcess } from '../helpers/server-process.js';
 import { TEST_PG_URL, postgresBackend } from '../helpers/storage.js';
@@ -124,8 +127,9 @@ describe.skipIf(!TEST_PG_URL)('PostgreSQL backend of an in-flight upload termina
         const outcome = await uploadAndTerminate(`/v1/stations/QRIDGE/${series}`, body);
         expect(server.child.exitCode, 'the server process exited').toBeNull();
         const stored = await storedRows(table, k);
-        if (!outcome.terminated) {
-          // The upload finished before the poller saw its transaction: an ordinary success.
+        if (!outcome.terminated || outcome.status === 200) {
+          // A miss: the upload finished before the poller saw its transaction, or the signal reached a
+          // session whose statement had just ended (pg_terminate_backend only sends it). An ordinary success.
           expect(outcome.status).toBe(200);
           expect(stored).toBe(RECORDS);
           continue;
@@ -144,6 +148,50 @@ describe.skipIf(!TEST_PG_URL)('PostgreSQL backend of an in-flight upload termina
       expect(server.child.exitCode).toBeNull();
     }, 240_000);
   }
+
+  it(`stored estimation: ${ROUNDS} terminated writes answer 503 + Retry-After, store nothing, and a retry stores the series`, async () => {
+    const data = generateSyntheticResiduals({ durationS: 3600, latitudeDeg: STATION.latitude_deg, seed: 31 });
+    const { observations } = toRequestBody(data); // the station is the site
+    const body = JSON.stringify({ observations, apriori: { zhd_m: 2.2, zwd_m: 0.05 }, options: { zwd_interval_s: 900 } });
+    const storedOf = async (source: string) =>
+      Number((await admin.query<{ n: string }>(`SELECT count(*) AS n FROM "${schema}".delay_records WHERE station_id = 'QRIDGE' AND source = $1`, [source])).rows[0]!.n);
+    const locker = new pg.Client({ connectionString: TEST_PG_URL });
+    await locker.connect();
+    try {
+      for (let k = 0; k < ROUNDS; k++) {
+        const source = `estimation-${k}`;
+        const url = `${server.baseUrl}/v1/stations/QRIDGE/zwd-estimates?source=${source}`;
+        // The write's transaction takes the station row FOR SHARE first; a FOR UPDATE held here makes it wait.
+        await locker.query('BEGIN');
+        await locker.query(`SELECT 1 FROM "${schema}".stations WHERE station_id = 'QRIDGE' FOR UPDATE`);
+        const pending = fetch(url, { method: 'POST', headers: write, body });
+        let terminated = 0;
+        for (let tries = 0; terminated === 0 && tries < 3000; tries++) {
+          const r = await admin.query(
+            `SELECT pg_terminate_backend(pid) FROM pg_stat_activity WHERE application_name = $1 AND wait_event_type = 'Lock'`,
+            [appName],
+          );
+          terminated = r.rowCount ?? 0;
+          if (terminated === 0) await sleep(10);
+        }
+        await locker.query('ROLLBACK');
+        const res = await pending;
+        expect(terminated, `round ${k}: the estimation's write was not seen waiting (answer ${res.status})`).toBeGreaterThan(0);
+        await res.arrayBuffer();
+        expect(server.child.exitCode, 'the server process exited').toBeNull();
+        expect(res.status, `round ${k}`).toBe(503);
+        expect(Number(res.headers.get('retry-after'))).toBeGreaterThanOrEqual(1);
+        expect(await storedOf(source), `round ${k}: rows stored by the failed request`).toBe(0);
+        const retry = await fetch(url, { method: 'POST', headers: write, body });
+        const answer = (await retry.json()) as { series: unknown[]; stored: { inserted: number } };
+        expect(retry.status, `round ${k}: retry`).toBe(200);
+        expect(answer.stored.inserted).toBe(answer.series.length);
+        expect(await storedOf(source)).toBe(answer.series.length);
+      }
+    } finally {
+      await locker.end();
+    }
+  }, 240_000);
 });
 
 /**

@@ -32,7 +32,7 @@ const MD = [
   '',
   '<!-- example volatile: created_at updated_at /x-request-id: .*/ -->',
   '```console',
-  "$ curl -s -X PUT http://127.0.0.1:8080/v1/stations/A \\",
+  '$ curl -s -X PUT http://127.0.0.1:8080/v1/stations/A \\',
   "    -d '{}'",
   '{"station_id":"A","created_at":"2026-12-01T22:39:31.568Z","updated_at":"2026-12-01T22:39:31.568Z","n":1}',
   'x-request-id: 3f2a',
@@ -54,7 +54,11 @@ describe('check-examples: finding the examples', () => {
   it('splits a block into commands and the output shown under each; an empty output is allowed', () => {
     expect(blocks[0]!.steps).toEqual([
       { command: 'KEY=$(cat data/api-key)', commandLines: ['$ KEY=$(cat data/api-key)'], expected: '' },
-      { command: 'curl -s http://127.0.0.1:8080/v1/health', commandLines: ['$ curl -s http://127.0.0.1:8080/v1/health'], expected: '{"status":"ok"}' },
+      {
+        command: 'curl -s http://127.0.0.1:8080/v1/health',
+        commandLines: ['$ curl -s http://127.0.0.1:8080/v1/health'],
+        expected: '{"status":"ok"}',
+      },
     ]);
   });
 
@@ -67,7 +71,9 @@ describe('check-examples: finding the examples', () => {
   });
 
   it('a marker without a fence after it, or a block that does not start with a command, is an error', () => {
-    expect(() => parseExamples('<!-- example -->\ntext\n', 'T.md')).toThrow(/T.md:1: an example marker must be followed directly by a fenced block/);
+    expect(() => parseExamples('<!-- example -->\ntext\n', 'T.md')).toThrow(
+      /T.md:1: an example marker must be followed directly by a fenced block/,
+    );
     expect(() => parseExamples('<!-- example -->\n```\noutput\n```\n', 'T.md')).toThrow(/must start with a command line/);
     expect(() => parseExamples('<!-- example -->\n```\n$ true\n', 'T.md')).toThrow(/not closed/);
   });
@@ -102,7 +108,9 @@ describe('check-examples: comparing outputs', () => {
 
 describe('check-examples: ports and --update', () => {
   it('commands go to the service port; outputs show 8080 again', () => {
-    expect(toServicePort("curl -s localhost:8080/v1/health http://127.0.0.1:8080/docs", 41234)).toBe('curl -s localhost:41234/v1/health http://127.0.0.1:41234/docs');
+    expect(toServicePort('curl -s localhost:8080/v1/health http://127.0.0.1:8080/docs', 41234)).toBe(
+      'curl -s localhost:41234/v1/health http://127.0.0.1:41234/docs',
+    );
     expect(toShownPort('302 http://127.0.0.1:41234/docs', 41234)).toBe('302 http://127.0.0.1:8080/docs');
     expect(toServicePort('curl -s http://127.0.0.1:80801/', 5)).toBe('curl -s http://127.0.0.1:80801/');
   });
@@ -117,7 +125,13 @@ describe('check-examples: ports and --update', () => {
     expect(again[1]!.steps.map((s) => s.expected)).toEqual(['{"station_id":"A","n":2}', 'a,b\n3,4']);
     expect(again[1]!.steps[0]!.commandLines).toEqual(blocks[1]!.steps[0]!.commandLines);
     expect(rewritten.split('\n').slice(0, 16)).toEqual(MD.split('\n').slice(0, 16));
-    expect(rewriteOutputs(MD, blocks, blocks.map((b) => b.steps.map((s) => s.expected)))).toBe(MD);
+    expect(
+      rewriteOutputs(
+        MD,
+        blocks,
+        blocks.map((b) => b.steps.map((s) => s.expected)),
+      ),
+    ).toBe(MD);
   });
 });
 

@@ -19,6 +19,7 @@
 import { DEG } from '../constants.js';
 import { gaussianRadiusM } from '../geometry/earth-radius.js';
 import { geoidUndulationM } from '../geometry/geoid.js';
+import { MAPPING_MIN_ELEVATION_DEG, mappingDefinedAt } from '../mapping/elevation-range.js';
 import type { MappingEvaluator } from '../mapping/types.js';
 import { PER_N_UNIT } from './constants.js';
 import { isothermalExtension } from './extension.js';
@@ -165,6 +166,7 @@ export function computeProfileDelays(input: ProfileDelaysInput): ProfileDelaysRe
       const mappingHydrostatic = (trace.hydrostaticExcessM + trace.bendingM) / zenithHydrostaticM;
       const mappingWet = zenith.zwdM > DRY_COLUMN_ZWD_M ? trace.wetExcessM / zenith.zwdM : null;
       const hydrostaticM = mappingHydrostatic * zenith.zhdM;
+      const mappingDefined = mappingDefinedAt(elevationRad / DEG);
       return {
         elevationRad,
         apparentElevationRad: trace.launchRad,
@@ -175,11 +177,18 @@ export function computeProfileDelays(input: ProfileDelaysInput): ProfileDelaysRe
         bendingM: trace.bendingM,
         mappingHydrostatic,
         mappingWet,
-        modelMappingHydrostatic: input.modelMapping ? input.modelMapping.hydrostatic(elevationRad) : null,
-        modelMappingWet: input.modelMapping ? input.modelMapping.wet(elevationRad) : null,
+        // Mapping functions are not evaluated below their floor (mapping/elevation-range.ts): null there.
+        modelMappingHydrostatic: input.modelMapping && mappingDefined ? input.modelMapping.hydrostatic(elevationRad) : null,
+        modelMappingWet: input.modelMapping && mappingDefined ? input.modelMapping.wet(elevationRad) : null,
       };
     });
     if (zenith.zwdM <= DRY_COLUMN_ZWD_M) warnings.push('the column is dry: wet mapping factors are not defined (null)');
+    const belowFloor = input.modelMapping ? input.elevationsRad.filter((e) => !mappingDefinedAt(e / DEG)).length : 0;
+    if (belowFloor > 0) {
+      warnings.push(
+        `${belowFloor} elevation(s) below ${MAPPING_MIN_ELEVATION_DEG}°: the mapping function is not evaluated there (model_mapping_hydrostatic and model_mapping_wet are null); the traced values stand`,
+      );
+    }
   }
 
   return {

@@ -15,7 +15,6 @@
 
 import { BEVIS_1994, BEVIS_1994_SIGMA, RHO_WATER_KG_M3, RV_J_PER_KG_K } from '../constants.js';
 
-const K2_PRIME_K_PER_PA = BEVIS_1994.k2prime_K_per_hPa / 100;
 const K3_K2_PER_PA = BEVIS_1994.k3_K2_per_hPa / 100;
 
 /** The two refractivity constants Π depends on: k2' [K/hPa], k3 [K²/hPa]. */

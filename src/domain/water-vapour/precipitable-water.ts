@@ -14,7 +14,8 @@
  * | pressure      | pressure_sigma_hpa, through ∂ZHD/∂P              | 0.5 hPa (a station barometer, common practice) |
  * | zhd_model     | ± 0.0000005 m/hPa of the Saastamoinen constant   | always (IERS 2010 eq. 9.11, from memory)      |
  * | temperature   | temperature_sigma_k, through Tm = 70.2 + 0.72 Ts | 0.5 K (a screened sensor, common practice)    |
- * | tm            | tm_sigma_k, or the Bevis regression's scatter    | 4.74 K (Bevis 1992, from memory); 2 K for a caller's tm_k (weighted-mean temperatures from weather models, common practice) |
+ * | tm            | tm_sigma_k, or the Bevis regression's scatter    | 4.74 K (Bevis 1992, from memory); 2 K for a   |
+ * |               |                                                  | caller's tm_k (weather-model Tm, common practice) |
  * | refractivity  | k2' ± 2.2 K/hPa, k3 ± 0.012e5 K²/hPa             | always (Bevis et al. 1994, from memory)       |
  *
  * The pressure and ZHD-model terms enter only when ZWD is formed here from a total delay; the

@@ -68,13 +68,20 @@ export function zwdEstimatesResponseOf(r: ZwdEstimationResult, extraWarnings: re
   const aprioriZtdM = r.aprioriZhdM + aprioriZwdM;
   const s = out.statistics;
   return {
-    zwd_nodes: out.zwdNodes.map((n) => ({ epoch: iso(n.epochMs), correction_m: n.correctionM, zwd_m: aprioriZwdM + n.correctionM, sigma_m: n.sigmaM })),
+    zwd_nodes: out.zwdNodes.map((n) => ({
+      epoch: iso(n.epochMs),
+      correction_m: n.correctionM,
+      zwd_m: aprioriZwdM + n.correctionM,
+      sigma_m: n.sigmaM,
+      observations_nearby: n.observationsNearby,
+    })),
     gradient_nodes: out.gradientNodes.map((g) => ({
       epoch: iso(g.epochMs),
       north_m: g.northM,
       east_m: g.eastM,
       north_sigma_m: g.northSigmaM,
       east_sigma_m: g.eastSigmaM,
+      observations_nearby: g.observationsNearby,
     })),
     series: out.epochs.map((e, k) => {
       const base = {
@@ -128,6 +135,24 @@ export function zwdEstimatesResponseOf(r: ZwdEstimationResult, extraWarnings: re
       sigma_scale: s.sigmaScale,
       solutions: s.solutions,
       screening_complete: s.screeningComplete,
+      weighting_constant_m: s.weightingConstantM,
+      weighting_elevation_m: s.weightingElevationM,
+      elevation_bands: s.elevationBands.map((b) => ({
+        lower_deg: b.lowerRad / DEG,
+        upper_deg: b.upperRad / DEG,
+        observations_used: b.observationsUsed,
+        observations_rejected: b.observationsRejected,
+        rms_m: b.rmsM,
+        normalised_rms: b.normalisedRms,
+      })),
+      noise_correlation: s.noiseCorrelation && {
+        sampling_s: s.noiseCorrelation.samplingS,
+        autocorrelation: s.noiseCorrelation.autocorrelation,
+        zwd_variance_inflation: s.noiseCorrelation.zwdVarianceInflation,
+        gradient_variance_inflation: s.noiseCorrelation.gradientVarianceInflation,
+      },
+      zwd_nodes_without_data: s.zwdNodesWithoutData,
+      gradient_nodes_without_data: s.gradientNodesWithoutData,
     },
     apriori: { zhd_m: r.aprioriZhdM, zwd_m: aprioriZwdM, zhd_source: r.zhdSource },
     models: r.models,

@@ -16,7 +16,7 @@ type ComputeTaskOutput<T extends ComputeTaskName> = TaskOutput<ComputeTasks[T]>;
 
 export interface Compute {
   /** Runs a task in a worker; a full queue is a 503 problem, a task's error outcome its 4xx problem. */
-  run<T extends ComputeTaskName>(task: T, input: ComputeTaskInput<T>): Promise<ComputeTaskOutput<T>>;
+  run<T extends ComputeTaskName>(task: T, input: ComputeTaskInput<T>, transfer?: ArrayBuffer[]): Promise<ComputeTaskOutput<T>>;
 }
 
 declare module 'fastify' {
@@ -37,9 +37,9 @@ async function computePool(app: FastifyInstance, { config }: ComputePoolPluginOp
     onTaskDone: (task, durationS) => app.metrics.computeDuration.observe({ task }, durationS),
   });
   app.decorate('compute', {
-    async run<T extends ComputeTaskName>(task: T, input: ComputeTaskInput<T>): Promise<ComputeTaskOutput<T>> {
+    async run<T extends ComputeTaskName>(task: T, input: ComputeTaskInput<T>, transfer?: ArrayBuffer[]): Promise<ComputeTaskOutput<T>> {
       try {
-        const output = await pool.run(task, input);
+        const output = await pool.run(task, input, transfer);
         app.metrics.computeSize.observe({ task }, output.observations);
         return output;
       } catch (err) {

@@ -72,16 +72,6 @@ async function errorHandler(app: FastifyInstance): Promise<void> {
       for (const [k, v] of Object.entries(error.headers ?? {})) reply.header(k, v);
       return sendProblem(reply, makeProblem(error.status, error.message, error.errors, request.url));
     }
-    const unavailable = storageUnavailable(error);
-    if (unavailable) {
-      // The driver's text (host, file path, SQL) stays in the log, found by the request id.
-      request.log.error({ err: error, route: request.routeOptions.url, failure: unavailable.failure }, 'storage unavailable');
-      reply.header('retry-after', String(unavailable.retryAfterS));
-      return sendProblem(
-        reply,
-        makeProblem(503, `${unavailable.message}; retry after ${unavailable.retryAfterS} s (request id in the x-request-id header)`, undefined, request.url),
-      );
-    }
     const status = error.statusCode ?? 500;
     if (status >= 400 && status < 500) {
       const detail =
@@ -91,6 +81,17 @@ async function errorHandler(app: FastifyInstance): Promise<void> {
             ? `content type ${request.headers['content-type'] ?? '(none)'} is not accepted here; send application/json`
             : error.message;
       return sendProblem(reply, makeProblem(status, detail, undefined, request.url));
+    }
+    // After the 4xx branch: a client that aborts its upload raises socket codes too, with a 4xx status.
+    const unavailable = storageUnavailable(error);
+    if (unavailable) {
+      // The driver's text (host, file path, SQL) stays in the log, found by the request id.
+      request.log.error({ err: error, route: request.routeOptions.url, failure: unavailable.failure }, 'storage unavailable');
+      reply.header('retry-after', String(unavailable.retryAfterS));
+      return sendProblem(
+        reply,
+        makeProblem(503, `${unavailable.message}; retry after ${unavailable.retryAfterS} s (request id in the x-request-id header)`, undefined, request.url),
+      );
     }
     request.log.error({ err: error, route: request.routeOptions.url }, 'request failed');
     return sendProblem(reply, makeProblem(500, 'internal error; the request id is in the x-request-id header', undefined, request.url));

@@ -17,6 +17,7 @@ import type { FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
 import { z } from 'zod';
 import { storageUnavailable } from '../../storage/errors.js';
+import { problemSchema } from '../schemas/common.js';
 
 type Check = () => Promise<void>;
 
@@ -70,7 +71,7 @@ async function readiness(app: FastifyInstance, options: ReadinessOptions): Promi
       schema: {
         summary: 'Readiness: dependencies reachable (database, migrations); 503 otherwise or while shutting down',
         tags: ['operations'],
-        response: { 200: readyResponse, 503: readyResponse },
+        response: { 200: readyResponse, 400: problemSchema, 503: readyResponse },
       },
     },
     async (request, reply) => {

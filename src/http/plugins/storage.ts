@@ -46,4 +46,4 @@ async function storage(app: FastifyInstance, options: StoragePluginOptions): Pro
   app.log.info({ storage: describeStorage(options.storage), backend: repository.backend }, 'station archive ready');
 }
 
-export default fp(storage, { name: 'storage' });
+export default fp(storage, { name: 'storage', dependencies: ['readiness'] });

@@ -1,5 +1,6 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
+import { problemSchema } from '../schemas/common.js';
 
 const healthRoute: FastifyPluginAsyncZod = async (app) => {
   app.get(
@@ -8,7 +9,7 @@ const healthRoute: FastifyPluginAsyncZod = async (app) => {
       schema: {
         summary: 'Liveness: the process is up and serving',
         tags: ['operations'],
-        response: { 200: z.object({ status: z.literal('ok') }) },
+        response: { 200: z.object({ status: z.literal('ok') }), 400: problemSchema },
       },
     },
     async () => ({ status: 'ok' as const }),

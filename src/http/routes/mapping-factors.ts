@@ -20,7 +20,7 @@ const mappingFactorsRoute: FastifyPluginAsyncZod = async (app) => {
         description: `Mapping functions in the normalised continued-fraction form (Marini 1972): niell (Niell 1996, default), vmf1 (Boehm et al. 2006 with caller a coefficients), chao (Chao 1972), cosecant. Gradient mapping: chen-herring (default) or tilting. Body limit: ${BATCH_BODY_LIMIT_BYTES} bytes (32 MiB).`,
         tags: ['a-priori delays'],
         body: mappingFactorsRequest.superRefine((v, ctx) => checkCoefficients(v, ctx)),
-        response: { 200: mappingFactorsResponse, 400: problemSchema, 413: problemSchema },
+        response: { 200: mappingFactorsResponse, 400: problemSchema, 413: problemSchema, 415: problemSchema },
       },
     },
     async (request) => {

@@ -1,5 +1,6 @@
 import type { FastifyReply } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { DEFAULT_MAX_MET_GAP_MS } from '../../domain/meteo/met-interpolation.js';
 import { csvCell } from '../../formats/met-csv.js';
 import { intervalMeans, type IntervalMean } from '../../services/interval-means.js';
 import { networkStationPwv, type NetworkStationPwv, type SourceChoice } from '../../services/network-pwv.js';
@@ -117,7 +118,7 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         summary: 'PWV and ZTD of many stations in one call (at an epoch, over a range, since an epoch, latest; records or interval means)',
         description: [
           "Stations: all, a list (`stations`), or those inside `bbox`. Time: exactly one of `epoch`, `from`/`to`, `since` (exclusive; up to each station's latest delay epoch), `latest=true` (each station's latest delay epoch). Dates alone are whole UTC days.",
-          'PWV per record as GET /v1/stations/{station_id}/precipitable-water computes it: met interpolated in time (not across gaps longer than max_met_gap_s) and reduced to the antenna height; ZHD (Saastamoinen/Davis 1985), ZWD = ZTD − ZHD, Tm (Bevis et al. 1992), PWV = Π(Tm)·ZWD (Bevis et al. 1994).',
+          'PWV per record as GET /v1/stations/{station_id}/precipitable-water computes it: met interpolated in time (not across gaps longer than met_max_gap_s) and reduced to the antenna height; ZHD (Saastamoinen/Davis 1985), ZWD = ZTD − ZHD, Tm (Bevis et al. 1992), PWV = Π(Tm)·ZWD (Bevis et al. 1994).',
           'Quality flags, most severe first: met-missing (no PWV), delay-sigma-large (ztd_sigma_m > max_ztd_sigma_m), delay-sigma-unknown (no pwv_sigma_mm), met-interpolated, ok.',
           "Sources: by default one value per station and epoch, from the best-ranked source present at that epoch; a station's sources are ranked by their number of delay rows over the whole UTC day(s) of the range (most first, ties by name) and listed in that order in `stations[].sources`. `source=all` gives every row; `source=<name>` one source.",
           'Aggregation (`interval`, e.g. PT1H): means over [start, start + interval) aligned on 00:00 UTC; see the interval parameter and the intervals[] fields for the method of σ.',
@@ -206,7 +207,7 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
 
       const choice: SourceChoice =
         q.source === undefined ? { kind: 'preferred' } : q.source === 'all' ? { kind: 'all' } : { kind: 'one', source: q.source };
-      const maxMetGapMs = q.max_met_gap_s * 1000;
+      const maxMetGapMs = (q.met_max_gap_s ?? DEFAULT_MAX_MET_GAP_MS / 1000) * 1000;
       const delaysByStation = await app.repository.readZenithDelaysMany(ranges, choice.kind === 'one' ? choice.source : undefined);
       const metRanges: StationRange[] = [];
       for (const [stationId, rows] of delaysByStation) {
@@ -361,7 +362,7 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         homogeneous: summary.homogeneous,
         model_sets: summary.model_sets,
         warnings: [...summary.warnings, ...warnings],
-        retrieval: { ...retrieval, max_met_gap_s: q.max_met_gap_s, max_ztd_sigma_m: q.max_ztd_sigma_m },
+        retrieval: { ...retrieval, met_max_gap_s: maxMetGapMs / 1000, max_ztd_sigma_m: q.max_ztd_sigma_m },
       };
     },
   );

@@ -17,7 +17,7 @@ const precipitableWaterRoute: FastifyPluginAsyncZod = async (app) => {
         description: `PWV = Π(Tm) · ZWD with Π from Bevis et al. (1994) and Tm from Bevis et al. (1992) or the caller. ZWD = ZTD − ZHD(P) when a total delay is given, which then needs the measured pressure (never defaulted). σ_PWV is the root sum of squares of its budget: the delay's sigma (no default: without it σ is null), pressure (default 0.5 hPa), the ZHD model, the surface temperature (default 0.5 K), Tm (4.74 K for the Bevis regression, default 2 K for a caller's tm_k) and the refractivity constants; sigma_budget=true lists the terms per record. Body limit: ${BATCH_BODY_LIMIT_BYTES} bytes (32 MiB).`,
         tags: ['water vapour'],
         body: precipitableWaterRequest,
-        response: { 200: precipitableWaterResponse, 400: problemSchema, 413: problemSchema },
+        response: { 200: precipitableWaterResponse, 400: problemSchema, 413: problemSchema, 415: problemSchema },
       },
     },
     async (request) => {

@@ -26,7 +26,7 @@ const profileDelaysRoute: FastifyPluginAsyncZod = async (app) => {
         description: `Integrates a vertical profile (radiosonde ascent or weather-model column) from the site height up: refractivity N = k1 Pd/T + k2 e/T + k3 e/T² (constant sets of Smith & Weintraub 1953, Thayer 1974, Bevis et al. 1994, Rüeger 2002), ZHD = 1e-6 k1 Rd ∫dP/g with WGS84 normal gravity, ZWD = 1e-6 ∫N_w dz, PWV = ∫ρv dz/ρw, Tm = ∫(e/T)dz/∫(e/T²)dz. Rays are traced through spherical shells (n r cos θ = const) at vacuum elevations, iterating on the launch angle; the slant delay is the optical path minus the projection of station-to-exit onto the outgoing direction, and its bending term is assigned to the hydrostatic part. Mapping factors (slant / zenith of the same column) are set beside those of mapping_model. Body limit: ${PROFILE_BODY_LIMIT_BYTES} bytes (4 MiB).`,
         tags: ['atmospheric profiles'],
         body: profileDelaysRequest.superRefine((v, ctx) => checkCoefficients({ model: v.mapping_model, coefficients: v.coefficients }, ctx)),
-        response: { 200: profileDelaysResponse, 400: problemSchema, 413: problemSchema, 422: problemSchema },
+        response: { 200: profileDelaysResponse, 400: problemSchema, 413: problemSchema, 415: problemSchema, 422: problemSchema },
       },
     },
     async (request) => {
@@ -101,8 +101,8 @@ const profileDelaysRoute: FastifyPluginAsyncZod = async (app) => {
                 bending_m: s.bendingM,
                 mapping_hydrostatic: s.mappingHydrostatic,
                 mapping_wet: s.mappingWet,
-                model_mapping_hydrostatic: s.modelMappingHydrostatic!,
-                model_mapping_wet: s.modelMappingWet!,
+                model_mapping_hydrostatic: s.modelMappingHydrostatic,
+                model_mapping_wet: s.modelMappingWet,
               })),
             }
           : {}),

@@ -1,4 +1,6 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import type { z } from 'zod';
+import type { Site } from '../../domain/site.js';
 import { DEG } from '../../domain/constants.js';
 import { ModelDomainError } from '../../domain/errors.js';
 import { geoidUndulationM } from '../../domain/geometry/geoid.js';
@@ -15,6 +17,69 @@ import { slantDelaysRequest, slantDelaysResponse } from '../schemas/slant-delays
 import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
 import { lowElevationWarning, mappingProvenance, prepareMapping, toCoefficients, toMetInput, toSite, zenithProvenance } from './shared.js';
 
+type SlantBody = z.output<typeof slantDelaysRequest>;
+
+/** Step 1: the directions as given (elevation, azimuth), or from satellite ECEF positions (look angles, nadir). */
+function directionsOf(body: SlantBody, site: Site): { elevationsRad: Float64Array; azimuthsRad: Float64Array; nadirDeg: Float64Array | undefined } {
+  const n = body.directions?.length ?? body.satellites!.length;
+  const elevationsRad = new Float64Array(n);
+  const azimuthsRad = new Float64Array(n);
+  const nadirDeg = body.satellites ? new Float64Array(n) : undefined;
+  if (body.directions) {
+    body.directions.forEach((d, i) => {
+      checkMappingElevation(d.elevation_deg, `directions.${i}.elevation_deg`);
+      elevationsRad[i] = d.elevation_deg * DEG;
+      azimuthsRad[i] = d.azimuth_deg * DEG;
+    });
+    return { elevationsRad, azimuthsRad, nadirDeg };
+  }
+  const latRad = site.latitudeDeg * DEG;
+  const lonRad = site.longitudeDeg * DEG;
+  const siteEcef = geodeticToEcef(latRad, lonRad, site.heightM);
+  body.satellites!.forEach((s, i) => {
+    const look = lookAngles(latRad, lonRad, siteEcef, { xM: s.x_m, yM: s.y_m, zM: s.z_m });
+    if (!(look.elevationRad > 0)) {
+      throw new ModelDomainError(
+        `satellites.${i}`,
+        `satellite ${s.id} is at elevation ${(look.elevationRad / DEG).toFixed(3)}° from the site; elevations must be in (0, 90] deg`,
+        400,
+      );
+    }
+    checkMappingElevation(look.elevationRad / DEG, `satellites.${i}`);
+    elevationsRad[i] = look.elevationRad;
+    azimuthsRad[i] = look.azimuthRad;
+    nadirDeg![i] = look.nadirRad / DEG;
+  });
+  return { elevationsRad, azimuthsRad, nadirDeg };
+}
+
+/** Step 3: one answer entry per direction. */
+function slantEntries(
+  body: SlantBody,
+  out: ReturnType<typeof computeSlantDelays>,
+  elevationsDeg: Float64Array,
+  azimuthsRad: Float64Array,
+  nadirDeg: Float64Array | undefined,
+) {
+  const n = elevationsDeg.length;
+  const slants = new Array(n);
+  for (let i = 0; i < n; i++) {
+    slants[i] = {
+      elevation_deg: body.directions ? body.directions[i]!.elevation_deg : elevationsDeg[i]!,
+      azimuth_deg: normaliseAzimuthDeg(body.directions ? body.directions[i]!.azimuth_deg : azimuthsRad[i]! / DEG),
+      ...(body.satellites ? { satellite: body.satellites[i]!.id, nadir_deg: nadirDeg![i]! } : {}),
+      mapping_hydrostatic: out.mappingHydrostatic[i]!,
+      mapping_wet: out.mappingWet[i]!,
+      mapping_gradient: out.mappingGradient[i]!,
+      hydrostatic_m: out.hydrostaticM[i]!,
+      wet_m: out.wetM[i]!,
+      gradient_m: out.gradientM[i]!,
+      total_m: out.totalM[i]!,
+    };
+  }
+  return slants;
+}
+
 const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
   app.post(
     '/v1/slant-delays',
@@ -25,7 +90,7 @@ const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
         description: `slant = m_h ZHD + m_w ZWD + m_g (G_N cos a + G_E sin a). Zenith values not supplied come from met or the standard atmosphere; gradients default to 0. Directions may be given as elevation/azimuth or as satellite ECEF positions (WGS84). Up to 100 000 directions. Body limit: ${BATCH_BODY_LIMIT_BYTES} bytes (32 MiB).`,
         tags: ['a-priori delays'],
         body: slantDelaysRequest.superRefine((v, ctx) => checkCoefficients(v, ctx)),
-        response: { 200: slantDelaysResponse, 400: problemSchema, 413: problemSchema },
+        response: { 200: slantDelaysResponse, 400: problemSchema, 413: problemSchema, 415: problemSchema },
       },
     },
     async (request) => {
@@ -41,36 +106,8 @@ const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
       const northGradientM = body.zenith?.north_gradient_m ?? 0;
       const eastGradientM = body.zenith?.east_gradient_m ?? 0;
 
-      // Directions: as given, or from satellite positions.
-      const n = body.directions?.length ?? body.satellites!.length;
-      const elevationsRad = new Float64Array(n);
-      const azimuthsRad = new Float64Array(n);
-      const nadirDeg = body.satellites ? new Float64Array(n) : undefined;
-      if (body.directions) {
-        body.directions.forEach((d, i) => {
-          checkMappingElevation(d.elevation_deg, `directions.${i}.elevation_deg`);
-          elevationsRad[i] = d.elevation_deg * DEG;
-          azimuthsRad[i] = d.azimuth_deg * DEG;
-        });
-      } else {
-        const latRad = site.latitudeDeg * DEG;
-        const lonRad = site.longitudeDeg * DEG;
-        const siteEcef = geodeticToEcef(latRad, lonRad, site.heightM);
-        body.satellites!.forEach((s, i) => {
-          const look = lookAngles(latRad, lonRad, siteEcef, { xM: s.x_m, yM: s.y_m, zM: s.z_m });
-          if (!(look.elevationRad > 0)) {
-            throw new ModelDomainError(
-              `satellites.${i}`,
-              `satellite ${s.id} is at elevation ${(look.elevationRad / DEG).toFixed(3)}° from the site; elevations must be in (0, 90] deg`,
-              400,
-            );
-          }
-          checkMappingElevation(look.elevationRad / DEG, `satellites.${i}`);
-          elevationsRad[i] = look.elevationRad;
-          azimuthsRad[i] = look.azimuthRad;
-          nadirDeg![i] = look.nadirRad / DEG;
-        });
-      }
+      const { elevationsRad, azimuthsRad, nadirDeg } = directionsOf(body, site);
+      const n = elevationsRad.length;
 
       const mapping = prepareMapping(site, body.epoch, body.model, body.coefficients);
       const assumed = assumedHeightReferenceWarning(toCoefficients(body.coefficients));
@@ -80,21 +117,7 @@ const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
 
       const elevationsDeg = elevationsRad.map((e) => e / DEG);
       warnings.push(...lowElevationWarning(elevationsDeg, body.directions ? 'directions' : 'satellites'));
-      const slants = new Array(n);
-      for (let i = 0; i < n; i++) {
-        slants[i] = {
-          elevation_deg: body.directions ? body.directions[i]!.elevation_deg : elevationsDeg[i]!,
-          azimuth_deg: normaliseAzimuthDeg(body.directions ? body.directions[i]!.azimuth_deg : azimuthsRad[i]! / DEG),
-          ...(body.satellites ? { satellite: body.satellites[i]!.id, nadir_deg: nadirDeg![i]! } : {}),
-          mapping_hydrostatic: out.mappingHydrostatic[i]!,
-          mapping_wet: out.mappingWet[i]!,
-          mapping_gradient: out.mappingGradient[i]!,
-          hydrostatic_m: out.hydrostaticM[i]!,
-          wet_m: out.wetM[i]!,
-          gradient_m: out.gradientM[i]!,
-          total_m: out.totalM[i]!,
-        };
-      }
+      const slants = slantEntries(body, out, elevationsDeg, azimuthsRad, nadirDeg);
       return {
         zenith: {
           zhd_m: zhdM,

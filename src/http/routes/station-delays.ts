@@ -2,6 +2,7 @@ import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { provenance } from '../../domain/provenance.js';
 import type { DelayRow } from '../../storage/repository.js';
 import { summariseModelSets } from '../../services/homogeneity.js';
+import { HttpProblem } from '../problem.js';
 import { problemSchema } from '../schemas/common.js';
 import { DELAY_CSV_COLUMNS, delayDepositEnvelope, delayDepositJsonBody, delayDepositResponse, delayReadQuery, delayReadResponse, delayRecordSchema } from '../schemas/delays.js';
 import { stationParams } from '../schemas/stations.js';
@@ -35,7 +36,8 @@ const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (ap
       await requireStation(app.repository, stationId);
       const body = request.body as unknown;
       if (typeof body === 'string') {
-        throw Object.assign(new Error('send the delay series as application/json'), { statusCode: 415, code: 'FST_ERR_CTP_INVALID_MEDIA_TYPE' });
+        const type = request.headers['content-type'] ?? '(none)';
+        throw new HttpProblem(415, `content type ${type} is not accepted here; send the delay series as application/json`);
       }
       const { records, source, models } = body as { records: unknown[]; source: string; models?: Record<string, string | number | boolean | null> };
       const set = provenance({ ...(models ?? {}), [DEPOSIT_SOURCE_KEY]: source });
@@ -81,7 +83,7 @@ const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (ap
         tags: ['station archive'],
         params: stationParams,
         querystring: delayReadQuery,
-        response: { 200: delayReadResponse, 400: problemSchema, 404: problemSchema },
+        response: { 200: delayReadResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 404: problemSchema },
       },
     },
     async (request, reply) => {

@@ -60,7 +60,7 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         tags: ['station archive'],
         params: stationParams,
         querystring: metReadQuery,
-        response: { 200: metReadResponse, 400: problemSchema, 404: problemSchema },
+        response: { 200: metReadResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 404: problemSchema },
       },
     },
     async (request, reply) => {

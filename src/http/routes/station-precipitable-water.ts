@@ -3,6 +3,8 @@ import { summariseModelSets } from '../../services/homogeneity.js';
 import { roundedDecimalText } from '../../formats/decimal-text.js';
 import { csvCell } from '../../formats/met-csv.js';
 import { retrievalProvenance, stationPrecipitableWater, type StationPwvRecord } from '../../services/station-pwv.js';
+import { DEFAULT_MAX_MET_GAP_MS } from '../../domain/meteo/met-interpolation.js';
+import { HttpProblem } from '../problem.js';
 import { problemSchema } from '../schemas/common.js';
 import { STATION_PWV_CSV_COLUMNS, stationPwvQuery, stationPwvResponse } from '../schemas/station-precipitable-water.js';
 import { stationParams } from '../schemas/stations.js';
@@ -97,6 +99,20 @@ const pwvCsvLine = (r: StationPwvRecord): string =>
     r.temperatureQuality,
   ].join(',');
 
+/**
+ * The met gap limit [s]: met_max_gap_s (the name the estimation uses), or its deprecated alias
+ * max_met_gap_s with a warning; both with different values is a 400.
+ */
+function metGapSetting(q: { met_max_gap_s?: number | undefined; max_met_gap_s?: number | undefined }): { seconds: number; warnings: string[] } {
+  if (q.max_met_gap_s === undefined) return { seconds: q.met_max_gap_s ?? DEFAULT_MAX_MET_GAP_MS / 1000, warnings: [] };
+  if (q.met_max_gap_s !== undefined && q.met_max_gap_s !== q.max_met_gap_s) {
+    throw new HttpProblem(400, 'query.max_met_gap_s: differs from query.met_max_gap_s; send only met_max_gap_s', [
+      { field: 'query.max_met_gap_s', message: 'deprecated alias of met_max_gap_s; send only met_max_gap_s' },
+    ]);
+  }
+  return { seconds: q.max_met_gap_s, warnings: ['query.max_met_gap_s is deprecated: use met_max_gap_s (the same setting under the name the ZWD estimation uses)'] };
+}
+
 const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
   app.get(
     '/v1/stations/:station_id/precipitable-water',
@@ -104,14 +120,14 @@ const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       schema: {
         summary: 'Precipitable water for the stored delays of a station',
         description: [
-          'For each stored delay epoch in the range: pressure and temperature interpolated linearly in time from the stored met series (not across gaps longer than max_met_gap_s, default 3 h; never extrapolated), reduced from met_height_m to the antenna height; ZHD (Saastamoinen/Davis 1985), ZWD = ZTD − ZHD, Tm (Bevis et al. 1992), PWV = Π(Tm)·ZWD (Bevis et al. 1994) and its sigma.',
+          'For each stored delay epoch in the range: pressure and temperature interpolated linearly in time from the stored met series (not across gaps longer than met_max_gap_s, default 3 h; never extrapolated), reduced from met_height_m to the antenna height; ZHD (Saastamoinen/Davis 1985), ZWD = ZTD − ZHD, Tm (Bevis et al. 1992), PWV = Π(Tm)·ZWD (Bevis et al. 1994) and its sigma.',
           'Quality flag per record, most severe first: met-missing (no PWV: no pressure or temperature within the gap limit), delay-sigma-large (ztd_sigma_m > max_ztd_sigma_m, default 0.01 m), delay-sigma-unknown (no ztd_sigma_m; pwv_sigma_mm null), met-interpolated, ok.',
           `\`homogeneous\` is false when the delays of the range come from more than one model set. One request reads at most ${options.maxReadRangeDays} days. format=csv answers text/csv with a header row of the record field names and the headers x-homogeneous and x-model-fingerprints.`,
         ].join('\n'),
         tags: ['station archive', 'water vapour'],
         params: stationParams,
         querystring: stationPwvQuery,
-        response: { 200: stationPwvResponse, 400: problemSchema, 404: problemSchema },
+        response: { 200: stationPwvResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 404: problemSchema },
       },
     },
     async (request, reply) => {
@@ -119,7 +135,8 @@ const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       const q = request.query;
       const station = await requireStation(app.repository, stationId);
       const range = await resolveSeriesRange(app.repository, stationId, 'delays', q, options.maxReadRangeDays);
-      const maxMetGapMs = q.max_met_gap_s * 1000;
+      const gap = metGapSetting(q);
+      const maxMetGapMs = gap.seconds * 1000;
       const delays = await app.repository.readZenithDelays(stationId, range, q.source);
       const met = delays.length
         ? await app.repository.readSurfaceMet(stationId, { fromMs: delays[0]!.epochMs - maxMetGapMs, toMs: delays[delays.length - 1]!.epochMs + maxMetGapMs }, q.met_source)
@@ -143,8 +160,8 @@ const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         records,
         homogeneous: summary.homogeneous,
         model_sets: summary.model_sets,
-        warnings: [...summary.warnings, ...result.warnings],
-        retrieval: { ...retrieval, max_met_gap_s: q.max_met_gap_s, max_ztd_sigma_m: q.max_ztd_sigma_m },
+        warnings: [...summary.warnings, ...result.warnings, ...gap.warnings],
+        retrieval: { ...retrieval, met_max_gap_s: gap.seconds, max_met_gap_s: gap.seconds, max_ztd_sigma_m: q.max_ztd_sigma_m },
       };
     },
   );

@@ -20,7 +20,7 @@ import { CallerError } from '../../services/caller-error.js';
 import { storedMetAtAntenna, type MetColumns } from '../../services/station-met.js';
 import type { DelayColumns } from '../../services/zwd-estimation.js';
 import type { DelayRow, Repository, Station, WriteCounts } from '../../storage/repository.js';
-import { bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf } from '../raw-body.js';
+import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, transferOf } from '../raw-body.js';
 import { problemSchema } from '../schemas/common.js';
 import { DEFAULT_ESTIMATE_SOURCE, stationZwdEstimatesQuery, stationZwdEstimatesResponse } from '../schemas/station-zwd-estimates.js';
 import { stationParams } from '../schemas/stations.js';
@@ -126,15 +126,20 @@ const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = asy
       const stationId = request.params.station_id;
       const station = await requireStation(app.repository, stationId);
       const source = request.query.source ?? DEFAULT_ESTIMATE_SOURCE;
-      const raw = rawBodyOf(request);
-      const scan = await app.compute.run('zwd-request-scan', raw);
-      const storedMet = await storedMetFor(app.repository, station, scan, options.maxReadRangeDays);
+      const sent = rawBodyOf(request);
+      const scanned = await app.compute.run('zwd-request-scan', sent, transferOf(sent));
+      // JSON bytes were moved to the scan and back; a text body is still the request's.
+      const raw = { body: scanned.body ?? sent.body, format: sent.format };
+      const storedMet = await storedMetFor(app.repository, station, scanned, options.maxReadRangeDays);
       const site = { latitudeDeg: station.latitudeDeg, longitudeDeg: station.longitudeDeg, heightM: station.heightM };
-      const output = await app.compute.run('zwd-estimate-request', { ...raw, query: request.query as Record<string, unknown>, station: { site, storedMet } });
+      const output = await app.compute.run(
+        'zwd-estimate-request',
+        { ...raw, query: request.query as Record<string, unknown>, station: { site, storedMet } },
+        transferOf(raw),
+      );
       const stored = await storeDelays(app.repository, stationId, source, output);
-      return reply
-        .type('application/json')
-        .send(`${output.json},"station_id":${JSON.stringify(stationId)},"stored":${JSON.stringify({ source, ...stored })}}` as never);
+      const tail = `,"station_id":${JSON.stringify(stationId)},"stored":${JSON.stringify({ source, ...stored })}}`;
+      return reply.type('application/json').send(Buffer.concat([asBuffer(output.json), Buffer.from(tail)]) as never);
     },
   );
 };

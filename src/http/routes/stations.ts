@@ -17,7 +17,7 @@ const stationsRoute: FastifyPluginAsyncZod = async (app) => {
         security: [{ bearerKey: [] }],
         params: stationParams,
         body: stationBody,
-        response: { 200: stationResponse, 201: stationResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema },
+        response: { 200: stationResponse, 201: stationResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 413: problemSchema, 415: problemSchema },
       },
     },
     async (request, reply) => {
@@ -49,7 +49,7 @@ const stationsRoute: FastifyPluginAsyncZod = async (app) => {
         summary: 'One station',
         tags: ['station archive'],
         params: stationParams,
-        response: { 200: stationResponse, 400: problemSchema, 404: problemSchema },
+        response: { 200: stationResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 404: problemSchema },
       },
     },
     async (request) => stationJson(await requireStation(app.repository, request.params.station_id)),

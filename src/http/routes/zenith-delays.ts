@@ -17,7 +17,7 @@ const zenithDelaysRoute: FastifyPluginAsyncZod = async (app) => {
           'ZHD by Saastamoinen (Davis et al. 1985, IERS 2010 eq. 9.11) from surface pressure; ZWD by the chosen wet model from temperature and humidity. Met measured at another height is reduced to the site; missing met comes from the standard atmosphere (Berg 1948) and the response says so. Body limit: 1 MiB.',
         tags: ['a-priori delays'],
         body: zenithDelaysRequest,
-        response: { 200: zenithDelaysResponse, 400: problemSchema, 422: problemSchema },
+        response: { 200: zenithDelaysResponse, 400: problemSchema, 413: problemSchema, 415: problemSchema, 422: problemSchema },
       },
     },
     async (request) => {

@@ -4,7 +4,7 @@
  */
 
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf } from '../raw-body.js';
+import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, transferOf } from '../raw-body.js';
 import { problemSchema } from '../schemas/common.js';
 import { MAX_OBSERVATIONS, ZWD_BODY_LIMIT_BYTES, zwdCsvQuerySchema, zwdEstimatesRequest, zwdEstimatesResponse } from '../schemas/zwd-estimates.js';
 
@@ -30,9 +30,10 @@ const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
       validatorCompiler: bodyInWorkerValidator,
     },
     async (request, reply) => {
-      const output = await app.compute.run('zwd-estimate-request', { ...rawBodyOf(request), query: request.query as Record<string, unknown> });
-      // Already serialised in the worker; a string payload is sent as it is.
-      return reply.type('application/json').send(output.json as never);
+      const raw = rawBodyOf(request);
+      const output = await app.compute.run('zwd-estimate-request', { ...raw, query: request.query as Record<string, unknown> }, transferOf(raw));
+      // Already serialised in the worker; the bytes are sent as they are.
+      return reply.type('application/json').send(asBuffer(output.json) as never);
     },
   );
 };

@@ -72,7 +72,7 @@ export const ztdM = (description = 'Zenith total delay') => bounded(1, 3, 'm', d
 export const zhdM = (description = 'Zenith hydrostatic delay') => bounded(1, 3, 'm', description);
 export const gradientM = (description: string) => bounded(-0.05, 0.05, 'm', description);
 export const elevationDeg = () =>
-  bounded(0, 90, 'deg', 'Vacuum (geometric) elevation angle; below 3° the answer carries a warning', { exclusiveMin: true });
+  bounded(0, 90, 'deg', 'Vacuum (geometric) elevation angle; below 3° the answer carries a warning; mapping functions refuse elevations below 1° (a profile is still traced there)', { exclusiveMin: true });
 export const azimuthDeg = () => bounded(0, 360, 'deg', 'Azimuth from north through east');
 
 function keyEnum<K extends string>(keys: readonly [K, ...K[]], what: string) {

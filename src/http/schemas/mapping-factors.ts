@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import { DEFAULT_MAPPING_MODEL } from '../../domain/mapping/registry.js';
+import { DEFAULT_GRADIENT_MODEL } from '../../domain/gradients/gradient-mapping.js';
 import { MAPPING_MODELS, type MappingModelKey } from '../../domain/mapping/registry.js';
 import {
   elevationDeg,
@@ -34,9 +36,9 @@ export const mappingFactorsRequest = z.object({
     'elevations',
   )
     .describe(`Vacuum elevations [deg], (0, 90], 1..${MAX_BATCH} of them`),
-  model: mappingModelSchema.default('niell'),
+  model: mappingModelSchema.default(DEFAULT_MAPPING_MODEL),
   coefficients: vmf1CoefficientsSchema.optional(),
-  gradient_model: gradientModelSchema.default('chen-herring'),
+  gradient_model: gradientModelSchema.default(DEFAULT_GRADIENT_MODEL),
 });
 
 export const mappingFactorsResponse = z.object({

@@ -126,7 +126,7 @@ export const networkPwvQuery = z
     latest: latest.optional(),
     interval: interval.optional(),
     source: sourceQuery,
-    max_met_gap_s: stationPwvQuery.shape.max_met_gap_s,
+    met_max_gap_s: stationPwvQuery.shape.met_max_gap_s,
     max_ztd_sigma_m: stationPwvQuery.shape.max_ztd_sigma_m,
     format: networkFormat,
   })
@@ -154,7 +154,7 @@ const networkStation = z.object({
 const qualityEnum = z
   .enum(PWV_QUALITY_FLAGS)
   .describe(
-    `Most severe first: met-missing (no PWV: no pressure or temperature within max_met_gap_s), delay-sigma-large (ztd_sigma_m > max_ztd_sigma_m), ` +
+    `Most severe first: met-missing (no PWV: no pressure or temperature within met_max_gap_s), delay-sigma-large (ztd_sigma_m > max_ztd_sigma_m), ` +
       `delay-sigma-unknown (no ztd_sigma_m: no pwv_sigma_mm), met-interpolated (met interpolated in time), ok`,
   );
 
@@ -211,7 +211,7 @@ export const networkPwvResponse = z.object({
     .object({
       models: provenanceFields.models,
       model_fingerprint: provenanceFields.model_fingerprint,
-      max_met_gap_s: z.number(),
+      met_max_gap_s: z.number(),
       max_ztd_sigma_m: z.number(),
     })
     .describe('Models and settings of the PWV retrieval itself (ZHD, Tm, Π, met interpolation)'),

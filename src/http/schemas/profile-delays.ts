@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import { DEFAULT_MAPPING_MODEL } from '../../domain/mapping/registry.js';
+import { DEFAULT_REFRACTIVITY_CONSTANTS } from '../../domain/profile/refractivity.js';
 import { MAX_LEVELS, MIN_LEVELS, MIN_TOP_HEIGHT_M } from '../../domain/profile/levels.js';
 import { REFRACTIVITY_CONSTANTS_KEYS } from '../../domain/profile/refractivity.js';
 import {
@@ -52,7 +54,7 @@ export const profileDelaysRequest = z.object({
     ),
   refractivity_constants: z
     .enum(REFRACTIVITY_CONSTANTS_KEYS, { error: `must be one of: ${REFRACTIVITY_CONSTANTS_KEYS.join(', ')}` })
-    .default('bevis-1994')
+    .default(DEFAULT_REFRACTIVITY_CONSTANTS)
     .describe(`Refractivity constants k1, k2, k3; one of ${REFRACTIVITY_CONSTANTS_KEYS.join(', ')}; default bevis-1994`),
   compressibility: z
     .boolean({ error: 'must be true or false' })
@@ -65,7 +67,7 @@ export const profileDelaysRequest = z.object({
   )
     .optional()
     .describe(`Vacuum (geometric) elevations to trace rays at [deg], (0, 90], 1..${MAX_PROFILE_ELEVATIONS}; absent = no slants`),
-  mapping_model: mappingModelSchema.default('niell').describe('Mapping function set beside the traced factors; default niell'),
+  mapping_model: mappingModelSchema.default(DEFAULT_MAPPING_MODEL).describe('Mapping function set beside the traced factors; default niell'),
   coefficients: vmf1CoefficientsSchema.optional(),
   geoid_undulation_m: bounded(-120, 100, 'm', 'Geoid undulation at the site, for geopotential heights; default: EGM96 at the site (the warnings say so)').optional(),
 });
@@ -80,8 +82,8 @@ export const profileSlantSchema = z.object({
   bending_m: z.number().describe('Geometric bending term, ray length minus the projection of station-to-exit onto the outgoing direction [m]; part of hydrostatic_m'),
   mapping_hydrostatic: z.number().describe('Ray-traced hydrostatic mapping factor [-]'),
   mapping_wet: z.number().nullable().describe('Ray-traced wet mapping factor [-]; null for a dry column'),
-  model_mapping_hydrostatic: z.number().describe('Hydrostatic mapping factor of mapping_model at the vacuum elevation [-]'),
-  model_mapping_wet: z.number().describe('Wet mapping factor of mapping_model at the vacuum elevation [-]'),
+  model_mapping_hydrostatic: z.number().nullable().describe('Hydrostatic mapping factor of mapping_model at the vacuum elevation [-]; null below 1°, where mapping functions are not evaluated'),
+  model_mapping_wet: z.number().nullable().describe('Wet mapping factor of mapping_model at the vacuum elevation [-]; null below 1°'),
 });
 
 export const profileDelaysResponse = z.object({

@@ -1,4 +1,7 @@
 import { z } from 'zod';
+import { DEFAULT_MAPPING_MODEL } from '../../domain/mapping/registry.js';
+import { DEFAULT_GRADIENT_MODEL } from '../../domain/gradients/gradient-mapping.js';
+import { DEFAULT_WET_MODEL } from '../../domain/zenith/wet.js';
 import {
   azimuthDeg,
   bounded,
@@ -27,10 +30,10 @@ export const slantDelaysRequest = z
     site: siteSchema,
     epoch: epochSchema,
     met: metSchema.optional(),
-    wet_model: wetModelSchema.default('saastamoinen'),
-    model: mappingModelSchema.default('niell'),
+    wet_model: wetModelSchema.default(DEFAULT_WET_MODEL),
+    model: mappingModelSchema.default(DEFAULT_MAPPING_MODEL),
     coefficients: vmf1CoefficientsSchema.optional(),
-    gradient_model: gradientModelSchema.default('chen-herring'),
+    gradient_model: gradientModelSchema.default(DEFAULT_GRADIENT_MODEL),
     zenith: z
       .object({
         zhd_m: zhdM().optional(),

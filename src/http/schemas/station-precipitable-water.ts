@@ -6,20 +6,26 @@
 import { z } from 'zod';
 import { DEFAULT_MAX_MET_GAP_MS } from '../../domain/meteo/met-interpolation.js';
 import { DEFAULT_MAX_ZTD_SIGMA_M, PWV_QUALITY_FLAGS } from '../../services/station-pwv.js';
-import { provenanceFields } from './common.js';
+import { MAX_MET_GAP_S } from '../../limits.js';
+import { bounded, provenanceFields } from './common.js';
 import { homogeneityFields } from './delays.js';
 import { seriesQueryFields, seriesRangeResponseFields, sourceSchema } from './stations.js';
+
+const metGapSchema = () =>
+  z.coerce
+    .number({ error: `must be a number in [0, ${MAX_MET_GAP_S}] s` })
+    .min(0, { error: `must be a number in [0, ${MAX_MET_GAP_S}] s` })
+    .max(MAX_MET_GAP_S, { error: `must be a number in [0, ${MAX_MET_GAP_S}] s` })
+    .optional();
 
 export const stationPwvQuery = z.object({
   ...seriesQueryFields,
   source: sourceSchema.optional().describe('Only the delay rows of this source'),
   met_source: sourceSchema.optional().describe('Only the met rows of this source (default: all; at one epoch the first source in name order)'),
-  max_met_gap_s: z.coerce
-    .number({ error: 'must be a number in [0, 86400] s' })
-    .min(0, { error: 'must be a number in [0, 86400] s' })
-    .max(86400, { error: 'must be a number in [0, 86400] s' })
-    .default(DEFAULT_MAX_MET_GAP_MS / 1000)
-    .describe(`Longest gap between two met records interpolated across [s], [0, 86400]; default ${DEFAULT_MAX_MET_GAP_MS / 1000} (3 h)`),
+  met_max_gap_s: metGapSchema().describe(
+    `Longest gap between two met records interpolated across [s], [0, ${MAX_MET_GAP_S}]; default ${DEFAULT_MAX_MET_GAP_MS / 1000} (3 h). The same name as the estimation option`,
+  ),
+  max_met_gap_s: metGapSchema().describe('Deprecated alias of met_max_gap_s (still works; the answer then carries a warning)'),
   max_ztd_sigma_m: z.coerce
     .number({ error: 'must be a number in (0, 1] m' })
     .gt(0, { error: 'must be a number in (0, 1] m' })
@@ -58,7 +64,8 @@ export const stationPwvResponse = z.object({
   retrieval: z.object({
     models: provenanceFields.models,
     model_fingerprint: provenanceFields.model_fingerprint,
-    max_met_gap_s: z.number(),
+    met_max_gap_s: z.number().describe('The met gap limit used [s]'),
+    max_met_gap_s: z.number().describe('Deprecated: the same as met_max_gap_s'),
     max_ztd_sigma_m: z.number(),
   }).describe('Models and settings of the PWV retrieval itself (ZHD, Tm, Π, met interpolation)'),
 });

@@ -1,11 +1,12 @@
 import { z } from 'zod';
+import { DEFAULT_WET_MODEL } from '../../domain/zenith/wet.js';
 import { epochSchema, geoidUndulationField, metSchema, metSourceSchema, provenanceFields, siteSchema, wetModelSchema } from './common.js';
 
 export const zenithDelaysRequest = z.object({
   site: siteSchema,
   epoch: epochSchema,
   met: metSchema.optional(),
-  wet_model: wetModelSchema.default('saastamoinen'),
+  wet_model: wetModelSchema.default(DEFAULT_WET_MODEL),
 });
 
 export const metUsedSchema = z.object({

@@ -159,10 +159,11 @@ export type ZwdEstimationOptionsBody = z.output<typeof zwdOptionsSchema>;
 const metQualitySchema = z.enum(['measured', 'interpolated', 'missing']);
 
 export const zwdNodeResponse = z.object({
-  epoch: z.string().describe('Node epoch T0 + jΔ (UTC)'),
+  epoch: z.string().describe('Node epoch jΔ on round UTC epochs'),
   correction_m: z.number().describe('Estimated correction δw to the a-priori ZWD [m]'),
   zwd_m: z.number().describe('A-priori ZWD + correction [m]'),
-  sigma_m: z.number().describe('Formal standard deviation [m]'),
+  sigma_m: z.number().describe('Formal standard deviation [m] (with the Brownian-bridge variance between epochs and the correlated-noise factor)'),
+  observations_nearby: z.number().int().describe('Used observations within one interval of the node; 0 = the value comes from the random walk alone (a node without data)'),
 });
 
 export const gradientNodeResponse = z.object({
@@ -171,6 +172,7 @@ export const gradientNodeResponse = z.object({
   east_m: z.number().describe('East gradient G_E [m]'),
   north_sigma_m: z.number(),
   east_sigma_m: z.number(),
+  observations_nearby: z.number().int().describe('Used observations within one interval of the node; 0 = a node without data'),
 });
 
 export const zwdSeriesEntryResponse = z.object({
@@ -215,9 +217,34 @@ export const zwdStatisticsResponse = z.object({
   degrees_of_freedom: z.number().int().describe('observations_used + constraints − unknowns'),
   rms_m: z.number().describe('RMS of the post-fit residuals [m]'),
   variance_factor: z.number().nullable().describe('(vᵀPv + constraint terms) / degrees_of_freedom; null when that is 0'),
-  sigma_scale: z.number().describe('Factor applied to the formal errors (√variance_factor or 1)'),
-  solutions: z.number().int().describe('Least-squares solutions computed during screening'),
+  sigma_scale: z.number().describe('1: the variance factor re-weights the observations (scale_sigmas), the formal errors are not multiplied'),
+  solutions: z.number().int().describe('Least-squares solutions computed (re-weightings and screening)'),
   screening_complete: z.boolean().describe('false when max_rejections stopped the screening'),
+  weighting_constant_m: z.number().describe('a of σ² = a² + b²/sin²e in the final solution (re-estimated with scale_sigmas) [m]'),
+  weighting_elevation_m: z.number().describe('b of σ² = a² + b²/sin²e in the final solution [m]'),
+  elevation_bands: z
+    .array(
+      z.object({
+        lower_deg: z.number(),
+        upper_deg: z.number(),
+        observations_used: z.number().int(),
+        observations_rejected: z.number().int(),
+        rms_m: z.number().nullable().describe('RMS of the post-fit residuals of the band [m]'),
+        normalised_rms: z.number().nullable().describe('RMS of v/σ_v (≈ 1 when the weights fit the band)'),
+      }),
+    )
+    .describe('Residuals and rejections per elevation band'),
+  noise_correlation: z
+    .object({
+      sampling_s: z.number(),
+      autocorrelation: z.array(z.number()).describe('ρ(1), ρ(2), … of the normalised residuals per satellite arc, up to the first insignificant lag'),
+      zwd_variance_inflation: z.number().describe('Mean factor on the ZWD variances'),
+      gradient_variance_inflation: z.number().describe('Mean factor on the gradient variances'),
+    })
+    .nullable()
+    .describe('Time correlation of the residuals and its effect on the formal errors; null when correlated_noise is off'),
+  zwd_nodes_without_data: z.number().int(),
+  gradient_nodes_without_data: z.number().int(),
 });
 
 export const zwdEstimatesResponse = z.object({

@@ -39,8 +39,8 @@ export interface ZwdRequestTaskInput {
 }
 
 export interface ZwdRequestTaskOutput {
-  /** The answer as JSON text. For a station: without its closing brace, so the route appends `stored`. */
-  json: string;
+  /** The answer as UTF-8 JSON (moved, not copied, to the event loop). For a station: without its closing brace, so the route appends `stored`. */
+  json: Uint8Array;
   /** Observations sent, for the metrics. */
   observations: number;
   /** A station's estimation: what to store. */
@@ -52,6 +52,8 @@ export interface ZwdRequestTaskOutput {
 function fail(status: number, errors: FieldError[]): TaskOutcome<never> {
   return { ok: false, error: { status, detail: detailOf(errors), errors } };
 }
+
+const utf8 = (text: string): Uint8Array => new TextEncoder().encode(text);
 
 const bodyText = (body: Uint8Array | string) =>
   typeof body === 'string' ? body : Buffer.from(body.buffer, body.byteOffset, body.byteLength).toString('utf8');
@@ -114,7 +116,7 @@ export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<Task
     }
     const request = toZwdRequest(site, body, station?.storedMet);
     const result = runZwdEstimation(request);
-    if (!station) return { ok: true, output: { json: JSON.stringify(zwdEstimatesResponseOf(result)), observations: body.observations.length } };
+    if (!station) return { ok: true, output: { json: utf8(JSON.stringify(zwdEstimatesResponseOf(result))), observations: body.observations.length } };
 
     const metUsed = body.met !== undefined ? 'request' : request.met ? 'archive' : 'none';
     const metWarnings = [
@@ -126,7 +128,7 @@ export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<Task
     return {
       ok: true,
       output: {
-        json: json.slice(0, -1),
+        json: utf8(json.slice(0, -1)),
         observations: body.observations.length,
         delays: delayColumns(result),
         modelFingerprint: result.modelFingerprint,
@@ -144,6 +146,8 @@ export interface EpochRangeOutput {
   /** The body carries its own met (JSON `met`). */
   hasMet: boolean;
   observations: number;
+  /** The body bytes, moved back for the estimation task (absent for a text body). */
+  body?: Uint8Array;
 }
 
 /**
@@ -151,6 +155,8 @@ export interface EpochRangeOutput {
  * column, wherever it is) and whether the body has met, so that the route reads only the stored met
  * it needs. Errors are left to the estimation task.
  */
+const bytesBack = (body: Uint8Array | string) => (typeof body === 'string' ? {} : { body });
+
 export async function scanZwdRequest(input: Pick<ZwdRequestTaskInput, 'body' | 'format'>): Promise<TaskOutcome<EpochRangeOutput>> {
   let epochs: unknown[] = [];
   let hasMet = false;
@@ -164,7 +170,7 @@ export async function scanZwdRequest(input: Pick<ZwdRequestTaskInput, 'body' | '
       if (parsed && Array.isArray(parsed.observations)) epochs = parsed.observations.map((o) => (o && typeof o === 'object' ? (o as { epoch?: unknown }).epoch : undefined));
     }
   } catch {
-    return { ok: true, output: { range: null, hasMet, observations: 0 } };
+    return { ok: true, output: { range: null, hasMet, observations: 0, ...bytesBack(input.body) } };
   }
   let firstMs = Infinity;
   let lastMs = -Infinity;
@@ -175,5 +181,5 @@ export async function scanZwdRequest(input: Pick<ZwdRequestTaskInput, 'body' | '
     if (ms < firstMs) firstMs = ms;
     if (ms > lastMs) lastMs = ms;
   }
-  return { ok: true, output: { range: firstMs <= lastMs ? { firstMs, lastMs } : null, hasMet, observations: epochs.length } };
+  return { ok: true, output: { range: firstMs <= lastMs ? { firstMs, lastMs } : null, hasMet, observations: epochs.length, ...bytesBack(input.body) } };
 }

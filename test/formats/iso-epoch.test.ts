@@ -1,6 +1,6 @@
 /** The cached ISO 8601 formatter must write exactly what Date#toISOString writes (ECMA-262 Date Time String Format). */
 import { describe, expect, it } from 'vitest';
-import { isoEpoch } from '../../src/http/routes/station-common.js';
+import { isoEpoch } from '../../src/formats/iso-epoch.js';
 import { mulberry32 } from '../../scripts/synthetic/network.js';
 
 describe('isoEpoch equals Date#toISOString (ECMA-262 §21.4.1.32)', () => {

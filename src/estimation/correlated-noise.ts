@@ -1,0 +1,181 @@
+/**
+ * Time-correlated observation noise: its estimate from the post-fit residuals of each satellite
+ * arc, and the factor by which it inflates the formal variances of the random-walk states.
+ *
+ * Why: the weights assume white noise, but multipath and unmodelled slant effects are correlated
+ * over minutes along a satellite arc. A smoother that averages over a few epochs then averages
+ * noise that does not average out, and its formal errors are too small (issue 10: σ 2.4–3.7× too
+ * small with 70 % AR(1) noise of τ = 10 min), while the variance factor stays near 1.
+ *
+ * 1. Autocorrelation of the normalised residuals z_i = v_i/σ_i, pooled over satellite arcs
+ *    (pairs of the same satellite exactly m sampling intervals apart):
+ *        ρ(m) = Σ z_t z_{t+m} / n_m  ÷  Σ z² / n,
+ *    for m = 1, 2, … up to the first lag where ρ(m) < 2/√n_m (the first lag not significant at
+ *    about 95 %; a truncation in the spirit of Geyer's initial sequence, Geyer (1992), Statistical
+ *    Science 7, 473–483; from memory), at most MAX_LAG_S (1 h).
+ * 2. Inflation. In steady state the estimate of a random walk (step variance Q per epoch) from
+ *    per-epoch information I (noise variance R = 1/I) is the two-sided exponential smoother
+ *        x̂_k = Σ_j w_j y_{k+j},  w_j = (1 − λ)/(1 + λ) λ^|j|,  λ + 1/λ = 2 + Q I,
+ *    (the Wiener smoother of a local-level model; e.g. Durbin & Koopman (2012), Time Series
+ *    Analysis by State Space Methods, 2nd ed., ch. 2; from memory), with posterior variance
+ *    P = R (1 − λ)/(1 + λ) (checked numerically against a Kalman smoother) of which the noise part
+ *    is R Σ w_j² = P (1 + λ²)/(1 + λ)². With noise autocorrelation ρ the noise part is multiplied by
+ *        r = 1 + 2 Σ_{m≥1} ρ(m) S(m)/S(0),  S(m) = Σ_j λ^|j| λ^|j+m| = λ^m (2/(1 − λ²) + m − 1),
+ *    so the variance is multiplied by 1 + (1 + λ²)/(1 + λ)² (r − 1). This is evaluated per epoch
+ *    with the epoch's own information (I from the inverse of its 3×3 bias-reduced normal matrix,
+ *    so the correlation of ZWD and gradients is accounted for) and per parameter family.
+ *
+ * Not included: correlation between satellites (common-mode errors go into the epoch bias when
+ * they are common to all satellites, and are otherwise not modelled), and changes of the noise
+ * along the day (one ρ for the whole series).
+ */
+
+import type { Design } from './design.js';
+import { EPOCH_NORMAL_ENTRIES, type Solution } from './least-squares.js';
+
+/** Longest lag the autocorrelation is estimated for [s]: 1 h (correlation times up to ~20 min). */
+export const MAX_LAG_S = 3600;
+/** Every lag up to this one is evaluated ... */
+const DENSE_LAGS = 20;
+/** ... then every LAG_STEP-th. */
+const LAG_STEP = 4;
+
+/**
+ * ρ(1), ρ(2), … of the normalised residuals per satellite arc (see header), at the sampling
+ * interval samplingMs; empty when lag 1 is already not significant or there are too few pairs.
+ * One pass over the pairs of each satellite up to MAX_LAG_S apart (cost n × evaluated lags).
+ *
+ * @param satellite satellite of each design observation
+ */
+export function residualAutocorrelation(design: Design, solution: Solution, used: Uint8Array, satellite: readonly string[], samplingMs: number): number[] {
+  // Per satellite, its used observations in epoch order (the design is sorted by epoch), packed
+  // satellite after satellite into t (epoch) and z (normalised residual).
+  const n = used.length;
+  const satId = new Int32Array(n);
+  const ids = new Map<string, number>();
+  const counts: number[] = [];
+  let total = 0;
+  for (let s = 0; s < n; s++) {
+    if (!used[s]) continue;
+    let id = ids.get(satellite[s]!);
+    if (id === undefined) {
+      id = counts.length;
+      ids.set(satellite[s]!, id);
+      counts.push(0);
+    }
+    satId[s] = id;
+    counts[id]!++;
+    total++;
+  }
+  if (total < 10) return [];
+  const start = new Int32Array(counts.length + 1);
+  for (let id = 0; id < counts.length; id++) start[id + 1] = start[id]! + counts[id]!;
+  const fill = start.slice(0, counts.length);
+  const t = new Float64Array(total);
+  const z = new Float64Array(total);
+  let c0 = 0;
+  for (let k = 0; k + 1 < design.epochStart.length; k++) {
+    for (let s = design.epochStart[k]!; s < design.epochStart[k + 1]!; s++) {
+      if (!used[s]) continue;
+      const at = fill[satId[s]!]!++;
+      t[at] = design.epochMs[k]!;
+      const value = solution.fittedResidualM[s]! / design.sigmaM[s]!;
+      z[at] = value;
+      c0 += value * value;
+    }
+  }
+  if (!(c0 > 0)) return [];
+  c0 /= total;
+  const maxLag = Math.max(1, Math.min(Math.floor(MAX_LAG_S / (samplingMs / 1000)), 1000));
+  // Lags evaluated: every lag up to DENSE_LAGS, then every LAG_STEP-th (ρ is smooth there; the
+  // lags between are interpolated linearly).
+  const lags: number[] = [];
+  for (let m = 1; m <= maxLag; m += m < DENSE_LAGS ? 1 : LAG_STEP) lags.push(m);
+  const sums = new Float64Array(lags.length);
+  const pairs = new Float64Array(lags.length);
+  for (let id = 0; id < counts.length; id++) {
+    const end = start[id + 1]!;
+    for (let i = start[id]!; i < end; i++) {
+      const ti = t[i]!;
+      const zi = z[i]!;
+      // In an arc without gaps the partner m intervals on is m places on; where the arc has a gap
+      // the pair is skipped (pairs are lost independently of their values: no bias).
+      for (let l = 0; l < lags.length; l++) {
+        const m = lags[l]!;
+        const j = i + m;
+        if (j >= end) break;
+        if (Math.abs(t[j]! - ti - m * samplingMs) > 0.5) continue;
+        sums[l]! += zi * z[j]!;
+        pairs[l]!++;
+      }
+    }
+  }
+  const rho: number[] = [];
+  for (let l = 0; l < lags.length; l++) {
+    if (pairs[l]! < 10) break;
+    const r = sums[l]! / pairs[l]! / c0;
+    if (r < 2 / Math.sqrt(pairs[l]!)) break;
+    // Lags skipped since the previous evaluated one: linear between the two.
+    const previous = rho.length;
+    const m = lags[l]!;
+    const before = previous > 0 ? rho[previous - 1]! : 1;
+    for (let k = previous + 1; k < m; k++) rho.push(before + ((r - before) * (k - previous)) / (m - previous));
+    rho.push(r);
+  }
+  return rho;
+}
+
+/**
+ * Variance inflation factor of a random-walk state (see header).
+ *
+ * @param information I: information of the epoch on the parameter [1/m²]
+ * @param stepVariance Q: random-walk variance per sampling interval [m²]; null = no random walk
+ * @param rho ρ(1), ρ(2), …
+ */
+export function varianceInflation(information: number, stepVariance: number | null, rho: readonly number[]): number {
+  if (rho.length === 0 || !(information > 0)) return 1;
+  const lambda = kernelFactor(information, stepVariance);
+  let sum = 0;
+  if (lambda >= 1 - 1e-12) {
+    for (const r of rho) sum += r; // S(m)/S(0) → 1 for an unconstrained (constant) parameter
+  } else {
+    const l2 = lambda * lambda;
+    const s0 = (1 + l2) / (1 - l2);
+    let lm = 1;
+    for (let m = 1; m <= rho.length; m++) {
+      lm *= lambda;
+      sum += (rho[m - 1]! * lm * (2 / (1 - l2) + m - 1)) / s0;
+    }
+  }
+  const r = 1 + 2 * sum;
+  const noiseShare = (1 + lambda * lambda) / (1 + lambda) ** 2;
+  return Math.max(1, 1 + noiseShare * (r - 1));
+}
+
+/**
+ * λ of the smoother kernel w_j ∝ λ^|j|: the root in (0, 1] of λ + 1/λ = 2 + Q I (see header).
+ *
+ * @param information I [1/m²]  @param stepVariance Q [m²]; null = no random walk (λ = 1)
+ */
+export function kernelFactor(information: number, stepVariance: number | null): number {
+  const qi = stepVariance === null ? 0 : stepVariance * Math.max(information, 0);
+  return 1 + qi / 2 - Math.sqrt(qi + (qi * qi) / 4);
+}
+
+/**
+ * Per-epoch information of ZWD, north and east gradient: 1/(M⁻¹)_pp of the epoch's 3×3 (or
+ * M_WW without gradients) [1/m²]; 0 when the epoch has no data or M is singular.
+ */
+export function epochInformation(solution: Solution, k: number, withGradients: boolean): [number, number, number] {
+  const o = k * EPOCH_NORMAL_ENTRIES;
+  const e = solution.epochNormal;
+  const ww = e[o]!, wn = e[o + 1]!, we = e[o + 2]!, nn = e[o + 3]!, ne = e[o + 4]!, ee = e[o + 5]!;
+  if (!withGradients) return [ww, 0, 0];
+  // Cofactors of the symmetric 3×3.
+  const cWW = nn * ee - ne * ne;
+  const cNN = ww * ee - we * we;
+  const cEE = ww * nn - wn * wn;
+  const det = ww * cWW - wn * (wn * ee - ne * we) + we * (wn * ne - nn * we);
+  if (!(det > 0)) return [0, 0, 0];
+  return [det / cWW, det / cNN, det / cEE];
+}
