@@ -6,7 +6,7 @@
  *   Tm  = 70.2 + 0.72 Ts  [K]                               Bevis et al. (1992) (from memory)
  *   Π   = 10^6 / (ρw Rv (k3/Tm + k2'))                       Bevis et al. (1994);
  *                                                            ρw 1000, Rv 461.5, k3 3739 K²/Pa, k2' 0.221 K/Pa (from memory)
- *   PWV = Π (ZTD − ZHD);  σ_PWV² = (Π σ_ZTD)² + (ZWD ∂Π/∂Tm · 4.74 K)²   (Bevis 1992 Tm scatter, from memory)
+ *   PWV = Π (ZTD − ZHD);  σ_PWV: the σ budget written out in expectedPwv (sources there)
  *   met between hourly records: linear in time (common practice)
  * and against the documented rules of the route: source preference, interval means (arithmetic mean,
  * σ of the mean = mean σ for fully correlated errors, sample SD), time selections and limits.
@@ -51,28 +51,23 @@ function metInterpolated(s: TestStation, hoursAfter: number) {
   return { p: a.p + f * (b.p - a.p), t: a.t + f * (b.t - a.t) };
 }
 
-/**
- * PWV and its σ budget written out (the same budget as the station route; docs/model-notes.md): delay σ;
- * pressure σ 0.5 hPa and surface temperature σ 0.5 K (documented defaults: stored met has no sigmas);
- * ±0.0000005 m/hPa of the Saastamoinen constant (IERS 2010 eq. 9.11, from memory); the 4.74 K scatter of
- * the Bevis Tm; k2' ± 2.2 K/hPa and k3 ± 0.012e5 K²/hPa (Bevis et al. 1994, from memory).
- */
 function expectedPwv(s: TestStation, ztd: number, sigma: number, pHpa: number, tC: number) {
   const zhdOf = (p: number) => (0.0022768 * p) / (1 - 0.00266 * Math.cos((2 * s.lat * Math.PI) / 180) - 0.28e-6 * s.h);
-  const zhd = zhdOf(pHpa);
   const tm = 70.2 + 0.72 * (tC + 273.15);
   const pi = (x: number, k2 = 0.221, k3 = 3739) => 1e6 / (1000 * 461.5 * (k3 / x + k2));
-  const zwd = ztd - zhd;
+  const zwd = ztd - zhdOf(pHpa);
   const dPi = (pi(tm + 0.01) - pi(tm - 0.01)) / 0.02;
   const dPiDk2 = (pi(tm, 0.221 + 1e-4) - pi(tm, 0.221 - 1e-4)) / 2e-4;
   const dPiDk3 = (pi(tm, 0.221, 3739 + 0.01) - pi(tm, 0.221, 3739 - 0.01)) / 0.02;
+  // σ budget of the stored-series retrieval: delay σ; pressure σ 0.5 hPa and surface temperature σ 0.5 K
+  // (the documented defaults: stored met has no sigmas); ±0.0000005 m/hPa of the Saastamoinen constant
+  // (IERS 2010 eq. 9.11, from memory); 4.74 K scatter of the Bevis Tm; k2' ± 2.2 K/hPa and
+  // k3 ± 0.012e5 K²/hPa (Bevis et al. 1994, from memory).
   const pressureM = (zhdOf(pHpa + 0.5) - zhdOf(pHpa - 0.5)) / 2;
-  const zhdModelM = zhd * (0.0000005 / 0.0022768);
+  const zhdModelM = zhdOf(pHpa) * (0.0000005 / 0.0022768);
   const zwdSigma = Math.hypot(sigma, pressureM, zhdModelM);
-  return {
-    pwv: pi(tm) * zwd * 1000,
-    sigma: Math.hypot(pi(tm) * zwdSigma, zwd * dPi * 4.74, zwd * dPi * 0.72 * 0.5, zwd * dPiDk2 * 0.022, zwd * dPiDk3 * 12) * 1000,
-  };
+  const pwvSigma = Math.hypot(pi(tm) * zwdSigma, zwd * dPi * 4.74, zwd * dPi * 0.72 * 0.5, zwd * dPiDk2 * 0.022, zwd * dPiDk3 * 12);
+  return { pwv: pi(tm) * zwd * 1000, sigma: pwvSigma * 1000 };
 }
 
 /** Delays of the main source every 10 min 10:00..13:50 (24 rows); σ varies; one large σ at 11:20. */
