@@ -20,7 +20,7 @@
  * - Noise: σ_i² = a² + σ0²/sin²e (a = 0 by default); a share c of the variance is AR(1) per satellite arc with correlation
  *   time τ (exp(−Δt/τ) between samples of one arc), the rest white.
  * - Wet mapping: Niell (1996), or VMF1 (Boehm, Werl & Schuh 2006: Marini form with the caller's
- *   aw, b = 0.00146, c = 0.04391; from memory, as in published-constants.md) with aw changing
+ *   aw, b = 0.00146, c = 0.04391; from memory, as in docs/constants.md) with aw changing
  *   linearly over the day.
  * - Gross errors: ±(8..30) σ_i on distinct (epoch, satellite) pairs.
  * - A gap: no epochs in [gapStartS, gapEndS).
