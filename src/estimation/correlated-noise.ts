@@ -47,7 +47,13 @@ const LAG_STEP = 4;
  *
  * @param satellite satellite of each design observation
  */
-export function residualAutocorrelation(design: Design, solution: Solution, used: Uint8Array, satellite: readonly string[], samplingMs: number): number[] {
+export function residualAutocorrelation(
+  design: Design,
+  solution: Solution,
+  used: Uint8Array,
+  satellite: readonly string[],
+  samplingMs: number,
+): number[] {
   // Per satellite, its used observations in epoch order (the design is sorted by epoch), packed
   // satellite after satellite into t (epoch) and z (normalised residual).
   const n = used.length;
@@ -169,7 +175,12 @@ export function kernelFactor(information: number, stepVariance: number | null): 
 export function epochInformation(solution: Solution, k: number, withGradients: boolean): [number, number, number] {
   const o = k * EPOCH_NORMAL_ENTRIES;
   const e = solution.epochNormal;
-  const ww = e[o]!, wn = e[o + 1]!, we = e[o + 2]!, nn = e[o + 3]!, ne = e[o + 4]!, ee = e[o + 5]!;
+  const ww = e[o]!,
+    wn = e[o + 1]!,
+    we = e[o + 2]!,
+    nn = e[o + 3]!,
+    ne = e[o + 4]!,
+    ee = e[o + 5]!;
   if (!withGradients) return [ww, 0, 0];
   // Cofactors of the symmetric 3×3.
   const cWW = nn * ee - ne * ne;

@@ -30,7 +30,8 @@ function estimate(sky: Sky, options: Partial<ZwdEstimationOptions> = {}): ZwdEst
   });
 }
 
-const band = (out: ZwdEstimationOutput, lowerDeg: number) => out.statistics.elevationBands.find((b) => Math.abs(b.lowerRad - lowerDeg * DEG) < 1e-9)!;
+const band = (out: ZwdEstimationOutput, lowerDeg: number) =>
+  out.statistics.elevationBands.find((b) => Math.abs(b.lowerRad - lowerDeg * DEG) < 1e-9)!;
 const rmsError = (sky: Sky, out: ZwdEstimationOutput) =>
   Math.sqrt(out.epochs.reduce((s, e) => s + (e.correctionM - sky.zwdAt(e.epochMs)) ** 2, 0) / out.epochs.length);
 
@@ -88,7 +89,11 @@ describe('wet mapping function of the caller’s choice: VMF1 with per-epoch coe
   const sky = simulateSky({ seed: 6, correlatedShare: 0, grossErrors: 0, sigma0M: 0.01 * MM, vmf1Aw: [0.0005, 0.00066] });
   const start = Date.parse(sky.options.startIso);
   const hours = [0, 6, 12, 18, 24];
-  const coefficients = { epochMs: hours.map((h) => start + h * 3_600_000), ah: hours.map(() => 0.0012), aw: hours.map((h) => 0.0005 + (0.00016 * h) / 24) };
+  const coefficients = {
+    epochMs: hours.map((h) => start + h * 3_600_000),
+    ah: hours.map(() => 0.0012),
+    aw: hours.map((h) => 0.0005 + (0.00016 * h) / 24),
+  };
 
   it('VMF1 with the coefficients recovers the truth to the noise level (< 0.01 mm); Niell leaves > 0.05 mm', () => {
     const vmf1 = estimate(sky, { wetMapping: { model: 'vmf1', coefficients } });
@@ -112,7 +117,14 @@ describe('wet mapping function of the caller’s choice: VMF1 with per-epoch coe
 
 describe('nodes on round UTC epochs (issue 10 item 5)', () => {
   it('data from 00:02:30 to 05:57:30: 300-s nodes at 00:00, 00:05, … 06:00; 1-h gradient nodes on the hour', () => {
-    const sky = simulateSky({ seed: 7, durationS: 6 * 3600 - 300, startIso: '2026-06-21T00:02:30Z', gap: null, grossErrors: 0, correlatedShare: 0 });
+    const sky = simulateSky({
+      seed: 7,
+      durationS: 6 * 3600 - 300,
+      startIso: '2026-06-21T00:02:30Z',
+      gap: null,
+      grossErrors: 0,
+      correlatedShare: 0,
+    });
     const out = estimate(sky, { gradients: { ...DEFAULTS.gradients!, intervalS: 3600 } });
     expect(new Date(out.zwdNodes[0]!.epochMs).toISOString()).toBe('2026-06-21T00:00:00.000Z');
     expect(new Date(out.zwdNodes.at(-1)!.epochMs).toISOString()).toBe('2026-06-21T06:00:00.000Z');

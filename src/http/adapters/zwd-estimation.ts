@@ -138,8 +138,9 @@ export function zwdEstimatesResponseOf(r: ZwdEstimationResult, extraWarnings: re
       weighting_constant_m: s.weightingConstantM,
       weighting_elevation_m: s.weightingElevationM,
       elevation_bands: s.elevationBands.map((b) => ({
-        lower_deg: b.lowerRad / DEG,
-        upper_deg: b.upperRad / DEG,
+        // Band edges are whole degrees: rounded to 1e-6° so that 15° does not print as 14.999999999999998.
+        lower_deg: Math.round((b.lowerRad / DEG) * 1e6) / 1e6,
+        upper_deg: Math.round((b.upperRad / DEG) * 1e6) / 1e6,
         observations_used: b.observationsUsed,
         observations_rejected: b.observationsRejected,
         rms_m: b.rmsM,
