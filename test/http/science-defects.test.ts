@@ -187,7 +187,8 @@ describe('profile levels in geopotential heights are placed with the EGM96 undul
   const api = useApp();
 
   it('a site on the geoid (height_m = N) gets the column bottom at N and the same delays as with geoid_undulation_m = N', async () => {
-    const generated = column(evenHeightsM(1000, 0, 30_000), { surfaceRelativeHumidityPct: 60 }); // U.S. Standard Atmosphere (1976) generator
+    // U.S. Standard Atmosphere (1976) generator
+    const generated = column(evenHeightsM(1000, 0, 30_000), { surfaceRelativeHumidityPct: 60 });
     const site = { latitude_deg: 38.625473, longitude_deg: 359.9995 }; // N ≈ +50.0 m (NGA check point, from memory)
     const epoch = '2026-04-29T12:00:00Z';
     const levels = toApiLevels(generated, 'vapour_pressure_hpa', 'geopotential_height_m');
