@@ -217,7 +217,7 @@ export function parseRinexMet(text: string): RinexMetFile {
     const onFirstLine = Math.min(8, types.length);
     for (let k = 0; k < onFirstLine; k++) fields.push(line.slice(epochWidth + 7 * k, epochWidth + 7 * (k + 1)));
     checkNothingPast(line, epochWidth + 7 * onFirstLine, lineNo, types.length);
-    let last = { text: line, lineNo };
+    const recordLines = [{ text: line, lineNo, start: epochWidth }];
     for (let c = 0; c < continuationLines; c++) {
       const next = lines.next();
       if (next === undefined) {
@@ -226,10 +226,15 @@ export function parseRinexMet(text: string): RinexMetFile {
       const before = fields.length;
       for (let k = 0; k < 10 && fields.length < types.length; k++) fields.push(next.slice(4 + 7 * k, 4 + 7 * (k + 1)));
       checkNothingPast(next, 4 + 7 * (fields.length - before), lines.lineNo, types.length);
-      last = { text: next, lineNo: lines.lineNo };
+      recordLines.push({ text: next, lineNo: lines.lineNo, start: 4 });
     }
-    if (!lines.terminated && endsInsideField(last.text, last.lineNo === lineNo ? epochWidth : 4)) {
-      throw new RinexFormatError(last.lineNo, `the last record is partial: the file ends inside a field (F7.1, ${last.text.length} characters)`);
+    const cut = recordLines.find((l) => endsInsideField(l.text, l.start));
+    if (cut && !lines.terminated && cut === recordLines[recordLines.length - 1]) {
+      throw new RinexFormatError(cut.lineNo, `the last record is partial: the file ends inside a field (${cut.text.trimEnd().length} characters; fields are F7.1 from column ${cut.start + 1})`);
+    }
+    if (cut) {
+      rejected.push({ line: lineNo, reason: `line ${cut.lineNo} stops inside a field (${cut.text.trimEnd().length} characters; right-aligned F7.1 fields from column ${cut.start + 1}): the line was cut` });
+      continue;
     }
 
     const epoch = parseEpoch(line.slice(0, epochWidth), major);
