@@ -14,6 +14,18 @@ export const MAX_OBSERVATIONS = 500_000;
 export const MAX_MET_RECORDS = 100_000;
 /** Longest node interval of an estimation [s]: 30 days. */
 export const MAX_INTERVAL_S = 30 * 86_400;
+/**
+ * Columns of an uploaded CSV table. The widest legitimate table (an observation table) has 6; a
+ * header with more is refused before the table is parsed, so a header of 10^6 columns costs nothing.
+ */
+export const MAX_CSV_COLUMNS = 64;
+/**
+ * Output nodes of one estimation's answer (ZWD nodes plus gradient nodes), checked from the request's
+ * time span and node intervals before any work. The largest legitimate answer: 30 days of ZWD nodes
+ * at 30 s (86 401 nodes) with gradients at the default 6 h (121 nodes), rounded up; at ~310 bytes
+ * of JSON per node (measured, 2-epoch request) the nodes of an answer take at most ~28 MB.
+ */
+export const MAX_ANSWER_NODES = 90_000;
 /** Longest met gap interpolated across [s]: one day (also the window of stored met read around the observations). */
 export const MAX_MET_GAP_S = 86_400;
 /**

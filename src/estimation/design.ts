@@ -51,8 +51,7 @@ export interface NodeLayout {
 export function nodeLayout(firstEpochMs: number, lastEpochMs: number, intervalS: number, field: string): NodeLayout {
   const intervalMs = intervalS * 1000;
   const first = Math.floor(firstEpochMs / intervalMs + 1e-9) * intervalMs;
-  const spanIntervals = (lastEpochMs - first) / intervalMs;
-  const j = Math.max(0, Math.ceil(spanIntervals - 1e-9));
+  const j = nodeCount(firstEpochMs, lastEpochMs, intervalS) - 1;
   if (j + 1 > MAX_NODES) {
     throw new ModelDomainError(
       field,
@@ -63,6 +62,13 @@ export function nodeLayout(firstEpochMs: number, lastEpochMs: number, intervalS:
   const nodeMs = new Float64Array(j + 1);
   for (let i = 0; i <= j; i++) nodeMs[i] = first + i * intervalMs;
   return { nodeMs, intervalMs, count: j + 1, regular: true };
+}
+
+/** Nodes of nodeLayout for the epochs firstEpochMs..lastEpochMs [ms] at Δ = intervalS [s], without building them. */
+export function nodeCount(firstEpochMs: number, lastEpochMs: number, intervalS: number): number {
+  const intervalMs = intervalS * 1000;
+  const first = Math.floor(firstEpochMs / intervalMs + 1e-9) * intervalMs;
+  return Math.max(0, Math.ceil((lastEpochMs - first) / intervalMs - 1e-9)) + 1;
 }
 
 /** One state per epoch ("every-epoch"). */

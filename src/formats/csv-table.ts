@@ -9,7 +9,8 @@
  */
 
 import { CsvError, parse } from 'csv-parse/sync';
-import { MAX_CELL_CHARS } from '../limits.js';
+import { MAX_CELL_CHARS, MAX_CSV_COLUMNS } from '../limits.js';
+import { RecordLimitError } from './format-error.js';
 
 /** The text is not a table at all (a syntax error, no header); `line` is 1-based. */
 export class CsvFormatError extends Error {
@@ -49,16 +50,49 @@ export interface CsvReadOptions {
   comment?: string;
   /** Header names are compared in lower case. */
   lowercaseHeader?: boolean;
+  /**
+   * Data rows the table may hold: reading stops at row maxRecords + 1 (the rest of the text is not
+   * parsed) with a RecordLimitError naming `what`.
+   */
+  maxRecords?: { limit: number; what: string };
+}
+
+/**
+ * Separators in the first line that is not empty or a comment, counted up to MAX_CSV_COLUMNS: a
+ * header with more columns is refused before the parser builds it. Commas inside quotes count too,
+ * so this can only over-count a header that quotes commas in its names, which no accepted header does.
+ */
+function checkHeaderWidth(text: string, comment: string | undefined): void {
+  let start = text.charCodeAt(0) === 0xfeff ? 1 : 0;
+  for (let line = 1; start <= text.length; line++) {
+    const end = text.indexOf('\n', start);
+    const stop = end < 0 ? text.length : end;
+    const lineText = text.slice(start, stop).trim();
+    if (lineText !== '' && !(comment && lineText.startsWith(comment))) {
+      let commas = 0;
+      for (let k = lineText.indexOf(','); k >= 0; k = lineText.indexOf(',', k + 1)) {
+        if (++commas >= MAX_CSV_COLUMNS) throw new CsvFormatError(line, `the header has more than ${MAX_CSV_COLUMNS} columns; a table has at most ${MAX_CSV_COLUMNS}`);
+      }
+      return;
+    }
+    if (end < 0) return;
+    start = end + 1;
+  }
 }
 
 /**
  * @returns the table; an empty text (no header row) gives an empty `header`
- * @throws CsvFormatError for text that is not CSV
+ * @throws CsvFormatError for text that is not CSV or a header wider than MAX_CSV_COLUMNS
+ * @throws RecordLimitError when options.maxRecords is given and the table holds more data rows
  */
 export function readCsvTable(text: string, options: CsvReadOptions = {}): CsvTable {
+  checkHeaderWidth(text, options.comment);
+  const max = options.maxRecords;
   let parsed: { record: string[]; info: { lines: number } }[];
   try {
     parsed = parse(text, {
+      // header + limit + 1 data rows: one more than allowed is enough to refuse, and the parser stops there
+      ...(max ? { to: max.limit + 2 } : {}),
       info: true,
       skip_empty_lines: true,
       trim: true,
@@ -73,6 +107,7 @@ export function readCsvTable(text: string, options: CsvReadOptions = {}): CsvTab
     }
     throw err;
   }
+  if (max && parsed.length > max.limit + 1) throw new RecordLimitError(max.limit, parsed[max.limit + 1]!.info.lines, max.what);
   const first = parsed[0];
   if (!first) return { header: [], headerLine: 1, rows: [], problems: [] };
   const header = first.record.map((h) => (h.length > MAX_CELL_CHARS ? h.slice(0, 40) + '…' : options.lowercaseHeader ? h.toLowerCase() : h));

@@ -12,3 +12,19 @@ export class FormatError extends Error {
     super(`${field}: ${reason}`);
   }
 }
+
+/**
+ * An upload holds more records than the service takes (`limit`, e.g. MAX_MET_RECORDS). Thrown by a
+ * reader as soon as it meets record limit + 1 (`line`, 1-based), so the rest of the text is never
+ * parsed. The HTTP layer answers it with a 413 problem naming the limit.
+ */
+export class RecordLimitError extends Error {
+  override readonly name = 'RecordLimitError';
+  constructor(
+    readonly limit: number,
+    readonly line: number,
+    readonly what: string,
+  ) {
+    super(`more than ${limit} ${what} (record ${limit + 1} at line ${line}); an upload holds at most ${limit}: split it`);
+  }
+}

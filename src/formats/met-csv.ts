@@ -10,6 +10,7 @@
 
 import { CsvFormatError, readCsvTable, type CsvRowProblem } from './csv-table.js';
 import { readNumber } from './number-text.js';
+import { MAX_MET_RECORDS } from '../limits.js';
 
 export { CsvFormatError, csvCell, type CsvRowProblem } from './csv-table.js';
 
@@ -26,9 +27,15 @@ export interface CsvRow {
  * @param columns allowed column names; `required` must all be present
  * @returns the rows as objects keyed by column name, and the rows that could not be read
  * @throws CsvFormatError when the text is not a CSV table with an allowed header
+ * @throws RecordLimitError (format-error.ts) when the table has more than `maxRecords` data rows
  */
-export function parseCsvTable(text: string, columns: readonly string[], required: readonly string[]): { rows: CsvRow[]; problems: CsvRowProblem[] } {
-  const table = readCsvTable(text, { lowercaseHeader: true });
+export function parseCsvTable(
+  text: string,
+  columns: readonly string[],
+  required: readonly string[],
+  maxRecords?: { limit: number; what: string },
+): { rows: CsvRow[]; problems: CsvRowProblem[] } {
+  const table = readCsvTable(text, { lowercaseHeader: true, ...(maxRecords ? { maxRecords } : {}) });
   if (table.header.length === 0) throw new CsvFormatError(1, `empty; the first row must name the columns (${columns.join(', ')})`);
   const { header, headerLine } = table;
   for (const name of header) {
@@ -51,7 +58,7 @@ export function parseCsvTable(text: string, columns: readonly string[], required
   return { rows, problems: table.problems.map(({ line, reason }) => ({ line, reason })) };
 }
 
-/** Met table: the columns of MET_CSV_COLUMNS, epoch required. */
+/** Met table: the columns of MET_CSV_COLUMNS, epoch required, at most MAX_MET_RECORDS rows (RecordLimitError past them). */
 export function parseMetCsv(text: string): { rows: CsvRow[]; problems: CsvRowProblem[] } {
-  return parseCsvTable(text, MET_CSV_COLUMNS, ['epoch']);
+  return parseCsvTable(text, MET_CSV_COLUMNS, ['epoch'], { limit: MAX_MET_RECORDS, what: 'met records' });
 }

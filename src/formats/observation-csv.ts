@@ -13,6 +13,7 @@
 import { CsvFormatError, readCsvTable } from './csv-table.js';
 import { FormatError } from './format-error.js';
 import { readNumber } from './number-text.js';
+import { MAX_OBSERVATIONS } from '../limits.js';
 
 export const OBSERVATION_CSV_REQUIRED_COLUMNS = ['epoch', 'satellite', 'elevation_deg', 'azimuth_deg', 'residual_m'] as const;
 export const OBSERVATION_CSV_OPTIONAL_COLUMNS = ['sigma_m'] as const;
@@ -30,7 +31,7 @@ export type ObservationCsvRecord = Record<string, string | number>;
 export function readObservationCsv(text: string): ObservationCsvRecord[] {
   let table;
   try {
-    table = readCsvTable(text, { comment: '#' });
+    table = readCsvTable(text, { comment: '#', maxRecords: { limit: MAX_OBSERVATIONS, what: 'observations' } });
   } catch (err) {
     if (err instanceof CsvFormatError) throw new FormatError('body', err.message.replace(/^CSV line \d+: /, ''));
     throw err;

@@ -20,13 +20,22 @@
  * increment, HI hail indicator, and any other code) are ignored; the reader counts their values in the records it accepts.
  * A blank field is a missing value. A record with neither PR nor TD is rejected, as is one with a
  * value that is not a number or lies outside the service's ranges (PR 300–1100 hPa, TD −90–60 °C,
- * HR 0–100 %). A header that breaks the format is an error for the whole file.
+ * HR 0–100 %). A header that breaks the format is an error for the whole file, and so is a
+ * "# / TYPES OF OBSERV" line listing more codes than its count declares, a data record with values
+ * past the declared types (the header lies about the types: no column is dropped silently), and a
+ * partial last record (continuation lines missing at the end, or a last line without a line end that
+ * stops inside a field). A UTF-8 byte-order mark before the first line is skipped.
+ *
+ * At most MAX_MET_RECORDS records (accepted and rejected): the reader stops at the next epoch line
+ * with a RecordLimitError, without reading the rest of the text.
  *
  * Pure: text in, values out; no I/O.
  */
 
 import { readNumber } from './number-text.js';
+import { RecordLimitError } from './format-error.js';
 import { gpsToUtcMs } from '../domain/time-scales.js';
+import { MAX_MET_RECORDS } from '../limits.js';
 
 export const USED_RINEX_MET_TYPES = ['PR', 'TD', 'HR'] as const;
 export type UsedRinexMetType = (typeof USED_RINEX_MET_TYPES)[number];
@@ -81,8 +90,30 @@ const label = (line: string) => line.slice(60, 80).trim();
 
 /** True when the text starts like a RINEX meteorological file (first line label and type 'M'). */
 export function looksLikeRinexMet(text: string): boolean {
-  const first = text.slice(0, 200).split(/\r?\n/, 1)[0] ?? '';
+  const first = withoutBom(text).slice(0, 200).split(/\r?\n/, 1)[0] ?? '';
   return label(first) === 'RINEX VERSION / TYPE' && first[20] === 'M';
+}
+
+const withoutBom = (text: string) => (text.charCodeAt(0) === 0xfeff ? text.slice(1) : text);
+
+/** The lines of a text one at a time (\n or \r\n), so that a reader that stops early never splits the rest. */
+class LineCursor {
+  private pos = 0;
+  /** 1-based number of the line returned last. */
+  lineNo = 0;
+  /** The line returned last ended with a line break. */
+  terminated = false;
+  constructor(private readonly text: string) {}
+  next(): string | undefined {
+    if (this.pos > this.text.length) return undefined;
+    const end = this.text.indexOf('\n', this.pos);
+    const stop = end < 0 ? this.text.length : end;
+    const line = this.text.slice(this.pos, stop > this.pos && this.text.charCodeAt(stop - 1) === 13 ? stop - 1 : stop);
+    this.terminated = end >= 0;
+    this.pos = end < 0 ? this.text.length + 1 : end + 1;
+    this.lineNo++;
+    return line;
+  }
 }
 
 function parseField(raw: string): number | null | 'bad' {
@@ -91,9 +122,13 @@ function parseField(raw: string): number | null | 'bad' {
   return readNumber(s, { fortranExponent: true }) ?? 'bad';
 }
 
+/**
+ * @throws RinexFormatError when the file breaks the format (header, a lying type count, a partial last record)
+ * @throws RecordLimitError at record MAX_MET_RECORDS + 1
+ */
 export function parseRinexMet(text: string): RinexMetFile {
-  const lines = text.split(/\r?\n/);
-  const first = lines[0] ?? '';
+  const lines = new LineCursor(withoutBom(text));
+  const first = lines.next() ?? '';
   if (label(first) !== 'RINEX VERSION / TYPE') {
     throw new RinexFormatError(1, 'the first line must carry the label "RINEX VERSION / TYPE" in columns 61-80');
   }
@@ -111,15 +146,12 @@ export function parseRinexMet(text: string): RinexMetFile {
   const types: string[] = [];
   let declaredTypes: number | null = null;
   const sensors: RinexMetSensor[] = [];
-  let i = 1;
   let endOfHeader = false;
-  for (; i < lines.length; i++) {
-    const line = lines[i]!;
-    const lineNo = i + 1;
+  for (let line = lines.next(); line !== undefined; line = lines.next()) {
+    const lineNo = lines.lineNo;
     const what = label(line);
     if (what === 'END OF HEADER') {
       endOfHeader = true;
-      i++;
       break;
     }
     if (what === 'MARKER NAME') markerName = line.slice(0, 60).trim() || null;
@@ -134,12 +166,17 @@ export function parseRinexMet(text: string): RinexMetFile {
       } else if (declaredTypes === null) {
         throw new RinexFormatError(lineNo, 'a continuation of "# / TYPES OF OBSERV" before its first line');
       }
+      const typesBefore = types.length;
       for (let k = 0; k < 9 && types.length < declaredTypes; k++) {
         const code = line.slice(10 + 6 * k, 12 + 6 * k).trim();
         if (!/^[A-Z]{2}$/.test(code)) {
           throw new RinexFormatError(lineNo, `observation type ${types.length + 1} "${code}" is not a two-letter code (4X,A2 fields from column 7)`);
         }
         types.push(code);
+      }
+      const extra = listedCodes(line).length - (types.length - typesBefore);
+      if (extra > 0) {
+        throw new RinexFormatError(lineNo, `the line lists ${extra} observation type(s) more than the declared ${declaredTypes} ("# / TYPES OF OBSERV" count, columns 1-6); the header must declare every type`);
       }
     } else if (what === 'SENSOR MOD/TYPE/ACC') {
       const accuracy = parseField(line.slice(46, 53));
@@ -156,12 +193,13 @@ export function parseRinexMet(text: string): RinexMetFile {
       if (sensor && typeof h === 'number') sensor.heightM = h;
     }
   }
-  if (!endOfHeader) throw new RinexFormatError(lines.length, 'no "END OF HEADER" line');
+  if (!endOfHeader) throw new RinexFormatError(lines.lineNo, 'no "END OF HEADER" line');
+  const headerEnd = lines.lineNo;
   if (declaredTypes === null || types.length !== declaredTypes) {
-    throw new RinexFormatError(i, `the header must declare the observation types ("# / TYPES OF OBSERV"); found ${types.length} of ${declaredTypes ?? 0}`);
+    throw new RinexFormatError(headerEnd, `the header must declare the observation types ("# / TYPES OF OBSERV"); found ${types.length} of ${declaredTypes ?? 0}`);
   }
   if (!types.some((t) => t === 'PR' || t === 'TD')) {
-    throw new RinexFormatError(i, `the file has neither PR (pressure) nor TD (dry temperature) among its types (${types.join(', ')})`);
+    throw new RinexFormatError(headerEnd, `the file has neither PR (pressure) nor TD (dry temperature) among its types (${types.join(', ')})`);
   }
 
   const epochWidth = major === 2 ? 18 : 20;
@@ -170,17 +208,33 @@ export function parseRinexMet(text: string): RinexMetFile {
   const rejected: { line: number; reason: string }[] = [];
   const ignoredValues: Record<string, number> = {};
 
-  for (; i < lines.length; i++) {
-    const line = lines[i]!;
-    const lineNo = i + 1;
+  let recordCount = 0;
+  for (let line = lines.next(); line !== undefined; line = lines.next()) {
+    const lineNo = lines.lineNo;
     if (line.trim() === '') continue;
+    if (++recordCount > MAX_MET_RECORDS) throw new RecordLimitError(MAX_MET_RECORDS, lineNo, 'met records');
     const fields: string[] = [];
-    for (let k = 0; k < Math.min(8, types.length); k++) fields.push(line.slice(epochWidth + 7 * k, epochWidth + 7 * (k + 1)));
+    const onFirstLine = Math.min(8, types.length);
+    for (let k = 0; k < onFirstLine; k++) fields.push(line.slice(epochWidth + 7 * k, epochWidth + 7 * (k + 1)));
+    checkNothingPast(line, epochWidth + 7 * onFirstLine, lineNo, types.length);
+    const recordLines = [{ text: line, lineNo, start: epochWidth }];
     for (let c = 0; c < continuationLines; c++) {
-      const next = lines[i + 1];
-      if (next === undefined) break;
-      i++;
+      const next = lines.next();
+      if (next === undefined) {
+        throw new RinexFormatError(lineNo, `the last record is partial: ${continuationLines - c} of its ${continuationLines} continuation line(s) are missing at the end of the file`);
+      }
+      const before = fields.length;
       for (let k = 0; k < 10 && fields.length < types.length; k++) fields.push(next.slice(4 + 7 * k, 4 + 7 * (k + 1)));
+      checkNothingPast(next, 4 + 7 * (fields.length - before), lines.lineNo, types.length);
+      recordLines.push({ text: next, lineNo: lines.lineNo, start: 4 });
+    }
+    const cut = recordLines.find((l) => endsInsideField(l.text, l.start));
+    if (cut && !lines.terminated && cut === recordLines[recordLines.length - 1]) {
+      throw new RinexFormatError(cut.lineNo, `the last record is partial: the file ends inside a field (${cut.text.trimEnd().length} characters; fields are F7.1 from column ${cut.start + 1})`);
+    }
+    if (cut) {
+      rejected.push({ line: lineNo, reason: `line ${cut.lineNo} stops inside a field (${cut.text.trimEnd().length} characters; right-aligned F7.1 fields from column ${cut.start + 1}): the line was cut` });
+      continue;
     }
 
     const epoch = parseEpoch(line.slice(0, epochWidth), major);
@@ -234,6 +288,32 @@ export function parseRinexMet(text: string): RinexMetFile {
   }
 
   return { version: versionText, markerName, observationTypes: types, sensors, records, rejected, ignoredValues };
+}
+
+/** The type codes a "# / TYPES OF OBSERV" line lists (4X,A2 fields from column 7, up to the label). */
+function listedCodes(line: string): string[] {
+  const codes: string[] = [];
+  for (let k = 0; k < 9; k++) {
+    const code = line.slice(10 + 6 * k, 12 + 6 * k).trim();
+    if (code !== '') codes.push(code);
+  }
+  return codes;
+}
+
+/** A data line carries nothing past its declared fields, else the header lies about the number of types. */
+function checkNothingPast(line: string, end: number, lineNo: number, declared: number): void {
+  if (line.length > end && line.slice(end).trim() !== '') {
+    throw new RinexFormatError(lineNo, `values past the ${declared} declared observation types (from column ${end + 1}); the header's "# / TYPES OF OBSERV" must list every type of the records`);
+  }
+}
+
+/**
+ * The line stops inside its epoch or inside an F7.1 field (fields start at column `start` + 1), i.e.
+ * it was cut; values are right-aligned, so a whole line ends on a field boundary.
+ */
+function endsInsideField(line: string, start: number): boolean {
+  const end = line.trimEnd().length;
+  return end === 0 ? false : end < start || (end - start) % 7 !== 0;
 }
 
 /** @returns the GPS calendar reading encoded as UTC ms, or the reason it is not an epoch */

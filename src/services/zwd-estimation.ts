@@ -20,6 +20,7 @@ import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
 import { estimateZwd } from '../estimation/estimate.js';
 import type { ZwdEstimationOptions, ZwdEstimationOutput, ZwdObservationColumns } from '../estimation/types.js';
 import type { MetColumns } from './station-met.js';
+import { checkAnswerSize } from './answer-size.js';
 import { collapseByCode, warning, type Warning } from './warnings.js';
 import { optionModels, type ZwdOptionValues } from './zwd-options.js';
 
@@ -158,6 +159,7 @@ function metPerEpoch(request: ZwdEstimationRequest, output: ZwdEstimationOutput,
  */
 export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationResult {
   const { site, options } = request;
+  checkAnswerSize(request.observations.epochMs, options);
   const latitudeRad = site.latitudeDeg * DEG;
   const warnings: Warning[] = [];
   const zhdSource = request.apriori.zhdM === undefined ? ('standard-atmosphere' as const) : ('caller' as const);

@@ -173,3 +173,35 @@ describe('RINEX met writer: output follows the same published layout', () => {
     expect(parseRinexMet(text).records[0]).toMatchObject({ pressureHpa: 1001.3, temperatureC: 21.4, relativeHumidityPct: 45 });
   });
 });
+
+describe('RINEX met reader: a lying type count, a BOM, a partial last record (issue 11, lower items)', () => {
+  const lines = RINEX_211.split('\n');
+  const TYPES_LINE = 4; // 0-based: "     4    PR    TD    HR    WS ... # / TYPES OF OBSERV"
+
+  it('refuses a "# / TYPES OF OBSERV" line that lists more codes than its count, naming the line', () => {
+    const lying = lines.map((l, k) => (k === TYPES_LINE ? '     3' + l.slice(6) : l)).join('\n');
+    expect(() => parseRinexMet(lying)).toThrow(/line 5: the line lists 1 observation type\(s\) more than the declared 3/);
+  });
+
+  it('refuses a data record with values past the declared types, naming the line', () => {
+    const extra = [...lines.slice(0, 10), lines[10] + '   55.5'].join('\n');
+    expect(() => parseRinexMet(extra)).toThrow(/line 11: values past the 4 declared observation types/);
+  });
+
+  it('accepts a UTF-8 byte-order mark before the first line', () => {
+    const withBom = '\uFEFF' + RINEX_211;
+    expect(looksLikeRinexMet(withBom)).toBe(true);
+    expect(parseRinexMet(withBom)).toEqual(parseRinexMet(RINEX_211));
+  });
+
+  it('refuses a last record cut inside a field or missing its continuation line, naming the line', () => {
+    const cut = [...lines.slice(0, 10), lines[10]!.slice(0, 30)].join('\n'); // 18 + 12 characters: inside the 2nd F7.1 field
+    expect(() => parseRinexMet(cut)).toThrow(/line 11: the last record is partial/);
+    // The same line with a line end (not at the end of the file): that record is rejected, not read as TD 10.
+    const file = parseRinexMet(cut + '\n' + lines[10]);
+    expect(file.rejected).toEqual([{ line: 11, reason: expect.stringMatching(/line 11 stops inside a field/) }]);
+    expect(file.records.map((r) => r.line)).toEqual([10, 12]);
+    const noContinuation = RINEX_304.split('\r\n').slice(0, 7).join('\r\n'); // 10 types: one continuation line is due
+    expect(() => parseRinexMet(noContinuation)).toThrow(/line 7: the last record is partial: 1 of its 1 continuation line/);
+  });
+});

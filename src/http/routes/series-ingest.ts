@@ -6,6 +6,7 @@
  */
 
 import type { z } from 'zod';
+import { RecordLimitError } from '../../formats/format-error.js';
 import { CsvFormatError, parseMetCsv } from '../../formats/met-csv.js';
 import { looksLikeRinexMet, parseRinexMet, RinexFormatError } from '../../formats/rinex-met.js';
 import type { MetRow } from '../../storage/repository.js';
@@ -74,6 +75,9 @@ const toRow = (epochMs: number, source: string, r: z.infer<typeof metRecordSchem
   vapourPressureHpa: r.vapour_pressure_hpa ?? null,
 });
 
+/** More records than an upload holds: a 413 naming the limit (the reader stopped at the first one past it). */
+const tooManyRecords = (err: RecordLimitError) => new HttpProblem(413, err.message, [{ field: 'body', message: `at most ${err.limit} records per upload; record ${err.limit + 1} is at line ${err.line}` }]);
+
 export function readMetUpload(body: unknown, contentType: string, source: string): MetUpload {
   const rejected: Rejected[] = [];
   if (typeof body !== 'string') {
@@ -93,6 +97,7 @@ export function readMetUpload(body: unknown, contentType: string, source: string
       table = parseMetCsv(body);
     } catch (err) {
       if (err instanceof CsvFormatError) throw new HttpProblem(400, `the body is not a met CSV table: ${err.message}`, [{ field: 'body', message: err.message }]);
+      if (err instanceof RecordLimitError) throw tooManyRecords(err);
       throw err;
     }
     rejected.push(...table.problems);
@@ -118,6 +123,7 @@ export function readMetUpload(body: unknown, contentType: string, source: string
     file = parseRinexMet(body);
   } catch (err) {
     if (err instanceof RinexFormatError) throw new HttpProblem(400, err.message, [{ field: `body line ${err.line}`, message: err.message }]);
+    if (err instanceof RecordLimitError) throw tooManyRecords(err);
     throw err;
   }
   rejected.push(...file.rejected);

@@ -11,7 +11,7 @@
 
 import { ModelDomainError } from '../../domain/errors.js';
 import type { Site } from '../../domain/site.js';
-import { FormatError } from '../../formats/format-error.js';
+import { FormatError, RecordLimitError } from '../../formats/format-error.js';
 import { readObservationCsv } from '../../formats/observation-csv.js';
 import { CallerError } from '../../services/caller-error.js';
 import type { MetColumns } from '../../services/station-met.js';
@@ -90,6 +90,7 @@ function rawBody(input: ZwdRequestTaskInput, text: string, siteKnown: boolean): 
 /** Errors of the caller's making as data; anything else is rethrown (a 500). */
 function asOutcome(err: unknown): TaskOutcome<never> {
   if (err instanceof FormatError) return fail(400, [{ field: err.field, message: err.reason }]);
+  if (err instanceof RecordLimitError) return fail(413, [{ field: 'body', message: err.message }]);
   if (err instanceof CallerError) return { ok: false, error: { status: err.status, detail: err.message, ...(err.errors.length ? { errors: err.errors } : {}) } };
   if (err instanceof ModelDomainError) return fail(err.status, [{ field: err.field, message: err.message }]);
   throw err;
