@@ -10,6 +10,26 @@ import { COEFFICIENTS_HEIGHT_REFERENCES } from '../../domain/mapping/types.js';
 import { DEFAULT_COEFFICIENTS_HEIGHT_REFERENCE } from '../../domain/mapping/vmf1.js';
 import { GRADIENT_MODEL_KEYS } from '../../domain/gradients/gradient-mapping.js';
 import { WET_MODEL_KEYS } from '../../domain/zenith/wet.js';
+import { unknownKeyMessage } from '../field-errors.js';
+
+/**
+ * Every object of a request (JSON bodies, query strings, path parameters) is made with this: an
+ * unknown key is a 400 naming the key and the closest known one ("met.pressure: unknown key; did
+ * you mean pressure_hpa?"), never silently dropped. The message has one line per unknown key;
+ * field-errors.ts splits it into one field error per key. The known keys are read from the schema
+ * that raised the issue, so `.extend()`/`.omit()` of a strict object suggest from their own keys.
+ * In the OpenAPI document the objects have `additionalProperties: false`.
+ */
+export function strictObject<T extends z.core.$ZodLooseShape>(shape: T) {
+  return z.strictObject(shape, {
+    error: (issue) => {
+      if (issue.code !== 'unrecognized_keys') return undefined;
+      const inst = issue.inst as { _zod?: { def?: { shape?: Record<string, unknown> } } } | undefined;
+      const known = Object.keys(inst?._zod?.def?.shape ?? shape);
+      return issue.keys.map((k) => unknownKeyMessage(k, known)).join('\n');
+    },
+  });
+}
 
 interface RangeOptions {
   /** The lower bound itself is not allowed, e.g. elevation (0, 90]. */
@@ -49,8 +69,8 @@ export const SITE_RANGES = {
   height: [-500, 9000],
 } as const;
 
-export const siteSchema = z
-  .object({
+export const siteSchema =
+  strictObject({
     latitude_deg: bounded(-90, 90, 'deg', 'Geodetic latitude'),
     longitude_deg: bounded(-180, 360, 'deg', 'Longitude, east positive'),
     height_m: bounded(-500, 9000, 'm', 'Height above the WGS84 ellipsoid'),
@@ -83,8 +103,8 @@ export const mappingModelSchema = keyEnum(MAPPING_MODEL_KEYS, 'Mapping function'
 export const wetModelSchema = keyEnum(WET_MODEL_KEYS, 'Zenith wet delay model');
 export const gradientModelSchema = keyEnum(GRADIENT_MODEL_KEYS, 'Gradient mapping function');
 
-export const vmf1CoefficientsSchema = z
-  .object({
+export const vmf1CoefficientsSchema =
+  strictObject({
     ah: bounded(0.0005, 0.002, '', 'VMF1 hydrostatic a coefficient'),
     aw: bounded(0, 0.001, '', 'VMF1 wet a coefficient'),
     height_reference: z
@@ -97,8 +117,8 @@ export const vmf1CoefficientsSchema = z
   .describe('Coefficients for model "vmf1", from the VMF1 grids or site files for the epoch');
 
 /** Met at a site, partial allowed; at most one humidity quantity. */
-export const metSchema = z
-  .object({
+export const metSchema =
+  strictObject({
     pressure_hpa: pressureHpa().optional(),
     temperature_c: temperatureC().optional(),
     relative_humidity_pct: relativeHumidityPct().optional(),

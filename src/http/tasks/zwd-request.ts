@@ -20,6 +20,7 @@ import type { TaskOutcome } from '../../workers/task-outcome.js';
 import { toZwdRequest, zwdEstimatesResponseOf } from '../adapters/zwd-estimation.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
 import type { FieldError } from '../problem.js';
+import { stationZwdEstimatesQuery } from '../schemas/station-zwd-estimates.js';
 import { optionsFromQuery, zwdCsvQuerySchema, zwdEstimatesRequest, zwdEstimationBody, type ZwdEstimationBody } from '../schemas/zwd-estimates.js';
 
 export interface ZwdRequestTaskInput {
@@ -67,7 +68,8 @@ function rawBody(input: ZwdRequestTaskInput, text: string, siteKnown: boolean): 
       throw new FormatError('body', `not valid JSON (${err instanceof Error ? err.message : String(err)})`);
     }
   }
-  const parsed = zwdCsvQuerySchema.safeParse(input.query ?? {});
+  // A station's site is the stored one: site parameters are unknown keys there, not silently ignored.
+  const parsed = (siteKnown ? stationZwdEstimatesQuery : zwdCsvQuerySchema).safeParse(input.query ?? {});
   if (!parsed.success) {
     const errors = issuesToFieldErrors(parsed.error.issues, 'query');
     throw new CallerError(400, detailOf(errors), errors);
