@@ -11,6 +11,7 @@ import { DEFAULT_COEFFICIENTS_HEIGHT_REFERENCE } from '../../domain/mapping/vmf1
 import { GRADIENT_MODEL_KEYS } from '../../domain/gradients/gradient-mapping.js';
 import { WET_MODEL_KEYS } from '../../domain/zenith/wet.js';
 import { unknownKeyMessage } from '../field-errors.js';
+import { STORED_GRADIENT_RANGE_M, STORED_ZTD_RANGE_M, STORED_ZWD_RANGE_M } from '../../limits.js';
 
 /**
  * Every object of a request (JSON bodies, query strings, path parameters) is made with this: an
@@ -87,10 +88,10 @@ export const temperatureC = (description = 'Air temperature') => bounded(-90, 60
 export const relativeHumidityPct = () => bounded(0, 100, '%', 'Relative humidity with respect to water');
 export const dewpointC = () => bounded(-90, 60, '°C', 'Dew-point temperature');
 export const vapourPressureHpa = () => bounded(0, 200, 'hPa', 'Water vapour pressure');
-export const zwdM = (description = 'Zenith wet delay') => bounded(0, 1, 'm', description);
-export const ztdM = (description = 'Zenith total delay') => bounded(1, 3, 'm', description);
+export const zwdM = (description = 'Zenith wet delay') => bounded(STORED_ZWD_RANGE_M[0], STORED_ZWD_RANGE_M[1], 'm', description);
+export const ztdM = (description = 'Zenith total delay') => bounded(STORED_ZTD_RANGE_M[0], STORED_ZTD_RANGE_M[1], 'm', description);
 export const zhdM = (description = 'Zenith hydrostatic delay') => bounded(1, 3, 'm', description);
-export const gradientM = (description: string) => bounded(-0.05, 0.05, 'm', description);
+export const gradientM = (description: string) => bounded(STORED_GRADIENT_RANGE_M[0], STORED_GRADIENT_RANGE_M[1], 'm', description);
 export const elevationDeg = () =>
   bounded(0, 90, 'deg', 'Vacuum (geometric) elevation angle; below 3° the answer carries a warning; mapping functions refuse elevations below 1° (a profile is still traced there)', { exclusiveMin: true });
 export const azimuthDeg = () => bounded(0, 360, 'deg', 'Azimuth from north through east');

@@ -15,7 +15,7 @@ import { FormatError } from '../../formats/format-error.js';
 import { readObservationCsv } from '../../formats/observation-csv.js';
 import { CallerError } from '../../services/caller-error.js';
 import type { MetColumns } from '../../services/station-met.js';
-import { delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
+import { checkStorableDelays, delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import { toZwdRequest, zwdEstimatesResponseOf } from '../adapters/zwd-estimation.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
@@ -126,13 +126,15 @@ export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<Task
       ...(metUsed === 'archive' ? [`met: ${request.met!.epochMs.length} records of the station's stored met series`] : []),
       ...(metUsed === 'none' ? ['met: neither in the request nor stored for this station around the observations; no ZHD or PWV per epoch'] : []),
     ];
+    const delays = delayColumns(result);
+    checkStorableDelays(delays);
     const json = JSON.stringify({ ...zwdEstimatesResponseOf(result, metWarnings), met_used: metUsed });
     return {
       ok: true,
       output: {
         json: utf8(json.slice(0, -1)),
         observations: body.observations.length,
-        delays: delayColumns(result),
+        delays,
         modelFingerprint: result.modelFingerprint,
         models: result.models,
       },
