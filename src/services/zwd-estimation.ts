@@ -21,6 +21,7 @@ import { estimateZwd } from '../estimation/estimate.js';
 import type { ZwdEstimationOptions, ZwdEstimationOutput, ZwdObservationColumns } from '../estimation/types.js';
 import { STORED_ZTD_RANGE_M } from '../limits.js';
 import { CallerError } from './caller-error.js';
+import { guardResidualUnit, negativeZwdWarning } from './unit-guards.js';
 import type { MetColumns } from './station-met.js';
 import { collapseByCode, warning, type Warning } from './warnings.js';
 import { optionModels, type ZwdOptionValues } from './zwd-options.js';
@@ -174,6 +175,7 @@ export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationRe
     );
   }
 
+  guardResidualUnit(request.observations.epochMs, request.observations.residualM);
   const estimate = estimateZwd({ latitudeRad, heightM: request.site.heightM, observations: request.observations, options: toEstimatorOptions(options) });
   warnings.push(...estimate.warnings.map((text) => warning('estimator', text)));
 
@@ -189,6 +191,8 @@ export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationRe
       ),
     );
   }
+  const negative = negativeZwdWarning(estimate.epochs.map((e, k) => epochMet?.[k]?.zwdM ?? aprioriZwdM + e.correctionM));
+  if (negative) warnings.push(negative);
   const { models, model_fingerprint } = provenance(zwdModels(options, zhdSource));
   return { estimate, aprioriZhdM, aprioriZwdM, zhdSource, epochMet, models, modelFingerprint: model_fingerprint, warnings };
 }

@@ -31,12 +31,30 @@ describe(`station estimation and the stored range (${backend.name})`, () => {
     expect(res.body.rejected?.length ?? (res.status >= 400 ? 1 : 0)).toBe(1);
   });
 
-  it('residuals in millimetres: 422 naming observations and the epochs, nothing stored', async () => {
-    const res = await api().post('/v1/stations/MMRES/zwd-estimates').set('authorization', auth).send({ observations: inMillimetres }).expect(422);
+  it('residuals in millimetres: 400 from the unit guard (src/services/unit-guards.ts), nothing stored', async () => {
+    const res = await api().post('/v1/stations/MMRES/zwd-estimates').set('authorization', auth).send({ observations: inMillimetres }).expect(400);
+    expect(res.body.errors[0].field).toBe('observations');
+    expect(res.body.detail).toMatch(/look like millimetres; send residual_m \(and sigma_m\) in metres/);
+    const stored = await api().get('/v1/stations/MMRES/delays').expect(200);
+    expect(stored.body.records ?? []).toHaveLength(0);
+  });
+
+  it('a ZTD above 3 m (a-priori ZHD 2.9 m + ZWD 0.9 m): 422 naming observations and the epochs, nothing stored', async () => {
+    const res = await api()
+      .post('/v1/stations/MMRES/zwd-estimates')
+      .set('authorization', auth)
+      .send({ observations, apriori: { zhd_m: 2.9, zwd_m: 0.9 } })
+      .expect(422);
     expect(res.body.errors[0].field).toBe('observations');
     expect(res.body.detail).toMatch(/outside the stored range \[1, 3\] m at \d+ epochs: \d{4}-\d\d-\d\dT/);
     const stored = await api().get('/v1/stations/MMRES/delays').expect(200);
     expect(stored.body.records ?? []).toHaveLength(0);
+  });
+
+  it('residuals with the opposite sign: stored with a zwd-negative warning', async () => {
+    const flipped = observations.map((o) => ({ ...o, residual_m: -o.residual_m }));
+    const res = await api().post('/v1/stations/MMRES/zwd-estimates?source=flipped').set('authorization', auth).send({ observations: flipped, apriori: { zwd_m: 0 } });
+    expect(JSON.stringify(res.body.warnings ?? res.body)).toMatch(/ZWD is never negative|below -10 mm/);
   });
 
   it('the same residuals in metres are stored (the guard does not refuse a valid series)', async () => {
