@@ -36,3 +36,12 @@ export const MAX_MET_GAP_S = 86_400;
 export const MAX_CELL_CHARS = 256;
 /** Longest query-string value [characters], checked before any pattern runs on it. */
 export const MAX_QUERY_VALUE_CHARS = 256;
+/**
+ * Ranges of a stored delay series [m]: a deposit outside them is refused, and so is a station
+ * estimation whose result falls outside them (it must never store what a deposit could not).
+ * ZTD 1..3 m: sea-level ZHD ≈ 2.3 m plus ZWD 0..0.5 m, down to ~1.3 m ZHD at 9 km (common practice);
+ * horizontal gradients ±50 mm (observed values are a few mm; common practice).
+ */
+export const STORED_ZTD_RANGE_M = [1, 3] as const;
+export const STORED_ZWD_RANGE_M = [0, 1] as const;
+export const STORED_GRADIENT_RANGE_M = [-0.05, 0.05] as const;

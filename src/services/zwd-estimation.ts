@@ -19,6 +19,9 @@ import { precipitableWaterFromSurfaceMet } from '../domain/water-vapour/precipit
 import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
 import { estimateZwd } from '../estimation/estimate.js';
 import type { ZwdEstimationOptions, ZwdEstimationOutput, ZwdObservationColumns } from '../estimation/types.js';
+import { STORED_ZTD_RANGE_M } from '../limits.js';
+import { CallerError } from './caller-error.js';
+import { guardResidualUnit, negativeZwdWarning } from './unit-guards.js';
 import type { MetColumns } from './station-met.js';
 import { checkAnswerSize } from './answer-size.js';
 import { collapseByCode, warning, type Warning } from './warnings.js';
@@ -174,6 +177,7 @@ export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationRe
     );
   }
 
+  guardResidualUnit(request.observations.epochMs, request.observations.residualM);
   const estimate = estimateZwd({ latitudeRad, heightM: request.site.heightM, observations: request.observations, options: toEstimatorOptions(options) });
   warnings.push(...estimate.warnings.map((text) => warning('estimator', text)));
 
@@ -189,6 +193,8 @@ export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationRe
       ),
     );
   }
+  const negative = negativeZwdWarning(estimate.epochs.map((e, k) => epochMet?.[k]?.zwdM ?? aprioriZwdM + e.correctionM));
+  if (negative) warnings.push(negative);
   const { models, model_fingerprint } = provenance(zwdModels(options, zhdSource));
   return { estimate, aprioriZhdM, aprioriZwdM, zhdSource, epochMet, models, modelFingerprint: model_fingerprint, warnings };
 }
@@ -234,4 +240,25 @@ export function delayColumns(result: ZwdEstimationResult): DelayColumns {
     c.eastGradientSigmaM[k] = e.eastGradientSigmaM ?? Number.NaN;
   }
   return c;
+}
+
+/**
+ * A station estimation stores only what a direct deposit would accept: every ZTD within
+ * STORED_ZTD_RANGE_M (src/limits.ts, the deposit's own range). Otherwise a 422 naming the first
+ * epochs outside it, and nothing is stored. A ZTD of tens of metres means residuals in millimetres
+ * or another unit mistake, never weather.
+ */
+export function checkStorableDelays(c: DelayColumns): void {
+  const [min, max] = STORED_ZTD_RANGE_M;
+  const bad: number[] = [];
+  for (let k = 0; k < c.ztdM.length; k++) {
+    const v = c.ztdM[k]!;
+    if (!(v >= min && v <= max)) bad.push(k);
+  }
+  if (bad.length === 0) return;
+  const shown = bad.slice(0, 5).map((k) => `${new Date(c.epochMs[k]!).toISOString()} (${c.ztdM[k]!.toFixed(3)} m)`);
+  const message =
+    `estimated ZTD outside the stored range [${min}, ${max}] m at ${bad.length} epochs: ${shown.join(', ')}${bad.length > 5 ? ', ...' : ''}; ` +
+    'nothing stored. Residuals in millimetres instead of metres, or an a-priori far from the site, give this; check residual_m and apriori';
+  throw CallerError.field(422, 'observations', message);
 }

@@ -43,7 +43,7 @@ for (const backend of BACKENDS) {
       expect(res.body.rejected[1].reason).toMatch(/records\.3\.epoch: must be an ISO 8601/);
       expect(res.body.rejected[2].reason).toMatch(/needs pressure_hpa .* or temperature_c/);
       expect(res.body.rejected[3].reason).toMatch(/at most one of/);
-      expect(res.body.rejected[4].reason).toMatch(/unknown field\(s\) pressure/);
+      expect(res.body.rejected[4].reason).toMatch(/records\.\d+\.pressure: unknown key; did you mean pressure_hpa\?/);
       expect(res.body.rejected[5].reason).toMatch(/appears twice in this upload \(first at index 0\)/);
 
       const again = await api().post('/v1/stations/JSON1/met').set('authorization', auth).send(body).expect(200);

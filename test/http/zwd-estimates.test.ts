@@ -295,7 +295,7 @@ describe('bad input (issue 3): clear 4xx problems naming the field', () => {
     [{ elevation_cutoff_deg: 90 }, 'options.elevation_cutoff_deg', /\[0, 90\) deg/],
     [{ outlier_threshold: 1 }, 'options.outlier_threshold', /\[2, 1000\]/],
     [{ weighting: 'snr' }, 'options.weighting', /elevation, uniform/],
-    [{ zwd_intervall_s: 300 }, 'options', /Unrecognized key/],
+    [{ zwd_intervall_s: 300 }, 'options.zwd_intervall_s', /unknown key; did you mean zwd_interval_s\?/],
   ])('options %j: 400 naming %s', async (options, field, message) => {
     const res = await api().post(ROUTE).send(body({ site: SITE, options })).expect(400);
     expect(problemFields(res.body)).toContain(field);

@@ -12,15 +12,17 @@ import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
 import { ModelDomainError } from '../../domain/errors.js';
 import { FormatError } from '../../formats/format-error.js';
 import { CallerError } from '../../services/caller-error.js';
-import { detailOf, fieldName } from '../field-errors.js';
+import { detailOf, expandUnknownKeys, fieldName } from '../field-errors.js';
 import { UnknownStationError } from '../../storage/repository.js';
 import { storageUnavailable } from '../../storage/errors.js';
 import { HttpProblem, makeProblem, sendProblem, type FieldError } from '../problem.js';
 
+const locationOf = (context: string | undefined) =>
+  context === undefined || context === 'body' ? 'body' : context === 'querystring' ? 'query' : (context as 'params' | 'headers');
+
 function fieldFromPath(instancePath: string, context: string | undefined): string {
   const path = instancePath.replace(/^\//, '').split('/').filter(Boolean);
-  const location = context === undefined || context === 'body' ? 'body' : context === 'querystring' ? 'query' : (context as 'params' | 'headers');
-  return fieldName(path, location);
+  return fieldName(path, locationOf(context));
 }
 
 /**
@@ -43,10 +45,14 @@ export function routerErrorHandler(error: FastifyError, request: FastifyRequest,
 async function errorHandler(app: FastifyInstance): Promise<void> {
   app.setErrorHandler((error: FastifyError, request, reply) => {
     if (hasZodFastifySchemaValidationErrors(error)) {
-      const errors: FieldError[] = error.validation.map((v) => ({
-        field: fieldFromPath(v.instancePath, error.validationContext),
-        message: v.message ?? 'invalid value',
-      }));
+      const errors: FieldError[] = error.validation.flatMap((v) => {
+        const keys = (v.params as { keys?: unknown } | undefined)?.keys;
+        if (v.keyword === 'unrecognized_keys' && Array.isArray(keys)) {
+          const path = v.instancePath.replace(/^\//, '').split('/').filter(Boolean);
+          return expandUnknownKeys(path, keys.map(String), v.message ?? 'unknown key', locationOf(error.validationContext));
+        }
+        return [{ field: fieldFromPath(v.instancePath, error.validationContext), message: v.message ?? 'invalid value' }];
+      });
       return sendProblem(reply, makeProblem(400, detailOf(errors), errors, request.url));
     }
     if (error instanceof ModelDomainError) {

@@ -11,6 +11,7 @@ import { CsvFormatError, parseMetCsv } from '../../formats/met-csv.js';
 import { looksLikeRinexMet, parseRinexMet, RinexFormatError } from '../../formats/rinex-met.js';
 import type { MetRow } from '../../storage/repository.js';
 import { HttpProblem } from '../problem.js';
+import { issuesToFieldErrors } from '../field-errors.js';
 import { MAX_REJECTED_LISTED, metRecordSchema } from '../schemas/met.js';
 
 export interface Rejected {
@@ -20,7 +21,9 @@ export interface Rejected {
 }
 
 export function issueText(prefix: string, error: z.ZodError): string {
-  return error.issues.map((i) => `${[prefix, ...i.path.map(String)].filter(Boolean).join('.')}: ${i.message}`).join('; ');
+  return issuesToFieldErrors(error.issues)
+    .map((e) => `${[prefix, e.field === 'body' ? '' : e.field].filter(Boolean).join('.')}: ${e.message}`)
+    .join('; ');
 }
 
 /** Keeps the first record of each epoch; later ones are rejected. */

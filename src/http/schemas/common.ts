@@ -10,6 +10,27 @@ import { COEFFICIENTS_HEIGHT_REFERENCES } from '../../domain/mapping/types.js';
 import { DEFAULT_COEFFICIENTS_HEIGHT_REFERENCE } from '../../domain/mapping/vmf1.js';
 import { GRADIENT_MODEL_KEYS } from '../../domain/gradients/gradient-mapping.js';
 import { WET_MODEL_KEYS } from '../../domain/zenith/wet.js';
+import { unknownKeyMessage } from '../field-errors.js';
+import { STORED_GRADIENT_RANGE_M, STORED_ZTD_RANGE_M, STORED_ZWD_RANGE_M } from '../../limits.js';
+
+/**
+ * Every object of a request (JSON bodies, query strings, path parameters) is made with this: an
+ * unknown key is a 400 naming the key and the closest known one ("met.pressure: unknown key; did
+ * you mean pressure_hpa?"), never silently dropped. The message has one line per unknown key;
+ * field-errors.ts splits it into one field error per key. The known keys are read from the schema
+ * that raised the issue, so `.extend()`/`.omit()` of a strict object suggest from their own keys.
+ * In the OpenAPI document the objects have `additionalProperties: false`.
+ */
+export function strictObject<T extends z.core.$ZodLooseShape>(shape: T) {
+  return z.strictObject(shape, {
+    error: (issue) => {
+      if (issue.code !== 'unrecognized_keys') return undefined;
+      const inst = issue.inst as { _zod?: { def?: { shape?: Record<string, unknown> } } } | undefined;
+      const known = Object.keys(inst?._zod?.def?.shape ?? shape);
+      return issue.keys.map((k) => unknownKeyMessage(k, known)).join('\n');
+    },
+  });
+}
 
 interface RangeOptions {
   /** The lower bound itself is not allowed, e.g. elevation (0, 90]. */
@@ -49,8 +70,8 @@ export const SITE_RANGES = {
   height: [-500, 9000],
 } as const;
 
-export const siteSchema = z
-  .object({
+export const siteSchema =
+  strictObject({
     latitude_deg: bounded(-90, 90, 'deg', 'Geodetic latitude'),
     longitude_deg: bounded(-180, 360, 'deg', 'Longitude, east positive'),
     height_m: bounded(-500, 9000, 'm', 'Height above the WGS84 ellipsoid'),
@@ -67,10 +88,10 @@ export const temperatureC = (description = 'Air temperature') => bounded(-90, 60
 export const relativeHumidityPct = () => bounded(0, 100, '%', 'Relative humidity with respect to water');
 export const dewpointC = () => bounded(-90, 60, '°C', 'Dew-point temperature');
 export const vapourPressureHpa = () => bounded(0, 200, 'hPa', 'Water vapour pressure');
-export const zwdM = (description = 'Zenith wet delay') => bounded(0, 1, 'm', description);
-export const ztdM = (description = 'Zenith total delay') => bounded(1, 3, 'm', description);
+export const zwdM = (description = 'Zenith wet delay') => bounded(STORED_ZWD_RANGE_M[0], STORED_ZWD_RANGE_M[1], 'm', description);
+export const ztdM = (description = 'Zenith total delay') => bounded(STORED_ZTD_RANGE_M[0], STORED_ZTD_RANGE_M[1], 'm', description);
 export const zhdM = (description = 'Zenith hydrostatic delay') => bounded(1, 3, 'm', description);
-export const gradientM = (description: string) => bounded(-0.05, 0.05, 'm', description);
+export const gradientM = (description: string) => bounded(STORED_GRADIENT_RANGE_M[0], STORED_GRADIENT_RANGE_M[1], 'm', description);
 export const elevationDeg = () =>
   bounded(0, 90, 'deg', 'Vacuum (geometric) elevation angle; below 3° the answer carries a warning; mapping functions refuse elevations below 1° (a profile is still traced there)', { exclusiveMin: true });
 export const azimuthDeg = () => bounded(0, 360, 'deg', 'Azimuth from north through east');
@@ -83,8 +104,8 @@ export const mappingModelSchema = keyEnum(MAPPING_MODEL_KEYS, 'Mapping function'
 export const wetModelSchema = keyEnum(WET_MODEL_KEYS, 'Zenith wet delay model');
 export const gradientModelSchema = keyEnum(GRADIENT_MODEL_KEYS, 'Gradient mapping function');
 
-export const vmf1CoefficientsSchema = z
-  .object({
+export const vmf1CoefficientsSchema =
+  strictObject({
     ah: bounded(0.0005, 0.002, '', 'VMF1 hydrostatic a coefficient'),
     aw: bounded(0, 0.001, '', 'VMF1 wet a coefficient'),
     height_reference: z
@@ -97,8 +118,8 @@ export const vmf1CoefficientsSchema = z
   .describe('Coefficients for model "vmf1", from the VMF1 grids or site files for the epoch');
 
 /** Met at a site, partial allowed; at most one humidity quantity. */
-export const metSchema = z
-  .object({
+export const metSchema =
+  strictObject({
     pressure_hpa: pressureHpa().optional(),
     temperature_c: temperatureC().optional(),
     relative_humidity_pct: relativeHumidityPct().optional(),

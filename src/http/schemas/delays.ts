@@ -4,12 +4,12 @@
  */
 
 import { z } from 'zod';
-import { epochSchema, gradientM, modelsSchema, positive, ztdM, zwdM, sizedArray } from './common.js';
+import { epochSchema, gradientM, modelsSchema, positive, ztdM, zwdM, sizedArray, strictObject } from './common.js';
 import { MAX_BATCH } from './mapping-factors.js';
 import { ingestResponseFields } from './met.js';
 import { seriesQueryFields, seriesRangeResponseFields, sourceSchema } from './stations.js';
 
-export const delayRecordSchema = z.strictObject(
+export const delayRecordSchema = strictObject(
   {
     epoch: epochSchema,
     ztd_m: ztdM(),
@@ -21,7 +21,6 @@ export const delayRecordSchema = z.strictObject(
     north_gradient_sigma_m: positive('m', 'Standard deviation of north_gradient_m', 1).nullish(),
     east_gradient_sigma_m: positive('m', 'Standard deviation of east_gradient_m', 1).nullish(),
   },
-  { error: (issue) => (issue.code === 'unrecognized_keys' ? `unknown field(s) ${issue.keys.join(', ')}` : undefined) },
 );
 
 const MAX_MODEL_ENTRIES = 64;
@@ -34,7 +33,7 @@ export const depositModelsSchema = modelsSchema
     'The models and settings that produced the series (e.g. mapping function, cutoff, random-walk settings); with `source` they make the fingerprint',
   );
 
-export const delayDepositJsonBody = z.object({
+export const delayDepositJsonBody = strictObject({
   records: sizedArray(z
     .array(delayRecordSchema), MAX_BATCH, 'records')
     .describe(`1..${MAX_BATCH} delay records; each is checked on its own: bad ones are reported in \`rejected\`, the good ones stored`),
@@ -42,7 +41,7 @@ export const delayDepositJsonBody = z.object({
   models: depositModelsSchema.optional(),
 });
 
-export const delayDepositEnvelope = z.object({
+export const delayDepositEnvelope = strictObject({
   records: sizedArray(z
     .array(z.unknown()), MAX_BATCH, 'records'),
   source: sourceSchema,
@@ -70,7 +69,7 @@ export const homogeneityFields = {
   warnings: z.array(z.string()),
 };
 
-export const delayReadQuery = z.object(seriesQueryFields);
+export const delayReadQuery = strictObject(seriesQueryFields);
 
 export const delayRecordResponse = z.object({
   epoch: z.string(),

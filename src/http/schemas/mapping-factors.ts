@@ -12,6 +12,7 @@ import {
   vmf1CoefficientsSchema,
   sizedArray,
   geoidUndulationField,
+  strictObject,
 } from './common.js';
 
 export const MAX_BATCH = 100_000;
@@ -27,7 +28,7 @@ export function checkCoefficients(value: { model: MappingModelKey; coefficients?
   }
 }
 
-export const mappingFactorsRequest = z.object({
+export const mappingFactorsRequest = strictObject({
   site: siteSchema,
   epoch: epochSchema,
   elevations_deg: sizedArray(

@@ -3,7 +3,7 @@
  */
 
 import { z } from 'zod';
-import { dewpointC, epochSchema, pressureHpa, relativeHumidityPct, temperatureC, vapourPressureHpa, sizedArray } from './common.js';
+import { dewpointC, epochSchema, pressureHpa, relativeHumidityPct, temperatureC, vapourPressureHpa, sizedArray, strictObject } from './common.js';
 import { MAX_BATCH } from './mapping-factors.js';
 import { seriesQueryFields, seriesRangeResponseFields, sourceSchema } from './stations.js';
 
@@ -11,8 +11,7 @@ export const DEFAULT_MET_SOURCE = 'default';
 export const HUMIDITY_FIELDS = ['relative_humidity_pct', 'dewpoint_c', 'vapour_pressure_hpa'] as const;
 
 /** One met record; null and absent both mean "not measured". */
-export const metRecordSchema = z
-  .strictObject(
+export const metRecordSchema = strictObject(
     {
       epoch: epochSchema,
       pressure_hpa: pressureHpa('Surface pressure measured at the met sensor').nullish(),
@@ -21,8 +20,7 @@ export const metRecordSchema = z
       dewpoint_c: dewpointC().nullish(),
       vapour_pressure_hpa: vapourPressureHpa().nullish(),
     },
-    { error: (issue) => (issue.code === 'unrecognized_keys' ? `unknown field(s) ${issue.keys.join(', ')}` : undefined) },
-  )
+    )
   .superRefine((r, ctx) => {
     if ((r.pressure_hpa ?? null) === null && (r.temperature_c ?? null) === null) {
       ctx.addIssue({ code: 'custom', path: ['pressure_hpa'], message: 'a record needs pressure_hpa (300..1100 hPa) or temperature_c (-90..60 °C)' });
@@ -33,7 +31,7 @@ export const metRecordSchema = z
     }
   });
 
-export const metIngestJsonBody = z.object({
+export const metIngestJsonBody = strictObject({
   records: sizedArray(z
     .array(metRecordSchema), MAX_BATCH, 'records')
     .describe(`1..${MAX_BATCH} met records; each is checked on its own: bad ones are reported in \`rejected\`, the good ones stored`),
@@ -41,13 +39,13 @@ export const metIngestJsonBody = z.object({
 });
 
 /** The envelope actually enforced before per-record checks (records are checked one by one). */
-export const metIngestEnvelope = z.object({
+export const metIngestEnvelope = strictObject({
   records: sizedArray(z
     .array(z.unknown()), MAX_BATCH, 'records'),
   source: sourceSchema.optional(),
 });
 
-export const ingestQuery = z.object({
+export const ingestQuery = strictObject({
   source: sourceSchema.optional().describe(`Producer of the records of a CSV or RINEX body (default "${DEFAULT_MET_SOURCE}"); a JSON body names it in \`source\``),
 });
 
@@ -84,7 +82,7 @@ export const metIngestResponse = z.object({
     .describe('What the RINEX meteorological file held'),
 });
 
-export const metReadQuery = z.object(seriesQueryFields);
+export const metReadQuery = strictObject(seriesQueryFields);
 
 export const metRecordResponse = z.object({
   epoch: z.string(),

@@ -6,7 +6,7 @@
 
 import { z } from 'zod';
 import { PWV_QUALITY_FLAGS } from '../../services/station-pwv.js';
-import { provenanceFields } from './common.js';
+import { provenanceFields, strictObject } from './common.js';
 import { modelSetSummary } from './delays.js';
 import { rangeBoundSchema } from './range-bounds.js';
 import { stationPwvQuery } from './station-precipitable-water.js';
@@ -113,8 +113,8 @@ const sourceQuery = z
       'A source name: only that source.',
   );
 
-export const networkPwvQuery = z
-  .strictObject({
+export const networkPwvQuery =
+  strictObject({
     stations: stationList.optional(),
     bbox: bbox.optional(),
     epoch: rangeBoundSchema.optional().describe('One epoch (with interval: the interval that holds it). Not with from/to, since or latest'),

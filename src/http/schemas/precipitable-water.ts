@@ -1,8 +1,8 @@
 import { z } from 'zod';
-import { bounded, epochSchema, positive, pressureHpa, provenanceFields, siteSchema, temperatureC, ztdM, zwdM, sizedArray } from './common.js';
+import { bounded, epochSchema, positive, pressureHpa, provenanceFields, siteSchema, temperatureC, ztdM, zwdM, sizedArray, strictObject } from './common.js';
 import { MAX_BATCH } from './mapping-factors.js';
 
-export const pwvRecordRequest = z.object({
+export const pwvRecordRequest = strictObject({
   epoch: epochSchema,
   ztd_m: ztdM().optional(),
   zwd_m: zwdM().optional(),
@@ -16,7 +16,7 @@ export const pwvRecordRequest = z.object({
   tm_sigma_k: positive('K', 'Standard deviation of tm_k (default 2 K)', 50).optional(),
 });
 
-export const precipitableWaterRequest = z.object({
+export const precipitableWaterRequest = strictObject({
   site: siteSchema,
   records: sizedArray(z
     .array(pwvRecordRequest), MAX_BATCH, 'records'),

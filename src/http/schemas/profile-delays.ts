@@ -14,6 +14,7 @@ import {
   vapourPressureHpa,
   vmf1CoefficientsSchema,
   sizedArray,
+  strictObject,
 } from './common.js';
 
 /**
@@ -22,8 +23,8 @@ import {
  */
 export const MAX_PROFILE_ELEVATIONS = 100;
 
-export const profileLevelSchema = z
-  .object({
+export const profileLevelSchema =
+  strictObject({
     height_m: bounded(-500, 100_000, 'm', 'Height above the WGS84 ellipsoid').optional(),
     geopotential_height_m: bounded(
       -500,
@@ -42,7 +43,7 @@ export const profileLevelSchema = z
     'A level of the profile: exactly one of height_m and geopotential_height_m, and exactly one of relative_humidity_pct, dewpoint_c, vapour_pressure_hpa, specific_humidity_kg_kg (levels may differ in which)',
   );
 
-export const profileDelaysRequest = z.object({
+export const profileDelaysRequest = strictObject({
   site: siteSchema,
   epoch: epochSchema,
   levels: z

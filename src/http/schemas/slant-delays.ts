@@ -19,14 +19,15 @@ import {
   zwdM,
   sizedArray,
   geoidUndulationField,
+  strictObject,
 } from './common.js';
 import { MAX_BATCH } from './mapping-factors.js';
 import { metUsedSchema } from './zenith-delays.js';
 
 const ecef = (axis: string) => bounded(-1e8, 1e8, 'm', `Satellite ${axis} coordinate, ECEF WGS84`);
 
-export const slantDelaysRequest = z
-  .object({
+export const slantDelaysRequest =
+  strictObject({
     site: siteSchema,
     epoch: epochSchema,
     met: metSchema.optional(),
@@ -34,8 +35,8 @@ export const slantDelaysRequest = z
     model: mappingModelSchema.default(DEFAULT_MAPPING_MODEL),
     coefficients: vmf1CoefficientsSchema.optional(),
     gradient_model: gradientModelSchema.default(DEFAULT_GRADIENT_MODEL),
-    zenith: z
-      .object({
+    zenith:
+      strictObject({
         zhd_m: zhdM().optional(),
         zwd_m: zwdM().optional(),
         north_gradient_m: gradientM('North gradient G_N').optional(),
@@ -44,11 +45,11 @@ export const slantDelaysRequest = z
       .optional()
       .describe('Zenith values to map; what is missing comes from met or the standard atmosphere (gradients: 0)'),
     directions: sizedArray(z
-      .array(z.object({ elevation_deg: elevationDeg(), azimuth_deg: azimuthDeg() })), MAX_BATCH, 'directions')
+      .array(strictObject({ elevation_deg: elevationDeg(), azimuth_deg: azimuthDeg() })), MAX_BATCH, 'directions')
       .optional()
       .describe(`Directions, 1..${MAX_BATCH}; give either directions or satellites`),
     satellites: sizedArray(z
-      .array(z.object({ id: z.string().min(1).max(32), x_m: ecef('X'), y_m: ecef('Y'), z_m: ecef('Z') })), MAX_BATCH, 'satellites')
+      .array(strictObject({ id: z.string().min(1).max(32), x_m: ecef('X'), y_m: ecef('Y'), z_m: ecef('Z') })), MAX_BATCH, 'satellites')
       .optional()
       .describe('Satellite positions, ECEF WGS84 [m]; elevation and azimuth are computed from the site'),
   })

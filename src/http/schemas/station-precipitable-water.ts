@@ -7,7 +7,7 @@ import { z } from 'zod';
 import { DEFAULT_MAX_MET_GAP_MS } from '../../domain/meteo/met-interpolation.js';
 import { DEFAULT_MAX_ZTD_SIGMA_M, PWV_QUALITY_FLAGS } from '../../services/station-pwv.js';
 import { MAX_MET_GAP_S } from '../../limits.js';
-import { bounded, provenanceFields } from './common.js';
+import { bounded, provenanceFields, strictObject } from './common.js';
 import { homogeneityFields } from './delays.js';
 import { seriesQueryFields, seriesRangeResponseFields, sourceSchema } from './stations.js';
 
@@ -18,7 +18,7 @@ const metGapSchema = () =>
     .max(MAX_MET_GAP_S, { error: `must be a number in [0, ${MAX_MET_GAP_S}] s` })
     .optional();
 
-export const stationPwvQuery = z.object({
+export const stationPwvQuery = strictObject({
   ...seriesQueryFields,
   source: sourceSchema.optional().describe('Only the delay rows of this source'),
   met_source: sourceSchema.optional().describe('Only the met rows of this source (default: all; at one epoch the first source in name order)'),

@@ -5,7 +5,7 @@
 
 import { z } from 'zod';
 import { MAX_REDUCTION_HEIGHT_DIFFERENCE_M } from '../../domain/meteo/height-reduction.js';
-import { bounded } from './common.js';
+import { bounded, strictObject } from './common.js';
 import { rangeBoundSchema } from './range-bounds.js';
 
 export const STATION_ID_PATTERN = /^[A-Za-z0-9_-]{1,32}$/;
@@ -16,7 +16,7 @@ export const stationIdSchema = z
   .regex(STATION_ID_PATTERN, { error: STATION_ID_MESSAGE })
   .describe('Station identifier: 1-32 characters of letters, digits, "-" and "_"');
 
-export const stationParams = z.object({ station_id: stationIdSchema });
+export const stationParams = strictObject({ station_id: stationIdSchema });
 
 export const SOURCE_PATTERN = /^[A-Za-z0-9._:@/-]{1,64}$/;
 const SOURCE_MESSAGE = 'must be 1-64 characters of letters, digits and . _ : @ / -';
@@ -25,8 +25,8 @@ export const sourceSchema = z
   .regex(SOURCE_PATTERN, { error: SOURCE_MESSAGE })
   .describe('Name of the producer of a series (a sensor, a processing run); part of the key (station, epoch, source)');
 
-export const stationBody = z
-  .object({
+export const stationBody =
+  strictObject({
     name: z.string().trim().min(1, { error: 'must be 1-200 characters' }).max(200, { error: 'must be 1-200 characters' }).describe('Display name'),
     latitude_deg: bounded(-90, 90, 'deg', 'Geodetic latitude (WGS84)'),
     longitude_deg: bounded(-180, 360, 'deg', 'Longitude, east positive'),

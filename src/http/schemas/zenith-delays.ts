@@ -1,8 +1,8 @@
 import { z } from 'zod';
 import { DEFAULT_WET_MODEL } from '../../domain/zenith/wet.js';
-import { epochSchema, geoidUndulationField, metSchema, metSourceSchema, provenanceFields, siteSchema, wetModelSchema } from './common.js';
+import { epochSchema, geoidUndulationField, metSchema, metSourceSchema, provenanceFields, siteSchema, wetModelSchema, strictObject } from './common.js';
 
-export const zenithDelaysRequest = z.object({
+export const zenithDelaysRequest = strictObject({
   site: siteSchema,
   epoch: epochSchema,
   met: metSchema.optional(),

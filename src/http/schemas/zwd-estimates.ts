@@ -21,6 +21,7 @@ import {
   zhdM,
   zwdM,
   sizedArray,
+  strictObject,
 } from './common.js';
 import { MAX_MET_RECORDS, MAX_OBSERVATIONS, MAX_QUERY_VALUE_CHARS } from '../../limits.js';
 import { readNumber } from '../../formats/number-text.js';
@@ -28,7 +29,7 @@ import { GRADIENTS_GROUP, rangeText, ZWD_OPTIONS, type OptionSpec } from '../../
 
 export { MAX_INTERVAL_S, MAX_MET_RECORDS, MAX_OBSERVATIONS, ZWD_BODY_LIMIT_BYTES } from '../../limits.js';
 
-export const zwdObservationSchema = z.strictObject({
+export const zwdObservationSchema = strictObject({
   epoch: epochSchema,
   satellite: z
     .string({ error: 'must be a satellite identifier of 1..32 characters' })
@@ -41,15 +42,15 @@ export const zwdObservationSchema = z.strictObject({
   sigma_m: positive('m', 'Standard deviation of residual_m; absent = from options.weighting and sigma0_m', 10).optional(),
 });
 
-export const zwdMetRecordSchema = z.strictObject({
+export const zwdMetRecordSchema = strictObject({
   epoch: epochSchema,
   pressure_hpa: pressureHpa('Measured surface pressure at the site height'),
   temperature_c: temperatureC('Measured surface temperature at the site height'),
   relative_humidity_pct: relativeHumidityPct().optional().describe('Relative humidity [%], 0..100; accepted, not needed for PWV'),
 });
 
-export const zwdAprioriSchema = z
-  .strictObject({
+export const zwdAprioriSchema =
+  strictObject({
     zhd_m: zhdM('ZHD the residuals were formed with; default: Saastamoinen ZHD of the standard atmosphere at the site').optional(),
     zwd_m: zwdM('ZWD the residuals were formed with; default 0').optional(),
   })
@@ -79,15 +80,15 @@ const fieldsOf = (group: 'gradients' | undefined) =>
   Object.fromEntries(specs.filter((s) => s.group === group).map((s) => [s.name, optionSchema(s)])) as Record<string, z.ZodType>;
 
 /** Fields of options.gradients. */
-export const zwdGradientOptionsSchema = z.strictObject(fieldsOf('gradients')).describe(GRADIENTS_GROUP.description);
+export const zwdGradientOptionsSchema = strictObject(fieldsOf('gradients')).describe(GRADIENTS_GROUP.description);
 
 /** options: strict (a misspelt option is an error, not a silently used default); every option has a default. */
-export const zwdOptionsSchema = z
-  .strictObject({ ...fieldsOf(undefined), gradients: zwdGradientOptionsSchema.nullable().prefault({}) })
+export const zwdOptionsSchema =
+  strictObject({ ...fieldsOf(undefined), gradients: zwdGradientOptionsSchema.nullable().prefault({}) })
   .prefault({})
   .describe('Estimation options; every one has a default (docs/zwd-estimation.md lists them)');
 
-export const zwdEstimationBody = z.strictObject({
+export const zwdEstimationBody = strictObject({
   observations: sizedArray(z
     .array(zwdObservationSchema, { error: 'must be an array of observations' }), MAX_OBSERVATIONS, 'observations')
     .describe('Residuals of one station, in any order; grouped by epoch'),
@@ -134,7 +135,7 @@ export const zwdOptionQueryFields = {
 } as Record<string, z.ZodType>;
 
 /** Query parameters of a text/csv request (ignored for JSON bodies). Site parameters are required with CSV. */
-export const zwdCsvQuerySchema = z.object({
+export const zwdCsvQuerySchema = strictObject({
   latitude_deg: queryParam(siteSchema.shape.latitude_deg.optional()),
   longitude_deg: queryParam(siteSchema.shape.longitude_deg.optional()),
   height_m: queryParam(siteSchema.shape.height_m.optional()),

@@ -15,11 +15,12 @@ import { FormatError, RecordLimitError } from '../../formats/format-error.js';
 import { readObservationCsv } from '../../formats/observation-csv.js';
 import { CallerError } from '../../services/caller-error.js';
 import type { MetColumns } from '../../services/station-met.js';
-import { delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
+import { checkStorableDelays, delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import { toZwdRequest, zwdEstimatesResponseOf } from '../adapters/zwd-estimation.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
 import type { FieldError } from '../problem.js';
+import { stationZwdEstimatesQuery } from '../schemas/station-zwd-estimates.js';
 import { optionsFromQuery, zwdCsvQuerySchema, zwdEstimatesRequest, zwdEstimationBody, type ZwdEstimationBody } from '../schemas/zwd-estimates.js';
 
 export interface ZwdRequestTaskInput {
@@ -67,7 +68,8 @@ function rawBody(input: ZwdRequestTaskInput, text: string, siteKnown: boolean): 
       throw new FormatError('body', `not valid JSON (${err instanceof Error ? err.message : String(err)})`);
     }
   }
-  const parsed = zwdCsvQuerySchema.safeParse(input.query ?? {});
+  // A station's site is the stored one: site parameters are unknown keys there, not silently ignored.
+  const parsed = (siteKnown ? stationZwdEstimatesQuery : zwdCsvQuerySchema).safeParse(input.query ?? {});
   if (!parsed.success) {
     const errors = issuesToFieldErrors(parsed.error.issues, 'query');
     throw new CallerError(400, detailOf(errors), errors);
@@ -125,13 +127,15 @@ export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<Task
       ...(metUsed === 'archive' ? [`met: ${request.met!.epochMs.length} records of the station's stored met series`] : []),
       ...(metUsed === 'none' ? ['met: neither in the request nor stored for this station around the observations; no ZHD or PWV per epoch'] : []),
     ];
+    const delays = delayColumns(result);
+    checkStorableDelays(delays);
     const json = JSON.stringify({ ...zwdEstimatesResponseOf(result, metWarnings), met_used: metUsed });
     return {
       ok: true,
       output: {
         json: utf8(json.slice(0, -1)),
         observations: body.observations.length,
-        delays: delayColumns(result),
+        delays,
         modelFingerprint: result.modelFingerprint,
         models: result.models,
       },
