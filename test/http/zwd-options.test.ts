@@ -16,7 +16,9 @@ import { EXPECTED_MODEL_SETTINGS, jsonOptions, queryOptions } from '../services/
 
 const SITE = { latitude_deg: 46.2, longitude_deg: 7.4, height_m: 520 };
 const H = 3_600_000;
-const data = generateSyntheticResiduals({ durationS: 3600, latitudeDeg: SITE.latitude_deg, seed: 21 });
+// No epoch biases: with the non-default epoch_bias=false they would go into the ZTD, which the station
+// route then refuses to store (a deposit refuses ZTD outside 1..3 m).
+const data = generateSyntheticResiduals({ durationS: 3600, latitudeDeg: SITE.latitude_deg, seed: 21, biasAmplitudeM: 0 });
 const { observations } = toRequestBody(data);
 const T0 = Date.parse(observations[0]!.epoch);
 const MET = [0, 1, 2].map((k) => ({ epoch: new Date(T0 - H / 2 + k * H).toISOString(), pressure_hpa: 955 + k, temperature_c: 12 - k }));
