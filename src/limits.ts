@@ -24,3 +24,10 @@ export const MAX_MET_GAP_S = 86_400;
 export const MAX_CELL_CHARS = 256;
 /** Longest query-string value [characters], checked before any pattern runs on it. */
 export const MAX_QUERY_VALUE_CHARS = 256;
+/**
+ * Largest body of an a-priori batch request (slant delays, mapping factors, precipitable water)
+ * answered on the event loop [bytes]; a larger one is parsed, validated, computed and serialised in
+ * the worker pool. 128 KiB is about 2 000 slant directions or 1 000 PWV records: below it the task's
+ * hand-over (a millisecond or two) costs more than the work, above it the work would hold the loop.
+ */
+export const OFFLOAD_BODY_BYTES = 128 * 1024;

@@ -9,7 +9,6 @@
  * inner layers never import. src/http/compute-tasks.ts registers it with the pool.
  */
 
-import { ModelDomainError } from '../../domain/errors.js';
 import type { Site } from '../../domain/site.js';
 import { FormatError } from '../../formats/format-error.js';
 import { readObservationCsv } from '../../formats/observation-csv.js';
@@ -19,7 +18,7 @@ import { delayColumns, runZwdEstimation, type DelayColumns } from '../../service
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import { toZwdRequest, zwdEstimatesResponseOf } from '../adapters/zwd-estimation.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
-import type { FieldError } from '../problem.js';
+import { asOutcome, fail } from './task-errors.js';
 import { optionsFromQuery, zwdCsvQuerySchema, zwdEstimatesRequest, zwdEstimationBody, type ZwdEstimationBody } from '../schemas/zwd-estimates.js';
 
 export interface ZwdRequestTaskInput {
@@ -47,10 +46,6 @@ export interface ZwdRequestTaskOutput {
   delays?: DelayColumns;
   modelFingerprint?: string;
   models?: Record<string, string | number | boolean | null>;
-}
-
-function fail(status: number, errors: FieldError[]): TaskOutcome<never> {
-  return { ok: false, error: { status, detail: detailOf(errors), errors } };
 }
 
 const utf8 = (text: string): Uint8Array => new TextEncoder().encode(text);
@@ -85,14 +80,6 @@ function rawBody(input: ZwdRequestTaskInput, text: string, siteKnown: boolean): 
     ...(Object.keys(apriori).length ? { apriori } : {}),
     options: optionsFromQuery(q),
   };
-}
-
-/** Errors of the caller's making as data; anything else is rethrown (a 500). */
-function asOutcome(err: unknown): TaskOutcome<never> {
-  if (err instanceof FormatError) return fail(400, [{ field: err.field, message: err.reason }]);
-  if (err instanceof CallerError) return { ok: false, error: { status: err.status, detail: err.message, ...(err.errors.length ? { errors: err.errors } : {}) } };
-  if (err instanceof ModelDomainError) return fail(err.status, [{ field: err.field, message: err.message }]);
-  throw err;
 }
 
 /** POST /v1/zwd-estimates and POST /v1/stations/{id}/zwd-estimates: parse, validate, estimate, serialise. */
