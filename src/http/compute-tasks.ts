@@ -7,6 +7,7 @@
 
 import type { TaskLocation } from '../workers/compute-pool.js';
 import type { handleMappingFactorsRequest, handlePrecipitableWaterRequest, handleSlantDelaysRequest } from './tasks/apriori-batch.js';
+import type { readMetUploadTask } from './tasks/met-upload.js';
 import type { handleZwdRequest, scanZwdRequest } from './tasks/zwd-request.js';
 
 export type ComputeTasks = {
@@ -20,6 +21,8 @@ export type ComputeTasks = {
   'mapping-factors-request': typeof handleMappingFactorsRequest;
   /** A large POST /v1/precipitable-water, the same way. */
   'precipitable-water-request': typeof handlePrecipitableWaterRequest;
+  /** A large text met upload (CSV or RINEX met): read and check the records; the route stores them. */
+  'met-upload-read': typeof readMetUploadTask;
 };
 
 export type ComputeTaskName = keyof ComputeTasks;
@@ -27,6 +30,7 @@ export type ComputeTaskName = keyof ComputeTasks;
 const ext = import.meta.url.endsWith('.ts') ? 'ts' : 'js';
 const zwdRequestModule = new URL(`./tasks/zwd-request.${ext}`, import.meta.url).href;
 const aprioriBatchModule = new URL(`./tasks/apriori-batch.${ext}`, import.meta.url).href;
+const metUploadModule = new URL(`./tasks/met-upload.${ext}`, import.meta.url).href;
 
 export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
   'zwd-estimate-request': { module: zwdRequestModule, exportName: 'handleZwdRequest' },
@@ -34,4 +38,5 @@ export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
   'slant-delays-request': { module: aprioriBatchModule, exportName: 'handleSlantDelaysRequest' },
   'mapping-factors-request': { module: aprioriBatchModule, exportName: 'handleMappingFactorsRequest' },
   'precipitable-water-request': { module: aprioriBatchModule, exportName: 'handlePrecipitableWaterRequest' },
+  'met-upload-read': { module: metUploadModule, exportName: 'readMetUploadTask' },
 };
