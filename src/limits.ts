@@ -45,3 +45,10 @@ export const MAX_QUERY_VALUE_CHARS = 256;
 export const STORED_ZTD_RANGE_M = [1, 3] as const;
 export const STORED_ZWD_RANGE_M = [0, 1] as const;
 export const STORED_GRADIENT_RANGE_M = [-0.05, 0.05] as const;
+/**
+ * Largest body of an a-priori batch request (slant delays, mapping factors, precipitable water)
+ * answered on the event loop [bytes]; a larger one is parsed, validated, computed and serialised in
+ * the worker pool. 128 KiB is about 2 000 slant directions or 1 000 PWV records: below it the task's
+ * hand-over (a millisecond or two) costs more than the work, above it the work would hold the loop.
+ */
+export const OFFLOAD_BODY_BYTES = 128 * 1024;

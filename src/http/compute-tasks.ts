@@ -6,6 +6,8 @@
  */
 
 import type { TaskLocation } from '../workers/compute-pool.js';
+import type { handleMappingFactorsRequest, handlePrecipitableWaterRequest, handleSlantDelaysRequest } from './tasks/apriori-batch.js';
+import type { readMetUploadTask } from './tasks/met-upload.js';
 import type { handleZwdRequest, scanZwdRequest } from './tasks/zwd-request.js';
 
 export type ComputeTasks = {
@@ -13,14 +15,28 @@ export type ComputeTasks = {
   'zwd-estimate-request': typeof handleZwdRequest;
   /** First pass of a station's estimation: the epoch range of the observations and whether the body has met. */
   'zwd-request-scan': typeof scanZwdRequest;
+  /** A large POST /v1/slant-delays (body above OFFLOAD_BODY_BYTES): parse, validate, compute, serialise. */
+  'slant-delays-request': typeof handleSlantDelaysRequest;
+  /** A large POST /v1/mapping-factors, the same way. */
+  'mapping-factors-request': typeof handleMappingFactorsRequest;
+  /** A large POST /v1/precipitable-water, the same way. */
+  'precipitable-water-request': typeof handlePrecipitableWaterRequest;
+  /** A large text met upload (CSV or RINEX met): read and check the records; the route stores them. */
+  'met-upload-read': typeof readMetUploadTask;
 };
 
 export type ComputeTaskName = keyof ComputeTasks;
 
 const ext = import.meta.url.endsWith('.ts') ? 'ts' : 'js';
 const zwdRequestModule = new URL(`./tasks/zwd-request.${ext}`, import.meta.url).href;
+const aprioriBatchModule = new URL(`./tasks/apriori-batch.${ext}`, import.meta.url).href;
+const metUploadModule = new URL(`./tasks/met-upload.${ext}`, import.meta.url).href;
 
 export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
   'zwd-estimate-request': { module: zwdRequestModule, exportName: 'handleZwdRequest' },
   'zwd-request-scan': { module: zwdRequestModule, exportName: 'scanZwdRequest' },
+  'slant-delays-request': { module: aprioriBatchModule, exportName: 'handleSlantDelaysRequest' },
+  'mapping-factors-request': { module: aprioriBatchModule, exportName: 'handleMappingFactorsRequest' },
+  'precipitable-water-request': { module: aprioriBatchModule, exportName: 'handlePrecipitableWaterRequest' },
+  'met-upload-read': { module: metUploadModule, exportName: 'readMetUploadTask' },
 };

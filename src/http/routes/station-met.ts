@@ -1,13 +1,30 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
+import { BATCH_BODY_LIMIT_BYTES, OFFLOAD_BODY_BYTES } from '../../limits.js';
+import { HttpProblem } from '../problem.js';
+import { metRowsOf, readMetUploadTask } from '../tasks/met-upload.js';
 import { problemSchema } from '../schemas/common.js';
 import { DEFAULT_MET_SOURCE, MET_CSV_OUTPUT_COLUMNS, ingestQuery, metIngestEnvelope, metIngestJsonBody, metIngestResponse, metReadQuery, metReadResponse } from '../schemas/met.js';
 import { stationParams } from '../schemas/stations.js';
 import { envelopeValidator, isoEpoch, recordLine, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
-import { listRejected, nothingUsable, readMetUpload } from './series-ingest.js';
+import { listRejected, nothingUsable, readMetUpload, type MetUpload } from './series-ingest.js';
 
 const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
+  /** A text body (CSV, RINEX met) above OFFLOAD_BODY_BYTES is read in the worker pool; the write stays here. */
+  async function readUpload(body: unknown, contentType: string, source: string): Promise<MetUpload> {
+    if (typeof body !== 'string') return readMetUpload(body, contentType, source);
+    let output;
+    if (body.length <= OFFLOAD_BODY_BYTES) {
+      const outcome = await readMetUploadTask({ text: body, contentType, source });
+      if (!outcome.ok) throw new HttpProblem(outcome.error.status, outcome.error.detail, outcome.error.errors);
+      output = outcome.output;
+    } else {
+      output = await app.compute.run('met-upload-read', { text: body, contentType, source });
+    }
+    const { columns, observations: _rows, ...rest } = output;
+    return { ...rest, rows: metRowsOf(columns, source) };
+  }
+
   app.post(
     '/v1/stations/:station_id/met',
     {
@@ -28,7 +45,16 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         params: stationParams,
         querystring: ingestQuery,
         body: metIngestJsonBody,
-        response: { 200: metIngestResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 404: problemSchema, 413: problemSchema, 415: problemSchema },
+        response: {
+          200: metIngestResponse,
+          400: problemSchema,
+          401: problemSchema,
+          403: problemSchema,
+          404: problemSchema,
+          413: problemSchema,
+          415: problemSchema,
+          503: problemSchema,
+        },
       },
     },
     async (request) => {
@@ -36,7 +62,7 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       await requireStation(app.repository, stationId);
       const body = request.body as unknown;
       const source = (typeof body === 'string' ? undefined : (body as { source?: string }).source) ?? request.query.source ?? DEFAULT_MET_SOURCE;
-      const upload = readMetUpload(body, request.headers['content-type'] ?? 'application/json', source);
+      const upload = await readUpload(body, request.headers['content-type'] ?? 'application/json', source);
       if (upload.rows.length === 0) throw nothingUsable(upload.rejected);
       const counts = await app.repository.writeMet(stationId, upload.rows);
       return {

@@ -9,9 +9,8 @@
  * inner layers never import. src/http/compute-tasks.ts registers it with the pool.
  */
 
-import { ModelDomainError } from '../../domain/errors.js';
 import type { Site } from '../../domain/site.js';
-import { FormatError, RecordLimitError } from '../../formats/format-error.js';
+import { FormatError } from '../../formats/format-error.js';
 import { readObservationCsv } from '../../formats/observation-csv.js';
 import { CallerError } from '../../services/caller-error.js';
 import type { MetColumns } from '../../services/station-met.js';
@@ -19,8 +18,8 @@ import { checkStorableDelays, delayColumns, runZwdEstimation, type DelayColumns 
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import { toZwdRequest, zwdEstimatesResponseOf } from '../adapters/zwd-estimation.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
-import type { FieldError } from '../problem.js';
 import { stationZwdEstimatesQuery } from '../schemas/station-zwd-estimates.js';
+import { asOutcome, fail } from './task-errors.js';
 import { optionsFromQuery, zwdCsvQuerySchema, zwdEstimatesRequest, zwdEstimationBody, type ZwdEstimationBody } from '../schemas/zwd-estimates.js';
 
 export interface ZwdRequestTaskInput {
@@ -48,10 +47,6 @@ export interface ZwdRequestTaskOutput {
   delays?: DelayColumns;
   modelFingerprint?: string;
   models?: Record<string, string | number | boolean | null>;
-}
-
-function fail(status: number, errors: FieldError[]): TaskOutcome<never> {
-  return { ok: false, error: { status, detail: detailOf(errors), errors } };
 }
 
 const utf8 = (text: string): Uint8Array => new TextEncoder().encode(text);
@@ -87,15 +82,6 @@ function rawBody(input: ZwdRequestTaskInput, text: string, siteKnown: boolean): 
     ...(Object.keys(apriori).length ? { apriori } : {}),
     options: optionsFromQuery(q),
   };
-}
-
-/** Errors of the caller's making as data; anything else is rethrown (a 500). */
-function asOutcome(err: unknown): TaskOutcome<never> {
-  if (err instanceof FormatError) return fail(400, [{ field: err.field, message: err.reason }]);
-  if (err instanceof RecordLimitError) return fail(413, [{ field: 'body', message: err.message }]);
-  if (err instanceof CallerError) return { ok: false, error: { status: err.status, detail: err.message, ...(err.errors.length ? { errors: err.errors } : {}) } };
-  if (err instanceof ModelDomainError) return fail(err.status, [{ field: err.field, message: err.message }]);
-  throw err;
 }
 
 /** POST /v1/zwd-estimates and POST /v1/stations/{id}/zwd-estimates: parse, validate, estimate, serialise. */

@@ -1,0 +1,43 @@
+/**
+ * The a-priori batch routes (slant delays, mapping factors, precipitable water): in the route's scope
+ * JSON stays bytes, and the body is parsed, validated, computed and serialised by one function of
+ * src/http/tasks/apriori-batch.ts: on the event loop for a body up to OFFLOAD_BODY_BYTES (cheaper
+ * than the hand-over), in the worker pool above it, so that a 100 000-item batch never holds the loop.
+ */
+
+import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
+import { OFFLOAD_BODY_BYTES } from '../limits.js';
+import type { TaskOutcome } from '../workers/task-outcome.js';
+import { HttpProblem } from './problem.js';
+import { asBuffer, movableBytes } from './raw-body.js';
+import type { BatchTaskInput, BatchTaskOutput } from './tasks/apriori-batch.js';
+
+export type BatchTaskName = 'slant-delays-request' | 'mapping-factors-request' | 'precipitable-water-request';
+
+/**
+ * Answers a batch request: `inLoop` is the task function itself, called here for a small body.
+ * Anything but application/json (kept as a Buffer by keepJsonBodiesAsBytes) is a 415.
+ */
+export async function answerBatchRequest(
+  app: FastifyInstance,
+  request: FastifyRequest,
+  reply: FastifyReply,
+  task: BatchTaskName,
+  inLoop: (input: BatchTaskInput) => Promise<TaskOutcome<BatchTaskOutput>>,
+): Promise<FastifyReply> {
+  const raw = request.body;
+  if (!Buffer.isBuffer(raw)) {
+    throw new HttpProblem(415, `content type ${request.headers['content-type'] ?? '(none)'} is not accepted here; send application/json`);
+  }
+  let output: BatchTaskOutput;
+  if (raw.byteLength <= OFFLOAD_BODY_BYTES) {
+    const outcome = await inLoop({ body: raw });
+    if (!outcome.ok) throw new HttpProblem(outcome.error.status, outcome.error.detail, outcome.error.errors);
+    output = outcome.output;
+  } else {
+    const body = movableBytes(new Uint8Array(raw.buffer, raw.byteOffset, raw.byteLength));
+    output = await app.compute.run(task, { body }, [body.buffer]);
+  }
+  // Already serialised; the bytes are sent as they are.
+  return reply.type('application/json').send(asBuffer(output.json) as never);
+}
