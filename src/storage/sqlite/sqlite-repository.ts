@@ -46,8 +46,9 @@ export const SQLITE_FILE_NAME = 'tropodelay.sqlite';
 /**
  * Rows per multi-row upsert statement: 256 rows × 12 bound values = 3 072 parameters, well below
  * SQLite's limit of 32 766 (SQLITE_MAX_VARIABLE_NUMBER since 3.32). Measured with 20 160 delay rows in
- * :memory: (a throw-away script, not committed; CPU time, min of 7 runs, load about 20): 59 ms to insert, 58 ms to re-send, 85 ms to change them,
- * against 85 / 133 / 177 ms for the former insert-then-update per row.
+ * :memory: (a throw-away script, not committed; CPU time, min of 7 runs, load about 20): 59 ms to
+ * insert, 58 ms to re-send, 85 ms to change them, against 85 / 133 / 177 ms for the former
+ * insert-then-update per row.
  */
 export const UPSERT_BATCH_ROWS = 256;
 
