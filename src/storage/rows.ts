@@ -29,20 +29,6 @@ export const toStation = (r: StationDbRow): Station => ({
   updatedAt: r.updated_at,
 });
 
-export const metValues = (r: MetRow) => [r.pressureHpa, r.temperatureC, r.relativeHumidityPct, r.dewpointC, r.vapourPressureHpa];
-
-export const delayValues = (r: DelayRow) => [
-  r.ztdM,
-  r.ztdSigmaM,
-  r.zwdM,
-  r.zwdSigmaM,
-  r.northGradientM,
-  r.eastGradientM,
-  r.northGradientSigmaM,
-  r.eastGradientSigmaM,
-  r.modelFingerprint,
-];
-
 /** Model sets are stored as canonical JSON (sorted keys, as provenance() returns them). */
 export const MET_SELECT = 'epoch_ms, source, pressure_hpa, temperature_c, relative_humidity_pct, dewpoint_c, vapour_pressure_hpa';
 export const DELAY_SELECT =

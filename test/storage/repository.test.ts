@@ -222,6 +222,38 @@ for (const backend of BACKENDS) {
       expect(back[19_999]).toEqual(rows[19_999]);
     });
 
+    // Counts of a write larger than one statement's batch (SQLite: UPSERT_BATCH_ROWS = 256 rows per
+    // upsert; PostgreSQL: one unnest chunk), with another source's rows inside the written epoch range
+    // and the rows sent out of key order. The expected counts follow from how the rows were built
+    // (common practice: the contract of WriteCounts in src/storage/repository.ts).
+    it('counts inserted / updated / unchanged exactly in a 600-row write mixing all three, beside another source', async () => {
+      const { repo } = await fresh();
+      await repo.putStation('QMR-1', STATION);
+      const stored = Array.from({ length: 600 }, (_, i) => delay(i));
+      const other = Array.from({ length: 300 }, (_, i) => delay(2 * i + 1, 'other'));
+      expect(await repo.writeDelays('QMR-1', [...stored, ...other], MODEL_SET)).toEqual({ inserted: 900, updated: 0, unchanged: 0 });
+      // i = 300..449 changed by 1 mm, 450..599 as stored, 600..899 new; sent newest first.
+      const sent = Array.from({ length: 600 }, (_, k) => {
+        const i = 300 + k;
+        return i < 450 ? { ...delay(i), ztdM: delay(i).ztdM + 0.001 } : delay(i);
+      }).reverse();
+      expect(await repo.writeDelays('QMR-1', sent, MODEL_SET)).toEqual({ inserted: 300, updated: 150, unchanged: 150 });
+      expect(await repo.writeDelays('QMR-1', sent, MODEL_SET)).toEqual({ inserted: 0, updated: 0, unchanged: 600 });
+      const all = { fromMs: 0, toMs: T0 * 2 };
+      const back = await repo.readDelays('QMR-1', all, 'estimator');
+      expect(back).toHaveLength(900);
+      expect(back[299]).toEqual(delay(299));
+      expect(back[300]!.ztdM).toBe(delay(300).ztdM + 0.001);
+      expect(back[899]).toEqual(delay(899));
+      expect(await repo.readDelays('QMR-1', all, 'other')).toEqual(other);
+
+      const metStored = Array.from({ length: 400 }, (_, i) => met(i));
+      expect(await repo.writeMet('QMR-1', [...metStored, met(1, 'sensor-b')])).toEqual({ inserted: 401, updated: 0, unchanged: 0 });
+      const metSent = Array.from({ length: 400 }, (_, k) => (k < 100 ? met(200 + k, 'sensor-a', 900) : met(200 + k))).reverse();
+      expect(await repo.writeMet('QMR-1', metSent)).toEqual({ inserted: 200, updated: 100, unchanged: 100 });
+      expect(await repo.readMet('QMR-1', all, 'sensor-a')).toHaveLength(600);
+    });
+
     if (backend.name === 'postgres') {
       it('two replicas starting at once migrate safely (advisory lock): both open, one schema version', async () => {
         const { config, cleanup } = await backend.fresh();

@@ -41,6 +41,16 @@ import {
 export const MIGRATION_LOCK_KEY = 7_421_903_311;
 /** Rows bound per statement in bulk writes. */
 const CHUNK_ROWS = 10_000;
+/**
+ * The counts of an upsert wrapped as `WITH written AS (INSERT … RETURNING (xmax = 0) AS inserted)`:
+ * one row back instead of one per written row (xmax = 0: the row version was inserted, not updated).
+ */
+const COUNT_WRITTEN = 'SELECT COUNT(*) FILTER (WHERE inserted) AS inserted, COUNT(*) AS written FROM written';
+/** BIGINT counts arrive as strings. */
+interface WrittenCounts {
+  inserted: string;
+  written: string;
+}
 const SCHEMA_PATTERN = /^[a-z_][a-z0-9_]{0,62}$/;
 
 export interface PostgresOptions {
@@ -228,8 +238,8 @@ export class PostgresRepository implements Repository {
       const sorted = byKey(rows);
       for (let start = 0; start < sorted.length; start += CHUNK_ROWS) {
         const chunk = sorted.slice(start, start + CHUNK_ROWS);
-        const result = await client.query<{ inserted: boolean }>(
-          `INSERT INTO met_records (station_id, epoch_ms, source, pressure_hpa, temperature_c, relative_humidity_pct, dewpoint_c, vapour_pressure_hpa)
+        const result = await client.query<WrittenCounts>(
+          `WITH written AS (INSERT INTO met_records (station_id, epoch_ms, source, pressure_hpa, temperature_c, relative_humidity_pct, dewpoint_c, vapour_pressure_hpa)
            SELECT $1, * FROM unnest($2::bigint[], $3::text[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::float8[])
            ON CONFLICT (station_id, epoch_ms, source) DO UPDATE SET
              pressure_hpa = EXCLUDED.pressure_hpa, temperature_c = EXCLUDED.temperature_c,
@@ -237,7 +247,8 @@ export class PostgresRepository implements Repository {
              vapour_pressure_hpa = EXCLUDED.vapour_pressure_hpa
            WHERE (met_records.pressure_hpa, met_records.temperature_c, met_records.relative_humidity_pct, met_records.dewpoint_c, met_records.vapour_pressure_hpa)
              IS DISTINCT FROM (EXCLUDED.pressure_hpa, EXCLUDED.temperature_c, EXCLUDED.relative_humidity_pct, EXCLUDED.dewpoint_c, EXCLUDED.vapour_pressure_hpa)
-           RETURNING (xmax = 0) AS inserted`,
+           RETURNING (xmax = 0) AS inserted)
+           ${COUNT_WRITTEN}`,
           [
             stationId,
             chunk.map((r) => r.epochMs),
@@ -249,8 +260,8 @@ export class PostgresRepository implements Repository {
             chunk.map((r) => r.vapourPressureHpa),
           ],
         );
-        returned += result.rows.length;
-        for (const r of result.rows) if (r.inserted) inserted++;
+        returned += Number(result.rows[0]!.written);
+        inserted += Number(result.rows[0]!.inserted);
       }
       return { inserted, updated: returned - inserted, unchanged: rows.length - returned };
     });
@@ -280,15 +291,16 @@ export class PostgresRepository implements Repository {
       const sorted = byKey(rows);
       for (let start = 0; start < sorted.length; start += CHUNK_ROWS) {
         const chunk = sorted.slice(start, start + CHUNK_ROWS);
-        const result = await client.query<{ inserted: boolean }>(
-          `INSERT INTO delay_records (station_id, epoch_ms, source, ${cols.join(', ')}, model_fingerprint)
+        const result = await client.query<WrittenCounts>(
+          `WITH written AS (INSERT INTO delay_records (station_id, epoch_ms, source, ${cols.join(', ')}, model_fingerprint)
            SELECT $1, e, s, v1, v2, v3, v4, v5, v6, v7, v8, $12
            FROM unnest($2::bigint[], $3::text[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::float8[], $9::float8[], $10::float8[], $11::float8[])
              AS t (e, s, v1, v2, v3, v4, v5, v6, v7, v8)
            ON CONFLICT (station_id, epoch_ms, source) DO UPDATE SET
              ${cols.map((c) => `${c} = EXCLUDED.${c}`).join(', ')}, model_fingerprint = EXCLUDED.model_fingerprint
            WHERE (${current}) IS DISTINCT FROM (${excluded})
-           RETURNING (xmax = 0) AS inserted`,
+           RETURNING (xmax = 0) AS inserted)
+           ${COUNT_WRITTEN}`,
           [
             stationId,
             chunk.map((r) => r.epochMs),
@@ -304,8 +316,8 @@ export class PostgresRepository implements Repository {
             modelSet.modelFingerprint,
           ],
         );
-        returned += result.rows.length;
-        for (const r of result.rows) if (r.inserted) inserted++;
+        returned += Number(result.rows[0]!.written);
+        inserted += Number(result.rows[0]!.inserted);
       }
       return { inserted, updated: returned - inserted, unchanged: rows.length - returned };
     });
