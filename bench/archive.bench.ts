@@ -71,10 +71,18 @@ async function runOn(name: string, storage: StorageConfig): Promise<string[]> {
     // Ingest, JSON
     const jsonBody = JSON.stringify({ records: metRecords.slice(0, INGEST_RECORDS), source: 'bench' });
     const [jsonRes, jsonMs] = await timed(() =>
-      app.inject({ method: 'POST', url: '/v1/stations/INGJ/met', headers: { ...headers, 'content-type': 'application/json' }, payload: jsonBody }),
+      app.inject({
+        method: 'POST',
+        url: '/v1/stations/INGJ/met',
+        headers: { ...headers, 'content-type': 'application/json' },
+        payload: jsonBody,
+      }),
     );
-    if (jsonRes.statusCode !== 200 || JSON.parse(jsonRes.body).inserted !== INGEST_RECORDS) throw new Error(`JSON ingest failed: ${jsonRes.body.slice(0, 300)}`);
-    lines.push(`${name}: ingest ${INGEST_RECORDS} met records as JSON (${(jsonBody.length / 1e6).toFixed(1)} MB): ${(jsonMs / 1000).toFixed(2)} s`);
+    if (jsonRes.statusCode !== 200 || JSON.parse(jsonRes.body).inserted !== INGEST_RECORDS)
+      throw new Error(`JSON ingest failed: ${jsonRes.body.slice(0, 300)}`);
+    lines.push(
+      `${name}: ingest ${INGEST_RECORDS} met records as JSON (${(jsonBody.length / 1e6).toFixed(1)} MB): ${(jsonMs / 1000).toFixed(2)} s`,
+    );
 
     // Ingest, CSV
     const csvBody =
@@ -84,10 +92,18 @@ async function runOn(name: string, storage: StorageConfig): Promise<string[]> {
         .map((r) => `${r.epoch},${r.pressure_hpa},${r.temperature_c},${r.relative_humidity_pct}`)
         .join('\n');
     const [csvRes, csvMs] = await timed(() =>
-      app.inject({ method: 'POST', url: '/v1/stations/INGC/met?source=bench', headers: { ...headers, 'content-type': 'text/csv' }, payload: csvBody }),
+      app.inject({
+        method: 'POST',
+        url: '/v1/stations/INGC/met?source=bench',
+        headers: { ...headers, 'content-type': 'text/csv' },
+        payload: csvBody,
+      }),
     );
-    if (csvRes.statusCode !== 200 || JSON.parse(csvRes.body).inserted !== INGEST_RECORDS) throw new Error(`CSV ingest failed: ${csvRes.body.slice(0, 300)}`);
-    lines.push(`${name}: ingest ${INGEST_RECORDS} met records as CSV (${(csvBody.length / 1e6).toFixed(1)} MB): ${(csvMs / 1000).toFixed(2)} s`);
+    if (csvRes.statusCode !== 200 || JSON.parse(csvRes.body).inserted !== INGEST_RECORDS)
+      throw new Error(`CSV ingest failed: ${csvRes.body.slice(0, 300)}`);
+    lines.push(
+      `${name}: ingest ${INGEST_RECORDS} met records as CSV (${(csvBody.length / 1e6).toFixed(1)} MB): ${(csvMs / 1000).toFixed(2)} s`,
+    );
 
     // One station-year of 5-min met and delays, then the PWV retrieval as CSV.
     for (let k = 0; k < YEAR_RECORDS; k += 50_000) {

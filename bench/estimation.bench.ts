@@ -30,7 +30,13 @@ function realisticDays(days: number): ZwdEstimationInput {
   return {
     latitudeRad: sky.options.latitudeDeg * DEG,
     heightM: sky.options.heightM,
-    observations: { epochMs: sky.epochMs, satellite: sky.satellite, elevationRad: sky.elevationRad, azimuthRad: sky.azimuthRad, residualM: sky.residualM },
+    observations: {
+      epochMs: sky.epochMs,
+      satellite: sky.satellite,
+      elevationRad: sky.elevationRad,
+      azimuthRad: sky.azimuthRad,
+      residualM: sky.residualM,
+    },
     options: structuredClone({ ...TEST_OPTIONS, scaleSigmas: true }),
   };
 }
@@ -75,9 +81,14 @@ export default async function (): Promise<string[]> {
   lines.push(
     `four days: ${fourDays.observations.epochMs.length} observations: median ${t4.median.toFixed(0)} ms, range ${t4.min.toFixed(0)}–${t4.max.toFixed(0)} ms (${t4.solutions} solutions); four days / one day = ${(t4.median / t1.median).toFixed(2)} (medians), ${(t4.min / t1.min).toFixed(2)} (minima) [target < 5]`,
   );
-  const plain = (input: ZwdEstimationInput) => ({ ...input, options: { ...input.options, outlierThreshold: null, scaleSigmas: false, correlatedNoise: false } });
+  const plain = (input: ZwdEstimationInput) => ({
+    ...input,
+    options: { ...input.options, outlierThreshold: null, scaleSigmas: false, correlatedNoise: false },
+  });
   const [p1] = interleaved([plain(oneDay)], 5) as [Timing];
-  lines.push(`  one solution of the same day (no screening, no variance components, no correlated-noise step): median ${p1.median.toFixed(0)} ms, range ${p1.min.toFixed(0)}–${p1.max.toFixed(0)} ms`);
+  lines.push(
+    `  one solution of the same day (no screening, no variance components, no correlated-noise step): median ${p1.median.toFixed(0)} ms, range ${p1.min.toFixed(0)}–${p1.max.toFixed(0)} ms`,
+  );
 
   const child = fileURLToPath(new URL('./estimation-memory.child.ts', import.meta.url));
   const memory = JSON.parse(execFileSync(process.execPath, ['--import', 'tsx', child, '7'], { encoding: 'utf8' })) as {

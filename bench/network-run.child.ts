@@ -12,7 +12,9 @@ const stations = Number(process.argv[2] ?? 10);
 const hours = Number(process.argv[3] ?? 24);
 const screening = (process.argv[4] ?? 'on') === 'on';
 // Stations on rings around an invented centre, up to 600 km out (all see mostly the same sky).
-const list = Array.from({ length: stations }, (_, i) => stationAt(`B${String(i).padStart(3, '0')}`, 48, 11, i === 0 ? 0 : 100 + ((i * 37) % 500), (i * 137.5) % 360));
+const list = Array.from({ length: stations }, (_, i) =>
+  stationAt(`B${String(i).padStart(3, '0')}`, 48, 11, i === 0 ? 0 : 100 + ((i * 37) % 500), (i * 137.5) % 360),
+);
 const sim = simulateNetwork({
   seed: 61,
   stations: list,
@@ -27,7 +29,7 @@ const sim = simulateNetwork({
   commonOffsetM: 0,
   receiverClockAmplitudeM: 300_000,
   satelliteClockAmplitudeM: 300_000,
-  grossErrors: Math.round(stations * hours / 4),
+  grossErrors: Math.round((stations * hours) / 4),
 });
 const input = toNetworkInput(sim, networkOptions({ scaleSigmas: true, outlierThreshold: screening ? 4 : null }));
 const rssBeforeMb = process.memoryUsage().rss / 1e6;

@@ -30,10 +30,14 @@ interface Run {
 const child = fileURLToPath(new URL('./network-run.child.ts', import.meta.url));
 
 function run(stations: number, hours: number): Run {
-  const out = execFileSync(process.execPath, ['--max-semi-space-size=32', '--import', 'tsx', child, String(stations), String(hours), 'on'], {
-    encoding: 'utf8',
-    maxBuffer: 1 << 20,
-  });
+  const out = execFileSync(
+    process.execPath,
+    ['--max-semi-space-size=32', '--import', 'tsx', child, String(stations), String(hours), 'on'],
+    {
+      encoding: 'utf8',
+      maxBuffer: 1 << 20,
+    },
+  );
   return JSON.parse(out) as Run;
 }
 
@@ -47,7 +51,9 @@ export default async function (): Promise<string[]> {
   const short = run(10, 6);
   const day10 = run(10, 24);
   lines.push(describe(short), describe(day10));
-  lines.push(`  series length: 24 h / 6 h = ${(day10.cpuMs / short.cpuMs).toFixed(2)} in CPU time per run (${(day10.solutions / short.solutions).toFixed(2)} in solutions) [target ≈ 4]`);
+  lines.push(
+    `  series length: 24 h / 6 h = ${(day10.cpuMs / short.cpuMs).toFixed(2)} in CPU time per run (${(day10.solutions / short.solutions).toFixed(2)} in solutions) [target ≈ 4]`,
+  );
   const day25 = run(25, 24);
   lines.push(describe(day25));
   const runs = [day10, day25];

@@ -23,10 +23,21 @@ export default async function profileBench(): Promise<string[]> {
   const lines: string[] = [];
   for (const nLevels of [100, 1000]) {
     const generated = column(stretchedHeightsM(nLevels, 0, 30_000), { surfaceRelativeHumidityPct: 70 });
-    const levels = generated.map((l) => ({ heightM: l.heightM, pressureHpa: l.pressureHpa, temperatureC: l.temperatureK - 273.15, vapourPressureHpa: l.vapourPressureHpa }));
+    const levels = generated.map((l) => ({
+      heightM: l.heightM,
+      pressureHpa: l.pressureHpa,
+      temperatureC: l.temperatureK - 273.15,
+      vapourPressureHpa: l.vapourPressureHpa,
+    }));
     const modelMapping = niellModel.prepare({ latitudeRad: 45 * DEG, heightM: 0, dayOfYear: 119.3 });
     const run = () =>
-      computeProfileDelays({ latitudeRad: 45 * DEG, siteHeightM: 0, levels, elevationsRad: ELEVATIONS_DEG.map((e) => e * DEG), modelMapping });
+      computeProfileDelays({
+        latitudeRad: 45 * DEG,
+        siteHeightM: 0,
+        levels,
+        elevationsRad: ELEVATIONS_DEG.map((e) => e * DEG),
+        modelMapping,
+      });
     let started = performance.now();
     const first = run();
     const coldMs = performance.now() - started;

@@ -61,7 +61,12 @@ export default async function (): Promise<string[]> {
     const started = performance.now();
     try {
       const counts = await writeDelays(...args);
-      writeKinds.add(Object.entries(counts).filter(([, n]) => n > 0).map(([kind, n]) => `${n} ${kind}`).join(', '));
+      writeKinds.add(
+        Object.entries(counts)
+          .filter(([, n]) => n > 0)
+          .map(([kind, n]) => `${n} ${kind}`)
+          .join(', '),
+      );
       return counts;
     } finally {
       writeMs += performance.now() - started;

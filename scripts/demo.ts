@@ -36,7 +36,12 @@ const app = await buildApp({ archive });
 const auth = { authorization: `Bearer ${key}` };
 
 async function call(method: 'PUT' | 'POST' | 'GET', url: string, payload?: string | object, contentType = 'application/json') {
-  const res = await app.inject({ method, url, headers: { ...auth, 'content-type': contentType }, ...(payload === undefined ? {} : { payload }) });
+  const res = await app.inject({
+    method,
+    url,
+    headers: { ...auth, 'content-type': contentType },
+    ...(payload === undefined ? {} : { payload }),
+  });
   if (res.statusCode >= 300) throw new Error(`${method} ${url}: ${res.statusCode} ${res.body}`);
   return res.json();
 }
@@ -59,11 +64,17 @@ try {
   const met = [
     ['QUILL', 'JSON', await call('POST', '/v1/stations/QUILL/met', fixture('QUILL-met.json'))],
     ['BRACK', 'CSV', await call('POST', '/v1/stations/BRACK/met?source=brack-logger', fixture('BRACK-met.csv'), 'text/csv')],
-    ['SALTM', 'RINEX 2.11', await call('POST', '/v1/stations/SALTM/met?source=saltm-rinex', fixture('SALTM-met-days1-2.26m'), 'text/plain')],
+    [
+      'SALTM',
+      'RINEX 2.11',
+      await call('POST', '/v1/stations/SALTM/met?source=saltm-rinex', fixture('SALTM-met-days1-2.26m'), 'text/plain'),
+    ],
     ['SALTM', 'RINEX 3.04', await call('POST', '/v1/stations/SALTM/met?source=saltm-rinex', fixture('SALTM-met-day3.rnx'), 'text/plain')],
   ] as const;
   for (const [id, form, r] of met) {
-    process.stdout.write(`met ${id.padEnd(5)} as ${form.padEnd(10)}: ${r.inserted} inserted, ${r.updated} updated, ${r.unchanged} unchanged, ${r.rejected_count} rejected\n`);
+    process.stdout.write(
+      `met ${id.padEnd(5)} as ${form.padEnd(10)}: ${r.inserted} inserted, ${r.updated} updated, ${r.unchanged} unchanged, ${r.rejected_count} rejected\n`,
+    );
   }
 
   const count = DEMO_DAYS * 96 - 4; // inside the met coverage (hourly met over 3 days)
@@ -72,7 +83,12 @@ try {
     const noise = mulberry32(100 + DEMO_SEEDS[s.stationId]!);
     const res = await call('POST', `/v1/stations/${s.stationId}/delays`, {
       source: 'demo-truth-plus-noise',
-      models: { generator: 'scripts/synthetic/network.ts', ztd_noise_m: ZTD_NOISE_M, zhd: 'saastamoinen (IERS 2010 eq. 9.11)', tm: 'bevis-1992' },
+      models: {
+        generator: 'scripts/synthetic/network.ts',
+        ztd_noise_m: ZTD_NOISE_M,
+        zhd: 'saastamoinen (IERS 2010 eq. 9.11)',
+        tm: 'bevis-1992',
+      },
       records: truth.map((t) => ({
         epoch: new Date(t.epochMs).toISOString(),
         ztd_m: Math.round((t.ztdM + ZTD_NOISE_M * gaussian(noise)) * 1e5) / 1e5,

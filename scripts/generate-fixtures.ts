@@ -56,7 +56,12 @@ export function writeDemoFixtures(startMs = DEMO_START_MS, dir: URL = FIXTURE_DI
   const brack = demoMet('BRACK', startMs);
   write(
     'BRACK-met.csv',
-    ['epoch,pressure_hpa,temperature_c,relative_humidity_pct', ...brack.map((t) => `${new Date(t.epochMs).toISOString()},${round1(t.pressureHpa)},${round1(t.temperatureC)},${round1(t.relativeHumidityPct)}`)].join('\n') + '\n',
+    [
+      'epoch,pressure_hpa,temperature_c,relative_humidity_pct',
+      ...brack.map(
+        (t) => `${new Date(t.epochMs).toISOString()},${round1(t.pressureHpa)},${round1(t.temperatureC)},${round1(t.relativeHumidityPct)}`,
+      ),
+    ].join('\n') + '\n',
   );
 
   const salt = demoMet('SALTM', startMs);
@@ -73,7 +78,10 @@ export function writeDemoFixtures(startMs = DEMO_START_MS, dir: URL = FIXTURE_DI
       { model: 'DEMO-HYGRO', type: 'SYNTHETIC', accuracy: 1.0, observationType: 'HR' },
     ],
   };
-  const rec = (t: (typeof salt)[number]) => ({ epochMs: t.epochMs, values: [round1(t.pressureHpa), round1(t.temperatureC), round1(t.relativeHumidityPct)] });
+  const rec = (t: (typeof salt)[number]) => ({
+    epochMs: t.epochMs,
+    values: [round1(t.pressureHpa), round1(t.temperatureC), round1(t.relativeHumidityPct)],
+  });
   write('SALTM-met-days1-2.26m', writeRinexMet({ ...common, version: '2.11', records: salt.slice(0, 48).map(rec) }));
   write('SALTM-met-day3.rnx', writeRinexMet({ ...common, version: '3.04', records: salt.slice(48).map(rec) }));
   return written;
@@ -85,7 +93,12 @@ export const FIXTURES_CLI: CliSpec = {
     `Writes the invented demo network's met files (${DEMO_DAYS} days of hourly met per station: QUILL as JSON, BRACK as CSV,\n` +
     'SALTM as RINEX met 2.11 and 3.04) from the seeded generator. `npm run fixtures` rewrites the committed ones.',
   options: {
-    start: { type: 'string', value: 'EPOCH', description: 'first epoch, ISO 8601 with a zone', default: new Date(DEMO_START_MS).toISOString() },
+    start: {
+      type: 'string',
+      value: 'EPOCH',
+      description: 'first epoch, ISO 8601 with a zone',
+      default: new Date(DEMO_START_MS).toISOString(),
+    },
     out: { type: 'string', value: 'FOLDER', description: 'folder to write the four files into (created)', default: 'fixtures/demo/' },
   },
   examples: ['npx tsx scripts/generate-fixtures.ts --start 2026-07-10T00:00:00Z --out demo-met/'],

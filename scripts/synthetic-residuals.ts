@@ -256,7 +256,11 @@ export function generateSyntheticResiduals(overrides: Partial<SyntheticOptions> 
         const xi = ORBIT_RADIUS_M * (Math.cos(u) * Math.cos(raan) - Math.sin(u) * ci * Math.sin(raan));
         const yi = ORBIT_RADIUS_M * (Math.cos(u) * Math.sin(raan) + Math.sin(u) * ci * Math.cos(raan));
         const zi = ORBIT_RADIUS_M * Math.sin(u) * Math.sin(ORBIT_INCLINATION_RAD);
-        const sat: [number, number, number] = [xi * Math.cos(theta) + yi * Math.sin(theta), -xi * Math.sin(theta) + yi * Math.cos(theta), zi];
+        const sat: [number, number, number] = [
+          xi * Math.cos(theta) + yi * Math.sin(theta),
+          -xi * Math.sin(theta) + yi * Math.cos(theta),
+          zi,
+        ];
         const { elevation, azimuth } = lookAngles(site, sat);
         if (elevation < o.minElevationDeg * DEG) continue;
         const sigma = o.sigma0M / Math.sin(elevation);
@@ -329,9 +333,17 @@ export const SYNTHETIC_CLI: CliSpec = {
     sampling: { type: 'string', value: 'SECONDS', description: 'sampling interval [s], 1..3600', default: '30' },
     seed: { type: 'string', value: 'N', description: 'seed of the generator (integer)', default: '1' },
     gross: { type: 'string', value: 'N', description: 'number of gross errors (12..20 sigma) to add', default: '0' },
-    bias: { type: 'string', value: 'METRES', description: 'epoch biases uniform in +-METRES', default: String(DEFAULT_SYNTHETIC.biasAmplitudeM) },
+    bias: {
+      type: 'string',
+      value: 'METRES',
+      description: 'epoch biases uniform in +-METRES',
+      default: String(DEFAULT_SYNTHETIC.biasAmplitudeM),
+    },
     csv: { type: 'boolean', description: 'write the CSV table (epoch,satellite,elevation_deg,azimuth_deg,residual_m) instead of JSON' },
-    station: { type: 'boolean', description: 'JSON body for POST /v1/stations/{station_id}/zwd-estimates: no site (the station is the site)' },
+    station: {
+      type: 'boolean',
+      description: 'JSON body for POST /v1/stations/{station_id}/zwd-estimates: no site (the station is the site)',
+    },
     'apriori-zhd': { type: 'string', value: 'METRES', description: 'put apriori.zhd_m into the JSON body' },
     'zwd-interval': { type: 'string', value: 'SECONDS', description: 'put options.zwd_interval_s into the JSON body' },
     out: { type: 'string', value: 'FILE', description: 'file to write (its folder is created); without it, standard output' },
@@ -355,7 +367,9 @@ export function syntheticCliOutput(values: Record<string, string | boolean | und
   const data = generateSyntheticResiduals(options);
   if (values.csv) {
     if (values.station || values['apriori-zhd'] !== undefined || values['zwd-interval'] !== undefined) {
-      throw new UsageError('--station, --apriori-zhd and --zwd-interval shape the JSON body; with --csv put them in the query of the request');
+      throw new UsageError(
+        '--station, --apriori-zhd and --zwd-interval shape the JSON body; with --csv put them in the query of the request',
+      );
     }
     return toCsv(data);
   }

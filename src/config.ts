@@ -29,7 +29,8 @@ const integer = (min: number, max: number) =>
  */
 export type TrustProxy = false | number | string[];
 const TRUST_PROXY_MESSAGE = 'must be false, a hop count 1..16, or comma-separated addresses/CIDRs of the trusted proxies';
-const ADDRESS_OR_CIDR = /^(?:\d{1,3}(?:\.\d{1,3}){3}(?:\/\d{1,2})?|[0-9a-fA-F:]*:[0-9a-fA-F:.]*(?:\/\d{1,3})?|loopback|linklocal|uniquelocal)$/;
+const ADDRESS_OR_CIDR =
+  /^(?:\d{1,3}(?:\.\d{1,3}){3}(?:\/\d{1,2})?|[0-9a-fA-F:]*:[0-9a-fA-F:.]*(?:\/\d{1,3})?|loopback|linklocal|uniquelocal)$/;
 const trustProxySetting = z.string().transform((raw, ctx): TrustProxy => {
   const v = raw.trim().toLowerCase();
   if (['false', '0', 'no'].includes(v)) return false;
@@ -38,7 +39,10 @@ const trustProxySetting = z.string().transform((raw, ctx): TrustProxy => {
     const n = Number(v);
     if (n >= 1 && n <= 16) return n;
   } else {
-    const list = v.split(',').map((s) => s.trim()).filter(Boolean);
+    const list = v
+      .split(',')
+      .map((s) => s.trim())
+      .filter(Boolean);
     if (list.length > 0 && list.every((s) => ADDRESS_OR_CIDR.test(s))) return list;
   }
   ctx.addIssue({ code: 'custom', message: TRUST_PROXY_MESSAGE });
@@ -49,7 +53,9 @@ export const configSchema = z.object({
   PORT: integer(0, 65535).default(8080).describe('TCP port to listen on'),
   HOST: z.string().min(1).default('127.0.0.1').describe('Address to bind; 0.0.0.0 in a container'),
   LOG_LEVEL: z
-    .enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'], { error: 'must be one of fatal, error, warn, info, debug, trace, silent' })
+    .enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'], {
+      error: 'must be one of fatal, error, warn, info, debug, trace, silent',
+    })
     .default('info'),
   REQUEST_TIMEOUT_MS: integer(1000, 3_600_000).default(120_000).describe('Longest time to receive one whole request from the client'),
   TRUST_PROXY: trustProxySetting
@@ -61,7 +67,11 @@ export const configSchema = z.object({
   RATE_LIMIT_PER_MINUTE: integer(0, 10_000_000).default(0).describe('Requests per minute per key or address; 0 = off'),
   CORS_ORIGINS: z.string().default('').describe('Comma-separated allowed origins, or * ; empty = CORS off'),
   SECURITY_HEADERS: booleanFlag.default(false).describe('Send the usual security headers (helmet)'),
-  TROPO_DATA_DIR: z.string().min(1, { error: 'must be a directory path' }).default('./data').describe('Directory of the SQLite database and of the generated API key file'),
+  TROPO_DATA_DIR: z
+    .string()
+    .min(1, { error: 'must be a directory path' })
+    .default('./data')
+    .describe('Directory of the SQLite database and of the generated API key file'),
   DATABASE_URL: z
     .string()
     .regex(/^postgres(ql)?:\/\//, { error: 'must be a postgres:// or postgresql:// connection URL' })
@@ -75,7 +85,12 @@ export const configSchema = z.object({
   TROPO_API_KEYS: z
     .string()
     .default('')
-    .transform((v) => v.split(',').map((k) => k.trim()).filter(Boolean))
+    .transform((v) =>
+      v
+        .split(',')
+        .map((k) => k.trim())
+        .filter(Boolean),
+    )
     .refine((keys) => keys.every((k) => k.length >= 16), { error: 'every key must have at least 16 characters' })
     .describe('Comma-separated bearer keys allowed to write (and to read when TROPO_READ_KEYS_REQUIRED=true)'),
   TROPO_READ_KEYS_REQUIRED: booleanFlag.default(false).describe('Whether reads of /v1/stations need a key too'),
@@ -122,7 +137,11 @@ export function configWarnings(env: NodeJS.ProcessEnv = process.env): string[] {
 }
 
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
-  const relevant = Object.fromEntries(Object.keys(configSchema.shape).filter((k) => env[k] !== undefined && env[k] !== '').map((k) => [k, env[k]]));
+  const relevant = Object.fromEntries(
+    Object.keys(configSchema.shape)
+      .filter((k) => env[k] !== undefined && env[k] !== '')
+      .map((k) => [k, env[k]]),
+  );
   const parsed = configSchema.safeParse(relevant);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => {

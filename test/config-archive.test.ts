@@ -18,7 +18,11 @@ describe('archive configuration (src/config.ts; README table)', () => {
   });
 
   it('splits keys on commas and reads the flags', () => {
-    const c = loadConfig({ TROPO_API_KEYS: ' key-one-0123456789, key-two-0123456789 ', TROPO_READ_KEYS_REQUIRED: 'true', DATABASE_URL: 'postgres://u@127.0.0.1:5432/db' });
+    const c = loadConfig({
+      TROPO_API_KEYS: ' key-one-0123456789, key-two-0123456789 ',
+      TROPO_READ_KEYS_REQUIRED: 'true',
+      DATABASE_URL: 'postgres://u@127.0.0.1:5432/db',
+    });
     expect(c.TROPO_API_KEYS).toEqual(['key-one-0123456789', 'key-two-0123456789']);
     expect(c.TROPO_READ_KEYS_REQUIRED).toBe(true);
     expect(c.DATABASE_URL).toBe('postgres://u@127.0.0.1:5432/db');
@@ -38,7 +42,11 @@ describe('archive configuration (src/config.ts; README table)', () => {
 
   it('with DATABASE_URL and no keys, the generated key file still goes to TROPO_DATA_DIR', () => {
     const archive = archiveOptionsFromConfig(loadConfig({ DATABASE_URL: 'postgres://u@127.0.0.1/db', TROPO_DATA_DIR: '/srv/tropo' }));
-    expect(archive).toMatchObject({ keyDir: '/srv/tropo', apiKeys: [], storage: { databaseUrl: 'postgres://u@127.0.0.1/db', pgSchema: 'public' } });
+    expect(archive).toMatchObject({
+      keyDir: '/srv/tropo',
+      apiKeys: [],
+      storage: { databaseUrl: 'postgres://u@127.0.0.1/db', pgSchema: 'public' },
+    });
   });
 
   it('never echoes a key or a database URL in the message', () => {

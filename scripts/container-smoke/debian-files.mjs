@@ -57,7 +57,10 @@ for (const row of execFileSync('dpkg-query', ['-W', '-f', format], { encoding: '
 
 /** "libc6:any (>= 2.34) [amd64] <!nocheck>" -> "libc6" */
 function bareName(relation) {
-  return relation.trim().split(/[\s([<]/)[0].replace(/:[a-z0-9-]+$/, '');
+  return relation
+    .trim()
+    .split(/[\s([<]/)[0]
+    .replace(/:[a-z0-9-]+$/, '');
 }
 
 function resolve(name) {
@@ -79,7 +82,11 @@ while (queue.length > 0) {
   closure.add(name);
   for (const item of installed.get(name).depends.split(',')) {
     if (!item.trim()) continue;
-    const chosen = item.split('|').map(bareName).map(resolve).find((n) => n !== undefined);
+    const chosen = item
+      .split('|')
+      .map(bareName)
+      .map(resolve)
+      .find((n) => n !== undefined);
     if (chosen === undefined) {
       process.stderr.write(`debian-files: ${name}: no installed package satisfies "${item.trim()}" (skipped)\n`);
     } else {

@@ -65,9 +65,12 @@ async function compute() {
   // Plausible ranges: common practice (sea-level ZTD is about 2.3-2.6 m; ZWD 0-0.4 m).
   if (!(ztd >= 2.2 && ztd <= 2.7)) fail(`ztd_m=${ztd} is outside the plausible 2.2-2.7 m`);
   if (!(zwd > 0 && zwd < 0.4)) fail(`zwd_m=${zwd} is outside the plausible 0-0.4 m at 15 °C, 60 %`);
-  if (!(Math.abs(zhd - expectedZhd) < 0.001)) fail(`zhd_m=${zhd} differs from IERS 2010 eq. 9.11 (${expectedZhd.toFixed(4)} m) by 1 mm or more`);
+  if (!(Math.abs(zhd - expectedZhd) < 0.001))
+    fail(`zhd_m=${zhd} differs from IERS 2010 eq. 9.11 (${expectedZhd.toFixed(4)} m) by 1 mm or more`);
   if (!(Math.abs(ztd - (zhd + zwd)) < 1e-6)) fail(`ztd_m=${ztd} is not zhd_m + zwd_m`);
-  console.log(`POST /v1/zenith-delays -> 200 zhd_m=${zhd.toFixed(4)} (IERS 2010 eq. 9.11: ${expectedZhd.toFixed(4)}) zwd_m=${zwd.toFixed(4)} ztd_m=${ztd.toFixed(4)}`);
+  console.log(
+    `POST /v1/zenith-delays -> 200 zhd_m=${zhd.toFixed(4)} (IERS 2010 eq. 9.11: ${expectedZhd.toFixed(4)}) zwd_m=${zwd.toFixed(4)} ztd_m=${ztd.toFixed(4)}`,
+  );
 
   const bad = await fetch(`${baseUrl}/v1/zenith-delays`, {
     method: 'POST',
@@ -91,7 +94,15 @@ async function compute() {
  * wet function by up to 0.3 % at these elevations). Also checks GET /v1/ready.
  */
 async function estimate() {
-  const sky = [[15, 30], [25, 100], [40, 200], [60, 300], [75, 45], [33, 150], [20, 260]];
+  const sky = [
+    [15, 30],
+    [25, 100],
+    [40, 200],
+    [60, 300],
+    [75, 45],
+    [33, 150],
+    [20, 260],
+  ];
   const observations = [];
   for (let k = 0; k < 12; k++) {
     const epoch = new Date(Date.UTC(2026, 2, 14, 0, 5 * k)).toISOString();
@@ -122,5 +133,4 @@ if (command === 'wait') await waitHealthy(Number(secondsText ?? '30'));
 else if (command === 'compute') {
   await compute();
   await estimate();
-}
-else fail(`unknown command ${command}`);
+} else fail(`unknown command ${command}`);

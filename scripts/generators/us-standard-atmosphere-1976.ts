@@ -85,7 +85,8 @@ export function geometricFromGeopotentialM(geopotentialM: number): number {
  */
 export function ussa1976(geometricM: number): { temperatureK: number; pressureHpa: number } {
   const h = geopotentialFromGeometricM(geometricM);
-  if (!(h >= -500 && h <= USSA_TOP_GEOPOTENTIAL_M + 1)) throw new RangeError(`USSA 1976 generator: altitude ${geometricM} m outside −500..86 000 m`);
+  if (!(h >= -500 && h <= USSA_TOP_GEOPOTENTIAL_M + 1))
+    throw new RangeError(`USSA 1976 generator: altitude ${geometricM} m outside −500..86 000 m`);
   let i = LAYERS.length - 1;
   while (i > 0 && h < LAYERS[i]!.baseM) i--;
   const { baseM, lapseKPerM } = LAYERS[i]!;
@@ -263,11 +264,16 @@ export function exampleRequest(epochIso = '2026-04-29T07:00:00Z') {
 export const USSA_CLI: CliSpec = {
   command: 'npx tsx scripts/generators/us-standard-atmosphere-1976.ts',
   summary:
-    'Writes the documentation\'s example request for POST /v1/profile-delays: the U.S. Standard Atmosphere 1976 at 45° N,\n' +
+    "Writes the documentation's example request for POST /v1/profile-delays: the U.S. Standard Atmosphere 1976 at 45° N,\n" +
     '40 levels from 0 to 30 km, 70 % surface relative humidity.',
   options: {
     start: { type: 'string', value: 'EPOCH', description: 'epoch of the request, ISO 8601 with a zone', default: '2026-04-29T07:00:00Z' },
-    out: { type: 'string', value: 'FILE', description: 'file to write ("-": standard output)', default: 'fixtures/profiles/ussa1976-45n.json' },
+    out: {
+      type: 'string',
+      value: 'FILE',
+      description: 'file to write ("-": standard output)',
+      default: 'fixtures/profiles/ussa1976-45n.json',
+    },
   },
 };
 

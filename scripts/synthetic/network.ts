@@ -30,9 +30,30 @@ export interface SyntheticStation {
 
 /** An invented network: the names and places do not exist. */
 export const DEMO_NETWORK: SyntheticStation[] = [
-  { stationId: 'QUILL', name: 'Quillmarsh Fen', latitudeDeg: 52.137, longitudeDeg: 5.214, heightM: 48.3, description: 'Invented lowland station (demo data)' },
-  { stationId: 'BRACK', name: 'Brackenwold Ridge', latitudeDeg: 47.52, longitudeDeg: 11.08, heightM: 1312.7, description: 'Invented mountain station (demo data)' },
-  { stationId: 'SALTM', name: 'Saltmere Point', latitudeDeg: 38.74, longitudeDeg: -9.61, heightM: 92.0, description: 'Invented coastal station (demo data)' },
+  {
+    stationId: 'QUILL',
+    name: 'Quillmarsh Fen',
+    latitudeDeg: 52.137,
+    longitudeDeg: 5.214,
+    heightM: 48.3,
+    description: 'Invented lowland station (demo data)',
+  },
+  {
+    stationId: 'BRACK',
+    name: 'Brackenwold Ridge',
+    latitudeDeg: 47.52,
+    longitudeDeg: 11.08,
+    heightM: 1312.7,
+    description: 'Invented mountain station (demo data)',
+  },
+  {
+    stationId: 'SALTM',
+    name: 'Saltmere Point',
+    latitudeDeg: 38.74,
+    longitudeDeg: -9.61,
+    heightM: 92.0,
+    description: 'Invented coastal station (demo data)',
+  },
 ];
 
 // One seeded generator for all synthetic data (scripts/synthetic-residuals.ts), re-exported here.

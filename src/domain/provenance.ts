@@ -47,5 +47,6 @@ export const MODEL_NAMES = {
   standardAtmosphere: 'berg-1948 (T0=18 C, RH0=50 %)',
   tm: 'bevis-1992',
   conversion: 'bevis-1994',
-  pwvSigma: 'first-order budget: delay, pressure (default 0.5 hPa), zhd model (IERS 2010), surface temperature (default 0.5 K), Tm (bevis 4.74 K / caller default 2 K), k2\' and k3 (bevis 1994)',
+  pwvSigma:
+    "first-order budget: delay, pressure (default 0.5 hPa), zhd model (IERS 2010), surface temperature (default 0.5 K), Tm (bevis 4.74 K / caller default 2 K), k2' and k3 (bevis 1994)",
 } as const;

@@ -221,12 +221,16 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   const everyEpoch = (settings: { randomWalkMPerSqrtH: number | null }, name: string) => {
     if (parametrisation !== 'every-epoch') return false;
     if (settings.randomWalkMPerSqrtH !== null) return true;
-    notes.push(`${name} has no random walk: it is piecewise linear between its nodes (parametrisation "nodes"), and its variation between nodes is not in the formal errors`);
+    notes.push(
+      `${name} has no random walk: it is piecewise linear between its nodes (parametrisation "nodes"), and its variation between nodes is not in the formal errors`,
+    );
     return false;
   };
   const zwd = everyEpoch(options.zwd, 'the ZWD') ? epochStateLayout(epochMsAll, options.zwd.intervalS) : zwdOutput;
   const gradients =
-    gradientOutput && everyEpoch(options.gradients!, 'each gradient component') ? epochStateLayout(epochMsAll, options.gradients!.intervalS) : gradientOutput;
+    gradientOutput && everyEpoch(options.gradients!, 'each gradient component')
+      ? epochStateLayout(epochMsAll, options.gradients!.intervalS)
+      : gradientOutput;
   const zwdInterval = new Int32Array(epochs);
   const zwdAlpha = new Float64Array(epochs);
   const gradientInterval = new Int32Array(epochs);
@@ -305,9 +309,17 @@ function wetMappingPerEpoch(input: ZwdEstimationInput, epochMs: Float64Array): (
   const choice = input.options.wetMapping ?? { model: DEFAULT_MAPPING_MODEL };
   const model = MAPPING_MODELS[choice.model];
   if (!model) {
-    throw new ModelDomainError('options.wet_mapping', `unknown mapping function "${String(choice.model)}"; one of ${Object.keys(MAPPING_MODELS).join(', ')}`, 400);
+    throw new ModelDomainError(
+      'options.wet_mapping',
+      `unknown mapping function "${String(choice.model)}"; one of ${Object.keys(MAPPING_MODELS).join(', ')}`,
+      400,
+    );
   }
-  const context = (ms: number) => ({ latitudeRad: input.latitudeRad, heightM: input.heightM ?? 0, dayOfYear: fractionalDayOfYear(new Date(ms)) });
+  const context = (ms: number) => ({
+    latitudeRad: input.latitudeRad,
+    heightM: input.heightM ?? 0,
+    dayOfYear: fractionalDayOfYear(new Date(ms)),
+  });
   if (!model.requiresCoefficients) {
     const evaluator = model.prepare(context(epochMs[0]!));
     const wet = (e: number) => evaluator.wet(e);

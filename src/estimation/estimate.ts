@@ -90,7 +90,15 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
         )
       : [];
     if (options.scaleSigmas && reweightings < MAX_REWEIGHTINGS && varianceFactor !== null) {
-      const next = varianceComponents(design, solution, used, options.weighting, weighting, givenScale, screeningBound(options.outlierThreshold, varianceFactor));
+      const next = varianceComponents(
+        design,
+        solution,
+        used,
+        options.weighting,
+        weighting,
+        givenScale,
+        screeningBound(options.outlierThreshold, varianceFactor),
+      );
       if (next.changed) {
         weighting = next.weighting;
         givenScale = next.givenScale;
@@ -124,14 +132,19 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
     if (!changed) break;
   }
   if (options.scaleSigmas && reweightings >= MAX_REWEIGHTINGS) {
-    warnings.push(`the observation variance components did not settle within ${MAX_REWEIGHTINGS} re-weightings: formal errors may be off by a few per cent`);
+    warnings.push(
+      `the observation variance components did not settle within ${MAX_REWEIGHTINGS} re-weightings: formal errors may be off by a few per cent`,
+    );
   }
   if (varianceFactor === null) {
-    warnings.push('no degrees of freedom (one observation per epoch with epoch_bias on, or as many unknowns as observations): the variance factor is not estimable and the weights are not re-estimated');
+    warnings.push(
+      'no degrees of freedom (one observation per epoch with epoch_bias on, or as many unknowns as observations): the variance factor is not estimable and the weights are not re-estimated',
+    );
   }
   let low = 0;
   for (let s = 0; s < used.length; s++) if (used[s] && design.elevationRad[s]! < MAPPING_FIT_LOWEST_ELEVATION_RAD) low++;
-  if (low > 0) warnings.push(`${low} observations below 3° were used: the mapping functions are fitted from 3° up and are extrapolated there`);
+  if (low > 0)
+    warnings.push(`${low} observations below 3° were used: the mapping functions are fitted from 3° up and are extrapolated there`);
 
   const noise = noiseInflation(input, design, layout, solution, used);
   const bands = elevationBands(design, solution, used, rejectedDesign);
@@ -139,9 +152,13 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
     const name = `${((b.lowerRad * 180) / Math.PI).toFixed(0)}–${Math.min(90, (b.upperRad * 180) / Math.PI).toFixed(0)}°`;
     const total = b.observationsUsed + b.observationsRejected;
     if (b.normalisedRms !== null && b.normalisedRms > BAND_RMS_WARNING) {
-      warnings.push(`residuals at ${name} are ${b.normalisedRms.toFixed(1)} times their expected size: the weighting underrates the noise there (try options.weighting "elevation-components")`);
+      warnings.push(
+        `residuals at ${name} are ${b.normalisedRms.toFixed(1)} times their expected size: the weighting underrates the noise there (try options.weighting "elevation-components")`,
+      );
     } else if (total > 0 && b.observationsRejected > BAND_REJECTION_WARNING * total && b.observationsRejected > 2) {
-      warnings.push(`${b.observationsRejected} of ${total} observations at ${name} were rejected (${((100 * b.observationsRejected) / total).toFixed(1)} %): more than gross errors explain; check the weighting there`);
+      warnings.push(
+        `${b.observationsRejected} of ${total} observations at ${name} were rejected (${((100 * b.observationsRejected) / total).toFixed(1)} %): more than gross errors explain; check the weighting there`,
+      );
     }
   }
   const zwdOut = zwdNodes(input, design, layout, solution, used, noise);
@@ -203,8 +220,13 @@ function varianceComponents(
   bound: number,
 ): { changed: boolean; weighting: { a: number; b: number }; givenScale: number } {
   // Normal equations of the fit (sums for θ_a, θ_b) and the given-sigma factor.
-  let saa = 0, sab = 0, sbb = 0, sa = 0, sb = 0;
-  let givenOmega = 0, givenRedundancy = 0;
+  let saa = 0,
+    sab = 0,
+    sbb = 0,
+    sa = 0,
+    sb = 0;
+  let givenOmega = 0,
+    givenRedundancy = 0;
   for (let s = 0; s < used.length; s++) {
     if (!used[s]) continue;
     const sigma2 = design.sigmaM[s]! ** 2;
@@ -289,7 +311,13 @@ interface NoiseInflation {
 }
 
 /** The correlated-noise inflation of every epoch (correlated-noise.ts); all 1 when switched off. */
-function noiseInflation(input: ZwdEstimationInput, design: Design, layout: ParameterLayout, solution: Solution, used: Uint8Array): NoiseInflation {
+function noiseInflation(
+  input: ZwdEstimationInput,
+  design: Design,
+  layout: ParameterLayout,
+  solution: Solution,
+  used: Uint8Array,
+): NoiseInflation {
   const epochs = design.epochMs.length;
   const ones = () => new Float64Array(epochs).fill(1);
   const none: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
@@ -303,7 +331,9 @@ function noiseInflation(input: ZwdEstimationInput, design: Design, layout: Param
   const qG = input.options.gradients ? stepVariance(input.options.gradients.randomWalkMPerSqrtH) : null;
   const out: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
   const withGradients = layout.gradientCount > 0;
-  let sumW = 0, sumG = 0, count = 0;
+  let sumW = 0,
+    sumG = 0,
+    count = 0;
   for (let k = 0; k < epochs; k++) {
     const [iW, iN, iE] = epochInformation(solution, k, withGradients);
     out.zwd[k] = varianceInflation(iW, qW, rho);
@@ -334,7 +364,12 @@ function medianSpacingMs(epochMs: Float64Array): number {
 }
 
 /** Post-fit residuals and rejections per elevation band. */
-function elevationBands(design: Design, solution: Solution, used: Uint8Array, rejectedDesign: readonly number[]): ElevationBandStatistics[] {
+function elevationBands(
+  design: Design,
+  solution: Solution,
+  used: Uint8Array,
+  rejectedDesign: readonly number[],
+): ElevationBandStatistics[] {
   const edges = ELEVATION_BAND_EDGES_DEG.map((d) => (d * Math.PI) / 180);
   const nb = edges.length - 1;
   const count = new Float64Array(nb);
@@ -495,7 +530,14 @@ function atNode(
   return { value: w.value, variance: w.variance * factor + bridge };
 }
 
-function zwdNodes(input: ZwdEstimationInput, design: Design, layout: ParameterLayout, solution: Solution, used: Uint8Array, noise: NoiseInflation): ZwdNodeEstimate[] {
+function zwdNodes(
+  input: ZwdEstimationInput,
+  design: Design,
+  layout: ParameterLayout,
+  solution: Solution,
+  used: Uint8Array,
+  noise: NoiseInflation,
+): ZwdNodeEstimate[] {
   const nearby = observationsNearby(design, design.zwdOutput, usedPerEpoch(design, used));
   return Array.from({ length: design.zwdOutput.count }, (_, j) => {
     const t = design.zwdOutput.nodeMs[j]!;
@@ -504,7 +546,14 @@ function zwdNodes(input: ZwdEstimationInput, design: Design, layout: ParameterLa
   });
 }
 
-function gradientNodes(input: ZwdEstimationInput, design: Design, layout: ParameterLayout, solution: Solution, used: Uint8Array, noise: NoiseInflation): GradientNodeEstimate[] {
+function gradientNodes(
+  input: ZwdEstimationInput,
+  design: Design,
+  layout: ParameterLayout,
+  solution: Solution,
+  used: Uint8Array,
+  noise: NoiseInflation,
+): GradientNodeEstimate[] {
   if (!design.gradientOutput || !design.gradients || !input.options.gradients) return [];
   const nearby = observationsNearby(design, design.gradientOutput, usedPerEpoch(design, used));
   const q = input.options.gradients.randomWalkMPerSqrtH;
@@ -532,7 +581,13 @@ function interpolate(solution: Solution, p: number, q: number, alpha: number): {
   return { value: b * solution.x[p]! + alpha * solution.x[q]!, variance: Math.max(variance, 0) };
 }
 
-function epochEstimates(design: Design, layout: ParameterLayout, solution: Solution, used: Uint8Array, noise: NoiseInflation): EpochEstimate[] {
+function epochEstimates(
+  design: Design,
+  layout: ParameterLayout,
+  solution: Solution,
+  used: Uint8Array,
+  noise: NoiseInflation,
+): EpochEstimate[] {
   const epochs = design.epochMs.length;
   const out: EpochEstimate[] = new Array(epochs);
   for (let k = 0; k < epochs; k++) {

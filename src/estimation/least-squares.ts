@@ -94,15 +94,28 @@ export function randomWalkStepWeight(settings: PiecewiseLinearSettings, fromMs: 
 }
 
 export function constraintCount(layout: ParameterLayout, options: ZwdEstimationOptions): number {
-  const perFamily = (count: number, s: PiecewiseLinearSettings) => (s.aprioriSigmaM === null ? 0 : 1) + (s.randomWalkMPerSqrtH === null ? 0 : count - 1);
+  const perFamily = (count: number, s: PiecewiseLinearSettings) =>
+    (s.aprioriSigmaM === null ? 0 : 1) + (s.randomWalkMPerSqrtH === null ? 0 : count - 1);
   return perFamily(layout.zwdCount, options.zwd) + (options.gradients ? 2 * perFamily(layout.gradientCount, options.gradients) : 0);
 }
 
 function families(design: Design, layout: ParameterLayout, options: ZwdEstimationOptions): Family[] {
   const out: Family[] = [{ offset: 0, count: layout.zwdCount, settings: options.zwd, nodeMs: design.zwd.nodeMs, current: -1 }];
   if (options.gradients && design.gradients) {
-    out.push({ offset: layout.northOffset, count: layout.gradientCount, settings: options.gradients, nodeMs: design.gradients.nodeMs, current: -1 });
-    out.push({ offset: layout.eastOffset, count: layout.gradientCount, settings: options.gradients, nodeMs: design.gradients.nodeMs, current: -1 });
+    out.push({
+      offset: layout.northOffset,
+      count: layout.gradientCount,
+      settings: options.gradients,
+      nodeMs: design.gradients.nodeMs,
+      current: -1,
+    });
+    out.push({
+      offset: layout.eastOffset,
+      count: layout.gradientCount,
+      settings: options.gradients,
+      nodeMs: design.gradients.nodeMs,
+      current: -1,
+    });
   }
   return out;
 }
@@ -240,9 +253,18 @@ function assembleAndFactor(design: Design, layout: ParameterLayout, fams: Family
     const mE = bias ? swE / sw : 0;
 
     // Pass 2: centred 3×3 normal matrix M = Σ w (m − m̄)(m − m̄)ᵀ and h = Σ w (m − m̄)(r − r̄).
-    let mWW = 0, mWN = 0, mWE = 0, mNN = 0, mNE = 0, mEE = 0;
-    let hW = 0, hN = 0, hE = 0;
-    let dW = 0, dN = 0, dE = 0;
+    let mWW = 0,
+      mWN = 0,
+      mWE = 0,
+      mNN = 0,
+      mNE = 0,
+      mEE = 0;
+    let hW = 0,
+      hN = 0,
+      hE = 0;
+    let dW = 0,
+      dN = 0,
+      dE = 0;
     for (let s = start; s < end; s++) {
       if (!used[s]) continue;
       observationsUsed++;
@@ -296,7 +318,14 @@ function assembleAndFactor(design: Design, layout: ParameterLayout, fams: Family
  * Post-fit residuals v_i, epoch biases b̂_k and residual variances σ_v_i² (header), with the
  * observations' share of Ω (vᵀPv) and their redundancy Σ σ_v_i²/σ_i².
  */
-function postFitResiduals(design: Design, layout: ParameterLayout, bias: boolean, used: Uint8Array, x: Float64Array, inverse: SelectedInverse) {
+function postFitResiduals(
+  design: Design,
+  layout: ParameterLayout,
+  bias: boolean,
+  used: Uint8Array,
+  x: Float64Array,
+  inverse: SelectedInverse,
+) {
   const withGradients = layout.gradientCount > 0;
   const nLocal = withGradients ? LOCAL_PARAMETERS : 2;
   const epochs = design.epochMs.length;
@@ -353,7 +382,12 @@ function postFitResiduals(design: Design, layout: ParameterLayout, bias: boolean
     for (let p = 0; p < nLocal; p++) {
       for (let r = 0; r < nLocal; r++) q3[FAMILY[p]! * 3 + FAMILY[r]!]! += interp[p]! * q6[p * LOCAL_PARAMETERS + r]! * interp[r]!;
     }
-    const qWW = q3[0]!, qWN = q3[1]!, qWE = q3[2]!, qNN = q3[4]!, qNE = q3[5]!, qEE = q3[8]!;
+    const qWW = q3[0]!,
+      qWN = q3[1]!,
+      qWE = q3[2]!,
+      qNN = q3[4]!,
+      qNE = q3[5]!,
+      qEE = q3[8]!;
     const biasVariance = bias ? 1 / sw : 0;
     for (let s = start; s < end; s++) {
       if (!used[s]) continue;

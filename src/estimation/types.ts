@@ -238,4 +238,3 @@ export interface ZwdEstimationOutput {
   statistics: ZwdEstimationStatistics;
   warnings: string[];
 }
-

@@ -71,7 +71,8 @@ function checkHeaderWidth(text: string, comment: string | undefined): void {
     if (lineText !== '' && !(comment && lineText.startsWith(comment))) {
       let commas = 0;
       for (let k = lineText.indexOf(','); k >= 0; k = lineText.indexOf(',', k + 1)) {
-        if (++commas >= MAX_CSV_COLUMNS) throw new CsvFormatError(line, `the header has more than ${MAX_CSV_COLUMNS} columns; a table has at most ${MAX_CSV_COLUMNS}`);
+        if (++commas >= MAX_CSV_COLUMNS)
+          throw new CsvFormatError(line, `the header has more than ${MAX_CSV_COLUMNS} columns; a table has at most ${MAX_CSV_COLUMNS}`);
       }
       return;
     }
@@ -110,7 +111,9 @@ export function readCsvTable(text: string, options: CsvReadOptions = {}): CsvTab
   if (max && parsed.length > max.limit + 1) throw new RecordLimitError(max.limit, parsed[max.limit + 1]!.info.lines, max.what);
   const first = parsed[0];
   if (!first) return { header: [], headerLine: 1, rows: [], problems: [] };
-  const header = first.record.map((h) => (h.length > MAX_CELL_CHARS ? h.slice(0, 40) + '…' : options.lowercaseHeader ? h.toLowerCase() : h));
+  const header = first.record.map((h) =>
+    h.length > MAX_CELL_CHARS ? h.slice(0, 40) + '…' : options.lowercaseHeader ? h.toLowerCase() : h,
+  );
   const rows: CsvTextRow[] = [];
   const problems: CsvRowProblem[] = [];
   for (let k = 1; k < parsed.length; k++) {
@@ -122,7 +125,12 @@ export function readCsvTable(text: string, options: CsvReadOptions = {}): CsvTab
     }
     const long = record.findIndex((cell) => cell.length > MAX_CELL_CHARS);
     if (long >= 0) {
-      problems.push({ line: info.lines, row, column: header[long]!, reason: `${header[long]}: a cell of ${record[long]!.length} characters; at most ${MAX_CELL_CHARS}` });
+      problems.push({
+        line: info.lines,
+        row,
+        column: header[long]!,
+        reason: `${header[long]}: a cell of ${record[long]!.length} characters; at most ${MAX_CELL_CHARS}`,
+      });
       continue;
     }
     rows.push({ line: info.lines, row, cells: record });

@@ -39,4 +39,3 @@ export function isoEpoch(ms: number): string {
   }
   return cachedDayPrefix + timeOfDayText(ms - day * DAY_MS);
 }
-

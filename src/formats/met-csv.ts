@@ -14,7 +14,14 @@ import { MAX_MET_RECORDS } from '../limits.js';
 
 export { CsvFormatError, csvCell, type CsvRowProblem } from './csv-table.js';
 
-export const MET_CSV_COLUMNS = ['epoch', 'pressure_hpa', 'temperature_c', 'relative_humidity_pct', 'dewpoint_c', 'vapour_pressure_hpa'] as const;
+export const MET_CSV_COLUMNS = [
+  'epoch',
+  'pressure_hpa',
+  'temperature_c',
+  'relative_humidity_pct',
+  'dewpoint_c',
+  'vapour_pressure_hpa',
+] as const;
 
 export interface CsvRow {
   /** 1-based line in the text. */

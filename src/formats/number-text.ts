@@ -26,10 +26,16 @@ export function readNumber(text: string, options: { fortranExponent?: boolean } 
   let c = text.charCodeAt(0);
   if (c === 43 || c === 45) i++; // + -
   let mantissaDigits = 0;
-  while (i < n && isDigit(text.charCodeAt(i))) { i++; mantissaDigits++; }
+  while (i < n && isDigit(text.charCodeAt(i))) {
+    i++;
+    mantissaDigits++;
+  }
   if (i < n && text.charCodeAt(i) === 46) {
     i++; // .
-    while (i < n && isDigit(text.charCodeAt(i))) { i++; mantissaDigits++; }
+    while (i < n && isDigit(text.charCodeAt(i))) {
+      i++;
+      mantissaDigits++;
+    }
   }
   if (mantissaDigits === 0) return undefined;
   let fortran = false;
@@ -42,7 +48,10 @@ export function readNumber(text: string, options: { fortranExponent?: boolean } 
     i++;
     if (i < n && (text.charCodeAt(i) === 43 || text.charCodeAt(i) === 45)) i++;
     let exponentDigits = 0;
-    while (i < n && isDigit(text.charCodeAt(i))) { i++; exponentDigits++; }
+    while (i < n && isDigit(text.charCodeAt(i))) {
+      i++;
+      exponentDigits++;
+    }
     if (exponentDigits === 0 || i !== n) return undefined;
   }
   return Number(fortran ? text.replace(/[dD]/, 'e') : text);

@@ -52,7 +52,10 @@ export function readObservationCsv(text: string): ObservationCsvRecord[] {
       unknown.length ? `unknown column(s) ${unknown.join(', ')}` : '',
       repeated.length ? `repeated column(s) ${repeated.join(', ')}` : '',
     ].filter(Boolean);
-    throw new FormatError('body', `${parts.join('; ')}: the header row must name ${OBSERVATION_CSV_REQUIRED_COLUMNS.join(', ')} and optionally sigma_m`);
+    throw new FormatError(
+      'body',
+      `${parts.join('; ')}: the header row must name ${OBSERVATION_CSV_REQUIRED_COLUMNS.join(', ')} and optionally sigma_m`,
+    );
   }
   const problem = table.problems[0];
   if (problem) {

@@ -38,21 +38,36 @@ export function writeRinexMet(input: RinexMetWriterInput): string {
     major === 2
       ? `${two(c.getUTCDate())}-${['JAN', 'FEB', 'MAR', 'APR', 'MAY', 'JUN', 'JUL', 'AUG', 'SEP', 'OCT', 'NOV', 'DEC'][c.getUTCMonth()]}-${two(c.getUTCFullYear() % 100)} ${two(c.getUTCHours())}:${two(c.getUTCMinutes())}`
       : `${c.getUTCFullYear()}${two(c.getUTCMonth() + 1)}${two(c.getUTCDate())} ${two(c.getUTCHours())}${two(c.getUTCMinutes())}${two(c.getUTCSeconds())} UTC`;
-  out.push(headerLine(`${input.program.padEnd(20).slice(0, 20)}${input.runBy.padEnd(20).slice(0, 20)}${date.padEnd(20)}`, 'PGM / RUN BY / DATE'));
+  out.push(
+    headerLine(`${input.program.padEnd(20).slice(0, 20)}${input.runBy.padEnd(20).slice(0, 20)}${date.padEnd(20)}`, 'PGM / RUN BY / DATE'),
+  );
   for (const comment of input.comments ?? []) out.push(headerLine(comment, 'COMMENT'));
   out.push(headerLine(input.markerName, 'MARKER NAME'));
   if (input.markerNumber) out.push(headerLine(input.markerNumber, 'MARKER NUMBER'));
   const types = input.observationTypes;
   for (let k = 0; k < Math.max(1, Math.ceil(types.length / 9)); k++) {
-    const chunk = types.slice(9 * k, 9 * k + 9).map((t) => `    ${t.padEnd(2)}`).join('');
+    const chunk = types
+      .slice(9 * k, 9 * k + 9)
+      .map((t) => `    ${t.padEnd(2)}`)
+      .join('');
     out.push(headerLine(`${k === 0 ? String(types.length).padStart(6) : ' '.repeat(6)}${chunk}`, '# / TYPES OF OBSERV'));
   }
   for (const s of input.sensors ?? []) {
-    out.push(headerLine(`${s.model.padEnd(20).slice(0, 20)}${s.type.padEnd(20).slice(0, 20)}${' '.repeat(6)}${f(s.accuracy, 7, 1)}    ${s.observationType.padEnd(2)} `, 'SENSOR MOD/TYPE/ACC'));
+    out.push(
+      headerLine(
+        `${s.model.padEnd(20).slice(0, 20)}${s.type.padEnd(20).slice(0, 20)}${' '.repeat(6)}${f(s.accuracy, 7, 1)}    ${s.observationType.padEnd(2)} `,
+        'SENSOR MOD/TYPE/ACC',
+      ),
+    );
   }
   for (const s of input.sensors ?? []) {
     if (!s.xyzM) continue;
-    out.push(headerLine(`${s.xyzM.map((v) => f(v, 14, 4)).join('')}${f(s.heightM ?? 0, 14, 4)} ${s.observationType.padEnd(2)} `, 'SENSOR POS XYZ/H'));
+    out.push(
+      headerLine(
+        `${s.xyzM.map((v) => f(v, 14, 4)).join('')}${f(s.heightM ?? 0, 14, 4)} ${s.observationType.padEnd(2)} `,
+        'SENSOR POS XYZ/H',
+      ),
+    );
   }
   out.push(headerLine('', 'END OF HEADER'));
 
@@ -64,7 +79,16 @@ export function writeRinexMet(input: RinexMetWriterInput): string {
         : ` ${g.getUTCFullYear()} ${i2(g.getUTCMonth() + 1)} ${i2(g.getUTCDate())} ${i2(g.getUTCHours())} ${i2(g.getUTCMinutes())} ${i2(g.getUTCSeconds())}`;
     const cell = (v: number | null | undefined) => (v === null || v === undefined ? ' '.repeat(7) : f(v, 7, 1));
     out.push((epoch + r.values.slice(0, 8).map(cell).join('')).trimEnd());
-    for (let k = 8; k < r.values.length; k += 10) out.push(('    ' + r.values.slice(k, k + 10).map(cell).join('')).trimEnd());
+    for (let k = 8; k < r.values.length; k += 10)
+      out.push(
+        (
+          '    ' +
+          r.values
+            .slice(k, k + 10)
+            .map(cell)
+            .join('')
+        ).trimEnd(),
+      );
   }
   return out.join('\n') + '\n';
 }

@@ -170,13 +170,19 @@ export function parseRinexMet(text: string): RinexMetFile {
       for (let k = 0; k < 9 && types.length < declaredTypes; k++) {
         const code = line.slice(10 + 6 * k, 12 + 6 * k).trim();
         if (!/^[A-Z]{2}$/.test(code)) {
-          throw new RinexFormatError(lineNo, `observation type ${types.length + 1} "${code}" is not a two-letter code (4X,A2 fields from column 7)`);
+          throw new RinexFormatError(
+            lineNo,
+            `observation type ${types.length + 1} "${code}" is not a two-letter code (4X,A2 fields from column 7)`,
+          );
         }
         types.push(code);
       }
       const extra = listedCodes(line).length - (types.length - typesBefore);
       if (extra > 0) {
-        throw new RinexFormatError(lineNo, `the line lists ${extra} observation type(s) more than the declared ${declaredTypes} ("# / TYPES OF OBSERV" count, columns 1-6); the header must declare every type`);
+        throw new RinexFormatError(
+          lineNo,
+          `the line lists ${extra} observation type(s) more than the declared ${declaredTypes} ("# / TYPES OF OBSERV" count, columns 1-6); the header must declare every type`,
+        );
       }
     } else if (what === 'SENSOR MOD/TYPE/ACC') {
       const accuracy = parseField(line.slice(46, 53));
@@ -196,10 +202,16 @@ export function parseRinexMet(text: string): RinexMetFile {
   if (!endOfHeader) throw new RinexFormatError(lines.lineNo, 'no "END OF HEADER" line');
   const headerEnd = lines.lineNo;
   if (declaredTypes === null || types.length !== declaredTypes) {
-    throw new RinexFormatError(headerEnd, `the header must declare the observation types ("# / TYPES OF OBSERV"); found ${types.length} of ${declaredTypes ?? 0}`);
+    throw new RinexFormatError(
+      headerEnd,
+      `the header must declare the observation types ("# / TYPES OF OBSERV"); found ${types.length} of ${declaredTypes ?? 0}`,
+    );
   }
   if (!types.some((t) => t === 'PR' || t === 'TD')) {
-    throw new RinexFormatError(headerEnd, `the file has neither PR (pressure) nor TD (dry temperature) among its types (${types.join(', ')})`);
+    throw new RinexFormatError(
+      headerEnd,
+      `the file has neither PR (pressure) nor TD (dry temperature) among its types (${types.join(', ')})`,
+    );
   }
 
   const epochWidth = major === 2 ? 18 : 20;
@@ -221,7 +233,10 @@ export function parseRinexMet(text: string): RinexMetFile {
     for (let c = 0; c < continuationLines; c++) {
       const next = lines.next();
       if (next === undefined) {
-        throw new RinexFormatError(lineNo, `the last record is partial: ${continuationLines - c} of its ${continuationLines} continuation line(s) are missing at the end of the file`);
+        throw new RinexFormatError(
+          lineNo,
+          `the last record is partial: ${continuationLines - c} of its ${continuationLines} continuation line(s) are missing at the end of the file`,
+        );
       }
       const before = fields.length;
       for (let k = 0; k < 10 && fields.length < types.length; k++) fields.push(next.slice(4 + 7 * k, 4 + 7 * (k + 1)));
@@ -230,10 +245,16 @@ export function parseRinexMet(text: string): RinexMetFile {
     }
     const cut = recordLines.find((l) => endsInsideField(l.text, l.start));
     if (cut && !lines.terminated && cut === recordLines[recordLines.length - 1]) {
-      throw new RinexFormatError(cut.lineNo, `the last record is partial: the file ends inside a field (${cut.text.trimEnd().length} characters; fields are F7.1 from column ${cut.start + 1})`);
+      throw new RinexFormatError(
+        cut.lineNo,
+        `the last record is partial: the file ends inside a field (${cut.text.trimEnd().length} characters; fields are F7.1 from column ${cut.start + 1})`,
+      );
     }
     if (cut) {
-      rejected.push({ line: lineNo, reason: `line ${cut.lineNo} stops inside a field (${cut.text.trimEnd().length} characters; right-aligned F7.1 fields from column ${cut.start + 1}): the line was cut` });
+      rejected.push({
+        line: lineNo,
+        reason: `line ${cut.lineNo} stops inside a field (${cut.text.trimEnd().length} characters; right-aligned F7.1 fields from column ${cut.start + 1}): the line was cut`,
+      });
       continue;
     }
 
@@ -303,7 +324,10 @@ function listedCodes(line: string): string[] {
 /** A data line carries nothing past its declared fields, else the header lies about the number of types. */
 function checkNothingPast(line: string, end: number, lineNo: number, declared: number): void {
   if (line.length > end && line.slice(end).trim() !== '') {
-    throw new RinexFormatError(lineNo, `values past the ${declared} declared observation types (from column ${end + 1}); the header's "# / TYPES OF OBSERV" must list every type of the records`);
+    throw new RinexFormatError(
+      lineNo,
+      `values past the ${declared} declared observation types (from column ${end + 1}); the header's "# / TYPES OF OBSERV" must list every type of the records`,
+    );
   }
 }
 
@@ -318,9 +342,10 @@ function endsInsideField(line: string, start: number): boolean {
 
 /** @returns the GPS calendar reading encoded as UTC ms, or the reason it is not an epoch */
 function parseEpoch(text: string, major: number): number | string {
-  const parts = major === 2 ? [text.slice(1, 3), text.slice(4, 6), text.slice(7, 9), text.slice(10, 12), text.slice(13, 15), text.slice(16, 18)] : [
-    text.slice(1, 5), text.slice(6, 8), text.slice(9, 11), text.slice(12, 14), text.slice(15, 17), text.slice(18, 20),
-  ];
+  const parts =
+    major === 2
+      ? [text.slice(1, 3), text.slice(4, 6), text.slice(7, 9), text.slice(10, 12), text.slice(13, 15), text.slice(16, 18)]
+      : [text.slice(1, 5), text.slice(6, 8), text.slice(9, 11), text.slice(12, 14), text.slice(15, 17), text.slice(18, 20)];
   if (!parts.every((p) => /^\s*\d+$/.test(p))) {
     return `epoch "${text.trim()}" does not follow the format (${major === 2 ? '1X,I2.2,5(1X,I2)' : '1X,I4,5(1X,I2)'})`;
   }

@@ -17,7 +17,9 @@ export function issuesToFieldErrors(
   location: 'body' | 'query' = 'body',
 ): FieldError[] {
   return issues.flatMap((i) =>
-    i.code === 'unrecognized_keys' && i.keys?.length ? expandUnknownKeys(i.path, i.keys, i.message, location) : [{ field: fieldName(i.path, location), message: i.message }],
+    i.code === 'unrecognized_keys' && i.keys?.length
+      ? expandUnknownKeys(i.path, i.keys, i.message, location)
+      : [{ field: fieldName(i.path, location), message: i.message }],
   );
 }
 

@@ -18,7 +18,9 @@ export function keepJsonBodiesAsBytes(app: FastifyInstance): void {
 // fastify types a route's validatorCompiler with the whole route schema; each call gets one part's zod schema.
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 export const bodyInWorkerValidator: FastifySchemaCompiler<any> = (route) =>
-  route.httpPart === 'body' ? (data: unknown) => ({ value: data }) : validatorCompiler(route as unknown as Parameters<typeof validatorCompiler>[0]);
+  route.httpPart === 'body'
+    ? (data: unknown) => ({ value: data })
+    : validatorCompiler(route as unknown as Parameters<typeof validatorCompiler>[0]);
 
 export interface RawBody {
   body: Uint8Array | string;

@@ -17,7 +17,10 @@ export interface AnswerSize {
 }
 
 /** Output nodes of an estimation over the epochs [ms] with the options' node intervals; zero nodes without epochs. */
-export function answerSize(epochMs: readonly number[], options: Pick<ZwdOptionValues, 'zwdIntervalS' | 'gradients' | 'gradientIntervalS'>): AnswerSize {
+export function answerSize(
+  epochMs: readonly number[],
+  options: Pick<ZwdOptionValues, 'zwdIntervalS' | 'gradients' | 'gradientIntervalS'>,
+): AnswerSize {
   let first = Infinity;
   let last = -Infinity;
   for (const t of epochMs) {
@@ -35,7 +38,10 @@ export function answerSize(epochMs: readonly number[], options: Pick<ZwdOptionVa
  * @throws CallerError 422 naming the interval to raise when the answer would hold more than
  *   MAX_ANSWER_NODES output nodes
  */
-export function checkAnswerSize(epochMs: readonly number[], options: Pick<ZwdOptionValues, 'zwdIntervalS' | 'gradients' | 'gradientIntervalS'>): void {
+export function checkAnswerSize(
+  epochMs: readonly number[],
+  options: Pick<ZwdOptionValues, 'zwdIntervalS' | 'gradients' | 'gradientIntervalS'>,
+): void {
   const { zwdNodes, gradientNodes } = answerSize(epochMs, options);
   if (zwdNodes + gradientNodes <= MAX_ANSWER_NODES) return;
   let first = Infinity;
@@ -51,7 +57,9 @@ export function checkAnswerSize(epochMs: readonly number[], options: Pick<ZwdOpt
   const zwdMinS = room > 2 ? Math.ceil(spanS / (room - 2)) : null;
   const parts = [
     `the answer would hold ${zwdNodes + gradientNodes} output nodes (${zwdNodes} ZWD at ${options.zwdIntervalS} s${options.gradients ? `, ${gradientNodes} gradient at ${options.gradientIntervalS} s` : ''}) over the ${spanH} h of observations; at most ${MAX_ANSWER_NODES}`,
-    zwdMinS !== null ? `ask for less: zwd_interval_s of at least ${zwdMinS} s for this span, or a shorter span (at ${options.zwdIntervalS} s, at most ${((MAX_ANSWER_NODES - 1 - gradientNodes) * options.zwdIntervalS / 3600).toFixed(1)} h)` : 'ask for less: larger zwd_interval_s and gradient interval_s, or a shorter span',
+    zwdMinS !== null
+      ? `ask for less: zwd_interval_s of at least ${zwdMinS} s for this span, or a shorter span (at ${options.zwdIntervalS} s, at most ${(((MAX_ANSWER_NODES - 1 - gradientNodes) * options.zwdIntervalS) / 3600).toFixed(1)} h)`
+      : 'ask for less: larger zwd_interval_s and gradient interval_s, or a shorter span',
   ];
   const field = gradientNodes > zwdNodes ? 'options.gradients.interval_s' : 'options.zwd_interval_s';
   throw new CallerError(422, `${field}: ${parts.join('; ')}`, [{ field, message: parts.join('; ') }]);

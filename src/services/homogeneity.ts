@@ -38,13 +38,18 @@ export function summariseModelSets(
       last_epoch: new Date(s.last).toISOString(),
       count: s.count,
     }))
-    .sort((a, b) => (a.first_epoch < b.first_epoch ? -1 : a.first_epoch > b.first_epoch ? 1 : a.model_fingerprint < b.model_fingerprint ? -1 : 1));
+    .sort((a, b) =>
+      a.first_epoch < b.first_epoch ? -1 : a.first_epoch > b.first_epoch ? 1 : a.model_fingerprint < b.model_fingerprint ? -1 : 1,
+    );
   const homogeneous = model_sets.length <= 1;
   const warnings = homogeneous
     ? []
     : [
         `the range mixes ${model_sets.length} model sets, so the series is not homogeneous: ${model_sets
-          .map((m) => `${m.model_fingerprint} (${m.sources.join(', ')}) ${m.first_epoch}..${m.last_epoch}, ${m.count} record${m.count === 1 ? '' : 's'}`)
+          .map(
+            (m) =>
+              `${m.model_fingerprint} (${m.sources.join(', ')}) ${m.first_epoch}..${m.last_epoch}, ${m.count} record${m.count === 1 ? '' : 's'}`,
+          )
           .join('; ')}`,
       ];
   return { homogeneous, model_sets, warnings };

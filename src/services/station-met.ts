@@ -24,7 +24,8 @@ export function antennaReduction(station: Pick<Station, 'heightM' | 'metHeightM'
   return {
     dHeightM,
     /** Pressure at the antenna [hPa] from the sensor's pressure [hPa] and temperature [°C]. */
-    pressureHpa: (pressureHpa: number, temperatureC: number) => (dHeightM === 0 ? pressureHpa : reducePressureHpa(pressureHpa, temperatureC, dHeightM)),
+    pressureHpa: (pressureHpa: number, temperatureC: number) =>
+      dHeightM === 0 ? pressureHpa : reducePressureHpa(pressureHpa, temperatureC, dHeightM),
     /** Temperature at the antenna [°C]. */
     temperatureC: (temperatureC: number) => reduceTemperatureC(temperatureC, dHeightM),
   };

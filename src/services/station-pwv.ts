@@ -21,9 +21,18 @@
  */
 
 import { DEG } from '../domain/constants.js';
-import { DEFAULT_MAX_MET_GAP_MS, interpolateSeries, type InterpolationQuality, type TimedValue } from '../domain/meteo/met-interpolation.js';
+import {
+  DEFAULT_MAX_MET_GAP_MS,
+  interpolateSeries,
+  type InterpolationQuality,
+  type TimedValue,
+} from '../domain/meteo/met-interpolation.js';
 import { MODEL_NAMES, provenance } from '../domain/provenance.js';
-import { negativeWetDelayWarning, precipitableWaterFromSurfaceMet, tmExtrapolatedWarning } from '../domain/water-vapour/precipitable-water.js';
+import {
+  negativeWetDelayWarning,
+  precipitableWaterFromSurfaceMet,
+  tmExtrapolatedWarning,
+} from '../domain/water-vapour/precipitable-water.js';
 import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
 import type { Station, SurfaceMetRow, ZenithDelayRow } from '../storage/repository.js';
 import { antennaReduction } from './station-met.js';
@@ -105,12 +114,26 @@ export function stationPrecipitableWater(
   const dHeightM = reduce.dHeightM;
 
   const epochs = delays.map((d) => d.epochMs);
-  const pressures = interpolateSeries(series(met, (r) => r.pressureHpa), epochs, maxMetGapMs);
-  const temperatures = interpolateSeries(series(met, (r) => r.temperatureC), epochs, maxMetGapMs);
+  const pressures = interpolateSeries(
+    series(met, (r) => r.pressureHpa),
+    epochs,
+    maxMetGapMs,
+  );
+  const temperatures = interpolateSeries(
+    series(met, (r) => r.temperatureC),
+    epochs,
+    maxMetGapMs,
+  );
 
   const warnings: string[] = [];
   let extraWarnings = 0;
-  const counts: Record<PwvQuality, number> = { 'met-missing': 0, 'delay-sigma-large': 0, 'delay-sigma-unknown': 0, 'met-interpolated': 0, ok: 0 };
+  const counts: Record<PwvQuality, number> = {
+    'met-missing': 0,
+    'delay-sigma-large': 0,
+    'delay-sigma-unknown': 0,
+    'met-interpolated': 0,
+    ok: 0,
+  };
   const records = new Array<StationPwvRecord>(delays.length);
   for (let i = 0; i < delays.length; i++) {
     const d = delays[i]!;
@@ -189,7 +212,9 @@ export function stationPrecipitableWater(
     );
   }
   if (counts['delay-sigma-unknown'] > 0) {
-    warnings.push(`${counts['delay-sigma-unknown']} record(s) have no ztd_sigma_m: their pwv_sigma_mm is null (quality "delay-sigma-unknown")`);
+    warnings.push(
+      `${counts['delay-sigma-unknown']} record(s) have no ztd_sigma_m: their pwv_sigma_mm is null (quality "delay-sigma-unknown")`,
+    );
   }
   if (counts['delay-sigma-large'] > 0) {
     warnings.push(`${counts['delay-sigma-large']} record(s) have ztd_sigma_m above ${maxZtdSigmaM} m (quality "delay-sigma-large")`);

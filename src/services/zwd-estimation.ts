@@ -119,31 +119,56 @@ function interpolateMet(met: MetColumns, epochsMs: readonly number[], maxGapS: n
   }
   const maxGapMs = maxGapS * 1000;
   return {
-    pressure: interpolateSeries(order.map((i) => ({ epochMs: met.epochMs[i]!, value: met.pressureHpa[i]! })), epochsMs, maxGapMs),
-    temperature: interpolateSeries(order.map((i) => ({ epochMs: met.epochMs[i]!, value: met.temperatureC[i]! })), epochsMs, maxGapMs),
+    pressure: interpolateSeries(
+      order.map((i) => ({ epochMs: met.epochMs[i]!, value: met.pressureHpa[i]! })),
+      epochsMs,
+      maxGapMs,
+    ),
+    temperature: interpolateSeries(
+      order.map((i) => ({ epochMs: met.epochMs[i]!, value: met.temperatureC[i]! })),
+      epochsMs,
+      maxGapMs,
+    ),
   };
 }
 
-const quality = (p: InterpolationQuality, t: InterpolationQuality): MetQuality => (p === 'measured' && t === 'measured' ? 'measured' : 'interpolated');
+const quality = (p: InterpolationQuality, t: InterpolationQuality): MetQuality =>
+  p === 'measured' && t === 'measured' ? 'measured' : 'interpolated';
 
 const MISSING: EpochMetResult = { met: 'missing', zhdM: null, zwdM: null, tmK: null, pwvMm: null, pwvSigmaMm: null, pwvTotalSigmaMm: null };
 
 /** ZHD, ZWD, Tm and PWV per epoch from the interpolated met; per-epoch warnings by code. */
-function metPerEpoch(request: ZwdEstimationRequest, output: ZwdEstimationOutput, ztdM: (k: number) => number, perEpoch: Warning[]): EpochMetResult[] | null {
+function metPerEpoch(
+  request: ZwdEstimationRequest,
+  output: ZwdEstimationOutput,
+  ztdM: (k: number) => number,
+  perEpoch: Warning[],
+): EpochMetResult[] | null {
   if (!request.met) return null;
   const { site } = request;
   const latitudeRad = site.latitudeDeg * DEG;
-  const met = interpolateMet(request.met, output.epochs.map((e) => e.epochMs), request.options.metMaxGapS);
+  const met = interpolateMet(
+    request.met,
+    output.epochs.map((e) => e.epochMs),
+    request.options.metMaxGapS,
+  );
   return output.epochs.map((e, k) => {
     const p = met.pressure[k]!;
     const t = met.temperature[k]!;
     if (p.value === null || t.value === null) return MISSING;
     const pwv = precipitableWaterFromSurfaceMet(ztdM(k), e.sigmaM, p.value, t.value, latitudeRad, site.heightM);
     if (pwv.wetDelayNegative) {
-      perEpoch.push(warning('negative-wet-delay', 'series.zwd_m: wet delay is negative (ZTD below the hydrostatic delay); PWV is negative too'));
+      perEpoch.push(
+        warning('negative-wet-delay', 'series.zwd_m: wet delay is negative (ZTD below the hydrostatic delay); PWV is negative too'),
+      );
     }
     if (pwv.tmExtrapolated) {
-      perEpoch.push(warning('tm-extrapolated', 'series.temperature_c: the temperature is outside the data of the Bevis Tm regression; Tm is extrapolated'));
+      perEpoch.push(
+        warning(
+          'tm-extrapolated',
+          'series.temperature_c: the temperature is outside the data of the Bevis Tm regression; Tm is extrapolated',
+        ),
+      );
     }
     return {
       met: quality(p.quality, t.quality),
@@ -166,7 +191,8 @@ export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationRe
   const latitudeRad = site.latitudeDeg * DEG;
   const warnings: Warning[] = [];
   const zhdSource = request.apriori.zhdM === undefined ? ('standard-atmosphere' as const) : ('caller' as const);
-  const aprioriZhdM = request.apriori.zhdM ?? zenithHydrostaticDelayM(standardAtmosphere(site.heightM).pressureHpa, latitudeRad, site.heightM);
+  const aprioriZhdM =
+    request.apriori.zhdM ?? zenithHydrostaticDelayM(standardAtmosphere(site.heightM).pressureHpa, latitudeRad, site.heightM);
   const aprioriZwdM = request.apriori.zwdM ?? 0;
   if (zhdSource === 'standard-atmosphere') {
     warnings.push(
@@ -178,7 +204,12 @@ export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationRe
   }
 
   guardResidualUnit(request.observations.epochMs, request.observations.residualM);
-  const estimate = estimateZwd({ latitudeRad, heightM: request.site.heightM, observations: request.observations, options: toEstimatorOptions(options) });
+  const estimate = estimateZwd({
+    latitudeRad,
+    heightM: request.site.heightM,
+    observations: request.observations,
+    options: toEstimatorOptions(options),
+  });
   warnings.push(...estimate.warnings.map((text) => warning('estimator', text)));
 
   const perEpoch: Warning[] = [];

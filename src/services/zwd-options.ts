@@ -73,7 +73,8 @@ export type OptionSpec = NumberOptionSpec | BooleanOptionSpec | EnumOptionSpec;
 export const GRADIENTS_GROUP = {
   name: 'gradients',
   default: true,
-  description: 'Horizontal gradients G_N, G_E (Chen & Herring 1997 mapping), random walks like the ZWD; null (text/csv: gradients=off) = not estimated',
+  description:
+    'Horizontal gradients G_N, G_E (Chen & Herring 1997 mapping), random walks like the ZWD; null (text/csv: gradients=off) = not estimated',
 } as const;
 
 export const ZWD_OPTIONS = [
@@ -87,7 +88,8 @@ export const ZWD_OPTIONS = [
     max: MAX_INTERVAL_S,
     default: 300,
     unit: 's',
-    description: 'Spacing Δ of the ZWD nodes of the output, on round UTC epochs jΔ (multiples of Δ since 1970-01-01T00:00Z); with parametrisation "nodes" also the spacing of the piecewise-linear model',
+    description:
+      'Spacing Δ of the ZWD nodes of the output, on round UTC epochs jΔ (multiples of Δ since 1970-01-01T00:00Z); with parametrisation "nodes" also the spacing of the piecewise-linear model',
     fingerprint: 'setting',
   },
   {
@@ -272,7 +274,8 @@ export const ZWD_OPTIONS = [
     nullMeans: 'sigma0_m / 3',
     default: null,
     unit: 'm',
-    description: 'a of weighting "elevation-components" (σ² = a² + b²/sin²e), the starting value when scale_sigmas re-estimates it; ignored by the other schemes',
+    description:
+      'a of weighting "elevation-components" (σ² = a² + b²/sin²e), the starting value when scale_sigmas re-estimates it; ignored by the other schemes',
     fingerprint: 'setting',
   },
   {
@@ -294,7 +297,8 @@ export const ZWD_OPTIONS = [
     type: 'boolean',
     default: true,
     unit: '',
-    description: 'Estimate the residuals\' time correlation per satellite arc and inflate the formal errors by it (docs/zwd-estimation.md, "Formal errors")',
+    description:
+      'Estimate the residuals\' time correlation per satellite arc and inflate the formal errors by it (docs/zwd-estimation.md, "Formal errors")',
     fingerprint: 'setting',
   },
   {
@@ -305,7 +309,8 @@ export const ZWD_OPTIONS = [
     values: WET_MAPPING_MODELS,
     default: 'niell',
     unit: '',
-    description: 'Wet mapping function of the estimator (src/domain/mapping registry; VMF1 needs per-epoch coefficients and is not offered here yet)',
+    description:
+      'Wet mapping function of the estimator (src/domain/mapping registry; VMF1 needs per-epoch coefficients and is not offered here yet)',
     fingerprint: 'setting',
   },
   {

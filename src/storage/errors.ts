@@ -59,7 +59,17 @@ function pgFailure(code: string): StorageFailure | null {
 }
 
 /** Node's socket error codes on a database connection. */
-const NETWORK_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'EHOSTUNREACH', 'ENETUNREACH', 'ENOTFOUND', 'EAI_AGAIN', 'ECONNABORTED']);
+const NETWORK_CODES = new Set([
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'ETIMEDOUT',
+  'EPIPE',
+  'EHOSTUNREACH',
+  'ENETUNREACH',
+  'ENOTFOUND',
+  'EAI_AGAIN',
+  'ECONNABORTED',
+]);
 
 /** better-sqlite3's SqliteError codes (SQLite result codes, https://sqlite.org/rescode.html). */
 function sqliteFailure(code: string): StorageFailure | null {

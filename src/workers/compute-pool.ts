@@ -103,7 +103,11 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
    * @throws ComputePoolFullError when the queue is full
    * @throws ComputeTaskError when the task answers with an error outcome
    */
-  async run<K extends keyof Tasks & string>(task: K, input: TaskInput<Tasks[K]>, transfer: ArrayBuffer[] = []): Promise<TaskOutput<Tasks[K]>> {
+  async run<K extends keyof Tasks & string>(
+    task: K,
+    input: TaskInput<Tasks[K]>,
+    transfer: ArrayBuffer[] = [],
+  ): Promise<TaskOutput<Tasks[K]>> {
     const pool = (this.pool ??= new Piscina({
       ...workerLocation(),
       minThreads: this.options.threads, // all started at once: no thread is spawned in the middle of a load

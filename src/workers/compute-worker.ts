@@ -17,7 +17,9 @@ const requireHere = createRequire(import.meta.url);
  * import(), so a .ts task module is loaded the same way as this file.
  */
 const load = (url: string): Promise<Record<string, unknown>> =>
-  url.endsWith('.ts') ? Promise.resolve(requireHere(fileURLToPath(url)) as Record<string, unknown>) : (import(url) as Promise<Record<string, unknown>>);
+  url.endsWith('.ts')
+    ? Promise.resolve(requireHere(fileURLToPath(url)) as Record<string, unknown>)
+    : (import(url) as Promise<Record<string, unknown>>);
 
 export default async function computeWorker(request: ComputeRequest): Promise<ComputeResponse> {
   let loading = modules.get(request.module);
@@ -41,7 +43,8 @@ function ownedBuffers(outcome: unknown): ArrayBuffer[] {
   const found = new Set<ArrayBuffer>();
   const visit = (value: unknown, depth: number) => {
     if (ArrayBuffer.isView(value)) {
-      if (value.buffer instanceof ArrayBuffer && value.byteOffset === 0 && value.byteLength === value.buffer.byteLength) found.add(value.buffer);
+      if (value.buffer instanceof ArrayBuffer && value.byteOffset === 0 && value.byteLength === value.buffer.byteLength)
+        found.add(value.buffer);
     } else if (depth < 2 && value !== null && typeof value === 'object' && !Array.isArray(value)) {
       for (const v of Object.values(value)) visit(v, depth + 1);
     }

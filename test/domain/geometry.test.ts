@@ -24,13 +24,18 @@ describe('site-to-satellite geometry', () => {
 
   it('WGS84 ECEF of a point agrees with the geodesy package (independent reference) to 1 mm', () => {
     fc.assert(
-      fc.property(fc.double({ min: -89.9, max: 89.9, noNaN: true }), fc.double({ min: -180, max: 180, noNaN: true }), fc.double({ min: -500, max: 9000, noNaN: true }), (lat, lon, h) => {
-        const ours = geodeticToEcef(lat * DEG, lon * DEG, h);
-        const ref = new LatLonNvector(lat, lon, h).toCartesian();
-        expect(Math.abs(ours.xM - ref.x)).toBeLessThan(1e-3);
-        expect(Math.abs(ours.yM - ref.y)).toBeLessThan(1e-3);
-        expect(Math.abs(ours.zM - ref.z)).toBeLessThan(1e-3);
-      }),
+      fc.property(
+        fc.double({ min: -89.9, max: 89.9, noNaN: true }),
+        fc.double({ min: -180, max: 180, noNaN: true }),
+        fc.double({ min: -500, max: 9000, noNaN: true }),
+        (lat, lon, h) => {
+          const ours = geodeticToEcef(lat * DEG, lon * DEG, h);
+          const ref = new LatLonNvector(lat, lon, h).toCartesian();
+          expect(Math.abs(ours.xM - ref.x)).toBeLessThan(1e-3);
+          expect(Math.abs(ours.yM - ref.y)).toBeLessThan(1e-3);
+          expect(Math.abs(ours.zM - ref.z)).toBeLessThan(1e-3);
+        },
+      ),
       FC,
     );
   });
@@ -48,7 +53,10 @@ describe('site-to-satellite geometry', () => {
           // A satellite 20 000 km away in a random upward direction (built in ENU, rotated to ECEF).
           const len = Math.hypot(e, n, u);
           const [E, N, U] = [(e / len) * 2e7, (n / len) * 2e7, (u / len) * 2e7];
-          const sl = Math.sin(lat * DEG), cl = Math.cos(lat * DEG), so = Math.sin(lon * DEG), co = Math.cos(lon * DEG);
+          const sl = Math.sin(lat * DEG),
+            cl = Math.cos(lat * DEG),
+            so = Math.sin(lon * DEG),
+            co = Math.cos(lon * DEG);
           const sat = {
             xM: site.xM - so * E - sl * co * N + cl * co * U,
             yM: site.yM + co * E - sl * so * N + cl * so * U,

@@ -11,8 +11,7 @@ import { vmf1Model } from '../../src/domain/mapping/vmf1.js';
 const f = (e: number, a: number, b: number, c: number) =>
   (1 + a / (1 + b / (1 + c))) / (Math.sin(e) + a / (Math.sin(e) + b / (Math.sin(e) + c)));
 
-const niell = (latDeg: number, doy: number, heightM = 0) =>
-  niellModel.prepare({ latitudeRad: latDeg * DEG, heightM, dayOfYear: doy });
+const niell = (latDeg: number, doy: number, heightM = 0) => niellModel.prepare({ latitudeRad: latDeg * DEG, heightM, dayOfYear: doy });
 
 describe('Niell (1996) mapping functions against the published coefficient table (Table 3, confirmed in docs/constants.md)', () => {
   // Transcribed here independently of src/: 45° row, and the height-correction coefficients.

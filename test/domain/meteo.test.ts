@@ -12,11 +12,14 @@ describe('saturation vapour pressure over water, WMO-No. 8 (2008) Annex 4.B', ()
     [10, 12.281, 12.281],
     [20, 23.388, 23.392],
     [30, 42.455, 42.469],
-  ])('at %s °C agrees with the CRC table (%s hPa) and IAPWS (%s hPa) to 0.35 per cent (measured: 0.31 per cent at 30 °C; the source says about 0.3 per cent)', (t, crc, iapws) => {
-    const e = saturationVapourPressureHpa(t);
-    expect(Math.abs(e - crc) / crc).toBeLessThan(0.0035);
-    expect(Math.abs(e - iapws) / iapws).toBeLessThan(0.0035);
-  });
+  ])(
+    'at %s °C agrees with the CRC table (%s hPa) and IAPWS (%s hPa) to 0.35 per cent (measured: 0.31 per cent at 30 °C; the source says about 0.3 per cent)',
+    (t, crc, iapws) => {
+      const e = saturationVapourPressureHpa(t);
+      expect(Math.abs(e - crc) / crc).toBeLessThan(0.0035);
+      expect(Math.abs(e - iapws) / iapws).toBeLessThan(0.0035);
+    },
+  );
 
   it('is 6.112 hPa at 0 °C exactly, the Magnus constant (WMO-No. 8)', () => {
     expect(saturationVapourPressureHpa(0)).toBe(6.112);

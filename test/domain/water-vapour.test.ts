@@ -2,7 +2,12 @@ import { describe, expect, it } from 'vitest';
 import { DEG } from '../../src/domain/constants.js';
 import { conversionFactor } from '../../src/domain/water-vapour/conversion.js';
 import { bevisMeanTemperatureK } from '../../src/domain/water-vapour/mean-temperature.js';
-import { negativeWetDelayWarning, precipitableWater, precipitableWaterFromSurfaceMet, tmExtrapolatedWarning } from '../../src/domain/water-vapour/precipitable-water.js';
+import {
+  negativeWetDelayWarning,
+  precipitableWater,
+  precipitableWaterFromSurfaceMet,
+  tmExtrapolatedWarning,
+} from '../../src/domain/water-vapour/precipitable-water.js';
 import { zenithHydrostaticDelayM } from '../../src/domain/zenith/hydrostatic.js';
 
 describe('conversion factor Π of Bevis et al. (1994)', () => {
@@ -86,7 +91,12 @@ describe('precipitableWaterFromSurfaceMet, the series path: the same numbers as 
     [2.4, 0.02, 1012.0, 51.0], // Ts = 324 K, above the Bevis fit data (240..320 K) → warning
   ])('ZTD %s m, σ %s m, P %s hPa, T %s °C', (ztdM, ztdSigmaM, pressureHpa, temperatureC) => {
     const series = precipitableWaterFromSurfaceMet(ztdM, ztdSigmaM, pressureHpa, temperatureC, LAT_RAD, HEIGHT_M);
-    const single = precipitableWater({ ztdM, ztdSigmaM: ztdSigmaM ?? undefined, pressureHpa, temperatureC }, LAT_RAD, HEIGHT_M, 'records.7');
+    const single = precipitableWater(
+      { ztdM, ztdSigmaM: ztdSigmaM ?? undefined, pressureHpa, temperatureC },
+      LAT_RAD,
+      HEIGHT_M,
+      'records.7',
+    );
     const { warnings, ...numbers } = single;
     expect(series).toEqual({ ...numbers, wetDelayNegative: series.zwdM < 0, tmExtrapolated: series.tmExtrapolated });
     const texts = [

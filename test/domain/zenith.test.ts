@@ -6,8 +6,7 @@ import { MM } from '../helpers/units.js';
 
 describe('Saastamoinen hydrostatic delay, IERS Conventions (2010) eq. 9.11 (Davis et al. 1985)', () => {
   // ZHD = 0.0022768 P / (1 − 0.00266 cos 2φ − 0.28e-6 H), written out here from the Conventions (from memory).
-  const iers = (pHpa: number, latDeg: number, hM: number) =>
-    (0.0022768 * pHpa) / (1 - 0.00266 * Math.cos(2 * latDeg * DEG) - 0.28e-6 * hM);
+  const iers = (pHpa: number, latDeg: number, hM: number) => (0.0022768 * pHpa) / (1 - 0.00266 * Math.cos(2 * latDeg * DEG) - 0.28e-6 * hM);
 
   it('is about 2.3 m at sea level, 45°, 1013.25 hPa (common practice)', () => {
     expect(zenithHydrostaticDelayM(1013.25, 45 * DEG, 0)).toBeCloseTo(2.3, 1);

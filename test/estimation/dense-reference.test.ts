@@ -139,7 +139,12 @@ describe('dense least squares with explicit epoch biases (ml-matrix), same numbe
   it('every-epoch states across a 40-min gap, output nodes bridged in it; weighting a² + b²/sin²e', () => {
     const input = smallProblem(
       { gaps: [[3600, 6000]] },
-      { weighting: 'elevation-components', sigmaConstantM: 0.002, outlierThreshold: null, gradients: { intervalS: 1800, randomWalkMPerSqrtH: 0.001, aprioriSigmaM: 0.01 } },
+      {
+        weighting: 'elevation-components',
+        sigmaConstantM: 0.002,
+        outlierThreshold: null,
+        gradients: { intervalS: 1800, randomWalkMPerSqrtH: 0.001, aprioriSigmaM: 0.01 },
+      },
     );
     const fast = estimateZwd(input);
     expect(fast.zwdNodes.filter((n) => n.observationsNearby === 0).length).toBeGreaterThan(0);

@@ -4,7 +4,8 @@ import { CsvFormatError, csvCell, parseMetCsv } from '../../src/formats/met-csv.
 
 describe('met CSV reader (RFC 4180 tables with the JSON field names as header)', () => {
   it('reads columns in any order, numbers as numbers, empty cells as missing, with line numbers', () => {
-    const text = 'temperature_c,epoch,pressure_hpa\r\n12.5,2026-03-14T00:00:00Z,1001.2\r\n\r\n,2026-03-14T00:05:00Z,1e3\r\n13,2026-03-14T00:10:00Z,abc\r\n1,2\r\n';
+    const text =
+      'temperature_c,epoch,pressure_hpa\r\n12.5,2026-03-14T00:00:00Z,1001.2\r\n\r\n,2026-03-14T00:05:00Z,1e3\r\n13,2026-03-14T00:10:00Z,abc\r\n1,2\r\n';
     const { rows, problems } = parseMetCsv(text);
     expect(rows).toEqual([
       { line: 2, values: { temperature_c: 12.5, epoch: '2026-03-14T00:00:00Z', pressure_hpa: 1001.2 } },

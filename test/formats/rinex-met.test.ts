@@ -68,10 +68,28 @@ describe('RINEX 2.11 meteorological file (RINEX 2.11, Tables A3 and A4)', () => 
 
   it('reads PR, TD, HR by column, converts GPS time to UTC, and keeps blanks missing', () => {
     expect(file.records).toEqual([
-      { line: 10, epochMs: Date.UTC(2026, 3, 1, 0, 0, 0) - GPS_MINUS_UTC_2026_S * 1000, pressureHpa: 987.1, temperatureC: 10.6, relativeHumidityPct: 89.5 },
-      { line: 11, epochMs: Date.UTC(2026, 3, 1, 0, 5, 0) - GPS_MINUS_UTC_2026_S * 1000, pressureHpa: 987.2, temperatureC: 10.9, relativeHumidityPct: null },
+      {
+        line: 10,
+        epochMs: Date.UTC(2026, 3, 1, 0, 0, 0) - GPS_MINUS_UTC_2026_S * 1000,
+        pressureHpa: 987.1,
+        temperatureC: 10.6,
+        relativeHumidityPct: 89.5,
+      },
+      {
+        line: 11,
+        epochMs: Date.UTC(2026, 3, 1, 0, 5, 0) - GPS_MINUS_UTC_2026_S * 1000,
+        pressureHpa: 987.2,
+        temperatureC: 10.9,
+        relativeHumidityPct: null,
+      },
       // two-digit year 96 is 1996 (80-99 → 19xx)
-      { line: 15, epochMs: Date.UTC(1996, 3, 1, 0, 25, 0) - GPS_MINUS_UTC_1996_S * 1000, pressureHpa: null, temperatureC: -12, relativeHumidityPct: null },
+      {
+        line: 15,
+        epochMs: Date.UTC(1996, 3, 1, 0, 25, 0) - GPS_MINUS_UTC_1996_S * 1000,
+        pressureHpa: null,
+        temperatureC: -12,
+        relativeHumidityPct: null,
+      },
     ]);
   });
 
@@ -97,8 +115,20 @@ describe('RINEX 3.04 meteorological file (RINEX 3.04, meteorological tables): 10
     expect(file.observationTypes).toEqual(['PR', 'TD', 'HR', 'ZW', 'ZD', 'ZT', 'WD', 'WS', 'RI', 'HI']);
     expect(file.rejected).toEqual([]);
     expect(file.records).toEqual([
-      { line: 7, epochMs: Date.UTC(2026, 3, 1, 12, 0, 0) - GPS_MINUS_UTC_2026_S * 1000, pressureHpa: 1001.3, temperatureC: 21.4, relativeHumidityPct: 45 },
-      { line: 9, epochMs: Date.UTC(2026, 3, 1, 12, 5, 0) - GPS_MINUS_UTC_2026_S * 1000, pressureHpa: 1001.4, temperatureC: 21.5, relativeHumidityPct: 44.8 },
+      {
+        line: 7,
+        epochMs: Date.UTC(2026, 3, 1, 12, 0, 0) - GPS_MINUS_UTC_2026_S * 1000,
+        pressureHpa: 1001.3,
+        temperatureC: 21.4,
+        relativeHumidityPct: 45,
+      },
+      {
+        line: 9,
+        epochMs: Date.UTC(2026, 3, 1, 12, 5, 0) - GPS_MINUS_UTC_2026_S * 1000,
+        pressureHpa: 1001.4,
+        temperatureC: 21.5,
+        relativeHumidityPct: 44.8,
+      },
     ]);
     // ZW ZD ZT WD WS of the first record and RI HI of its continuation line are ignored and counted.
     expect(file.ignoredValues).toEqual({ ZW: 1, ZD: 1, ZT: 1, WD: 1, WS: 1, RI: 1, HI: 1 });
@@ -106,7 +136,11 @@ describe('RINEX 3.04 meteorological file (RINEX 3.04, meteorological tables): 10
 });
 
 describe('files that are not what they claim stop as a whole (RINEX 2.11 §5: header rules)', () => {
-  const replaceLine = (text: string, index: number, line: string) => text.split('\n').map((l, k) => (k === index ? line : l)).join('\n');
+  const replaceLine = (text: string, index: number, line: string) =>
+    text
+      .split('\n')
+      .map((l, k) => (k === index ? line : l))
+      .join('\n');
 
   it('a text without the RINEX VERSION / TYPE line', () => {
     expect(looksLikeRinexMet('epoch,pressure_hpa\n')).toBe(false);
@@ -120,12 +154,16 @@ describe('files that are not what they claim stop as a whole (RINEX 2.11 §5: he
   });
 
   it('an unsupported version', () => {
-    expect(() => parseRinexMet(replaceLine(RINEX_211, 0, RINEX_211.split('\n')[0]!.replace('2.11', '4.00')))).toThrow(/version "4.00" is not supported/);
+    expect(() => parseRinexMet(replaceLine(RINEX_211, 0, RINEX_211.split('\n')[0]!.replace('2.11', '4.00')))).toThrow(
+      /version "4.00" is not supported/,
+    );
   });
 
   it('a header without END OF HEADER, or with a type count that does not match', () => {
     expect(() => parseRinexMet(RINEX_211.replace('END OF HEADER', 'END OF HEADEX'))).toThrow(RinexFormatError);
-    expect(() => parseRinexMet(RINEX_211.replace('     4    PR', '     5    PR'))).toThrow(/observation type 5 "" is not a two-letter code/);
+    expect(() => parseRinexMet(RINEX_211.replace('     4    PR', '     5    PR'))).toThrow(
+      /observation type 5 "" is not a two-letter code/,
+    );
   });
 
   it('a file with neither PR nor TD', () => {
@@ -146,7 +184,14 @@ describe('RINEX met writer: output follows the same published layout', () => {
       comments: ['INVENTED STATION FOR TESTS'],
       observationTypes: ['PR', 'TD', 'HR', 'WS'],
       sensors: [
-        { model: 'BAROMODEL 1', type: 'DIGITAL BAROMETER', accuracy: 0.1, observationType: 'PR', xyzM: [4075580, 931850, 4801570], heightM: 612.5 },
+        {
+          model: 'BAROMODEL 1',
+          type: 'DIGITAL BAROMETER',
+          accuracy: 0.1,
+          observationType: 'PR',
+          xyzM: [4075580, 931850, 4801570],
+          heightM: 612.5,
+        },
         { model: 'THERMOMODEL 7', type: 'PT100', accuracy: 0.2, observationType: 'TD' },
       ],
       records: [

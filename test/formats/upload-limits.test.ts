@@ -96,7 +96,9 @@ describe('record limit of the RINEX met reader (MAX_MET_RECORDS = 100 000)', () 
 describe('record limit of the observation CSV reader (MAX_OBSERVATIONS)', () => {
   it('refuses the first row past the limit', () => {
     const row = '2026-01-01T00:00:00Z,G01,45,90,0.001';
-    const text = ['epoch,satellite,elevation_deg,azimuth_deg,residual_m', ...new Array<string>(MAX_OBSERVATIONS + 1).fill(row)].join('\n') + '\nx,"unterminated\n';
+    const text =
+      ['epoch,satellite,elevation_deg,azimuth_deg,residual_m', ...new Array<string>(MAX_OBSERVATIONS + 1).fill(row)].join('\n') +
+      '\nx,"unterminated\n';
     expect(() => readObservationCsv(text)).toThrow(new RecordLimitError(MAX_OBSERVATIONS, MAX_OBSERVATIONS + 2, 'observations'));
   }, 180_000);
 });

@@ -19,7 +19,11 @@ export interface ArchiveApp {
  * Builds an app on a fresh storage of `backend` once per describe block (a temporary directory for
  * SQLite, a schema of its own on PostgreSQL), and removes it afterwards.
  */
-export function useArchiveApp(backend: BackendUnderTest, archive: Partial<ArchiveOptions> = {}, options: Omit<AppOptions, 'archive'> = {}): ArchiveApp {
+export function useArchiveApp(
+  backend: BackendUnderTest,
+  archive: Partial<ArchiveOptions> = {},
+  options: Omit<AppOptions, 'archive'> = {},
+): ArchiveApp {
   let app: FastifyInstance;
   let cleanup: () => Promise<void>;
   beforeAll(async () => {
@@ -28,7 +32,14 @@ export function useArchiveApp(backend: BackendUnderTest, archive: Partial<Archiv
     app = await buildApp({
       validateResponses: true,
       ...options,
-      archive: { storage: fresh.config, apiKeys: [TEST_KEY], keyDir: fresh.config.dataDir, readKeysRequired: false, maxReadRangeDays: 366, ...archive },
+      archive: {
+        storage: fresh.config,
+        apiKeys: [TEST_KEY],
+        keyDir: fresh.config.dataDir,
+        readKeysRequired: false,
+        maxReadRangeDays: 366,
+        ...archive,
+      },
     });
   });
   afterAll(async () => {

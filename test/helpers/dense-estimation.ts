@@ -196,7 +196,8 @@ export function denseZwdEstimate(input: ZwdEstimationInput, denseOptions: DenseO
       rows.forEach((row, k) => {
         if (!active[k]) return;
         let aqa = 0;
-        for (let a = 0; a < row.cols.length; a++) for (let b = 0; b < row.cols.length; b++) aqa += row.vals[a]! * q.get(row.cols[a]!, row.cols[b]!) * row.vals[b]!;
+        for (let a = 0; a < row.cols.length; a++)
+          for (let b = 0; b < row.cols.length; b++) aqa += row.vals[a]! * q.get(row.cols[a]!, row.cols[b]!) * row.vals[b]!;
         const qv = row.sigma * row.sigma - aqa;
         if (!(qv > 1e-8 * row.sigma * row.sigma)) return;
         const tau = v[k]! / (Math.sqrt(vf ?? 1) * Math.sqrt(qv));
@@ -242,7 +243,7 @@ export function denseZwdEstimate(input: ZwdEstimationInput, denseOptions: DenseO
         const c = combo(shift(pairs, offset));
         const alpha = pairs.length > 1 ? pairs[1]![1] : 0;
         const j = pairs[0]![0];
-        const bridge = everyEpoch && alpha > 0 && alpha < 1 ? (qq * ((times[j + 1]! - times[j]!) / 3_600_000)) * alpha * (1 - alpha) : 0;
+        const bridge = everyEpoch && alpha > 0 && alpha < 1 ? qq * ((times[j + 1]! - times[j]!) / 3_600_000) * alpha * (1 - alpha) : 0;
         return { value: c.value, sigma: Math.sqrt(c.sigma ** 2 + bridge) };
       });
     const zwdOut = outputNodes(opt.zwd.intervalS, zwdTimes, 0, opt.zwd.randomWalkMPerSqrtH);

@@ -37,8 +37,15 @@ describe('POST /v1/zenith-delays', () => {
   it('uses the standard atmosphere for missing met and says so; ZTD about 2.3–2.5 m near sea level (common practice)', async () => {
     // height_m is above the ellipsoid; the standard atmosphere's 1013.25 hPa is at sea level, N above it
     const n = (await api().post('/v1/zenith-delays').send({ site, epoch }).expect(200)).body.geoid_undulation_m;
-    const r = await api().post('/v1/zenith-delays').send({ site: { ...site, height_m: n }, epoch }).expect(200);
-    expect(r.body.met_used.source).toEqual({ pressure: 'standard-atmosphere', temperature: 'standard-atmosphere', humidity: 'standard-atmosphere' });
+    const r = await api()
+      .post('/v1/zenith-delays')
+      .send({ site: { ...site, height_m: n }, epoch })
+      .expect(200);
+    expect(r.body.met_used.source).toEqual({
+      pressure: 'standard-atmosphere',
+      temperature: 'standard-atmosphere',
+      humidity: 'standard-atmosphere',
+    });
     expect(r.body.met_used.pressure_hpa).toBeCloseTo(1013.25, 9);
     expect(r.body.warnings.length).toBe(3);
     expect(r.body.ztd_m).toBeGreaterThan(2.3);
@@ -56,9 +63,15 @@ describe('POST /v1/zenith-delays', () => {
   });
 
   it('accepts dew point instead of relative humidity, and selects Askne & Nordius', async () => {
-    const a = await api().post('/v1/zenith-delays').send({ site, epoch, met: { pressure_hpa: 960, temperature_c: 20, dewpoint_c: 12 }, wet_model: 'askne-nordius' }).expect(200);
+    const a = await api()
+      .post('/v1/zenith-delays')
+      .send({ site, epoch, met: { pressure_hpa: 960, temperature_c: 20, dewpoint_c: 12 }, wet_model: 'askne-nordius' })
+      .expect(200);
     expect(a.body.models.zwd).toMatch(/askne-nordius/);
-    const s = await api().post('/v1/zenith-delays').send({ site, epoch, met: { pressure_hpa: 960, temperature_c: 20, dewpoint_c: 12 } }).expect(200);
+    const s = await api()
+      .post('/v1/zenith-delays')
+      .send({ site, epoch, met: { pressure_hpa: 960, temperature_c: 20, dewpoint_c: 12 } })
+      .expect(200);
     expect(a.body.model_fingerprint).not.toBe(s.body.model_fingerprint);
     expect(Math.abs(a.body.zwd_m - s.body.zwd_m) / s.body.zwd_m).toBeLessThan(0.05);
   });
@@ -109,7 +122,10 @@ describe('POST /v1/mapping-factors', () => {
   const api = useApp();
 
   it('returns hydrostatic, wet and gradient factors in the order of the elevations (Niell default)', async () => {
-    const r = await api().post('/v1/mapping-factors').send({ site, epoch, elevations_deg: [90, 30, 5] }).expect(200);
+    const r = await api()
+      .post('/v1/mapping-factors')
+      .send({ site, epoch, elevations_deg: [90, 30, 5] })
+      .expect(200);
     expect(r.body.model).toBe('niell');
     expect(r.body.hydrostatic[0]).toBeCloseTo(1, 9); // normalised at zenith
     expect(r.body.hydrostatic[2]).toBeGreaterThan(9.8); // about 10 at 5° (common practice)
@@ -120,16 +136,28 @@ describe('POST /v1/mapping-factors', () => {
   });
 
   it('warns below 3° elevation', async () => {
-    const r = await api().post('/v1/mapping-factors').send({ site, epoch, elevations_deg: [2, 10] }).expect(200);
+    const r = await api()
+      .post('/v1/mapping-factors')
+      .send({ site, epoch, elevations_deg: [2, 10] })
+      .expect(200);
     expect(r.body.warnings.join(' ')).toMatch(/below 3°/);
   });
 
   it('takes VMF1 coefficients, and refuses vmf1 without them or other models with them', async () => {
-    const ok = await api().post('/v1/mapping-factors').send({ site, epoch, elevations_deg: [5], model: 'vmf1', coefficients: { ah: 0.00122, aw: 0.00055 } }).expect(200);
+    const ok = await api()
+      .post('/v1/mapping-factors')
+      .send({ site, epoch, elevations_deg: [5], model: 'vmf1', coefficients: { ah: 0.00122, aw: 0.00055 } })
+      .expect(200);
     expect(ok.body.models.mapping).toMatch(/^vmf1/);
-    const missing = await api().post('/v1/mapping-factors').send({ site, epoch, elevations_deg: [5], model: 'vmf1' }).expect(400);
+    const missing = await api()
+      .post('/v1/mapping-factors')
+      .send({ site, epoch, elevations_deg: [5], model: 'vmf1' })
+      .expect(400);
     expect(problemFields(missing.body)).toContain('coefficients');
-    const extra = await api().post('/v1/mapping-factors').send({ site, epoch, elevations_deg: [5], coefficients: { ah: 0.00122, aw: 0.00055 } }).expect(400);
+    const extra = await api()
+      .post('/v1/mapping-factors')
+      .send({ site, epoch, elevations_deg: [5], coefficients: { ah: 0.00122, aw: 0.00055 } })
+      .expect(400);
     expect(problemFields(extra.body)).toContain('coefficients');
   });
 
@@ -144,7 +172,10 @@ describe('POST /v1/mapping-factors', () => {
   });
 
   it('lists the valid model names for an unknown one', async () => {
-    const r = await api().post('/v1/mapping-factors').send({ site, epoch, elevations_deg: [5], model: 'mine' }).expect(400);
+    const r = await api()
+      .post('/v1/mapping-factors')
+      .send({ site, epoch, elevations_deg: [5], model: 'mine' })
+      .expect(400);
     expect(r.body.detail).toMatch(/niell, vmf1, chao, cosecant/);
   });
 });
@@ -159,10 +190,14 @@ describe('POST /v1/slant-delays', () => {
       { elevation_deg: 45, azimuth_deg: 200 },
     ];
     const r = await api().post('/v1/slant-delays').send({ site, epoch, zenith, directions }).expect(200);
-    const mf = await api().post('/v1/mapping-factors').send({ site, epoch, elevations_deg: [10, 45] }).expect(200);
+    const mf = await api()
+      .post('/v1/mapping-factors')
+      .send({ site, epoch, elevations_deg: [10, 45] })
+      .expect(200);
     r.body.slants.forEach((s: Record<string, number>, i: number) => {
       const a = directions[i]!.azimuth_deg * DEG;
-      const expected = mf.body.hydrostatic[i] * 2.2 + mf.body.wet[i] * 0.15 + mf.body.gradient[i] * (0.0008 * Math.cos(a) - 0.0004 * Math.sin(a));
+      const expected =
+        mf.body.hydrostatic[i] * 2.2 + mf.body.wet[i] * 0.15 + mf.body.gradient[i] * (0.0008 * Math.cos(a) - 0.0004 * Math.sin(a));
       expect(s.total_m).toBeCloseTo(expected, 12);
       expect(s.azimuth_deg).toBe(directions[i]!.azimuth_deg);
     });
@@ -178,7 +213,10 @@ describe('POST /v1/slant-delays', () => {
     const lon = site.longitude_deg * DEG;
     const r = 26_560e3;
     const sat = { id: 'X01', x_m: r * Math.cos(lat) * Math.cos(lon), y_m: r * Math.cos(lat) * Math.sin(lon), z_m: r * Math.sin(lat) };
-    const res = await api().post('/v1/slant-delays').send({ site, epoch, satellites: [sat] }).expect(200);
+    const res = await api()
+      .post('/v1/slant-delays')
+      .send({ site, epoch, satellites: [sat] })
+      .expect(200);
     expect(res.body.slants[0].satellite).toBe('X01');
     expect(res.body.slants[0].elevation_deg).toBeGreaterThan(89.8); // geocentric vs geodetic vertical differ by ≤ 0.2°
     // the site is off the geocentric radial by the 0.19° geodetic–geocentric latitude difference
@@ -204,7 +242,10 @@ describe('POST /v1/slant-delays', () => {
     ['zenith.zhd_m', { zenith: { zhd_m: 0.5 } }, /\[1, 3\] m/],
     ['directions.0.azimuth_deg', { directions: [{ elevation_deg: 10, azimuth_deg: 361 }] }, /\[0, 360\] deg/],
   ])('rejects %s', async (field, extra, message) => {
-    const r = await api().post('/v1/slant-delays').send({ site, epoch, directions: [{ elevation_deg: 10, azimuth_deg: 0 }], ...extra }).expect(400);
+    const r = await api()
+      .post('/v1/slant-delays')
+      .send({ site, epoch, directions: [{ elevation_deg: 10, azimuth_deg: 0 }], ...extra })
+      .expect(400);
     expect(problemFields(r.body)).toContain(field);
     expect(r.body.detail).toMatch(message);
   });
@@ -236,7 +277,10 @@ describe('POST /v1/precipitable-water', () => {
   });
 
   it('takes a ZWD and a caller Tm without needing pressure', async () => {
-    const r = await api().post('/v1/precipitable-water').send({ site, records: [{ epoch, zwd_m: 0.13, tm_k: 275 }] }).expect(200);
+    const r = await api()
+      .post('/v1/precipitable-water')
+      .send({ site, records: [{ epoch, zwd_m: 0.13, tm_k: 275 }] })
+      .expect(200);
     expect(r.body.records[0].zhd_m).toBeNull();
     expect(r.body.records[0].pwv_mm).toBeCloseTo(0.13 * 1000 * (1e6 / (1000 * 461.5 * (3739 / 275 + 0.221))), 6);
     expect(r.body.models.tm).toBe('caller');
@@ -245,7 +289,13 @@ describe('POST /v1/precipitable-water', () => {
   it('refuses a ZTD without pressure (pressure is never silently defaulted), naming the record', async () => {
     const r = await api()
       .post('/v1/precipitable-water')
-      .send({ site, records: [{ epoch, zwd_m: 0.1, tm_k: 270 }, { epoch, ztd_m: 2.4, temperature_c: 10 }] })
+      .send({
+        site,
+        records: [
+          { epoch, zwd_m: 0.1, tm_k: 270 },
+          { epoch, ztd_m: 2.4, temperature_c: 10 },
+        ],
+      })
       .expect(400);
     expect(problemFields(r.body)).toContain('records.1.pressure_hpa');
   });
@@ -255,7 +305,10 @@ describe('POST /v1/precipitable-water', () => {
     ['records.0.zwd_m', { zwd_m: -0.1, temperature_c: 10 }, /\[0, 1\] m/],
     ['records.0.pressure_hpa', { ztd_m: 2.4, pressure_hpa: 1200, temperature_c: 10 }, /\[300, 1100\] hPa/],
   ])('rejects %s out of range', async (field, rec, message) => {
-    const r = await api().post('/v1/precipitable-water').send({ site, records: [{ epoch, ...rec }] }).expect(400);
+    const r = await api()
+      .post('/v1/precipitable-water')
+      .send({ site, records: [{ epoch, ...rec }] })
+      .expect(400);
     expect(problemFields(r.body)).toContain(field);
     expect(r.body.detail).toMatch(message);
   });

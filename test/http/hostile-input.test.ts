@@ -48,7 +48,10 @@ describe('long digit strings in an estimation', () => {
   it(
     'the same on a route without a ZWD schema: a long value of any query parameter',
     async () => {
-      const res = await api().get('/v1/health').query({ anything: '1'.repeat(15_000) }).expect(400);
+      const res = await api()
+        .get('/v1/health')
+        .query({ anything: '1'.repeat(15_000) })
+        .expect(400);
       expect(problemFields(res.body)).toEqual(['query.anything']);
     },
     GENEROUS_MS,
@@ -61,7 +64,11 @@ for (const backend of BACKENDS) {
     it(
       'a 200 kB cell rejects its row with a reason; with nothing else to store the upload is a 400 naming the line',
       async () => {
-        await api().put('/v1/stations/LONG').set('authorization', auth).send({ name: 'Long cells (invented)', ...SITE }).expect(201);
+        await api()
+          .put('/v1/stations/LONG')
+          .set('authorization', auth)
+          .send({ name: 'Long cells (invented)', ...SITE })
+          .expect(201);
         const only = await api()
           .post('/v1/stations/LONG/met')
           .set('authorization', auth)

@@ -42,10 +42,12 @@ describe('POST /v1/profile-delays', () => {
   it('sets the mapping function of the registry beside the traced factors: the same numbers /v1/mapping-factors gives', async () => {
     const body = clone();
     const profile = (await api().post(URL_).send(body).expect(200)).body;
-    const model = (await api()
-      .post('/v1/mapping-factors')
-      .send({ site: body.site, epoch: body.epoch, elevations_deg: body.elevations_deg, model: 'niell' })
-      .expect(200)).body;
+    const model = (
+      await api()
+        .post('/v1/mapping-factors')
+        .send({ site: body.site, epoch: body.epoch, elevations_deg: body.elevations_deg, model: 'niell' })
+        .expect(200)
+    ).body;
     expect(profile.slants.map((s: { model_mapping_hydrostatic: number }) => s.model_mapping_hydrostatic)).toEqual(model.hydrostatic);
     expect(profile.slants.map((s: { model_mapping_wet: number }) => s.model_mapping_wet)).toEqual(model.wet);
   });
@@ -54,28 +56,48 @@ describe('POST /v1/profile-delays', () => {
     const coefficients = { ah: 0.00121, aw: 0.00058 };
     const body = { ...clone(), mapping_model: 'vmf1', coefficients };
     const profile = (await api().post(URL_).send(body).expect(200)).body;
-    const model = (await api()
-      .post('/v1/mapping-factors')
-      .send({ site: body.site, epoch: body.epoch, elevations_deg: body.elevations_deg, model: 'vmf1', coefficients })
-      .expect(200)).body;
+    const model = (
+      await api()
+        .post('/v1/mapping-factors')
+        .send({ site: body.site, epoch: body.epoch, elevations_deg: body.elevations_deg, model: 'vmf1', coefficients })
+        .expect(200)
+    ).body;
     expect(profile.slants.map((s: { model_mapping_hydrostatic: number }) => s.model_mapping_hydrostatic)).toEqual(model.hydrostatic);
     expect(profile.models.mapping_ah).toBe(0.00121);
-    const missing = await api().post(URL_).send({ ...clone(), mapping_model: 'vmf1' }).expect(400);
+    const missing = await api()
+      .post(URL_)
+      .send({ ...clone(), mapping_model: 'vmf1' })
+      .expect(400);
     expect(problemFields(missing.body)).toContain('coefficients');
   });
 
   it('chooses the refractivity constants by key; the choice changes the wet delay and the fingerprint', async () => {
     const bevis = (await api().post(URL_).send(clone()).expect(200)).body;
-    const thayer = (await api().post(URL_).send({ ...clone(), refractivity_constants: 'thayer-1974' }).expect(200)).body;
+    const thayer = (
+      await api()
+        .post(URL_)
+        .send({ ...clone(), refractivity_constants: 'thayer-1974' })
+        .expect(200)
+    ).body;
     expect(thayer.zwd_m).not.toBe(bevis.zwd_m);
     expect(thayer.model_fingerprint).not.toBe(bevis.model_fingerprint);
-    const bad = await api().post(URL_).send({ ...clone(), refractivity_constants: 'essen-froome' }).expect(400);
+    const bad = await api()
+      .post(URL_)
+      .send({ ...clone(), refractivity_constants: 'essen-froome' })
+      .expect(400);
     expect(bad.headers['content-type']).toMatch(/application\/problem\+json/);
-    expect(bad.body.detail).toMatch(/refractivity_constants: must be one of: smith-weintraub-1953, thayer-1974, bevis-1994, rueger-2002-best-average/);
+    expect(bad.body.detail).toMatch(
+      /refractivity_constants: must be one of: smith-weintraub-1953, thayer-1974, bevis-1994, rueger-2002-best-average/,
+    );
   });
 
   it('omits slants when no elevations are asked for; a dry column has null Tm and null wet mapping factors', async () => {
-    const noSlants = (await api().post(URL_).send({ ...clone(), elevations_deg: undefined }).expect(200)).body;
+    const noSlants = (
+      await api()
+        .post(URL_)
+        .send({ ...clone(), elevations_deg: undefined })
+        .expect(200)
+    ).body;
     expect(noSlants).not.toHaveProperty('slants');
     const dry = { ...clone(), levels: toApiLevels(column(evenHeightsM(1000, 0, 20_000)), 'none') };
     const res = (await api().post(URL_).send(dry).expect(200)).body;
@@ -88,11 +110,23 @@ describe('POST /v1/profile-delays', () => {
   it('accepts geopotential heights (with the geoid undulation) and gives the same delays as geometric heights', async () => {
     const generated = column(evenHeightsM(1000, 0, 30_000), { surfaceRelativeHumidityPct: 60 });
     const site = { latitude_deg: 45.5, longitude_deg: 10, height_m: 0 };
-    const geometric = (await api().post(URL_).send({ site, epoch: EXAMPLE.epoch, levels: toApiLevels(generated) }).expect(200)).body;
-    const geopotential = (await api()
-      .post(URL_)
-      .send({ site: { ...site, height_m: 30 }, epoch: EXAMPLE.epoch, levels: toApiLevels(generated, 'vapour_pressure_hpa', 'geopotential_height_m'), geoid_undulation_m: 30 })
-      .expect(200)).body;
+    const geometric = (
+      await api()
+        .post(URL_)
+        .send({ site, epoch: EXAMPLE.epoch, levels: toApiLevels(generated) })
+        .expect(200)
+    ).body;
+    const geopotential = (
+      await api()
+        .post(URL_)
+        .send({
+          site: { ...site, height_m: 30 },
+          epoch: EXAMPLE.epoch,
+          levels: toApiLevels(generated, 'vapour_pressure_hpa', 'geopotential_height_m'),
+          geoid_undulation_m: 30,
+        })
+        .expect(200)
+    ).body;
     // The column now lies 30 m higher above the ellipsoid, where normal gravity is 9e-6 weaker: 0.02 mm of ZHD.
     expect(Math.abs(geopotential.zhd_m - geometric.zhd_m)).toBeLessThan(0.05 * MM);
     expect(Math.abs(geopotential.zwd_m - geometric.zwd_m)).toBeLessThan(0.01 * MM);
@@ -122,7 +156,12 @@ describe('POST /v1/profile-delays', () => {
 
   describe('bad input: 400 problem+json naming the level and field', () => {
     const cases: [string, (b: ReturnType<typeof clone>) => void, string, RegExp][] = [
-      ['pressure not decreasing', (b) => (b.levels[12].pressure_hpa = b.levels[11].pressure_hpa), 'levels.12.pressure_hpa', /must decrease with height/],
+      [
+        'pressure not decreasing',
+        (b) => (b.levels[12].pressure_hpa = b.levels[11].pressure_hpa),
+        'levels.12.pressure_hpa',
+        /must decrease with height/,
+      ],
       ['height not increasing', (b) => (b.levels[7].height_m = b.levels[6].height_m), 'levels.7.height_m', /must increase/],
       ['two humidity quantities', (b) => (b.levels[3].dewpoint_c = -5), 'levels.3.dewpoint_c', /exactly one of/],
       ['no humidity', (b) => delete b.levels[4].relative_humidity_pct, 'levels.4', /exactly one of/],
@@ -131,10 +170,15 @@ describe('POST /v1/profile-delays', () => {
       ['pressure out of range', (b) => (b.levels[0].pressure_hpa = 0), 'levels.0.pressure_hpa', /\(0, 1100\] hPa/],
       ['temperature out of range', (b) => (b.levels[2].temperature_c = 75), 'levels.2.temperature_c', /\[-130, 60\] °C/],
       ['elevation 0', (b) => (b.elevations_deg = [0]), 'elevations_deg.0', /\(0, 90\] deg/],
-      ['profile far above the site', (b) => {
-        b.site.height_m = -500;
-        for (const l of b.levels as { height_m: number }[]) l.height_m += 1000;
-      }, 'levels.0.height_m', /at most 1000 m/],
+      [
+        'profile far above the site',
+        (b) => {
+          b.site.height_m = -500;
+          for (const l of b.levels as { height_m: number }[]) l.height_m += 1000;
+        },
+        'levels.0.height_m',
+        /at most 1000 m/,
+      ],
     ];
     it.each(cases)('%s', async (_name, mutate, field, message) => {
       const body = clone();
@@ -147,7 +191,12 @@ describe('POST /v1/profile-delays', () => {
   });
 
   it('warns below 3° (the model mapping function is extrapolated there)', async () => {
-    const res = (await api().post(URL_).send({ ...clone(), elevations_deg: [2, 10] }).expect(200)).body;
+    const res = (
+      await api()
+        .post(URL_)
+        .send({ ...clone(), elevations_deg: [2, 10] })
+        .expect(200)
+    ).body;
     expect(res.warnings.join(' ')).toMatch(/below 3°/);
     expect(res.slants[0].refraction_deg).toBeGreaterThan(res.slants[1].refraction_deg);
   });

@@ -9,7 +9,7 @@
 import type { z } from 'zod';
 import { readFileSync } from 'node:fs';
 import Fastify from 'fastify';
-import { serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
+import { validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
 import { z as zod } from 'zod';
 import { describe, expect, it } from 'vitest';
 import { checkResponsesAgainstSchemas } from '../../src/http/response-check.js';
@@ -25,10 +25,40 @@ const epoch = '2026-01-15T00:00:00+10:00';
 
 const cases: [string, string, object, z.ZodType][] = [
   ['zenith-delays', '/v1/zenith-delays', { site, epoch, met: { pressure_hpa: 1008 } }, zenithDelaysResponse],
-  ['mapping-factors', '/v1/mapping-factors', { site, epoch, elevations_deg: [5, 90], model: 'chao', gradient_model: 'tilting' }, mappingFactorsResponse],
-  ['slant-delays (directions)', '/v1/slant-delays', { site, epoch, directions: [{ elevation_deg: 2, azimuth_deg: 5 }] }, slantDelaysResponse],
-  ['slant-delays (satellites)', '/v1/slant-delays', { site, epoch, zenith: { zhd_m: 2.3, zwd_m: 0.2 }, satellites: [{ id: 'S1', x_m: -4.6e6, y_m: 2.56e6, z_m: -3.5e6 }].map((s) => ({ ...s, x_m: s.x_m * 4, y_m: s.y_m * 4, z_m: s.z_m * 4 })) }, slantDelaysResponse],
-  ['precipitable-water', '/v1/precipitable-water', { site, records: [{ epoch, ztd_m: 2.5, pressure_hpa: 1008, temperature_c: 28 }] }, precipitableWaterResponse],
+  [
+    'mapping-factors',
+    '/v1/mapping-factors',
+    { site, epoch, elevations_deg: [5, 90], model: 'chao', gradient_model: 'tilting' },
+    mappingFactorsResponse,
+  ],
+  [
+    'slant-delays (directions)',
+    '/v1/slant-delays',
+    { site, epoch, directions: [{ elevation_deg: 2, azimuth_deg: 5 }] },
+    slantDelaysResponse,
+  ],
+  [
+    'slant-delays (satellites)',
+    '/v1/slant-delays',
+    {
+      site,
+      epoch,
+      zenith: { zhd_m: 2.3, zwd_m: 0.2 },
+      satellites: [{ id: 'S1', x_m: -4.6e6, y_m: 2.56e6, z_m: -3.5e6 }].map((s) => ({
+        ...s,
+        x_m: s.x_m * 4,
+        y_m: s.y_m * 4,
+        z_m: s.z_m * 4,
+      })),
+    },
+    slantDelaysResponse,
+  ],
+  [
+    'precipitable-water',
+    '/v1/precipitable-water',
+    { site, records: [{ epoch, ztd_m: 2.5, pressure_hpa: 1008, temperature_c: 28 }] },
+    precipitableWaterResponse,
+  ],
 ];
 
 describe('responses conform to their documented schemas', () => {
@@ -50,7 +80,9 @@ describe('every route documents its answers (OpenAPI document)', () => {
   const doc = JSON.parse(readFileSync(new URL('../../openapi/openapi.json', import.meta.url), 'utf8')) as {
     paths: Record<string, Record<string, { responses: Record<string, { content?: Record<string, { schema?: unknown }> }> }>>;
   };
-  const operations = Object.entries(doc.paths).flatMap(([path, ops]) => Object.entries(ops).map(([method, op]) => [`${method.toUpperCase()} ${path}`, op] as const));
+  const operations = Object.entries(doc.paths).flatMap(([path, ops]) =>
+    Object.entries(ops).map(([method, op]) => [`${method.toUpperCase()} ${path}`, op] as const),
+  );
   it('has the routes of the service (19 operations)', () => {
     expect(operations.length).toBe(19);
   });
@@ -70,7 +102,8 @@ describe('the response check catches drift (src/http/response-check.ts)', () => 
     app.setValidatorCompiler(validatorCompiler);
     app.setSerializerCompiler(() => (data) => JSON.stringify(data));
     checkResponsesAgainstSchemas(app);
-    app.setErrorHandler((error: Error, _request, reply) => reply.code(500).send({ message: error.message })); // as src/http/plugins/error-handler.ts: 500
+    // as src/http/plugins/error-handler.ts: 500
+    app.setErrorHandler((error: Error, _request, reply) => reply.code(500).send({ message: error.message }));
     const schema = { response: { 200: zod.object({ zwd_m: zod.number() }) } };
     app.get('/right', { schema }, async () => ({ zwd_m: 0.1 }));
     app.get('/renamed-field', { schema }, async () => ({ zwd_mm: 100 }) as never);

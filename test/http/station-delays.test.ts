@@ -17,7 +17,10 @@ const iso = (ms: number) => new Date(ms).toISOString();
 
 function expectedFingerprint(models: Record<string, string | number | boolean | null>): string {
   const sorted = Object.fromEntries(Object.entries(models).sort(([a], [b]) => (a < b ? -1 : 1)));
-  return createHash('sha256').update('tropodelay-models/1' + JSON.stringify(sorted)).digest('hex').slice(0, 16);
+  return createHash('sha256')
+    .update('tropodelay-models/1' + JSON.stringify(sorted))
+    .digest('hex')
+    .slice(0, 16);
 }
 
 for (const backend of BACKENDS) {
@@ -41,10 +44,18 @@ for (const backend of BACKENDS) {
         })
         .expect(200);
       const fp = expectedFingerprint({ ...models, deposited_by: 'batch-run-7' });
-      expect(res.body).toMatchObject({ inserted: 2, rejected_count: 1, model_fingerprint: fp, models: { ...models, deposited_by: 'batch-run-7' } });
+      expect(res.body).toMatchObject({
+        inserted: 2,
+        rejected_count: 1,
+        model_fingerprint: fp,
+        models: { ...models, deposited_by: 'batch-run-7' },
+      });
       expect(res.body.rejected[0].reason).toMatch(/records\.2\.ztd_m: must be a number in \[1, 3\] m/);
 
-      const read = await api().get('/v1/stations/SALTM/delays').query({ from: iso(T0), to: iso(T0 + 2 * H) }).expect(200);
+      const read = await api()
+        .get('/v1/stations/SALTM/delays')
+        .query({ from: iso(T0), to: iso(T0 + 2 * H) })
+        .expect(200);
       expect(read.body.records).toEqual([
         {
           epoch: iso(T0),
@@ -63,7 +74,14 @@ for (const backend of BACKENDS) {
       ]);
       expect(read.body.homogeneous).toBe(true);
       expect(read.body.model_sets).toEqual([
-        { model_fingerprint: fp, models: { ...models, deposited_by: 'batch-run-7' }, sources: ['batch-run-7'], first_epoch: iso(T0), last_epoch: iso(T0 + H), count: 2 },
+        {
+          model_fingerprint: fp,
+          models: { ...models, deposited_by: 'batch-run-7' },
+          sources: ['batch-run-7'],
+          first_epoch: iso(T0),
+          last_epoch: iso(T0 + H),
+          count: 2,
+        },
       ]);
       expect(read.body.warnings).toEqual([]);
     });
@@ -80,19 +98,35 @@ for (const backend of BACKENDS) {
       await deposit('run-a', { mapping: 'vmf1' }, [3, 4]); // same source, other models
       const fa = expectedFingerprint({ mapping: 'niell', deposited_by: 'run-a' });
       const fb = expectedFingerprint({ mapping: 'vmf1', deposited_by: 'run-a' });
-      const read = await api().get('/v1/stations/MIXED/delays').query({ from: iso(T0), to: iso(T0 + 4 * H) }).expect(200);
+      const read = await api()
+        .get('/v1/stations/MIXED/delays')
+        .query({ from: iso(T0), to: iso(T0 + 4 * H) })
+        .expect(200);
       expect(read.body.homogeneous).toBe(false);
-      expect(read.body.model_sets.map((m: { model_fingerprint: string; first_epoch: string; last_epoch: string; count: number }) => [m.model_fingerprint, m.first_epoch, m.last_epoch, m.count])).toEqual([
+      expect(
+        read.body.model_sets.map((m: { model_fingerprint: string; first_epoch: string; last_epoch: string; count: number }) => [
+          m.model_fingerprint,
+          m.first_epoch,
+          m.last_epoch,
+          m.count,
+        ]),
+      ).toEqual([
         [fa, iso(T0), iso(T0 + 2 * H), 3],
         [fb, iso(T0 + 3 * H), iso(T0 + 4 * H), 2],
       ]);
       expect(read.body.warnings[0]).toContain(`${fa} (run-a) ${iso(T0)}..${iso(T0 + 2 * H)}`);
       expect(read.body.warnings[0]).toContain(`${fb} (run-a) ${iso(T0 + 3 * H)}..${iso(T0 + 4 * H)}`);
       // Within one model set the range is homogeneous again.
-      const part = await api().get('/v1/stations/MIXED/delays').query({ from: iso(T0), to: iso(T0 + 2 * H) }).expect(200);
+      const part = await api()
+        .get('/v1/stations/MIXED/delays')
+        .query({ from: iso(T0), to: iso(T0 + 2 * H) })
+        .expect(200);
       expect(part.body.homogeneous).toBe(true);
       // CSV: one header row with the field names; homogeneity in the response headers.
-      const csv = await api().get('/v1/stations/MIXED/delays').query({ from: iso(T0), to: iso(T0 + 4 * H), format: 'csv' }).expect(200);
+      const csv = await api()
+        .get('/v1/stations/MIXED/delays')
+        .query({ from: iso(T0), to: iso(T0 + 4 * H), format: 'csv' })
+        .expect(200);
       expect(csv.text.split('\n')[0]).toBe(
         'epoch,ztd_m,ztd_sigma_m,zwd_m,zwd_sigma_m,north_gradient_m,east_gradient_m,north_gradient_sigma_m,east_gradient_sigma_m,source,model_fingerprint',
       );
@@ -103,12 +137,28 @@ for (const backend of BACKENDS) {
 
     it('source is required and validated; the key is (epoch, source) so a re-deposit replaces', async () => {
       await api().put('/v1/stations/REDO').set('authorization', auth).send(STATION).expect(201);
-      const noSource = await api().post('/v1/stations/REDO/delays').set('authorization', auth).send({ records: [{ epoch: iso(T0), ztd_m: 2.3 }] }).expect(400);
+      const noSource = await api()
+        .post('/v1/stations/REDO/delays')
+        .set('authorization', auth)
+        .send({ records: [{ epoch: iso(T0), ztd_m: 2.3 }] })
+        .expect(400);
       expect(noSource.body.errors.map((e: { field: string }) => e.field)).toEqual(['source']);
-      await api().post('/v1/stations/REDO/delays').set('authorization', auth).send({ source: 'bad source!', records: [{ epoch: iso(T0), ztd_m: 2.3 }] }).expect(400);
-      const first = await api().post('/v1/stations/REDO/delays').set('authorization', auth).send({ source: 's', records: [{ epoch: iso(T0), ztd_m: 2.3 }] }).expect(200);
+      await api()
+        .post('/v1/stations/REDO/delays')
+        .set('authorization', auth)
+        .send({ source: 'bad source!', records: [{ epoch: iso(T0), ztd_m: 2.3 }] })
+        .expect(400);
+      const first = await api()
+        .post('/v1/stations/REDO/delays')
+        .set('authorization', auth)
+        .send({ source: 's', records: [{ epoch: iso(T0), ztd_m: 2.3 }] })
+        .expect(200);
       expect(first.body).toMatchObject({ inserted: 1, updated: 0 });
-      const second = await api().post('/v1/stations/REDO/delays').set('authorization', auth).send({ source: 's', records: [{ epoch: iso(T0), ztd_m: 2.31 }] }).expect(200);
+      const second = await api()
+        .post('/v1/stations/REDO/delays')
+        .set('authorization', auth)
+        .send({ source: 's', records: [{ epoch: iso(T0), ztd_m: 2.31 }] })
+        .expect(200);
       expect(second.body).toMatchObject({ inserted: 0, updated: 1 });
     });
   });

@@ -20,7 +20,11 @@ const backend = BACKENDS[0]!;
 describe(`station estimation and the stored range (${backend.name})`, () => {
   const { api, auth } = useArchiveApp(backend);
   beforeAll(async () => {
-    await api().put('/v1/stations/MMRES').set('authorization', auth).send({ name: 'Millimetre residuals (invented)', ...SITE }).expect(201);
+    await api()
+      .put('/v1/stations/MMRES')
+      .set('authorization', auth)
+      .send({ name: 'Millimetre residuals (invented)', ...SITE })
+      .expect(201);
   });
 
   it('a direct deposit of ZTD = 85 m is refused (the range the estimation must respect)', async () => {
@@ -32,7 +36,11 @@ describe(`station estimation and the stored range (${backend.name})`, () => {
   });
 
   it('residuals in millimetres: 400 from the unit guard (src/services/unit-guards.ts), nothing stored', async () => {
-    const res = await api().post('/v1/stations/MMRES/zwd-estimates').set('authorization', auth).send({ observations: inMillimetres }).expect(400);
+    const res = await api()
+      .post('/v1/stations/MMRES/zwd-estimates')
+      .set('authorization', auth)
+      .send({ observations: inMillimetres })
+      .expect(400);
     expect(res.body.errors[0].field).toBe('observations');
     expect(res.body.detail).toMatch(/look like millimetres; send residual_m \(and sigma_m\) in metres/);
     const stored = await api().get('/v1/stations/MMRES/delays').expect(200);
@@ -53,7 +61,10 @@ describe(`station estimation and the stored range (${backend.name})`, () => {
 
   it('residuals with the opposite sign: stored with a zwd-negative warning', async () => {
     const flipped = observations.map((o) => ({ ...o, residual_m: -o.residual_m }));
-    const res = await api().post('/v1/stations/MMRES/zwd-estimates?source=flipped').set('authorization', auth).send({ observations: flipped, apriori: { zwd_m: 0 } });
+    const res = await api()
+      .post('/v1/stations/MMRES/zwd-estimates?source=flipped')
+      .set('authorization', auth)
+      .send({ observations: flipped, apriori: { zwd_m: 0 } });
     expect(JSON.stringify(res.body.warnings ?? res.body)).toMatch(/ZWD is never negative|below -10 mm/);
   });
 

@@ -44,7 +44,11 @@ for (const backend of BACKENDS) {
 
     it('station_id is 1-32 letters, digits, "-" and "_"', async () => {
       await api().put('/v1/stations/A_b-9').set('authorization', auth).send(STATION).expect(201);
-      await api().put(`/v1/stations/${'x'.repeat(32)}`).set('authorization', auth).send(STATION).expect(201);
+      await api()
+        .put(`/v1/stations/${'x'.repeat(32)}`)
+        .set('authorization', auth)
+        .send(STATION)
+        .expect(201);
       for (const bad of [`${'x'.repeat(33)}`, 'with.dot', 'sp%20ace', 'sl%2Fash']) {
         const res = await api().put(`/v1/stations/${bad}`).set('authorization', auth).send(STATION).expect(400);
         expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
@@ -54,10 +58,18 @@ for (const backend of BACKENDS) {
     });
 
     it('bad station bodies are 400 problems naming the field and its range', async () => {
-      const lat = await api().put('/v1/stations/BAD').set('authorization', auth).send({ ...STATION, latitude_deg: 91 }).expect(400);
+      const lat = await api()
+        .put('/v1/stations/BAD')
+        .set('authorization', auth)
+        .send({ ...STATION, latitude_deg: 91 })
+        .expect(400);
       expect(problemFields(lat.body)).toEqual(['latitude_deg']);
       expect(lat.body.detail).toMatch(/\[-90, 90\] deg/);
-      const met = await api().put('/v1/stations/BAD').set('authorization', auth).send({ ...STATION, met_height_m: 2000 }).expect(400);
+      const met = await api()
+        .put('/v1/stations/BAD')
+        .set('authorization', auth)
+        .send({ ...STATION, met_height_m: 2000 })
+        .expect(400);
       expect(problemFields(met.body)).toEqual(['met_height_m']);
       expect(met.body.detail).toMatch(/within 1000 m of height_m/);
       await api().get('/v1/stations/BAD').expect(404);

@@ -61,7 +61,10 @@ describe('unknown keys in public requests', () => {
   });
 
   it('every unknown key of one object is named, each with its own field', async () => {
-    const res = await api().post('/v1/zenith-delays').send({ site: SITE, epoch: EPOCH, met: { pressure: 950, temperature: 12 } }).expect(400);
+    const res = await api()
+      .post('/v1/zenith-delays')
+      .send({ site: SITE, epoch: EPOCH, met: { pressure: 950, temperature: 12 } })
+      .expect(400);
     const fields = (res.body as Problem).errors.map((e) => e.field);
     expect(fields).toEqual(expect.arrayContaining(['met.pressure', 'met.temperature']));
   });
@@ -73,7 +76,10 @@ describe('unknown keys in public requests', () => {
       .set('content-type', 'text/csv')
       .send(toCsv(data))
       .expect(400);
-    expect((res.body as Problem).errors).toContainEqual({ field: 'query.zwd_intervall_s', message: 'unknown key; did you mean zwd_interval_s?' });
+    expect((res.body as Problem).errors).toContainEqual({
+      field: 'query.zwd_intervall_s',
+      message: 'unknown key; did you mean zwd_interval_s?',
+    });
   });
 
   it('ZWD estimation, JSON body with a misspelt top-level key: 400', async () => {
@@ -93,7 +99,11 @@ describe(`unknown keys on the station routes (${backend.name})`, () => {
   const { api, auth } = useArchiveApp(backend);
 
   it('station CSV estimation with site parameters: 400 (the stored site is used), nothing stored', async () => {
-    await api().put('/v1/stations/STRICT1').set('authorization', auth).send({ name: 'Strict input (invented)', ...SITE }).expect(201);
+    await api()
+      .put('/v1/stations/STRICT1')
+      .set('authorization', auth)
+      .send({ name: 'Strict input (invented)', ...SITE })
+      .expect(201);
     const res = await api()
       .post('/v1/stations/STRICT1/zwd-estimates')
       .set('authorization', auth)

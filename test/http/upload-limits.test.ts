@@ -45,8 +45,18 @@ for (const backend of BACKENDS) {
 
     it('a RINEX types line listing more types than its count: 400 naming the line; nothing stored', async () => {
       await api().put('/v1/stations/LIM2').set('authorization', auth).send(STATION).expect(201);
-      const lying = [...RINEX_HEADER.slice(0, 2), '     1    PR    TD                                          # / TYPES OF OBSERV ', RINEX_HEADER[3], ' 26  1  1  0  0  0  900.0   10.0'].join('\n');
-      const res = await api().post('/v1/stations/LIM2/met').set('authorization', auth).set('content-type', 'text/plain').send(lying).expect(400);
+      const lying = [
+        ...RINEX_HEADER.slice(0, 2),
+        '     1    PR    TD                                          # / TYPES OF OBSERV ',
+        RINEX_HEADER[3],
+        ' 26  1  1  0  0  0  900.0   10.0',
+      ].join('\n');
+      const res = await api()
+        .post('/v1/stations/LIM2/met')
+        .set('authorization', auth)
+        .set('content-type', 'text/plain')
+        .send(lying)
+        .expect(400);
       expect(problemFields(res.body)).toEqual(['body line 3']);
       expect(res.body.detail).toMatch(/line 3: the line lists 1 observation type\(s\) more than the declared 1/);
       expect((await api().get('/v1/stations/LIM2/met').expect(200)).body.records).toEqual([]);

@@ -43,7 +43,10 @@ describe('POST /v1/zwd-estimates with a JSON body', () => {
   const api = useApp();
 
   it('answers with nodes, series, rejections and statistics; the numbers are the dense least-squares solution', async () => {
-    const res = await api().post(ROUTE).send(body({ site: SITE, options: { scale_sigmas: false } })).expect(200);
+    const res = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE, options: { scale_sigmas: false } }))
+      .expect(200);
     const dense = denseZwdEstimate(inputFor(requestBody.observations, { scaleSigmas: false }));
     expect(res.body.zwd_nodes.length).toBe(25); // 2 h / 300 s + 1 (issue: default 300 s)
     expect(res.body.gradient_nodes.length).toBe(2); // 6 h default: T0 and T0 + 6 h
@@ -66,7 +69,10 @@ describe('POST /v1/zwd-estimates with a JSON body', () => {
   });
 
   it('a-priori ZHD defaults to Saastamoinen of the standard atmosphere (Berg 1948, P0 = 1013.25 hPa), with a warning; ztd_m = ZHD + ZWD + δw', async () => {
-    const res = await api().post(ROUTE).send(body({ site: SITE })).expect(200);
+    const res = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE }))
+      .expect(200);
     const pressureHpa = 1013.25 * Math.pow(1 - 2.26e-5 * SITE.height_m, 5.225); // Berg (1948), textbook form
     expect(res.body.apriori).toEqual({ zhd_m: expect.any(Number), zwd_m: 0, zhd_source: 'standard-atmosphere' });
     expect(Math.abs(res.body.apriori.zhd_m - saastamoinenZhdM(pressureHpa))).toBeLessThan(1e-9 * M);
@@ -87,9 +93,18 @@ describe('POST /v1/zwd-estimates with a JSON body', () => {
   });
 
   it('lists every model and setting in models; the fingerprint changes with a setting and only then', async () => {
-    const a = await api().post(ROUTE).send(body({ site: SITE })).expect(200);
-    const b = await api().post(ROUTE).send(body({ site: SITE, options: { zwd_interval_s: 300 } })).expect(200);
-    const c = await api().post(ROUTE).send(body({ site: SITE, options: { zwd_interval_s: 600 } })).expect(200);
+    const a = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE }))
+      .expect(200);
+    const b = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE, options: { zwd_interval_s: 300 } }))
+      .expect(200);
+    const c = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE, options: { zwd_interval_s: 600 } }))
+      .expect(200);
     expect(a.body.model_fingerprint).toMatch(/^[0-9a-f]{16}$/);
     expect(b.body.model_fingerprint).toBe(a.body.model_fingerprint);
     expect(c.body.model_fingerprint).not.toBe(a.body.model_fingerprint);
@@ -110,7 +125,10 @@ describe('POST /v1/zwd-estimates with a JSON body', () => {
   });
 
   it('gradients null: no gradient nodes, null gradients in the series', async () => {
-    const res = await api().post(ROUTE).send(body({ site: SITE, options: { gradients: null } })).expect(200);
+    const res = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE, options: { gradients: null } }))
+      .expect(200);
     expect(res.body.gradient_nodes).toEqual([]);
     expect(res.body.series[0].north_gradient_m).toBeNull();
     expect(res.body.models.gradient_mapping).toBe('none');
@@ -124,7 +142,10 @@ describe('POST /v1/zwd-estimates with a JSON body', () => {
     ];
 
     it('at a met epoch, between two records, and outside the records', async () => {
-      const res = await api().post(ROUTE).send(body({ site: SITE, met, apriori: { zhd_m: 2.17 } })).expect(200);
+      const res = await api()
+        .post(ROUTE)
+        .send(body({ site: SITE, met, apriori: { zhd_m: 2.17 } }))
+        .expect(200);
       const series = res.body.series;
       const first = series[0];
       expect(first.met).toBe('measured');
@@ -203,15 +224,40 @@ describe('POST /v1/zwd-estimates with a text/csv body (site and options as query
     expect(res.body.gradient_nodes).toEqual([]);
     expect(res.body.zwd_nodes.length).toBe(13);
     expect(res.body.rejected).toEqual([]);
-    expect(res.body.models).toMatchObject({ gradient_interval_s: null, zwd_interval_s: 600, outlier_threshold: null, weighting: 'uniform' });
+    expect(res.body.models).toMatchObject({
+      gradient_interval_s: null,
+      zwd_interval_s: 600,
+      outlier_threshold: null,
+      weighting: 'uniform',
+    });
   });
 
   it.each([
-    ['a missing column', 'epoch,satellite,elevation_deg,azimuth_deg\n2026-03-14T00:00:00Z,S01,30,40\n', 'body', /missing column\(s\) residual_m/],
-    ['an unknown column', 'epoch,satellite,elevation_deg,azimuth_deg,residual_m,snr\n2026-03-14T00:00:00Z,S01,30,40,0.1,45\n', 'body', /unknown column\(s\) snr/],
-    ['a cell that is not a number', 'epoch,satellite,elevation_deg,azimuth_deg,residual_m\n2026-03-14T00:00:00Z,S01,thirty,40,0.1\n', 'observations.0.elevation_deg', /\(0, 90\] deg/],
+    [
+      'a missing column',
+      'epoch,satellite,elevation_deg,azimuth_deg\n2026-03-14T00:00:00Z,S01,30,40\n',
+      'body',
+      /missing column\(s\) residual_m/,
+    ],
+    [
+      'an unknown column',
+      'epoch,satellite,elevation_deg,azimuth_deg,residual_m,snr\n2026-03-14T00:00:00Z,S01,30,40,0.1,45\n',
+      'body',
+      /unknown column\(s\) snr/,
+    ],
+    [
+      'a cell that is not a number',
+      'epoch,satellite,elevation_deg,azimuth_deg,residual_m\n2026-03-14T00:00:00Z,S01,thirty,40,0.1\n',
+      'observations.0.elevation_deg',
+      /\(0, 90\] deg/,
+    ],
     ['a bad epoch', 'epoch,satellite,elevation_deg,azimuth_deg,residual_m\n14/03/2026,S01,30,40,0.1\n', 'observations.0.epoch', /ISO 8601/],
-    ['an unclosed quote', 'epoch,satellite,elevation_deg,azimuth_deg,residual_m\n"2026-03-14T00:00:00Z,S01,30,40,0.1\n', 'body', /not a valid CSV table/],
+    [
+      'an unclosed quote',
+      'epoch,satellite,elevation_deg,azimuth_deg,residual_m\n"2026-03-14T00:00:00Z,S01,30,40,0.1\n',
+      'body',
+      /not a valid CSV table/,
+    ],
     ['only a header', 'epoch,satellite,elevation_deg,azimuth_deg,residual_m\n', 'observations', /1\.\.500000 observations/],
     ['an empty body', '', 'body', /empty/],
   ])('%s is a 400 naming the field', async (_what, text, field, message) => {
@@ -263,7 +309,10 @@ describe('bad input (issue 3): clear 4xx problems naming the field', () => {
     const res = await api().post(ROUTE).send({ site: SITE, observations: low }).expect(422);
     expect(problemFields(res.body)).toEqual(['observations']);
     expect(res.body.detail).toMatch(/cutoff \(7\.00°\)/);
-    const mixed = await api().post(ROUTE).send(body({ site: SITE })).expect(200);
+    const mixed = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE }))
+      .expect(200);
     expect(mixed.body.statistics.observations_below_cutoff).toBe(low.length);
   });
 
@@ -297,7 +346,10 @@ describe('bad input (issue 3): clear 4xx problems naming the field', () => {
     [{ weighting: 'snr' }, 'options.weighting', /elevation, uniform/],
     [{ zwd_intervall_s: 300 }, 'options.zwd_intervall_s', /unknown key; did you mean zwd_interval_s\?/],
   ])('options %j: 400 naming %s', async (options, field, message) => {
-    const res = await api().post(ROUTE).send(body({ site: SITE, options })).expect(400);
+    const res = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE, options }))
+      .expect(400);
     expect(problemFields(res.body)).toContain(field);
     expect(res.body.detail).toMatch(message);
   });
@@ -360,9 +412,17 @@ describe('issue 10 options: parametrisation, weighting components, correlated no
   const api = useApp();
 
   it('defaults: states at every epoch, correlated-noise statistics, band statistics, node flags, named in models', async () => {
-    const res = await api().post(ROUTE).send(body({ site: SITE })).expect(200);
+    const res = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE }))
+      .expect(200);
     const s = res.body.statistics;
-    expect(res.body.models).toMatchObject({ parametrisation: 'every-epoch', correlated_noise: true, wet_mapping: 'niell', sigma_constant_m: null });
+    expect(res.body.models).toMatchObject({
+      parametrisation: 'every-epoch',
+      correlated_noise: true,
+      wet_mapping: 'niell',
+      sigma_constant_m: null,
+    });
     expect(res.body.models.estimator).toMatch(/random-walk states at every epoch/);
     expect(s.sigma_scale).toBe(1);
     expect(s.weighting_constant_m).toBe(0);
@@ -377,20 +437,32 @@ describe('issue 10 options: parametrisation, weighting components, correlated no
   });
 
   it('each option changes the answer and the fingerprint; the older model is parametrisation "nodes"', async () => {
-    const base = await api().post(ROUTE).send(body({ site: SITE })).expect(200);
+    const base = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE }))
+      .expect(200);
     for (const options of [
       { parametrisation: 'nodes' },
       { correlated_noise: false },
       { weighting: 'elevation-components', sigma_constant_m: 0.001 },
       { wet_mapping: 'chao' },
     ]) {
-      const res = await api().post(ROUTE).send(body({ site: SITE, options })).expect(200);
+      const res = await api()
+        .post(ROUTE)
+        .send(body({ site: SITE, options }))
+        .expect(200);
       expect(res.body.model_fingerprint, JSON.stringify(options)).not.toBe(base.body.model_fingerprint);
       for (const [k, v] of Object.entries(options)) expect(res.body.models[k]).toBe(v);
     }
-    const off = await api().post(ROUTE).send(body({ site: SITE, options: { correlated_noise: false } })).expect(200);
+    const off = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE, options: { correlated_noise: false } }))
+      .expect(200);
     expect(off.body.statistics.noise_correlation).toBeNull();
-    const nodes = await api().post(ROUTE).send(body({ site: SITE, options: { parametrisation: 'nodes' } })).expect(200);
+    const nodes = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE, options: { parametrisation: 'nodes' } }))
+      .expect(200);
     expect(nodes.body.models.estimator).toMatch(/piecewise-linear nodes/);
   });
 
@@ -404,11 +476,20 @@ describe('issue 10 options: parametrisation, weighting components, correlated no
       .send(csv)
       .expect(200);
     expect(res.body.models).toMatchObject({ parametrisation: 'nodes', weighting: 'elevation-components', correlated_noise: false });
-    const bad = await api().post(ROUTE).send(body({ site: SITE, options: { parametrisation: 'epochs' } })).expect(400);
+    const bad = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE, options: { parametrisation: 'epochs' } }))
+      .expect(400);
     expect(problemFields(bad.body)).toContain('options.parametrisation');
-    const vmf = await api().post(ROUTE).send(body({ site: SITE, options: { wet_mapping: 'vmf1' } })).expect(400);
+    const vmf = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE, options: { wet_mapping: 'vmf1' } }))
+      .expect(400);
     expect(problemFields(vmf.body)).toContain('options.wet_mapping');
-    const negative = await api().post(ROUTE).send(body({ site: SITE, options: { sigma_constant_m: -0.001 } })).expect(400);
+    const negative = await api()
+      .post(ROUTE)
+      .send(body({ site: SITE, options: { sigma_constant_m: -0.001 } }))
+      .expect(400);
     expect(problemFields(negative.body)).toContain('options.sigma_constant_m');
   });
 });

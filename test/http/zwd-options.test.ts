@@ -62,7 +62,11 @@ for (const backend of BACKENDS) {
     for (const format of ['json', 'csv'] as const) {
       it(`POST /v1/stations/{id}/zwd-estimates, ${format}: answer and stored model set`, async () => {
         const id = `OPT${format.toUpperCase()}`;
-        await api().put(`/v1/stations/${id}`).set('authorization', auth).send({ name: 'Options test (invented)', ...SITE }).expect(201);
+        await api()
+          .put(`/v1/stations/${id}`)
+          .set('authorization', auth)
+          .send({ name: 'Options test (invented)', ...SITE })
+          .expect(201);
         await api().post(`/v1/stations/${id}/met`).set('authorization', auth).send({ records: MET }).expect(200);
         const call = api().post(`/v1/stations/${id}/zwd-estimates`).set('authorization', auth);
         const res =
@@ -77,7 +81,8 @@ for (const backend of BACKENDS) {
         const stored = await api().get(`/v1/stations/${id}/delays`).query({ from: first, to: last }).expect(200);
         expect(stored.body.model_sets).toHaveLength(1);
         expect(stored.body.model_sets[0].model_fingerprint).toBe(res.body.model_fingerprint);
-        for (const [name, value] of Object.entries(EXPECTED_MODEL_SETTINGS)) expect(stored.body.model_sets[0].models[name], name).toEqual(value);
+        for (const [name, value] of Object.entries(EXPECTED_MODEL_SETTINGS))
+          expect(stored.body.model_sets[0].models[name], name).toEqual(value);
       });
     }
 

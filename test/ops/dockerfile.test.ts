@@ -134,7 +134,9 @@ describe('Dockerfile reference: non-root user, data volume, environment', () => 
   });
 
   it('sets HOST=0.0.0.0, PORT=8080 and TROPO_DATA_DIR=/data, and exposes PORT', () => {
-    const env = finalOf('ENV').map((e) => e.args).join(' ');
+    const env = finalOf('ENV')
+      .map((e) => e.args)
+      .join(' ');
     expect(env).toMatch(/\bHOST=0\.0\.0\.0\b/);
     expect(env).toMatch(/\bPORT=8080\b/);
     expect(env).toMatch(/\bTROPO_DATA_DIR=\/data\b/);
@@ -171,7 +173,12 @@ describe('.dockerignore (Dockerfile reference, ".dockerignore file")', () => {
     const sources = parsed.stages
       .flatMap((s) => s.instructions)
       .filter((i) => i.keyword === 'COPY' && !i.args.includes('--from='))
-      .flatMap((i) => i.args.split(/\s+/).filter((a) => !a.startsWith('--')).slice(0, -1));
+      .flatMap((i) =>
+        i.args
+          .split(/\s+/)
+          .filter((a) => !a.startsWith('--'))
+          .slice(0, -1),
+      );
     expect(sources).toEqual(expect.arrayContaining(['package.json', 'package-lock.json', 'src']));
     for (const source of sources) {
       expect(ignored(source.replace(/^\.\//, '')), source).toBe(false);

@@ -52,7 +52,8 @@ describe('TRUST_PROXY: the rate limit keys on the address the trusted proxy saw'
 
   it('the default trusts no proxy: X-Forwarded-For is ignored and the TCP peer is the client', async () => {
     app = await buildApp({ config: loadConfig({ RATE_LIMIT_PER_MINUTE: '3' }), archive });
-    for (let i = 0; i < 3; i++) await request(app.server).post('/v1/zenith-delays').set('x-forwarded-for', `203.0.113.${i}`).send(zenithBody).expect(200);
+    for (let i = 0; i < 3; i++)
+      await request(app.server).post('/v1/zenith-delays').set('x-forwarded-for', `203.0.113.${i}`).send(zenithBody).expect(200);
     await request(app.server).post('/v1/zenith-delays').set('x-forwarded-for', '203.0.113.200').send(zenithBody).expect(429);
   });
 
@@ -94,7 +95,11 @@ describe('CORS preflight for the archive routes', () => {
 describe('DELETE with a JSON content type and no body', () => {
   it('deletes (204) or says the station is missing (404), never a 400 about the empty body', async () => {
     app = await buildApp({ archive });
-    await request(app.server).put('/v1/stations/DEL1').set('authorization', auth).send({ name: 'Delwick (invented)', latitude_deg: 1, longitude_deg: 2, height_m: 3 }).expect(201);
+    await request(app.server)
+      .put('/v1/stations/DEL1')
+      .set('authorization', auth)
+      .send({ name: 'Delwick (invented)', latitude_deg: 1, longitude_deg: 2, height_m: 3 })
+      .expect(201);
     await request(app.server).delete('/v1/stations/DEL1').set('authorization', auth).set('content-type', 'application/json').expect(204);
     await request(app.server).delete('/v1/stations/DEL1').set('authorization', auth).set('content-type', 'application/json').expect(404);
     // A POST with an empty JSON body is still the caller's mistake.
@@ -120,13 +125,21 @@ describe('x-model-fingerprints header size', () => {
 
   it('a CSV read of a range with 80 model sets sends a capped header with the count', async () => {
     app = await buildApp({ archive });
-    await request(app.server).put('/v1/stations/MANYFP').set('authorization', auth).send({ name: 'Manifold (invented)', latitude_deg: 1, longitude_deg: 2, height_m: 3 }).expect(201);
+    await request(app.server)
+      .put('/v1/stations/MANYFP')
+      .set('authorization', auth)
+      .send({ name: 'Manifold (invented)', latitude_deg: 1, longitude_deg: 2, height_m: 3 })
+      .expect(201);
     const t0 = Date.UTC(2026, 6, 1);
     for (let i = 0; i < 80; i++) {
       await request(app.server)
         .post('/v1/stations/MANYFP/delays')
         .set('authorization', auth)
-        .send({ source: `run-${i}`, models: { mapping: 'niell', run: i }, records: [{ epoch: new Date(t0 + i * 60_000).toISOString(), ztd_m: 2.4 }] })
+        .send({
+          source: `run-${i}`,
+          models: { mapping: 'niell', run: i },
+          records: [{ epoch: new Date(t0 + i * 60_000).toISOString(), ztd_m: 2.4 }],
+        })
         .expect(200);
     }
     const r = await request(app.server)

@@ -31,7 +31,8 @@ describe('a refused estimation through a real server', () => {
     try {
       const data = generateSyntheticResiduals({ seed: 21, durationS: 6 * 3600, grossErrors: 12 });
       const body = JSON.stringify({ ...toRequestBody(data, { durationS: 6 * 3600 }), options: { outlier_rejection: 'one-per-solution' } });
-      const post = () => fetch(`${server.baseUrl}/v1/zwd-estimates`, { method: 'POST', headers: { 'content-type': 'application/json' }, body });
+      const post = () =>
+        fetch(`${server.baseUrl}/v1/zwd-estimates`, { method: 'POST', headers: { 'content-type': 'application/json' }, body });
       expect((await post()).status).toBe(200);
       // The run time the pool measured, as the metrics report it (one task so far: the mean is that task).
       const metrics = await (await fetch(`${server.baseUrl}/metrics`)).text();

@@ -48,7 +48,9 @@ describe.runIf(process.platform === 'linux')('24 clients that never read the lar
     for (let k = 0; k < CLIENTS; k++) {
       const s = connect(Number(port), '127.0.0.1');
       s.on('error', () => {});
-      s.write(`POST /v1/zwd-estimates HTTP/1.1\r\nHost: 127.0.0.1\r\nContent-Type: application/json\r\nContent-Length: ${Buffer.byteLength(BODY)}\r\n\r\n${BODY}`);
+      s.write(
+        `POST /v1/zwd-estimates HTTP/1.1\r\nHost: 127.0.0.1\r\nContent-Type: application/json\r\nContent-Length: ${Buffer.byteLength(BODY)}\r\n\r\n${BODY}`,
+      );
       s.pause(); // never read: the answer stays in the server's buffers
       sockets.push(s);
     }
@@ -67,10 +69,13 @@ describe.runIf(process.platform === 'linux')('24 clients that never read the lar
     expect(peak).toBeLessThan(1024 ** 3);
     // The answers held were the real ones: each socket, read now, starts with a 200.
     const statusLines = await Promise.all(
-      sockets.map((s) => new Promise<string>((resolve) => {
-        s.once('data', (chunk: Buffer) => resolve(chunk.subarray(0, 12).toString('latin1')));
-        s.resume();
-      })),
+      sockets.map(
+        (s) =>
+          new Promise<string>((resolve) => {
+            s.once('data', (chunk: Buffer) => resolve(chunk.subarray(0, 12).toString('latin1')));
+            s.resume();
+          }),
+      ),
     );
     expect(statusLines).toEqual(new Array(CLIENTS).fill('HTTP/1.1 200'));
     console.log(`peak RSS ${(peak / 1024 ** 2).toFixed(0)} MiB with ${CLIENTS} unread answers`);

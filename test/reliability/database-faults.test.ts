@@ -47,7 +47,10 @@ function metBatch(k: number): string {
 
 function delayBatch(k: number): string {
   const start = T0 + k * RECORDS * MIN;
-  const records = Array.from({ length: RECORDS }, (_, j) => ({ epoch: new Date(start + j * MIN).toISOString(), ztd_m: 2.3 + (j % 100) / 1000 }));
+  const records = Array.from({ length: RECORDS }, (_, j) => ({
+    epoch: new Date(start + j * MIN).toISOString(),
+    ztd_m: 2.3 + (j % 100) / 1000,
+  }));
   return JSON.stringify({ source: 'fault-test', models: { mapping: 'niell' }, records });
 }
 
@@ -97,7 +100,10 @@ describe.skipIf(!TEST_PG_URL)('PostgreSQL backend of an in-flight upload termina
   }
 
   /** Sends the upload and terminates every session of the server that is inside a transaction while it runs. */
-  async function uploadAndTerminate(path: string, body: string): Promise<{ status: number; retryAfter: string | null; terminated: boolean }> {
+  async function uploadAndTerminate(
+    path: string,
+    body: string,
+  ): Promise<{ status: number; retryAfter: string | null; terminated: boolean }> {
     let done = false;
     const pending = fetch(`${server.baseUrl}${path}`, { method: 'POST', headers: write, body }).finally(() => (done = true));
     let terminated = false;
@@ -154,7 +160,14 @@ describe.skipIf(!TEST_PG_URL)('PostgreSQL backend of an in-flight upload termina
     const { observations } = toRequestBody(data); // the station is the site
     const body = JSON.stringify({ observations, apriori: { zhd_m: 2.2, zwd_m: 0.05 }, options: { zwd_interval_s: 900 } });
     const storedOf = async (source: string) =>
-      Number((await admin.query<{ n: string }>(`SELECT count(*) AS n FROM "${schema}".delay_records WHERE station_id = 'QRIDGE' AND source = $1`, [source])).rows[0]!.n);
+      Number(
+        (
+          await admin.query<{ n: string }>(
+            `SELECT count(*) AS n FROM "${schema}".delay_records WHERE station_id = 'QRIDGE' AND source = $1`,
+            [source],
+          )
+        ).rows[0]!.n,
+      );
     const locker = new pg.Client({ connectionString: TEST_PG_URL });
     await locker.connect();
     try {
@@ -283,7 +296,9 @@ describe.skipIf(!TEST_PG_URL)('PostgreSQL blackholed (no answer, no reset)', () 
     t = Date.now();
     const reads = await Promise.all(
       Array.from({ length: 4 }, () =>
-        fetch(`${server.baseUrl}/v1/stations/BHOLE/met?from=2026-03-01T00:00:00Z&to=2026-03-02T00:00:00Z`, { signal: AbortSignal.timeout(20_000) }),
+        fetch(`${server.baseUrl}/v1/stations/BHOLE/met?from=2026-03-01T00:00:00Z&to=2026-03-02T00:00:00Z`, {
+          signal: AbortSignal.timeout(20_000),
+        }),
       ),
     );
     const readsMs = Date.now() - t;

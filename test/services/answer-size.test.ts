@@ -27,8 +27,14 @@ const enc = (o: unknown) => new TextEncoder().encode(JSON.stringify(o));
 
 describe('answer size: output nodes over the span (hand-counted)', () => {
   it('55 h at 1-s ZWD nodes and 6-h gradient nodes: 198 001 + 10 (55 h / 6 h rounded up, + 1)', () => {
-    expect(answerSize([T0, T0 + 55 * H], { zwdIntervalS: 1, gradients: true, gradientIntervalS: 21_600 })).toEqual({ zwdNodes: 198_001, gradientNodes: 11 });
-    expect(answerSize([T0 + 55 * H, T0], { zwdIntervalS: 1, gradients: false, gradientIntervalS: 21_600 })).toEqual({ zwdNodes: 198_001, gradientNodes: 0 });
+    expect(answerSize([T0, T0 + 55 * H], { zwdIntervalS: 1, gradients: true, gradientIntervalS: 21_600 })).toEqual({
+      zwdNodes: 198_001,
+      gradientNodes: 11,
+    });
+    expect(answerSize([T0 + 55 * H, T0], { zwdIntervalS: 1, gradients: false, gradientIntervalS: 21_600 })).toEqual({
+      zwdNodes: 198_001,
+      gradientNodes: 0,
+    });
   });
 
   it('the largest legitimate answer fits: 30 days at 30 s (86 401) with 6-h gradients (121)', () => {
@@ -36,15 +42,25 @@ describe('answer size: output nodes over the span (hand-counted)', () => {
     expect(size).toEqual({ zwdNodes: 86_401, gradientNodes: 121 });
     expect(size.zwdNodes + size.gradientNodes).toBeLessThanOrEqual(MAX_ANSWER_NODES);
     // 30 days at 20 s: 129 601 nodes, over the cap.
-    expect(answerSize([T0, T0 + 30 * 24 * H], { zwdIntervalS: 20, gradients: false, gradientIntervalS: 21_600 }).zwdNodes).toBeGreaterThan(MAX_ANSWER_NODES);
+    expect(answerSize([T0, T0 + 30 * 24 * H], { zwdIntervalS: 20, gradients: false, gradientIntervalS: 21_600 }).zwdNodes).toBeGreaterThan(
+      MAX_ANSWER_NODES,
+    );
   });
 });
 
 const ENTRY_POINTS = [
-  ['POST /v1/zwd-estimates', { body: enc({ site: SITE, observations: OBSERVATIONS, options: { zwd_interval_s: 1 } }), format: 'json' as const, query: {} }],
+  [
+    'POST /v1/zwd-estimates',
+    { body: enc({ site: SITE, observations: OBSERVATIONS, options: { zwd_interval_s: 1 } }), format: 'json' as const, query: {} },
+  ],
   [
     'POST /v1/stations/{id}/zwd-estimates',
-    { body: enc({ observations: OBSERVATIONS, options: { zwd_interval_s: 1 } }), format: 'json' as const, query: {}, station: { site: { latitudeDeg: 46.2, longitudeDeg: 7.4, heightM: 520 } } },
+    {
+      body: enc({ observations: OBSERVATIONS, options: { zwd_interval_s: 1 } }),
+      format: 'json' as const,
+      query: {},
+      station: { site: { latitudeDeg: 46.2, longitudeDeg: 7.4, heightM: 520 } },
+    },
   ],
 ] as const;
 

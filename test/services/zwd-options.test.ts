@@ -27,16 +27,41 @@ const { observations } = toRequestBody(data);
 const T0 = Date.parse(observations[0]!.epoch);
 // Met an hour apart: interpolated across with the default 10 800 s gap, missing with 600 s.
 const MET = [0, 1, 2].map((k) => ({ epoch: new Date(T0 - H / 2 + k * H).toISOString(), pressure_hpa: 955 + k, temperature_c: 12 - k }));
-const STORED_MET = { epochMs: MET.map((m) => Date.parse(m.epoch)), pressureHpa: MET.map((m) => m.pressure_hpa), temperatureC: MET.map((m) => m.temperature_c) };
+const STORED_MET = {
+  epochMs: MET.map((m) => Date.parse(m.epoch)),
+  pressureHpa: MET.map((m) => m.pressure_hpa),
+  temperatureC: MET.map((m) => m.temperature_c),
+};
 
 const enc = (o: unknown) => new TextEncoder().encode(JSON.stringify(o));
 const siteQuery = { latitude_deg: String(SITE.latitude_deg), longitude_deg: String(SITE.longitude_deg), height_m: String(SITE.height_m) };
 
 const ENTRY_POINTS = [
-  ['POST /v1/zwd-estimates (JSON)', { body: enc({ site: SITE, observations, met: MET, options: jsonOptions() }), format: 'json' as const, query: {} }, true],
-  ['POST /v1/zwd-estimates (text/csv + query)', { body: toCsv(data), format: 'csv' as const, query: { ...siteQuery, ...queryOptions() } }, false],
-  ['POST /v1/stations/{id}/zwd-estimates (JSON)', { body: enc({ observations, options: jsonOptions() }), format: 'json' as const, query: {}, station: { site: STATION_SITE, storedMet: STORED_MET } }, true],
-  ['POST /v1/stations/{id}/zwd-estimates (text/csv + query)', { body: toCsv(data), format: 'csv' as const, query: queryOptions(), station: { site: STATION_SITE, storedMet: STORED_MET } }, true],
+  [
+    'POST /v1/zwd-estimates (JSON)',
+    { body: enc({ site: SITE, observations, met: MET, options: jsonOptions() }), format: 'json' as const, query: {} },
+    true,
+  ],
+  [
+    'POST /v1/zwd-estimates (text/csv + query)',
+    { body: toCsv(data), format: 'csv' as const, query: { ...siteQuery, ...queryOptions() } },
+    false,
+  ],
+  [
+    'POST /v1/stations/{id}/zwd-estimates (JSON)',
+    {
+      body: enc({ observations, options: jsonOptions() }),
+      format: 'json' as const,
+      query: {},
+      station: { site: STATION_SITE, storedMet: STORED_MET },
+    },
+    true,
+  ],
+  [
+    'POST /v1/stations/{id}/zwd-estimates (text/csv + query)',
+    { body: toCsv(data), format: 'csv' as const, query: queryOptions(), station: { site: STATION_SITE, storedMet: STORED_MET } },
+    true,
+  ],
 ] as const;
 
 describe('the test values cover the whole table', () => {
@@ -87,7 +112,12 @@ describe('gradients off', () => {
       if (!outcome.ok) throw new Error(outcome.error.detail);
       expect(vi.mocked(estimate.estimateZwd).mock.calls[0]![0].options.gradients).toBeNull();
       const models = JSON.parse(new TextDecoder().decode(outcome.output.json)).models;
-      expect(models).toMatchObject({ gradient_mapping: 'none', gradient_interval_s: null, gradient_random_walk_m_per_sqrt_h: null, gradient_apriori_sigma_m: null });
+      expect(models).toMatchObject({
+        gradient_mapping: 'none',
+        gradient_interval_s: null,
+        gradient_random_walk_m_per_sqrt_h: null,
+        gradient_apriori_sigma_m: null,
+      });
     }
   });
 });

@@ -157,7 +157,13 @@ for (const backend of BACKENDS) {
       await repo.writeDelays('QMR-1', [delay(2), delay(0), { ...delay(1), ztdSigmaM: null }, delay(1, 'second')], MODEL_SET);
       const range = { fromMs: T0, toMs: T0 + 10 * MIN };
       const pickMet = ({ epochMs, source, pressureHpa, temperatureC }: MetRow) => ({ epochMs, source, pressureHpa, temperatureC });
-      const pickDelay = ({ epochMs, source, ztdM, ztdSigmaM, modelFingerprint }: DelayRow) => ({ epochMs, source, ztdM, ztdSigmaM, modelFingerprint });
+      const pickDelay = ({ epochMs, source, ztdM, ztdSigmaM, modelFingerprint }: DelayRow) => ({
+        epochMs,
+        source,
+        ztdM,
+        ztdSigmaM,
+        modelFingerprint,
+      });
       expect(await repo.readSurfaceMet('QMR-1', range)).toEqual((await repo.readMet('QMR-1', range)).map(pickMet));
       expect(await repo.readSurfaceMet('QMR-1', range, 'sensor-b')).toEqual((await repo.readMet('QMR-1', range, 'sensor-b')).map(pickMet));
       expect(await repo.readZenithDelays('QMR-1', range)).toEqual((await repo.readDelays('QMR-1', range)).map(pickDelay));
@@ -201,8 +207,15 @@ for (const backend of BACKENDS) {
     it('keeps everything across a close and reopen of the same storage (restart)', async () => {
       const { repo, config } = await fresh();
       await repo.putStation('QMR-1', STATION);
-      await repo.writeMet('QMR-1', Array.from({ length: 100 }, (_, i) => met(i)));
-      await repo.writeDelays('QMR-1', Array.from({ length: 10 }, (_, i) => delay(i)), MODEL_SET);
+      await repo.writeMet(
+        'QMR-1',
+        Array.from({ length: 100 }, (_, i) => met(i)),
+      );
+      await repo.writeDelays(
+        'QMR-1',
+        Array.from({ length: 10 }, (_, i) => delay(i)),
+        MODEL_SET,
+      );
       await repo.close();
       opened.splice(opened.indexOf(repo), 1);
       const again = await createRepository(config); // migrations are not re-applied

@@ -77,7 +77,10 @@ describe('SQLite disk full (SQLITE_FULL)', () => {
     expect(Number(full.headers['retry-after'])).toBeGreaterThanOrEqual(1);
     expect(full.body.detail).toMatch(/storage is full/);
     expect(full.body.detail).not.toMatch(/SQLITE|database or disk/);
-    const none = await api().get('/v1/stations/FULL1/met').query({ from: iso(T0), to: iso(T0 + 5000 * MIN) }).expect(200);
+    const none = await api()
+      .get('/v1/stations/FULL1/met')
+      .query({ from: iso(T0), to: iso(T0 + 5000 * MIN) })
+      .expect(200);
     expect(none.body.records).toHaveLength(0);
 
     db.pragma('max_page_count = 1073741823');
@@ -114,7 +117,10 @@ describe('SQLite file locked by another process (SQLITE_BUSY)', () => {
     const other = new Database(join(dataDir, 'tropodelay.sqlite'));
     other.exec('BEGIN IMMEDIATE');
     try {
-      const busy = await request(app.server).post('/v1/stations/BUSY1/met').set('authorization', auth).send({ source: 'lock', records: metRecords(0, 10, 1004) });
+      const busy = await request(app.server)
+        .post('/v1/stations/BUSY1/met')
+        .set('authorization', auth)
+        .send({ source: 'lock', records: metRecords(0, 10, 1004) });
       expect(busy.status).toBe(503);
       expect(busy.headers['retry-after']).toBe('1');
       expect(busy.body.detail).toMatch(/busy/);
@@ -122,7 +128,10 @@ describe('SQLite file locked by another process (SQLITE_BUSY)', () => {
       other.exec('ROLLBACK');
       other.close();
     }
-    const ok = await request(app.server).post('/v1/stations/BUSY1/met').set('authorization', auth).send({ source: 'lock', records: metRecords(0, 10, 1004) });
+    const ok = await request(app.server)
+      .post('/v1/stations/BUSY1/met')
+      .set('authorization', auth)
+      .send({ source: 'lock', records: metRecords(0, 10, 1004) });
     expect(ok.status).toBe(200);
     expect(ok.body.inserted).toBe(10);
   });
@@ -141,7 +150,12 @@ describe('readiness and the data directory', () => {
     cleanup = fresh.cleanup;
     // A floor of 1 EiB: no test machine has that much free space, so statfs must report "full".
     app = await buildApp({
-      archive: { storage: { ...fresh.config, minFreeDiskBytes: 2 ** 60 }, apiKeys: [TEST_KEY], readKeysRequired: false, maxReadRangeDays: 366 },
+      archive: {
+        storage: { ...fresh.config, minFreeDiskBytes: 2 ** 60 },
+        apiKeys: [TEST_KEY],
+        readKeysRequired: false,
+        maxReadRangeDays: 366,
+      },
     });
     const r = await request(app.server).get('/v1/ready').expect(503);
     expect(r.body.checks).toEqual({ database: 'ok', data_dir: 'the storage is full; nothing was written' });

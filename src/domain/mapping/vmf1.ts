@@ -64,7 +64,9 @@ export const vmf1Model: MappingModel = {
   citation: 'Boehm, Werl & Schuh (2006) VMF1 with caller a coefficients',
   requiresCoefficients: true,
   heightCorrection: (coefficients) =>
-    coefficientsHeightReference(coefficients) === 'site' ? 'none (coefficients at the site)' : `${NIELL_HEIGHT_CORRECTION_NAME}, coefficients at sea level`,
+    coefficientsHeightReference(coefficients) === 'site'
+      ? 'none (coefficients at the site)'
+      : `${NIELL_HEIGHT_CORRECTION_NAME}, coefficients at sea level`,
   prepare(context: MappingContext): MappingEvaluator {
     if (!context.coefficients) {
       throw new ModelDomainError('coefficients', 'model "vmf1" needs coefficients {ah, aw}', 400);

@@ -31,7 +31,11 @@ export interface Interpolated {
  * @returns one result per epoch: the exact record ('measured'), a linear interpolation
  *          ('interpolated'), or null ('missing')
  */
-export function interpolateSeries(series: readonly TimedValue[], epochsMs: readonly number[], maxGapMs = DEFAULT_MAX_MET_GAP_MS): Interpolated[] {
+export function interpolateSeries(
+  series: readonly TimedValue[],
+  epochsMs: readonly number[],
+  maxGapMs = DEFAULT_MAX_MET_GAP_MS,
+): Interpolated[] {
   const out: Interpolated[] = new Array(epochsMs.length);
   let j = 0;
   for (let i = 0; i < epochsMs.length; i++) {

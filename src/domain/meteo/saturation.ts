@@ -100,6 +100,11 @@ export function vapourPressureFromDewpointHpa(dewpointC: number, pressureHpa: nu
  *
  * @returns relative humidity [%]
  */
-export function relativeHumidityPct(vapourPressureHpa: number, temperatureC: number, pressureHpa: number, cold: ColdRange = 'refuse'): number {
+export function relativeHumidityPct(
+  vapourPressureHpa: number,
+  temperatureC: number,
+  pressureHpa: number,
+  cold: ColdRange = 'refuse',
+): number {
   return (100 * vapourPressureHpa) / (enhancementFactor(pressureHpa) * saturationVapourPressureHpa(temperatureC, 'temperature_c', cold));
 }

@@ -65,7 +65,9 @@ export function resolveSurfaceMet(siteHeightM: number, met: MetInput | undefined
   if (met.temperatureC === undefined) {
     temperatureC = atSite.temperatureC;
     temperatureSource = 'standard-atmosphere';
-    warnings.push(`temperature not given: standard atmosphere ${temperatureC.toFixed(2)} °C at ${+siteHeightM.toFixed(1)} m above sea level used`);
+    warnings.push(
+      `temperature not given: standard atmosphere ${temperatureC.toFixed(2)} °C at ${+siteHeightM.toFixed(1)} m above sea level used`,
+    );
   } else {
     temperatureC = reduce ? reduceTemperatureC(met.temperatureC, dHeightM) : met.temperatureC;
     temperatureSource = measuredSource;
@@ -76,7 +78,9 @@ export function resolveSurfaceMet(siteHeightM: number, met: MetInput | undefined
   if (met.pressureHpa === undefined) {
     pressureHpa = atSite.pressureHpa;
     pressureSource = 'standard-atmosphere';
-    warnings.push(`pressure not given: standard atmosphere ${pressureHpa.toFixed(2)} hPa at ${+siteHeightM.toFixed(1)} m above sea level used`);
+    warnings.push(
+      `pressure not given: standard atmosphere ${pressureHpa.toFixed(2)} hPa at ${+siteHeightM.toFixed(1)} m above sea level used`,
+    );
   } else {
     pressureHpa = reduce ? reducePressureHpa(met.pressureHpa, sensorT, dHeightM) : met.pressureHpa;
     pressureSource = measuredSource;
@@ -104,7 +108,9 @@ export function resolveSurfaceMet(siteHeightM: number, met: MetInput | undefined
   } else {
     humiditySource = 'standard-atmosphere';
     sensorRh = atSite.relativeHumidityPct;
-    warnings.push(`humidity not given: standard atmosphere ${sensorRh.toFixed(1)} % relative humidity at ${+siteHeightM.toFixed(1)} m above sea level used`);
+    warnings.push(
+      `humidity not given: standard atmosphere ${sensorRh.toFixed(1)} % relative humidity at ${+siteHeightM.toFixed(1)} m above sea level used`,
+    );
   }
   if (vapourPressureHpa === undefined) {
     // Relative humidity held constant over the height difference (see height-reduction.ts).

@@ -28,7 +28,12 @@ import { EPSILON } from './constants.js';
 export const ENHANCEMENT_MIN_PRESSURE_HPA = 50;
 
 export type HumidityQuantity = 'relative_humidity_pct' | 'dewpoint_c' | 'vapour_pressure_hpa' | 'specific_humidity_kg_kg';
-export const HUMIDITY_QUANTITIES: readonly HumidityQuantity[] = ['relative_humidity_pct', 'dewpoint_c', 'vapour_pressure_hpa', 'specific_humidity_kg_kg'];
+export const HUMIDITY_QUANTITIES: readonly HumidityQuantity[] = [
+  'relative_humidity_pct',
+  'dewpoint_c',
+  'vapour_pressure_hpa',
+  'specific_humidity_kg_kg',
+];
 
 /** f(p) of WMO-No. 8 down to 50 hPa, 1 above the 50 hPa level [-]. */
 export function profileEnhancementFactor(pressureHpa: number): number {

@@ -175,11 +175,18 @@ export function validateLevels(
     const value = level[HUMIDITY_FIELDS[quantity]] as number;
     const e = vapourPressureOfLevelHpa(quantity, value, level.temperatureC, level.pressureHpa);
     if (!(e < level.pressureHpa)) {
-      throw new ModelDomainError(at(i, quantity), `gives a vapour pressure of ${fmt(e)} hPa, not below the total pressure ${level.pressureHpa} hPa`, 400);
+      throw new ModelDomainError(
+        at(i, quantity),
+        `gives a vapour pressure of ${fmt(e)} hPa, not below the total pressure ${level.pressureHpa} hPa`,
+        400,
+      );
     }
     const saturation = moistSaturationVapourPressureHpa(level.temperatureC, level.pressureHpa);
     if (quantity !== 'relative_humidity_pct' && e > (SUPERSATURATION_LIMIT_PCT / 100) * saturation) {
-      const what = quantity === 'dewpoint_c' ? `dew point ${value} °C is above the temperature ${level.temperatureC} °C` : `gives a vapour pressure of ${fmt(e)} hPa`;
+      const what =
+        quantity === 'dewpoint_c'
+          ? `dew point ${value} °C is above the temperature ${level.temperatureC} °C`
+          : `gives a vapour pressure of ${fmt(e)} hPa`;
       throw new ModelDomainError(
         at(i, quantity),
         `${what}: ${((100 * e) / saturation).toFixed(1)} % of saturation (${fmt(saturation)} hPa at ${level.temperatureC} °C); at most ${SUPERSATURATION_LIMIT_PCT} % is accepted`,
@@ -250,7 +257,9 @@ function checkLayers(column: Column, gravity: GravityAtLatitude, warnings: strin
     );
   }
   if (thick.length) {
-    warnings.push(`${count(thick.length, 'layer')} thicker than ${THICK_LAYER_WARNING_M} m (from levels ${listIndices(thick)}); values inside them are interpolated`);
+    warnings.push(
+      `${count(thick.length, 'layer')} thicker than ${THICK_LAYER_WARNING_M} m (from levels ${listIndices(thick)}); values inside them are interpolated`,
+    );
   }
 }
 
@@ -262,7 +271,8 @@ export interface LayerPoint {
 }
 
 /** True when the vapour pressure is interpolated exponentially in the layer above level i. */
-export const vapourExponential = (column: Column, i: number): boolean => column.vapourPressureHpa[i]! > 0 && column.vapourPressureHpa[i + 1]! > 0;
+export const vapourExponential = (column: Column, i: number): boolean =>
+  column.vapourPressureHpa[i]! > 0 && column.vapourPressureHpa[i + 1]! > 0;
 
 /**
  * Interpolates inside the layer between levels i and i + 1 (rules in the module comment).
@@ -302,7 +312,11 @@ export function columnFromSite(column: Column, siteHeightM: number, warnings: st
   const n = column.heightM.length;
   const z0 = column.heightM[0]!;
   if (!(siteHeightM < column.heightM[n - 1]!)) {
-    throw new ModelDomainError('site.height_m', `the site (${siteHeightM} m) must lie below the top level of the profile (${fmt(column.heightM[n - 1]!)} m)`, 400);
+    throw new ModelDomainError(
+      'site.height_m',
+      `the site (${siteHeightM} m) must lie below the top level of the profile (${fmt(column.heightM[n - 1]!)} m)`,
+      400,
+    );
   }
   if (z0 > siteHeightM) {
     const dz = z0 - siteHeightM;
@@ -340,7 +354,9 @@ export function columnFromSite(column: Column, siteHeightM: number, warnings: st
   }
   const bottom = interpolateInLayer(column, i, siteHeightM);
   const rest = sliceColumn(column, i + 1);
-  warnings.push(`${count(i + 1, 'level')} below the site height not used; the column starts at the site height, interpolated between levels ${i} and ${i + 1}`);
+  warnings.push(
+    `${count(i + 1, 'level')} below the site height not used; the column starts at the site height, interpolated between levels ${i} and ${i + 1}`,
+  );
   return {
     heightM: prepend(siteHeightM, rest.heightM),
     pressureHpa: prepend(bottom.pressureHpa, rest.pressureHpa),

@@ -77,7 +77,10 @@ export const REFRACTIVITY_CONSTANT_SETS = {
 } as const satisfies Record<string, RefractivityConstants>;
 
 export type RefractivityConstantsKey = keyof typeof REFRACTIVITY_CONSTANT_SETS;
-export const REFRACTIVITY_CONSTANTS_KEYS = Object.keys(REFRACTIVITY_CONSTANT_SETS) as [RefractivityConstantsKey, ...RefractivityConstantsKey[]];
+export const REFRACTIVITY_CONSTANTS_KEYS = Object.keys(REFRACTIVITY_CONSTANT_SETS) as [
+  RefractivityConstantsKey,
+  ...RefractivityConstantsKey[],
+];
 export const DEFAULT_REFRACTIVITY_CONSTANTS: RefractivityConstantsKey = 'bevis-1994';
 
 /**
@@ -139,7 +142,12 @@ export function hydrostaticRefractivity(
  * @param temperatureK T [K]
  * @param wetInverseCompressibility Zw⁻¹ [-]
  */
-export function wetRefractivity(set: RefractivityConstants, vapourPressureHpa: number, temperatureK: number, wetInverseCompressibility = 1): number {
+export function wetRefractivity(
+  set: RefractivityConstants,
+  vapourPressureHpa: number,
+  temperatureK: number,
+  wetInverseCompressibility = 1,
+): number {
   const e = vapourPressureHpa;
   return (k2PrimeKPerHpa(set) * (e / temperatureK) + set.k3K2PerHpa * (e / (temperatureK * temperatureK))) * wetInverseCompressibility;
 }

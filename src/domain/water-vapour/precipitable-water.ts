@@ -110,7 +110,11 @@ export function precipitableWater(input: PwvInput, latitudeRad: number, heightM:
   let splitZhdM: number | null = null;
   if (input.ztdM !== undefined) {
     if (input.pressureHpa === undefined) {
-      throw new ModelDomainError(at('pressure_hpa'), 'a total delay needs the measured surface pressure (300..1100 hPa) to split off the hydrostatic part; it is never defaulted', 400);
+      throw new ModelDomainError(
+        at('pressure_hpa'),
+        'a total delay needs the measured surface pressure (300..1100 hPa) to split off the hydrostatic part; it is never defaulted',
+        400,
+      );
     }
     zhdM = zenithHydrostaticDelayM(input.pressureHpa, latitudeRad, heightM);
     splitZhdM = zhdM;

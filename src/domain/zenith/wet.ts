@@ -44,10 +44,7 @@ export function saastamoinenWetDelayM(temperatureK: number, vapourPressureHpa: n
 
 /** Tm assumed by Askne & Nordius (1987) for lapse rate β and decrease factor λ [K]. */
 export function askneNordiusMeanTemperatureK(temperatureK: number): number {
-  return (
-    temperatureK *
-    (1 - (ASKNE_NORDIUS_LAPSE_RATE_K_PER_M * RD_J_PER_KG_K) / (G_MEAN_M_S2 * (ASKNE_NORDIUS_LAMBDA + 1)))
-  );
+  return temperatureK * (1 - (ASKNE_NORDIUS_LAPSE_RATE_K_PER_M * RD_J_PER_KG_K) / (G_MEAN_M_S2 * (ASKNE_NORDIUS_LAMBDA + 1)));
 }
 
 /** Askne & Nordius (1987) wet delay with the assumptions in the module comment. */
@@ -63,7 +60,10 @@ export function askneNordiusWetDelayM(temperatureK: number, vapourPressureHpa: n
 
 function checkWetInputs(temperatureK: number, vapourPressureHpa: number): void {
   if (!(temperatureK >= 183 && temperatureK <= 333)) {
-    throw new ModelDomainError('temperature_c', `wet delay models are defined for −90..60 °C, got ${(temperatureK - 273.15).toFixed(2)} °C`);
+    throw new ModelDomainError(
+      'temperature_c',
+      `wet delay models are defined for −90..60 °C, got ${(temperatureK - 273.15).toFixed(2)} °C`,
+    );
   }
   if (!(vapourPressureHpa >= 0)) {
     throw new ModelDomainError('vapour_pressure_hpa', `vapour pressure must be ≥ 0 hPa, got ${vapourPressureHpa}`);

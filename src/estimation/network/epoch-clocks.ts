@@ -56,7 +56,10 @@ export class EpochClockSystem {
   datums = 0;
   /** Included entries (used, and with a satellite clock: seen by ≥ 2 stations). */
   readonly included: Uint8Array;
-  /** Per entry of the epoch (offset from its first entry): local station, local satellite, weight, partials m and c = m − m̄_a, residual r − r̄_a. */
+  /**
+   * Per entry of the epoch (offset from its first entry): local station, local satellite, weight,
+   * partials m and c = m − m̄_a, residual r − r̄_a.
+   */
   readonly entryLocal: Int32Array;
   readonly entrySat: Int32Array;
   readonly entryWeight: Float64Array;
@@ -143,7 +146,7 @@ export class EpochClockSystem {
     this.presentCount = 0;
     this.satellites = 0;
     // Satellites, included entries, present stations.
-    for (let e = a0; e < a1; ) {
+    for (let e = a0; e < a1;) {
       let f = e;
       let usedCount = 0;
       while (f < a1 && net.entrySatellite[f] === net.entrySatellite[e]) {

@@ -72,23 +72,35 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
   for (let i = 0; i < obs.epochMs.length; i++) subsets[stationIndex.get(obs.station[i]!)!]!.observations.push(i);
   const empty = subsets.filter((s) => s.observations.length === 0).map((s) => s.name);
   if (empty.length > 0) {
-    throw new ModelDomainError('stations', `station${empty.length > 1 ? 's' : ''} ${empty.join(', ')} ha${empty.length > 1 ? 've' : 's'} no observations: remove ${empty.length > 1 ? 'them' : 'it'} from stations or send observations`, 400);
+    throw new ModelDomainError(
+      'stations',
+      `station${empty.length > 1 ? 's' : ''} ${empty.join(', ')} ha${empty.length > 1 ? 've' : 's'} no observations: remove ${empty.length > 1 ? 'them' : 'it'} from stations or send observations`,
+      400,
+    );
   }
   const ecef = stations.map((s) => geodeticToEcef(s.latitudeRad, s.longitudeRad, s.heightM));
   const reference = referenceStation(input, ecef);
   const warnings: string[] = [];
   if ((options.parametrisation ?? 'every-epoch') !== 'nodes') {
-    warnings.push(`the network estimator uses piecewise-linear nodes (parametrisation "nodes", ZWD every ${options.zwd.intervalS} s), not a state at every epoch`);
+    warnings.push(
+      `the network estimator uses piecewise-linear nodes (parametrisation "nodes", ZWD every ${options.zwd.intervalS} s), not a state at every epoch`,
+    );
   }
   if (options.correlatedNoise ?? true) {
-    warnings.push('formal errors are not inflated for time-correlated residuals (not implemented for networks): they describe white noise only');
+    warnings.push(
+      'formal errors are not inflated for time-correlated residuals (not implemented for networks): they describe white noise only',
+    );
   }
   if (options.scaleSigmas) {
-    warnings.push('scale_sigmas: the formal errors are multiplied by √(variance factor); the observation weights are not re-estimated by variance components as in the single-station estimator');
+    warnings.push(
+      'scale_sigmas: the formal errors are multiplied by √(variance factor); the observation weights are not re-estimated by variance components as in the single-station estimator',
+    );
   }
   const estimated = options.satelliteClocks === 'estimated' && stations.length > 1;
   if (options.satelliteClocks === 'estimated' && stations.length === 1) {
-    warnings.push('a network of one station: satellite clocks cannot be estimated from one station, so they were taken as known (the single-station solution)');
+    warnings.push(
+      'a network of one station: satellite clocks cannot be estimated from one station, so they were taken as known (the single-station solution)',
+    );
   }
 
   let results: NetworkStationResult[];
@@ -107,7 +119,10 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
     results = stationResults(problem, reference);
     const singles = singleStationCounts(problem.net);
     const meanEstimated = median(problem.solution.epochs.map((e) => Math.sqrt(e.meanVariance) * problem.sigmaScale));
-    const meanKnown = knownMeanSigma(known, known.map(() => problem.sigmaScale));
+    const meanKnown = knownMeanSigma(
+      known,
+      known.map(() => problem.sigmaScale),
+    );
     commonMode = {
       meanZwdSigmaClocksEstimatedM: meanEstimated,
       meanZwdSigmaClocksKnownM: meanKnown,
@@ -134,21 +149,28 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
       screeningComplete: problem.screeningComplete,
     };
     if (singles.pairs > 0) {
-      warnings.push(`${singles.observations} observations of ${singles.pairs} (epoch, satellite) pairs seen by one station only were not used: with satellite clocks estimated they carry no information`);
+      warnings.push(
+        `${singles.observations} observations of ${singles.pairs} (epoch, satellite) pairs seen by one station only were not used: with satellite clocks estimated they carry no information`,
+      );
     }
     for (const r of results) {
       if (r.statistics.observationsUsed === 0) {
-        warnings.push(`station ${r.station} shares no satellite with another station at any epoch: with satellite clocks estimated its observations carry no information, and its values are the a-priori constraints only`);
+        warnings.push(
+          `station ${r.station} shares no satellite with another station at any epoch: with satellite clocks estimated its observations carry no information, and its values are the a-priori constraints only`,
+        );
       }
     }
-    if (singles.epochs > 0) warnings.push(`${singles.epochs} epochs with observations of one station only carry no information with satellite clocks estimated`);
+    if (singles.epochs > 0)
+      warnings.push(`${singles.epochs} epochs with observations of one station only carry no information with satellite clocks estimated`);
     if (meanEstimated !== null && meanEstimated > options.commonModeSigmaThresholdM) {
       warnings.push(
         `the absolute ZWD level is poorly determined: σ of the network-mean ZWD is ${(meanEstimated * 1000).toFixed(1)} mm (threshold ${(options.commonModeSigmaThresholdM * 1000).toFixed(1)} mm; ${(meanKnown * 1000).toFixed(1)} mm with satellite clocks known). The network spans ${geometry.extentKm.toFixed(0)} km, ${geometry.extentNadirDeg.toFixed(2)}° of nadir angle seen from the satellites: only ZWD differences between stations are well determined; add distant stations or use known satellite clocks`,
       );
     }
   } else {
-    const problems = subsets.map((sub) => solveWithScreening(buildNetworkDesign(obs, [sub], options, false), { ...input, stations: [stations[sub.index]!] }, 0));
+    const problems = subsets.map((sub) =>
+      solveWithScreening(buildNetworkDesign(obs, [sub], options, false), { ...input, stations: [stations[sub.index]!] }, 0),
+    );
     results = problems.map((p) => stationResults(p, 0)[0]!);
     addKnownRelative(results, reference);
     problems.forEach((p) => warnings.push(...p.warnings.map((w) => `station ${p.net.stations[0]!.name}: ${w}`)));
@@ -198,7 +220,12 @@ function checkInput(input: NetworkEstimationInput): void {
   const names = new Map<string, number>();
   stations.forEach((s, i) => {
     const other = names.get(s.name);
-    if (other !== undefined) throw new ModelDomainError(`stations.${i}.name`, `duplicate station name ${s.name} (also stations.${other}); names must be unique`, 400);
+    if (other !== undefined)
+      throw new ModelDomainError(
+        `stations.${i}.name`,
+        `duplicate station name ${s.name} (also stations.${other}); names must be unique`,
+        400,
+      );
     names.set(s.name, i);
   });
   const n = o.epochMs.length;
@@ -216,7 +243,11 @@ function checkInput(input: NetworkEstimationInput): void {
   const seen = new Map<string, number>();
   for (let i = 0; i < n; i++) {
     if (!names.has(o.station[i]!)) {
-      throw new ModelDomainError(`observations.${i}.station`, `station ${o.station[i]} is not in stations (known: ${[...names.keys()].slice(0, 10).join(', ')}${names.size > 10 ? ', …' : ''}); add it to stations with its site`, 400);
+      throw new ModelDomainError(
+        `observations.${i}.station`,
+        `station ${o.station[i]} is not in stations (known: ${[...names.keys()].slice(0, 10).join(', ')}${names.size > 10 ? ', …' : ''}); add it to stations with its site`,
+        400,
+      );
     }
     const key = `${o.station[i]}\u0000${o.epochMs[i]}\u0000${o.satellite[i]}`;
     const other = seen.get(key);
@@ -230,14 +261,22 @@ function checkInput(input: NetworkEstimationInput): void {
     seen.set(key, i);
   }
   if (options.referenceStation !== null && !names.has(options.referenceStation)) {
-    throw new ModelDomainError('options.reference_station', `reference station ${options.referenceStation} is not in stations; name one of them or leave it out (the most central station is taken)`, 400);
+    throw new ModelDomainError(
+      'options.reference_station',
+      `reference station ${options.referenceStation} is not in stations; name one of them or leave it out (the most central station is taken)`,
+      400,
+    );
   }
 }
 
 /** The caller's reference station, or the one closest to the centroid of all stations. */
 function referenceStation(input: NetworkEstimationInput, ecef: Ecef[]): number {
   if (input.options.referenceStation !== null) return input.stations.findIndex((s) => s.name === input.options.referenceStation);
-  const c = ecef.reduce((a, p) => ({ xM: a.xM + p.xM / ecef.length, yM: a.yM + p.yM / ecef.length, zM: a.zM + p.zM / ecef.length }), { xM: 0, yM: 0, zM: 0 });
+  const c = ecef.reduce((a, p) => ({ xM: a.xM + p.xM / ecef.length, yM: a.yM + p.yM / ecef.length, zM: a.zM + p.zM / ecef.length }), {
+    xM: 0,
+    yM: 0,
+    zM: 0,
+  });
   let best = 0;
   let bestD = Infinity;
   ecef.forEach((p, i) => {
@@ -256,7 +295,11 @@ function referenceStation(input: NetworkEstimationInput, ecef: Ecef[]): number {
  * spans about ±14° seen from such a satellite; common practice).
  */
 export function networkExtent(ecef: Ecef[]): { extentKm: number; extentNadirDeg: number } {
-  const c = ecef.reduce((a, p) => ({ xM: a.xM + p.xM / ecef.length, yM: a.yM + p.yM / ecef.length, zM: a.zM + p.zM / ecef.length }), { xM: 0, yM: 0, zM: 0 });
+  const c = ecef.reduce((a, p) => ({ xM: a.xM + p.xM / ecef.length, yM: a.yM + p.yM / ecef.length, zM: a.zM + p.zM / ecef.length }), {
+    xM: 0,
+    yM: 0,
+    zM: 0,
+  });
   const norm = Math.hypot(c.xM, c.yM, c.zM) || 1;
   const r = EARTH_MEAN_RADIUS_M + GNSS_ORBIT_HEIGHT_M;
   const sat = { xM: (c.xM / norm) * r, yM: (c.yM / norm) * r, zM: (c.zM / norm) * r };
@@ -276,7 +319,12 @@ export function networkExtent(ecef: Ecef[]): { extentKm: number; extentNadirDeg:
   return { extentKm: chord / 1000, extentNadirDeg: (angle * 180) / Math.PI };
 }
 
-function solveNamed(net: NetworkDesign, options: NetworkEstimationInput['options'], used: Uint8Array[], reference: number): NetworkSolution {
+function solveNamed(
+  net: NetworkDesign,
+  options: NetworkEstimationInput['options'],
+  used: Uint8Array[],
+  reference: number,
+): NetworkSolution {
   try {
     return solveNetworkOnce(net, options, used, reference);
   } catch (err) {
@@ -286,7 +334,11 @@ function solveNamed(net: NetworkDesign, options: NetworkEstimationInput['options
     const layout = stationLayout(net);
     const j = err.parameter - s * P;
     const [name, node, nodes] =
-      j < layout.zwdCount ? ['zenith wet delay', j, net.zwd] : j < layout.eastOffset ? ['north gradient', j - layout.northOffset, net.gradients!] : ['east gradient', j - layout.eastOffset, net.gradients!];
+      j < layout.zwdCount
+        ? ['zenith wet delay', j, net.zwd]
+        : j < layout.eastOffset
+          ? ['north gradient', j - layout.northOffset, net.gradients!]
+          : ['east gradient', j - layout.eastOffset, net.gradients!];
     throw new ModelDomainError(
       'observations',
       `the system is singular: the ${name} node ${node} of station ${net.stations[s]!.name} at ${new Date(nodeEpochMs(nodes, node)).toISOString()} is not determined by the observations and constraints${net.satelliteClocks ? ' (with satellite clocks estimated, a station needs satellites that other stations see at the same epochs)' : ''}. Add observations or constraints (random walk, a-priori sigma)`,
@@ -317,7 +369,14 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
     degreesOfFreedom = solution.observationsUsed + solution.constraints - unknowns;
     varianceFactor = degreesOfFreedom > 0 ? solution.weightedSquareSum / degreesOfFreedom : null;
     if (options.outlierThreshold === null) break;
-    const candidates = networkCandidates(net, solution, varianceFactor === null ? 1 : Math.sqrt(varianceFactor), options.outlierThreshold, options.outlierRejection, options.zwd.intervalS);
+    const candidates = networkCandidates(
+      net,
+      solution,
+      varianceFactor === null ? 1 : Math.sqrt(varianceFactor),
+      options.outlierThreshold,
+      options.outlierRejection,
+      options.zwd.intervalS,
+    );
     if (candidates.length === 0) break;
     if (total >= options.maxRejections) {
       screeningComplete = false;
@@ -343,13 +402,17 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
   }
   const sigmaScale = options.scaleSigmas && varianceFactor !== null ? Math.sqrt(varianceFactor) : 1;
   if (varianceFactor === null) {
-    warnings.push('no degrees of freedom (one observation per epoch with epoch_bias on, or as many unknowns as observations): the variance factor is not estimable and formal errors are not scaled');
+    warnings.push(
+      'no degrees of freedom (one observation per epoch with epoch_bias on, or as many unknowns as observations): the variance factor is not estimable and formal errors are not scaled',
+    );
   }
   let low = 0;
   net.stations.forEach((st, s) => {
-    for (let i = 0; i < st.design.elevationRad.length; i++) if (solution.included[s]![i] && st.design.elevationRad[i]! < MAPPING_FIT_LOWEST_ELEVATION_RAD) low++;
+    for (let i = 0; i < st.design.elevationRad.length; i++)
+      if (solution.included[s]![i] && st.design.elevationRad[i]! < MAPPING_FIT_LOWEST_ELEVATION_RAD) low++;
   });
-  if (low > 0) warnings.push(`${low} observations below 3° were used: the Niell mapping functions are fitted from 3° up and are extrapolated there`);
+  if (low > 0)
+    warnings.push(`${low} observations below 3° were used: the Niell mapping functions are fitted from 3° up and are extrapolated there`);
   return { net, used, solution, rejected, varianceFactor, degreesOfFreedom, unknowns, sigmaScale, solutions, screeningComplete, warnings };
 }
 
@@ -387,7 +450,8 @@ function networkCandidates(
   const windowMs = nodeRejectionWindowMs(zwdIntervalS);
   const epochOf = net.stations.map((st) => {
     const out = new Int32Array(st.design.residualM.length);
-    for (let k = 0; k + 1 < st.design.epochStart.length; k++) out.fill(st.networkEpoch[k]!, st.design.epochStart[k]!, st.design.epochStart[k + 1]!);
+    for (let k = 0; k + 1 < st.design.epochStart.length; k++)
+      out.fill(st.networkEpoch[k]!, st.design.epochStart[k]!, st.design.epochStart[k + 1]!);
     return out;
   });
   const takenMs = net.stations.map(() => [] as number[]);
@@ -521,7 +585,7 @@ function singleStationCounts(net: NetworkDesign): { observations: number; pairs:
     const a = net.entryStart[k]!;
     const b = net.entryStart[k + 1]!;
     const stationsHere = new Set<number>();
-    for (let e = a; e < b; ) {
+    for (let e = a; e < b;) {
       let f = e;
       while (f < b && net.entrySatellite[f] === net.entrySatellite[e]) f++;
       if (f - e === 1) {

@@ -78,7 +78,12 @@ const stepWeight = (f: Family, j: number) => randomWalkStepWeight(f.settings, f.
  * @param reference station index the relative variances refer to
  * @throws SingularParameterError (from the frontal solver) naming an undetermined parameter
  */
-export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptions, used: readonly Uint8Array[], reference: number): NetworkSolution {
+export function solveNetworkOnce(
+  net: NetworkDesign,
+  options: ZwdEstimationOptions,
+  used: readonly Uint8Array[],
+  reference: number,
+): NetworkSolution {
   const S = net.stations.length;
   const layout = stationLayout(net);
   const P = layout.parameters;
@@ -90,8 +95,20 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
     const o = s * P;
     families.push({ offset: o, count: layout.zwdCount, settings: options.zwd, current: -1, nodeMs: net.zwd.nodeMs });
     if (options.gradients) {
-      families.push({ offset: o + layout.northOffset, count: layout.gradientCount, settings: options.gradients, current: -1, nodeMs: net.gradients!.nodeMs });
-      families.push({ offset: o + layout.eastOffset, count: layout.gradientCount, settings: options.gradients, current: -1, nodeMs: net.gradients!.nodeMs });
+      families.push({
+        offset: o + layout.northOffset,
+        count: layout.gradientCount,
+        settings: options.gradients,
+        current: -1,
+        nodeMs: net.gradients!.nodeMs,
+      });
+      families.push({
+        offset: o + layout.eastOffset,
+        count: layout.gradientCount,
+        settings: options.gradients,
+        current: -1,
+        nodeMs: net.gradients!.nodeMs,
+      });
     }
   }
   const advance = (f: Family, interval: number) => {
@@ -252,9 +269,10 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
       }
     },
   });
-  for (let s = 0; s < S; s++) nodeCovarianceWithReference[s]!.forEach((v, j) => {
-    if (Number.isNaN(v) && s === reference) nodeCovarianceWithReference[s]![j] = frontal.inverseDiagonal[refOffset + j]!;
-  });
+  for (let s = 0; s < S; s++)
+    nodeCovarianceWithReference[s]!.forEach((v, j) => {
+      if (Number.isNaN(v) && s === reference) nodeCovarianceWithReference[s]![j] = frontal.inverseDiagonal[refOffset + j]!;
+    });
 
   function wetCoefficients(k: number, s: number, out: { p0: number; p1: number; w0: number; w1: number }) {
     const j = net.zwdInterval[k]!;
@@ -356,7 +374,6 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
       }
     }
     const Sinv = sys.sInv;
-    const eL = sys.entryLocal;
     const eW = sys.entryWeight;
     const eM = sys.entryMapping;
     const eC = sys.entryCentred;
@@ -420,7 +437,8 @@ export function solveNetworkOnce(net: NetworkDesign, options: ZwdEstimationOptio
         // u₂ = E_a c − β_k + γ_a
         let quad = 0;
         const cx = rc ? eC : eM;
-        for (let f = 0; f < d; f++) for (let g = 0; g < d; g++) quad += cx[3 * xe + f]! * q[(d * a + f) * dz + d * a + g]! * cx[3 * xe + g]!;
+        for (let f = 0; f < d; f++)
+          for (let g = 0; g < d; g++) quad += cx[3 * xe + f]! * q[(d * a + f) * dz + d * a + g]! * cx[3 * xe + g]!;
         let clockTerm = rc ? 1 / Da : 0;
         if (K > 0) {
           quad += psi[kk * K + kk]!;

@@ -49,7 +49,10 @@ export interface NetworkEstimationInput {
 }
 
 export interface NetworkEpochEstimate extends EpochEstimate {
-  /** σ of δw(t) − δw_ref(t), the ZWD relative to the reference station [m]; 0 for the reference; NaN when the reference has no value then. */
+  /**
+   * σ of δw(t) − δw_ref(t), the ZWD relative to the reference station [m]; 0 for the reference; NaN
+   * when the reference has no value then.
+   */
   relativeSigmaM: number;
 }
 

@@ -94,15 +94,25 @@ async function auth(app: FastifyInstance, options: AuthPluginOptions): Promise<v
     const header = request.headers.authorization;
     const what = isWrite ? 'writing to the station archive' : 'reading the station archive (TROPO_READ_KEYS_REQUIRED=true)';
     if (!header) {
-      throw new HttpProblem(401, `${what} needs an Authorization: Bearer <key> header`, [{ field: 'header.authorization', message: 'missing' }], {
-        'www-authenticate': 'Bearer realm="tropodelay"',
-      });
+      throw new HttpProblem(
+        401,
+        `${what} needs an Authorization: Bearer <key> header`,
+        [{ field: 'header.authorization', message: 'missing' }],
+        {
+          'www-authenticate': 'Bearer realm="tropodelay"',
+        },
+      );
     }
     const match = /^Bearer\s+(\S+)\s*$/i.exec(header);
     if (!match) {
-      throw new HttpProblem(401, 'the Authorization header must be "Bearer <key>"', [{ field: 'header.authorization', message: 'not a bearer key' }], {
-        'www-authenticate': 'Bearer realm="tropodelay", error="invalid_request"',
-      });
+      throw new HttpProblem(
+        401,
+        'the Authorization header must be "Bearer <key>"',
+        [{ field: 'header.authorization', message: 'not a bearer key' }],
+        {
+          'www-authenticate': 'Bearer realm="tropodelay", error="invalid_request"',
+        },
+      );
     }
     if (!isAccepted(match[1]!)) {
       throw new HttpProblem(403, `the bearer key is not one of the keys allowed for ${isWrite ? 'writing' : 'reading'}`, [

@@ -34,7 +34,9 @@ async function edge(app: FastifyInstance, { config }: EdgeOptions): Promise<void
     // The interactive docs at /docs load their own scripts and styles, which a strict CSP would block.
     await app.register(helmet, { contentSecurityPolicy: false });
   }
-  const origins = config.CORS_ORIGINS.split(',').map((s) => s.trim()).filter(Boolean);
+  const origins = config.CORS_ORIGINS.split(',')
+    .map((s) => s.trim())
+    .filter(Boolean);
   if (origins.length > 0) {
     await app.register(cors, {
       origin: origins.includes('*') ? true : origins,

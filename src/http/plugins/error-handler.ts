@@ -96,7 +96,12 @@ async function errorHandler(app: FastifyInstance): Promise<void> {
       reply.header('retry-after', String(unavailable.retryAfterS));
       return sendProblem(
         reply,
-        makeProblem(503, `${unavailable.message}; retry after ${unavailable.retryAfterS} s (request id in the x-request-id header)`, undefined, request.url),
+        makeProblem(
+          503,
+          `${unavailable.message}; retry after ${unavailable.retryAfterS} s (request id in the x-request-id header)`,
+          undefined,
+          request.url,
+        ),
       );
     }
     request.log.error({ err: error, route: request.routeOptions.url }, 'request failed');

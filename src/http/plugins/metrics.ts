@@ -58,7 +58,11 @@ async function metrics(app: FastifyInstance): Promise<void> {
       buckets: [10, 100, 1000, 10_000, 100_000, 1_000_000],
       registers: [registry],
     }),
-    workerQueue: new Gauge({ name: 'tropodelay_worker_queue_length', help: 'Computations waiting for a worker thread', registers: [registry] }),
+    workerQueue: new Gauge({
+      name: 'tropodelay_worker_queue_length',
+      help: 'Computations waiting for a worker thread',
+      registers: [registry],
+    }),
   };
   // Database connections, read at scrape time from the repository (decorated later by the storage plugin).
   new Gauge({
@@ -67,7 +71,8 @@ async function metrics(app: FastifyInstance): Promise<void> {
     labelNames: ['state'],
     registers: [registry],
     collect() {
-      const repository = (app as FastifyInstance & { repository?: { connectionStats(): { total: number; idle: number; waiting: number } } }).repository;
+      const repository = (app as FastifyInstance & { repository?: { connectionStats(): { total: number; idle: number; waiting: number } } })
+        .repository;
       if (!repository) return;
       const stats = repository.connectionStats();
       this.set({ state: 'total' }, stats.total);

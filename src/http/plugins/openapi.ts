@@ -30,16 +30,22 @@ async function openapi(app: FastifyInstance): Promise<void> {
           'Tropospheric delay modelling: a-priori zenith and slant delays, mapping functions, zenith wet delay estimation and precipitable water. Errors are RFC 9457 problem details (application/problem+json) that name the offending field and its allowed range. Not certified for safety-of-life use.',
       },
       components: {
-        securitySchemes: { bearerKey: { type: 'http', scheme: 'bearer', description: 'A key of TROPO_API_KEYS (or of the generated key file)' } },
+        securitySchemes: {
+          bearerKey: { type: 'http', scheme: 'bearer', description: 'A key of TROPO_API_KEYS (or of the generated key file)' },
+        },
       },
       tags: [
         { name: 'a-priori delays', description: 'Zenith delays, mapping factors and slant delays from models' },
         { name: 'water vapour', description: 'Precipitable water vapour' },
         { name: 'estimation', description: 'Zenith wet delay and gradients estimated from observation residuals' },
-        { name: 'atmospheric profiles', description: 'Delays, precipitable water and mapping factors integrated and ray-traced through a vertical profile' },
+        {
+          name: 'atmospheric profiles',
+          description: 'Delays, precipitable water and mapping factors integrated and ray-traced through a vertical profile',
+        },
         {
           name: 'station archive',
-          description: 'Stations with their stored met and delay series, and precipitable water retrieved from them. Writes need `Authorization: Bearer <key>`',
+          description:
+            'Stations with their stored met and delay series, and precipitable water retrieved from them. Writes need `Authorization: Bearer <key>`',
         },
         { name: 'operations', description: 'Health and service documents' },
       ],

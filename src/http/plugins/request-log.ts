@@ -16,14 +16,14 @@ async function requestLog(app: FastifyInstance): Promise<void> {
   app.addHook('onResponse', (request, reply, done) => {
     if (isInfoEnabled(request.log)) {
       request.log.info(
-      {
-        method: request.method,
-        route: request.routeOptions.url ?? 'unmatched',
-        url: request.url.split('?')[0],
-        status: reply.statusCode,
-        durationMs: Math.round(reply.elapsedTime * 10) / 10,
-      },
-      'request completed',
+        {
+          method: request.method,
+          route: request.routeOptions.url ?? 'unmatched',
+          url: request.url.split('?')[0],
+          status: reply.statusCode,
+          durationMs: Math.round(reply.elapsedTime * 10) / 10,
+        },
+        'request completed',
       );
     }
     done();

@@ -36,7 +36,10 @@ export function dropDuplicateEpochs<T extends { epochMs: number }>(
   for (const { where, row } of items) {
     const first = seen.get(row.epochMs);
     if (first !== undefined) {
-      rejected.push({ ...where, reason: `epoch ${new Date(row.epochMs).toISOString()} appears twice in this upload (first at ${first}); the first is kept` });
+      rejected.push({
+        ...where,
+        reason: `epoch ${new Date(row.epochMs).toISOString()} appears twice in this upload (first at ${first}); the first is kept`,
+      });
       continue;
     }
     seen.set(row.epochMs, where.index !== undefined ? `index ${where.index}` : `line ${where.line}`);
@@ -79,7 +82,10 @@ const toRow = (epochMs: number, source: string, r: z.infer<typeof metRecordSchem
 });
 
 /** More records than an upload holds: a 413 naming the limit (the reader stopped at the first one past it). */
-const tooManyRecords = (err: RecordLimitError) => new HttpProblem(413, err.message, [{ field: 'body', message: `at most ${err.limit} records per upload; record ${err.limit + 1} is at line ${err.line}` }]);
+const tooManyRecords = (err: RecordLimitError) =>
+  new HttpProblem(413, err.message, [
+    { field: 'body', message: `at most ${err.limit} records per upload; record ${err.limit + 1} is at line ${err.line}` },
+  ]);
 
 export function readMetUpload(body: unknown, contentType: string, source: string): MetUpload {
   const rejected: Rejected[] = [];
@@ -99,7 +105,8 @@ export function readMetUpload(body: unknown, contentType: string, source: string
     try {
       table = parseMetCsv(body);
     } catch (err) {
-      if (err instanceof CsvFormatError) throw new HttpProblem(400, `the body is not a met CSV table: ${err.message}`, [{ field: 'body', message: err.message }]);
+      if (err instanceof CsvFormatError)
+        throw new HttpProblem(400, `the body is not a met CSV table: ${err.message}`, [{ field: 'body', message: err.message }]);
       if (err instanceof RecordLimitError) throw tooManyRecords(err);
       throw err;
     }
@@ -125,7 +132,8 @@ export function readMetUpload(body: unknown, contentType: string, source: string
   try {
     file = parseRinexMet(body);
   } catch (err) {
-    if (err instanceof RinexFormatError) throw new HttpProblem(400, err.message, [{ field: `body line ${err.line}`, message: err.message }]);
+    if (err instanceof RinexFormatError)
+      throw new HttpProblem(400, err.message, [{ field: `body line ${err.line}`, message: err.message }]);
     if (err instanceof RecordLimitError) throw tooManyRecords(err);
     throw err;
   }
@@ -152,6 +160,11 @@ export function readMetUpload(body: unknown, contentType: string, source: string
     rows: dropDuplicateEpochs(items, rejected),
     rejected,
     warnings,
-    rinex: { version: file.version, marker_name: file.markerName, observation_types: file.observationTypes, ignored_values: file.ignoredValues },
+    rinex: {
+      version: file.version,
+      marker_name: file.markerName,
+      observation_types: file.observationTypes,
+      ignored_values: file.ignoredValues,
+    },
   };
 }

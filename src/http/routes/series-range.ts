@@ -30,9 +30,11 @@ export async function resolveSeriesRange(
       ]);
     }
     if (toMs - fromMs > maxMs) {
-      throw new HttpProblem(400, `the range from..to spans ${((toMs - fromMs) / DAY_MS).toFixed(2)} days; one request reads at most ${maxRangeDays} days`, [
-        { field: 'query.to', message: `must be at most ${maxRangeDays} days after query.from` },
-      ]);
+      throw new HttpProblem(
+        400,
+        `the range from..to spans ${((toMs - fromMs) / DAY_MS).toFixed(2)} days; one request reads at most ${maxRangeDays} days`,
+        [{ field: 'query.to', message: `must be at most ${maxRangeDays} days after query.from` }],
+      );
     }
     return { fromMs, toMs };
   }

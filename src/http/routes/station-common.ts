@@ -46,7 +46,13 @@ export function stationJson(s: Station) {
 export { isoEpoch } from '../../formats/iso-epoch.js';
 
 /** A CSV reply: one header row with the field names, then one line per row (`line` joins the cells with csvCell). */
-export function sendCsv<T>(reply: FastifyReply, columns: readonly string[], rows: readonly T[], line: (row: T) => string, headers: Record<string, string> = {}): FastifyReply {
+export function sendCsv<T>(
+  reply: FastifyReply,
+  columns: readonly string[],
+  rows: readonly T[],
+  line: (row: T) => string,
+  headers: Record<string, string> = {},
+): FastifyReply {
   const lines = new Array<string>(rows.length + 2);
   lines[0] = columns.join(',');
   for (let i = 0; i < rows.length; i++) lines[i + 1] = line(rows[i]!);

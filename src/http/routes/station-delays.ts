@@ -4,7 +4,15 @@ import type { DelayRow } from '../../storage/repository.js';
 import { summariseModelSets } from '../../services/homogeneity.js';
 import { HttpProblem } from '../problem.js';
 import { problemSchema } from '../schemas/common.js';
-import { DELAY_CSV_COLUMNS, delayDepositEnvelope, delayDepositJsonBody, delayDepositResponse, delayReadQuery, delayReadResponse, delayRecordSchema } from '../schemas/delays.js';
+import {
+  DELAY_CSV_COLUMNS,
+  delayDepositEnvelope,
+  delayDepositJsonBody,
+  delayDepositResponse,
+  delayReadQuery,
+  delayReadResponse,
+  delayRecordSchema,
+} from '../schemas/delays.js';
 import { stationParams } from '../schemas/stations.js';
 import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
 import { envelopeValidator, isoEpoch, recordLine, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
@@ -28,7 +36,15 @@ const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (ap
         security: [{ bearerKey: [] }],
         params: stationParams,
         body: delayDepositJsonBody,
-        response: { 200: delayDepositResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 404: problemSchema, 413: problemSchema, 415: problemSchema },
+        response: {
+          200: delayDepositResponse,
+          400: problemSchema,
+          401: problemSchema,
+          403: problemSchema,
+          404: problemSchema,
+          413: problemSchema,
+          415: problemSchema,
+        },
       },
     },
     async (request) => {
@@ -39,7 +55,11 @@ const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (ap
         const type = request.headers['content-type'] ?? '(none)';
         throw new HttpProblem(415, `content type ${type} is not accepted here; send the delay series as application/json`);
       }
-      const { records, source, models } = body as { records: unknown[]; source: string; models?: Record<string, string | number | boolean | null> };
+      const { records, source, models } = body as {
+        records: unknown[];
+        source: string;
+        models?: Record<string, string | number | boolean | null>;
+      };
       const set = provenance({ ...(models ?? {}), [DEPOSIT_SOURCE_KEY]: source });
       const rejected: Rejected[] = [];
       const items: { where: { index: number }; row: DelayRow }[] = [];

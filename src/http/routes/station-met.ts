@@ -3,7 +3,16 @@ import { BATCH_BODY_LIMIT_BYTES, OFFLOAD_BODY_BYTES } from '../../limits.js';
 import { HttpProblem } from '../problem.js';
 import { metRowsOf, readMetUploadTask } from '../tasks/met-upload.js';
 import { problemSchema } from '../schemas/common.js';
-import { DEFAULT_MET_SOURCE, MET_CSV_OUTPUT_COLUMNS, ingestQuery, metIngestEnvelope, metIngestJsonBody, metIngestResponse, metReadQuery, metReadResponse } from '../schemas/met.js';
+import {
+  DEFAULT_MET_SOURCE,
+  MET_CSV_OUTPUT_COLUMNS,
+  ingestQuery,
+  metIngestEnvelope,
+  metIngestJsonBody,
+  metIngestResponse,
+  metReadQuery,
+  metReadResponse,
+} from '../schemas/met.js';
 import { stationParams } from '../schemas/stations.js';
 import { envelopeValidator, isoEpoch, recordLine, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
@@ -61,7 +70,8 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       const stationId = request.params.station_id;
       await requireStation(app.repository, stationId);
       const body = request.body as unknown;
-      const source = (typeof body === 'string' ? undefined : (body as { source?: string }).source) ?? request.query.source ?? DEFAULT_MET_SOURCE;
+      const source =
+        (typeof body === 'string' ? undefined : (body as { source?: string }).source) ?? request.query.source ?? DEFAULT_MET_SOURCE;
       const upload = await readUpload(body, request.headers['content-type'] ?? 'application/json', source);
       if (upload.rows.length === 0) throw nothingUsable(upload.rejected);
       const counts = await app.repository.writeMet(stationId, upload.rows);

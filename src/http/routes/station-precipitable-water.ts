@@ -103,14 +103,20 @@ const pwvCsvLine = (r: StationPwvRecord): string =>
  * The met gap limit [s]: met_max_gap_s (the name the estimation uses), or its deprecated alias
  * max_met_gap_s with a warning; both with different values is a 400.
  */
-function metGapSetting(q: { met_max_gap_s?: number | undefined; max_met_gap_s?: number | undefined }): { seconds: number; warnings: string[] } {
+function metGapSetting(q: { met_max_gap_s?: number | undefined; max_met_gap_s?: number | undefined }): {
+  seconds: number;
+  warnings: string[];
+} {
   if (q.max_met_gap_s === undefined) return { seconds: q.met_max_gap_s ?? DEFAULT_MAX_MET_GAP_MS / 1000, warnings: [] };
   if (q.met_max_gap_s !== undefined && q.met_max_gap_s !== q.max_met_gap_s) {
     throw new HttpProblem(400, 'query.max_met_gap_s: differs from query.met_max_gap_s; send only met_max_gap_s', [
       { field: 'query.max_met_gap_s', message: 'deprecated alias of met_max_gap_s; send only met_max_gap_s' },
     ]);
   }
-  return { seconds: q.max_met_gap_s, warnings: ['query.max_met_gap_s is deprecated: use met_max_gap_s (the same setting under the name the ZWD estimation uses)'] };
+  return {
+    seconds: q.max_met_gap_s,
+    warnings: ['query.max_met_gap_s is deprecated: use met_max_gap_s (the same setting under the name the ZWD estimation uses)'],
+  };
 }
 
 const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
@@ -139,7 +145,11 @@ const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       const maxMetGapMs = gap.seconds * 1000;
       const delays = await app.repository.readZenithDelays(stationId, range, q.source);
       const met = delays.length
-        ? await app.repository.readSurfaceMet(stationId, { fromMs: delays[0]!.epochMs - maxMetGapMs, toMs: delays[delays.length - 1]!.epochMs + maxMetGapMs }, q.met_source)
+        ? await app.repository.readSurfaceMet(
+            stationId,
+            { fromMs: delays[0]!.epochMs - maxMetGapMs, toMs: delays[delays.length - 1]!.epochMs + maxMetGapMs },
+            q.met_source,
+          )
         : [];
       const result = stationPrecipitableWater(station, delays, met, { maxMetGapMs, maxZtdSigmaM: q.max_ztd_sigma_m });
       const fingerprints = [...new Set(delays.map((r) => r.modelFingerprint))];

@@ -148,7 +148,11 @@ async function storeDelays(
   repository: Repository,
   stationId: string,
   source: string,
-  output: { delays?: DelayColumns | undefined; modelFingerprint?: string | undefined; models?: Record<string, string | number | boolean | null> | undefined },
+  output: {
+    delays?: DelayColumns | undefined;
+    modelFingerprint?: string | undefined;
+    models?: Record<string, string | number | boolean | null> | undefined;
+  },
 ): Promise<WriteCounts> {
   const rows = delayRows(output.delays!, source, output.modelFingerprint!);
   if (rows.length === 0) return { inserted: 0, updated: 0, unchanged: 0 };

@@ -17,7 +17,15 @@ const stationsRoute: FastifyPluginAsyncZod = async (app) => {
         security: [{ bearerKey: [] }],
         params: stationParams,
         body: stationBody,
-        response: { 200: stationResponse, 201: stationResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 413: problemSchema, 415: problemSchema },
+        response: {
+          200: stationResponse,
+          201: stationResponse,
+          400: problemSchema,
+          401: problemSchema,
+          403: problemSchema,
+          413: problemSchema,
+          415: problemSchema,
+        },
       },
     },
     async (request, reply) => {
@@ -37,7 +45,11 @@ const stationsRoute: FastifyPluginAsyncZod = async (app) => {
   app.get(
     '/v1/stations',
     {
-      schema: { summary: 'List the stations', tags: ['station archive'], response: { 200: stationListResponse, 401: problemSchema, 403: problemSchema } },
+      schema: {
+        summary: 'List the stations',
+        tags: ['station archive'],
+        response: { 200: stationListResponse, 401: problemSchema, 403: problemSchema },
+      },
     },
     async () => ({ stations: (await app.repository.listStations()).map(stationJson) }),
   );

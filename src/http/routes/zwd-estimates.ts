@@ -6,7 +6,13 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, transferOf } from '../raw-body.js';
 import { problemSchema } from '../schemas/common.js';
-import { MAX_OBSERVATIONS, ZWD_BODY_LIMIT_BYTES, zwdCsvQuerySchema, zwdEstimatesRequest, zwdEstimatesResponse } from '../schemas/zwd-estimates.js';
+import {
+  MAX_OBSERVATIONS,
+  ZWD_BODY_LIMIT_BYTES,
+  zwdCsvQuerySchema,
+  zwdEstimatesRequest,
+  zwdEstimatesResponse,
+} from '../schemas/zwd-estimates.js';
 
 const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
   keepJsonBodiesAsBytes(app);
@@ -25,13 +31,24 @@ const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
         tags: ['estimation'],
         querystring: zwdCsvQuerySchema,
         body: zwdEstimatesRequest,
-        response: { 200: zwdEstimatesResponse, 400: problemSchema, 413: problemSchema, 415: problemSchema, 422: problemSchema, 503: problemSchema },
+        response: {
+          200: zwdEstimatesResponse,
+          400: problemSchema,
+          413: problemSchema,
+          415: problemSchema,
+          422: problemSchema,
+          503: problemSchema,
+        },
       },
       validatorCompiler: bodyInWorkerValidator,
     },
     async (request, reply) => {
       const raw = rawBodyOf(request);
-      const output = await app.compute.run('zwd-estimate-request', { ...raw, query: request.query as Record<string, unknown> }, transferOf(raw));
+      const output = await app.compute.run(
+        'zwd-estimate-request',
+        { ...raw, query: request.query as Record<string, unknown> },
+        transferOf(raw),
+      );
       // Already serialised in the worker; the bytes are sent as they are.
       return reply.type('application/json').send(asBuffer(output.json) as never);
     },

@@ -70,17 +70,15 @@ export const SITE_RANGES = {
   height: [-500, 9000],
 } as const;
 
-export const siteSchema =
-  strictObject({
-    latitude_deg: bounded(-90, 90, 'deg', 'Geodetic latitude'),
-    longitude_deg: bounded(-180, 360, 'deg', 'Longitude, east positive'),
-    height_m: bounded(-500, 9000, 'm', 'Height above the WGS84 ellipsoid'),
-  })
-  .describe('Site: geodetic coordinates on WGS84');
+export const siteSchema = strictObject({
+  latitude_deg: bounded(-90, 90, 'deg', 'Geodetic latitude'),
+  longitude_deg: bounded(-180, 360, 'deg', 'Longitude, east positive'),
+  height_m: bounded(-500, 9000, 'm', 'Height above the WGS84 ellipsoid'),
+}).describe('Site: geodetic coordinates on WGS84');
 
 const ISO_MESSAGE = 'must be an ISO 8601 date-time in UTC, e.g. 2026-03-14T12:00:00Z';
-export const epochSchema = z
-  .iso.datetime({ offset: true, error: ISO_MESSAGE })
+export const epochSchema = z.iso
+  .datetime({ offset: true, error: ISO_MESSAGE })
   .describe('Epoch, ISO 8601 date-time (UTC, e.g. 2026-03-14T12:00:00Z; an offset is converted to UTC)');
 
 export const pressureHpa = (description = 'Surface pressure') => bounded(300, 1100, 'hPa', description);
@@ -93,7 +91,13 @@ export const ztdM = (description = 'Zenith total delay') => bounded(STORED_ZTD_R
 export const zhdM = (description = 'Zenith hydrostatic delay') => bounded(1, 3, 'm', description);
 export const gradientM = (description: string) => bounded(STORED_GRADIENT_RANGE_M[0], STORED_GRADIENT_RANGE_M[1], 'm', description);
 export const elevationDeg = () =>
-  bounded(0, 90, 'deg', 'Vacuum (geometric) elevation angle; below 3° the answer carries a warning; mapping functions refuse elevations below 1° (a profile is still traced there)', { exclusiveMin: true });
+  bounded(
+    0,
+    90,
+    'deg',
+    'Vacuum (geometric) elevation angle; below 3° the answer carries a warning; mapping functions refuse elevations below 1° (a profile is still traced there)',
+    { exclusiveMin: true },
+  );
 export const azimuthDeg = () => bounded(0, 360, 'deg', 'Azimuth from north through east');
 
 function keyEnum<K extends string>(keys: readonly [K, ...K[]], what: string) {
@@ -104,29 +108,26 @@ export const mappingModelSchema = keyEnum(MAPPING_MODEL_KEYS, 'Mapping function'
 export const wetModelSchema = keyEnum(WET_MODEL_KEYS, 'Zenith wet delay model');
 export const gradientModelSchema = keyEnum(GRADIENT_MODEL_KEYS, 'Gradient mapping function');
 
-export const vmf1CoefficientsSchema =
-  strictObject({
-    ah: bounded(0.0005, 0.002, '', 'VMF1 hydrostatic a coefficient'),
-    aw: bounded(0, 0.001, '', 'VMF1 wet a coefficient'),
-    height_reference: z
-      .enum(COEFFICIENTS_HEIGHT_REFERENCES, { error: `must be one of: ${COEFFICIENTS_HEIGHT_REFERENCES.join(', ')}` })
-      .optional()
-      .describe(
-        `What ah refers to: "sea-level" (grid coefficients: Niell's height correction is added from the site's height above sea level) or "site" (coefficients computed at the site: no height correction). Absent: "${DEFAULT_COEFFICIENTS_HEIGHT_REFERENCE}", with a warning`,
-      ),
-  })
-  .describe('Coefficients for model "vmf1", from the VMF1 grids or site files for the epoch');
+export const vmf1CoefficientsSchema = strictObject({
+  ah: bounded(0.0005, 0.002, '', 'VMF1 hydrostatic a coefficient'),
+  aw: bounded(0, 0.001, '', 'VMF1 wet a coefficient'),
+  height_reference: z
+    .enum(COEFFICIENTS_HEIGHT_REFERENCES, { error: `must be one of: ${COEFFICIENTS_HEIGHT_REFERENCES.join(', ')}` })
+    .optional()
+    .describe(
+      `What ah refers to: "sea-level" (grid coefficients: Niell's height correction is added from the site's height above sea level) or "site" (coefficients computed at the site: no height correction). Absent: "${DEFAULT_COEFFICIENTS_HEIGHT_REFERENCE}", with a warning`,
+    ),
+}).describe('Coefficients for model "vmf1", from the VMF1 grids or site files for the epoch');
 
 /** Met at a site, partial allowed; at most one humidity quantity. */
-export const metSchema =
-  strictObject({
-    pressure_hpa: pressureHpa().optional(),
-    temperature_c: temperatureC().optional(),
-    relative_humidity_pct: relativeHumidityPct().optional(),
-    dewpoint_c: dewpointC().optional(),
-    vapour_pressure_hpa: vapourPressureHpa().optional(),
-    height_m: bounded(-500, 9000, 'm', 'Height of the met sensor (same datum as the site); absent = at the site height').optional(),
-  })
+export const metSchema = strictObject({
+  pressure_hpa: pressureHpa().optional(),
+  temperature_c: temperatureC().optional(),
+  relative_humidity_pct: relativeHumidityPct().optional(),
+  dewpoint_c: dewpointC().optional(),
+  vapour_pressure_hpa: vapourPressureHpa().optional(),
+  height_m: bounded(-500, 9000, 'm', 'Height of the met sensor (same datum as the site); absent = at the site height').optional(),
+})
   .superRefine((met, ctx) => {
     const given = (['relative_humidity_pct', 'dewpoint_c', 'vapour_pressure_hpa'] as const).filter((k) => met[k] !== undefined);
     if (given.length > 1) {
@@ -147,7 +148,9 @@ export const modelsSchema = z
 
 export const geoidUndulationField = z
   .number()
-  .describe('EGM96 geoid undulation N at the site [m]: heights above sea level (Niell height correction, standard atmosphere) are height_m − N');
+  .describe(
+    'EGM96 geoid undulation N at the site [m]: heights above sea level (Niell height correction, standard atmosphere) are height_m − N',
+  );
 
 export const provenanceFields = {
   models: modelsSchema,

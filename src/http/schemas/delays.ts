@@ -9,19 +9,17 @@ import { MAX_BATCH } from './mapping-factors.js';
 import { ingestResponseFields } from './met.js';
 import { seriesQueryFields, seriesRangeResponseFields, sourceSchema } from './stations.js';
 
-export const delayRecordSchema = strictObject(
-  {
-    epoch: epochSchema,
-    ztd_m: ztdM(),
-    ztd_sigma_m: positive('m', 'Standard deviation of ztd_m', 1).nullish(),
-    zwd_m: zwdM('Zenith wet delay, if the producer separated it').nullish(),
-    zwd_sigma_m: positive('m', 'Standard deviation of zwd_m', 1).nullish(),
-    north_gradient_m: gradientM('North gradient of the delay').nullish(),
-    east_gradient_m: gradientM('East gradient of the delay').nullish(),
-    north_gradient_sigma_m: positive('m', 'Standard deviation of north_gradient_m', 1).nullish(),
-    east_gradient_sigma_m: positive('m', 'Standard deviation of east_gradient_m', 1).nullish(),
-  },
-);
+export const delayRecordSchema = strictObject({
+  epoch: epochSchema,
+  ztd_m: ztdM(),
+  ztd_sigma_m: positive('m', 'Standard deviation of ztd_m', 1).nullish(),
+  zwd_m: zwdM('Zenith wet delay, if the producer separated it').nullish(),
+  zwd_sigma_m: positive('m', 'Standard deviation of zwd_m', 1).nullish(),
+  north_gradient_m: gradientM('North gradient of the delay').nullish(),
+  east_gradient_m: gradientM('East gradient of the delay').nullish(),
+  north_gradient_sigma_m: positive('m', 'Standard deviation of north_gradient_m', 1).nullish(),
+  east_gradient_sigma_m: positive('m', 'Standard deviation of east_gradient_m', 1).nullish(),
+});
 
 const MAX_MODEL_ENTRIES = 64;
 export const depositModelsSchema = modelsSchema
@@ -34,16 +32,15 @@ export const depositModelsSchema = modelsSchema
   );
 
 export const delayDepositJsonBody = strictObject({
-  records: sizedArray(z
-    .array(delayRecordSchema), MAX_BATCH, 'records')
-    .describe(`1..${MAX_BATCH} delay records; each is checked on its own: bad ones are reported in \`rejected\`, the good ones stored`),
+  records: sizedArray(z.array(delayRecordSchema), MAX_BATCH, 'records').describe(
+    `1..${MAX_BATCH} delay records; each is checked on its own: bad ones are reported in \`rejected\`, the good ones stored`,
+  ),
   source: sourceSchema.describe('Producer of the series (required): part of the key and of the fingerprint'),
   models: depositModelsSchema.optional(),
 });
 
 export const delayDepositEnvelope = strictObject({
-  records: sizedArray(z
-    .array(z.unknown()), MAX_BATCH, 'records'),
+  records: sizedArray(z.array(z.unknown()), MAX_BATCH, 'records'),
   source: sourceSchema,
   models: depositModelsSchema.optional(),
 });

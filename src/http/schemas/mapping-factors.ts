@@ -35,8 +35,7 @@ export const mappingFactorsRequest = strictObject({
     z.array(elevationDeg(), { error: 'must be an array of elevations in (0, 90] deg' }),
     MAX_BATCH,
     'elevations',
-  )
-    .describe(`Vacuum elevations [deg], (0, 90], 1..${MAX_BATCH} of them`),
+  ).describe(`Vacuum elevations [deg], (0, 90], 1..${MAX_BATCH} of them`),
   model: mappingModelSchema.default(DEFAULT_MAPPING_MODEL),
   coefficients: vmf1CoefficientsSchema.optional(),
   gradient_model: gradientModelSchema.default(DEFAULT_GRADIENT_MODEL),

@@ -3,7 +3,16 @@
  */
 
 import { z } from 'zod';
-import { dewpointC, epochSchema, pressureHpa, relativeHumidityPct, temperatureC, vapourPressureHpa, sizedArray, strictObject } from './common.js';
+import {
+  dewpointC,
+  epochSchema,
+  pressureHpa,
+  relativeHumidityPct,
+  temperatureC,
+  vapourPressureHpa,
+  sizedArray,
+  strictObject,
+} from './common.js';
 import { MAX_BATCH } from './mapping-factors.js';
 import { seriesQueryFields, seriesRangeResponseFields, sourceSchema } from './stations.js';
 
@@ -11,42 +20,48 @@ export const DEFAULT_MET_SOURCE = 'default';
 export const HUMIDITY_FIELDS = ['relative_humidity_pct', 'dewpoint_c', 'vapour_pressure_hpa'] as const;
 
 /** One met record; null and absent both mean "not measured". */
-export const metRecordSchema = strictObject(
-    {
-      epoch: epochSchema,
-      pressure_hpa: pressureHpa('Surface pressure measured at the met sensor').nullish(),
-      temperature_c: temperatureC('Air temperature at the met sensor').nullish(),
-      relative_humidity_pct: relativeHumidityPct().nullish(),
-      dewpoint_c: dewpointC().nullish(),
-      vapour_pressure_hpa: vapourPressureHpa().nullish(),
-    },
-    )
-  .superRefine((r, ctx) => {
-    if ((r.pressure_hpa ?? null) === null && (r.temperature_c ?? null) === null) {
-      ctx.addIssue({ code: 'custom', path: ['pressure_hpa'], message: 'a record needs pressure_hpa (300..1100 hPa) or temperature_c (-90..60 °C)' });
-    }
-    const given = HUMIDITY_FIELDS.filter((k) => (r[k] ?? null) !== null);
-    if (given.length > 1) {
-      ctx.addIssue({ code: 'custom', path: [given[1]!], message: `give at most one of ${HUMIDITY_FIELDS.join(', ')} (got ${given.join(' and ')})` });
-    }
-  });
+export const metRecordSchema = strictObject({
+  epoch: epochSchema,
+  pressure_hpa: pressureHpa('Surface pressure measured at the met sensor').nullish(),
+  temperature_c: temperatureC('Air temperature at the met sensor').nullish(),
+  relative_humidity_pct: relativeHumidityPct().nullish(),
+  dewpoint_c: dewpointC().nullish(),
+  vapour_pressure_hpa: vapourPressureHpa().nullish(),
+}).superRefine((r, ctx) => {
+  if ((r.pressure_hpa ?? null) === null && (r.temperature_c ?? null) === null) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['pressure_hpa'],
+      message: 'a record needs pressure_hpa (300..1100 hPa) or temperature_c (-90..60 °C)',
+    });
+  }
+  const given = HUMIDITY_FIELDS.filter((k) => (r[k] ?? null) !== null);
+  if (given.length > 1) {
+    ctx.addIssue({
+      code: 'custom',
+      path: [given[1]!],
+      message: `give at most one of ${HUMIDITY_FIELDS.join(', ')} (got ${given.join(' and ')})`,
+    });
+  }
+});
 
 export const metIngestJsonBody = strictObject({
-  records: sizedArray(z
-    .array(metRecordSchema), MAX_BATCH, 'records')
-    .describe(`1..${MAX_BATCH} met records; each is checked on its own: bad ones are reported in \`rejected\`, the good ones stored`),
+  records: sizedArray(z.array(metRecordSchema), MAX_BATCH, 'records').describe(
+    `1..${MAX_BATCH} met records; each is checked on its own: bad ones are reported in \`rejected\`, the good ones stored`,
+  ),
   source: sourceSchema.optional().describe(`Producer of the records (default "${DEFAULT_MET_SOURCE}")`),
 });
 
 /** The envelope actually enforced before per-record checks (records are checked one by one). */
 export const metIngestEnvelope = strictObject({
-  records: sizedArray(z
-    .array(z.unknown()), MAX_BATCH, 'records'),
+  records: sizedArray(z.array(z.unknown()), MAX_BATCH, 'records'),
   source: sourceSchema.optional(),
 });
 
 export const ingestQuery = strictObject({
-  source: sourceSchema.optional().describe(`Producer of the records of a CSV or RINEX body (default "${DEFAULT_MET_SOURCE}"); a JSON body names it in \`source\``),
+  source: sourceSchema
+    .optional()
+    .describe(`Producer of the records of a CSV or RINEX body (default "${DEFAULT_MET_SOURCE}"); a JSON body names it in \`source\``),
 });
 
 export const rejectedSchema = z.object({
@@ -76,7 +91,9 @@ export const metIngestResponse = z.object({
       version: z.string(),
       marker_name: z.string().nullable(),
       observation_types: z.array(z.string()),
-      ignored_values: z.record(z.string(), z.number().int()).describe('Values of types other than PR, TD, HR, counted per type (not stored)'),
+      ignored_values: z
+        .record(z.string(), z.number().int())
+        .describe('Values of types other than PR, TD, HR, counted per type (not stored)'),
     })
     .optional()
     .describe('What the RINEX meteorological file held'),
@@ -94,7 +111,15 @@ export const metRecordResponse = z.object({
   vapour_pressure_hpa: z.number().nullable().describe('[hPa]'),
 });
 
-export const MET_CSV_OUTPUT_COLUMNS = ['epoch', 'source', 'pressure_hpa', 'temperature_c', 'relative_humidity_pct', 'dewpoint_c', 'vapour_pressure_hpa'] as const;
+export const MET_CSV_OUTPUT_COLUMNS = [
+  'epoch',
+  'source',
+  'pressure_hpa',
+  'temperature_c',
+  'relative_humidity_pct',
+  'dewpoint_c',
+  'vapour_pressure_hpa',
+] as const;
 
 export const metReadResponse = z.object({
   ...seriesRangeResponseFields,

@@ -113,24 +113,22 @@ const sourceQuery = z
       'A source name: only that source.',
   );
 
-export const networkPwvQuery =
-  strictObject({
-    stations: stationList.optional(),
-    bbox: bbox.optional(),
-    epoch: rangeBoundSchema.optional().describe('One epoch (with interval: the interval that holds it). Not with from/to, since or latest'),
-    from: rangeBoundSchema.optional().describe('Start of the range, inclusive (date-time, or a date for 00:00Z of that day)'),
-    to: rangeBoundSchema
-      .optional()
-      .describe('End of the range, inclusive (date-time, or a date for the whole UTC day); default: from plus the maximum range'),
-    since: rangeBoundSchema.optional().describe('Records after this epoch (exclusive), for regular delivery: pass the last epoch received'),
-    latest: latest.optional(),
-    interval: interval.optional(),
-    source: sourceQuery,
-    met_max_gap_s: stationPwvQuery.shape.met_max_gap_s,
-    max_ztd_sigma_m: stationPwvQuery.shape.max_ztd_sigma_m,
-    format: networkFormat,
-  })
-  .describe('Exactly one of epoch, from (with optional to), since, latest=true');
+export const networkPwvQuery = strictObject({
+  stations: stationList.optional(),
+  bbox: bbox.optional(),
+  epoch: rangeBoundSchema.optional().describe('One epoch (with interval: the interval that holds it). Not with from/to, since or latest'),
+  from: rangeBoundSchema.optional().describe('Start of the range, inclusive (date-time, or a date for 00:00Z of that day)'),
+  to: rangeBoundSchema
+    .optional()
+    .describe('End of the range, inclusive (date-time, or a date for the whole UTC day); default: from plus the maximum range'),
+  since: rangeBoundSchema.optional().describe('Records after this epoch (exclusive), for regular delivery: pass the last epoch received'),
+  latest: latest.optional(),
+  interval: interval.optional(),
+  source: sourceQuery,
+  met_max_gap_s: stationPwvQuery.shape.met_max_gap_s,
+  max_ztd_sigma_m: stationPwvQuery.shape.max_ztd_sigma_m,
+  format: networkFormat,
+}).describe('Exactly one of epoch, from (with optional to), since, latest=true');
 
 const networkStation = z.object({
   station_id: z.string(),

@@ -1,5 +1,17 @@
 import { z } from 'zod';
-import { bounded, epochSchema, positive, pressureHpa, provenanceFields, siteSchema, temperatureC, ztdM, zwdM, sizedArray, strictObject } from './common.js';
+import {
+  bounded,
+  epochSchema,
+  positive,
+  pressureHpa,
+  provenanceFields,
+  siteSchema,
+  temperatureC,
+  ztdM,
+  zwdM,
+  sizedArray,
+  strictObject,
+} from './common.js';
 import { MAX_BATCH } from './mapping-factors.js';
 
 export const pwvRecordRequest = strictObject({
@@ -18,8 +30,7 @@ export const pwvRecordRequest = strictObject({
 
 export const precipitableWaterRequest = strictObject({
   site: siteSchema,
-  records: sizedArray(z
-    .array(pwvRecordRequest), MAX_BATCH, 'records'),
+  records: sizedArray(z.array(pwvRecordRequest), MAX_BATCH, 'records'),
   sigma_budget: z
     .boolean({ error: 'must be true or false' })
     .default(false)
@@ -33,7 +44,9 @@ export const pwvSigmaBudgetSchema = z
     zhd_model_mm: z.number().describe('Saastamoinen ZHD model, ±0.0000005 m/hPa (IERS 2010 eq. 9.11) [mm] (ZTD records only)'),
     temperature_mm: z.number().describe('From temperature_sigma_k through the Bevis Tm [mm]'),
     tm_mm: z.number().describe('From tm_sigma_k or the 4.74 K scatter of the Bevis regression [mm]'),
-    refractivity_mm: z.number().describe("From the uncertainties of k2' and k3 (Bevis et al. 1994) [mm]; systematic, common to all records"),
+    refractivity_mm: z
+      .number()
+      .describe("From the uncertainties of k2' and k3 (Bevis et al. 1994) [mm]; systematic, common to all records"),
     defaulted: z.array(z.string()).describe('Input sigmas that were not given and took their documented default'),
   })
   .describe('Terms of pwv_sigma_mm, each in mm of PWV; pwv_sigma_mm is their root sum of squares');

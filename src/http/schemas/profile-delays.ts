@@ -23,25 +23,23 @@ import {
  */
 export const MAX_PROFILE_ELEVATIONS = 100;
 
-export const profileLevelSchema =
-  strictObject({
-    height_m: bounded(-500, 100_000, 'm', 'Height above the WGS84 ellipsoid').optional(),
-    geopotential_height_m: bounded(
-      -500,
-      100_000,
-      'm',
-      'Geopotential height above mean sea level in geopotential metres (g0 = 9.80665 m/s²); converted to geometric height with WGS84 normal gravity at the site latitude, then geoid_undulation_m is added',
-    ).optional(),
-    pressure_hpa: bounded(0, 1100, 'hPa', 'Pressure', { exclusiveMin: true }),
-    temperature_c: bounded(-130, 60, '°C', 'Air temperature'),
-    relative_humidity_pct: relativeHumidityPct().optional(),
-    dewpoint_c: bounded(-130, 60, '°C', 'Dew-point temperature, at most the temperature').optional(),
-    vapour_pressure_hpa: vapourPressureHpa().optional(),
-    specific_humidity_kg_kg: bounded(0, 0.04, 'kg/kg', 'Specific humidity').optional(),
-  })
-  .describe(
-    'A level of the profile: exactly one of height_m and geopotential_height_m, and exactly one of relative_humidity_pct, dewpoint_c, vapour_pressure_hpa, specific_humidity_kg_kg (levels may differ in which)',
-  );
+export const profileLevelSchema = strictObject({
+  height_m: bounded(-500, 100_000, 'm', 'Height above the WGS84 ellipsoid').optional(),
+  geopotential_height_m: bounded(
+    -500,
+    100_000,
+    'm',
+    'Geopotential height above mean sea level in geopotential metres (g0 = 9.80665 m/s²); converted to geometric height with WGS84 normal gravity at the site latitude, then geoid_undulation_m is added',
+  ).optional(),
+  pressure_hpa: bounded(0, 1100, 'hPa', 'Pressure', { exclusiveMin: true }),
+  temperature_c: bounded(-130, 60, '°C', 'Air temperature'),
+  relative_humidity_pct: relativeHumidityPct().optional(),
+  dewpoint_c: bounded(-130, 60, '°C', 'Dew-point temperature, at most the temperature').optional(),
+  vapour_pressure_hpa: vapourPressureHpa().optional(),
+  specific_humidity_kg_kg: bounded(0, 0.04, 'kg/kg', 'Specific humidity').optional(),
+}).describe(
+  'A level of the profile: exactly one of height_m and geopotential_height_m, and exactly one of relative_humidity_pct, dewpoint_c, vapour_pressure_hpa, specific_humidity_kg_kg (levels may differ in which)',
+);
 
 export const profileDelaysRequest = strictObject({
   site: siteSchema,
@@ -68,9 +66,16 @@ export const profileDelaysRequest = strictObject({
   )
     .optional()
     .describe(`Vacuum (geometric) elevations to trace rays at [deg], (0, 90], 1..${MAX_PROFILE_ELEVATIONS}; absent = no slants`),
-  mapping_model: mappingModelSchema.default(DEFAULT_MAPPING_MODEL).describe('Mapping function set beside the traced factors; default niell'),
+  mapping_model: mappingModelSchema
+    .default(DEFAULT_MAPPING_MODEL)
+    .describe('Mapping function set beside the traced factors; default niell'),
   coefficients: vmf1CoefficientsSchema.optional(),
-  geoid_undulation_m: bounded(-120, 100, 'm', 'Geoid undulation at the site, for geopotential heights; default: EGM96 at the site (the warnings say so)').optional(),
+  geoid_undulation_m: bounded(
+    -120,
+    100,
+    'm',
+    'Geoid undulation at the site, for geopotential heights; default: EGM96 at the site (the warnings say so)',
+  ).optional(),
 });
 
 export const profileSlantSchema = z.object({
@@ -80,10 +85,19 @@ export const profileSlantSchema = z.object({
   hydrostatic_m: z.number().describe('Slant hydrostatic delay including the geometric bending term [m] (= mapping_hydrostatic · zhd_m)'),
   wet_m: z.number().describe('Slant wet delay [m] (= mapping_wet · zwd_m)'),
   total_m: z.number().describe('Slant total delay [m]'),
-  bending_m: z.number().describe('Geometric bending term, ray length minus the projection of station-to-exit onto the outgoing direction [m]; part of hydrostatic_m'),
+  bending_m: z
+    .number()
+    .describe(
+      'Geometric bending term, ray length minus the projection of station-to-exit onto the outgoing direction [m]; part of hydrostatic_m',
+    ),
   mapping_hydrostatic: z.number().describe('Ray-traced hydrostatic mapping factor [-]'),
   mapping_wet: z.number().nullable().describe('Ray-traced wet mapping factor [-]; null for a dry column'),
-  model_mapping_hydrostatic: z.number().nullable().describe('Hydrostatic mapping factor of mapping_model at the vacuum elevation [-]; null below 1°, where mapping functions are not evaluated'),
+  model_mapping_hydrostatic: z
+    .number()
+    .nullable()
+    .describe(
+      'Hydrostatic mapping factor of mapping_model at the vacuum elevation [-]; null below 1°, where mapping functions are not evaluated',
+    ),
   model_mapping_wet: z.number().nullable().describe('Wet mapping factor of mapping_model at the vacuum elevation [-]; null below 1°'),
 });
 
@@ -119,7 +133,9 @@ export const profileDelaysResponse = z.object({
       shells: z.number().int().describe('Spherical shells the column was divided into'),
       earth_radius_m: z.number().describe('Radius of the shells’ centre: Gaussian mean radius of curvature at the site [m]'),
       mean_gravity_m_s2: z.number().describe('Mean gravity of the column, surface pressure / ∫dP/g [m/s²]'),
-      zhd_height_integral_m: z.number().describe('1e-6 ∫N_h dz over the given heights [m]; equals zhd_m when heights and pressures are in hydrostatic balance'),
+      zhd_height_integral_m: z
+        .number()
+        .describe('1e-6 ∫N_h dz over the given heights [m]; equals zhd_m when heights and pressures are in hydrostatic balance'),
     })
     .describe('The column as computed'),
   slants: z.array(profileSlantSchema).optional().describe('One per elevations_deg, in order; absent when no elevations were requested'),

@@ -26,39 +26,38 @@ import { metUsedSchema } from './zenith-delays.js';
 
 const ecef = (axis: string) => bounded(-1e8, 1e8, 'm', `Satellite ${axis} coordinate, ECEF WGS84`);
 
-export const slantDelaysRequest =
-  strictObject({
-    site: siteSchema,
-    epoch: epochSchema,
-    met: metSchema.optional(),
-    wet_model: wetModelSchema.default(DEFAULT_WET_MODEL),
-    model: mappingModelSchema.default(DEFAULT_MAPPING_MODEL),
-    coefficients: vmf1CoefficientsSchema.optional(),
-    gradient_model: gradientModelSchema.default(DEFAULT_GRADIENT_MODEL),
-    zenith:
-      strictObject({
-        zhd_m: zhdM().optional(),
-        zwd_m: zwdM().optional(),
-        north_gradient_m: gradientM('North gradient G_N').optional(),
-        east_gradient_m: gradientM('East gradient G_E').optional(),
-      })
-      .optional()
-      .describe('Zenith values to map; what is missing comes from met or the standard atmosphere (gradients: 0)'),
-    directions: sizedArray(z
-      .array(strictObject({ elevation_deg: elevationDeg(), azimuth_deg: azimuthDeg() })), MAX_BATCH, 'directions')
-      .optional()
-      .describe(`Directions, 1..${MAX_BATCH}; give either directions or satellites`),
-    satellites: sizedArray(z
-      .array(strictObject({ id: z.string().min(1).max(32), x_m: ecef('X'), y_m: ecef('Y'), z_m: ecef('Z') })), MAX_BATCH, 'satellites')
-      .optional()
-      .describe('Satellite positions, ECEF WGS84 [m]; elevation and azimuth are computed from the site'),
+export const slantDelaysRequest = strictObject({
+  site: siteSchema,
+  epoch: epochSchema,
+  met: metSchema.optional(),
+  wet_model: wetModelSchema.default(DEFAULT_WET_MODEL),
+  model: mappingModelSchema.default(DEFAULT_MAPPING_MODEL),
+  coefficients: vmf1CoefficientsSchema.optional(),
+  gradient_model: gradientModelSchema.default(DEFAULT_GRADIENT_MODEL),
+  zenith: strictObject({
+    zhd_m: zhdM().optional(),
+    zwd_m: zwdM().optional(),
+    north_gradient_m: gradientM('North gradient G_N').optional(),
+    east_gradient_m: gradientM('East gradient G_E').optional(),
   })
-  .superRefine((body, ctx) => {
-    const n = Number(body.directions !== undefined) + Number(body.satellites !== undefined);
-    if (n !== 1) {
-      ctx.addIssue({ code: 'custom', path: ['directions'], message: 'give exactly one of directions or satellites' });
-    }
-  });
+    .optional()
+    .describe('Zenith values to map; what is missing comes from met or the standard atmosphere (gradients: 0)'),
+  directions: sizedArray(z.array(strictObject({ elevation_deg: elevationDeg(), azimuth_deg: azimuthDeg() })), MAX_BATCH, 'directions')
+    .optional()
+    .describe(`Directions, 1..${MAX_BATCH}; give either directions or satellites`),
+  satellites: sizedArray(
+    z.array(strictObject({ id: z.string().min(1).max(32), x_m: ecef('X'), y_m: ecef('Y'), z_m: ecef('Z') })),
+    MAX_BATCH,
+    'satellites',
+  )
+    .optional()
+    .describe('Satellite positions, ECEF WGS84 [m]; elevation and azimuth are computed from the site'),
+}).superRefine((body, ctx) => {
+  const n = Number(body.directions !== undefined) + Number(body.satellites !== undefined);
+  if (n !== 1) {
+    ctx.addIssue({ code: 'custom', path: ['directions'], message: 'give exactly one of directions or satellites' });
+  }
+});
 
 export const slantSchema = z.object({
   elevation_deg: z.number().describe('Vacuum elevation [deg]'),

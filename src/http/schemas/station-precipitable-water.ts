@@ -7,7 +7,7 @@ import { z } from 'zod';
 import { DEFAULT_MAX_MET_GAP_MS } from '../../domain/meteo/met-interpolation.js';
 import { DEFAULT_MAX_ZTD_SIGMA_M, PWV_QUALITY_FLAGS } from '../../services/station-pwv.js';
 import { MAX_MET_GAP_S } from '../../limits.js';
-import { bounded, provenanceFields, strictObject } from './common.js';
+import { provenanceFields, strictObject } from './common.js';
 import { homogeneityFields } from './delays.js';
 import { seriesQueryFields, seriesRangeResponseFields, sourceSchema } from './stations.js';
 
@@ -21,7 +21,9 @@ const metGapSchema = () =>
 export const stationPwvQuery = strictObject({
   ...seriesQueryFields,
   source: sourceSchema.optional().describe('Only the delay rows of this source'),
-  met_source: sourceSchema.optional().describe('Only the met rows of this source (default: all; at one epoch the first source in name order)'),
+  met_source: sourceSchema
+    .optional()
+    .describe('Only the met rows of this source (default: all; at one epoch the first source in name order)'),
   met_max_gap_s: metGapSchema().describe(
     `Longest gap between two met records interpolated across [s], [0, ${MAX_MET_GAP_S}]; default ${DEFAULT_MAX_MET_GAP_MS / 1000} (3 h). The same name as the estimation option`,
   ),
@@ -40,7 +42,10 @@ export const stationPwvRecord = z.object({
   model_fingerprint: z.string().describe('Fingerprint of the delay row'),
   ztd_m: z.number().describe('Stored zenith total delay [m]'),
   ztd_sigma_m: z.number().nullable().describe('[m]'),
-  pressure_hpa: z.number().nullable().describe('Pressure at the antenna height used for ZHD [hPa] (interpolated, reduced from met_height_m)'),
+  pressure_hpa: z
+    .number()
+    .nullable()
+    .describe('Pressure at the antenna height used for ZHD [hPa] (interpolated, reduced from met_height_m)'),
   temperature_c: z.number().nullable().describe('Temperature at the antenna height used for Tm [°C]'),
   zhd_m: z.number().nullable().describe('Zenith hydrostatic delay from pressure_hpa [m]; null without pressure'),
   zwd_m: z.number().nullable().describe('ZTD − ZHD [m]'),
@@ -61,11 +66,13 @@ export const stationPwvResponse = z.object({
   ...seriesRangeResponseFields,
   records: z.array(stationPwvRecord),
   ...homogeneityFields,
-  retrieval: z.object({
-    models: provenanceFields.models,
-    model_fingerprint: provenanceFields.model_fingerprint,
-    met_max_gap_s: z.number().describe('The met gap limit used [s]'),
-    max_met_gap_s: z.number().describe('Deprecated: the same as met_max_gap_s'),
-    max_ztd_sigma_m: z.number(),
-  }).describe('Models and settings of the PWV retrieval itself (ZHD, Tm, Π, met interpolation)'),
+  retrieval: z
+    .object({
+      models: provenanceFields.models,
+      model_fingerprint: provenanceFields.model_fingerprint,
+      met_max_gap_s: z.number().describe('The met gap limit used [s]'),
+      max_met_gap_s: z.number().describe('Deprecated: the same as met_max_gap_s'),
+      max_ztd_sigma_m: z.number(),
+    })
+    .describe('Models and settings of the PWV retrieval itself (ZHD, Tm, Π, met interpolation)'),
 });

@@ -25,5 +25,7 @@ export const stationZwdEstimatesResponse = zwdEstimatesResponse.extend({
       updated: z.number().int(),
       unchanged: z.number().int(),
     })
-    .describe("The series as stored in the station's delay series (ZTD, ZWD, gradients, sigmas), under this source and the result's model_fingerprint"),
+    .describe(
+      "The series as stored in the station's delay series (ZTD, ZWD, gradients, sigmas), under this source and the result's model_fingerprint",
+    ),
 });

@@ -25,26 +25,43 @@ export const sourceSchema = z
   .regex(SOURCE_PATTERN, { error: SOURCE_MESSAGE })
   .describe('Name of the producer of a series (a sensor, a processing run); part of the key (station, epoch, source)');
 
-export const stationBody =
-  strictObject({
-    name: z.string().trim().min(1, { error: 'must be 1-200 characters' }).max(200, { error: 'must be 1-200 characters' }).describe('Display name'),
-    latitude_deg: bounded(-90, 90, 'deg', 'Geodetic latitude (WGS84)'),
-    longitude_deg: bounded(-180, 360, 'deg', 'Longitude, east positive'),
-    height_m: bounded(-500, 9000, 'm', 'Antenna height above the WGS84 ellipsoid'),
-    met_height_m: bounded(-500, 9000, 'm', `Height of the met sensor, same datum; absent = at the antenna height. Within ${MAX_REDUCTION_HEIGHT_DIFFERENCE_M} m of height_m`)
-      .nullable()
-      .optional(),
-    description: z.string().max(2000, { error: 'must be at most 2000 characters' }).nullable().optional().describe('Free text, at most 2000 characters'),
-  })
-  .superRefine((s, ctx) => {
-    if (s.met_height_m !== undefined && s.met_height_m !== null && Math.abs(s.met_height_m - s.height_m) > MAX_REDUCTION_HEIGHT_DIFFERENCE_M) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['met_height_m'],
-        message: `must be within ${MAX_REDUCTION_HEIGHT_DIFFERENCE_M} m of height_m (met values are reduced to the antenna height over at most that)`,
-      });
-    }
-  });
+export const stationBody = strictObject({
+  name: z
+    .string()
+    .trim()
+    .min(1, { error: 'must be 1-200 characters' })
+    .max(200, { error: 'must be 1-200 characters' })
+    .describe('Display name'),
+  latitude_deg: bounded(-90, 90, 'deg', 'Geodetic latitude (WGS84)'),
+  longitude_deg: bounded(-180, 360, 'deg', 'Longitude, east positive'),
+  height_m: bounded(-500, 9000, 'm', 'Antenna height above the WGS84 ellipsoid'),
+  met_height_m: bounded(
+    -500,
+    9000,
+    'm',
+    `Height of the met sensor, same datum; absent = at the antenna height. Within ${MAX_REDUCTION_HEIGHT_DIFFERENCE_M} m of height_m`,
+  )
+    .nullable()
+    .optional(),
+  description: z
+    .string()
+    .max(2000, { error: 'must be at most 2000 characters' })
+    .nullable()
+    .optional()
+    .describe('Free text, at most 2000 characters'),
+}).superRefine((s, ctx) => {
+  if (
+    s.met_height_m !== undefined &&
+    s.met_height_m !== null &&
+    Math.abs(s.met_height_m - s.height_m) > MAX_REDUCTION_HEIGHT_DIFFERENCE_M
+  ) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['met_height_m'],
+      message: `must be within ${MAX_REDUCTION_HEIGHT_DIFFERENCE_M} m of height_m (met values are reduced to the antenna height over at most that)`,
+    });
+  }
+});
 
 export const stationResponse = z.object({
   station_id: z.string(),
@@ -68,10 +85,16 @@ export const seriesFormatSchema = z
 
 /** from/to of a series read; resolution of defaults and the maximum range: src/http/routes/series-range.ts. */
 export const seriesQueryFields = {
-  from: rangeBoundSchema.optional().describe('Start of the range, inclusive (ISO 8601 date-time, or a date for 00:00Z of that day). Default: `to` minus the maximum range'),
+  from: rangeBoundSchema
+    .optional()
+    .describe(
+      'Start of the range, inclusive (ISO 8601 date-time, or a date for 00:00Z of that day). Default: `to` minus the maximum range',
+    ),
   to: rangeBoundSchema
     .optional()
-    .describe('End of the range, inclusive (ISO 8601 date-time, or a date for the whole of that UTC day). Default: `from` plus the maximum range, or the latest stored epoch when neither is given'),
+    .describe(
+      'End of the range, inclusive (ISO 8601 date-time, or a date for the whole of that UTC day). Default: `from` plus the maximum range, or the latest stored epoch when neither is given',
+    ),
   format: seriesFormatSchema,
   source: sourceSchema.optional().describe('Only the rows of this source'),
 };

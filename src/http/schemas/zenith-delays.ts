@@ -1,6 +1,15 @@
 import { z } from 'zod';
 import { DEFAULT_WET_MODEL } from '../../domain/zenith/wet.js';
-import { epochSchema, geoidUndulationField, metSchema, metSourceSchema, provenanceFields, siteSchema, wetModelSchema, strictObject } from './common.js';
+import {
+  epochSchema,
+  geoidUndulationField,
+  metSchema,
+  metSourceSchema,
+  provenanceFields,
+  siteSchema,
+  wetModelSchema,
+  strictObject,
+} from './common.js';
 
 export const zenithDelaysRequest = strictObject({
   site: siteSchema,

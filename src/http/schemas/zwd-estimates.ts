@@ -49,12 +49,10 @@ export const zwdMetRecordSchema = strictObject({
   relative_humidity_pct: relativeHumidityPct().optional().describe('Relative humidity [%], 0..100; accepted, not needed for PWV'),
 });
 
-export const zwdAprioriSchema =
-  strictObject({
-    zhd_m: zhdM('ZHD the residuals were formed with; default: Saastamoinen ZHD of the standard atmosphere at the site').optional(),
-    zwd_m: zwdM('ZWD the residuals were formed with; default 0').optional(),
-  })
-  .describe('The a-priori zenith delays the residuals were formed with');
+export const zwdAprioriSchema = strictObject({
+  zhd_m: zhdM('ZHD the residuals were formed with; default: Saastamoinen ZHD of the standard atmosphere at the site').optional(),
+  zwd_m: zwdM('ZWD the residuals were formed with; default 0').optional(),
+}).describe('The a-priori zenith delays the residuals were formed with');
 
 /** The zod schema of one option of the table (src/services/zwd-options.ts): range, message, default, description. */
 export function optionSchema(spec: OptionSpec): z.ZodType {
@@ -63,7 +61,10 @@ export function optionSchema(spec: OptionSpec): z.ZodType {
   }
   if (spec.type === 'enum') {
     const message = `must be one of: ${spec.values.join(', ')}`;
-    return z.enum(spec.values, { error: message }).default(spec.default).describe(`${spec.description}; one of ${spec.values.join(', ')}`);
+    return z
+      .enum(spec.values, { error: message })
+      .default(spec.default)
+      .describe(`${spec.description}; one of ${spec.values.join(', ')}`);
   }
   const range = rangeText(spec);
   const message = `must be ${spec.type === 'integer' ? 'an integer' : 'a number'} in ${range}`;
@@ -83,21 +84,24 @@ const fieldsOf = (group: 'gradients' | undefined) =>
 export const zwdGradientOptionsSchema = strictObject(fieldsOf('gradients')).describe(GRADIENTS_GROUP.description);
 
 /** options: strict (a misspelt option is an error, not a silently used default); every option has a default. */
-export const zwdOptionsSchema =
-  strictObject({ ...fieldsOf(undefined), gradients: zwdGradientOptionsSchema.nullable().prefault({}) })
+export const zwdOptionsSchema = strictObject({ ...fieldsOf(undefined), gradients: zwdGradientOptionsSchema.nullable().prefault({}) })
   .prefault({})
   .describe('Estimation options; every one has a default (docs/zwd-estimation.md lists them)');
 
 export const zwdEstimationBody = strictObject({
-  observations: sizedArray(z
-    .array(zwdObservationSchema, { error: 'must be an array of observations' }), MAX_OBSERVATIONS, 'observations')
-    .describe('Residuals of one station, in any order; grouped by epoch'),
+  observations: sizedArray(
+    z.array(zwdObservationSchema, { error: 'must be an array of observations' }),
+    MAX_OBSERVATIONS,
+    'observations',
+  ).describe('Residuals of one station, in any order; grouped by epoch'),
   apriori: zwdAprioriSchema.optional(),
   met: z
     .array(zwdMetRecordSchema, { error: 'must be an array of met records' })
     .max(MAX_MET_RECORDS, { error: `must hold at most ${MAX_MET_RECORDS} records` })
     .optional()
-    .describe('Surface met at the site, interpolated linearly to the epochs (not across gaps longer than options.met_max_gap_s); enables ZHD, ZWD and PWV per epoch'),
+    .describe(
+      'Surface met at the site, interpolated linearly to the epochs (not across gaps longer than options.met_max_gap_s); enables ZHD, ZWD and PWV per epoch',
+    ),
   options: zwdOptionsSchema,
 });
 
@@ -116,7 +120,11 @@ export type ZwdEstimationBody = z.output<typeof zwdEstimationBody>;
 function fromQueryString(value: unknown, ctx: { addIssue: (issue: { code: 'custom'; message: string; input: unknown }) => void }): unknown {
   if (typeof value !== 'string') return value;
   if (value.length > MAX_QUERY_VALUE_CHARS) {
-    ctx.addIssue({ code: 'custom', message: `a value of ${value.length} characters; at most ${MAX_QUERY_VALUE_CHARS}`, input: value.slice(0, 20) });
+    ctx.addIssue({
+      code: 'custom',
+      message: `a value of ${value.length} characters; at most ${MAX_QUERY_VALUE_CHARS}`,
+      input: value.slice(0, 20),
+    });
     return z.NEVER;
   }
   const v = value.trim();
@@ -163,8 +171,13 @@ export const zwdNodeResponse = z.object({
   epoch: z.string().describe('Node epoch jΔ on round UTC epochs'),
   correction_m: z.number().describe('Estimated correction δw to the a-priori ZWD [m]'),
   zwd_m: z.number().describe('A-priori ZWD + correction [m]'),
-  sigma_m: z.number().describe('Formal standard deviation [m] (with the Brownian-bridge variance between epochs and the correlated-noise factor)'),
-  observations_nearby: z.number().int().describe('Used observations within one interval of the node; 0 = the value comes from the random walk alone (a node without data)'),
+  sigma_m: z
+    .number()
+    .describe('Formal standard deviation [m] (with the Brownian-bridge variance between epochs and the correlated-noise factor)'),
+  observations_nearby: z
+    .number()
+    .int()
+    .describe('Used observations within one interval of the node; 0 = the value comes from the random walk alone (a node without data)'),
 });
 
 export const gradientNodeResponse = z.object({
@@ -185,7 +198,10 @@ export const zwdSeriesEntryResponse = z.object({
   east_gradient_m: z.number().nullable().describe('G_E at the epoch [m]; null when gradients are off'),
   north_gradient_sigma_m: z.number().nullable(),
   east_gradient_sigma_m: z.number().nullable(),
-  epoch_bias_m: z.number().nullable().describe('Estimated epoch bias [m]; null when epoch_bias is off or all observations of the epoch were rejected'),
+  epoch_bias_m: z
+    .number()
+    .nullable()
+    .describe('Estimated epoch bias [m]; null when epoch_bias is off or all observations of the epoch were rejected'),
   observations: z.number().int().describe('Observations of the epoch used in the final solution'),
   ztd_m: z.number().describe('A-priori ZHD + a-priori ZWD + δw [m]'),
   met: metQualitySchema.optional().describe('Met at this epoch: measured, interpolated or missing (only with met)'),
@@ -218,7 +234,9 @@ export const zwdStatisticsResponse = z.object({
   degrees_of_freedom: z.number().int().describe('observations_used + constraints − unknowns'),
   rms_m: z.number().describe('RMS of the post-fit residuals [m]'),
   variance_factor: z.number().nullable().describe('(vᵀPv + constraint terms) / degrees_of_freedom; null when that is 0'),
-  sigma_scale: z.number().describe('1: the variance factor re-weights the observations (scale_sigmas), the formal errors are not multiplied'),
+  sigma_scale: z
+    .number()
+    .describe('1: the variance factor re-weights the observations (scale_sigmas), the formal errors are not multiplied'),
   solutions: z.number().int().describe('Least-squares solutions computed (re-weightings and screening)'),
   screening_complete: z.boolean().describe('false when max_rejections stopped the screening'),
   weighting_constant_m: z.number().describe('a of σ² = a² + b²/sin²e in the final solution (re-estimated with scale_sigmas) [m]'),
@@ -238,7 +256,9 @@ export const zwdStatisticsResponse = z.object({
   noise_correlation: z
     .object({
       sampling_s: z.number(),
-      autocorrelation: z.array(z.number()).describe('ρ(1), ρ(2), … of the normalised residuals per satellite arc, up to the first insignificant lag'),
+      autocorrelation: z
+        .array(z.number())
+        .describe('ρ(1), ρ(2), … of the normalised residuals per satellite arc, up to the first insignificant lag'),
       zwd_variance_inflation: z.number().describe('Mean factor on the ZWD variances'),
       gradient_variance_inflation: z.number().describe('Mean factor on the gradient variances'),
     })

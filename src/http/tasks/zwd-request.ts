@@ -20,7 +20,13 @@ import { toZwdRequest, zwdEstimatesResponseOf } from '../adapters/zwd-estimation
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
 import { stationZwdEstimatesQuery } from '../schemas/station-zwd-estimates.js';
 import { asOutcome, fail } from './task-errors.js';
-import { optionsFromQuery, zwdCsvQuerySchema, zwdEstimatesRequest, zwdEstimationBody, type ZwdEstimationBody } from '../schemas/zwd-estimates.js';
+import {
+  optionsFromQuery,
+  zwdCsvQuerySchema,
+  zwdEstimatesRequest,
+  zwdEstimationBody,
+  type ZwdEstimationBody,
+} from '../schemas/zwd-estimates.js';
 
 export interface ZwdRequestTaskInput {
   /** The request body as received: JSON bytes or CSV text. */
@@ -39,7 +45,10 @@ export interface ZwdRequestTaskInput {
 }
 
 export interface ZwdRequestTaskOutput {
-  /** The answer as UTF-8 JSON (moved, not copied, to the event loop). For a station: without its closing brace, so the route appends `stored`. */
+  /**
+   * The answer as UTF-8 JSON (moved, not copied, to the event loop). For a station: without its
+   * closing brace, so the route appends `stored`.
+   */
   json: Uint8Array;
   /** Observations sent, for the metrics. */
   observations: number;
@@ -105,13 +114,16 @@ export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<Task
     }
     const request = toZwdRequest(site, body, station?.storedMet);
     const result = runZwdEstimation(request);
-    if (!station) return { ok: true, output: { json: utf8(JSON.stringify(zwdEstimatesResponseOf(result))), observations: body.observations.length } };
+    if (!station)
+      return { ok: true, output: { json: utf8(JSON.stringify(zwdEstimatesResponseOf(result))), observations: body.observations.length } };
 
     const metUsed = body.met !== undefined ? 'request' : request.met ? 'archive' : 'none';
     const metWarnings = [
       ...(station.warnings ?? []),
       ...(metUsed === 'archive' ? [`met: ${request.met!.epochMs.length} records of the station's stored met series`] : []),
-      ...(metUsed === 'none' ? ['met: neither in the request nor stored for this station around the observations; no ZHD or PWV per epoch'] : []),
+      ...(metUsed === 'none'
+        ? ['met: neither in the request nor stored for this station around the observations; no ZHD or PWV per epoch']
+        : []),
     ];
     const delays = delayColumns(result);
     checkStorableDelays(delays);
@@ -158,7 +170,8 @@ export async function scanZwdRequest(input: Pick<ZwdRequestTaskInput, 'body' | '
     } else {
       const parsed = JSON.parse(text) as { observations?: unknown; met?: unknown } | null;
       hasMet = parsed !== null && typeof parsed === 'object' && parsed.met !== undefined;
-      if (parsed && Array.isArray(parsed.observations)) epochs = parsed.observations.map((o) => (o && typeof o === 'object' ? (o as { epoch?: unknown }).epoch : undefined));
+      if (parsed && Array.isArray(parsed.observations))
+        epochs = parsed.observations.map((o) => (o && typeof o === 'object' ? (o as { epoch?: unknown }).epoch : undefined));
     }
   } catch {
     return { ok: true, output: { range: null, hasMet, observations: 0, ...bytesBack(input.body) } };
@@ -172,5 +185,8 @@ export async function scanZwdRequest(input: Pick<ZwdRequestTaskInput, 'body' | '
     if (ms < firstMs) firstMs = ms;
     if (ms > lastMs) lastMs = ms;
   }
-  return { ok: true, output: { range: firstMs <= lastMs ? { firstMs, lastMs } : null, hasMet, observations: epochs.length, ...bytesBack(input.body) } };
+  return {
+    ok: true,
+    output: { range: firstMs <= lastMs ? { firstMs, lastMs } : null, hasMet, observations: epochs.length, ...bytesBack(input.body) },
+  };
 }

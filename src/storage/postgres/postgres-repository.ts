@@ -18,7 +18,20 @@
 
 import pg from 'pg';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
-import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StationRange, StoredModelSet, SurfaceMetRow, TimeRange, WriteCounts, ZenithDelayRow } from '../repository.js';
+import type {
+  ConnectionStats,
+  DelayRow,
+  MetRow,
+  Repository,
+  Station,
+  StationInput,
+  StationRange,
+  StoredModelSet,
+  SurfaceMetRow,
+  TimeRange,
+  WriteCounts,
+  ZenithDelayRow,
+} from '../repository.js';
 import { UnknownStationError } from '../repository.js';
 import { withConflictRetry } from '../errors.js';
 import {
@@ -276,16 +289,26 @@ export class PostgresRepository implements Repository {
   }
 
   async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts> {
-    for (const r of rows) if (r.modelFingerprint !== modelSet.modelFingerprint) throw new Error('delay row fingerprint differs from its model set');
+    for (const r of rows)
+      if (r.modelFingerprint !== modelSet.modelFingerprint) throw new Error('delay row fingerprint differs from its model set');
     return this.transaction(async (client) => {
       await this.lockStation(client, stationId);
-      await client.query('INSERT INTO model_sets (model_fingerprint, models_json) VALUES ($1, $2) ON CONFLICT (model_fingerprint) DO NOTHING', [
-        modelSet.modelFingerprint,
-        JSON.stringify(modelSet.models),
-      ]);
+      await client.query(
+        'INSERT INTO model_sets (model_fingerprint, models_json) VALUES ($1, $2) ON CONFLICT (model_fingerprint) DO NOTHING',
+        [modelSet.modelFingerprint, JSON.stringify(modelSet.models)],
+      );
       let returned = 0;
       let inserted = 0;
-      const cols = ['ztd_m', 'ztd_sigma_m', 'zwd_m', 'zwd_sigma_m', 'north_gradient_m', 'east_gradient_m', 'north_gradient_sigma_m', 'east_gradient_sigma_m'];
+      const cols = [
+        'ztd_m',
+        'ztd_sigma_m',
+        'zwd_m',
+        'zwd_sigma_m',
+        'north_gradient_m',
+        'east_gradient_m',
+        'north_gradient_sigma_m',
+        'east_gradient_sigma_m',
+      ];
       const current = cols.map((c) => `delay_records.${c}`).join(', ') + ', delay_records.model_fingerprint';
       const excluded = cols.map((c) => `EXCLUDED.${c}`).join(', ') + ', EXCLUDED.model_fingerprint';
       const sorted = byKey(rows);
@@ -342,7 +365,9 @@ export class PostgresRepository implements Repository {
 
   async latestEpochMs(stationId: string, series: 'met' | 'delays'): Promise<number | null> {
     const table = series === 'met' ? 'met_records' : 'delay_records';
-    const result = await this.pool.query<{ latest: string | null }>(`SELECT MAX(epoch_ms) AS latest FROM ${table} WHERE station_id = $1`, [stationId]);
+    const result = await this.pool.query<{ latest: string | null }>(`SELECT MAX(epoch_ms) AS latest FROM ${table} WHERE station_id = $1`, [
+      stationId,
+    ]);
     const latest = result.rows[0]?.latest ?? null;
     return latest === null ? null : Number(latest);
   }
@@ -391,9 +416,17 @@ export class PostgresRepository implements Repository {
    * Raw rows (station_id first) of many one-station range reads in one statement: the ranges are
    * bound as three arrays and joined on the primary key (station_id, epoch_ms).
    */
-  private async readRanges(table: 'met_records' | 'delay_records', columns: string, ranges: readonly StationRange[], source?: string): Promise<unknown[][]> {
+  private async readRanges(
+    table: 'met_records' | 'delay_records',
+    columns: string,
+    ranges: readonly StationRange[],
+    source?: string,
+  ): Promise<unknown[][]> {
     if (ranges.length === 0) return [];
-    const qualified = columns.split(', ').map((c) => `t.${c}`).join(', ');
+    const qualified = columns
+      .split(', ')
+      .map((c) => `t.${c}`)
+      .join(', ');
     const bySource = source === undefined ? '' : ' AND t.source = $4';
     const values: unknown[] = [ranges.map((r) => r.stationId), ranges.map((r) => r.fromMs), ranges.map((r) => r.toMs)];
     if (source !== undefined) values.push(source);
@@ -409,7 +442,13 @@ export class PostgresRepository implements Repository {
   }
 
   /** Raw rows of a one-station time-range read. */
-  private async readRange(table: 'met_records' | 'delay_records', columns: string, stationId: string, range: TimeRange, source?: string): Promise<unknown[][]> {
+  private async readRange(
+    table: 'met_records' | 'delay_records',
+    columns: string,
+    stationId: string,
+    range: TimeRange,
+    source?: string,
+  ): Promise<unknown[][]> {
     const result = await this.pool.query<unknown[]>({
       text: rangeReadSql(table, columns, source !== undefined, 'postgres'),
       values: source === undefined ? [stationId, range.fromMs, range.toMs] : [stationId, range.fromMs, range.toMs, source],

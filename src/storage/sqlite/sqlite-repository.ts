@@ -22,7 +22,20 @@ import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
-import type { ConnectionStats, DelayRow, MetRow, Repository, Station, StationInput, StationRange, StoredModelSet, SurfaceMetRow, TimeRange, WriteCounts, ZenithDelayRow } from '../repository.js';
+import type {
+  ConnectionStats,
+  DelayRow,
+  MetRow,
+  Repository,
+  Station,
+  StationInput,
+  StationRange,
+  StoredModelSet,
+  SurfaceMetRow,
+  TimeRange,
+  WriteCounts,
+  ZenithDelayRow,
+} from '../repository.js';
 import { UnknownStationError } from '../repository.js';
 import { withConflictRetry } from '../errors.js';
 import {
@@ -109,7 +122,11 @@ export function migrateSqlite(db: Database.Database): number[] {
     for (const m of MIGRATIONS) {
       if (done.has(m.version)) continue;
       db.exec(migrationSql(m, 'sqlite'));
-      db.prepare('INSERT INTO schema_migrations (version, name, applied_at) VALUES (?, ?, ?)').run(m.version, m.name, new Date().toISOString());
+      db.prepare('INSERT INTO schema_migrations (version, name, applied_at) VALUES (?, ?, ?)').run(
+        m.version,
+        m.name,
+        new Date().toISOString(),
+      );
       applied.push(m.version);
     }
   });
@@ -171,7 +188,9 @@ export class SqliteRepository implements Repository {
          WHERE station_id = ?`,
       ),
       deleteStation: this.db.prepare('DELETE FROM stations WHERE station_id = ?'),
-      insertModelSet: this.db.prepare('INSERT INTO model_sets (model_fingerprint, models_json) VALUES (?, ?) ON CONFLICT (model_fingerprint) DO NOTHING'),
+      insertModelSet: this.db.prepare(
+        'INSERT INTO model_sets (model_fingerprint, models_json) VALUES (?, ?) ON CONFLICT (model_fingerprint) DO NOTHING',
+      ),
       latestMet: this.db.prepare('SELECT MAX(epoch_ms) AS latest FROM met_records WHERE station_id = ?'),
       latestDelays: this.db.prepare('SELECT MAX(epoch_ms) AS latest FROM delay_records WHERE station_id = ?'),
     };
@@ -287,7 +306,8 @@ export class SqliteRepository implements Repository {
   }
 
   async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts> {
-    for (const r of rows) if (r.modelFingerprint !== modelSet.modelFingerprint) throw new Error('delay row fingerprint differs from its model set');
+    for (const r of rows)
+      if (r.modelFingerprint !== modelSet.modelFingerprint) throw new Error('delay row fingerprint differs from its model set');
     const tx = this.db.transaction(() => {
       if (!this.stmt.getStation.get(stationId)) throw new UnknownStationError(stationId);
       this.stmt.insertModelSet.run(modelSet.modelFingerprint, JSON.stringify(modelSet.models));
@@ -308,7 +328,9 @@ export class SqliteRepository implements Repository {
     if (fingerprints.length === 0) return [];
     const placeholders = fingerprints.map(() => '?').join(', ');
     const rows = this.db
-      .prepare(`SELECT model_fingerprint, models_json FROM model_sets WHERE model_fingerprint IN (${placeholders}) ORDER BY model_fingerprint`)
+      .prepare(
+        `SELECT model_fingerprint, models_json FROM model_sets WHERE model_fingerprint IN (${placeholders}) ORDER BY model_fingerprint`,
+      )
       .all(...fingerprints) as { model_fingerprint: string; models_json: string }[];
     return rows.map((r) => ({ modelFingerprint: r.model_fingerprint, models: JSON.parse(r.models_json) }));
   }
@@ -349,7 +371,12 @@ export class SqliteRepository implements Repository {
    * Raw rows (station_id first) of many one-station range reads: one indexed statement per station,
    * run back to back (better-sqlite3 is in-process, so a loop costs no round trips).
    */
-  private readRanges(table: 'met_records' | 'delay_records', columns: string, ranges: readonly StationRange[], source?: string): unknown[][] {
+  private readRanges(
+    table: 'met_records' | 'delay_records',
+    columns: string,
+    ranges: readonly StationRange[],
+    source?: string,
+  ): unknown[][] {
     const out: unknown[][] = [];
     const withId = `station_id, ${columns}`;
     for (const r of ranges) {
@@ -371,7 +398,13 @@ export class SqliteRepository implements Repository {
   private readonly rangeStatements = new Map<string, Database.Statement>();
 
   /** Raw rows of a one-station time-range read; statements prepared once per shape. */
-  private readRange(table: 'met_records' | 'delay_records', columns: string, stationId: string, range: TimeRange, source?: string): unknown[][] {
+  private readRange(
+    table: 'met_records' | 'delay_records',
+    columns: string,
+    stationId: string,
+    range: TimeRange,
+    source?: string,
+  ): unknown[][] {
     const sql = rangeReadSql(table, columns, source !== undefined, 'sqlite');
     let statement = this.rangeStatements.get(sql);
     if (!statement) this.rangeStatements.set(sql, (statement = this.db.prepare(sql).raw(true)));

@@ -1,6 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { EPSILON } from '../../../src/domain/profile/constants.js';
-import { moistSaturationVapourPressureHpa, profileEnhancementFactor, vapourPressureOfLevelHpa } from '../../../src/domain/profile/humidity.js';
+import {
+  moistSaturationVapourPressureHpa,
+  profileEnhancementFactor,
+  vapourPressureOfLevelHpa,
+} from '../../../src/domain/profile/humidity.js';
 import { HPA } from '../../helpers/units.js';
 
 describe('humidity quantities of a level → vapour pressure', () => {

@@ -60,7 +60,11 @@ describe('dry U.S. Standard Atmosphere 1976 column against Saastamoinen (Davis e
 describe('extension above the top (hydrostatic, so exact for the ZHD whatever its temperature)', () => {
   it.each([12_000, 20_000, 40_000])('the standard cut at %d m gives the ZHD of the full 86 km column within 0.05 mm', (topM) => {
     const full = computeProfileDelays({ latitudeRad: 45 * DEG, siteHeightM: 0, levels: DRY_USSA });
-    const cut = computeProfileDelays({ latitudeRad: 45 * DEG, siteHeightM: 0, levels: toDomainLevels(column(evenHeightsM(1000, 0, topM))) });
+    const cut = computeProfileDelays({
+      latitudeRad: 45 * DEG,
+      siteHeightM: 0,
+      levels: toDomainLevels(column(evenHeightsM(1000, 0, topM))),
+    });
     expect(Math.abs(cut.zhdM - full.zhdM)).toBeLessThan(0.05 * MM);
     // and the extension's share is 1e-6 k1 Rd P_top / g_m (Davis et al. 1985 eq. 10 applied to the part
     // above the top), with g_m the standard's gravity one scale height (≈ 6.5 km) above the top, within 0.1 %
@@ -121,7 +125,8 @@ describe('humid columns against the generator’s truth (U.S. Standard Atmospher
     const levels = column(evenHeightsM(10, 0, 16_000), options);
     let qdp = 0;
     for (let i = 0; i + 1 < levels.length; i++) {
-      const q = (k: number) => (epsilon * levels[k]!.vapourPressureHpa) / (levels[k]!.pressureHpa - (1 - epsilon) * levels[k]!.vapourPressureHpa);
+      const q = (k: number) =>
+        (epsilon * levels[k]!.vapourPressureHpa) / (levels[k]!.pressureHpa - (1 - epsilon) * levels[k]!.vapourPressureHpa);
       const g = ussaGravity((levels[i]!.heightM + levels[i + 1]!.heightM) / 2);
       qdp += (0.5 * (q(i) + q(i + 1)) * (levels[i]!.pressureHpa - levels[i + 1]!.pressureHpa) * 100) / g;
     }

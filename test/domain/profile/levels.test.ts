@@ -35,12 +35,20 @@ describe('interpolation between levels against the U.S. Standard Atmosphere 1976
     const exponential = Math.sqrt(ussa1976(0).pressureHpa * ussa1976(2000).pressureHpa);
     expect(Math.abs(exponential - ussa1976(z).pressureHpa)).toBeGreaterThan(0.5 * HPA);
   });
-  it.each([500, 3300, 9100])('temperature at %d m is linear in height (the standard’s lapse rate is constant inside these layers; within 0.01 K)', (z) => {
-    const i = Math.floor(z / 2000);
-    expect(Math.abs(interpolateInLayer(levels, i, z).temperatureK - ussa1976(z).temperatureK)).toBeLessThan(0.01);
-  });
+  it.each([500, 3300, 9100])(
+    'temperature at %d m is linear in height (the standard’s lapse rate is constant inside these layers; within 0.01 K)',
+    (z) => {
+      const i = Math.floor(z / 2000);
+      expect(Math.abs(interpolateInLayer(levels, i, z).temperatureK - ussa1976(z).temperatureK)).toBeLessThan(0.01);
+    },
+  );
   it('vapour pressure is exponential in height (geometric mean at mid-layer) and linear when one level is dry', () => {
-    const c = { heightM: Float64Array.of(0, 1000, 2000), pressureHpa: Float64Array.of(1000, 900, 800), temperatureK: Float64Array.of(290, 284, 278), vapourPressureHpa: Float64Array.of(16, 4, 0) };
+    const c = {
+      heightM: Float64Array.of(0, 1000, 2000),
+      pressureHpa: Float64Array.of(1000, 900, 800),
+      temperatureK: Float64Array.of(290, 284, 278),
+      vapourPressureHpa: Float64Array.of(16, 4, 0),
+    };
     expect(interpolateInLayer(c, 0, 500).vapourPressureHpa).toBeCloseTo(8, 12);
     expect(interpolateInLayer(c, 1, 1500).vapourPressureHpa).toBeCloseTo(2, 12);
   });

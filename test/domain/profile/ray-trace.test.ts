@@ -7,7 +7,12 @@ import { simpson, toDomainLevels } from '../../helpers/profiles.js';
 import { DEG, MM } from '../../helpers/units.js';
 
 /** Shells of given refractivity (one value per shell) on equally spaced radii. */
-function shells(bottomRadiusM: number, stepM: number, refractivity: (lowerM: number, upperM: number) => number, topM: number): TraceableColumn {
+function shells(
+  bottomRadiusM: number,
+  stepM: number,
+  refractivity: (lowerM: number, upperM: number) => number,
+  topM: number,
+): TraceableColumn {
   const n = Math.round(topM / stepM);
   const radiusM = new Float64Array(n + 1).map((_, j) => bottomRadiusM + j * stepM);
   const hydrostaticN = new Float64Array(n).map((_, j) => refractivity(j * stepM, (j + 1) * stepM));
@@ -125,7 +130,7 @@ describe('U.S. Standard Atmosphere 1976 (dry, 0–86 km), mid latitude: ray-trac
 
   it('the geometric bending term is assigned to the hydrostatic part: about 16 cm at 5° (≈ N0² H / (4 sin³ e) in a flat atmosphere, reduced by curvature)', () => {
     const s = r.slants![1]!;
-    const flat = ((272.9e-6) ** 2 * 8000) / (4 * Math.sin(5 * DEG) ** 3); // 0.22 m
+    const flat = (272.9e-6 ** 2 * 8000) / (4 * Math.sin(5 * DEG) ** 3); // 0.22 m
     expect(s.bendingM).toBeGreaterThan(0.5 * flat);
     expect(s.bendingM).toBeLessThan(flat);
     // Without it the hydrostatic factor would be 0.7 % lower, well outside the Niell agreement above.

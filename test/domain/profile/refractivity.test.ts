@@ -44,10 +44,13 @@ describe('every set against the two-term formula N = 77.6 P/T + 3.73e5 e/T² (Sm
     { pressureHpa: 500, temperatureK: 253.15, vapourPressureHpa: 1 },
   ];
   for (const [key, set] of Object.entries(REFRACTIVITY_CONSTANT_SETS)) {
-    it.each(CONDITIONS)(`${key}: P $pressureHpa hPa, T $temperatureK K, e $vapourPressureHpa hPa`, ({ pressureHpa, temperatureK, vapourPressureHpa }) => {
-      const twoTerm = (77.6 * pressureHpa) / temperatureK + (3.73e5 * vapourPressureHpa) / temperatureK ** 2;
-      expect(Math.abs(totalRefractivity(set, pressureHpa, vapourPressureHpa, temperatureK) - twoTerm)).toBeLessThan(TOLERANCE_N);
-    });
+    it.each(CONDITIONS)(
+      `${key}: P $pressureHpa hPa, T $temperatureK K, e $vapourPressureHpa hPa`,
+      ({ pressureHpa, temperatureK, vapourPressureHpa }) => {
+        const twoTerm = (77.6 * pressureHpa) / temperatureK + (3.73e5 * vapourPressureHpa) / temperatureK ** 2;
+        expect(Math.abs(totalRefractivity(set, pressureHpa, vapourPressureHpa, temperatureK) - twoTerm)).toBeLessThan(TOLERANCE_N);
+      },
+    );
   }
 });
 
@@ -62,7 +65,10 @@ describe('hydrostatic/wet split of Davis et al. (1985), Radio Sci. 20, 1593–16
 
   it('N_h + N_w equals the three-term N, with and without compressibility (the split only moves ε k1 e/T)', () => {
     const set = REFRACTIVITY_CONSTANT_SETS['rueger-2002-best-average'];
-    for (const [zd, zw] of [[1, 1], [1.0006, 1.0009]] as const) {
+    for (const [zd, zw] of [
+      [1, 1],
+      [1.0006, 1.0009],
+    ] as const) {
       const n = totalRefractivity(set, 990, 18, 295, zd, zw);
       expect(hydrostaticRefractivity(set, 990, 18, 295, zd, zw) + wetRefractivity(set, 18, 295, zw)).toBeCloseTo(n, 10);
     }
@@ -82,7 +88,10 @@ describe('inverse compressibility factors, Owens (1967) as quoted by Thayer (197
   function cipmDryZ(pressureHpa: number, temperatureK: number): number {
     const p = pressureHpa * 100;
     const t = temperatureK - 273.15;
-    const a0 = 1.58123e-6, a1 = -2.9331e-8, a2 = 1.1043e-10, d = 1.83e-11;
+    const a0 = 1.58123e-6,
+      a1 = -2.9331e-8,
+      a2 = 1.1043e-10,
+      d = 1.83e-11;
     return 1 - (p / temperatureK) * (a0 + a1 * t + a2 * t * t) + ((p * p) / (temperatureK * temperatureK)) * d;
   }
   it.each([

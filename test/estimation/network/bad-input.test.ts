@@ -74,12 +74,24 @@ describe('bad input', () => {
     const clean = estimateNetwork(input);
     // One more satellite, seen by BRAMBLE only, at the second epoch.
     const t = [...new Set(o.epochMs)].sort((a, b) => a - b)[1]!;
-    for (const [c, v] of [[o.station, 'BRAMBLE'], [o.epochMs, t], [o.satellite, 'R99'], [o.elevationRad, 35 * DEG], [o.azimuthRad, 1], [o.residualM, 123.4]] as [unknown[], unknown][]) c.push(v);
+    for (const [c, v] of [
+      [o.station, 'BRAMBLE'],
+      [o.epochMs, t],
+      [o.satellite, 'R99'],
+      [o.elevationRad, 35 * DEG],
+      [o.azimuthRad, 1],
+      [o.residualM, 123.4],
+    ] as [unknown[], unknown][])
+      c.push(v);
     const out = estimateNetwork(input);
     expect(out.statistics.singleStationSatellites).toBe(clean.statistics.singleStationSatellites + 1);
-    expect(out.stations[1]!.statistics.observationsSingleStationSatellite).toBe(clean.stations[1]!.statistics.observationsSingleStationSatellite + 1);
+    expect(out.stations[1]!.statistics.observationsSingleStationSatellite).toBe(
+      clean.stations[1]!.statistics.observationsSingleStationSatellite + 1,
+    );
     expect(out.warnings.join(' ')).toMatch(/seen by one station only were not used/);
-    out.stations.forEach((st, s) => st.zwdNodes.forEach((n, j) => expect(Math.abs(n.correctionM - clean.stations[s]!.zwdNodes[j]!.correctionM)).toBeLessThan(1e-12)));
+    out.stations.forEach((st, s) =>
+      st.zwdNodes.forEach((n, j) => expect(Math.abs(n.correctionM - clean.stations[s]!.zwdNodes[j]!.correctionM)).toBeLessThan(1e-12)),
+    );
   });
 
   it('an epoch with one station: counted, warned, and it adds no information', () => {

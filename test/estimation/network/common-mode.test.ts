@@ -10,7 +10,15 @@
 import { describe, expect, it } from 'vitest';
 import { estimateNetwork } from '../../../src/estimation/network/estimate-network.js';
 import type { NetworkEstimationOutput } from '../../../src/estimation/network/types.js';
-import { networkOptions, simulateNetwork, stationAt, toNetworkInput, truthZwd, type NetworkSim, type SimStation } from './network-simulator.js';
+import {
+  networkOptions,
+  simulateNetwork,
+  stationAt,
+  toNetworkInput,
+  truthZwd,
+  type NetworkSim,
+  type SimStation,
+} from './network-simulator.js';
 
 const MM = 1e-3;
 const CM = 1e-2;
@@ -25,7 +33,11 @@ const REGIONAL: SimStation[] = [
   stationAt('LARKSPUR', ...CENTRE, 150, 315),
 ];
 /** Three distant stations, 2 400–5 700 km from the centre. */
-const DISTANT: SimStation[] = [stationAt('MOORFIELD', ...CENTRE, 2400, 300), stationAt('NETHERBY', ...CENTRE, 4000, 190), stationAt('OAKRIDGE', ...CENTRE, 5700, 80)];
+const DISTANT: SimStation[] = [
+  stationAt('MOORFIELD', ...CENTRE, 2400, 300),
+  stationAt('NETHERBY', ...CENTRE, 4000, 190),
+  stationAt('OAKRIDGE', ...CENTRE, 5700, 80),
+];
 
 function simulate(stations: SimStation[]): NetworkSim {
   return simulateNetwork({

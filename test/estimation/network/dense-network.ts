@@ -141,7 +141,8 @@ function sigmaOf(input: NetworkEstimationInput, i: number): number {
 
 function summarise(input: NetworkEstimationInput, L: Layout, epochs: number[], x: number[], Q: Matrix, reference: number) {
   const S = input.stations.length;
-  const pick = (off: number, n: number, f: (p: number) => number) => Array.from({ length: S }, (_, s) => Array.from({ length: n }, (_, j) => f(s * L.per + off + j)));
+  const pick = (off: number, n: number, f: (p: number) => number) =>
+    Array.from({ length: S }, (_, s) => Array.from({ length: n }, (_, j) => f(s * L.per + off + j)));
   const meanSigmaM = epochs.map((t) => {
     const u = (t - L.t0) / L.zwdDt;
     const j = L.zwdCount === 1 ? 0 : Math.min(Math.max(Math.floor(u), 0), L.zwdCount - 2);
@@ -226,7 +227,10 @@ export function denseZeroDifference(input: NetworkEstimationInput, reference: nu
   input.stations.forEach((_, s) => {
     const fams: [number, number, typeof input.options.zwd][] = [[s * L.per, L.zwdCount, input.options.zwd]];
     if (input.options.gradients) {
-      fams.push([s * L.per + L.zwdCount, L.gradCount, input.options.gradients], [s * L.per + L.zwdCount + L.gradCount, L.gradCount, input.options.gradients]);
+      fams.push(
+        [s * L.per + L.zwdCount, L.gradCount, input.options.gradients],
+        [s * L.per + L.zwdCount + L.gradCount, L.gradCount, input.options.gradients],
+      );
     }
     for (const [off, cnt, set] of fams) {
       if (set.aprioriSigmaM !== null) vpv += (x[off]! / set.aprioriSigmaM) ** 2;
@@ -241,7 +245,8 @@ export function denseZeroDifference(input: NetworkEstimationInput, reference: nu
   const tau = new Array<number>(o.epochMs.length).fill(Number.NaN);
   for (const row of A) {
     let q = 0;
-    for (let a = 0; a < row.cols.length; a++) for (let b = 0; b < row.cols.length; b++) q += row.vals[a]! * row.vals[b]! * Q.get(row.cols[a]!, row.cols[b]!);
+    for (let a = 0; a < row.cols.length; a++)
+      for (let b = 0; b < row.cols.length; b++) q += row.vals[a]! * row.vals[b]! * Q.get(row.cols[a]!, row.cols[b]!);
     const qv = 1 / row.w - q;
     if (qv > 1e-8 / row.w) tau[row.i] = residual.get(row.i)! / (Math.sqrt(varianceFactor) * Math.sqrt(qv));
   }
@@ -281,7 +286,10 @@ export function denseZeroDifference(input: NetworkEstimationInput, reference: nu
   return { ...summarise(input, L, epochs, x, Q, reference), varianceFactor, degreesOfFreedom: dof, tau, clockCorrelation };
 }
 
-export function denseDoubleDifference(input: NetworkEstimationInput, reference: number): Omit<DenseNetworkResult, 'tau' | 'varianceFactor' | 'degreesOfFreedom' | 'clockCorrelation'> {
+export function denseDoubleDifference(
+  input: NetworkEstimationInput,
+  reference: number,
+): Omit<DenseNetworkResult, 'tau' | 'varianceFactor' | 'degreesOfFreedom' | 'clockCorrelation'> {
   const o = input.observations;
   const rows = used(input);
   const epochs = [...new Set(rows.map((i) => o.epochMs[i]!))].sort((a, b) => a - b);
@@ -301,7 +309,10 @@ export function denseDoubleDifference(input: NetworkEstimationInput, reference: 
       m.set(stationIdx.get(o.station[i]!)!, i);
       bySat.set(o.satellite[i]!, m);
     }
-    const common = [...bySat.entries()].filter(([, m]) => m.size === present.length).map(([sat]) => sat).sort();
+    const common = [...bySat.entries()]
+      .filter(([, m]) => m.size === present.length)
+      .map(([sat]) => sat)
+      .sort();
     if (common.length < 2) continue;
     // Observations (common satellites only) and their node partials.
     const obsIdx: number[] = [];
@@ -345,7 +356,8 @@ export function denseDoubleDifference(input: NetworkEstimationInput, reference: 
     g.add(AtW.mmul(dd));
   }
   constraintRows(input, L, (cols, vals, w) => {
-    for (let a = 0; a < cols.length; a++) for (let c = 0; c < cols.length; c++) N.set(cols[a]!, cols[c]!, N.get(cols[a]!, cols[c]!) + w * (vals[a]! * vals[c]!));
+    for (let a = 0; a < cols.length; a++)
+      for (let c = 0; c < cols.length; c++) N.set(cols[a]!, cols[c]!, N.get(cols[a]!, cols[c]!) + w * (vals[a]! * vals[c]!));
   });
   symmetrise(N);
   const x = new CholeskyDecomposition(N).solve(g).to1DArray();

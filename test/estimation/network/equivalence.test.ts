@@ -43,12 +43,16 @@ function smallNetwork(seed: number, stations: number, hours: number, clockAmplit
 }
 
 /** Keeps satellites seen (above the cutoff) by every station at the epoch; then leaves `lonely` of them to one station only. */
-function commonSatellitesOnly(input: NetworkEstimationInput, lonely: number): { input: NetworkEstimationInput; lonelyObservations: number } {
+function commonSatellitesOnly(
+  input: NetworkEstimationInput,
+  lonely: number,
+): { input: NetworkEstimationInput; lonelyObservations: number } {
   const o = input.observations;
   const S = input.stations.length;
   const seen = new Map<string, number>();
   o.epochMs.forEach((t, i) => {
-    if (o.elevationRad[i]! >= input.options.elevationCutoffRad) seen.set(`${t}/${o.satellite[i]}`, (seen.get(`${t}/${o.satellite[i]}`) ?? 0) + 1);
+    if (o.elevationRad[i]! >= input.options.elevationCutoffRad)
+      seen.set(`${t}/${o.satellite[i]}`, (seen.get(`${t}/${o.satellite[i]}`) ?? 0) + 1);
   });
   const epochs = [...new Set(o.epochMs)].sort((a, b) => a - b);
   // At `lonely` epochs, one common satellite keeps only the first station's observation.
@@ -65,7 +69,7 @@ function commonSatellitesOnly(input: NetworkEstimationInput, lonely: number): { 
     if (lonelyKeys.has(key) && o.station[i] !== input.stations[0]!.name) return;
     keep.push(i);
   });
-  const pick = <T,>(c: T[]) => keep.map((i) => c[i]!);
+  const pick = <T>(c: T[]) => keep.map((i) => c[i]!);
   return {
     input: {
       ...input,
@@ -82,7 +86,10 @@ function commonSatellitesOnly(input: NetworkEstimationInput, lonely: number): { 
   };
 }
 
-function expectEqual(net: NetworkEstimationOutput, dense: Omit<DenseNetworkResult, 'tau' | 'varianceFactor' | 'degreesOfFreedom' | 'clockCorrelation'>) {
+function expectEqual(
+  net: NetworkEstimationOutput,
+  dense: Omit<DenseNetworkResult, 'tau' | 'varianceFactor' | 'degreesOfFreedom' | 'clockCorrelation'>,
+) {
   net.stations.forEach((st, s) => {
     st.zwdNodes.forEach((n, j) => {
       expect(Math.abs(n.correctionM - dense.zwdM[s]![j]!)).toBeLessThan(ZWD_TOL);
@@ -103,7 +110,10 @@ function expectEqual(net: NetworkEstimationOutput, dense: Omit<DenseNetworkResul
 describe('double differences with their full covariance (dense, ml-matrix)', () => {
   it('4 stations, 1 h: equal to 1e-6 m and 1 % in σ, also relative σ and the σ of the network mean; lonely satellites dropped with a count', () => {
     const sim = smallNetwork(21, 4, 1);
-    const { input, lonelyObservations } = commonSatellitesOnly(toNetworkInput(sim, networkOptions({ outlierThreshold: null, referenceStation: 'ALDER' })), 4);
+    const { input, lonelyObservations } = commonSatellitesOnly(
+      toNetworkInput(sim, networkOptions({ outlierThreshold: null, referenceStation: 'ALDER' })),
+      4,
+    );
     expect(lonelyObservations).toBe(4);
     const net = estimateNetwork(input);
     expect(net.statistics.singleStationSatellites).toBe(4);
@@ -114,7 +124,10 @@ describe('double differences with their full covariance (dense, ml-matrix)', () 
 
   it('3 stations, 2 h, without gradients: equal', () => {
     const sim = smallNetwork(22, 3, 2);
-    const { input } = commonSatellitesOnly(toNetworkInput(sim, networkOptions({ outlierThreshold: null, gradients: null, referenceStation: 'ALDER' })), 0);
+    const { input } = commonSatellitesOnly(
+      toNetworkInput(sim, networkOptions({ outlierThreshold: null, gradients: null, referenceStation: 'ALDER' })),
+      0,
+    );
     expectEqual(estimateNetwork(input), denseDoubleDifference(input, 0));
   });
 });
@@ -149,7 +162,10 @@ describe('all clocks as explicit parameters (dense zero differences, ml-matrix)'
       if (!Number.isNaN(t) && (best < 0 || Math.abs(t) > Math.abs(dense.tau[best]!))) best = k;
     });
     expect(best).toBe(i);
-    const screened = estimateNetwork({ ...input, options: { ...input.options, outlierThreshold: 1e-6, outlierRejection: 'one-per-solution', maxRejections: 1 } });
+    const screened = estimateNetwork({
+      ...input,
+      options: { ...input.options, outlierThreshold: 1e-6, outlierRejection: 'one-per-solution', maxRejections: 1 },
+    });
     const first = screened.stations.flatMap((s) => s.rejected)[0]!;
     expect(first.index).toBe(i);
     expect(Math.abs(first.normalizedResidual / dense.tau[i]! - 1)).toBeLessThan(1e-6);

@@ -114,10 +114,34 @@ export function simulateNetwork(o: NetworkSimOptions): NetworkSim {
   const nodes = (interval: number) => Math.max(1, Math.ceil(o.durationS / interval - 1e-9) + 1);
   const truth: StationTruth[] = o.stations.map(() => ({
     zwdNodesM: randomWalkNodes(normal, nodes(o.zwd.intervalS), o.zwd.intervalS, o.zwd.randomWalkMPerSqrtH, o.zwd.initialSigmaM),
-    northNodesM: o.gradients ? randomWalkNodes(normal, nodes(o.gradients.intervalS), o.gradients.intervalS, o.gradients.randomWalkMPerSqrtH, o.gradients.initialSigmaM) : [],
-    eastNodesM: o.gradients ? randomWalkNodes(normal, nodes(o.gradients.intervalS), o.gradients.intervalS, o.gradients.randomWalkMPerSqrtH, o.gradients.initialSigmaM) : [],
+    northNodesM: o.gradients
+      ? randomWalkNodes(
+          normal,
+          nodes(o.gradients.intervalS),
+          o.gradients.intervalS,
+          o.gradients.randomWalkMPerSqrtH,
+          o.gradients.initialSigmaM,
+        )
+      : [],
+    eastNodesM: o.gradients
+      ? randomWalkNodes(
+          normal,
+          nodes(o.gradients.intervalS),
+          o.gradients.intervalS,
+          o.gradients.randomWalkMPerSqrtH,
+          o.gradients.initialSigmaM,
+        )
+      : [],
   }));
-  const obs: NetworkSim['observations'] = { station: [], epochMs: [], satellite: [], elevationRad: [], azimuthRad: [], residualM: [], sigmaM: [] };
+  const obs: NetworkSim['observations'] = {
+    station: [],
+    epochMs: [],
+    satellite: [],
+    elevationRad: [],
+    azimuthRad: [],
+    residualM: [],
+    sigmaM: [],
+  };
   const meanMotion = (2 * Math.PI) / ORBIT_PERIOD_S;
   const planes = 6;
   const satCount = planes * o.satellitesPerPlane;
@@ -162,7 +186,10 @@ export function simulateNetwork(o: NetworkSimOptions): NetworkSim {
         if (azimuth < 0) azimuth += 2 * Math.PI;
         const sigma = o.sigma0M / Math.sin(elevation);
         const signal =
-          niellWetMapping(st.latitudeDeg, elevation) * zwd + chenHerringMapping(elevation) * (Math.cos(azimuth) * gn + Math.sin(azimuth) * ge) + rc + satClock[i]!;
+          niellWetMapping(st.latitudeDeg, elevation) * zwd +
+          chenHerringMapping(elevation) * (Math.cos(azimuth) * gn + Math.sin(azimuth) * ge) +
+          rc +
+          satClock[i]!;
         obs.station.push(st.name);
         obs.epochMs.push(epochMs);
         obs.satellite.push(`G${String(i + 1).padStart(2, '0')}`);
@@ -185,7 +212,12 @@ export function simulateNetwork(o: NetworkSimOptions): NetworkSim {
   }
   grossErrorIndices.sort((a, b) => a - b);
   return {
-    stations: o.stations.map((st) => ({ name: st.name, latitudeRad: st.latitudeDeg * DEG, longitudeRad: st.longitudeDeg * DEG, heightM: st.heightM })),
+    stations: o.stations.map((st) => ({
+      name: st.name,
+      latitudeRad: st.latitudeDeg * DEG,
+      longitudeRad: st.longitudeDeg * DEG,
+      heightM: st.heightM,
+    })),
     observations: obs,
     truth,
     firstEpochMs: startMs,

@@ -77,9 +77,7 @@ function expectSameAsSingleStation(s: NetworkSim, options: ReturnType<typeof net
       expect(Math.abs(e.epochBiasM! - o.epochBiasM!)).toBeLessThan(1e-6);
       expect(e.observationsUsed).toBe(o.observationsUsed);
     });
-    expect(r.rejected.map((x) => x.satellite + x.epochMs)).toEqual(
-      single.rejected.map((x) => x.satellite + x.epochMs),
-    );
+    expect(r.rejected.map((x) => x.satellite + x.epochMs)).toEqual(single.rejected.map((x) => x.satellite + x.epochMs));
     r.rejected.forEach((x, i) => expect(Math.abs(x.normalizedResidual - single.rejected[i]!.normalizedResidual)).toBeLessThan(1e-6));
     expect(r.statistics.observationsUsed).toBe(single.statistics.observationsUsed);
   }

@@ -21,7 +21,14 @@ const DISTANT: SimStation[] = [
   stationAt('NORBURY', ...C, 5900, 250),
 ];
 
-function run(label: string, stations: SimStation[], hours: number, samplingS: number, gradients: boolean, satelliteClocks: 'estimated' | 'known') {
+function run(
+  label: string,
+  stations: SimStation[],
+  hours: number,
+  samplingS: number,
+  gradients: boolean,
+  satelliteClocks: 'estimated' | 'known',
+) {
   const sim = simulateNetwork({
     seed: 71,
     stations,
@@ -38,7 +45,12 @@ function run(label: string, stations: SimStation[], hours: number, samplingS: nu
     satelliteClockAmplitudeM: satelliteClocks === 'known' ? 0 : 300_000,
     grossErrors: 0,
   });
-  const options = networkOptions({ satelliteClocks, referenceStation: 'FENWICK', gradients: gradients ? networkOptions().gradients : null, scaleSigmas: true });
+  const options = networkOptions({
+    satelliteClocks,
+    referenceStation: 'FENWICK',
+    gradients: gradients ? networkOptions().gradients : null,
+    scaleSigmas: true,
+  });
   const out = estimateNetwork(toNetworkInput(sim, options));
   const mid = out.stations[0]!.epochs[Math.floor(out.stations[0]!.epochs.length / 2)]!.epochMs;
   const mm = (v: number) => (v * 1000).toFixed(1);
@@ -53,7 +65,9 @@ function run(label: string, stations: SimStation[], hours: number, samplingS: nu
   out.stations.forEach((r, s) => {
     const e = r.epochs.find((x) => x.epochMs === mid)!;
     const err = e.correctionM - truthZwd(sim, s, mid);
-    console.log(`| ${r.station} | ${mm(err)} | ${mm(e.sigmaM)} | ${s === ref ? '—' : mm(err - errRef)} | ${s === ref ? '—' : mm(e.relativeSigmaM)} |`);
+    console.log(
+      `| ${r.station} | ${mm(err)} | ${mm(e.sigmaM)} | ${s === ref ? '—' : mm(err - errRef)} | ${s === ref ? '—' : mm(e.relativeSigmaM)} |`,
+    );
   });
   for (const w of out.warnings) console.log(`warning: ${w}`);
   return out;
@@ -67,16 +81,38 @@ if (mode === 'cases') {
 } else {
   console.log('| session | gradients | σ(network mean), clocks estimated [mm] | clocks known [mm] | median σ relative [mm] |');
   console.log('|---|---|---|---|---|');
-  for (const [hours, sampling] of [[1, 60], [6, 60], [24, 30]] as const) {
+  for (const [hours, sampling] of [
+    [1, 60],
+    [6, 60],
+    [24, 30],
+  ] as const) {
     for (const g of [true, false]) {
       const sim = simulateNetwork({
-        seed: 72, stations: REGIONAL, startIso: '2026-08-12T00:00:00Z', durationS: hours * 3600, samplingS: sampling, minElevationDeg: 3, sigma0M: 0.003, satellitesPerPlane: 5,
-        zwd: { intervalS: 300, randomWalkMPerSqrtH: 0.01, initialSigmaM: 0.03 }, gradients: { intervalS: 21_600, randomWalkMPerSqrtH: 0.001, initialSigmaM: 0.0005 },
-        commonOffsetM: 0, receiverClockAmplitudeM: 300_000, satelliteClockAmplitudeM: 300_000, grossErrors: 0,
+        seed: 72,
+        stations: REGIONAL,
+        startIso: '2026-08-12T00:00:00Z',
+        durationS: hours * 3600,
+        samplingS: sampling,
+        minElevationDeg: 3,
+        sigma0M: 0.003,
+        satellitesPerPlane: 5,
+        zwd: { intervalS: 300, randomWalkMPerSqrtH: 0.01, initialSigmaM: 0.03 },
+        gradients: { intervalS: 21_600, randomWalkMPerSqrtH: 0.001, initialSigmaM: 0.0005 },
+        commonOffsetM: 0,
+        receiverClockAmplitudeM: 300_000,
+        satelliteClockAmplitudeM: 300_000,
+        grossErrors: 0,
       });
-      const out = estimateNetwork(toNetworkInput(sim, networkOptions({ outlierThreshold: null, gradients: g ? networkOptions().gradients : null })));
-      const rel = out.stations.filter((r) => r.station !== out.referenceStation).map((r) => r.medianRelativeSigmaM).sort((a, b) => a - b);
-      console.log(`| ${hours} h at ${sampling} s | ${g ? 'on' : 'off'} | ${(out.commonMode.meanZwdSigmaClocksEstimatedM! * 1000).toFixed(1)} | ${(out.commonMode.meanZwdSigmaClocksKnownM * 1000).toFixed(2)} | ${(rel[Math.floor(rel.length / 2)]! * 1000).toFixed(2)} |`);
+      const out = estimateNetwork(
+        toNetworkInput(sim, networkOptions({ outlierThreshold: null, gradients: g ? networkOptions().gradients : null })),
+      );
+      const rel = out.stations
+        .filter((r) => r.station !== out.referenceStation)
+        .map((r) => r.medianRelativeSigmaM)
+        .sort((a, b) => a - b);
+      console.log(
+        `| ${hours} h at ${sampling} s | ${g ? 'on' : 'off'} | ${(out.commonMode.meanZwdSigmaClocksEstimatedM! * 1000).toFixed(1)} | ${(out.commonMode.meanZwdSigmaClocksKnownM * 1000).toFixed(2)} | ${(rel[Math.floor(rel.length / 2)]! * 1000).toFixed(2)} |`,
+      );
     }
   }
 }
