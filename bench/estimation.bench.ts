@@ -19,26 +19,14 @@ import { estimateZwd } from '../src/estimation/estimate.js';
 import type { ZwdEstimationInput } from '../src/estimation/types.js';
 import { denseZwdEstimate } from '../test/helpers/dense-estimation.js';
 import { simulateSky } from '../test/helpers/realistic-sky.js';
-import { TEST_OPTIONS, toEstimationInput } from '../test/helpers/synthetic-input.js';
+import { skyInput, toEstimationInput } from '../test/helpers/synthetic-input.js';
 
 const LATITUDE_DEG = 46.2;
-const DEG = Math.PI / 180;
 
 /** Realistic days: one front, one gap and 100 gross errors per day. */
 function realisticDays(days: number): ZwdEstimationInput {
   const sky = simulateSky({ seed: 11, durationS: days * 86_400, grossErrors: 100 * days });
-  return {
-    latitudeRad: sky.options.latitudeDeg * DEG,
-    heightM: sky.options.heightM,
-    observations: {
-      epochMs: sky.epochMs,
-      satellite: sky.satellite,
-      elevationRad: sky.elevationRad,
-      azimuthRad: sky.azimuthRad,
-      residualM: sky.residualM,
-    },
-    options: structuredClone({ ...TEST_OPTIONS, scaleSigmas: true }),
-  };
+  return skyInput(sky);
 }
 
 interface Timing {

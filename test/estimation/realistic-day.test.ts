@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { estimateZwd } from '../../src/estimation/estimate.js';
 import type { ZwdEstimationOptions, ZwdEstimationOutput } from '../../src/estimation/types.js';
 import { simulateSky, type Sky, type SkyOptions } from '../helpers/realistic-sky.js';
-import { TEST_OPTIONS } from '../helpers/synthetic-input.js';
-import { DEG, MM } from '../helpers/units.js';
+import { REALISTIC_OPTIONS as DEFAULTS, skyInput } from '../helpers/synthetic-input.js';
+import { MM } from '../helpers/units.js';
 
 /**
  * Issue 10, "Done when": honest formal errors under realistic conditions, with DEFAULT options.
@@ -19,8 +19,6 @@ import { DEG, MM } from '../helpers/units.js';
  * 0.3–3, ZWD RMS < 2.5 mm, ≥ 95 % of the gross errors flagged, ≤ 1 % false rejections.
  */
 
-/** The HTTP API's defaults (TEST_OPTIONS mirrors them) with scale_sigmas on, as the route sends them. */
-const DEFAULTS: ZwdEstimationOptions = { ...TEST_OPTIONS, scaleSigmas: true };
 const SEEDS = [1, 2, 3];
 
 interface Figures {
@@ -34,18 +32,7 @@ interface Figures {
 }
 
 function estimate(sky: Sky, options: Partial<ZwdEstimationOptions> = {}): ZwdEstimationOutput {
-  return estimateZwd({
-    latitudeRad: sky.options.latitudeDeg * DEG,
-    heightM: sky.options.heightM,
-    observations: {
-      epochMs: sky.epochMs,
-      satellite: sky.satellite,
-      elevationRad: sky.elevationRad,
-      azimuthRad: sky.azimuthRad,
-      residualM: sky.residualM,
-    },
-    options: structuredClone({ ...DEFAULTS, ...options }),
-  });
+  return estimateZwd(skyInput(sky, options));
 }
 
 const mean = (xs: number[]) => xs.reduce((s, x) => s + x, 0) / xs.length;

@@ -4,7 +4,7 @@ import { ModelDomainError } from '../../src/domain/errors.js';
 import { estimateZwd } from '../../src/estimation/estimate.js';
 import type { ZwdEstimationOptions, ZwdEstimationOutput } from '../../src/estimation/types.js';
 import { simulateSky, type Sky } from '../helpers/realistic-sky.js';
-import { TEST_OPTIONS } from '../helpers/synthetic-input.js';
+import { REALISTIC_OPTIONS as DEFAULTS, skyInput } from '../helpers/synthetic-input.js';
 import { DEG, MM } from '../helpers/units.js';
 
 /**
@@ -13,21 +13,9 @@ import { DEG, MM } from '../helpers/units.js';
  * band, the wet mapping function of the caller's choice, nodes on round UTC epochs.
  * Data: test/helpers/realistic-sky.ts (seeded, independent of src/), white noise unless stated.
  */
-const DEFAULTS: ZwdEstimationOptions = { ...TEST_OPTIONS, scaleSigmas: true };
 
 function estimate(sky: Sky, options: Partial<ZwdEstimationOptions> = {}): ZwdEstimationOutput {
-  return estimateZwd({
-    latitudeRad: sky.options.latitudeDeg * DEG,
-    heightM: sky.options.heightM,
-    observations: {
-      epochMs: sky.epochMs,
-      satellite: sky.satellite,
-      elevationRad: sky.elevationRad,
-      azimuthRad: sky.azimuthRad,
-      residualM: sky.residualM,
-    },
-    options: structuredClone({ ...DEFAULTS, ...options }),
-  });
+  return estimateZwd(skyInput(sky, options));
 }
 
 const band = (out: ZwdEstimationOutput, lowerDeg: number) =>

@@ -5,6 +5,7 @@
 
 import type { SyntheticData } from '../../scripts/synthetic-residuals.js';
 import type { ZwdEstimationInput, ZwdEstimationOptions } from '../../src/estimation/types.js';
+import type { Sky } from './realistic-sky.js';
 
 const DEG = Math.PI / 180;
 
@@ -39,5 +40,24 @@ export function toEstimationInput(
       ...(withSigmas ? { sigmaM: o.sigmaM.slice() } : {}),
     },
     options: structuredClone({ ...TEST_OPTIONS, ...options }),
+  };
+}
+
+/** The HTTP API's defaults (TEST_OPTIONS mirrors them) with scale_sigmas on, as the route sends them. */
+export const REALISTIC_OPTIONS: ZwdEstimationOptions = { ...TEST_OPTIONS, scaleSigmas: true };
+
+/** A realistic-sky simulation (test/helpers/realistic-sky.ts) as the estimator's input. */
+export function skyInput(sky: Sky, options: Partial<ZwdEstimationOptions> = {}): ZwdEstimationInput {
+  return {
+    latitudeRad: sky.options.latitudeDeg * DEG,
+    heightM: sky.options.heightM,
+    observations: {
+      epochMs: sky.epochMs,
+      satellite: sky.satellite,
+      elevationRad: sky.elevationRad,
+      azimuthRad: sky.azimuthRad,
+      residualM: sky.residualM,
+    },
+    options: structuredClone({ ...REALISTIC_OPTIONS, ...options }),
   };
 }
