@@ -7,7 +7,9 @@
  * - each level has exactly one height (height_m above the ellipsoid, or geopotential_height_m, which
  *   is converted with normal gravity at the site latitude, gravity.ts, and the caller's geoid
  *   undulation) and exactly one humidity quantity (humidity.ts); different levels may use different
- *   quantities;
+ *   quantities; humidity may stop above some level (the levels above carry none, it may not resume;
+ *   the bottom level must carry it), and is then continued climatologically (humidity-extension.ts,
+ *   Smith 1966), which the result says;
  * - heights strictly increase and pressures strictly decrease from level to level;
  * - the top level is at least MIN_TOP_HEIGHT_M above the ellipsoid (above it the column is extended
  *   hydrostatically, extension.ts);
@@ -31,6 +33,7 @@ import { ModelDomainError } from '../errors.js';
 import { reducePressureHpa, reduceTemperatureC } from '../meteo/height-reduction.js';
 import { EPSILON } from './constants.js';
 import { geometricHeightFromGeopotentialM, type GravityAtLatitude } from './gravity.js';
+import { extendHumidityAbove, type HumidityExtension } from './humidity-extension.js';
 import {
   HUMIDITY_QUANTITIES,
   moistSaturationVapourPressureHpa,
@@ -77,6 +80,11 @@ export interface Column {
   vapourPressureHpa: Float64Array;
 }
 
+/** Validated levels; `humidityExtension` is set when humidity stopped below the top level. */
+export interface ValidatedColumn extends Column {
+  humidityExtension: HumidityExtension | null;
+}
+
 export interface PreparedColumn extends Column {
   /** Levels of the request that lie in the column (the bottom level may be interpolated or extended). */
   levelsUsed: number;
@@ -113,7 +121,7 @@ export function validateLevels(
   geoidUndulationM: number,
   warnings: string[],
   geoidSource: 'caller' | 'egm96' | 'none' = geoidUndulationM === 0 ? 'none' : 'caller',
-): Column {
+): ValidatedColumn {
   const n = levels.length;
   if (n < MIN_LEVELS || n > MAX_LEVELS) {
     throw new ModelDomainError('levels', `must hold ${MIN_LEVELS}..${MAX_LEVELS} levels, got ${n}`, 400);
@@ -125,6 +133,7 @@ export function validateLevels(
   const heightFields: string[] = new Array(n);
   let usesGeopotential = false;
   const extrapolated: number[] = [];
+  const lastHumidity = lastLevelWithHumidity(levels);
 
   for (let i = 0; i < n; i++) {
     const level = levels[i]!;
@@ -164,10 +173,13 @@ export function validateLevels(
 
     // Humidity: exactly one quantity.
     const given = HUMIDITY_QUANTITIES.filter((q) => level[HUMIDITY_FIELDS[q]] !== undefined);
+    if (i > lastHumidity) continue; // humidity stopped below: filled in after the loop
     if (given.length !== 1) {
       throw new ModelDomainError(
         given.length === 0 ? `levels.${i}` : at(i, given[1]!),
-        `give exactly one of ${HUMIDITY_QUANTITIES.join(', ')}${given.length ? ` (got ${given.join(' and ')})` : ''}`,
+        given.length === 0
+          ? `give exactly one of ${HUMIDITY_QUANTITIES.join(', ')}: humidity may stop above some level, but level ${lastHumidity} above this one carries humidity again`
+          : `give exactly one of ${HUMIDITY_QUANTITIES.join(', ')} (got ${given.join(' and ')})`,
         400,
       );
     }
@@ -207,6 +219,16 @@ export function validateLevels(
       400,
     );
   }
+  if (lastHumidity < 0) {
+    throw new ModelDomainError(
+      'levels.0',
+      `give exactly one of ${HUMIDITY_QUANTITIES.join(', ')}: at least the bottom level must carry humidity (humidity may stop above some level)`,
+      400,
+    );
+  }
+  const humidityExtension =
+    lastHumidity < n - 1 ? extendHumidityAbove(pressureHpa, temperatureK, heightM, vapourPressureHpa, lastHumidity) : null;
+  if (humidityExtension) warnings.push(humidityExtensionWarning(humidityExtension));
   if (extrapolated.length) {
     warnings.push(
       `${count(extrapolated.length, 'level')} colder than −45 °C ${extrapolated.length === 1 ? 'gives' : 'give'} humidity as relative humidity or dew point (${extrapolated.length === 1 ? 'level' : 'levels'} ${listIndices(extrapolated)}): the WMO-No. 8 saturation formula is extrapolated there (vapour pressures below 0.1 hPa)`,
@@ -222,7 +244,22 @@ export function validateLevels(
     );
   }
   checkLayers({ heightM, pressureHpa, temperatureK, vapourPressureHpa }, gravity, warnings);
-  return { heightM, pressureHpa, temperatureK, vapourPressureHpa };
+  return { heightM, pressureHpa, temperatureK, vapourPressureHpa, humidityExtension };
+}
+
+/** Index of the last level that gives any humidity quantity; −1 when none does. */
+function lastLevelWithHumidity(levels: readonly ProfileLevelInput[]): number {
+  for (let i = levels.length - 1; i >= 0; i--) {
+    if (HUMIDITY_QUANTITIES.some((q) => levels[i]![HUMIDITY_FIELDS[q]] !== undefined)) return i;
+  }
+  return -1;
+}
+
+function humidityExtensionWarning(x: HumidityExtension): string {
+  const saturated = x.levelsAtSaturation
+    ? `; at ${count(x.levelsAtSaturation, 'level')} the law exceeded saturation and saturation over water was used`
+    : '';
+  return `measured humidity stops at level ${x.lastHumidityLevel} (${fmt(x.lastHumidityPressureHpa)} hPa, ${fmt(x.lastHumidityHeightM)} m): the ${count(x.levelsExtended, 'level')} above carry specific humidity q = q(${fmt(x.lastHumidityPressureHpa)} hPa) · (p / ${fmt(x.lastHumidityPressureHpa)} hPa)^${x.lambda} (Smith 1966, climatological)${saturated}`;
 }
 
 function listIndices(indices: readonly number[], max = 8): string {

@@ -3,6 +3,7 @@
  * computation behind POST /v1/profile-delays, put together from the one-job files of this folder.
  *
  *   levels.ts      validate, convert heights and humidity, cut or extend the column at the site
+ *   humidity-extension.ts  climatological humidity above the last level that carries it
  *   extension.ts   dry isothermal hydrostatic extension above the top
  *   shells.ts      thin spherical shells with refractivity (refractivity.ts, compressibility.ts)
  *   integrate.ts   ZHD (pressure form, gravity.ts), ZWD, PWV, Tm
@@ -23,6 +24,7 @@ import { MAPPING_MIN_ELEVATION_DEG, mappingDefinedAt } from '../mapping/elevatio
 import type { MappingEvaluator } from '../mapping/types.js';
 import { PER_N_UNIT } from './constants.js';
 import { isothermalExtension } from './extension.js';
+import type { HumidityExtension } from './humidity-extension.js';
 import { gravityAtLatitude } from './gravity.js';
 import { zenithIntegrals } from './integrate.js';
 import { columnFromSite, validateLevels, type ProfileLevelInput } from './levels.js';
@@ -109,6 +111,8 @@ export interface ProfileDelaysResult {
     surfacePressureHpa: number;
     surfaceTemperatureK: number;
   };
+  /** Set when measured humidity stopped below the top level (humidity-extension.ts); null otherwise. */
+  humidityExtension: HumidityExtension | null;
   slants?: SlantResult[];
   warnings: string[];
 }
@@ -219,6 +223,7 @@ export function computeProfileDelays(input: ProfileDelaysInput): ProfileDelaysRe
       surfacePressureHpa: column.pressureHpa[0]!,
       surfaceTemperatureK: column.temperatureK[0]!,
     },
+    humidityExtension: levels.humidityExtension,
     ...(slants ? { slants } : {}),
     warnings,
   };

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { DEFAULT_MAPPING_MODEL } from '../../domain/mapping/registry.js';
 import { DEFAULT_REFRACTIVITY_CONSTANTS } from '../../domain/profile/refractivity.js';
+import { HUMIDITY_EXTENSION_METHOD } from '../../domain/profile/humidity-extension.js';
 import { MAX_LEVELS, MIN_LEVELS, MIN_TOP_HEIGHT_M } from '../../domain/profile/levels.js';
 import { REFRACTIVITY_CONSTANTS_KEYS } from '../../domain/profile/refractivity.js';
 import {
@@ -38,7 +39,7 @@ export const profileLevelSchema = strictObject({
   vapour_pressure_hpa: vapourPressureHpa().optional(),
   specific_humidity_kg_kg: bounded(0, 0.04, 'kg/kg', 'Specific humidity').optional(),
 }).describe(
-  'A level of the profile: exactly one of height_m and geopotential_height_m, and exactly one of relative_humidity_pct, dewpoint_c, vapour_pressure_hpa, specific_humidity_kg_kg (levels may differ in which)',
+  'A level of the profile: exactly one of height_m and geopotential_height_m, and exactly one of relative_humidity_pct, dewpoint_c, vapour_pressure_hpa, specific_humidity_kg_kg (levels may differ in which). Humidity may stop above some level: the levels above it then give none (it may not resume; the bottom level must give it), and their humidity is continued climatologically (humidity_extension in the response)',
 );
 
 export const profileDelaysRequest = strictObject({
@@ -77,6 +78,26 @@ export const profileDelaysRequest = strictObject({
     'Geoid undulation at the site, for geopotential heights; default: EGM96 at the site (the warnings say so)',
   ).optional(),
 });
+
+export const humidityExtensionSchema = z
+  .object({
+    method: z.literal(HUMIDITY_EXTENSION_METHOD),
+    description: z.string(),
+    last_humidity_level: z.number().int().describe('Index in levels of the last level that carries humidity: measured humidity stops here'),
+    last_humidity_pressure_hpa: z.number().describe('Pressure of that level [hPa]'),
+    last_humidity_height_m: z.number().describe('Height of that level above the ellipsoid [m]'),
+    last_humidity_specific_kg_kg: z.number().describe('Specific humidity of that level, q_h [kg/kg]'),
+    lambda: z.number().describe('Exponent of the power law q = q_h (p / p_h)^lambda [-]'),
+    levels_extended: z.number().int().describe('Levels above it whose humidity was filled in'),
+    levels_at_saturation: z
+      .number()
+      .int()
+      .describe('Of those, levels where the law exceeded saturation over water, which was used instead'),
+  })
+  .nullable()
+  .describe(
+    'How humidity was continued above the last level that carries it (Smith 1966 power law of pressure); null when every level carries humidity',
+  );
 
 export const profileSlantSchema = z.object({
   elevation_deg: z.number().describe('Vacuum (geometric) elevation of the outgoing ray [deg], as requested'),
@@ -138,7 +159,11 @@ export const profileDelaysResponse = z.object({
         .describe('1e-6 ∫N_h dz over the given heights [m]; equals zhd_m when heights and pressures are in hydrostatic balance'),
     })
     .describe('The column as computed'),
+  humidity_extension: humidityExtensionSchema,
   slants: z.array(profileSlantSchema).optional().describe('One per elevations_deg, in order; absent when no elevations were requested'),
   mapping_model: z.string().describe('The mapping function of model_mapping_*'),
   ...provenanceFields,
 });
+
+export type ProfileDelaysRequest = z.output<typeof profileDelaysRequest>;
+export type ProfileDelaysResponse = z.input<typeof profileDelaysResponse>;
