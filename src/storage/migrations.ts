@@ -70,6 +70,28 @@ CREATE TABLE delay_records (
 CREATE INDEX delay_records_fingerprint ON delay_records (model_fingerprint);
 `,
   },
+  {
+    version: 2,
+    name: 'soundings: profiles per station with their ZWD, PWV and Tm',
+    sql: `
+CREATE TABLE soundings (
+  station_id                  TEXT NOT NULL REFERENCES stations (station_id) ON DELETE CASCADE,
+  epoch_ms                    BIGINT NOT NULL,
+  zhd_m                       DOUBLE PRECISION NOT NULL,
+  zwd_m                       DOUBLE PRECISION NOT NULL,
+  ztd_m                       DOUBLE PRECISION NOT NULL,
+  pwv_mm                      DOUBLE PRECISION NOT NULL,
+  tm_k                        DOUBLE PRECISION,
+  last_humidity_pressure_hpa  DOUBLE PRECISION,
+  levels                      BIGINT NOT NULL,
+  warnings_json               TEXT NOT NULL,
+  model_fingerprint           TEXT NOT NULL REFERENCES model_sets (model_fingerprint),
+  stored_at                   TEXT NOT NULL,
+  profile_json                TEXT NOT NULL,
+  PRIMARY KEY (station_id, epoch_ms)
+);
+`,
+  },
 ];
 
 export function migrationSql(m: Migration, dialect: 'sqlite' | 'postgres'): string {

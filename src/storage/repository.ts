@@ -65,6 +65,34 @@ export interface StoredModelSet {
   models: ModelSet;
 }
 
+/**
+ * A sounding of a station (a vertical profile, e.g. a radiosonde ascent) with what was computed from it
+ * (src/domain/profile/profile-delays.ts). One per station and epoch: storing another replaces it.
+ */
+export interface SoundingRow {
+  /** Launch (nominal) epoch [ms]. */
+  epochMs: number;
+  zhdM: number;
+  zwdM: number;
+  ztdM: number;
+  pwvMm: number;
+  /** Weighted mean temperature [K]; null for a dry column. */
+  tmK: number | null;
+  /** Pressure of the last level with measured humidity [hPa]; null when every level carries humidity. */
+  lastHumidityPressureHpa: number | null;
+  /** Levels of the stored profile. */
+  levels: number;
+  warnings: string[];
+  modelFingerprint: string;
+  /** ISO 8601 UTC of the last write. */
+  storedAt: string;
+}
+
+/** A sounding with the profile as it was sent (JSON text of the profile-delays request). */
+export interface StoredSounding extends SoundingRow {
+  profileJson: string;
+}
+
 export interface WriteCounts {
   /** Keys that did not exist before. */
   inserted: number;
@@ -125,6 +153,18 @@ export interface Repository {
   countDelaySources(ranges: readonly StationRange[]): Promise<Map<string, Map<string, number>>>;
   /** Latest epoch of the series per station [ms] (stations with an empty series are absent). */
   latestEpochsMs(stationIds: readonly string[], series: 'met' | 'delays'): Promise<Map<string, number>>;
+
+  /**
+   * Stores a sounding and its model set in one transaction, replacing one of the same station and epoch;
+   * `created` tells which. sounding.modelFingerprint must equal modelSet.modelFingerprint.
+   */
+  putSounding(stationId: string, sounding: StoredSounding, modelSet: StoredModelSet): Promise<{ created: boolean }>;
+  /** Soundings of one station in [fromMs, toMs] without their profiles, ordered by epoch. */
+  readSoundings(stationId: string, range: TimeRange): Promise<SoundingRow[]>;
+  /** One sounding with its profile, or null. */
+  getSounding(stationId: string, epochMs: number): Promise<StoredSounding | null>;
+  /** Deletes one sounding; false when there was none. */
+  deleteSounding(stationId: string, epochMs: number): Promise<boolean>;
 
   /** Latest epoch stored for the station in the series [ms], or null when it is empty. */
   latestEpochMs(stationId: string, series: 'met' | 'delays'): Promise<number | null>;

@@ -8,7 +8,8 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { provenance } from '../../src/domain/provenance.js';
 import { createRepository, type StorageConfig } from '../../src/storage/factory.js';
-import type { DelayRow, MetRow, Repository } from '../../src/storage/repository.js';
+import { MIGRATIONS } from '../../src/storage/migrations.js';
+import type { DelayRow, MetRow, Repository, StoredSounding } from '../../src/storage/repository.js';
 import { UnknownStationError } from '../../src/storage/repository.js';
 import { BACKENDS } from '../helpers/storage.js';
 
@@ -38,6 +39,26 @@ function met(i: number, source = 'sensor-a', pressureHpa = 950 + i * 0.1): MetRo
 
 const MODELS = provenance({ mapping: 'niell', cutoff_deg: 7, random_walk_m_per_sqrt_h: 0.01 });
 const MODEL_SET = { modelFingerprint: MODELS.model_fingerprint, models: MODELS.models };
+
+const SOUNDING_MODELS = provenance({ refractivity: 'bevis-1994', humidity_extension: 'smith-1966-power-law (lambda 3)' });
+const SOUNDING_MODEL_SET = { modelFingerprint: SOUNDING_MODELS.model_fingerprint, models: SOUNDING_MODELS.models };
+
+function sounding(i: number, pwvMm = 18.5 + i): StoredSounding {
+  return {
+    epochMs: T0 + i * 12 * 60 * MIN,
+    zhdM: 2.21,
+    zwdM: pwvMm * 0.0065,
+    ztdM: 2.21 + pwvMm * 0.0065,
+    pwvMm,
+    tmK: i % 2 ? 271.4 : null,
+    lastHumidityPressureHpa: i % 2 ? 400.5 : null,
+    levels: 42 + i,
+    warnings: i % 2 ? ['measured humidity stops at level 20'] : [],
+    modelFingerprint: SOUNDING_MODEL_SET.modelFingerprint,
+    storedAt: new Date(T0 + i).toISOString(),
+    profileJson: JSON.stringify({ levels: [{ pressure_hpa: 1000 - i }] }),
+  };
+}
 
 function delay(i: number, source = 'estimator', fingerprint = MODEL_SET.modelFingerprint): DelayRow {
   return {
@@ -267,6 +288,30 @@ for (const backend of BACKENDS) {
       expect(await repo.readMet('QMR-1', all, 'sensor-a')).toHaveLength(600);
     });
 
+    it('stores, replaces, lists by range, reads back with the profile and deletes soundings; a station deletion removes them', async () => {
+      const { repo } = await fresh();
+      await repo.putStation('QMR-1', STATION);
+      await repo.putStation('QMR-2', STATION);
+      for (const i of [2, 0, 1, 3]) expect(await repo.putSounding('QMR-1', sounding(i), SOUNDING_MODEL_SET)).toEqual({ created: true });
+      await repo.putSounding('QMR-2', sounding(1, 99), SOUNDING_MODEL_SET);
+      expect(await repo.putSounding('QMR-1', sounding(1, 21.25), SOUNDING_MODEL_SET)).toEqual({ created: false });
+      // Inclusive range over soundings 1..2, ordered by epoch, without the profile.
+      const listed = await repo.readSoundings('QMR-1', { fromMs: sounding(1).epochMs, toMs: sounding(2).epochMs });
+      const { profileJson: _p1, ...one } = sounding(1, 21.25);
+      const { profileJson: _p2, ...two } = sounding(2);
+      expect(listed).toEqual([one, two]);
+      expect(await repo.getSounding('QMR-1', sounding(1).epochMs)).toEqual(sounding(1, 21.25));
+      expect(await repo.getSounding('QMR-1', sounding(1).epochMs + 1)).toBeNull();
+      expect(await repo.readModelSets([SOUNDING_MODEL_SET.modelFingerprint])).toEqual([SOUNDING_MODEL_SET]);
+      expect(await repo.deleteSounding('QMR-1', sounding(0).epochMs)).toBe(true);
+      expect(await repo.deleteSounding('QMR-1', sounding(0).epochMs)).toBe(false);
+      expect(await repo.readSoundings('QMR-1', { fromMs: 0, toMs: T0 * 2 })).toHaveLength(3);
+      await expect(repo.putSounding('NOPE', sounding(0), SOUNDING_MODEL_SET)).rejects.toBeInstanceOf(UnknownStationError);
+      await repo.deleteStation('QMR-1');
+      expect(await repo.readSoundings('QMR-1', { fromMs: 0, toMs: T0 * 2 })).toEqual([]);
+      expect((await repo.readSoundings('QMR-2', { fromMs: 0, toMs: T0 * 2 }))[0]!.pwvMm).toBe(99);
+    });
+
     if (backend.name === 'postgres') {
       it('two replicas starting at once migrate safely (advisory lock): both open, one schema version', async () => {
         const { config, cleanup } = await backend.fresh();
@@ -280,7 +325,7 @@ for (const backend of BACKENDS) {
         await client.connect();
         try {
           const versions = await client.query(`SELECT version FROM "${config.pgSchema}".schema_migrations ORDER BY version`);
-          expect(versions.rows.map((r) => r.version)).toEqual([1]);
+          expect(versions.rows.map((r) => r.version)).toEqual(MIGRATIONS.map((m) => m.version));
         } finally {
           await client.end();
         }

@@ -25,8 +25,10 @@ import type {
   Repository,
   Station,
   StationInput,
+  SoundingRow,
   StationRange,
   StoredModelSet,
+  StoredSounding,
   SurfaceMetRow,
   TimeRange,
   WriteCounts,
@@ -49,6 +51,14 @@ import {
   rangeReadSql,
   groupByStation,
 } from '../rows.js';
+import {
+  SOUNDING_SELECT,
+  SOUNDING_WITH_PROFILE_SELECT,
+  soundingFromArray,
+  soundingUpsertSql,
+  soundingValues,
+  storedSoundingFromArray,
+} from '../sounding-rows.js';
 
 /** Key of the advisory lock that serialises migrations (an arbitrary constant of this service). */
 export const MIGRATION_LOCK_KEY = 7_421_903_311;
@@ -361,6 +371,45 @@ export class PostgresRepository implements Repository {
       [fingerprints],
     );
     return result.rows.map((r) => ({ modelFingerprint: r.model_fingerprint, models: JSON.parse(r.models_json) }));
+  }
+
+  async putSounding(stationId: string, sounding: StoredSounding, modelSet: StoredModelSet): Promise<{ created: boolean }> {
+    if (sounding.modelFingerprint !== modelSet.modelFingerprint) throw new Error('sounding fingerprint differs from its model set');
+    return this.transaction(async (client) => {
+      await this.lockStation(client, stationId);
+      await client.query(
+        'INSERT INTO model_sets (model_fingerprint, models_json) VALUES ($1, $2) ON CONFLICT (model_fingerprint) DO NOTHING',
+        [modelSet.modelFingerprint, JSON.stringify(modelSet.models)],
+      );
+      const result = await client.query<{ inserted: boolean }>(
+        `${soundingUpsertSql((n) => `$${n}`)} RETURNING (xmax = 0) AS inserted`,
+        soundingValues(stationId, sounding),
+      );
+      return { created: result.rows[0]!.inserted };
+    });
+  }
+
+  async readSoundings(stationId: string, range: TimeRange): Promise<SoundingRow[]> {
+    const result = await this.pool.query<unknown[]>({
+      text: `SELECT ${SOUNDING_SELECT} FROM soundings WHERE station_id = $1 AND epoch_ms BETWEEN $2 AND $3 ORDER BY epoch_ms`,
+      values: [stationId, range.fromMs, range.toMs],
+      rowMode: 'array',
+    });
+    return result.rows.map(soundingFromArray);
+  }
+
+  async getSounding(stationId: string, epochMs: number): Promise<StoredSounding | null> {
+    const result = await this.pool.query<unknown[]>({
+      text: `SELECT ${SOUNDING_WITH_PROFILE_SELECT} FROM soundings WHERE station_id = $1 AND epoch_ms = $2`,
+      values: [stationId, epochMs],
+      rowMode: 'array',
+    });
+    return result.rows[0] ? storedSoundingFromArray(result.rows[0]) : null;
+  }
+
+  async deleteSounding(stationId: string, epochMs: number): Promise<boolean> {
+    const result = await this.pool.query('DELETE FROM soundings WHERE station_id = $1 AND epoch_ms = $2', [stationId, epochMs]);
+    return (result.rowCount ?? 0) > 0;
   }
 
   async latestEpochMs(stationId: string, series: 'met' | 'delays'): Promise<number | null> {

@@ -29,8 +29,10 @@ import type {
   Repository,
   Station,
   StationInput,
+  SoundingRow,
   StationRange,
   StoredModelSet,
+  StoredSounding,
   SurfaceMetRow,
   TimeRange,
   WriteCounts,
@@ -53,6 +55,14 @@ import {
   rangeReadSql,
   groupByStation,
 } from '../rows.js';
+import {
+  SOUNDING_SELECT,
+  SOUNDING_WITH_PROFILE_SELECT,
+  soundingFromArray,
+  soundingUpsertSql,
+  soundingValues,
+  storedSoundingFromArray,
+} from '../sounding-rows.js';
 
 export const SQLITE_FILE_NAME = 'tropodelay.sqlite';
 
@@ -383,6 +393,41 @@ export class SqliteRepository implements Repository {
       for (const row of this.readRange(table, withId, r.stationId, r, source)) out.push(row);
     }
     return out;
+  }
+
+  async putSounding(stationId: string, sounding: StoredSounding, modelSet: StoredModelSet): Promise<{ created: boolean }> {
+    if (sounding.modelFingerprint !== modelSet.modelFingerprint) throw new Error('sounding fingerprint differs from its model set');
+    const tx = this.db.transaction(() => {
+      if (!this.stmt.getStation.get(stationId)) throw new UnknownStationError(stationId);
+      this.stmt.insertModelSet.run(modelSet.modelFingerprint, JSON.stringify(modelSet.models));
+      const existed = this.db.prepare('SELECT 1 FROM soundings WHERE station_id = ? AND epoch_ms = ?').get(stationId, sounding.epochMs);
+      this.db.prepare(soundingUpsertSql(() => '?')).run(soundingValues(stationId, sounding));
+      return { created: !existed };
+    });
+    return withConflictRetry(async () => tx.immediate());
+  }
+
+  async readSoundings(stationId: string, range: TimeRange): Promise<SoundingRow[]> {
+    const rows = this.db
+      .prepare(`SELECT ${SOUNDING_SELECT} FROM soundings WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? ORDER BY epoch_ms`)
+      .raw(true)
+      .all(stationId, range.fromMs, range.toMs) as unknown[][];
+    return rows.map(soundingFromArray);
+  }
+
+  async getSounding(stationId: string, epochMs: number): Promise<StoredSounding | null> {
+    const row = this.db
+      .prepare(`SELECT ${SOUNDING_WITH_PROFILE_SELECT} FROM soundings WHERE station_id = ? AND epoch_ms = ?`)
+      .raw(true)
+      .get(stationId, epochMs) as unknown[] | undefined;
+    return row ? storedSoundingFromArray(row) : null;
+  }
+
+  async deleteSounding(stationId: string, epochMs: number): Promise<boolean> {
+    const tx = this.db.transaction(
+      () => this.db.prepare('DELETE FROM soundings WHERE station_id = ? AND epoch_ms = ?').run(stationId, epochMs).changes > 0,
+    );
+    return withConflictRetry(async () => tx.immediate());
   }
 
   async latestEpochMs(stationId: string, series: 'met' | 'delays'): Promise<number | null> {
