@@ -33,6 +33,7 @@ import stationDelaysRoute from './routes/station-delays.js';
 import stationMetRoute from './routes/station-met.js';
 import stationPwvRoute from './routes/station-precipitable-water.js';
 import stationZwdEstimatesRoute from './routes/station-zwd-estimates.js';
+import stationSoundingsRoute from './routes/station-soundings.js';
 import stationsRoute from './routes/stations.js';
 import zenithDelaysRoute from './routes/zenith-delays.js';
 import zwdEstimatesRoute from './routes/zwd-estimates.js';
@@ -171,6 +172,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(stationDelaysRoute, stationOptions);
   await app.register(stationPwvRoute, stationOptions);
   await app.register(stationZwdEstimatesRoute, stationOptions);
+  await app.register(stationSoundingsRoute, stationOptions);
   await app.register(networkPwvRoute, stationOptions);
   await app.register(profileDelaysRoute);
   await app.ready();
