@@ -25,6 +25,7 @@ import { loadOrCreateKeyFile } from '../src/http/plugins/auth.js';
 import { DEMO_DAYS, DEMO_SEEDS, DEMO_START_MS, FIXTURE_DIR, writeDemoFixtures } from './generate-fixtures.js';
 import { generateSyntheticResiduals, toRequestBody, truthZwdAt } from './synthetic-residuals.js';
 import { DEMO_NETWORK, gaussian, mulberry32, saastamoinenZhdM, truthSeries } from './synthetic/network.js';
+import { storeDemoSoundings } from './synthetic/soundings.js';
 
 const QUARTER_HOUR = 900_000;
 const ZTD_NOISE_M = 0.004;
@@ -137,6 +138,9 @@ try {
       `estimation ${s.stationId.padEnd(5)}: ${observations.length} residuals, ${res.series.length} epochs stored (met: ${res.met_used}, fingerprint ${res.model_fingerprint}); ZWD correction rms vs truth ${(Math.sqrt(sum2 / res.series.length) * 1000).toFixed(1)} mm\n`,
     );
   }
+
+  // Invented soundings at 00Z and 12Z (scripts/synthetic/soundings.ts), every other one without humidity above 400 hPa.
+  for (const line of await storeDemoSoundings(DEMO_NETWORK, DEMO_START_MS, DEMO_DAYS, DEMO_SEEDS, call)) process.stdout.write(`${line}\n`);
 
   const base = `http://${config.HOST}:${config.PORT}`;
   const from = new Date(DEMO_START_MS).toISOString();
