@@ -14,6 +14,8 @@ export interface PwvColumns {
   flagged: (number | null)[];
   pressure: (number | null)[];
   temperature: (number | null)[];
+  /** PWV of the soundings at their epochs (soundings.ts), null elsewhere; absent = no sounding series. */
+  sounding?: (number | null)[];
 }
 
 const LINE = '#23395b';
@@ -21,6 +23,8 @@ const BAND = 'rgba(35, 57, 91, 0.18)';
 const FLAG = '#b5179e';
 const PRESSURE = '#1b6e5a';
 const TEMPERATURE = '#8a4b08';
+/** Soundings: vermillion of the Okabe–Ito colour-blind-safe set. */
+export const SOUNDING = '#d55e00';
 
 /** Time axis labels in UTC, 24 h: times of day for spans up to 3 days, dates beyond. */
 function utcTicks(_u: uPlot, splits: number[]): string[] {
@@ -69,7 +73,18 @@ export class StationCharts {
       tzDate,
       axes: [timeAxis, { label: 'mm' }],
     };
-    this.pwv = new uPlot(pwvOpts, [c.t as unknown as number[], c.pwv, c.lower, c.upper, c.flagged] as uPlot.AlignedData, this.pwvBox);
+    const pwvData = [c.t as unknown as number[], c.pwv, c.lower, c.upper, c.flagged];
+    if (c.sounding) {
+      pwvOpts.series.push({
+        label: 'sounding PWV mm',
+        stroke: SOUNDING,
+        width: 0,
+        paths: () => null,
+        points: { show: true, size: 11, stroke: '#ffffff', fill: SOUNDING, width: 1.5 },
+      });
+      pwvData.push(c.sounding);
+    }
+    this.pwv = new uPlot(pwvOpts, pwvData as uPlot.AlignedData, this.pwvBox);
     const metOpts: uPlot.Options = {
       width: width(this.metBox),
       height: 200,

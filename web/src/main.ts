@@ -7,6 +7,7 @@ import { FLAG_TEXT, MARKED_FLAGS } from './flags.js';
 import { drawLegend, drawMap, type StationMap } from './map.js';
 import { FIXED_SCALE, fittedScale } from './palette.js';
 import { StationTable } from './table.js';
+import { loadSoundings, showSoundingStatistics, withSoundings, type StationSoundings } from './soundings.js';
 
 const $ = <T extends HTMLElement>(id: string) => document.getElementById(id) as T;
 const HOUR_MS = 3_600_000;
@@ -147,14 +148,17 @@ async function loadStation(): Promise<void> {
   const params: Record<string, string> = { stations: state.stationId, from, to };
   if (state.source) params.source = state.source;
   stationStatus.textContent = `Loading ${state.stationId}…`;
-  const answer = await getJson<NetworkAnswer>(networkUrl(params));
+  const [answer, soundings] = await Promise.all([
+    getJson<NetworkAnswer>(networkUrl(params)),
+    loadSoundings(state.stationId, from, to, state.source).catch((e: unknown) => e as Error),
+  ]);
   const records = answer.records;
   const known = new Set([...sourceSelect.options].map((o) => o.value));
   for (const s of answer.stations[0]?.sources ?? []) {
     if (!known.has(s)) sourceSelect.append(new Option(s, s));
   }
   performance.mark('station-data');
-  charts.draw(columns(records));
+  charts.draw(soundings instanceof Error ? columns(records) : withSoundings(columns(records), soundings.soundings));
   await new Promise<void>((resolve) => requestAnimationFrame(() => resolve()));
   performance.measure('station-draw', 'station-data');
   const counts = new Map<string, number>();
@@ -164,11 +168,17 @@ async function loadStation(): Promise<void> {
     Object.keys(FLAG_TEXT).map((f) => [`${f}: ${counts.get(f) ?? 0}`, FLAG_TEXT[f]!] as [string, string]),
   );
   definitionList($('coverage'), coverage(records));
+  showSoundings(soundings);
   $<HTMLAnchorElement>('station-csv').href = networkUrl({ ...params, format: 'csv' });
   $<HTMLAnchorElement>('station-nc').href = networkUrl({ ...params, format: 'netcdf' });
   const name = answer.stations[0]?.name ?? '';
   stationStatus.textContent = `${state.stationId} ${name}: ${records.length} epochs, ${from.slice(0, 16)}Z to ${to.slice(0, 16)}Z`;
   document.body.dataset.station = state.stationId;
+}
+
+function showSoundings(soundings: StationSoundings | Error): void {
+  if (soundings instanceof Error) definitionList($('sounding-stats'), [['soundings', `not available: ${soundings.message}`]]);
+  else showSoundingStatistics($('sounding-stats'), soundings);
 }
 
 async function pickStation(id: string): Promise<void> {
