@@ -30,7 +30,10 @@ if (skipReason) console.warn(skipReason);
 const ARTIFACTS = join(process.cwd(), 'test-artifacts', 'workspace');
 const START_MS = Date.UTC(2026, 6, 10);
 const H = 3_600_000;
-/** Inside the day the page shows first (the latest hour of the seeded two days, 2026-07-11T23Z): on a GNSS epoch, between two, and one more. */
+/**
+ * Inside the day the page shows first (ending at the latest seeded hour, 2026-07-11T23Z): on a GNSS epoch,
+ * between two, and one more.
+ */
 const SOUNDING_EPOCHS_MS = [24 * H, 30 * H + 2.5 * 60_000, 36 * H].map((d) => START_MS + d);
 
 describe.skipIf(skipReason !== null)('soundings on the workspace page in chromium', () => {
