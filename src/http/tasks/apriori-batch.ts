@@ -133,10 +133,9 @@ export function slantDelaysAnswer(body: SlantBody) {
   const mapping = prepareMapping(site, body.epoch, body.model, body.coefficients);
   const assumed = assumedHeightReferenceWarning(toCoefficients(body.coefficients));
   if (assumed) warnings.push(assumed);
-  const gradientMapping = GRADIENT_MODELS[body.gradient_model]!.prepare(mapping);
   const out = computeSlantDelays(
     mapping,
-    gradientMapping,
+    GRADIENT_MODELS[body.gradient_model]!,
     { zhdM, zwdM, northGradientM, eastGradientM },
     elevationsRad,
     azimuthsRad,
@@ -187,23 +186,19 @@ export function mappingFactorsAnswer(body: MappingBody) {
   const { site, epoch, elevations_deg, model, coefficients, gradient_model } = body;
   elevations_deg.forEach((e, i) => checkMappingElevation(e, `elevations_deg.${i}`));
   const mapping = prepareMapping(toSite(site), epoch, model, coefficients);
-  const gradientMapping = GRADIENT_MODELS[gradient_model]!.prepare(mapping);
   const n = elevations_deg.length;
-  const hydrostatic = new Array<number>(n);
-  const wet = new Array<number>(n);
-  const gradient = new Array<number>(n);
-  for (let i = 0; i < n; i++) {
-    const e = elevations_deg[i]! * DEG;
-    hydrostatic[i] = mapping.hydrostatic(e);
-    wet[i] = mapping.wet(e);
-    gradient[i] = gradientMapping(e);
-  }
+  const elevationsRad = Float64Array.from(elevations_deg, (e) => e * DEG);
+  const hydrostatic = new Float64Array(n);
+  const wet = new Float64Array(n);
+  const gradient = new Float64Array(n);
+  mapping.mapBatch(elevationsRad, hydrostatic, wet);
+  GRADIENT_MODELS[gradient_model]!.mapBatch(elevationsRad, hydrostatic, gradient);
   const assumed = assumedHeightReferenceWarning(toCoefficients(coefficients));
   return {
     model,
-    hydrostatic,
-    wet,
-    gradient,
+    hydrostatic: Array.from(hydrostatic),
+    wet: Array.from(wet),
+    gradient: Array.from(gradient),
     geoid_undulation_m: geoidUndulationM(site.latitude_deg, site.longitude_deg),
     ...provenance(mappingProvenance(model, gradient_model, coefficients)),
     warnings: [...(assumed ? [assumed] : []), ...lowElevationWarning(elevations_deg)],
