@@ -45,8 +45,3 @@ export async function answerBatchRequest(
   // Already serialised; the bytes are sent as they are.
   return reply.type(output.contentType ?? 'application/json').send(asBuffer(output.json) as never);
 }
-
-/** In a batch route's scope: Arrow IPC stream bodies reach the handler as a Buffer too (answerBatchRequest tells them apart). */
-export function acceptArrowBodies(app: FastifyInstance): void {
-  app.addContentTypeParser(ARROW_STREAM_TYPE, { parseAs: 'buffer' }, (_request, body, done) => done(null, body));
-}

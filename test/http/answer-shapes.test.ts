@@ -9,9 +9,11 @@
 
 import { tableFromArrays, tableFromIPC, tableToIPC, type Table } from 'apache-arrow';
 import { describe, expect, it } from 'vitest';
-import { mulberry32 } from '../../scripts/synthetic-residuals.js';
+import { generateSyntheticResiduals, mulberry32, toRequestBody } from '../../scripts/synthetic-residuals.js';
 import { OFFLOAD_BODY_BYTES } from '../../src/limits.js';
 import { problemFields, useApp } from '../helpers/app.js';
+import { useArchiveApp } from '../helpers/archive-app.js';
+import { BACKENDS } from '../helpers/storage.js';
 
 const ARROW = 'application/vnd.apache.arrow.stream';
 const site = { latitude_deg: 47.5, longitude_deg: 8.25, height_m: 420 };
@@ -259,3 +261,110 @@ describe('POST /v1/slant-delays in columns and Arrow', () => {
     });
   });
 });
+
+// Estimation: one hour of 30-s synthetic residuals with gross errors (scripts/synthetic-residuals.ts, known truth;
+// the object form is checked against a dense ml-matrix solve and the truth in zwd-estimates.test.ts).
+const ESTIMATION_SITE = { latitude_deg: 46.2, longitude_deg: 7.4, height_m: 520 };
+const estimation = toRequestBody(
+  generateSyntheticResiduals({ durationS: 3600, latitudeDeg: ESTIMATION_SITE.latitude_deg, seed: 14, grossErrors: 2 }),
+);
+const withSigma = estimation.observations.map((o, i) => (i % 3 === 0 ? { ...o, sigma_m: 0.004 } : o));
+const estimationBody = { site: ESTIMATION_SITE, apriori: { zhd_m: 2.17 }, options: { zwd_interval_s: 900 } };
+
+/** Columns of objects where some rows lack a field: that column holds null on those rows. */
+const columnsWithGaps = (rows: Record<string, unknown>[]) => {
+  const keys = [...new Set(rows.flatMap((r) => Object.keys(r)))];
+  return Object.fromEntries(keys.map((k) => [k, rows.map((r) => (k in r ? r[k] : null))]));
+};
+
+describe('POST /v1/zwd-estimates with observations as columns or an Arrow table', () => {
+  const api = useApp();
+
+  it('observations as column arrays (sigma_m null on some rows) answer exactly as observations as objects', async () => {
+    const objects = await api()
+      .post('/v1/zwd-estimates')
+      .send({ ...estimationBody, observations: withSigma })
+      .expect(200);
+    const columns = await api()
+      .post('/v1/zwd-estimates')
+      .send({ ...estimationBody, observations: columnsWithGaps(withSigma) })
+      .expect(200);
+    expect(columns.body).toEqual(objects.body);
+    expect(objects.body.statistics.observations_rejected).toBeGreaterThan(0);
+  });
+
+  it('an Arrow table of observations (the rest in the metadata) answers exactly as JSON', async () => {
+    const json = await api()
+      .post('/v1/zwd-estimates')
+      .send({ ...estimationBody, observations: estimation.observations })
+      .expect(200);
+    const o = estimation.observations;
+    const table = tableFromArrays({
+      epoch: o.map((r) => r.epoch),
+      satellite: o.map((r) => r.satellite),
+      elevation_deg: Float64Array.from(o, (r) => r.elevation_deg),
+      azimuth_deg: Float64Array.from(o, (r) => r.azimuth_deg),
+      residual_m: Float64Array.from(o, (r) => r.residual_m),
+    }) as Table;
+    table.schema.metadata.set('request', JSON.stringify(estimationBody));
+    const arrow = await api()
+      .post('/v1/zwd-estimates')
+      .set('content-type', ARROW)
+      .send(Buffer.from(tableToIPC(table, 'stream')))
+      .expect(200);
+    expect(arrow.body).toEqual(json.body);
+  });
+
+  it('a bad value in a column gets the message of the object form, naming column and row', async () => {
+    const cols = columnsWithGaps(estimation.observations) as Record<string, unknown[]>;
+    cols.elevation_deg![5] = -3;
+    cols.epoch![7] = '2026-13-01T00:00:00Z';
+    const res = await api()
+      .post('/v1/zwd-estimates')
+      .send({ ...estimationBody, observations: cols })
+      .expect(400);
+    const objects = estimation.observations.map((r, i) =>
+      i === 5 ? { ...r, elevation_deg: -3 } : i === 7 ? { ...r, epoch: '2026-13-01T00:00:00Z' } : r,
+    );
+    const ref = await api()
+      .post('/v1/zwd-estimates')
+      .send({ ...estimationBody, observations: objects })
+      .expect(400);
+    expect(problemFields(res.body).sort()).toEqual(['observations.elevation_deg.5', 'observations.epoch.7']);
+    const message = (body: { errors: { field: string; message: string }[] }, part: string) =>
+      body.errors.find((e) => e.field.includes(part))!.message;
+    expect(message(res.body, 'elevation_deg')).toBe(message(ref.body, 'elevation_deg'));
+    expect(message(res.body, 'epoch')).toBe(message(ref.body, 'epoch'));
+  });
+});
+
+for (const backend of BACKENDS) {
+  describe(`station estimation with observations as columns on ${backend.name}`, () => {
+    const { api, auth } = useArchiveApp(backend);
+
+    it('stores the same series as the object form', async () => {
+      await api()
+        .put('/v1/stations/COL1')
+        .set('authorization', auth)
+        .send({ name: 'Columns test (invented)', ...ESTIMATION_SITE })
+        .expect(201);
+      const { site: _site, ...body } = estimationBody;
+      const objects = await api()
+        .post('/v1/stations/COL1/zwd-estimates?source=objects')
+        .set('authorization', auth)
+        .send({ ...body, observations: estimation.observations })
+        .expect(200);
+      const columns = await api()
+        .post('/v1/stations/COL1/zwd-estimates?source=columns')
+        .set('authorization', auth)
+        .send({ ...body, observations: columnsWithGaps(estimation.observations) })
+        .expect(200);
+      expect(columns.body.series).toEqual(objects.body.series);
+      const read = async (source: string) =>
+        (await api().get(`/v1/stations/COL1/delays?source=${source}`).set('authorization', auth).expect(200)).body;
+      const [a, b] = [await read('objects'), await read('columns')];
+      expect(b.records.map((r: { ztd_m: number }) => r.ztd_m)).toEqual(a.records.map((r: { ztd_m: number }) => r.ztd_m));
+      expect(a.records.length).toBeGreaterThan(100);
+    });
+  });
+}

@@ -1,7 +1,7 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { BATCH_BODY_LIMIT_BYTES, OFFLOAD_BODY_BYTES } from '../../limits.js';
 import { answerShapeOf, answerShapeQuery, ARROW_STREAM_TYPE } from '../answer-shape.js';
-import { acceptArrowBodies, answerBatchRequest } from '../batch-body.js';
+import { answerBatchRequest } from '../batch-body.js';
 import { bodyInWorkerValidator, keepJsonBodiesAsBytes } from '../raw-body.js';
 import { problemSchema } from '../schemas/common.js';
 import { slantDelaysResponse } from '../schemas/slant-delays.js';
@@ -9,7 +9,6 @@ import { slantDelaysBody, handleSlantDelaysRequest, SLANT_FIELD_NAMES } from '..
 
 const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
   keepJsonBodiesAsBytes(app);
-  acceptArrowBodies(app);
   app.post(
     '/v1/slant-delays',
     {

@@ -406,6 +406,7 @@ function answerBatch<S extends z.ZodType>(
   input: BatchTaskInput,
 ): TaskOutcome<BatchTaskOutput> {
   try {
+    if (input.bodyFormat === 'arrow') return fail(415, [{ field: 'body', message: 'this route takes application/json only' }]);
     const parsed = schema.safeParse(parseJsonBody(input.body));
     if (!parsed.success) return fail(400, issuesToFieldErrors(parsed.error.issues));
     const json = new TextEncoder().encode(JSON.stringify(answer(parsed.data)));
