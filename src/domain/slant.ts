@@ -4,10 +4,12 @@
  *   slant = m_h(e) ZHD + m_w(e) ZWD + m_g(e) (G_N cos a + G_E sin a)     [m]
  *
  * (e.g. IERS Conventions (2010) eq. 9.12 with the gradient term of eq. 9.14). Inputs and outputs
- * are typed arrays so that a batch of 10^5 directions costs no allocation per direction.
+ * are typed arrays so that a batch of 10^5 directions costs no allocation per direction. The mapping
+ * factors come from the models' own batch loops (MappingEvaluator.mapBatch, GradientModel.mapBatch),
+ * so the speed does not depend on how many models have run in the process before.
  */
 
-import type { GradientMapping } from './gradients/gradient-mapping.js';
+import type { GradientModel } from './gradients/gradient-mapping.js';
 import type { MappingEvaluator } from './mapping/types.js';
 
 export interface ZenithForSlant {
@@ -41,7 +43,7 @@ export function allocateSlantBatch(n: number): SlantBatch {
 
 /**
  * @param mapping mapping function prepared for the site and epoch
- * @param gradientMapping gradient mapping function
+ * @param gradientModel gradient mapping model
  * @param zenith zenith delays and gradients [m]
  * @param elevationsRad vacuum elevations [rad], (0, π/2]
  * @param azimuthsRad azimuths from north through east [rad]
@@ -49,25 +51,20 @@ export function allocateSlantBatch(n: number): SlantBatch {
  */
 export function computeSlantDelays(
   mapping: MappingEvaluator,
-  gradientMapping: GradientMapping,
+  gradientModel: GradientModel,
   zenith: ZenithForSlant,
   elevationsRad: ArrayLike<number>,
   azimuthsRad: ArrayLike<number>,
   out: SlantBatch,
 ): SlantBatch {
   const { zhdM, zwdM, northGradientM, eastGradientM } = zenith;
+  mapping.mapBatch(elevationsRad, out.mappingHydrostatic, out.mappingWet);
+  gradientModel.mapBatch(elevationsRad, out.mappingHydrostatic, out.mappingGradient);
   for (let i = 0; i < elevationsRad.length; i++) {
-    const e = elevationsRad[i]!;
     const a = azimuthsRad[i]!;
-    const mh = mapping.hydrostatic(e);
-    const mw = mapping.wet(e);
-    const mg = gradientMapping(e);
-    const hyd = mh * zhdM;
-    const wet = mw * zwdM;
-    const grad = mg * (northGradientM * Math.cos(a) + eastGradientM * Math.sin(a));
-    out.mappingHydrostatic[i] = mh;
-    out.mappingWet[i] = mw;
-    out.mappingGradient[i] = mg;
+    const hyd = out.mappingHydrostatic[i]! * zhdM;
+    const wet = out.mappingWet[i]! * zwdM;
+    const grad = out.mappingGradient[i]! * (northGradientM * Math.cos(a) + eastGradientM * Math.sin(a));
     out.hydrostaticM[i] = hyd;
     out.wetM[i] = wet;
     out.gradientM[i] = grad;

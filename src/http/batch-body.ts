@@ -8,6 +8,7 @@
 import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import { OFFLOAD_BODY_BYTES } from '../limits.js';
 import type { TaskOutcome } from '../workers/task-outcome.js';
+import { ARROW_STREAM_TYPE } from './answer-shape.js';
 import { HttpProblem } from './problem.js';
 import { asBuffer, movableBytes } from './raw-body.js';
 import type { BatchTaskInput, BatchTaskOutput } from './tasks/apriori-batch.js';
@@ -24,20 +25,23 @@ export async function answerBatchRequest(
   reply: FastifyReply,
   task: BatchTaskName,
   inLoop: (input: BatchTaskInput) => Promise<TaskOutcome<BatchTaskOutput>>,
+  options: Omit<BatchTaskInput, 'body' | 'bodyFormat'> = {},
 ): Promise<FastifyReply> {
   const raw = request.body;
   if (!Buffer.isBuffer(raw)) {
     throw new HttpProblem(415, `content type ${request.headers['content-type'] ?? '(none)'} is not accepted here; send application/json`);
   }
+  const type = (request.headers['content-type'] ?? '').split(';')[0]!.trim().toLowerCase();
+  const bodyFormat = type === ARROW_STREAM_TYPE ? 'arrow' : 'json';
   let output: BatchTaskOutput;
   if (raw.byteLength <= OFFLOAD_BODY_BYTES) {
-    const outcome = await inLoop({ body: raw });
+    const outcome = await inLoop({ body: raw, bodyFormat, ...options });
     if (!outcome.ok) throw new HttpProblem(outcome.error.status, outcome.error.detail, outcome.error.errors);
     output = outcome.output;
   } else {
     const body = movableBytes(new Uint8Array(raw.buffer, raw.byteOffset, raw.byteLength));
-    output = await app.compute.run(task, { body }, [body.buffer]);
+    output = await app.compute.run(task, { body, bodyFormat, ...options }, [body.buffer]);
   }
   // Already serialised; the bytes are sent as they are.
-  return reply.type('application/json').send(asBuffer(output.json) as never);
+  return reply.type(output.contentType ?? 'application/json').send(asBuffer(output.json) as never);
 }

@@ -6,12 +6,14 @@
 
 import type { FastifyInstance, FastifyRequest, FastifySchemaCompiler } from 'fastify';
 import { validatorCompiler } from 'fastify-type-provider-zod';
+import { ARROW_STREAM_TYPE } from './answer-shape.js';
 import { HttpProblem } from './problem.js';
 
-/** In this plugin scope, application/json bodies reach the handler as a Buffer. */
+/** In this plugin scope, application/json (and Arrow IPC stream) bodies reach the handler as a Buffer. */
 export function keepJsonBodiesAsBytes(app: FastifyInstance): void {
   app.removeContentTypeParser('application/json');
   app.addContentTypeParser('application/json', { parseAs: 'buffer' }, (_request, body, done) => done(null, body));
+  app.addContentTypeParser(ARROW_STREAM_TYPE, { parseAs: 'buffer' }, (_request, body, done) => done(null, body));
 }
 
 /** Route validator: params and query as usual; the body passes through (validated in the worker). */
@@ -24,7 +26,7 @@ export const bodyInWorkerValidator: FastifySchemaCompiler<any> = (route) =>
 
 export interface RawBody {
   body: Uint8Array | string;
-  format: 'json' | 'csv';
+  format: 'json' | 'csv' | 'arrow';
 }
 
 /**
@@ -47,7 +49,11 @@ export const asBuffer = (bytes: Uint8Array): Buffer => Buffer.from(bytes.buffer,
 export function rawBodyOf(request: FastifyRequest): RawBody {
   const raw = request.body as Buffer | string;
   const type = (request.headers['content-type'] ?? '').split(';')[0]!.trim().toLowerCase();
-  const format = type === 'text/csv' ? 'csv' : type === 'application/json' ? 'json' : undefined;
-  if (!format) throw new HttpProblem(415, `content type ${type || '(none)'} is not accepted here; send application/json or text/csv`);
+  const format = type === 'text/csv' ? 'csv' : type === 'application/json' ? 'json' : type === ARROW_STREAM_TYPE ? 'arrow' : undefined;
+  if (!format)
+    throw new HttpProblem(
+      415,
+      `content type ${type || '(none)'} is not accepted here; send application/json or text/csv (or an Arrow IPC stream, ${ARROW_STREAM_TYPE})`,
+    );
   return { body: typeof raw === 'string' ? raw : movableBytes(new Uint8Array(raw.buffer, raw.byteOffset, raw.byteLength)), format };
 }

@@ -180,3 +180,42 @@ describe('gradient mapping functions', () => {
     }
   });
 });
+
+describe('batch forms (mapBatch) against the published forms, for every registered model', () => {
+  // The batch loops are separate code written for speed (src/domain/slant.ts); each must give what the
+  // single-elevation functions give, which the blocks above check against Niell's Table 3, VMF1, Chao
+  // and Chen & Herring. Site heights 0 and 1.2 km, both VMF1 height references.
+  const elevationsRad = Float64Array.from([1.5, 3, 5, 7, 10, 20, 45, 89.9, 90], (d) => d * DEG);
+  const contexts = [
+    { latitudeRad: 0.7, heightM: 0, dayOfYear: 50, coefficients: { ah: 0.0012, aw: 0.0006, heightReference: 'site' as const } },
+    { latitudeRad: -1.1, heightM: 1200, dayOfYear: 300.5, coefficients: { ah: 0.00125, aw: 0.0005, heightReference: 'sea-level' as const } },
+  ];
+
+  it('mapping functions: hydrostatic and wet equal the single-elevation forms to 1e-14 (relative)', () => {
+    for (const model of Object.values(MAPPING_MODELS)) {
+      for (const context of contexts) {
+        const m = model.prepare(context);
+        const h = new Float64Array(elevationsRad.length);
+        const w = new Float64Array(elevationsRad.length);
+        m.mapBatch(elevationsRad, h, w);
+        elevationsRad.forEach((e, i) => {
+          expect(Math.abs(h[i]! / m.hydrostatic(e) - 1), `${model.key} hydrostatic at ${e / DEG}°`).toBeLessThan(1e-14);
+          expect(Math.abs(w[i]! / m.wet(e) - 1), `${model.key} wet at ${e / DEG}°`).toBeLessThan(1e-14);
+        });
+      }
+    }
+  });
+
+  it('gradient mapping: equal to the single-elevation form, 0 at the zenith', () => {
+    const mapping = niell(45, 180, 400);
+    const h = new Float64Array(elevationsRad.length);
+    mapping.mapBatch(elevationsRad, h, new Float64Array(elevationsRad.length));
+    for (const model of Object.values(GRADIENT_MODELS)) {
+      const g = new Float64Array(elevationsRad.length);
+      model.mapBatch(elevationsRad, h, g);
+      const single = model.prepare(mapping);
+      elevationsRad.forEach((e, i) => expect(g[i]!, `${model.key} at ${e / DEG}°`).toBeCloseTo(single(e), 12));
+      expect(g.at(-1)).toBe(0);
+    }
+  });
+});

@@ -31,6 +31,11 @@ export interface GradientModel {
   key: string;
   citation: string;
   prepare(mapping: MappingEvaluator): GradientMapping;
+  /**
+   * The factor for a batch, out[i] at elevationsRad[i] [rad], given the hydrostatic mapping factors of
+   * the same elevations (the tilted form needs them); one loop per model, like MappingEvaluator.mapBatch.
+   */
+  mapBatch(elevationsRad: ArrayLike<number>, hydrostatic: Float64Array, out: Float64Array): void;
 }
 
 export const GRADIENT_MODELS: Record<string, GradientModel> = {
@@ -38,11 +43,20 @@ export const GRADIENT_MODELS: Record<string, GradientModel> = {
     key: 'chen-herring',
     citation: 'Chen & Herring (1997), C=0.0032',
     prepare: () => chenHerringGradientMapping,
+    mapBatch(elevationsRad, _hydrostatic, out) {
+      for (let i = 0; i < elevationsRad.length; i++) out[i] = chenHerringGradientMapping(elevationsRad[i]!);
+    },
   },
   tilting: {
     key: 'tilting',
     citation: 'tilted atmosphere m_h(e) cot(e) (MacMillan 1995)',
     prepare: (mapping) => (e) => (e >= ZENITH_RAD ? 0 : mapping.hydrostatic(e) / Math.tan(e)),
+    mapBatch(elevationsRad, hydrostatic, out) {
+      for (let i = 0; i < elevationsRad.length; i++) {
+        const e = elevationsRad[i]!;
+        out[i] = e >= ZENITH_RAD ? 0 : hydrostatic[i]! / Math.tan(e);
+      }
+    },
   },
 };
 

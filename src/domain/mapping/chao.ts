@@ -22,6 +22,13 @@ export function chaoMapping(elevationRad: number, a: number, b: number): number 
 const evaluator: MappingEvaluator = {
   hydrostatic: (e) => chaoMapping(e, CHAO_DRY.a, CHAO_DRY.b),
   wet: (e) => chaoMapping(e, CHAO_WET.a, CHAO_WET.b),
+  mapBatch(elevationsRad, outHydrostatic, outWet) {
+    for (let i = 0; i < elevationsRad.length; i++) {
+      const e = elevationsRad[i]!;
+      outHydrostatic[i] = chaoMapping(e, CHAO_DRY.a, CHAO_DRY.b);
+      outWet[i] = chaoMapping(e, CHAO_WET.a, CHAO_WET.b);
+    }
+  },
 };
 
 export const chaoModel: MappingModel = {

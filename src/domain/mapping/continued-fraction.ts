@@ -13,3 +13,16 @@ export function marini(sinElevation: number, a: number, b: number, c: number): n
   const bottom = sinElevation + a / (sinElevation + b / (sinElevation + c));
   return top / bottom;
 }
+
+/** The numerator of marini(): the normalisation to 1 at zenith, a constant of the coefficients [-]. */
+export function mariniNumerator(a: number, b: number, c: number): number {
+  return 1 + a / (1 + b / (1 + c));
+}
+
+/**
+ * marini() with its numerator computed once (mariniNumerator(a, b, c)): the batch loops evaluate one
+ * set of coefficients at many elevations, and the numerator's three divisions need not be repeated.
+ */
+export function mariniWithNumerator(sinElevation: number, numerator: number, a: number, b: number, c: number): number {
+  return numerator / (sinElevation + a / (sinElevation + b / (sinElevation + c)));
+}

@@ -8,6 +8,13 @@ import type { MappingEvaluator, MappingModel } from './types.js';
 const evaluator: MappingEvaluator = {
   hydrostatic: (e) => 1 / Math.sin(e),
   wet: (e) => 1 / Math.sin(e),
+  mapBatch(elevationsRad, outHydrostatic, outWet) {
+    for (let i = 0; i < elevationsRad.length; i++) {
+      const m = 1 / Math.sin(elevationsRad[i]!);
+      outHydrostatic[i] = m;
+      outWet[i] = m;
+    }
+  },
 };
 
 export const cosecantModel: MappingModel = {

@@ -21,7 +21,7 @@
  */
 
 import { DEG } from '../constants.js';
-import { marini } from './continued-fraction.js';
+import { marini, mariniNumerator, mariniWithNumerator } from './continued-fraction.js';
 import type { MappingContext, MappingEvaluator, MappingModel } from './types.js';
 
 /** Tabulated latitudes [deg]. */
@@ -122,6 +122,16 @@ export const niellModel: MappingModel = {
       },
       wet(elevationRad: number): number {
         return marini(Math.sin(elevationRad), w.a, w.b, w.c);
+      },
+      mapBatch(elevationsRad, outHydrostatic, outWet) {
+        const hc = NIELL_HEIGHT_CORRECTION;
+        const [topH, topW, topC] = [mariniNumerator(h.a, h.b, h.c), mariniNumerator(w.a, w.b, w.c), mariniNumerator(hc.a, hc.b, hc.c)];
+        for (let i = 0; i < elevationsRad.length; i++) {
+          const s = Math.sin(elevationsRad[i]!);
+          const heightCorrection = (1 / s - mariniWithNumerator(s, topC, hc.a, hc.b, hc.c)) * heightKm; // eq. 6, as niellHeightCorrection
+          outHydrostatic[i] = mariniWithNumerator(s, topH, h.a, h.b, h.c) + heightCorrection;
+          outWet[i] = mariniWithNumerator(s, topW, w.a, w.b, w.c);
+        }
       },
     };
   },

@@ -22,7 +22,7 @@
  * 0..0.001 (aw) (common practice) and validated by the API.
  */
 
-import { marini } from './continued-fraction.js';
+import { marini, mariniNumerator, mariniWithNumerator } from './continued-fraction.js';
 import { NIELL_HEIGHT_CORRECTION_NAME, niellHeightCorrection } from './niell.js';
 import type { CoefficientsHeightReference, MappingCoefficients, MappingContext, MappingEvaluator, MappingModel } from './types.js';
 import { ModelDomainError } from '../errors.js';
@@ -82,6 +82,15 @@ export const vmf1Model: MappingModel = {
       },
       wet(elevationRad: number): number {
         return marini(Math.sin(elevationRad), aw, VMF1_WET_B, VMF1_WET_C);
+      },
+      mapBatch(elevationsRad, outHydrostatic, outWet) {
+        const topH = mariniNumerator(ah, VMF1_HYDROSTATIC_B, ch);
+        const topW = mariniNumerator(aw, VMF1_WET_B, VMF1_WET_C);
+        for (let i = 0; i < elevationsRad.length; i++) {
+          const s = Math.sin(elevationsRad[i]!);
+          outHydrostatic[i] = mariniWithNumerator(s, topH, ah, VMF1_HYDROSTATIC_B, ch) + (correct ? niellHeightCorrection(s, heightKm) : 0);
+          outWet[i] = mariniWithNumerator(s, topW, aw, VMF1_WET_B, VMF1_WET_C);
+        }
       },
     };
   },

@@ -7,6 +7,7 @@ import { DEG } from '../../domain/constants.js';
 import type { Site } from '../../domain/site.js';
 import type { MetColumns } from '../../services/station-met.js';
 import { warningTexts } from '../../services/warnings.js';
+import type { ZwdObservationColumns } from '../../estimation/types.js';
 import type { ZwdEstimationRequest, ZwdEstimationResult } from '../../services/zwd-estimation.js';
 import { GRADIENTS_GROUP, ZWD_OPTIONS, type OptionSpec, type ZwdOptionValues } from '../../services/zwd-options.js';
 import type { ZwdEstimatesResponse, ZwdEstimationBody } from '../schemas/zwd-estimates.js';
@@ -23,9 +24,11 @@ export function toOptionValues(options: ZwdEstimationBody['options']): ZwdOption
   return values as ZwdOptionValues;
 }
 
-/** The validated body (site from the body or the station) → the domain request. `storedMet` serves when the body has no met. */
-export function toZwdRequest(site: Site, body: ZwdEstimationBody, storedMet?: MetColumns): ZwdEstimationRequest {
-  const n = body.observations.length;
+type ObservationObjects = Extract<ZwdEstimationBody['observations'], readonly unknown[]>;
+
+/** Observations as objects (validated) → domain columns (ms, radians). */
+export function observationsFromObjects(list: ObservationObjects): ZwdObservationColumns {
+  const n = list.length;
   const epochMs = new Array<number>(n);
   const satellite = new Array<string>(n);
   const elevationRad = new Array<number>(n);
@@ -33,7 +36,7 @@ export function toZwdRequest(site: Site, body: ZwdEstimationBody, storedMet?: Me
   const residualM = new Array<number>(n);
   let sigmaM: (number | null)[] | undefined;
   for (let i = 0; i < n; i++) {
-    const obs = body.observations[i]!;
+    const obs = list[i]!;
     epochMs[i] = Date.parse(obs.epoch);
     satellite[i] = obs.satellite;
     elevationRad[i] = obs.elevation_deg * DEG;
@@ -44,6 +47,49 @@ export function toZwdRequest(site: Site, body: ZwdEstimationBody, storedMet?: Me
       sigmaM[i] = obs.sigma_m;
     }
   }
+  return { epochMs, satellite, elevationRad, azimuthRad, residualM, sigmaM };
+}
+
+/**
+ * Observations as column arrays (checked by src/http/columns.ts) → domain columns. An epoch text is
+ * parsed once, however many satellites share it.
+ */
+export function observationsFromColumns(c: Record<string, unknown[] | undefined>): ZwdObservationColumns {
+  const epochs = c.epoch as string[];
+  const n = epochs.length;
+  const epochMs = new Array<number>(n);
+  let lastText = '';
+  let lastMs = NaN;
+  for (let i = 0; i < n; i++) {
+    const text = epochs[i]!;
+    if (text !== lastText) {
+      lastText = text;
+      lastMs = Date.parse(text);
+    }
+    epochMs[i] = lastMs;
+  }
+  const radians = (column: unknown[]) => Array.from(column as number[], (v) => v * DEG);
+  const sigma = c.sigma_m as (number | null)[] | undefined;
+  return {
+    epochMs,
+    satellite: c.satellite as string[],
+    elevationRad: radians(c.elevation_deg!),
+    azimuthRad: radians(c.azimuth_deg!),
+    residualM: c.residual_m as number[],
+    sigmaM: sigma?.some((v) => v !== null) ? sigma : undefined,
+  };
+}
+
+/**
+ * The validated body (site from the body or the station) and its observations in domain columns → the
+ * domain request. `storedMet` serves when the body has no met.
+ */
+export function toZwdRequest(
+  site: Site,
+  body: Omit<ZwdEstimationBody, 'observations'>,
+  observations: ZwdObservationColumns,
+  storedMet?: MetColumns,
+): ZwdEstimationRequest {
   const met: MetColumns | undefined = body.met
     ? {
         epochMs: body.met.map((r) => Date.parse(r.epoch)),
@@ -55,7 +101,7 @@ export function toZwdRequest(site: Site, body: ZwdEstimationBody, storedMet?: Me
       : undefined;
   return {
     site,
-    observations: { epochMs, satellite, elevationRad, azimuthRad, residualM, sigmaM },
+    observations,
     apriori: { zhdM: body.apriori?.zhd_m, zwdM: body.apriori?.zwd_m },
     met,
     options: toOptionValues(body.options),

@@ -44,17 +44,35 @@ export function bounded(min: number, max: number, unit: string, description: str
   const lower = options.exclusiveMin
     ? z.number({ error: message }).gt(min, { error: message })
     : z.number({ error: message }).gte(min, { error: message });
-  return lower.lte(max, { error: message }).describe(`${description} [${unit}], ${range}`);
+  const schema = lower.lte(max, { error: message }).describe(`${description} [${unit}], ${range}`);
+  NUMBER_RANGES.set(schema, { min, max, exclusiveMin: options.exclusiveMin === true, message });
+  return schema;
 }
+
+/**
+ * The range of a number schema made by bounded() or positive(), so that a column of 10^5 numbers can be
+ * checked in a plain loop with the schema's own message (src/http/columns.ts) instead of one zod parse
+ * per element. Same range, same message: one definition.
+ */
+export interface NumberRange {
+  min: number;
+  max: number;
+  exclusiveMin: boolean;
+  message: string;
+}
+const NUMBER_RANGES = new WeakMap<z.ZodType, NumberRange>();
+export const numberRangeOf = (schema: z.ZodType): NumberRange | undefined => NUMBER_RANGES.get(schema);
 
 /** A finite number > 0 (sigmas, intervals). */
 export function positive(unit: string, description: string, max = Number.MAX_VALUE) {
   const message = max === Number.MAX_VALUE ? `must be a number > 0 ${unit}` : `must be a number in (0, ${max}] ${unit}`;
-  return z
+  const schema = z
     .number({ error: message })
     .gt(0, { error: message })
     .lte(max, { error: message })
     .describe(`${description} [${unit}], > 0${max === Number.MAX_VALUE ? '' : `, at most ${max}`}`);
+  NUMBER_RANGES.set(schema, { min: 0, max, exclusiveMin: true, message });
+  return schema;
 }
 
 /** An array of 1..max items, with one message naming the allowed count, e.g. "must hold 1..100000 records". */

@@ -88,12 +88,23 @@ export const zwdOptionsSchema = strictObject({ ...fieldsOf(undefined), gradients
   .prefault({})
   .describe('Estimation options; every one has a default (docs/zwd-estimation.md lists them)');
 
+/** The observations as column arrays (documented form; checked by src/http/columns.ts, one loop per column). */
+export const zwdObservationColumnsSchema = strictObject(
+  Object.fromEntries(Object.entries(zwdObservationSchema.shape).map(([k, v]) => [k, z.array(v as z.ZodType)])),
+).describe(
+  `The observations as column arrays of equal length (1..${MAX_OBSERVATIONS}), one per field of an observation; sigma_m may be absent, or null on a row`,
+);
+
+const observationObjects = sizedArray(
+  z.array(zwdObservationSchema, { error: 'must be an array of observations' }),
+  MAX_OBSERVATIONS,
+  'observations',
+);
+
 export const zwdEstimationBody = strictObject({
-  observations: sizedArray(
-    z.array(zwdObservationSchema, { error: 'must be an array of observations' }),
-    MAX_OBSERVATIONS,
-    'observations',
-  ).describe('Residuals of one station, in any order; grouped by epoch'),
+  observations: z
+    .union([observationObjects, zwdObservationColumnsSchema])
+    .describe('Residuals of one station, in any order; grouped by epoch. An array of objects, or an object of column arrays'),
   apriori: zwdAprioriSchema.optional(),
   met: z
     .array(zwdMetRecordSchema, { error: 'must be an array of met records' })
@@ -106,6 +117,15 @@ export const zwdEstimationBody = strictObject({
 });
 
 export const zwdEstimatesRequest = zwdEstimationBody.extend({ site: siteSchema });
+
+/**
+ * The bodies as the worker checks them, by the form of their observations: objects (zod, field errors
+ * such as observations.3.elevation_deg), or columns (checked by src/http/columns.ts; the rest here).
+ */
+export const zwdEstimationObjectRows = zwdEstimationBody.extend({ observations: observationObjects });
+export const zwdEstimatesObjectRows = zwdEstimatesRequest.extend({ observations: observationObjects });
+export const zwdEstimationColumnarRest = zwdEstimationBody.extend({ observations: z.unknown() });
+export const zwdEstimatesColumnarRest = zwdEstimatesRequest.extend({ observations: z.unknown() });
 
 export type ZwdEstimationBody = z.output<typeof zwdEstimationBody>;
 

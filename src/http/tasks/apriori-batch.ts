@@ -27,7 +27,18 @@ import { FormatError } from '../../formats/format-error.js';
 import { issuesToFieldErrors } from '../field-errors.js';
 import { checkCoefficients, mappingFactorsRequest } from '../schemas/mapping-factors.js';
 import { precipitableWaterRequest } from '../schemas/precipitable-water.js';
-import { slantDelaysRequest } from '../schemas/slant-delays.js';
+import { slantDelaysColumnarRest, slantDelaysRequest, slantDirectionSchema, slantSatelliteSchema } from '../schemas/slant-delays.js';
+import { MAX_BATCH } from '../schemas/mapping-factors.js';
+import {
+  arrowAnswer,
+  ARROW_STREAM_TYPE,
+  COLUMN_DECIMALS,
+  readArrowRequest,
+  selectColumns,
+  type AnswerShape,
+  type FieldDecimals,
+} from '../answer-shape.js';
+import { columnSpecsOf, float64Column, readColumns } from '../columns.js';
 import {
   canonicalEpoch,
   lowElevationWarning,
@@ -48,74 +59,109 @@ export const precipitableWaterBody = precipitableWaterRequest;
 type MappingBody = z.output<typeof mappingFactorsRequest>;
 type PwvBody = z.output<typeof precipitableWaterRequest>;
 
-type SlantBody = z.output<typeof slantDelaysRequest>;
+type SlantFields = Omit<z.output<typeof slantDelaysColumnarRest>, 'directions' | 'satellites'>;
 
-/** Step 1: the directions as given (elevation, azimuth), or from satellite ECEF positions (look angles, nadir). */
+/** The rows of a slant-delays request as columns, whichever form they came in. */
+type SlantRows =
+  | { kind: 'directions'; elevationDeg: Float64Array; azimuthDeg: Float64Array }
+  | { kind: 'satellites'; id: string[]; xM: Float64Array; yM: Float64Array; zM: Float64Array };
+
+const SLANT_DIRECTION_COLUMNS = columnSpecsOf(slantDirectionSchema.shape);
+const SLANT_SATELLITE_COLUMNS = columnSpecsOf(slantSatelliteSchema.shape);
+
+/** The per-direction fields of the answer, with their decimals in a columns answer (answer-shape.ts). */
+export const SLANT_FIELDS: FieldDecimals = {
+  elevation_deg: COLUMN_DECIMALS.angleDeg,
+  azimuth_deg: COLUMN_DECIMALS.angleDeg,
+  satellite: undefined,
+  nadir_deg: COLUMN_DECIMALS.angleDeg,
+  mapping_hydrostatic: COLUMN_DECIMALS.mappingFactor,
+  mapping_wet: COLUMN_DECIMALS.mappingFactor,
+  mapping_gradient: COLUMN_DECIMALS.mappingFactor,
+  hydrostatic_m: COLUMN_DECIMALS.delayM,
+  wet_m: COLUMN_DECIMALS.delayM,
+  gradient_m: COLUMN_DECIMALS.delayM,
+  total_m: COLUMN_DECIMALS.delayM,
+};
+export const SLANT_FIELD_NAMES = Object.keys(SLANT_FIELDS);
+
+/** Step 1: the directions (elevation, azimuth) as given, or from satellite ECEF positions (look angles, nadir). */
 function directionsOf(
-  body: SlantBody,
+  rows: SlantRows,
   site: Site,
 ): { elevationsRad: Float64Array; azimuthsRad: Float64Array; nadirDeg: Float64Array | undefined } {
-  const n = body.directions?.length ?? body.satellites!.length;
+  if (rows.kind === 'directions') {
+    const n = rows.elevationDeg.length;
+    const elevationsRad = new Float64Array(n);
+    const azimuthsRad = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      checkMappingElevation(rows.elevationDeg[i]!, `directions.${i}.elevation_deg`);
+      elevationsRad[i] = rows.elevationDeg[i]! * DEG;
+      azimuthsRad[i] = rows.azimuthDeg[i]! * DEG;
+    }
+    return { elevationsRad, azimuthsRad, nadirDeg: undefined };
+  }
+  const n = rows.id.length;
   const elevationsRad = new Float64Array(n);
   const azimuthsRad = new Float64Array(n);
-  const nadirDeg = body.satellites ? new Float64Array(n) : undefined;
-  if (body.directions) {
-    body.directions.forEach((d, i) => {
-      checkMappingElevation(d.elevation_deg, `directions.${i}.elevation_deg`);
-      elevationsRad[i] = d.elevation_deg * DEG;
-      azimuthsRad[i] = d.azimuth_deg * DEG;
-    });
-    return { elevationsRad, azimuthsRad, nadirDeg };
-  }
+  const nadirDeg = new Float64Array(n);
   const latRad = site.latitudeDeg * DEG;
   const lonRad = site.longitudeDeg * DEG;
   const siteEcef = geodeticToEcef(latRad, lonRad, site.heightM);
-  body.satellites!.forEach((s, i) => {
-    const look = lookAngles(latRad, lonRad, siteEcef, { xM: s.x_m, yM: s.y_m, zM: s.z_m });
+  for (let i = 0; i < n; i++) {
+    const look = lookAngles(latRad, lonRad, siteEcef, { xM: rows.xM[i]!, yM: rows.yM[i]!, zM: rows.zM[i]! });
     if (!(look.elevationRad > 0)) {
       throw new ModelDomainError(
         `satellites.${i}`,
-        `satellite ${s.id} is at elevation ${(look.elevationRad / DEG).toFixed(3)}° from the site; elevations must be in (0, 90] deg`,
+        `satellite ${rows.id[i]} is at elevation ${(look.elevationRad / DEG).toFixed(3)}° from the site; elevations must be in (0, 90] deg`,
         400,
       );
     }
     checkMappingElevation(look.elevationRad / DEG, `satellites.${i}`);
     elevationsRad[i] = look.elevationRad;
     azimuthsRad[i] = look.azimuthRad;
-    nadirDeg![i] = look.nadirRad / DEG;
-  });
+    nadirDeg[i] = look.nadirRad / DEG;
+  }
   return { elevationsRad, azimuthsRad, nadirDeg };
 }
 
-/** Step 3: one answer entry per direction. */
-function slantEntries(
-  body: SlantBody,
+/** Step 3: the per-direction answer as columns (every field of SLANT_FIELDS that applies). */
+function slantColumns(
+  rows: SlantRows,
   out: ReturnType<typeof computeSlantDelays>,
-  elevationsDeg: Float64Array,
+  elevationsRad: Float64Array,
   azimuthsRad: Float64Array,
   nadirDeg: Float64Array | undefined,
-) {
-  const n = elevationsDeg.length;
-  const slants = new Array(n);
+): Record<string, Float64Array | string[]> {
+  return {
+    elevation_deg: rows.kind === 'directions' ? rows.elevationDeg : elevationsRad.map((e) => e / DEG),
+    azimuth_deg: (rows.kind === 'directions' ? rows.azimuthDeg : azimuthsRad.map((a) => a / DEG)).map(normaliseAzimuthDeg),
+    ...(rows.kind === 'satellites' ? { satellite: rows.id, nadir_deg: nadirDeg! } : {}),
+    mapping_hydrostatic: out.mappingHydrostatic,
+    mapping_wet: out.mappingWet,
+    mapping_gradient: out.mappingGradient,
+    hydrostatic_m: out.hydrostaticM,
+    wet_m: out.wetM,
+    gradient_m: out.gradientM,
+    total_m: out.totalM,
+  };
+}
+
+/** Columns → one object per direction (shape=rows), with the selected fields. */
+function slantEntries(columns: Record<string, Float64Array | string[]>, fields: readonly string[]) {
+  const present = fields.filter((f) => columns[f] !== undefined);
+  const n = columns.total_m!.length;
+  const slants = new Array<Record<string, number | string>>(n);
   for (let i = 0; i < n; i++) {
-    slants[i] = {
-      elevation_deg: body.directions ? body.directions[i]!.elevation_deg : elevationsDeg[i]!,
-      azimuth_deg: normaliseAzimuthDeg(body.directions ? body.directions[i]!.azimuth_deg : azimuthsRad[i]! / DEG),
-      ...(body.satellites ? { satellite: body.satellites[i]!.id, nadir_deg: nadirDeg![i]! } : {}),
-      mapping_hydrostatic: out.mappingHydrostatic[i]!,
-      mapping_wet: out.mappingWet[i]!,
-      mapping_gradient: out.mappingGradient[i]!,
-      hydrostatic_m: out.hydrostaticM[i]!,
-      wet_m: out.wetM[i]!,
-      gradient_m: out.gradientM[i]!,
-      total_m: out.totalM[i]!,
-    };
+    const entry: Record<string, number | string> = {};
+    for (const f of present) entry[f] = columns[f]![i]!;
+    slants[i] = entry;
   }
   return slants;
 }
 
-/** POST /v1/slant-delays: the answer to a validated body. */
-export function slantDelaysAnswer(body: SlantBody) {
+/** POST /v1/slant-delays: the answer to a validated request, its per-direction part as columns. */
+export function slantDelaysAnswer(body: SlantFields, rows: SlantRows) {
   const site = toSite(body.site);
   const warnings: string[] = [];
 
@@ -127,16 +173,15 @@ export function slantDelaysAnswer(body: SlantBody) {
   const northGradientM = body.zenith?.north_gradient_m ?? 0;
   const eastGradientM = body.zenith?.east_gradient_m ?? 0;
 
-  const { elevationsRad, azimuthsRad, nadirDeg } = directionsOf(body, site);
+  const { elevationsRad, azimuthsRad, nadirDeg } = directionsOf(rows, site);
   const n = elevationsRad.length;
 
   const mapping = prepareMapping(site, body.epoch, body.model, body.coefficients);
   const assumed = assumedHeightReferenceWarning(toCoefficients(body.coefficients));
   if (assumed) warnings.push(assumed);
-  const gradientMapping = GRADIENT_MODELS[body.gradient_model]!.prepare(mapping);
   const out = computeSlantDelays(
     mapping,
-    gradientMapping,
+    GRADIENT_MODELS[body.gradient_model]!,
     { zhdM, zwdM, northGradientM, eastGradientM },
     elevationsRad,
     azimuthsRad,
@@ -144,42 +189,96 @@ export function slantDelaysAnswer(body: SlantBody) {
   );
 
   const elevationsDeg = elevationsRad.map((e) => e / DEG);
-  warnings.push(...lowElevationWarning(elevationsDeg, body.directions ? 'directions' : 'satellites'));
-  const slants = slantEntries(body, out, elevationsDeg, azimuthsRad, nadirDeg);
+  warnings.push(...lowElevationWarning(elevationsDeg, rows.kind));
   return {
-    zenith: {
-      zhd_m: zhdM,
-      zwd_m: zwdM,
-      ztd_m: zhdM + zwdM,
-      north_gradient_m: northGradientM,
-      east_gradient_m: eastGradientM,
-      source: {
-        zhd: body.zenith?.zhd_m === undefined ? ('met' as const) : ('caller' as const),
-        zwd: body.zenith?.zwd_m === undefined ? ('met' as const) : ('caller' as const),
-        gradients:
-          body.zenith?.north_gradient_m === undefined && body.zenith?.east_gradient_m === undefined
-            ? ('none' as const)
-            : ('caller' as const),
+    columns: slantColumns(rows, out, elevationsRad, azimuthsRad, nadirDeg),
+    rest: {
+      zenith: {
+        zhd_m: zhdM,
+        zwd_m: zwdM,
+        ztd_m: zhdM + zwdM,
+        north_gradient_m: northGradientM,
+        east_gradient_m: eastGradientM,
+        source: {
+          zhd: body.zenith?.zhd_m === undefined ? ('met' as const) : ('caller' as const),
+          zwd: body.zenith?.zwd_m === undefined ? ('met' as const) : ('caller' as const),
+          gradients:
+            body.zenith?.north_gradient_m === undefined && body.zenith?.east_gradient_m === undefined
+              ? ('none' as const)
+              : ('caller' as const),
+        },
       },
+      ...(apriori
+        ? {
+            met_used: {
+              pressure_hpa: apriori.met.pressureHpa,
+              temperature_c: apriori.met.temperatureC,
+              vapour_pressure_hpa: apriori.met.vapourPressureHpa,
+              source: apriori.met.source,
+            },
+          }
+        : {}),
+      geoid_undulation_m: apriori?.geoidUndulationM ?? geoidUndulationM(site.latitudeDeg, site.longitudeDeg),
+      ...provenance({
+        ...(apriori ? zenithProvenance(body.wet_model) : { zhd: 'caller', zwd: 'caller' }),
+        ...mappingProvenance(body.model, body.gradient_model, body.coefficients),
+      }),
+      warnings,
     },
-    ...(apriori
-      ? {
-          met_used: {
-            pressure_hpa: apriori.met.pressureHpa,
-            temperature_c: apriori.met.temperatureC,
-            vapour_pressure_hpa: apriori.met.vapourPressureHpa,
-            source: apriori.met.source,
-          },
-        }
-      : {}),
-    slants,
-    geoid_undulation_m: apriori?.geoidUndulationM ?? geoidUndulationM(site.latitudeDeg, site.longitudeDeg),
-    ...provenance({
-      ...(apriori ? zenithProvenance(body.wet_model) : { zhd: 'caller', zwd: 'caller' }),
-      ...mappingProvenance(body.model, body.gradient_model, body.coefficients),
-    }),
-    warnings,
   };
+}
+
+/**
+ * Step 0: the request as fields + rows. Rows given as objects are checked by the route's zod schema;
+ * rows given as columns (JSON column arrays or an Arrow table) by src/http/columns.ts, one loop per
+ * column with the same rules and messages, and the rest by the schema without its rows.
+ */
+function slantRequestOf(raw: unknown): { ok: true; fields: SlantFields; rows: SlantRows } | { ok: false; outcome: TaskOutcome<never> } {
+  const given = (raw ?? {}) as { directions?: unknown; satellites?: unknown };
+  const columnar = [given.directions, given.satellites].some(
+    (r) => r !== undefined && r !== null && typeof r === 'object' && !Array.isArray(r),
+  );
+  if (!columnar) {
+    const parsed = slantDelaysBody.safeParse(raw);
+    if (!parsed.success) return { ok: false, outcome: fail(400, issuesToFieldErrors(parsed.error.issues)) };
+    const { directions, satellites, ...fields } = parsed.data;
+    const d = directions as { elevation_deg: number; azimuth_deg: number }[] | undefined;
+    const sat = satellites as { id: string; x_m: number; y_m: number; z_m: number }[] | undefined;
+    const rows: SlantRows = d
+      ? {
+          kind: 'directions',
+          elevationDeg: Float64Array.from(d, (r) => r.elevation_deg),
+          azimuthDeg: Float64Array.from(d, (r) => r.azimuth_deg),
+        }
+      : {
+          kind: 'satellites',
+          id: sat!.map((r) => r.id),
+          xM: Float64Array.from(sat!, (r) => r.x_m),
+          yM: Float64Array.from(sat!, (r) => r.y_m),
+          zM: Float64Array.from(sat!, (r) => r.z_m),
+        };
+    return { ok: true, fields, rows };
+  }
+  const rest = slantDelaysColumnarRest.safeParse(raw);
+  if (!rest.success) return { ok: false, outcome: fail(400, issuesToFieldErrors(rest.error.issues)) };
+  const isDirections = given.directions !== undefined;
+  const read = isDirections
+    ? readColumns(given.directions, 'directions', SLANT_DIRECTION_COLUMNS, MAX_BATCH, 'directions')
+    : readColumns(given.satellites, 'satellites', SLANT_SATELLITE_COLUMNS, MAX_BATCH, 'satellites');
+  if (!read.ok) return { ok: false, outcome: fail(400, read.errors) };
+  const c = read.columns;
+  const rows: SlantRows = isDirections
+    ? { kind: 'directions', elevationDeg: float64Column(c.elevation_deg)!, azimuthDeg: float64Column(c.azimuth_deg)! }
+    : { kind: 'satellites', id: c.id as string[], xM: float64Column(c.x_m)!, yM: float64Column(c.y_m)!, zM: float64Column(c.z_m)! };
+  const { directions: _d, satellites: _s, ...fields } = rest.data;
+  return { ok: true, fields: fields as SlantFields, rows };
+}
+
+/** An Arrow request: the table's columns are the rows (directions or satellites by their column names). */
+function slantArrowRequest(bytes: Uint8Array): unknown {
+  const { columns, rest } = readArrowRequest(bytes);
+  const kind = 'elevation_deg' in columns || 'azimuth_deg' in columns ? 'directions' : 'satellites';
+  return { ...(rest as object), [kind]: columns };
 }
 
 /** POST /v1/mapping-factors: the answer to a validated body. */
@@ -187,23 +286,19 @@ export function mappingFactorsAnswer(body: MappingBody) {
   const { site, epoch, elevations_deg, model, coefficients, gradient_model } = body;
   elevations_deg.forEach((e, i) => checkMappingElevation(e, `elevations_deg.${i}`));
   const mapping = prepareMapping(toSite(site), epoch, model, coefficients);
-  const gradientMapping = GRADIENT_MODELS[gradient_model]!.prepare(mapping);
   const n = elevations_deg.length;
-  const hydrostatic = new Array<number>(n);
-  const wet = new Array<number>(n);
-  const gradient = new Array<number>(n);
-  for (let i = 0; i < n; i++) {
-    const e = elevations_deg[i]! * DEG;
-    hydrostatic[i] = mapping.hydrostatic(e);
-    wet[i] = mapping.wet(e);
-    gradient[i] = gradientMapping(e);
-  }
+  const elevationsRad = Float64Array.from(elevations_deg, (e) => e * DEG);
+  const hydrostatic = new Float64Array(n);
+  const wet = new Float64Array(n);
+  const gradient = new Float64Array(n);
+  mapping.mapBatch(elevationsRad, hydrostatic, wet);
+  GRADIENT_MODELS[gradient_model]!.mapBatch(elevationsRad, hydrostatic, gradient);
   const assumed = assumedHeightReferenceWarning(toCoefficients(coefficients));
   return {
     model,
-    hydrostatic,
-    wet,
-    gradient,
+    hydrostatic: Array.from(hydrostatic),
+    wet: Array.from(wet),
+    gradient: Array.from(gradient),
     geoid_undulation_m: geoidUndulationM(site.latitude_deg, site.longitude_deg),
     ...provenance(mappingProvenance(model, gradient_model, coefficients)),
     warnings: [...(assumed ? [assumed] : []), ...lowElevationWarning(elevations_deg)],
@@ -278,18 +373,30 @@ export function precipitableWaterAnswer(body: PwvBody) {
 }
 
 export interface BatchTaskInput {
-  /** The request body as received (UTF-8 JSON), moved to the worker. */
+  /** The request body as received (UTF-8 JSON, or an Arrow IPC stream where the route takes one), moved to the worker. */
   body: Uint8Array;
+  bodyFormat?: 'json' | 'arrow';
+  /** The answer's shape, where the route offers shapes (answer-shape.ts); default rows as JSON. */
+  answer?: AnswerShape;
 }
 
 export interface BatchTaskOutput {
-  /** The answer as UTF-8 JSON (moved, not copied, back to the event loop). */
+  /** The answer's bytes, UTF-8 JSON unless contentType says otherwise (moved, not copied, back to the event loop). */
   json: Uint8Array;
+  contentType?: string;
   /** Items of the batch (directions, elevations or records), for the metrics. */
   observations: number;
 }
 
 const bodyText = (body: Uint8Array) => Buffer.from(body.buffer, body.byteOffset, body.byteLength).toString('utf8');
+
+function parseJsonBody(body: Uint8Array): unknown {
+  try {
+    return JSON.parse(bodyText(body));
+  } catch (err) {
+    throw new FormatError('body', `not valid JSON (${err instanceof Error ? err.message : String(err)})`);
+  }
+}
 
 /** Bytes → JSON → schema → answer → bytes; the caller's mistakes as data. */
 function answerBatch<S extends z.ZodType>(
@@ -299,13 +406,8 @@ function answerBatch<S extends z.ZodType>(
   input: BatchTaskInput,
 ): TaskOutcome<BatchTaskOutput> {
   try {
-    let raw: unknown;
-    try {
-      raw = JSON.parse(bodyText(input.body));
-    } catch (err) {
-      throw new FormatError('body', `not valid JSON (${err instanceof Error ? err.message : String(err)})`);
-    }
-    const parsed = schema.safeParse(raw);
+    if (input.bodyFormat === 'arrow') return fail(415, [{ field: 'body', message: 'this route takes application/json only' }]);
+    const parsed = schema.safeParse(parseJsonBody(input.body));
     if (!parsed.success) return fail(400, issuesToFieldErrors(parsed.error.issues));
     const json = new TextEncoder().encode(JSON.stringify(answer(parsed.data)));
     return { ok: true, output: { json, observations: size(parsed.data) } };
@@ -314,9 +416,30 @@ function answerBatch<S extends z.ZodType>(
   }
 }
 
-/** POST /v1/slant-delays as a task. */
+/** POST /v1/slant-delays as a task: the request in any form, the answer in the shape asked for. */
 export async function handleSlantDelaysRequest(input: BatchTaskInput): Promise<TaskOutcome<BatchTaskOutput>> {
-  return answerBatch(slantDelaysBody, slantDelaysAnswer, (b) => b.directions?.length ?? b.satellites?.length ?? 0, input);
+  try {
+    const raw = input.bodyFormat === 'arrow' ? slantArrowRequest(input.body) : parseJsonBody(input.body);
+    const request = slantRequestOf(raw);
+    if (!request.ok) return request.outcome;
+    const { columns, rest } = slantDelaysAnswer(request.fields, request.rows);
+    const shape = input.answer ?? { shape: 'rows', format: 'json', fields: undefined };
+    const observations = columns.total_m!.length;
+    if (shape.format === 'arrow') {
+      return { ok: true, output: { json: arrowAnswer(columns, shape.fields, rest), observations, contentType: ARROW_STREAM_TYPE } };
+    }
+    const slants =
+      shape.shape === 'columns'
+        ? selectColumns(columns, shape.fields, SLANT_FIELDS)
+        : slantEntries(columns, shape.fields ?? SLANT_FIELD_NAMES);
+    const { zenith, geoid_undulation_m, ...others } = rest;
+    const met = 'met_used' in others ? { met_used: others.met_used } : {};
+    // The key order of the rows answer as before: zenith, met_used, slants, geoid, provenance, warnings.
+    const answer = { zenith, ...met, slants, geoid_undulation_m, ...others };
+    return { ok: true, output: { json: new TextEncoder().encode(JSON.stringify(answer)), observations } };
+  } catch (err) {
+    return asOutcome(err);
+  }
 }
 
 /** POST /v1/mapping-factors as a task. */

@@ -16,22 +16,29 @@ import { CallerError } from '../../services/caller-error.js';
 import type { MetColumns } from '../../services/station-met.js';
 import { checkStorableDelays, delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
-import { toZwdRequest, zwdEstimatesResponseOf } from '../adapters/zwd-estimation.js';
+import type { ZwdObservationColumns } from '../../estimation/types.js';
+import { MAX_OBSERVATIONS } from '../../limits.js';
+import { observationsFromColumns, observationsFromObjects, toZwdRequest, zwdEstimatesResponseOf } from '../adapters/zwd-estimation.js';
+import { readArrowRequest } from '../answer-shape.js';
+import { columnSpecsOf, readColumns } from '../columns.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
 import { stationZwdEstimatesQuery } from '../schemas/station-zwd-estimates.js';
 import { asOutcome, fail } from './task-errors.js';
 import {
   optionsFromQuery,
   zwdCsvQuerySchema,
-  zwdEstimatesRequest,
-  zwdEstimationBody,
+  zwdEstimatesColumnarRest,
+  zwdEstimatesObjectRows,
+  zwdEstimationColumnarRest,
+  zwdEstimationObjectRows,
+  zwdObservationSchema,
   type ZwdEstimationBody,
 } from '../schemas/zwd-estimates.js';
 
 export interface ZwdRequestTaskInput {
-  /** The request body as received: JSON bytes or CSV text. */
+  /** The request body as received: JSON bytes, an Arrow IPC stream or CSV text. */
   body: Uint8Array | string;
-  format: 'json' | 'csv';
+  format: 'json' | 'csv' | 'arrow';
   /** Raw query parameters (options of a CSV request). */
   query: Record<string, unknown>;
   /** A station's estimation: the site is the station's (then `site` in the body is refused). */
@@ -64,7 +71,13 @@ const bodyText = (body: Uint8Array | string) =>
   typeof body === 'string' ? body : Buffer.from(body.buffer, body.byteOffset, body.byteLength).toString('utf8');
 
 /** The body as the JSON-equivalent object: a CSV table plus query options, or the parsed JSON. */
-function rawBody(input: ZwdRequestTaskInput, text: string, siteKnown: boolean): unknown {
+function rawBody(input: ZwdRequestTaskInput, siteKnown: boolean): unknown {
+  if (input.format === 'arrow') {
+    // The observations are the table; the rest of the request is JSON in the schema metadata "request".
+    const { columns, rest } = readArrowRequest(input.body as Uint8Array);
+    return { ...(rest !== null && typeof rest === 'object' ? rest : {}), observations: columns };
+  }
+  const text = bodyText(input.body);
   if (input.format === 'json') {
     try {
       return JSON.parse(text);
@@ -93,29 +106,60 @@ function rawBody(input: ZwdRequestTaskInput, text: string, siteKnown: boolean): 
   };
 }
 
+const OBSERVATION_COLUMNS = columnSpecsOf(zwdObservationSchema.shape);
+
+const isColumnObject = (v: unknown) => v !== null && typeof v === 'object' && !Array.isArray(v);
+
+type Validated =
+  | { ok: true; body: Omit<ZwdEstimationBody, 'observations'>; observations: ZwdObservationColumns; site?: Site }
+  | { ok: false; outcome: TaskOutcome<never> };
+
+/**
+ * The body checked against the route's schema. Observations as objects go through zod with the rest;
+ * observations as column arrays (JSON or Arrow) are checked by src/http/columns.ts, one loop per column
+ * with the same rules and messages, and the rest by the schema without them (issue 14: per-observation
+ * zod objects were most of a large request's cost).
+ */
+function validatedBody(raw: unknown, siteKnown: boolean): Validated {
+  const given = (raw ?? {}) as { observations?: unknown };
+  const columnar = isColumnObject(given.observations);
+  let observations: ZwdObservationColumns | undefined;
+  if (columnar) {
+    const read = readColumns(given.observations, 'observations', OBSERVATION_COLUMNS, MAX_OBSERVATIONS, 'observations');
+    if (!read.ok) return { ok: false, outcome: fail(400, read.errors) };
+    observations = observationsFromColumns(read.columns);
+  }
+  const schema = siteKnown
+    ? columnar
+      ? zwdEstimationColumnarRest
+      : zwdEstimationObjectRows
+    : columnar
+      ? zwdEstimatesColumnarRest
+      : zwdEstimatesObjectRows;
+  const parsed = schema.safeParse(raw);
+  if (!parsed.success) return { ok: false, outcome: fail(400, issuesToFieldErrors(parsed.error.issues)) };
+  const {
+    site: s,
+    observations: objects,
+    ...body
+  } = parsed.data as ZwdEstimationBody & { site?: { latitude_deg: number; longitude_deg: number; height_m: number } };
+  observations ??= observationsFromObjects(objects as Parameters<typeof observationsFromObjects>[0]);
+  const site = s ? { latitudeDeg: s.latitude_deg, longitudeDeg: s.longitude_deg, heightM: s.height_m } : undefined;
+  return { ok: true, body, observations, ...(site ? { site } : {}) };
+}
+
 /** POST /v1/zwd-estimates and POST /v1/stations/{id}/zwd-estimates: parse, validate, estimate, serialise. */
 export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<TaskOutcome<ZwdRequestTaskOutput>> {
   try {
     const station = input.station;
-    const raw = rawBody(input, bodyText(input.body), station !== undefined);
-    let site: Site;
-    let body: ZwdEstimationBody;
-    if (station) {
-      const parsed = zwdEstimationBody.safeParse(raw);
-      if (!parsed.success) return fail(400, issuesToFieldErrors(parsed.error.issues));
-      site = station.site;
-      body = parsed.data;
-    } else {
-      const parsed = zwdEstimatesRequest.safeParse(raw);
-      if (!parsed.success) return fail(400, issuesToFieldErrors(parsed.error.issues));
-      const { site: s, ...rest } = parsed.data;
-      site = { latitudeDeg: s.latitude_deg, longitudeDeg: s.longitude_deg, heightM: s.height_m };
-      body = rest;
-    }
-    const request = toZwdRequest(site, body, station?.storedMet);
+    const validated = validatedBody(rawBody(input, station !== undefined), station !== undefined);
+    if (!validated.ok) return validated.outcome;
+    const { body, observations } = validated;
+    const site = station?.site ?? validated.site!;
+    const request = toZwdRequest(site, body, observations, station?.storedMet);
     const result = runZwdEstimation(request);
-    if (!station)
-      return { ok: true, output: { json: utf8(JSON.stringify(zwdEstimatesResponseOf(result))), observations: body.observations.length } };
+    const count = observations.epochMs.length;
+    if (!station) return { ok: true, output: { json: utf8(JSON.stringify(zwdEstimatesResponseOf(result))), observations: count } };
 
     const metUsed = body.met !== undefined ? 'request' : request.met ? 'archive' : 'none';
     const metWarnings = [
@@ -132,7 +176,7 @@ export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<Task
       ok: true,
       output: {
         json: utf8(json.slice(0, -1)),
-        observations: body.observations.length,
+        observations: count,
         delays,
         modelFingerprint: result.modelFingerprint,
         models: result.models,
@@ -164,14 +208,22 @@ export async function scanZwdRequest(input: Pick<ZwdRequestTaskInput, 'body' | '
   let epochs: unknown[] = [];
   let hasMet = false;
   try {
-    const text = bodyText(input.body);
-    if (input.format === 'csv') {
-      epochs = readObservationCsv(text).map((r) => r.epoch);
+    if (input.format === 'arrow') {
+      const { columns, rest } = readArrowRequest(input.body as Uint8Array);
+      epochs = columns.epoch ?? [];
+      hasMet = rest !== null && typeof rest === 'object' && (rest as { met?: unknown }).met !== undefined;
+    } else if (input.format === 'csv') {
+      epochs = readObservationCsv(bodyText(input.body)).map((r) => r.epoch);
     } else {
+      const text = bodyText(input.body);
       const parsed = JSON.parse(text) as { observations?: unknown; met?: unknown } | null;
       hasMet = parsed !== null && typeof parsed === 'object' && parsed.met !== undefined;
       if (parsed && Array.isArray(parsed.observations))
         epochs = parsed.observations.map((o) => (o && typeof o === 'object' ? (o as { epoch?: unknown }).epoch : undefined));
+      else if (parsed && isColumnObject(parsed.observations)) {
+        const column = (parsed.observations as { epoch?: unknown }).epoch;
+        if (Array.isArray(column)) epochs = column;
+      }
     }
   } catch {
     return { ok: true, output: { range: null, hasMet, observations: 0, ...bytesBack(input.body) } };

@@ -1,0 +1,121 @@
+/**
+ * The shape of a batch answer, chosen by the caller: rows (an array of objects, the default), columns
+ * (one array per field, rounded to the documented precision) or Apache Arrow IPC (a binary stream of the
+ * same columns at full precision; pandas, polars and R read it directly), with a `fields` selection.
+ *
+ *   ?shape=columns&fields=elevation_deg,total_m           JSON, columns
+ *   Accept: application/vnd.apache.arrow.stream          Arrow IPC stream: the rows as a table, the rest
+ *                                                        of the answer as JSON in the schema metadata "answer"
+ */
+
+import { tableFromArrays, tableToIPC, tableFromIPC, type Table } from 'apache-arrow';
+import { z } from 'zod';
+import { FormatError } from '../formats/format-error.js';
+import { HttpProblem } from './problem.js';
+import { strictObject } from './schemas/common.js';
+
+export const ARROW_STREAM_TYPE = 'application/vnd.apache.arrow.stream';
+
+/** Decimal places of each quantity in a columns answer: what the models resolve, not more (documented in the API). */
+export const COLUMN_DECIMALS = {
+  angleDeg: 6, // 1e-6° ≈ 0.1 m of arc at a satellite's distance: far below any mapping sensitivity
+  mappingFactor: 8, // 1e-8 of a factor ≤ 50 at 3°: < 1e-8 m of a 2.3 m ZHD
+  delayM: 6, // 1 µm
+} as const;
+
+/** The per-row fields a batch answer can hold, each with its decimals in a columns answer (undefined: not a number). */
+export type FieldDecimals = Record<string, number | undefined>;
+
+export interface AnswerShape {
+  shape: 'rows' | 'columns';
+  format: 'json' | 'arrow';
+  /** Selected per-row fields, in the caller's order; undefined = all. */
+  fields: string[] | undefined;
+}
+
+/** The query of a batch route that offers answer shapes; `fields` is checked against the route's fields by answerShapeOf. */
+export const answerShapeQuery = strictObject({
+  shape: z
+    .enum(['rows', 'columns'], { error: 'must be one of: rows, columns' })
+    .default('rows')
+    .describe('rows: an array of objects (default); columns: one array per field, rounded to the documented precision'),
+  fields: z
+    .string()
+    .max(1000)
+    .optional()
+    .describe('Comma-separated per-row fields to return (default: all); applies to rows, columns and Arrow answers'),
+});
+
+/** The answer shape of a request: query + Accept header; an unknown field is a 400 naming the allowed ones. */
+export function answerShapeOf(query: z.output<typeof answerShapeQuery>, accept: string | undefined, known: readonly string[]): AnswerShape {
+  const fields = query.fields
+    ?.split(',')
+    .map((f) => f.trim())
+    .filter(Boolean);
+  const unknown = fields?.filter((f) => !known.includes(f)) ?? [];
+  if (unknown.length) {
+    const message = `unknown field ${unknown.join(', ')}; the fields are ${known.join(', ')}`;
+    throw new HttpProblem(400, `query.fields: ${message}`, [{ field: 'query.fields', message }]);
+  }
+  const format = accept?.split(',').some((t) => t.split(';')[0]!.trim().toLowerCase() === ARROW_STREAM_TYPE) ? 'arrow' : 'json';
+  return { shape: query.shape, format, fields: fields?.length ? fields : undefined };
+}
+
+const round = (decimals: number) => {
+  const scale = 10 ** decimals;
+  return (x: number) => Math.round(x * scale) / scale;
+};
+
+/** Typed or plain columns → the selected columns, rounded per field when `decimals` is given. */
+export function selectColumns(
+  columns: Record<string, ArrayLike<number> | readonly unknown[]>,
+  fields: readonly string[] | undefined,
+  decimals?: FieldDecimals,
+): Record<string, unknown[]> {
+  const out: Record<string, unknown[]> = {};
+  for (const name of fields ?? Object.keys(columns)) {
+    const column = columns[name];
+    if (!column) continue;
+    const d = decimals?.[name];
+    out[name] = d === undefined ? Array.from(column as ArrayLike<unknown>) : Array.from(column as ArrayLike<number>, round(d));
+  }
+  return out;
+}
+
+/** The rows as an Arrow IPC stream; `rest` (the answer without its rows) goes into the schema metadata "answer". */
+export function arrowAnswer(
+  columns: Record<string, Float64Array | string[]>,
+  fields: readonly string[] | undefined,
+  rest: unknown,
+): Uint8Array {
+  const chosen: Record<string, Float64Array | string[]> = {};
+  for (const name of fields ?? Object.keys(columns)) if (columns[name]) chosen[name] = columns[name];
+  const table = tableFromArrays(chosen) as Table;
+  table.schema.metadata.set('answer', JSON.stringify(rest));
+  return tableToIPC(table, 'stream');
+}
+
+/** An Arrow IPC stream request: its columns, and the rest of the request from the schema metadata "request" (JSON). */
+export function readArrowRequest(bytes: Uint8Array): { columns: Record<string, unknown[]>; rest: unknown } {
+  let table: Table;
+  try {
+    table = tableFromIPC(bytes);
+  } catch (err) {
+    throw new FormatError('body', `not an Arrow IPC stream (${err instanceof Error ? err.message : String(err)})`);
+  }
+  const columns: Record<string, unknown[]> = {};
+  for (const field of table.schema.fields) {
+    const vector = table.getChild(field.name)!;
+    columns[field.name] = Array.from(vector.toArray() as ArrayLike<unknown>, (v) => (typeof v === 'bigint' ? Number(v) : v));
+  }
+  const meta = table.schema.metadata.get('request');
+  let rest: unknown = {};
+  if (meta !== undefined) {
+    try {
+      rest = JSON.parse(meta);
+    } catch {
+      throw new FormatError('body.metadata.request', 'must be the rest of the request (everything but the rows) as JSON');
+    }
+  }
+  return { columns, rest };
+}
