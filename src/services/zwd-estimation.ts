@@ -20,7 +20,7 @@ import { precipitableWaterFromSurfaceMet } from '../domain/water-vapour/precipit
 import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
 import { estimateZwd } from '../estimation/estimate.js';
 import type { WetMappingChoice, ZwdEstimationOptions, ZwdEstimationOutput, ZwdObservationColumns } from '../estimation/types.js';
-import { STORED_ZTD_RANGE_M } from '../limits.js';
+import { STORED_ZTD_RANGE_M, STORED_ZWD_RANGE_M } from '../limits.js';
 import { CallerError } from './caller-error.js';
 import {
   azimuthUnitWarning,
@@ -353,7 +353,7 @@ function wetMappingChoice(request: ZwdEstimationRequest): WetMappingChoice {
     throw CallerError.field(
       400,
       'vmf1_coefficients',
-      `options.wet_mapping "${model}" needs per-epoch coefficients: vmf1_coefficients [{epoch, a_h, a_w}] spanning the observations`,
+      `options.wet_mapping "${model}" needs per-epoch coefficients: vmf1_coefficients [{epoch, a_h, a_w}] spanning the observations, in a JSON body (a text/csv request cannot carry them)`,
     );
   }
   const order = c.epochMs.map((_, i) => i).sort((a, b) => c.epochMs[a]! - c.epochMs[b]! || a - b);
@@ -447,4 +447,32 @@ export function checkStorableDelays(c: DelayColumns): void {
     `estimated ZTD outside the stored range [${min}, ${max}] m at ${bad.length} epochs: ${shown.join(', ')}${bad.length > 5 ? ', ...' : ''}; ` +
     'nothing stored. Residuals in millimetres instead of metres, or an a-priori far from the site, give this; check residual_m and apriori';
   throw CallerError.field(422, 'observations', message);
+}
+
+/**
+ * The ZWD a station estimation stores, by the deposit's own rule (STORED_ZWD_RANGE_M, src/limits.ts,
+ * 0..1 m): a series whose median ZWD is clearly negative (negativeZwdWarning: residuals of the
+ * opposite sign) is a 422 and nothing is stored; single epochs outside the range (a ZWD a little
+ * below 0 in a dry atmosphere, within its σ) keep their ZTD, and their ZWD is not stored (NaN here,
+ * null in the archive), with a warning counting them.
+ * @returns the warnings to add to the answer
+ */
+export function checkStorableZwd(c: DelayColumns): Warning[] {
+  const negative = negativeZwdWarning(Array.from(c.zwdM));
+  if (negative) throw CallerError.field(422, 'observations', `${negative.text}; nothing stored`);
+  const [min, max] = STORED_ZWD_RANGE_M;
+  let dropped = 0;
+  for (let k = 0; k < c.zwdM.length; k++) {
+    const v = c.zwdM[k]!;
+    if (v >= min && v <= max) continue;
+    c.zwdM[k] = Number.NaN;
+    dropped++;
+  }
+  if (dropped === 0) return [];
+  return [
+    warning(
+      'zwd-not-stored',
+      `${dropped} of ${c.zwdM.length} epochs have a ZWD outside the stored range [${min}, ${max}] m (a direct deposit would refuse it): their ZTD is stored, their ZWD is not (null in the archive)`,
+    ),
+  ];
 }

@@ -343,6 +343,7 @@ describe('the PWV σ budget is named in models on every PWV-producing route', ()
     const archive = useArchiveApp(sqliteBackend);
     it('GET /v1/stations/{id}/precipitable-water and GET /v1/network/precipitable-water', async () => {
       const { api: a, auth } = archive;
+      const { site: _site, ...stationBody } = body(); // the station is the site
       await a()
         .put('/v1/stations/BUDG')
         .set('authorization', auth)
@@ -456,5 +457,104 @@ describe('VMF1 per-epoch coefficients for the estimator (vmf1_coefficients, opti
       .send(body({ site: SITE, vmf1_coefficients: rows }))
       .expect(400);
     expect(problemFields(r.body)).toEqual(['vmf1_coefficients']);
+  });
+});
+
+describe('option query parameters with a JSON body are refused, not ignored', () => {
+  const api = useApp();
+
+  it('POST /v1/zwd-estimates?zwd_interval_s=600 with a JSON body: 400 naming query.zwd_interval_s', async () => {
+    const r = await api()
+      .post('/v1/zwd-estimates')
+      .query({ zwd_interval_s: '600', latitude_deg: '46.2' })
+      .send(body({ site: SITE }))
+      .expect(400);
+    expect(problemFields(r.body).sort()).toEqual(['query.latitude_deg', 'query.zwd_interval_s']);
+    expect(r.body.detail).toMatch(/with a JSON body give it in the body/);
+  });
+
+  it('the station route keeps ?source= with a JSON body and refuses an option there', async () => {
+    const { api: a, auth } = archive;
+    const { site: _site, ...stationBody } = body(); // the station is the site
+    await a()
+      .put('/v1/stations/QURY')
+      .set('authorization', auth)
+      .send({ name: 'Query Hollow (invented)', ...SITE })
+      .expect(201);
+    const ok = await a()
+      .post('/v1/stations/QURY/zwd-estimates')
+      .query({ source: 'trial' })
+      .set('authorization', auth)
+      .send(stationBody)
+      .expect(200);
+    expect(ok.body.stored.source).toBe('trial');
+    const r = await a()
+      .post('/v1/stations/QURY/zwd-estimates')
+      .query({ source: 'trial', gradients: 'off' })
+      .set('authorization', auth)
+      .send(stationBody)
+      .expect(400);
+    expect(problemFields(r.body)).toEqual(['query.gradients']);
+  });
+  const archive = useArchiveApp(sqliteBackend);
+});
+
+describe('the station estimation stores a ZWD only where a direct deposit would (STORED_ZWD_RANGE_M, 0..1 m)', () => {
+  const archive = useArchiveApp(sqliteBackend);
+  // A dry atmosphere: the truth ZWD starts at 0 and random-walks 10 mm/√h, so some epochs are below 0.
+  const dry = generateSyntheticResiduals({
+    durationS: 2 * H,
+    samplingS: 120,
+    latitudeDeg: SITE.latitude_deg,
+    seed: 5,
+    zwd: { intervalS: 300, randomWalkMPerSqrtH: 0.01, initialM: 0 },
+  });
+  const dryObservations = toRequestBody(dry).observations;
+
+  it('epochs with a ZWD below 0: ZTD stored, ZWD null, counted in a warning', async () => {
+    const { api: a, auth } = archive;
+    await a()
+      .put('/v1/stations/DRYX')
+      .set('authorization', auth)
+      .send({ name: 'Dry Cirque (invented)', ...SITE })
+      .expect(201);
+    const r = await a()
+      .post('/v1/stations/DRYX/zwd-estimates')
+      .set('authorization', auth)
+      .send({ observations: dryObservations, apriori: { zhd_m: 2.17, zwd_m: 0 } })
+      .expect(200);
+    const negative = r.body.series.filter((e: { zwd_m: number }) => e.zwd_m < 0).length;
+    expect(negative).toBeGreaterThan(0);
+    expect(warningsOf(r.body)).toMatch(new RegExp(`${negative} of ${r.body.series.length} epochs have a ZWD outside the stored range`));
+    const stored = await a()
+      .get('/v1/stations/DRYX/delays')
+      .query({ from: iso(T0 - H * 1000), to: iso(T0 + 3 * H * 1000) })
+      .expect(200);
+    const records = stored.body.records as { ztd_m: number; zwd_m: number | null }[];
+    expect(records).toHaveLength(r.body.series.length);
+    expect(records.filter((x) => x.zwd_m === null)).toHaveLength(negative);
+    expect(records.every((x) => x.ztd_m > 2)).toBe(true);
+  });
+
+  it('residuals with the opposite sign (median ZWD below −10 mm): 422, nothing stored', async () => {
+    const { api: a, auth } = archive;
+    await a()
+      .put('/v1/stations/FLIP')
+      .set('authorization', auth)
+      .send({ name: 'Flip Ridge (invented)', ...SITE })
+      .expect(201);
+    const flipped = requestBody.observations.map((o) => ({ ...o, residual_m: -o.residual_m }));
+    const r = await a()
+      .post('/v1/stations/FLIP/zwd-estimates')
+      .set('authorization', auth)
+      .send({ observations: flipped, apriori: { zhd_m: 2.17, zwd_m: 0 } })
+      .expect(422);
+    expect(problemFields(r.body)).toEqual(['observations']);
+    expect(r.body.detail).toMatch(/opposite sign.*nothing stored/);
+    const stored = await a()
+      .get('/v1/stations/FLIP/delays')
+      .query({ from: iso(T0 - H * 1000), to: iso(T0 + 3 * H * 1000) })
+      .expect(200);
+    expect(stored.body.records ?? []).toHaveLength(0);
   });
 });

@@ -14,7 +14,7 @@ import { FormatError } from '../../formats/format-error.js';
 import { readObservationCsv } from '../../formats/observation-csv.js';
 import { CallerError } from '../../services/caller-error.js';
 import type { MetColumns } from '../../services/station-met.js';
-import { checkStorableDelays, delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
+import { checkStorableDelays, checkStorableZwd, delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import { toZwdRequest, zwdEstimatesResponseOf } from '../adapters/zwd-estimation.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
@@ -34,6 +34,8 @@ export interface ZwdRequestTaskInput {
   format: 'json' | 'csv';
   /** Raw query parameters (options of a CSV request). */
   query: Record<string, unknown>;
+  /** The query parameter names as sent (raw-body.ts sentQueryKeys); absent = those of `query`. */
+  queryKeys?: string[] | undefined;
   /** A station's estimation: the site is the station's (then `site` in the body is refused). */
   station?: {
     site: Site;
@@ -63,9 +65,25 @@ const utf8 = (text: string): Uint8Array => new TextEncoder().encode(text);
 const bodyText = (body: Uint8Array | string) =>
   typeof body === 'string' ? body : Buffer.from(body.buffer, body.byteOffset, body.byteLength).toString('utf8');
 
+/**
+ * The site, a-priori and option query parameters belong to text/csv bodies; with a JSON body they
+ * would be ignored while the body's (or the default) values are used, so they are a 400 naming each
+ * (`source`, the stored series of a station's estimation, applies to both).
+ */
+function refuseCsvQueryWithJson(queryKeys: readonly string[]): void {
+  const ignored = queryKeys.filter((k) => k !== 'source');
+  if (ignored.length === 0) return;
+  const errors = ignored.map((k) => ({
+    field: `query.${k}`,
+    message: 'a query parameter of text/csv bodies; with a JSON body give it in the body (site, apriori, options)',
+  }));
+  throw new CallerError(400, detailOf(errors), errors);
+}
+
 /** The body as the JSON-equivalent object: a CSV table plus query options, or the parsed JSON. */
 function rawBody(input: ZwdRequestTaskInput, text: string, siteKnown: boolean): unknown {
   if (input.format === 'json') {
+    refuseCsvQueryWithJson(input.queryKeys ?? Object.keys(input.query ?? {}));
     try {
       return JSON.parse(text);
     } catch (err) {
@@ -127,6 +145,7 @@ export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<Task
     ];
     const delays = delayColumns(result);
     checkStorableDelays(delays);
+    metWarnings.push(...checkStorableZwd(delays).map((w) => w.text));
     const json = JSON.stringify({ ...zwdEstimatesResponseOf(result, metWarnings), met_used: metUsed });
     return {
       ok: true,
