@@ -343,7 +343,6 @@ describe('the PWV σ budget is named in models on every PWV-producing route', ()
     const archive = useArchiveApp(sqliteBackend);
     it('GET /v1/stations/{id}/precipitable-water and GET /v1/network/precipitable-water', async () => {
       const { api: a, auth } = archive;
-      const { site: _site, ...stationBody } = body(); // the station is the site
       await a()
         .put('/v1/stations/BUDG')
         .set('authorization', auth)

@@ -76,7 +76,8 @@ describe('POST /v1/zwd-estimates with a JSON body', () => {
     // The standard atmosphere is defined above sea level: H = h − N, N = 51.39 m here (EGM96, as the
     // a-priori routes report it for this place, test/http/science-defects.test.ts).
     expect(Math.abs(res.body.geoid_undulation_m - 51.39)).toBeLessThan(0.01 * M);
-    const pressureHpa = 1013.25 * Math.pow(1 - 2.26e-5 * (SITE.height_m - res.body.geoid_undulation_m), 5.225); // Berg (1948), textbook form
+    const seaLevelHeightM = SITE.height_m - res.body.geoid_undulation_m;
+    const pressureHpa = 1013.25 * Math.pow(1 - 2.26e-5 * seaLevelHeightM, 5.225); // Berg (1948), textbook form
     expect(res.body.apriori).toEqual({ zhd_m: expect.any(Number), zwd_m: 0, zhd_source: 'standard-atmosphere' });
     expect(Math.abs(res.body.apriori.zhd_m - saastamoinenZhdM(pressureHpa))).toBeLessThan(1e-9 * M);
     expect(res.body.warnings.join(' ')).toMatch(/apriori\.zhd_m not given/);
