@@ -186,7 +186,7 @@ const metQualitySchema = z.enum(['measured', 'interpolated', 'missing']);
 export const zwdNodeResponse = z.object({
   epoch: z.string().describe('Node epoch jΔ on round UTC epochs'),
   correction_m: z.number().describe('Estimated correction δw to the a-priori ZWD [m]'),
-  zwd_m: z.number().describe('A-priori ZWD + correction [m]'),
+  zwd_m: z.number().describe('A-priori ZWD + correction [m] (the nodes carry no met: series[].zwd_m is ztd_m − the ZHD of its zhd_source)'),
   sigma_m: z
     .number()
     .describe('Formal standard deviation [m] (with the Brownian-bridge variance between epochs and the correlated-noise factor)'),
