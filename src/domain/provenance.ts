@@ -47,6 +47,7 @@ export const MODEL_NAMES = {
   standardAtmosphere: 'berg-1948 (T0=18 C, RH0=50 %)',
   tm: 'bevis-1992',
   conversion: 'bevis-1994',
-  pwvSigma:
-    "first-order budget: delay, pressure (default 0.5 hPa), zhd model (IERS 2010), surface temperature (default 0.5 K), Tm (bevis 4.74 K / caller default 2 K), k2' and k3 (bevis 1994)",
+  /** The PWV σ budget, with its version: a change of any term or default is a new version (and fingerprint). */
+  pwvSigmaBudget:
+    "tropodelay-pwv-sigma-budget/2: first-order budget: delay, pressure (default 0.5 hPa), zhd model (IERS 2010), surface temperature (default 0.5 K), Tm (bevis 4.74 K / caller default 2 K), k2' and k3 (bevis 1994)",
 } as const;

@@ -24,6 +24,12 @@ export const bodyInWorkerValidator: FastifySchemaCompiler<any> = (route) =>
     ? (data: unknown) => ({ value: data })
     : validatorCompiler(route as unknown as Parameters<typeof validatorCompiler>[0]);
 
+/** The query parameter names as sent (before validation adds the defaults), e.g. ["source", "zwd_interval_s"]. */
+export function sentQueryKeys(url: string | undefined): string[] {
+  const at = url?.indexOf('?') ?? -1;
+  return at < 0 ? [] : [...new Set(new URLSearchParams(url!.slice(at + 1)).keys())];
+}
+
 export interface RawBody {
   body: Uint8Array | string;
   format: 'json' | 'csv' | 'arrow';

@@ -77,7 +77,7 @@ export function retrievalProvenance(maxMetGapMs: number) {
     zhd: MODEL_NAMES.zhd,
     tm: MODEL_NAMES.tm,
     conversion: MODEL_NAMES.conversion,
-    pwv_sigma: MODEL_NAMES.pwvSigma,
+    pwv_sigma_budget: MODEL_NAMES.pwvSigmaBudget,
     met_interpolation: 'linear in time, no extrapolation',
     max_met_gap_s: maxMetGapMs / 1000,
     met_reduction: 'hypsometric pressure, -6.5 K/km',

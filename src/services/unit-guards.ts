@@ -62,3 +62,94 @@ export function negativeZwdWarning(zwdM: readonly number[]): Warning | null {
     `the estimated ZWD is ${(m * 1000).toFixed(1)} mm (median over the series), below ${NEGATIVE_ZWD_LIMIT_M * 1000} mm: a ZWD is never negative; residual_m may have the opposite sign (send observed − computed)`,
   );
 }
+
+// ---------------------------------------------------------------------------------------------
+// Relative humidity sent as a fraction, angles sent in radians (issue 10, item 4).
+//
+// The rules, documented in docs/zwd-estimation.md ("Unit guards"):
+// - relative humidity: every value given is ≤ RH_FRACTION_LIMIT_PCT (1.5) and one is above 0 →
+//   a warning naming the field ("percent expected"). A relative humidity of 1.5 % or less
+//   everywhere is possible (a desert afternoon, a polar winter: common practice) but rare, so the
+//   value is used as sent and the caller is told.
+// - elevations: at least MIN_DIRECTIONS_FOR_ANGLE_GUARD values, all ≤ π/2 = 1.5708 (the largest
+//   elevation in radians): in degrees every direction would lie within 1.6° of the horizon. Refused
+//   where the answer would be meaningless (any value below the 1° floor of the mapping functions in
+//   the a-priori routes, which they refuse anyway; in an estimation every observation would be
+//   below any useful cut-off), a warning otherwise (a low-elevation table in degrees may be meant).
+// - azimuths: at least MIN_DIRECTIONS_FOR_ANGLE_GUARD values, all within [0, 2π] = [0, 6.2832] and
+//   spread by more than 1 (radians spanning more than 57°): in degrees every direction would lie
+//   within 6.3° of north. A warning (the zenith delays do not depend on azimuth; gradients do).
+
+/** Relative humidities all at or below this [%] look like fractions 0..1 (a little margin for RH > 1). */
+export const RH_FRACTION_LIMIT_PCT = 1.5;
+/** Fewer directions than this never trigger the angle guards (one or two low directions in degrees are plausible). */
+export const MIN_DIRECTIONS_FOR_ANGLE_GUARD = 3;
+const HALF_PI = Math.PI / 2;
+const TWO_PI = 2 * Math.PI;
+/** Radians carry no more than 1e-4 of rounding here: 1.5708 is π/2 to five digits. */
+const ANGLE_ROUNDING = 1e-4;
+
+/**
+ * @param field the API field, e.g. "met.relative_humidity_pct" or "records.*.relative_humidity_pct"
+ * @param valuesPct relative humidities as sent (null/NaN: not given) [%]
+ */
+export function relativeHumidityUnitWarning(field: string, valuesPct: readonly (number | null)[]): Warning | null {
+  let n = 0;
+  let max = Number.NEGATIVE_INFINITY;
+  for (const v of valuesPct) {
+    if (v === null || Number.isNaN(v)) continue;
+    n++;
+    if (v > max) max = v;
+  }
+  if (n === 0 || !(max > 0) || max > RH_FRACTION_LIMIT_PCT) return null;
+  const what = n === 1 ? `${field} is ${max}` : `all ${n} values of ${field} are ≤ ${RH_FRACTION_LIMIT_PCT} (largest ${max})`;
+  return warning(
+    'humidity-looks-like-fraction',
+    `${what}: percent expected (0..100); a fraction 0..1 gives a vapour pressure about 100 times too small. Used as sent; multiply by 100 if it is a fraction`,
+  );
+}
+
+/** What the angle guards found: a refusal (CallerError thrown) or warnings. */
+export interface AngleGuardContext {
+  /** Field that names the directions in messages, e.g. "directions", "elevations_deg", "observations". */
+  field: string;
+  /** true: elevations that look like radians are refused (an estimation, or any below the mapping floor). */
+  refuseElevations: boolean;
+}
+
+const max = (v: ArrayLike<number>) => {
+  let m = Number.NEGATIVE_INFINITY;
+  for (let i = 0; i < v.length; i++) if (v[i]! > m) m = v[i]!;
+  return m;
+};
+const min = (v: ArrayLike<number>) => {
+  let m = Number.POSITIVE_INFINITY;
+  for (let i = 0; i < v.length; i++) if (v[i]! < m) m = v[i]!;
+  return m;
+};
+
+/**
+ * Elevations [deg as sent] that look like radians: refused (400 naming the field) when
+ * `context.refuseElevations`, else a warning; null when they do not look like radians.
+ */
+export function elevationUnitGuard(elevationsDeg: ArrayLike<number>, context: AngleGuardContext): Warning | null {
+  if (elevationsDeg.length < MIN_DIRECTIONS_FOR_ANGLE_GUARD) return null;
+  const largest = max(elevationsDeg);
+  if (largest > HALF_PI + ANGLE_ROUNDING) return null;
+  const text = `all ${elevationsDeg.length} elevations are ≤ π/2 = 1.5708 (largest ${largest}): they look like radians; elevation_deg is in degrees (0, 90]`;
+  if (context.refuseElevations)
+    throw CallerError.field(400, context.field, `${text}. In degrees every direction would be within 1.6° of the horizon; send degrees`);
+  return warning('elevation-looks-like-radians', `${context.field}: ${text}; used as degrees (within 1.6° of the horizon)`);
+}
+
+/** Azimuths [deg as sent] that look like radians: a warning, or null. */
+export function azimuthUnitWarning(azimuthsDeg: ArrayLike<number>, field: string): Warning | null {
+  if (azimuthsDeg.length < MIN_DIRECTIONS_FOR_ANGLE_GUARD) return null;
+  const largest = max(azimuthsDeg);
+  const smallest = min(azimuthsDeg);
+  if (largest > TWO_PI + ANGLE_ROUNDING || !(largest - smallest > 1)) return null;
+  return warning(
+    'azimuth-looks-like-radians',
+    `${field}: all ${azimuthsDeg.length} azimuths are within [0, 2π] = [0, 6.2832] (from ${smallest} to ${largest}): they look like radians; azimuth_deg is in degrees [0, 360]. Used as degrees (every direction within 6.3° of north): gradients are wrong if they are radians`,
+  );
+}

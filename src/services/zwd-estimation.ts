@@ -8,9 +8,10 @@
 
 import { DEG } from '../domain/constants.js';
 import { ModelDomainError } from '../domain/errors.js';
+import { GEOID_MODEL_NAME, siteHeights } from '../domain/geometry/geoid.js';
 import { GRADIENT_MODELS } from '../domain/gradients/gradient-mapping.js';
 import { MAPPING_MODELS, type MappingModelKey } from '../domain/mapping/registry.js';
-import { interpolateSeries, type InterpolationQuality } from '../domain/meteo/met-interpolation.js';
+import { interpolateSeries, type InterpolationQuality, type TimedValue } from '../domain/meteo/met-interpolation.js';
 import { standardAtmosphere } from '../domain/meteo/standard-atmosphere.js';
 import { MODEL_NAMES, provenance, type ModelSet } from '../domain/provenance.js';
 import type { Site } from '../domain/site.js';
@@ -18,10 +19,16 @@ import { conversionFactor } from '../domain/water-vapour/conversion.js';
 import { precipitableWaterFromSurfaceMet } from '../domain/water-vapour/precipitable-water.js';
 import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
 import { estimateZwd } from '../estimation/estimate.js';
-import type { ZwdEstimationOptions, ZwdEstimationOutput, ZwdObservationColumns } from '../estimation/types.js';
-import { STORED_ZTD_RANGE_M } from '../limits.js';
+import type { WetMappingChoice, ZwdEstimationOptions, ZwdEstimationOutput, ZwdObservationColumns } from '../estimation/types.js';
+import { STORED_ZTD_RANGE_M, STORED_ZWD_RANGE_M } from '../limits.js';
 import { CallerError } from './caller-error.js';
-import { guardResidualUnit, negativeZwdWarning } from './unit-guards.js';
+import {
+  azimuthUnitWarning,
+  elevationUnitGuard,
+  guardResidualUnit,
+  negativeZwdWarning,
+  relativeHumidityUnitWarning,
+} from './unit-guards.js';
 import type { MetColumns } from './station-met.js';
 import { checkAnswerSize } from './answer-size.js';
 import { collapseByCode, warning, type Warning } from './warnings.js';
@@ -34,10 +41,41 @@ export interface ZwdEstimationRequest {
   apriori: { zhdM?: number | undefined; zwdM?: number | undefined };
   /** Surface met at the site height, in any order (a repeated epoch is refused, naming `met.<index>`). */
   met?: MetColumns | undefined;
+  /** Relative humidities of the met records as sent [%] (not needed for PWV; checked for their unit only). */
+  metRelativeHumidityPct?: (number | null)[] | undefined;
+  /**
+   * VMF1 a coefficients per epoch, for options.wetMapping "vmf1": linear in time between the given
+   * epochs, which must bracket every observation epoch; aw maps the wet delay (ah is not used by
+   * the estimator, which maps the wet delay only).
+   */
+  vmf1Coefficients?: { epochMs: number[]; ah: number[]; aw: number[] } | undefined;
   options: ZwdOptionValues;
 }
 
 export type MetQuality = 'measured' | 'interpolated' | 'missing';
+
+/**
+ * Where the hydrostatic delay behind an epoch's `zwdM` comes from (one definition of the series'
+ * ZWD: ZTD − ZHD, see EpochZwd):
+ * - "met": Saastamoinen ZHD of the surface pressure, measured or interpolated within met_max_gap_s;
+ * - "met-bridged": an epoch without met (a gap longer than met_max_gap_s, or beyond the met
+ *   records) when the request has met: the pressure interpolated linearly across the gap, or held
+ *   from the nearest record beyond the records, so that the ZWD stays continuous where ZTD is;
+ * - "apriori": a request without met: the a-priori ZHD the residuals were formed with.
+ */
+export type ZhdSource = 'met' | 'met-bridged' | 'apriori';
+
+/**
+ * The ZWD of one epoch of the series, with one meaning at every epoch: ZWD = ZTD − ZHD, the ZHD
+ * from the surface pressure wherever the request has met (bridged across met gaps), else the
+ * a-priori ZHD. Continuous wherever ZTD is (a met gap no longer switches to a-priori ZWD + δw,
+ * which jumped by the difference between the a-priori and the measured ZHD).
+ */
+export interface EpochZwd {
+  zwdM: number;
+  zhdM: number;
+  zhdSource: ZhdSource;
+}
 
 /** What met gives at one epoch of the series; null members where met is missing. */
 export interface EpochMetResult {
@@ -58,8 +96,14 @@ export interface ZwdEstimationResult {
   aprioriZhdM: number;
   aprioriZwdM: number;
   zhdSource: 'caller' | 'standard-atmosphere';
+  /** EGM96 geoid undulation N at the site [m]: the standard atmosphere and the mapping function get h − N. */
+  geoidUndulationM: number;
   /** One per estimate.epochs entry; null when the request has no met. */
   epochMet: EpochMetResult[] | null;
+  /** One per estimate.epochs entry: the series' ZWD with one meaning (EpochZwd). */
+  epochZwd: EpochZwd[];
+  /** Epochs whose ZHD was bridged across a met gap (zhdSource "met-bridged"). */
+  bridgedEpochs: number;
   models: ModelSet;
   modelFingerprint: string;
   warnings: Warning[];
@@ -94,12 +138,18 @@ export function zwdModels(options: ZwdOptionValues, zhdSource: 'caller' | 'stand
       options.parametrisation === 'every-epoch'
         ? 'least squares, random-walk states at every epoch (nodes on round UTC epochs with Brownian-bridge variance), epoch biases pre-eliminated, observation variance components, formal errors inflated for residual time correlation per satellite arc'
         : 'least squares, piecewise-linear nodes on round UTC epochs, random-walk constraints, epoch biases pre-eliminated, observation variance components',
-    mapping: `${options.wetMapping}: ${MAPPING_MODELS[options.wetMapping as MappingModelKey].citation} wet, at the site latitude`,
+    mapping:
+      `${options.wetMapping}: ${MAPPING_MODELS[options.wetMapping as MappingModelKey].citation} wet, at the site latitude` +
+      (MAPPING_MODELS[options.wetMapping as MappingModelKey].requiresCoefficients ? ', a_w of vmf1_coefficients linear in time' : ''),
     gradient_mapping: options.gradients ? `chen-herring: ${GRADIENT_MODELS['chen-herring']!.citation}` : 'none',
-    apriori_zhd: zhdSource === 'caller' ? 'caller' : `${MODEL_NAMES.zhd} with ${MODEL_NAMES.standardAtmosphere}`,
+    apriori_zhd:
+      zhdSource === 'caller' ? 'caller' : `${MODEL_NAMES.zhd} with ${MODEL_NAMES.standardAtmosphere} at the height above sea level`,
+    geoid: GEOID_MODEL_NAME,
     zhd: MODEL_NAMES.zhd,
+    zwd_definition: 'ztd - zhd(surface pressure; bridged linearly across met gaps, held beyond the records), else ztd - apriori zhd',
     tm: MODEL_NAMES.tm,
     conversion: MODEL_NAMES.conversion,
+    pwv_sigma_budget: MODEL_NAMES.pwvSigmaBudget,
     outlier_statistic: 'pope-1976 tau = v / (sigma0_hat sigma_v)',
     ...optionModels(options),
   };
@@ -118,18 +168,27 @@ function interpolateMet(met: MetColumns, epochsMs: readonly number[], maxGapS: n
     }
   }
   const maxGapMs = maxGapS * 1000;
+  const pressureRecords = order.map((i) => ({ epochMs: met.epochMs[i]!, value: met.pressureHpa[i]! }));
   return {
-    pressure: interpolateSeries(
-      order.map((i) => ({ epochMs: met.epochMs[i]!, value: met.pressureHpa[i]! })),
-      epochsMs,
-      maxGapMs,
-    ),
+    pressure: interpolateSeries(pressureRecords, epochsMs, maxGapMs),
+    bridgedPressure: bridgePressure(pressureRecords, epochsMs),
     temperature: interpolateSeries(
       order.map((i) => ({ epochMs: met.epochMs[i]!, value: met.temperatureC[i]! })),
       epochsMs,
       maxGapMs,
     ),
   };
+}
+
+/**
+ * Pressure at every epoch for the ZHD of the series' ZWD (EpochZwd): linear between the records
+ * around the epoch whatever the gap, the nearest record's value before the first and after the last
+ * record [hPa]. Pressure changes by a few hPa a day (common practice), so a bridged ZHD is good to a
+ * few mm over hours; the epochs are flagged ("met-bridged") and counted in a warning.
+ */
+function bridgePressure(records: readonly TimedValue[], epochsMs: readonly number[]): number[] {
+  const inside = interpolateSeries(records, epochsMs, Number.POSITIVE_INFINITY);
+  return inside.map((p, k) => p.value ?? (epochsMs[k]! < records[0]!.epochMs ? records[0]! : records[records.length - 1]!).value);
 }
 
 const quality = (p: InterpolationQuality, t: InterpolationQuality): MetQuality =>
@@ -143,8 +202,8 @@ function metPerEpoch(
   output: ZwdEstimationOutput,
   ztdM: (k: number) => number,
   perEpoch: Warning[],
-): EpochMetResult[] | null {
-  if (!request.met) return null;
+): { epochMet: EpochMetResult[]; bridgedZhdM: (number | null)[] } | null {
+  if (!request.met || request.met.epochMs.length === 0) return null;
   const { site } = request;
   const latitudeRad = site.latitudeDeg * DEG;
   const met = interpolateMet(
@@ -152,10 +211,14 @@ function metPerEpoch(
     output.epochs.map((e) => e.epochMs),
     request.options.metMaxGapS,
   );
-  return output.epochs.map((e, k) => {
+  const bridgedZhdM: (number | null)[] = output.epochs.map(() => null);
+  const epochMet = output.epochs.map((e, k) => {
     const p = met.pressure[k]!;
     const t = met.temperature[k]!;
-    if (p.value === null || t.value === null) return MISSING;
+    if (p.value === null || t.value === null) {
+      bridgedZhdM[k] = zenithHydrostaticDelayM(met.bridgedPressure[k]!, latitudeRad, site.heightM);
+      return MISSING;
+    }
     const pwv = precipitableWaterFromSurfaceMet(ztdM(k), e.sigmaM, p.value, t.value, latitudeRad, site.heightM);
     if (pwv.wetDelayNegative) {
       perEpoch.push(
@@ -180,6 +243,7 @@ function metPerEpoch(
       pwvTotalSigmaMm: pwv.pwvSigmaMm,
     };
   });
+  return { epochMet, bridgedZhdM };
 }
 
 /**
@@ -190,15 +254,19 @@ export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationRe
   checkAnswerSize(request.observations.epochMs, options);
   const latitudeRad = site.latitudeDeg * DEG;
   const warnings: Warning[] = [];
+  guardObservations(request, warnings);
+  const wetMapping = wetMappingChoice(request);
+  // The standard atmosphere and the mapping functions are defined on heights above mean sea level.
+  const heights = siteHeights(site.latitudeDeg, site.longitudeDeg, site.heightM);
   const zhdSource = request.apriori.zhdM === undefined ? ('standard-atmosphere' as const) : ('caller' as const);
   const aprioriZhdM =
-    request.apriori.zhdM ?? zenithHydrostaticDelayM(standardAtmosphere(site.heightM).pressureHpa, latitudeRad, site.heightM);
+    request.apriori.zhdM ?? zenithHydrostaticDelayM(standardAtmosphere(heights.aboveSeaLevelM).pressureHpa, latitudeRad, site.heightM);
   const aprioriZwdM = request.apriori.zwdM ?? 0;
   if (zhdSource === 'standard-atmosphere') {
     warnings.push(
       warning(
         'apriori-zhd-defaulted',
-        `apriori.zhd_m not given: ${aprioriZhdM.toFixed(4)} m (Saastamoinen ZHD of the standard atmosphere at ${site.heightM} m) used for ztd_m; give the ZHD the residuals were formed with`,
+        `apriori.zhd_m not given: ${aprioriZhdM.toFixed(4)} m (Saastamoinen ZHD of the standard atmosphere at ${heights.aboveSeaLevelM.toFixed(1)} m above sea level, EGM96 N = ${heights.geoidUndulationM.toFixed(2)} m) used for ztd_m; give the ZHD the residuals were formed with`,
       ),
     );
   }
@@ -206,34 +274,121 @@ export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationRe
   guardResidualUnit(request.observations.epochMs, request.observations.residualM);
   const estimate = estimateZwd({
     latitudeRad,
-    heightM: request.site.heightM,
+    heightM: heights.aboveSeaLevelM,
     observations: request.observations,
-    options: toEstimatorOptions(options),
+    options: { ...toEstimatorOptions(options), wetMapping },
   });
   warnings.push(...estimate.warnings.map((text) => warning('estimator', text)));
 
   const perEpoch: Warning[] = [];
-  const epochMet = metPerEpoch(request, estimate, (k) => aprioriZhdM + aprioriZwdM + estimate.epochs[k]!.correctionM, perEpoch);
+  const ztdM = (k: number) => aprioriZhdM + aprioriZwdM + estimate.epochs[k]!.correctionM;
+  const met = metPerEpoch(request, estimate, ztdM, perEpoch);
   warnings.push(...collapseByCode(perEpoch));
-  const missingMet = epochMet ? epochMet.filter((m) => m.met === 'missing').length : 0;
-  if (missingMet > 0) {
+  const epochZwd: EpochZwd[] = estimate.epochs.map((_, k) => {
+    const m = met?.epochMet[k];
+    if (m && m.zhdM !== null) return { zwdM: m.zwdM!, zhdM: m.zhdM, zhdSource: 'met' };
+    const bridged = met?.bridgedZhdM[k];
+    if (bridged != null) return { zwdM: ztdM(k) - bridged, zhdM: bridged, zhdSource: 'met-bridged' };
+    return { zwdM: ztdM(k) - aprioriZhdM, zhdM: aprioriZhdM, zhdSource: 'apriori' };
+  });
+  const bridgedEpochs = epochZwd.filter((z) => z.zhdSource === 'met-bridged').length;
+  if (bridgedEpochs > 0) {
     warnings.push(
       warning(
         'met-missing',
-        `${missingMet} of ${estimate.epochs.length} epochs have no met (outside the met records or in a gap longer than ${options.metMaxGapS} s): no ZHD or PWV there, zwd_m = a-priori ZWD + correction`,
+        `${bridgedEpochs} of ${estimate.epochs.length} epochs have no met (outside the met records or in a gap longer than ${options.metMaxGapS} s): no PWV there; their zwd_m = ztd_m − ZHD of the pressure bridged linearly across the gap (held from the nearest record beyond the records), flagged met "missing" and zhd_source "met-bridged"`,
       ),
     );
   }
-  const negative = negativeZwdWarning(estimate.epochs.map((e, k) => epochMet?.[k]?.zwdM ?? aprioriZwdM + e.correctionM));
+  const negative = negativeZwdWarning(epochZwd.map((z) => z.zwdM));
   if (negative) warnings.push(negative);
   const { models, model_fingerprint } = provenance(zwdModels(options, zhdSource));
-  return { estimate, aprioriZhdM, aprioriZwdM, zhdSource, epochMet, models, modelFingerprint: model_fingerprint, warnings };
+  return {
+    estimate,
+    aprioriZhdM,
+    aprioriZwdM,
+    zhdSource,
+    geoidUndulationM: heights.geoidUndulationM,
+    epochMet: met?.epochMet ?? null,
+    epochZwd,
+    bridgedEpochs,
+    models,
+    modelFingerprint: model_fingerprint,
+    warnings,
+  };
+}
+
+/** Unit guards on the request (unit-guards.ts): refusals throw, warnings are added to `warnings`. */
+function guardObservations(request: ZwdEstimationRequest, warnings: Warning[]): void {
+  const { elevationRad, azimuthRad } = request.observations;
+  const toDeg = (v: readonly number[]) => v.map((x) => x / DEG);
+  elevationUnitGuard(toDeg(elevationRad), { field: 'observations', refuseElevations: true });
+  const azimuth = azimuthUnitWarning(toDeg(azimuthRad), 'observations');
+  if (azimuth) warnings.push(azimuth);
+  if (request.metRelativeHumidityPct) {
+    const rh = relativeHumidityUnitWarning('met.relative_humidity_pct', request.metRelativeHumidityPct);
+    if (rh) warnings.push(rh);
+  }
+}
+
+/**
+ * The estimator's wet mapping: the option's model; VMF1 with the request's per-epoch coefficients,
+ * which must bracket every observation epoch (a 400 naming `vmf1_coefficients` otherwise: the
+ * estimator would hold the end values, an extrapolation nobody asked for).
+ */
+function wetMappingChoice(request: ZwdEstimationRequest): WetMappingChoice {
+  const model = request.options.wetMapping as MappingModelKey;
+  const c = request.vmf1Coefficients;
+  if (!MAPPING_MODELS[model].requiresCoefficients) {
+    if (c) {
+      throw CallerError.field(
+        400,
+        'vmf1_coefficients',
+        `given, but options.wet_mapping is "${model}"; send options.wet_mapping "vmf1" to use them`,
+      );
+    }
+    return { model };
+  }
+  if (!c || c.epochMs.length === 0) {
+    throw CallerError.field(
+      400,
+      'vmf1_coefficients',
+      `options.wet_mapping "${model}" needs per-epoch coefficients: vmf1_coefficients [{epoch, a_h, a_w}] spanning the observations, in a JSON body (a text/csv request cannot carry them)`,
+    );
+  }
+  const order = c.epochMs.map((_, i) => i).sort((a, b) => c.epochMs[a]! - c.epochMs[b]! || a - b);
+  for (let k = 1; k < order.length; k++) {
+    if (c.epochMs[order[k]!] === c.epochMs[order[k - 1]!]) {
+      const [a, b] = [Math.min(order[k - 1]!, order[k]!), Math.max(order[k - 1]!, order[k]!)];
+      throw CallerError.field(
+        400,
+        `vmf1_coefficients.${b}`,
+        `duplicate epoch ${iso(c.epochMs[b]!)}: also vmf1_coefficients.${a}; each epoch may appear once`,
+      );
+    }
+  }
+  const first = c.epochMs[order[0]!]!;
+  const last = c.epochMs[order[order.length - 1]!]!;
+  let obsFirst = Number.POSITIVE_INFINITY;
+  let obsLast = Number.NEGATIVE_INFINITY;
+  for (const t of request.observations.epochMs) {
+    if (t < obsFirst) obsFirst = t;
+    if (t > obsLast) obsLast = t;
+  }
+  if (obsFirst < first || obsLast > last) {
+    throw CallerError.field(
+      400,
+      'vmf1_coefficients',
+      `the coefficients span ${iso(first)} to ${iso(last)}, the observations ${iso(obsFirst)} to ${iso(obsLast)}: coefficients are interpolated linearly in time, never extrapolated; give coefficients at or before the first and at or after the last observation`,
+    );
+  }
+  return { model, coefficients: { epochMs: c.epochMs, ah: c.ah, aw: c.aw } };
 }
 
 /**
  * The stored form of a result, as columns (cheap to hand back from a worker thread): per epoch
  * ZTD = a-priori ZHD + a-priori ZWD + δw with σ_ZTD = σ_δw (the a-priori ZHD is a fixed value), ZWD
- * (from met where there is met) with the same σ, gradients and their sigmas (NaN = none).
+ * (the series' one definition, EpochZwd) with the same σ, gradients and their sigmas (NaN = none).
  */
 export interface DelayColumns {
   epochMs: Float64Array;
@@ -264,7 +419,7 @@ export function delayColumns(result: ZwdEstimationResult): DelayColumns {
     c.epochMs[k] = e.epochMs;
     c.ztdM[k] = result.aprioriZhdM + result.aprioriZwdM + e.correctionM;
     c.sigmaM[k] = e.sigmaM;
-    c.zwdM[k] = result.epochMet?.[k]?.zwdM ?? result.aprioriZwdM + e.correctionM;
+    c.zwdM[k] = result.epochZwd[k]!.zwdM;
     c.northGradientM[k] = e.northGradientM ?? Number.NaN;
     c.eastGradientM[k] = e.eastGradientM ?? Number.NaN;
     c.northGradientSigmaM[k] = e.northGradientSigmaM ?? Number.NaN;
@@ -292,4 +447,32 @@ export function checkStorableDelays(c: DelayColumns): void {
     `estimated ZTD outside the stored range [${min}, ${max}] m at ${bad.length} epochs: ${shown.join(', ')}${bad.length > 5 ? ', ...' : ''}; ` +
     'nothing stored. Residuals in millimetres instead of metres, or an a-priori far from the site, give this; check residual_m and apriori';
   throw CallerError.field(422, 'observations', message);
+}
+
+/**
+ * The ZWD a station estimation stores, by the deposit's own rule (STORED_ZWD_RANGE_M, src/limits.ts,
+ * 0..1 m): a series whose median ZWD is clearly negative (negativeZwdWarning: residuals of the
+ * opposite sign) is a 422 and nothing is stored; single epochs outside the range (a ZWD a little
+ * below 0 in a dry atmosphere, within its σ) keep their ZTD, and their ZWD is not stored (NaN here,
+ * null in the archive), with a warning counting them.
+ * @returns the warnings to add to the answer
+ */
+export function checkStorableZwd(c: DelayColumns): Warning[] {
+  const negative = negativeZwdWarning(Array.from(c.zwdM));
+  if (negative) throw CallerError.field(422, 'observations', `${negative.text}; nothing stored`);
+  const [min, max] = STORED_ZWD_RANGE_M;
+  let dropped = 0;
+  for (let k = 0; k < c.zwdM.length; k++) {
+    const v = c.zwdM[k]!;
+    if (v >= min && v <= max) continue;
+    c.zwdM[k] = Number.NaN;
+    dropped++;
+  }
+  if (dropped === 0) return [];
+  return [
+    warning(
+      'zwd-not-stored',
+      `${dropped} of ${c.zwdM.length} epochs have a ZWD outside the stored range [${min}, ${max}] m (a direct deposit would refuse it): their ZTD is stored, their ZWD is not (null in the archive)`,
+    ),
+  ];
 }

@@ -22,8 +22,8 @@ import { MIN_EPOCH_STATE_WINDOW_S, MIN_REJECTION_WINDOW_INTERVALS, MIN_REJECTION
 
 export const WEIGHTING_SCHEMES = ['elevation', 'uniform', 'elevation-components'] as const;
 export const PARAMETRISATIONS = ['every-epoch', 'nodes'] as const;
-/** Wet mapping functions of the estimator that need no per-epoch coefficients (the registry's others). */
-export const WET_MAPPING_MODELS = MAPPING_MODEL_KEYS.filter((k) => k !== 'vmf1') as unknown as readonly [string, ...string[]];
+/** Wet mapping functions of the estimator: every model of the registry (vmf1 with the request's vmf1_coefficients). */
+export const WET_MAPPING_MODELS = MAPPING_MODEL_KEYS as unknown as readonly [string, ...string[]];
 export const OUTLIER_REJECTION_MODES = ['one-per-window', 'one-per-solution'] as const;
 
 interface OptionCommon {
@@ -310,7 +310,7 @@ export const ZWD_OPTIONS = [
     default: 'niell',
     unit: '',
     description:
-      'Wet mapping function of the estimator (src/domain/mapping registry; VMF1 needs per-epoch coefficients and is not offered here yet)',
+      "Wet mapping function of the estimator (src/domain/mapping registry). vmf1 needs per-epoch coefficients in the JSON body's vmf1_coefficients [{epoch, a_h, a_w}], interpolated linearly in time and spanning every observation epoch (a text/csv request cannot carry them)",
     fingerprint: 'setting',
   },
   {

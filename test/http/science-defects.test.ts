@@ -131,7 +131,7 @@ describe('PWV σ budget (Bevis et al. 1992, 1994; IERS 2010): no term silently 0
     expect(b.defaulted).toEqual(['pressure_sigma_hpa', 'temperature_sigma_k']);
     const total = Math.hypot(b.delay_mm, b.pressure_mm, b.zhd_model_mm, b.temperature_mm, b.tm_mm, b.refractivity_mm);
     expect(out.pwv_sigma_mm).toBeCloseTo(total, 9);
-    expect(r.body.models.pwv_sigma).toMatch(/0\.5 hPa/);
+    expect(r.body.models.pwv_sigma_budget).toMatch(/0\.5 hPa/);
   });
 
   it("a caller's pressure and temperature sigmas replace the defaults", async () => {

@@ -59,13 +59,14 @@ describe(`station estimation and the stored range (${backend.name})`, () => {
     expect(stored.body.records ?? []).toHaveLength(0);
   });
 
-  it('residuals with the opposite sign: stored with a zwd-negative warning', async () => {
+  it('residuals with the opposite sign: 422 (the deposit refuses a negative ZWD), nothing stored', async () => {
     const flipped = observations.map((o) => ({ ...o, residual_m: -o.residual_m }));
     const res = await api()
       .post('/v1/stations/MMRES/zwd-estimates?source=flipped')
       .set('authorization', auth)
-      .send({ observations: flipped, apriori: { zwd_m: 0 } });
-    expect(JSON.stringify(res.body.warnings ?? res.body)).toMatch(/ZWD is never negative|below -10 mm/);
+      .send({ observations: flipped, apriori: { zwd_m: 0 } })
+      .expect(422);
+    expect(res.body.detail).toMatch(/ZWD is never negative/);
   });
 
   it('the same residuals in metres are stored (the guard does not refuse a valid series)', async () => {

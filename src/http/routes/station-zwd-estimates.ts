@@ -20,7 +20,7 @@ import { CallerError } from '../../services/caller-error.js';
 import { storedMetAtAntenna, type MetColumns } from '../../services/station-met.js';
 import type { DelayColumns } from '../../services/zwd-estimation.js';
 import type { DelayRow, Repository, Station, WriteCounts } from '../../storage/repository.js';
-import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, transferOf } from '../raw-body.js';
+import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, sentQueryKeys, transferOf } from '../raw-body.js';
 import { problemSchema } from '../schemas/common.js';
 import { DEFAULT_ESTIMATE_SOURCE, stationZwdEstimatesQuery, stationZwdEstimatesResponse } from '../schemas/station-zwd-estimates.js';
 import { stationParams } from '../schemas/stations.js';
@@ -76,8 +76,8 @@ export function delayRows(c: DelayColumns, source: string, modelFingerprint: str
       source,
       ztdM: c.ztdM[k]!,
       ztdSigmaM: c.sigmaM[k]!,
-      zwdM: c.zwdM[k]!,
-      zwdSigmaM: c.sigmaM[k]!,
+      zwdM: orNull(c.zwdM[k]!),
+      zwdSigmaM: Number.isNaN(c.zwdM[k]!) ? null : c.sigmaM[k]!,
       northGradientM: orNull(c.northGradientM[k]!),
       eastGradientM: orNull(c.eastGradientM[k]!),
       northGradientSigmaM: orNull(c.northGradientSigmaM[k]!),
@@ -134,7 +134,12 @@ const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = asy
       const site = { latitudeDeg: station.latitudeDeg, longitudeDeg: station.longitudeDeg, heightM: station.heightM };
       const output = await app.compute.run(
         'zwd-estimate-request',
-        { ...raw, query: request.query as Record<string, unknown>, station: { site, storedMet } },
+        {
+          ...raw,
+          query: request.query as Record<string, unknown>,
+          queryKeys: sentQueryKeys(request.raw.url),
+          station: { site, storedMet },
+        },
         transferOf(raw),
       );
       const stored = await storeDelays(app.repository, stationId, source, output);

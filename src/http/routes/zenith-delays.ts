@@ -3,6 +3,7 @@ import { aprioriZenithDelays } from '../../domain/zenith/apriori.js';
 import { problemSchema } from '../schemas/common.js';
 import { zenithDelaysRequest, zenithDelaysResponse } from '../schemas/zenith-delays.js';
 import type { Provenance } from '../../domain/provenance.js';
+import { metUnitWarnings } from '../tasks/apriori-batch.js';
 import { memoProvenance, toMetInput, toSite, zenithProvenance } from './shared.js';
 
 const PROVENANCE = new Map<string, Provenance>();
@@ -35,7 +36,7 @@ const zenithDelaysRoute: FastifyPluginAsyncZod = async (app) => {
         },
         geoid_undulation_m: z.geoidUndulationM,
         ...memoProvenance(PROVENANCE, wet_model, () => zenithProvenance(wet_model)),
-        warnings: z.met.warnings,
+        warnings: [...metUnitWarnings(met), ...z.met.warnings],
       };
     },
   );

@@ -4,7 +4,7 @@
  */
 
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, transferOf } from '../raw-body.js';
+import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, sentQueryKeys, transferOf } from '../raw-body.js';
 import { problemSchema } from '../schemas/common.js';
 import {
   MAX_OBSERVATIONS,
@@ -46,7 +46,7 @@ const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
       const raw = rawBodyOf(request);
       const output = await app.compute.run(
         'zwd-estimate-request',
-        { ...raw, query: request.query as Record<string, unknown> },
+        { ...raw, query: request.query as Record<string, unknown>, queryKeys: sentQueryKeys(request.raw.url) },
         transferOf(raw),
       );
       // Already serialised in the worker; the bytes are sent as they are.

@@ -13,6 +13,7 @@ import {
   elevationDeg,
   epochSchema,
   positive,
+  vmf1CoefficientsSchema,
   pressureHpa,
   provenanceFields,
   relativeHumidityPct,
@@ -47,6 +48,13 @@ export const zwdMetRecordSchema = strictObject({
   pressure_hpa: pressureHpa('Measured surface pressure at the site height'),
   temperature_c: temperatureC('Measured surface temperature at the site height'),
   relative_humidity_pct: relativeHumidityPct().optional().describe('Relative humidity [%], 0..100; accepted, not needed for PWV'),
+});
+
+/** One row of VMF1 a coefficients (ranges as the a-priori routes' coefficients, common.ts). */
+export const vmf1CoefficientRowSchema = strictObject({
+  epoch: epochSchema,
+  a_h: vmf1CoefficientsSchema.shape.ah,
+  a_w: vmf1CoefficientsSchema.shape.aw,
 });
 
 export const zwdAprioriSchema = strictObject({
@@ -112,6 +120,14 @@ export const zwdEstimationBody = strictObject({
     .optional()
     .describe(
       'Surface met at the site, interpolated linearly to the epochs (not across gaps longer than options.met_max_gap_s); enables ZHD, ZWD and PWV per epoch',
+    ),
+  vmf1_coefficients: z
+    .array(vmf1CoefficientRowSchema, { error: 'must be an array of {epoch, a_h, a_w}' })
+    .min(1, { error: `must hold 1..${MAX_MET_RECORDS} rows` })
+    .max(MAX_MET_RECORDS, { error: `must hold 1..${MAX_MET_RECORDS} rows` })
+    .optional()
+    .describe(
+      'VMF1 a coefficients per epoch (Boehm et al. 2006; from the VMF1 grids or site files), for options.wet_mapping "vmf1" and only then: a_w maps the wet delay, interpolated linearly in time between the given epochs, which must span every observation epoch (no extrapolation: 400 otherwise). a_h is taken for completeness (the estimator maps the wet delay only)',
     ),
   options: zwdOptionsSchema,
 });
@@ -190,7 +206,7 @@ const metQualitySchema = z.enum(['measured', 'interpolated', 'missing']);
 export const zwdNodeResponse = z.object({
   epoch: z.string().describe('Node epoch jΔ on round UTC epochs'),
   correction_m: z.number().describe('Estimated correction δw to the a-priori ZWD [m]'),
-  zwd_m: z.number().describe('A-priori ZWD + correction [m]'),
+  zwd_m: z.number().describe('A-priori ZWD + correction [m] (the nodes carry no met: series[].zwd_m is ztd_m − the ZHD of its zhd_source)'),
   sigma_m: z
     .number()
     .describe('Formal standard deviation [m] (with the Brownian-bridge variance between epochs and the correlated-noise factor)'),
@@ -212,7 +228,16 @@ export const gradientNodeResponse = z.object({
 export const zwdSeriesEntryResponse = z.object({
   epoch: z.string(),
   correction_m: z.number().describe('δw interpolated between the adjacent nodes [m]'),
-  zwd_m: z.number().describe('ZTD − ZHD(measured pressure) with met at this epoch, else a-priori ZWD + δw [m]'),
+  zwd_m: z
+    .number()
+    .describe(
+      'ZWD = ztd_m − ZHD, one meaning at every epoch [m]: with met in the request, ZHD is the Saastamoinen ZHD of the surface pressure (interpolated within met_max_gap_s; across longer gaps bridged linearly, held from the nearest record beyond the records: zhd_source "met-bridged"); without met, the a-priori ZHD (zhd_source "apriori"). Continuous wherever ztd_m is',
+    ),
+  zhd_source: z
+    .enum(['met', 'met-bridged', 'apriori'])
+    .describe(
+      'Where the ZHD behind zwd_m comes from: met (measured or interpolated pressure), met-bridged (an epoch without met), apriori (a request without met)',
+    ),
   sigma_m: z.number().describe('Formal standard deviation of δw (with the covariance of the adjacent nodes) [m]'),
   north_gradient_m: z.number().nullable().describe('G_N at the epoch [m]; null when gradients are off'),
   east_gradient_m: z.number().nullable().describe('G_E at the epoch [m]; null when gradients are off'),
@@ -224,8 +249,13 @@ export const zwdSeriesEntryResponse = z.object({
     .describe('Estimated epoch bias [m]; null when epoch_bias is off or all observations of the epoch were rejected'),
   observations: z.number().int().describe('Observations of the epoch used in the final solution'),
   ztd_m: z.number().describe('A-priori ZHD + a-priori ZWD + δw [m]'),
-  met: metQualitySchema.optional().describe('Met at this epoch: measured, interpolated or missing (only with met)'),
-  zhd_m: z.number().optional().describe('Saastamoinen ZHD from the measured pressure [m] (with met)'),
+  met: metQualitySchema
+    .optional()
+    .describe('Met at this epoch: measured, interpolated or missing (only with met); "missing" epochs have no PWV and a bridged ZHD'),
+  zhd_m: z
+    .number()
+    .optional()
+    .describe('Saastamoinen ZHD of the surface pressure [m] (with met; at "missing" epochs the bridged pressure): zwd_m = ztd_m − zhd_m'),
   tm_k: z.number().optional().describe('Weighted mean temperature, Bevis et al. (1992) [K] (with met)'),
   pwv_mm: z.number().optional().describe('Precipitable water vapour [mm] (with met)'),
   pwv_sigma_mm: z.number().optional().describe('Standard deviation of pwv_mm from the formal error of δw [mm]'),
@@ -299,6 +329,11 @@ export const zwdEstimatesResponse = z.object({
     zwd_m: z.number().describe('A-priori ZWD used [m]'),
     zhd_source: z.enum(['caller', 'standard-atmosphere']),
   }),
+  geoid_undulation_m: z
+    .number()
+    .describe(
+      'EGM96 geoid undulation N at the site [m]: the standard atmosphere of the default a-priori ZHD and the mapping function get height_m − N',
+    ),
   ...provenanceFields,
 });
 

@@ -15,7 +15,7 @@ import { ModelDomainError } from '../../domain/errors.js';
 import { geoidUndulationM } from '../../domain/geometry/geoid.js';
 import { geodeticToEcef, lookAngles, normaliseAzimuthDeg } from '../../domain/geometry/topocentric.js';
 import { GRADIENT_MODELS } from '../../domain/gradients/gradient-mapping.js';
-import { checkMappingElevation } from '../../domain/mapping/elevation-range.js';
+import { checkMappingElevation, mappingDefinedAt } from '../../domain/mapping/elevation-range.js';
 import { assumedHeightReferenceWarning } from '../../domain/mapping/vmf1.js';
 import { MODEL_NAMES, provenance } from '../../domain/provenance.js';
 import type { Site } from '../../domain/site.js';
@@ -50,6 +50,27 @@ import {
   zenithProvenance,
 } from '../routes/shared.js';
 import { asOutcome, fail } from './task-errors.js';
+import { azimuthUnitWarning, elevationUnitGuard, relativeHumidityUnitWarning } from '../../services/unit-guards.js';
+import type { Warning } from '../../services/warnings.js';
+
+/**
+ * The unit guards of the a-priori routes (src/services/unit-guards.ts): elevations that look like
+ * radians are refused when one of them is below the mapping functions' 1° floor (the answer would be
+ * meaningless; the floor would refuse it anyway, with a less helpful message), else warned.
+ */
+export function directionUnitWarnings(elevationsDeg: ArrayLike<number>, azimuthsDeg: ArrayLike<number> | null, field: string): string[] {
+  let belowFloor = false;
+  for (let i = 0; i < elevationsDeg.length; i++) if (!mappingDefinedAt(elevationsDeg[i]!)) belowFloor = true;
+  const found: (Warning | null)[] = [elevationUnitGuard(elevationsDeg, { field, refuseElevations: belowFloor })];
+  if (azimuthsDeg) found.push(azimuthUnitWarning(azimuthsDeg, field));
+  return found.filter((w): w is Warning => w !== null).map((w) => w.text);
+}
+
+/** The humidity guard of a met object of the a-priori routes, as warning texts. */
+export function metUnitWarnings(met: { relative_humidity_pct?: number | undefined } | undefined): string[] {
+  const w = relativeHumidityUnitWarning('met.relative_humidity_pct', [met?.relative_humidity_pct ?? null]);
+  return w ? [w.text] : [];
+}
 
 /** The body schemas as the routes declare them (the refinements included). */
 export const slantDelaysBody = slantDelaysRequest.superRefine((v, ctx) => checkCoefficients(v, ctx));
@@ -163,7 +184,16 @@ function slantEntries(columns: Record<string, Float64Array | string[]>, fields: 
 /** POST /v1/slant-delays: the answer to a validated request, its per-direction part as columns. */
 export function slantDelaysAnswer(body: SlantFields, rows: SlantRows) {
   const site = toSite(body.site);
-  const warnings: string[] = [];
+  const warnings: string[] = [...metUnitWarnings(body.met)];
+  if (body.directions) {
+    warnings.push(
+      ...directionUnitWarnings(
+        body.directions.map((d) => d.elevation_deg),
+        body.directions.map((d) => d.azimuth_deg),
+        'directions',
+      ),
+    );
+  }
 
   const needMet = body.zenith?.zhd_m === undefined || body.zenith?.zwd_m === undefined;
   const apriori = needMet ? aprioriZenithDelays(site, toMetInput(body.met), body.wet_model) : undefined;
@@ -284,6 +314,7 @@ function slantArrowRequest(bytes: Uint8Array): unknown {
 /** POST /v1/mapping-factors: the answer to a validated body. */
 export function mappingFactorsAnswer(body: MappingBody) {
   const { site, epoch, elevations_deg, model, coefficients, gradient_model } = body;
+  const unitWarnings = directionUnitWarnings(elevations_deg, null, 'elevations_deg');
   elevations_deg.forEach((e, i) => checkMappingElevation(e, `elevations_deg.${i}`));
   const mapping = prepareMapping(toSite(site), epoch, model, coefficients);
   const n = elevations_deg.length;
@@ -301,7 +332,7 @@ export function mappingFactorsAnswer(body: MappingBody) {
     gradient: Array.from(gradient),
     geoid_undulation_m: geoidUndulationM(site.latitude_deg, site.longitude_deg),
     ...provenance(mappingProvenance(model, gradient_model, coefficients)),
-    warnings: [...(assumed ? [assumed] : []), ...lowElevationWarning(elevations_deg)],
+    warnings: [...unitWarnings, ...(assumed ? [assumed] : []), ...lowElevationWarning(elevations_deg)],
   };
 }
 
@@ -367,7 +398,7 @@ export function precipitableWaterAnswer(body: PwvBody) {
   const tm = tmFromCaller === 0 ? MODEL_NAMES.tm : tmFromCaller === records.length ? 'caller' : `${MODEL_NAMES.tm} and caller (mixed)`;
   return {
     records: out,
-    ...provenance({ zhd: MODEL_NAMES.zhd, tm, conversion: MODEL_NAMES.conversion, pwv_sigma: MODEL_NAMES.pwvSigma }),
+    ...provenance({ zhd: MODEL_NAMES.zhd, tm, conversion: MODEL_NAMES.conversion, pwv_sigma_budget: MODEL_NAMES.pwvSigmaBudget }),
     warnings,
   };
 }

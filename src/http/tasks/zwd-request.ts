@@ -14,7 +14,7 @@ import { FormatError } from '../../formats/format-error.js';
 import { readObservationCsv } from '../../formats/observation-csv.js';
 import { CallerError } from '../../services/caller-error.js';
 import type { MetColumns } from '../../services/station-met.js';
-import { checkStorableDelays, delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
+import { checkStorableDelays, checkStorableZwd, delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import type { ZwdObservationColumns } from '../../estimation/types.js';
 import { MAX_OBSERVATIONS } from '../../limits.js';
@@ -41,6 +41,8 @@ export interface ZwdRequestTaskInput {
   format: 'json' | 'csv' | 'arrow';
   /** Raw query parameters (options of a CSV request). */
   query: Record<string, unknown>;
+  /** The query parameter names as sent (raw-body.ts sentQueryKeys); absent = those of `query`. */
+  queryKeys?: string[] | undefined;
   /** A station's estimation: the site is the station's (then `site` in the body is refused). */
   station?: {
     site: Site;
@@ -70,6 +72,21 @@ const utf8 = (text: string): Uint8Array => new TextEncoder().encode(text);
 const bodyText = (body: Uint8Array | string) =>
   typeof body === 'string' ? body : Buffer.from(body.buffer, body.byteOffset, body.byteLength).toString('utf8');
 
+/**
+ * The site, a-priori and option query parameters belong to text/csv bodies; with a JSON body they
+ * would be ignored while the body's (or the default) values are used, so they are a 400 naming each
+ * (`source`, the stored series of a station's estimation, applies to both).
+ */
+function refuseCsvQueryWithJson(queryKeys: readonly string[]): void {
+  const ignored = queryKeys.filter((k) => k !== 'source');
+  if (ignored.length === 0) return;
+  const errors = ignored.map((k) => ({
+    field: `query.${k}`,
+    message: 'a query parameter of text/csv bodies; with a JSON body give it in the body (site, apriori, options)',
+  }));
+  throw new CallerError(400, detailOf(errors), errors);
+}
+
 /** The body as the JSON-equivalent object: a CSV table plus query options, or the parsed JSON. */
 function rawBody(input: ZwdRequestTaskInput, siteKnown: boolean): unknown {
   if (input.format === 'arrow') {
@@ -79,6 +96,7 @@ function rawBody(input: ZwdRequestTaskInput, siteKnown: boolean): unknown {
   }
   const text = bodyText(input.body);
   if (input.format === 'json') {
+    refuseCsvQueryWithJson(input.queryKeys ?? Object.keys(input.query ?? {}));
     try {
       return JSON.parse(text);
     } catch (err) {
@@ -171,6 +189,7 @@ export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<Task
     ];
     const delays = delayColumns(result);
     checkStorableDelays(delays);
+    metWarnings.push(...checkStorableZwd(delays).map((w) => w.text));
     const json = JSON.stringify({ ...zwdEstimatesResponseOf(result, metWarnings), met_used: metUsed });
     return {
       ok: true,
