@@ -185,15 +185,7 @@ function slantEntries(columns: Record<string, Float64Array | string[]>, fields: 
 export function slantDelaysAnswer(body: SlantFields, rows: SlantRows) {
   const site = toSite(body.site);
   const warnings: string[] = [...metUnitWarnings(body.met)];
-  if (body.directions) {
-    warnings.push(
-      ...directionUnitWarnings(
-        body.directions.map((d) => d.elevation_deg),
-        body.directions.map((d) => d.azimuth_deg),
-        'directions',
-      ),
-    );
-  }
+  if (rows.kind === 'directions') warnings.push(...directionUnitWarnings(rows.elevationDeg, rows.azimuthDeg, 'directions'));
 
   const needMet = body.zenith?.zhd_m === undefined || body.zenith?.zwd_m === undefined;
   const apriori = needMet ? aprioriZenithDelays(site, toMetInput(body.met), body.wet_model) : undefined;
