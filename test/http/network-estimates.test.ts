@@ -371,7 +371,7 @@ describe('POST /v1/network-estimates', () => {
 
 for (const backend of BACKENDS) {
   describe(`POST /v1/network/zwd-estimates on ${backend.name}: every station's series stored, all or nothing`, () => {
-    const { api, auth } = useArchiveApp(backend);
+    const { api, app, auth } = useArchiveApp(backend);
     const s = sim(36, 'estimated');
 
     async function createStations() {
@@ -387,6 +387,48 @@ for (const backend of BACKENDS) {
       stations,
       observations: observationsOf(s),
       options: { zwd_interval_s: 600 },
+    });
+
+    it('Repository.writeDelaysMany: a station that does not exist stores nothing for the others (one transaction)', async () => {
+      await createStations();
+      const repo = app().repository;
+      const row = (epochMs: number) => ({
+        epochMs,
+        source: 'tx-test',
+        ztdM: 2.4,
+        ztdSigmaM: 0.002,
+        zwdM: 0.15,
+        zwdSigmaM: 0.002,
+        northGradientM: null,
+        eastGradientM: null,
+        northGradientSigmaM: null,
+        eastGradientSigmaM: null,
+        modelFingerprint: 'tx-fingerprint',
+      });
+      const set = { modelFingerprint: 'tx-fingerprint', models: { estimator: 'test' } };
+      const t0 = Date.parse('2026-06-20T00:00:00Z');
+      await expect(
+        repo.writeDelaysMany(
+          [
+            { stationId: s.stations[0]!.name, rows: [row(t0)] },
+            { stationId: 'NOT-THERE', rows: [row(t0)] },
+          ],
+          set,
+        ),
+      ).rejects.toThrow(/NOT-THERE/);
+      expect(await repo.readDelays(s.stations[0]!.name, { fromMs: t0, toMs: t0 })).toHaveLength(0);
+      expect(
+        await repo.writeDelaysMany(
+          [
+            { stationId: s.stations[0]!.name, rows: [row(t0)] },
+            { stationId: s.stations[1]!.name, rows: [row(t0), row(t0 + 30_000)] },
+          ],
+          set,
+        ),
+      ).toEqual([
+        { inserted: 1, updated: 0, unchanged: 0 },
+        { inserted: 2, updated: 0, unchanged: 0 },
+      ]);
     });
 
     it('needs a write key', async () => {
