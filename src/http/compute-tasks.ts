@@ -14,7 +14,7 @@ import type { handleZwdRequest, scanZwdRequest } from './tasks/zwd-request.js';
 export type ComputeTasks = {
   /** A whole POST .../zwd-estimates request: parse, validate, estimate, serialise (and for a station, the rows to store). */
   'zwd-estimate-request': typeof handleZwdRequest;
-  /** A whole POST /v1/network-estimates (or /v1/network/zwd-estimates) request: parse, validate, estimate, serialise (and the rows to store). */
+  /** A whole POST /v1/network-estimates or /v1/network/zwd-estimates request: parse, validate, estimate, serialise (and what to store). */
   'network-estimate-request': typeof handleNetworkRequest;
   /** First pass of a station's estimation: the epoch range of the observations and whether the body has met. */
   'zwd-request-scan': typeof scanZwdRequest;
