@@ -60,7 +60,8 @@ export const MAX_NETWORK_STATIONS = 100;
 /**
  * Stations × observations of one network estimation, checked before any work: the size of the
  * work (the design, the per-epoch clock elimination) in one request. 5 000 000 holds a 10-station
- * day of 30-s data (~0.47 M observations) or 25 stations over about 7 hours; larger networks and
- * longer spans go through the archive or a job (not built yet).
+ * day of 30-s data (~0.47 M observations; ~31 MB as text/csv, within ZWD_BODY_LIMIT_BYTES) or 25
+ * stations over about 7 hours; larger networks and longer spans go through the archive or a job
+ * (not built yet).
  */
 export const MAX_NETWORK_STATION_OBSERVATIONS = 5_000_000;

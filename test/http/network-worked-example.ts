@@ -94,13 +94,21 @@ async function main() {
     console.log('|---|---|---|---|---|');
     const ref = b.stations.find((x: { station: string }) => x.station === 'ASHCOMBE');
     const mid = ref.series[Math.floor(ref.series.length / 2)].epoch as string;
-    const truth = (name: string) => APRIORI.zwd_m + truthZwd(s, s.stations.findIndex((x) => x.name === name), Date.parse(mid));
+    const truth = (name: string) =>
+      APRIORI.zwd_m +
+      truthZwd(
+        s,
+        s.stations.findIndex((x) => x.name === name),
+        Date.parse(mid),
+      );
     const refEntry = ref.series.find((e: SeriesEntry) => e.epoch === mid) as SeriesEntry;
     for (const st of b.stations) {
       const e = st.series.find((x: SeriesEntry) => x.epoch === mid) as SeriesEntry;
       const err = e.zwd_m - truth(st.station);
       const rel = st.station === 'ASHCOMBE' ? null : err - (refEntry.zwd_m - truth('ASHCOMBE'));
-      console.log(`| ${st.station} | ${mm(err)} | ${mm(e.sigma_m)} | ${mm(rel)} | ${st.station === 'ASHCOMBE' ? '—' : mm(e.relative_sigma_m)} |`);
+      console.log(
+        `| ${st.station} | ${mm(err)} | ${mm(e.sigma_m)} | ${mm(rel)} | ${st.station === 'ASHCOMBE' ? '—' : mm(e.relative_sigma_m)} |`,
+      );
     }
     console.log(`\nwarnings (mid-session epoch ${mid}):`);
     for (const w of b.warnings) console.log(`    ${w}`);
