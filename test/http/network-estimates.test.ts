@@ -431,6 +431,12 @@ for (const backend of BACKENDS) {
       ]);
     });
 
+    it('a site in a station of the storing route is an unknown key (the archive gives the site)', async () => {
+      const stations = [{ id: s.stations[0]!.name, site: siteOf(s.stations[0]!) }];
+      const res = await api().post('/v1/network/zwd-estimates').set('authorization', auth).send(storedBody(stations)).expect(400);
+      expect(problemFields(res.body)).toEqual(['stations.0.site']);
+    });
+
     it('needs a write key', async () => {
       await api().post('/v1/network/zwd-estimates').send(storedBody([])).expect(401);
     });
