@@ -52,3 +52,16 @@ export const STORED_GRADIENT_RANGE_M = [-0.05, 0.05] as const;
  * hand-over (a millisecond or two) costs more than the work, above it the work would hold the loop.
  */
 export const OFFLOAD_BODY_BYTES = 128 * 1024;
+/**
+ * Stations of one network estimation (POST /v1/network-estimates). The estimator's cost per epoch
+ * grows as the square of the stations (every epoch's reduced matrix is dense in all stations).
+ */
+export const MAX_NETWORK_STATIONS = 100;
+/**
+ * Stations × observations of one network estimation, checked before any work: the size of the
+ * work (the design, the per-epoch clock elimination) in one request. 5 000 000 holds a 10-station
+ * day of 30-s data (~0.47 M observations; ~31 MB as text/csv, within ZWD_BODY_LIMIT_BYTES) or 25
+ * stations over about 7 hours; larger networks and longer spans go through the archive or a job
+ * (not built yet).
+ */
+export const MAX_NETWORK_STATION_OBSERVATIONS = 5_000_000;

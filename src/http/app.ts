@@ -24,6 +24,7 @@ import requestLog from './plugins/request-log.js';
 import storage from './plugins/storage.js';
 import healthRoute from './routes/health.js';
 import mappingFactorsRoute from './routes/mapping-factors.js';
+import networkEstimatesRoute from './routes/network-estimates.js';
 import networkPwvRoute from './routes/network-precipitable-water.js';
 import precipitableWaterRoute from './routes/precipitable-water.js';
 import profileDelaysRoute from './routes/profile-delays.js';
@@ -166,6 +167,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(slantDelaysRoute);
   await app.register(precipitableWaterRoute);
   await app.register(zwdEstimatesRoute);
+  await app.register(networkEstimatesRoute);
   const stationOptions = { maxReadRangeDays: archive.maxReadRangeDays };
   await app.register(stationsRoute);
   await app.register(stationMetRoute, stationOptions);

@@ -8,11 +8,14 @@
 import type { TaskLocation } from '../workers/compute-pool.js';
 import type { handleMappingFactorsRequest, handlePrecipitableWaterRequest, handleSlantDelaysRequest } from './tasks/apriori-batch.js';
 import type { readMetUploadTask } from './tasks/met-upload.js';
+import type { handleNetworkRequest } from './tasks/network-request.js';
 import type { handleZwdRequest, scanZwdRequest } from './tasks/zwd-request.js';
 
 export type ComputeTasks = {
   /** A whole POST .../zwd-estimates request: parse, validate, estimate, serialise (and for a station, the rows to store). */
   'zwd-estimate-request': typeof handleZwdRequest;
+  /** A whole POST /v1/network-estimates or /v1/network/zwd-estimates request: parse, validate, estimate, serialise (and what to store). */
+  'network-estimate-request': typeof handleNetworkRequest;
   /** First pass of a station's estimation: the epoch range of the observations and whether the body has met. */
   'zwd-request-scan': typeof scanZwdRequest;
   /** A large POST /v1/slant-delays (body above OFFLOAD_BODY_BYTES): parse, validate, compute, serialise. */
@@ -30,10 +33,12 @@ export type ComputeTaskName = keyof ComputeTasks;
 const ext = import.meta.url.endsWith('.ts') ? 'ts' : 'js';
 const zwdRequestModule = new URL(`./tasks/zwd-request.${ext}`, import.meta.url).href;
 const aprioriBatchModule = new URL(`./tasks/apriori-batch.${ext}`, import.meta.url).href;
+const networkRequestModule = new URL(`./tasks/network-request.${ext}`, import.meta.url).href;
 const metUploadModule = new URL(`./tasks/met-upload.${ext}`, import.meta.url).href;
 
 export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
   'zwd-estimate-request': { module: zwdRequestModule, exportName: 'handleZwdRequest' },
+  'network-estimate-request': { module: networkRequestModule, exportName: 'handleNetworkRequest' },
   'zwd-request-scan': { module: zwdRequestModule, exportName: 'scanZwdRequest' },
   'slant-delays-request': { module: aprioriBatchModule, exportName: 'handleSlantDelaysRequest' },
   'mapping-factors-request': { module: aprioriBatchModule, exportName: 'handleMappingFactorsRequest' },

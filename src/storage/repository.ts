@@ -136,6 +136,11 @@ export interface Repository {
    * modelFingerprint must equal modelSet.modelFingerprint. Keys must be unique within `rows`.
    */
   writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts>;
+  /**
+   * writeDelays for several stations under one model set in ONE transaction: every station's rows
+   * are stored, or none (a network estimation). UnknownStationError when any station does not exist.
+   */
+  writeDelaysMany(writes: readonly StationDelayRows[], modelSet: StoredModelSet): Promise<WriteCounts[]>;
   /** Delay rows of one station in [fromMs, toMs], ordered by epoch then source. */
   readDelays(stationId: string, range: TimeRange, source?: string): Promise<DelayRow[]>;
   /** The same rows as readDelays with the zenith total delay only (ZenithDelayRow). */
@@ -182,6 +187,12 @@ export interface ConnectionStats {
   total: number;
   idle: number;
   waiting: number;
+}
+
+/** One station's delay rows of a writeDelaysMany. */
+export interface StationDelayRows {
+  stationId: string;
+  rows: readonly DelayRow[];
 }
 
 /** Raised for a write that names a station that does not exist. */

@@ -26,8 +26,11 @@ declare module 'fastify' {
 }
 
 export const KEY_FILE_NAME = 'api-key';
-/** The station archive's routes: one station's series and the network reads across stations. */
-const PROTECTED_PREFIXES = ['/v1/stations', '/v1/network'];
+/**
+ * The station archive's routes: one station's series, the network reads across stations and the
+ * storing network estimation (/v1/network/...; /v1/network-estimates, which stores nothing, is open).
+ */
+const PROTECTED_PREFIXES = ['/v1/stations', '/v1/network/'];
 const WRITE_METHODS = new Set(['PUT', 'POST', 'PATCH', 'DELETE']);
 
 export interface AuthPluginOptions {

@@ -26,6 +26,7 @@ import type {
   Station,
   StationInput,
   SoundingRow,
+  StationDelayRows,
   StationRange,
   StoredModelSet,
   StoredSounding,
@@ -299,14 +300,33 @@ export class PostgresRepository implements Repository {
   }
 
   async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts> {
-    for (const r of rows)
-      if (r.modelFingerprint !== modelSet.modelFingerprint) throw new Error('delay row fingerprint differs from its model set');
+    return (await this.writeDelaysMany([{ stationId, rows }], modelSet))[0]!;
+  }
+
+  async writeDelaysMany(writes: readonly StationDelayRows[], modelSet: StoredModelSet): Promise<WriteCounts[]> {
+    for (const w of writes)
+      for (const r of w.rows)
+        if (r.modelFingerprint !== modelSet.modelFingerprint) throw new Error('delay row fingerprint differs from its model set');
     return this.transaction(async (client) => {
-      await this.lockStation(client, stationId);
+      // Stations locked in id order, so that two writes of overlapping networks cannot deadlock.
+      for (const id of [...new Set(writes.map((w) => w.stationId))].sort()) await this.lockStation(client, id);
       await client.query(
         'INSERT INTO model_sets (model_fingerprint, models_json) VALUES ($1, $2) ON CONFLICT (model_fingerprint) DO NOTHING',
         [modelSet.modelFingerprint, JSON.stringify(modelSet.models)],
       );
+      const counts: WriteCounts[] = [];
+      for (const w of writes) counts.push(await this.upsertDelays(client, w.stationId, w.rows, modelSet.modelFingerprint));
+      return counts;
+    });
+  }
+
+  private async upsertDelays(
+    client: pg.PoolClient,
+    stationId: string,
+    rows: readonly DelayRow[],
+    modelFingerprint: string,
+  ): Promise<WriteCounts> {
+    {
       let returned = 0;
       let inserted = 0;
       const cols = [
@@ -346,14 +366,14 @@ export class PostgresRepository implements Repository {
             chunk.map((r) => r.eastGradientM),
             chunk.map((r) => r.northGradientSigmaM),
             chunk.map((r) => r.eastGradientSigmaM),
-            modelSet.modelFingerprint,
+            modelFingerprint,
           ],
         );
         returned += Number(result.rows[0]!.written);
         inserted += Number(result.rows[0]!.inserted);
       }
       return { inserted, updated: returned - inserted, unchanged: rows.length - returned };
-    });
+    }
   }
 
   async readDelays(stationId: string, range: TimeRange, source?: string): Promise<DelayRow[]> {

@@ -30,6 +30,7 @@ import type {
   Station,
   StationInput,
   SoundingRow,
+  StationDelayRows,
   StationRange,
   StoredModelSet,
   StoredSounding,
@@ -322,6 +323,18 @@ export class SqliteRepository implements Repository {
       if (!this.stmt.getStation.get(stationId)) throw new UnknownStationError(stationId);
       this.stmt.insertModelSet.run(modelSet.modelFingerprint, JSON.stringify(modelSet.models));
       return this.upsertSeries(this.delayWriter, stationId, rows, putDelayValues);
+    });
+    return withConflictRetry(async () => tx.immediate());
+  }
+
+  async writeDelaysMany(writes: readonly StationDelayRows[], modelSet: StoredModelSet): Promise<WriteCounts[]> {
+    for (const w of writes)
+      for (const r of w.rows)
+        if (r.modelFingerprint !== modelSet.modelFingerprint) throw new Error('delay row fingerprint differs from its model set');
+    const tx = this.db.transaction(() => {
+      for (const w of writes) if (!this.stmt.getStation.get(w.stationId)) throw new UnknownStationError(w.stationId);
+      this.stmt.insertModelSet.run(modelSet.modelFingerprint, JSON.stringify(modelSet.models));
+      return writes.map((w) => this.upsertSeries(this.delayWriter, w.stationId, w.rows, putDelayValues));
     });
     return withConflictRetry(async () => tx.immediate());
   }

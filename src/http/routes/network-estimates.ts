@@ -1,0 +1,146 @@
+/**
+ * POST /v1/network-estimates: ZWD of several stations estimated jointly from zero-difference
+ * residuals, receiver and satellite clocks pre-eliminated epoch by epoch (issue 12); and
+ * POST /v1/network/zwd-estimates, the same for archive stations, storing every station's series.
+ * The body stays bytes on the event loop; parsing, validation, the estimation and the serialisation
+ * run in the worker pool (src/http/tasks/network-request.ts).
+ */
+
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import type { Site } from '../../domain/site.js';
+import type { DelayColumns } from '../../services/zwd-estimation.js';
+import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, transferOf } from '../raw-body.js';
+import { HttpProblem } from '../problem.js';
+
+/** The network routes take JSON or CSV (an Arrow table of several stations is not offered yet). */
+function jsonOrCsvBodyOf(request: Parameters<typeof rawBodyOf>[0]) {
+  const raw = rawBodyOf(request);
+  if (raw.format === 'arrow') throw new HttpProblem(415, 'content type application/vnd.apache.arrow.stream is not accepted here; send application/json or text/csv');
+  return { body: raw.body, format: raw.format };
+}
+import { problemSchema } from '../schemas/common.js';
+import {
+  DEFAULT_NETWORK_SOURCE,
+  MAX_NETWORK_STATION_OBSERVATIONS,
+  MAX_NETWORK_STATIONS,
+  MAX_OBSERVATIONS,
+  networkCsvQuerySchema,
+  networkEstimatesRequest,
+  networkEstimatesResponse,
+  networkStoredEstimatesRequest,
+  networkStoredEstimatesResponse,
+  networkStoredQuerySchema,
+  ZWD_BODY_LIMIT_BYTES,
+} from '../schemas/network-estimates.js';
+import { delayRows } from './station-zwd-estimates.js';
+
+const MODEL_TEXT =
+  'Per observation r = m_w(e) δw_a(t) + m_g(e) [cos A G_N,a(t) + sin A G_E,a(t)] + ρ_a(t) + σ_k(t) + ε: ZWD and gradients per station with the random-walk model of POST /v1/zwd-estimates (piecewise-linear nodes), one receiver clock ρ per station and epoch and, with satellite_clocks "estimated", one clock σ per satellite and epoch, both pre-eliminated epoch by epoch (equivalent to double differences with their full covariance; one datum clock per connected group and epoch). With satellite_clocks "known" (point positioning) every station is solved alone, as by POST /v1/zwd-estimates.';
+
+const LIMITS_TEXT = `Limits, checked before any work: up to ${MAX_NETWORK_STATIONS} stations and ${MAX_OBSERVATIONS} observations, and stations × observations at most ${MAX_NETWORK_STATION_OBSERVATIONS} (413 naming observations and saying how much fits; a 10-station day of 30-s data fits, as text/csv of about 31 MB; as JSON it is about 67 MB, above the body limit); the answer's output nodes over all stations within the estimation's answer cap (422). Body limit ${ZWD_BODY_LIMIT_BYTES} bytes. Requests too large for one body go through the archive or a job; such jobs are not built yet.`;
+
+const BODY_TEXT =
+  'Bodies: application/json (this schema) or text/csv: a table with the header row station,epoch,satellite,elevation_deg,azimuth_deg,residual_m[,sigma_m], the stations as query parameters station=ID,latitude_deg,longitude_deg,height_m[,apriori_zhd_m[,apriori_zwd_m]] (once per station) and the options as query parameters (those of POST /v1/zwd-estimates plus satellite_clocks, reference_station, common_mode_sigma_threshold_m).';
+
+const networkEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
+  keepJsonBodiesAsBytes(app);
+  app.post(
+    '/v1/network-estimates',
+    {
+      bodyLimit: ZWD_BODY_LIMIT_BYTES,
+      schema: {
+        summary: 'ZWD and gradients of several stations estimated jointly, with the clocks pre-eliminated',
+        description: [
+          MODEL_TEXT,
+          'Per station: the series of POST /v1/zwd-estimates (sigma_m: σ of the absolute ZWD) plus relative_sigma_m, σ relative to the reference station. common_mode: σ of the network-mean ZWD with the clocks estimated and known, its correlation with the clocks, the extent in km and in nadir angle; a warning when the absolute level is not determined to options.common_mode_sigma_threshold_m. Satellites seen by one station at an epoch and epochs with one station carry no information with the clocks estimated: dropped and counted.',
+          BODY_TEXT,
+          LIMITS_TEXT,
+        ].join(' '),
+        tags: ['estimation'],
+        querystring: networkCsvQuerySchema,
+        body: networkEstimatesRequest,
+        response: {
+          200: networkEstimatesResponse,
+          400: problemSchema,
+          413: problemSchema,
+          415: problemSchema,
+          422: problemSchema,
+          503: problemSchema,
+        },
+      },
+      validatorCompiler: bodyInWorkerValidator,
+    },
+    async (request, reply) => {
+      const raw = jsonOrCsvBodyOf(request);
+      const output = await app.compute.run(
+        'network-estimate-request',
+        { ...raw, query: request.query as Record<string, unknown> },
+        transferOf(raw),
+      );
+      return reply.type('application/json').send(asBuffer(output.json) as never);
+    },
+  );
+
+  app.post(
+    '/v1/network/zwd-estimates',
+    {
+      bodyLimit: ZWD_BODY_LIMIT_BYTES,
+      schema: {
+        summary: "Estimate ZWD jointly for archive stations and store every station's series",
+        description: [
+          'The estimation of POST /v1/network-estimates for stations of the archive: `stations` name archive stations (id, optional apriori; no site: the stored coordinates are the sites; a station not in the archive is a 404 naming stations.N.id). text/csv: station=ID[,apriori_zhd_m[,apriori_zwd_m]] once per station.',
+          `Every station's series is stored as its delay series under ?source= (default "${DEFAULT_NETWORK_SOURCE}") and the result's model_fingerprint, all stations in one transaction: all or nothing. A station whose estimated ZTD falls outside the range a direct deposit accepts makes the whole request a 422 and nothing is stored.`,
+          MODEL_TEXT,
+          LIMITS_TEXT,
+          'Writes need `Authorization: Bearer <key>`.',
+        ].join(' '),
+        tags: ['station archive', 'estimation'],
+        security: [{ bearerKey: [] }],
+        querystring: networkStoredQuerySchema,
+        body: networkStoredEstimatesRequest,
+        response: {
+          200: networkStoredEstimatesResponse,
+          400: problemSchema,
+          401: problemSchema,
+          403: problemSchema,
+          404: problemSchema,
+          413: problemSchema,
+          415: problemSchema,
+          422: problemSchema,
+          503: problemSchema,
+        },
+      },
+      validatorCompiler: bodyInWorkerValidator,
+    },
+    async (request, reply) => {
+      const source = request.query.source ?? DEFAULT_NETWORK_SOURCE;
+      const raw = jsonOrCsvBodyOf(request);
+      const archiveSites: Record<string, Site> = {};
+      for (const s of await app.repository.listStations())
+        archiveSites[s.stationId] = { latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, heightM: s.heightM };
+      const output = await app.compute.run(
+        'network-estimate-request',
+        { ...raw, query: request.query as Record<string, unknown>, archiveSites },
+        transferOf(raw),
+      );
+      const stored = await storeNetwork(app.repository, source, output.delays!, output.modelFingerprint!, output.models!);
+      const tail = `,"stored":${JSON.stringify(stored)}}`;
+      return reply.type('application/json').send(Buffer.concat([asBuffer(output.json), Buffer.from(tail)]) as never);
+    },
+  );
+};
+
+/** Every station's rows in one transaction (Repository.writeDelaysMany): all stored or none. */
+async function storeNetwork(
+  repository: import('../../storage/repository.js').Repository,
+  source: string,
+  delays: { station: string; columns: DelayColumns }[],
+  modelFingerprint: string,
+  models: Record<string, string | number | boolean | null>,
+) {
+  const writes = delays.map((d) => ({ stationId: d.station, rows: delayRows(d.columns, source, modelFingerprint) }));
+  const counts = await repository.writeDelaysMany(writes, { modelFingerprint, models });
+  return delays.map((d, i) => ({ station: d.station, source, ...counts[i]! }));
+}
+
+export default networkEstimatesRoute;

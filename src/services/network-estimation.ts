@@ -1,0 +1,217 @@
+/**
+ * The network ZWD estimation as a use case, in domain shapes (camelCase, SI; observation angles in
+ * radians): request → size checks before any work → a-priori delays per station → estimateNetwork
+ * (src/estimation/network) → models, fingerprint and warnings. Free of HTTP: the adapters in
+ * src/http turn API bodies into NetworkEstimationRequest and the result into the API answer; the
+ * storing route stores networkDelayColumns(result, s) for every station.
+ *
+ * The options are the single-station estimator's (the one table, src/services/zwd-options.ts) plus
+ * the network's own: how the satellite clocks are treated, the reference station of the relative
+ * ZWD, and the threshold of the common-mode warning.
+ */
+
+import { DEG } from '../domain/constants.js';
+import { MODEL_NAMES, provenance, type ModelSet } from '../domain/provenance.js';
+import type { Site } from '../domain/site.js';
+import { standardAtmosphere } from '../domain/meteo/standard-atmosphere.js';
+import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
+import { estimateNetwork } from '../estimation/network/estimate-network.js';
+import type { NetworkEstimationOutput, NetworkObservationColumns, SatelliteClockHandling } from '../estimation/network/types.js';
+import { MAX_ANSWER_NODES, MAX_NETWORK_STATION_OBSERVATIONS } from '../limits.js';
+import { answerSize } from './answer-size.js';
+import { CallerError } from './caller-error.js';
+import { guardResidualUnit } from './unit-guards.js';
+import { warning, type Warning } from './warnings.js';
+import type { DelayColumns } from './zwd-estimation.js';
+import { toEstimatorOptions, zwdModels } from './zwd-estimation.js';
+import type { ZwdOptionValues } from './zwd-options.js';
+
+export const SATELLITE_CLOCK_HANDLING = ['estimated', 'known'] as const satisfies readonly SatelliteClockHandling[];
+
+/** Default threshold of the common-mode warning: σ of the network-mean ZWD above 5 mm (≈ 0.8 mm of PWV) [m]. */
+export const DEFAULT_COMMON_MODE_SIGMA_THRESHOLD_M = 0.005;
+
+export interface NetworkStationRequest {
+  /** Station id; observations refer to it. */
+  name: string;
+  site: Site;
+  /** The a-priori zenith delays this station's residuals were formed with [m]; absent ZHD = standard atmosphere, absent ZWD = 0. */
+  apriori: { zhdM?: number | undefined; zwdM?: number | undefined };
+}
+
+export interface NetworkEstimationRequest {
+  stations: NetworkStationRequest[];
+  observations: NetworkObservationColumns;
+  options: ZwdOptionValues;
+  satelliteClocks: SatelliteClockHandling;
+  /** Station of the relative ZWD; null = the station nearest the network's centroid. */
+  referenceStation: string | null;
+  /** The absolute-level warning is given when σ of the network-mean ZWD exceeds this [m]. */
+  commonModeSigmaThresholdM: number;
+}
+
+export interface StationApriori {
+  zhdM: number;
+  zwdM: number;
+  zhdSource: 'caller' | 'standard-atmosphere';
+}
+
+export interface NetworkEstimationResult {
+  output: NetworkEstimationOutput;
+  /** One per output.stations entry (the request's station order). */
+  apriori: StationApriori[];
+  models: ModelSet;
+  modelFingerprint: string;
+  warnings: Warning[];
+}
+
+/**
+ * @throws CallerError 413 when stations × observations exceed MAX_NETWORK_STATION_OBSERVATIONS,
+ *   422 when the answer would hold more than MAX_ANSWER_NODES output nodes (both before any work)
+ */
+export function checkNetworkSize(request: Pick<NetworkEstimationRequest, 'stations' | 'observations' | 'options'>): void {
+  const stations = request.stations.length;
+  const observations = request.observations.epochMs.length;
+  if (stations * observations > MAX_NETWORK_STATION_OBSERVATIONS) {
+    const fit = Math.floor(MAX_NETWORK_STATION_OBSERVATIONS / Math.max(stations, 1));
+    throw CallerError.field(
+      413,
+      'observations',
+      `${stations} stations × ${observations} observations = ${stations * observations}; one request takes at most ${MAX_NETWORK_STATION_OBSERVATIONS} (stations × observations, MAX_NETWORK_STATION_OBSERVATIONS): ask for less, e.g. at most ${fit} observations with these ${stations} stations (a shorter span or a longer sampling interval) or fewer stations. Requests too large for one body go through the archive or a job, which are not built yet`,
+    );
+  }
+  const { zwdNodes, gradientNodes } = answerSize(request.observations.epochMs, request.options);
+  const perStation = zwdNodes + gradientNodes;
+  if (stations * perStation > MAX_ANSWER_NODES) {
+    const field = gradientNodes > zwdNodes ? 'options.gradients.interval_s' : 'options.zwd_interval_s';
+    const message = `the answer would hold ${stations * perStation} output nodes (${stations} stations × (${zwdNodes} ZWD at ${request.options.zwdIntervalS} s + ${gradientNodes} gradient nodes)); at most ${MAX_ANSWER_NODES} (MAX_ANSWER_NODES): ask for less, a larger ${field.replace('options.', '')}, fewer stations or a shorter span`;
+    throw new CallerError(422, `${field}: ${message}`, [{ field, message }]);
+  }
+}
+
+function aprioriOf(station: NetworkStationRequest): StationApriori {
+  const { site, apriori } = station;
+  const zhdSource = apriori.zhdM === undefined ? ('standard-atmosphere' as const) : ('caller' as const);
+  const zhdM = apriori.zhdM ?? zenithHydrostaticDelayM(standardAtmosphere(site.heightM).pressureHpa, site.latitudeDeg * DEG, site.heightM);
+  return { zhdM, zwdM: apriori.zwdM ?? 0, zhdSource };
+}
+
+/** Models of a network result: the single-station settings, the network estimator and how the clocks were treated. */
+export function networkModels(
+  options: ZwdOptionValues,
+  satelliteClocks: SatelliteClockHandling,
+  zhdSources: readonly StationApriori['zhdSource'][],
+): ModelSet {
+  const allCaller = zhdSources.every((s) => s === 'caller');
+  const noneCaller = zhdSources.every((s) => s === 'standard-atmosphere');
+  const standard = `${MODEL_NAMES.zhd} with ${MODEL_NAMES.standardAtmosphere}`;
+  return {
+    ...zwdModels(options, allCaller ? 'caller' : 'standard-atmosphere'),
+    estimator:
+      satelliteClocks === 'estimated'
+        ? 'network least squares: piecewise-linear nodes on round UTC epochs, random-walk constraints, receiver and satellite clocks per epoch pre-eliminated (one datum clock per connected group of stations and epoch), outlier screening across the network'
+        : 'network least squares with satellite clocks known: independent single-station solutions, piecewise-linear nodes on round UTC epochs, random-walk constraints, receiver clocks per epoch pre-eliminated',
+    apriori_zhd: allCaller ? 'caller' : noneCaller ? standard : `caller where given, else ${standard}`,
+    satellite_clocks: satelliteClocks,
+  };
+}
+
+/**
+ * @throws CallerError 413/422 (checkNetworkSize), 400 (residuals in millimetres, point-positioning
+ *   case only); ModelDomainError 400/422 from the estimator (unknown or duplicate station, a node
+ *   not determined)
+ */
+export function runNetworkEstimation(request: NetworkEstimationRequest): NetworkEstimationResult {
+  checkNetworkSize(request);
+  const obs = request.observations;
+  if (request.satelliteClocks === 'known') {
+    // With satellite clocks estimated the residuals of an epoch hold a clock per satellite (up to
+    // hundreds of km apart), so the unit guard only applies with the clocks known, per station.
+    const byStation = new Map<string, number[]>();
+    obs.station.forEach((s, i) => {
+      const list = byStation.get(s);
+      if (list) list.push(i);
+      else byStation.set(s, [i]);
+    });
+    for (const idx of byStation.values())
+      guardResidualUnit(
+        idx.map((i) => obs.epochMs[i]!),
+        idx.map((i) => obs.residualM[i]!),
+      );
+  }
+  const output = estimateNetwork({
+    stations: request.stations.map((s) => ({
+      name: s.name,
+      latitudeRad: s.site.latitudeDeg * DEG,
+      longitudeRad: s.site.longitudeDeg * DEG,
+      heightM: s.site.heightM,
+    })),
+    observations: obs,
+    options: {
+      ...toEstimatorOptions(request.options),
+      satelliteClocks: request.satelliteClocks,
+      referenceStation: request.referenceStation,
+      // The absolute-level warning is made here, with its own code.
+      commonModeSigmaThresholdM: Number.POSITIVE_INFINITY,
+    },
+  });
+  const byName = new Map(request.stations.map((s) => [s.name, s]));
+  const apriori = output.stations.map((r) => aprioriOf(byName.get(r.station)!));
+  const warnings: Warning[] = output.warnings.map((text) => warning('estimator', text));
+  const defaulted = output.stations.filter((_, s) => apriori[s]!.zhdSource === 'standard-atmosphere').map((r) => r.station);
+  if (defaulted.length > 0) {
+    warnings.push(
+      warning(
+        'apriori-zhd-defaulted',
+        `stations.apriori.zhd_m not given for ${defaulted.length} station${defaulted.length > 1 ? 's' : ''} (${defaulted.slice(0, 10).join(', ')}${defaulted.length > 10 ? ', …' : ''}): the Saastamoinen ZHD of the standard atmosphere at the station height is used for ztd_m; give the ZHD the residuals were formed with`,
+      ),
+    );
+  }
+  const cm = output.commonMode;
+  const sigmaMean = cm.meanZwdSigmaClocksEstimatedM;
+  if (sigmaMean !== null && sigmaMean > request.commonModeSigmaThresholdM) {
+    warnings.push(
+      warning(
+        'absolute-level-poorly-determined',
+        `the absolute ZWD level is poorly determined: σ of the network-mean ZWD is ${(sigmaMean * 1000).toFixed(1)} mm (threshold ${(request.commonModeSigmaThresholdM * 1000).toFixed(1)} mm, options.common_mode_sigma_threshold_m; ${(cm.meanZwdSigmaClocksKnownM * 1000).toFixed(1)} mm with satellite clocks known). The network spans ${cm.extentKm.toFixed(0)} km, ${cm.extentNadirDeg.toFixed(2)}° of nadir angle seen from the satellites: only ZWD differences between stations (relative_sigma_m) are well determined; add distant stations, a longer session, or use satellite clocks of a global solution (satellite_clocks "known")`,
+      ),
+    );
+  }
+  const { models, model_fingerprint } = provenance(
+    networkModels(
+      request.options,
+      output.satelliteClocks,
+      apriori.map((a) => a.zhdSource),
+    ),
+  );
+  return { output, apriori, models, modelFingerprint: model_fingerprint, warnings };
+}
+
+/** The stored form of station `s` of a result (as delayColumns of zwd-estimation.ts; no met, so ZWD = a-priori ZWD + δw). */
+export function networkDelayColumns(result: NetworkEstimationResult, s: number): DelayColumns {
+  const epochs = result.output.stations[s]!.epochs;
+  const a = result.apriori[s]!;
+  const n = epochs.length;
+  const c: DelayColumns = {
+    epochMs: new Float64Array(n),
+    ztdM: new Float64Array(n),
+    sigmaM: new Float64Array(n),
+    zwdM: new Float64Array(n),
+    northGradientM: new Float64Array(n),
+    eastGradientM: new Float64Array(n),
+    northGradientSigmaM: new Float64Array(n),
+    eastGradientSigmaM: new Float64Array(n),
+  };
+  for (let k = 0; k < n; k++) {
+    const e = epochs[k]!;
+    c.epochMs[k] = e.epochMs;
+    c.ztdM[k] = a.zhdM + a.zwdM + e.correctionM;
+    c.sigmaM[k] = e.sigmaM;
+    c.zwdM[k] = a.zwdM + e.correctionM;
+    c.northGradientM[k] = e.northGradientM ?? Number.NaN;
+    c.eastGradientM[k] = e.eastGradientM ?? Number.NaN;
+    c.northGradientSigmaM[k] = e.northGradientSigmaM ?? Number.NaN;
+    c.eastGradientSigmaM[k] = e.eastGradientSigmaM ?? Number.NaN;
+  }
+  return c;
+}
