@@ -8,6 +8,7 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { provenance } from '../../src/domain/provenance.js';
 import { createRepository, type StorageConfig } from '../../src/storage/factory.js';
+import { MIGRATIONS } from '../../src/storage/migrations.js';
 import type { DelayRow, MetRow, Repository } from '../../src/storage/repository.js';
 import { UnknownStationError } from '../../src/storage/repository.js';
 import { BACKENDS } from '../helpers/storage.js';
@@ -84,8 +85,8 @@ for (const backend of BACKENDS) {
       expect(second.station.createdAt).toBe(first.station.createdAt);
       await repo.putStation('ALD_2', { ...STATION, name: 'Aldervane (invented)', metHeightM: null });
       expect((await repo.listStations()).map((s) => s.stationId)).toEqual(['ALD_2', 'QMR-1']);
-      expect(await repo.deleteStation('ALD_2')).toBe(true);
-      expect(await repo.deleteStation('ALD_2')).toBe(false);
+      expect(await repo.purgeStation('ALD_2')).toBe(true);
+      expect(await repo.purgeStation('ALD_2')).toBe(false);
       expect(await repo.getStation('ALD_2')).toBeNull();
     });
 
@@ -189,14 +190,14 @@ for (const backend of BACKENDS) {
       expect(await repo.readDelays('QMR-1', { fromMs: 0, toMs: T0 * 2 })).toEqual([]);
     });
 
-    it('deleting a station deletes its met and delay series', async () => {
+    it('purging a station deletes its met and delay series', async () => {
       const { repo } = await fresh();
       await repo.putStation('QMR-1', STATION);
       await repo.putStation('KEEP', STATION);
       await repo.writeMet('QMR-1', [met(0), met(1)]);
       await repo.writeDelays('QMR-1', [delay(0)], MODEL_SET);
       await repo.writeMet('KEEP', [met(0)]);
-      expect(await repo.deleteStation('QMR-1')).toBe(true);
+      expect(await repo.purgeStation('QMR-1')).toBe(true);
       await repo.putStation('QMR-1', STATION);
       const all = { fromMs: 0, toMs: T0 * 2 };
       expect(await repo.readMet('QMR-1', all)).toEqual([]);
@@ -280,7 +281,7 @@ for (const backend of BACKENDS) {
         await client.connect();
         try {
           const versions = await client.query(`SELECT version FROM "${config.pgSchema}".schema_migrations ORDER BY version`);
-          expect(versions.rows.map((r) => r.version)).toEqual([1]);
+          expect(versions.rows.map((r) => r.version)).toEqual(MIGRATIONS.map((m) => m.version));
         } finally {
           await client.end();
         }
