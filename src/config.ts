@@ -71,7 +71,8 @@ export function parseKeyEntry(entry: string): ConfiguredKey | string {
   const name = entry.slice(0, first).trim();
   const role = entry.slice(first + 1, second).trim();
   const secret = entry.slice(second + 1).trim();
-  if (!KEY_NAME.test(name)) return `key name ${JSON.stringify(name.slice(0, 64))} must be 1-64 letters, digits, . _ - (starting with a letter or digit)`;
+  if (!KEY_NAME.test(name))
+    return `key name ${JSON.stringify(name.slice(0, 64))} must be 1-64 letters, digits, . _ - (starting with a letter or digit)`;
   if (!KEY_ROLES.has(role)) return `key ${name}: role ${JSON.stringify(role.slice(0, 16))} must be read, write or admin`;
   if (secret.length < MIN_KEY_SECRET_CHARS || /[\s,]/.test(secret))
     return `key ${name}: the secret must have at least ${MIN_KEY_SECRET_CHARS} characters and no spaces or commas`;
@@ -105,7 +106,9 @@ export function configuredApiKeys(config: Config, readText: (path: string) => st
     try {
       text = readText(file);
     } catch (err) {
-      throw new ConfigError(`TROPODELAY_API_KEYS_FILE=${JSON.stringify(file)}: cannot be read (${(err as NodeJS.ErrnoException).code ?? 'error'})`);
+      throw new ConfigError(
+        `TROPODELAY_API_KEYS_FILE=${JSON.stringify(file)}: cannot be read (${(err as NodeJS.ErrnoException).code ?? 'error'})`,
+      );
     }
     text.split(/\r?\n/).forEach((line, i) => {
       const entry = line.trim();
@@ -119,7 +122,8 @@ export function configuredApiKeys(config: Config, readText: (path: string) => st
   const names = new Set<string>();
   const secrets = new Set<string>();
   for (const k of keys) {
-    if (names.has(k.name)) throw new ConfigError(`API keys: the name ${k.name} is given twice (TROPODELAY_API_KEYS, its file, TROPO_API_KEYS)`);
+    if (names.has(k.name))
+      throw new ConfigError(`API keys: the name ${k.name} is given twice (TROPODELAY_API_KEYS, its file, TROPO_API_KEYS)`);
     if (secrets.has(k.secret)) throw new ConfigError(`API keys: key ${k.name} has the same secret as another key`);
     names.add(k.name);
     secrets.add(k.secret);

@@ -58,7 +58,9 @@ describe('API keys from the configuration', () => {
     expect(() => configuredApiKeys(loadConfig({ TROPODELAY_API_KEYS: `a:read:${S1},a:write:${S2}` }))).toThrow(/name a is given twice/);
     expect(() => configuredApiKeys(loadConfig({ TROPODELAY_API_KEYS: `a:read:${S1},b:write:${S1}` }))).toThrow(/key b has the same secret/);
     const missing = loadConfig({ TROPODELAY_API_KEYS_FILE: '/nonexistent/tropodelay-keys' });
-    expect(() => configuredApiKeys(missing)).toThrow(/TROPODELAY_API_KEYS_FILE="\/nonexistent\/tropodelay-keys": cannot be read \(ENOENT\)/);
+    expect(() => configuredApiKeys(missing)).toThrow(
+      /TROPODELAY_API_KEYS_FILE="\/nonexistent\/tropodelay-keys": cannot be read \(ENOENT\)/,
+    );
     const withBadLine = loadConfig({ TROPODELAY_API_KEYS_FILE: '/keys' });
     const read = () => `ok:read:${S1}\nbroken:writer:${S2}\n`;
     expect(() => configuredApiKeys(withBadLine, read)).toThrow(/line 2: key broken: role "writer"/);
@@ -70,7 +72,9 @@ describe('API keys from the configuration', () => {
   });
 
   it('warns at start that TROPO_API_KEYS is deprecated, and only when it is set', () => {
-    expect(configWarnings({ TROPO_API_KEYS: 'old-key-a-0123456789' }).join('\n')).toMatch(/TROPO_API_KEYS is deprecated.*role write.*key-1/);
+    expect(configWarnings({ TROPO_API_KEYS: 'old-key-a-0123456789' }).join('\n')).toMatch(
+      /TROPO_API_KEYS is deprecated.*role write.*key-1/,
+    );
     expect(configWarnings({ TROPODELAY_API_KEYS: `a:read:${S1}` })).toEqual([]);
   });
 
@@ -78,6 +82,8 @@ describe('API keys from the configuration', () => {
     expect(loadConfig({}).TROPODELAY_DELETE_RETENTION_DAYS).toBe(30);
     expect(loadConfig({ TROPODELAY_DELETE_RETENTION_DAYS: '0' }).TROPODELAY_DELETE_RETENTION_DAYS).toBe(0);
     expect(loadConfig({ TROPODELAY_DELETE_RETENTION_DAYS: '7.5' }).TROPODELAY_DELETE_RETENTION_DAYS).toBe(7.5);
-    expect(() => loadConfig({ TROPODELAY_DELETE_RETENTION_DAYS: '-1' })).toThrow(/TROPODELAY_DELETE_RETENTION_DAYS="-1": must be a number of days in \[0, 36500\]/);
+    expect(() => loadConfig({ TROPODELAY_DELETE_RETENTION_DAYS: '-1' })).toThrow(
+      /TROPODELAY_DELETE_RETENTION_DAYS="-1": must be a number of days in \[0, 36500\]/,
+    );
   });
 });

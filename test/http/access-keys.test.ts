@@ -86,7 +86,13 @@ for (const backend of BACKENDS) {
         .set(admin)
         .send({ name: 'station-reader', role: 'read' })
         .expect(201);
-      expect(created.body).toMatchObject({ name: 'station-reader', role: 'read', origin: 'database', created_by: 'admin', revoked_at: null });
+      expect(created.body).toMatchObject({
+        name: 'station-reader',
+        role: 'read',
+        origin: 'database',
+        created_by: 'admin',
+        revoked_at: null,
+      });
       const secret = created.body.secret as string;
       await request(replicas[0]!.server).post('/v1/admin/keys').set(admin).send({ name: 'station-reader', role: 'write' }).expect(409);
 
@@ -136,7 +142,9 @@ describe('configured keys', () => {
       expect(bad.body.errors.map((e: { field: string }) => e.field).sort()).toEqual(['name', 'role']);
       const list = await request(app.server).get('/v1/admin/keys').set(admin).expect(200);
       // With keys configured, no first admin key is made in the database.
-      expect(list.body.keys).toEqual([{ name: 'ops-admin', role: 'admin', origin: 'configuration', created_at: null, created_by: null, revoked_at: null }]);
+      expect(list.body.keys).toEqual([
+        { name: 'ops-admin', role: 'admin', origin: 'configuration', created_at: null, created_by: null, revoked_at: null },
+      ]);
     } finally {
       await app.close();
     }
@@ -147,7 +155,14 @@ describe('configured keys', () => {
     const legacy = 'legacy-generated-key-0123456789abcdef';
     writeFileSync(join(dir, 'api-key'), `${legacy}\n`, { mode: 0o600 });
     const app = await buildApp({
-      archive: { storage: { dataDir: dir }, apiKeys: [], keyDir: dir, readKeysRequired: false, maxReadRangeDays: 366, schedulePurge: false },
+      archive: {
+        storage: { dataDir: dir },
+        apiKeys: [],
+        keyDir: dir,
+        readKeysRequired: false,
+        maxReadRangeDays: 366,
+        schedulePurge: false,
+      },
     });
     try {
       await request(app.server).put('/v1/stations/OLD1').set('authorization', `Bearer ${legacy}`).send(STATION).expect(201);

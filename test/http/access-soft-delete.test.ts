@@ -19,14 +19,24 @@ for (const backend of BACKENDS) {
 
     it('hides the station and its series, reserves its id, lists it, and restores it unchanged', async () => {
       await api().put('/v1/stations/SD1').set('authorization', auth).send(STATION).expect(201);
-      await api().post('/v1/stations/SD1/met').set('authorization', auth).send({ records: [{ epoch: EPOCH, pressure_hpa: 1005 }] }).expect(200);
+      await api()
+        .post('/v1/stations/SD1/met')
+        .set('authorization', auth)
+        .send({ records: [{ epoch: EPOCH, pressure_hpa: 1005 }] })
+        .expect(200);
       const before = Date.now();
       await api().delete('/v1/stations/SD1').set('authorization', auth).expect(204);
 
       await api().get('/v1/stations/SD1').expect(404);
-      expect((await api().get('/v1/stations').expect(200)).body.stations.map((s: { station_id: string }) => s.station_id)).not.toContain('SD1');
+      expect((await api().get('/v1/stations').expect(200)).body.stations.map((s: { station_id: string }) => s.station_id)).not.toContain(
+        'SD1',
+      );
       await api().get('/v1/stations/SD1/met').query({ from: EPOCH, to: EPOCH }).expect(404);
-      await api().post('/v1/stations/SD1/met').set('authorization', auth).send({ records: [{ epoch: EPOCH, pressure_hpa: 1006 }] }).expect(404);
+      await api()
+        .post('/v1/stations/SD1/met')
+        .set('authorization', auth)
+        .send({ records: [{ epoch: EPOCH, pressure_hpa: 1006 }] })
+        .expect(404);
       const reuse = await api().put('/v1/stations/SD1').set('authorization', auth).send(STATION).expect(409);
       expect(reuse.body.detail).toContain('/v1/stations/SD1/restore');
       await api().delete('/v1/stations/SD1').set('authorization', auth).expect(404);
@@ -46,7 +56,11 @@ for (const backend of BACKENDS) {
 
     it('the purge keeps what is inside the retention period and removes what is past it, with its series', async () => {
       await api().put('/v1/stations/SD2').set('authorization', auth).send(STATION).expect(201);
-      await api().post('/v1/stations/SD2/met').set('authorization', auth).send({ records: [{ epoch: EPOCH, pressure_hpa: 1001 }] }).expect(200);
+      await api()
+        .post('/v1/stations/SD2/met')
+        .set('authorization', auth)
+        .send({ records: [{ epoch: EPOCH, pressure_hpa: 1001 }] })
+        .expect(200);
       await api().delete('/v1/stations/SD2').set('authorization', auth).expect(204);
       const now = Date.now();
       expect((await app().purgeExpired(now + 29 * DAY_MS)).purged).toEqual([]);
@@ -66,7 +80,11 @@ for (const backend of BACKENDS) {
       const bad = await api().delete('/v1/stations/SD3?purge=yes').set('authorization', auth).expect(400);
       expect(bad.body.errors[0].field).toBe('query.purge');
       await api().delete('/v1/stations/SD3?purge=true').set('authorization', auth).expect(204);
-      expect((await api().get('/v1/admin/deleted-stations').set('authorization', auth).expect(200)).body.stations.map((s: { station_id: string }) => s.station_id)).not.toContain('SD3');
+      expect(
+        (await api().get('/v1/admin/deleted-stations').set('authorization', auth).expect(200)).body.stations.map(
+          (s: { station_id: string }) => s.station_id,
+        ),
+      ).not.toContain('SD3');
       await api().put('/v1/stations/SD3').set('authorization', auth).send(STATION).expect(201);
     });
   });

@@ -15,8 +15,23 @@ import { StationDeletedError, UnknownStationError, type Repository } from '../..
 import { BACKENDS } from '../helpers/storage.js';
 
 const T0 = Date.UTC(2026, 4, 2, 0, 0, 0);
-const STATION = { name: 'Brackenfold (invented)', latitudeDeg: 52.1, longitudeDeg: -1.3, heightM: 120, metHeightM: null, description: null };
-const MET = { epochMs: T0, source: 'sensor-a', pressureHpa: 1001, temperatureC: 11, relativeHumidityPct: null, dewpointC: null, vapourPressureHpa: null };
+const STATION = {
+  name: 'Brackenfold (invented)',
+  latitudeDeg: 52.1,
+  longitudeDeg: -1.3,
+  heightM: 120,
+  metHeightM: null,
+  description: null,
+};
+const MET = {
+  epochMs: T0,
+  source: 'sensor-a',
+  pressureHpa: 1001,
+  temperatureC: 11,
+  relativeHumidityPct: null,
+  dewpointC: null,
+  vapourPressureHpa: null,
+};
 const MODELS = provenance({ mapping: 'niell' });
 
 const key = (name: string, role: StoredApiKey['role'], secret: string): StoredApiKey => ({
@@ -78,9 +93,9 @@ for (const backend of BACKENDS) {
       expect(await repo.getStation('BRK')).toBeNull();
       expect((await repo.listStations()).map((s) => s.stationId)).toEqual(['KEEP']);
       await expect(repo.writeMet('BRK', [MET])).rejects.toBeInstanceOf(UnknownStationError);
-      await expect(repo.writeDelays('BRK', [], { modelFingerprint: MODELS.model_fingerprint, models: MODELS.models })).rejects.toBeInstanceOf(
-        UnknownStationError,
-      );
+      await expect(
+        repo.writeDelays('BRK', [], { modelFingerprint: MODELS.model_fingerprint, models: MODELS.models }),
+      ).rejects.toBeInstanceOf(UnknownStationError);
       const reuse = repo.putStation('BRK', STATION);
       await expect(reuse).rejects.toBeInstanceOf(StationDeletedError);
       await expect(reuse).rejects.toMatchObject({ deletedAt: '2026-05-02T10:00:00.000Z' });
@@ -134,7 +149,18 @@ for (const backend of BACKENDS) {
     it('audit events come back newest first, filtered by time, station and key, with their counts', async () => {
       const repo = await fresh();
       await repo.appendAuditEvent(event(0));
-      await repo.appendAuditEvent(event(1, { stationId: 'OTHER', keyName: 'ops-admin', method: 'DELETE', records: null, inserted: null, updated: null, unchanged: null, status: 204 }));
+      await repo.appendAuditEvent(
+        event(1, {
+          stationId: 'OTHER',
+          keyName: 'ops-admin',
+          method: 'DELETE',
+          records: null,
+          inserted: null,
+          updated: null,
+          unchanged: null,
+          status: 204,
+        }),
+      );
       await repo.appendAuditEvent(event(2, { keyName: null, clientAddress: '2001:db8::7', status: 403 }));
       const all = await repo.listAuditEvents({ limit: 100 });
       expect(all.map((e) => e.requestId)).toEqual(['req-2', 'req-1', 'req-0']);
@@ -142,7 +168,9 @@ for (const backend of BACKENDS) {
       expect(all[1]).toMatchObject({ method: 'DELETE', records: null, status: 204 });
       expect((await repo.listAuditEvents({ limit: 100, stationId: 'BRK' })).map((e) => e.requestId)).toEqual(['req-2', 'req-0']);
       expect((await repo.listAuditEvents({ limit: 100, keyName: 'ops-admin' })).map((e) => e.requestId)).toEqual(['req-1']);
-      expect((await repo.listAuditEvents({ limit: 100, fromMs: T0 + 60_000, toMs: T0 + 60_000 })).map((e) => e.requestId)).toEqual(['req-1']);
+      expect((await repo.listAuditEvents({ limit: 100, fromMs: T0 + 60_000, toMs: T0 + 60_000 })).map((e) => e.requestId)).toEqual([
+        'req-1',
+      ]);
       expect((await repo.listAuditEvents({ limit: 1 })).map((e) => e.requestId)).toEqual(['req-2']);
     });
   });

@@ -132,7 +132,14 @@ export class KeyStore {
 
   /** Configured keys (no dates) and stored keys, by name; never a secret or a digest. */
   async list(): Promise<
-    { name: string; role: KeyRole; origin: 'configuration' | 'database'; createdAt: string | null; createdBy: string | null; revokedAt: string | null }[]
+    {
+      name: string;
+      role: KeyRole;
+      origin: 'configuration' | 'database';
+      createdAt: string | null;
+      createdBy: string | null;
+      revokedAt: string | null;
+    }[]
   > {
     const stored = await this.repository.listApiKeys();
     return [

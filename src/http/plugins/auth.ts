@@ -84,7 +84,9 @@ async function auth(app: FastifyInstance, options: AuthPluginOptions): Promise<v
         `no API keys configured: ${outcome.fromLegacyFile ? 'the key of' : 'an admin key named "admin" was generated into'} ${outcome.file} (owner-only file)${outcome.fromLegacyFile ? ' is now the admin key "admin"' : ''}; keys are shared with every replica through the database`,
       );
     } else if (outcome.kind === 'created-elsewhere') {
-      app.log.info('no API keys configured: another replica created the admin key at the same moment; its secret is in that replica\'s data directory (api-key)');
+      app.log.info(
+        "no API keys configured: another replica created the admin key at the same moment; its secret is in that replica's data directory (api-key)",
+      );
     } else if (outcome.kind === 'keys-exist') {
       app.log.info(`no API keys configured: ${outcome.count} valid key(s) from the database`);
     }
@@ -132,9 +134,14 @@ async function auth(app: FastifyInstance, options: AuthPluginOptions): Promise<v
     if (role === 'read' && !options.readKeysRequired && !request.routeOptions.config?.role) return;
     const what = `this route needs a key of role ${role}${role === 'read' ? ' (TROPO_READ_KEYS_REQUIRED=true)' : ''}`;
     if (!header) {
-      throw new HttpProblem(401, `${what}: send an Authorization: Bearer <key> header`, [{ field: 'header.authorization', message: 'missing' }], {
-        'www-authenticate': 'Bearer realm="tropodelay"',
-      });
+      throw new HttpProblem(
+        401,
+        `${what}: send an Authorization: Bearer <key> header`,
+        [{ field: 'header.authorization', message: 'missing' }],
+        {
+          'www-authenticate': 'Bearer realm="tropodelay"',
+        },
+      );
     }
     if (!secret) {
       throw new HttpProblem(

@@ -31,7 +31,12 @@ async function openapi(app: FastifyInstance): Promise<void> {
       },
       components: {
         securitySchemes: {
-          bearerKey: { type: 'http', scheme: 'bearer', description: 'A named key with a role (read, write or admin): configured (TROPODELAY_API_KEYS, its file) or stored (POST /v1/admin/keys, the first admin key file)' },
+          bearerKey: {
+            type: 'http',
+            scheme: 'bearer',
+            description:
+              'A named key with a role (read, write or admin): configured (TROPODELAY_API_KEYS, its file) or stored (POST /v1/admin/keys, the first admin key file)',
+          },
         },
       },
       tags: [

@@ -20,7 +20,14 @@ const adminKeysRoute: FastifyPluginAsyncZod = async (app) => {
           'Stores a new key with a name and a role in the database (every replica on it accepts the key within 10 s). The answer holds the secret: it is shown this once and stored only as its SHA-256 digest. A name in use, also by a revoked or a configured key, is a 409.',
         tags: ['access'],
         body: keyCreateBody,
-        response: { 201: keyCreatedResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 409: problemSchema, 415: problemSchema },
+        response: {
+          201: keyCreatedResponse,
+          400: problemSchema,
+          401: problemSchema,
+          403: problemSchema,
+          409: problemSchema,
+          415: problemSchema,
+        },
       },
     },
     async (request, reply) => {

@@ -41,7 +41,14 @@ const adminStationsRoute: FastifyPluginAsyncZod = async (app) => {
         description: 'Clears the deletion mark of a station not yet purged: it and its series are visible again, unchanged.',
         tags: ['station archive', 'access'],
         params: stationParams,
-        response: { 200: stationResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 404: problemSchema, 415: problemSchema },
+        response: {
+          200: stationResponse,
+          400: problemSchema,
+          401: problemSchema,
+          403: problemSchema,
+          404: problemSchema,
+          415: problemSchema,
+        },
       },
     },
     async (request) => {

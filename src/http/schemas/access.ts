@@ -23,7 +23,9 @@ export const keyParams = strictObject({ key_name: keyNameSchema });
 const keyFields = {
   name: z.string(),
   role: roleSchema,
-  origin: z.enum(['configuration', 'database']).describe('configuration: TROPODELAY_API_KEYS (or its file); database: created through the API'),
+  origin: z
+    .enum(['configuration', 'database'])
+    .describe('configuration: TROPODELAY_API_KEYS (or its file); database: created through the API'),
   created_at: z.string().nullable().describe('ISO 8601 UTC; null for configured keys'),
   created_by: z.string().nullable().describe('Name of the key that created it; null for configured keys and the first admin key'),
   revoked_at: z.string().nullable().describe('ISO 8601 UTC; null while valid'),

@@ -215,7 +215,9 @@ export class SqliteRepository implements Repository {
       ),
       listKeys: this.db.prepare('SELECT * FROM api_keys ORDER BY name'),
       revokeKey: this.db.prepare('UPDATE api_keys SET revoked_at = ? WHERE name = ? AND revoked_at IS NULL'),
-      appendAudit: this.db.prepare(`INSERT INTO audit_events (${AUDIT_COLUMNS.join(', ')}) VALUES (${AUDIT_COLUMNS.map(() => '?').join(', ')})`),
+      appendAudit: this.db.prepare(
+        `INSERT INTO audit_events (${AUDIT_COLUMNS.join(', ')}) VALUES (${AUDIT_COLUMNS.map(() => '?').join(', ')})`,
+      ),
       insertModelSet: this.db.prepare(
         'INSERT INTO model_sets (model_fingerprint, models_json) VALUES (?, ?) ON CONFLICT (model_fingerprint) DO NOTHING',
       ),
