@@ -203,6 +203,8 @@ function cleanEnv(dataDir: string): NodeJS.ProcessEnv {
   for (const name of [
     'DATABASE_URL',
     'TROPO_API_KEYS',
+    'TROPODELAY_API_KEYS',
+    'TROPODELAY_API_KEYS_FILE',
     'TROPO_READ_KEYS_REQUIRED',
     'RATE_LIMIT_PER_MINUTE',
     'PORT',

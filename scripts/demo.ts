@@ -19,9 +19,10 @@
  */
 
 import { existsSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { loadConfig } from '../src/config.js';
 import { archiveOptionsFromConfig, buildApp } from '../src/http/app.js';
-import { loadOrCreateKeyFile } from '../src/http/plugins/auth.js';
+import { ADMIN_KEY_FILE_NAME } from '../src/http/access/first-admin-key.js';
 import { DEMO_DAYS, DEMO_SEEDS, DEMO_START_MS, FIXTURE_DIR, writeDemoFixtures } from './generate-fixtures.js';
 import { generateSyntheticResiduals, toRequestBody, truthZwdAt } from './synthetic-residuals.js';
 import { DEMO_NETWORK, gaussian, mulberry32, saastamoinenZhdM, truthSeries } from './synthetic/network.js';
@@ -32,8 +33,11 @@ const ZTD_NOISE_M = 0.004;
 
 const config = loadConfig();
 const archive = archiveOptionsFromConfig(config);
-const key = config.TROPO_API_KEYS[0] ?? loadOrCreateKeyFile(config.TROPO_DATA_DIR).key;
 const app = await buildApp({ archive });
+// A configured key of role write or admin, else the first admin key the app created in the data directory.
+const key =
+  archive.apiKeys.map((k) => (typeof k === 'string' ? { role: 'write', secret: k } : k)).find((k) => k.role !== 'read')?.secret ??
+  readFileSync(join(config.TROPO_DATA_DIR, ADMIN_KEY_FILE_NAME), 'utf8').trim();
 const auth = { authorization: `Bearer ${key}` };
 
 async function call(method: 'PUT' | 'POST' | 'GET', url: string, payload?: string | object, contentType = 'application/json') {

@@ -3,6 +3,7 @@
  * start with a message naming the variable. README.md has the table of every variable.
  */
 
+import { readFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { z } from 'zod';
 
@@ -49,7 +50,106 @@ const trustProxySetting = z.string().transform((raw, ctx): TrustProxy => {
   return z.NEVER;
 });
 
+// --- Access: API keys with roles, soft-delete retention (issue 15) -------------------------------
+
+/** A bearer key given in the configuration: its name (in the audit trail and logs), role and secret. */
+export interface ConfiguredKey {
+  name: string;
+  role: 'read' | 'write' | 'admin';
+  secret: string;
+}
+const KEY_NAME = /^[A-Za-z0-9][A-Za-z0-9._-]{0,63}$/;
+const KEY_ROLES = new Set(['read', 'write', 'admin']);
+export const MIN_KEY_SECRET_CHARS = 16;
+const KEY_FORMAT = 'name:role:secret (name of letters, digits, . _ -; role read, write or admin; secret of at least 16 characters)';
+
+/** One `name:role:secret` entry; the error never contains the secret. */
+export function parseKeyEntry(entry: string): ConfiguredKey | string {
+  const first = entry.indexOf(':');
+  const second = first < 0 ? -1 : entry.indexOf(':', first + 1);
+  if (second < 0) return `not of the form ${KEY_FORMAT}`;
+  const name = entry.slice(0, first).trim();
+  const role = entry.slice(first + 1, second).trim();
+  const secret = entry.slice(second + 1).trim();
+  if (!KEY_NAME.test(name))
+    return `key name ${JSON.stringify(name.slice(0, 64))} must be 1-64 letters, digits, . _ - (starting with a letter or digit)`;
+  if (!KEY_ROLES.has(role)) return `key ${name}: role ${JSON.stringify(role.slice(0, 16))} must be read, write or admin`;
+  if (secret.length < MIN_KEY_SECRET_CHARS || /[\s,]/.test(secret))
+    return `key ${name}: the secret must have at least ${MIN_KEY_SECRET_CHARS} characters and no spaces or commas`;
+  return { name, role: role as ConfiguredKey['role'], secret };
+}
+
+const apiKeyList = z
+  .string()
+  .default('')
+  .transform((raw, ctx): ConfiguredKey[] => {
+    const keys: ConfiguredKey[] = [];
+    for (const entry of raw.split(',').map((e) => e.trim())) {
+      if (!entry) continue;
+      const key = parseKeyEntry(entry);
+      if (typeof key === 'string') ctx.addIssue({ code: 'custom', message: key });
+      else keys.push(key);
+    }
+    return keys;
+  });
+
+/**
+ * Every configured key: TROPODELAY_API_KEYS, then the lines of TROPODELAY_API_KEYS_FILE (`#` comments and
+ * blank lines skipped), then the deprecated TROPO_API_KEYS (role write, named key-1, key-2, ...).
+ * Names and secrets must be unique. Throws ConfigError naming the file and line, never a secret.
+ */
+export function configuredApiKeys(config: Config, readText: (path: string) => string = (p) => readFileSync(p, 'utf8')): ConfiguredKey[] {
+  const keys = [...config.TROPODELAY_API_KEYS];
+  const file = config.TROPODELAY_API_KEYS_FILE;
+  if (file) {
+    let text: string;
+    try {
+      text = readText(file);
+    } catch (err) {
+      throw new ConfigError(
+        `TROPODELAY_API_KEYS_FILE=${JSON.stringify(file)}: cannot be read (${(err as NodeJS.ErrnoException).code ?? 'error'})`,
+      );
+    }
+    text.split(/\r?\n/).forEach((line, i) => {
+      const entry = line.trim();
+      if (!entry || entry.startsWith('#')) return;
+      const key = parseKeyEntry(entry);
+      if (typeof key === 'string') throw new ConfigError(`TROPODELAY_API_KEYS_FILE=${JSON.stringify(file)} line ${i + 1}: ${key}`);
+      keys.push(key);
+    });
+  }
+  config.TROPO_API_KEYS.forEach((secret, i) => keys.push({ name: `key-${i + 1}`, role: 'write', secret }));
+  const names = new Set<string>();
+  const secrets = new Set<string>();
+  for (const k of keys) {
+    if (names.has(k.name))
+      throw new ConfigError(`API keys: the name ${k.name} is given twice (TROPODELAY_API_KEYS, its file, TROPO_API_KEYS)`);
+    if (secrets.has(k.secret)) throw new ConfigError(`API keys: key ${k.name} has the same secret as another key`);
+    names.add(k.name);
+    secrets.add(k.secret);
+  }
+  return keys;
+}
+
+const accessSettings = {
+  TROPODELAY_API_KEYS: apiKeyList.describe('Comma-separated bearer keys as name:role:secret (role read, write or admin)'),
+  TROPODELAY_API_KEYS_FILE: z
+    .string()
+    .min(1)
+    .optional()
+    .describe('File with one name:role:secret key per line (a container secret); # comments and blank lines skipped'),
+  TROPODELAY_DELETE_RETENTION_DAYS: z.coerce
+    .number({ error: 'must be a number of days in [0, 36500]' })
+    .min(0, { error: 'must be a number of days in [0, 36500]' })
+    .max(36500, { error: 'must be a number of days in [0, 36500]' })
+    .default(30)
+    .describe('Days a deleted station stays restorable before the purge removes it with its series'),
+};
+
+// --------------------------------------------------------------------------------------------------
+
 export const configSchema = z.object({
+  ...accessSettings,
   PORT: integer(0, 65535).default(8080).describe('TCP port to listen on'),
   HOST: z.string().min(1).default('127.0.0.1').describe('Address to bind; 0.0.0.0 in a container'),
   LOG_LEVEL: z
@@ -92,7 +192,7 @@ export const configSchema = z.object({
         .filter(Boolean),
     )
     .refine((keys) => keys.every((k) => k.length >= 16), { error: 'every key must have at least 16 characters' })
-    .describe('Comma-separated bearer keys allowed to write (and to read when TROPO_READ_KEYS_REQUIRED=true)'),
+    .describe('Deprecated: comma-separated bearer keys, each of role write, named key-1, key-2 ... (use TROPODELAY_API_KEYS)'),
   TROPO_READ_KEYS_REQUIRED: booleanFlag.default(false).describe('Whether reads of /v1/stations need a key too'),
   DB_CONNECT_TIMEOUT_MS: integer(100, 600_000)
     .default(5_000)
@@ -122,11 +222,16 @@ export function defaultConfig(overrides: Partial<Config> = {}): Config {
 }
 
 /** Variables whose values never appear in an error message. */
-const SECRET_VARIABLES = new Set(['TROPO_API_KEYS', 'DATABASE_URL']);
+const SECRET_VARIABLES = new Set(['TROPO_API_KEYS', 'TROPODELAY_API_KEYS', 'DATABASE_URL']);
 
 /** Settings that work but deserve a line in the start-up log (server.ts logs them). */
 export function configWarnings(env: NodeJS.ProcessEnv = process.env): string[] {
   const warnings: string[] = [];
+  if (env.TROPO_API_KEYS?.trim()) {
+    warnings.push(
+      'TROPO_API_KEYS is deprecated: its keys have role write and are named key-1, key-2, ...; give keys as TROPODELAY_API_KEYS=name:role:secret,... or TROPODELAY_API_KEYS_FILE',
+    );
+  }
   const trust = env.TRUST_PROXY?.trim().toLowerCase();
   if (trust === 'true' || trust === 'yes') {
     warnings.push(

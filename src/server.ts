@@ -8,12 +8,14 @@
  */
 
 import { ConfigError, configWarnings, loadConfig, type Config } from './config.js';
-import { archiveOptionsFromConfig, buildApp } from './http/app.js';
+import { archiveOptionsFromConfig, buildApp, type ArchiveOptions } from './http/app.js';
 
 async function main(): Promise<void> {
   let config: Config;
+  let archive: ArchiveOptions;
   try {
     config = loadConfig();
+    archive = archiveOptionsFromConfig(config); // reads TROPODELAY_API_KEYS_FILE
   } catch (err) {
     if (err instanceof ConfigError) {
       process.stderr.write(`tropodelay: ${err.message}\n`);
@@ -25,7 +27,7 @@ async function main(): Promise<void> {
   const app = await buildApp({
     config,
     logger: { level: config.LOG_LEVEL, redact: ['req.headers.authorization', 'headers.authorization'] },
-    archive: archiveOptionsFromConfig(config),
+    archive,
   });
   for (const warning of configWarnings()) app.log.warn(warning);
 

@@ -6,12 +6,13 @@
 import { randomUUID } from 'node:crypto';
 import Fastify, { LogController, type FastifyInstance, type FastifyServerOptions } from 'fastify';
 import { validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
-import { DEFAULT_MAX_READ_RANGE_DAYS, defaultConfig, type Config } from '../config.js';
+import { configuredApiKeys, DEFAULT_MAX_READ_RANGE_DAYS, defaultConfig, type Config, type ConfiguredKey } from '../config.js';
 import type { StorageConfig } from '../storage/factory.js';
 import type { Repository } from '../storage/repository.js';
 import { MAX_QUERY_VALUE_CHARS } from '../limits.js';
 import { HttpProblem } from './problem.js';
 import { checkResponsesAgainstSchemas } from './response-check.js';
+import audit from './plugins/audit.js';
 import auth from './plugins/auth.js';
 import computePool from './plugins/compute-pool.js';
 import edge, { trustProxyOption } from './plugins/edge.js';
@@ -20,8 +21,12 @@ import jsonBody from './plugins/json-body.js';
 import metrics from './plugins/metrics.js';
 import openapi from './plugins/openapi.js';
 import readiness from './plugins/readiness.js';
+import retention from './plugins/retention.js';
 import requestLog from './plugins/request-log.js';
 import storage from './plugins/storage.js';
+import adminAuditRoute from './routes/admin-audit.js';
+import adminKeysRoute from './routes/admin-keys.js';
+import adminStationsRoute from './routes/admin-stations.js';
 import healthRoute from './routes/health.js';
 import mappingFactorsRoute from './routes/mapping-factors.js';
 import networkEstimatesRoute from './routes/network-estimates.js';
@@ -43,10 +48,17 @@ export interface ArchiveOptions {
   storage: StorageConfig;
   /** A repository built elsewhere instead of one from `storage` (closed with the app). */
   repository?: Repository;
-  /** Bearer keys for writes; empty = the generated key file in keyDir. */
-  apiKeys: readonly string[];
-  /** Where the generated key file lives (the data directory); absent = a throw-away key in memory. */
+  /**
+   * Configured bearer keys (a bare string is a key of role write, named key-1, key-2 ... like the
+   * deprecated TROPO_API_KEYS); empty = keys from the database, the first replica creating an admin key.
+   */
+  apiKeys: readonly (string | ConfiguredKey)[];
+  /** Where the first admin key's file is written (the data directory); absent = its secret is kept nowhere. */
   keyDir?: string;
+  /** Days a deleted station stays restorable (default 30). */
+  deleteRetentionDays?: number;
+  /** Run the purge of deleted stations at start and hourly (default true). */
+  schedulePurge?: boolean;
   readKeysRequired: boolean;
   maxReadRangeDays: number;
 }
@@ -74,8 +86,9 @@ export function archiveOptionsFromConfig(config: Config): ArchiveOptions {
       statementTimeoutMs: config.DB_STATEMENT_TIMEOUT_MS,
       minFreeDiskBytes: config.TROPO_MIN_FREE_DISK_MB * 1024 * 1024,
     },
-    apiKeys: config.TROPO_API_KEYS,
+    apiKeys: configuredApiKeys(config),
     keyDir: config.TROPO_DATA_DIR,
+    deleteRetentionDays: config.TROPODELAY_DELETE_RETENTION_DAYS,
     readKeysRequired: config.TROPO_READ_KEYS_REQUIRED,
     maxReadRangeDays: config.TROPO_MAX_READ_RANGE_DAYS,
   };
@@ -85,8 +98,13 @@ const IN_MEMORY_ARCHIVE: ArchiveOptions = {
   storage: { dataDir: ':memory:' },
   apiKeys: [],
   readKeysRequired: false,
+  schedulePurge: false,
   maxReadRangeDays: DEFAULT_MAX_READ_RANGE_DAYS,
 };
+
+/** Bare strings as keys of role write named key-1, key-2 ... (the deprecated form). */
+const namedKeys = (keys: readonly (string | ConfiguredKey)[]): ConfiguredKey[] =>
+  keys.map((k, i) => (typeof k === 'string' ? { name: `key-${i + 1}`, role: 'write', secret: k } : k));
 
 /** A 400 naming the first query parameter whose value is longer than MAX_QUERY_VALUE_CHARS, else undefined. */
 function overlongQueryValue(query: unknown): HttpProblem | undefined {
@@ -143,7 +161,9 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   //  6. openapi         collects the routes registered after it
   //  7. readiness       app.addReadinessCheck, used by storage (dependency)
   //  8. storage         app.repository (depends on readiness)
-  //  9. auth            bearer keys; its hooks guard the routes registered after it
+  //  9. auth            bearer keys with roles, request.callerKey; its hooks guard the routes registered after it
+  // 10. audit           the audit trail of writes (depends on auth and storage)
+  // 11. retention       the purge of deleted stations (depends on storage)
   // then the routes, which use app.compute, app.repository and auth's guards.
   await app.register(errorHandler);
   await app.register(jsonBody);
@@ -156,10 +176,12 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   const archive = options.archive ?? IN_MEMORY_ARCHIVE;
   await app.register(storage, { storage: archive.storage, ...(archive.repository ? { repository: archive.repository } : {}) });
   await app.register(auth, {
-    keys: archive.apiKeys,
+    keys: namedKeys(archive.apiKeys),
     readKeysRequired: archive.readKeysRequired,
     ...(archive.keyDir ? { keyDir: archive.keyDir } : {}),
   });
+  await app.register(audit);
+  await app.register(retention, { retentionDays: archive.deleteRetentionDays ?? 30, schedule: archive.schedulePurge ?? true });
   await app.register(rootRoute);
   await app.register(healthRoute);
   await app.register(zenithDelaysRoute);
@@ -177,6 +199,9 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(stationSoundingsRoute, stationOptions);
   await app.register(networkPwvRoute, stationOptions);
   await app.register(profileDelaysRoute);
+  await app.register(adminKeysRoute);
+  await app.register(adminAuditRoute);
+  await app.register(adminStationsRoute);
   await app.ready();
   return app;
 }

@@ -92,6 +92,80 @@ CREATE TABLE soundings (
 );
 `,
   },
+  {
+    // Expand-only: a nullable column and two new tables; a replica of the previous release keeps working
+    // (it does not see deleted_at, so it would still show a soft-deleted station until upgraded).
+    version: 3,
+    name: 'API keys with roles, audit trail of writes, soft delete of stations',
+    sql: {
+      sqlite: `
+ALTER TABLE stations ADD COLUMN deleted_at TEXT;
+
+CREATE TABLE api_keys (
+  name           TEXT PRIMARY KEY,
+  role           TEXT NOT NULL,
+  secret_sha256  TEXT NOT NULL UNIQUE,
+  created_at     TEXT NOT NULL,
+  created_by     TEXT,
+  revoked_at     TEXT
+);
+
+CREATE TABLE audit_events (
+  event_id        INTEGER PRIMARY KEY AUTOINCREMENT,
+  at_ms           BIGINT NOT NULL,
+  key_name        TEXT,
+  client_address  TEXT NOT NULL,
+  method          TEXT NOT NULL,
+  route           TEXT NOT NULL,
+  path            TEXT NOT NULL,
+  station_id      TEXT,
+  source          TEXT,
+  records         BIGINT,
+  inserted        BIGINT,
+  updated         BIGINT,
+  unchanged       BIGINT,
+  status          INTEGER NOT NULL,
+  request_id      TEXT NOT NULL
+);
+
+CREATE INDEX audit_events_at ON audit_events (at_ms);
+CREATE INDEX audit_events_station ON audit_events (station_id, at_ms);
+`,
+      postgres: `
+ALTER TABLE stations ADD COLUMN deleted_at TEXT;
+
+CREATE TABLE api_keys (
+  name           TEXT PRIMARY KEY,
+  role           TEXT NOT NULL,
+  secret_sha256  TEXT NOT NULL UNIQUE,
+  created_at     TEXT NOT NULL,
+  created_by     TEXT,
+  revoked_at     TEXT
+);
+
+CREATE TABLE audit_events (
+  event_id        BIGINT GENERATED ALWAYS AS IDENTITY PRIMARY KEY,
+  at_ms           BIGINT NOT NULL,
+  key_name        TEXT,
+  client_address  TEXT NOT NULL,
+  method          TEXT NOT NULL,
+  route           TEXT NOT NULL,
+  path            TEXT NOT NULL,
+  station_id      TEXT,
+  source          TEXT,
+  records         BIGINT,
+  inserted        BIGINT,
+  updated         BIGINT,
+  unchanged       BIGINT,
+  status          INTEGER NOT NULL,
+  request_id      TEXT NOT NULL
+);
+
+CREATE INDEX audit_events_at ON audit_events (at_ms);
+CREATE INDEX audit_events_station ON audit_events (station_id, at_ms);
+`,
+    },
+  },
 ];
 
 export function migrationSql(m: Migration, dialect: 'sqlite' | 'postgres'): string {

@@ -10,6 +10,7 @@
  */
 
 import type { ModelSet } from '../domain/provenance.js';
+import type { AuditEvent, AuditQuery, DeletedStationMark, StoredApiKey, StoredAuditEvent } from './access-rows.js';
 
 export interface StationInput {
   name: string;
@@ -117,12 +118,40 @@ export interface StationRange extends TimeRange {
 export interface Repository {
   readonly backend: 'sqlite' | 'postgres';
 
-  /** Creates or replaces a station; `created` tells which. */
+  /**
+   * Creates or replaces a station; `created` tells which. A station marked deleted keeps its id:
+   * StationDeletedError until it is restored or purged.
+   */
   putStation(stationId: string, station: StationInput): Promise<{ station: Station; created: boolean }>;
+  /** The station, or null when there is none or it is marked deleted. */
   getStation(stationId: string): Promise<Station | null>;
+  /** The stations not marked deleted. */
   listStations(): Promise<Station[]>;
-  /** Deletes a station and all its series; false when it did not exist. */
-  deleteStation(stationId: string): Promise<boolean>;
+  /**
+   * Soft delete: marks the station deleted at `deletedAt` (ISO 8601 UTC). Its series stay stored
+   * but every read and write treats the station as absent. False when there is no such live station.
+   */
+  deleteStation(stationId: string, deletedAt: string): Promise<boolean>;
+  /** Clears the deletion mark; false when the station is not marked deleted. */
+  restoreStation(stationId: string): Promise<boolean>;
+  /** Removes the station and all its series for good (live or marked); false when there is none. */
+  purgeStation(stationId: string): Promise<boolean>;
+  /** Purges every station marked deleted at or before `cutoff` (ISO 8601 UTC); returns their ids. */
+  purgeDeletedBefore(cutoff: string): Promise<string[]>;
+  /** The stations marked deleted, oldest mark first. */
+  listDeletedStations(): Promise<DeletedStationMark[]>;
+
+  /** Stores a key; false when its name (or secret digest) is taken. */
+  createApiKey(key: StoredApiKey): Promise<boolean>;
+  /** Every stored key, revoked ones included, by name. */
+  listApiKeys(): Promise<StoredApiKey[]>;
+  /** Marks the key revoked at `revokedAt`; false when there is no such valid key. */
+  revokeApiKey(name: string, revokedAt: string): Promise<boolean>;
+
+  /** Appends one audit event. */
+  appendAuditEvent(event: AuditEvent): Promise<void>;
+  /** Audit events matching the query, newest first. */
+  listAuditEvents(query: AuditQuery): Promise<StoredAuditEvent[]>;
 
   /** Upserts met rows of one station in one transaction. Keys must be unique within `rows`. */
   writeMet(stationId: string, rows: readonly MetRow[]): Promise<WriteCounts>;
@@ -193,6 +222,16 @@ export interface ConnectionStats {
 export interface StationDelayRows {
   stationId: string;
   rows: readonly DelayRow[];
+}
+
+/** Raised when a station id is reserved by a station marked deleted. */
+export class StationDeletedError extends Error {
+  constructor(
+    readonly stationId: string,
+    readonly deletedAt: string,
+  ) {
+    super(`station ${stationId} was deleted at ${deletedAt}`);
+  }
 }
 
 /** Raised for a write that names a station that does not exist. */

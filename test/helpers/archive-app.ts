@@ -5,13 +5,15 @@ import { buildApp, type AppOptions, type ArchiveOptions } from '../../src/http/a
 import type { BackendUnderTest } from './storage.js';
 
 export const TEST_KEY = 'test-key-0123456789abcdef';
+/** The name of TEST_KEY, an admin key, in useArchiveApp's apps (audit trail, request log). */
+export const TEST_KEY_NAME = 'test-admin';
 
 export interface ArchiveApp {
   /** supertest agent on the app */
   api(): request.Agent;
   /** the app itself (for app.repository) */
   app(): FastifyInstance;
-  /** `Authorization` header value with the test key */
+  /** `Authorization` header value with the test key (role admin) */
   auth: string;
 }
 
@@ -34,7 +36,7 @@ export function useArchiveApp(
       ...options,
       archive: {
         storage: fresh.config,
-        apiKeys: [TEST_KEY],
+        apiKeys: [{ name: TEST_KEY_NAME, role: 'admin', secret: TEST_KEY }],
         keyDir: fresh.config.dataDir,
         readKeysRequired: false,
         maxReadRangeDays: 366,

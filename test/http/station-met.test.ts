@@ -261,14 +261,14 @@ for (const backend of BACKENDS) {
       expect(onlyFrom.body).toMatchObject({ from: iso(T0), to: iso(T0 + 30 * 24 * H) });
     });
 
-    it('deleting a station deletes its met series', async () => {
+    it('purging a station deletes its met series (DELETE ?purge=true), so a new station of that id starts empty', async () => {
       await put('DEL1');
       await api()
         .post('/v1/stations/DEL1/met')
         .set('authorization', auth)
         .send({ records: [{ epoch: iso(T0), pressure_hpa: 900 }] })
         .expect(200);
-      await api().delete('/v1/stations/DEL1').set('authorization', auth).expect(204);
+      await api().delete('/v1/stations/DEL1?purge=true').set('authorization', auth).expect(204);
       await put('DEL1');
       expect(
         (

@@ -25,7 +25,12 @@ afterEach(async () => {
 });
 
 const zenithBody = { site: { latitude_deg: 10, longitude_deg: 20, height_m: 30 }, epoch: '2026-02-01T00:00:00Z' };
-const archive = { storage: { dataDir: ':memory:' }, apiKeys: [TEST_KEY], readKeysRequired: false, maxReadRangeDays: 366 };
+const archive = {
+  storage: { dataDir: ':memory:' },
+  apiKeys: [{ name: 'edge-admin', role: 'admin' as const, secret: TEST_KEY }],
+  readKeysRequired: false,
+  maxReadRangeDays: 366,
+};
 const auth = `Bearer ${TEST_KEY}`;
 
 /** A forged first entry per request, then the address the load balancer saw (documentation ranges, RFC 5737). */

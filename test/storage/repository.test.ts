@@ -105,8 +105,8 @@ for (const backend of BACKENDS) {
       expect(second.station.createdAt).toBe(first.station.createdAt);
       await repo.putStation('ALD_2', { ...STATION, name: 'Aldervane (invented)', metHeightM: null });
       expect((await repo.listStations()).map((s) => s.stationId)).toEqual(['ALD_2', 'QMR-1']);
-      expect(await repo.deleteStation('ALD_2')).toBe(true);
-      expect(await repo.deleteStation('ALD_2')).toBe(false);
+      expect(await repo.purgeStation('ALD_2')).toBe(true);
+      expect(await repo.purgeStation('ALD_2')).toBe(false);
       expect(await repo.getStation('ALD_2')).toBeNull();
     });
 
@@ -210,14 +210,14 @@ for (const backend of BACKENDS) {
       expect(await repo.readDelays('QMR-1', { fromMs: 0, toMs: T0 * 2 })).toEqual([]);
     });
 
-    it('deleting a station deletes its met and delay series', async () => {
+    it('purging a station deletes its met and delay series', async () => {
       const { repo } = await fresh();
       await repo.putStation('QMR-1', STATION);
       await repo.putStation('KEEP', STATION);
       await repo.writeMet('QMR-1', [met(0), met(1)]);
       await repo.writeDelays('QMR-1', [delay(0)], MODEL_SET);
       await repo.writeMet('KEEP', [met(0)]);
-      expect(await repo.deleteStation('QMR-1')).toBe(true);
+      expect(await repo.purgeStation('QMR-1')).toBe(true);
       await repo.putStation('QMR-1', STATION);
       const all = { fromMs: 0, toMs: T0 * 2 };
       expect(await repo.readMet('QMR-1', all)).toEqual([]);
@@ -307,7 +307,7 @@ for (const backend of BACKENDS) {
       expect(await repo.deleteSounding('QMR-1', sounding(0).epochMs)).toBe(false);
       expect(await repo.readSoundings('QMR-1', { fromMs: 0, toMs: T0 * 2 })).toHaveLength(3);
       await expect(repo.putSounding('NOPE', sounding(0), SOUNDING_MODEL_SET)).rejects.toBeInstanceOf(UnknownStationError);
-      await repo.deleteStation('QMR-1');
+      await repo.purgeStation('QMR-1');
       expect(await repo.readSoundings('QMR-1', { fromMs: 0, toMs: T0 * 2 })).toEqual([]);
       expect((await repo.readSoundings('QMR-2', { fromMs: 0, toMs: T0 * 2 }))[0]!.pwvMm).toBe(99);
     });

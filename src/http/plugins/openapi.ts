@@ -31,7 +31,12 @@ async function openapi(app: FastifyInstance): Promise<void> {
       },
       components: {
         securitySchemes: {
-          bearerKey: { type: 'http', scheme: 'bearer', description: 'A key of TROPO_API_KEYS (or of the generated key file)' },
+          bearerKey: {
+            type: 'http',
+            scheme: 'bearer',
+            description:
+              'A named key with a role (read, write or admin): configured (TROPODELAY_API_KEYS, its file) or stored (POST /v1/admin/keys, the first admin key file)',
+          },
         },
       },
       tags: [
@@ -47,6 +52,7 @@ async function openapi(app: FastifyInstance): Promise<void> {
           description:
             'Stations with their stored met and delay series, and precipitable water retrieved from them. Writes need `Authorization: Bearer <key>`',
         },
+        { name: 'access', description: 'API keys, the audit trail of writes, deleted stations (role admin)' },
         { name: 'operations', description: 'Health and service documents' },
       ],
     },

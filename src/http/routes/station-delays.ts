@@ -90,6 +90,7 @@ const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (ap
       const rows = dropDuplicateEpochs(items, rejected);
       if (rows.length === 0) throw nothingUsable(rejected);
       const counts = await app.repository.writeDelays(stationId, rows, { modelFingerprint: set.model_fingerprint, models: set.models });
+      request.auditDetail = { source, records: records.length, ...counts };
       return { station_id: stationId, source, ...counts, ...listRejected(rejected), warnings: [], ...set };
     },
   );

@@ -86,6 +86,7 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       const upload = await readUpload(body, request.headers['content-type'] ?? 'application/json', source);
       if (upload.rows.length === 0) throw nothingUsable(upload.rejected);
       const counts = await app.repository.writeMet(stationId, upload.rows);
+      request.auditDetail = { source, records: upload.rows.length + upload.rejected.length, ...counts };
       return {
         station_id: stationId,
         source,

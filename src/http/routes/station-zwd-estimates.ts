@@ -143,6 +143,7 @@ const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = asy
         transferOf(raw),
       );
       const stored = await storeDelays(app.repository, stationId, source, output);
+      request.auditDetail = { source, records: stored.inserted + stored.updated + stored.unchanged, ...stored };
       const tail = `,"station_id":${JSON.stringify(stationId)},"stored":${JSON.stringify({ source, ...stored })}}`;
       return reply.type('application/json').send(Buffer.concat([asBuffer(output.json), Buffer.from(tail)]) as never);
     },

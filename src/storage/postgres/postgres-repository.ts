@@ -35,7 +35,21 @@ import type {
   WriteCounts,
   ZenithDelayRow,
 } from '../repository.js';
-import { UnknownStationError } from '../repository.js';
+import { StationDeletedError, UnknownStationError } from '../repository.js';
+import {
+  AUDIT_COLUMNS,
+  auditValues,
+  auditWhere,
+  toApiKey,
+  toAuditEvent,
+  type ApiKeyDbRow,
+  type AuditDbRow,
+  type AuditEvent,
+  type AuditQuery,
+  type DeletedStationMark,
+  type StoredApiKey,
+  type StoredAuditEvent,
+} from '../access-rows.js';
 import { withConflictRetry } from '../errors.js';
 import {
   DELAY_SELECT,
@@ -221,36 +235,106 @@ export class PostgresRepository implements Repository {
 
   async putStation(stationId: string, s: StationInput): Promise<{ station: Station; created: boolean }> {
     const now = new Date().toISOString();
+    // A station marked deleted is left alone (the WHERE of DO UPDATE): no row comes back.
     const result = await this.pool.query<StationDbRow & { inserted: boolean }>(
       `INSERT INTO stations (station_id, name, latitude_deg, longitude_deg, height_m, met_height_m, description, created_at, updated_at)
        VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $8)
        ON CONFLICT (station_id) DO UPDATE SET name = EXCLUDED.name, latitude_deg = EXCLUDED.latitude_deg,
          longitude_deg = EXCLUDED.longitude_deg, height_m = EXCLUDED.height_m, met_height_m = EXCLUDED.met_height_m,
          description = EXCLUDED.description, updated_at = EXCLUDED.updated_at
+       WHERE stations.deleted_at IS NULL
        RETURNING *, (xmax = 0) AS inserted`,
       [stationId, s.name, s.latitudeDeg, s.longitudeDeg, s.heightM, s.metHeightM, s.description, now],
     );
-    const row = result.rows[0]!;
+    const row = result.rows[0];
+    if (!row) {
+      const mark = await this.pool.query<{ deleted_at: string }>('SELECT deleted_at FROM stations WHERE station_id = $1', [stationId]);
+      throw new StationDeletedError(stationId, mark.rows[0]?.deleted_at ?? 'an unknown time');
+    }
     return { station: toStation(row), created: row.inserted };
   }
 
   async getStation(stationId: string): Promise<Station | null> {
-    const result = await this.pool.query<StationDbRow>('SELECT * FROM stations WHERE station_id = $1', [stationId]);
+    const result = await this.pool.query<StationDbRow>('SELECT * FROM stations WHERE station_id = $1 AND deleted_at IS NULL', [stationId]);
     return result.rows[0] ? toStation(result.rows[0]) : null;
   }
 
   async listStations(): Promise<Station[]> {
-    return (await this.pool.query<StationDbRow>('SELECT * FROM stations ORDER BY station_id')).rows.map(toStation);
+    return (await this.pool.query<StationDbRow>('SELECT * FROM stations WHERE deleted_at IS NULL ORDER BY station_id')).rows.map(toStation);
   }
 
-  async deleteStation(stationId: string): Promise<boolean> {
+  async deleteStation(stationId: string, deletedAt: string): Promise<boolean> {
+    const result = await this.pool.query('UPDATE stations SET deleted_at = $2 WHERE station_id = $1 AND deleted_at IS NULL', [
+      stationId,
+      deletedAt,
+    ]);
+    return (result.rowCount ?? 0) > 0;
+  }
+
+  async restoreStation(stationId: string): Promise<boolean> {
+    const result = await this.pool.query('UPDATE stations SET deleted_at = NULL WHERE station_id = $1 AND deleted_at IS NOT NULL', [
+      stationId,
+    ]);
+    return (result.rowCount ?? 0) > 0;
+  }
+
+  async purgeStation(stationId: string): Promise<boolean> {
     const result = await this.pool.query('DELETE FROM stations WHERE station_id = $1', [stationId]);
     return (result.rowCount ?? 0) > 0;
   }
 
+  async purgeDeletedBefore(cutoff: string): Promise<string[]> {
+    const result = await this.pool.query<{ station_id: string }>(
+      'DELETE FROM stations WHERE deleted_at IS NOT NULL AND deleted_at <= $1 RETURNING station_id',
+      [cutoff],
+    );
+    return result.rows.map((r) => r.station_id).sort();
+  }
+
+  async listDeletedStations(): Promise<DeletedStationMark[]> {
+    const result = await this.pool.query<{ station_id: string; name: string; deleted_at: string }>(
+      'SELECT station_id, name, deleted_at FROM stations WHERE deleted_at IS NOT NULL ORDER BY deleted_at, station_id',
+    );
+    return result.rows.map((r) => ({ stationId: r.station_id, name: r.name, deletedAt: r.deleted_at }));
+  }
+
+  async createApiKey(k: StoredApiKey): Promise<boolean> {
+    const result = await this.pool.query(
+      `INSERT INTO api_keys (name, role, secret_sha256, created_at, created_by, revoked_at) VALUES ($1, $2, $3, $4, $5, $6)
+       ON CONFLICT DO NOTHING`,
+      [k.name, k.role, k.secretSha256, k.createdAt, k.createdBy, k.revokedAt],
+    );
+    return (result.rowCount ?? 0) > 0;
+  }
+
+  async listApiKeys(): Promise<StoredApiKey[]> {
+    return (await this.pool.query<ApiKeyDbRow>('SELECT * FROM api_keys ORDER BY name')).rows.map(toApiKey);
+  }
+
+  async revokeApiKey(name: string, revokedAt: string): Promise<boolean> {
+    const result = await this.pool.query('UPDATE api_keys SET revoked_at = $2 WHERE name = $1 AND revoked_at IS NULL', [name, revokedAt]);
+    return (result.rowCount ?? 0) > 0;
+  }
+
+  async appendAuditEvent(event: AuditEvent): Promise<void> {
+    await this.pool.query(
+      `INSERT INTO audit_events (${AUDIT_COLUMNS.join(', ')}) VALUES (${AUDIT_COLUMNS.map((_, i) => `$${i + 1}`).join(', ')})`,
+      auditValues(event),
+    );
+  }
+
+  async listAuditEvents(query: AuditQuery): Promise<StoredAuditEvent[]> {
+    const { where, values } = auditWhere(query, (i) => `$${i}`);
+    const result = await this.pool.query<AuditDbRow>(
+      `SELECT * FROM audit_events ${where} ORDER BY at_ms DESC, event_id DESC LIMIT $${values.length + 1}`,
+      [...values, query.limit],
+    );
+    return result.rows.map(toAuditEvent);
+  }
+
   private async lockStation(client: pg.PoolClient, stationId: string): Promise<void> {
     // FOR SHARE: the station cannot be deleted while its series is being written.
-    const found = await client.query('SELECT 1 FROM stations WHERE station_id = $1 FOR SHARE', [stationId]);
+    const found = await client.query('SELECT 1 FROM stations WHERE station_id = $1 AND deleted_at IS NULL FOR SHARE', [stationId]);
     if (found.rowCount === 0) throw new UnknownStationError(stationId);
   }
 

@@ -39,7 +39,21 @@ import type {
   WriteCounts,
   ZenithDelayRow,
 } from '../repository.js';
-import { UnknownStationError } from '../repository.js';
+import { StationDeletedError, UnknownStationError } from '../repository.js';
+import {
+  AUDIT_COLUMNS,
+  auditValues,
+  auditWhere,
+  toApiKey,
+  toAuditEvent,
+  type ApiKeyDbRow,
+  type AuditDbRow,
+  type AuditEvent,
+  type AuditQuery,
+  type DeletedStationMark,
+  type StoredApiKey,
+  type StoredAuditEvent,
+} from '../access-rows.js';
 import { withConflictRetry } from '../errors.js';
 import {
   DELAY_SELECT,
@@ -188,8 +202,9 @@ export class SqliteRepository implements Repository {
     migrateSqlite(this.db);
 
     this.stmt = {
-      getStation: this.db.prepare('SELECT * FROM stations WHERE station_id = ?'),
-      listStations: this.db.prepare('SELECT * FROM stations ORDER BY station_id'),
+      getStation: this.db.prepare('SELECT * FROM stations WHERE station_id = ? AND deleted_at IS NULL'),
+      anyStation: this.db.prepare('SELECT station_id, deleted_at FROM stations WHERE station_id = ?'),
+      listStations: this.db.prepare('SELECT * FROM stations WHERE deleted_at IS NULL ORDER BY station_id'),
       insertStation: this.db.prepare(
         `INSERT INTO stations (station_id, name, latitude_deg, longitude_deg, height_m, met_height_m, description, created_at, updated_at)
          VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)`,
@@ -198,7 +213,22 @@ export class SqliteRepository implements Repository {
         `UPDATE stations SET name = ?, latitude_deg = ?, longitude_deg = ?, height_m = ?, met_height_m = ?, description = ?, updated_at = ?
          WHERE station_id = ?`,
       ),
-      deleteStation: this.db.prepare('DELETE FROM stations WHERE station_id = ?'),
+      markDeleted: this.db.prepare('UPDATE stations SET deleted_at = ? WHERE station_id = ? AND deleted_at IS NULL'),
+      restoreStation: this.db.prepare('UPDATE stations SET deleted_at = NULL WHERE station_id = ? AND deleted_at IS NOT NULL'),
+      purgeStation: this.db.prepare('DELETE FROM stations WHERE station_id = ?'),
+      purgeBefore: this.db.prepare('DELETE FROM stations WHERE deleted_at IS NOT NULL AND deleted_at <= ? RETURNING station_id').pluck(),
+      listDeleted: this.db.prepare(
+        'SELECT station_id, name, deleted_at FROM stations WHERE deleted_at IS NOT NULL ORDER BY deleted_at, station_id',
+      ),
+      createKey: this.db.prepare(
+        `INSERT INTO api_keys (name, role, secret_sha256, created_at, created_by, revoked_at) VALUES (?, ?, ?, ?, ?, ?)
+         ON CONFLICT DO NOTHING`,
+      ),
+      listKeys: this.db.prepare('SELECT * FROM api_keys ORDER BY name'),
+      revokeKey: this.db.prepare('UPDATE api_keys SET revoked_at = ? WHERE name = ? AND revoked_at IS NULL'),
+      appendAudit: this.db.prepare(
+        `INSERT INTO audit_events (${AUDIT_COLUMNS.join(', ')}) VALUES (${AUDIT_COLUMNS.map(() => '?').join(', ')})`,
+      ),
       insertModelSet: this.db.prepare(
         'INSERT INTO model_sets (model_fingerprint, models_json) VALUES (?, ?) ON CONFLICT (model_fingerprint) DO NOTHING',
       ),
@@ -275,7 +305,8 @@ export class SqliteRepository implements Repository {
   async putStation(stationId: string, s: StationInput): Promise<{ station: Station; created: boolean }> {
     const now = new Date().toISOString();
     const tx = this.db.transaction(() => {
-      const existing = this.stmt.getStation.get(stationId) as StationDbRow | undefined;
+      const existing = this.stmt.anyStation.get(stationId) as { deleted_at: string | null } | undefined;
+      if (existing?.deleted_at) throw new StationDeletedError(stationId, existing.deleted_at);
       if (existing) {
         this.stmt.updateStation.run(s.name, s.latitudeDeg, s.longitudeDeg, s.heightM, s.metHeightM, s.description, now, stationId);
       } else {
@@ -295,9 +326,60 @@ export class SqliteRepository implements Repository {
     return (this.stmt.listStations.all() as StationDbRow[]).map(toStation);
   }
 
-  async deleteStation(stationId: string): Promise<boolean> {
-    const tx = this.db.transaction(() => this.stmt.deleteStation.run(stationId).changes > 0);
+  async deleteStation(stationId: string, deletedAt: string): Promise<boolean> {
+    const tx = this.db.transaction(() => this.stmt.markDeleted.run(deletedAt, stationId).changes > 0);
     return withConflictRetry(async () => tx.immediate());
+  }
+
+  async restoreStation(stationId: string): Promise<boolean> {
+    const tx = this.db.transaction(() => this.stmt.restoreStation.run(stationId).changes > 0);
+    return withConflictRetry(async () => tx.immediate());
+  }
+
+  async purgeStation(stationId: string): Promise<boolean> {
+    const tx = this.db.transaction(() => this.stmt.purgeStation.run(stationId).changes > 0);
+    return withConflictRetry(async () => tx.immediate());
+  }
+
+  async purgeDeletedBefore(cutoff: string): Promise<string[]> {
+    const tx = this.db.transaction(() => (this.stmt.purgeBefore.all(cutoff) as string[]).sort());
+    return withConflictRetry(async () => tx.immediate());
+  }
+
+  async listDeletedStations(): Promise<DeletedStationMark[]> {
+    const rows = this.stmt.listDeleted.all() as { station_id: string; name: string; deleted_at: string }[];
+    return rows.map((r) => ({ stationId: r.station_id, name: r.name, deletedAt: r.deleted_at }));
+  }
+
+  async createApiKey(k: StoredApiKey): Promise<boolean> {
+    const tx = this.db.transaction(
+      () => this.stmt.createKey.run(k.name, k.role, k.secretSha256, k.createdAt, k.createdBy, k.revokedAt).changes > 0,
+    );
+    return withConflictRetry(async () => tx.immediate());
+  }
+
+  async listApiKeys(): Promise<StoredApiKey[]> {
+    return (this.stmt.listKeys.all() as ApiKeyDbRow[]).map(toApiKey);
+  }
+
+  async revokeApiKey(name: string, revokedAt: string): Promise<boolean> {
+    const tx = this.db.transaction(() => this.stmt.revokeKey.run(revokedAt, name).changes > 0);
+    return withConflictRetry(async () => tx.immediate());
+  }
+
+  async appendAuditEvent(event: AuditEvent): Promise<void> {
+    const tx = this.db.transaction(() => {
+      this.stmt.appendAudit.run(auditValues(event));
+    });
+    return withConflictRetry(async () => tx.immediate());
+  }
+
+  async listAuditEvents(query: AuditQuery): Promise<StoredAuditEvent[]> {
+    const { where, values } = auditWhere(query, () => '?');
+    const rows = this.db
+      .prepare(`SELECT * FROM audit_events ${where} ORDER BY at_ms DESC, event_id DESC LIMIT ?`)
+      .all(...values, query.limit) as AuditDbRow[];
+    return rows.map(toAuditEvent);
   }
 
   async writeMet(stationId: string, rows: readonly MetRow[]): Promise<WriteCounts> {
