@@ -14,9 +14,23 @@ import {
   metReadResponse,
 } from '../schemas/met.js';
 import { stationParams } from '../schemas/stations.js';
-import { envelopeValidator, isoEpoch, recordLine, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
+import type { MetRow } from '../../storage/repository.js';
+import { CSV_TYPE, csvPieces, JSON_TYPE, jsonRecordPieces } from '../series-pieces.js';
+import { loopFriendlyPages, sendPieces } from '../streamed-answer.js';
+import { envelopeValidator, isoEpoch, recordLine, requireStation, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
 import { listRejected, nothingUsable, readMetUpload, type MetUpload } from './series-ingest.js';
+
+/** A stored met row as the API shows it (JSON record; CSV cells in MET_CSV_OUTPUT_COLUMNS order). */
+const metRecord = (r: MetRow) => ({
+  epoch: isoEpoch(r.epochMs),
+  source: r.source,
+  pressure_hpa: r.pressureHpa,
+  temperature_c: r.temperatureC,
+  relative_humidity_pct: r.relativeHumidityPct,
+  dewpoint_c: r.dewpointC,
+  vapour_pressure_hpa: r.vapourPressureHpa,
+});
 
 const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
   /** A text body (CSV, RINEX met) above OFFLOAD_BODY_BYTES is read in the worker pool; the write stays here. */
@@ -103,18 +117,17 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       const stationId = request.params.station_id;
       await requireStation(app.repository, stationId);
       const range = await resolveSeriesRange(app.repository, stationId, 'met', request.query, options.maxReadRangeDays);
-      const rows = await app.repository.readMet(stationId, range, request.query.source);
-      const records = rows.map((r) => ({
-        epoch: isoEpoch(r.epochMs),
-        source: r.source,
-        pressure_hpa: r.pressureHpa,
-        temperature_c: r.temperatureC,
-        relative_humidity_pct: r.relativeHumidityPct,
-        dewpoint_c: r.dewpointC,
-        vapour_pressure_hpa: r.vapourPressureHpa,
-      }));
-      if (request.query.format === 'csv') return sendCsv(reply, MET_CSV_OUTPUT_COLUMNS, records, recordLine(MET_CSV_OUTPUT_COLUMNS));
-      return { station_id: stationId, from: isoEpoch(range.fromMs), to: isoEpoch(range.toMs), records };
+      const pages = loopFriendlyPages(app.repository, 'met', stationId, range, { source: request.query.source });
+      if (request.query.format === 'csv') {
+        const line = recordLine(MET_CSV_OUTPUT_COLUMNS);
+        return sendPieces(
+          reply,
+          CSV_TYPE,
+          csvPieces(MET_CSV_OUTPUT_COLUMNS, pages, (rows) => rows.map((r) => line(metRecord(r)))),
+        );
+      }
+      const head = { station_id: stationId, from: isoEpoch(range.fromMs), to: isoEpoch(range.toMs) };
+      return sendPieces(reply, JSON_TYPE, jsonRecordPieces(head, pages, metRecord));
     },
   );
 };
