@@ -97,6 +97,30 @@ function series(met: readonly SurfaceMetRow[], pick: (r: SurfaceMetRow) => numbe
 }
 
 /**
+ * The part of a series (sorted by epoch) that interpolation at the sorted `epochsMs` can touch: from
+ * the last value at or before the first epoch to the first value at or after the last one. The
+ * interpolation of a slice of epochs on it is the interpolation on the whole series, at a cost in
+ * proportion to the slice.
+ */
+function around(values: readonly TimedValue[], epochsMs: readonly number[]): readonly TimedValue[] {
+  if (epochsMs.length === 0) return [];
+  // First index whose epoch is > t (binary search).
+  const after = (t: number) => {
+    let lo = 0;
+    let hi = values.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (values[mid]!.epochMs <= t) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  };
+  const from = Math.max(0, after(epochsMs[0]!) - 1);
+  // Up to and including the first value after the last epoch (the right neighbour of an interpolation).
+  return values.slice(from, after(epochsMs[epochsMs.length - 1]!) + 1);
+}
+
+/**
  * @param station the station (coordinates [deg, m], met sensor height [m])
  * @param delays delay rows sorted by epoch
  * @param met met rows sorted by (epoch, source), covering the delay epochs ± the gap limit
@@ -136,17 +160,8 @@ export function stationPwvRetrieval(
   const reduce = antennaReduction(station);
   const dHeightM = reduce.dHeightM;
 
-  const epochs = delays.map((d) => d.epochMs);
-  const pressures = interpolateSeries(
-    series(met, (r) => r.pressureHpa),
-    epochs,
-    maxMetGapMs,
-  );
-  const temperatures = interpolateSeries(
-    series(met, (r) => r.temperatureC),
-    epochs,
-    maxMetGapMs,
-  );
+  const pressureSeries = series(met, (r) => r.pressureHpa);
+  const temperatureSeries = series(met, (r) => r.temperatureC);
 
   const warnings: string[] = [];
   let extraWarnings = 0;
@@ -158,11 +173,15 @@ export function stationPwvRetrieval(
     ok: 0,
   };
   const slice = (start: number, end: number): StationPwvRecord[] => {
+    const epochs = new Array<number>(end - start);
+    for (let i = start; i < end; i++) epochs[i - start] = delays[i]!.epochMs;
+    const pressures = interpolateSeries(around(pressureSeries, epochs), epochs, maxMetGapMs);
+    const temperatures = interpolateSeries(around(temperatureSeries, epochs), epochs, maxMetGapMs);
     const records = new Array<StationPwvRecord>(end - start);
     for (let i = start; i < end; i++) {
       const d = delays[i]!;
-      const p = pressures[i]!;
-      const t = temperatures[i]!;
+      const p = pressures[i - start]!;
+      const t = temperatures[i - start]!;
       const record: StationPwvRecord = {
         epochMs: d.epochMs,
         source: d.source,
