@@ -1,5 +1,4 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { provenance } from '../../domain/provenance.js';
 import type { DelayRow } from '../../storage/repository.js';
 import { ModelSetSpans } from '../../services/homogeneity.js';
 import { CSV_TYPE, csvPieces, JSON_TYPE, jsonRecordPieces } from '../series-pieces.js';
@@ -13,17 +12,18 @@ import {
   delayDepositResponse,
   delayReadQuery,
   delayReadResponse,
-  delayRecordSchema,
 } from '../schemas/delays.js';
+import type { z } from 'zod';
+import { OffloadedJsonBody, offloadLargeJsonBodies } from '../json-upload-body.js';
+import { delayRowsOf } from '../tasks/json-upload.js';
 import { stationParams } from '../schemas/stations.js';
 import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
 import { envelopeValidator, isoEpoch, recordLine, requireStation, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
-import { dropDuplicateEpochs, issueText, listRejected, nothingUsable, type Rejected } from './series-ingest.js';
+import { DEPOSIT_SOURCE_KEY, listRejected, nothingUsable, readDelayDeposit, type DelayDeposit } from './series-ingest.js';
 import { modelFingerprintHeaders } from '../fingerprint-headers.js';
 
-/** Key under which a deposit's `source` enters its model set. */
-export const DEPOSIT_SOURCE_KEY = 'deposited_by';
+export { DEPOSIT_SOURCE_KEY } from './series-ingest.js';
 
 /** A stored delay row as the API shows it (JSON record; CSV cells in DELAY_CSV_COLUMNS order). */
 const delayRecord = (r: DelayRow) => ({
@@ -49,6 +49,15 @@ async function* withSpans(pages: AsyncIterable<DelayRow[]>, spans: ModelSetSpans
 }
 
 const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
+  offloadLargeJsonBodies(app);
+
+  /** The deposit read and checked: on the event loop up to OFFLOAD_BODY_BYTES, in the worker pool above. */
+  async function readDeposit(body: unknown): Promise<DelayDeposit> {
+    if (!(body instanceof OffloadedJsonBody)) return readDelayDeposit(body as z.output<typeof delayDepositEnvelope>);
+    const output = await app.compute.run('delay-deposit-read', { body: body.bytes }, [body.bytes.buffer]);
+    return { ...output, rows: delayRowsOf(output.columns, output.source, output.set.model_fingerprint) };
+  }
+
   app.post(
     '/v1/stations/:station_id/delays',
     {
@@ -69,6 +78,7 @@ const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (ap
           404: problemSchema,
           413: problemSchema,
           415: problemSchema,
+          503: problemSchema,
         },
       },
     },
@@ -80,39 +90,7 @@ const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (ap
         const type = request.headers['content-type'] ?? '(none)';
         throw new HttpProblem(415, `content type ${type} is not accepted here; send the delay series as application/json`);
       }
-      const { records, source, models } = body as {
-        records: unknown[];
-        source: string;
-        models?: Record<string, string | number | boolean | null>;
-      };
-      const set = provenance({ ...(models ?? {}), [DEPOSIT_SOURCE_KEY]: source });
-      const rejected: Rejected[] = [];
-      const items: { where: { index: number }; row: DelayRow }[] = [];
-      records.forEach((record, index) => {
-        const parsed = delayRecordSchema.safeParse(record);
-        if (!parsed.success) {
-          rejected.push({ index, reason: issueText(`records.${index}`, parsed.error) });
-          return;
-        }
-        const r = parsed.data;
-        items.push({
-          where: { index },
-          row: {
-            epochMs: Date.parse(r.epoch),
-            source,
-            ztdM: r.ztd_m,
-            ztdSigmaM: r.ztd_sigma_m ?? null,
-            zwdM: r.zwd_m ?? null,
-            zwdSigmaM: r.zwd_sigma_m ?? null,
-            northGradientM: r.north_gradient_m ?? null,
-            eastGradientM: r.east_gradient_m ?? null,
-            northGradientSigmaM: r.north_gradient_sigma_m ?? null,
-            eastGradientSigmaM: r.east_gradient_sigma_m ?? null,
-            modelFingerprint: set.model_fingerprint,
-          },
-        });
-      });
-      const rows = dropDuplicateEpochs(items, rejected);
+      const { source, set, rows, rejected } = await readDeposit(body);
       if (rows.length === 0) throw nothingUsable(rejected);
       const counts = await app.repository.writeDelays(stationId, rows, { modelFingerprint: set.model_fingerprint, models: set.models });
       return { station_id: stationId, source, ...counts, ...listRejected(rejected), warnings: [], ...set };

@@ -1,5 +1,6 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { BATCH_BODY_LIMIT_BYTES, OFFLOAD_BODY_BYTES } from '../../limits.js';
+import { OffloadedJsonBody, offloadLargeJsonBodies } from '../json-upload-body.js';
 import { HttpProblem } from '../problem.js';
 import { metRowsOf, readMetUploadTask } from '../tasks/met-upload.js';
 import { problemSchema } from '../schemas/common.js';
@@ -33,9 +34,24 @@ const metRecord = (r: MetRow) => ({
 });
 
 const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
-  /** A text body (CSV, RINEX met) above OFFLOAD_BODY_BYTES is read in the worker pool; the write stays here. */
-  async function readUpload(body: unknown, contentType: string, source: string): Promise<MetUpload> {
-    if (typeof body !== 'string') return readMetUpload(body, contentType, source);
+  offloadLargeJsonBodies(app);
+
+  /**
+   * The upload read and checked, with the source its rows are stored under (a JSON body's `source`, else
+   * `?source=`, else the default). A JSON or text body above OFFLOAD_BODY_BYTES is read in the worker
+   * pool (JSON: src/http/tasks/json-upload.ts; CSV, RINEX met: tasks/met-upload.ts); the write stays here.
+   */
+  async function readUpload(body: unknown, contentType: string, querySource: string | undefined): Promise<MetUpload & { source: string }> {
+    if (body instanceof OffloadedJsonBody) {
+      const output = await app.compute.run('met-json-upload-read', { body: body.bytes, querySource }, [body.bytes.buffer]);
+      const { columns, observations: _rows, ...rest } = output;
+      return { ...rest, rows: metRowsOf(columns, rest.source) };
+    }
+    if (typeof body !== 'string') {
+      const source = (body as { source?: string }).source ?? querySource ?? DEFAULT_MET_SOURCE;
+      return { source, ...readMetUpload(body, contentType, source) };
+    }
+    const source = querySource ?? DEFAULT_MET_SOURCE;
     let output;
     if (body.length <= OFFLOAD_BODY_BYTES) {
       const outcome = await readMetUploadTask({ text: body, contentType, source });
@@ -45,7 +61,7 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       output = await app.compute.run('met-upload-read', { text: body, contentType, source });
     }
     const { columns, observations: _rows, ...rest } = output;
-    return { ...rest, rows: metRowsOf(columns, source) };
+    return { ...rest, source, rows: metRowsOf(columns, source) };
   }
 
   app.post(
@@ -84,9 +100,7 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       const stationId = request.params.station_id;
       await requireStation(app.repository, stationId);
       const body = request.body as unknown;
-      const source =
-        (typeof body === 'string' ? undefined : (body as { source?: string }).source) ?? request.query.source ?? DEFAULT_MET_SOURCE;
-      const upload = await readUpload(body, request.headers['content-type'] ?? 'application/json', source);
+      const { source, ...upload } = await readUpload(body, request.headers['content-type'] ?? 'application/json', request.query.source);
       if (upload.rows.length === 0) throw nothingUsable(upload.rejected);
       const counts = await app.repository.writeMet(stationId, upload.rows);
       return {
