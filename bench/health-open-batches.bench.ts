@@ -106,10 +106,9 @@ const rinexMet = (count: number) =>
 /** A server with an archive in a temporary directory and one station-year of met and delays. */
 async function archiveServer(seed: boolean): Promise<{ server: ServerProcess; cleanup: () => Promise<void> }> {
   const dataDir = mkdtempSync(join(tmpdir(), 'bench-health-'));
-  const server = await startServerProcess(
-    { ESTIMATION_WORKERS: '2', ESTIMATION_QUEUE_LIMIT: '64', LOG_LEVEL: 'info', TROPO_DATA_DIR: dataDir, TROPO_API_KEYS: KEY },
-    true,
-  );
+  const env = { ESTIMATION_WORKERS: '2', ESTIMATION_QUEUE_LIMIT: '64', LOG_LEVEL: 'info', TROPO_DATA_DIR: dataDir, TROPO_API_KEYS: KEY };
+  // A start may take more than the helper's 30 s on a loaded machine: one more try.
+  const server = await startServerProcess(env, true).catch(() => startServerProcess(env, true));
   const cleanup = async () => {
     await server.stop();
     rmSync(dataDir, { recursive: true, force: true });
@@ -175,6 +174,7 @@ async function measure(title: string, clients: Client[], server: () => Promise<{
         `${title}, run ${run + 1}: health p50 ${h.p50.toFixed(1)} ms, p99 ${h.p99.toFixed(1)} ms, max ${h.max.toFixed(1)} ms (n ${h.n}); ` +
           clients.map((c, k) => `${done[k]} × ${c.label}`).join(', '),
       );
+      process.stderr.write(`${lines.at(-1)}\n`); // progress, in case a later load fails
     } finally {
       await cleanup();
     }
