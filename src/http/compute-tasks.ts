@@ -7,6 +7,7 @@
 
 import type { TaskLocation } from '../workers/compute-pool.js';
 import type { handleMappingFactorsRequest, handlePrecipitableWaterRequest, handleSlantDelaysRequest } from './tasks/apriori-batch.js';
+import type { readDelayDepositTask, readMetJsonUploadTask } from './tasks/json-upload.js';
 import type { readMetUploadTask } from './tasks/met-upload.js';
 import type { handleNetworkRequest } from './tasks/network-request.js';
 import type { handleZwdRequest, scanZwdRequest } from './tasks/zwd-request.js';
@@ -26,6 +27,10 @@ export type ComputeTasks = {
   'precipitable-water-request': typeof handlePrecipitableWaterRequest;
   /** A large text met upload (CSV or RINEX met): read and check the records; the route stores them. */
   'met-upload-read': typeof readMetUploadTask;
+  /** A large JSON met upload: parse, check the envelope and every record; the route stores the rows. */
+  'met-json-upload-read': typeof readMetJsonUploadTask;
+  /** A large delay deposit (JSON), the same way. */
+  'delay-deposit-read': typeof readDelayDepositTask;
 };
 
 export type ComputeTaskName = keyof ComputeTasks;
@@ -35,6 +40,7 @@ const zwdRequestModule = new URL(`./tasks/zwd-request.${ext}`, import.meta.url).
 const aprioriBatchModule = new URL(`./tasks/apriori-batch.${ext}`, import.meta.url).href;
 const networkRequestModule = new URL(`./tasks/network-request.${ext}`, import.meta.url).href;
 const metUploadModule = new URL(`./tasks/met-upload.${ext}`, import.meta.url).href;
+const jsonUploadModule = new URL(`./tasks/json-upload.${ext}`, import.meta.url).href;
 
 export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
   'zwd-estimate-request': { module: zwdRequestModule, exportName: 'handleZwdRequest' },
@@ -44,4 +50,6 @@ export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
   'mapping-factors-request': { module: aprioriBatchModule, exportName: 'handleMappingFactorsRequest' },
   'precipitable-water-request': { module: aprioriBatchModule, exportName: 'handlePrecipitableWaterRequest' },
   'met-upload-read': { module: metUploadModule, exportName: 'readMetUploadTask' },
+  'met-json-upload-read': { module: jsonUploadModule, exportName: 'readMetJsonUploadTask' },
+  'delay-deposit-read': { module: jsonUploadModule, exportName: 'readDelayDepositTask' },
 };

@@ -15,19 +15,49 @@ export interface ModelSetSummary {
   count: number;
 }
 
+type SpanRow = { epochMs: number; source: string; modelFingerprint: string };
+
+/**
+ * The model sets met so far in rows that may come page by page (a paged station-year read): per
+ * fingerprint, in order of first appearance, the first and last epoch, the count and the sources.
+ */
+export class ModelSetSpans {
+  private readonly byFingerprint = new Map<string, { first: number; last: number; count: number; sources: Set<string> }>();
+
+  add(rows: readonly SpanRow[]): void {
+    for (const r of rows) {
+      let s = this.byFingerprint.get(r.modelFingerprint);
+      if (!s) this.byFingerprint.set(r.modelFingerprint, (s = { first: r.epochMs, last: r.epochMs, count: 0, sources: new Set() }));
+      s.first = Math.min(s.first, r.epochMs);
+      s.last = Math.max(s.last, r.epochMs);
+      s.count++;
+      s.sources.add(r.source);
+    }
+  }
+
+  /** The fingerprints in order of first appearance. */
+  fingerprints(): string[] {
+    return [...this.byFingerprint.keys()];
+  }
+
+  summary(sets: readonly StoredModelSet[]): { homogeneous: boolean; model_sets: ModelSetSummary[]; warnings: string[] } {
+    return summarise(this.byFingerprint, sets);
+  }
+}
+
 export function summariseModelSets(
-  rows: readonly { epochMs: number; source: string; modelFingerprint: string }[],
+  rows: readonly SpanRow[],
   sets: readonly StoredModelSet[],
 ): { homogeneous: boolean; model_sets: ModelSetSummary[]; warnings: string[] } {
-  const byFingerprint = new Map<string, { first: number; last: number; count: number; sources: Set<string> }>();
-  for (const r of rows) {
-    let s = byFingerprint.get(r.modelFingerprint);
-    if (!s) byFingerprint.set(r.modelFingerprint, (s = { first: r.epochMs, last: r.epochMs, count: 0, sources: new Set() }));
-    s.first = Math.min(s.first, r.epochMs);
-    s.last = Math.max(s.last, r.epochMs);
-    s.count++;
-    s.sources.add(r.source);
-  }
+  const spans = new ModelSetSpans();
+  spans.add(rows);
+  return spans.summary(sets);
+}
+
+function summarise(
+  byFingerprint: ReadonlyMap<string, { first: number; last: number; count: number; sources: Set<string> }>,
+  sets: readonly StoredModelSet[],
+): { homogeneous: boolean; model_sets: ModelSetSummary[]; warnings: string[] } {
   const models = new Map(sets.map((s) => [s.modelFingerprint, s.models]));
   const model_sets = [...byFingerprint.entries()]
     .map(([fp, s]) => ({

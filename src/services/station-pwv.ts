@@ -97,6 +97,30 @@ function series(met: readonly SurfaceMetRow[], pick: (r: SurfaceMetRow) => numbe
 }
 
 /**
+ * The part of a series (sorted by epoch) that interpolation at the sorted `epochsMs` can touch: from
+ * the last value at or before the first epoch to the first value at or after the last one. The
+ * interpolation of a slice of epochs on it is the interpolation on the whole series, at a cost in
+ * proportion to the slice.
+ */
+function around(values: readonly TimedValue[], epochsMs: readonly number[]): readonly TimedValue[] {
+  if (epochsMs.length === 0) return [];
+  // First index whose epoch is > t (binary search).
+  const after = (t: number) => {
+    let lo = 0;
+    let hi = values.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (values[mid]!.epochMs <= t) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  };
+  const from = Math.max(0, after(epochsMs[0]!) - 1);
+  // Up to and including the first value after the last epoch (the right neighbour of an interpolation).
+  return values.slice(from, after(epochsMs[epochsMs.length - 1]!) + 1);
+}
+
+/**
  * @param station the station (coordinates [deg, m], met sensor height [m])
  * @param delays delay rows sorted by epoch
  * @param met met rows sorted by (epoch, source), covering the delay epochs ± the gap limit
@@ -107,23 +131,37 @@ export function stationPrecipitableWater(
   met: readonly SurfaceMetRow[],
   options: StationPwvOptions = {},
 ): { records: StationPwvRecord[]; warnings: string[] } {
+  const retrieval = stationPwvRetrieval(station, delays, met, options);
+  const records = retrieval.records(0, delays.length);
+  return { records, warnings: retrieval.warnings() };
+}
+
+/**
+ * The retrieval of stationPrecipitableWater in slices, for a caller that yields to the event loop
+ * between them (the station PWV read of a station-year): `records(start, end)` computes the records
+ * of delays[start..end) — call it for consecutive slices from 0 to delays.length, each once — and
+ * `warnings()`, after the last slice, gives the warnings of all of them. The interpolation of the
+ * met series to the delay epochs is done once, here (linear in the number of rows).
+ */
+export interface StationPwvRetrieval {
+  records(start: number, end: number): StationPwvRecord[];
+  warnings(): string[];
+}
+
+export function stationPwvRetrieval(
+  station: Station,
+  delays: readonly ZenithDelayRow[],
+  met: readonly SurfaceMetRow[],
+  options: StationPwvOptions = {},
+): StationPwvRetrieval {
   const maxMetGapMs = options.maxMetGapMs ?? DEFAULT_MAX_MET_GAP_MS;
   const maxZtdSigmaM = options.maxZtdSigmaM ?? DEFAULT_MAX_ZTD_SIGMA_M;
   const latRad = station.latitudeDeg * DEG;
   const reduce = antennaReduction(station);
   const dHeightM = reduce.dHeightM;
 
-  const epochs = delays.map((d) => d.epochMs);
-  const pressures = interpolateSeries(
-    series(met, (r) => r.pressureHpa),
-    epochs,
-    maxMetGapMs,
-  );
-  const temperatures = interpolateSeries(
-    series(met, (r) => r.temperatureC),
-    epochs,
-    maxMetGapMs,
-  );
+  const pressureSeries = series(met, (r) => r.pressureHpa);
+  const temperatureSeries = series(met, (r) => r.temperatureC);
 
   const warnings: string[] = [];
   let extraWarnings = 0;
@@ -134,90 +172,101 @@ export function stationPrecipitableWater(
     'met-interpolated': 0,
     ok: 0,
   };
-  const records = new Array<StationPwvRecord>(delays.length);
-  for (let i = 0; i < delays.length; i++) {
-    const d = delays[i]!;
-    const p = pressures[i]!;
-    const t = temperatures[i]!;
-    const record: StationPwvRecord = {
-      epochMs: d.epochMs,
-      source: d.source,
-      modelFingerprint: d.modelFingerprint,
-      ztdM: d.ztdM,
-      ztdSigmaM: d.ztdSigmaM,
-      pressureHpa: null,
-      temperatureC: null,
-      zhdM: null,
-      zwdM: null,
-      zwdSigmaM: null,
-      tmK: null,
-      tmSigmaK: null,
-      conversionFactor: null,
-      pwvMm: null,
-      pwvSigmaMm: null,
-      quality: 'met-missing',
-      pressureQuality: p.quality,
-      temperatureQuality: t.quality,
-    };
-    records[i] = record;
-    if (p.value === null || t.value === null) {
-      counts['met-missing']++;
-      if (t.value !== null) record.temperatureC = reduce.temperatureC(t.value);
-      // ZHD still follows from a pressure taken at the antenna height itself.
-      if (p.value !== null && dHeightM === 0) {
-        record.pressureHpa = p.value;
-        record.zhdM = zenithHydrostaticDelayM(p.value, latRad, station.heightM);
-        record.zwdM = d.ztdM - record.zhdM;
+  const slice = (start: number, end: number): StationPwvRecord[] => {
+    const epochs = new Array<number>(end - start);
+    for (let i = start; i < end; i++) epochs[i - start] = delays[i]!.epochMs;
+    const pressures = interpolateSeries(around(pressureSeries, epochs), epochs, maxMetGapMs);
+    const temperatures = interpolateSeries(around(temperatureSeries, epochs), epochs, maxMetGapMs);
+    const records = new Array<StationPwvRecord>(end - start);
+    for (let i = start; i < end; i++) {
+      const d = delays[i]!;
+      const p = pressures[i - start]!;
+      const t = temperatures[i - start]!;
+      const record: StationPwvRecord = {
+        epochMs: d.epochMs,
+        source: d.source,
+        modelFingerprint: d.modelFingerprint,
+        ztdM: d.ztdM,
+        ztdSigmaM: d.ztdSigmaM,
+        pressureHpa: null,
+        temperatureC: null,
+        zhdM: null,
+        zwdM: null,
+        zwdSigmaM: null,
+        tmK: null,
+        tmSigmaK: null,
+        conversionFactor: null,
+        pwvMm: null,
+        pwvSigmaMm: null,
+        quality: 'met-missing',
+        pressureQuality: p.quality,
+        temperatureQuality: t.quality,
+      };
+      records[i - start] = record;
+      if (p.value === null || t.value === null) {
+        counts['met-missing']++;
+        if (t.value !== null) record.temperatureC = reduce.temperatureC(t.value);
+        // ZHD still follows from a pressure taken at the antenna height itself.
+        if (p.value !== null && dHeightM === 0) {
+          record.pressureHpa = p.value;
+          record.zhdM = zenithHydrostaticDelayM(p.value, latRad, station.heightM);
+          record.zwdM = d.ztdM - record.zhdM;
+        }
+        continue;
       }
-      continue;
+      const pressureHpa = reduce.pressureHpa(p.value, t.value);
+      const temperatureC = reduce.temperatureC(t.value);
+      const res = precipitableWaterFromSurfaceMet(d.ztdM, d.ztdSigmaM, pressureHpa, temperatureC, latRad, station.heightM);
+      // Warning texts only for the first MAX_WARNINGS (the field prefix makes each one a new string).
+      if (res.wetDelayNegative) {
+        if (warnings.length < MAX_WARNINGS) warnings.push(negativeWetDelayWarning(res.zwdM, `records.${i}`));
+        else extraWarnings++;
+      }
+      if (res.tmExtrapolated) {
+        if (warnings.length < MAX_WARNINGS) warnings.push(tmExtrapolatedWarning(temperatureC, `records.${i}`));
+        else extraWarnings++;
+      }
+      const sigmaKnown = d.ztdSigmaM !== null;
+      const quality: PwvQuality =
+        sigmaKnown && d.ztdSigmaM! > maxZtdSigmaM
+          ? 'delay-sigma-large'
+          : !sigmaKnown
+            ? 'delay-sigma-unknown'
+            : p.quality === 'interpolated' || t.quality === 'interpolated'
+              ? 'met-interpolated'
+              : 'ok';
+      counts[quality]++;
+      record.pressureHpa = pressureHpa;
+      record.temperatureC = temperatureC;
+      record.zhdM = res.zhdM;
+      record.zwdM = res.zwdM;
+      record.zwdSigmaM = sigmaKnown ? res.zwdSigmaM : null;
+      record.tmK = res.tmK;
+      record.tmSigmaK = res.tmSigmaK;
+      record.conversionFactor = res.conversionFactor;
+      record.pwvMm = res.pwvMm;
+      record.pwvSigmaMm = sigmaKnown ? res.pwvSigmaMm : null;
+      record.quality = quality;
     }
-    const pressureHpa = reduce.pressureHpa(p.value, t.value);
-    const temperatureC = reduce.temperatureC(t.value);
-    const res = precipitableWaterFromSurfaceMet(d.ztdM, d.ztdSigmaM, pressureHpa, temperatureC, latRad, station.heightM);
-    // Warning texts only for the first MAX_WARNINGS (the field prefix makes each one a new string).
-    if (res.wetDelayNegative) {
-      if (warnings.length < MAX_WARNINGS) warnings.push(negativeWetDelayWarning(res.zwdM, `records.${i}`));
-      else extraWarnings++;
+    return records;
+  };
+
+  const allWarnings = (): string[] => {
+    if (extraWarnings > 0) warnings.push(`… and ${extraWarnings} more warnings of the same kinds`);
+    if (counts['met-missing'] > 0) {
+      warnings.push(
+        `${counts['met-missing']} of ${delays.length} record(s) have no PWV: no pressure or temperature record within ${maxMetGapMs / 1000} s on both sides of their epoch (quality "met-missing")`,
+      );
     }
-    if (res.tmExtrapolated) {
-      if (warnings.length < MAX_WARNINGS) warnings.push(tmExtrapolatedWarning(temperatureC, `records.${i}`));
-      else extraWarnings++;
+    if (counts['delay-sigma-unknown'] > 0) {
+      warnings.push(
+        `${counts['delay-sigma-unknown']} record(s) have no ztd_sigma_m: their pwv_sigma_mm is null (quality "delay-sigma-unknown")`,
+      );
     }
-    const sigmaKnown = d.ztdSigmaM !== null;
-    const quality: PwvQuality =
-      sigmaKnown && d.ztdSigmaM! > maxZtdSigmaM
-        ? 'delay-sigma-large'
-        : !sigmaKnown
-          ? 'delay-sigma-unknown'
-          : p.quality === 'interpolated' || t.quality === 'interpolated'
-            ? 'met-interpolated'
-            : 'ok';
-    counts[quality]++;
-    record.pressureHpa = pressureHpa;
-    record.temperatureC = temperatureC;
-    record.zhdM = res.zhdM;
-    record.zwdM = res.zwdM;
-    record.zwdSigmaM = sigmaKnown ? res.zwdSigmaM : null;
-    record.tmK = res.tmK;
-    record.tmSigmaK = res.tmSigmaK;
-    record.conversionFactor = res.conversionFactor;
-    record.pwvMm = res.pwvMm;
-    record.pwvSigmaMm = sigmaKnown ? res.pwvSigmaMm : null;
-    record.quality = quality;
-  }
-  if (extraWarnings > 0) warnings.push(`… and ${extraWarnings} more warnings of the same kinds`);
-  if (counts['met-missing'] > 0) {
-    warnings.push(
-      `${counts['met-missing']} of ${records.length} record(s) have no PWV: no pressure or temperature record within ${maxMetGapMs / 1000} s on both sides of their epoch (quality "met-missing")`,
-    );
-  }
-  if (counts['delay-sigma-unknown'] > 0) {
-    warnings.push(
-      `${counts['delay-sigma-unknown']} record(s) have no ztd_sigma_m: their pwv_sigma_mm is null (quality "delay-sigma-unknown")`,
-    );
-  }
-  if (counts['delay-sigma-large'] > 0) {
-    warnings.push(`${counts['delay-sigma-large']} record(s) have ztd_sigma_m above ${maxZtdSigmaM} m (quality "delay-sigma-large")`);
-  }
-  return { records, warnings };
+    if (counts['delay-sigma-large'] > 0) {
+      warnings.push(`${counts['delay-sigma-large']} record(s) have ztd_sigma_m above ${maxZtdSigmaM} m (quality "delay-sigma-large")`);
+    }
+    return warnings;
+  };
+  return { records: slice, warnings: allWarnings };
 }

@@ -115,6 +115,22 @@ export interface StationRange extends TimeRange {
   stationId: string;
 }
 
+/** What a paged read (Repository.readPages) returns, by kind: the rows of the matching whole-range read. */
+export interface SeriesPageRows {
+  met: MetRow;
+  'surface-met': SurfaceMetRow;
+  delays: DelayRow;
+  'zenith-delays': ZenithDelayRow;
+}
+export type SeriesPageKind = keyof SeriesPageRows;
+
+export interface PageReadOptions {
+  /** Only this source (all sources when absent). */
+  source?: string | undefined;
+  /** Most rows in one page (an integer ≥ 1). */
+  pageRows: number;
+}
+
 export interface Repository {
   readonly backend: 'sqlite' | 'postgres';
 
@@ -174,6 +190,18 @@ export interface Repository {
   readDelays(stationId: string, range: TimeRange, source?: string): Promise<DelayRow[]>;
   /** The same rows as readDelays with the zenith total delay only (ZenithDelayRow). */
   readZenithDelays(stationId: string, range: TimeRange, source?: string): Promise<ZenithDelayRow[]>;
+  /**
+   * The rows of readMet ('met'), readSurfaceMet ('surface-met'), readDelays ('delays') or
+   * readZenithDelays ('zenith-delays') in pages of at most options.pageRows, ordered by epoch then
+   * source (keyset pagination, src/storage/paged-read.ts): a station-year read never holds the event
+   * loop in one piece when the caller yields between pages.
+   */
+  readPages<K extends SeriesPageKind>(
+    kind: K,
+    stationId: string,
+    range: TimeRange,
+    options: PageReadOptions,
+  ): AsyncGenerator<SeriesPageRows[K][], void, undefined>;
   /** The model sets of the given fingerprints (unknown ones are left out). */
   readModelSets(fingerprints: readonly string[]): Promise<StoredModelSet[]>;
 

@@ -193,6 +193,37 @@ for (const backend of BACKENDS) {
       expect(await repo.readZenithDelays('QMR-1', range)).toHaveLength(4);
     });
 
+    it('paged reads (keyset): every page size gives the rows of the whole read, in order, none twice, pages split inside an epoch', async () => {
+      const { repo } = await fresh();
+      await repo.putStation('QMR-1', STATION);
+      await repo.putStation('QMR-2', STATION);
+      // Three sources at epochs 0..6 (written out of order), one source only at 7; another station's rows beside them.
+      const written = [7, 3, 0, 5, 1, 6, 2, 4].flatMap((i) => (i === 7 ? [met(i, 'b')] : [met(i, 'c'), met(i, 'a'), met(i, 'b')]));
+      await repo.writeMet('QMR-1', written);
+      await repo.writeMet('QMR-2', [met(2, 'a'), met(3, 'a')]);
+      await repo.writeDelays('QMR-1', [delay(4, 'y'), delay(2, 'x'), delay(3, 'x'), delay(3, 'y')], MODEL_SET);
+      // Expected (the contract: epoch then source, bounds inclusive): epochs 1..7 of QMR-1, sources in name order.
+      const range = { fromMs: T0 + 5 * MIN, toMs: T0 + 35 * MIN };
+      const expected = [1, 2, 3, 4, 5, 6].flatMap((i) => [met(i, 'a'), met(i, 'b'), met(i, 'c')]).concat([met(7, 'b')]);
+      for (const pageRows of [1, 2, 3, 4, 19, 1000]) {
+        const pages: MetRow[][] = [];
+        for await (const page of repo.readPages('met', 'QMR-1', range, { pageRows })) pages.push(page);
+        expect(pages.flat(), `pageRows ${pageRows}`).toEqual(expected);
+        expect(pages.every((p) => p.length >= 1 && p.length <= pageRows)).toBe(true);
+        expect(pages.length).toBe(Math.ceil(expected.length / pageRows));
+      }
+      const paged = async <K extends 'met' | 'surface-met' | 'delays' | 'zenith-delays'>(kind: K, source?: string) => {
+        const rows = [];
+        for await (const page of repo.readPages(kind, 'QMR-1', range, { pageRows: 2, source })) rows.push(...page);
+        return rows;
+      };
+      expect(await paged('met', 'b')).toEqual([1, 2, 3, 4, 5, 6, 7].map((i) => met(i, 'b')));
+      expect(await paged('surface-met')).toEqual(await repo.readSurfaceMet('QMR-1', range));
+      expect(await paged('delays')).toEqual([delay(2, 'x'), delay(3, 'x'), delay(3, 'y'), delay(4, 'y')]);
+      expect(await paged('zenith-delays', 'y')).toEqual(await repo.readZenithDelays('QMR-1', range, 'y'));
+      expect(await paged('met', 'nobody')).toEqual([]);
+    });
+
     it('refuses series for an unknown station and stores nothing', async () => {
       const { repo } = await fresh();
       await expect(repo.writeMet('NOPE', [met(0)])).rejects.toBeInstanceOf(UnknownStationError);

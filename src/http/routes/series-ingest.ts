@@ -9,7 +9,9 @@ import type { z } from 'zod';
 import { RecordLimitError } from '../../formats/format-error.js';
 import { CsvFormatError, parseMetCsv } from '../../formats/met-csv.js';
 import { looksLikeRinexMet, parseRinexMet, RinexFormatError } from '../../formats/rinex-met.js';
-import type { MetRow } from '../../storage/repository.js';
+import { provenance } from '../../domain/provenance.js';
+import type { DelayRow, MetRow } from '../../storage/repository.js';
+import { delayRecordSchema, type delayDepositEnvelope } from '../schemas/delays.js';
 import { HttpProblem } from '../problem.js';
 import { issuesToFieldErrors } from '../field-errors.js';
 import { MAX_REJECTED_LISTED, metRecordSchema } from '../schemas/met.js';
@@ -167,4 +169,49 @@ export function readMetUpload(body: unknown, contentType: string, source: string
       ignored_values: file.ignoredValues,
     },
   };
+}
+
+/** Key under which a deposit's `source` enters its model set. */
+export const DEPOSIT_SOURCE_KEY = 'deposited_by';
+
+export interface DelayDeposit {
+  source: string;
+  /** The deposit's model set: its `models` plus `deposited_by: source`, and their fingerprint. */
+  set: ReturnType<typeof provenance>;
+  /** The good records (the first of each epoch), with the set's fingerprint. */
+  rows: DelayRow[];
+  rejected: Rejected[];
+}
+
+/** A delay deposit whose envelope has been checked: every record checked on its own. */
+export function readDelayDeposit(body: z.output<typeof delayDepositEnvelope>): DelayDeposit {
+  const { records, source, models } = body;
+  const set = provenance({ ...(models ?? {}), [DEPOSIT_SOURCE_KEY]: source });
+  const rejected: Rejected[] = [];
+  const items: { where: { index: number }; row: DelayRow }[] = [];
+  records.forEach((record, index) => {
+    const parsed = delayRecordSchema.safeParse(record);
+    if (!parsed.success) {
+      rejected.push({ index, reason: issueText(`records.${index}`, parsed.error) });
+      return;
+    }
+    const r = parsed.data;
+    items.push({
+      where: { index },
+      row: {
+        epochMs: Date.parse(r.epoch),
+        source,
+        ztdM: r.ztd_m,
+        ztdSigmaM: r.ztd_sigma_m ?? null,
+        zwdM: r.zwd_m ?? null,
+        zwdSigmaM: r.zwd_sigma_m ?? null,
+        northGradientM: r.north_gradient_m ?? null,
+        eastGradientM: r.east_gradient_m ?? null,
+        northGradientSigmaM: r.north_gradient_sigma_m ?? null,
+        eastGradientSigmaM: r.east_gradient_sigma_m ?? null,
+        modelFingerprint: set.model_fingerprint,
+      },
+    });
+  });
+  return { source, set, rows: dropDuplicateEpochs(items, rejected), rejected };
 }

@@ -9,6 +9,7 @@ import { validatorCompiler } from 'fastify-type-provider-zod';
 import type { z } from 'zod';
 import { csvCell } from '../../formats/met-csv.js';
 import type { Repository, Station } from '../../storage/repository.js';
+import { OffloadedJsonBody } from '../json-upload-body.js';
 import { HttpProblem } from '../problem.js';
 
 export interface StationRouteOptions {
@@ -78,7 +79,8 @@ export function envelopeValidator(envelope: z.ZodType): FastifySchemaCompiler<an
   return (route: { schema: z.ZodType; method: string; url: string; httpPart?: string }) => {
     if (route.httpPart === 'body') {
       const validate = validatorCompiler({ ...(route as Parameters<typeof validatorCompiler>[0]), schema: envelope });
-      return (data: unknown) => (typeof data === 'string' ? { value: data } : validate(data));
+      // Text (CSV, RINEX) and a large JSON body kept as bytes pass: they are checked where they are read.
+      return (data: unknown) => (typeof data === 'string' || data instanceof OffloadedJsonBody ? { value: data } : validate(data));
     }
     return validatorCompiler(route as Parameters<typeof validatorCompiler>[0]);
   };

@@ -1,7 +1,8 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { provenance } from '../../domain/provenance.js';
 import type { DelayRow } from '../../storage/repository.js';
-import { summariseModelSets } from '../../services/homogeneity.js';
+import { ModelSetSpans } from '../../services/homogeneity.js';
+import { CSV_TYPE, csvPieces, JSON_TYPE, jsonRecordPieces } from '../series-pieces.js';
+import { loopFriendlyPages, sendPieces } from '../streamed-answer.js';
 import { HttpProblem } from '../problem.js';
 import { problemSchema } from '../schemas/common.js';
 import {
@@ -11,19 +12,52 @@ import {
   delayDepositResponse,
   delayReadQuery,
   delayReadResponse,
-  delayRecordSchema,
 } from '../schemas/delays.js';
+import type { z } from 'zod';
+import { OffloadedJsonBody, offloadLargeJsonBodies } from '../json-upload-body.js';
+import { delayRowsOf } from '../tasks/json-upload.js';
 import { stationParams } from '../schemas/stations.js';
 import { BATCH_BODY_LIMIT_BYTES } from '../../limits.js';
-import { envelopeValidator, isoEpoch, recordLine, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
+import { envelopeValidator, isoEpoch, recordLine, requireStation, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
-import { dropDuplicateEpochs, issueText, listRejected, nothingUsable, type Rejected } from './series-ingest.js';
+import { DEPOSIT_SOURCE_KEY, listRejected, nothingUsable, readDelayDeposit, type DelayDeposit } from './series-ingest.js';
 import { modelFingerprintHeaders } from '../fingerprint-headers.js';
 
-/** Key under which a deposit's `source` enters its model set. */
-export const DEPOSIT_SOURCE_KEY = 'deposited_by';
+export { DEPOSIT_SOURCE_KEY } from './series-ingest.js';
+
+/** A stored delay row as the API shows it (JSON record; CSV cells in DELAY_CSV_COLUMNS order). */
+const delayRecord = (r: DelayRow) => ({
+  epoch: isoEpoch(r.epochMs),
+  ztd_m: r.ztdM,
+  ztd_sigma_m: r.ztdSigmaM,
+  zwd_m: r.zwdM,
+  zwd_sigma_m: r.zwdSigmaM,
+  north_gradient_m: r.northGradientM,
+  east_gradient_m: r.eastGradientM,
+  north_gradient_sigma_m: r.northGradientSigmaM,
+  east_gradient_sigma_m: r.eastGradientSigmaM,
+  source: r.source,
+  model_fingerprint: r.modelFingerprint,
+});
+
+/** The pages as they are, each added to `spans` on its way. */
+async function* withSpans(pages: AsyncIterable<DelayRow[]>, spans: ModelSetSpans): AsyncGenerator<DelayRow[], void, undefined> {
+  for await (const page of pages) {
+    spans.add(page);
+    yield page;
+  }
+}
 
 const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
+  offloadLargeJsonBodies(app);
+
+  /** The deposit read and checked: on the event loop up to OFFLOAD_BODY_BYTES, in the worker pool above. */
+  async function readDeposit(body: unknown): Promise<DelayDeposit> {
+    if (!(body instanceof OffloadedJsonBody)) return readDelayDeposit(body as z.output<typeof delayDepositEnvelope>);
+    const output = await app.compute.run('delay-deposit-read', { body: body.bytes }, [body.bytes.buffer]);
+    return { ...output, rows: delayRowsOf(output.columns, output.source, output.set.model_fingerprint) };
+  }
+
   app.post(
     '/v1/stations/:station_id/delays',
     {
@@ -44,6 +78,7 @@ const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (ap
           404: problemSchema,
           413: problemSchema,
           415: problemSchema,
+          503: problemSchema,
         },
       },
     },
@@ -55,42 +90,10 @@ const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (ap
         const type = request.headers['content-type'] ?? '(none)';
         throw new HttpProblem(415, `content type ${type} is not accepted here; send the delay series as application/json`);
       }
-      const { records, source, models } = body as {
-        records: unknown[];
-        source: string;
-        models?: Record<string, string | number | boolean | null>;
-      };
-      const set = provenance({ ...(models ?? {}), [DEPOSIT_SOURCE_KEY]: source });
-      const rejected: Rejected[] = [];
-      const items: { where: { index: number }; row: DelayRow }[] = [];
-      records.forEach((record, index) => {
-        const parsed = delayRecordSchema.safeParse(record);
-        if (!parsed.success) {
-          rejected.push({ index, reason: issueText(`records.${index}`, parsed.error) });
-          return;
-        }
-        const r = parsed.data;
-        items.push({
-          where: { index },
-          row: {
-            epochMs: Date.parse(r.epoch),
-            source,
-            ztdM: r.ztd_m,
-            ztdSigmaM: r.ztd_sigma_m ?? null,
-            zwdM: r.zwd_m ?? null,
-            zwdSigmaM: r.zwd_sigma_m ?? null,
-            northGradientM: r.north_gradient_m ?? null,
-            eastGradientM: r.east_gradient_m ?? null,
-            northGradientSigmaM: r.north_gradient_sigma_m ?? null,
-            eastGradientSigmaM: r.east_gradient_sigma_m ?? null,
-            modelFingerprint: set.model_fingerprint,
-          },
-        });
-      });
-      const rows = dropDuplicateEpochs(items, rejected);
+      const { source, set, rows, rejected } = await readDeposit(body);
       if (rows.length === 0) throw nothingUsable(rejected);
       const counts = await app.repository.writeDelays(stationId, rows, { modelFingerprint: set.model_fingerprint, models: set.models });
-      request.auditDetail = { source, records: records.length, ...counts };
+      request.auditDetail = { source, records: rows.length + rejected.length, ...counts };
       return { station_id: stationId, source, ...counts, ...listRejected(rejected), warnings: [], ...set };
     },
   );
@@ -111,29 +114,31 @@ const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (ap
       const stationId = request.params.station_id;
       await requireStation(app.repository, stationId);
       const range = await resolveSeriesRange(app.repository, stationId, 'delays', request.query, options.maxReadRangeDays);
-      const rows = await app.repository.readDelays(stationId, range, request.query.source);
-      const fingerprints = [...new Set(rows.map((r) => r.modelFingerprint))];
-      const summary = summariseModelSets(rows, await app.repository.readModelSets(fingerprints));
-      const records = rows.map((r) => ({
-        epoch: isoEpoch(r.epochMs),
-        ztd_m: r.ztdM,
-        ztd_sigma_m: r.ztdSigmaM,
-        zwd_m: r.zwdM,
-        zwd_sigma_m: r.zwdSigmaM,
-        north_gradient_m: r.northGradientM,
-        east_gradient_m: r.eastGradientM,
-        north_gradient_sigma_m: r.northGradientSigmaM,
-        east_gradient_sigma_m: r.eastGradientSigmaM,
-        source: r.source,
-        model_fingerprint: r.modelFingerprint,
-      }));
+      const source = request.query.source;
       if (request.query.format === 'csv') {
-        return sendCsv(reply, DELAY_CSV_COLUMNS, records, recordLine(DELAY_CSV_COLUMNS), {
-          'x-homogeneous': String(summary.homogeneous),
-          ...modelFingerprintHeaders(fingerprints),
-        });
+        // The headers need the model sets of the range before the first row: a first pass over the narrow rows.
+        const spans = new ModelSetSpans();
+        for await (const page of loopFriendlyPages(app.repository, 'zenith-delays', stationId, range, { source })) spans.add(page);
+        const fingerprints = spans.fingerprints();
+        const summary = spans.summary(await app.repository.readModelSets(fingerprints));
+        const line = recordLine(DELAY_CSV_COLUMNS);
+        const pages = loopFriendlyPages(app.repository, 'delays', stationId, range, { source });
+        return sendPieces(
+          reply,
+          CSV_TYPE,
+          csvPieces(DELAY_CSV_COLUMNS, pages, (rows) => rows.map((r) => line(delayRecord(r)))),
+          { 'x-homogeneous': String(summary.homogeneous), ...modelFingerprintHeaders(fingerprints) },
+        );
       }
-      return { station_id: stationId, from: isoEpoch(range.fromMs), to: isoEpoch(range.toMs), records, ...summary };
+      // JSON: the summary follows the records, so it is gathered while they are written.
+      const spans = new ModelSetSpans();
+      const pages = withSpans(loopFriendlyPages(app.repository, 'delays', stationId, range, { source }), spans);
+      const head = { station_id: stationId, from: isoEpoch(range.fromMs), to: isoEpoch(range.toMs) };
+      return sendPieces(
+        reply,
+        JSON_TYPE,
+        jsonRecordPieces(head, pages, delayRecord, async () => spans.summary(await app.repository.readModelSets(spans.fingerprints()))),
+      );
     },
   );
 };

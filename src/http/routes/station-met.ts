@@ -1,5 +1,6 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { BATCH_BODY_LIMIT_BYTES, OFFLOAD_BODY_BYTES } from '../../limits.js';
+import { OffloadedJsonBody, offloadLargeJsonBodies } from '../json-upload-body.js';
 import { HttpProblem } from '../problem.js';
 import { relativeHumidityUnitWarning } from '../../services/unit-guards.js';
 import type { MetRow } from '../../storage/repository.js';
@@ -16,7 +17,9 @@ import {
   metReadResponse,
 } from '../schemas/met.js';
 import { stationParams } from '../schemas/stations.js';
-import { envelopeValidator, isoEpoch, recordLine, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
+import { CSV_TYPE, csvPieces, JSON_TYPE, jsonRecordPieces } from '../series-pieces.js';
+import { loopFriendlyPages, sendPieces } from '../streamed-answer.js';
+import { envelopeValidator, isoEpoch, recordLine, requireStation, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
 import { listRejected, nothingUsable, readMetUpload, type MetUpload } from './series-ingest.js';
 
@@ -29,10 +32,36 @@ function humidityWarning(rows: readonly MetRow[]): string[] {
   return w ? [w.text] : [];
 }
 
+/** A stored met row as the API shows it (JSON record; CSV cells in MET_CSV_OUTPUT_COLUMNS order). */
+const metRecord = (r: MetRow) => ({
+  epoch: isoEpoch(r.epochMs),
+  source: r.source,
+  pressure_hpa: r.pressureHpa,
+  temperature_c: r.temperatureC,
+  relative_humidity_pct: r.relativeHumidityPct,
+  dewpoint_c: r.dewpointC,
+  vapour_pressure_hpa: r.vapourPressureHpa,
+});
+
 const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
-  /** A text body (CSV, RINEX met) above OFFLOAD_BODY_BYTES is read in the worker pool; the write stays here. */
-  async function readUpload(body: unknown, contentType: string, source: string): Promise<MetUpload> {
-    if (typeof body !== 'string') return readMetUpload(body, contentType, source);
+  offloadLargeJsonBodies(app);
+
+  /**
+   * The upload read and checked, with the source its rows are stored under (a JSON body's `source`, else
+   * `?source=`, else the default). A JSON or text body above OFFLOAD_BODY_BYTES is read in the worker
+   * pool (JSON: src/http/tasks/json-upload.ts; CSV, RINEX met: tasks/met-upload.ts); the write stays here.
+   */
+  async function readUpload(body: unknown, contentType: string, querySource: string | undefined): Promise<MetUpload & { source: string }> {
+    if (body instanceof OffloadedJsonBody) {
+      const output = await app.compute.run('met-json-upload-read', { body: body.bytes, querySource }, [body.bytes.buffer]);
+      const { columns, observations: _rows, ...rest } = output;
+      return { ...rest, rows: metRowsOf(columns, rest.source) };
+    }
+    if (typeof body !== 'string') {
+      const source = (body as { source?: string }).source ?? querySource ?? DEFAULT_MET_SOURCE;
+      return { source, ...readMetUpload(body, contentType, source) };
+    }
+    const source = querySource ?? DEFAULT_MET_SOURCE;
     let output;
     if (body.length <= OFFLOAD_BODY_BYTES) {
       const outcome = await readMetUploadTask({ text: body, contentType, source });
@@ -42,7 +71,7 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       output = await app.compute.run('met-upload-read', { text: body, contentType, source });
     }
     const { columns, observations: _rows, ...rest } = output;
-    return { ...rest, rows: metRowsOf(columns, source) };
+    return { ...rest, source, rows: metRowsOf(columns, source) };
   }
 
   app.post(
@@ -81,9 +110,7 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       const stationId = request.params.station_id;
       await requireStation(app.repository, stationId);
       const body = request.body as unknown;
-      const source =
-        (typeof body === 'string' ? undefined : (body as { source?: string }).source) ?? request.query.source ?? DEFAULT_MET_SOURCE;
-      const upload = await readUpload(body, request.headers['content-type'] ?? 'application/json', source);
+      const { source, ...upload } = await readUpload(body, request.headers['content-type'] ?? 'application/json', request.query.source);
       if (upload.rows.length === 0) throw nothingUsable(upload.rejected);
       const counts = await app.repository.writeMet(stationId, upload.rows);
       request.auditDetail = { source, records: upload.rows.length + upload.rejected.length, ...counts };
@@ -115,18 +142,17 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       const stationId = request.params.station_id;
       await requireStation(app.repository, stationId);
       const range = await resolveSeriesRange(app.repository, stationId, 'met', request.query, options.maxReadRangeDays);
-      const rows = await app.repository.readMet(stationId, range, request.query.source);
-      const records = rows.map((r) => ({
-        epoch: isoEpoch(r.epochMs),
-        source: r.source,
-        pressure_hpa: r.pressureHpa,
-        temperature_c: r.temperatureC,
-        relative_humidity_pct: r.relativeHumidityPct,
-        dewpoint_c: r.dewpointC,
-        vapour_pressure_hpa: r.vapourPressureHpa,
-      }));
-      if (request.query.format === 'csv') return sendCsv(reply, MET_CSV_OUTPUT_COLUMNS, records, recordLine(MET_CSV_OUTPUT_COLUMNS));
-      return { station_id: stationId, from: isoEpoch(range.fromMs), to: isoEpoch(range.toMs), records };
+      const pages = loopFriendlyPages(app.repository, 'met', stationId, range, { source: request.query.source });
+      if (request.query.format === 'csv') {
+        const line = recordLine(MET_CSV_OUTPUT_COLUMNS);
+        return sendPieces(
+          reply,
+          CSV_TYPE,
+          csvPieces(MET_CSV_OUTPUT_COLUMNS, pages, (rows) => rows.map((r) => line(metRecord(r)))),
+        );
+      }
+      const head = { station_id: stationId, from: isoEpoch(range.fromMs), to: isoEpoch(range.toMs) };
+      return sendPieces(reply, JSON_TYPE, jsonRecordPieces(head, pages, metRecord));
     },
   );
 };

@@ -1,14 +1,17 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { summariseModelSets } from '../../services/homogeneity.js';
+import { ModelSetSpans } from '../../services/homogeneity.js';
+import type { SurfaceMetRow, ZenithDelayRow } from '../../storage/repository.js';
+import { CSV_TYPE, csvPieces, JSON_TYPE, jsonRecordPieces } from '../series-pieces.js';
+import { loopFriendlyPages, loopFriendlySlices, sendPieces } from '../streamed-answer.js';
 import { roundedDecimalText } from '../../formats/decimal-text.js';
 import { csvCell } from '../../formats/met-csv.js';
-import { retrievalProvenance, stationPrecipitableWater, type StationPwvRecord } from '../../services/station-pwv.js';
+import { retrievalProvenance, stationPwvRetrieval, type StationPwvRecord, type StationPwvRetrieval } from '../../services/station-pwv.js';
 import { DEFAULT_MAX_MET_GAP_MS } from '../../domain/meteo/met-interpolation.js';
 import { HttpProblem } from '../problem.js';
 import { problemSchema } from '../schemas/common.js';
 import { STATION_PWV_CSV_COLUMNS, stationPwvQuery, stationPwvResponse } from '../schemas/station-precipitable-water.js';
 import { stationParams } from '../schemas/stations.js';
-import { isoEpoch, requireStation, sendCsv, type StationRouteOptions } from './station-common.js';
+import { isoEpoch, requireStation, type StationRouteOptions } from './station-common.js';
 import { resolveSeriesRange } from './series-range.js';
 import { modelFingerprintHeaders } from '../fingerprint-headers.js';
 
@@ -119,6 +122,11 @@ function metGapSetting(q: { met_max_gap_s?: number | undefined; max_met_gap_s?: 
   };
 }
 
+/** The records of the retrieval, a slice of at most READ_PAGE_ROWS at a time, the loop yielded between slices. */
+async function* computedSlices(retrieval: StationPwvRetrieval, n: number): AsyncGenerator<StationPwvRecord[], void, undefined> {
+  for await (const [start, end] of loopFriendlySlices(n)) yield retrieval.records(start, end);
+}
+
 const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
   app.get(
     '/v1/stations/:station_id/precipitable-water',
@@ -143,36 +151,52 @@ const stationPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       const range = await resolveSeriesRange(app.repository, stationId, 'delays', q, options.maxReadRangeDays);
       const gap = metGapSetting(q);
       const maxMetGapMs = gap.seconds * 1000;
-      const delays = await app.repository.readZenithDelays(stationId, range, q.source);
-      const met = delays.length
-        ? await app.repository.readSurfaceMet(
-            stationId,
-            { fromMs: delays[0]!.epochMs - maxMetGapMs, toMs: delays[delays.length - 1]!.epochMs + maxMetGapMs },
-            q.met_source,
-          )
-        : [];
-      const result = stationPrecipitableWater(station, delays, met, { maxMetGapMs, maxZtdSigmaM: q.max_ztd_sigma_m });
-      const fingerprints = [...new Set(delays.map((r) => r.modelFingerprint))];
-      const summary = summariseModelSets(delays, await app.repository.readModelSets(fingerprints));
+      // The delays and met of the range, read page by page (the model sets gathered on the way).
+      const spans = new ModelSetSpans();
+      const delays: ZenithDelayRow[] = [];
+      for await (const page of loopFriendlyPages(app.repository, 'zenith-delays', stationId, range, { source: q.source })) {
+        spans.add(page);
+        for (const row of page) delays.push(row);
+      }
+      const met: SurfaceMetRow[] = [];
+      if (delays.length) {
+        const metRange = { fromMs: delays[0]!.epochMs - maxMetGapMs, toMs: delays[delays.length - 1]!.epochMs + maxMetGapMs };
+        for await (const page of loopFriendlyPages(app.repository, 'surface-met', stationId, metRange, { source: q.met_source }))
+          for (const row of page) met.push(row);
+      }
+      const retrieval = stationPwvRetrieval(station, delays, met, { maxMetGapMs, maxZtdSigmaM: q.max_ztd_sigma_m });
+      const fingerprints = spans.fingerprints();
+      const summary = spans.summary(await app.repository.readModelSets(fingerprints));
+      // The records are computed, shaped and serialised a slice at a time, with the loop yielded between slices.
+      const slices = computedSlices(retrieval, delays.length);
       if (q.format === 'csv') {
         // Straight from the computed records to text: no intermediate objects for a station-year.
-        return sendCsv(reply, STATION_PWV_CSV_COLUMNS, result.records, pwvCsvLine, {
-          'x-homogeneous': String(summary.homogeneous),
-          ...modelFingerprintHeaders(fingerprints),
-        });
+        return sendPieces(
+          reply,
+          CSV_TYPE,
+          csvPieces(STATION_PWV_CSV_COLUMNS, slices, (records) => records.map(pwvCsvLine)),
+          {
+            'x-homogeneous': String(summary.homogeneous),
+            ...modelFingerprintHeaders(fingerprints),
+          },
+        );
       }
-      const records = result.records.map(pwvJson);
-      const retrieval = retrievalProvenance(maxMetGapMs);
-      return {
-        station_id: stationId,
-        from: isoEpoch(range.fromMs),
-        to: isoEpoch(range.toMs),
-        records,
-        homogeneous: summary.homogeneous,
-        model_sets: summary.model_sets,
-        warnings: [...summary.warnings, ...result.warnings, ...gap.warnings],
-        retrieval: { ...retrieval, met_max_gap_s: gap.seconds, max_met_gap_s: gap.seconds, max_ztd_sigma_m: q.max_ztd_sigma_m },
-      };
+      const head = { station_id: stationId, from: isoEpoch(range.fromMs), to: isoEpoch(range.toMs) };
+      return sendPieces(
+        reply,
+        JSON_TYPE,
+        jsonRecordPieces(head, slices, pwvJson, () => ({
+          homogeneous: summary.homogeneous,
+          model_sets: summary.model_sets,
+          warnings: [...summary.warnings, ...retrieval.warnings(), ...gap.warnings],
+          retrieval: {
+            ...retrievalProvenance(maxMetGapMs),
+            met_max_gap_s: gap.seconds,
+            max_met_gap_s: gap.seconds,
+            max_ztd_sigma_m: q.max_ztd_sigma_m,
+          },
+        })),
+      );
     },
   );
 };

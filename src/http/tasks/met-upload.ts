@@ -37,7 +37,7 @@ export interface MetUploadTaskOutput extends Omit<MetUpload, 'rows'> {
 
 const FIELDS = ['epochMs', 'pressureHpa', 'temperatureC', 'relativeHumidityPct', 'dewpointC', 'vapourPressureHpa'] as const;
 
-function toColumns(rows: MetRow[]): MetColumnsOut {
+export function toMetColumns(rows: MetRow[]): MetColumnsOut {
   const columns = Object.fromEntries(FIELDS.map((f) => [f, new Float64Array(rows.length)])) as unknown as MetColumnsOut;
   rows.forEach((row, i) => {
     for (const f of FIELDS) columns[f][i] = row[f] ?? NaN;
@@ -68,7 +68,7 @@ export async function readMetUploadTask(input: MetUploadTaskInput): Promise<Task
   try {
     const { rows, ...rest } = readMetUpload(input.text, input.contentType, input.source);
     const rejected: Rejected[] = rest.rejected;
-    return { ok: true, output: { ...rest, rejected, columns: toColumns(rows), observations: rows.length } };
+    return { ok: true, output: { ...rest, rejected, columns: toMetColumns(rows), observations: rows.length } };
   } catch (err) {
     if (err instanceof HttpProblem)
       return { ok: false, error: { status: err.status, detail: err.message, ...(err.errors ? { errors: err.errors } : {}) } };

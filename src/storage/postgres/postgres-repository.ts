@@ -20,6 +20,9 @@ import pg from 'pg';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
 import type {
   ConnectionStats,
+  PageReadOptions,
+  SeriesPageKind,
+  SeriesPageRows,
   DelayRow,
   MetRow,
   Repository,
@@ -51,6 +54,7 @@ import {
   type StoredAuditEvent,
 } from '../access-rows.js';
 import { withConflictRetry } from '../errors.js';
+import { positionalValues, seriesPages } from '../paged-read.js';
 import {
   DELAY_SELECT,
   MET_SELECT,
@@ -466,6 +470,18 @@ export class PostgresRepository implements Repository {
 
   async readZenithDelays(stationId: string, range: TimeRange, source?: string): Promise<ZenithDelayRow[]> {
     return (await this.readRange('delay_records', ZENITH_DELAY_SELECT, stationId, range, source)).map(zenithDelayFromArray);
+  }
+
+  readPages<K extends SeriesPageKind>(
+    kind: K,
+    stationId: string,
+    range: TimeRange,
+    options: PageReadOptions,
+  ): AsyncGenerator<SeriesPageRows[K][], void, undefined> {
+    return seriesPages(kind, stationId, range, options, 'postgres', async (text, values) => {
+      const result = await this.pool.query<unknown[]>({ text, values: positionalValues(values), rowMode: 'array' });
+      return result.rows;
+    });
   }
 
   async readModelSets(fingerprints: readonly string[]): Promise<StoredModelSet[]> {

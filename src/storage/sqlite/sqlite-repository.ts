@@ -24,6 +24,9 @@ import Database from 'better-sqlite3';
 import { MIGRATIONS, migrationSql } from '../migrations.js';
 import type {
   ConnectionStats,
+  PageReadOptions,
+  SeriesPageKind,
+  SeriesPageRows,
   DelayRow,
   MetRow,
   Repository,
@@ -55,6 +58,7 @@ import {
   type StoredAuditEvent,
 } from '../access-rows.js';
 import { withConflictRetry } from '../errors.js';
+import { seriesPages } from '../paged-read.js';
 import {
   DELAY_SELECT,
   MET_SELECT,
@@ -427,6 +431,19 @@ export class SqliteRepository implements Repository {
 
   async readZenithDelays(stationId: string, range: TimeRange, source?: string): Promise<ZenithDelayRow[]> {
     return this.readRange('delay_records', ZENITH_DELAY_SELECT, stationId, range, source).map(zenithDelayFromArray);
+  }
+
+  readPages<K extends SeriesPageKind>(
+    kind: K,
+    stationId: string,
+    range: TimeRange,
+    options: PageReadOptions,
+  ): AsyncGenerator<SeriesPageRows[K][], void, undefined> {
+    return seriesPages(kind, stationId, range, options, 'sqlite', (sql, values) => {
+      let statement = this.rangeStatements.get(sql);
+      if (!statement) this.rangeStatements.set(sql, (statement = this.db.prepare(sql).raw(true)));
+      return statement.all(values) as unknown[][];
+    });
   }
 
   async readModelSets(fingerprints: readonly string[]): Promise<StoredModelSet[]> {
