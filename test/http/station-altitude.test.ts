@@ -7,6 +7,7 @@
  * longitude (tens of metres) fails.
  */
 
+import { execFileSync } from 'node:child_process';
 import { parse } from 'csv-parse/sync';
 import { NetCDFReader } from 'netcdfjs';
 import { describe, expect, it } from 'vitest';
@@ -25,6 +26,17 @@ const POINTS = [
   { id: 'ALTA', lat: 46.874319, lon: 102.448729, h: 1500, n: -43.572 },
   { id: 'ALTB', lat: -23.617446, lon: 133.874712, h: 600, n: 15.868 },
 ];
+/** Debian's python3 with python3-pandas, when installed (the CSV must stay readable by pd.read_csv). */
+const PANDAS_PYTHON = ['/usr/bin/python3', 'python3'].find((python) => {
+  try {
+    execFileSync(python, ['-c', 'import pandas'], { stdio: 'ignore' });
+    return true;
+  } catch {
+    return false;
+  }
+});
+if (!PANDAS_PYTHON) console.warn('pandas read of the network CSV skipped: python3-pandas not installed (apt-get install python3-pandas)');
+
 /** The grid with bilinear interpolation against the synthesis: a few cm (geoid.ts); output rounded to 1 cm. */
 const TOL_M = 0.1;
 
@@ -82,6 +94,17 @@ for (const backend of BACKENDS) {
         .buffer(true)
         .parse(binary as never)
         .expect(200);
+      if (PANDAS_PYTHON) {
+        // pandas reads the CSV directly: numeric columns come out as float64, one row per station.
+        const script =
+          'import sys, json, pandas as pd\n' +
+          'df = pd.read_csv(sys.stdin)\n' +
+          'print(json.dumps({"rows": len(df), "dtypes": {c: str(df[c].dtype) for c in ["altitude_m", "geoid_undulation_m", "pwv_mm", "ztd_m"]}, "altitude": df["altitude_m"].tolist()}))';
+        const out = JSON.parse(execFileSync(PANDAS_PYTHON, ['-c', script], { input: csv.text, encoding: 'utf8' }));
+        expect(out.rows).toBe(2);
+        expect(out.dtypes).toEqual({ altitude_m: 'float64', geoid_undulation_m: 'float64', pwv_mm: 'float64', ztd_m: 'float64' });
+        POINTS.forEach((p, k) => expect(Math.abs(out.altitude[k] - (p.h - p.n))).toBeLessThan(TOL_M));
+      }
       const reader = new NetCDFReader(nc.body as Buffer);
       const ncAltitude = reader.getDataVariable('altitude') as number[];
       const ncUndulation = reader.getDataVariable('geoid_undulation') as number[];
