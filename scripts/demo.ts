@@ -1,21 +1,25 @@
 /**
  * `npm run demo`: loads an invented demo network into the station archive and shows where to read
- * it. The three stations (QUILL, BRACK, SALTM), their names and places are invented; all data is
- * synthetic, made by scripts/synthetic/network.ts from a known truth.
+ * it. Forty stations across Europe (scripts/synthetic/network.ts DEMO_NETWORK): ids, names, heights
+ * and all values are invented; the coordinates are hand-picked points on land where no station stands.
+ * Every series of a station comes from that station's one known truth
+ * (scripts/synthetic/demo-archive.ts), so deposits and estimation agree within their σ:
  *
  *  1. creates the stations;
- *  2. stores three days of hourly met per station from fixtures/demo/ (QUILL as JSON, BRACK as CSV,
- *     SALTM as RINEX met 2.11 and 3.04 files), writing the fixtures first if they are missing;
- *  3. deposits a 15-minute ZTD series per station: the generator's true ZTD plus 4 mm of white noise
- *     (seeded), with the models that describe it, and reads the PWV back against the true PWV;
- *  4. runs the ZWD estimation for each station on six hours of 30 s residuals generated from a known
- *     random-walk ZWD (scripts/synthetic-residuals.ts), with the station's stored met, and stores the
- *     result as a second delay series (so the first six hours mix two model sets: the retrieval says so);
- *  5. prints the retrieval URLs.
+ *  2. stores three days of hourly met per station: QUILL, BRACK, SALTM from fixtures/demo/ (JSON,
+ *     CSV, RINEX met 2.11 and 3.04; written first if missing), the others as JSON;
+ *  3. deposits a 15-minute ZTD series per station: the true ZTD plus 4 mm of white noise (seeded),
+ *     and reads the PWV back against the true PWV;
+ *  4. runs the ZWD estimation per station on six hours of 30 s residuals made from the same truth,
+ *     and stores it as a second delay series (the first six hours then mix two model sets: the
+ *     retrieval says so), and reports how often the two PWV series agree within 2σ;
+ *  5. stores invented soundings of QUILL, BRACK and SALTM (00Z and 12Z, from the same truth) and prints the
+ *     GNSS − sounding statistics the service computes;
+ *  6. prints the URLs, the page first.
  *
  * It works on the storage the service uses (TROPO_DATA_DIR, default ./data, or DATABASE_URL), in
  * process, with the configured or generated bearer key; start the service afterwards with
- * `npm start` and open the URLs. Running it again changes nothing (the writes are idempotent).
+ * `npm start` and open the page. Running it again changes nothing (the writes are idempotent).
  */
 
 import { existsSync, readFileSync } from 'node:fs';
@@ -23,13 +27,25 @@ import { join } from 'node:path';
 import { loadConfig } from '../src/config.js';
 import { archiveOptionsFromConfig, buildApp } from '../src/http/app.js';
 import { ADMIN_KEY_FILE_NAME } from '../src/http/access/first-admin-key.js';
-import { DEMO_DAYS, DEMO_SEEDS, DEMO_START_MS, FIXTURE_DIR, writeDemoFixtures } from './generate-fixtures.js';
-import { generateSyntheticResiduals, toRequestBody, truthZwdAt } from './synthetic-residuals.js';
-import { DEMO_NETWORK, gaussian, mulberry32, saastamoinenZhdM, truthSeries } from './synthetic/network.js';
+import { DEMO_DAYS, DEMO_START_MS, FIXTURE_DIR, writeDemoFixtures } from './generate-fixtures.js';
+import {
+  DEMO_DEPOSIT_SOURCE,
+  DEMO_ESTIMATION_SOURCE,
+  agreementWithin2Sigma,
+  depositDemoDelays,
+  estimateDemoZwd,
+  postDemoMet,
+  putDemoStation,
+  readPwv,
+} from './synthetic/demo-archive.js';
+import { DEMO_NETWORK } from './synthetic/network.js';
 import { storeDemoSoundings } from './synthetic/soundings.js';
 
-const QUARTER_HOUR = 900_000;
-const ZTD_NOISE_M = 0.004;
+const HOUR_MS = 3_600_000;
+/** The estimation window: six hours from 01:00 on the first day. */
+const ESTIMATION_START_MS = DEMO_START_MS + HOUR_MS;
+const ESTIMATION_HOURS = 6;
+const FIXTURE_STATIONS = new Set(['QUILL', 'BRACK', 'SALTM']);
 
 const config = loadConfig();
 const archive = archiveOptionsFromConfig(config);
@@ -50,21 +66,16 @@ async function call(method: 'PUT' | 'POST' | 'GET', url: string, payload?: strin
   if (res.statusCode >= 300) throw new Error(`${method} ${url}: ${res.statusCode} ${res.body}`);
   return res.json();
 }
+const out = (line: string) => process.stdout.write(`${line}\n`);
 
 try {
   if (!existsSync(new URL('SALTM-met-day3.rnx', FIXTURE_DIR))) writeDemoFixtures();
   const fixture = (name: string) => readFileSync(new URL(name, FIXTURE_DIR), 'utf8');
-  process.stdout.write('tropodelay demo: an invented network (names and places are not real), synthetic data with a known truth\n\n');
+  out(
+    `tropodelay demo: ${DEMO_NETWORK.length} invented stations (invented names and values; coordinates are points on land), synthetic data from a known truth\n`,
+  );
 
-  for (const s of DEMO_NETWORK) {
-    await call('PUT', `/v1/stations/${s.stationId}`, {
-      name: s.name,
-      latitude_deg: s.latitudeDeg,
-      longitude_deg: s.longitudeDeg,
-      height_m: s.heightM,
-      description: s.description,
-    });
-  }
+  for (const s of DEMO_NETWORK) await putDemoStation(call, s);
 
   const met = [
     ['QUILL', 'JSON', await call('POST', '/v1/stations/QUILL/met', fixture('QUILL-met.json'))],
@@ -77,87 +88,68 @@ try {
     ['SALTM', 'RINEX 3.04', await call('POST', '/v1/stations/SALTM/met?source=saltm-rinex', fixture('SALTM-met-day3.rnx'), 'text/plain')],
   ] as const;
   for (const [id, form, r] of met) {
-    process.stdout.write(
-      `met ${id.padEnd(5)} as ${form.padEnd(10)}: ${r.inserted} inserted, ${r.updated} updated, ${r.unchanged} unchanged, ${r.rejected_count} rejected\n`,
+    out(
+      `met ${id.padEnd(5)} as ${form.padEnd(10)}: ${r.inserted} inserted, ${r.updated} updated, ${r.unchanged} unchanged, ${r.rejected_count} rejected`,
     );
   }
+  let metStored = 0;
+  for (const s of DEMO_NETWORK.filter((x) => !FIXTURE_STATIONS.has(x.stationId))) {
+    const r = await postDemoMet(call, s, DEMO_START_MS, DEMO_DAYS);
+    metStored += r.inserted + r.updated + r.unchanged;
+  }
+  out(`met of the other ${DEMO_NETWORK.length - FIXTURE_STATIONS.size} stations as JSON: ${metStored} records`);
 
-  const count = DEMO_DAYS * 96 - 4; // inside the met coverage (hourly met over 3 days)
+  const endMs = DEMO_START_MS + DEMO_DAYS * 86_400_000;
+  let depositRms2 = 0;
+  let depositN = 0;
   for (const s of DEMO_NETWORK) {
-    const truth = truthSeries(s, DEMO_START_MS, count, QUARTER_HOUR, DEMO_SEEDS[s.stationId]);
-    const noise = mulberry32(100 + DEMO_SEEDS[s.stationId]!);
-    const res = await call('POST', `/v1/stations/${s.stationId}/delays`, {
-      source: 'demo-truth-plus-noise',
-      models: {
-        generator: 'scripts/synthetic/network.ts',
-        ztd_noise_m: ZTD_NOISE_M,
-        zhd: 'saastamoinen (IERS 2010 eq. 9.11)',
-        tm: 'bevis-1992',
-      },
-      records: truth.map((t) => ({
-        epoch: new Date(t.epochMs).toISOString(),
-        ztd_m: Math.round((t.ztdM + ZTD_NOISE_M * gaussian(noise)) * 1e5) / 1e5,
-        ztd_sigma_m: ZTD_NOISE_M,
-      })),
-    });
-    const pwv = await call(
-      'GET',
-      `/v1/stations/${s.stationId}/precipitable-water?source=demo-truth-plus-noise&from=${new Date(DEMO_START_MS).toISOString()}&to=${new Date(DEMO_START_MS + DEMO_DAYS * 86_400_000).toISOString()}`,
-    );
-    let sum2 = 0;
-    let n = 0;
-    pwv.records.forEach((r: { pwv_mm: number | null }, i: number) => {
-      if (r.pwv_mm === null) return;
-      sum2 += (r.pwv_mm - truth[i]!.pwvMm) ** 2;
-      n++;
-    });
-    process.stdout.write(
-      `delays ${s.stationId.padEnd(5)}: ${res.inserted + res.updated + res.unchanged} ZTD records (fingerprint ${res.model_fingerprint}); PWV for ${n}, rms vs truth ${Math.sqrt(sum2 / n).toFixed(2)} mm (4 mm ZTD noise ≈ 0.6 mm PWV)\n`,
-    );
+    const { truth } = await depositDemoDelays(call, s, DEMO_START_MS, DEMO_DAYS);
+    const trueByEpoch = new Map(truth.map((t) => [new Date(t.epochMs).toISOString(), t.pwvMm]));
+    for (const [epoch, r] of await readPwv(call, s.stationId, DEMO_DEPOSIT_SOURCE, DEMO_START_MS, endMs)) {
+      if (r.pwv_mm === null) continue;
+      depositRms2 += (r.pwv_mm - trueByEpoch.get(epoch)!) ** 2;
+      depositN++;
+    }
   }
+  out(
+    `delays: ${DEMO_NETWORK.length} stations x ${DEMO_DAYS * 96 - 4} ZTD records every 15 min; PWV for ${depositN}, rms vs truth ${Math.sqrt(depositRms2 / depositN).toFixed(2)} mm (4 mm ZTD noise ≈ 0.6 mm PWV)`,
+  );
 
-  process.stdout.write('\n');
+  let common = 0;
+  let within = 0;
+  let zwdRms2 = 0;
   for (const s of DEMO_NETWORK) {
-    // Six hours of 30 s residuals from a known random-walk ZWD (δw) with the station's coordinates.
-    const data = generateSyntheticResiduals({
-      seed: DEMO_SEEDS[s.stationId]!,
-      startIso: new Date(DEMO_START_MS + 3_600_000).toISOString(),
-      durationS: 6 * 3600,
-      latitudeDeg: s.latitudeDeg,
-      longitudeDeg: s.longitudeDeg,
-      heightM: s.heightM,
-    });
-    const { observations } = toRequestBody(data, { latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, heightM: s.heightM });
-    // The residuals were formed with this a-priori: ZHD of the met at the start, ZWD 0.
-    const startMet = truthSeries(s, DEMO_START_MS + 3_600_000, 1, 1, DEMO_SEEDS[s.stationId])[0]!;
-    const aprioriZhdM = Math.round(saastamoinenZhdM(startMet.pressureHpa, s.latitudeDeg, s.heightM) * 1e4) / 1e4;
-    const res = await call('POST', `/v1/stations/${s.stationId}/zwd-estimates?source=demo-estimation`, {
-      observations,
-      apriori: { zhd_m: aprioriZhdM, zwd_m: 0 },
-      options: { zwd_interval_s: 900 },
-    });
-    let sum2 = 0;
-    for (const e of res.series) sum2 += (e.correction_m - truthZwdAt(data.truth, Date.parse(e.epoch))) ** 2;
-    process.stdout.write(
-      `estimation ${s.stationId.padEnd(5)}: ${observations.length} residuals, ${res.series.length} epochs stored (met: ${res.met_used}, fingerprint ${res.model_fingerprint}); ZWD correction rms vs truth ${(Math.sqrt(sum2 / res.series.length) * 1000).toFixed(1)} mm\n`,
-    );
+    const { rmsM } = await estimateDemoZwd(call, s, ESTIMATION_START_MS, ESTIMATION_HOURS);
+    zwdRms2 += rmsM ** 2;
+    const windowEnd = ESTIMATION_START_MS + ESTIMATION_HOURS * HOUR_MS;
+    const a = await readPwv(call, s.stationId, DEMO_ESTIMATION_SOURCE, ESTIMATION_START_MS, windowEnd);
+    const b = await readPwv(call, s.stationId, DEMO_DEPOSIT_SOURCE, ESTIMATION_START_MS, windowEnd);
+    const agreement = agreementWithin2Sigma(a, b);
+    common += agreement.common;
+    within += agreement.within;
   }
+  out(
+    `estimation: ${DEMO_NETWORK.length} stations x ${ESTIMATION_HOURS} h of 30 s residuals from each station's truth; ZWD correction rms vs truth ${(Math.sqrt(zwdRms2 / DEMO_NETWORK.length) * 1000).toFixed(1)} mm; ` +
+      `estimated and deposited PWV agree within 2σ at ${within} of ${common} common epochs (${((100 * within) / common).toFixed(1)} %)`,
+  );
 
-  // Invented soundings at 00Z and 12Z (scripts/synthetic/soundings.ts), every other one without humidity above 400 hPa.
-  for (const line of await storeDemoSoundings(DEMO_NETWORK, DEMO_START_MS, DEMO_DAYS, DEMO_SEEDS, call)) process.stdout.write(`${line}\n`);
+  // Invented soundings at 00Z and 12Z of QUILL, BRACK and SALTM (scripts/synthetic/soundings.ts), each from its
+  // station's truth; every other one without humidity above 400 hPa.
+  const soundingStations = DEMO_NETWORK.filter((s) => FIXTURE_STATIONS.has(s.stationId));
+  const seeds = Object.fromEntries(soundingStations.map((s) => [s.stationId, s.seed ?? 1]));
+  for (const line of await storeDemoSoundings(soundingStations, DEMO_START_MS, DEMO_DAYS, seeds, call)) out(line);
 
   const base = `http://${config.HOST}:${config.PORT}`;
   const from = new Date(DEMO_START_MS).toISOString();
-  const to = new Date(DEMO_START_MS + DEMO_DAYS * 86_400_000).toISOString();
-  process.stdout.write(`\nStart the service (npm start) and read:\n`);
-  process.stdout.write(`  ${base}/v1/stations\n`);
-  for (const s of DEMO_NETWORK) {
-    process.stdout.write(`  ${base}/v1/stations/${s.stationId}/precipitable-water?from=${from}&to=${to}&format=csv\n`);
-  }
-  process.stdout.write(`  ${base}/v1/stations/QUILL/met?from=${from}&to=${to}\n`);
-  process.stdout.write(`  ${base}/v1/stations/QUILL/delays?from=${from}&to=${to}   (homogeneous: false: two model sets in 01:00-07:00)\n`);
-  process.stdout.write(
-    `  ${base}/v1/stations/QUILL/precipitable-water?source=demo-estimation&from=${new Date(DEMO_START_MS + 3_600_000).toISOString()}&to=${new Date(DEMO_START_MS + 7 * 3_600_000).toISOString()}\n`,
+  const to = new Date(endMs).toISOString();
+  out(`\nStart the service (npm start) and open the page:\n  ${base}/\nor read:`);
+  out(`  ${base}/v1/stations`);
+  out(`  ${base}/v1/network/precipitable-water?epoch=${new Date(DEMO_START_MS + 36 * HOUR_MS).toISOString()}&interval=PT1H`);
+  out(`  ${base}/v1/stations/QUILL/precipitable-water?from=${from}&to=${to}&format=csv`);
+  out(`  ${base}/v1/stations/QUILL/met?from=${from}&to=${to}`);
+  out(`  ${base}/v1/stations/QUILL/delays?from=${from}&to=${to}   (homogeneous: false: two model sets in 01:00-07:00)`);
+  out(
+    `  ${base}/v1/stations/QUILL/precipitable-water?source=${DEMO_ESTIMATION_SOURCE}&from=${new Date(ESTIMATION_START_MS).toISOString()}&to=${new Date(ESTIMATION_START_MS + ESTIMATION_HOURS * HOUR_MS).toISOString()}`,
   );
 } finally {
   await app.close();

@@ -106,6 +106,11 @@ export interface SyntheticOptions {
   minElevationDeg: number;
   sigma0M: number;
   zwd: RandomWalkTruth;
+  /**
+   * A given ZWD truth instead of the random walk: node values [m] at zwd.intervalS from the start
+   * (at least durationS / intervalS + 1 of them), e.g. a station's own truth minus the a-priori.
+   */
+  zwdTruthNodesM?: readonly number[];
   gradients: (RandomWalkTruth & { initialEastM: number }) | null;
   biasAmplitudeM: number;
   /** Stretches [start, end) in seconds after the start without observations. */
@@ -221,7 +226,7 @@ export function generateSyntheticResiduals(overrides: Partial<SyntheticOptions> 
     lon,
   };
 
-  const zwdNodes = randomWalk(normal, o.zwd, o.zwd.initialM, o.durationS);
+  const zwdNodes = o.zwdTruthNodesM ? [...o.zwdTruthNodesM] : randomWalk(normal, o.zwd, o.zwd.initialM, o.durationS);
   const northNodes = o.gradients ? randomWalk(normal, o.gradients, o.gradients.initialM, o.durationS) : [];
   const eastNodes = o.gradients ? randomWalk(normal, o.gradients, o.gradients.initialEastM, o.durationS) : [];
   const truth: SyntheticTruth = {

@@ -1,9 +1,11 @@
 /**
  * Reader of met records as CSV (csv-table.ts): one header row with the JSON field names, then one
- * record per row. Columns: epoch (required), pressure_hpa, temperature_c, relative_humidity_pct,
- * dewpoint_c, vapour_pressure_hpa, in any order; unknown or repeated columns make the whole table an
- * error. An empty cell is a missing value. Numbers are turned into numbers (readNumber); anything
- * else stays text, so the record's validation names the cell.
+ * record per row. Columns: epoch (required), source, pressure_hpa, temperature_c,
+ * relative_humidity_pct, dewpoint_c, vapour_pressure_hpa, in any order; unknown or repeated columns
+ * make the whole table an error. An empty cell is a missing value. Numbers are turned into numbers
+ * (readNumber); anything else stays text, so the record's validation names the cell. `epoch` and
+ * `source` stay text. These are the columns GET /v1/stations/{id}/met?format=csv writes, so a met
+ * CSV the service wrote uploads back unchanged (a row's `source` names its producer).
  *
  * Pure: text in, values out.
  */
@@ -16,6 +18,7 @@ export { CsvFormatError, csvCell, type CsvRowProblem } from './csv-table.js';
 
 export const MET_CSV_COLUMNS = [
   'epoch',
+  'source',
   'pressure_hpa',
   'temperature_c',
   'relative_humidity_pct',
@@ -58,7 +61,7 @@ export function parseCsvTable(
     for (let c = 0; c < header.length; c++) {
       const name = header[c]!;
       const cell = cells[c]!;
-      values[name] = cell === '' ? undefined : name === 'epoch' ? cell : (readNumber(cell) ?? cell);
+      values[name] = cell === '' ? undefined : name === 'epoch' || name === 'source' ? cell : (readNumber(cell) ?? cell);
     }
     rows[k] = { line, values };
   });

@@ -10,6 +10,10 @@
  *   air_pressure   surface_air_pressure [hPa], air_temperature air_temperature [degC]
  *   lat, lon       latitude [degrees_north], longitude [degrees_east]
  *   height         height_above_reference_ellipsoid [m] (WGS84 ellipsoidal height of the antenna)
+ *   altitude       altitude [m], positive up: height above the geoid (mean sea level) of the antenna,
+ *                  the station's surface altitude in the sense of CF §9.5 (the vertical coordinate of a
+ *                  timeSeries station)
+ *   geoid_undulation  geoid_height_above_reference_ellipsoid [m] (EGM96 N; altitude = height − N)
  *   time           time ["seconds since 1970-01-01 00:00:00", standard calendar]
  * ZTD has no standard name: long_name only. Quality flags are a byte variable with flag_values and
  * flag_meanings (CF §3.5). Interval means carry time_bnds (CF §7.1) and cell_methods "time: mean" (§7.3).
@@ -23,6 +27,10 @@ export interface NetcdfStation {
   latitudeDeg: number;
   longitudeDeg: number;
   heightM: number;
+  /** Geoid undulation N (EGM96) [m]. */
+  geoidUndulationM: number;
+  /** Altitude above mean sea level, heightM − geoidUndulationM [m]. */
+  altitudeM: number;
 }
 
 /** One quantity of the file: its values row-major (station, time), null where missing. */
@@ -78,7 +86,7 @@ export function writePwvNetcdf(input: PwvNetcdfInput): Uint8Array {
   const nTime = input.timesMs.length;
   if (nStation === 0 || nTime === 0) throw new Error('a netCDF file needs at least one station and one epoch');
   const nameLength = Math.max(1, ...input.stations.map((s) => new TextEncoder().encode(s.stationId).length));
-  const coordinates = 'lat lon height station_id';
+  const coordinates = 'lat lon altitude station_id';
   const variables: NcVariable[] = [
     {
       name: 'station_id',
@@ -113,6 +121,29 @@ export function writePwvNetcdf(input: PwvNetcdfInput): Uint8Array {
         axis: 'Z',
       },
       values: input.stations.map((s) => s.heightM),
+    },
+    {
+      name: 'altitude',
+      type: 'double',
+      dimensions: ['station'],
+      attributes: {
+        standard_name: 'altitude',
+        long_name: 'antenna altitude above mean sea level (EGM96 geoid)',
+        units: 'm',
+        positive: 'up',
+      },
+      values: input.stations.map((s) => s.altitudeM),
+    },
+    {
+      name: 'geoid_undulation',
+      type: 'double',
+      dimensions: ['station'],
+      attributes: {
+        standard_name: 'geoid_height_above_reference_ellipsoid',
+        long_name: 'EGM96 geoid undulation N at the station (altitude = height - N)',
+        units: 'm',
+      },
+      values: input.stations.map((s) => s.geoidUndulationM),
     },
     {
       name: 'time',

@@ -3,11 +3,13 @@
  * on the union of their epochs (or interval starts), one value per station and epoch.
  */
 
-import { writePwvNetcdf, type NetcdfQuantity } from '../formats/pwv-netcdf.js';
+import { writePwvNetcdf, type NetcdfQuantity, type NetcdfStation } from '../formats/pwv-netcdf.js';
 import type { IntervalMean } from '../services/interval-means.js';
 import type { NetworkStationPwv } from '../services/network-pwv.js';
 import { PWV_QUALITY_FLAGS } from '../services/station-pwv.js';
+import type { Station } from '../storage/repository.js';
 import { SERVICE_VERSION } from '../version.js';
+import { stationPlaceFields } from './routes/station-common.js';
 
 export interface NetworkNetcdfContext {
   /** The request, for the history attribute (path and query). */
@@ -19,6 +21,12 @@ export interface NetworkNetcdfContext {
 const REFERENCES =
   'ZHD: Saastamoinen (1972) with Davis et al. (1985); Tm: Bevis et al. (1992), J. Geophys. Res. 97(D14); PWV = Pi(Tm) ZWD: Bevis et al. (1994), J. Appl. Meteorol. 33(3)';
 const CAUTION = 'Research and monitoring values: not for safety-of-life decisions or for issuing weather warnings.';
+
+/** The station with its altitude and geoid undulation, as the JSON and CSV answers give them. */
+function netcdfStation(s: Station): NetcdfStation {
+  const place = stationPlaceFields(s);
+  return { ...s, geoidUndulationM: place.geoid_undulation_m, altitudeM: place.altitude_m };
+}
 
 function timeAxis(epochLists: number[][]): { times: number[]; index: Map<number, number> } {
   const all = new Set<number>();
@@ -65,7 +73,7 @@ export function recordsNetcdf(results: readonly NetworkStationPwv[], ctx: Networ
   });
   return writePwvNetcdf({
     title: 'GNSS precipitable water vapour and zenith total delay per station',
-    stations: results.map((r) => r.station),
+    stations: results.map((r) => netcdfStation(r.station)),
     timesMs: times,
     intervalS: null,
     quantities: keys.map((key): NetcdfQuantity => ({ key, values: columns[key] })),
@@ -102,7 +110,7 @@ export function intervalsNetcdf(
   });
   return writePwvNetcdf({
     title: `GNSS precipitable water vapour, means over ${intervalS} s intervals per station`,
-    stations: results.map((r) => r.station),
+    stations: results.map((r) => netcdfStation(r.station)),
     timesMs: times,
     intervalS,
     quantities: keys.map((key) => ({ key, values: columns[key] })),

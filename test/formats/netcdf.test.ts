@@ -122,8 +122,8 @@ const T0 = Date.UTC(2026, 6, 10, 12);
 const CF_FILE = writePwvNetcdf({
   title: 'test series',
   stations: [
-    { stationId: 'AB1', name: 'a', latitudeDeg: 47.5, longitudeDeg: 11.25, heightM: 600 },
-    { stationId: 'CD22', name: 'c', latitudeDeg: 50, longitudeDeg: 350, heightM: 80.5 },
+    { stationId: 'AB1', name: 'a', latitudeDeg: 47.5, longitudeDeg: 11.25, heightM: 600, geoidUndulationM: 47.25, altitudeM: 552.75 },
+    { stationId: 'CD22', name: 'c', latitudeDeg: 50, longitudeDeg: 350, heightM: 80.5, geoidUndulationM: 55.5, altitudeM: 25 },
   ],
   timesMs: [T0, T0 + 300_000, T0 + 600_000],
   intervalS: null,
@@ -151,8 +151,13 @@ describe('CF-1.8 timeSeries file (CF Conventions 1.8 §9, Example H.2)', () => {
     expect(attrs('pwv')).toMatchObject({
       standard_name: 'lwe_thickness_of_atmosphere_mass_content_of_water_vapor',
       units: 'mm',
-      coordinates: 'lat lon height station_id',
+      coordinates: 'lat lon altitude station_id',
     });
+    // CF standard name table (from memory): altitude is the height above the geoid; geoid_height_above_reference_ellipsoid is N.
+    expect(attrs('altitude')).toMatchObject({ standard_name: 'altitude', units: 'm', positive: 'up' });
+    expect(attrs('geoid_undulation')).toMatchObject({ standard_name: 'geoid_height_above_reference_ellipsoid', units: 'm' });
+    expect(r.getDataVariable('altitude')).toEqual([552.75, 25]);
+    expect(r.getDataVariable('geoid_undulation')).toEqual([47.25, 55.5]);
     expect(attrs('lat')).toMatchObject({ standard_name: 'latitude', units: 'degrees_north' });
     expect(attrs('lon')).toMatchObject({ standard_name: 'longitude', units: 'degrees_east' });
     expect(attrs('height')).toMatchObject({ standard_name: 'height_above_reference_ellipsoid', units: 'm' });

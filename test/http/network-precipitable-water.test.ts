@@ -287,7 +287,15 @@ for (const backend of BACKENDS) {
         expect(res.headers['content-disposition']).toBe('attachment; filename="network-pwv-20260710T1200.csv"');
         const rows = parse(res.text, { columns: true }) as Record<string, string>[];
         expect(rows).toHaveLength(4);
-        expect(Object.keys(rows[0]!).slice(0, 5)).toEqual(['station_id', 'latitude_deg', 'longitude_deg', 'height_m', 'epoch']);
+        expect(Object.keys(rows[0]!).slice(0, 7)).toEqual([
+          'station_id',
+          'latitude_deg',
+          'longitude_deg',
+          'height_m',
+          'geoid_undulation_m',
+          'altitude_m',
+          'epoch',
+        ]);
         expect(rows[1]).toMatchObject({
           station_id: 'NWB',
           latitude_deg: '48.000000',

@@ -137,10 +137,10 @@ describe.skipIf(skipReason !== null)('workspace page in chromium', () => {
 
   it('sorts the table by PWV from the header button', async () => {
     await page.click('#station-table thead button[data-key="pwvMm"]');
-    const values = await page.$$eval('#station-table tbody tr td:nth-child(5)', (tds) => tds.map((td) => td.textContent));
+    const values = await page.$$eval('#station-table tbody tr td:nth-child(6)', (tds) => tds.map((td) => td.textContent));
     const numbers = values.filter((v) => v !== '–').map(Number);
     expect(numbers).toEqual([...numbers].sort((a, b) => a - b));
-    expect(await page.getAttribute('#station-table thead th:nth-child(5)', 'aria-sort')).toBe('ascending');
+    expect(await page.getAttribute('#station-table thead th:nth-child(6)', 'aria-sort')).toBe('ascending');
   });
 
   it('draws the chosen station: PWV with its σ band and flagged epochs, the met panel, flag counts, coverage', async () => {
@@ -168,6 +168,11 @@ describe.skipIf(skipReason !== null)('workspace page in chromium', () => {
     expect(pixels.band).toBeGreaterThan(200);
     expect(pixels.flag).toBeGreaterThan(20);
     expect(await page.locator('#met-chart canvas').count()).toBe(1);
+    // Altitude above sea level beside the ellipsoidal height (GET /v1/stations/{id} has the same numbers).
+    const place = (await (await page.request.get(`${origin}/v1/stations/WS0002`)).json()) as { altitude_m: number; height_m: number };
+    const status = await page.locator('#station-status').textContent();
+    expect(status).toContain(`${place.altitude_m.toFixed(1)} m above sea level`);
+    expect(status).toContain(`ellipsoidal ${place.height_m.toFixed(1)} m`);
     const flags = await page.locator('#flag-list').textContent();
     // The week ends at the chosen hour 2026-07-11T17Z: epochs k = 0..503 of 5 min; WS0002 has ztd_sigma_m 0.03 m at every 7th: 72
     expect(flags).toContain(`delay-sigma-large: ${EPOCHS_SHOWN / 7}`);

@@ -6,6 +6,10 @@ export interface NetworkStation {
   latitude_deg: number;
   longitude_deg: number;
   height_m: number;
+  /** EGM96 geoid undulation [m] */
+  geoid_undulation_m: number;
+  /** altitude above mean sea level, height_m − geoid_undulation_m [m] */
+  altitude_m: number;
   sources: string[];
   record_count: number;
 }

@@ -65,6 +65,7 @@ async function loadHour(): Promise<void> {
         name: s.name,
         latitudeDeg: s.latitude_deg,
         longitudeDeg: s.longitude_deg,
+        altitudeM: s.altitude_m,
         pwvMm: m?.pwv_mm ?? null,
         sigmaMm: m?.pwv_sigma_mm ?? null,
         count: m?.count ?? 0,
@@ -171,8 +172,12 @@ async function loadStation(): Promise<void> {
   showSoundings(soundings);
   $<HTMLAnchorElement>('station-csv').href = networkUrl({ ...params, format: 'csv' });
   $<HTMLAnchorElement>('station-nc').href = networkUrl({ ...params, format: 'netcdf' });
-  const name = answer.stations[0]?.name ?? '';
-  stationStatus.textContent = `${state.stationId} ${name}: ${records.length} epochs, ${from.slice(0, 16)}Z to ${to.slice(0, 16)}Z`;
+  const place = answer.stations[0];
+  const name = place?.name ?? '';
+  const heights = place
+    ? ` (${place.altitude_m.toFixed(1)} m above sea level; ellipsoidal ${place.height_m.toFixed(1)} m, geoid ${place.geoid_undulation_m.toFixed(1)} m)`
+    : '';
+  stationStatus.textContent = `${state.stationId} ${name}${heights}: ${records.length} epochs, ${from.slice(0, 16)}Z to ${to.slice(0, 16)}Z`;
   document.body.dataset.station = state.stationId;
 }
 

@@ -5,6 +5,8 @@ export interface TableRow {
   name: string;
   latitudeDeg: number;
   longitudeDeg: number;
+  /** above mean sea level [m] */
+  altitudeM: number;
   pwvMm: number | null;
   sigmaMm: number | null;
   count: number;
@@ -17,6 +19,7 @@ const COLUMNS: { key: Key; label: string; numeric: boolean; digits?: number }[] 
   { key: 'name', label: 'Name', numeric: false },
   { key: 'latitudeDeg', label: 'Lat °', numeric: true, digits: 3 },
   { key: 'longitudeDeg', label: 'Lon °', numeric: true, digits: 3 },
+  { key: 'altitudeM', label: 'Alt. m (MSL)', numeric: true, digits: 0 },
   { key: 'pwvMm', label: 'PWV mm', numeric: true, digits: 1 },
   { key: 'sigmaMm', label: 'σ mm', numeric: true, digits: 1 },
   { key: 'count', label: 'Epochs', numeric: true, digits: 0 },

@@ -18,20 +18,11 @@ import {
   type BoundingBox,
 } from '../schemas/network-precipitable-water.js';
 import { rangeEndMs, rangeStartMs } from '../schemas/range-bounds.js';
-import { isoEpoch, sendCsv, type StationRouteOptions } from './station-common.js';
-import { OUTPUT_DECIMALS } from './station-precipitable-water.js';
+import { OUTPUT_DECIMALS, fixedCell as fixed, roundTo as round } from '../../formats/output-precision.js';
+import { isoEpoch, sendCsv, stationPlaceFields, type StationRouteOptions } from './station-common.js';
 import { DAY_MS } from './series-range.js';
 
 const D = OUTPUT_DECIMALS;
-const SCALE = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8];
-const round = (x: number | null, digits: number): number | null => (x === null ? null : Math.round(x * SCALE[digits]!) / SCALE[digits]!);
-/**
- * CSV cell with a fixed count of decimals per quantity (the JSON's rounding, trailing zeros kept, so
- * every value of a column has the same precision): m 6 (1 µm), mm 4, hPa 4, °C 4; empty for null.
- * Coordinates: 6 decimals of a degree (0.1 m), heights 3 (1 mm).
- */
-const fixed = (x: number | null, digits: number): string => (x === null ? '' : x.toFixed(digits));
-
 /** Longitude in (−180, 180] [deg] (stations may be stored in 0..360). */
 const wrapLongitude = (lon: number) => (lon > 180 ? lon - 360 : lon);
 
@@ -297,7 +288,15 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         const header = intervalMs === null ? NETWORK_PWV_CSV_COLUMNS : NETWORK_INTERVAL_CSV_COLUMNS;
         results.forEach((res, k) => {
           const s = res.station;
-          const place = [csvCell(s.stationId), s.latitudeDeg.toFixed(6), s.longitudeDeg.toFixed(6), s.heightM.toFixed(3)].join(',');
+          const p = stationPlaceFields(s);
+          const place = [
+            csvCell(s.stationId),
+            fixed(p.latitude_deg, D.deg),
+            fixed(p.longitude_deg, D.deg),
+            fixed(p.height_m, D.heightM),
+            fixed(p.geoid_undulation_m, D.geoidM),
+            fixed(p.altitude_m, D.geoidM),
+          ].join(',');
           if (intervalsByStation === null) {
             for (const rec of res.records) {
               lines.push(
@@ -345,9 +344,7 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
           return {
             station_id: s.stationId,
             name: s.name,
-            latitude_deg: s.latitudeDeg,
-            longitude_deg: s.longitudeDeg,
-            height_m: s.heightM,
+            ...stationPlaceFields(s),
             from: range ? isoEpoch(range.fromMs) : null,
             to: range ? isoEpoch(range.toMs) : null,
             sources: res.sources,

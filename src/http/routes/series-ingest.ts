@@ -15,6 +15,7 @@ import { delayRecordSchema, type delayDepositEnvelope } from '../schemas/delays.
 import { HttpProblem } from '../problem.js';
 import { issuesToFieldErrors } from '../field-errors.js';
 import { MAX_REJECTED_LISTED, metRecordSchema } from '../schemas/met.js';
+import { SOURCE_PATTERN } from '../schemas/stations.js';
 
 export interface Rejected {
   index?: number;
@@ -28,23 +29,24 @@ export function issueText(prefix: string, error: z.ZodError): string {
     .join('; ');
 }
 
-/** Keeps the first record of each epoch; later ones are rejected. */
-export function dropDuplicateEpochs<T extends { epochMs: number }>(
+/** Keeps the first record of each (epoch, source); later ones are rejected. */
+export function dropDuplicateEpochs<T extends { epochMs: number; source?: string }>(
   items: { where: { index?: number; line?: number }; row: T }[],
   rejected: Rejected[],
 ): T[] {
-  const seen = new Map<number, string>();
+  const seen = new Map<string, string>();
   const out: T[] = [];
   for (const { where, row } of items) {
-    const first = seen.get(row.epochMs);
+    const key = `${row.epochMs} ${row.source ?? ''}`;
+    const first = seen.get(key);
     if (first !== undefined) {
       rejected.push({
         ...where,
-        reason: `epoch ${new Date(row.epochMs).toISOString()} appears twice in this upload (first at ${first}); the first is kept`,
+        reason: `epoch ${new Date(row.epochMs).toISOString()}${row.source === undefined ? '' : ` of source "${row.source}"`} appears twice in this upload (first at ${first}); the first is kept`,
       });
       continue;
     }
-    seen.set(row.epochMs, where.index !== undefined ? `index ${where.index}` : `line ${where.line}`);
+    seen.set(key, where.index !== undefined ? `index ${where.index}` : `line ${where.line}`);
     out.push(row);
   }
   return out;
@@ -115,9 +117,15 @@ export function readMetUpload(body: unknown, contentType: string, source: string
     rejected.push(...table.problems);
     const items: { where: { line: number }; row: MetRow }[] = [];
     for (const { line, values } of table.rows) {
-      const parsed = metRecordSchema.safeParse(values);
+      // A `source` cell (as GET .../met?format=csv writes it) names the row's producer; empty: the upload's source.
+      const { source: cellSource, ...record } = values;
+      if (cellSource !== undefined && (typeof cellSource !== 'string' || !SOURCE_PATTERN.test(cellSource))) {
+        rejected.push({ line, reason: `source: must be 1-64 characters of letters, digits and . _ : @ / - (got "${cellSource}")` });
+        continue;
+      }
+      const parsed = metRecordSchema.safeParse(record);
       if (!parsed.success) rejected.push({ line, reason: issueText('', parsed.error) });
-      else items.push({ where: { line }, row: toRow(Date.parse(parsed.data.epoch), source, parsed.data) });
+      else items.push({ where: { line }, row: toRow(Date.parse(parsed.data.epoch), cellSource ?? source, parsed.data) });
     }
     return { format: 'csv', rows: dropDuplicateEpochs(items, rejected), rejected, warnings: [] };
   }

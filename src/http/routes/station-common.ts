@@ -7,7 +7,9 @@
 import type { FastifyReply, FastifySchemaCompiler } from 'fastify';
 import { validatorCompiler } from 'fastify-type-provider-zod';
 import type { z } from 'zod';
+import { siteHeights } from '../../domain/geometry/geoid.js';
 import { csvCell } from '../../formats/met-csv.js';
+import { OUTPUT_DECIMALS, roundTo } from '../../formats/output-precision.js';
 import type { Repository, Station } from '../../storage/repository.js';
 import { OffloadedJsonBody } from '../json-upload-body.js';
 import { HttpProblem } from '../problem.js';
@@ -27,14 +29,29 @@ export async function requireStation(repository: Repository, stationId: string):
   return station;
 }
 
+/**
+ * Where a station is, as every station output gives it: the stored coordinates and ellipsoidal
+ * height, the EGM96 geoid undulation N there and the altitude above mean sea level H = h − N
+ * (src/domain/geometry/geoid.ts; rounded to 1 cm, the grid's accuracy). The one place that adds
+ * columns to a station's place: GET /v1/stations, the station reads and the network answers use it.
+ */
+export function stationPlaceFields(s: Pick<Station, 'latitudeDeg' | 'longitudeDeg' | 'heightM'>) {
+  const heights = siteHeights(s.latitudeDeg, s.longitudeDeg, s.heightM);
+  return {
+    latitude_deg: s.latitudeDeg,
+    longitude_deg: s.longitudeDeg,
+    height_m: s.heightM,
+    geoid_undulation_m: roundTo(heights.geoidUndulationM, OUTPUT_DECIMALS.geoidM)!,
+    altitude_m: roundTo(heights.aboveSeaLevelM, OUTPUT_DECIMALS.geoidM)!,
+  };
+}
+
 export function stationJson(s: Station) {
   const base = `/v1/stations/${encodeURIComponent(s.stationId)}`;
   return {
     station_id: s.stationId,
     name: s.name,
-    latitude_deg: s.latitudeDeg,
-    longitude_deg: s.longitudeDeg,
-    height_m: s.heightM,
+    ...stationPlaceFields(s),
     met_height_m: s.metHeightM,
     description: s.description,
     created_at: s.createdAt,

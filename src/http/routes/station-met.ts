@@ -55,7 +55,7 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
     if (body instanceof OffloadedJsonBody) {
       const output = await app.compute.run('met-json-upload-read', { body: body.bytes, querySource }, [body.bytes.buffer]);
       const { columns, observations: _rows, ...rest } = output;
-      return { ...rest, rows: metRowsOf(columns, rest.source) };
+      return { ...rest, rows: metRowsOf(columns) };
     }
     if (typeof body !== 'string') {
       const source = (body as { source?: string }).source ?? querySource ?? DEFAULT_MET_SOURCE;
@@ -71,7 +71,7 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       output = await app.compute.run('met-upload-read', { text: body, contentType, source });
     }
     const { columns, observations: _rows, ...rest } = output;
-    return { ...rest, source, rows: metRowsOf(columns, source) };
+    return { ...rest, source, rows: metRowsOf(columns) };
   }
 
   app.post(
@@ -84,7 +84,7 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         description: [
           'The body is one of:',
           '- application/json: `{ records: [...], source? }` as below;',
-          '- text/csv: a header row with the field names of a record (epoch, pressure_hpa, temperature_c, relative_humidity_pct, dewpoint_c, vapour_pressure_hpa), then one record per row; `?source=` names the producer;',
+          '- text/csv: a header row with the field names of a record (epoch, source, pressure_hpa, temperature_c, relative_humidity_pct, dewpoint_c, vapour_pressure_hpa), then one record per row; `?source=` names the producer of rows without a `source` cell. The CSV that GET answers with format=csv uploads back unchanged;',
           '- text/plain: a RINEX meteorological observation file, version 2.10/2.11 or 3.00-3.05, recognised by its header. PR, TD and HR are stored; other observation types (ZW, ZD, ZT, WD, WS, RI, HI, ...) are counted in `rinex.ignored_values` and not stored; epochs (GPS time) are converted to UTC.',
           'Records are keyed by (epoch, source): sending the same records again changes nothing. Each record needs pressure_hpa or temperature_c and at most one humidity field. Bad records are listed in `rejected` (by index or line) and the good ones stored; a body that is not what its content type claims, or has no good record, is a 400 and stores nothing.',
           `Body limit: ${BATCH_BODY_LIMIT_BYTES} bytes (32 MiB). Writes need \`Authorization: Bearer <key>\`.`,
@@ -118,6 +118,7 @@ const stationMetRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
         station_id: stationId,
         source,
         format: upload.format,
+        sources: [...new Set(upload.rows.map((r) => r.source))],
         ...counts,
         ...listRejected(upload.rejected),
         warnings: [...upload.warnings, ...humidityWarning(upload.rows)],

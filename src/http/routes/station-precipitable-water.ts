@@ -6,6 +6,7 @@ import { loopFriendlyPages, loopFriendlySlices, sendPieces } from '../streamed-a
 import { roundedDecimalText } from '../../formats/decimal-text.js';
 import { csvCell } from '../../formats/met-csv.js';
 import { retrievalProvenance, stationPwvRetrieval, type StationPwvRecord, type StationPwvRetrieval } from '../../services/station-pwv.js';
+import { OUTPUT_DECIMALS, roundTo as round } from '../../formats/output-precision.js';
 import { DEFAULT_MAX_MET_GAP_MS } from '../../domain/meteo/met-interpolation.js';
 import { HttpProblem } from '../problem.js';
 import { problemSchema } from '../schemas/common.js';
@@ -15,13 +16,8 @@ import { isoEpoch, requireStation, type StationRouteOptions } from './station-co
 import { resolveSeriesRange } from './series-range.js';
 import { modelFingerprintHeaders } from '../fingerprint-headers.js';
 
-/**
- * Output precision, far below every uncertainty involved (and it halves the size and the time of a
- * station-year as CSV): delays 1 µm, PWV 0.0001 mm, pressure 0.0001 hPa, temperatures 0.0001 K, Π 1e-8.
- */
-const SCALE = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8];
-const round = (x: number | null, digits: number): number | null => (x === null ? null : Math.round(x * SCALE[digits]!) / SCALE[digits]!);
-export const OUTPUT_DECIMALS = { m: 6, mm: 4, hpa: 4, k: 4, pi: 8 } as const;
+/** Output precision: the one table, src/formats/output-precision.ts. */
+export { OUTPUT_DECIMALS };
 const D = OUTPUT_DECIMALS;
 
 const pwvJson = (r: StationPwvRecord) => ({

@@ -61,7 +61,9 @@ export const metIngestEnvelope = strictObject({
 export const ingestQuery = strictObject({
   source: sourceSchema
     .optional()
-    .describe(`Producer of the records of a CSV or RINEX body (default "${DEFAULT_MET_SOURCE}"); a JSON body names it in \`source\``),
+    .describe(
+      `Producer of the records of a CSV or RINEX body (default "${DEFAULT_MET_SOURCE}"); a JSON body names it in \`source\`; a CSV row with a \`source\` cell is stored under that source`,
+    ),
 });
 
 export const rejectedSchema = z.object({
@@ -86,6 +88,7 @@ export const ingestResponseFields = {
 export const metIngestResponse = z.object({
   ...ingestResponseFields,
   format: z.enum(['json', 'csv', 'rinex-met']).describe('How the body was read'),
+  sources: z.array(z.string()).describe('Sources the stored records went to: `source` alone, or those a CSV named in its `source` column'),
   rinex: z
     .object({
       version: z.string(),

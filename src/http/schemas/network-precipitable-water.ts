@@ -10,7 +10,7 @@ import { provenanceFields, strictObject } from './common.js';
 import { modelSetSummary } from './delays.js';
 import { rangeBoundSchema } from './range-bounds.js';
 import { stationPwvQuery } from './station-precipitable-water.js';
-import { SOURCE_PATTERN, STATION_ID_PATTERN } from './stations.js';
+import { SOURCE_PATTERN, STATION_ID_PATTERN, stationPlaceSchemaFields } from './stations.js';
 
 /** Most stations named in `stations`. */
 export const NETWORK_MAX_STATIONS = 2000;
@@ -133,9 +133,7 @@ export const networkPwvQuery = strictObject({
 const networkStation = z.object({
   station_id: z.string(),
   name: z.string(),
-  latitude_deg: z.number().describe('[deg]'),
-  longitude_deg: z.number().describe('[deg]'),
-  height_m: z.number().describe('Antenna height above the WGS84 ellipsoid [m]'),
+  ...stationPlaceSchemaFields(),
   from: z
     .string()
     .nullable()
@@ -215,18 +213,17 @@ export const networkPwvResponse = z.object({
     .describe('Models and settings of the PWV retrieval itself (ZHD, Tm, Π, met interpolation)'),
 });
 
+/** The station's place on every CSV row (routes/station-common.ts stationPlaceFields). */
+export const STATION_PLACE_CSV_COLUMNS = ['latitude_deg', 'longitude_deg', 'height_m', 'geoid_undulation_m', 'altitude_m'] as const;
+
 export const NETWORK_PWV_CSV_COLUMNS = [
   'station_id',
-  'latitude_deg',
-  'longitude_deg',
-  'height_m',
+  ...STATION_PLACE_CSV_COLUMNS,
   ...Object.keys(networkPwvRecord.shape).slice(1),
 ] as const;
 export const NETWORK_INTERVAL_CSV_COLUMNS = [
   'station_id',
-  'latitude_deg',
-  'longitude_deg',
-  'height_m',
+  ...STATION_PLACE_CSV_COLUMNS,
   ...Object.keys(networkIntervalMean.shape).filter((k) => k !== 'station_id' && k !== 'quality_counts' && k !== 'sources'),
   'sources',
   ...PWV_QUALITY_FLAGS.map((q) => `count_${q.replaceAll('-', '_')}`),

@@ -63,12 +63,23 @@ export const stationBody = strictObject({
   }
 });
 
+/** The place of a station in every station output (routes/station-common.ts stationPlaceFields). */
+export function stationPlaceSchemaFields() {
+  return {
+    latitude_deg: z.number().describe('Geodetic latitude (WGS84) [deg]'),
+    longitude_deg: z.number().describe('Longitude, east positive [deg]'),
+    height_m: z.number().describe('Antenna height above the WGS84 ellipsoid [m]'),
+    geoid_undulation_m: z
+      .number()
+      .describe('Geoid undulation N of EGM96 at the station (height of mean sea level above the ellipsoid) [m], to 1 cm'),
+    altitude_m: z.number().describe('Antenna altitude above mean sea level (the EGM96 geoid): height_m − geoid_undulation_m [m], to 1 cm'),
+  };
+}
+
 export const stationResponse = z.object({
   station_id: z.string(),
   name: z.string(),
-  latitude_deg: z.number().describe('[deg]'),
-  longitude_deg: z.number().describe('[deg]'),
-  height_m: z.number().describe('[m]'),
+  ...stationPlaceSchemaFields(),
   met_height_m: z.number().nullable().describe('[m]; null = at the antenna height'),
   description: z.string().nullable(),
   created_at: z.string(),

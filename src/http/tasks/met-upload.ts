@@ -27,6 +27,9 @@ export interface MetColumnsOut {
   relativeHumidityPct: Float64Array;
   dewpointC: Float64Array;
   vapourPressureHpa: Float64Array;
+  /** Source of each row as an index into `sourceNames` (a CSV may name a source per row). */
+  sourceIndex: Uint32Array;
+  sourceNames: string[];
 }
 
 export interface MetUploadTaskOutput extends Omit<MetUpload, 'rows'> {
@@ -39,20 +42,26 @@ const FIELDS = ['epochMs', 'pressureHpa', 'temperatureC', 'relativeHumidityPct',
 
 export function toMetColumns(rows: MetRow[]): MetColumnsOut {
   const columns = Object.fromEntries(FIELDS.map((f) => [f, new Float64Array(rows.length)])) as unknown as MetColumnsOut;
+  columns.sourceIndex = new Uint32Array(rows.length);
+  const index = new Map<string, number>();
   rows.forEach((row, i) => {
     for (const f of FIELDS) columns[f][i] = row[f] ?? NaN;
+    let k = index.get(row.source);
+    if (k === undefined) index.set(row.source, (k = index.size));
+    columns.sourceIndex[i] = k;
   });
+  columns.sourceNames = [...index.keys()];
   return columns;
 }
 
-/** The rows again, with their source (one per upload). */
-export function metRowsOf(columns: MetColumnsOut, source: string): MetRow[] {
+/** The rows again, with their sources. */
+export function metRowsOf(columns: MetColumnsOut): MetRow[] {
   const value = (x: number) => (Number.isNaN(x) ? null : x);
   const rows = new Array<MetRow>(columns.epochMs.length);
   for (let i = 0; i < rows.length; i++) {
     rows[i] = {
       epochMs: columns.epochMs[i]!,
-      source,
+      source: columns.sourceNames[columns.sourceIndex[i]!]!,
       pressureHpa: value(columns.pressureHpa[i]!),
       temperatureC: value(columns.temperatureC[i]!),
       relativeHumidityPct: value(columns.relativeHumidityPct[i]!),
