@@ -78,7 +78,7 @@ export class EpochClockSystem {
   readonly sInv: Float64Array;
   readonly ks: Float64Array;
   readonly t: Float64Array;
-  /** Reduced normal matrix R (dS'×dS') and right-hand side. */
+  /** Reduced normal matrix R (dS'×dS', lower triangle valid) and right-hand side. */
   readonly r: Float64Array;
   readonly rz: Float64Array;
   /** Own-diagonal contribution Σ w m_f² per local station and family (singularity test, before any elimination). */
@@ -133,9 +133,12 @@ export class EpochClockSystem {
   /**
    * Forms and reduces the epoch's normal equations.
    * @param used per station, 1 for each design observation that takes part
+   * @param reduce false when only the clock elimination is wanted (K_σ, t, S⁻¹ and the entry data,
+   *        for residuals in the reverse sweep): R and r_z are then left unreduced, which saves the
+   *        O(K·(dS)²) product, the largest cost of an epoch
    * @returns false when nothing of the epoch is left
    */
-  build(epoch: number, used: readonly Uint8Array[]): boolean {
+  build(epoch: number, used: readonly Uint8Array[], reduce = true): boolean {
     const net = this.net;
     const d = this.d;
     const rc = net.receiverClocks;
@@ -302,7 +305,9 @@ export class EpochClockSystem {
       }
       t[k] = tv;
     }
-    // R −= N_zσ K_σ, r_z −= N_zσ t.
+    if (!reduce) return true;
+    // R −= N_zσ K_σ, r_z −= N_zσ t; R is symmetric and only its lower triangle (q ≤ p) is reduced
+    // and read (network-frontal.ts addProjected).
     for (let p = 0; p < dz; p++) {
       const rowR = p * dz;
       let v = rz[p]!;
@@ -311,7 +316,7 @@ export class EpochClockSystem {
         if (c === 0) continue;
         v -= c * t[k]!;
         const rowK = k * dz;
-        for (let q = 0; q < dz; q++) R[rowR + q]! -= c * ks[rowK + q]!;
+        for (let q = 0; q <= p; q++) R[rowR + q]! -= c * ks[rowK + q]!;
       }
       rz[p] = v;
     }

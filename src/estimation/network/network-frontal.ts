@@ -39,6 +39,8 @@ export class NetworkFrontal {
   private readonly paramAt: Int32Array;
   private readonly front: Float64Array;
   private readonly rhsFront: Float64Array;
+  /** Scratch: the occupied front slots during one elimination. */
+  private readonly activeSlots: Int32Array;
   private readonly directDiagonal: Float64Array;
   private readonly activation: Int32Array;
   private readonly position: Int32Array;
@@ -61,6 +63,7 @@ export class NetworkFrontal {
     this.paramAt = new Int32Array(maxFront).fill(-1);
     this.front = new Float64Array(maxFront * maxFront);
     this.rhsFront = new Float64Array(maxFront);
+    this.activeSlots = new Int32Array(maxFront);
     this.directDiagonal = new Float64Array(parameters);
     this.activation = new Int32Array(parameters).fill(-1);
     this.position = new Int32Array(parameters).fill(-1);
@@ -173,24 +176,35 @@ export class NetworkFrontal {
   eliminate(p: number): void {
     const s = this.slot(p);
     const mf = this.maxFront;
-    const d = this.front[s * mf + s]!;
+    const front = this.front;
+    const paramAt = this.paramAt;
+    const rhs = this.rhsFront;
+    const d = front[s * mf + s]!;
     if (!(d > PIVOT_TOLERANCE * this.directDiagonal[p]!) || !(d > 0)) throw new SingularParameterError(p);
     this.reserve(mf);
+    const neighbour = this.neighbour;
+    const factor = this.factor;
     const base = this.stored;
     let count = 0;
-    const gs = this.rhsFront[s]!;
+    const gs = rhs[s]!;
     const rowS = s * mf;
-    for (let t = 0; t < mf; t++) {
-      const q = this.paramAt[t]!;
-      if (t === s || q < 0) continue;
-      const l = this.front[t * mf + s]! / d;
-      this.neighbour[base + count] = q;
-      this.factor[base + count] = l;
+    // The occupied slots other than s, once; the update below runs over them only.
+    const active = this.activeSlots;
+    let n = 0;
+    for (let t = 0; t < mf; t++) if (t !== s && paramAt[t]! >= 0) active[n++] = t;
+    for (let i = 0; i < n; i++) {
+      const t = active[i]!;
+      const l = front[t * mf + s]! / d;
+      neighbour[base + count] = paramAt[t]!;
+      factor[base + count] = l;
       count++;
       if (l !== 0) {
         const rowT = t * mf;
-        for (let u = 0; u < mf; u++) this.front[rowT + u]! -= l * this.front[rowS + u]!;
-        this.rhsFront[t]! -= l * gs;
+        for (let j = 0; j < n; j++) {
+          const u = active[j]!;
+          front[rowT + u]! -= l * front[rowS + u]!;
+        }
+        rhs[t]! -= l * gs;
       }
     }
     this.stored += count;
@@ -200,7 +214,7 @@ export class NetworkFrontal {
     this.forward[p] = gs;
     this.position[p] = this.eliminated;
     this.order[this.eliminated++] = p;
-    this.paramAt[s] = -1;
+    paramAt[s] = -1;
     this.slotOf[p] = -1;
   }
 
@@ -246,6 +260,7 @@ export class NetworkFrontal {
     };
     const zrow = new Float64Array(mf);
     const nslots = new Int32Array(mf);
+    const lcol = new Float64Array(mf);
     for (let c = P; c >= 0; c--) {
       if (c + 1 <= P) {
         for (let i = byActivation[c + 1]!; i < byActivation[c + 2]!; i++) {
@@ -261,14 +276,19 @@ export class NetworkFrontal {
         const p = this.order[c]!;
         const start = this.neighbourStart[c]!;
         const count = this.neighbourStart[c + 1]! - start;
-        for (let a = 0; a < count; a++) nslots[a] = rslot[this.neighbour[start + a]!]!;
+        const neighbour = this.neighbour;
+        const factor = this.factor;
+        for (let a = 0; a < count; a++) {
+          nslots[a] = rslot[neighbour[start + a]!]!;
+          lcol[a] = factor[start + a]!;
+        }
         let zpp = 1 / this.pivot[p]!;
         for (let a = 0; a < count; a++) {
           const row = nslots[a]! * mf;
           let v = 0;
-          for (let b = 0; b < count; b++) v -= this.factor[start + b]! * z[row + nslots[b]!]!;
+          for (let b = 0; b < count; b++) v -= lcol[b]! * z[row + nslots[b]!]!;
           zrow[a] = v;
-          zpp -= this.factor[start + a]! * v;
+          zpp -= lcol[a]! * v;
         }
         let s = 0;
         while (rparam[s]! >= 0) s++;

@@ -263,7 +263,7 @@ export function solveNetworkOnce(
       if (!list) return;
       for (const k of list) {
         epochCov[k] = epochCovariances(k, get);
-        if (!sys.build(k, used)) continue;
+        if (!sys.build(k, used, false)) continue;
         residualsOfEpoch(k, get);
         if (net.satelliteClocks) epochCov[k]!.meanClockCorrelation = clockCorrelation(k, get, epochCov[k]!.meanVariance);
       }
