@@ -31,7 +31,17 @@ export interface ReverseSweepVisitor {
    * Called for every stamp c = P..0 after the reverse front holds the parameters that were in the
    * forward front when `eliminatedCount` was c; `get(p, q)` reads (N⁻¹)_pq for two of them.
    */
-  onStamp?(stamp: number, get: (p: number, q: number) => number): void;
+  onStamp?(stamp: number, get: (p: number, q: number) => number, view: ReverseFrontView): void;
+}
+
+/**
+ * Direct access to the reverse front for bulk reads in `onStamp`: (N⁻¹)_pq = z[slot[p]·ld + slot[q]]
+ * for two parameters in the front (slot ≥ 0); the same numbers as `get`, without a call per element.
+ */
+export interface ReverseFrontView {
+  readonly z: Float64Array;
+  readonly ld: number;
+  readonly slot: Int32Array;
 }
 
 export class NetworkFrontal {
@@ -258,6 +268,7 @@ export class NetworkFrontal {
       if (a < 0 || b < 0) throw new Error(`element (${p}, ${q}) of the inverse is not in the reverse front`);
       return z[a * mf + b]!;
     };
+    const view: ReverseFrontView = { z, ld: mf, slot: rslot };
     const zrow = new Float64Array(mf);
     const nslots = new Int32Array(mf);
     const lcol = new Float64Array(mf);
@@ -303,7 +314,7 @@ export class NetworkFrontal {
           visitor.onPair?.(p, this.neighbour[start + a]!, zrow[a]!);
         }
       }
-      visitor.onStamp?.(c, get);
+      visitor.onStamp?.(c, get, view);
     }
   }
 }

@@ -16,7 +16,7 @@ import { constraintCount, randomWalkStepWeight, type ParameterLayout } from '../
 import type { PiecewiseLinearSettings, ZwdEstimationOptions } from '../types.js';
 import { EpochClockSystem } from './epoch-clocks.js';
 import type { NetworkDesign } from './network-design.js';
-import { NetworkFrontal } from './network-frontal.js';
+import { NetworkFrontal, type ReverseFrontView } from './network-frontal.js';
 
 export interface EpochCovariances {
   /** Per station (NaN when the station has no epoch here): σ² of δw(t) and of δw − δw_ref [m²]. */
@@ -235,6 +235,9 @@ export function solveNetworkOnce(
   const refOffset = reference * P;
   const maxDz = d * S;
   const q = new Float64Array(maxDz * maxDz);
+  const listSlot = new Int32Array(local * S);
+  const listCoeff = new Float64Array(local * S);
+  const listRow = new Int32Array(local * S);
   const zhat = new Float64Array(maxDz);
   const maxK = sys.maxSatellites;
   const satClock = new Float64Array(maxK);
@@ -258,13 +261,13 @@ export function solveNetworkOnce(
       if (sr === reference) nodeCovarianceWithReference[sp]![jp] = z;
       else if (sp === reference) nodeCovarianceWithReference[sr]![jr] = z;
     },
-    onStamp(c, get) {
+    onStamp(c, get, view) {
       const list = byStamp.get(c);
       if (!list) return;
       for (const k of list) {
         epochCov[k] = epochCovariances(k, get);
         if (!sys.build(k, used, false)) continue;
-        residualsOfEpoch(k, get);
+        residualsOfEpoch(k, view);
         if (net.satelliteClocks) epochCov[k]!.meanClockCorrelation = clockCorrelation(k, get, epochCov[k]!.meanVariance);
       }
     },
@@ -317,39 +320,46 @@ export function solveNetworkOnce(
     return { variance, relativeVariance, meanVariance, meanClockCorrelation: Number.NaN };
   }
 
-  function residualsOfEpoch(k: number, get: (p: number, q: number) => number): void {
+  function residualsOfEpoch(k: number, view: ReverseFrontView): void {
     const Sp = sys.presentCount;
     const dz = d * Sp;
     const K = sys.satelliteClockCount;
     const rc = net.receiverClocks;
-    // ẑ = Bᵀx and Q_zz = Bᵀ Q B for the present stations.
-    for (let a = 0; a < Sp; a++) fillLocal(k, sys.present[a]!);
+    // ẑ = Bᵀx and Q_zz = Bᵀ Q B for the present stations: the local parameters of all present
+    // stations as one list (front slot, interpolation weight, row of z), then Q_zz from the reverse
+    // front directly (lower triangle, mirrored).
+    let n = 0;
     for (let a = 0; a < Sp; a++) {
       const sa = sys.present[a]!;
+      fillLocal(k, sa);
       for (let f = 0; f < d; f++) zhat[d * a + f] = 0;
       for (let p = 0; p < local; p++) {
         const id = ids[sa * local + p]!;
-        if (id >= 0) zhat[d * a + fam[p]!]! += interp[sa * local + p]! * x[id]!;
+        if (id < 0) continue;
+        const w = interp[sa * local + p]!;
+        zhat[d * a + fam[p]!]! += w * x[id]!;
+        const slot = view.slot[id]!;
+        if (slot < 0) throw new Error(`node ${id} is not in the reverse front at epoch ${k}`);
+        listSlot[n] = slot;
+        listCoeff[n] = w;
+        listRow[n] = d * a + fam[p]!;
+        n++;
       }
     }
-    for (let a = 0; a < Sp; a++) {
-      const sa = sys.present[a]!;
-      for (let b = 0; b <= a; b++) {
-        const sb = sys.present[b]!;
-        for (let f = 0; f < d; f++) for (let g = 0; g < d; g++) q[(d * a + f) * dz + d * b + g] = 0;
-        for (let p = 0; p < local; p++) {
-          const ip = ids[sa * local + p]!;
-          if (ip < 0) continue;
-          const wp = interp[sa * local + p]!;
-          for (let r = 0; r < local; r++) {
-            const ir = ids[sb * local + r]!;
-            if (ir < 0) continue;
-            q[(d * a + fam[p]!) * dz + d * b + fam[r]!]! += wp * interp[sb * local + r]! * get(ip, ir);
-          }
-        }
-        for (let f = 0; f < d; f++) for (let g = 0; g < d; g++) q[(d * b + g) * dz + d * a + f] = q[(d * a + f) * dz + d * b + g]!;
+    q.fill(0, 0, dz * dz);
+    const z = view.z;
+    const ld = view.ld;
+    for (let i = 0; i < n; i++) {
+      const zi = listSlot[i]! * ld;
+      const ci = listCoeff[i]!;
+      const ri = listRow[i]! * dz;
+      for (let j = 0; j < n; j++) {
+        const rj = listRow[j]!;
+        if (rj > listRow[i]!) break;
+        q[ri + rj]! += ci * listCoeff[j]! * z[zi + listSlot[j]!]!;
       }
     }
+    for (let p = 0; p < dz; p++) for (let r = 0; r < p; r++) q[r * dz + p] = q[p * dz + r]!;
     // Satellite clocks σ̂ = t − K_σ ẑ (datum 0); Φ = Q K_σᵀ (dz×K), Ψ = K_σ Φ (K×K).
     const ks = sys.ks;
     for (let kk = 0; kk < K; kk++) {
@@ -367,10 +377,11 @@ export function solveNetworkOnce(
       }
     }
     for (let k1 = 0; k1 < K; k1++) {
-      for (let k2 = 0; k2 < K; k2++) {
+      for (let k2 = 0; k2 <= k1; k2++) {
         let v = 0;
         for (let p = 0; p < dz; p++) v += ks[k1 * dz + p]! * phi[p * K + k2]!;
         psi[k1 * K + k2] = v;
+        psi[k2 * K + k1] = v;
       }
     }
     const Sinv = sys.sInv;
