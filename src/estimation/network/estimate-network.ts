@@ -10,11 +10,16 @@
  *   troposphere does not depend on it. Satellites seen by one station at an epoch carry no
  *   information and are dropped (counted); so is an epoch with one station.
  * - satelliteClocks "known" (precise point positioning): the network splits into independent
- *   single-station problems; each is solved on its own (own node layout, variance factor and
- *   screening), which equals the single-station estimator for that station's data.
+ *   single-station problems, and each is solved by the single-station estimator itself
+ *   (point-positioning.ts): the same defaults (states at every epoch, variance components,
+ *   correlated-noise inflation), the same numbers.
  *
  * A network of one station is solved as in the "known" case (satellite clocks cannot be estimated
  * from one station), with a warning when "estimated" was asked for.
+ *
+ * With satellite clocks estimated the network solution uses piecewise-linear nodes, white-noise
+ * formal errors and, with scale_sigmas, a scaling of the formal errors instead of re-weighted
+ * observations; each difference from the caller's options is a warning (estimatedClockModelNotes).
  *
  * Outlier screening across the network (estimated clocks): Pope's τ with the network's variance
  * factor; in "one-per-window" mode the candidates of one iteration are at least the window apart
@@ -30,6 +35,8 @@ import { MIN_TESTABLE_REDUNDANCY } from '../least-squares.js';
 import { nodeRejectionWindowMs } from '../outliers.js';
 import type { GradientNodeEstimate, RejectedObservation } from '../types.js';
 import { buildNetworkDesign, stationDesigns, type NetworkDesign, type StationSubset } from './network-design.js';
+import { median } from './median.js';
+import { pointPositioning, pooledStatistics } from './point-positioning.js';
 import { solveNetworkOnce, stationLayout, type NetworkSolution } from './network-solve.js';
 import type {
   NetworkCommonMode,
@@ -81,27 +88,13 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
   const ecef = stations.map((s) => geodeticToEcef(s.latitudeRad, s.longitudeRad, s.heightM));
   const reference = referenceStation(input, ecef);
   const warnings: string[] = [];
-  if ((options.parametrisation ?? 'every-epoch') !== 'nodes') {
-    warnings.push(
-      `the network estimator uses piecewise-linear nodes (parametrisation "nodes", ZWD every ${options.zwd.intervalS} s), not a state at every epoch`,
-    );
-  }
-  if (options.correlatedNoise ?? true) {
-    warnings.push(
-      'formal errors are not inflated for time-correlated residuals (not implemented for networks): they describe white noise only',
-    );
-  }
-  if (options.scaleSigmas) {
-    warnings.push(
-      'scale_sigmas: the formal errors are multiplied by √(variance factor); the observation weights are not re-estimated by variance components as in the single-station estimator',
-    );
-  }
   const estimated = options.satelliteClocks === 'estimated' && stations.length > 1;
   if (options.satelliteClocks === 'estimated' && stations.length === 1) {
     warnings.push(
       'a network of one station: satellite clocks cannot be estimated from one station, so they were taken as known (the single-station solution)',
     );
   }
+  if (estimated) warnings.push(...estimatedClockModelNotes(options));
 
   let results: NetworkStationResult[];
   let commonMode: NetworkCommonMode;
@@ -121,8 +114,13 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
     const singles = singleStationCounts(problem.net);
     const meanEstimated = median(problem.solution.epochs.map((e) => Math.sqrt(e.meanVariance) * problem.sigmaScale));
     const meanKnown = knownMeanSigma(
-      known,
-      known.map(() => problem.sigmaScale),
+      known.map(({ net, solution }) => {
+        const st = net.stations[0]!;
+        return Array.from(st.design.epochMs, (t, ks) => ({
+          epochMs: t,
+          sigmaM: Math.sqrt(solution.epochs[st.networkEpoch[ks]!]!.variance[0]!) * problem.sigmaScale,
+        }));
+      }),
     );
     commonMode = {
       meanZwdSigmaClocksEstimatedM: meanEstimated,
@@ -169,41 +167,19 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
       );
     }
   } else {
-    const problems = subsets.map((sub) =>
-      solveWithScreening(buildNetworkDesign(obs, [sub], options, false), { ...input, stations: [stations[sub.index]!] }, 0),
-    );
-    results = problems.map((p) => stationResults(p, 0)[0]!);
+    const known = subsets.map((sub) => pointPositioning(input, sub));
+    results = known.map((k) => k.result);
     addKnownRelative(results, reference);
-    problems.forEach((p) => warnings.push(...p.warnings.map((w) => `station ${p.net.stations[0]!.name}: ${w}`)));
-    const meanKnown = knownMeanSigma(
-      problems.map((p) => ({ net: p.net, solution: p.solution })),
-      problems.map((p) => p.sigmaScale),
-    );
+    known.forEach((k) => warnings.push(...k.output.warnings.map((w) => `station ${k.result.station}: ${w}`)));
+    const meanKnown = knownMeanSigma(results.map((r) => r.epochs));
     commonMode = { meanZwdSigmaClocksEstimatedM: null, meanZwdSigmaClocksKnownM: meanKnown, correlationWithClocks: null, ...geometry };
-    const sum = (f: (p: SubProblem) => number) => problems.reduce((n, p) => n + f(p), 0);
-    const dof = sum((p) => p.degreesOfFreedom);
-    const wss = sum((p) => p.solution.weightedSquareSum);
-    const epochsAll = new Set<number>();
-    for (const p of problems) for (const t of p.net.epochMs) epochsAll.add(t);
-    statistics = {
+    statistics = pooledStatistics(known.map((k) => k.output.statistics), {
       stations: stations.length,
-      epochs: epochsAll.size,
-      observationsTotal: obs.epochMs.length,
-      observationsUsed: sum((p) => p.solution.observationsUsed),
-      observationsRejected: sum((p) => p.rejected[0]!.length),
-      observationsSingleStationSatellite: 0,
-      singleStationSatellites: 0,
-      singleStationEpochs: 0,
-      unknowns: sum((p) => p.unknowns),
-      clockUnknowns: sum((p) => p.solution.clockUnknowns),
-      constraints: sum((p) => p.solution.constraints),
-      degreesOfFreedom: dof,
-      rmsM: Math.sqrt(sum((p) => p.solution.residualSquareSumM2) / sum((p) => p.solution.observationsUsed)),
-      varianceFactor: dof > 0 ? wss / dof : null,
-      sigmaScale: problems.length === 1 ? problems[0]!.sigmaScale : Number.NaN,
-      solutions: sum((p) => p.solutions),
-      screeningComplete: problems.every((p) => p.screeningComplete),
-    };
+      epochs: new Set(results.flatMap((r) => r.epochs.map((e) => e.epochMs))).size,
+      clockUnknowns: options.epochBias
+        ? results.reduce((n, r) => n + r.epochs.filter((e) => e.observationsUsed > 0).length, 0)
+        : 0,
+    });
   }
   return {
     referenceStation: stations[reference]!.name,
@@ -313,6 +289,31 @@ function checkDuplicates(o: NetworkEstimationInput['observations'], stationOf: I
       400,
     );
   }
+}
+
+/**
+ * What the network solution with satellite clocks estimated does differently from the
+ * single-station estimator's options (the point-positioning case has none of these: it is the
+ * single-station estimator).
+ */
+function estimatedClockModelNotes(options: NetworkEstimationInput['options']): string[] {
+  const notes: string[] = [];
+  if ((options.parametrisation ?? 'every-epoch') !== 'nodes') {
+    notes.push(
+      `with satellite clocks estimated the network estimator uses piecewise-linear nodes (parametrisation "nodes", ZWD every ${options.zwd.intervalS} s), not a state at every epoch`,
+    );
+  }
+  if (options.correlatedNoise ?? true) {
+    notes.push(
+      'with satellite clocks estimated, formal errors are not inflated for time-correlated residuals (not implemented for the network solution): they describe white noise only',
+    );
+  }
+  if (options.scaleSigmas) {
+    notes.push(
+      'scale_sigmas with satellite clocks estimated: the formal errors are multiplied by √(variance factor); the observation weights are not re-estimated by variance components as in the single-station estimator',
+    );
+  }
+  return notes;
 }
 
 /** The caller's reference station, or the one closest to the centroid of all stations. */
@@ -650,20 +651,17 @@ function singleStationCounts(net: NetworkDesign): { observations: number; pairs:
  * σ of the network-mean ZWD with the satellite clocks known (independent stations): median over
  * the epochs at which every station has an epoch of √(Σ σ_s²)/S.
  */
-function knownMeanSigma(known: { net: NetworkDesign; solution: NetworkSolution }[], scales: number[]): number {
+function knownMeanSigma(perStation: readonly (readonly { epochMs: number; sigmaM: number }[])[]): number {
   const byEpoch = new Map<number, { sum: number; count: number }>();
-  known.forEach(({ net, solution }, i) => {
-    const f = scales[i]! ** 2;
-    const st = net.stations[0]!;
-    st.design.epochMs.forEach((t, ks) => {
-      const v = solution.epochs[st.networkEpoch[ks]!]!.variance[0]! * f;
-      const e = byEpoch.get(t) ?? { sum: 0, count: 0 };
-      e.sum += v;
+  for (const epochs of perStation) {
+    for (const { epochMs, sigmaM } of epochs) {
+      const e = byEpoch.get(epochMs) ?? { sum: 0, count: 0 };
+      e.sum += sigmaM * sigmaM;
       e.count++;
-      byEpoch.set(t, e);
-    });
-  });
-  const S = known.length;
+      byEpoch.set(epochMs, e);
+    }
+  }
+  const S = perStation.length;
   const values = [...byEpoch.values()].filter((e) => e.count === S).map((e) => Math.sqrt(e.sum) / S);
   return median(values) ?? Number.NaN;
 }
@@ -684,11 +682,4 @@ function addKnownRelative(results: NetworkStationResult[], reference: number): v
     }
     r.medianRelativeSigmaM = median(r.epochs.map((e) => e.relativeSigmaM)) ?? Number.NaN;
   });
-}
-
-function median(values: number[]): number | null {
-  const v = values.filter((x) => Number.isFinite(x)).sort((a, b) => a - b);
-  if (v.length === 0) return null;
-  const h = Math.floor(v.length / 2);
-  return v.length % 2 ? v[h]! : (v[h - 1]! + v[h]!) / 2;
 }
