@@ -307,7 +307,7 @@ export class EpochClockSystem {
     }
     if (!reduce) return true;
     // R −= N_zσ K_σ, r_z −= N_zσ t; R is symmetric and only its lower triangle (q ≤ p) is reduced
-    // and read (network-frontal.ts addProjected).
+    // and read (../frontal-ldl.ts addProjected).
     for (let p = 0; p < dz; p++) {
       const rowR = p * dz;
       let v = rz[p]!;

@@ -16,7 +16,7 @@ import { constraintCount, randomWalkStepWeight, type ParameterLayout } from '../
 import type { PiecewiseLinearSettings, ZwdEstimationOptions } from '../types.js';
 import { EpochClockSystem } from './epoch-clocks.js';
 import type { NetworkDesign } from './network-design.js';
-import { NetworkFrontal, type ReverseFrontView } from './network-frontal.js';
+import { FrontalLdl, type ReverseFrontView } from '../frontal-ldl.js';
 
 export interface EpochCovariances {
   /** Per station (NaN when the station has no epoch here): σ² of δw(t) and of δw − δw_ref [m²]. */
@@ -89,7 +89,7 @@ export function solveNetworkOnce(
   const P = layout.parameters;
   const d = net.gradients ? 3 : 1;
   const local = net.gradients ? 6 : 2;
-  const frontal = new NetworkFrontal(S * P, S * local);
+  const frontal = new FrontalLdl(S * P, S * local);
   const families: Family[] = [];
   for (let s = 0; s < S; s++) {
     const o = s * P;
