@@ -35,6 +35,7 @@ import { MIN_TESTABLE_REDUNDANCY } from '../least-squares.js';
 import { nodeRejectionWindowMs } from '../outliers.js';
 import type { GradientNodeEstimate, RejectedObservation } from '../types.js';
 import { buildNetworkDesign, stationDesigns, type NetworkDesign, type StationSubset } from './network-design.js';
+import { screenedSolution } from '../screening.js';
 import { median } from './median.js';
 import { pointPositioning, pooledStatistics } from './point-positioning.js';
 import { solveNetworkOnce, stationLayout, type NetworkSolution } from './network-solve.js';
@@ -173,13 +174,14 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
     known.forEach((k) => warnings.push(...k.output.warnings.map((w) => `station ${k.result.station}: ${w}`)));
     const meanKnown = knownMeanSigma(results.map((r) => r.epochs));
     commonMode = { meanZwdSigmaClocksEstimatedM: null, meanZwdSigmaClocksKnownM: meanKnown, correlationWithClocks: null, ...geometry };
-    statistics = pooledStatistics(known.map((k) => k.output.statistics), {
-      stations: stations.length,
-      epochs: new Set(results.flatMap((r) => r.epochs.map((e) => e.epochMs))).size,
-      clockUnknowns: options.epochBias
-        ? results.reduce((n, r) => n + r.epochs.filter((e) => e.observationsUsed > 0).length, 0)
-        : 0,
-    });
+    statistics = pooledStatistics(
+      known.map((k) => k.output.statistics),
+      {
+        stations: stations.length,
+        epochs: new Set(results.flatMap((r) => r.epochs.map((e) => e.epochMs))).size,
+        clockUnknowns: options.epochBias ? results.reduce((n, r) => n + r.epochs.filter((e) => e.observationsUsed > 0).length, 0) : 0,
+      },
+    );
   }
   return {
     referenceStation: stations[reference]!.name,
@@ -400,53 +402,38 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
   const S = net.stations.length;
   const used = net.stations.map((st) => new Uint8Array(st.design.residualM.length).fill(1));
   const rejected: RejectedObservation[][] = net.stations.map(() => []);
-  const warnings: string[] = [];
   const layout = stationLayout(net);
-  let solutions = 0;
-  let screeningComplete = true;
-  let solution: NetworkSolution;
-  let varianceFactor: number | null;
-  let degreesOfFreedom: number;
-  let unknowns: number;
-  let total = 0;
-  for (;;) {
-    solution = solveNamed(net, options, used, reference);
-    solutions++;
-    unknowns = S * layout.parameters + solution.clockUnknowns;
-    degreesOfFreedom = solution.observationsUsed + solution.constraints - unknowns;
-    varianceFactor = degreesOfFreedom > 0 ? solution.weightedSquareSum / degreesOfFreedom : null;
-    if (options.outlierThreshold === null) break;
-    const candidates = networkCandidates(
-      net,
-      solution,
-      varianceFactor === null ? 1 : Math.sqrt(varianceFactor),
-      options.outlierThreshold,
-      options.outlierRejection,
-      options.zwd.intervalS,
-    );
-    if (candidates.length === 0) break;
-    if (total >= options.maxRejections) {
-      screeningComplete = false;
-      warnings.push(
-        `outlier screening stopped after ${total} rejections (options.max_rejections); ${candidates.length > 1 ? 'normalised residuals' : 'a normalised residual'} up to ${Math.abs(candidates[0]!.tau).toFixed(1)} remain above ${options.outlierThreshold}: check sigma0_m and the residuals`,
-      );
-      break;
-    }
-    for (const c of candidates.slice(0, options.maxRejections - total)) {
-      const st = net.stations[c.station]!;
-      const i = st.networkIndex[c.index]!;
-      rejected[c.station]!.push({
-        index: i,
-        epochMs: obs.epochMs[i]!,
-        satellite: obs.satellite[i]!,
-        residualM: obs.residualM[i]!,
-        fittedResidualM: solution.fittedResidualM[c.station]![c.index]!,
-        normalizedResidual: c.tau,
-      });
-      used[c.station]![c.index] = 0;
-      total++;
-    }
-  }
+  const unknownsOf = (s: NetworkSolution) => S * layout.parameters + s.clockUnknowns;
+  const screened = screenedSolution(
+    {
+      solve: () => solveNamed(net, options, used, reference),
+      varianceFactor: (s) => {
+        const dof = s.observationsUsed + s.constraints - unknownsOf(s);
+        return dof > 0 ? s.weightedSquareSum / dof : null;
+      },
+      candidates: (s, sigmaZero) =>
+        networkCandidates(net, s, sigmaZero, options.outlierThreshold!, options.outlierRejection, options.zwd.intervalS),
+      normalizedResidual: (c) => c.tau,
+      reject: (c, s) => {
+        const i = net.stations[c.station]!.networkIndex[c.index]!;
+        rejected[c.station]!.push({
+          index: i,
+          epochMs: obs.epochMs[i]!,
+          satellite: obs.satellite[i]!,
+          residualM: obs.residualM[i]!,
+          fittedResidualM: s.fittedResidualM[c.station]![c.index]!,
+          normalizedResidual: c.tau,
+        });
+        used[c.station]![c.index] = 0;
+      },
+    },
+    options.outlierThreshold,
+    options.maxRejections,
+  );
+  const { solution, varianceFactor, solutions, screeningComplete } = screened;
+  const warnings = [...screened.warnings];
+  const unknowns = unknownsOf(solution);
+  const degreesOfFreedom = solution.observationsUsed + solution.constraints - unknowns;
   const sigmaScale = options.scaleSigmas && varianceFactor !== null ? Math.sqrt(varianceFactor) : 1;
   if (varianceFactor === null) {
     warnings.push(

@@ -216,7 +216,8 @@ export function buildNetworkDesign(
  */
 export function stationDesigns(columns: NetworkColumns, subsets: StationSubset[], options: ZwdEstimationOptions): Design[] {
   const stationOptions: ZwdEstimationOptions = { ...options, parametrisation: 'nodes' };
-  return subsets.map((st) => {    const pick = <T>(c: readonly T[]) => st.observations.map((i) => c[i]!);
+  return subsets.map((st) => {
+    const pick = <T>(c: readonly T[]) => st.observations.map((i) => c[i]!);
     try {
       return buildDesign({
         latitudeRad: st.latitudeRad,
