@@ -151,15 +151,16 @@ export class FrontalLdl {
 
   /**
    * Adds B R Bᵀ for `count` local parameters: N[slot_i, slot_j] += c_i c_j R[row_i, row_j] and
-   * g[slot_i] += c_i r[row_i] (R symmetric, leading dimension ld; slots distinct).
+   * g[slot_i] += c_i r[row_i] (R symmetric as its packed lower triangle, R_pq at p(p+1)/2 + q for
+   * q ≤ p; rows non-decreasing in i; slots distinct).
    */
-  addProjected(count: number, slots: Int32Array, c: Float64Array, rows: Int32Array, R: Float64Array, ld: number, r: Float64Array): void {
+  addProjected(count: number, slots: Int32Array, c: Float64Array, rows: Int32Array, R: Float64Array, r: Float64Array): void {
     const mf = this.maxFront;
     const front = this.front;
     for (let i = 0; i < count; i++) {
       const si = slots[i]!;
       const ci = c[i]!;
-      const rowR = rows[i]! * ld;
+      const rowR = (rows[i]! * (rows[i]! + 1)) / 2;
       this.rhsFront[si]! += ci * r[rows[i]!]!;
       const rowF = si * mf;
       for (let j = 0; j < i; j++) {

@@ -78,7 +78,7 @@ export class EpochClockSystem {
   readonly sInv: Float64Array;
   readonly ks: Float64Array;
   readonly t: Float64Array;
-  /** Reduced normal matrix R (dS'×dS', lower triangle valid) and right-hand side. */
+  /** Reduced normal matrix R (dS'×dS', packed lower triangle: R_pq at p(p+1)/2 + q, q ≤ p) and right-hand side. */
   readonly r: Float64Array;
   readonly rz: Float64Array;
   /** Own-diagonal contribution Σ w m_f² per local station and family (singularity test, before any elimination). */
@@ -120,7 +120,7 @@ export class EpochClockSystem {
     this.sInv = new Float64Array(K * K);
     this.ks = new Float64Array(K * dz);
     this.t = new Float64Array(K);
-    this.r = new Float64Array(dz * dz);
+    this.r = new Float64Array((dz * (dz + 1)) / 2);
     this.rz = new Float64Array(dz);
     this.direct = new Float64Array(dz);
     this.sss = new Float64Array(K * K);
@@ -233,7 +233,7 @@ export class EpochClockSystem {
     // Stage 1: receiver clocks eliminated (centred sums).
     const R = this.r;
     const rz = this.rz;
-    R.fill(0, 0, dz * dz);
+    R.fill(0, 0, (dz * (dz + 1)) / 2);
     rz.fill(0, 0, dz);
     this.direct.fill(0, 0, dz);
     const nzs = this.nzs;
@@ -254,8 +254,8 @@ export class EpochClockSystem {
       const za = d * a;
       for (let p = 0; p < d; p++) {
         const cp = eC[3 * x + p]!;
-        const row = (za + p) * dz + za;
-        for (let q = 0; q < d; q++) R[row + q]! += w * cp * eC[3 * x + q]!;
+        const row = ((za + p) * (za + p + 1)) / 2 + za;
+        for (let q = 0; q <= p; q++) R[row + q]! += w * cp * eC[3 * x + q]!;
         rz[za + p]! += w * cp * dr;
         this.direct[za + p]! += w * eM[3 * x + p]! * eM[3 * x + p]!;
       }
@@ -306,10 +306,9 @@ export class EpochClockSystem {
       t[k] = tv;
     }
     if (!reduce) return true;
-    // R −= N_zσ K_σ, r_z −= N_zσ t; R is symmetric and only its lower triangle (q ≤ p) is reduced
-    // and read (../frontal-ldl.ts addProjected).
+    // R −= N_zσ K_σ, r_z −= N_zσ t; R is symmetric and kept as its packed lower triangle.
     for (let p = 0; p < dz; p++) {
-      const rowR = p * dz;
+      const rowR = (p * (p + 1)) / 2;
       let v = rz[p]!;
       for (let k = 0; k < K; k++) {
         const c = nzs[p * K + k]!;

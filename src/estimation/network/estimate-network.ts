@@ -38,6 +38,7 @@ import { buildNetworkDesign, stationDesigns, type NetworkDesign, type StationSub
 import { screenedSolution } from '../screening.js';
 import { median } from './median.js';
 import { pointPositioning, pooledStatistics } from './point-positioning.js';
+import { ReducedEpochCache } from './reduced-epochs.js';
 import { solveNetworkOnce, stationLayout, type NetworkSolution } from './network-solve.js';
 import type {
   NetworkCommonMode,
@@ -373,9 +374,10 @@ function solveNamed(
   options: NetworkEstimationInput['options'],
   used: Uint8Array[],
   reference: number,
+  cache?: ReducedEpochCache,
 ): NetworkSolution {
   try {
-    return solveNetworkOnce(net, options, used, reference);
+    return solveNetworkOnce(net, options, used, reference, cache);
   } catch (err) {
     if (!(err instanceof SingularParameterError)) throw err;
     const P = net.stationParameters;
@@ -404,9 +406,11 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
   const rejected: RejectedObservation[][] = net.stations.map(() => []);
   const layout = stationLayout(net);
   const unknownsOf = (s: NetworkSolution) => S * layout.parameters + s.clockUnknowns;
+  // Several solutions only when screening: then keep the reduced epochs between them.
+  const cache = options.outlierThreshold === null ? undefined : new ReducedEpochCache(net.epochMs.length);
   const screened = screenedSolution(
     {
-      solve: () => solveNamed(net, options, used, reference),
+      solve: () => solveNamed(net, options, used, reference, cache),
       varianceFactor: (s) => {
         const dof = s.observationsUsed + s.constraints - unknownsOf(s);
         return dof > 0 ? s.weightedSquareSum / dof : null;
@@ -425,6 +429,7 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
           normalizedResidual: c.tau,
         });
         used[c.station]![c.index] = 0;
+        cache?.invalidate(networkEpochOf(net, c.station, c.index));
       },
     },
     options.outlierThreshold,
@@ -448,6 +453,20 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
   if (low > 0)
     warnings.push(`${low} observations below 3° were used: the Niell mapping functions are fitted from 3° up and are extrapolated there`);
   return { net, used, solution, rejected, varianceFactor, degreesOfFreedom, unknowns, sigmaScale, solutions, screeningComplete, warnings };
+}
+
+/** Network epoch of design observation i of station s (binary search in the station's epoch starts). */
+function networkEpochOf(net: NetworkDesign, s: number, i: number): number {
+  const st = net.stations[s]!;
+  const start = st.design.epochStart;
+  let lo = 0;
+  let hi = st.design.epochMs.length - 1;
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1;
+    if (start[mid]! <= i) lo = mid;
+    else hi = mid - 1;
+  }
+  return st.networkEpoch[lo]!;
 }
 
 interface Candidate {

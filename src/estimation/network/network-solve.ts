@@ -15,6 +15,7 @@
 import { constraintCount, randomWalkStepWeight, type ParameterLayout } from '../least-squares.js';
 import type { PiecewiseLinearSettings, ZwdEstimationOptions } from '../types.js';
 import { EpochClockSystem } from './epoch-clocks.js';
+import { reducedEpoch, type ReducedEpoch, type ReducedEpochCache } from './reduced-epochs.js';
 import type { NetworkDesign } from './network-design.js';
 import { FrontalLdl, type ReverseFrontView } from '../frontal-ldl.js';
 
@@ -76,6 +77,8 @@ const stepWeight = (f: Family, j: number) => randomWalkStepWeight(f.settings, f.
 /**
  * @param used per station, 1 for each design observation that takes part
  * @param reference station index the relative variances refer to
+ * @param cache reduced epochs of an earlier solution (the caller invalidates the epochs whose
+ *        observations changed); filled with the epochs reduced now
  * @throws SingularParameterError (from the frontal solver) naming an undetermined parameter
  */
 export function solveNetworkOnce(
@@ -83,6 +86,7 @@ export function solveNetworkOnce(
   options: ZwdEstimationOptions,
   used: readonly Uint8Array[],
   reference: number,
+  cache?: ReducedEpochCache,
 ): NetworkSolution {
   const S = net.stations.length;
   const layout = stationLayout(net);
@@ -175,23 +179,27 @@ export function solveNetworkOnce(
       for (let f = 1; f < perStation; f++) advance(families[s * perStation + f]!, net.gradientInterval[k]!);
     }
     stamp[k] = frontal.eliminatedCount;
-    if (!sys.build(k, used)) continue;
-    const Sp = sys.presentCount;
-    clockUnknowns += (net.receiverClocks ? Sp : 0) + sys.satelliteClockCount - sys.datums;
-    const dz = d * Sp;
+    let epoch: ReducedEpoch | null | undefined = cache?.get(k);
+    if (epoch === undefined) {
+      const built = sys.build(k, used);
+      epoch = cache ? cache.store(k, built ? sys : null, net.receiverClocks) : built ? reducedEpoch(sys, net.receiverClocks) : null;
+    }
+    if (epoch === null || epoch === undefined || epoch.present.length === 0) continue;
+    const Sp = epoch.present.length;
+    clockUnknowns += epoch.clockUnknowns;
     for (let a = 0; a < Sp; a++) {
-      const s = sys.present[a]!;
+      const s = epoch.present[a]!;
       fillLocal(k, s);
       for (let p = 0; p < local; p++) {
         const id = ids[s * local + p]!;
         slots[a * local + p] = id >= 0 ? frontal.slot(id) : -1;
-        if (id >= 0) frontal.addDirectDiagonal(id, interp[s * local + p]! ** 2 * sys.direct[d * a + fam[p]!]!);
+        if (id >= 0) frontal.addDirectDiagonal(id, interp[s * local + p]! ** 2 * epoch.direct[d * a + fam[p]!]!);
       }
     }
     // N += B R Bᵀ, g += B r_z.
     let count = 0;
     for (let a = 0; a < Sp; a++) {
-      const sa = sys.present[a]!;
+      const sa = epoch.present[a]!;
       for (let p = 0; p < local; p++) {
         const sp = slots[a * local + p]!;
         if (sp < 0) continue;
@@ -201,7 +209,7 @@ export function solveNetworkOnce(
         count++;
       }
     }
-    frontal.addProjected(count, projSlots, projCoeff, projRows, sys.r, dz, sys.rz);
+    frontal.addProjected(count, projSlots, projCoeff, projRows, epoch.r, epoch.rz);
   }
   frontal.eliminateAll();
   const x = frontal.solve();
