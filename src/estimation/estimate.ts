@@ -19,6 +19,7 @@ import { buildDesign, initialWeighting, locate, nodeEpochMs, setWeights, type De
 import { SingularParameterError } from './frontal-ldl.js';
 import { epochStateRejectionWindowMs, nodeRejectionWindowMs, rejectionCandidates } from './outliers.js';
 import { MIN_TESTABLE_REDUNDANCY, parameterLayout, solveOnce, type ParameterLayout, type Solution } from './least-squares.js';
+import { screenedSolution } from './screening.js';
 import type {
   ElevationBandStatistics,
   EpochEstimate,
@@ -60,77 +61,68 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
   let weighting = initialWeighting(options);
   let givenScale = 1;
   let reweightings = 0;
-  let screeningComplete = true;
-  let solutions = 0;
-  let solution: Solution;
-  let varianceFactor: number | null;
-  let degreesOfFreedom: number;
-  let unknowns: number;
+  const unknownsOf = (s: Solution) => layout.parameters + (options.epochBias ? s.epochsUsed : 0);
 
-  // Each pass: solve; re-estimate the observation weights (variance components, from the
-  // observations that are not rejection candidates) and reject this pass's candidates; re-solve
+  // Each pass (screening.ts): solve; re-estimate the observation weights (variance components, from
+  // the observations that are not rejection candidates) and reject this pass's candidates; re-solve
   // while either changed anything.
-  let screening = options.outlierThreshold !== null;
-  for (;;) {
-    solution = solveNamed(design, layout, input, used);
-    solutions++;
-    unknowns = layout.parameters + (options.epochBias ? solution.epochsUsed : 0);
-    degreesOfFreedom = solution.observationsUsed + solution.constraints - unknowns;
-    varianceFactor = degreesOfFreedom > 0 ? solution.weightedSquareSum / degreesOfFreedom : null;
-    let changed = false;
-    const candidates = screening
-      ? rejectionCandidates(
+  const screened = screenedSolution(
+    {
+      solve: () => solveNamed(design, layout, input, used),
+      varianceFactor: (s) => {
+        const dof = s.observationsUsed + s.constraints - unknownsOf(s);
+        return dof > 0 ? s.weightedSquareSum / dof : null;
+      },
+      candidates: (s, sigmaZero) =>
+        rejectionCandidates(
           design,
-          solution,
+          s,
           used,
-          varianceFactor === null ? 1 : Math.sqrt(varianceFactor),
+          sigmaZero,
           options.outlierThreshold!,
           options.outlierRejection,
-          rejectionWindowMs(input, design, layout, solution),
-        )
-      : [];
-    if (options.scaleSigmas && reweightings < MAX_REWEIGHTINGS && varianceFactor !== null) {
-      const next = varianceComponents(
-        design,
-        solution,
-        used,
-        options.weighting,
-        weighting,
-        givenScale,
-        screeningBound(options.outlierThreshold, varianceFactor),
-      );
-      if (next.changed) {
-        weighting = next.weighting;
-        givenScale = next.givenScale;
-        setWeights(design, weighting.a, weighting.b, givenScale);
-        reweightings++;
-        changed = true;
-      }
-    }
-    if (candidates.length > 0 && rejected.length >= options.maxRejections) {
-      screeningComplete = false;
-      screening = false;
-      warnings.push(
-        `outlier screening stopped after ${rejected.length} rejections (options.max_rejections); ${candidates.length > 1 ? 'normalised residuals' : 'a normalised residual'} up to ${Math.abs(candidates[0]!.normalizedResidual).toFixed(1)} remain above ${options.outlierThreshold}: check sigma0_m and the residuals`,
-      );
-    } else {
-      for (const c of candidates.slice(0, options.maxRejections - rejected.length)) {
+          rejectionWindowMs(input, design, layout, s),
+        ),
+      normalizedResidual: (c) => c.normalizedResidual,
+      reject: (c, s) => {
         const i = design.inputIndex[c.index]!;
         rejected.push({
           index: i,
           epochMs: input.observations.epochMs[i]!,
           satellite: input.observations.satellite[i]!,
           residualM: input.observations.residualM[i]!,
-          fittedResidualM: solution.fittedResidualM[c.index]!,
+          fittedResidualM: s.fittedResidualM[c.index]!,
           normalizedResidual: c.normalizedResidual,
         });
         rejectedDesign.push(c.index);
         used[c.index] = 0;
-        changed = true;
-      }
-    }
-    if (!changed) break;
-  }
+      },
+      reweight: (s, varianceFactor) => {
+        if (!options.scaleSigmas || reweightings >= MAX_REWEIGHTINGS || varianceFactor === null) return false;
+        const next = varianceComponents(
+          design,
+          s,
+          used,
+          options.weighting,
+          weighting,
+          givenScale,
+          screeningBound(options.outlierThreshold, varianceFactor),
+        );
+        if (!next.changed) return false;
+        weighting = next.weighting;
+        givenScale = next.givenScale;
+        setWeights(design, weighting.a, weighting.b, givenScale);
+        reweightings++;
+        return true;
+      },
+    },
+    options.outlierThreshold,
+    options.maxRejections,
+  );
+  warnings.push(...screened.warnings);
+  const { solution, varianceFactor, solutions, screeningComplete } = screened;
+  const unknowns = unknownsOf(solution);
+  const degreesOfFreedom = solution.observationsUsed + solution.constraints - unknowns;
   if (options.scaleSigmas && reweightings >= MAX_REWEIGHTINGS) {
     warnings.push(
       `the observation variance components did not settle within ${MAX_REWEIGHTINGS} re-weightings: formal errors may be off by a few per cent`,

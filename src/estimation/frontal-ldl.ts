@@ -19,6 +19,17 @@
  *   S_p the parameters still in the front when p was eliminated. Because S_p was a clique of the
  *   front, every Z_rq needed is itself on the pattern: linear time as well.
  *
+ * For a wide front (the network: every epoch couples the nodes of all stations through the
+ * eliminated clocks, so the front holds 6 S parameters and is dense), reverseSweep() evaluates the
+ * same recursion in reverse elimination order while a dense "reverse front" holds Z for exactly the
+ * parameters that were in the forward front at that moment: every Z_rq the recursion needs is a
+ * lookup in a dense array (O(F²) per parameter, F the front size instead of O(F³) by searching the
+ * pattern), and at each point of the forward assembly (a stamp = number of parameters eliminated
+ * then) the caller can read the full covariance block of the parameters that were in the front
+ * (`onStamp`): that is where the network code reads the covariance of every station's nodes at an
+ * epoch. One solver serves the single-station estimator (front ≤ 6) and the network (front 6 S):
+ * neighbour lists of any length are stored one after the other (compressed columns).
+ *
  * A pivot that is not positive or below PIVOT_TOLERANCE times the parameter's own accumulated
  * diagonal (before any elimination) means the parameter is not determined by the data and
  * constraints: SingularParameterError names it.
@@ -34,21 +45,46 @@ export class SingularParameterError extends Error {
   }
 }
 
+export interface ReverseSweepVisitor {
+  /** Called once for every pair (p, q) on the factor's pattern, p ≠ q, with Z_pq = (N⁻¹)_pq. */
+  onPair?(p: number, q: number, zpq: number): void;
+  /**
+   * Called for every stamp c = P..0 after the reverse front holds the parameters that were in the
+   * forward front when `eliminatedCount` was c; `get(p, q)` reads (N⁻¹)_pq for two of them.
+   */
+  onStamp?(stamp: number, get: (p: number, q: number) => number, view: ReverseFrontView): void;
+}
+
+/**
+ * Direct access to the reverse front for bulk reads in `onStamp`: (N⁻¹)_pq = z[slot[p]·ld + slot[q]]
+ * for two parameters in the front (slot ≥ 0); the same numbers as `get`, without a call per element.
+ */
+export interface ReverseFrontView {
+  readonly z: Float64Array;
+  readonly ld: number;
+  readonly slot: Int32Array;
+}
+
 export class FrontalLdl {
   private readonly slotOf: Int32Array;
   private readonly paramAt: Int32Array;
   private readonly front: Float64Array;
   private readonly rhsFront: Float64Array;
+  /** Scratch: the occupied front slots during one elimination. */
+  private readonly activeSlots: Int32Array;
   private readonly directDiagonal: Float64Array;
-  private readonly width: number;
+  private readonly activation: Int32Array;
   private readonly position: Int32Array;
   private readonly order: Int32Array;
-  private eliminated = 0;
   private readonly pivot: Float64Array;
   private readonly forward: Float64Array;
-  private readonly neighbourCount: Uint8Array;
-  private readonly neighbour: Int32Array;
-  private readonly factor: Float64Array;
+  private readonly neighbourStart: Int32Array;
+  private neighbour: Int32Array;
+  private factor: Float64Array;
+  private stored = 0;
+  private eliminated = 0;
+  /** Diagonal of N⁻¹ after reverseSweep(). */
+  readonly inverseDiagonal: Float64Array;
 
   /**
    * @param parameters number of unknowns
@@ -58,19 +94,27 @@ export class FrontalLdl {
     readonly parameters: number,
     readonly maxFront: number,
   ) {
-    this.width = maxFront - 1;
     this.slotOf = new Int32Array(parameters).fill(-1);
     this.paramAt = new Int32Array(maxFront).fill(-1);
     this.front = new Float64Array(maxFront * maxFront);
     this.rhsFront = new Float64Array(maxFront);
+    this.activeSlots = new Int32Array(maxFront);
     this.directDiagonal = new Float64Array(parameters);
+    this.activation = new Int32Array(parameters).fill(-1);
     this.position = new Int32Array(parameters).fill(-1);
     this.order = new Int32Array(parameters);
     this.pivot = new Float64Array(parameters);
     this.forward = new Float64Array(parameters);
-    this.neighbourCount = new Uint8Array(parameters);
-    this.neighbour = new Int32Array(parameters * this.width);
-    this.factor = new Float64Array(parameters * this.width);
+    this.neighbourStart = new Int32Array(parameters + 1);
+    const initial = Math.max(16, Math.min(parameters * (maxFront - 1), 1 << 20));
+    this.neighbour = new Int32Array(initial);
+    this.factor = new Float64Array(initial);
+    this.inverseDiagonal = new Float64Array(parameters);
+  }
+
+  /** Number of parameters eliminated so far (the stamp of the current assembly point). */
+  get eliminatedCount(): number {
+    return this.eliminated;
   }
 
   isActive(p: number): boolean {
@@ -84,16 +128,17 @@ export class FrontalLdl {
   }
 
   activate(p: number): void {
-    if (this.slotOf[p]! >= 0 || this.position[p]! >= 0) throw new Error(`parameter ${p} was activated before`);
+    if (this.activation[p]! >= 0) throw new Error(`parameter ${p} was activated before`);
     let s = 0;
     while (s < this.maxFront && this.paramAt[s]! >= 0) s++;
     if (s === this.maxFront) throw new Error('front is full');
     this.paramAt[s] = p;
     this.slotOf[p] = s;
-    const row = s * this.maxFront;
-    for (let t = 0; t < this.maxFront; t++) {
-      this.front[row + t] = 0;
-      this.front[t * this.maxFront + s] = 0;
+    this.activation[p] = this.eliminated;
+    const mf = this.maxFront;
+    for (let t = 0; t < mf; t++) {
+      this.front[s * mf + t] = 0;
+      this.front[t * mf + s] = 0;
     }
     this.rhsFront[s] = 0;
   }
@@ -104,67 +149,115 @@ export class FrontalLdl {
     if (sp !== sq) this.front[sq * this.maxFront + sp]! += v;
   }
 
+  /**
+   * Adds B R Bᵀ for `count` local parameters: N[slot_i, slot_j] += c_i c_j R[row_i, row_j] and
+   * g[slot_i] += c_i r[row_i] (R symmetric as its packed lower triangle, R_pq at p(p+1)/2 + q for
+   * q ≤ p; rows non-decreasing in i; slots distinct).
+   */
+  addProjected(count: number, slots: Int32Array, c: Float64Array, rows: Int32Array, R: Float64Array, r: Float64Array): void {
+    const mf = this.maxFront;
+    const front = this.front;
+    for (let i = 0; i < count; i++) {
+      const si = slots[i]!;
+      const ci = c[i]!;
+      const rowR = (rows[i]! * (rows[i]! + 1)) / 2;
+      this.rhsFront[si]! += ci * r[rows[i]!]!;
+      const rowF = si * mf;
+      for (let j = 0; j < i; j++) {
+        const v = ci * c[j]! * R[rowR + rows[j]!]!;
+        front[rowF + slots[j]!]! += v;
+        front[slots[j]! * mf + si]! += v;
+      }
+      front[rowF + si]! += ci * ci * R[rowR + rows[i]!]!;
+    }
+  }
+
   addRhsAtSlot(sp: number, v: number): void {
     this.rhsFront[sp]! += v;
   }
 
-  /** Records the parameter's own diagonal contribution (for the singularity test). */
+  /** The parameter's own diagonal contribution before any elimination (for the singularity test). */
   addDirectDiagonal(p: number, v: number): void {
     this.directDiagonal[p]! += v;
   }
 
-  /** Adds a pseudo-observation x_p − x_q = 0 ± σ (weight w = 1/σ²): N += w [1 −1; −1 1]. */
+  /** Pseudo-observation x_p − x_q = 0 ± σ with weight w = 1/σ². */
   addDifferenceConstraint(p: number, q: number, weight: number): void {
     const sp = this.slot(p);
     const sq = this.slot(q);
-    this.front[sp * this.maxFront + sp]! += weight;
-    this.front[sq * this.maxFront + sq]! += weight;
-    this.front[sp * this.maxFront + sq]! -= weight;
-    this.front[sq * this.maxFront + sp]! -= weight;
+    const mf = this.maxFront;
+    this.front[sp * mf + sp]! += weight;
+    this.front[sq * mf + sq]! += weight;
+    this.front[sp * mf + sq]! -= weight;
+    this.front[sq * mf + sp]! -= weight;
     this.directDiagonal[p]! += weight;
     this.directDiagonal[q]! += weight;
   }
 
-  /** Adds a pseudo-observation x_p = 0 ± σ (weight w = 1/σ²). */
+  /** Pseudo-observation x_p = 0 ± σ with weight w = 1/σ². */
   addValueConstraint(p: number, weight: number): void {
     const sp = this.slot(p);
     this.front[sp * this.maxFront + sp]! += weight;
     this.directDiagonal[p]! += weight;
   }
 
-  /** Eliminates p from the front: one pivot and one column of L. */
+  private reserve(extra: number): void {
+    if (this.stored + extra <= this.neighbour.length) return;
+    const size = Math.max(this.stored + extra, Math.ceil(this.neighbour.length * 1.5));
+    const n = new Int32Array(size);
+    n.set(this.neighbour.subarray(0, this.stored));
+    const f = new Float64Array(size);
+    f.set(this.factor.subarray(0, this.stored));
+    this.neighbour = n;
+    this.factor = f;
+  }
+
+  /** Eliminates p: one pivot, one column of L, Schur complement into the rest of the front. */
   eliminate(p: number): void {
     const s = this.slot(p);
     const mf = this.maxFront;
-    const d = this.front[s * mf + s]!;
+    const front = this.front;
+    const paramAt = this.paramAt;
+    const rhs = this.rhsFront;
+    const d = front[s * mf + s]!;
     if (!(d > PIVOT_TOLERANCE * this.directDiagonal[p]!) || !(d > 0)) throw new SingularParameterError(p);
-    const base = p * this.width;
+    this.reserve(mf);
+    const neighbour = this.neighbour;
+    const factor = this.factor;
+    const base = this.stored;
     let count = 0;
-    const gs = this.rhsFront[s]!;
-    for (let t = 0; t < mf; t++) {
-      const q = this.paramAt[t]!;
-      if (t === s || q < 0) continue;
-      const l = this.front[t * mf + s]! / d;
-      this.neighbour[base + count] = q;
-      this.factor[base + count] = l;
+    const gs = rhs[s]!;
+    const rowS = s * mf;
+    // The occupied slots other than s, once; the update below runs over them only.
+    const active = this.activeSlots;
+    let n = 0;
+    for (let t = 0; t < mf; t++) if (t !== s && paramAt[t]! >= 0) active[n++] = t;
+    for (let i = 0; i < n; i++) {
+      const t = active[i]!;
+      const l = front[t * mf + s]! / d;
+      neighbour[base + count] = paramAt[t]!;
+      factor[base + count] = l;
       count++;
-      // Schur complement: N_tu −= l_t N_su for every other active u (symmetric).
-      for (let u = 0; u < mf; u++) {
-        if (u === s || this.paramAt[u]! < 0) continue;
-        this.front[t * mf + u]! -= l * this.front[s * mf + u]!;
+      if (l !== 0) {
+        const rowT = t * mf;
+        for (let j = 0; j < n; j++) {
+          const u = active[j]!;
+          front[rowT + u]! -= l * front[rowS + u]!;
+        }
+        rhs[t]! -= l * gs;
       }
-      this.rhsFront[t]! -= l * gs;
     }
-    this.neighbourCount[p] = count;
+    this.stored += count;
+    this.neighbourStart[this.eliminated] = base;
+    this.neighbourStart[this.eliminated + 1] = base + count;
     this.pivot[p] = d;
     this.forward[p] = gs;
     this.position[p] = this.eliminated;
     this.order[this.eliminated++] = p;
-    this.paramAt[s] = -1;
+    paramAt[s] = -1;
     this.slotOf[p] = -1;
   }
 
-  /** Eliminates whatever is left in the front (in slot order). */
   eliminateAll(): void {
     for (let s = 0; s < this.maxFront; s++) {
       const p = this.paramAt[s]!;
@@ -178,38 +271,104 @@ export class FrontalLdl {
     const x = new Float64Array(this.parameters);
     for (let k = this.parameters - 1; k >= 0; k--) {
       const p = this.order[k]!;
-      const base = p * this.width;
       let v = this.forward[p]! / this.pivot[p]!;
-      for (let c = 0; c < this.neighbourCount[p]!; c++) v -= this.factor[base + c]! * x[this.neighbour[base + c]!]!;
+      for (let c = this.neighbourStart[k]!; c < this.neighbourStart[k + 1]!; c++) v -= this.factor[c]! * x[this.neighbour[c]!]!;
       x[p] = v;
     }
     return x;
   }
 
-  /** Elements of N⁻¹ on the pattern of L (Takahashi recursion, see module comment). */
+  /** Elements of N⁻¹ on the pattern of L (Takahashi recursion, see module comment), for a narrow front. */
   selectedInverse(): SelectedInverse {
-    const diagonal = new Float64Array(this.parameters);
-    const offDiagonal = new Float64Array(this.parameters * this.width);
-    const inverse = new SelectedInverse(this.position, this.neighbourCount, this.neighbour, diagonal, offDiagonal, this.width);
-    const z = new Float64Array(this.width);
-    for (let k = this.parameters - 1; k >= 0; k--) {
+    const P = this.parameters;
+    const diagonal = new Float64Array(P);
+    const offDiagonal = new Float64Array(this.stored);
+    const inverse = new SelectedInverse(this.position, this.neighbourStart, this.neighbour, diagonal, offDiagonal);
+    for (let k = P - 1; k >= 0; k--) {
       const p = this.order[k]!;
-      const base = p * this.width;
-      const count = this.neighbourCount[p]!;
-      for (let a = 0; a < count; a++) {
-        const q = this.neighbour[base + a]!;
-        let v = 0;
-        for (let b = 0; b < count; b++) v -= this.factor[base + b]! * inverse.get(this.neighbour[base + b]!, q);
-        z[a] = v;
-      }
+      const start = this.neighbourStart[k]!;
+      const end = this.neighbourStart[k + 1]!;
       let zpp = 1 / this.pivot[p]!;
-      for (let a = 0; a < count; a++) {
-        offDiagonal[base + a] = z[a]!;
-        zpp -= this.factor[base + a]! * z[a]!;
+      for (let a = start; a < end; a++) {
+        const q = this.neighbour[a]!;
+        let v = 0;
+        for (let b = start; b < end; b++) v -= this.factor[b]! * inverse.get(this.neighbour[b]!, q);
+        offDiagonal[a] = v;
       }
+      for (let a = start; a < end; a++) zpp -= this.factor[a]! * offDiagonal[a]!;
       diagonal[p] = zpp;
     }
     return inverse;
+  }
+
+  /** Selected inverse by the reverse sweep (module comment); fills inverseDiagonal. */
+  reverseSweep(visitor: ReverseSweepVisitor = {}): void {
+    const P = this.parameters;
+    const mf = this.maxFront;
+    const z = new Float64Array(mf * mf);
+    const rslot = new Int32Array(P).fill(-1);
+    const rparam = new Int32Array(mf).fill(-1);
+    // Parameters by activation stamp, to leave the reverse front when the sweep passes it.
+    const byActivation = new Int32Array(P + 2);
+    for (let p = 0; p < P; p++) byActivation[this.activation[p]! + 1]!++;
+    for (let c = 1; c < P + 2; c++) byActivation[c]! += byActivation[c - 1]!;
+    const activatedAt = new Int32Array(P);
+    const fill = byActivation.slice();
+    for (let p = 0; p < P; p++) activatedAt[fill[this.activation[p]!]!++] = p;
+    const get = (p: number, q: number): number => {
+      const a = rslot[p]!;
+      const b = rslot[q]!;
+      if (a < 0 || b < 0) throw new Error(`element (${p}, ${q}) of the inverse is not in the reverse front`);
+      return z[a * mf + b]!;
+    };
+    const view: ReverseFrontView = { z, ld: mf, slot: rslot };
+    const zrow = new Float64Array(mf);
+    const nslots = new Int32Array(mf);
+    const lcol = new Float64Array(mf);
+    for (let c = P; c >= 0; c--) {
+      if (c + 1 <= P) {
+        for (let i = byActivation[c + 1]!; i < byActivation[c + 2]!; i++) {
+          const q = activatedAt[i]!;
+          const s = rslot[q]!;
+          if (s >= 0) {
+            rslot[q] = -1;
+            rparam[s] = -1;
+          }
+        }
+      }
+      if (c < P) {
+        const p = this.order[c]!;
+        const start = this.neighbourStart[c]!;
+        const count = this.neighbourStart[c + 1]! - start;
+        const neighbour = this.neighbour;
+        const factor = this.factor;
+        for (let a = 0; a < count; a++) {
+          nslots[a] = rslot[neighbour[start + a]!]!;
+          lcol[a] = factor[start + a]!;
+        }
+        let zpp = 1 / this.pivot[p]!;
+        for (let a = 0; a < count; a++) {
+          const row = nslots[a]! * mf;
+          let v = 0;
+          for (let b = 0; b < count; b++) v -= lcol[b]! * z[row + nslots[b]!]!;
+          zrow[a] = v;
+          zpp -= lcol[a]! * v;
+        }
+        let s = 0;
+        while (rparam[s]! >= 0) s++;
+        rparam[s] = p;
+        rslot[p] = s;
+        z[s * mf + s] = zpp;
+        this.inverseDiagonal[p] = zpp;
+        for (let a = 0; a < count; a++) {
+          const t = nslots[a]!;
+          z[s * mf + t] = zrow[a]!;
+          z[t * mf + s] = zrow[a]!;
+          visitor.onPair?.(p, this.neighbour[start + a]!, zrow[a]!);
+        }
+      }
+      visitor.onStamp?.(c, get, view);
+    }
   }
 }
 
@@ -217,11 +376,10 @@ export class FrontalLdl {
 export class SelectedInverse {
   constructor(
     private readonly position: Int32Array,
-    private readonly neighbourCount: Uint8Array,
+    private readonly neighbourStart: Int32Array,
     private readonly neighbour: Int32Array,
     readonly diagonal: Float64Array,
     private readonly offDiagonal: Float64Array,
-    private readonly width: number,
   ) {}
 
   /** (N⁻¹)_pq; throws when p and q never shared the front (the element is not computed). */
@@ -229,11 +387,10 @@ export class SelectedInverse {
     if (p === q) return this.diagonal[p]!;
     // The one eliminated first holds the element (no array destructuring: this is a hot path).
     const pFirst = this.position[p]! < this.position[q]!;
-    const first = pFirst ? p : q;
+    const k = pFirst ? this.position[p]! : this.position[q]!;
     const second = pFirst ? q : p;
-    const base = first * this.width;
-    for (let c = 0; c < this.neighbourCount[first]!; c++) {
-      if (this.neighbour[base + c] === second) return this.offDiagonal[base + c]!;
+    for (let c = this.neighbourStart[k]!; c < this.neighbourStart[k + 1]!; c++) {
+      if (this.neighbour[c] === second) return this.offDiagonal[c]!;
     }
     throw new Error(`element (${p}, ${q}) of the inverse is outside the computed pattern`);
   }

@@ -86,6 +86,34 @@ describe('frontal LDLᵀ against a dense solve and inverse (ml-matrix; independe
     expect(() => z.get(0, fastCount - 1)).toThrow(/outside the computed pattern/);
   });
 
+  it('the reverse sweep (dense reverse front) gives the same N⁻¹ diagonal and pattern elements, and whole front blocks at each stamp', () => {
+    const { ldl, dense, n } = randomChainSystem(13, 30, 4);
+    const reference = inverse(dense);
+    const scale = Math.max(...reference.diag().map(Math.abs));
+    let pairs = 0;
+    let blocks = 0;
+    ldl.reverseSweep({
+      onPair(p, q, zpq) {
+        pairs++;
+        expect(Math.abs(zpq - reference.get(p, q)) / scale).toBeLessThan(TOLERANCE);
+      },
+      onStamp(_stamp, get, view) {
+        // Every pair of parameters in the reverse front, by call and by the direct view.
+        const inFront = Array.from({ length: n }, (_, p) => p).filter((p) => view.slot[p]! >= 0);
+        for (const p of inFront) {
+          for (const q of inFront) {
+            expect(Math.abs(get(p, q) - reference.get(p, q)) / scale).toBeLessThan(TOLERANCE);
+            expect(view.z[view.slot[p]! * view.ld + view.slot[q]!]).toBe(get(p, q));
+          }
+        }
+        if (inFront.length > 0) blocks++;
+      },
+    });
+    for (let p = 0; p < n; p++) expect(Math.abs(ldl.inverseDiagonal[p]! - reference.get(p, p)) / scale).toBeLessThan(TOLERANCE);
+    expect(pairs).toBeGreaterThan(n);
+    expect(blocks).toBeGreaterThan(n / 2);
+  });
+
   it('names a parameter that nothing determines (zero pivot)', () => {
     const ldl = new FrontalLdl(2, 2);
     ldl.activate(0);

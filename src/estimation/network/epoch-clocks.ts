@@ -78,7 +78,7 @@ export class EpochClockSystem {
   readonly sInv: Float64Array;
   readonly ks: Float64Array;
   readonly t: Float64Array;
-  /** Reduced normal matrix R (dS'×dS') and right-hand side. */
+  /** Reduced normal matrix R (dS'×dS', packed lower triangle: R_pq at p(p+1)/2 + q, q ≤ p) and right-hand side. */
   readonly r: Float64Array;
   readonly rz: Float64Array;
   /** Own-diagonal contribution Σ w m_f² per local station and family (singularity test, before any elimination). */
@@ -120,7 +120,7 @@ export class EpochClockSystem {
     this.sInv = new Float64Array(K * K);
     this.ks = new Float64Array(K * dz);
     this.t = new Float64Array(K);
-    this.r = new Float64Array(dz * dz);
+    this.r = new Float64Array((dz * (dz + 1)) / 2);
     this.rz = new Float64Array(dz);
     this.direct = new Float64Array(dz);
     this.sss = new Float64Array(K * K);
@@ -133,9 +133,12 @@ export class EpochClockSystem {
   /**
    * Forms and reduces the epoch's normal equations.
    * @param used per station, 1 for each design observation that takes part
+   * @param reduce false when only the clock elimination is wanted (K_σ, t, S⁻¹ and the entry data,
+   *        for residuals in the reverse sweep): R and r_z are then left unreduced, which saves the
+   *        O(K·(dS)²) product, the largest cost of an epoch
    * @returns false when nothing of the epoch is left
    */
-  build(epoch: number, used: readonly Uint8Array[]): boolean {
+  build(epoch: number, used: readonly Uint8Array[], reduce = true): boolean {
     const net = this.net;
     const d = this.d;
     const rc = net.receiverClocks;
@@ -230,7 +233,7 @@ export class EpochClockSystem {
     // Stage 1: receiver clocks eliminated (centred sums).
     const R = this.r;
     const rz = this.rz;
-    R.fill(0, 0, dz * dz);
+    R.fill(0, 0, (dz * (dz + 1)) / 2);
     rz.fill(0, 0, dz);
     this.direct.fill(0, 0, dz);
     const nzs = this.nzs;
@@ -251,8 +254,8 @@ export class EpochClockSystem {
       const za = d * a;
       for (let p = 0; p < d; p++) {
         const cp = eC[3 * x + p]!;
-        const row = (za + p) * dz + za;
-        for (let q = 0; q < d; q++) R[row + q]! += w * cp * eC[3 * x + q]!;
+        const row = ((za + p) * (za + p + 1)) / 2 + za;
+        for (let q = 0; q <= p; q++) R[row + q]! += w * cp * eC[3 * x + q]!;
         rz[za + p]! += w * cp * dr;
         this.direct[za + p]! += w * eM[3 * x + p]! * eM[3 * x + p]!;
       }
@@ -302,16 +305,17 @@ export class EpochClockSystem {
       }
       t[k] = tv;
     }
-    // R −= N_zσ K_σ, r_z −= N_zσ t.
+    if (!reduce) return true;
+    // R −= N_zσ K_σ, r_z −= N_zσ t; R is symmetric and kept as its packed lower triangle.
     for (let p = 0; p < dz; p++) {
-      const rowR = p * dz;
+      const rowR = (p * (p + 1)) / 2;
       let v = rz[p]!;
       for (let k = 0; k < K; k++) {
         const c = nzs[p * K + k]!;
         if (c === 0) continue;
         v -= c * t[k]!;
         const rowK = k * dz;
-        for (let q = 0; q < dz; q++) R[rowR + q]! -= c * ks[rowK + q]!;
+        for (let q = 0; q <= p; q++) R[rowR + q]! -= c * ks[rowK + q]!;
       }
       rz[p] = v;
     }

@@ -10,11 +10,16 @@
  *   troposphere does not depend on it. Satellites seen by one station at an epoch carry no
  *   information and are dropped (counted); so is an epoch with one station.
  * - satelliteClocks "known" (precise point positioning): the network splits into independent
- *   single-station problems; each is solved on its own (own node layout, variance factor and
- *   screening), which equals the single-station estimator for that station's data.
+ *   single-station problems, and each is solved by the single-station estimator itself
+ *   (point-positioning.ts): the same defaults (states at every epoch, variance components,
+ *   correlated-noise inflation), the same numbers.
  *
  * A network of one station is solved as in the "known" case (satellite clocks cannot be estimated
  * from one station), with a warning when "estimated" was asked for.
+ *
+ * With satellite clocks estimated the network solution uses piecewise-linear nodes, white-noise
+ * formal errors and, with scale_sigmas, a scaling of the formal errors instead of re-weighted
+ * observations; each difference from the caller's options is a warning (estimatedClockModelNotes).
  *
  * Outlier screening across the network (estimated clocks): Pope's τ with the network's variance
  * factor; in "one-per-window" mode the candidates of one iteration are at least the window apart
@@ -29,7 +34,11 @@ import { SingularParameterError } from '../frontal-ldl.js';
 import { MIN_TESTABLE_REDUNDANCY } from '../least-squares.js';
 import { nodeRejectionWindowMs } from '../outliers.js';
 import type { GradientNodeEstimate, RejectedObservation } from '../types.js';
-import { buildNetworkDesign, type NetworkDesign, type StationSubset } from './network-design.js';
+import { buildNetworkDesign, stationDesigns, type NetworkDesign, type StationSubset } from './network-design.js';
+import { screenedSolution } from '../screening.js';
+import { median } from './median.js';
+import { pointPositioning, pooledStatistics } from './point-positioning.js';
+import { ReducedEpochCache } from './reduced-epochs.js';
 import { solveNetworkOnce, stationLayout, type NetworkSolution } from './network-solve.js';
 import type {
   NetworkCommonMode,
@@ -81,27 +90,13 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
   const ecef = stations.map((s) => geodeticToEcef(s.latitudeRad, s.longitudeRad, s.heightM));
   const reference = referenceStation(input, ecef);
   const warnings: string[] = [];
-  if ((options.parametrisation ?? 'every-epoch') !== 'nodes') {
-    warnings.push(
-      `the network estimator uses piecewise-linear nodes (parametrisation "nodes", ZWD every ${options.zwd.intervalS} s), not a state at every epoch`,
-    );
-  }
-  if (options.correlatedNoise ?? true) {
-    warnings.push(
-      'formal errors are not inflated for time-correlated residuals (not implemented for networks): they describe white noise only',
-    );
-  }
-  if (options.scaleSigmas) {
-    warnings.push(
-      'scale_sigmas: the formal errors are multiplied by √(variance factor); the observation weights are not re-estimated by variance components as in the single-station estimator',
-    );
-  }
   const estimated = options.satelliteClocks === 'estimated' && stations.length > 1;
   if (options.satelliteClocks === 'estimated' && stations.length === 1) {
     warnings.push(
       'a network of one station: satellite clocks cannot be estimated from one station, so they were taken as known (the single-station solution)',
     );
   }
+  if (estimated) warnings.push(...estimatedClockModelNotes(options));
 
   let results: NetworkStationResult[];
   let commonMode: NetworkCommonMode;
@@ -109,19 +104,25 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
   const geometry = networkExtent(ecef);
 
   if (estimated) {
-    const problem = solveWithScreening(buildNetworkDesign(obs, subsets, options, true), input, reference);
+    const designs = stationDesigns(obs, subsets, options);
+    const problem = solveWithScreening(buildNetworkDesign(obs, subsets, options, true, designs), input, reference);
     warnings.push(...problem.warnings);
     // The same data with the satellite clocks known, for the common-mode comparison.
     const known = subsets.map((sub, s) => {
-      const net = buildNetworkDesign(obs, [sub], options, false);
+      const net = buildNetworkDesign(obs, [sub], options, false, [designs[s]!]);
       return { net, solution: solveNamed(net, options, [problem.used[s]!], 0) };
     });
     results = stationResults(problem, reference);
     const singles = singleStationCounts(problem.net);
     const meanEstimated = median(problem.solution.epochs.map((e) => Math.sqrt(e.meanVariance) * problem.sigmaScale));
     const meanKnown = knownMeanSigma(
-      known,
-      known.map(() => problem.sigmaScale),
+      known.map(({ net, solution }) => {
+        const st = net.stations[0]!;
+        return Array.from(st.design.epochMs, (t, ks) => ({
+          epochMs: t,
+          sigmaM: Math.sqrt(solution.epochs[st.networkEpoch[ks]!]!.variance[0]!) * problem.sigmaScale,
+        }));
+      }),
     );
     commonMode = {
       meanZwdSigmaClocksEstimatedM: meanEstimated,
@@ -168,41 +169,20 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
       );
     }
   } else {
-    const problems = subsets.map((sub) =>
-      solveWithScreening(buildNetworkDesign(obs, [sub], options, false), { ...input, stations: [stations[sub.index]!] }, 0),
-    );
-    results = problems.map((p) => stationResults(p, 0)[0]!);
+    const known = subsets.map((sub) => pointPositioning(input, sub));
+    results = known.map((k) => k.result);
     addKnownRelative(results, reference);
-    problems.forEach((p) => warnings.push(...p.warnings.map((w) => `station ${p.net.stations[0]!.name}: ${w}`)));
-    const meanKnown = knownMeanSigma(
-      problems.map((p) => ({ net: p.net, solution: p.solution })),
-      problems.map((p) => p.sigmaScale),
-    );
+    known.forEach((k) => warnings.push(...k.output.warnings.map((w) => `station ${k.result.station}: ${w}`)));
+    const meanKnown = knownMeanSigma(results.map((r) => r.epochs));
     commonMode = { meanZwdSigmaClocksEstimatedM: null, meanZwdSigmaClocksKnownM: meanKnown, correlationWithClocks: null, ...geometry };
-    const sum = (f: (p: SubProblem) => number) => problems.reduce((n, p) => n + f(p), 0);
-    const dof = sum((p) => p.degreesOfFreedom);
-    const wss = sum((p) => p.solution.weightedSquareSum);
-    const epochsAll = new Set<number>();
-    for (const p of problems) for (const t of p.net.epochMs) epochsAll.add(t);
-    statistics = {
-      stations: stations.length,
-      epochs: epochsAll.size,
-      observationsTotal: obs.epochMs.length,
-      observationsUsed: sum((p) => p.solution.observationsUsed),
-      observationsRejected: sum((p) => p.rejected[0]!.length),
-      observationsSingleStationSatellite: 0,
-      singleStationSatellites: 0,
-      singleStationEpochs: 0,
-      unknowns: sum((p) => p.unknowns),
-      clockUnknowns: sum((p) => p.solution.clockUnknowns),
-      constraints: sum((p) => p.solution.constraints),
-      degreesOfFreedom: dof,
-      rmsM: Math.sqrt(sum((p) => p.solution.residualSquareSumM2) / sum((p) => p.solution.observationsUsed)),
-      varianceFactor: dof > 0 ? wss / dof : null,
-      sigmaScale: problems.length === 1 ? problems[0]!.sigmaScale : Number.NaN,
-      solutions: sum((p) => p.solutions),
-      screeningComplete: problems.every((p) => p.screeningComplete),
-    };
+    statistics = pooledStatistics(
+      known.map((k) => k.output.statistics),
+      {
+        stations: stations.length,
+        epochs: new Set(results.flatMap((r) => r.epochs.map((e) => e.epochMs))).size,
+        clockUnknowns: options.epochBias ? results.reduce((n, r) => n + r.epochs.filter((e) => e.observationsUsed > 0).length, 0) : 0,
+      },
+    );
   }
   return {
     referenceStation: stations[reference]!.name,
@@ -240,26 +220,19 @@ function checkInput(input: NetworkEstimationInput): void {
     if (column.length !== n) throw new Error(`observation column ${name} has ${column.length} entries, epochs ${n}`);
   }
   if (n === 0) throw new ModelDomainError('observations', 'at least one observation is needed', 400);
-  const seen = new Map<string, number>();
+  const stationOf = new Int32Array(n);
   for (let i = 0; i < n; i++) {
-    if (!names.has(o.station[i]!)) {
+    const s = names.get(o.station[i]!);
+    if (s === undefined) {
       throw new ModelDomainError(
         `observations.${i}.station`,
         `station ${o.station[i]} is not in stations (known: ${[...names.keys()].slice(0, 10).join(', ')}${names.size > 10 ? ', …' : ''}); add it to stations with its site`,
         400,
       );
     }
-    const key = `${o.station[i]}\u0000${o.epochMs[i]}\u0000${o.satellite[i]}`;
-    const other = seen.get(key);
-    if (other !== undefined) {
-      throw new ModelDomainError(
-        `observations.${i}`,
-        `duplicate observation: station ${o.station[i]}, satellite ${o.satellite[i]} at ${new Date(o.epochMs[i]!).toISOString()} is also observations.${other}; each (station, epoch, satellite) may appear once`,
-        400,
-      );
-    }
-    seen.set(key, i);
+    stationOf[i] = s;
   }
+  checkDuplicates(o, stationOf, stations.length);
   if (options.referenceStation !== null && !names.has(options.referenceStation)) {
     throw new ModelDomainError(
       'options.reference_station',
@@ -267,6 +240,83 @@ function checkInput(input: NetworkEstimationInput): void {
       400,
     );
   }
+}
+
+/**
+ * 400 for a (station, epoch, satellite) that appears twice, naming the first repeat in input order.
+ * Linear in the observations: a stable counting sort by (station, epoch) and, within each group, a
+ * stamp per satellite (no key strings: 2.6 M observations cost a few tens of milliseconds).
+ */
+function checkDuplicates(o: NetworkEstimationInput['observations'], stationOf: Int32Array, stations: number): void {
+  const n = stationOf.length;
+  const epochId = new Map<number, number>();
+  const satelliteId = new Map<string, number>();
+  const epochOf = new Int32Array(n);
+  const satelliteOf = new Int32Array(n);
+  for (let i = 0; i < n; i++) {
+    let e = epochId.get(o.epochMs[i]!);
+    if (e === undefined) epochId.set(o.epochMs[i]!, (e = epochId.size));
+    let k = satelliteId.get(o.satellite[i]!);
+    if (k === undefined) satelliteId.set(o.satellite[i]!, (k = satelliteId.size));
+    epochOf[i] = e;
+    satelliteOf[i] = k;
+  }
+  const epochs = epochId.size;
+  const groups = stations * epochs;
+  const start = new Int32Array(groups + 1);
+  for (let i = 0; i < n; i++) start[stationOf[i]! * epochs + epochOf[i]! + 1]!++;
+  for (let g = 0; g < groups; g++) start[g + 1]! += start[g]!;
+  const fill = start.slice(0, groups);
+  const order = new Int32Array(n);
+  for (let i = 0; i < n; i++) order[fill[stationOf[i]! * epochs + epochOf[i]!]!++] = i;
+  const stampGroup = new Int32Array(satelliteId.size).fill(-1);
+  const stampIndex = new Int32Array(satelliteId.size);
+  let first = -1;
+  let other = -1;
+  for (let g = 0; g < groups; g++) {
+    for (let u = start[g]!; u < start[g + 1]!; u++) {
+      const i = order[u]!;
+      const k = satelliteOf[i]!;
+      if (stampGroup[k] === g) {
+        if (first < 0 || i < first) [first, other] = [i, stampIndex[k]!];
+      } else {
+        stampGroup[k] = g;
+        stampIndex[k] = i;
+      }
+    }
+  }
+  if (first >= 0) {
+    throw new ModelDomainError(
+      `observations.${first}`,
+      `duplicate observation: station ${o.station[first]}, satellite ${o.satellite[first]} at ${new Date(o.epochMs[first]!).toISOString()} is also observations.${other}; each (station, epoch, satellite) may appear once`,
+      400,
+    );
+  }
+}
+
+/**
+ * What the network solution with satellite clocks estimated does differently from the
+ * single-station estimator's options (the point-positioning case has none of these: it is the
+ * single-station estimator).
+ */
+function estimatedClockModelNotes(options: NetworkEstimationInput['options']): string[] {
+  const notes: string[] = [];
+  if ((options.parametrisation ?? 'every-epoch') !== 'nodes') {
+    notes.push(
+      `with satellite clocks estimated the network estimator uses piecewise-linear nodes (parametrisation "nodes", ZWD every ${options.zwd.intervalS} s), not a state at every epoch`,
+    );
+  }
+  if (options.correlatedNoise ?? true) {
+    notes.push(
+      'with satellite clocks estimated, formal errors are not inflated for time-correlated residuals (not implemented for the network solution): they describe white noise only',
+    );
+  }
+  if (options.scaleSigmas) {
+    notes.push(
+      'scale_sigmas with satellite clocks estimated: the formal errors are multiplied by √(variance factor); the observation weights are not re-estimated by variance components as in the single-station estimator',
+    );
+  }
+  return notes;
 }
 
 /** The caller's reference station, or the one closest to the centroid of all stations. */
@@ -324,9 +374,10 @@ function solveNamed(
   options: NetworkEstimationInput['options'],
   used: Uint8Array[],
   reference: number,
+  cache?: ReducedEpochCache,
 ): NetworkSolution {
   try {
-    return solveNetworkOnce(net, options, used, reference);
+    return solveNetworkOnce(net, options, used, reference, cache);
   } catch (err) {
     if (!(err instanceof SingularParameterError)) throw err;
     const P = net.stationParameters;
@@ -353,53 +404,41 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
   const S = net.stations.length;
   const used = net.stations.map((st) => new Uint8Array(st.design.residualM.length).fill(1));
   const rejected: RejectedObservation[][] = net.stations.map(() => []);
-  const warnings: string[] = [];
   const layout = stationLayout(net);
-  let solutions = 0;
-  let screeningComplete = true;
-  let solution: NetworkSolution;
-  let varianceFactor: number | null;
-  let degreesOfFreedom: number;
-  let unknowns: number;
-  let total = 0;
-  for (;;) {
-    solution = solveNamed(net, options, used, reference);
-    solutions++;
-    unknowns = S * layout.parameters + solution.clockUnknowns;
-    degreesOfFreedom = solution.observationsUsed + solution.constraints - unknowns;
-    varianceFactor = degreesOfFreedom > 0 ? solution.weightedSquareSum / degreesOfFreedom : null;
-    if (options.outlierThreshold === null) break;
-    const candidates = networkCandidates(
-      net,
-      solution,
-      varianceFactor === null ? 1 : Math.sqrt(varianceFactor),
-      options.outlierThreshold,
-      options.outlierRejection,
-      options.zwd.intervalS,
-    );
-    if (candidates.length === 0) break;
-    if (total >= options.maxRejections) {
-      screeningComplete = false;
-      warnings.push(
-        `outlier screening stopped after ${total} rejections (options.max_rejections); ${candidates.length > 1 ? 'normalised residuals' : 'a normalised residual'} up to ${Math.abs(candidates[0]!.tau).toFixed(1)} remain above ${options.outlierThreshold}: check sigma0_m and the residuals`,
-      );
-      break;
-    }
-    for (const c of candidates.slice(0, options.maxRejections - total)) {
-      const st = net.stations[c.station]!;
-      const i = st.networkIndex[c.index]!;
-      rejected[c.station]!.push({
-        index: i,
-        epochMs: obs.epochMs[i]!,
-        satellite: obs.satellite[i]!,
-        residualM: obs.residualM[i]!,
-        fittedResidualM: solution.fittedResidualM[c.station]![c.index]!,
-        normalizedResidual: c.tau,
-      });
-      used[c.station]![c.index] = 0;
-      total++;
-    }
-  }
+  const unknownsOf = (s: NetworkSolution) => S * layout.parameters + s.clockUnknowns;
+  // Several solutions only when screening: then keep the reduced epochs between them.
+  const cache = options.outlierThreshold === null ? undefined : new ReducedEpochCache(net.epochMs.length);
+  const screened = screenedSolution(
+    {
+      solve: () => solveNamed(net, options, used, reference, cache),
+      varianceFactor: (s) => {
+        const dof = s.observationsUsed + s.constraints - unknownsOf(s);
+        return dof > 0 ? s.weightedSquareSum / dof : null;
+      },
+      candidates: (s, sigmaZero) =>
+        networkCandidates(net, s, sigmaZero, options.outlierThreshold!, options.outlierRejection, options.zwd.intervalS),
+      normalizedResidual: (c) => c.tau,
+      reject: (c, s) => {
+        const i = net.stations[c.station]!.networkIndex[c.index]!;
+        rejected[c.station]!.push({
+          index: i,
+          epochMs: obs.epochMs[i]!,
+          satellite: obs.satellite[i]!,
+          residualM: obs.residualM[i]!,
+          fittedResidualM: s.fittedResidualM[c.station]![c.index]!,
+          normalizedResidual: c.tau,
+        });
+        used[c.station]![c.index] = 0;
+        cache?.invalidate(networkEpochOf(net, c.station, c.index));
+      },
+    },
+    options.outlierThreshold,
+    options.maxRejections,
+  );
+  const { solution, varianceFactor, solutions, screeningComplete } = screened;
+  const warnings = [...screened.warnings];
+  const unknowns = unknownsOf(solution);
+  const degreesOfFreedom = solution.observationsUsed + solution.constraints - unknowns;
   const sigmaScale = options.scaleSigmas && varianceFactor !== null ? Math.sqrt(varianceFactor) : 1;
   if (varianceFactor === null) {
     warnings.push(
@@ -414,6 +453,20 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
   if (low > 0)
     warnings.push(`${low} observations below 3° were used: the Niell mapping functions are fitted from 3° up and are extrapolated there`);
   return { net, used, solution, rejected, varianceFactor, degreesOfFreedom, unknowns, sigmaScale, solutions, screeningComplete, warnings };
+}
+
+/** Network epoch of design observation i of station s (binary search in the station's epoch starts). */
+function networkEpochOf(net: NetworkDesign, s: number, i: number): number {
+  const st = net.stations[s]!;
+  const start = st.design.epochStart;
+  let lo = 0;
+  let hi = st.design.epochMs.length - 1;
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1;
+    if (start[mid]! <= i) lo = mid;
+    else hi = mid - 1;
+  }
+  return st.networkEpoch[lo]!;
 }
 
 interface Candidate {
@@ -604,20 +657,17 @@ function singleStationCounts(net: NetworkDesign): { observations: number; pairs:
  * σ of the network-mean ZWD with the satellite clocks known (independent stations): median over
  * the epochs at which every station has an epoch of √(Σ σ_s²)/S.
  */
-function knownMeanSigma(known: { net: NetworkDesign; solution: NetworkSolution }[], scales: number[]): number {
+function knownMeanSigma(perStation: readonly (readonly { epochMs: number; sigmaM: number }[])[]): number {
   const byEpoch = new Map<number, { sum: number; count: number }>();
-  known.forEach(({ net, solution }, i) => {
-    const f = scales[i]! ** 2;
-    const st = net.stations[0]!;
-    st.design.epochMs.forEach((t, ks) => {
-      const v = solution.epochs[st.networkEpoch[ks]!]!.variance[0]! * f;
-      const e = byEpoch.get(t) ?? { sum: 0, count: 0 };
-      e.sum += v;
+  for (const epochs of perStation) {
+    for (const { epochMs, sigmaM } of epochs) {
+      const e = byEpoch.get(epochMs) ?? { sum: 0, count: 0 };
+      e.sum += sigmaM * sigmaM;
       e.count++;
-      byEpoch.set(t, e);
-    });
-  });
-  const S = known.length;
+      byEpoch.set(epochMs, e);
+    }
+  }
+  const S = perStation.length;
   const values = [...byEpoch.values()].filter((e) => e.count === S).map((e) => Math.sqrt(e.sum) / S);
   return median(values) ?? Number.NaN;
 }
@@ -638,11 +688,4 @@ function addKnownRelative(results: NetworkStationResult[], reference: number): v
     }
     r.medianRelativeSigmaM = median(r.epochs.map((e) => e.relativeSigmaM)) ?? Number.NaN;
   });
-}
-
-function median(values: number[]): number | null {
-  const v = values.filter((x) => Number.isFinite(x)).sort((a, b) => a - b);
-  if (v.length === 0) return null;
-  const h = Math.floor(v.length / 2);
-  return v.length % 2 ? v[h]! : (v[h - 1]! + v[h]!) / 2;
 }

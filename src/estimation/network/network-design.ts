@@ -73,8 +73,9 @@ export interface NetworkColumns {
 }
 
 /**
- * @param ownLayout true for a one-station network solved on its own (the node layout starts at the
- *        station's first epoch, as in the single-station estimator)
+ * A one-station network keeps its station's own node layout (it starts at the station's first
+ * epoch, as in the single-station estimator); several stations share one layout over all epochs.
+ * @param given the stations' designs when already built (stationDesigns), in the order of subsets
  * @throws ModelDomainError 422 naming the station when none of its observations is above the cutoff
  */
 export function buildNetworkDesign(
@@ -82,31 +83,9 @@ export function buildNetworkDesign(
   subsets: StationSubset[],
   options: ZwdEstimationOptions,
   satelliteClocks: boolean,
+  given?: readonly Design[],
 ): NetworkDesign {
-  // The network solver works with regular nodes (the single-station "nodes" parametrisation).
-  const stationOptions: ZwdEstimationOptions = { ...options, parametrisation: 'nodes' };
-  const designs: Design[] = subsets.map((st) => {
-    const pick = <T>(c: readonly T[]) => st.observations.map((i) => c[i]!);
-    try {
-      return buildDesign({
-        latitudeRad: st.latitudeRad,
-        observations: {
-          epochMs: pick(columns.epochMs),
-          satellite: pick(columns.satellite),
-          elevationRad: pick(columns.elevationRad),
-          azimuthRad: pick(columns.azimuthRad),
-          residualM: pick(columns.residualM),
-          sigmaM: columns.sigmaM ? pick(columns.sigmaM) : undefined,
-        },
-        options: stationOptions,
-      });
-    } catch (err) {
-      if (err instanceof ModelDomainError && err.status === 422) {
-        throw new ModelDomainError('observations', `station ${st.name}: ${err.message}`, 422);
-      }
-      throw err;
-    }
-  });
+  const designs: Design[] = given ? [...given] : stationDesigns(columns, subsets, options);
 
   // Network epochs and the common node layout.
   const allEpochs = new Set<number>();
@@ -179,20 +158,32 @@ export function buildNetworkDesign(
       }
     }
   });
-  // Sort each epoch's entries by satellite, then station.
-  const order: number[] = [];
+  // Each epoch's entries are in station order (filled station by station); a stable counting sort by
+  // satellite makes them satellite, then station.
+  const K = satelliteId.size;
+  const bucket = new Int32Array(K + 1);
+  const scratch = { station: new Int32Array(0), observation: new Int32Array(0), satellite: new Int32Array(0) };
   for (let k = 0; k < epochs; k++) {
     const a = counts[k]!;
     const b = counts[k + 1]!;
-    order.length = 0;
-    for (let e = a; e < b; e++) order.push(e);
-    order.sort((x, y) => entrySatellite[x]! - entrySatellite[y]! || entryStation[x]! - entryStation[y]!);
-    const st = order.map((e) => entryStation[e]!);
-    const ob = order.map((e) => entryObservation[e]!);
-    const sa = order.map((e) => entrySatellite[e]!);
-    entryStation.set(st, a);
-    entryObservation.set(ob, a);
-    entrySatellite.set(sa, a);
+    const m = b - a;
+    if (scratch.station.length < m) {
+      scratch.station = new Int32Array(2 * m);
+      scratch.observation = new Int32Array(2 * m);
+      scratch.satellite = new Int32Array(2 * m);
+    }
+    bucket.fill(0);
+    for (let e = a; e < b; e++) bucket[entrySatellite[e]! + 1]!++;
+    for (let c = 0; c < K; c++) bucket[c + 1]! += bucket[c]!;
+    for (let e = a; e < b; e++) {
+      const u = bucket[entrySatellite[e]!]!++;
+      scratch.station[u] = entryStation[e]!;
+      scratch.observation[u] = entryObservation[e]!;
+      scratch.satellite[u] = entrySatellite[e]!;
+    }
+    entryStation.set(scratch.station.subarray(0, m), a);
+    entryObservation.set(scratch.observation.subarray(0, m), a);
+    entrySatellite.set(scratch.satellite.subarray(0, m), a);
   }
 
   const net: NetworkDesign = {
@@ -215,6 +206,38 @@ export function buildNetworkDesign(
   };
   reduceClockLikeParts(net);
   return net;
+}
+
+/**
+ * The single-station design of every station (../design.ts), with regular nodes (the network solver
+ * works with the single-station "nodes" parametrisation). The network code does not change a
+ * design, so one set serves the network and the per-station comparison solutions.
+ * @throws ModelDomainError 422 naming the station when none of its observations is above the cutoff
+ */
+export function stationDesigns(columns: NetworkColumns, subsets: StationSubset[], options: ZwdEstimationOptions): Design[] {
+  const stationOptions: ZwdEstimationOptions = { ...options, parametrisation: 'nodes' };
+  return subsets.map((st) => {
+    const pick = <T>(c: readonly T[]) => st.observations.map((i) => c[i]!);
+    try {
+      return buildDesign({
+        latitudeRad: st.latitudeRad,
+        observations: {
+          epochMs: pick(columns.epochMs),
+          satellite: pick(columns.satellite),
+          elevationRad: pick(columns.elevationRad),
+          azimuthRad: pick(columns.azimuthRad),
+          residualM: pick(columns.residualM),
+          sigmaM: columns.sigmaM ? pick(columns.sigmaM) : undefined,
+        },
+        options: stationOptions,
+      });
+    } catch (err) {
+      if (err instanceof ModelDomainError && err.status === 422) {
+        throw new ModelDomainError('observations', `station ${st.name}: ${err.message}`, 422);
+      }
+      throw err;
+    }
+  });
 }
 
 /** Two sweeps of weighted means per (station, epoch) and per (satellite, epoch); see the module comment. */

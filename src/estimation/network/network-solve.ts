@@ -15,8 +15,9 @@
 import { constraintCount, randomWalkStepWeight, type ParameterLayout } from '../least-squares.js';
 import type { PiecewiseLinearSettings, ZwdEstimationOptions } from '../types.js';
 import { EpochClockSystem } from './epoch-clocks.js';
+import { reducedEpoch, type ReducedEpoch, type ReducedEpochCache } from './reduced-epochs.js';
 import type { NetworkDesign } from './network-design.js';
-import { NetworkFrontal } from './network-frontal.js';
+import { FrontalLdl, type ReverseFrontView } from '../frontal-ldl.js';
 
 export interface EpochCovariances {
   /** Per station (NaN when the station has no epoch here): σ² of δw(t) and of δw − δw_ref [m²]. */
@@ -76,6 +77,8 @@ const stepWeight = (f: Family, j: number) => randomWalkStepWeight(f.settings, f.
 /**
  * @param used per station, 1 for each design observation that takes part
  * @param reference station index the relative variances refer to
+ * @param cache reduced epochs of an earlier solution (the caller invalidates the epochs whose
+ *        observations changed); filled with the epochs reduced now
  * @throws SingularParameterError (from the frontal solver) naming an undetermined parameter
  */
 export function solveNetworkOnce(
@@ -83,13 +86,14 @@ export function solveNetworkOnce(
   options: ZwdEstimationOptions,
   used: readonly Uint8Array[],
   reference: number,
+  cache?: ReducedEpochCache,
 ): NetworkSolution {
   const S = net.stations.length;
   const layout = stationLayout(net);
   const P = layout.parameters;
   const d = net.gradients ? 3 : 1;
   const local = net.gradients ? 6 : 2;
-  const frontal = new NetworkFrontal(S * P, S * local);
+  const frontal = new FrontalLdl(S * P, S * local);
   const families: Family[] = [];
   for (let s = 0; s < S; s++) {
     const o = s * P;
@@ -175,23 +179,27 @@ export function solveNetworkOnce(
       for (let f = 1; f < perStation; f++) advance(families[s * perStation + f]!, net.gradientInterval[k]!);
     }
     stamp[k] = frontal.eliminatedCount;
-    if (!sys.build(k, used)) continue;
-    const Sp = sys.presentCount;
-    clockUnknowns += (net.receiverClocks ? Sp : 0) + sys.satelliteClockCount - sys.datums;
-    const dz = d * Sp;
+    let epoch: ReducedEpoch | null | undefined = cache?.get(k);
+    if (epoch === undefined) {
+      const built = sys.build(k, used);
+      epoch = cache ? cache.store(k, built ? sys : null, net.receiverClocks) : built ? reducedEpoch(sys, net.receiverClocks) : null;
+    }
+    if (epoch === null || epoch === undefined || epoch.present.length === 0) continue;
+    const Sp = epoch.present.length;
+    clockUnknowns += epoch.clockUnknowns;
     for (let a = 0; a < Sp; a++) {
-      const s = sys.present[a]!;
+      const s = epoch.present[a]!;
       fillLocal(k, s);
       for (let p = 0; p < local; p++) {
         const id = ids[s * local + p]!;
         slots[a * local + p] = id >= 0 ? frontal.slot(id) : -1;
-        if (id >= 0) frontal.addDirectDiagonal(id, interp[s * local + p]! ** 2 * sys.direct[d * a + fam[p]!]!);
+        if (id >= 0) frontal.addDirectDiagonal(id, interp[s * local + p]! ** 2 * epoch.direct[d * a + fam[p]!]!);
       }
     }
     // N += B R Bᵀ, g += B r_z.
     let count = 0;
     for (let a = 0; a < Sp; a++) {
-      const sa = sys.present[a]!;
+      const sa = epoch.present[a]!;
       for (let p = 0; p < local; p++) {
         const sp = slots[a * local + p]!;
         if (sp < 0) continue;
@@ -201,7 +209,7 @@ export function solveNetworkOnce(
         count++;
       }
     }
-    frontal.addProjected(count, projSlots, projCoeff, projRows, sys.r, dz, sys.rz);
+    frontal.addProjected(count, projSlots, projCoeff, projRows, epoch.r, epoch.rz);
   }
   frontal.eliminateAll();
   const x = frontal.solve();
@@ -235,6 +243,9 @@ export function solveNetworkOnce(
   const refOffset = reference * P;
   const maxDz = d * S;
   const q = new Float64Array(maxDz * maxDz);
+  const listSlot = new Int32Array(local * S);
+  const listCoeff = new Float64Array(local * S);
+  const listRow = new Int32Array(local * S);
   const zhat = new Float64Array(maxDz);
   const maxK = sys.maxSatellites;
   const satClock = new Float64Array(maxK);
@@ -258,13 +269,13 @@ export function solveNetworkOnce(
       if (sr === reference) nodeCovarianceWithReference[sp]![jp] = z;
       else if (sp === reference) nodeCovarianceWithReference[sr]![jr] = z;
     },
-    onStamp(c, get) {
+    onStamp(c, get, view) {
       const list = byStamp.get(c);
       if (!list) return;
       for (const k of list) {
         epochCov[k] = epochCovariances(k, get);
-        if (!sys.build(k, used)) continue;
-        residualsOfEpoch(k, get);
+        if (!sys.build(k, used, false)) continue;
+        residualsOfEpoch(k, view);
         if (net.satelliteClocks) epochCov[k]!.meanClockCorrelation = clockCorrelation(k, get, epochCov[k]!.meanVariance);
       }
     },
@@ -317,39 +328,46 @@ export function solveNetworkOnce(
     return { variance, relativeVariance, meanVariance, meanClockCorrelation: Number.NaN };
   }
 
-  function residualsOfEpoch(k: number, get: (p: number, q: number) => number): void {
+  function residualsOfEpoch(k: number, view: ReverseFrontView): void {
     const Sp = sys.presentCount;
     const dz = d * Sp;
     const K = sys.satelliteClockCount;
     const rc = net.receiverClocks;
-    // ẑ = Bᵀx and Q_zz = Bᵀ Q B for the present stations.
-    for (let a = 0; a < Sp; a++) fillLocal(k, sys.present[a]!);
+    // ẑ = Bᵀx and Q_zz = Bᵀ Q B for the present stations: the local parameters of all present
+    // stations as one list (front slot, interpolation weight, row of z), then Q_zz from the reverse
+    // front directly (lower triangle, mirrored).
+    let n = 0;
     for (let a = 0; a < Sp; a++) {
       const sa = sys.present[a]!;
+      fillLocal(k, sa);
       for (let f = 0; f < d; f++) zhat[d * a + f] = 0;
       for (let p = 0; p < local; p++) {
         const id = ids[sa * local + p]!;
-        if (id >= 0) zhat[d * a + fam[p]!]! += interp[sa * local + p]! * x[id]!;
+        if (id < 0) continue;
+        const w = interp[sa * local + p]!;
+        zhat[d * a + fam[p]!]! += w * x[id]!;
+        const slot = view.slot[id]!;
+        if (slot < 0) throw new Error(`node ${id} is not in the reverse front at epoch ${k}`);
+        listSlot[n] = slot;
+        listCoeff[n] = w;
+        listRow[n] = d * a + fam[p]!;
+        n++;
       }
     }
-    for (let a = 0; a < Sp; a++) {
-      const sa = sys.present[a]!;
-      for (let b = 0; b <= a; b++) {
-        const sb = sys.present[b]!;
-        for (let f = 0; f < d; f++) for (let g = 0; g < d; g++) q[(d * a + f) * dz + d * b + g] = 0;
-        for (let p = 0; p < local; p++) {
-          const ip = ids[sa * local + p]!;
-          if (ip < 0) continue;
-          const wp = interp[sa * local + p]!;
-          for (let r = 0; r < local; r++) {
-            const ir = ids[sb * local + r]!;
-            if (ir < 0) continue;
-            q[(d * a + fam[p]!) * dz + d * b + fam[r]!]! += wp * interp[sb * local + r]! * get(ip, ir);
-          }
-        }
-        for (let f = 0; f < d; f++) for (let g = 0; g < d; g++) q[(d * b + g) * dz + d * a + f] = q[(d * a + f) * dz + d * b + g]!;
+    q.fill(0, 0, dz * dz);
+    const z = view.z;
+    const ld = view.ld;
+    for (let i = 0; i < n; i++) {
+      const zi = listSlot[i]! * ld;
+      const ci = listCoeff[i]!;
+      const ri = listRow[i]! * dz;
+      for (let j = 0; j < n; j++) {
+        const rj = listRow[j]!;
+        if (rj > listRow[i]!) break;
+        q[ri + rj]! += ci * listCoeff[j]! * z[zi + listSlot[j]!]!;
       }
     }
+    for (let p = 0; p < dz; p++) for (let r = 0; r < p; r++) q[r * dz + p] = q[p * dz + r]!;
     // Satellite clocks σ̂ = t − K_σ ẑ (datum 0); Φ = Q K_σᵀ (dz×K), Ψ = K_σ Φ (K×K).
     const ks = sys.ks;
     for (let kk = 0; kk < K; kk++) {
@@ -367,10 +385,11 @@ export function solveNetworkOnce(
       }
     }
     for (let k1 = 0; k1 < K; k1++) {
-      for (let k2 = 0; k2 < K; k2++) {
+      for (let k2 = 0; k2 <= k1; k2++) {
         let v = 0;
         for (let p = 0; p < dz; p++) v += ks[k1 * dz + p]! * phi[p * K + k2]!;
         psi[k1 * K + k2] = v;
+        psi[k2 * K + k1] = v;
       }
     }
     const Sinv = sys.sInv;

@@ -8,6 +8,9 @@ import { describe, expect, it } from 'vitest';
 import { estimateNetwork } from '../../../src/estimation/network/estimate-network.js';
 import { estimateZwd } from '../../../src/estimation/estimate.js';
 import type { ZwdEstimationInput } from '../../../src/estimation/types.js';
+import type { NetworkEstimationOptions } from '../../../src/estimation/network/types.js';
+import { DEFAULT_ZWD_OPTIONS } from '../../../src/services/zwd-options.js';
+import { toEstimatorOptions } from '../../../src/services/zwd-estimation.js';
 import { networkOptions, simulateNetwork, stationAt, toNetworkInput, type NetworkSim } from './network-simulator.js';
 
 const M = 1;
@@ -33,7 +36,7 @@ function sim(seed: number, grossErrors: number): NetworkSim {
   });
 }
 
-function stationInput(s: NetworkSim, name: string, options: ReturnType<typeof networkOptions>, withSigmas: boolean): ZwdEstimationInput {
+function stationInput(s: NetworkSim, name: string, options: NetworkEstimationOptions, withSigmas: boolean): ZwdEstimationInput {
   const o = s.observations;
   const idx = o.station.flatMap((st, i) => (st === name ? [i] : []));
   return {
@@ -50,7 +53,7 @@ function stationInput(s: NetworkSim, name: string, options: ReturnType<typeof ne
   };
 }
 
-function expectSameAsSingleStation(s: NetworkSim, options: ReturnType<typeof networkOptions>, withSigmas = false) {
+function expectSameAsSingleStation(s: NetworkSim, options: NetworkEstimationOptions, withSigmas = false) {
   const net = estimateNetwork(toNetworkInput(s, options, withSigmas));
   expect(net.satelliteClocks).toBe('known');
   for (const r of net.stations) {
@@ -80,17 +83,42 @@ function expectSameAsSingleStation(s: NetworkSim, options: ReturnType<typeof net
     expect(r.rejected.map((x) => x.satellite + x.epochMs)).toEqual(single.rejected.map((x) => x.satellite + x.epochMs));
     r.rejected.forEach((x, i) => expect(Math.abs(x.normalizedResidual - single.rejected[i]!.normalizedResidual)).toBeLessThan(1e-6));
     expect(r.statistics.observationsUsed).toBe(single.statistics.observationsUsed);
+    // Every warning of the single-station solution reaches the network result, naming the station.
+    for (const w of single.warnings) expect(net.warnings).toContain(`station ${r.station}: ${w}`);
   }
   return net;
 }
 
+/** The single-station route's default options (src/services/zwd-options.ts), satellite clocks known. */
+function routeDefaults(): NetworkEstimationOptions {
+  return { ...toEstimatorOptions(DEFAULT_ZWD_OPTIONS), satelliteClocks: 'known', referenceStation: null, commonModeSigmaThresholdM: 0.005 };
+}
+
 describe('point positioning: satellite clocks known = independent single-station solutions (issue 12)', () => {
-  // Options: the single-station "nodes" parametrisation without correlated-noise inflation and
-  // without variance-component re-weighting (scale_sigmas), which the network estimator does not have.
+  // The network with satellite clocks known runs the single-station estimator per station, so any
+  // options give the same numbers: the simulator's "nodes" options and the route's defaults.
   it('equals estimateZwd per station, with gross errors screened', () => {
     const s = sim(11, 9);
     const net = expectSameAsSingleStation(s, networkOptions({ satelliteClocks: 'known' }));
     expect(net.statistics.observationsRejected).toBeGreaterThanOrEqual(9);
+  });
+
+  it('with the single-station route defaults (states at every epoch, variance components, correlated-noise inflation): equal, and no note that the network differs', () => {
+    const s = sim(14, 4);
+    const options = routeDefaults();
+    expect(options.parametrisation).toBe('every-epoch');
+    expect(options.correlatedNoise).toBe(true);
+    expect(options.scaleSigmas).toBe(true);
+    const net = expectSameAsSingleStation(s, options);
+    expect(net.warnings.join(' ')).not.toMatch(/piecewise-linear nodes|not inflated|not re-estimated/);
+    // Relative σ of independent stations: σ² = σ_s² + σ_ref² at common epochs (common practice).
+    const ref = net.stations.find((r) => r.station === net.referenceStation)!;
+    for (const r of net.stations) {
+      r.epochs.forEach((e, k) => {
+        const expected = r === ref ? 0 : Math.hypot(e.sigmaM, ref.epochs[k]!.sigmaM);
+        expect(Math.abs(e.relativeSigmaM - expected)).toBeLessThan(TOL);
+      });
+    }
   });
 
   it('equals estimateZwd per station without gradients, one-per-solution screening, given sigmas', () => {
@@ -112,11 +140,16 @@ describe('point positioning: satellite clocks known = independent single-station
       residualM: keep.map((i) => o.residualM[i]!),
       sigmaM: keep.map((i) => o.sigmaM[i]!),
     };
-    const options = networkOptions({ satelliteClocks: 'estimated' });
+    const options: NetworkEstimationOptions = { ...routeDefaults(), satelliteClocks: 'estimated' };
     const net = estimateNetwork(toNetworkInput(one, options));
     expect(net.satelliteClocks).toBe('known');
     expect(net.warnings.join(' ')).toMatch(/one station/);
     const single = estimateZwd(stationInput(one, 'ALDER', options, false));
-    net.stations[0]!.zwdNodes.forEach((n, j) => expect(Math.abs(n.correctionM - single.zwdNodes[j]!.correctionM)).toBeLessThan(TOL));
+    expect(net.stations[0]!.zwdNodes.length).toBe(single.zwdNodes.length);
+    net.stations[0]!.zwdNodes.forEach((n, j) => {
+      expect(Math.abs(n.correctionM - single.zwdNodes[j]!.correctionM)).toBeLessThan(TOL);
+      expect(Math.abs(n.sigmaM - single.zwdNodes[j]!.sigmaM)).toBeLessThan(TOL);
+    });
+    expect(net.warnings.join(' ')).not.toMatch(/piecewise-linear nodes/);
   });
 });
