@@ -301,7 +301,10 @@ export function configurationTable(): string {
     const names = [`\`${name}\``];
     if (hasFileForm(setting)) names.push(`\`${name}_FILE\``);
     const old = deprecatedName(setting);
-    const shown = SHOWN_DEFAULTS[setting as SettingName] ?? (defaults[setting] === undefined ? '(unset)' : String(defaults[setting]));
+    const value = defaults[setting];
+    const shown =
+      SHOWN_DEFAULTS[setting as SettingName] ??
+      (value === undefined ? '(unset)' : typeof value === 'object' ? JSON.stringify(value) : String(value as string | number | boolean));
     const meaning = (schema.description ?? '').replace(/\|/g, '\\|');
     return `| ${names.join(' or ')} | ${old ? `\`${old}\`` : ''} | ${shown} | ${meaning} |`;
   });

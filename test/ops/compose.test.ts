@@ -124,12 +124,14 @@ describe('Compose Specification: services, health-gated start, named volume', ()
 });
 
 describe('interpolation (Compose Specification, "Interpolation")', () => {
+  /* eslint-disable no-template-curly-in-string -- compose's own ${…} references */
   it('follows the specification on the operators it uses', () => {
     expect(interpolate('${A:-x}/${B-y}/${C:-z}/$$HOME/$D', { A: '', C: 'c', D: 'd' })).toBe('x/y/c/$HOME/d');
     expect(interpolate('${B-y}', { B: '' })).toBe('');
     expect(() => interpolate('${E:?set E}', { E: '' })).toThrow(/required variable E is missing a value: set E/);
     expect(interpolate('${E?set E}', { E: '' })).toBe('');
   });
+  /* eslint-enable no-template-curly-in-string */
 });
 
 describe('PostgreSQL connection URI (PostgreSQL documentation, libpq "Connection URIs"): both replicas share one database', () => {
@@ -216,7 +218,7 @@ describe('docs/container.md and docker/compose.yaml together: the documented com
     expect(resolved).not.toMatch(/\$\{/);
   });
 
-  it('each variable the compose file requires (${VAR:?…}) is exported by the docs', () => {
+  it('each variable the compose file requires (a `:?` reference) is exported by the docs', () => {
     const required = [...readFileSync(COMPOSE_FILE, 'utf8').matchAll(/\$\{([A-Za-z0-9_]+):?\?/g)].map((m) => m[1]!);
     for (const name of required) expect(Object.keys(exported), name).toContain(name);
   });

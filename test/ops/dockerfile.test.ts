@@ -82,7 +82,10 @@ describe('air-gapped builds (issue 15 item 7)', () => {
     const npmStages = parsed.stages.filter((s) => s.instructions.some((i) => i.keyword === 'RUN' && /\bnpm ci\b/.test(i.args)));
     expect(npmStages.length).toBeGreaterThanOrEqual(2);
     for (const stage of npmStages) {
-      expect(stage.instructions.some((i) => i.keyword === 'ARG' && /^NPM_REGISTRY(=|$)/.test(i.args)), stage.name).toBe(true);
+      expect(
+        stage.instructions.some((i) => i.keyword === 'ARG' && /^NPM_REGISTRY(=|$)/.test(i.args)),
+        stage.name,
+      ).toBe(true);
       for (const run of stage.instructions.filter((i) => i.keyword === 'RUN' && /\bnpm ci\b/.test(i.args))) {
         expect(run.args).toMatch(/npm_config_registry="\$NPM_REGISTRY"/);
       }
