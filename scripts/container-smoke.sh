@@ -30,6 +30,7 @@
 #   TROPO_SMOKE_CA_BUNDLE    CA bundle passed to npm ci as the build secret npm_ca
 #                            default $NODE_EXTRA_CA_CERTS, else /etc/ssl/certs/ca-certificates.crt when present
 #   TROPO_SMOKE_NPM_REGISTRY build argument NPM_REGISTRY                      default `npm config get registry`
+#   TROPO_SMOKE_BUILD_TIMEOUT_S longest image build [s]                     default 420
 #   TROPO_SMOKE_PG_ADMIN_URL PostgreSQL for the pair (a database is created and dropped there)
 #                            default postgres://postgres@127.0.0.1:5432/postgres
 set -euo pipefail
@@ -39,7 +40,7 @@ HERE="$ROOT/scripts/container-smoke"
 SCRATCH="${TROPO_SMOKE_DIR:-/var/tmp/tropodelay-container-smoke}"
 NODE_MAJOR="${TROPO_SMOKE_NODE_MAJOR:-22}"
 STOP_TIMEOUT_S=20
-BUILD_TIMEOUT_S=420
+BUILD_TIMEOUT_S="${TROPO_SMOKE_BUILD_TIMEOUT_S:-420}"
 
 RUN_ID="$(date +%s)-$$"
 BASE_RUN="localhost/tropodelay-smoke-base:run-$RUN_ID"
