@@ -238,15 +238,34 @@ SMOKE_KEY="$(node -e 'process.stdout.write(require("node:crypto").randomBytes(24
 printf '%s\n' "$SMOKE_KEY" > "$SECRETS/api_keys"
 chmod 0444 "$SECRETS"/*
 PORTS=()
-for i in 0 1; do
-  PORTS+=("$(node -e "const s = require('node:net').createServer().listen(0, '127.0.0.1', () => { console.log(s.address().port); s.close(); })")")
-  without_systemd_noise podman run --detach --pull=never --name "${REPLICAS[$i]}" --label "$LABEL" --read-only --network host \
-    --health-interval disable --tmpfs /tmp -v "$SECRETS:/run/secrets:ro" \
-    -e TROPODELAY_HOST=127.0.0.1 -e "TROPODELAY_PORT=${PORTS[$i]}" \
-    -e "TROPODELAY_DATABASE_URL=$PAIR_URL" -e TROPODELAY_DATABASE_PASSWORD_FILE=/run/secrets/db_password \
-    -e TROPODELAY_API_KEYS_FILE=/run/secrets/api_keys -e TROPODELAY_READ_KEYS_REQUIRED=true \
-    "$IMAGE" > /dev/null || fail "podman run of replica $((i + 1)) failed"
-done
+# start_replica I: runs replica I on a free loopback port and waits for GET /v1/health. On a busy machine
+# another process can take the port between the probe and the listen (EADDRINUSE): then a new port is tried.
+start_replica() {
+  local i="$1" attempt port
+  for attempt in 1 2 3; do
+    port="$(node -e "const s = require('node:net').createServer().listen(0, '127.0.0.1', () => { console.log(s.address().port); s.close(); })")"
+    podman rm --force "${REPLICAS[$i]}" > /dev/null 2>&1 || true
+    without_systemd_noise podman run --detach --pull=never --name "${REPLICAS[$i]}" --label "$LABEL" --read-only --network host \
+      --health-interval disable --tmpfs /tmp -v "$SECRETS:/run/secrets:ro" \
+      -e TROPODELAY_HOST=127.0.0.1 -e "TROPODELAY_PORT=$port" \
+      -e "TROPODELAY_DATABASE_URL=$PAIR_URL" -e TROPODELAY_DATABASE_PASSWORD_FILE=/run/secrets/db_password \
+      -e TROPODELAY_API_KEYS_FILE=/run/secrets/api_keys -e TROPODELAY_READ_KEYS_REQUIRED=true \
+      "$IMAGE" > /dev/null || fail "podman run of replica $((i + 1)) failed"
+    if node "$HERE/http-checks.mjs" wait "http://127.0.0.1:$port" 60 2>&1 | sed 's/^/    /'; then
+      PORTS[$i]="$port"
+      return 0
+    fi
+    if podman logs "${REPLICAS[$i]}" 2>&1 | grep -q EADDRINUSE; then
+      log "    port $port was taken by another process meanwhile (EADDRINUSE); trying another"
+      continue
+    fi
+    podman logs "${REPLICAS[$i]}" 2>&1 | tail -n 20 | sed 's/^/    | /'
+    fail "replica $((i + 1)) did not start"
+  done
+  fail "replica $((i + 1)) found no free port in 3 attempts"
+}
+start_replica 0
+start_replica 1
 log "replicas on 127.0.0.1:${PORTS[0]} and 127.0.0.1:${PORTS[1]}, database $PAIR_DB"
 show_pair_logs() { for r in "${REPLICAS[@]}"; do log "log of $r:"; podman logs "$r" 2>&1 | tail -n 20 | sed 's/^/    | /'; done; }
 SMOKE_KEY="$SMOKE_KEY" node "$HERE/http-checks.mjs" pair "http://127.0.0.1:${PORTS[0]}" "http://127.0.0.1:${PORTS[1]}" 2>&1 | sed 's/^/    /' \
