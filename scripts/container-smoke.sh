@@ -8,8 +8,15 @@
 #      read-only, as docker/compose.yaml runs it),
 #   4. reports healthy through the image's HEALTHCHECK (`podman healthcheck run`),
 #   5. runs as a non-root user,
-#   6. exits with code 0 on `podman stop` (SIGTERM), before the stop timeout.
-# Any failed check exits non-zero. The container and all images are removed afterwards.
+#   6. exits with code 0 on `podman stop` (SIGTERM), before the stop timeout,
+#   7. runs the compose-equivalent pair from the same image: two replicas (`--network host`, two ports) on a
+#      fresh database of the host's PostgreSQL (127.0.0.1:5432), password and keys given as files
+#      (TROPODELAY_DATABASE_PASSWORD_FILE, TROPODELAY_API_KEYS_FILE as docker/compose.yaml mounts them):
+#      both become ready and healthy, a station written through one is read through the other with the
+#      same key (and the other way round), and both stop with code 0.
+# The build runs without a `# syntax=` line (checked first) and with NPM_REGISTRY set to the registry npm
+# uses on this machine (`npm config get registry`), as an agency builds against its internal mirror.
+# Any failed check exits non-zero. The containers, the database and all images are removed afterwards.
 #
 # No image registry is reachable here, so the base images are assembled from the host
 # (scripts/container-smoke/make-base-images.sh). podman and runc are installed from Debian's packages when
@@ -22,6 +29,10 @@
 #   TROPO_SMOKE_KEEP=1       keep the image and the stopped container for debugging
 #   TROPO_SMOKE_CA_BUNDLE    CA bundle passed to npm ci as the build secret npm_ca
 #                            default $NODE_EXTRA_CA_CERTS, else /etc/ssl/certs/ca-certificates.crt when present
+#   TROPO_SMOKE_NPM_REGISTRY build argument NPM_REGISTRY                      default `npm config get registry`
+#   TROPO_SMOKE_BUILD_TIMEOUT_S longest image build [s]                     default 420
+#   TROPO_SMOKE_PG_ADMIN_URL PostgreSQL for the pair (a database is created and dropped there)
+#                            default postgres://postgres@127.0.0.1:5432/postgres
 set -euo pipefail
 
 ROOT="$(cd "$(dirname "$0")/.." && pwd)"
@@ -29,13 +40,17 @@ HERE="$ROOT/scripts/container-smoke"
 SCRATCH="${TROPO_SMOKE_DIR:-/var/tmp/tropodelay-container-smoke}"
 NODE_MAJOR="${TROPO_SMOKE_NODE_MAJOR:-22}"
 STOP_TIMEOUT_S=20
-BUILD_TIMEOUT_S=420
+BUILD_TIMEOUT_S="${TROPO_SMOKE_BUILD_TIMEOUT_S:-420}"
 
 RUN_ID="$(date +%s)-$$"
 BASE_RUN="localhost/tropodelay-smoke-base:run-$RUN_ID"
 BASE_BUILD="localhost/tropodelay-smoke-base:build-$RUN_ID"
 IMAGE="localhost/tropodelay:smoke-$RUN_ID"
 CONTAINER="tropodelay-smoke-$RUN_ID"
+REPLICAS=("tropodelay-smoke-$RUN_ID-r1" "tropodelay-smoke-$RUN_ID-r2")
+PG_ADMIN_URL="${TROPO_SMOKE_PG_ADMIN_URL:-postgres://postgres@127.0.0.1:5432/postgres}"
+PAIR_DB="tropodelay_smoke_${RUN_ID//-/_}"
+PAIR_DB_CREATED=0
 LABEL="tropodelay.container-smoke=1"
 
 STARTED_S=$SECONDS
@@ -107,7 +122,8 @@ cleanup() {
   if [ "${TROPO_SMOKE_KEEP:-0}" = "1" ]; then
     log "TROPO_SMOKE_KEEP=1: kept container $CONTAINER and image $IMAGE (CONTAINERS_CONF=$CONTAINERS_CONF CONTAINERS_STORAGE_CONF=$CONTAINERS_STORAGE_CONF)"
   else
-    podman rm --force --volumes "$CONTAINER" > /dev/null 2>&1 || true
+    podman rm --force --volumes "$CONTAINER" "${REPLICAS[@]}" > /dev/null 2>&1 || true
+    if [ "$PAIR_DB_CREATED" = "1" ]; then psql "$PG_ADMIN_URL" -qAtc "DROP DATABASE IF EXISTS \"$PAIR_DB\"" > /dev/null 2>&1 || true; fi
     rm -f "$SCRATCH/stderr-$RUN_ID"
     podman rmi --force "$IMAGE" "$BASE_BUILD" "$BASE_RUN" > /dev/null 2>&1 || true
     podman image prune --force > /dev/null 2>&1 || true
@@ -137,6 +153,10 @@ phase_done
 
 # ---- 4. image build ---------------------------------------------------------------------------------------------------
 phase "build docker/Dockerfile -> $IMAGE"
+# An air-gapped builder cannot fetch a Dockerfile frontend image: the file must use the builder's own.
+! grep -qiE '^#[[:space:]]*syntax[[:space:]]*=' "$ROOT/docker/Dockerfile" || fail "docker/Dockerfile has a '# syntax=' line"
+NPM_REGISTRY="${TROPO_SMOKE_NPM_REGISTRY:-$(npm config get registry)}"
+log "no '# syntax=' line; NPM_REGISTRY=$NPM_REGISTRY"
 CA_BUNDLE="${TROPO_SMOKE_CA_BUNDLE:-${NODE_EXTRA_CA_CERTS:-/etc/ssl/certs/ca-certificates.crt}}"
 SECRET_ARGS=()
 if [ -s "$CA_BUNDLE" ]; then
@@ -146,7 +166,7 @@ fi
 # --format docker: the OCI image format has no HEALTHCHECK. --layers=false: no intermediate images to clean.
 if ! timeout "$BUILD_TIMEOUT_S" podman build --pull=never --format docker --layers=false --jobs 2 \
   --network host \
-  --build-arg "BASE_IMAGE=$BASE_RUN" --build-arg "BUILD_BASE_IMAGE=$BASE_BUILD" \
+  --build-arg "BASE_IMAGE=$BASE_RUN" --build-arg "BUILD_BASE_IMAGE=$BASE_BUILD" --build-arg "NPM_REGISTRY=$NPM_REGISTRY" \
   "${SECRET_ARGS[@]}" --label "$LABEL" \
   --file "$ROOT/docker/Dockerfile" --tag "$IMAGE" "$ROOT" 2>&1 | sed 's/^/    | /'; then
   fail "podman build failed (or took more than $BUILD_TIMEOUT_S s)"
@@ -201,4 +221,63 @@ fi
 log "    exited with code 0 in $stop_ms ms"
 container_log="$(podman logs "$CONTAINER" 2>&1)"
 case "$container_log" in *'"shutting down"'*) log "    the service logged its shutdown" ;; esac
+phase_done
+
+# ---- 7. compose-equivalent pair: two replicas on one PostgreSQL ----------------------------------------------------------
+phase "two replicas on one PostgreSQL database (compose-equivalent, --network host)"
+command -v psql > /dev/null || fail "psql is missing (the pair uses the host's PostgreSQL on 127.0.0.1:5432)"
+psql "$PG_ADMIN_URL" -qAtc "CREATE DATABASE \"$PAIR_DB\"" > /dev/null || fail "could not create database $PAIR_DB via $PG_ADMIN_URL"
+PAIR_DB_CREATED=1
+PAIR_URL="$(node -e 'const u = new URL(process.argv[1]); u.pathname = "/" + process.argv[2]; u.password = ""; console.log(u.toString())' "$PG_ADMIN_URL" "$PAIR_DB")"
+SECRETS="$SCRATCH/work-$RUN_ID/secrets"
+mkdir -p "$SECRETS"
+# As docker/compose.yaml: secrets are files under /run/secrets (the host's test cluster trusts loopback, so the
+# password is not checked there, but it goes the way an agency's would).
+node -e 'process.stdout.write(require("node:crypto").randomBytes(24).toString("hex") + "\n")' > "$SECRETS/db_password"
+SMOKE_KEY="$(node -e 'process.stdout.write(require("node:crypto").randomBytes(24).toString("hex"))')"
+printf '%s\n' "$SMOKE_KEY" > "$SECRETS/api_keys"
+chmod 0444 "$SECRETS"/*
+PORTS=()
+# start_replica I: runs replica I on a free loopback port and waits for GET /v1/health. On a busy machine
+# another process can take the port between the probe and the listen (EADDRINUSE): then a new port is tried.
+start_replica() {
+  local i="$1" attempt port
+  for attempt in 1 2 3; do
+    port="$(node -e "const s = require('node:net').createServer().listen(0, '127.0.0.1', () => { console.log(s.address().port); s.close(); })")"
+    podman rm --force "${REPLICAS[$i]}" > /dev/null 2>&1 || true
+    without_systemd_noise podman run --detach --pull=never --name "${REPLICAS[$i]}" --label "$LABEL" --read-only --network host \
+      --health-interval disable --tmpfs /tmp -v "$SECRETS:/run/secrets:ro" \
+      -e TROPODELAY_HOST=127.0.0.1 -e "TROPODELAY_PORT=$port" \
+      -e "TROPODELAY_DATABASE_URL=$PAIR_URL" -e TROPODELAY_DATABASE_PASSWORD_FILE=/run/secrets/db_password \
+      -e TROPODELAY_API_KEYS_FILE=/run/secrets/api_keys -e TROPODELAY_READ_KEYS_REQUIRED=true \
+      "$IMAGE" > /dev/null || fail "podman run of replica $((i + 1)) failed"
+    if node "$HERE/http-checks.mjs" wait "http://127.0.0.1:$port" 60 2>&1 | sed 's/^/    /'; then
+      PORTS[$i]="$port"
+      return 0
+    fi
+    if podman logs "${REPLICAS[$i]}" 2>&1 | grep -q EADDRINUSE; then
+      log "    port $port was taken by another process meanwhile (EADDRINUSE); trying another"
+      continue
+    fi
+    podman logs "${REPLICAS[$i]}" 2>&1 | tail -n 20 | sed 's/^/    | /'
+    fail "replica $((i + 1)) did not start"
+  done
+  fail "replica $((i + 1)) found no free port in 3 attempts"
+}
+start_replica 0
+start_replica 1
+log "replicas on 127.0.0.1:${PORTS[0]} and 127.0.0.1:${PORTS[1]}, database $PAIR_DB"
+show_pair_logs() { for r in "${REPLICAS[@]}"; do log "log of $r:"; podman logs "$r" 2>&1 | tail -n 20 | sed 's/^/    | /'; done; }
+SMOKE_KEY="$SMOKE_KEY" node "$HERE/http-checks.mjs" pair "http://127.0.0.1:${PORTS[0]}" "http://127.0.0.1:${PORTS[1]}" 2>&1 | sed 's/^/    /' \
+  || { show_pair_logs; fail "the pair checks failed"; }
+for r in "${REPLICAS[@]}"; do
+  health="$(podman healthcheck run "$r" 2>&1)" || { show_pair_logs; fail "podman healthcheck run $r -> ${health:-unhealthy}"; }
+  log "    podman healthcheck run $r (GET /v1/ready) -> ${health:-healthy}"
+done
+for r in "${REPLICAS[@]}"; do
+  without_systemd_noise podman stop --time "$STOP_TIMEOUT_S" "$r" > /dev/null || fail "podman stop $r failed"
+  code="$(podman inspect --format '{{.State.ExitCode}}' "$r")"
+  [ "$code" = "0" ] || { show_pair_logs; fail "$r exited with code $code after SIGTERM"; }
+done
+log "    both replicas exited with code 0"
 phase_done

@@ -1,11 +1,18 @@
 /**
  * Configuration from the environment, validated at start with zod. An invalid value stops the
- * start with a message naming the variable. README.md has the table of every variable.
+ * start with a message naming the variable. README.md's table of every variable is generated from
+ * configSchema (`npm run docs:config`).
+ *
+ * Every variable has the prefix TROPODELAY_ (environmentName()). The names of earlier releases (`PORT`,
+ * `DATABASE_URL`, `TROPO_DATA_DIR`, …) still work as deprecated aliases: configWarnings() names the new
+ * one at start, and an alias set beside its new name to a different value stops the start. Secrets
+ * (SECRET_SETTINGS) may also be given as a file, `<NAME>_FILE` (a container secret): its content with
+ * one trailing newline removed.
  */
 
 import { readFileSync } from 'node:fs';
-import { availableParallelism } from 'node:os';
 import { z } from 'zod';
+import { defaultWorkerCount } from './cpu-quota.js';
 
 /** Longest from..to range one read of a station series may ask for [days] (a station-year plus a leap day). */
 export const DEFAULT_MAX_READ_RANGE_DAYS = 366;
@@ -150,38 +157,66 @@ const accessSettings = {
 
 export const configSchema = z.object({
   ...accessSettings,
-  PORT: integer(0, 65535).default(8080).describe('TCP port to listen on'),
-  HOST: z.string().min(1).default('127.0.0.1').describe('Address to bind; 0.0.0.0 in a container'),
+  PORT: integer(0, 65535).default(8080).describe('TCP port (0..65535)'),
+  HOST: z.string().min(1).default('127.0.0.1').describe('address to bind (0.0.0.0 in a container; the image sets it)'),
   LOG_LEVEL: z
     .enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'], {
       error: 'must be one of fatal, error, warn, info, debug, trace, silent',
     })
-    .default('info'),
-  REQUEST_TIMEOUT_MS: integer(1000, 3_600_000).default(120_000).describe('Longest time to receive one whole request from the client'),
+    .default('info')
+    .describe('lowest level logged: fatal, error, warn, info, debug, trace, silent'),
+  TROPODELAY_LOG_FORMAT: z
+    .enum(['iso', 'epoch'], { error: 'must be iso or epoch' })
+    .default('iso')
+    .describe(
+      'log line shape: `iso` = level names ("info") and ISO 8601 UTC times ("time":"2026-…Z"); `epoch` = numeric levels (30) and epoch milliseconds',
+    ),
+  REQUEST_TIMEOUT_MS: integer(1000, 3_600_000).default(120_000).describe('longest time to receive one request [ms], 1000..3 600 000'),
   TRUST_PROXY: trustProxySetting
     .default(false)
-    .describe('Proxies trusted to set X-Forwarded-For: false, a hop count, or addresses/CIDRs (true = 1 hop)'),
-  SHUTDOWN_TIMEOUT_MS: integer(0, 600_000).default(25_000).describe('Longest wait for in-flight requests on SIGTERM'),
-  ESTIMATION_WORKERS: integer(1, 256).default(availableParallelism()).describe('Worker threads for estimation'),
-  ESTIMATION_QUEUE_LIMIT: integer(0, 10_000).default(32).describe('Estimations waiting for a worker before 503'),
-  RATE_LIMIT_PER_MINUTE: integer(0, 10_000_000).default(0).describe('Requests per minute per key or address; 0 = off'),
-  CORS_ORIGINS: z.string().default('').describe('Comma-separated allowed origins, or * ; empty = CORS off'),
-  SECURITY_HEADERS: booleanFlag.default(false).describe('Send the usual security headers (helmet)'),
+    .describe(
+      'proxies trusted to set `X-Forwarded-For` (the rate limit keys on the client address it gives): `false` = none; addresses/CIDRs of the load balancers, comma-separated (preferred); or a hop count 1..16 (only where clients cannot bypass the proxy). `true` = 1 hop, warned at start. See [docs/operations.md](docs/operations.md#cors-security-headers-rate-limit)',
+    ),
+  SHUTDOWN_TIMEOUT_MS: integer(0, 600_000)
+    .default(25_000)
+    .describe('longest wait for in-flight requests after SIGTERM/SIGINT before exiting 1 [ms], 0..600 000'),
+  ESTIMATION_WORKERS: integer(1, 256)
+    .default(defaultWorkerCount())
+    .describe(
+      'worker threads for estimations, 1..256; by default the CPU quota of the container (cgroup v2 `cpu.max`, v1 `cpu.cfs_quota_us`) rounded up, else the number of cores',
+    ),
+  ESTIMATION_QUEUE_LIMIT: integer(0, 10_000)
+    .default(32)
+    .describe('estimations that may wait for a worker before new ones get 503 + Retry-After, 0..10 000'),
+  RATE_LIMIT_PER_MINUTE: integer(0, 10_000_000)
+    .default(0)
+    .describe('requests per minute per API key or client address; health, ready and metrics exempt'),
+  CORS_ORIGINS: z.string().default('').describe('comma-separated allowed origins, or `*`'),
+  SECURITY_HEADERS: booleanFlag
+    .default(false)
+    .describe('`true`: send the usual security headers (helmet, without a Content-Security-Policy)'),
   TROPO_DATA_DIR: z
     .string()
     .min(1, { error: 'must be a directory path' })
     .default('./data')
-    .describe('Directory of the SQLite database and of the generated API key file'),
+    .describe('directory of the SQLite archive (`tropodelay.sqlite`) and of the generated key file `api-key`; created on start'),
   DATABASE_URL: z
     .string()
     .regex(/^postgres(ql)?:\/\//, { error: 'must be a postgres:// or postgresql:// connection URL' })
     .optional()
-    .describe('PostgreSQL connection URL; when set, the archive is stored there instead of SQLite'),
+    .describe(
+      '`postgres://` or `postgresql://` URL; when set, the archive lives in PostgreSQL (the key file still goes to `TROPODELAY_DATA_DIR`). Keep the password out of it: `TROPODELAY_DATABASE_PASSWORD`',
+    ),
+  TROPODELAY_DATABASE_PASSWORD: z
+    .string()
+    .min(1, { error: 'must not be empty' })
+    .optional()
+    .describe('PostgreSQL password, passed to the driver apart from the URL (it overrides one inside the URL)'),
   TROPO_PG_SCHEMA: z
     .string()
     .regex(/^[a-z_][a-z0-9_]{0,62}$/, { error: 'must be a lower-case SQL identifier (a-z, 0-9, _; at most 63 characters)' })
     .default('public')
-    .describe('PostgreSQL schema that holds the archive tables'),
+    .describe('PostgreSQL schema of the archive tables (created if missing)'),
   TROPO_API_KEYS: z
     .string()
     .default('')
@@ -193,26 +228,31 @@ export const configSchema = z.object({
     )
     .refine((keys) => keys.every((k) => k.length >= 16), { error: 'every key must have at least 16 characters' })
     .describe('Deprecated: comma-separated bearer keys, each of role write, named key-1, key-2 ... (use TROPODELAY_API_KEYS)'),
-  TROPO_READ_KEYS_REQUIRED: booleanFlag.default(false).describe('Whether reads of /v1/stations need a key too'),
+  TROPO_READ_KEYS_REQUIRED: booleanFlag.default(false).describe('`true`: reads of `/v1/stations...` need a key too'),
   DB_CONNECT_TIMEOUT_MS: integer(100, 600_000)
     .default(5_000)
-    .describe('Longest wait for a PostgreSQL connection (a new one or one from the pool) before 503 [ms]'),
+    .describe('longest wait for a PostgreSQL connection, new or from the pool, before a 503 [ms], 100..600 000'),
   DB_STATEMENT_TIMEOUT_MS: integer(100, 3_600_000)
     .default(30_000)
-    .describe('Longest run of one SQL statement (server side) and wait for its answer (client side, + 1 s) before 503 [ms]'),
-  READY_CHECK_TIMEOUT_MS: integer(100, 60_000).default(2_000).describe('Deadline of each readiness check of GET /v1/ready [ms]'),
+    .describe(
+      'PostgreSQL `statement_timeout` [ms], 100..3 600 000; the client gives up 1 s later (a blackholed database), then 503. SQLite waits for a lock at most the smaller of it and 5 s',
+    ),
+  READY_CHECK_TIMEOUT_MS: integer(100, 60_000).default(2_000).describe('deadline of each check of `GET /v1/ready` [ms], 100..60 000'),
   TROPO_MIN_FREE_DISK_MB: integer(0, 10_000_000)
     .default(64)
-    .describe('Free space below which the data directory counts as full for GET /v1/ready [MiB]; 0 = no check'),
+    .describe(
+      'free space of `TROPODELAY_DATA_DIR` below which `GET /v1/ready` answers 503 [MiB]; 0 = no floor (the write probe still runs)',
+    ),
   TROPO_MAX_READ_RANGE_DAYS: z.coerce
     .number({ error: 'must be a number of days in (0, 36600]' })
     .positive({ error: 'must be a number of days in (0, 36600]' })
     .max(36600, { error: 'must be a number of days in (0, 36600]' })
     .default(DEFAULT_MAX_READ_RANGE_DAYS)
-    .describe('Longest from..to range of one read of a station series [days]'),
+    .describe('longest `from..to` of one read of a station series [days], (0, 36 600]'),
 });
 
 export type Config = z.infer<typeof configSchema>;
+type SettingName = keyof typeof configSchema.shape;
 
 export class ConfigError extends Error {}
 
@@ -221,40 +261,167 @@ export function defaultConfig(overrides: Partial<Config> = {}): Config {
   return { ...configSchema.parse({}), ...overrides };
 }
 
-/** Variables whose values never appear in an error message. */
-const SECRET_VARIABLES = new Set(['TROPO_API_KEYS', 'TROPODELAY_API_KEYS', 'DATABASE_URL']);
+/** Settings that are secrets: their values never appear in a message, and `<NAME>_FILE` may give them. */
+const SECRET_SETTINGS = new Set<string>(['TROPO_API_KEYS', 'TROPODELAY_API_KEYS', 'DATABASE_URL', 'TROPODELAY_DATABASE_PASSWORD']);
+
+const PREFIX = 'TROPODELAY_';
+
+/**
+ * The environment variable of a setting: the setting itself when it already has the prefix, else
+ * TROPODELAY_ + its name without an old `TROPO_` prefix (`PORT` → `TROPODELAY_PORT`, `TROPO_DATA_DIR` →
+ * `TROPODELAY_DATA_DIR`). A setting whose derived name is another setting's keeps its own name.
+ */
+export function environmentName(setting: string): string {
+  if (setting.startsWith(PREFIX)) return setting;
+  const derived = PREFIX + setting.replace(/^TROPO_/, '');
+  return derived in configSchema.shape ? setting : derived;
+}
+
+/** The deprecated name of a setting (its name in earlier releases), if it has one. */
+export function deprecatedName(setting: string): string | undefined {
+  return environmentName(setting) === setting ? undefined : setting;
+}
+
+/** Whether `<NAME>_FILE` gives a setting (a secret whose _FILE form is not a setting of its own). */
+function hasFileForm(setting: string): boolean {
+  const name = environmentName(setting);
+  return SECRET_SETTINGS.has(setting) && name.startsWith(PREFIX) && !(`${name}_FILE` in configSchema.shape);
+}
+
+/** A file's content with one trailing newline (LF or CRLF) removed, as container secrets are written. */
+export function secretFromFile(text: string): string {
+  return text.replace(/\r?\n$/, '');
+}
+
+export type ReadSecretFile = (path: string) => string;
+
+interface ResolvedEnvironment {
+  /** Raw values by setting name, for configSchema. */
+  values: Record<string, string>;
+  /** The variable each value came from (for messages). */
+  from: Record<string, string>;
+  problems: string[];
+  warnings: string[];
+}
+
+/** Finds each setting's raw value under its name, its `_FILE` form or its deprecated name. */
+function resolveEnvironment(env: NodeJS.ProcessEnv, readFile: ReadSecretFile): ResolvedEnvironment {
+  const out: ResolvedEnvironment = { values: {}, from: {}, problems: [], warnings: [] };
+  const given = (name: string) => (env[name] !== undefined && env[name] !== '' ? env[name] : undefined);
+  for (const setting of Object.keys(configSchema.shape)) {
+    const name = environmentName(setting);
+    const old = deprecatedName(setting);
+    const secret = SECRET_SETTINGS.has(setting);
+    let value = given(name);
+    let from = name;
+    const fileName = `${name}_FILE`;
+    const filePath = hasFileForm(setting) ? given(fileName) : undefined;
+    if (filePath !== undefined) {
+      if (value !== undefined) {
+        out.problems.push(`${name} and ${fileName} are both set: set one of them`);
+        continue;
+      }
+      try {
+        value = secretFromFile(readFile(filePath));
+        from = fileName;
+      } catch (err) {
+        const code = (err as NodeJS.ErrnoException).code ?? 'unreadable';
+        out.problems.push(`${fileName}=${JSON.stringify(filePath)}: cannot read the file (${code})`);
+        continue;
+      }
+    }
+    const oldValue = old !== undefined ? given(old) : undefined;
+    if (old !== undefined && oldValue !== undefined) {
+      if (value !== undefined && value !== oldValue) {
+        const shown = secret ? '' : ` (${JSON.stringify(oldValue)} and ${JSON.stringify(value)})`;
+        out.problems.push(`${old} (deprecated) and ${from} are both set to different values${shown}: keep ${name} only`);
+        continue;
+      }
+      out.warnings.push(`${old} is deprecated: rename it to ${name}`);
+      if (value === undefined) {
+        value = oldValue;
+        from = old;
+      }
+    }
+    if (value !== undefined) {
+      out.values[setting] = value;
+      out.from[setting] = from;
+    }
+  }
+  return out;
+}
 
 /** Settings that work but deserve a line in the start-up log (server.ts logs them). */
 export function configWarnings(env: NodeJS.ProcessEnv = process.env): string[] {
-  const warnings: string[] = [];
-  if (env.TROPO_API_KEYS?.trim()) {
+  const resolved = resolveEnvironment(env, () => '');
+  const warnings = [...resolved.warnings];
+  if (resolved.values['TROPO_API_KEYS']?.trim()) {
     warnings.push(
       'TROPO_API_KEYS is deprecated: its keys have role write and are named key-1, key-2, ...; give keys as TROPODELAY_API_KEYS=name:role:secret,... or TROPODELAY_API_KEYS_FILE',
     );
   }
-  const trust = env.TRUST_PROXY?.trim().toLowerCase();
+  const trust = resolved.values['TRUST_PROXY']?.trim().toLowerCase();
   if (trust === 'true' || trust === 'yes') {
     warnings.push(
-      'TRUST_PROXY=true is taken as 1 trusted hop (the load balancer in front): set the hop count or the proxy addresses/CIDRs explicitly',
+      `${resolved.from['TRUST_PROXY']}=true is taken as 1 trusted hop (the load balancer in front): set the hop count or the proxy addresses/CIDRs explicitly`,
     );
   }
   return warnings;
 }
 
-export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
-  const relevant = Object.fromEntries(
-    Object.keys(configSchema.shape)
-      .filter((k) => env[k] !== undefined && env[k] !== '')
-      .map((k) => [k, env[k]]),
-  );
-  const parsed = configSchema.safeParse(relevant);
+export function loadConfig(env: NodeJS.ProcessEnv = process.env, readFile: ReadSecretFile = (p) => readFileSync(p, 'utf8')): Config {
+  const resolved = resolveEnvironment(env, readFile);
+  if (resolved.problems.length > 0) throw new ConfigError(`invalid configuration: ${resolved.problems.join('; ')}`);
+  const parsed = configSchema.safeParse(resolved.values);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => {
-      const name = String(i.path[0]);
-      const shown = SECRET_VARIABLES.has(name) ? '(value hidden)' : JSON.stringify(env[name]);
+      const setting = String(i.path[0]);
+      const name = resolved.from[setting] ?? environmentName(setting);
+      const shown = SECRET_SETTINGS.has(setting) ? '(value hidden)' : JSON.stringify(resolved.values[setting]);
       return `${name}=${shown}: ${i.message}`;
     });
     throw new ConfigError(`invalid configuration: ${lines.join('; ')}`);
   }
   return parsed.data;
+}
+
+/** Defaults shown in the README table where the schema's default is not the whole story. */
+const SHOWN_DEFAULTS: Partial<Record<SettingName, string>> = {
+  ESTIMATION_WORKERS: 'the container CPU quota rounded up, else the number of cores',
+  DATABASE_URL: '(unset: SQLite)',
+  TROPODELAY_DATABASE_PASSWORD: '(unset)',
+  TROPO_API_KEYS: '(unset: the generated key file)',
+  CORS_ORIGINS: '(empty: CORS off)',
+  RATE_LIMIT_PER_MINUTE: '0 (off)',
+};
+
+/**
+ * The README's table of variables (`npm run docs:config`; test/ops/config.test.ts checks the README
+ * holds it): new name, deprecated name, `_FILE` form, default and meaning, all from configSchema.
+ */
+export function configurationTable(): string {
+  const defaults = configSchema.parse({}) as Record<string, unknown>;
+  const rows = Object.entries(configSchema.shape).map(([setting, schema]) => {
+    const name = environmentName(setting);
+    const names = [`\`${name}\``];
+    if (hasFileForm(setting)) names.push(`\`${name}_FILE\``);
+    const old = deprecatedName(setting);
+    const value = defaults[setting];
+    const shown =
+      SHOWN_DEFAULTS[setting as SettingName] ??
+      (value === undefined ? '(unset)' : typeof value === 'object' ? JSON.stringify(value) : String(value as string | number | boolean));
+    const meaning = (schema.description ?? '').replace(/\|/g, '\\|');
+    return `| ${names.join(' or ')} | ${old ? `\`${old}\`` : ''} | ${shown} | ${meaning} |`;
+  });
+  return ['| variable | deprecated name | default | meaning |', '|---|---|---|---|', ...rows].join('\n');
+}
+
+/** Replaces the table between the README's config-table markers. */
+export function withConfigurationTable(readme: string): string {
+  const start = '<!-- config-table:start -->';
+  const end = '<!-- config-table:end -->';
+  const i = readme.indexOf(start);
+  const j = readme.indexOf(end);
+  if (i < 0 || j < i) throw new Error(`README.md lacks the markers ${start} … ${end}`);
+  return `${readme.slice(0, i + start.length)}\n${configurationTable()}\n${readme.slice(j)}`;
 }

@@ -9,6 +9,7 @@
 
 import { ConfigError, configWarnings, loadConfig, type Config } from './config.js';
 import { archiveOptionsFromConfig, buildApp, type ArchiveOptions } from './http/app.js';
+import { loggerOptions } from './http/logger-options.js';
 
 async function main(): Promise<void> {
   let config: Config;
@@ -23,13 +24,13 @@ async function main(): Promise<void> {
     }
     throw err;
   }
-  // Keys never reach the log: the Authorization header is redacted wherever a request is logged.
   const app = await buildApp({
     config,
-    logger: { level: config.LOG_LEVEL, redact: ['req.headers.authorization', 'headers.authorization'] },
+    logger: loggerOptions(config),
     archive,
   });
   for (const warning of configWarnings()) app.log.warn(warning);
+  app.log.info({ estimationWorkers: config.ESTIMATION_WORKERS, logFormat: config.TROPODELAY_LOG_FORMAT }, 'configuration read');
 
   let closing = false;
   const shutdown = async (signal: string) => {

@@ -5,6 +5,9 @@
  *   node http-checks.mjs wait BASE_URL SECONDS   polls GET /v1/health until 200 {"status":"ok"}
  *   node http-checks.mjs compute BASE_URL        POST /v1/zenith-delays: checks the numbers and a 400 problem;
  *                                                POST /v1/zwd-estimates (worker pool) and GET /v1/ready
+ *   node http-checks.mjs pair BASE_URL OTHER_URL  two replicas on one database, key in SMOKE_KEY (reads need it):
+ *                                                both ready; a station written through one is read through the
+ *                                                other with the same key, and the other way round; no key -> 401
  *
  * Prints one line per check; exits 1 with the reason when one fails.
  */
@@ -129,7 +132,51 @@ async function estimate() {
   console.log(`GET /v1/ready -> 200 ${JSON.stringify(readyBody)}`);
 }
 
+/** Two replicas sharing one database and one key set (docker/compose.yaml). */
+async function pair(otherUrl) {
+  const key = process.env.SMOKE_KEY;
+  if (!key || !/^http:\/\/127\.0\.0\.1:\d+$/.test(otherUrl ?? '')) fail('usage: SMOKE_KEY=… http-checks.mjs pair URL OTHER_URL');
+  const auth = { authorization: `Bearer ${key}` };
+  for (const url of [baseUrl, otherUrl]) {
+    const started = Date.now();
+    let last = '';
+    for (;;) {
+      const r = await fetch(`${url}/v1/ready`, { signal: AbortSignal.timeout(5000) }).catch((err) => ({
+        status: 0,
+        json: async () => String(err),
+      }));
+      const body = await r.json();
+      if (r.status === 200 && body.status === 'ready') break;
+      last = `${r.status} ${JSON.stringify(body)}`;
+      if (Date.now() - started > 30_000) fail(`GET ${url}/v1/ready did not become ready in 30 s (last: ${last})`);
+      await new Promise((resolve) => setTimeout(resolve, 250));
+    }
+    console.log(`GET ${url}/v1/ready -> 200 ready`);
+  }
+  const station = { name: 'Saltmarsh Beacon (invented)', latitude_deg: 53.4, longitude_deg: 7.2, height_m: 12.5 };
+  for (const [writer, reader, id] of [
+    [baseUrl, otherUrl, 'SMOKE1'],
+    [otherUrl, baseUrl, 'SMOKE2'],
+  ]) {
+    const put = await fetch(`${writer}/v1/stations/${id}`, {
+      method: 'PUT',
+      headers: { 'content-type': 'application/json', ...auth },
+      body: JSON.stringify(station),
+      signal: AbortSignal.timeout(5000),
+    });
+    if (put.status !== 201) fail(`PUT ${writer}/v1/stations/${id} -> ${put.status} ${await put.text()}`);
+    const get = await fetch(`${reader}/v1/stations/${id}`, { headers: auth, signal: AbortSignal.timeout(5000) });
+    const body = await get.json();
+    if (get.status !== 200 || body.name !== station.name) fail(`GET ${reader}/v1/stations/${id} -> ${get.status} ${JSON.stringify(body)}`);
+    console.log(`PUT ${writer}/v1/stations/${id} -> 201; GET through ${reader} with the same key -> 200 "${body.name}"`);
+  }
+  const anonymous = await fetch(`${otherUrl}/v1/stations/SMOKE1`, { signal: AbortSignal.timeout(5000) });
+  if (anonymous.status !== 401) fail(`GET without a key -> ${anonymous.status}, want 401 (read keys required)`);
+  console.log('GET without a key -> 401');
+}
+
 if (command === 'wait') await waitHealthy(Number(secondsText ?? '30'));
+else if (command === 'pair') await pair(secondsText);
 else if (command === 'compute') {
   await compute();
   await estimate();

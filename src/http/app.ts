@@ -81,6 +81,7 @@ export function archiveOptionsFromConfig(config: Config): ArchiveOptions {
     storage: {
       dataDir: config.TROPO_DATA_DIR,
       databaseUrl: config.DATABASE_URL,
+      databasePassword: config.TROPODELAY_DATABASE_PASSWORD,
       pgSchema: config.TROPO_PG_SCHEMA,
       connectTimeoutMs: config.DB_CONNECT_TIMEOUT_MS,
       statementTimeoutMs: config.DB_STATEMENT_TIMEOUT_MS,

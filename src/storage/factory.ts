@@ -3,6 +3,7 @@
  * SQLite in TROPO_DATA_DIR. Both are created and migrated before the promise resolves.
  */
 
+import type { Migration } from './migrations.js';
 import type { Repository } from './repository.js';
 import { PostgresRepository } from './postgres/postgres-repository.js';
 import { SqliteRepository } from './sqlite/sqlite-repository.js';
@@ -20,6 +21,10 @@ export interface StorageConfig {
   statementTimeoutMs?: number | undefined;
   /** Free space of dataDir below which readiness fails [bytes] (TROPO_MIN_FREE_DISK_MB); 0 or unset = no floor. */
   minFreeDiskBytes?: number | undefined;
+  /** PostgreSQL password apart from the URL (TROPODELAY_DATABASE_PASSWORD or its _FILE form). */
+  databasePassword?: string | undefined;
+  /** The migrations this release knows (default MIGRATIONS; the rolling-update tests give others). */
+  migrations?: readonly Migration[] | undefined;
 }
 
 export interface RepositoryHooks {
@@ -38,12 +43,15 @@ export async function createRepository(config: StorageConfig, hooks: RepositoryH
       ...(config.connectTimeoutMs !== undefined ? { connectTimeoutMs: config.connectTimeoutMs } : {}),
       ...(config.statementTimeoutMs !== undefined ? { statementTimeoutMs: config.statementTimeoutMs } : {}),
       ...(hooks.onConnectionError ? { onConnectionError: hooks.onConnectionError } : {}),
+      ...(config.databasePassword !== undefined ? { password: config.databasePassword } : {}),
+      ...(config.migrations ? { migrations: config.migrations } : {}),
     });
   }
   return new SqliteRepository({
     dataDir: config.dataDir,
     // A write waits for another process's lock at most this long (then a few retries, then 503).
     busyTimeoutMs: Math.min(config.statementTimeoutMs ?? SQLITE_BUSY_TIMEOUT_MS, SQLITE_BUSY_TIMEOUT_MS),
+    ...(config.migrations ? { migrations: config.migrations } : {}),
   });
 }
 

@@ -9,13 +9,78 @@
  *
  * Time series are keyed by (station_id, epoch_ms, source). The primary key's index serves the
  * "one station, a time range" reads (station_id equality, then an epoch_ms range).
+ *
+ * Rolling updates (DEVELOPERS.md, "Migrations: expand, then contract"; docs/operations.md): during an
+ * update, replicas of the previous release run on a schema the new release has migrated. A migration
+ * that only expands the schema (a new table, a new nullable column, a new index) leaves the previous
+ * release working and says so with `minReaderVersion`; one that contracts it (drops or renames what an
+ * older release reads or writes) keeps the default, and older replicas then report not-ready with the
+ * reason. Each applied migration records its `min_reader_version` in schema_migrations, so a replica
+ * can judge a schema made by a release newer than itself.
  */
 
 export interface Migration {
   version: number;
   name: string;
   sql: string | { sqlite: string; postgres: string };
+  /**
+   * The oldest reader this migration leaves working: a release whose newest known migration is at
+   * least this version may keep serving on the migrated schema. Absent = `version` itself (only
+   * releases that know this migration), the safe default for a contracting change. An expanding
+   * migration (additions only) sets it to the version before it, or lower when it is known to be
+   * compatible further back.
+   */
+  minReaderVersion?: number;
 }
+
+/** Oldest reader a migration leaves working (its declaration, or its own version by default). */
+export function minReaderVersionOf(m: Migration): number {
+  return m.minReaderVersion ?? m.version;
+}
+
+/** A row of schema_migrations as the readiness check reads it. */
+export interface AppliedMigration {
+  version: number;
+  name: string;
+  /** NULL in rows written before the column existed: treated as the version itself (not compatible). */
+  minReaderVersion: number | null;
+}
+
+/**
+ * The schema a release cannot work on: migrations of its own are missing (not migrated yet), or a
+ * newer release applied a migration that does not declare this release compatible. The message is
+ * public (GET /v1/ready shows it): versions and names only, no driver detail.
+ */
+export class SchemaMismatchError extends Error {}
+
+/**
+ * Whether a release that knows `known` (its MIGRATIONS) can serve on a database whose applied
+ * migrations are `applied`: every migration it knows is applied, and every applied migration newer
+ * than its newest declares a `min_reader_version` at or below that newest. Throws a
+ * SchemaMismatchError saying which migration blocks it and what to do; returns otherwise.
+ */
+export function checkSchemaCompatibility(applied: readonly AppliedMigration[], known: readonly Migration[] = MIGRATIONS): void {
+  const readerVersion = known.at(-1)?.version ?? 0;
+  const appliedVersions = new Set(applied.map((a) => a.version));
+  const missing = known.filter((m) => !appliedVersions.has(m.version)).map((m) => m.version);
+  if (missing.length > 0) {
+    throw new SchemaMismatchError(`schema lacks migration ${missing.join(', ')} of this release (not migrated yet)`);
+  }
+  const blocking = applied
+    .filter((a) => a.version > readerVersion && (a.minReaderVersion ?? a.version) > readerVersion)
+    .sort((a, b) => a.version - b.version)[0];
+  if (blocking) {
+    throw new SchemaMismatchError(
+      `schema has migration ${blocking.version} (${blocking.name}) of a newer release, which needs a release knowing migration ` +
+        `${blocking.minReaderVersion ?? blocking.version} or later; this release knows up to ${readerVersion}: ` +
+        'finish the update of every replica, or restore the database from before the update to roll back',
+    );
+  }
+}
+
+/** The bookkeeping table of applied migrations (both dialects). */
+export const SCHEMA_MIGRATIONS_TABLE_SQL =
+  'CREATE TABLE IF NOT EXISTS schema_migrations (version INTEGER PRIMARY KEY, name TEXT NOT NULL, applied_at TEXT NOT NULL, min_reader_version INTEGER)';
 
 export const MIGRATIONS: readonly Migration[] = [
   {
@@ -73,6 +138,7 @@ CREATE INDEX delay_records_fingerprint ON delay_records (model_fingerprint);
   {
     version: 2,
     name: 'soundings: profiles per station with their ZWD, PWV and Tm',
+    minReaderVersion: 1, // expand-only: a new table, which a release of schema 1 never reads
     sql: `
 CREATE TABLE soundings (
   station_id                  TEXT NOT NULL REFERENCES stations (station_id) ON DELETE CASCADE,
@@ -97,6 +163,7 @@ CREATE TABLE soundings (
     // (it does not see deleted_at, so it would still show a soft-deleted station until upgraded).
     version: 3,
     name: 'API keys with roles, audit trail of writes, soft delete of stations',
+    minReaderVersion: 1, // expand-only; a release before it still shows soft-deleted stations until it is upgraded
     sql: {
       sqlite: `
 ALTER TABLE stations ADD COLUMN deleted_at TEXT;

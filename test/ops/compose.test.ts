@@ -9,6 +9,7 @@ import { fileURLToPath } from 'node:url';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { parse } from 'yaml';
+import { configSchema, environmentName } from '../../src/config.js';
 
 const COMPOSE_FILE = fileURLToPath(new URL('../../docker/compose.yaml', import.meta.url));
 const REPO_ROOT = fileURLToPath(new URL('../..', import.meta.url));
@@ -17,6 +18,8 @@ interface Service {
   image?: string;
   build?: { context: string; dockerfile: string; args?: Record<string, string> };
   environment?: Record<string, string>;
+  secrets?: string[];
+  deploy?: { resources?: { limits?: { cpus?: string; memory?: string } } };
   depends_on?: Record<string, { condition: string }>;
   healthcheck?: { test: string[] };
   volumes?: string[];
@@ -28,6 +31,7 @@ interface ComposeFile {
   services: Record<string, Service>;
   volumes?: Record<string, unknown>;
   networks?: Record<string, unknown>;
+  secrets?: Record<string, { file: string }>;
 }
 
 const compose = parse(readFileSync(COMPOSE_FILE, 'utf8'), { merge: true }) as ComposeFile;
@@ -35,17 +39,32 @@ const DATABASE = 'database';
 const REPLICAS = ['tropodelay-1', 'tropodelay-2'] as const;
 
 /**
- * Compose interpolation as the Compose Specification defines it (${VAR}, ${VAR:-default},
- * ${VAR:?error}), with VAR taken from `env`; an unset required variable throws.
+ * Compose interpolation as the Compose Specification ("Interpolation") defines it: `${VAR}` and `$VAR`,
+ * `${VAR:-default}` (unset or empty), `${VAR-default}` (unset), `${VAR:?message}` / `${VAR?message}`
+ * (an error naming VAR), and `$$` for a literal `$`. VAR is taken from `env` only.
  */
 function interpolate(value: string, env: Record<string, string>): string {
-  return value.replace(/\$\{([A-Z0-9_]+)(?:(:-|:\?)([^}]*))?\}/g, (_m, name: string, op?: string, arg?: string) => {
-    const set = env[name];
-    if (set !== undefined && set !== '') return set;
-    if (op === ':-') return arg ?? '';
-    if (op === ':?') throw new Error(`${name}: ${arg}`);
-    return '';
-  });
+  return value.replace(
+    /\$\$|\$\{([A-Za-z_][A-Za-z0-9_]*)(?:(:-|-|:\?|\?)([^}]*))?\}|\$([A-Za-z_][A-Za-z0-9_]*)/g,
+    (match, braced?: string, op?: string, arg?: string, bare?: string) => {
+      if (match === '$$') return '$';
+      const name = (braced ?? bare)!;
+      const set = env[name];
+      const emptyCounts = op === ':-' || op === ':?';
+      if (set !== undefined && !(emptyCounts && set === '')) return set;
+      if (op === ':-' || op === '-') return arg ?? '';
+      if (op === ':?' || op === '?') throw new Error(`required variable ${name} is missing a value: ${arg}`);
+      return '';
+    },
+  );
+}
+
+/** Every string of the parsed file, interpolated (the way compose resolves the whole file before use). */
+function interpolateAll(node: unknown, env: Record<string, string>): unknown {
+  if (typeof node === 'string') return interpolate(node, env);
+  if (Array.isArray(node)) return node.map((n) => interpolateAll(n, env));
+  if (node && typeof node === 'object') return Object.fromEntries(Object.entries(node).map(([k, v]) => [k, interpolateAll(v, env)]));
+  return node;
 }
 
 describe('Compose Specification: services, health-gated start, named volume', () => {
@@ -80,7 +99,7 @@ describe('Compose Specification: services, health-gated start, named volume', ()
       const context = path.resolve(path.dirname(COMPOSE_FILE), build!.context);
       expect(path.relative(REPO_ROOT, context)).toBe('');
       expect(existsSync(path.join(context, build!.dockerfile))).toBe(true);
-      expect(build!.args?.BASE_IMAGE).toBeDefined();
+      expect(build!.args).toHaveProperty('NPM_REGISTRY'); // an internal npm registry for air-gapped builds
     }
   });
 
@@ -90,7 +109,7 @@ describe('Compose Specification: services, health-gated start, named volume', ()
       expect(ports, replica).toHaveLength(1);
       const [ip, hostPort, containerPort] = ports[0]!.split(':');
       expect(ip).toBe('127.0.0.1');
-      expect(containerPort).toBe('8080'); // PORT set by docker/Dockerfile
+      expect(containerPort).toBe('8080'); // TROPODELAY_PORT set by docker/Dockerfile
       return hostPort;
     });
     expect(new Set(hostPorts).size).toBe(REPLICAS.length);
@@ -104,35 +123,129 @@ describe('Compose Specification: services, health-gated start, named volume', ()
   });
 });
 
-describe('PostgreSQL connection URI (PostgreSQL documentation, libpq "Connection URIs"): both replicas share one database', () => {
-  const env = { TROPODELAY_DB_PASSWORD: 'pw-for-the-test' };
-  const database = compose.services[DATABASE]!.environment!;
-
-  it('gives both replicas the same DATABASE_URL', () => {
-    const urls = REPLICAS.map((r) => compose.services[r]?.environment?.DATABASE_URL);
-    expect(urls[0]).toBeDefined();
-    expect(urls[1]).toBe(urls[0]);
+describe('interpolation (Compose Specification, "Interpolation")', () => {
+  /* eslint-disable no-template-curly-in-string -- compose's own ${…} references */
+  it('follows the specification on the operators it uses', () => {
+    expect(interpolate('${A:-x}/${B-y}/${C:-z}/$$HOME/$D', { A: '', C: 'c', D: 'd' })).toBe('x/y/c/$HOME/d');
+    expect(interpolate('${B-y}', { B: '' })).toBe('');
+    expect(() => interpolate('${E:?set E}', { E: '' })).toThrow(/required variable E is missing a value: set E/);
+    expect(interpolate('${E?set E}', { E: '' })).toBe('');
   });
+  /* eslint-enable no-template-curly-in-string */
+});
 
-  it('points DATABASE_URL at the database service with its user, password and database name', () => {
-    const url = new URL(interpolate(compose.services[REPLICAS[0]]!.environment!.DATABASE_URL!, env));
+describe('PostgreSQL connection URI (PostgreSQL documentation, libpq "Connection URIs"): both replicas share one database', () => {
+  const replicaEnv = (r: string) => compose.services[r]!.environment!;
+
+  it('gives both replicas the same TROPODELAY_DATABASE_URL, pointing at the database service, user and database, without a password', () => {
+    const urls = REPLICAS.map((r) => replicaEnv(r).TROPODELAY_DATABASE_URL);
+    expect(urls[1]).toBe(urls[0]);
+    const url = new URL(urls[0]!);
+    const database = compose.services[DATABASE]!.environment!;
     expect(url.protocol).toBe('postgres:');
     expect(url.hostname).toBe(DATABASE); // service name = host name on the compose network
     expect(url.port).toBe('5432'); // PostgreSQL's default port
     expect(url.username).toBe(database.POSTGRES_USER);
     expect(url.pathname).toBe(`/${database.POSTGRES_DB}`);
-    expect(decodeURIComponent(url.password)).toBe(interpolate(database.POSTGRES_PASSWORD!, env));
+    expect(url.password).toBe('');
   });
 
-  it('gives both replicas the same write keys from the environment (a generated key would differ per container)', () => {
-    const keys = REPLICAS.map((r) => compose.services[r]?.environment?.TROPO_API_KEYS);
-    expect(keys[0]).toMatch(/^\$\{TROPODELAY_API_KEYS:\?[^}]+\}$/);
-    expect(keys[1]).toBe(keys[0]);
-    expect(() => interpolate(keys[0]!, {})).toThrow(/TROPODELAY_API_KEYS/);
+  it('gives the password to the database and the replicas as one secret file, never as a variable', () => {
+    const database = compose.services[DATABASE]!;
+    expect(database.environment!.POSTGRES_PASSWORD).toBeUndefined();
+    // POSTGRES_PASSWORD_FILE: the official image reads the password from that file (image documentation, from memory).
+    expect(database.environment!.POSTGRES_PASSWORD_FILE).toBe('/run/secrets/db_password');
+    expect(database.secrets).toContain('db_password');
+    for (const r of REPLICAS) {
+      expect(replicaEnv(r).TROPODELAY_DATABASE_PASSWORD_FILE).toBe('/run/secrets/db_password'); // secrets mount at /run/secrets/<name>
+      expect(compose.services[r]!.secrets).toEqual(expect.arrayContaining(['db_password', 'api_keys']));
+    }
   });
 
-  it('ships no password: it must come from the environment, and compose refuses to start without it', () => {
-    expect(database.POSTGRES_PASSWORD).toMatch(/^\$\{TROPODELAY_DB_PASSWORD:\?[^}]+\}$/);
-    expect(() => interpolate(compose.services[REPLICAS[0]]!.environment!.DATABASE_URL!, {})).toThrow(/TROPODELAY_DB_PASSWORD/);
+  it('gives both replicas the same keys from one secret file (a generated key would differ per container)', () => {
+    expect(REPLICAS.map((r) => replicaEnv(r).TROPODELAY_API_KEYS_FILE)).toEqual(['/run/secrets/api_keys', '/run/secrets/api_keys']);
+  });
+
+  it('sets only variables the service knows (a misspelt name would be ignored silently)', () => {
+    const known = new Set(Object.keys(configSchema.shape).flatMap((k) => [environmentName(k), `${environmentName(k)}_FILE`]));
+    for (const r of REPLICAS) for (const name of Object.keys(replicaEnv(r))) expect(known.has(name), name).toBe(true);
+  });
+});
+
+describe('resource limits and health (issue 15 item 7)', () => {
+  /** Compose byte values: a number with b, k, m or g (Compose Specification, "Values in byte format"). */
+  const bytes = (v: string) => {
+    const m = /^(\d+(?:\.\d+)?)([bkmg])?b?$/i.exec(v)!;
+    return Number(m[1]) * 1024 ** 'bkmg'.indexOf((m[2] ?? 'b').toLowerCase());
+  };
+  const PEAK_ESTIMATION_BYTES = 823e6; // a near-limit estimation peaks at 823 MB (issue 15, measured by the project)
+
+  it('limits CPU and memory of every service, leaving the replicas room for a near-limit estimation', () => {
+    for (const name of [DATABASE, ...REPLICAS]) {
+      const limits = compose.services[name]!.deploy?.resources?.limits;
+      expect(Number(limits?.cpus), name).toBeGreaterThan(0);
+      expect(bytes(limits!.memory!), name).toBeGreaterThan(0);
+    }
+    for (const r of REPLICAS) expect(bytes(compose.services[r]!.deploy!.resources!.limits!.memory!)).toBeGreaterThan(PEAK_ESTIMATION_BYTES);
+  });
+
+  it('checks the replicas with docker/healthcheck.mjs, which asks GET /v1/ready', () => {
+    for (const r of REPLICAS) {
+      const test = compose.services[r]!.healthcheck!.test;
+      expect(test.slice(0, 3)).toEqual(['CMD', 'node', 'docker/healthcheck.mjs']);
+      expect(test).not.toContain('--live');
+    }
+    expect(readFileSync(path.join(REPO_ROOT, 'docker/healthcheck.mjs'), 'utf8')).toContain("'/v1/ready'");
+  });
+});
+
+describe('docs/container.md and docker/compose.yaml together: the documented commands start the stack', () => {
+  const DOCS = readFileSync(path.join(REPO_ROOT, 'docs/container.md'), 'utf8');
+  const shellLines = [...DOCS.matchAll(/```sh\n([\s\S]*?)```/g)]
+    .flatMap((m) => m[1]!.split('\n'))
+    .map((l) => l.replace(/\s+#.*$/, '').trim());
+  /** Exactly what the docs export: `export NAME=value` lines of their shell blocks (quotes removed). */
+  const exported = Object.fromEntries(
+    shellLines.flatMap((l) => {
+      const m = /^export ([A-Za-z_][A-Za-z0-9_]*)=(.*)$/.exec(l);
+      return m ? [[m[1]!, m[2]!.replace(/^(['"])(.*)\1$/, '$2')]] : [];
+    }),
+  ) as Record<string, string>;
+  const raw = parse(readFileSync(COMPOSE_FILE, 'utf8'), { merge: true }) as unknown;
+
+  it('the compose file resolves with exactly the variables the docs export, leaving no reference unresolved', () => {
+    const resolved = JSON.stringify(interpolateAll(raw, exported));
+    expect(resolved).not.toMatch(/\$\{/);
+  });
+
+  it('each variable the compose file requires (a `:?` reference) is exported by the docs', () => {
+    const required = [...readFileSync(COMPOSE_FILE, 'utf8').matchAll(/\$\{([A-Za-z0-9_]+):?\?/g)].map((m) => m[1]!);
+    for (const name of required) expect(Object.keys(exported), name).toContain(name);
+  });
+
+  it('the docs create every secret file the compose file reads, before the command that starts the stack', () => {
+    const up = shellLines.findIndex((l) => /^(docker|podman) compose -f docker\/compose\.yaml up\b/.test(l));
+    expect(up).toBeGreaterThanOrEqual(0);
+    for (const [name, secret] of Object.entries(compose.secrets ?? {})) {
+      const file = path.relative(REPO_ROOT, path.resolve(path.dirname(COMPOSE_FILE), secret.file));
+      const creates = shellLines.findIndex((l) => l.includes(`> ${file}`));
+      expect(creates, `${name}: ${file}`).toBeGreaterThanOrEqual(0);
+      expect(creates, `${name} is created before compose up`).toBeLessThan(up);
+    }
+  });
+
+  it('the docs check the replicas on the ports the compose file publishes', () => {
+    for (const r of REPLICAS) {
+      const hostPort = compose.services[r]!.ports![0]!.split(':')[1];
+      expect(
+        shellLines.some((l) => l.includes(`curl`) && l.includes(`127.0.0.1:${hostPort}/v1/ready`)),
+        r,
+      ).toBe(true);
+    }
+  });
+
+  it('keeps the secret files out of git and out of the build context', () => {
+    expect(readFileSync(path.join(REPO_ROOT, '.gitignore'), 'utf8')).toMatch(/^\/docker\/secrets\/$/m);
+    expect(readFileSync(path.join(REPO_ROOT, '.dockerignore'), 'utf8')).toMatch(/^docker\/secrets$/m);
   });
 });

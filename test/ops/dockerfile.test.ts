@@ -72,6 +72,27 @@ function execForm(args: string): string[] | undefined {
   }
 }
 
+describe('air-gapped builds (issue 15 item 7)', () => {
+  it('has no "# syntax=" parser directive, which makes BuildKit fetch a frontend image (Dockerfile reference, "Parser directives")', () => {
+    const directives = DOCKERFILE.split('\n').filter((l) => /^#\s*syntax\s*=/i.test(l));
+    expect(directives).toEqual([]);
+  });
+
+  it('declares ARG NPM_REGISTRY in every stage that runs npm ci and hands it to npm as npm_config_registry', () => {
+    const npmStages = parsed.stages.filter((s) => s.instructions.some((i) => i.keyword === 'RUN' && /\bnpm ci\b/.test(i.args)));
+    expect(npmStages.length).toBeGreaterThanOrEqual(2);
+    for (const stage of npmStages) {
+      expect(
+        stage.instructions.some((i) => i.keyword === 'ARG' && /^NPM_REGISTRY(=|$)/.test(i.args)),
+        stage.name,
+      ).toBe(true);
+      for (const run of stage.instructions.filter((i) => i.keyword === 'RUN' && /\bnpm ci\b/.test(i.args))) {
+        expect(run.args).toMatch(/npm_config_registry="\$NPM_REGISTRY"/);
+      }
+    }
+  });
+});
+
 describe('Dockerfile reference: multi-stage build, base image argument', () => {
   it('declares BASE_IMAGE before the first FROM, defaulting to a Node 22 image (22 is an LTS line: Node.js release schedule, from memory)', () => {
     const arg = parsed.globalArgs.find((a) => a.keyword === 'ARG' && a.args.startsWith('BASE_IMAGE='));
@@ -133,13 +154,14 @@ describe('Dockerfile reference: non-root user, data volume, environment', () => 
     expect(volume).toBeGreaterThan(chown);
   });
 
-  it('sets HOST=0.0.0.0, PORT=8080 and TROPO_DATA_DIR=/data, and exposes PORT', () => {
+  it('sets TROPODELAY_HOST=0.0.0.0, TROPODELAY_PORT=8080 and TROPODELAY_DATA_DIR=/data (the one prefix), and exposes the port', () => {
     const env = finalOf('ENV')
       .map((e) => e.args)
       .join(' ');
-    expect(env).toMatch(/\bHOST=0\.0\.0\.0\b/);
-    expect(env).toMatch(/\bPORT=8080\b/);
-    expect(env).toMatch(/\bTROPO_DATA_DIR=\/data\b/);
+    expect(env).toMatch(/\bTROPODELAY_HOST=0\.0\.0\.0\b/);
+    expect(env).toMatch(/\bTROPODELAY_PORT=8080\b/);
+    expect(env).toMatch(/\bTROPODELAY_DATA_DIR=\/data\b/);
+    expect(env).not.toMatch(/(^|\s)(HOST|PORT|TROPO_DATA_DIR)=/); // an old name beside the new one would be a conflict
     expect(finalOf('EXPOSE').map((e) => e.args)).toContain('8080');
   });
 });
@@ -153,7 +175,8 @@ describe('Dockerfile reference: HEALTHCHECK', () => {
     expect(argv?.[0]).toBe('node');
     const script = argv![1]!;
     expect(existsSync(path.join(REPO_ROOT, script))).toBe(true);
-    expect(readFileSync(path.join(REPO_ROOT, script), 'utf8')).toContain('/v1/health');
+    expect(readFileSync(path.join(REPO_ROOT, script), 'utf8')).toContain("'/v1/ready'"); // readiness (issue 15 item 7)
+    expect(argv).not.toContain('--live');
     expect(finalOf('COPY').some((c) => c.args.includes(script))).toBe(true);
   });
 });

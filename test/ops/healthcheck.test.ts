@@ -37,14 +37,47 @@ describe('HEALTHCHECK command against the service', () => {
     await app.close();
   });
 
-  it('is healthy when GET /v1/health answers (HOST=0.0.0.0 as in the image is checked on loopback)', async () => {
-    const result = await runCheck({ PORT: portOf(app.server), HOST: '0.0.0.0' });
+  it('is healthy when GET /v1/ready answers 200 ready (TROPODELAY_HOST=0.0.0.0 as in the image is checked on loopback)', async () => {
+    const result = await runCheck({ TROPODELAY_PORT: portOf(app.server), TROPODELAY_HOST: '0.0.0.0' });
     expect(result.stderr).toBe('');
     expect(result.code).toBe(HEALTHY);
   });
 
-  it('uses an explicit HOST when it is not a wildcard', async () => {
+  it('uses an explicit host when it is not a wildcard, and still reads the deprecated PORT / HOST', async () => {
     const result = await runCheck({ PORT: portOf(app.server), HOST: '127.0.0.1' });
+    expect(result.code).toBe(HEALTHY);
+  });
+});
+
+describe('HEALTHCHECK command follows readiness, not liveness (issue 15 item 7)', () => {
+  let app: FastifyInstance;
+  beforeAll(async () => {
+    app = await buildApp();
+    // A database that does not answer: the readiness check fails while the process serves.
+    app.addReadinessCheck('database', async () => {
+      throw new Error('connect ECONNREFUSED 10.0.0.9:5432');
+    });
+    await app.listen({ port: 0, host: '127.0.0.1' });
+  });
+  afterAll(async () => {
+    await app.close();
+  });
+
+  it('is unhealthy when the database check of GET /v1/ready fails', async () => {
+    const result = await runCheck({ TROPODELAY_PORT: portOf(app.server) });
+    expect(result.code).toBe(UNHEALTHY);
+    expect(result.stderr).toMatch(/unhealthy: .*\/v1\/ready answered 503 .*not-ready/);
+  });
+
+  it('--live checks GET /v1/health, which still answers', async () => {
+    const result = await new Promise<{ code: number }>((resolve) => {
+      execFile(
+        process.execPath,
+        [SCRIPT, '--live'],
+        { env: { PATH: process.env.PATH ?? '', TROPODELAY_PORT: portOf(app.server) } },
+        (err) => resolve({ code: err ? Number((err as { code?: number }).code ?? -1) : 0 }),
+      );
+    });
     expect(result.code).toBe(HEALTHY);
   });
 });
@@ -64,7 +97,7 @@ describe('HEALTHCHECK command when the service is not healthy', () => {
   it('is unhealthy, saying why, when the route answers 503', async () => {
     const result = await runCheck({ PORT: portOf(other), HOST: '0.0.0.0' });
     expect(result.code).toBe(UNHEALTHY);
-    expect(result.stderr).toMatch(/unhealthy: .*\/v1\/health answered 503/);
+    expect(result.stderr).toMatch(/unhealthy: .*\/v1\/ready answered 503/);
   });
 
   it('is unhealthy when nothing listens on the port', async () => {

@@ -17,6 +17,7 @@ import type { FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
 import { z } from 'zod';
 import { storageUnavailable } from '../../storage/errors.js';
+import { SchemaMismatchError } from '../../storage/migrations.js';
 import { problemSchema } from '../schemas/common.js';
 
 type Check = () => Promise<void>;
@@ -47,7 +48,9 @@ async function runCheck(check: Check, timeoutMs: number): Promise<{ ok: true } |
     const outcome = await Promise.race([check().then(() => 'ok' as const), deadline]);
     return outcome === 'ok' ? { ok: true } : { ok: false, text: `no answer within ${timeoutMs} ms` };
   } catch (err) {
-    return { ok: false, text: storageUnavailable(err)?.message ?? 'failed (the reason is in the service log)', err };
+    // A schema mismatch names migration versions only, so its reason is shown (docs/operations.md, rolling update).
+    const text = err instanceof SchemaMismatchError ? err.message : storageUnavailable(err)?.message;
+    return { ok: false, text: text ?? 'failed (the reason is in the service log)', err };
   } finally {
     clearTimeout(timer);
   }

@@ -17,7 +17,15 @@
  */
 
 import pg from 'pg';
-import { MIGRATIONS, migrationSql } from '../migrations.js';
+import {
+  MIGRATIONS,
+  SCHEMA_MIGRATIONS_TABLE_SQL,
+  checkSchemaCompatibility,
+  migrationSql,
+  minReaderVersionOf,
+  type AppliedMigration,
+  type Migration,
+} from '../migrations.js';
 import type {
   ConnectionStats,
   PageReadOptions,
@@ -106,6 +114,10 @@ export interface PostgresOptions {
   statementTimeoutMs?: number;
   /** Told about connection errors outside a query (they are handled; this is for the log). */
   onConnectionError?: (err: Error) => void;
+  /** Password, given apart from the URL (TROPODELAY_DATABASE_PASSWORD); overrides one inside the URL. */
+  password?: string;
+  /** The migrations this release knows (default MIGRATIONS; tests give older or newer lists). */
+  migrations?: readonly Migration[];
 }
 
 /** Default timeouts [ms] (README configuration table: DB_CONNECT_TIMEOUT_MS, DB_STATEMENT_TIMEOUT_MS). */
@@ -125,7 +137,7 @@ function quoteIdent(name: string): string {
 }
 
 /** Applies the pending migrations under the advisory lock; returns the versions it applied. */
-export async function migratePostgres(pool: pg.Pool, schema: string): Promise<number[]> {
+export async function migratePostgres(pool: pg.Pool, schema: string, migrations: readonly Migration[] = MIGRATIONS): Promise<number[]> {
   const client = await pool.connect();
   const applied: number[] = [];
   try {
@@ -136,19 +148,20 @@ export async function migratePostgres(pool: pg.Pool, schema: string): Promise<nu
     try {
       await client.query(`CREATE SCHEMA IF NOT EXISTS ${quoteIdent(schema)}`);
       await client.query(`SET search_path TO ${quoteIdent(schema)}`);
-      await client.query(
-        'CREATE TABLE IF NOT EXISTS schema_migrations (version INTEGER PRIMARY KEY, name TEXT NOT NULL, applied_at TEXT NOT NULL)',
-      );
+      await client.query(SCHEMA_MIGRATIONS_TABLE_SQL);
+      // Databases made before rolling updates were supported lack the column (expand: added, never dropped).
+      await client.query('ALTER TABLE schema_migrations ADD COLUMN IF NOT EXISTS min_reader_version INTEGER');
       const done = new Set((await client.query<{ version: number }>('SELECT version FROM schema_migrations')).rows.map((r) => r.version));
-      for (const m of MIGRATIONS) {
+      for (const m of migrations) {
         if (done.has(m.version)) continue;
         await client.query('BEGIN');
         try {
           await client.query(migrationSql(m, 'postgres'));
-          await client.query('INSERT INTO schema_migrations (version, name, applied_at) VALUES ($1, $2, $3)', [
+          await client.query('INSERT INTO schema_migrations (version, name, applied_at, min_reader_version) VALUES ($1, $2, $3, $4)', [
             m.version,
             m.name,
             new Date().toISOString(),
+            minReaderVersionOf(m),
           ]);
           await client.query('COMMIT');
         } catch (err) {
@@ -173,9 +186,12 @@ export class PostgresRepository implements Repository {
   readonly schema: string;
   private readonly pool: pg.Pool;
 
-  private constructor(pool: pg.Pool, schema: string) {
+  private readonly migrations: readonly Migration[];
+
+  private constructor(pool: pg.Pool, schema: string, migrations: readonly Migration[]) {
     this.pool = pool;
     this.schema = schema;
+    this.migrations = migrations;
   }
 
   /** Connects, migrates and returns a ready repository. */
@@ -184,8 +200,10 @@ export class PostgresRepository implements Repository {
     quoteIdent(schema);
     const statementTimeoutMs = options.statementTimeoutMs ?? DEFAULT_STATEMENT_TIMEOUT_MS;
     const onConnectionError = options.onConnectionError ?? (() => undefined);
+    const migrations = options.migrations ?? MIGRATIONS;
     const pool = new pg.Pool({
       connectionString: options.connectionString,
+      ...(options.password !== undefined ? { password: options.password } : {}),
       max: options.max ?? 10,
       // Every connection resolves the archive's table names in its schema.
       options: `-c search_path=${schema}`,
@@ -204,12 +222,12 @@ export class PostgresRepository implements Repository {
     // failing the query) would raise an unhandled 'error' event; this listener stays for its life.
     pool.on('connect', (client) => client.on('error', onConnectionError));
     try {
-      await migratePostgres(pool, schema);
+      await migratePostgres(pool, schema, migrations);
     } catch (err) {
       await pool.end();
       throw err;
     }
-    return new PostgresRepository(pool, schema);
+    return new PostgresRepository(pool, schema, migrations);
   }
 
   /**
@@ -631,9 +649,10 @@ export class PostgresRepository implements Repository {
   }
 
   async ping(): Promise<void> {
-    const result = await this.pool.query<{ version: number | null }>('SELECT MAX(version) AS version FROM schema_migrations');
-    const latest = MIGRATIONS[MIGRATIONS.length - 1]!.version;
-    if (result.rows[0]?.version !== latest) throw new Error(`schema at migration ${result.rows[0]?.version ?? 'none'}, expected ${latest}`);
+    const result = await this.pool.query<AppliedMigration>(
+      'SELECT version, name, min_reader_version AS "minReaderVersion" FROM schema_migrations',
+    );
+    checkSchemaCompatibility(result.rows, this.migrations);
   }
 
   async close(): Promise<void> {

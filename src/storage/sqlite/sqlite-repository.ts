@@ -21,7 +21,15 @@
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
-import { MIGRATIONS, migrationSql } from '../migrations.js';
+import {
+  MIGRATIONS,
+  SCHEMA_MIGRATIONS_TABLE_SQL,
+  checkSchemaCompatibility,
+  migrationSql,
+  minReaderVersionOf,
+  type AppliedMigration,
+  type Migration,
+} from '../migrations.js';
 import type {
   ConnectionStats,
   PageReadOptions,
@@ -140,21 +148,27 @@ export interface SqliteOptions {
   dataDir: string;
   /** How long a statement waits for another process's write lock [ms] (default 5000). */
   busyTimeoutMs?: number;
+  /** The migrations this release knows (default MIGRATIONS; tests give older or newer lists). */
+  migrations?: readonly Migration[];
 }
 
-export function migrateSqlite(db: Database.Database): number[] {
-  db.exec('CREATE TABLE IF NOT EXISTS schema_migrations (version INTEGER PRIMARY KEY, name TEXT NOT NULL, applied_at TEXT NOT NULL)');
+export function migrateSqlite(db: Database.Database, migrations: readonly Migration[] = MIGRATIONS): number[] {
+  db.exec(SCHEMA_MIGRATIONS_TABLE_SQL);
+  // Databases made before rolling updates were supported lack the column (expand: added, never dropped).
+  const columns = db.prepare('PRAGMA table_info(schema_migrations)').all() as { name: string }[];
+  if (!columns.some((c) => c.name === 'min_reader_version')) db.exec('ALTER TABLE schema_migrations ADD COLUMN min_reader_version INTEGER');
   const applied: number[] = [];
   // IMMEDIATE takes the write lock first, so two processes opening one file migrate one after the other.
   const run = db.transaction(() => {
     const done = new Set((db.prepare('SELECT version FROM schema_migrations').all() as { version: number }[]).map((r) => r.version));
-    for (const m of MIGRATIONS) {
+    for (const m of migrations) {
       if (done.has(m.version)) continue;
       db.exec(migrationSql(m, 'sqlite'));
-      db.prepare('INSERT INTO schema_migrations (version, name, applied_at) VALUES (?, ?, ?)').run(
+      db.prepare('INSERT INTO schema_migrations (version, name, applied_at, min_reader_version) VALUES (?, ?, ?, ?)').run(
         m.version,
         m.name,
         new Date().toISOString(),
+        minReaderVersionOf(m),
       );
       applied.push(m.version);
     }
@@ -190,6 +204,7 @@ export class SqliteRepository implements Repository {
   readonly path: string;
   private readonly db: Database.Database;
   private readonly stmt;
+  private readonly migrations: readonly Migration[];
 
   constructor(options: SqliteOptions) {
     if (options.dataDir === ':memory:') {
@@ -203,7 +218,8 @@ export class SqliteRepository implements Repository {
     this.db.pragma('synchronous = FULL');
     this.db.pragma('foreign_keys = ON');
     this.db.pragma(`busy_timeout = ${Math.round(options.busyTimeoutMs ?? 5000)}`);
-    migrateSqlite(this.db);
+    this.migrations = options.migrations ?? MIGRATIONS;
+    migrateSqlite(this.db, this.migrations);
 
     this.stmt = {
       getStation: this.db.prepare('SELECT * FROM stations WHERE station_id = ? AND deleted_at IS NULL'),
@@ -570,9 +586,10 @@ export class SqliteRepository implements Repository {
   }
 
   async ping(): Promise<void> {
-    const row = this.db.prepare('SELECT MAX(version) AS version FROM schema_migrations').get() as { version: number | null };
-    const latest = MIGRATIONS[MIGRATIONS.length - 1]!.version;
-    if (row.version !== latest) throw new Error(`schema at migration ${row.version}, expected ${latest}`);
+    const rows = this.db
+      .prepare('SELECT version, name, min_reader_version AS minReaderVersion FROM schema_migrations')
+      .all() as AppliedMigration[];
+    checkSchemaCompatibility(rows, this.migrations);
   }
 
   async close(): Promise<void> {
