@@ -188,7 +188,12 @@ describe('batch forms (mapBatch) against the published forms, for every register
   const elevationsRad = Float64Array.from([1.5, 3, 5, 7, 10, 20, 45, 89.9, 90], (d) => d * DEG);
   const contexts = [
     { latitudeRad: 0.7, heightM: 0, dayOfYear: 50, coefficients: { ah: 0.0012, aw: 0.0006, heightReference: 'site' as const } },
-    { latitudeRad: -1.1, heightM: 1200, dayOfYear: 300.5, coefficients: { ah: 0.00125, aw: 0.0005, heightReference: 'sea-level' as const } },
+    {
+      latitudeRad: -1.1,
+      heightM: 1200,
+      dayOfYear: 300.5,
+      coefficients: { ah: 0.00125, aw: 0.0005, heightReference: 'sea-level' as const },
+    },
   ];
 
   it('mapping functions: hydrostatic and wet equal the single-elevation forms to 1e-14 (relative)', () => {

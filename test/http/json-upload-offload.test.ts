@@ -5,7 +5,8 @@
  * comparison uses one JSON document sent twice: compact (under the threshold) and followed by
  * whitespace (above it; trailing whitespace is allowed by RFC 8259 §2, so it is the same document and
  * every error position inside it is the same). Which path ran is read from the metrics
- * (tropodelay_compute_duration_seconds_count{task=...}, counted for every run). Rows come from a seeded generator; station names are invented.
+ * (tropodelay_compute_duration_seconds_count{task=...}, counted for every run). Rows come from a seeded
+ * generator; station names are invented.
  */
 
 import { describe, expect, it } from 'vitest';

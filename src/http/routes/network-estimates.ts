@@ -15,7 +15,8 @@ import { HttpProblem } from '../problem.js';
 /** The network routes take JSON or CSV (an Arrow table of several stations is not offered yet). */
 function jsonOrCsvBodyOf(request: Parameters<typeof rawBodyOf>[0]) {
   const raw = rawBodyOf(request);
-  if (raw.format === 'arrow') throw new HttpProblem(415, 'content type application/vnd.apache.arrow.stream is not accepted here; send application/json or text/csv');
+  if (raw.format === 'arrow')
+    throw new HttpProblem(415, 'content type application/vnd.apache.arrow.stream is not accepted here; send application/json or text/csv');
   return { body: raw.body, format: raw.format };
 }
 import { problemSchema } from '../schemas/common.js';
