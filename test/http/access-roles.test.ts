@@ -28,6 +28,7 @@ const STATELESS_POSTS = new Set([
   'POST /v1/precipitable-water',
   'POST /v1/zwd-estimates',
   'POST /v1/profile-delays',
+  'POST /v1/network-estimates',
 ]);
 
 const concrete = (url: string) => url.replace(':station_id', 'ROLE1').replace(':key_name', 'nobody');

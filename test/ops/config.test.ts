@@ -8,6 +8,7 @@ import {
   configSchema,
   configWarnings,
   configurationTable,
+  configuredApiKeys,
   deprecatedName,
   environmentName,
   loadConfig,
@@ -133,9 +134,14 @@ describe('secrets from files: <NAME>_FILE (a container secret mounted as a file)
     expect(loadConfig({ TROPODELAY_DATABASE_PASSWORD_FILE: file('pw4', ' spaced ') }).TROPODELAY_DATABASE_PASSWORD).toBe(' spaced ');
   });
 
-  it('reads the write keys and the database URL from files too', () => {
-    const keys = loadConfig({ TROPODELAY_API_KEYS_FILE: file('keys', 'key-one-0123456789,key-two-0123456789\n') }).TROPO_API_KEYS;
-    expect(keys).toEqual(['key-one-0123456789', 'key-two-0123456789']);
+  it('reads the keys (one name:role:secret a line) and the database URL from files too', () => {
+    const config = loadConfig({
+      TROPODELAY_API_KEYS_FILE: file('keys', 'uploader:write:key-one-0123456789\nreader:read:key-two-0123456789\n'),
+    });
+    expect(configuredApiKeys(config)).toEqual([
+      { name: 'uploader', role: 'write', secret: 'key-one-0123456789' },
+      { name: 'reader', role: 'read', secret: 'key-two-0123456789' },
+    ]);
     expect(loadConfig({ TROPODELAY_DATABASE_URL_FILE: file('url', 'postgres://db:5432/x\n') }).DATABASE_URL).toBe('postgres://db:5432/x');
   });
 

@@ -2,8 +2,9 @@
  * Bearer keys with names and roles. Every route has a required role, declared by the route or
  * derived here:
  *  - `config: { role: 'admin' }` (or 'write', 'read') on the route: that role;
- *  - otherwise, under the station archive's prefixes (/v1/stations, /v1/network): `write` for PUT,
- *    POST, PATCH and DELETE, `read` for reads (enforced only when TROPO_READ_KEYS_REQUIRED=true);
+ *  - otherwise, under the station archive's prefixes (/v1/stations, /v1/network/): `admin` for DELETE
+ *    (irreversible, or hiding data from every reader), `write` for PUT, POST and PATCH, `read` for reads
+ *    (enforced only when TROPO_READ_KEYS_REQUIRED=true);
  *  - otherwise none (the model routes, health, documents).
  * admin ⊇ write ⊇ read. No key: 401; a key that is not accepted, or whose role is below the route's:
  * 403. `request.callerKey` is `{ name, role }` whenever an accepted key was presented (on any route),
@@ -66,6 +67,8 @@ export interface AuthPluginOptions {
 export function requiredRole(method: string, url: string, declared: KeyRole | undefined): KeyRole | null {
   if (declared) return declared;
   if (!PROTECTED_PREFIXES.some((p) => url.startsWith(p))) return null;
+  // Deleting is irreversible or hides data from every reader: admin, whatever the route (issue 15).
+  if (method === 'DELETE') return 'admin';
   return WRITE_METHODS.has(method) ? 'write' : 'read';
 }
 

@@ -140,7 +140,7 @@ const stationSoundingsRoute: FastifyPluginAsyncZod<StationRouteOptions> = async 
     {
       schema: {
         summary: 'Delete one sounding',
-        description: 'Needs a write key. 404 when the station or the sounding does not exist.',
+        description: 'Removes the sounding for good. 404 when the station or the sounding does not exist.',
         tags: ['station archive', 'water vapour'],
         params: soundingParams,
         response: { 204: z.null().describe('Deleted'), ...problems },
