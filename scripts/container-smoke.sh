@@ -235,7 +235,7 @@ mkdir -p "$SECRETS"
 # password is not checked there, but it goes the way an agency's would).
 node -e 'process.stdout.write(require("node:crypto").randomBytes(24).toString("hex") + "\n")' > "$SECRETS/db_password"
 SMOKE_KEY="$(node -e 'process.stdout.write(require("node:crypto").randomBytes(24).toString("hex"))')"
-printf '%s\n' "$SMOKE_KEY" > "$SECRETS/api_keys"
+printf 'smoke-admin:admin:%s\n' "$SMOKE_KEY" > "$SECRETS/api_keys"   # one key a line: name:role:secret
 chmod 0444 "$SECRETS"/*
 PORTS=()
 # start_replica I: runs replica I on a free loopback port and waits for GET /v1/health. On a busy machine
