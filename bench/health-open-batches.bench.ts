@@ -8,6 +8,7 @@
  *  2. batches + station-year reads: the same four, plus two clients reading a seeded station-year
  *     (105 120 five-minute epochs of met and delays) from the archive: the stored met as JSON and the
  *     station PWV as CSV (read in keyset pages, answered piece by piece, src/http/streamed-answer.ts);
+ *     then the issue's four-client mix: one slant batch, one PWV batch and the two readers;
  *  3. 1.1 M met rows: four clients uploading met files that the service must refuse: 1.1 M rows as
  *     CSV and as RINEX met (above the 32 MiB body limit: 413 while the body arrives), and 500 000
  *     rows as CSV and 300 000 as RINEX (within the body limit, refused by the 100 000-record limit
@@ -235,6 +236,9 @@ export default async function healthOpenBatches(): Promise<string[]> {
     lines.push(
       ...(await measure('the 4 batch clients + 2 station-year readers (met JSON, PWV CSV)', [...batchClients, ...readClients], reuse)),
     );
+    // The mix: four clients in all, one slant batch, one PWV batch and the two station-year readers.
+    const oneOfEach = [batchClients.find((c) => c.label.includes('slant'))!, batchClients.find((c) => c.label.includes('precipitable'))!];
+    lines.push(...(await measure('4 clients: a slant batch, a PWV batch, 2 station-year readers', [...oneOfEach, ...readClients], reuse)));
   } finally {
     await seeded.cleanup();
   }

@@ -24,12 +24,14 @@ import type { FastifyReply } from 'fastify';
 import type { PageReadOptions, Repository, SeriesPageKind, SeriesPageRows, TimeRange } from '../storage/repository.js';
 
 /**
- * Rows per page of a station-year read. 2 000 rows: reading, shaping and serialising one page of met
- * as JSON takes about 3–8 ms on the shared 2-core machine (a page of PWV records about twice that),
- * well inside the ~20 ms slice the issue allows, and a station-year (105 120 five-minute rows) is
- * about 53 pages, so the per-page overhead (one statement, one turn of the loop) stays small.
+ * Rows per page of a station-year read. 1 000 rows: reading, shaping and serialising one page of met
+ * as JSON takes about 2–4 ms on the quiet 2-core machine (a page of PWV records about twice that); with
+ * 2 000 rows `GET /v1/health` p99 was 101–134 ms under four clients (two 100 000-item batches, two
+ * station-year readers), with 1 000 rows 63–79 ms (`npm run bench -- health-open-batches`, issue 11:
+ * < 100 ms). A station-year (105 120 five-minute rows) is about 105 pages; the per-page overhead (one
+ * statement, one turn of the loop) stays small.
  */
-export const READ_PAGE_ROWS = 2000;
+export const READ_PAGE_ROWS = 1000;
 
 /** Largest answer sent whole [characters]; above it the answer is streamed. */
 export const WHOLE_ANSWER_MAX_CHARS = 1024 * 1024;
