@@ -22,7 +22,7 @@ import { answerSize } from './answer-size.js';
 import { CallerError } from './caller-error.js';
 import { guardResidualUnit } from './unit-guards.js';
 import { warning, type Warning } from './warnings.js';
-import type { DelayColumns } from './zwd-estimation.js';
+import { delayColumnsOfEpochs, type DelayColumns } from './zwd-estimation.js';
 import { toEstimatorOptions, zwdModels } from './zwd-estimation.js';
 import type { ZwdOptionValues } from './zwd-options.js';
 
@@ -191,27 +191,5 @@ export function runNetworkEstimation(request: NetworkEstimationRequest): Network
 export function networkDelayColumns(result: NetworkEstimationResult, s: number): DelayColumns {
   const epochs = result.output.stations[s]!.epochs;
   const a = result.apriori[s]!;
-  const n = epochs.length;
-  const c: DelayColumns = {
-    epochMs: new Float64Array(n),
-    ztdM: new Float64Array(n),
-    sigmaM: new Float64Array(n),
-    zwdM: new Float64Array(n),
-    northGradientM: new Float64Array(n),
-    eastGradientM: new Float64Array(n),
-    northGradientSigmaM: new Float64Array(n),
-    eastGradientSigmaM: new Float64Array(n),
-  };
-  for (let k = 0; k < n; k++) {
-    const e = epochs[k]!;
-    c.epochMs[k] = e.epochMs;
-    c.ztdM[k] = a.zhdM + a.zwdM + e.correctionM;
-    c.sigmaM[k] = e.sigmaM;
-    c.zwdM[k] = a.zwdM + e.correctionM;
-    c.northGradientM[k] = e.northGradientM ?? Number.NaN;
-    c.eastGradientM[k] = e.eastGradientM ?? Number.NaN;
-    c.northGradientSigmaM[k] = e.northGradientSigmaM ?? Number.NaN;
-    c.eastGradientSigmaM[k] = e.eastGradientSigmaM ?? Number.NaN;
-  }
-  return c;
+  return delayColumnsOfEpochs(epochs, a.zhdM + a.zwdM, (k) => a.zwdM + epochs[k]!.correctionM);
 }

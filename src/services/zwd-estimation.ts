@@ -19,7 +19,13 @@ import { conversionFactor } from '../domain/water-vapour/conversion.js';
 import { precipitableWaterFromSurfaceMet } from '../domain/water-vapour/precipitable-water.js';
 import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
 import { estimateZwd } from '../estimation/estimate.js';
-import type { WetMappingChoice, ZwdEstimationOptions, ZwdEstimationOutput, ZwdObservationColumns } from '../estimation/types.js';
+import type {
+  EpochEstimate,
+  WetMappingChoice,
+  ZwdEstimationOptions,
+  ZwdEstimationOutput,
+  ZwdObservationColumns,
+} from '../estimation/types.js';
 import { STORED_ZTD_RANGE_M, STORED_ZWD_RANGE_M } from '../limits.js';
 import { CallerError } from './caller-error.js';
 import {
@@ -402,7 +408,15 @@ export interface DelayColumns {
 }
 
 export function delayColumns(result: ZwdEstimationResult): DelayColumns {
-  const epochs = result.estimate.epochs;
+  return delayColumnsOfEpochs(result.estimate.epochs, result.aprioriZhdM + result.aprioriZwdM, (k) => result.epochZwd[k]!.zwdM);
+}
+
+/**
+ * The stored form of an estimated series (single station, or one station of a network): ZTD = the a-priori
+ * ZTD + δw per epoch, ZWD from `zwdAt(k)` (the one definition of the series' `zwd_m`), gradients NaN where
+ * none were estimated.
+ */
+export function delayColumnsOfEpochs(epochs: readonly EpochEstimate[], aprioriZtdM: number, zwdAt: (k: number) => number): DelayColumns {
   const n = epochs.length;
   const c: DelayColumns = {
     epochMs: new Float64Array(n),
@@ -417,9 +431,9 @@ export function delayColumns(result: ZwdEstimationResult): DelayColumns {
   for (let k = 0; k < n; k++) {
     const e = epochs[k]!;
     c.epochMs[k] = e.epochMs;
-    c.ztdM[k] = result.aprioriZhdM + result.aprioriZwdM + e.correctionM;
+    c.ztdM[k] = aprioriZtdM + e.correctionM;
     c.sigmaM[k] = e.sigmaM;
-    c.zwdM[k] = result.epochZwd[k]!.zwdM;
+    c.zwdM[k] = zwdAt(k);
     c.northGradientM[k] = e.northGradientM ?? Number.NaN;
     c.eastGradientM[k] = e.eastGradientM ?? Number.NaN;
     c.northGradientSigmaM[k] = e.northGradientSigmaM ?? Number.NaN;

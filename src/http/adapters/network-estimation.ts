@@ -4,14 +4,13 @@
  * A station's answer reuses the single-station answer's parts (same field names and meanings).
  */
 
-import { DEG } from '../../domain/constants.js';
 import type { Site } from '../../domain/site.js';
 import type { NetworkEstimationRequest, NetworkEstimationResult } from '../../services/network-estimation.js';
 import { CallerError } from '../../services/caller-error.js';
 import { warningTexts } from '../../services/warnings.js';
 import type { NetworkEstimatesRequest, NetworkEstimatesResponse, NetworkOptionsBody } from '../schemas/network-estimates.js';
 import type { ZwdEstimationBody } from '../schemas/zwd-estimates.js';
-import { toOptionValues } from './zwd-estimation.js';
+import { observationsFromObjects, toOptionValues } from './zwd-estimation.js';
 
 const iso = (ms: number) => new Date(ms).toISOString();
 const finiteOrNull = (x: number | null) => (x === null || !Number.isFinite(x) ? null : x);
@@ -35,27 +34,9 @@ export function toNetworkRequest(
       throw CallerError.field(400, `stations.${i}.id`, `station ${s.id} is also stations.${other}; ids must be unique`);
     seen.set(s.id, i);
   });
-  const n = body.observations.length;
-  const station = new Array<string>(n);
-  const epochMs = new Array<number>(n);
-  const satellite = new Array<string>(n);
-  const elevationRad = new Array<number>(n);
-  const azimuthRad = new Array<number>(n);
-  const residualM = new Array<number>(n);
-  let sigmaM: (number | null)[] | undefined;
-  for (let i = 0; i < n; i++) {
-    const o = body.observations[i]!;
-    station[i] = o.station;
-    epochMs[i] = Date.parse(o.epoch);
-    satellite[i] = o.satellite;
-    elevationRad[i] = o.elevation_deg * DEG;
-    azimuthRad[i] = o.azimuth_deg * DEG;
-    residualM[i] = o.residual_m;
-    if (o.sigma_m !== undefined) {
-      sigmaM ??= new Array<number | null>(n).fill(null);
-      sigmaM[i] = o.sigma_m;
-    }
-  }
+  // The single-station fields as the single-station adapter reads them, plus the station of each observation.
+  const station = body.observations.map((o) => o.station);
+  const { epochMs, satellite, elevationRad, azimuthRad, residualM, sigmaM } = observationsFromObjects(body.observations);
   const { satellite_clocks, reference_station, common_mode_sigma_threshold_m, ...single } = body.options;
   return {
     stations: stations.map((s) => ({ name: s.id, site: s.site, apriori: { zhdM: s.apriori?.zhd_m, zwdM: s.apriori?.zwd_m } })),
