@@ -17,18 +17,21 @@ import { MAX_OBSERVATIONS } from '../limits.js';
 
 export const OBSERVATION_CSV_REQUIRED_COLUMNS = ['epoch', 'satellite', 'elevation_deg', 'azimuth_deg', 'residual_m'] as const;
 export const OBSERVATION_CSV_OPTIONAL_COLUMNS = ['sigma_m'] as const;
-const KNOWN_COLUMNS: readonly string[] = [...OBSERVATION_CSV_REQUIRED_COLUMNS, ...OBSERVATION_CSV_OPTIONAL_COLUMNS];
 const NUMERIC_COLUMNS = new Set(['elevation_deg', 'azimuth_deg', 'residual_m', 'sigma_m']);
 
 export type ObservationCsvRecord = Record<string, string | number>;
 
 /**
+ * @param options.leadingColumns required text columns besides the observation's own (e.g. `station`)
  * @returns one record per data row (text cells, numbers where a numeric column holds a numeral;
  *   an empty sigma_m is left out)
  * @throws FormatError naming `body` (not CSV, empty, a wrong header) or `observations.N[.column]`
  *   (a row with the wrong number of cells, an over-long cell)
  */
-export function readObservationCsv(text: string): ObservationCsvRecord[] {
+export function readObservationCsv(text: string, options: { leadingColumns?: readonly string[] } = {}): ObservationCsvRecord[] {
+  // More required text columns before the observation's own (the network routes' `station`).
+  const required: readonly string[] = [...(options.leadingColumns ?? []), ...OBSERVATION_CSV_REQUIRED_COLUMNS];
+  const known: readonly string[] = [...required, ...OBSERVATION_CSV_OPTIONAL_COLUMNS];
   let table;
   try {
     table = readCsvTable(text, { comment: '#', maxRecords: { limit: MAX_OBSERVATIONS, what: 'observations' } });
@@ -40,11 +43,11 @@ export function readObservationCsv(text: string): ObservationCsvRecord[] {
   if (header.length === 0) {
     throw new FormatError(
       'body',
-      `the CSV table is empty; it needs a header row (${OBSERVATION_CSV_REQUIRED_COLUMNS.join(',')}[,sigma_m]) and at least one observation`,
+      `the CSV table is empty; it needs a header row (${required.join(',')}[,sigma_m]) and at least one observation`,
     );
   }
-  const unknown = header.filter((c) => !KNOWN_COLUMNS.includes(c));
-  const missing = OBSERVATION_CSV_REQUIRED_COLUMNS.filter((c) => !header.includes(c));
+  const unknown = header.filter((c) => !known.includes(c));
+  const missing = required.filter((c) => !header.includes(c));
   const repeated = header.filter((c, i) => header.indexOf(c) !== i);
   if (unknown.length || missing.length || repeated.length) {
     const parts = [
@@ -52,10 +55,7 @@ export function readObservationCsv(text: string): ObservationCsvRecord[] {
       unknown.length ? `unknown column(s) ${unknown.join(', ')}` : '',
       repeated.length ? `repeated column(s) ${repeated.join(', ')}` : '',
     ].filter(Boolean);
-    throw new FormatError(
-      'body',
-      `${parts.join('; ')}: the header row must name ${OBSERVATION_CSV_REQUIRED_COLUMNS.join(', ')} and optionally sigma_m`,
-    );
+    throw new FormatError('body', `${parts.join('; ')}: the header row must name ${required.join(', ')} and optionally sigma_m`);
   }
   const problem = table.problems[0];
   if (problem) {

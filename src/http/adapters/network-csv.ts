@@ -10,61 +10,18 @@
  * Cells and fields that are not numerals stay text for the schema to refuse.
  */
 
-import { CsvFormatError, readCsvTable } from '../../formats/csv-table.js';
 import { FormatError } from '../../formats/format-error.js';
 import { readNumber } from '../../formats/number-text.js';
-import { OBSERVATION_CSV_OPTIONAL_COLUMNS, OBSERVATION_CSV_REQUIRED_COLUMNS } from '../../formats/observation-csv.js';
-import { MAX_OBSERVATIONS } from '../../limits.js';
-
-export const NETWORK_CSV_REQUIRED_COLUMNS = ['station', ...OBSERVATION_CSV_REQUIRED_COLUMNS] as const;
-const KNOWN_COLUMNS: readonly string[] = [...NETWORK_CSV_REQUIRED_COLUMNS, ...OBSERVATION_CSV_OPTIONAL_COLUMNS];
-const NUMERIC_COLUMNS = new Set(['elevation_deg', 'azimuth_deg', 'residual_m', 'sigma_m']);
+import { readObservationCsv } from '../../formats/observation-csv.js';
 
 /**
+ * The single-station observation table with a leading `station` column (readObservationCsv).
  * @returns one record per data row, keyed by the JSON field names
  * @throws FormatError naming `body` (not CSV, empty, a wrong header) or `observations.N[.column]`
  * @throws RecordLimitError past MAX_OBSERVATIONS rows
  */
 export function readNetworkObservationCsv(text: string): Record<string, string | number>[] {
-  let table;
-  try {
-    table = readCsvTable(text, { comment: '#', maxRecords: { limit: MAX_OBSERVATIONS, what: 'observations' } });
-  } catch (err) {
-    if (err instanceof CsvFormatError) throw new FormatError('body', err.message.replace(/^CSV line \d+: /, ''));
-    throw err;
-  }
-  const { header } = table;
-  const expected = `${NETWORK_CSV_REQUIRED_COLUMNS.join(',')}[,sigma_m]`;
-  if (header.length === 0) {
-    throw new FormatError('body', `the CSV table is empty; it needs a header row (${expected}) and at least one observation`);
-  }
-  const unknown = header.filter((c) => !KNOWN_COLUMNS.includes(c));
-  const missing = NETWORK_CSV_REQUIRED_COLUMNS.filter((c) => !header.includes(c));
-  const repeated = header.filter((c, i) => header.indexOf(c) !== i);
-  if (unknown.length || missing.length || repeated.length) {
-    const parts = [
-      missing.length ? `missing column(s) ${missing.join(', ')}` : '',
-      unknown.length ? `unknown column(s) ${unknown.join(', ')}` : '',
-      repeated.length ? `repeated column(s) ${repeated.join(', ')}` : '',
-    ].filter(Boolean);
-    throw new FormatError('body', `${parts.join('; ')}: the header row must be ${expected} (any order)`);
-  }
-  const problem = table.problems[0];
-  if (problem) {
-    throw new FormatError(
-      `observations.${problem.row}${problem.column ? `.${problem.column}` : ''}`,
-      `line ${problem.line}: ${problem.reason}`,
-    );
-  }
-  return table.rows.map(({ cells }) => {
-    const obs: Record<string, string | number> = {};
-    header.forEach((name, c) => {
-      const cell = cells[c]!;
-      if (name === 'sigma_m' && cell === '') return;
-      obs[name] = NUMERIC_COLUMNS.has(name) ? (readNumber(cell) ?? cell) : cell;
-    });
-    return obs;
-  });
+  return readObservationCsv(text, { leadingColumns: ['station'] });
 }
 
 const numberOrText = (text: string) => readNumber(text.trim()) ?? text;
