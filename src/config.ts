@@ -409,7 +409,11 @@ export function configurationTable(): string {
     const value = defaults[setting];
     const shown =
       SHOWN_DEFAULTS[setting as SettingName] ??
-      (value === undefined ? '(unset)' : typeof value === 'object' ? JSON.stringify(value) : String(value as string | number | boolean));
+      (value === undefined || (Array.isArray(value) && value.length === 0)
+        ? '(unset)'
+        : typeof value === 'object'
+          ? JSON.stringify(value)
+          : String(value as string | number | boolean));
     const meaning = (schema.description ?? '').replace(/\|/g, '\\|');
     return `| ${names.join(' or ')} | ${old ? `\`${old}\`` : ''} | ${shown} | ${meaning} |`;
   });
