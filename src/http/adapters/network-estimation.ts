@@ -10,7 +10,7 @@ import { CallerError } from '../../services/caller-error.js';
 import { warningTexts } from '../../services/warnings.js';
 import type { NetworkEstimatesRequest, NetworkEstimatesResponse, NetworkOptionsBody } from '../schemas/network-estimates.js';
 import type { ZwdEstimationBody } from '../schemas/zwd-estimates.js';
-import { observationsFromObjects, toOptionValues } from './zwd-estimation.js';
+import { observationsFromObjects, seriesEntryOf, toOptionValues } from './zwd-estimation.js';
 
 const iso = (ms: number) => new Date(ms).toISOString();
 const finiteOrNull = (x: number | null) => (x === null || !Number.isFinite(x) ? null : x);
@@ -25,7 +25,7 @@ export interface NetworkStationBody {
 /** The validated body → the domain request. @throws CallerError 400 for a repeated station id */
 export function toNetworkRequest(
   stations: NetworkStationBody[],
-  body: Pick<NetworkEstimatesRequest, 'observations'> & { options: NetworkOptionsBody },
+  body: Pick<NetworkEstimatesRequest, 'observations' | 'met'> & { options: NetworkOptionsBody },
 ): NetworkEstimationRequest {
   const seen = new Map<string, number>();
   stations.forEach((s, i) => {
@@ -38,9 +38,17 @@ export function toNetworkRequest(
   const station = body.observations.map((o) => o.station);
   const { epochMs, satellite, elevationRad, azimuthRad, residualM, sigmaM } = observationsFromObjects(body.observations);
   const { satellite_clocks, reference_station, common_mode_sigma_threshold_m, ...single } = body.options;
+  const met = body.met;
   return {
     stations: stations.map((s) => ({ name: s.id, site: s.site, apriori: { zhdM: s.apriori?.zhd_m, zwdM: s.apriori?.zwd_m } })),
     observations: { station, epochMs, satellite, elevationRad, azimuthRad, residualM, sigmaM },
+    met: met && {
+      station: met.map((r) => r.station),
+      epochMs: met.map((r) => Date.parse(r.epoch)),
+      pressureHpa: met.map((r) => r.pressure_hpa),
+      temperatureC: met.map((r) => r.temperature_c),
+    },
+    metRelativeHumidityPct: met?.map((r) => r.relative_humidity_pct ?? null),
     options: toOptionValues(single as ZwdEstimationBody['options']),
     satelliteClocks: satellite_clocks,
     referenceStation: reference_station,
@@ -49,7 +57,7 @@ export function toNetworkRequest(
 }
 
 /** The domain result → the API answer of POST /v1/network-estimates. */
-export function networkEstimatesResponseOf(r: NetworkEstimationResult): NetworkEstimatesResponse {
+export function networkEstimatesResponseOf(r: NetworkEstimationResult, extraWarnings: readonly string[] = []): NetworkEstimatesResponse {
   const { output } = r;
   const s = output.statistics;
   const cm = output.commonMode;
@@ -77,19 +85,8 @@ export function networkEstimatesResponseOf(r: NetworkEstimationResult): NetworkE
           east_sigma_m: g.eastSigmaM,
           observations_nearby: g.observationsNearby,
         })),
-        series: st.epochs.map((e) => ({
-          epoch: iso(e.epochMs),
-          correction_m: e.correctionM,
-          zwd_m: a.zwdM + e.correctionM,
-          zhd_source: 'apriori' as const, // a network request carries no met: ZTD − the a-priori ZHD
-          sigma_m: e.sigmaM,
-          north_gradient_m: e.northGradientM,
-          east_gradient_m: e.eastGradientM,
-          north_gradient_sigma_m: e.northGradientSigmaM,
-          east_gradient_sigma_m: e.eastGradientSigmaM,
-          epoch_bias_m: e.epochBiasM,
-          observations: e.observationsUsed,
-          ztd_m: ztd0 + e.correctionM,
+        series: st.epochs.map((e, j) => ({
+          ...seriesEntryOf(e, r.series[k]!.epochZwd[j]!, r.series[k]!.epochMet?.[j], ztd0),
           relative_sigma_m: finiteOrNull(e.relativeSigmaM),
         })),
         rejected: st.rejected.map((x) => ({
@@ -141,6 +138,6 @@ export function networkEstimatesResponseOf(r: NetworkEstimationResult): NetworkE
     },
     models: r.models,
     model_fingerprint: r.modelFingerprint,
-    warnings: warningTexts(r.warnings),
+    warnings: [...warningTexts(r.warnings), ...extraWarnings],
   };
 }

@@ -10,7 +10,7 @@
  */
 
 import { z } from 'zod';
-import { MAX_NETWORK_STATIONS, MAX_OBSERVATIONS } from '../../limits.js';
+import { MAX_MET_RECORDS, MAX_NETWORK_STATIONS, MAX_OBSERVATIONS } from '../../limits.js';
 import { DEFAULT_COMMON_MODE_SIGMA_THRESHOLD_M, SATELLITE_CLOCK_HANDLING } from '../../services/network-estimation.js';
 import { ZWD_OPTIONS, type OptionSpec } from '../../services/zwd-options.js';
 import { bounded, provenanceFields, siteSchema, sizedArray, strictObject } from './common.js';
@@ -24,6 +24,7 @@ import {
   zwdEstimatesResponse,
   zwdGradientOptionsSchema,
   zwdNodeResponse,
+  zwdMetRecordSchema,
   zwdObservationSchema,
   zwdOptionQueryFields,
   zwdSeriesEntryResponse,
@@ -36,6 +37,19 @@ export const DEFAULT_NETWORK_SOURCE = 'network-estimates';
 export const networkObservationSchema = zwdObservationSchema.extend({
   station: stationIdSchema.describe('Station of the observation: one of stations[].id'),
 });
+
+/** A met record of a network request: the single-station record plus `station`, like the observations. */
+export const networkMetRecordSchema = zwdMetRecordSchema.extend({
+  station: stationIdSchema.describe('Station of the record: one of stations[].id'),
+});
+
+const metField = z
+  .array(networkMetRecordSchema, { error: 'must be an array of met records' })
+  .max(MAX_MET_RECORDS, { error: `must hold at most ${MAX_MET_RECORDS} records (all stations together)` })
+  .optional()
+  .describe(
+    `Surface met at the stations' site heights, each record naming its station, in any order (at most ${MAX_MET_RECORDS} records over all stations): per station as \`met\` of POST /v1/zwd-estimates (interpolated linearly within options.met_max_gap_s, the pressure bridged across longer gaps), giving that station's series ZHD, ZWD = ZTD − ZHD, Tm and PWV per epoch. A station without records gets zhd_source "apriori"`,
+  );
 
 /** A station of POST /v1/network-estimates: its id, site and a-priori delays. */
 export const networkStationSchema = strictObject({
@@ -93,6 +107,7 @@ const stationsField = <T extends z.ZodType>(station: T) =>
 export const networkEstimatesRequest = strictObject({
   stations: stationsField(networkStationSchema).describe('The stations: id, site and optional a-priori delays'),
   observations: observationsField,
+  met: metField,
   options: networkOptionsSchema,
 });
 
@@ -101,6 +116,7 @@ export const networkStoredEstimatesRequest = strictObject({
     'Archive stations (their stored coordinates are the sites) and optional a-priori delays',
   ),
   observations: observationsField,
+  met: metField,
   options: networkOptionsSchema,
 });
 

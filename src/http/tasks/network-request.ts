@@ -11,7 +11,7 @@ import type { Site } from '../../domain/site.js';
 import { FormatError } from '../../formats/format-error.js';
 import { CallerError } from '../../services/caller-error.js';
 import { networkDelayColumns, runNetworkEstimation } from '../../services/network-estimation.js';
-import { checkStorableDelays, type DelayColumns } from '../../services/zwd-estimation.js';
+import { checkStorableDelays, checkStorableZwd, type DelayColumns } from '../../services/zwd-estimation.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import { readNetworkObservationCsv, stationsFromQuery } from '../adapters/network-csv.js';
 import { networkEstimatesResponseOf, toNetworkRequest, type NetworkStationBody } from '../adapters/network-estimation.js';
@@ -107,15 +107,17 @@ export async function handleNetworkRequest(input: NetworkRequestTaskInput): Prom
       }));
     }
     const result = runNetworkEstimation(toNetworkRequest(stations, body));
-    const json = JSON.stringify(networkEstimatesResponseOf(result));
     const observations = body.observations.length;
-    if (!archive) return { ok: true, output: { json: utf8(json), observations } };
+    if (!archive) return { ok: true, output: { json: utf8(JSON.stringify(networkEstimatesResponseOf(result))), observations } };
 
-    // Storing: every station's series must be one a direct deposit would accept, or nothing is stored.
+    // Storing: every station's series must be one a direct deposit would accept, or nothing is stored;
+    // each station's series is checked as the single-station storing route checks its one.
+    const storeWarnings: string[] = [];
     const delays = result.output.stations.map((st, s) => {
       const columns = networkDelayColumns(result, s);
       try {
         checkStorableDelays(columns);
+        storeWarnings.push(...checkStorableZwd(columns).map((w) => `station ${st.station}: ${w.text}`));
       } catch (err) {
         if (err instanceof CallerError)
           throw CallerError.field(422, `stations.${s}`, `station ${st.station}: ${err.errors[0]?.message ?? err.message}`);
@@ -123,6 +125,7 @@ export async function handleNetworkRequest(input: NetworkRequestTaskInput): Prom
       }
       return { station: st.station, columns };
     });
+    const json = JSON.stringify(networkEstimatesResponseOf(result, storeWarnings));
     return {
       ok: true,
       output: { json: utf8(json.slice(0, -1)), observations, delays, modelFingerprint: result.modelFingerprint, models: result.models },
