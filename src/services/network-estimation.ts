@@ -107,7 +107,10 @@ export function checkNetworkSize(request: Pick<NetworkEstimationRequest, 'statio
   }
 }
 
-/** The a-priori delays of a station; the default ZHD as the single-station route's (standard atmosphere at the height above sea level, EGM96). */
+/**
+ * The a-priori delays of a station; the default ZHD as the single-station route's: Saastamoinen with
+ * the standard atmosphere at the height above sea level (EGM96).
+ */
 function aprioriOf(station: NetworkStationRequest): StationApriori {
   const { site, apriori } = station;
   const zhdSource = apriori.zhdM === undefined ? ('standard-atmosphere' as const) : ('caller' as const);
