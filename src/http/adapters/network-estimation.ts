@@ -5,12 +5,13 @@
  */
 
 import type { Site } from '../../domain/site.js';
+import type { NetworkObservationColumns } from '../../estimation/network/types.js';
 import type { NetworkEstimationRequest, NetworkEstimationResult } from '../../services/network-estimation.js';
 import { CallerError } from '../../services/caller-error.js';
 import { warningTexts } from '../../services/warnings.js';
 import type { NetworkEstimatesRequest, NetworkEstimatesResponse, NetworkOptionsBody } from '../schemas/network-estimates.js';
 import type { ZwdEstimationBody } from '../schemas/zwd-estimates.js';
-import { observationsFromObjects, seriesEntryOf, toOptionValues } from './zwd-estimation.js';
+import { observationsFromColumns, observationsFromObjects, seriesEntryOf, toOptionValues } from './zwd-estimation.js';
 
 const iso = (ms: number) => new Date(ms).toISOString();
 const finiteOrNull = (x: number | null) => (x === null || !Number.isFinite(x) ? null : x);
@@ -22,10 +23,21 @@ export interface NetworkStationBody {
   apriori?: { zhd_m?: number | undefined; zwd_m?: number | undefined } | undefined;
 }
 
-/** The validated body → the domain request. @throws CallerError 400 for a repeated station id */
+/** Observations as objects (validated) → domain columns: the single-station adapter's plus the station of each. */
+export function networkObservationsFromObjects(list: NetworkEstimatesRequest['observations']): NetworkObservationColumns {
+  return { station: list.map((o) => o.station), ...observationsFromObjects(list) };
+}
+
+/** Observations as column arrays (checked by src/http/columns.ts) → domain columns. */
+export function networkObservationsFromColumns(c: Record<string, unknown[] | undefined>): NetworkObservationColumns {
+  return { station: c.station as string[], ...observationsFromColumns(c) };
+}
+
+/** The validated body and its observations in domain columns → the domain request. @throws CallerError 400 for a repeated station id */
 export function toNetworkRequest(
   stations: NetworkStationBody[],
-  body: Pick<NetworkEstimatesRequest, 'observations' | 'met'> & { options: NetworkOptionsBody },
+  body: Pick<NetworkEstimatesRequest, 'met'> & { options: NetworkOptionsBody },
+  observations: NetworkObservationColumns,
 ): NetworkEstimationRequest {
   const seen = new Map<string, number>();
   stations.forEach((s, i) => {
@@ -34,14 +46,11 @@ export function toNetworkRequest(
       throw CallerError.field(400, `stations.${i}.id`, `station ${s.id} is also stations.${other}; ids must be unique`);
     seen.set(s.id, i);
   });
-  // The single-station fields as the single-station adapter reads them, plus the station of each observation.
-  const station = body.observations.map((o) => o.station);
-  const { epochMs, satellite, elevationRad, azimuthRad, residualM, sigmaM } = observationsFromObjects(body.observations);
   const { satellite_clocks, reference_station, common_mode_sigma_threshold_m, ...single } = body.options;
   const met = body.met;
   return {
     stations: stations.map((s) => ({ name: s.id, site: s.site, apriori: { zhdM: s.apriori?.zhd_m, zwdM: s.apriori?.zwd_m } })),
-    observations: { station, epochMs, satellite, elevationRad, azimuthRad, residualM, sigmaM },
+    observations,
     met: met && {
       station: met.map((r) => r.station),
       epochMs: met.map((r) => Date.parse(r.epoch)),

@@ -95,11 +95,24 @@ export const networkOptionsSchema = strictObject({
     'Estimation options: those of POST /v1/zwd-estimates (docs/zwd-estimation.md) plus satellite_clocks, reference_station and common_mode_sigma_threshold_m',
   );
 
-const observationsField = sizedArray(
+const observationObjects = sizedArray(
   z.array(networkObservationSchema, { error: 'must be an array of observations' }),
   MAX_OBSERVATIONS,
   'observations',
-).describe('Zero-difference residuals of all stations, in any order');
+);
+
+/** The observations as column arrays (documented form; checked by src/http/columns.ts, one loop per column). */
+export const networkObservationColumnsSchema = strictObject(
+  Object.fromEntries(Object.entries(networkObservationSchema.shape).map(([k, v]) => [k, z.array(v as z.ZodType)])),
+).describe(
+  `The observations as column arrays of equal length (1..${MAX_OBSERVATIONS}), one per field of an observation, station included; sigma_m may be absent, or null on a row`,
+);
+
+const observationsField = z
+  .union([observationObjects, networkObservationColumnsSchema])
+  .describe(
+    'Zero-difference residuals of all stations, in any order: an array of objects, or an object of column arrays (as POST /v1/zwd-estimates, plus a station column)',
+  );
 
 const stationsField = <T extends z.ZodType>(station: T) =>
   sizedArray(z.array(station, { error: 'must be an array of stations' }), MAX_NETWORK_STATIONS, 'stations');
@@ -120,8 +133,17 @@ export const networkStoredEstimatesRequest = strictObject({
   options: networkOptionsSchema,
 });
 
-export type NetworkEstimatesRequest = z.output<typeof networkEstimatesRequest>;
-export type NetworkStoredEstimatesRequest = z.output<typeof networkStoredEstimatesRequest>;
+/**
+ * The bodies as the worker checks them, by the form of their observations: objects (zod, field errors
+ * such as observations.3.station), or columns (checked by src/http/columns.ts; the rest here).
+ */
+export const networkObjectRows = networkEstimatesRequest.extend({ observations: observationObjects });
+export const networkColumnarRest = networkEstimatesRequest.extend({ observations: z.unknown() });
+export const networkStoredObjectRows = networkStoredEstimatesRequest.extend({ observations: observationObjects });
+export const networkStoredColumnarRest = networkStoredEstimatesRequest.extend({ observations: z.unknown() });
+
+export type NetworkEstimatesRequest = z.output<typeof networkObjectRows>;
+export type NetworkStoredEstimatesRequest = z.output<typeof networkStoredObjectRows>;
 export type NetworkOptionsBody = z.output<typeof networkOptionsSchema>;
 
 // ---------------------------------------------------------------------------------------------
