@@ -8,22 +8,29 @@
  * The options are the single-station estimator's (the one table, src/services/zwd-options.ts) plus
  * the network's own: how the satellite clocks are treated, the reference station of the relative
  * ZWD, and the threshold of the common-mode warning.
+ *
+ * Surface met is given per station (records with a `station`, like the observations): each station's
+ * series gets ZHD, ZWD, Tm and PWV per epoch by the single-station rule (seriesZwd of
+ * zwd-estimation.ts: the pressure bridged across met gaps, `zhdSource` met | met-bridged | apriori),
+ * so a station's series and its stored form are those of the single-station estimation with the same met.
  */
 
 import { DEG } from '../domain/constants.js';
 import { MODEL_NAMES, provenance, type ModelSet } from '../domain/provenance.js';
 import type { Site } from '../domain/site.js';
+import { ModelDomainError } from '../domain/errors.js';
+import { siteHeights } from '../domain/geometry/geoid.js';
 import { standardAtmosphere } from '../domain/meteo/standard-atmosphere.js';
 import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
 import { estimateNetwork } from '../estimation/network/estimate-network.js';
 import type { NetworkEstimationOutput, NetworkObservationColumns, SatelliteClockHandling } from '../estimation/network/types.js';
-import { MAX_ANSWER_NODES, MAX_NETWORK_STATION_OBSERVATIONS } from '../limits.js';
+import { MAX_ANSWER_NODES, MAX_MET_RECORDS, MAX_NETWORK_STATION_OBSERVATIONS } from '../limits.js';
 import { answerSize } from './answer-size.js';
 import { CallerError } from './caller-error.js';
-import { guardResidualUnit } from './unit-guards.js';
+import type { MetColumns } from './station-met.js';
+import { guardResidualUnit, relativeHumidityUnitWarning } from './unit-guards.js';
 import { warning, type Warning } from './warnings.js';
-import { delayColumnsOfEpochs, type DelayColumns } from './zwd-estimation.js';
-import { toEstimatorOptions, zwdModels } from './zwd-estimation.js';
+import { delayColumnsOfEpochs, seriesZwd, toEstimatorOptions, zwdModels, type DelayColumns, type SeriesZwd } from './zwd-estimation.js';
 import type { ZwdOptionValues } from './zwd-options.js';
 
 export const SATELLITE_CLOCK_HANDLING = ['estimated', 'known'] as const satisfies readonly SatelliteClockHandling[];
@@ -39,9 +46,18 @@ export interface NetworkStationRequest {
   apriori: { zhdM?: number | undefined; zwdM?: number | undefined };
 }
 
+/** Surface met of the stations at their site heights, in any order: the single-station columns plus the station of each record. */
+export interface NetworkMetColumns extends MetColumns {
+  station: string[];
+}
+
 export interface NetworkEstimationRequest {
   stations: NetworkStationRequest[];
   observations: NetworkObservationColumns;
+  /** Met of any of the stations (a station without records gets its ZHD from the a-priori, as without met). */
+  met?: NetworkMetColumns | undefined;
+  /** Relative humidities of the met records as sent [%] (not needed for PWV; checked for their unit only). */
+  metRelativeHumidityPct?: (number | null)[] | undefined;
   options: ZwdOptionValues;
   satelliteClocks: SatelliteClockHandling;
   /** Station of the relative ZWD; null = the station nearest the network's centroid. */
@@ -60,6 +76,8 @@ export interface NetworkEstimationResult {
   output: NetworkEstimationOutput;
   /** One per output.stations entry (the request's station order). */
   apriori: StationApriori[];
+  /** One per output.stations entry: ZHD, ZWD and, with met, Tm and PWV per epoch (seriesZwd). */
+  series: SeriesZwd[];
   models: ModelSet;
   modelFingerprint: string;
   warnings: Warning[];
@@ -89,11 +107,64 @@ export function checkNetworkSize(request: Pick<NetworkEstimationRequest, 'statio
   }
 }
 
+/**
+ * The a-priori delays of a station; the default ZHD as the single-station route's: Saastamoinen with
+ * the standard atmosphere at the height above sea level (EGM96).
+ */
 function aprioriOf(station: NetworkStationRequest): StationApriori {
   const { site, apriori } = station;
   const zhdSource = apriori.zhdM === undefined ? ('standard-atmosphere' as const) : ('caller' as const);
-  const zhdM = apriori.zhdM ?? zenithHydrostaticDelayM(standardAtmosphere(site.heightM).pressureHpa, site.latitudeDeg * DEG, site.heightM);
+  const aboveSeaLevelM = siteHeights(site.latitudeDeg, site.longitudeDeg, site.heightM).aboveSeaLevelM;
+  const zhdM =
+    apriori.zhdM ?? zenithHydrostaticDelayM(standardAtmosphere(aboveSeaLevelM).pressureHpa, site.latitudeDeg * DEG, site.heightM);
   return { zhdM, zwdM: apriori.zwdM ?? 0, zhdSource };
+}
+
+const iso = (ms: number) => new Date(ms).toISOString();
+
+/**
+ * The met records split by station (request order kept within a station).
+ * @throws CallerError 400 naming `met` past MAX_MET_RECORDS records; `met.<i>.station` for a station not
+ *   in `stations`; `met.<i>` for a station's repeated epoch (naming the other record too)
+ */
+export function metByStation(met: NetworkMetColumns | undefined, stations: readonly string[]): Map<string, MetColumns> {
+  const out = new Map<string, MetColumns>();
+  if (!met) return out;
+  if (met.epochMs.length > MAX_MET_RECORDS) {
+    throw CallerError.field(
+      400,
+      'met',
+      `${met.epochMs.length} records; a network request takes at most ${MAX_MET_RECORDS} (all stations together)`,
+    );
+  }
+  const known = new Set(stations);
+  const seen = new Map<string, number>();
+  for (let i = 0; i < met.epochMs.length; i++) {
+    const station = met.station[i]!;
+    if (!known.has(station)) {
+      throw CallerError.field(
+        400,
+        `met.${i}.station`,
+        `${station} is not in stations (${stations.slice(0, 10).join(', ')}${stations.length > 10 ? ', …' : ''}); met records name one of stations[].id`,
+      );
+    }
+    const key = `${station}\u0000${met.epochMs[i]}`;
+    const other = seen.get(key);
+    if (other !== undefined) {
+      throw new ModelDomainError(
+        `met.${i}`,
+        `duplicate met epoch ${iso(met.epochMs[i]!)} of station ${station}: also met.${other}; each epoch may appear once per station`,
+        400,
+      );
+    }
+    seen.set(key, i);
+    let columns = out.get(station);
+    if (!columns) out.set(station, (columns = { epochMs: [], pressureHpa: [], temperatureC: [] }));
+    columns.epochMs.push(met.epochMs[i]!);
+    columns.pressureHpa.push(met.pressureHpa[i]!);
+    columns.temperatureC.push(met.temperatureC[i]!);
+  }
+  return out;
 }
 
 /** Models of a network result: the single-station settings, the network estimator and how the clocks were treated. */
@@ -123,6 +194,10 @@ export function networkModels(
  */
 export function runNetworkEstimation(request: NetworkEstimationRequest): NetworkEstimationResult {
   checkNetworkSize(request);
+  const metOf = metByStation(
+    request.met,
+    request.stations.map((s) => s.name),
+  );
   const obs = request.observations;
   if (request.satelliteClocks === 'known') {
     // With satellite clocks estimated the residuals of an epoch hold a clock per satellite (up to
@@ -158,6 +233,19 @@ export function runNetworkEstimation(request: NetworkEstimationRequest): Network
   const byName = new Map(request.stations.map((s) => [s.name, s]));
   const apriori = output.stations.map((r) => aprioriOf(byName.get(r.station)!));
   const warnings: Warning[] = output.warnings.map((text) => warning('estimator', text));
+  if (request.metRelativeHumidityPct) {
+    const rh = relativeHumidityUnitWarning('met.relative_humidity_pct', request.metRelativeHumidityPct);
+    if (rh) warnings.push(rh);
+  }
+  const series = output.stations.map((r, s) => {
+    const station = byName.get(r.station)!;
+    const a = apriori[s]!;
+    const ztdM = (k: number) => a.zhdM + a.zwdM + r.epochs[k]!.correctionM;
+    const result = seriesZwd(station.site, metOf.get(r.station), request.options.metMaxGapS, r.epochs, ztdM, a.zhdM);
+    // The single-station warnings, each naming its station.
+    warnings.push(...result.warnings.map((w) => warning(w.code, `station ${r.station}: ${w.text}`)));
+    return result;
+  });
   const defaulted = output.stations.filter((_, s) => apriori[s]!.zhdSource === 'standard-atmosphere').map((r) => r.station);
   if (defaulted.length > 0) {
     warnings.push(
@@ -184,12 +272,13 @@ export function runNetworkEstimation(request: NetworkEstimationRequest): Network
       apriori.map((a) => a.zhdSource),
     ),
   );
-  return { output, apriori, models, modelFingerprint: model_fingerprint, warnings };
+  return { output, apriori, series, models, modelFingerprint: model_fingerprint, warnings };
 }
 
-/** The stored form of station `s` of a result (as delayColumns of zwd-estimation.ts; no met, so ZWD = a-priori ZWD + δw). */
+/** The stored form of station `s` of a result, as delayColumns of zwd-estimation.ts (ZWD of the one definition, with its met). */
 export function networkDelayColumns(result: NetworkEstimationResult, s: number): DelayColumns {
   const epochs = result.output.stations[s]!.epochs;
   const a = result.apriori[s]!;
-  return delayColumnsOfEpochs(epochs, a.zhdM + a.zwdM, (k) => a.zwdM + epochs[k]!.correctionM);
+  const zwd = result.series[s]!.epochZwd;
+  return delayColumnsOfEpochs(epochs, a.zhdM + a.zwdM, (k) => zwd[k]!.zwdM);
 }

@@ -204,21 +204,22 @@ const MISSING: EpochMetResult = { met: 'missing', zhdM: null, zwdM: null, tmK: n
 
 /** ZHD, ZWD, Tm and PWV per epoch from the interpolated met; per-epoch warnings by code. */
 function metPerEpoch(
-  request: ZwdEstimationRequest,
-  output: ZwdEstimationOutput,
+  site: Site,
+  metColumns: MetColumns | undefined,
+  metMaxGapS: number,
+  epochs: readonly EpochEstimate[],
   ztdM: (k: number) => number,
   perEpoch: Warning[],
 ): { epochMet: EpochMetResult[]; bridgedZhdM: (number | null)[] } | null {
-  if (!request.met || request.met.epochMs.length === 0) return null;
-  const { site } = request;
+  if (!metColumns || metColumns.epochMs.length === 0) return null;
   const latitudeRad = site.latitudeDeg * DEG;
   const met = interpolateMet(
-    request.met,
-    output.epochs.map((e) => e.epochMs),
-    request.options.metMaxGapS,
+    metColumns,
+    epochs.map((e) => e.epochMs),
+    metMaxGapS,
   );
-  const bridgedZhdM: (number | null)[] = output.epochs.map(() => null);
-  const epochMet = output.epochs.map((e, k) => {
+  const bridgedZhdM: (number | null)[] = epochs.map(() => null);
+  const epochMet = epochs.map((e, k) => {
     const p = met.pressure[k]!;
     const t = met.temperature[k]!;
     if (p.value === null || t.value === null) {
@@ -286,14 +287,61 @@ export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationRe
   });
   warnings.push(...estimate.warnings.map((text) => warning('estimator', text)));
 
-  const perEpoch: Warning[] = [];
   const ztdM = (k: number) => aprioriZhdM + aprioriZwdM + estimate.epochs[k]!.correctionM;
-  const met = metPerEpoch(request, estimate, ztdM, perEpoch);
+  const series = seriesZwd(site, request.met, options.metMaxGapS, estimate.epochs, ztdM, aprioriZhdM);
+  warnings.push(...series.warnings);
+  const { models, model_fingerprint } = provenance(zwdModels(options, zhdSource));
+  return {
+    estimate,
+    aprioriZhdM,
+    aprioriZwdM,
+    zhdSource,
+    geoidUndulationM: heights.geoidUndulationM,
+    epochMet: series.epochMet,
+    epochZwd: series.epochZwd,
+    bridgedEpochs: series.bridgedEpochs,
+    models,
+    modelFingerprint: model_fingerprint,
+    warnings,
+  };
+}
+
+/** The per-epoch part of a result that met decides: what seriesZwd returns. */
+export interface SeriesZwd {
+  /** One per epoch; null when there is no met. */
+  epochMet: EpochMetResult[] | null;
+  /** One per epoch: the series' ZWD with one meaning (EpochZwd). */
+  epochZwd: EpochZwd[];
+  /** Epochs whose ZHD was bridged across a met gap (zhdSource "met-bridged"). */
+  bridgedEpochs: number;
+  /** Per-epoch warnings collapsed by code, the met-missing count and the negative-ZWD warning, in that order. */
+  warnings: Warning[];
+}
+
+/**
+ * ZHD, ZWD, Tm and PWV at every estimated epoch of one station's series, from its surface met
+ * (interpolated within `metMaxGapS`, the pressure bridged across longer gaps) or, without met, from
+ * the a-priori ZHD: the one definition of the series' `zwd_m` (EpochZwd), shared by the
+ * single-station estimation and every station of a network estimation.
+ * @param ztdM ZTD at epoch k [m] (a-priori ZHD + a-priori ZWD + δw)
+ * @throws ModelDomainError 400 naming `met.<i>` for a repeated met epoch
+ */
+export function seriesZwd(
+  site: Site,
+  met: MetColumns | undefined,
+  metMaxGapS: number,
+  epochs: readonly EpochEstimate[],
+  ztdM: (k: number) => number,
+  aprioriZhdM: number,
+): SeriesZwd {
+  const warnings: Warning[] = [];
+  const perEpoch: Warning[] = [];
+  const fromMet = metPerEpoch(site, met, metMaxGapS, epochs, ztdM, perEpoch);
   warnings.push(...collapseByCode(perEpoch));
-  const epochZwd: EpochZwd[] = estimate.epochs.map((_, k) => {
-    const m = met?.epochMet[k];
+  const epochZwd: EpochZwd[] = epochs.map((_, k) => {
+    const m = fromMet?.epochMet[k];
     if (m && m.zhdM !== null) return { zwdM: m.zwdM!, zhdM: m.zhdM, zhdSource: 'met' };
-    const bridged = met?.bridgedZhdM[k];
+    const bridged = fromMet?.bridgedZhdM[k];
     if (bridged != null) return { zwdM: ztdM(k) - bridged, zhdM: bridged, zhdSource: 'met-bridged' };
     return { zwdM: ztdM(k) - aprioriZhdM, zhdM: aprioriZhdM, zhdSource: 'apriori' };
   });
@@ -302,26 +350,13 @@ export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationRe
     warnings.push(
       warning(
         'met-missing',
-        `${bridgedEpochs} of ${estimate.epochs.length} epochs have no met (outside the met records or in a gap longer than ${options.metMaxGapS} s): no PWV there; their zwd_m = ztd_m − ZHD of the pressure bridged linearly across the gap (held from the nearest record beyond the records), flagged met "missing" and zhd_source "met-bridged"`,
+        `${bridgedEpochs} of ${epochs.length} epochs have no met (outside the met records or in a gap longer than ${metMaxGapS} s): no PWV there; their zwd_m = ztd_m − ZHD of the pressure bridged linearly across the gap (held from the nearest record beyond the records), flagged met "missing" and zhd_source "met-bridged"`,
       ),
     );
   }
   const negative = negativeZwdWarning(epochZwd.map((z) => z.zwdM));
   if (negative) warnings.push(negative);
-  const { models, model_fingerprint } = provenance(zwdModels(options, zhdSource));
-  return {
-    estimate,
-    aprioriZhdM,
-    aprioriZwdM,
-    zhdSource,
-    geoidUndulationM: heights.geoidUndulationM,
-    epochMet: met?.epochMet ?? null,
-    epochZwd,
-    bridgedEpochs,
-    models,
-    modelFingerprint: model_fingerprint,
-    warnings,
-  };
+  return { epochMet: fromMet?.epochMet ?? null, epochZwd, bridgedEpochs, warnings };
 }
 
 /** Unit guards on the request (unit-guards.ts): refusals throw, warnings are added to `warnings`. */

@@ -5,6 +5,7 @@
 
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:net';
+import { configSchema, deprecatedName, environmentName } from '../../src/config.js';
 
 export async function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -24,13 +25,35 @@ export interface ServerProcess {
 }
 
 /**
- * @param env extra environment (LOG_LEVEL defaults to warn)
- * @param discardLogs send the service's stdout (its log lines) nowhere, e.g. to measure at LOG_LEVEL=info
+ * The service's environment, every setting under its current name (src/config.ts environmentName(),
+ * TROPODELAY_…), so that the service starts without deprecation warnings: the port and loopback host,
+ * TROPODELAY_LOG_LEVEL=warn, then `env`, whose settings may be given by either name (a deprecated name
+ * such as ESTIMATION_WORKERS is renamed). Settings inherited from `inherited` under a deprecated name
+ * are dropped (beside the new name with another value they would stop the start).
+ */
+export function serverEnvironment(port: number, env: Record<string, string> = {}, inherited: NodeJS.ProcessEnv = process.env) {
+  const out: NodeJS.ProcessEnv = { ...inherited };
+  for (const setting of Object.keys(configSchema.shape)) {
+    const old = deprecatedName(setting);
+    if (old !== undefined) delete out[old];
+  }
+  Object.assign(out, {
+    [environmentName('PORT')]: String(port),
+    [environmentName('HOST')]: '127.0.0.1',
+    [environmentName('LOG_LEVEL')]: 'warn',
+  });
+  for (const [name, value] of Object.entries(env)) out[name in configSchema.shape ? environmentName(name) : name] = value;
+  return out;
+}
+
+/**
+ * @param env extra environment, settings by their current or deprecated name (log level defaults to warn)
+ * @param discardLogs send the service's stdout (its log lines) nowhere, e.g. to measure at TROPODELAY_LOG_LEVEL=info
  */
 export async function startServerProcess(env: Record<string, string> = {}, discardLogs = false): Promise<ServerProcess> {
   const port = await freePort();
   const child = spawn(process.execPath, ['--import', 'tsx', 'src/server.ts'], {
-    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', LOG_LEVEL: 'warn', ...env },
+    env: serverEnvironment(port, env),
     stdio: ['ignore', discardLogs ? 'ignore' : 'inherit', 'inherit'],
   });
   const baseUrl = `http://127.0.0.1:${port}`;

@@ -14,86 +14,12 @@
  */
 
 import { describe, expect, it } from 'vitest';
-import { simulateNetwork, stationAt, truthZwd, type NetworkSim, type SimStation } from '../estimation/network/network-simulator.js';
+import { truthZwd } from '../estimation/network/network-simulator.js';
+import { APRIORI, csvOf, MM, networkBody, observationsOf, REGIONAL, SHARED_MODEL, sim, siteOf, TOL_M } from './network-fixtures.js';
 import { MAX_NETWORK_STATION_OBSERVATIONS } from '../../src/limits.js';
 import { problemFields, useApp } from '../helpers/app.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
-
-const MM = 1e-3;
-/** Same arithmetic up to rounding (issue 12: "to 1e-9 m"). */
-const TOL_M = 1e-9;
-const RAD = 180 / Math.PI;
-
-const CENTRE = [51.3, -2.4] as const;
-const REGIONAL: SimStation[] = [
-  stationAt('OAKHURST', ...CENTRE, 0, 0),
-  stationAt('PENNAWAY', ...CENTRE, 140, 30),
-  stationAt('QUARLEY', ...CENTRE, 150, 150),
-  stationAt('RIVELIN', ...CENTRE, 130, 260),
-];
-
-function sim(seed: number, satelliteClocks: 'estimated' | 'known', stations = REGIONAL, commonOffsetM = 0): NetworkSim {
-  return simulateNetwork({
-    seed,
-    stations,
-    startIso: '2026-06-21T06:00:00Z',
-    durationS: 3600,
-    samplingS: 60,
-    minElevationDeg: 3,
-    sigma0M: 0.003,
-    satellitesPerPlane: 5,
-    zwd: { intervalS: 300, randomWalkMPerSqrtH: 0.01, initialSigmaM: 0.03 },
-    gradients: { intervalS: 21_600, randomWalkMPerSqrtH: 0.001, initialSigmaM: 0.0005 },
-    commonOffsetM,
-    receiverClockAmplitudeM: 300_000,
-    satelliteClockAmplitudeM: satelliteClocks === 'known' ? 0 : 300_000,
-    grossErrors: 2,
-  });
-}
-
-const APRIORI = { zhd_m: 2.25, zwd_m: 0.12 };
-/** The options in which the network estimator and the single-station route share one model (docs/network-estimation.md). */
-const SHARED_MODEL = { parametrisation: 'nodes', correlated_noise: false, scale_sigmas: false, zwd_interval_s: 300 };
-
-const siteOf = (s: NetworkSim['stations'][number]) => ({
-  latitude_deg: s.latitudeRad * RAD,
-  longitude_deg: s.longitudeRad * RAD,
-  height_m: s.heightM,
-});
-
-function observationsOf(s: NetworkSim, only?: string) {
-  const o = s.observations;
-  const out = [];
-  for (let i = 0; i < o.epochMs.length; i++) {
-    if (only !== undefined && o.station[i] !== only) continue;
-    out.push({
-      ...(only === undefined ? { station: o.station[i]! } : {}),
-      epoch: new Date(o.epochMs[i]!).toISOString(),
-      satellite: o.satellite[i]!,
-      elevation_deg: o.elevationRad[i]! * RAD,
-      azimuth_deg: o.azimuthRad[i]! * RAD,
-      residual_m: o.residualM[i]!,
-    });
-  }
-  return out;
-}
-
-function networkBody(s: NetworkSim, options: Record<string, unknown>) {
-  return {
-    stations: s.stations.map((st) => ({ id: st.name, site: siteOf(st), apriori: APRIORI })),
-    observations: observationsOf(s),
-    options,
-  };
-}
-
-function csvOf(observations: ReturnType<typeof observationsOf>): string {
-  const header = 'station,epoch,satellite,elevation_deg,azimuth_deg,residual_m';
-  return [
-    header,
-    ...observations.map((o) => [o.station, o.epoch, o.satellite, o.elevation_deg, o.azimuth_deg, o.residual_m].join(',')),
-  ].join('\n');
-}
 
 describe('POST /v1/network-estimates', () => {
   const api = useApp();

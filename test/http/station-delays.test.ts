@@ -6,11 +6,29 @@
  */
 
 import { createHash } from 'node:crypto';
+import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { geoContains } from 'd3-geo';
+import { feature } from 'topojson-client';
+import type { GeometryCollection, Topology } from 'topojson-specification';
 import { describe, expect, it } from 'vitest';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
 
-const STATION = { name: 'Saltmere Point (invented)', latitude_deg: 38.74, longitude_deg: -9.61, height_m: 92 };
+/** An invented station well inland (checked below against the land outline the demo uses). */
+const STATION = { name: 'Thornlea Vale (invented)', latitude_deg: 47.9, longitude_deg: 10.3, height_m: 610 };
+const STATION_ID = 'THRNV';
+
+describe('the test station', () => {
+  it('is on land, 0.1° from any coast (world-atlas land-50m, d3-geo geoContains, as test/scripts/demo-network.test.ts)', () => {
+    const require = createRequire(import.meta.url);
+    const topology = JSON.parse(readFileSync(require.resolve('world-atlas/land-50m.json'), 'utf8')) as Topology;
+    const land = feature(topology, topology.objects.land as GeometryCollection);
+    for (const dLat of [-0.1, 0, 0.1])
+      for (const dLon of [-0.1, 0, 0.1])
+        expect(geoContains(land, [STATION.longitude_deg + dLon, STATION.latitude_deg + dLat]), `${dLat}, ${dLon}`).toBe(true);
+  });
+});
 const T0 = Date.UTC(2026, 5, 1);
 const H = 3_600_000;
 const iso = (ms: number) => new Date(ms).toISOString();
@@ -28,10 +46,10 @@ for (const backend of BACKENDS) {
     const { api, auth } = useArchiveApp(backend);
 
     it('a deposit stores ZTD records with the fingerprint of its models plus its source', async () => {
-      await api().put('/v1/stations/SALTM').set('authorization', auth).send(STATION).expect(201);
+      await api().put(`/v1/stations/${STATION_ID}`).set('authorization', auth).send(STATION).expect(201);
       const models = { mapping: 'niell', cutoff_deg: 7, random_walk_m_per_sqrt_h: 0.01 };
       const res = await api()
-        .post('/v1/stations/SALTM/delays')
+        .post(`/v1/stations/${STATION_ID}/delays`)
         .set('authorization', auth)
         .send({
           source: 'batch-run-7',
@@ -53,7 +71,7 @@ for (const backend of BACKENDS) {
       expect(res.body.rejected[0].reason).toMatch(/records\.2\.ztd_m: must be a number in \[1, 3\] m/);
 
       const read = await api()
-        .get('/v1/stations/SALTM/delays')
+        .get(`/v1/stations/${STATION_ID}/delays`)
         .query({ from: iso(T0), to: iso(T0 + 2 * H) })
         .expect(200);
       expect(read.body.records).toEqual([

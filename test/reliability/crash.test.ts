@@ -12,6 +12,7 @@ import Database from 'better-sqlite3';
 import { afterAll, describe, expect, it } from 'vitest';
 import type { StorageConfig } from '../../src/storage/factory.js';
 import { TEST_KEY } from '../helpers/archive-app.js';
+import { serverEnvironment } from '../helpers/server-process.js';
 import { BACKENDS } from '../helpers/storage.js';
 
 const ROOT = new URL('../../', import.meta.url).pathname;
@@ -27,16 +28,18 @@ interface Server {
 }
 
 function startServer(storage: StorageConfig): Promise<Server> {
-  const env: NodeJS.ProcessEnv = {
-    PATH: process.env.PATH,
-    HOME: process.env.HOME,
-    PORT: '0',
-    HOST: '127.0.0.1',
-    LOG_LEVEL: 'info',
-    TROPO_DATA_DIR: storage.dataDir,
-    TROPO_API_KEYS: TEST_KEY,
-    ...(storage.databaseUrl ? { DATABASE_URL: storage.databaseUrl, TROPO_PG_SCHEMA: storage.pgSchema } : {}),
-  };
+  // Settings under their current names (serverEnvironment); port 0: the log line says which one.
+  const env = serverEnvironment(
+    0,
+    {
+      LOG_LEVEL: 'info',
+      TROPO_DATA_DIR: storage.dataDir,
+      TROPO_API_KEYS: TEST_KEY,
+      ...(storage.databaseUrl ? { DATABASE_URL: storage.databaseUrl } : {}),
+      ...(storage.pgSchema ? { TROPO_PG_SCHEMA: storage.pgSchema } : {}),
+    },
+    { PATH: process.env.PATH, HOME: process.env.HOME },
+  );
   const child = spawn(process.execPath, ['--import', 'tsx', 'src/server.ts'], { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'] });
   return new Promise((resolve, reject) => {
     let out = '';

@@ -5,12 +5,13 @@
  */
 
 import type { Site } from '../../domain/site.js';
+import type { NetworkObservationColumns } from '../../estimation/network/types.js';
 import type { NetworkEstimationRequest, NetworkEstimationResult } from '../../services/network-estimation.js';
 import { CallerError } from '../../services/caller-error.js';
 import { warningTexts } from '../../services/warnings.js';
 import type { NetworkEstimatesRequest, NetworkEstimatesResponse, NetworkOptionsBody } from '../schemas/network-estimates.js';
 import type { ZwdEstimationBody } from '../schemas/zwd-estimates.js';
-import { observationsFromObjects, toOptionValues } from './zwd-estimation.js';
+import { observationsFromColumns, observationsFromObjects, seriesEntryOf, toOptionValues } from './zwd-estimation.js';
 
 const iso = (ms: number) => new Date(ms).toISOString();
 const finiteOrNull = (x: number | null) => (x === null || !Number.isFinite(x) ? null : x);
@@ -22,10 +23,21 @@ export interface NetworkStationBody {
   apriori?: { zhd_m?: number | undefined; zwd_m?: number | undefined } | undefined;
 }
 
-/** The validated body → the domain request. @throws CallerError 400 for a repeated station id */
+/** Observations as objects (validated) → domain columns: the single-station adapter's plus the station of each. */
+export function networkObservationsFromObjects(list: NetworkEstimatesRequest['observations']): NetworkObservationColumns {
+  return { station: list.map((o) => o.station), ...observationsFromObjects(list) };
+}
+
+/** Observations as column arrays (checked by src/http/columns.ts) → domain columns. */
+export function networkObservationsFromColumns(c: Record<string, unknown[] | undefined>): NetworkObservationColumns {
+  return { station: c.station as string[], ...observationsFromColumns(c) };
+}
+
+/** The validated body and its observations in domain columns → the domain request. @throws CallerError 400 for a repeated station id */
 export function toNetworkRequest(
   stations: NetworkStationBody[],
-  body: Pick<NetworkEstimatesRequest, 'observations'> & { options: NetworkOptionsBody },
+  body: Pick<NetworkEstimatesRequest, 'met'> & { options: NetworkOptionsBody },
+  observations: NetworkObservationColumns,
 ): NetworkEstimationRequest {
   const seen = new Map<string, number>();
   stations.forEach((s, i) => {
@@ -34,13 +46,18 @@ export function toNetworkRequest(
       throw CallerError.field(400, `stations.${i}.id`, `station ${s.id} is also stations.${other}; ids must be unique`);
     seen.set(s.id, i);
   });
-  // The single-station fields as the single-station adapter reads them, plus the station of each observation.
-  const station = body.observations.map((o) => o.station);
-  const { epochMs, satellite, elevationRad, azimuthRad, residualM, sigmaM } = observationsFromObjects(body.observations);
   const { satellite_clocks, reference_station, common_mode_sigma_threshold_m, ...single } = body.options;
+  const met = body.met;
   return {
     stations: stations.map((s) => ({ name: s.id, site: s.site, apriori: { zhdM: s.apriori?.zhd_m, zwdM: s.apriori?.zwd_m } })),
-    observations: { station, epochMs, satellite, elevationRad, azimuthRad, residualM, sigmaM },
+    observations,
+    met: met && {
+      station: met.map((r) => r.station),
+      epochMs: met.map((r) => Date.parse(r.epoch)),
+      pressureHpa: met.map((r) => r.pressure_hpa),
+      temperatureC: met.map((r) => r.temperature_c),
+    },
+    metRelativeHumidityPct: met?.map((r) => r.relative_humidity_pct ?? null),
     options: toOptionValues(single as ZwdEstimationBody['options']),
     satelliteClocks: satellite_clocks,
     referenceStation: reference_station,
@@ -49,7 +66,7 @@ export function toNetworkRequest(
 }
 
 /** The domain result → the API answer of POST /v1/network-estimates. */
-export function networkEstimatesResponseOf(r: NetworkEstimationResult): NetworkEstimatesResponse {
+export function networkEstimatesResponseOf(r: NetworkEstimationResult, extraWarnings: readonly string[] = []): NetworkEstimatesResponse {
   const { output } = r;
   const s = output.statistics;
   const cm = output.commonMode;
@@ -77,19 +94,8 @@ export function networkEstimatesResponseOf(r: NetworkEstimationResult): NetworkE
           east_sigma_m: g.eastSigmaM,
           observations_nearby: g.observationsNearby,
         })),
-        series: st.epochs.map((e) => ({
-          epoch: iso(e.epochMs),
-          correction_m: e.correctionM,
-          zwd_m: a.zwdM + e.correctionM,
-          zhd_source: 'apriori' as const, // a network request carries no met: ZTD − the a-priori ZHD
-          sigma_m: e.sigmaM,
-          north_gradient_m: e.northGradientM,
-          east_gradient_m: e.eastGradientM,
-          north_gradient_sigma_m: e.northGradientSigmaM,
-          east_gradient_sigma_m: e.eastGradientSigmaM,
-          epoch_bias_m: e.epochBiasM,
-          observations: e.observationsUsed,
-          ztd_m: ztd0 + e.correctionM,
+        series: st.epochs.map((e, j) => ({
+          ...seriesEntryOf(e, r.series[k]!.epochZwd[j]!, r.series[k]!.epochMet?.[j], ztd0),
           relative_sigma_m: finiteOrNull(e.relativeSigmaM),
         })),
         rejected: st.rejected.map((x) => ({
@@ -141,6 +147,6 @@ export function networkEstimatesResponseOf(r: NetworkEstimationResult): NetworkE
     },
     models: r.models,
     model_fingerprint: r.modelFingerprint,
-    warnings: warningTexts(r.warnings),
+    warnings: [...warningTexts(r.warnings), ...extraWarnings],
   };
 }

@@ -7,8 +7,8 @@ import { DEG } from '../../domain/constants.js';
 import type { Site } from '../../domain/site.js';
 import type { MetColumns } from '../../services/station-met.js';
 import { warningTexts } from '../../services/warnings.js';
-import type { ZwdObservationColumns } from '../../estimation/types.js';
-import type { ZwdEstimationRequest, ZwdEstimationResult } from '../../services/zwd-estimation.js';
+import type { EpochEstimate, ZwdObservationColumns } from '../../estimation/types.js';
+import type { EpochMetResult, EpochZwd, ZwdEstimationRequest, ZwdEstimationResult } from '../../services/zwd-estimation.js';
 import { GRADIENTS_GROUP, ZWD_OPTIONS, type OptionSpec, type ZwdOptionValues } from '../../services/zwd-options.js';
 import type { ZwdEstimatesResponse, ZwdEstimationBody } from '../schemas/zwd-estimates.js';
 
@@ -114,6 +114,39 @@ export function toZwdRequest(
   };
 }
 
+/**
+ * One epoch of a series in the API shape (the single-station series, and every station's series of a
+ * network answer): δw, the ZWD of its one definition (EpochZwd), gradients, ZTD, and with met the
+ * met quality, ZHD, Tm and PWV with its σ.
+ */
+export function seriesEntryOf(e: EpochEstimate, zwd: EpochZwd, m: EpochMetResult | undefined, aprioriZtdM: number) {
+  const base = {
+    epoch: iso(e.epochMs),
+    correction_m: e.correctionM,
+    zwd_m: zwd.zwdM,
+    zhd_source: zwd.zhdSource,
+    sigma_m: e.sigmaM,
+    north_gradient_m: e.northGradientM,
+    east_gradient_m: e.eastGradientM,
+    north_gradient_sigma_m: e.northGradientSigmaM,
+    east_gradient_sigma_m: e.eastGradientSigmaM,
+    epoch_bias_m: e.epochBiasM,
+    observations: e.observationsUsed,
+    ztd_m: aprioriZtdM + e.correctionM,
+  };
+  if (!m) return base;
+  if (m.met === 'missing') return { ...base, met: m.met, zhd_m: zwd.zhdM };
+  return {
+    ...base,
+    met: m.met,
+    zhd_m: m.zhdM!,
+    tm_k: m.tmK!,
+    pwv_mm: m.pwvMm!,
+    pwv_sigma_mm: m.pwvSigmaMm!,
+    pwv_total_sigma_mm: m.pwvTotalSigmaMm!,
+  };
+}
+
 /** The domain result → the API answer of POST /v1/zwd-estimates. */
 export function zwdEstimatesResponseOf(r: ZwdEstimationResult, extraWarnings: readonly string[] = []): ZwdEstimatesResponse {
   const { estimate: out, aprioriZwdM } = r;
@@ -135,35 +168,7 @@ export function zwdEstimatesResponseOf(r: ZwdEstimationResult, extraWarnings: re
       east_sigma_m: g.eastSigmaM,
       observations_nearby: g.observationsNearby,
     })),
-    series: out.epochs.map((e, k) => {
-      const zwd = r.epochZwd[k]!;
-      const base = {
-        epoch: iso(e.epochMs),
-        correction_m: e.correctionM,
-        zwd_m: zwd.zwdM,
-        zhd_source: zwd.zhdSource,
-        sigma_m: e.sigmaM,
-        north_gradient_m: e.northGradientM,
-        east_gradient_m: e.eastGradientM,
-        north_gradient_sigma_m: e.northGradientSigmaM,
-        east_gradient_sigma_m: e.eastGradientSigmaM,
-        epoch_bias_m: e.epochBiasM,
-        observations: e.observationsUsed,
-        ztd_m: aprioriZtdM + e.correctionM,
-      };
-      const m = r.epochMet?.[k];
-      if (!m) return base;
-      if (m.met === 'missing') return { ...base, met: m.met, zhd_m: zwd.zhdM };
-      return {
-        ...base,
-        met: m.met,
-        zhd_m: m.zhdM!,
-        tm_k: m.tmK!,
-        pwv_mm: m.pwvMm!,
-        pwv_sigma_mm: m.pwvSigmaMm!,
-        pwv_total_sigma_mm: m.pwvTotalSigmaMm!,
-      };
-    }),
+    series: out.epochs.map((e, k) => seriesEntryOf(e, r.epochZwd[k]!, r.epochMet?.[k], aprioriZtdM)),
     rejected: out.rejected.map((x) => ({
       index: x.index,
       epoch: iso(x.epochMs),

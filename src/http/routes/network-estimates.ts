@@ -10,15 +10,7 @@ import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { Site } from '../../domain/site.js';
 import type { DelayColumns } from '../../services/zwd-estimation.js';
 import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, transferOf } from '../raw-body.js';
-import { HttpProblem } from '../problem.js';
 
-/** The network routes take JSON or CSV (an Arrow table of several stations is not offered yet). */
-function jsonOrCsvBodyOf(request: Parameters<typeof rawBodyOf>[0]) {
-  const raw = rawBodyOf(request);
-  if (raw.format === 'arrow')
-    throw new HttpProblem(415, 'content type application/vnd.apache.arrow.stream is not accepted here; send application/json or text/csv');
-  return { body: raw.body, format: raw.format };
-}
 import { problemSchema } from '../schemas/common.js';
 import {
   DEFAULT_NETWORK_SOURCE,
@@ -41,7 +33,7 @@ const MODEL_TEXT =
 const LIMITS_TEXT = `Limits, checked before any work: up to ${MAX_NETWORK_STATIONS} stations and ${MAX_OBSERVATIONS} observations, and stations × observations at most ${MAX_NETWORK_STATION_OBSERVATIONS} (413 naming observations and saying how much fits; a 10-station day of 30-s data fits, as text/csv of about 31 MB; as JSON it is about 67 MB, above the body limit); the answer's output nodes over all stations within the estimation's answer cap (422). Body limit ${ZWD_BODY_LIMIT_BYTES} bytes. Requests too large for one body go through the archive or a job; such jobs are not built yet.`;
 
 const BODY_TEXT =
-  'Bodies: application/json (this schema) or text/csv: a table with the header row station,epoch,satellite,elevation_deg,azimuth_deg,residual_m[,sigma_m], the stations as query parameters station=ID,latitude_deg,longitude_deg,height_m[,apriori_zhd_m[,apriori_zwd_m]] (once per station) and the options as query parameters (those of POST /v1/zwd-estimates plus satellite_clocks, reference_station, common_mode_sigma_threshold_m).';
+  'Bodies: application/json (this schema; observations as an array of objects or as column arrays with a station column, met as records naming their station); application/vnd.apache.arrow.stream (the observations as an Arrow IPC table with a station column, the rest of the request as JSON in the schema metadata "request"); or text/csv: a table with the header row station,epoch,satellite,elevation_deg,azimuth_deg,residual_m[,sigma_m], the stations as query parameters station=ID,latitude_deg,longitude_deg,height_m[,apriori_zhd_m[,apriori_zwd_m]] (once per station) and the options as query parameters (those of POST /v1/zwd-estimates plus satellite_clocks, reference_station, common_mode_sigma_threshold_m); a text/csv request carries no met (as with POST /v1/zwd-estimates). All forms give the same answer.';
 
 const networkEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
   keepJsonBodiesAsBytes(app);
@@ -53,7 +45,7 @@ const networkEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
         summary: 'ZWD and gradients of several stations estimated jointly, with the clocks pre-eliminated',
         description: [
           MODEL_TEXT,
-          'Per station: the series of POST /v1/zwd-estimates (sigma_m: σ of the absolute ZWD) plus relative_sigma_m, σ relative to the reference station. common_mode: σ of the network-mean ZWD with the clocks estimated and known, its correlation with the clocks, the extent in km and in nadir angle; a warning when the absolute level is not determined to options.common_mode_sigma_threshold_m. Satellites seen by one station at an epoch and epochs with one station carry no information with the clocks estimated: dropped and counted.',
+          'Per station: the series of POST /v1/zwd-estimates (sigma_m: σ of the absolute ZWD) plus relative_sigma_m, σ relative to the reference station; with met records of the station (met[], each naming its station) also ZHD from the pressure, ZWD = ZTD − ZHD, Tm and PWV with its σ per epoch, as POST /v1/zwd-estimates does (pressure bridged across met gaps; zhd_source met | met-bridged | apriori). common_mode: σ of the network-mean ZWD with the clocks estimated and known, its correlation with the clocks, the extent in km and in nadir angle; a warning when the absolute level is not determined to options.common_mode_sigma_threshold_m. Satellites seen by one station at an epoch and epochs with one station carry no information with the clocks estimated: dropped and counted.',
           BODY_TEXT,
           LIMITS_TEXT,
         ].join(' '),
@@ -72,7 +64,7 @@ const networkEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
       validatorCompiler: bodyInWorkerValidator,
     },
     async (request, reply) => {
-      const raw = jsonOrCsvBodyOf(request);
+      const raw = rawBodyOf(request);
       const output = await app.compute.run(
         'network-estimate-request',
         { ...raw, query: request.query as Record<string, unknown> },
@@ -89,8 +81,8 @@ const networkEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
       schema: {
         summary: "Estimate ZWD jointly for archive stations and store every station's series",
         description: [
-          'The estimation of POST /v1/network-estimates for stations of the archive: `stations` name archive stations (id, optional apriori; no site: the stored coordinates are the sites; a station not in the archive is a 404 naming stations.N.id). text/csv: station=ID[,apriori_zhd_m[,apriori_zwd_m]] once per station.',
-          `Every station's series is stored as its delay series under ?source= (default "${DEFAULT_NETWORK_SOURCE}") and the result's model_fingerprint, all stations in one transaction: all or nothing. A station whose estimated ZTD falls outside the range a direct deposit accepts makes the whole request a 422 and nothing is stored.`,
+          'The estimation of POST /v1/network-estimates for stations of the archive: `stations` name archive stations (id, optional apriori; no site: the stored coordinates are the sites; a station not in the archive is a 404 naming stations.N.id). text/csv: station=ID[,apriori_zhd_m[,apriori_zwd_m]] once per station. JSON and Arrow bodies as for POST /v1/network-estimates.',
+          `Every station's series is stored as its delay series under ?source= (default "${DEFAULT_NETWORK_SOURCE}") and the result's model_fingerprint, all stations in one transaction: all or nothing; per epoch the values POST /v1/stations/{id}/zwd-estimates stores for the same data and met (zwd_m = ZTD − ZHD of the station's met in the request, else of the a-priori ZHD; the station's stored met is not read). A station whose estimated ZTD falls outside the range a direct deposit accepts makes the whole request a 422 and nothing is stored.`,
           MODEL_TEXT,
           LIMITS_TEXT,
           'Writes need `Authorization: Bearer <key>`.',
@@ -115,7 +107,7 @@ const networkEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
     },
     async (request, reply) => {
       const source = request.query.source ?? DEFAULT_NETWORK_SOURCE;
-      const raw = jsonOrCsvBodyOf(request);
+      const raw = rawBodyOf(request);
       const archiveSites: Record<string, Site> = {};
       for (const s of await app.repository.listStations())
         archiveSites[s.stationId] = { latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, heightM: s.heightM };

@@ -107,7 +107,14 @@ const stationDelaysRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (ap
         tags: ['station archive'],
         params: stationParams,
         querystring: delayReadQuery,
-        response: { 200: delayReadResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema, 404: problemSchema },
+        response: {
+          200: delayReadResponse,
+          400: problemSchema,
+          401: problemSchema,
+          403: problemSchema,
+          404: problemSchema,
+          503: problemSchema,
+        },
       },
     },
     async (request, reply) => {

@@ -47,7 +47,8 @@ const soundingJson = (s: SoundingRow) => ({
   stored_at: s.storedAt,
 });
 
-const problems = { 400: problemSchema, 401: problemSchema, 403: problemSchema, 404: problemSchema };
+/** Every sounding route reads or writes the archive: 503 + Retry-After when the storage fails (error-handler.ts). */
+const problems = { 400: problemSchema, 401: problemSchema, 403: problemSchema, 404: problemSchema, 503: problemSchema };
 
 const stationSoundingsRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
   app.put(

@@ -10,7 +10,7 @@
  */
 
 import { z } from 'zod';
-import { MAX_NETWORK_STATIONS, MAX_OBSERVATIONS } from '../../limits.js';
+import { MAX_MET_RECORDS, MAX_NETWORK_STATIONS, MAX_OBSERVATIONS } from '../../limits.js';
 import { DEFAULT_COMMON_MODE_SIGMA_THRESHOLD_M, SATELLITE_CLOCK_HANDLING } from '../../services/network-estimation.js';
 import { ZWD_OPTIONS, type OptionSpec } from '../../services/zwd-options.js';
 import { bounded, provenanceFields, siteSchema, sizedArray, strictObject } from './common.js';
@@ -24,6 +24,7 @@ import {
   zwdEstimatesResponse,
   zwdGradientOptionsSchema,
   zwdNodeResponse,
+  zwdMetRecordSchema,
   zwdObservationSchema,
   zwdOptionQueryFields,
   zwdSeriesEntryResponse,
@@ -36,6 +37,19 @@ export const DEFAULT_NETWORK_SOURCE = 'network-estimates';
 export const networkObservationSchema = zwdObservationSchema.extend({
   station: stationIdSchema.describe('Station of the observation: one of stations[].id'),
 });
+
+/** A met record of a network request: the single-station record plus `station`, like the observations. */
+export const networkMetRecordSchema = zwdMetRecordSchema.extend({
+  station: stationIdSchema.describe('Station of the record: one of stations[].id'),
+});
+
+const metField = z
+  .array(networkMetRecordSchema, { error: 'must be an array of met records' })
+  .max(MAX_MET_RECORDS, { error: `must hold at most ${MAX_MET_RECORDS} records (all stations together)` })
+  .optional()
+  .describe(
+    `Surface met at the stations' site heights, each record naming its station, in any order (at most ${MAX_MET_RECORDS} records over all stations): per station as \`met\` of POST /v1/zwd-estimates (interpolated linearly within options.met_max_gap_s, the pressure bridged across longer gaps), giving that station's series ZHD, ZWD = ZTD − ZHD, Tm and PWV per epoch. A station without records gets zhd_source "apriori"`,
+  );
 
 /** A station of POST /v1/network-estimates: its id, site and a-priori delays. */
 export const networkStationSchema = strictObject({
@@ -81,11 +95,24 @@ export const networkOptionsSchema = strictObject({
     'Estimation options: those of POST /v1/zwd-estimates (docs/zwd-estimation.md) plus satellite_clocks, reference_station and common_mode_sigma_threshold_m',
   );
 
-const observationsField = sizedArray(
+const observationObjects = sizedArray(
   z.array(networkObservationSchema, { error: 'must be an array of observations' }),
   MAX_OBSERVATIONS,
   'observations',
-).describe('Zero-difference residuals of all stations, in any order');
+);
+
+/** The observations as column arrays (documented form; checked by src/http/columns.ts, one loop per column). */
+export const networkObservationColumnsSchema = strictObject(
+  Object.fromEntries(Object.entries(networkObservationSchema.shape).map(([k, v]) => [k, z.array(v as z.ZodType)])),
+).describe(
+  `The observations as column arrays of equal length (1..${MAX_OBSERVATIONS}), one per field of an observation, station included; sigma_m may be absent, or null on a row`,
+);
+
+const observationsField = z
+  .union([observationObjects, networkObservationColumnsSchema])
+  .describe(
+    'Zero-difference residuals of all stations, in any order: an array of objects, or an object of column arrays (as POST /v1/zwd-estimates, plus a station column)',
+  );
 
 const stationsField = <T extends z.ZodType>(station: T) =>
   sizedArray(z.array(station, { error: 'must be an array of stations' }), MAX_NETWORK_STATIONS, 'stations');
@@ -93,6 +120,7 @@ const stationsField = <T extends z.ZodType>(station: T) =>
 export const networkEstimatesRequest = strictObject({
   stations: stationsField(networkStationSchema).describe('The stations: id, site and optional a-priori delays'),
   observations: observationsField,
+  met: metField,
   options: networkOptionsSchema,
 });
 
@@ -101,11 +129,21 @@ export const networkStoredEstimatesRequest = strictObject({
     'Archive stations (their stored coordinates are the sites) and optional a-priori delays',
   ),
   observations: observationsField,
+  met: metField,
   options: networkOptionsSchema,
 });
 
-export type NetworkEstimatesRequest = z.output<typeof networkEstimatesRequest>;
-export type NetworkStoredEstimatesRequest = z.output<typeof networkStoredEstimatesRequest>;
+/**
+ * The bodies as the worker checks them, by the form of their observations: objects (zod, field errors
+ * such as observations.3.station), or columns (checked by src/http/columns.ts; the rest here).
+ */
+export const networkObjectRows = networkEstimatesRequest.extend({ observations: observationObjects });
+export const networkColumnarRest = networkEstimatesRequest.extend({ observations: z.unknown() });
+export const networkStoredObjectRows = networkStoredEstimatesRequest.extend({ observations: observationObjects });
+export const networkStoredColumnarRest = networkStoredEstimatesRequest.extend({ observations: z.unknown() });
+
+export type NetworkEstimatesRequest = z.output<typeof networkObjectRows>;
+export type NetworkStoredEstimatesRequest = z.output<typeof networkStoredObjectRows>;
 export type NetworkOptionsBody = z.output<typeof networkOptionsSchema>;
 
 // ---------------------------------------------------------------------------------------------

@@ -1,34 +1,51 @@
 /**
  * The network-estimation requests as a compute task (run in a worker thread by src/workers): the
- * body bytes are parsed (JSON, or a CSV table with a station column plus stations and options from
- * the query, adapters/network-csv.ts), validated against the route's schema, turned into the domain
+ * body bytes are parsed (JSON, an Arrow IPC table with the rest of the request in its metadata, or a
+ * CSV table with a station column plus stations and options from the query, adapters/network-csv.ts);
+ * observations as objects or as column arrays (src/http/columns.ts) are validated against the route's schema, turned into the domain
  * request (adapters/network-estimation.ts), estimated by src/services/network-estimation.ts, and the
  * answer is serialised here. For the storing route the stations' sites come from the archive
  * (`archiveSites`, read by the route) and every station's delay columns come back to be stored.
  */
 
+import { ModelDomainError } from '../../domain/errors.js';
 import type { Site } from '../../domain/site.js';
+import type { NetworkObservationColumns } from '../../estimation/network/types.js';
 import { FormatError } from '../../formats/format-error.js';
+import { MAX_OBSERVATIONS } from '../../limits.js';
 import { CallerError } from '../../services/caller-error.js';
 import { networkDelayColumns, runNetworkEstimation } from '../../services/network-estimation.js';
-import { checkStorableDelays, type DelayColumns } from '../../services/zwd-estimation.js';
+import { checkStorableDelays, checkStorableZwd, type DelayColumns } from '../../services/zwd-estimation.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import { readNetworkObservationCsv, stationsFromQuery } from '../adapters/network-csv.js';
-import { networkEstimatesResponseOf, toNetworkRequest, type NetworkStationBody } from '../adapters/network-estimation.js';
+import {
+  networkEstimatesResponseOf,
+  networkObservationsFromColumns,
+  networkObservationsFromObjects,
+  toNetworkRequest,
+  type NetworkStationBody,
+} from '../adapters/network-estimation.js';
+import { readArrowRequest } from '../answer-shape.js';
+import { columnSpecsOf, readColumns } from '../columns.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
 import {
+  networkColumnarRest,
   networkCsvQuerySchema,
-  networkEstimatesRequest,
-  networkStoredEstimatesRequest,
+  networkObjectRows,
+  networkObservationSchema,
+  networkStoredColumnarRest,
+  networkStoredObjectRows,
   networkStoredQuerySchema,
+  type NetworkEstimatesRequest,
+  type NetworkStoredEstimatesRequest,
 } from '../schemas/network-estimates.js';
 import { optionsFromQuery } from '../schemas/zwd-estimates.js';
 import { asOutcome, fail } from './task-errors.js';
 
 export interface NetworkRequestTaskInput {
-  /** The request body as received: JSON bytes or CSV text. */
+  /** The request body as received: JSON bytes, an Arrow IPC stream or CSV text. */
   body: Uint8Array | string;
-  format: 'json' | 'csv';
+  format: 'json' | 'csv' | 'arrow';
   /** Raw query parameters (stations and options of a CSV request). */
   query: Record<string, unknown>;
   /** The storing route: the archive's stations by id (their sites); a station not in it is a 404. */
@@ -50,8 +67,17 @@ const utf8 = (text: string): Uint8Array => new TextEncoder().encode(text);
 const bodyText = (body: Uint8Array | string) =>
   typeof body === 'string' ? body : Buffer.from(body.buffer, body.byteOffset, body.byteLength).toString('utf8');
 
-/** The body as the JSON-equivalent object: a CSV table plus stations and options from the query, or the parsed JSON. */
-function rawBody(input: NetworkRequestTaskInput, text: string, storing: boolean): unknown {
+/**
+ * The body as the JSON-equivalent object: a CSV table plus stations and options from the query, the
+ * parsed JSON, or an Arrow table plus its metadata.
+ */
+function rawBody(input: NetworkRequestTaskInput, storing: boolean): unknown {
+  if (input.format === 'arrow') {
+    // The observations are the table (station column included); the rest of the request is JSON in the schema metadata "request".
+    const { columns, rest } = readArrowRequest(input.body as Uint8Array);
+    return { ...(rest !== null && typeof rest === 'object' ? rest : {}), observations: columns };
+  }
+  const text = bodyText(input.body);
   if (input.format === 'json') {
     try {
       return JSON.parse(text);
@@ -77,45 +103,97 @@ function rawBody(input: NetworkRequestTaskInput, text: string, storing: boolean)
   };
 }
 
+const OBSERVATION_COLUMNS = columnSpecsOf(networkObservationSchema.shape);
+
+const isColumnObject = (v: unknown) => v !== null && typeof v === 'object' && !Array.isArray(v);
+
+type ValidatedBody = Pick<NetworkEstimatesRequest, 'met' | 'options'> & {
+  stations: NetworkStoredEstimatesRequest['stations'] | NetworkEstimatesRequest['stations'];
+};
+
+type Validated =
+  | { ok: true; body: ValidatedBody; observations: NetworkObservationColumns; columnar: boolean }
+  | { ok: false; outcome: TaskOutcome<never> };
+
+/**
+ * The body checked against the route's schema. Observations as objects go through zod with the rest;
+ * observations as column arrays (JSON or Arrow) are checked by src/http/columns.ts with the same rules
+ * and messages (fields name the column and the row), the rest by the schema without them.
+ */
+function validatedBody(raw: unknown, storing: boolean): Validated {
+  const given = (raw ?? {}) as { observations?: unknown };
+  const columnar = isColumnObject(given.observations);
+  let observations: NetworkObservationColumns | undefined;
+  if (columnar) {
+    const read = readColumns(given.observations, 'observations', OBSERVATION_COLUMNS, MAX_OBSERVATIONS, 'observations');
+    if (!read.ok) return { ok: false, outcome: fail(400, read.errors) };
+    observations = networkObservationsFromColumns(read.columns);
+  }
+  const schema = storing
+    ? columnar
+      ? networkStoredColumnarRest
+      : networkStoredObjectRows
+    : columnar
+      ? networkColumnarRest
+      : networkObjectRows;
+  const parsed = schema.safeParse(raw);
+  if (!parsed.success) return { ok: false, outcome: fail(400, issuesToFieldErrors(parsed.error.issues)) };
+  const { observations: objects, ...body } = parsed.data as NetworkEstimatesRequest;
+  observations ??= networkObservationsFromObjects(objects);
+  return { ok: true, body: body as ValidatedBody, observations, columnar };
+}
+
+/** An estimator's `observations.<row>.<field>` as the columnar form names it, `observations.<field>.<row>`. */
+function asColumnField(err: unknown): unknown {
+  if (!(err instanceof ModelDomainError) && !(err instanceof CallerError)) return err;
+  const column = (field: string) => field.replace(/^observations\.(\d+)\.(\w+)$/, 'observations.$2.$1');
+  if (err instanceof ModelDomainError) {
+    const field = column(err.field);
+    return field === err.field ? err : new ModelDomainError(field, err.message.replace(err.field, field), err.status);
+  }
+  const errors = err.errors.map((e) => ({ ...e, field: column(e.field) }));
+  return errors.some((e, i) => e.field !== err.errors[i]!.field) ? new CallerError(err.status, detailOf(errors), errors) : err;
+}
+
 /** POST /v1/network-estimates and POST /v1/network/zwd-estimates: parse, validate, estimate, serialise. */
 export async function handleNetworkRequest(input: NetworkRequestTaskInput): Promise<TaskOutcome<NetworkRequestTaskOutput>> {
+  let columnar = false;
   try {
     const archive = input.archiveSites;
-    const raw = rawBody(input, bodyText(input.body), archive !== undefined);
+    const validated = validatedBody(rawBody(input, archive !== undefined), archive !== undefined);
+    if (!validated.ok) return validated.outcome;
+    const { body } = validated;
+    columnar = validated.columnar;
     let stations: NetworkStationBody[];
-    let body;
     if (archive) {
-      const parsed = networkStoredEstimatesRequest.safeParse(raw);
-      if (!parsed.success) return fail(400, issuesToFieldErrors(parsed.error.issues));
-      body = parsed.data;
-      const missing = body.stations.findIndex((s) => archive[s.id] === undefined);
+      const listed = body.stations as NetworkStoredEstimatesRequest['stations'];
+      const missing = listed.findIndex((s) => archive[s.id] === undefined);
       if (missing >= 0) {
-        const id = body.stations[missing]!.id;
+        const id = listed[missing]!.id;
         return fail(404, [
           { field: `stations.${missing}.id`, message: `no station "${id}" in the archive; create it with PUT /v1/stations/${id}` },
         ]);
       }
-      stations = body.stations.map((s) => ({ ...s, site: archive[s.id]! }));
+      stations = listed.map((s) => ({ ...s, site: archive[s.id]! }));
     } else {
-      const parsed = networkEstimatesRequest.safeParse(raw);
-      if (!parsed.success) return fail(400, issuesToFieldErrors(parsed.error.issues));
-      body = parsed.data;
-      stations = body.stations.map((s) => ({
+      stations = (body.stations as NetworkEstimatesRequest['stations']).map((s) => ({
         id: s.id,
         site: { latitudeDeg: s.site.latitude_deg, longitudeDeg: s.site.longitude_deg, heightM: s.site.height_m },
         apriori: s.apriori,
       }));
     }
-    const result = runNetworkEstimation(toNetworkRequest(stations, body));
-    const json = JSON.stringify(networkEstimatesResponseOf(result));
-    const observations = body.observations.length;
-    if (!archive) return { ok: true, output: { json: utf8(json), observations } };
+    const result = runNetworkEstimation(toNetworkRequest(stations, body, validated.observations));
+    const observations = validated.observations.epochMs.length;
+    if (!archive) return { ok: true, output: { json: utf8(JSON.stringify(networkEstimatesResponseOf(result))), observations } };
 
-    // Storing: every station's series must be one a direct deposit would accept, or nothing is stored.
+    // Storing: every station's series must be one a direct deposit would accept, or nothing is stored;
+    // each station's series is checked as the single-station storing route checks its one.
+    const storeWarnings: string[] = [];
     const delays = result.output.stations.map((st, s) => {
       const columns = networkDelayColumns(result, s);
       try {
         checkStorableDelays(columns);
+        storeWarnings.push(...checkStorableZwd(columns).map((w) => `station ${st.station}: ${w.text}`));
       } catch (err) {
         if (err instanceof CallerError)
           throw CallerError.field(422, `stations.${s}`, `station ${st.station}: ${err.errors[0]?.message ?? err.message}`);
@@ -123,11 +201,12 @@ export async function handleNetworkRequest(input: NetworkRequestTaskInput): Prom
       }
       return { station: st.station, columns };
     });
+    const json = JSON.stringify(networkEstimatesResponseOf(result, storeWarnings));
     return {
       ok: true,
       output: { json: utf8(json.slice(0, -1)), observations, delays, modelFingerprint: result.modelFingerprint, models: result.models },
     };
   } catch (err) {
-    return asOutcome(err);
+    return asOutcome(columnar ? asColumnField(err) : err);
   }
 }
