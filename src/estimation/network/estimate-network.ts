@@ -536,7 +536,11 @@ function stationResults(problem: SubProblem, reference: number): NetworkStationR
   const diag = solution.inverseDiagonal;
   const adj = solution.adjacentCovariance;
   const singleCounts = singleStationCounts(net).perStation;
-  /** Included observations of station s within one node interval of each node. */
+  /**
+   * Included observations of station s strictly within one node interval of each node
+   * (|t − node| < Δ, as the single-station estimator counts them: an epoch on the neighbouring node
+   * does not count).
+   */
   const nearby = (s: number, nodes: Float64Array, intervalMs: number) => {
     const out = new Array<number>(nodes.length).fill(0);
     const d = net.stations[s]!.design;
@@ -545,7 +549,7 @@ function stationResults(problem: SubProblem, reference: number): NetworkStationR
       for (let i = d.epochStart[ks]!; i < d.epochStart[ks + 1]!; i++) n += solution.included[s]![i]!;
       if (n === 0) continue;
       const t = d.epochMs[ks]!;
-      for (let j = 0; j < nodes.length; j++) if (Math.abs(nodes[j]! - t) <= intervalMs) out[j]! += n;
+      for (let j = 0; j < nodes.length; j++) if (Math.abs(nodes[j]! - t) < intervalMs) out[j]! += n;
     }
     return out;
   };
