@@ -115,7 +115,15 @@ export function solveNetworkOnce(
       });
     }
   }
-  const advance = (f: Family, interval: number) => {
+  // Moving a family to the node interval of an epoch takes two steps, run for all families in turn:
+  // first every node that no later epoch uses is eliminated, then the new nodes enter the front.
+  // Eliminating before activating keeps the front smaller during the eliminations (the node
+  // elimination and the reverse sweep cost O(front²) per node).
+  const retire = (f: Family, interval: number) => {
+    if (f.current < 0) return;
+    for (let j = f.current; j < interval; j++) frontal.eliminate(f.offset + j);
+  };
+  const enter = (f: Family, interval: number) => {
     if (f.current < 0) {
       frontal.activate(f.offset);
       if (f.settings.aprioriSigmaM !== null) frontal.addValueConstraint(f.offset, 1 / f.settings.aprioriSigmaM ** 2);
@@ -127,14 +135,14 @@ export function solveNetworkOnce(
       f.current = 0;
     }
     while (f.current < interval) {
-      frontal.eliminate(f.offset + f.current);
       frontal.activate(f.offset + f.current + 2);
       const rw = stepWeight(f, f.current + 1);
       if (rw !== null) frontal.addDifferenceConstraint(f.offset + f.current + 2, f.offset + f.current + 1, rw);
       f.current++;
     }
   };
-  const perStation = families.length / S;
+  const intervalOf = (f: number, k: number) => (f % perStationFamilies === 0 ? net.zwdInterval[k]! : net.gradientInterval[k]!);
+  const perStationFamilies = families.length / S;
 
   let maxEntries = 1;
   for (let k = 0; k < net.epochMs.length; k++) maxEntries = Math.max(maxEntries, net.entryStart[k + 1]! - net.entryStart[k]!);
@@ -174,10 +182,8 @@ export function solveNetworkOnce(
 
   // Forward pass: assembly and elimination.
   for (let k = 0; k < epochs; k++) {
-    for (let s = 0; s < S; s++) {
-      advance(families[s * perStation]!, net.zwdInterval[k]!);
-      for (let f = 1; f < perStation; f++) advance(families[s * perStation + f]!, net.gradientInterval[k]!);
-    }
+    for (let f = 0; f < families.length; f++) retire(families[f]!, intervalOf(f, k));
+    for (let f = 0; f < families.length; f++) enter(families[f]!, intervalOf(f, k));
     stamp[k] = frontal.eliminatedCount;
     let epoch: ReducedEpoch | null | undefined = cache?.get(k);
     if (epoch === undefined) {
