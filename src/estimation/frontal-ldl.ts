@@ -68,10 +68,15 @@ export interface ReverseFrontView {
 export class FrontalLdl {
   private readonly slotOf: Int32Array;
   private readonly paramAt: Int32Array;
+  /**
+   * The dense front (maxFront × maxFront, by slot). The assembly adds to both halves, but only the
+   * lower triangle (row ≥ column) is kept up to date by eliminate() and read: the upper half is stale.
+   */
   private readonly front: Float64Array;
   private readonly rhsFront: Float64Array;
-  /** Scratch: the occupied front slots during one elimination. */
+  /** Scratch: the occupied front slots during one elimination, and the pivot's column there. */
   private readonly activeSlots: Int32Array;
+  private readonly columnScratch: Float64Array;
   private readonly directDiagonal: Float64Array;
   private readonly activation: Int32Array;
   private readonly position: Int32Array;
@@ -99,6 +104,7 @@ export class FrontalLdl {
     this.front = new Float64Array(maxFront * maxFront);
     this.rhsFront = new Float64Array(maxFront);
     this.activeSlots = new Int32Array(maxFront);
+    this.columnScratch = new Float64Array(maxFront);
     this.directDiagonal = new Float64Array(parameters);
     this.activation = new Int32Array(parameters).fill(-1);
     this.position = new Int32Array(parameters).fill(-1);
@@ -228,22 +234,27 @@ export class FrontalLdl {
     let count = 0;
     const gs = rhs[s]!;
     const rowS = s * mf;
-    // The occupied slots other than s, once; the update below runs over them only.
+    // The occupied slots other than s, once, in increasing slot order, with column s of the front
+    // (N_ts, read from the lower triangle: slot t > s in row t, t < s in row s).
     const active = this.activeSlots;
+    const column = this.columnScratch;
     let n = 0;
-    for (let t = 0; t < mf; t++) if (t !== s && paramAt[t]! >= 0) active[n++] = t;
+    for (let t = 0; t < mf; t++) {
+      if (t === s || paramAt[t]! < 0) continue;
+      column[n] = t > s ? front[t * mf + s]! : front[rowS + t]!;
+      active[n++] = t;
+    }
+    // Schur complement N_tu −= N_ts N_su / d on the lower triangle only (u ≤ t): half the work of
+    // the full square, the larger cost of a wide front.
     for (let i = 0; i < n; i++) {
       const t = active[i]!;
-      const l = front[t * mf + s]! / d;
+      const l = column[i]! / d;
       neighbour[base + count] = paramAt[t]!;
       factor[base + count] = l;
       count++;
       if (l !== 0) {
         const rowT = t * mf;
-        for (let j = 0; j < n; j++) {
-          const u = active[j]!;
-          front[rowT + u]! -= l * front[rowS + u]!;
-        }
+        for (let j = 0; j <= i; j++) front[rowT + active[j]!]! -= l * column[j]!;
         rhs[t]! -= l * gs;
       }
     }
