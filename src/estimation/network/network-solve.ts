@@ -374,26 +374,20 @@ export function solveNetworkOnce(
       }
     }
     for (let p = 0; p < dz; p++) for (let r = 0; r < p; r++) q[r * dz + p] = q[p * dz + r]!;
-    // Satellite clocks σ̂ = t − K_σ ẑ (datum 0); Φ = Q K_σᵀ (dz×K), Ψ = K_σ Φ (K×K).
+    // Satellite clocks σ̂ = t − K_σ ẑ (datum 0); Φ = Q K_σᵀ (dz×K, kept transposed: phi[k·dz + p]), Ψ = K_σ Φ (K×K).
     const ks = sys.ks;
     for (let kk = 0; kk < K; kk++) {
       let v = sys.t[kk]!;
       for (let p = 0; p < dz; p++) v -= ks[kk * dz + p]! * zhat[p]!;
       satClock[kk] = sys.satDatum[kk] ? 0 : v;
     }
-    for (let p = 0; p < dz; p++) {
-      for (let kk = 0; kk < K; kk++) {
-        let v = 0;
-        const rowQ = p * dz;
-        const rowK = kk * dz;
-        for (let r = 0; r < dz; r++) v += q[rowQ + r]! * ks[rowK + r]!;
-        phi[p * K + kk] = v;
-      }
-    }
+    phiTransposed(q, ks, dz, K, phi);
     for (let k1 = 0; k1 < K; k1++) {
+      const row1 = k1 * dz;
       for (let k2 = 0; k2 <= k1; k2++) {
         let v = 0;
-        for (let p = 0; p < dz; p++) v += ks[k1 * dz + p]! * phi[p * K + k2]!;
+        const row2 = k2 * dz;
+        for (let p = 0; p < dz; p++) v += ks[row1 + p]! * phi[row2 + p]!;
         psi[k1 * K + k2] = v;
         psi[k2 * K + k1] = v;
       }
@@ -433,8 +427,8 @@ export function solveNetworkOnce(
         }
         for (let f = 0; f < d; f++) {
           let v = 0;
-          const row = (d * a + f) * K;
-          for (let k1 = 0; k1 < K; k1++) v += phi[row + k1]! * omega[k1]!;
+          const p = d * a + f;
+          for (let k1 = 0; k1 < K; k1++) v += phi[k1 * dz + p]! * omega[k1]!;
           phiOmega[f] = v;
         }
       }
@@ -467,7 +461,7 @@ export function solveNetworkOnce(
         let clockTerm = rc ? 1 / Da : 0;
         if (K > 0) {
           quad += psi[kk * K + kk]!;
-          for (let f = 0; f < d; f++) quad -= 2 * cx[3 * xe + f]! * phi[(d * a + f) * K + kk]!;
+          for (let f = 0; f < d; f++) quad -= 2 * cx[3 * xe + f]! * phi[kk * dz + d * a + f]!;
           clockTerm += Sinv[kk * K + kk]!;
           if (rc) {
             quad += omegaPsiOmega - 2 * psiOmega[kk]!;
@@ -574,4 +568,46 @@ export function solveNetworkOnce(
     clockUnknowns,
     constraints: S * constraintCount(layout, options),
   };
+}
+
+/**
+ * Φᵀ = K_σ Q (K×dz, row k at k·dz) for symmetric Q (dz×dz) and K_σ (K×dz): four rows of K_σ per
+ * pass over Q, so each element of Q is loaded once for four products (the largest cost of the
+ * residual variances: K·dz² multiply-adds per epoch).
+ */
+function phiTransposed(q: Float64Array, ks: Float64Array, dz: number, K: number, out: Float64Array): void {
+  let k = 0;
+  for (; k + 3 < K; k += 4) {
+    const r0 = k * dz;
+    const r1 = r0 + dz;
+    const r2 = r1 + dz;
+    const r3 = r2 + dz;
+    for (let p = 0; p < dz; p++) {
+      const rowQ = p * dz;
+      let s0 = 0;
+      let s1 = 0;
+      let s2 = 0;
+      let s3 = 0;
+      for (let r = 0; r < dz; r++) {
+        const v = q[rowQ + r]!;
+        s0 += v * ks[r0 + r]!;
+        s1 += v * ks[r1 + r]!;
+        s2 += v * ks[r2 + r]!;
+        s3 += v * ks[r3 + r]!;
+      }
+      out[r0 + p] = s0;
+      out[r1 + p] = s1;
+      out[r2 + p] = s2;
+      out[r3 + p] = s3;
+    }
+  }
+  for (; k < K; k++) {
+    const r0 = k * dz;
+    for (let p = 0; p < dz; p++) {
+      const rowQ = p * dz;
+      let s0 = 0;
+      for (let r = 0; r < dz; r++) s0 += q[rowQ + r]! * ks[r0 + r]!;
+      out[r0 + p] = s0;
+    }
+  }
 }
