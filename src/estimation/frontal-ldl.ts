@@ -358,13 +358,37 @@ export class FrontalLdl {
           lcol[a] = factor[start + a]!;
         }
         let zpp = 1 / this.pivot[p]!;
-        for (let a = 0; a < count; a++) {
+        // zrow = −Z l over the neighbours, four rows per pass (each l_b and slot loaded once for four).
+        let a = 0;
+        for (; a + 3 < count; a += 4) {
+          const r0 = nslots[a]! * mf;
+          const r1 = nslots[a + 1]! * mf;
+          const r2 = nslots[a + 2]! * mf;
+          const r3 = nslots[a + 3]! * mf;
+          let v0 = 0;
+          let v1 = 0;
+          let v2 = 0;
+          let v3 = 0;
+          for (let b = 0; b < count; b++) {
+            const l = lcol[b]!;
+            const t = nslots[b]!;
+            v0 -= l * z[r0 + t]!;
+            v1 -= l * z[r1 + t]!;
+            v2 -= l * z[r2 + t]!;
+            v3 -= l * z[r3 + t]!;
+          }
+          zrow[a] = v0;
+          zrow[a + 1] = v1;
+          zrow[a + 2] = v2;
+          zrow[a + 3] = v3;
+        }
+        for (; a < count; a++) {
           const row = nslots[a]! * mf;
           let v = 0;
           for (let b = 0; b < count; b++) v -= lcol[b]! * z[row + nslots[b]!]!;
           zrow[a] = v;
-          zpp -= lcol[a]! * v;
         }
+        for (let b = 0; b < count; b++) zpp -= lcol[b]! * zrow[b]!;
         let s = 0;
         while (rparam[s]! >= 0) s++;
         rparam[s] = p;
