@@ -94,10 +94,13 @@ export class FrontalLdl {
   /**
    * @param parameters number of unknowns
    * @param maxFront largest number of parameters in the front at one time
+   * @param factorCapacity entries of L to reserve at once (default: up to 1 M, grown by half when
+   *        full); a caller that knows the size saves the copies of growing a large factor
    */
   constructor(
     readonly parameters: number,
     readonly maxFront: number,
+    factorCapacity?: number,
   ) {
     this.slotOf = new Int32Array(parameters).fill(-1);
     this.paramAt = new Int32Array(maxFront).fill(-1);
@@ -112,7 +115,7 @@ export class FrontalLdl {
     this.pivot = new Float64Array(parameters);
     this.forward = new Float64Array(parameters);
     this.neighbourStart = new Int32Array(parameters + 1);
-    const initial = Math.max(16, Math.min(parameters * (maxFront - 1), 1 << 20));
+    const initial = Math.max(16, factorCapacity ?? Math.min(parameters * (maxFront - 1), 1 << 20));
     this.neighbour = new Int32Array(initial);
     this.factor = new Float64Array(initial);
     this.inverseDiagonal = new Float64Array(parameters);

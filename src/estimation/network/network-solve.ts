@@ -93,7 +93,8 @@ export function solveNetworkOnce(
   const P = layout.parameters;
   const d = net.gradients ? 3 : 1;
   const local = net.gradients ? 6 : 2;
-  const frontal = new FrontalLdl(S * P, S * local);
+  // Every node has at most the front (S·local − 1) as neighbours in L.
+  const frontal = new FrontalLdl(S * P, S * local, S * P * (S * local - 1));
   const families: Family[] = [];
   for (let s = 0; s < S; s++) {
     const o = s * P;
@@ -520,7 +521,19 @@ export function solveNetworkOnce(
       for (let r = 0; r < dz; r++) v += q[p * dz + r]! * u2[r]!;
       varChi += u2[p]! * v;
     }
-    // Cov(ẑ, ζ), ζ = (1/S) Σ_t δw_t(t_k).
+    // Cov(ẑ, ζ), ζ = (1/S) Σ_t δw_t(t_k). With every station present, δw_t(t_k) is one of ẑ and
+    // the covariances are in Q_zz (q) already; otherwise from the reverse front.
+    if (Sp === S) {
+      let cov = 0;
+      for (let p = 0; p < dz; p++) {
+        const row = p * dz;
+        let c = 0;
+        for (let a = 0; a < Sp; a++) c += q[row + d * a]!;
+        cov += u2[p]! * c;
+      }
+      cov /= S;
+      return varChi > 0 && meanVariance > 0 ? cov / Math.sqrt(varChi * meanVariance) : Number.NaN;
+    }
     const j = net.zwdInterval[k]!;
     const alpha = net.zwdAlpha[k]!;
     let cov = 0;
