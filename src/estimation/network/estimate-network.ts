@@ -36,6 +36,9 @@ import { nodeRejectionWindowMs } from '../outliers.js';
 import type { GradientNodeEstimate, RejectedObservation } from '../types.js';
 import { buildNetworkDesign, stationDesigns, type NetworkDesign, type StationSubset } from './network-design.js';
 import { screenedSolution } from '../screening.js';
+import { MAX_REWEIGHTINGS } from '../estimate.js';
+import { initialWeighting, setWeights } from '../design.js';
+import { screeningBound, varianceComponents } from '../variance-components.js';
 import { median } from './median.js';
 import { pointPositioning, pooledStatistics } from './point-positioning.js';
 import { ReducedEpochCache } from './reduced-epochs.js';
@@ -62,7 +65,9 @@ interface SubProblem {
   varianceFactor: number | null;
   degreesOfFreedom: number;
   unknowns: number;
+  /** 1: the formal errors are those of the final weights (re-estimated when scaleSigmas is on). */
   sigmaScale: number;
+  weighting: { constantM: number; elevationM: number; givenSigmaScale: number };
   solutions: number;
   screeningComplete: boolean;
   warnings: string[];
@@ -146,6 +151,7 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
       rmsM: Math.sqrt(problem.solution.residualSquareSumM2 / problem.solution.observationsUsed),
       varianceFactor: problem.varianceFactor,
       sigmaScale: problem.sigmaScale,
+      weighting: problem.weighting,
       solutions: problem.solutions,
       screeningComplete: problem.screeningComplete,
     };
@@ -311,12 +317,30 @@ function estimatedClockModelNotes(options: NetworkEstimationInput['options']): s
       'with satellite clocks estimated, formal errors are not inflated for time-correlated residuals (not implemented for the network solution): they describe white noise only',
     );
   }
-  if (options.scaleSigmas) {
-    notes.push(
-      'scale_sigmas with satellite clocks estimated: the formal errors are multiplied by √(variance factor); the observation weights are not re-estimated by variance components as in the single-station estimator',
-    );
-  }
   return notes;
+}
+
+/**
+ * The factor c by which every observation weight changes when the weighting goes from (a, b,
+ * given scale) to the next, or null when the weights change by different factors: with only one
+ * component in use ("elevation": a = 0; "uniform": b = 0) and the given sigmas (if any) scaled
+ * alike, every weight 1/σ² changes by the same factor, and the kept reduced epochs are scaled
+ * instead of being formed again.
+ */
+function uniformWeightFactor(
+  now: { a: number; b: number },
+  nowGiven: number,
+  next: { a: number; b: number },
+  nextGiven: number,
+  net: NetworkDesign,
+): number | null {
+  const ratios: number[] = [];
+  if (now.a > 0 || next.a > 0) ratios.push(now.a > 0 ? (now.a / next.a) ** 2 : Number.NaN);
+  if (now.b > 0 || next.b > 0) ratios.push(now.b > 0 ? (now.b / next.b) ** 2 : Number.NaN);
+  const anyGiven = net.stations.some((st) => st.design.givenSigmaM.some((g) => !Number.isNaN(g)));
+  if (anyGiven) ratios.push(nowGiven / nextGiven);
+  if (ratios.length === 0 || ratios.some((r) => !Number.isFinite(r))) return null;
+  return ratios.every((r) => Math.abs(r / ratios[0]! - 1) < 1e-12) ? ratios[0]! : null;
 }
 
 /** The caller's reference station, or the one closest to the centroid of all stations. */
@@ -406,8 +430,11 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
   const rejected: RejectedObservation[][] = net.stations.map(() => []);
   const layout = stationLayout(net);
   const unknownsOf = (s: NetworkSolution) => S * layout.parameters + s.clockUnknowns;
-  // Several solutions only when screening: then keep the reduced epochs between them.
-  const cache = options.outlierThreshold === null ? undefined : new ReducedEpochCache(net.epochMs.length);
+  // Several solutions only when screening or re-weighting: then keep the reduced epochs between them.
+  const cache = options.outlierThreshold === null && !options.scaleSigmas ? undefined : new ReducedEpochCache(net.epochMs.length);
+  let weighting = initialWeighting(options);
+  let givenScale = 1;
+  let reweightings = 0;
   const screened = screenedSolution(
     {
       solve: () => solveNamed(net, options, used, reference, cache),
@@ -431,6 +458,32 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
         used[c.station]![c.index] = 0;
         cache?.invalidate(networkEpochOf(net, c.station, c.index));
       },
+      // Variance components as in the single-station estimator (estimate.ts), one set for the whole
+      // network, estimated from every station's residuals and σ_v.
+      reweight: (s, varianceFactor) => {
+        if (!options.scaleSigmas || reweightings >= MAX_REWEIGHTINGS || varianceFactor === null) return false;
+        const next = varianceComponents(
+          net.stations.map((st, k) => ({
+            design: st.design,
+            fittedResidualM: s.fittedResidualM[k]!,
+            residualVarianceM2: s.residualVarianceM2[k]!,
+            used: s.included[k]!,
+          })),
+          options.weighting,
+          weighting,
+          givenScale,
+          screeningBound(options.outlierThreshold, varianceFactor),
+        );
+        if (!next.changed) return false;
+        const factor = uniformWeightFactor(weighting, givenScale, next.weighting, next.givenScale, net);
+        weighting = next.weighting;
+        givenScale = next.givenScale;
+        for (const st of net.stations) setWeights(st.design, weighting.a, weighting.b, givenScale);
+        if (factor === null) cache?.clear();
+        else cache?.scaleWeights(factor);
+        reweightings++;
+        return true;
+      },
     },
     options.outlierThreshold,
     options.maxRejections,
@@ -439,10 +492,12 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
   const warnings = [...screened.warnings];
   const unknowns = unknownsOf(solution);
   const degreesOfFreedom = solution.observationsUsed + solution.constraints - unknowns;
-  const sigmaScale = options.scaleSigmas && varianceFactor !== null ? Math.sqrt(varianceFactor) : 1;
+  // The weights were re-estimated (scaleSigmas): the formal errors are those of the final weights,
+  // as in the single-station estimator.
+  const sigmaScale = 1;
   if (varianceFactor === null) {
     warnings.push(
-      'no degrees of freedom (one observation per epoch with epoch_bias on, or as many unknowns as observations): the variance factor is not estimable and formal errors are not scaled',
+      'no degrees of freedom (one observation per epoch with epoch_bias on, or as many unknowns as observations): the variance factor is not estimable and the weights are not re-estimated',
     );
   }
   let low = 0;
@@ -452,7 +507,20 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
   });
   if (low > 0)
     warnings.push(`${low} observations below 3° were used: the Niell mapping functions are fitted from 3° up and are extrapolated there`);
-  return { net, used, solution, rejected, varianceFactor, degreesOfFreedom, unknowns, sigmaScale, solutions, screeningComplete, warnings };
+  return {
+    net,
+    used,
+    solution,
+    rejected,
+    varianceFactor,
+    degreesOfFreedom,
+    unknowns,
+    sigmaScale,
+    weighting: { constantM: weighting.a, elevationM: weighting.b, givenSigmaScale: givenScale },
+    solutions,
+    screeningComplete,
+    warnings,
+  };
 }
 
 /** Network epoch of design observation i of station s (binary search in the station's epoch starts). */

@@ -122,6 +122,13 @@ export interface NetworkEstimationStatistics {
   rmsM: number;
   varianceFactor: number | null;
   sigmaScale: number;
+  /**
+   * The observation weighting of the final solution with satellite clocks estimated: σ² = a² + b²/sin²e
+   * (a = constantM, b = elevationM) and the factor on the variances of caller-given sigmas, after
+   * variance components when scaleSigmas is on (the options' values otherwise); absent when every
+   * station was solved alone (its own weighting is in its single-station solution).
+   */
+  weighting?: { constantM: number; elevationM: number; givenSigmaScale: number } | undefined;
   solutions: number;
   screeningComplete: boolean;
 }
