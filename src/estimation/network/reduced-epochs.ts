@@ -86,7 +86,10 @@ export class ReducedEpochCache {
     this.epochs[epoch] = undefined;
   }
 
-  /** Every weight changed by the same factor c: R, r_z and the direct diagonal scale by c (the clock elimination is homogeneous in the weights). */
+  /**
+   * Every weight changed by the same factor c: R, r_z and the direct diagonal scale by c (the clock
+   * elimination is homogeneous of degree one in the weights).
+   */
   scaleWeights(c: number): void {
     for (const e of this.epochs) {
       if (e === undefined || e === EMPTY) continue;
