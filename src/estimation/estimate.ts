@@ -14,7 +14,7 @@
  */
 
 import { ModelDomainError } from '../domain/errors.js';
-import { epochInformation, kernelFactor, residualAutocorrelation, varianceInflation } from './correlated-noise.js';
+import { epochInformation, kernelFactor, medianSpacingMs, noiseInflation, type NoiseInflation } from './correlated-noise.js';
 import { buildDesign, initialWeighting, locate, nodeEpochMs, setWeights, type Design, type NodeLayout } from './design.js';
 import { SingularParameterError } from './frontal-ldl.js';
 import { epochStateRejectionWindowMs, nodeRejectionWindowMs, rejectionCandidates } from './outliers.js';
@@ -28,7 +28,6 @@ import type {
   RejectedObservation,
   ZwdEstimationInput,
   ZwdEstimationOutput,
-  ZwdEstimationStatistics,
   ZwdNodeEstimate,
 } from './types.js';
 
@@ -137,7 +136,9 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
   if (low > 0)
     warnings.push(`${low} observations below 3° were used: the mapping functions are fitted from 3° up and are extrapolated there`);
 
-  const noise = noiseInflation(input, design, layout, solution, used);
+  const noise = noiseInflation(input.options, design, solution, used, layout.gradientCount > 0, () =>
+    Array.from(design.inputIndex, (i) => input.observations.satellite[i]!),
+  );
   const bands = elevationBands(design, solution, used, rejectedDesign);
   for (const b of bands) {
     const name = `${((b.lowerRad * 180) / Math.PI).toFixed(0)}–${Math.min(90, (b.upperRad * 180) / Math.PI).toFixed(0)}°`;
@@ -214,67 +215,6 @@ function rejectionWindowMs(input: ZwdEstimationInput, design: Design, layout: Pa
   const median = (xs: number[]) => (xs.sort((a, b) => a - b), xs[Math.floor(xs.length / 2)]!);
   const lambdas = [lw, ln, le].filter((xs) => xs.length > 0).map(median);
   return epochStateRejectionWindowMs(lambdas, samplingMs);
-}
-
-interface NoiseInflation {
-  /** Variance factor per epoch of ZWD, north, east (1 without correlated noise). */
-  zwd: Float64Array;
-  north: Float64Array;
-  east: Float64Array;
-  statistics: ZwdEstimationStatistics['noiseCorrelation'];
-}
-
-/** The correlated-noise inflation of every epoch (correlated-noise.ts); all 1 when switched off. */
-function noiseInflation(
-  input: ZwdEstimationInput,
-  design: Design,
-  layout: ParameterLayout,
-  solution: Solution,
-  used: Uint8Array,
-): NoiseInflation {
-  const epochs = design.epochMs.length;
-  const ones = () => new Float64Array(epochs).fill(1);
-  const none: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
-  if (input.options.correlatedNoise === false || epochs < 3) return none;
-  const samplingMs = medianSpacingMs(design.epochMs);
-  const satellite = Array.from(design.inputIndex, (i) => input.observations.satellite[i]!);
-  const rho = residualAutocorrelation(design, solution, used, satellite, samplingMs);
-  const hours = samplingMs / 3_600_000;
-  const stepVariance = (q: number | null) => (q === null ? null : q * q * hours);
-  const qW = stepVariance(input.options.zwd.randomWalkMPerSqrtH);
-  const qG = input.options.gradients ? stepVariance(input.options.gradients.randomWalkMPerSqrtH) : null;
-  const out: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
-  const withGradients = layout.gradientCount > 0;
-  let sumW = 0,
-    sumG = 0,
-    count = 0;
-  for (let k = 0; k < epochs; k++) {
-    const [iW, iN, iE] = epochInformation(solution, k, withGradients);
-    out.zwd[k] = varianceInflation(iW, qW, rho);
-    if (withGradients) {
-      out.north[k] = varianceInflation(iN, qG, rho);
-      out.east[k] = varianceInflation(iE, qG, rho);
-    }
-    if (iW > 0) {
-      sumW += out.zwd[k]!;
-      sumG += (out.north[k]! + out.east[k]!) / 2;
-      count++;
-    }
-  }
-  out.statistics = {
-    samplingS: samplingMs / 1000,
-    autocorrelation: rho,
-    zwdVarianceInflation: count ? sumW / count : 1,
-    gradientVarianceInflation: withGradients && count ? sumG / count : 1,
-  };
-  return out;
-}
-
-function medianSpacingMs(epochMs: Float64Array): number {
-  const d: number[] = [];
-  for (let k = 1; k < epochMs.length; k++) d.push(epochMs[k]! - epochMs[k - 1]!);
-  d.sort((a, b) => a - b);
-  return d[Math.floor(d.length / 2)]!;
 }
 
 /** Post-fit residuals and rejections per elevation band. */

@@ -12,7 +12,7 @@
  * all stations on the same node layout.
  */
 
-import { constraintCount, randomWalkStepWeight, type ParameterLayout } from '../least-squares.js';
+import { constraintCount, EPOCH_NORMAL_ENTRIES, randomWalkStepWeight, type ParameterLayout } from '../least-squares.js';
 import type { PiecewiseLinearSettings, ZwdEstimationOptions } from '../types.js';
 import { EpochClockSystem } from './epoch-clocks.js';
 import { reducedEpoch, type ReducedEpoch, type ReducedEpochCache } from './reduced-epochs.js';
@@ -48,6 +48,12 @@ export interface NetworkSolution {
   included: Uint8Array[];
   /** Per network epoch. */
   epochs: EpochCovariances[];
+  /**
+   * Per station, per station epoch: its 3×3 block of the epoch's reduced normal matrix R (clocks
+   * eliminated), entries ww, wn, we, nn, ne, ee (EPOCH_NORMAL_ENTRIES each; 0 without data) [1/m²]:
+   * the epoch's information on the station's ZWD and gradients, for the correlated-noise inflation.
+   */
+  epochNormal: Float64Array[];
   weightedSquareSum: number;
   residualSquareSumM2: number;
   observationsUsed: number;
@@ -180,6 +186,12 @@ export function solveNetworkOnce(
   const projCoeff = new Float64Array(local * S);
   const projRows = new Int32Array(local * S);
   let clockUnknowns = 0;
+  const stationEpochAt = net.stations.map((st) => {
+    const m = new Int32Array(epochs).fill(-1);
+    st.networkEpoch.forEach((ke, ks) => (m[ke] = ks));
+    return m;
+  });
+  const epochNormal = net.stations.map((st) => new Float64Array(st.design.epochMs.length * EPOCH_NORMAL_ENTRIES));
 
   // Forward pass: assembly and elimination.
   for (let k = 0; k < epochs; k++) {
@@ -194,6 +206,7 @@ export function solveNetworkOnce(
     if (epoch === null || epoch === undefined || epoch.present.length === 0) continue;
     const Sp = epoch.present.length;
     clockUnknowns += epoch.clockUnknowns;
+    keepStationBlocks(epoch, d, k, stationEpochAt, epochNormal);
     for (let a = 0; a < Sp; a++) {
       const s = epoch.present[a]!;
       fillLocal(k, s);
@@ -239,11 +252,6 @@ export function solveNetworkOnce(
     if (list) list.push(k);
     else byStamp.set(stamp[k]!, [k]);
   }
-  const stationEpochAt = net.stations.map((st) => {
-    const m = new Int32Array(epochs).fill(-1);
-    st.networkEpoch.forEach((ke, ks) => (m[ke] = ks));
-    return m;
-  });
   let weightedSquareSum = 0;
   let residualSquareSumM2 = 0;
   let observationsUsed = 0;
@@ -575,12 +583,33 @@ export function solveNetworkOnce(
     receiverClockM,
     included,
     epochs: epochCov,
+    epochNormal,
     weightedSquareSum,
     residualSquareSumM2,
     observationsUsed,
     clockUnknowns,
     constraints: S * constraintCount(layout, options),
   };
+}
+
+/** Copies each present station's diagonal block of R (packed lower triangle) into its epoch's normal entries. */
+function keepStationBlocks(epoch: ReducedEpoch, d: number, k: number, stationEpochAt: Int32Array[], out: Float64Array[]): void {
+  const R = epoch.r;
+  const at = (p: number, q: number) => R[(p * (p + 1)) / 2 + q]!;
+  for (let a = 0; a < epoch.present.length; a++) {
+    const s = epoch.present[a]!;
+    const o = stationEpochAt[s]![k]! * EPOCH_NORMAL_ENTRIES;
+    const z = d * a;
+    const e = out[s]!;
+    e[o] = at(z, z);
+    if (d === 3) {
+      e[o + 1] = at(z + 1, z);
+      e[o + 2] = at(z + 2, z);
+      e[o + 3] = at(z + 1, z + 1);
+      e[o + 4] = at(z + 2, z + 1);
+      e[o + 5] = at(z + 2, z + 2);
+    }
+  }
 }
 
 /**
