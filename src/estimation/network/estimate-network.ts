@@ -39,6 +39,7 @@ import { screenedSolution } from '../screening.js';
 import { MAX_REWEIGHTINGS } from '../estimate.js';
 import { initialWeighting, setWeights } from '../design.js';
 import { screeningBound, varianceComponents } from '../variance-components.js';
+import { noiseInflation, type NoiseInflation } from '../correlated-noise.js';
 import { median } from './median.js';
 import { pointPositioning, pooledStatistics } from './point-positioning.js';
 import { ReducedEpochCache } from './reduced-epochs.js';
@@ -117,15 +118,17 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
       const net = buildNetworkDesign(obs, [sub], options, false, [designs[s]!]);
       return { net, solution: solveNamed(net, options, [problem.used[s]!], 0) };
     });
-    results = stationResults(problem, reference);
+    const noise = stationNoise(problem, input);
+    results = stationResults(problem, reference, noise);
     const singles = singleStationCounts(problem.net);
-    const meanEstimated = median(problem.solution.epochs.map((e) => Math.sqrt(e.meanVariance) * problem.sigmaScale));
+    const meanFactor = meanNoiseFactorPerEpoch(problem.net, noise);
+    const meanEstimated = median(problem.solution.epochs.map((e, k) => Math.sqrt(e.meanVariance * meanFactor[k]!) * problem.sigmaScale));
     const meanKnown = knownMeanSigma(
-      known.map(({ net, solution }) => {
+      known.map(({ net, solution }, s) => {
         const st = net.stations[0]!;
         return Array.from(st.design.epochMs, (t, ks) => ({
           epochMs: t,
-          sigmaM: Math.sqrt(solution.epochs[st.networkEpoch[ks]!]!.variance[0]!) * problem.sigmaScale,
+          sigmaM: Math.sqrt(solution.epochs[st.networkEpoch[ks]!]!.variance[0]! * noise[s]!.zwd[ks]!) * problem.sigmaScale,
         }));
       }),
     );
@@ -310,11 +313,6 @@ function estimatedClockModelNotes(options: NetworkEstimationInput['options']): s
   if ((options.parametrisation ?? 'every-epoch') !== 'nodes') {
     notes.push(
       `with satellite clocks estimated the network estimator uses piecewise-linear nodes (parametrisation "nodes", ZWD every ${options.zwd.intervalS} s), not a state at every epoch`,
-    );
-  }
-  if (options.correlatedNoise ?? true) {
-    notes.push(
-      'with satellite clocks estimated, formal errors are not inflated for time-correlated residuals (not implemented for the network solution): they describe white noise only',
     );
   }
   return notes;
@@ -596,8 +594,65 @@ function interpolated(x: Float64Array, diag: Float64Array, adj: Float64Array, p:
   return { value: b * x[p]! + alpha * x[p + 1]!, sigma: Math.sqrt(Math.max(variance, 0)) * scale };
 }
 
-function stationResults(problem: SubProblem, reference: number): NetworkStationResult[] {
+/**
+ * Correlated-noise inflation per station (correlated-noise.ts, as the single-station estimator):
+ * the residual autocorrelation of the station's satellite arcs, and per epoch the information of
+ * its 3×3 block of the reduced epoch matrix (clocks eliminated). Variance factors per station epoch.
+ */
+function stationNoise(problem: SubProblem, input: NetworkEstimationInput): NoiseInflation[] {
+  const { net, solution } = problem;
+  return net.stations.map((st, s) =>
+    noiseInflation(
+      input.options,
+      st.design,
+      { fittedResidualM: solution.fittedResidualM[s]!, epochNormal: solution.epochNormal[s]! },
+      solution.included[s]!,
+      net.gradients !== null,
+      () => Array.from(st.networkIndex, (i) => input.observations.satellite[i]!),
+    ),
+  );
+}
+
+/** Index of the epoch nearest to t [ms] in increasing epochs. */
+function nearestIndex(epochMs: Float64Array, t: number): number {
+  let lo = 0;
+  let hi = epochMs.length - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (epochMs[mid]! <= t) lo = mid;
+    else hi = mid;
+  }
+  return Math.abs(epochMs[hi]! - t) < Math.abs(epochMs[lo]! - t) ? hi : lo;
+}
+
+/**
+ * Per network epoch, the factor on the variance of the network mean: (mean over the stations of
+ * √f_s)², f_s the ZWD factor of station s at its nearest epoch. Exact when the factors are equal
+ * (Cov(s, t) scaled by √(f_s f_t)); otherwise the covariances are weighted alike.
+ */
+function meanNoiseFactorPerEpoch(net: NetworkDesign, noise: NoiseInflation[]): Float64Array {
+  const out = new Float64Array(net.epochMs.length);
+  for (let k = 0; k < net.epochMs.length; k++) {
+    let sum = 0;
+    net.stations.forEach((st, s) => (sum += Math.sqrt(noise[s]!.zwd[nearestIndex(st.design.epochMs, net.epochMs[k]!)]!)));
+    out[k] = (sum / net.stations.length) ** 2;
+  }
+  return out;
+}
+
+/**
+ * σ² of x_s − x_r with both variances inflated (factors f_s, f_r) and their covariance by √(f_s f_r):
+ * the covariance follows from the white-noise variances, v_s + v_r − relative = 2 Cov.
+ */
+function inflatedRelative(vs: number, vr: number, relative: number, fs: number, fr: number): number {
+  const cov = (vs + vr - relative) / 2;
+  return Math.max(fs * vs + fr * vr - 2 * Math.sqrt(fs * fr) * cov, 0);
+}
+
+function stationResults(problem: SubProblem, reference: number, noise: NoiseInflation[]): NetworkStationResult[] {
   const { net, solution, sigmaScale: scale } = problem;
+  const refDesign = net.stations[reference]!.design;
+  const refNoise = noise[reference]!;
   const layout = stationLayout(net);
   const P = layout.parameters;
   const x = solution.x;
@@ -626,30 +681,36 @@ function stationResults(problem: SubProblem, reference: number): NetworkStationR
     const gradientNearby = net.gradients ? nearby(s, net.gradients.nodeMs, net.gradients.intervalMs) : [];
     const o = s * P;
     const ro = reference * P;
+    const d = st.design;
+    const f = noise[s]!;
     const zwdNodes = Array.from({ length: layout.zwdCount }, (_, j) => {
+      const t = nodeEpochMs(net.zwd, j);
+      const fs = f.zwd[nearestIndex(d.epochMs, t)]!;
+      const fr = refNoise.zwd[nearestIndex(refDesign.epochMs, t)]!;
       const cov = solution.nodeCovarianceWithReference[s]![j]!;
-      const rel = s === reference ? 0 : diag[o + j]! + diag[ro + j]! - 2 * cov;
+      const rel = s === reference ? 0 : inflatedRelative(diag[o + j]!, diag[ro + j]!, diag[o + j]! + diag[ro + j]! - 2 * cov, fs, fr);
       return {
-        epochMs: nodeEpochMs(net.zwd, j),
+        epochMs: t,
         correctionM: x[o + j]!,
-        sigmaM: Math.sqrt(diag[o + j]!) * scale,
-        relativeSigmaM: Number.isNaN(rel) ? null : Math.sqrt(Math.max(rel, 0)) * scale,
+        sigmaM: Math.sqrt(diag[o + j]! * fs) * scale,
+        relativeSigmaM: Number.isNaN(rel) ? null : Math.sqrt(rel) * scale,
         observationsNearby: zwdNearby[j]!,
       };
     });
     const gradientNodes: GradientNodeEstimate[] = Array.from({ length: layout.gradientCount }, (_, l) => {
       const n = o + layout.northOffset + l;
       const e = o + layout.eastOffset + l;
+      const t = nodeEpochMs(net.gradients!, l);
+      const near = nearestIndex(d.epochMs, t);
       return {
-        epochMs: nodeEpochMs(net.gradients!, l),
+        epochMs: t,
         northM: x[n]!,
         eastM: x[e]!,
-        northSigmaM: Math.sqrt(diag[n]!) * scale,
-        eastSigmaM: Math.sqrt(diag[e]!) * scale,
+        northSigmaM: Math.sqrt(diag[n]! * f.north[near]!) * scale,
+        eastSigmaM: Math.sqrt(diag[e]! * f.east[near]!) * scale,
         observationsNearby: gradientNearby[l]!,
       };
     });
-    const d = st.design;
     const epochs: NetworkEpochEstimate[] = Array.from({ length: d.epochMs.length }, (_, ks) => {
       const k = st.networkEpoch[ks]!;
       const w = interpolated(x, diag, adj, o + net.zwdInterval[k]!, layout.zwdCount > 1, net.zwdAlpha[k]!, scale);
@@ -665,15 +726,21 @@ function stationResults(problem: SubProblem, reference: number): NetworkStationR
       for (let i = d.epochStart[ks]!; i < d.epochStart[ks + 1]!; i++) count += solution.included[s]![i]!;
       const ec = solution.epochs[k]!;
       const bias = solution.receiverClockM[s]![ks]!;
+      const vs = Math.max(ec.variance[s]!, 0);
+      const fs = f.zwd[ks]!;
+      const fr = refNoise.zwd[nearestIndex(refDesign.epochMs, d.epochMs[ks]!)]!;
+      const vr = Math.max(ec.variance[reference]!, 0);
+      // The reference station may have no epoch here (its variance is then not kept): its factor alone.
+      const relative = Number.isNaN(vr) ? ec.relativeVariance[s]! * fs : inflatedRelative(vs, vr, ec.relativeVariance[s]!, fs, fr);
       return {
         epochMs: d.epochMs[ks]!,
         correctionM: w.value,
-        sigmaM: Math.sqrt(Math.max(ec.variance[s]!, 0)) * scale,
-        relativeSigmaM: Math.sqrt(ec.relativeVariance[s]!) * scale,
+        sigmaM: Math.sqrt(vs * fs) * scale,
+        relativeSigmaM: s === reference ? 0 : Math.sqrt(relative) * scale,
         northGradientM: north?.value ?? null,
         eastGradientM: east?.value ?? null,
-        northGradientSigmaM: north?.sigma ?? null,
-        eastGradientSigmaM: east?.sigma ?? null,
+        northGradientSigmaM: north ? north.sigma * Math.sqrt(f.north[ks]!) : null,
+        eastGradientSigmaM: east ? east.sigma * Math.sqrt(f.east[ks]!) : null,
         epochBiasM: Number.isNaN(bias) ? null : bias,
         observationsUsed: count,
       };
@@ -693,6 +760,7 @@ function stationResults(problem: SubProblem, reference: number): NetworkStationR
         observationsUsed: solution.included[s]!.reduce((n, v) => n + v, 0),
         observationsRejected: problem.rejected[s]!.length,
         epochs: d.epochMs.length,
+        noiseCorrelation: f.statistics,
       },
       medianSigmaM: median(epochs.map((e) => e.sigmaM)) ?? Number.NaN,
       medianRelativeSigmaM: median(epochs.map((e) => e.relativeSigmaM)) ?? Number.NaN,
