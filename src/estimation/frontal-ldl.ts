@@ -159,7 +159,7 @@ export class FrontalLdl {
   }
 
   /**
-   * Adds B R Bᵀ for `count` local parameters: N[slot_i, slot_j] += c_i c_j R[row_i, row_j] and
+   * Adds B R Bᵀ for `count` local parameters (lower triangle of the front): N[slot_i, slot_j] += c_i c_j R[row_i, row_j] and
    * g[slot_i] += c_i r[row_i] (R symmetric as its packed lower triangle, R_pq at p(p+1)/2 + q for
    * q ≤ p; rows non-decreasing in i; slots distinct).
    */
@@ -172,10 +172,12 @@ export class FrontalLdl {
       const rowR = (rows[i]! * (rows[i]! + 1)) / 2;
       this.rhsFront[si]! += ci * r[rows[i]!]!;
       const rowF = si * mf;
+      // Into the lower triangle only (the half eliminate() reads).
       for (let j = 0; j < i; j++) {
+        const sj = slots[j]!;
         const v = ci * c[j]! * R[rowR + rows[j]!]!;
-        front[rowF + slots[j]!]! += v;
-        front[slots[j]! * mf + si]! += v;
+        if (sj < si) front[rowF + sj]! += v;
+        else front[sj * mf + si]! += v;
       }
       front[rowF + si]! += ci * ci * R[rowR + rows[i]!]!;
     }
