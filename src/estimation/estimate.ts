@@ -325,7 +325,7 @@ function usedPerEpoch(design: Design, used: Uint8Array): Int32Array {
 }
 
 /** Index of the epoch nearest to t (epochs sorted). */
-function nearestEpoch(epochMs: Float64Array, t: number): number {
+export function nearestEpoch(epochMs: Float64Array, t: number): number {
   let lo = 0;
   let hi = epochMs.length - 1;
   while (hi - lo > 1) {

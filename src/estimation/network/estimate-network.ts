@@ -36,7 +36,7 @@ import { nodeRejectionWindowMs } from '../outliers.js';
 import type { GradientNodeEstimate, RejectedObservation } from '../types.js';
 import { buildNetworkDesign, stationDesigns, type NetworkDesign, type StationSubset } from './network-design.js';
 import { screenedSolution } from '../screening.js';
-import { MAX_REWEIGHTINGS } from '../estimate.js';
+import { MAX_REWEIGHTINGS, nearestEpoch } from '../estimate.js';
 import { initialWeighting, setWeights } from '../design.js';
 import { screeningBound, varianceComponents } from '../variance-components.js';
 import { noiseInflation, type NoiseInflation } from '../correlated-noise.js';
@@ -613,18 +613,6 @@ function stationNoise(problem: SubProblem, input: NetworkEstimationInput): Noise
   );
 }
 
-/** Index of the epoch nearest to t [ms] in increasing epochs. */
-function nearestIndex(epochMs: Float64Array, t: number): number {
-  let lo = 0;
-  let hi = epochMs.length - 1;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (epochMs[mid]! <= t) lo = mid;
-    else hi = mid;
-  }
-  return Math.abs(epochMs[hi]! - t) < Math.abs(epochMs[lo]! - t) ? hi : lo;
-}
-
 /**
  * Per network epoch, the factor on the variance of the network mean: (mean over the stations of
  * √f_s)², f_s the ZWD factor of station s at its nearest epoch. Exact when the factors are equal
@@ -634,7 +622,7 @@ function meanNoiseFactorPerEpoch(net: NetworkDesign, noise: NoiseInflation[]): F
   const out = new Float64Array(net.epochMs.length);
   for (let k = 0; k < net.epochMs.length; k++) {
     let sum = 0;
-    net.stations.forEach((st, s) => (sum += Math.sqrt(noise[s]!.zwd[nearestIndex(st.design.epochMs, net.epochMs[k]!)]!)));
+    net.stations.forEach((st, s) => (sum += Math.sqrt(noise[s]!.zwd[nearestEpoch(st.design.epochMs, net.epochMs[k]!)]!)));
     out[k] = (sum / net.stations.length) ** 2;
   }
   return out;
@@ -685,8 +673,8 @@ function stationResults(problem: SubProblem, reference: number, noise: NoiseInfl
     const f = noise[s]!;
     const zwdNodes = Array.from({ length: layout.zwdCount }, (_, j) => {
       const t = nodeEpochMs(net.zwd, j);
-      const fs = f.zwd[nearestIndex(d.epochMs, t)]!;
-      const fr = refNoise.zwd[nearestIndex(refDesign.epochMs, t)]!;
+      const fs = f.zwd[nearestEpoch(d.epochMs, t)]!;
+      const fr = refNoise.zwd[nearestEpoch(refDesign.epochMs, t)]!;
       const cov = solution.nodeCovarianceWithReference[s]![j]!;
       const rel = s === reference ? 0 : inflatedRelative(diag[o + j]!, diag[ro + j]!, diag[o + j]! + diag[ro + j]! - 2 * cov, fs, fr);
       return {
@@ -701,7 +689,7 @@ function stationResults(problem: SubProblem, reference: number, noise: NoiseInfl
       const n = o + layout.northOffset + l;
       const e = o + layout.eastOffset + l;
       const t = nodeEpochMs(net.gradients!, l);
-      const near = nearestIndex(d.epochMs, t);
+      const near = nearestEpoch(d.epochMs, t);
       return {
         epochMs: t,
         northM: x[n]!,
@@ -728,7 +716,7 @@ function stationResults(problem: SubProblem, reference: number, noise: NoiseInfl
       const bias = solution.receiverClockM[s]![ks]!;
       const vs = Math.max(ec.variance[s]!, 0);
       const fs = f.zwd[ks]!;
-      const fr = refNoise.zwd[nearestIndex(refDesign.epochMs, d.epochMs[ks]!)]!;
+      const fr = refNoise.zwd[nearestEpoch(refDesign.epochMs, d.epochMs[ks]!)]!;
       const vr = Math.max(ec.variance[reference]!, 0);
       // The reference station may have no epoch here (its variance is then not kept): its factor alone.
       const relative = Number.isNaN(vr) ? ec.relativeVariance[s]! * fs : inflatedRelative(vs, vr, ec.relativeVariance[s]!, fs, fr);

@@ -8,26 +8,15 @@
 import { describe, expect, it } from 'vitest';
 import { estimateNetwork } from '../../../src/estimation/network/estimate-network.js';
 import { estimateZwd } from '../../../src/estimation/estimate.js';
-import { networkOptions, simulateNetwork, stationAt, toNetworkInput } from './network-simulator.js';
+import { networkOptions, smallNetwork, stationAt, toNetworkInput } from './network-simulator.js';
 
 describe('observations near a node: the network counts as the single-station estimator', () => {
   it('agrees node by node for every station (satellite clocks estimated, no screening)', () => {
-    const sim = simulateNetwork({
-      seed: 17,
-      stations: [stationAt('ALDER', 47.1, 8.2, 0, 0), stationAt('BRISK', 47.1, 8.2, 60, 60), stationAt('COVE', 47.1, 8.2, 80, 200)],
-      startIso: '2026-05-04T00:00:00Z',
-      durationS: 3600,
-      samplingS: 60,
-      minElevationDeg: 3,
-      sigma0M: 0.003,
-      satellitesPerPlane: 5,
-      zwd: { intervalS: 300, randomWalkMPerSqrtH: 0.01, initialSigmaM: 0.05 },
-      gradients: { intervalS: 3600, randomWalkMPerSqrtH: 0.001, initialSigmaM: 0.0005 },
-      commonOffsetM: 0,
-      receiverClockAmplitudeM: 300_000,
-      satelliteClockAmplitudeM: 300_000,
-      grossErrors: 0,
-    });
+    const sim = smallNetwork(
+      17,
+      [stationAt('ALDER', 47.1, 8.2, 0, 0), stationAt('BRISK', 47.1, 8.2, 60, 60), stationAt('COVE', 47.1, 8.2, 80, 200)],
+      1,
+    );
     const options = networkOptions({ outlierThreshold: null, parametrisation: 'nodes', correlatedNoise: false, scaleSigmas: false });
     const net = estimateNetwork(toNetworkInput(sim, options));
     expect(net.satelliteClocks).toBe('estimated');

@@ -14,7 +14,7 @@ import { describe, expect, it } from 'vitest';
 import { estimateNetwork } from '../../../src/estimation/network/estimate-network.js';
 import { REWEIGHTING_TOLERANCE } from '../../../src/estimation/variance-components.js';
 import type { NetworkEstimationOptions } from '../../../src/estimation/network/types.js';
-import { networkOptions, simulateNetwork, stationAt, toNetworkInput } from './network-simulator.js';
+import { networkOptions, smallNetwork, stationAt, toNetworkInput } from './network-simulator.js';
 
 const MM = 0.001;
 /** The simulator's observation noise: σ = σ0/sin e with σ0 = 3 mm (network-simulator.ts). */
@@ -22,27 +22,16 @@ const TRUE_SIGMA0_M = 3 * MM;
 /** Same arithmetic up to rounding (a different order of the same sums). */
 const SAME = 1e-9;
 
-const sim = simulateNetwork({
-  seed: 29,
-  stations: [
+const sim = smallNetwork(
+  29,
+  [
     stationAt('ALDER', 47.1, 8.2, 0, 0),
     stationAt('BRISK', 47.1, 8.2, 90, 60),
     stationAt('COVE', 47.1, 8.2, 140, 200),
     stationAt('DUNE', 47.1, 8.2, 120, 300),
   ],
-  startIso: '2026-05-04T00:00:00Z',
-  durationS: 2 * 3600,
-  samplingS: 60,
-  minElevationDeg: 3,
-  sigma0M: TRUE_SIGMA0_M,
-  satellitesPerPlane: 5,
-  zwd: { intervalS: 300, randomWalkMPerSqrtH: 0.01, initialSigmaM: 0.05 },
-  gradients: { intervalS: 3600, randomWalkMPerSqrtH: 0.001, initialSigmaM: 0.0005 },
-  commonOffsetM: 0,
-  receiverClockAmplitudeM: 300_000,
-  satelliteClockAmplitudeM: 300_000,
-  grossErrors: 0,
-});
+  2,
+);
 
 function expectSameSolution(a: ReturnType<typeof estimateNetwork>, b: ReturnType<typeof estimateNetwork>) {
   a.stations.forEach((r, s) => {
