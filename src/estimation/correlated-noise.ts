@@ -32,6 +32,7 @@
 
 import type { Design } from './design.js';
 import { EPOCH_NORMAL_ENTRIES, type Solution } from './least-squares.js';
+import type { ZwdEstimationOptions, ZwdEstimationStatistics } from './types.js';
 
 /** Longest lag the autocorrelation is estimated for [s]: 1 h (correlation times up to ~20 min). */
 export const MAX_LAG_S = 3600;
@@ -48,8 +49,8 @@ const LAG_STEP = 4;
  * @param satellite satellite of each design observation
  */
 export function residualAutocorrelation(
-  design: Design,
-  solution: Solution,
+  design: Pick<Design, 'epochStart' | 'epochMs' | 'sigmaM'>,
+  solution: Pick<Solution, 'fittedResidualM'>,
   used: Uint8Array,
   satellite: readonly string[],
   samplingMs: number,
@@ -172,7 +173,7 @@ export function kernelFactor(information: number, stepVariance: number | null): 
  * Per-epoch information of ZWD, north and east gradient: 1/(M⁻¹)_pp of the epoch's 3×3 (or
  * M_WW without gradients) [1/m²]; 0 when the epoch has no data or M is singular.
  */
-export function epochInformation(solution: Solution, k: number, withGradients: boolean): [number, number, number] {
+export function epochInformation(solution: Pick<Solution, 'epochNormal'>, k: number, withGradients: boolean): [number, number, number] {
   const o = k * EPOCH_NORMAL_ENTRIES;
   const e = solution.epochNormal;
   const ww = e[o]!,
@@ -189,4 +190,72 @@ export function epochInformation(solution: Solution, k: number, withGradients: b
   const det = ww * cWW - wn * (wn * ee - ne * we) + we * (wn * ne - nn * we);
   if (!(det > 0)) return [0, 0, 0];
   return [det / cWW, det / cNN, det / cEE];
+}
+
+export interface NoiseInflation {
+  /** Variance factor per epoch of ZWD, north, east (1 without correlated noise). */
+  zwd: Float64Array;
+  north: Float64Array;
+  east: Float64Array;
+  statistics: ZwdEstimationStatistics['noiseCorrelation'];
+}
+
+/**
+ * The correlated-noise inflation of every epoch of one station (header); all 1 when switched off.
+ * Shared by the single-station estimator and the network (one call per station, with the epoch's
+ * information taken from the network's reduced normal matrix).
+ *
+ * @param solution post-fit residuals per design observation and the per-epoch normal entries
+ * @param satellite satellite of each design observation (asked for only when needed)
+ */
+export function noiseInflation(
+  options: Pick<ZwdEstimationOptions, 'correlatedNoise' | 'zwd' | 'gradients'>,
+  design: Pick<Design, 'epochStart' | 'epochMs' | 'sigmaM'>,
+  solution: Pick<Solution, 'fittedResidualM' | 'epochNormal'>,
+  used: Uint8Array,
+  withGradients: boolean,
+  satellite: () => readonly string[],
+): NoiseInflation {
+  const epochs = design.epochMs.length;
+  const ones = () => new Float64Array(epochs).fill(1);
+  const none: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
+  if (options.correlatedNoise === false || epochs < 3) return none;
+  const samplingMs = medianSpacingMs(design.epochMs);
+  const rho = residualAutocorrelation(design, solution, used, satellite(), samplingMs);
+  const hours = samplingMs / 3_600_000;
+  const stepVariance = (q: number | null) => (q === null ? null : q * q * hours);
+  const qW = stepVariance(options.zwd.randomWalkMPerSqrtH);
+  const qG = options.gradients ? stepVariance(options.gradients.randomWalkMPerSqrtH) : null;
+  const out: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
+  let sumW = 0,
+    sumG = 0,
+    count = 0;
+  for (let k = 0; k < epochs; k++) {
+    const [iW, iN, iE] = epochInformation(solution, k, withGradients);
+    out.zwd[k] = varianceInflation(iW, qW, rho);
+    if (withGradients) {
+      out.north[k] = varianceInflation(iN, qG, rho);
+      out.east[k] = varianceInflation(iE, qG, rho);
+    }
+    if (iW > 0) {
+      sumW += out.zwd[k]!;
+      sumG += (out.north[k]! + out.east[k]!) / 2;
+      count++;
+    }
+  }
+  out.statistics = {
+    samplingS: samplingMs / 1000,
+    autocorrelation: rho,
+    zwdVarianceInflation: count ? sumW / count : 1,
+    gradientVarianceInflation: withGradients && count ? sumG / count : 1,
+  };
+  return out;
+}
+
+/** Median spacing of consecutive epochs [ms]. */
+export function medianSpacingMs(epochMs: Float64Array): number {
+  const d: number[] = [];
+  for (let k = 1; k < epochMs.length; k++) d.push(epochMs[k]! - epochMs[k - 1]!);
+  d.sort((a, b) => a - b);
+  return d[Math.floor(d.length / 2)]!;
 }

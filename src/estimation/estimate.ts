@@ -14,12 +14,13 @@
  */
 
 import { ModelDomainError } from '../domain/errors.js';
-import { epochInformation, kernelFactor, residualAutocorrelation, varianceInflation } from './correlated-noise.js';
+import { epochInformation, kernelFactor, medianSpacingMs, noiseInflation, type NoiseInflation } from './correlated-noise.js';
 import { buildDesign, initialWeighting, locate, nodeEpochMs, setWeights, type Design, type NodeLayout } from './design.js';
 import { SingularParameterError } from './frontal-ldl.js';
 import { epochStateRejectionWindowMs, nodeRejectionWindowMs, rejectionCandidates } from './outliers.js';
 import { MIN_TESTABLE_REDUNDANCY, parameterLayout, solveOnce, type ParameterLayout, type Solution } from './least-squares.js';
 import { screenedSolution } from './screening.js';
+import { screeningBound, varianceComponents } from './variance-components.js';
 import type {
   ElevationBandStatistics,
   EpochEstimate,
@@ -27,7 +28,6 @@ import type {
   RejectedObservation,
   ZwdEstimationInput,
   ZwdEstimationOutput,
-  ZwdEstimationStatistics,
   ZwdNodeEstimate,
 } from './types.js';
 
@@ -36,8 +36,8 @@ const MAPPING_FIT_LOWEST_ELEVATION_RAD = (3 * Math.PI) / 180;
 
 /** Re-weightings of the variance-component estimation at most (each costs a solution). */
 export const MAX_REWEIGHTINGS = 4;
-/** Relative change of an observation variance component below which the weights are kept. */
-export const REWEIGHTING_TOLERANCE = 0.05;
+/** Relative change of an observation variance component below which the weights are kept (variance-components.ts). */
+export { REWEIGHTING_TOLERANCE } from './variance-components.js';
 /** Elevation band edges of the diagnostic [deg]. */
 export const ELEVATION_BAND_EDGES_DEG = [0, 5, 7, 10, 15, 20, 30, 45, 60, 90.000001] as const;
 /** A band whose normalised residual RMS exceeds this gets a warning (its weights are too optimistic). */
@@ -100,9 +100,7 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
       reweight: (s, varianceFactor) => {
         if (!options.scaleSigmas || reweightings >= MAX_REWEIGHTINGS || varianceFactor === null) return false;
         const next = varianceComponents(
-          design,
-          s,
-          used,
+          [{ design, fittedResidualM: s.fittedResidualM, residualVarianceM2: s.residualVarianceM2, used }],
           options.weighting,
           weighting,
           givenScale,
@@ -138,7 +136,9 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
   if (low > 0)
     warnings.push(`${low} observations below 3° were used: the mapping functions are fitted from 3° up and are extrapolated there`);
 
-  const noise = noiseInflation(input, design, layout, solution, used);
+  const noise = noiseInflation(input.options, design, solution, used, layout.gradientCount > 0, () =>
+    Array.from(design.inputIndex, (i) => input.observations.satellite[i]!),
+  );
   const bands = elevationBands(design, solution, used, rejectedDesign);
   for (const b of bands) {
     const name = `${((b.lowerRad * 180) / Math.PI).toFixed(0)}–${Math.min(90, (b.upperRad * 180) / Math.PI).toFixed(0)}°`;
@@ -188,78 +188,6 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
   };
 }
 
-/**
- * Variance-component estimation of the observation weights (the random-walk and a-priori
- * constraints keep their sigmas): E[v_i²] = r_i σ_i² with r_i = σ_v_i²/σ_i² the redundancy
- * number, so for σ_i² = θ_a + θ_b/sin²e the components follow from
- *     Σ_i ω_i (v_i² − r_i (θ_a + θ_b g_i))² → min,  g_i = 1/sin²e_i,  ω_i = 1/(r_i σ_i²)²
- * (a weighted fit of the squared residuals; equivalent at convergence to Helmert's and Förstner's
- * iterative estimates, Koch (1999) ch. 3.6; Förstner (1979), AVN 86, 446–453; from memory).
- * One component ("elevation": θ_b only; "uniform": θ_a only) reduces to θ = σ² vᵀPv / Σ r_i,
- * the variance factor of the observations alone. A negative component is set to 0 and the other
- * refitted. Observations with their own sigma get one common factor vᵀPv/Σ r_i of their own.
- * Observations that screening would reject (|τ| > k) are left out, so that gross errors do not
- * inflate the weights before they are rejected (their share is below 1e-4 for Gaussian noise at
- * k = 4; a robust choice, common practice).
- */
-function varianceComponents(
-  design: Design,
-  solution: Solution,
-  used: Uint8Array,
-  scheme: ZwdEstimationInput['options']['weighting'],
-  current: { a: number; b: number },
-  givenScale: number,
-  bound: number,
-): { changed: boolean; weighting: { a: number; b: number }; givenScale: number } {
-  // Normal equations of the fit (sums for θ_a, θ_b) and the given-sigma factor.
-  let saa = 0,
-    sab = 0,
-    sbb = 0,
-    sa = 0,
-    sb = 0;
-  let givenOmega = 0,
-    givenRedundancy = 0;
-  for (let s = 0; s < used.length; s++) {
-    if (!used[s]) continue;
-    const sigma2 = design.sigmaM[s]! ** 2;
-    const r = solution.residualVarianceM2[s]! / sigma2;
-    if (!(r > 1e-6)) continue;
-    const v2 = solution.fittedResidualM[s]! ** 2;
-    if (v2 > bound * solution.residualVarianceM2[s]!) continue; // a rejection candidate: not noise
-    if (!Number.isNaN(design.givenSigmaM[s]!)) {
-      givenOmega += v2 / sigma2;
-      givenRedundancy += r;
-      continue;
-    }
-    const g = 1 / Math.sin(design.elevationRad[s]!) ** 2;
-    const omega = 1 / (r * sigma2) ** 2;
-    const ua = r;
-    const ub = r * g;
-    saa += omega * ua * ua;
-    sab += omega * ua * ub;
-    sbb += omega * ub * ub;
-    sa += omega * ua * v2;
-    sb += omega * ub * v2;
-  }
-  let thetaA = current.a ** 2;
-  let thetaB = current.b ** 2;
-  if (scheme === 'elevation' && sbb > 0) thetaB = sb / sbb;
-  else if (scheme === 'uniform' && saa > 0) thetaA = sa / saa;
-  else if (scheme === 'elevation-components' && saa > 0 && sbb > 0) {
-    const det = saa * sbb - sab * sab;
-    thetaA = (sbb * sa - sab * sb) / det;
-    thetaB = (saa * sb - sab * sa) / det;
-    if (!(thetaA >= 0)) [thetaA, thetaB] = [0, sb / sbb];
-    else if (!(thetaB >= 0)) [thetaA, thetaB] = [sa / saa, 0];
-  }
-  const nextGiven = givenRedundancy > 0 ? (givenScale * givenOmega) / givenRedundancy : givenScale;
-  const rel = (next: number, now: number) => (now > 0 ? Math.abs(next / now - 1) : next > 0 ? Infinity : 0);
-  const changed =
-    Math.max(rel(thetaA, current.a ** 2), rel(thetaB, current.b ** 2), rel(nextGiven, givenScale)) > REWEIGHTING_TOLERANCE &&
-    thetaA + thetaB > 0;
-  return { changed, weighting: { a: Math.sqrt(thetaA), b: Math.sqrt(thetaB) }, givenScale: nextGiven };
-}
-
 /** Window of "one-per-window" screening (outliers.ts) [ms]. */
 function rejectionWindowMs(input: ZwdEstimationInput, design: Design, layout: ParameterLayout, solution: Solution): number {
   const { options } = input;
@@ -287,72 +215,6 @@ function rejectionWindowMs(input: ZwdEstimationInput, design: Design, layout: Pa
   const median = (xs: number[]) => (xs.sort((a, b) => a - b), xs[Math.floor(xs.length / 2)]!);
   const lambdas = [lw, ln, le].filter((xs) => xs.length > 0).map(median);
   return epochStateRejectionWindowMs(lambdas, samplingMs);
-}
-
-/** (k σ̂0)²: |v| above k σ̂0 σ_v is a rejection candidate; Infinity without screening. */
-function screeningBound(threshold: number | null, varianceFactor: number | null): number {
-  return threshold === null ? Infinity : threshold * threshold * (varianceFactor ?? 1);
-}
-
-interface NoiseInflation {
-  /** Variance factor per epoch of ZWD, north, east (1 without correlated noise). */
-  zwd: Float64Array;
-  north: Float64Array;
-  east: Float64Array;
-  statistics: ZwdEstimationStatistics['noiseCorrelation'];
-}
-
-/** The correlated-noise inflation of every epoch (correlated-noise.ts); all 1 when switched off. */
-function noiseInflation(
-  input: ZwdEstimationInput,
-  design: Design,
-  layout: ParameterLayout,
-  solution: Solution,
-  used: Uint8Array,
-): NoiseInflation {
-  const epochs = design.epochMs.length;
-  const ones = () => new Float64Array(epochs).fill(1);
-  const none: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
-  if (input.options.correlatedNoise === false || epochs < 3) return none;
-  const samplingMs = medianSpacingMs(design.epochMs);
-  const satellite = Array.from(design.inputIndex, (i) => input.observations.satellite[i]!);
-  const rho = residualAutocorrelation(design, solution, used, satellite, samplingMs);
-  const hours = samplingMs / 3_600_000;
-  const stepVariance = (q: number | null) => (q === null ? null : q * q * hours);
-  const qW = stepVariance(input.options.zwd.randomWalkMPerSqrtH);
-  const qG = input.options.gradients ? stepVariance(input.options.gradients.randomWalkMPerSqrtH) : null;
-  const out: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
-  const withGradients = layout.gradientCount > 0;
-  let sumW = 0,
-    sumG = 0,
-    count = 0;
-  for (let k = 0; k < epochs; k++) {
-    const [iW, iN, iE] = epochInformation(solution, k, withGradients);
-    out.zwd[k] = varianceInflation(iW, qW, rho);
-    if (withGradients) {
-      out.north[k] = varianceInflation(iN, qG, rho);
-      out.east[k] = varianceInflation(iE, qG, rho);
-    }
-    if (iW > 0) {
-      sumW += out.zwd[k]!;
-      sumG += (out.north[k]! + out.east[k]!) / 2;
-      count++;
-    }
-  }
-  out.statistics = {
-    samplingS: samplingMs / 1000,
-    autocorrelation: rho,
-    zwdVarianceInflation: count ? sumW / count : 1,
-    gradientVarianceInflation: withGradients && count ? sumG / count : 1,
-  };
-  return out;
-}
-
-function medianSpacingMs(epochMs: Float64Array): number {
-  const d: number[] = [];
-  for (let k = 1; k < epochMs.length; k++) d.push(epochMs[k]! - epochMs[k - 1]!);
-  d.sort((a, b) => a - b);
-  return d[Math.floor(d.length / 2)]!;
 }
 
 /** Post-fit residuals and rejections per elevation band. */
@@ -463,7 +325,7 @@ function usedPerEpoch(design: Design, used: Uint8Array): Int32Array {
 }
 
 /** Index of the epoch nearest to t (epochs sorted). */
-function nearestEpoch(epochMs: Float64Array, t: number): number {
+export function nearestEpoch(epochMs: Float64Array, t: number): number {
   let lo = 0;
   let hi = epochMs.length - 1;
   while (hi - lo > 1) {

@@ -68,10 +68,15 @@ export interface ReverseFrontView {
 export class FrontalLdl {
   private readonly slotOf: Int32Array;
   private readonly paramAt: Int32Array;
+  /**
+   * The dense front (maxFront × maxFront, by slot). The assembly adds to both halves, but only the
+   * lower triangle (row ≥ column) is kept up to date by eliminate() and read: the upper half is stale.
+   */
   private readonly front: Float64Array;
   private readonly rhsFront: Float64Array;
-  /** Scratch: the occupied front slots during one elimination. */
+  /** Scratch: the occupied front slots during one elimination, and the pivot's column there. */
   private readonly activeSlots: Int32Array;
+  private readonly columnScratch: Float64Array;
   private readonly directDiagonal: Float64Array;
   private readonly activation: Int32Array;
   private readonly position: Int32Array;
@@ -89,16 +94,20 @@ export class FrontalLdl {
   /**
    * @param parameters number of unknowns
    * @param maxFront largest number of parameters in the front at one time
+   * @param factorCapacity entries of L to reserve at once (default: up to 1 M, grown by half when
+   *        full); a caller that knows the size saves the copies of growing a large factor
    */
   constructor(
     readonly parameters: number,
     readonly maxFront: number,
+    factorCapacity?: number,
   ) {
     this.slotOf = new Int32Array(parameters).fill(-1);
     this.paramAt = new Int32Array(maxFront).fill(-1);
     this.front = new Float64Array(maxFront * maxFront);
     this.rhsFront = new Float64Array(maxFront);
     this.activeSlots = new Int32Array(maxFront);
+    this.columnScratch = new Float64Array(maxFront);
     this.directDiagonal = new Float64Array(parameters);
     this.activation = new Int32Array(parameters).fill(-1);
     this.position = new Int32Array(parameters).fill(-1);
@@ -106,7 +115,7 @@ export class FrontalLdl {
     this.pivot = new Float64Array(parameters);
     this.forward = new Float64Array(parameters);
     this.neighbourStart = new Int32Array(parameters + 1);
-    const initial = Math.max(16, Math.min(parameters * (maxFront - 1), 1 << 20));
+    const initial = Math.max(16, factorCapacity ?? Math.min(parameters * (maxFront - 1), 1 << 20));
     this.neighbour = new Int32Array(initial);
     this.factor = new Float64Array(initial);
     this.inverseDiagonal = new Float64Array(parameters);
@@ -150,7 +159,7 @@ export class FrontalLdl {
   }
 
   /**
-   * Adds B R Bᵀ for `count` local parameters: N[slot_i, slot_j] += c_i c_j R[row_i, row_j] and
+   * Adds B R Bᵀ for `count` local parameters (lower triangle of the front): N[slot_i, slot_j] += c_i c_j R[row_i, row_j] and
    * g[slot_i] += c_i r[row_i] (R symmetric as its packed lower triangle, R_pq at p(p+1)/2 + q for
    * q ≤ p; rows non-decreasing in i; slots distinct).
    */
@@ -163,10 +172,12 @@ export class FrontalLdl {
       const rowR = (rows[i]! * (rows[i]! + 1)) / 2;
       this.rhsFront[si]! += ci * r[rows[i]!]!;
       const rowF = si * mf;
+      // Into the lower triangle only (the half eliminate() reads).
       for (let j = 0; j < i; j++) {
+        const sj = slots[j]!;
         const v = ci * c[j]! * R[rowR + rows[j]!]!;
-        front[rowF + slots[j]!]! += v;
-        front[slots[j]! * mf + si]! += v;
+        if (sj < si) front[rowF + sj]! += v;
+        else front[sj * mf + si]! += v;
       }
       front[rowF + si]! += ci * ci * R[rowR + rows[i]!]!;
     }
@@ -228,22 +239,27 @@ export class FrontalLdl {
     let count = 0;
     const gs = rhs[s]!;
     const rowS = s * mf;
-    // The occupied slots other than s, once; the update below runs over them only.
+    // The occupied slots other than s, once, in increasing slot order, with column s of the front
+    // (N_ts, read from the lower triangle: slot t > s in row t, t < s in row s).
     const active = this.activeSlots;
+    const column = this.columnScratch;
     let n = 0;
-    for (let t = 0; t < mf; t++) if (t !== s && paramAt[t]! >= 0) active[n++] = t;
+    for (let t = 0; t < mf; t++) {
+      if (t === s || paramAt[t]! < 0) continue;
+      column[n] = t > s ? front[t * mf + s]! : front[rowS + t]!;
+      active[n++] = t;
+    }
+    // Schur complement N_tu −= N_ts N_su / d on the lower triangle only (u ≤ t): half the work of
+    // the full square, the larger cost of a wide front.
     for (let i = 0; i < n; i++) {
       const t = active[i]!;
-      const l = front[t * mf + s]! / d;
+      const l = column[i]! / d;
       neighbour[base + count] = paramAt[t]!;
       factor[base + count] = l;
       count++;
       if (l !== 0) {
         const rowT = t * mf;
-        for (let j = 0; j < n; j++) {
-          const u = active[j]!;
-          front[rowT + u]! -= l * front[rowS + u]!;
-        }
+        for (let j = 0; j <= i; j++) front[rowT + active[j]!]! -= l * column[j]!;
         rhs[t]! -= l * gs;
       }
     }
@@ -347,13 +363,37 @@ export class FrontalLdl {
           lcol[a] = factor[start + a]!;
         }
         let zpp = 1 / this.pivot[p]!;
-        for (let a = 0; a < count; a++) {
+        // zrow = −Z l over the neighbours, four rows per pass (each l_b and slot loaded once for four).
+        let a = 0;
+        for (; a + 3 < count; a += 4) {
+          const r0 = nslots[a]! * mf;
+          const r1 = nslots[a + 1]! * mf;
+          const r2 = nslots[a + 2]! * mf;
+          const r3 = nslots[a + 3]! * mf;
+          let v0 = 0;
+          let v1 = 0;
+          let v2 = 0;
+          let v3 = 0;
+          for (let b = 0; b < count; b++) {
+            const l = lcol[b]!;
+            const t = nslots[b]!;
+            v0 -= l * z[r0 + t]!;
+            v1 -= l * z[r1 + t]!;
+            v2 -= l * z[r2 + t]!;
+            v3 -= l * z[r3 + t]!;
+          }
+          zrow[a] = v0;
+          zrow[a + 1] = v1;
+          zrow[a + 2] = v2;
+          zrow[a + 3] = v3;
+        }
+        for (; a < count; a++) {
           const row = nslots[a]! * mf;
           let v = 0;
           for (let b = 0; b < count; b++) v -= lcol[b]! * z[row + nslots[b]!]!;
           zrow[a] = v;
-          zpp -= lcol[a]! * v;
         }
+        for (let b = 0; b < count; b++) zpp -= lcol[b]! * zrow[b]!;
         let s = 0;
         while (rparam[s]! >= 0) s++;
         rparam[s] = p;

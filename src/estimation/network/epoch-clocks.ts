@@ -73,7 +73,7 @@ export class EpochClockSystem {
   /** Entries of local station a: stationEntry[stationStart[a] .. stationStart[a+1]). */
   readonly stationStart: Int32Array;
   readonly stationEntry: Int32Array;
-  /** N_zσ (dS'×K), S⁻¹ (K×K, zero rows/columns for datum clocks), K_σ = S⁻¹ N_σz (K×dS'), t = S⁻¹ g_σ. */
+  /** N_σz = N_zσᵀ (K×dS', row k at k·dS'), S⁻¹ (K×K, zero rows/columns for datum clocks), K_σ = S⁻¹ N_σz (K×dS'), t = S⁻¹ g_σ. */
   readonly nzs: Float64Array;
   readonly sInv: Float64Array;
   readonly ks: Float64Array;
@@ -261,7 +261,7 @@ export class EpochClockSystem {
       }
       if (sc) {
         const k = this.entrySat[x]!;
-        for (let p = 0; p < d; p++) nzs[(za + p) * K + k]! += w * eC[3 * x + p]!;
+        for (let p = 0; p < d; p++) nzs[k * dz + za + p]! += w * eC[3 * x + p]!;
         gs[k]! += w * dr;
         sss[k * K + k]! += w;
       }
@@ -301,24 +301,19 @@ export class EpochClockSystem {
         const v = sInv[k * K + l]!;
         if (v === 0) continue;
         tv += v * gs[l]!;
-        for (let q = 0; q < dz; q++) ks[rowK + q]! += v * nzs[q * K + l]!;
+        const rowL = l * dz;
+        for (let q = 0; q < dz; q++) ks[rowK + q]! += v * nzs[rowL + q]!;
       }
       t[k] = tv;
     }
     if (!reduce) return true;
     // R −= N_zσ K_σ, r_z −= N_zσ t; R is symmetric and kept as its packed lower triangle.
     for (let p = 0; p < dz; p++) {
-      const rowR = (p * (p + 1)) / 2;
       let v = rz[p]!;
-      for (let k = 0; k < K; k++) {
-        const c = nzs[p * K + k]!;
-        if (c === 0) continue;
-        v -= c * t[k]!;
-        const rowK = k * dz;
-        for (let q = 0; q <= p; q++) R[rowR + q]! -= c * ks[rowK + q]!;
-      }
+      for (let k = 0; k < K; k++) v -= nzs[k * dz + p]! * t[k]!;
       rz[p] = v;
     }
+    reduceByClocks(R, nzs, ks, dz, K);
     return true;
   }
 
@@ -402,5 +397,37 @@ function invertWithDatum(S: Float64Array, K: number, datum: Uint8Array, out: Flo
       col[i] = v / work[i * n + i]!;
     }
     for (let i = 0; i < n; i++) out[idx[i]! * K + idx[c]!] = col[i]!;
+  }
+}
+
+/**
+ * R −= N_zσ K_σ on the packed lower triangle of R (dz×dz), N_σz and K_σ both K×dz by rows: four
+ * satellites per pass over R, so each element of R is read and written once for four products (the
+ * largest cost of forming an epoch: K·dz²/2 multiply-adds).
+ */
+function reduceByClocks(R: Float64Array, nsz: Float64Array, ks: Float64Array, dz: number, K: number): void {
+  let k = 0;
+  for (; k + 3 < K; k += 4) {
+    const r0 = k * dz;
+    const r1 = r0 + dz;
+    const r2 = r1 + dz;
+    const r3 = r2 + dz;
+    for (let p = 0; p < dz; p++) {
+      const c0 = nsz[r0 + p]!;
+      const c1 = nsz[r1 + p]!;
+      const c2 = nsz[r2 + p]!;
+      const c3 = nsz[r3 + p]!;
+      const rowR = (p * (p + 1)) / 2;
+      for (let q = 0; q <= p; q++) R[rowR + q]! -= c0 * ks[r0 + q]! + c1 * ks[r1 + q]! + c2 * ks[r2 + q]! + c3 * ks[r3 + q]!;
+    }
+  }
+  for (; k < K; k++) {
+    const r0 = k * dz;
+    for (let p = 0; p < dz; p++) {
+      const c0 = nsz[r0 + p]!;
+      if (c0 === 0) continue;
+      const rowR = (p * (p + 1)) / 2;
+      for (let q = 0; q <= p; q++) R[rowR + q]! -= c0 * ks[r0 + q]!;
+    }
   }
 }

@@ -36,6 +36,10 @@ import { nodeRejectionWindowMs } from '../outliers.js';
 import type { GradientNodeEstimate, RejectedObservation } from '../types.js';
 import { buildNetworkDesign, stationDesigns, type NetworkDesign, type StationSubset } from './network-design.js';
 import { screenedSolution } from '../screening.js';
+import { MAX_REWEIGHTINGS, nearestEpoch } from '../estimate.js';
+import { initialWeighting, setWeights } from '../design.js';
+import { screeningBound, varianceComponents } from '../variance-components.js';
+import { noiseInflation, type NoiseInflation } from '../correlated-noise.js';
 import { median } from './median.js';
 import { pointPositioning, pooledStatistics } from './point-positioning.js';
 import { ReducedEpochCache } from './reduced-epochs.js';
@@ -62,7 +66,9 @@ interface SubProblem {
   varianceFactor: number | null;
   degreesOfFreedom: number;
   unknowns: number;
+  /** 1: the formal errors are those of the final weights (re-estimated when scaleSigmas is on). */
   sigmaScale: number;
+  weighting: { constantM: number; elevationM: number; givenSigmaScale: number };
   solutions: number;
   screeningComplete: boolean;
   warnings: string[];
@@ -112,15 +118,17 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
       const net = buildNetworkDesign(obs, [sub], options, false, [designs[s]!]);
       return { net, solution: solveNamed(net, options, [problem.used[s]!], 0) };
     });
-    results = stationResults(problem, reference);
+    const noise = stationNoise(problem, input);
+    results = stationResults(problem, reference, noise);
     const singles = singleStationCounts(problem.net);
-    const meanEstimated = median(problem.solution.epochs.map((e) => Math.sqrt(e.meanVariance) * problem.sigmaScale));
+    const meanFactor = meanNoiseFactorPerEpoch(problem.net, noise);
+    const meanEstimated = median(problem.solution.epochs.map((e, k) => Math.sqrt(e.meanVariance * meanFactor[k]!) * problem.sigmaScale));
     const meanKnown = knownMeanSigma(
-      known.map(({ net, solution }) => {
+      known.map(({ net, solution }, s) => {
         const st = net.stations[0]!;
         return Array.from(st.design.epochMs, (t, ks) => ({
           epochMs: t,
-          sigmaM: Math.sqrt(solution.epochs[st.networkEpoch[ks]!]!.variance[0]!) * problem.sigmaScale,
+          sigmaM: Math.sqrt(solution.epochs[st.networkEpoch[ks]!]!.variance[0]! * noise[s]!.zwd[ks]!) * problem.sigmaScale,
         }));
       }),
     );
@@ -146,6 +154,7 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
       rmsM: Math.sqrt(problem.solution.residualSquareSumM2 / problem.solution.observationsUsed),
       varianceFactor: problem.varianceFactor,
       sigmaScale: problem.sigmaScale,
+      weighting: problem.weighting,
       solutions: problem.solutions,
       screeningComplete: problem.screeningComplete,
     };
@@ -306,17 +315,30 @@ function estimatedClockModelNotes(options: NetworkEstimationInput['options']): s
       `with satellite clocks estimated the network estimator uses piecewise-linear nodes (parametrisation "nodes", ZWD every ${options.zwd.intervalS} s), not a state at every epoch`,
     );
   }
-  if (options.correlatedNoise ?? true) {
-    notes.push(
-      'with satellite clocks estimated, formal errors are not inflated for time-correlated residuals (not implemented for the network solution): they describe white noise only',
-    );
-  }
-  if (options.scaleSigmas) {
-    notes.push(
-      'scale_sigmas with satellite clocks estimated: the formal errors are multiplied by √(variance factor); the observation weights are not re-estimated by variance components as in the single-station estimator',
-    );
-  }
   return notes;
+}
+
+/**
+ * The factor c by which every observation weight changes when the weighting goes from (a, b,
+ * given scale) to the next, or null when the weights change by different factors: with only one
+ * component in use ("elevation": a = 0; "uniform": b = 0) and the given sigmas (if any) scaled
+ * alike, every weight 1/σ² changes by the same factor, and the kept reduced epochs are scaled
+ * instead of being formed again.
+ */
+function uniformWeightFactor(
+  now: { a: number; b: number },
+  nowGiven: number,
+  next: { a: number; b: number },
+  nextGiven: number,
+  net: NetworkDesign,
+): number | null {
+  const ratios: number[] = [];
+  if (now.a > 0 || next.a > 0) ratios.push(now.a > 0 ? (now.a / next.a) ** 2 : Number.NaN);
+  if (now.b > 0 || next.b > 0) ratios.push(now.b > 0 ? (now.b / next.b) ** 2 : Number.NaN);
+  const anyGiven = net.stations.some((st) => st.design.givenSigmaM.some((g) => !Number.isNaN(g)));
+  if (anyGiven) ratios.push(nowGiven / nextGiven);
+  if (ratios.length === 0 || ratios.some((r) => !Number.isFinite(r))) return null;
+  return ratios.every((r) => Math.abs(r / ratios[0]! - 1) < 1e-12) ? ratios[0]! : null;
 }
 
 /** The caller's reference station, or the one closest to the centroid of all stations. */
@@ -406,8 +428,11 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
   const rejected: RejectedObservation[][] = net.stations.map(() => []);
   const layout = stationLayout(net);
   const unknownsOf = (s: NetworkSolution) => S * layout.parameters + s.clockUnknowns;
-  // Several solutions only when screening: then keep the reduced epochs between them.
-  const cache = options.outlierThreshold === null ? undefined : new ReducedEpochCache(net.epochMs.length);
+  // Several solutions only when screening or re-weighting: then keep the reduced epochs between them.
+  const cache = options.outlierThreshold === null && !options.scaleSigmas ? undefined : new ReducedEpochCache(net.epochMs.length);
+  let weighting = initialWeighting(options);
+  let givenScale = 1;
+  let reweightings = 0;
   const screened = screenedSolution(
     {
       solve: () => solveNamed(net, options, used, reference, cache),
@@ -431,6 +456,32 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
         used[c.station]![c.index] = 0;
         cache?.invalidate(networkEpochOf(net, c.station, c.index));
       },
+      // Variance components as in the single-station estimator (estimate.ts), one set for the whole
+      // network, estimated from every station's residuals and σ_v.
+      reweight: (s, varianceFactor) => {
+        if (!options.scaleSigmas || reweightings >= MAX_REWEIGHTINGS || varianceFactor === null) return false;
+        const next = varianceComponents(
+          net.stations.map((st, k) => ({
+            design: st.design,
+            fittedResidualM: s.fittedResidualM[k]!,
+            residualVarianceM2: s.residualVarianceM2[k]!,
+            used: s.included[k]!,
+          })),
+          options.weighting,
+          weighting,
+          givenScale,
+          screeningBound(options.outlierThreshold, varianceFactor),
+        );
+        if (!next.changed) return false;
+        const factor = uniformWeightFactor(weighting, givenScale, next.weighting, next.givenScale, net);
+        weighting = next.weighting;
+        givenScale = next.givenScale;
+        for (const st of net.stations) setWeights(st.design, weighting.a, weighting.b, givenScale);
+        if (factor === null) cache?.clear();
+        else cache?.scaleWeights(factor);
+        reweightings++;
+        return true;
+      },
     },
     options.outlierThreshold,
     options.maxRejections,
@@ -439,10 +490,12 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
   const warnings = [...screened.warnings];
   const unknowns = unknownsOf(solution);
   const degreesOfFreedom = solution.observationsUsed + solution.constraints - unknowns;
-  const sigmaScale = options.scaleSigmas && varianceFactor !== null ? Math.sqrt(varianceFactor) : 1;
+  // The weights were re-estimated (scaleSigmas): the formal errors are those of the final weights,
+  // as in the single-station estimator.
+  const sigmaScale = 1;
   if (varianceFactor === null) {
     warnings.push(
-      'no degrees of freedom (one observation per epoch with epoch_bias on, or as many unknowns as observations): the variance factor is not estimable and formal errors are not scaled',
+      'no degrees of freedom (one observation per epoch with epoch_bias on, or as many unknowns as observations): the variance factor is not estimable and the weights are not re-estimated',
     );
   }
   let low = 0;
@@ -452,7 +505,20 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
   });
   if (low > 0)
     warnings.push(`${low} observations below 3° were used: the Niell mapping functions are fitted from 3° up and are extrapolated there`);
-  return { net, used, solution, rejected, varianceFactor, degreesOfFreedom, unknowns, sigmaScale, solutions, screeningComplete, warnings };
+  return {
+    net,
+    used,
+    solution,
+    rejected,
+    varianceFactor,
+    degreesOfFreedom,
+    unknowns,
+    sigmaScale,
+    weighting: { constantM: weighting.a, elevationM: weighting.b, givenSigmaScale: givenScale },
+    solutions,
+    screeningComplete,
+    warnings,
+  };
 }
 
 /** Network epoch of design observation i of station s (binary search in the station's epoch starts). */
@@ -528,15 +594,64 @@ function interpolated(x: Float64Array, diag: Float64Array, adj: Float64Array, p:
   return { value: b * x[p]! + alpha * x[p + 1]!, sigma: Math.sqrt(Math.max(variance, 0)) * scale };
 }
 
-function stationResults(problem: SubProblem, reference: number): NetworkStationResult[] {
+/**
+ * Correlated-noise inflation per station (correlated-noise.ts, as the single-station estimator):
+ * the residual autocorrelation of the station's satellite arcs, and per epoch the information of
+ * its 3×3 block of the reduced epoch matrix (clocks eliminated). Variance factors per station epoch.
+ */
+function stationNoise(problem: SubProblem, input: NetworkEstimationInput): NoiseInflation[] {
+  const { net, solution } = problem;
+  return net.stations.map((st, s) =>
+    noiseInflation(
+      input.options,
+      st.design,
+      { fittedResidualM: solution.fittedResidualM[s]!, epochNormal: solution.epochNormal[s]! },
+      solution.included[s]!,
+      net.gradients !== null,
+      () => Array.from(st.networkIndex, (i) => input.observations.satellite[i]!),
+    ),
+  );
+}
+
+/**
+ * Per network epoch, the factor on the variance of the network mean: (mean over the stations of
+ * √f_s)², f_s the ZWD factor of station s at its nearest epoch. Exact when the factors are equal
+ * (Cov(s, t) scaled by √(f_s f_t)); otherwise the covariances are weighted alike.
+ */
+function meanNoiseFactorPerEpoch(net: NetworkDesign, noise: NoiseInflation[]): Float64Array {
+  const out = new Float64Array(net.epochMs.length);
+  for (let k = 0; k < net.epochMs.length; k++) {
+    let sum = 0;
+    net.stations.forEach((st, s) => (sum += Math.sqrt(noise[s]!.zwd[nearestEpoch(st.design.epochMs, net.epochMs[k]!)]!)));
+    out[k] = (sum / net.stations.length) ** 2;
+  }
+  return out;
+}
+
+/**
+ * σ² of x_s − x_r with both variances inflated (factors f_s, f_r) and their covariance by √(f_s f_r):
+ * the covariance follows from the white-noise variances, v_s + v_r − relative = 2 Cov.
+ */
+function inflatedRelative(vs: number, vr: number, relative: number, fs: number, fr: number): number {
+  const cov = (vs + vr - relative) / 2;
+  return Math.max(fs * vs + fr * vr - 2 * Math.sqrt(fs * fr) * cov, 0);
+}
+
+function stationResults(problem: SubProblem, reference: number, noise: NoiseInflation[]): NetworkStationResult[] {
   const { net, solution, sigmaScale: scale } = problem;
+  const refDesign = net.stations[reference]!.design;
+  const refNoise = noise[reference]!;
   const layout = stationLayout(net);
   const P = layout.parameters;
   const x = solution.x;
   const diag = solution.inverseDiagonal;
   const adj = solution.adjacentCovariance;
   const singleCounts = singleStationCounts(net).perStation;
-  /** Included observations of station s within one node interval of each node. */
+  /**
+   * Included observations of station s strictly within one node interval of each node
+   * (|t − node| < Δ, as the single-station estimator counts them: an epoch on the neighbouring node
+   * does not count).
+   */
   const nearby = (s: number, nodes: Float64Array, intervalMs: number) => {
     const out = new Array<number>(nodes.length).fill(0);
     const d = net.stations[s]!.design;
@@ -545,7 +660,7 @@ function stationResults(problem: SubProblem, reference: number): NetworkStationR
       for (let i = d.epochStart[ks]!; i < d.epochStart[ks + 1]!; i++) n += solution.included[s]![i]!;
       if (n === 0) continue;
       const t = d.epochMs[ks]!;
-      for (let j = 0; j < nodes.length; j++) if (Math.abs(nodes[j]! - t) <= intervalMs) out[j]! += n;
+      for (let j = 0; j < nodes.length; j++) if (Math.abs(nodes[j]! - t) < intervalMs) out[j]! += n;
     }
     return out;
   };
@@ -554,30 +669,36 @@ function stationResults(problem: SubProblem, reference: number): NetworkStationR
     const gradientNearby = net.gradients ? nearby(s, net.gradients.nodeMs, net.gradients.intervalMs) : [];
     const o = s * P;
     const ro = reference * P;
+    const d = st.design;
+    const f = noise[s]!;
     const zwdNodes = Array.from({ length: layout.zwdCount }, (_, j) => {
+      const t = nodeEpochMs(net.zwd, j);
+      const fs = f.zwd[nearestEpoch(d.epochMs, t)]!;
+      const fr = refNoise.zwd[nearestEpoch(refDesign.epochMs, t)]!;
       const cov = solution.nodeCovarianceWithReference[s]![j]!;
-      const rel = s === reference ? 0 : diag[o + j]! + diag[ro + j]! - 2 * cov;
+      const rel = s === reference ? 0 : inflatedRelative(diag[o + j]!, diag[ro + j]!, diag[o + j]! + diag[ro + j]! - 2 * cov, fs, fr);
       return {
-        epochMs: nodeEpochMs(net.zwd, j),
+        epochMs: t,
         correctionM: x[o + j]!,
-        sigmaM: Math.sqrt(diag[o + j]!) * scale,
-        relativeSigmaM: Number.isNaN(rel) ? null : Math.sqrt(Math.max(rel, 0)) * scale,
+        sigmaM: Math.sqrt(diag[o + j]! * fs) * scale,
+        relativeSigmaM: Number.isNaN(rel) ? null : Math.sqrt(rel) * scale,
         observationsNearby: zwdNearby[j]!,
       };
     });
     const gradientNodes: GradientNodeEstimate[] = Array.from({ length: layout.gradientCount }, (_, l) => {
       const n = o + layout.northOffset + l;
       const e = o + layout.eastOffset + l;
+      const t = nodeEpochMs(net.gradients!, l);
+      const near = nearestEpoch(d.epochMs, t);
       return {
-        epochMs: nodeEpochMs(net.gradients!, l),
+        epochMs: t,
         northM: x[n]!,
         eastM: x[e]!,
-        northSigmaM: Math.sqrt(diag[n]!) * scale,
-        eastSigmaM: Math.sqrt(diag[e]!) * scale,
+        northSigmaM: Math.sqrt(diag[n]! * f.north[near]!) * scale,
+        eastSigmaM: Math.sqrt(diag[e]! * f.east[near]!) * scale,
         observationsNearby: gradientNearby[l]!,
       };
     });
-    const d = st.design;
     const epochs: NetworkEpochEstimate[] = Array.from({ length: d.epochMs.length }, (_, ks) => {
       const k = st.networkEpoch[ks]!;
       const w = interpolated(x, diag, adj, o + net.zwdInterval[k]!, layout.zwdCount > 1, net.zwdAlpha[k]!, scale);
@@ -593,15 +714,21 @@ function stationResults(problem: SubProblem, reference: number): NetworkStationR
       for (let i = d.epochStart[ks]!; i < d.epochStart[ks + 1]!; i++) count += solution.included[s]![i]!;
       const ec = solution.epochs[k]!;
       const bias = solution.receiverClockM[s]![ks]!;
+      const vs = Math.max(ec.variance[s]!, 0);
+      const fs = f.zwd[ks]!;
+      const fr = refNoise.zwd[nearestEpoch(refDesign.epochMs, d.epochMs[ks]!)]!;
+      const vr = Math.max(ec.variance[reference]!, 0);
+      // The reference station may have no epoch here (its variance is then not kept): its factor alone.
+      const relative = Number.isNaN(vr) ? ec.relativeVariance[s]! * fs : inflatedRelative(vs, vr, ec.relativeVariance[s]!, fs, fr);
       return {
         epochMs: d.epochMs[ks]!,
         correctionM: w.value,
-        sigmaM: Math.sqrt(Math.max(ec.variance[s]!, 0)) * scale,
-        relativeSigmaM: Math.sqrt(ec.relativeVariance[s]!) * scale,
+        sigmaM: Math.sqrt(vs * fs) * scale,
+        relativeSigmaM: s === reference ? 0 : Math.sqrt(relative) * scale,
         northGradientM: north?.value ?? null,
         eastGradientM: east?.value ?? null,
-        northGradientSigmaM: north?.sigma ?? null,
-        eastGradientSigmaM: east?.sigma ?? null,
+        northGradientSigmaM: north ? north.sigma * Math.sqrt(f.north[ks]!) : null,
+        eastGradientSigmaM: east ? east.sigma * Math.sqrt(f.east[ks]!) : null,
         epochBiasM: Number.isNaN(bias) ? null : bias,
         observationsUsed: count,
       };
@@ -621,6 +748,7 @@ function stationResults(problem: SubProblem, reference: number): NetworkStationR
         observationsUsed: solution.included[s]!.reduce((n, v) => n + v, 0),
         observationsRejected: problem.rejected[s]!.length,
         epochs: d.epochMs.length,
+        noiseCorrelation: f.statistics,
       },
       medianSigmaM: median(epochs.map((e) => e.sigmaM)) ?? Number.NaN,
       medianRelativeSigmaM: median(epochs.map((e) => e.relativeSigmaM)) ?? Number.NaN,

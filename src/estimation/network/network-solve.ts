@@ -12,7 +12,7 @@
  * all stations on the same node layout.
  */
 
-import { constraintCount, randomWalkStepWeight, type ParameterLayout } from '../least-squares.js';
+import { constraintCount, EPOCH_NORMAL_ENTRIES, randomWalkStepWeight, type ParameterLayout } from '../least-squares.js';
 import type { PiecewiseLinearSettings, ZwdEstimationOptions } from '../types.js';
 import { EpochClockSystem } from './epoch-clocks.js';
 import { reducedEpoch, type ReducedEpoch, type ReducedEpochCache } from './reduced-epochs.js';
@@ -48,6 +48,12 @@ export interface NetworkSolution {
   included: Uint8Array[];
   /** Per network epoch. */
   epochs: EpochCovariances[];
+  /**
+   * Per station, per station epoch: its 3×3 block of the epoch's reduced normal matrix R (clocks
+   * eliminated), entries ww, wn, we, nn, ne, ee (EPOCH_NORMAL_ENTRIES each; 0 without data) [1/m²]:
+   * the epoch's information on the station's ZWD and gradients, for the correlated-noise inflation.
+   */
+  epochNormal: Float64Array[];
   weightedSquareSum: number;
   residualSquareSumM2: number;
   observationsUsed: number;
@@ -93,7 +99,8 @@ export function solveNetworkOnce(
   const P = layout.parameters;
   const d = net.gradients ? 3 : 1;
   const local = net.gradients ? 6 : 2;
-  const frontal = new FrontalLdl(S * P, S * local);
+  // Every node has at most the front (S·local − 1) as neighbours in L.
+  const frontal = new FrontalLdl(S * P, S * local, S * P * (S * local - 1));
   const families: Family[] = [];
   for (let s = 0; s < S; s++) {
     const o = s * P;
@@ -115,7 +122,15 @@ export function solveNetworkOnce(
       });
     }
   }
-  const advance = (f: Family, interval: number) => {
+  // Moving a family to the node interval of an epoch takes two steps, run for all families in turn:
+  // first every node that no later epoch uses is eliminated, then the new nodes enter the front.
+  // Eliminating before activating keeps the front smaller during the eliminations (the node
+  // elimination and the reverse sweep cost O(front²) per node).
+  const retire = (f: Family, interval: number) => {
+    if (f.current < 0) return;
+    for (let j = f.current; j < interval; j++) frontal.eliminate(f.offset + j);
+  };
+  const enter = (f: Family, interval: number) => {
     if (f.current < 0) {
       frontal.activate(f.offset);
       if (f.settings.aprioriSigmaM !== null) frontal.addValueConstraint(f.offset, 1 / f.settings.aprioriSigmaM ** 2);
@@ -127,14 +142,14 @@ export function solveNetworkOnce(
       f.current = 0;
     }
     while (f.current < interval) {
-      frontal.eliminate(f.offset + f.current);
       frontal.activate(f.offset + f.current + 2);
       const rw = stepWeight(f, f.current + 1);
       if (rw !== null) frontal.addDifferenceConstraint(f.offset + f.current + 2, f.offset + f.current + 1, rw);
       f.current++;
     }
   };
-  const perStation = families.length / S;
+  const intervalOf = (f: number, k: number) => (f % perStationFamilies === 0 ? net.zwdInterval[k]! : net.gradientInterval[k]!);
+  const perStationFamilies = families.length / S;
 
   let maxEntries = 1;
   for (let k = 0; k < net.epochMs.length; k++) maxEntries = Math.max(maxEntries, net.entryStart[k + 1]! - net.entryStart[k]!);
@@ -171,13 +186,17 @@ export function solveNetworkOnce(
   const projCoeff = new Float64Array(local * S);
   const projRows = new Int32Array(local * S);
   let clockUnknowns = 0;
+  const stationEpochAt = net.stations.map((st) => {
+    const m = new Int32Array(epochs).fill(-1);
+    st.networkEpoch.forEach((ke, ks) => (m[ke] = ks));
+    return m;
+  });
+  const epochNormal = net.stations.map((st) => new Float64Array(st.design.epochMs.length * EPOCH_NORMAL_ENTRIES));
 
   // Forward pass: assembly and elimination.
   for (let k = 0; k < epochs; k++) {
-    for (let s = 0; s < S; s++) {
-      advance(families[s * perStation]!, net.zwdInterval[k]!);
-      for (let f = 1; f < perStation; f++) advance(families[s * perStation + f]!, net.gradientInterval[k]!);
-    }
+    for (let f = 0; f < families.length; f++) retire(families[f]!, intervalOf(f, k));
+    for (let f = 0; f < families.length; f++) enter(families[f]!, intervalOf(f, k));
     stamp[k] = frontal.eliminatedCount;
     let epoch: ReducedEpoch | null | undefined = cache?.get(k);
     if (epoch === undefined) {
@@ -187,6 +206,7 @@ export function solveNetworkOnce(
     if (epoch === null || epoch === undefined || epoch.present.length === 0) continue;
     const Sp = epoch.present.length;
     clockUnknowns += epoch.clockUnknowns;
+    keepStationBlocks(epoch, d, k, stationEpochAt, epochNormal);
     for (let a = 0; a < Sp; a++) {
       const s = epoch.present[a]!;
       fillLocal(k, s);
@@ -232,11 +252,6 @@ export function solveNetworkOnce(
     if (list) list.push(k);
     else byStamp.set(stamp[k]!, [k]);
   }
-  const stationEpochAt = net.stations.map((st) => {
-    const m = new Int32Array(epochs).fill(-1);
-    st.networkEpoch.forEach((ke, ks) => (m[ke] = ks));
-    return m;
-  });
   let weightedSquareSum = 0;
   let residualSquareSumM2 = 0;
   let observationsUsed = 0;
@@ -368,26 +383,20 @@ export function solveNetworkOnce(
       }
     }
     for (let p = 0; p < dz; p++) for (let r = 0; r < p; r++) q[r * dz + p] = q[p * dz + r]!;
-    // Satellite clocks σ̂ = t − K_σ ẑ (datum 0); Φ = Q K_σᵀ (dz×K), Ψ = K_σ Φ (K×K).
+    // Satellite clocks σ̂ = t − K_σ ẑ (datum 0); Φ = Q K_σᵀ (dz×K, kept transposed: phi[k·dz + p]), Ψ = K_σ Φ (K×K).
     const ks = sys.ks;
     for (let kk = 0; kk < K; kk++) {
       let v = sys.t[kk]!;
       for (let p = 0; p < dz; p++) v -= ks[kk * dz + p]! * zhat[p]!;
       satClock[kk] = sys.satDatum[kk] ? 0 : v;
     }
-    for (let p = 0; p < dz; p++) {
-      for (let kk = 0; kk < K; kk++) {
-        let v = 0;
-        const rowQ = p * dz;
-        const rowK = kk * dz;
-        for (let r = 0; r < dz; r++) v += q[rowQ + r]! * ks[rowK + r]!;
-        phi[p * K + kk] = v;
-      }
-    }
+    phiTransposed(q, ks, dz, K, phi);
     for (let k1 = 0; k1 < K; k1++) {
+      const row1 = k1 * dz;
       for (let k2 = 0; k2 <= k1; k2++) {
         let v = 0;
-        for (let p = 0; p < dz; p++) v += ks[k1 * dz + p]! * phi[p * K + k2]!;
+        const row2 = k2 * dz;
+        for (let p = 0; p < dz; p++) v += ks[row1 + p]! * phi[row2 + p]!;
         psi[k1 * K + k2] = v;
         psi[k2 * K + k1] = v;
       }
@@ -427,8 +436,8 @@ export function solveNetworkOnce(
         }
         for (let f = 0; f < d; f++) {
           let v = 0;
-          const row = (d * a + f) * K;
-          for (let k1 = 0; k1 < K; k1++) v += phi[row + k1]! * omega[k1]!;
+          const p = d * a + f;
+          for (let k1 = 0; k1 < K; k1++) v += phi[k1 * dz + p]! * omega[k1]!;
           phiOmega[f] = v;
         }
       }
@@ -461,7 +470,7 @@ export function solveNetworkOnce(
         let clockTerm = rc ? 1 / Da : 0;
         if (K > 0) {
           quad += psi[kk * K + kk]!;
-          for (let f = 0; f < d; f++) quad -= 2 * cx[3 * xe + f]! * phi[(d * a + f) * K + kk]!;
+          for (let f = 0; f < d; f++) quad -= 2 * cx[3 * xe + f]! * phi[kk * dz + d * a + f]!;
           clockTerm += Sinv[kk * K + kk]!;
           if (rc) {
             quad += omegaPsiOmega - 2 * psiOmega[kk]!;
@@ -520,7 +529,19 @@ export function solveNetworkOnce(
       for (let r = 0; r < dz; r++) v += q[p * dz + r]! * u2[r]!;
       varChi += u2[p]! * v;
     }
-    // Cov(ẑ, ζ), ζ = (1/S) Σ_t δw_t(t_k).
+    // Cov(ẑ, ζ), ζ = (1/S) Σ_t δw_t(t_k). With every station present, δw_t(t_k) is one of ẑ and
+    // the covariances are in Q_zz (q) already; otherwise from the reverse front.
+    if (Sp === S) {
+      let cov = 0;
+      for (let p = 0; p < dz; p++) {
+        const row = p * dz;
+        let c = 0;
+        for (let a = 0; a < Sp; a++) c += q[row + d * a]!;
+        cov += u2[p]! * c;
+      }
+      cov /= S;
+      return varChi > 0 && meanVariance > 0 ? cov / Math.sqrt(varChi * meanVariance) : Number.NaN;
+    }
     const j = net.zwdInterval[k]!;
     const alpha = net.zwdAlpha[k]!;
     let cov = 0;
@@ -562,10 +583,73 @@ export function solveNetworkOnce(
     receiverClockM,
     included,
     epochs: epochCov,
+    epochNormal,
     weightedSquareSum,
     residualSquareSumM2,
     observationsUsed,
     clockUnknowns,
     constraints: S * constraintCount(layout, options),
   };
+}
+
+/** Copies each present station's diagonal block of R (packed lower triangle) into its epoch's normal entries. */
+function keepStationBlocks(epoch: ReducedEpoch, d: number, k: number, stationEpochAt: Int32Array[], out: Float64Array[]): void {
+  const R = epoch.r;
+  const at = (p: number, q: number) => R[(p * (p + 1)) / 2 + q]!;
+  for (let a = 0; a < epoch.present.length; a++) {
+    const s = epoch.present[a]!;
+    const o = stationEpochAt[s]![k]! * EPOCH_NORMAL_ENTRIES;
+    const z = d * a;
+    const e = out[s]!;
+    e[o] = at(z, z);
+    if (d === 3) {
+      e[o + 1] = at(z + 1, z);
+      e[o + 2] = at(z + 2, z);
+      e[o + 3] = at(z + 1, z + 1);
+      e[o + 4] = at(z + 2, z + 1);
+      e[o + 5] = at(z + 2, z + 2);
+    }
+  }
+}
+
+/**
+ * Φᵀ = K_σ Q (K×dz, row k at k·dz) for symmetric Q (dz×dz) and K_σ (K×dz): four rows of K_σ per
+ * pass over Q, so each element of Q is loaded once for four products (the largest cost of the
+ * residual variances: K·dz² multiply-adds per epoch).
+ */
+function phiTransposed(q: Float64Array, ks: Float64Array, dz: number, K: number, out: Float64Array): void {
+  let k = 0;
+  for (; k + 3 < K; k += 4) {
+    const r0 = k * dz;
+    const r1 = r0 + dz;
+    const r2 = r1 + dz;
+    const r3 = r2 + dz;
+    for (let p = 0; p < dz; p++) {
+      const rowQ = p * dz;
+      let s0 = 0;
+      let s1 = 0;
+      let s2 = 0;
+      let s3 = 0;
+      for (let r = 0; r < dz; r++) {
+        const v = q[rowQ + r]!;
+        s0 += v * ks[r0 + r]!;
+        s1 += v * ks[r1 + r]!;
+        s2 += v * ks[r2 + r]!;
+        s3 += v * ks[r3 + r]!;
+      }
+      out[r0 + p] = s0;
+      out[r1 + p] = s1;
+      out[r2 + p] = s2;
+      out[r3 + p] = s3;
+    }
+  }
+  for (; k < K; k++) {
+    const r0 = k * dz;
+    for (let p = 0; p < dz; p++) {
+      const rowQ = p * dz;
+      let s0 = 0;
+      for (let r = 0; r < dz; r++) s0 += q[rowQ + r]! * ks[r0 + r]!;
+      out[r0 + p] = s0;
+    }
+  }
 }

@@ -3,7 +3,14 @@
  * SI units in the names (epochs in ms since 1970 UTC, angles in rad, delays in m), like ../types.ts.
  */
 
-import type { EpochEstimate, GradientNodeEstimate, RejectedObservation, ZwdEstimationOptions, ZwdNodeEstimate } from '../types.js';
+import type {
+  EpochEstimate,
+  GradientNodeEstimate,
+  NoiseCorrelationStatistics,
+  RejectedObservation,
+  ZwdEstimationOptions,
+  ZwdNodeEstimate,
+} from '../types.js';
 
 export interface NetworkStation {
   /** Unique name; observations refer to it. */
@@ -69,6 +76,12 @@ export interface NetworkStationStatistics {
   observationsUsed: number;
   observationsRejected: number;
   epochs: number;
+  /**
+   * The station's residual autocorrelation and the mean variance inflation of its formal errors
+   * (correlated-noise.ts; satellite clocks estimated); null when switched off; absent when the
+   * station was solved alone (its single-station statistics carry it).
+   */
+  noiseCorrelation?: NoiseCorrelationStatistics | null | undefined;
 }
 
 export interface NetworkStationResult {
@@ -122,6 +135,13 @@ export interface NetworkEstimationStatistics {
   rmsM: number;
   varianceFactor: number | null;
   sigmaScale: number;
+  /**
+   * The observation weighting of the final solution with satellite clocks estimated: σ² = a² + b²/sin²e
+   * (a = constantM, b = elevationM) and the factor on the variances of caller-given sigmas, after
+   * variance components when scaleSigmas is on (the options' values otherwise); absent when every
+   * station was solved alone (its own weighting is in its single-station solution).
+   */
+  weighting?: { constantM: number; elevationM: number; givenSigmaScale: number } | undefined;
   solutions: number;
   screeningComplete: boolean;
 }

@@ -264,3 +264,33 @@ export function toNetworkInput(sim: NetworkSim, options: NetworkEstimationOption
     options,
   };
 }
+
+/**
+ * A small regional network for the estimator's unit tests: 60-s data from 3° up, σ0 = 3 mm, five
+ * satellites per plane, 300-s ZWD nodes (10 mm/√h), 1-h gradient nodes, clocks ±300 km, no common
+ * offset and no gross errors unless given.
+ */
+export function smallNetwork(seed: number, stations: SimStation[], hours: number, overrides: Partial<NetworkSimOptions> = {}): NetworkSim {
+  return simulateNetwork({
+    seed,
+    stations,
+    startIso: '2026-05-04T00:00:00Z',
+    durationS: hours * 3600,
+    samplingS: 60,
+    minElevationDeg: 3,
+    sigma0M: 0.003,
+    satellitesPerPlane: 5,
+    zwd: { intervalS: 300, randomWalkMPerSqrtH: 0.01, initialSigmaM: 0.05 },
+    gradients: { intervalS: 3600, randomWalkMPerSqrtH: 0.001, initialSigmaM: 0.0005 },
+    commonOffsetM: 0,
+    receiverClockAmplitudeM: 300_000,
+    satelliteClockAmplitudeM: 300_000,
+    grossErrors: 0,
+    ...overrides,
+  });
+}
+
+/** Seeded standard normal numbers (the generator's own mulberry32 and Gaussian). */
+export function seededNormals(seed: number): () => number {
+  return gaussian(mulberry32(seed));
+}
