@@ -5,7 +5,7 @@ import { csvCell } from '../../formats/met-csv.js';
 import { intervalMeans, type IntervalMean } from '../../services/interval-means.js';
 import { networkStationPwv, type NetworkStationPwv, type SourceChoice } from '../../services/network-pwv.js';
 import { summariseModelSets } from '../../services/homogeneity.js';
-import { PWV_QUALITY_FLAGS, retrievalProvenance, type StationPwvRecord } from '../../services/station-pwv.js';
+import { PWV_QUALITY_FLAGS, recordWarningCell, retrievalProvenance, type StationPwvRecord } from '../../services/station-pwv.js';
 import type { Station, StationRange, ZenithDelayRow } from '../../storage/repository.js';
 import { intervalsNetcdf, recordsNetcdf } from '../network-netcdf.js';
 import { HttpProblem } from '../problem.js';
@@ -300,7 +300,7 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
           if (intervalsByStation === null) {
             for (const rec of res.records) {
               lines.push(
-                `${place},${[isoEpoch(rec.epochMs), csvCell(rec.source), rec.modelFingerprint, fixed(rec.ztdM, D.m), fixed(rec.ztdSigmaM, D.m), fixed(rec.pressureHpa, D.hpa), fixed(rec.temperatureC, D.k), fixed(rec.pwvMm, D.mm), fixed(rec.pwvSigmaMm, D.mm), rec.quality].join(',')}`,
+                `${place},${[isoEpoch(rec.epochMs), csvCell(rec.source), rec.modelFingerprint, fixed(rec.ztdM, D.m), fixed(rec.ztdSigmaM, D.m), fixed(rec.pressureHpa, D.hpa), fixed(rec.temperatureC, D.k), fixed(rec.pwvMm, D.mm), fixed(rec.pwvSigmaMm, D.mm), rec.quality, recordWarningCell(rec)].join(',')}`,
               );
             }
           } else {
@@ -319,6 +319,7 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
                 fixed(m.ztdSdM, D.m),
                 csvCell(m.sources.join(' ')),
                 ...PWV_QUALITY_FLAGS.map((f) => m.qualityCounts[f]),
+                m.warningCodes.join(';'),
               ];
               lines.push(`${place},${cells.join(',')}`);
             }
