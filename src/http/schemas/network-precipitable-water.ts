@@ -33,7 +33,7 @@ const BBOX_MESSAGE =
 const INTERVAL_MESSAGE = `must be an ISO 8601 duration of hours, minutes or seconds (PT1H, PT30M, PT600S) or P1D, from ${INTERVAL_MIN_S} s to 1 day and dividing one day`;
 const SOURCE_MESSAGE = 'must be "all" or a source name (1-64 characters of letters, digits and . _ : @ / -)';
 
-const stationList = z
+export const stationList = z
   .string({ error: STATIONS_MESSAGE })
   .transform((s, ctx) => {
     const ids = s.split(',').map((x) => x.trim());
@@ -52,7 +52,7 @@ export interface BoundingBox {
   northDeg: number;
 }
 
-const bbox = z
+export const bbox = z
   .string({ error: BBOX_MESSAGE })
   .transform((s, ctx): BoundingBox => {
     const v = s.split(',').map((x) => (x.trim() === '' ? Number.NaN : Number(x)));
