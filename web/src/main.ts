@@ -1,7 +1,18 @@
 /** The workspace page: wiring of the network view (map, legend, table) and the station view (charts, flags, coverage). */
 import 'uplot/dist/uPlot.min.css';
 import './style.css';
-import { getJson, networkUrl, type NetworkAnswer, type PwvRecord } from './api.js';
+import {
+  download,
+  getJson,
+  KeyRefusedError,
+  networkUrl,
+  readKey,
+  saveBlob,
+  setReadKey,
+  type NetworkAnswer,
+  type PwvRecord,
+} from './api.js';
+import { loadCoverage } from './coverage.js';
 import { StationCharts, type PwvColumns } from './chart.js';
 import { FLAG_TEXT, MARKED_FLAGS } from './flags.js';
 import { drawLegend, drawMap, type StationMap } from './map.js';
@@ -19,6 +30,10 @@ const state = {
   spanDays: 1,
   source: '',
   map: null as StationMap | null,
+  /** The page has drawn its network view once (start() succeeded). */
+  started: false,
+  /** What the download buttons fetch: the network hour and the station series on screen. */
+  downloads: { networkCsv: '', networkNc: '', stationCsv: '', stationNc: '' },
 };
 
 const dayInput = $<HTMLInputElement>('day');
@@ -74,8 +89,8 @@ async function loadHour(): Promise<void> {
     }),
   );
   tableStatus.textContent = `(${new Date(state.hourMs).toISOString().slice(0, 13)}Z: ${present.length} of ${answer.stations.length} stations with a value)`;
-  $<HTMLAnchorElement>('network-csv').href = networkUrl({ ...params, format: 'csv' });
-  $<HTMLAnchorElement>('network-nc').href = networkUrl({ ...params, format: 'netcdf' });
+  state.downloads.networkCsv = networkUrl({ ...params, format: 'csv' });
+  state.downloads.networkNc = networkUrl({ ...params, format: 'netcdf' });
   document.body.dataset.hour = isoHour(state.hourMs);
 }
 
@@ -170,8 +185,8 @@ async function loadStation(): Promise<void> {
   );
   definitionList($('coverage'), coverage(records));
   showSoundings(soundings);
-  $<HTMLAnchorElement>('station-csv').href = networkUrl({ ...params, format: 'csv' });
-  $<HTMLAnchorElement>('station-nc').href = networkUrl({ ...params, format: 'netcdf' });
+  state.downloads.stationCsv = networkUrl({ ...params, format: 'csv' });
+  state.downloads.stationNc = networkUrl({ ...params, format: 'netcdf' });
   const place = answer.stations[0];
   const name = place?.name ?? '';
   const heights = place
@@ -197,14 +212,24 @@ async function pickStation(id: string): Promise<void> {
   await loadStation();
 }
 
+const keyInput = $<HTMLInputElement>('read-key');
+const keyStatus = $('key-status');
+
+/** A failure where it happened; a refused key also at the key field, which gets the focus. */
 function report(err: unknown, where: HTMLElement): void {
   where.textContent = `Could not load: ${err instanceof Error ? err.message : String(err)}`;
+  if (err instanceof KeyRefusedError) {
+    keyStatus.textContent = err.message;
+    keyStatus.className = 'refused';
+    keyInput.focus();
+  }
 }
 
 async function start(): Promise<void> {
   const latest = await getJson<NetworkAnswer>(networkUrl({ latest: 'true', interval: 'PT1H' }));
   const newest = latest.intervals.reduce((m, x) => Math.max(m, Date.parse(x.epoch)), Number.NEGATIVE_INFINITY);
   setHour(Number.isFinite(newest) ? newest : Date.now());
+  stationSelect.replaceChildren(); // start() runs again after a key is entered
   for (const s of latest.stations) stationSelect.append(new Option(`${s.station_id} ${s.name}`, s.station_id));
   state.map = await drawMap(
     $('map') as unknown as SVGSVGElement,
@@ -215,7 +240,14 @@ async function start(): Promise<void> {
   await loadHour();
   await new Promise<void>((resolve) => requestAnimationFrame(() => resolve()));
   performance.mark('network-drawn'); // read by bench/workspace.bench.ts
+  state.started = true;
+  keyStatus.textContent = readKey() ? 'Key in use for this tab.' : '';
+  keyStatus.className = '';
+  const coverage = loadCoverage($<HTMLTableElement>('network-coverage'), $('network-coverage-status')).catch((e) =>
+    report(e, $('network-coverage-status')),
+  );
   if (latest.stations[0]) await pickStation(latest.stations[0].station_id);
+  await coverage;
   document.body.dataset.ready = 'true';
 }
 
@@ -261,15 +293,37 @@ for (const b of document.querySelectorAll<HTMLButtonElement>('.spans button')) {
 }
 $('chart-png').addEventListener('click', () => {
   void charts.pngBlob().then((blob) => {
-    if (!blob) return;
-    const a = document.createElement('a');
-    a.href = URL.createObjectURL(blob);
-    a.download = `pwv-${state.stationId ?? 'station'}-${isoHour(state.hourMs).slice(0, 13)}.png`;
-    a.click();
-    setTimeout(() => URL.revokeObjectURL(a.href), 10_000);
+    if (blob) saveBlob(blob, `pwv-${state.stationId ?? 'station'}-${isoHour(state.hourMs).slice(0, 13)}.png`);
   });
+});
+const downloadButtons: [string, keyof typeof state.downloads, HTMLElement][] = [
+  ['network-csv', 'networkCsv', tableStatus],
+  ['network-nc', 'networkNc', tableStatus],
+  ['station-csv', 'stationCsv', stationStatus],
+  ['station-nc', 'stationNc', stationStatus],
+];
+for (const [id, which, where] of downloadButtons) {
+  $(id).addEventListener('click', () => {
+    const url = state.downloads[which];
+    if (url) void download(url, `${id}.${url.includes('netcdf') ? 'nc' : 'csv'}`).catch((e) => report(e, where));
+  });
+}
+$('key-form').addEventListener('submit', (e) => {
+  e.preventDefault();
+  setReadKey(keyInput.value.trim());
+  keyInput.value = '';
+  keyStatus.className = '';
+  keyStatus.textContent = readKey() ? 'Key kept for this tab; loading…' : 'No key in use.';
+  if (state.started) refresh();
+  else start().catch((err) => report(err, tableStatus));
+});
+$('key-forget').addEventListener('click', () => {
+  setReadKey('');
+  keyStatus.className = '';
+  keyStatus.textContent = 'Key forgotten.';
 });
 $('time-controls').addEventListener('submit', (e) => e.preventDefault());
 $('station-controls').addEventListener('submit', (e) => e.preventDefault());
 
+keyStatus.textContent = readKey() ? 'Key in use for this tab.' : '';
 start().catch((e) => report(e, tableStatus));
