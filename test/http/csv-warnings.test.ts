@@ -15,10 +15,11 @@
  *     (met is interpolated, never extrapolated: documented rule of the route).
  */
 
-import { execFile, execFileSync } from 'node:child_process';
+import { execFile } from 'node:child_process';
 import { promisify } from 'node:util';
 import type { AddressInfo } from 'node:net';
 import { parse } from 'csv-parse/sync';
+import { PANDAS_PYTHON } from '../helpers/pandas.js';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
@@ -41,15 +42,6 @@ const ROWS: { epoch: string; ztd_m: number; ztd_sigma_m?: number; warnings: stri
 ];
 const RANGE = { from: '2026-07-10T12:00:00Z', to: '2026-07-10T14:59:59Z' };
 
-/** Debian's python3 with python3-pandas, when installed. */
-const PANDAS_PYTHON = ['/usr/bin/python3', 'python3'].find((python) => {
-  try {
-    execFileSync(python, ['-c', 'import pandas'], { stdio: 'ignore' });
-    return true;
-  } catch {
-    return false;
-  }
-});
 if (!PANDAS_PYTHON) console.warn('pandas read of the CSV warnings skipped: python3-pandas not installed (apt-get install python3-pandas)');
 
 const isoMs = (epoch: string) => new Date(epoch).toISOString();
