@@ -4,7 +4,8 @@
  *    latest), in-process (app.inject) and over HTTP on loopback (fetch), on SQLite and PostgreSQL
  *    (127.0.0.1:5432, database test, a schema of its own; skipped when none answers) — target < 200 ms;
  *  - the page in Debian's chromium (playwright-core): navigation to the network view drawn (map,
- *    legend, table) with 1 000 stations — target < 1 s; a station-year at 5-min sampling
+ *    legend, table, values at the top of the hour) with 1 000 stations — target < 1 s — and to the hourly
+ *    means drawn over it; a station-year at 5-min sampling
  *    (105 120 points) drawn by the station view (from the data in memory to the charts painted) —
  *    target < 0.5 s; also its fetch of ~105 000 records.
  * Data: test/helpers/workspace-network.ts (1 000 invented stations, 3 h at 30 s; one station with a year at 5 min).
@@ -85,7 +86,8 @@ async function networkCalls(name: string, storage: StorageConfig): Promise<strin
   return lines;
 }
 
-async function page(): Promise<string[]> {
+/** The browser figures alone (also run by `run`). */
+export async function page(): Promise<string[]> {
   if (!chromiumAvailable) return ['page: skipped (no chromium at /usr/bin/chromium)'];
   await buildWeb();
   const dir = mkdtempSync(join(tmpdir(), 'tropodelay-bench-'));
@@ -101,6 +103,7 @@ async function page(): Promise<string[]> {
     await app.listen({ port: 0, host: '127.0.0.1' });
     const base = `http://127.0.0.1:${(app.server.address() as AddressInfo).port}/`;
     const network: number[] = [];
+    const networkMeans: number[] = [];
     const draw: number[] = [];
     const fetchYear: number[] = [];
     for (let i = 0; i < 6; i++) {
@@ -110,6 +113,7 @@ async function page(): Promise<string[]> {
       await p.waitForFunction(() => performance.getEntriesByName('network-drawn').length > 0, undefined, { timeout: 60_000 });
       const drawn = await p.evaluate(() => performance.getEntriesByName('network-drawn')[0]!.startTime);
       await p.waitForSelector('body[data-ready="true"]', { timeout: 60_000 });
+      const meansDrawn = await p.evaluate(() => performance.getEntriesByName('network-means-drawn')[0]!.startTime);
       await p.selectOption('#station-select', 'WS0001');
       await p.waitForFunction(() => document.body.dataset.station === 'WS0001');
       const clicked = await p.evaluate(() => {
@@ -128,13 +132,15 @@ async function page(): Promise<string[]> {
       });
       if (i > 0) {
         network.push(drawn);
+        networkMeans.push(meansDrawn);
         draw.push(drawMs);
         fetchYear.push(dataAt - clicked);
       }
       if (i === 1) lines.push(`page: station-year of ${points} points`);
       await context.close();
     }
-    lines.push(`page: ${STATIONS} stations, navigation to the network view drawn: ${fmt(network)}`);
+    lines.push(`page: ${STATIONS} stations, navigation to the network view drawn (values at the hour): ${fmt(network)}`);
+    lines.push(`page: ${STATIONS} stations, navigation to the hourly means drawn over it: ${fmt(networkMeans)}`);
     lines.push(`page: station-year drawn (data in memory → charts painted): ${fmt(draw)}`);
     lines.push(`page: station-year fetched and parsed (click → data in memory): ${fmt(fetchYear)}`);
   } finally {

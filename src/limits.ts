@@ -65,3 +65,13 @@ export const MAX_NETWORK_STATIONS = 100;
  * (not built yet).
  */
 export const MAX_NETWORK_STATION_OBSERVATIONS = 5_000_000;
+/**
+ * Data coverage (GET /v1/network/coverage): a gap is a spacing between consecutive records longer
+ * than gap_min_s [s], default one hour (the step of the hourly products: a longer hole leaves an
+ * hour without a value); from one minute to one year. At most COVERAGE_MAX_GAPS_LIMIT gaps listed per
+ * station and source (the longest; all are counted), default COVERAGE_DEFAULT_MAX_GAPS.
+ */
+export const COVERAGE_DEFAULT_GAP_MIN_S = 3600;
+export const COVERAGE_GAP_MIN_RANGE_S = [60, 366 * 86_400] as const;
+export const COVERAGE_DEFAULT_MAX_GAPS = 20;
+export const COVERAGE_MAX_GAPS_LIMIT = 1000;

@@ -31,6 +31,7 @@ import healthRoute from './routes/health.js';
 import mappingFactorsRoute from './routes/mapping-factors.js';
 import networkEstimatesRoute from './routes/network-estimates.js';
 import networkPwvRoute from './routes/network-precipitable-water.js';
+import networkCoverageRoute from './routes/network-coverage.js';
 import precipitableWaterRoute from './routes/precipitable-water.js';
 import profileDelaysRoute from './routes/profile-delays.js';
 import rootRoute from './routes/root.js';
@@ -199,6 +200,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(stationZwdEstimatesRoute, stationOptions);
   await app.register(stationSoundingsRoute, stationOptions);
   await app.register(networkPwvRoute, stationOptions);
+  await app.register(networkCoverageRoute);
   await app.register(profileDelaysRoute);
   await app.register(adminKeysRoute);
   await app.register(adminAuditRoute);

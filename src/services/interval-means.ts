@@ -21,9 +21,18 @@
  *   ztd_m, ztd_sigma_m, ztd_sd_m   the same for ZTD over every record except delay-sigma-large
  *                   (`ztd_count` of them): ZTD needs no met.
  *   quality_counts  records per quality flag, all of them.
+ *   warning codes   the codes of recordWarningCell found among the interval's records, in the order
+ *                   of PWV_RECORD_WARNING_CODES (the `warnings` column of the interval CSV).
  */
 
-import { PWV_QUALITY_FLAGS, type PwvQuality, type StationPwvRecord } from './station-pwv.js';
+import {
+  PWV_QUALITY_FLAGS,
+  PWV_RECORD_WARNING_CODES,
+  recordWarningCell,
+  type PwvQuality,
+  type PwvRecordWarning,
+  type StationPwvRecord,
+} from './station-pwv.js';
 
 export interface IntervalMean {
   startMs: number;
@@ -38,6 +47,7 @@ export interface IntervalMean {
   ztdSdM: number | null;
   sources: string[];
   qualityCounts: Record<PwvQuality, number>;
+  warningCodes: PwvRecordWarning[];
 }
 
 /** Quality flags whose PWV enters an interval mean. */
@@ -81,8 +91,11 @@ export function intervalMeans(records: readonly StationPwvRecord[], intervalMs: 
     const sources = new Set<string>();
     const qualityCounts = Object.fromEntries(PWV_QUALITY_FLAGS.map((q) => [q, 0])) as Record<PwvQuality, number>;
     let excludedCount = 0;
+    const warned = new Set<string>();
     for (; i < records.length && records[i]!.epochMs < endMs; i++) {
       const r = records[i]!;
+      const cell = recordWarningCell(r);
+      if (cell !== '') for (const code of cell.split(';')) warned.add(code);
       qualityCounts[r.quality]++;
       sources.add(r.source);
       if (r.quality !== 'delay-sigma-large') ztd.add(r.ztdM, r.ztdSigmaM);
@@ -102,6 +115,7 @@ export function intervalMeans(records: readonly StationPwvRecord[], intervalMs: 
       ztdSdM: ztd.sd(),
       sources: [...sources].sort(),
       qualityCounts,
+      warningCodes: PWV_RECORD_WARNING_CODES.filter((c) => warned.has(c)),
     });
   }
   return out;

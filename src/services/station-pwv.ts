@@ -43,6 +43,29 @@ export const DEFAULT_MAX_ZTD_SIGMA_M = 0.01;
 export const PWV_QUALITY_FLAGS = ['met-missing', 'delay-sigma-large', 'delay-sigma-unknown', 'met-interpolated', 'ok'] as const;
 export type PwvQuality = (typeof PWV_QUALITY_FLAGS)[number];
 
+/**
+ * Codes of the warnings that concern one record, for the `warnings` column of the CSV answers (the
+ * JSON answer says the same in its `warnings` texts): the record's quality when that quality raises
+ * a warning (met-missing, delay-sigma-large, delay-sigma-unknown), wet-delay-negative (ZTD below the
+ * ZHD, so PWV < 0) and tm-extrapolated (surface temperature outside the data of the Bevis Tm fit).
+ */
+export const PWV_RECORD_WARNING_CODES = [
+  'met-missing',
+  'delay-sigma-large',
+  'delay-sigma-unknown',
+  'wet-delay-negative',
+  'tm-extrapolated',
+] as const;
+export type PwvRecordWarning = (typeof PWV_RECORD_WARNING_CODES)[number];
+const WARNING_QUALITIES: readonly PwvQuality[] = ['met-missing', 'delay-sigma-large', 'delay-sigma-unknown'];
+
+/** The record's warning codes joined by ";" (empty when none), the cell of the CSV `warnings` column. */
+export function recordWarningCell(r: Pick<StationPwvRecord, 'quality' | 'retrievalWarnings'>): string {
+  const quality = WARNING_QUALITIES.includes(r.quality);
+  if (r.retrievalWarnings.length === 0) return quality ? r.quality : '';
+  return (quality ? [r.quality, ...r.retrievalWarnings] : r.retrievalWarnings).join(';');
+}
+
 export interface StationPwvRecord {
   epochMs: number;
   source: string;
@@ -62,7 +85,12 @@ export interface StationPwvRecord {
   quality: PwvQuality;
   pressureQuality: InterpolationQuality;
   temperatureQuality: InterpolationQuality;
+  /** Warnings of the PWV computation for this record (no quality codes; see recordWarningCell). */
+  retrievalWarnings: readonly PwvRecordWarning[];
 }
+
+/** Shared by the records without a warning of their own (most of them): no array per record. */
+const NO_WARNINGS: readonly PwvRecordWarning[] = Object.freeze([]);
 
 export interface StationPwvOptions {
   maxMetGapMs?: number;
@@ -201,6 +229,7 @@ export function stationPwvRetrieval(
         quality: 'met-missing',
         pressureQuality: p.quality,
         temperatureQuality: t.quality,
+        retrievalWarnings: NO_WARNINGS,
       };
       records[i - start] = record;
       if (p.value === null || t.value === null) {
@@ -225,6 +254,12 @@ export function stationPwvRetrieval(
       if (res.tmExtrapolated) {
         if (warnings.length < MAX_WARNINGS) warnings.push(tmExtrapolatedWarning(temperatureC, `records.${i}`));
         else extraWarnings++;
+      }
+      if (res.wetDelayNegative || res.tmExtrapolated) {
+        record.retrievalWarnings = [
+          ...(res.wetDelayNegative ? (['wet-delay-negative'] as const) : []),
+          ...(res.tmExtrapolated ? (['tm-extrapolated'] as const) : []),
+        ];
       }
       const sigmaKnown = d.ztdSigmaM !== null;
       const quality: PwvQuality =

@@ -9,6 +9,7 @@
  * at all, and is durable when the promise resolves.
  */
 
+import type { CoverageQuery, SeriesCoverage } from './coverage-query.js';
 import type { ModelSet } from '../domain/provenance.js';
 import type { AuditEvent, AuditQuery, DeletedStationMark, StoredApiKey, StoredAuditEvent } from './access-rows.js';
 
@@ -213,6 +214,11 @@ export interface Repository {
   readSurfaceMetMany(ranges: readonly StationRange[]): Promise<Map<string, SurfaceMetRow[]>>;
   /** Delay rows per source within each station's range: station id → source → count (empty stations absent). */
   countDelaySources(ranges: readonly StationRange[]): Promise<Map<string, Map<string, number>>>;
+  /**
+   * Coverage of the delay series per station and source, computed in the database
+   * (src/storage/coverage-query.ts): station id → its sources' first/last epoch, count and gaps.
+   */
+  readDelayCoverage(query: CoverageQuery): Promise<Map<string, SeriesCoverage[]>>;
   /** Latest epoch of the series per station [ms] (stations with an empty series are absent). */
   latestEpochsMs(stationIds: readonly string[], series: 'met' | 'delays'): Promise<Map<string, number>>;
 

@@ -9,6 +9,7 @@
 
 import { execFileSync } from 'node:child_process';
 import { parse } from 'csv-parse/sync';
+import { PANDAS_PYTHON } from '../helpers/pandas.js';
 import { NetCDFReader } from 'netcdfjs';
 import { describe, expect, it } from 'vitest';
 import { useArchiveApp } from '../helpers/archive-app.js';
@@ -26,15 +27,6 @@ const POINTS = [
   { id: 'ALTA', lat: 46.874319, lon: 102.448729, h: 1500, n: -43.572 },
   { id: 'ALTB', lat: -23.617446, lon: 133.874712, h: 600, n: 15.868 },
 ];
-/** Debian's python3 with python3-pandas, when installed (the CSV must stay readable by pd.read_csv). */
-const PANDAS_PYTHON = ['/usr/bin/python3', 'python3'].find((python) => {
-  try {
-    execFileSync(python, ['-c', 'import pandas'], { stdio: 'ignore' });
-    return true;
-  } catch {
-    return false;
-  }
-});
 if (!PANDAS_PYTHON) console.warn('pandas read of the network CSV skipped: python3-pandas not installed (apt-get install python3-pandas)');
 
 /** The grid with bilinear interpolation against the synthesis: a few cm (geoid.ts); output rounded to 1 cm. */

@@ -89,29 +89,29 @@ const DELAYS = [
  * Its PWV cells are checked against the written-out formulas in the test below.
  */
 const PINNED_HEADER =
-  'epoch,source,model_fingerprint,ztd_m,ztd_sigma_m,pressure_hpa,temperature_c,zhd_m,zwd_m,zwd_sigma_m,tm_k,tm_sigma_k,conversion_factor,pwv_mm,pwv_sigma_mm,quality,pressure_quality,temperature_quality';
+  'epoch,source,model_fingerprint,ztd_m,ztd_sigma_m,pressure_hpa,temperature_c,zhd_m,zwd_m,zwd_sigma_m,tm_k,tm_sigma_k,conversion_factor,pwv_mm,pwv_sigma_mm,quality,pressure_quality,temperature_quality,warnings';
 const PINNED_CSV_PINA = [
   PINNED_HEADER,
-  '2026-07-10T01:00:00.000Z,ref,55b7ed3531923e75,2.4731,0.0042,990.6,23.5,2.255468,0.217632,0.00438,283.788,4.74,0.16174934,35.2018,0.924,ok,measured,measured',
-  '2026-07-10T01:15:00.000Z,ref,55b7ed3531923e75,2.4702,0.0042,990.8,23.35,2.255924,0.214276,0.00438,283.68,4.74,0.1616888,34.6461,0.918,met-interpolated,interpolated,interpolated',
-  '2026-07-10T02:00:00.000Z,low,2bb4e1e1d0fa5616,2.1,0.004,991.4,22.9,2.25729,-0.15729,0.004188,283.356,4.74,0.16150717,-25.4034,0.8009,ok,measured,measured',
-  '2026-07-10T02:30:00.000Z,ref,55b7ed3531923e75,2.465,0.025,991.2,22.45,2.256834,0.208166,0.025031,283.032,4.74,0.16132554,33.5825,4.0778,delay-sigma-large,interpolated,interpolated',
-  '2026-07-10T03:00:00.000Z,ref,55b7ed3531923e75,2.4611,,991,22,2.256379,0.204721,,282.708,4.74,0.1611439,32.9896,,delay-sigma-unknown,measured,measured',
-  '2026-07-10T05:00:00.000Z,ref,55b7ed3531923e75,2.45,0.004,,,,,,,,,,,met-missing,missing,missing',
-  '2026-07-10T10:00:00.000Z,ref,55b7ed3531923e75,2.44,0.004,993.6,17.5,2.262299,0.177701,0.004188,279.468,4.74,0.1593271,28.3126,0.8245,met-interpolated,interpolated,measured',
-  '2026-07-10T11:00:00.000Z,ref,55b7ed3531923e75,2.43,0.004,994.2,,2.263665,0.166335,,,,,,,met-missing,measured,missing',
+  '2026-07-10T01:00:00.000Z,ref,55b7ed3531923e75,2.4731,0.0042,990.6,23.5,2.255468,0.217632,0.00438,283.788,4.74,0.16174934,35.2018,0.924,ok,measured,measured,',
+  '2026-07-10T01:15:00.000Z,ref,55b7ed3531923e75,2.4702,0.0042,990.8,23.35,2.255924,0.214276,0.00438,283.68,4.74,0.1616888,34.6461,0.918,met-interpolated,interpolated,interpolated,',
+  '2026-07-10T02:00:00.000Z,low,2bb4e1e1d0fa5616,2.1,0.004,991.4,22.9,2.25729,-0.15729,0.004188,283.356,4.74,0.16150717,-25.4034,0.8009,ok,measured,measured,wet-delay-negative',
+  '2026-07-10T02:30:00.000Z,ref,55b7ed3531923e75,2.465,0.025,991.2,22.45,2.256834,0.208166,0.025031,283.032,4.74,0.16132554,33.5825,4.0778,delay-sigma-large,interpolated,interpolated,delay-sigma-large',
+  '2026-07-10T03:00:00.000Z,ref,55b7ed3531923e75,2.4611,,991,22,2.256379,0.204721,,282.708,4.74,0.1611439,32.9896,,delay-sigma-unknown,measured,measured,delay-sigma-unknown',
+  '2026-07-10T05:00:00.000Z,ref,55b7ed3531923e75,2.45,0.004,,,,,,,,,,,met-missing,missing,missing,met-missing',
+  '2026-07-10T10:00:00.000Z,ref,55b7ed3531923e75,2.44,0.004,993.6,17.5,2.262299,0.177701,0.004188,279.468,4.74,0.1593271,28.3126,0.8245,met-interpolated,interpolated,measured,',
+  '2026-07-10T11:00:00.000Z,ref,55b7ed3531923e75,2.43,0.004,994.2,,2.263665,0.166335,,,,,,,met-missing,measured,missing,met-missing',
   '',
 ].join('\n');
 const PINNED_CSV_PINB = [
   PINNED_HEADER,
-  '2026-07-10T01:00:00.000Z,ref,55b7ed3531923e75,2.4731,0.0042,990.3719,23.487,2.254949,0.218151,0.00438,283.7786,4.74,0.16174409,35.2847,0.9249,ok,measured,measured',
-  '2026-07-10T01:15:00.000Z,ref,55b7ed3531923e75,2.4702,0.0042,990.5717,23.337,2.255404,0.214796,0.00438,283.6706,4.74,0.16168355,34.729,0.9189,met-interpolated,interpolated,interpolated',
-  '2026-07-10T02:00:00.000Z,low,2bb4e1e1d0fa5616,2.1,0.004,991.1712,22.887,2.256769,-0.156769,0.004188,283.3466,4.74,0.16150192,-25.3184,0.8001,ok,measured,measured',
-  '2026-07-10T02:30:00.000Z,ref,55b7ed3531923e75,2.465,0.025,990.9709,22.437,2.256313,0.208687,0.025031,283.0226,4.74,0.16132029,33.6655,4.0779,delay-sigma-large,interpolated,interpolated',
-  '2026-07-10T03:00:00.000Z,ref,55b7ed3531923e75,2.4611,,990.7706,21.987,2.255857,0.205243,,282.6986,4.74,0.16113865,33.0726,,delay-sigma-unknown,measured,measured',
-  '2026-07-10T05:00:00.000Z,ref,55b7ed3531923e75,2.45,0.004,,,,,,,,,,,met-missing,missing,missing',
-  '2026-07-10T10:00:00.000Z,ref,55b7ed3531923e75,2.44,0.004,993.3664,17.487,2.261767,0.178233,0.004188,279.4586,4.74,0.15932185,28.3964,0.8254,met-interpolated,interpolated,measured',
-  '2026-07-10T11:00:00.000Z,ref,55b7ed3531923e75,2.43,0.004,,,,,,,,,,,met-missing,measured,missing',
+  '2026-07-10T01:00:00.000Z,ref,55b7ed3531923e75,2.4731,0.0042,990.3719,23.487,2.254949,0.218151,0.00438,283.7786,4.74,0.16174409,35.2847,0.9249,ok,measured,measured,',
+  '2026-07-10T01:15:00.000Z,ref,55b7ed3531923e75,2.4702,0.0042,990.5717,23.337,2.255404,0.214796,0.00438,283.6706,4.74,0.16168355,34.729,0.9189,met-interpolated,interpolated,interpolated,',
+  '2026-07-10T02:00:00.000Z,low,2bb4e1e1d0fa5616,2.1,0.004,991.1712,22.887,2.256769,-0.156769,0.004188,283.3466,4.74,0.16150192,-25.3184,0.8001,ok,measured,measured,wet-delay-negative',
+  '2026-07-10T02:30:00.000Z,ref,55b7ed3531923e75,2.465,0.025,990.9709,22.437,2.256313,0.208687,0.025031,283.0226,4.74,0.16132029,33.6655,4.0779,delay-sigma-large,interpolated,interpolated,delay-sigma-large',
+  '2026-07-10T03:00:00.000Z,ref,55b7ed3531923e75,2.4611,,990.7706,21.987,2.255857,0.205243,,282.6986,4.74,0.16113865,33.0726,,delay-sigma-unknown,measured,measured,delay-sigma-unknown',
+  '2026-07-10T05:00:00.000Z,ref,55b7ed3531923e75,2.45,0.004,,,,,,,,,,,met-missing,missing,missing,met-missing',
+  '2026-07-10T10:00:00.000Z,ref,55b7ed3531923e75,2.44,0.004,993.3664,17.487,2.261767,0.178233,0.004188,279.4586,4.74,0.15932185,28.3964,0.8254,met-interpolated,interpolated,measured,',
+  '2026-07-10T11:00:00.000Z,ref,55b7ed3531923e75,2.43,0.004,,,,,,,,,,,met-missing,measured,missing,met-missing',
   '',
 ].join('\n');
 
@@ -332,12 +332,14 @@ for (const backend of BACKENDS) {
         .query({ from: iso(T0), to: iso(T0 + 24 * H), format: 'csv' })
         .expect(200);
       const lines = csv.text.trim().split('\n');
-      expect(lines[0]!.split(',')).toEqual(Object.keys(res.body.records[0]));
+      // The record fields, then the CSV's own `warnings` column (codes of the row's warnings; none here).
+      expect(lines[0]!.split(',')).toEqual([...Object.keys(res.body.records[0]), 'warnings']);
       expect(lines).toHaveLength(96);
       for (const k of [0, 50, 94]) {
-        expect(lines[k + 1]!.split(',')).toEqual(
-          Object.values(res.body.records[k]).map((v) => (v === null ? '' : String(v as string | number | boolean))),
-        );
+        expect(lines[k + 1]!.split(',')).toEqual([
+          ...Object.values(res.body.records[k]).map((v) => (v === null ? '' : String(v as string | number | boolean))),
+          '',
+        ]);
       }
     });
   });

@@ -206,6 +206,22 @@ describe.skipIf(skipReason !== null)('workspace page in chromium', () => {
     expect(worst).toBeLessThan(2e-4); // float32 of ~20 mm (2e-6 mm) plus the CSV's 0.0001 mm rounding
   });
 
+  it('lists the data coverage of every station (GET /v1/network/coverage): sources, first, last, records, gaps', async () => {
+    const rows = await page.$$eval('#network-coverage tbody tr', (trs) =>
+      trs.map((tr) => Array.from(tr.children).map((td) => td.textContent ?? '')),
+    );
+    expect(rows).toHaveLength(STATIONS);
+    // The seeded network (test/helpers/workspace-network.ts): source gnss-run every 5 min over the two days
+    // 2026-07-10/11 without a hole (2 × 288 = 576 records, no gap); the last station holds no delays.
+    for (const [k, row] of rows.slice(0, STATIONS - 1).entries()) {
+      expect(row).toEqual([`WS${String(k + 1).padStart(4, '0')}`, 'gnss-run', '2026-07-10T00:00Z', '2026-07-11T23:55Z', '576', '0', '–']);
+    }
+    expect(rows[STATIONS - 1]!.slice(0, 3)).toEqual([`WS00${STATIONS}`, '–', 'no records']);
+    await expect(page.locator('#network-coverage-status').textContent()).resolves.toBe(
+      `${STATIONS - 1} of ${STATIONS} stations hold delays; ${(STATIONS - 1) * 576} records; 0 gaps longer than 1 h.`,
+    );
+  });
+
   it('has no serious or critical accessibility violation (axe-core)', async () => {
     const require = createRequire(import.meta.url);
     // Evaluated through the debugging protocol: the page's own CSP (script-src 'self') refuses injected script tags.

@@ -5,8 +5,8 @@ import { csvCell } from '../../formats/met-csv.js';
 import { intervalMeans, type IntervalMean } from '../../services/interval-means.js';
 import { networkStationPwv, type NetworkStationPwv, type SourceChoice } from '../../services/network-pwv.js';
 import { summariseModelSets } from '../../services/homogeneity.js';
-import { PWV_QUALITY_FLAGS, retrievalProvenance, type StationPwvRecord } from '../../services/station-pwv.js';
-import type { Station, StationRange, ZenithDelayRow } from '../../storage/repository.js';
+import { PWV_QUALITY_FLAGS, recordWarningCell, retrievalProvenance, type StationPwvRecord } from '../../services/station-pwv.js';
+import type { Repository, Station, StationRange, ZenithDelayRow } from '../../storage/repository.js';
 import { intervalsNetcdf, recordsNetcdf } from '../network-netcdf.js';
 import { HttpProblem } from '../problem.js';
 import { problemSchema } from '../schemas/common.js';
@@ -30,6 +30,30 @@ export function insideBox(s: Station, box: BoundingBox): boolean {
   if (s.latitudeDeg < box.southDeg || s.latitudeDeg > box.northDeg) return false;
   const lon = wrapLongitude(s.longitudeDeg);
   return box.westDeg <= box.eastDeg ? lon >= box.westDeg && lon <= box.eastDeg : lon >= box.westDeg || lon <= box.eastDeg;
+}
+
+/**
+ * The stations of a network read: all live ones, or those named (404 naming the unknown ids), then
+ * those inside the box. Order: by id, or as named.
+ */
+export async function selectStations(repository: Repository, ids?: readonly string[], box?: BoundingBox): Promise<Station[]> {
+  let stations = await repository.listStations();
+  if (ids !== undefined) {
+    const byId = new Map(stations.map((s) => [s.stationId, s]));
+    const unknown = ids.filter((id) => !byId.has(id));
+    if (unknown.length > 0) {
+      throw new HttpProblem(
+        404,
+        `no station ${unknown
+          .slice(0, 10)
+          .map((id) => `"${id}"`)
+          .join(', ')}${unknown.length > 10 ? ` and ${unknown.length - 10} more` : ''}; GET /v1/stations lists them`,
+        [{ field: 'query.stations', message: `unknown station id(s): ${unknown.slice(0, 10).join(', ')}` }],
+      );
+    }
+    stations = ids.map((id) => byId.get(id)!);
+  }
+  return box === undefined ? stations : stations.filter((s) => insideBox(s, box));
 }
 
 type Query = typeof networkPwvQuery._zod.output;
@@ -125,23 +149,7 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
       const mode = timeMode(q);
       const intervalMs = q.interval === undefined ? null : q.interval * 1000;
 
-      let stations = await app.repository.listStations();
-      if (q.stations !== undefined) {
-        const byId = new Map(stations.map((s) => [s.stationId, s]));
-        const unknown = q.stations.filter((id) => !byId.has(id));
-        if (unknown.length > 0) {
-          throw new HttpProblem(
-            404,
-            `no station ${unknown
-              .slice(0, 10)
-              .map((id) => `"${id}"`)
-              .join(', ')}${unknown.length > 10 ? ` and ${unknown.length - 10} more` : ''}; GET /v1/stations lists them`,
-            [{ field: 'query.stations', message: `unknown station id(s): ${unknown.slice(0, 10).join(', ')}` }],
-          );
-        }
-        stations = q.stations.map((id) => byId.get(id)!);
-      }
-      if (q.bbox !== undefined) stations = stations.filter((s) => insideBox(s, q.bbox!));
+      const stations = await selectStations(app.repository, q.stations, q.bbox);
 
       /** [start, end] of the interval that holds t (or [t, t] without interval). */
       const around = (t: number): [number, number] =>
@@ -300,7 +308,7 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
           if (intervalsByStation === null) {
             for (const rec of res.records) {
               lines.push(
-                `${place},${[isoEpoch(rec.epochMs), csvCell(rec.source), rec.modelFingerprint, fixed(rec.ztdM, D.m), fixed(rec.ztdSigmaM, D.m), fixed(rec.pressureHpa, D.hpa), fixed(rec.temperatureC, D.k), fixed(rec.pwvMm, D.mm), fixed(rec.pwvSigmaMm, D.mm), rec.quality].join(',')}`,
+                `${place},${[isoEpoch(rec.epochMs), csvCell(rec.source), rec.modelFingerprint, fixed(rec.ztdM, D.m), fixed(rec.ztdSigmaM, D.m), fixed(rec.pressureHpa, D.hpa), fixed(rec.temperatureC, D.k), fixed(rec.pwvMm, D.mm), fixed(rec.pwvSigmaMm, D.mm), rec.quality, recordWarningCell(rec)].join(',')}`,
               );
             }
           } else {
@@ -319,6 +327,7 @@ const networkPwvRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, 
                 fixed(m.ztdSdM, D.m),
                 csvCell(m.sources.join(' ')),
                 ...PWV_QUALITY_FLAGS.map((f) => m.qualityCounts[f]),
+                m.warningCodes.join(';'),
               ];
               lines.push(`${place},${cells.join(',')}`);
             }

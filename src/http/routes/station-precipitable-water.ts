@@ -5,7 +5,13 @@ import { CSV_TYPE, csvPieces, JSON_TYPE, jsonRecordPieces } from '../series-piec
 import { loopFriendlyPages, loopFriendlySlices, sendPieces } from '../streamed-answer.js';
 import { roundedDecimalText } from '../../formats/decimal-text.js';
 import { csvCell } from '../../formats/met-csv.js';
-import { retrievalProvenance, stationPwvRetrieval, type StationPwvRecord, type StationPwvRetrieval } from '../../services/station-pwv.js';
+import {
+  recordWarningCell,
+  retrievalProvenance,
+  stationPwvRetrieval,
+  type StationPwvRecord,
+  type StationPwvRetrieval,
+} from '../../services/station-pwv.js';
 import { OUTPUT_DECIMALS, roundTo as round } from '../../formats/output-precision.js';
 import { DEFAULT_MAX_MET_GAP_MS } from '../../domain/meteo/met-interpolation.js';
 import { HttpProblem } from '../problem.js';
@@ -96,6 +102,7 @@ const pwvCsvLine = (r: StationPwvRecord): string =>
     r.quality,
     r.pressureQuality,
     r.temperatureQuality,
+    recordWarningCell(r),
   ].join(',');
 
 /**

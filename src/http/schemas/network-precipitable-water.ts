@@ -33,7 +33,7 @@ const BBOX_MESSAGE =
 const INTERVAL_MESSAGE = `must be an ISO 8601 duration of hours, minutes or seconds (PT1H, PT30M, PT600S) or P1D, from ${INTERVAL_MIN_S} s to 1 day and dividing one day`;
 const SOURCE_MESSAGE = 'must be "all" or a source name (1-64 characters of letters, digits and . _ : @ / -)';
 
-const stationList = z
+export const stationList = z
   .string({ error: STATIONS_MESSAGE })
   .transform((s, ctx) => {
     const ids = s.split(',').map((x) => x.trim());
@@ -52,7 +52,7 @@ export interface BoundingBox {
   northDeg: number;
 }
 
-const bbox = z
+export const bbox = z
   .string({ error: BBOX_MESSAGE })
   .transform((s, ctx): BoundingBox => {
     const v = s.split(',').map((x) => (x.trim() === '' ? Number.NaN : Number(x)));
@@ -216,10 +216,16 @@ export const networkPwvResponse = z.object({
 /** The station's place on every CSV row (routes/station-common.ts stationPlaceFields). */
 export const STATION_PLACE_CSV_COLUMNS = ['latitude_deg', 'longitude_deg', 'height_m', 'geoid_undulation_m', 'altitude_m'] as const;
 
+/**
+ * CSV columns: the station, its place, the record (or interval) fields, and last `warnings`: the
+ * warning codes that concern the row joined by ";" (PWV_RECORD_WARNING_CODES; for an interval, the
+ * codes of any of its records), empty when none. Plain cells, so pd.read_csv(url) reads it as is.
+ */
 export const NETWORK_PWV_CSV_COLUMNS = [
   'station_id',
   ...STATION_PLACE_CSV_COLUMNS,
   ...Object.keys(networkPwvRecord.shape).slice(1),
+  'warnings',
 ] as const;
 export const NETWORK_INTERVAL_CSV_COLUMNS = [
   'station_id',
@@ -227,4 +233,5 @@ export const NETWORK_INTERVAL_CSV_COLUMNS = [
   ...Object.keys(networkIntervalMean.shape).filter((k) => k !== 'station_id' && k !== 'quality_counts' && k !== 'sources'),
   'sources',
   ...PWV_QUALITY_FLAGS.map((q) => `count_${q.replaceAll('-', '_')}`),
+  'warnings',
 ] as const;

@@ -60,7 +60,11 @@ export const stationPwvRecord = z.object({
   temperature_quality: z.enum(['measured', 'interpolated', 'missing']),
 });
 
-export const STATION_PWV_CSV_COLUMNS = Object.keys(stationPwvRecord.shape) as (keyof typeof stationPwvRecord.shape)[];
+/** The record fields, then `warnings`: the record's warning codes joined by ";" (PWV_RECORD_WARNING_CODES), CSV only. */
+export const STATION_PWV_CSV_COLUMNS = [
+  ...(Object.keys(stationPwvRecord.shape) as (keyof typeof stationPwvRecord.shape)[]),
+  'warnings',
+] as const;
 
 export const stationPwvResponse = z.object({
   ...seriesRangeResponseFields,

@@ -62,6 +62,15 @@ import {
   type StoredAuditEvent,
 } from '../access-rows.js';
 import { withConflictRetry } from '../errors.js';
+import {
+  coverageParams,
+  coverageSql,
+  foldCoverage,
+  type CoverageQuery,
+  type GapRow,
+  type SeriesCoverage,
+  type SpanRow,
+} from '../coverage-query.js';
 import { positionalValues, seriesPages } from '../paged-read.js';
 import {
   DELAY_SELECT,
@@ -565,6 +574,14 @@ export class PostgresRepository implements Repository {
 
   async readSurfaceMetMany(ranges: readonly StationRange[]): Promise<Map<string, SurfaceMetRow[]>> {
     return groupByStation(await this.readRanges('met_records', SURFACE_MET_SELECT, ranges), surfaceMetFromArray);
+  }
+
+  async readDelayCoverage(query: CoverageQuery): Promise<Map<string, SeriesCoverage[]>> {
+    const sql = coverageSql((n) => `$${n}`, 'station_id = ANY($1::text[])');
+    const values = coverageParams(query, query.stationIds);
+    const spans = await this.pool.query<SpanRow>({ text: sql.spans, values: values.slice(0, 3), rowMode: 'array' });
+    const gaps = await this.pool.query<GapRow>({ text: sql.gaps, values, rowMode: 'array' });
+    return foldCoverage(spans.rows, gaps.rows);
   }
 
   async countDelaySources(ranges: readonly StationRange[]): Promise<Map<string, Map<string, number>>> {

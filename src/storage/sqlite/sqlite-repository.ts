@@ -66,6 +66,15 @@ import {
   type StoredAuditEvent,
 } from '../access-rows.js';
 import { withConflictRetry } from '../errors.js';
+import {
+  coverageParams,
+  coverageSql,
+  foldCoverage,
+  type CoverageQuery,
+  type GapRow,
+  type SeriesCoverage,
+  type SpanRow,
+} from '../coverage-query.js';
 import { seriesPages } from '../paged-read.js';
 import {
   DELAY_SELECT,
@@ -494,6 +503,18 @@ export class SqliteRepository implements Repository {
   }
 
   private countSourcesStatement: Database.Statement | undefined;
+
+  async readDelayCoverage(query: CoverageQuery): Promise<Map<string, SeriesCoverage[]>> {
+    const sql = coverageSql((n) => `?${n}`, 'station_id IN (SELECT value FROM json_each(?1))');
+    const params = Object.fromEntries(coverageParams(query, JSON.stringify(query.stationIds)).map((v, i) => [i + 1, v]));
+    // One read transaction: both statements see the same rows.
+    return this.db.transaction(() =>
+      foldCoverage(
+        this.db.prepare(sql.spans).raw(true).all(params) as SpanRow[],
+        this.db.prepare(sql.gaps).raw(true).all(params) as GapRow[],
+      ),
+    )();
+  }
 
   async latestEpochsMs(stationIds: readonly string[], series: 'met' | 'delays'): Promise<Map<string, number>> {
     const statement = series === 'met' ? this.stmt.latestMet : this.stmt.latestDelays;
