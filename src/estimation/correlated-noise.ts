@@ -45,28 +45,22 @@ const LAG_STEP = 4;
  * interval samplingMs; empty when lag 1 is already not significant or there are too few pairs.
  * One pass over the pairs of each satellite up to MAX_LAG_S apart (cost n × evaluated lags).
  *
- * @param satellite satellite of each design observation
  */
-export function residualAutocorrelation(
-  design: Design,
-  solution: Solution,
-  used: Uint8Array,
-  satellite: readonly string[],
-  samplingMs: number,
-): number[] {
+export function residualAutocorrelation(design: Design, solution: Solution, used: Uint8Array, samplingMs: number): number[] {
   // Per satellite, its used observations in epoch order (the design is sorted by epoch), packed
   // satellite after satellite into t (epoch) and z (normalised residual).
   const n = used.length;
   const satId = new Int32Array(n);
-  const ids = new Map<string, number>();
+  // Arcs numbered in order of first appearance among the used observations.
+  const ids = new Int32Array(design.satelliteCount).fill(-1);
   const counts: number[] = [];
   let total = 0;
   for (let s = 0; s < n; s++) {
     if (!used[s]) continue;
-    let id = ids.get(satellite[s]!);
-    if (id === undefined) {
+    let id = ids[design.satelliteIndex[s]!]!;
+    if (id < 0) {
       id = counts.length;
-      ids.set(satellite[s]!, id);
+      ids[design.satelliteIndex[s]!] = id;
       counts.push(0);
     }
     satId[s] = id;
@@ -170,9 +164,10 @@ export function kernelFactor(information: number, stepVariance: number | null): 
 
 /**
  * Per-epoch information of ZWD, north and east gradient: 1/(M⁻¹)_pp of the epoch's 3×3 (or
- * M_WW without gradients) [1/m²]; 0 when the epoch has no data or M is singular.
+ * M_WW without gradients) [1/m²]; 0 when the epoch has no data or M is singular. Written into `out`
+ * (called for every epoch: no array per call).
  */
-export function epochInformation(solution: Solution, k: number, withGradients: boolean): [number, number, number] {
+export function epochInformation(solution: Solution, k: number, withGradients: boolean, out: Float64Array): Float64Array {
   const o = k * EPOCH_NORMAL_ENTRIES;
   const e = solution.epochNormal;
   const ww = e[o]!,
@@ -181,12 +176,13 @@ export function epochInformation(solution: Solution, k: number, withGradients: b
     nn = e[o + 3]!,
     ne = e[o + 4]!,
     ee = e[o + 5]!;
-  if (!withGradients) return [ww, 0, 0];
+  const set = (w: number, n: number, e: number) => ((out[0] = w), (out[1] = n), (out[2] = e), out);
+  if (!withGradients) return set(ww, 0, 0);
   // Cofactors of the symmetric 3×3.
   const cWW = nn * ee - ne * ne;
   const cNN = ww * ee - we * we;
   const cEE = ww * nn - wn * wn;
   const det = ww * cWW - wn * (wn * ee - ne * we) + we * (wn * ne - nn * we);
-  if (!(det > 0)) return [0, 0, 0];
-  return [det / cWW, det / cNN, det / cEE];
+  if (!(det > 0)) return set(0, 0, 0);
+  return set(det / cWW, det / cNN, det / cEE);
 }

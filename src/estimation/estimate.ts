@@ -267,25 +267,29 @@ function rejectionWindowMs(input: ZwdEstimationInput, design: Design, layout: Pa
   if (design.zwd.regular) return nodeRejectionWindowMs(options.zwd.intervalS);
   const epochs = design.epochMs.length;
   if (epochs < 2) return 0;
-  const samplingMs = medianSpacingMs(design.epochMs);
+  const samplingMs = design.samplingMs;
   const hours = samplingMs / 3_600_000;
   const withGradients = layout.gradientCount > 0;
   const zwdQ = options.zwd.randomWalkMPerSqrtH === null ? null : options.zwd.randomWalkMPerSqrtH ** 2 * hours;
   const gradientQ = options.gradients?.randomWalkMPerSqrtH == null ? null : options.gradients.randomWalkMPerSqrtH ** 2 * hours;
-  const lw: number[] = [];
-  const ln: number[] = [];
-  const le: number[] = [];
+  const gradientStates = withGradients && !design.gradients!.regular;
+  const lw = new Float64Array(epochs);
+  const ln = new Float64Array(gradientStates ? epochs : 0);
+  const le = new Float64Array(gradientStates ? epochs : 0);
+  const information = new Float64Array(3);
+  let count = 0;
   for (let k = 0; k < epochs; k++) {
-    const [iW, iN, iE] = epochInformation(solution, k, withGradients);
-    if (!(iW > 0)) continue;
-    if (!design.zwd.regular) lw.push(kernelFactor(iW, zwdQ));
-    if (withGradients && !design.gradients!.regular) {
-      ln.push(kernelFactor(iN, gradientQ));
-      le.push(kernelFactor(iE, gradientQ));
+    epochInformation(solution, k, withGradients, information);
+    if (!(information[0]! > 0)) continue;
+    lw[count] = kernelFactor(information[0]!, zwdQ);
+    if (gradientStates) {
+      ln[count] = kernelFactor(information[1]!, gradientQ);
+      le[count] = kernelFactor(information[2]!, gradientQ);
     }
+    count++;
   }
-  const median = (xs: number[]) => (xs.sort((a, b) => a - b), xs[Math.floor(xs.length / 2)]!);
-  const lambdas = [lw, ln, le].filter((xs) => xs.length > 0).map(median);
+  const median = (xs: Float64Array) => xs.subarray(0, count).sort()[Math.floor(count / 2)]!;
+  const lambdas = [lw, ln, le].filter((xs) => xs.length > 0 && count > 0).map(median);
   return epochStateRejectionWindowMs(lambdas, samplingMs);
 }
 
@@ -314,9 +318,8 @@ function noiseInflation(
   const ones = () => new Float64Array(epochs).fill(1);
   const none: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
   if (input.options.correlatedNoise === false || epochs < 3) return none;
-  const samplingMs = medianSpacingMs(design.epochMs);
-  const satellite = Array.from(design.inputIndex, (i) => input.observations.satellite[i]!);
-  const rho = residualAutocorrelation(design, solution, used, satellite, samplingMs);
+  const samplingMs = design.samplingMs;
+  const rho = residualAutocorrelation(design, solution, used, samplingMs);
   const hours = samplingMs / 3_600_000;
   const stepVariance = (q: number | null) => (q === null ? null : q * q * hours);
   const qW = stepVariance(input.options.zwd.randomWalkMPerSqrtH);
@@ -326,8 +329,12 @@ function noiseInflation(
   let sumW = 0,
     sumG = 0,
     count = 0;
+  const information = new Float64Array(3);
   for (let k = 0; k < epochs; k++) {
-    const [iW, iN, iE] = epochInformation(solution, k, withGradients);
+    epochInformation(solution, k, withGradients, information);
+    const iW = information[0]!;
+    const iN = information[1]!;
+    const iE = information[2]!;
     out.zwd[k] = varianceInflation(iW, qW, rho);
     if (withGradients) {
       out.north[k] = varianceInflation(iN, qG, rho);
@@ -346,13 +353,6 @@ function noiseInflation(
     gradientVarianceInflation: withGradients && count ? sumG / count : 1,
   };
   return out;
-}
-
-function medianSpacingMs(epochMs: Float64Array): number {
-  const d: number[] = [];
-  for (let k = 1; k < epochMs.length; k++) d.push(epochMs[k]! - epochMs[k - 1]!);
-  d.sort((a, b) => a - b);
-  return d[Math.floor(d.length / 2)]!;
 }
 
 /** Post-fit residuals and rejections per elevation band. */
