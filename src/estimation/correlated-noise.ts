@@ -43,7 +43,7 @@ const LAG_STEP = 4;
 /**
  * ρ(1), ρ(2), … of the normalised residuals per satellite arc (see header), at the sampling
  * interval samplingMs; empty when lag 1 is already not significant or there are too few pairs.
- * One pass over the pairs of each satellite up to MAX_LAG_S apart (cost n × evaluated lags).
+ * Lag by lag over the pairs of each satellite, up to the first lag that is not significant (cost n × lags evaluated).
  *
  */
 export function residualAutocorrelation(design: Design, solution: Solution, used: Uint8Array, samplingMs: number): number[] {
@@ -91,33 +91,29 @@ export function residualAutocorrelation(design: Design, solution: Solution, used
   // lags between are interpolated linearly).
   const lags: number[] = [];
   for (let m = 1; m <= maxLag; m += m < DENSE_LAGS ? 1 : LAG_STEP) lags.push(m);
-  const sums = new Float64Array(lags.length);
-  const pairs = new Float64Array(lags.length);
-  for (let id = 0; id < counts.length; id++) {
-    const end = start[id + 1]!;
-    for (let i = start[id]!; i < end; i++) {
-      const ti = t[i]!;
-      const zi = z[i]!;
-      // In an arc without gaps the partner m intervals on is m places on; where the arc has a gap
-      // the pair is skipped (pairs are lost independently of their values: no bias).
-      for (let l = 0; l < lags.length; l++) {
-        const m = lags[l]!;
-        const j = i + m;
-        if (j >= end) break;
-        if (Math.abs(t[j]! - ti - m * samplingMs) > 0.5) continue;
-        sums[l]! += zi * z[j]!;
-        pairs[l]!++;
-      }
-    }
-  }
+  // Lag by lag, each over every arc, until the first lag that is not significant (the lags after it
+  // are never needed).
   const rho: number[] = [];
   for (let l = 0; l < lags.length; l++) {
-    if (pairs[l]! < 10) break;
-    const r = sums[l]! / pairs[l]! / c0;
-    if (r < 2 / Math.sqrt(pairs[l]!)) break;
+    const m = lags[l]!;
+    const spanMs = m * samplingMs;
+    let sum = 0;
+    let pairs = 0;
+    for (let id = 0; id < counts.length; id++) {
+      const end = start[id + 1]! - m;
+      // In an arc without gaps the partner m intervals on is m places on; where the arc has a gap
+      // the pair is skipped (pairs are lost independently of their values: no bias).
+      for (let i = start[id]!; i < end; i++) {
+        if (Math.abs(t[i + m]! - t[i]! - spanMs) > 0.5) continue;
+        sum += z[i]! * z[i + m]!;
+        pairs++;
+      }
+    }
+    if (pairs < 10) break;
+    const r = sum / pairs / c0;
+    if (r < 2 / Math.sqrt(pairs)) break;
     // Lags skipped since the previous evaluated one: linear between the two.
     const previous = rho.length;
-    const m = lags[l]!;
     const before = previous > 0 ? rho[previous - 1]! : 1;
     for (let k = previous + 1; k < m; k++) rho.push(before + ((r - before) * (k - previous)) / (m - previous));
     rho.push(r);
@@ -176,13 +172,20 @@ export function epochInformation(solution: Solution, k: number, withGradients: b
     nn = e[o + 3]!,
     ne = e[o + 4]!,
     ee = e[o + 5]!;
-  const set = (w: number, n: number, e: number) => ((out[0] = w), (out[1] = n), (out[2] = e), out);
-  if (!withGradients) return set(ww, 0, 0);
+  out[1] = out[2] = 0;
+  if (!withGradients) {
+    out[0] = ww;
+    return out;
+  }
   // Cofactors of the symmetric 3×3.
   const cWW = nn * ee - ne * ne;
   const cNN = ww * ee - we * we;
   const cEE = ww * nn - wn * wn;
   const det = ww * cWW - wn * (wn * ee - ne * we) + we * (wn * ne - nn * we);
-  if (!(det > 0)) return set(0, 0, 0);
-  return set(det / cWW, det / cNN, det / cEE);
+  out[0] = 0;
+  if (!(det > 0)) return out;
+  out[0] = det / cWW;
+  out[1] = det / cNN;
+  out[2] = det / cEE;
+  return out;
 }
