@@ -19,6 +19,7 @@ import { ModelDomainError } from '../domain/errors.js';
 import { chenHerringGradientMapping } from '../domain/gradients/gradient-mapping.js';
 import { DEFAULT_MAPPING_MODEL, MAPPING_MODELS } from '../domain/mapping/registry.js';
 import { fractionalDayOfYear } from '../domain/time.js';
+import { selectInPlace } from './order-statistics.js';
 import type { ZwdEstimationInput } from './types.js';
 
 /** Largest number of nodes of one parameter; more is a request error (interval too short for the span). */
@@ -153,7 +154,8 @@ export function buildDesign(input: ZwdEstimationInput): Design {
 
   // All observations in epoch order (stable sort: ties keep the input order); duplicates are
   // checked on all of them, then those below the cutoff are dropped (and counted).
-  const all = Array.from({ length: n }, (_, i) => i);
+  const all = new Array<number>(n);
+  for (let i = 0; i < n; i++) all[i] = i;
   let sorted = true;
   for (let i = 1; i < n && sorted; i++) sorted = obs.epochMs[i - 1]! <= obs.epochMs[i]!;
   if (!sorted) all.sort((a, b) => obs.epochMs[a]! - obs.epochMs[b]!);
@@ -366,8 +368,7 @@ function medianSpacingMs(epochMs: Float64Array): number {
   if (epochMs.length < 2) return Number.NaN;
   const d = new Float64Array(epochMs.length - 1);
   for (let k = 1; k < epochMs.length; k++) d[k - 1] = epochMs[k]! - epochMs[k - 1]!;
-  d.sort();
-  return d[Math.floor(d.length / 2)]!;
+  return selectInPlace(d, d.length, Math.floor(d.length / 2));
 }
 
 /** Each observation's satellite as an index in order of first appearance, and the number of satellites. */

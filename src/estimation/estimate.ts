@@ -19,6 +19,7 @@ import { buildDesign, initialWeighting, locate, nodeEpochMs, setWeights, type De
 import { SingularParameterError } from './frontal-ldl.js';
 import { epochStateRejectionWindowMs, nodeRejectionWindowMs, rejectionCandidates } from './outliers.js';
 import { MIN_TESTABLE_REDUNDANCY, parameterLayout, solveOnce, type ParameterLayout, type Solution } from './least-squares.js';
+import { selectInPlace } from './order-statistics.js';
 import { screenedSolution } from './screening.js';
 import type {
   ElevationBandStatistics,
@@ -288,7 +289,7 @@ function rejectionWindowMs(input: ZwdEstimationInput, design: Design, layout: Pa
     }
     count++;
   }
-  const median = (xs: Float64Array) => xs.subarray(0, count).sort()[Math.floor(count / 2)]!;
+  const median = (xs: Float64Array) => selectInPlace(xs, count, Math.floor(count / 2));
   const lambdas = [lw, ln, le].filter((xs) => xs.length > 0 && count > 0).map(median);
   return epochStateRejectionWindowMs(lambdas, samplingMs);
 }
