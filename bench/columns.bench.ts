@@ -138,14 +138,16 @@ function realisticDayBodies(day: (typeof DAYS)[keyof typeof DAYS]) {
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 
-/** CPU seconds of `run` in this process (user + system), once per round after one warm-up run. */
-function inProcessCpu(run: () => unknown, rounds: number): number[] {
-  const per: number[] = [];
+/** CPU seconds of each function in this process (user + system), interleaved round by round after one warm-up round. */
+function inProcessCpu(runs: Array<() => unknown>, rounds: number): number[][] {
+  const per = runs.map(() => [] as number[]);
   for (let r = 0; r <= rounds; r++) {
-    const before = process.cpuUsage();
-    run();
-    const used = process.cpuUsage(before);
-    if (r > 0) per.push((used.user + used.system) / 1e6);
+    runs.forEach((run, i) => {
+      const before = process.cpuUsage();
+      run();
+      const used = process.cpuUsage(before);
+      if (r > 0) per[i]!.push((used.user + used.system) / 1e6);
+    });
   }
   return per;
 }
@@ -172,14 +174,16 @@ async function estimationDayLines(server: ServerProcess, name: string, day: (typ
   const parsed = zwdEstimatesRequest.parse({ ...bodies.request, observations: bodies.objects });
   const domainSite = { latitudeDeg: parsed.site.latitude_deg, longitudeDeg: parsed.site.longitude_deg, heightM: parsed.site.height_m };
   const request = toZwdRequest(domainSite, parsed, observationsFromColumns(bodies.columns));
-  const service = inProcessCpu(() => runZwdEstimation(request), 7);
   const estimatorInput = {
     latitudeRad: domainSite.latitudeDeg * DEG,
     heightM: domainSite.heightM,
     observations: request.observations,
     options: toEstimatorOptions(request.options),
   };
-  const estimator = inProcessCpu(() => estimateZwd(estimatorInput), 7);
+  const [service, estimator] = inProcessCpu([() => runZwdEstimation(request), () => estimateZwd(estimatorInput)], 15) as [
+    number[],
+    number[],
+  ];
   const solutions = estimateZwd(estimatorInput).statistics.solutions;
   // Requests of 2–8 MB take several ticks of /proc's 10 ms clock: rounds enough for a stable median.
   await serverCpu(columnsBody, 3); // warm-up
