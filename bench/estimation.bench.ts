@@ -1,6 +1,7 @@
 /**
- * ZWD estimation benchmark (issues 3 and 10): in-process time for one realistic day of
- * four-constellation data (≈ 92 000 observations), the four-day to one-day ratio (linear scaling),
+ * ZWD estimation benchmark (issues 3, 10 and 14): in-process time for one realistic day of
+ * four-constellation data (≈ 92 000 observations), CPU time of it and of a GPS-like day (≈ 26 000
+ * observations, issue 14), the four-day to one-day ratio (linear scaling),
  * peak memory for seven days (in a child process), and the speed-up against the dense
  * least-squares solver at one day.
  *
@@ -27,6 +28,23 @@ const LATITUDE_DEG = 46.2;
 function realisticDays(days: number): ZwdEstimationInput {
   const sky = simulateSky({ seed: 11, durationS: days * 86_400, grossErrors: 100 * days });
   return skyInput(sky);
+}
+
+/** A GPS-like day (issue 14's "30-satellite data"): one constellation of 30 satellites, 7–11 in view, 25 gross errors. */
+function gpsLikeDay(): ZwdEstimationInput {
+  return skyInput(simulateSky({ seed: 11, durationS: 86_400, grossErrors: 25, constellations: ['gps'] }));
+}
+
+/** CPU milliseconds (user + system of this process) of each of `rounds` runs, after one warm-up run. */
+function cpuTimes(input: ZwdEstimationInput, rounds: number): number[] {
+  const out: number[] = [];
+  for (let r = 0; r <= rounds; r++) {
+    const before = process.cpuUsage();
+    estimateZwd(input);
+    const used = process.cpuUsage(before);
+    if (r > 0) out.push((used.user + used.system) / 1000);
+  }
+  return out;
 }
 
 interface Timing {
@@ -68,6 +86,12 @@ export default async function (): Promise<string[]> {
   );
   lines.push(
     `four days: ${fourDays.observations.epochMs.length} observations: median ${t4.median.toFixed(0)} ms, range ${t4.min.toFixed(0)}–${t4.max.toFixed(0)} ms (${t4.solutions} solutions); four days / one day = ${(t4.median / t1.median).toFixed(2)} (medians), ${(t4.min / t1.min).toFixed(2)} (minima) [target < 5]`,
+  );
+  const gps = gpsLikeDay();
+  const gpsCpu = summarise(cpuTimes(gps, 15), estimateZwd(gps).statistics.solutions);
+  const fourCpu = summarise(cpuTimes(oneDay, 9), t1.solutions);
+  lines.push(
+    `CPU time (process.cpuUsage), default options: GPS-like day (30 satellites, 7–11 in view) ${gps.observations.epochMs.length} observations: median ${gpsCpu.median.toFixed(1)} ms, range ${gpsCpu.min.toFixed(1)}–${gpsCpu.max.toFixed(1)} ms over 15 runs (${gpsCpu.solutions} solutions); the four-constellation day: median ${fourCpu.median.toFixed(1)} ms, range ${fourCpu.min.toFixed(1)}–${fourCpu.max.toFixed(1)} ms over 9 runs`,
   );
   const plain = (input: ZwdEstimationInput) => ({
     ...input,

@@ -44,30 +44,29 @@ const LAG_STEP = 4;
 /**
  * ρ(1), ρ(2), … of the normalised residuals per satellite arc (see header), at the sampling
  * interval samplingMs; empty when lag 1 is already not significant or there are too few pairs.
- * One pass over the pairs of each satellite up to MAX_LAG_S apart (cost n × evaluated lags).
+ * Lag by lag over the pairs of each satellite, up to the first lag that is not significant (cost n × lags evaluated).
  *
- * @param satellite satellite of each design observation
  */
 export function residualAutocorrelation(
-  design: Pick<Design, 'epochStart' | 'epochMs' | 'sigmaM'>,
+  design: Pick<Design, 'epochStart' | 'epochMs' | 'sigmaM' | 'satelliteIndex' | 'satelliteCount'>,
   solution: Pick<Solution, 'fittedResidualM'>,
   used: Uint8Array,
-  satellite: readonly string[],
   samplingMs: number,
 ): number[] {
   // Per satellite, its used observations in epoch order (the design is sorted by epoch), packed
   // satellite after satellite into t (epoch) and z (normalised residual).
   const n = used.length;
   const satId = new Int32Array(n);
-  const ids = new Map<string, number>();
+  // Arcs numbered in order of first appearance among the used observations.
+  const ids = new Int32Array(design.satelliteCount).fill(-1);
   const counts: number[] = [];
   let total = 0;
   for (let s = 0; s < n; s++) {
     if (!used[s]) continue;
-    let id = ids.get(satellite[s]!);
-    if (id === undefined) {
+    let id = ids[design.satelliteIndex[s]!]!;
+    if (id < 0) {
       id = counts.length;
-      ids.set(satellite[s]!, id);
+      ids[design.satelliteIndex[s]!] = id;
       counts.push(0);
     }
     satId[s] = id;
@@ -98,33 +97,29 @@ export function residualAutocorrelation(
   // lags between are interpolated linearly).
   const lags: number[] = [];
   for (let m = 1; m <= maxLag; m += m < DENSE_LAGS ? 1 : LAG_STEP) lags.push(m);
-  const sums = new Float64Array(lags.length);
-  const pairs = new Float64Array(lags.length);
-  for (let id = 0; id < counts.length; id++) {
-    const end = start[id + 1]!;
-    for (let i = start[id]!; i < end; i++) {
-      const ti = t[i]!;
-      const zi = z[i]!;
-      // In an arc without gaps the partner m intervals on is m places on; where the arc has a gap
-      // the pair is skipped (pairs are lost independently of their values: no bias).
-      for (let l = 0; l < lags.length; l++) {
-        const m = lags[l]!;
-        const j = i + m;
-        if (j >= end) break;
-        if (Math.abs(t[j]! - ti - m * samplingMs) > 0.5) continue;
-        sums[l]! += zi * z[j]!;
-        pairs[l]!++;
-      }
-    }
-  }
+  // Lag by lag, each over every arc, until the first lag that is not significant (the lags after it
+  // are never needed).
   const rho: number[] = [];
   for (let l = 0; l < lags.length; l++) {
-    if (pairs[l]! < 10) break;
-    const r = sums[l]! / pairs[l]! / c0;
-    if (r < 2 / Math.sqrt(pairs[l]!)) break;
+    const m = lags[l]!;
+    const spanMs = m * samplingMs;
+    let sum = 0;
+    let pairs = 0;
+    for (let id = 0; id < counts.length; id++) {
+      const end = start[id + 1]! - m;
+      // In an arc without gaps the partner m intervals on is m places on; where the arc has a gap
+      // the pair is skipped (pairs are lost independently of their values: no bias).
+      for (let i = start[id]!; i < end; i++) {
+        if (Math.abs(t[i + m]! - t[i]! - spanMs) > 0.5) continue;
+        sum += z[i]! * z[i + m]!;
+        pairs++;
+      }
+    }
+    if (pairs < 10) break;
+    const r = sum / pairs / c0;
+    if (r < 2 / Math.sqrt(pairs)) break;
     // Lags skipped since the previous evaluated one: linear between the two.
     const previous = rho.length;
-    const m = lags[l]!;
     const before = previous > 0 ? rho[previous - 1]! : 1;
     for (let k = previous + 1; k < m; k++) rho.push(before + ((r - before) * (k - previous)) / (m - previous));
     rho.push(r);
@@ -171,9 +166,15 @@ export function kernelFactor(information: number, stepVariance: number | null): 
 
 /**
  * Per-epoch information of ZWD, north and east gradient: 1/(M⁻¹)_pp of the epoch's 3×3 (or
- * M_WW without gradients) [1/m²]; 0 when the epoch has no data or M is singular.
+ * M_WW without gradients) [1/m²]; 0 when the epoch has no data or M is singular. Written into `out`
+ * (called for every epoch: no array per call).
  */
-export function epochInformation(solution: Pick<Solution, 'epochNormal'>, k: number, withGradients: boolean): [number, number, number] {
+export function epochInformation(
+  solution: Pick<Solution, 'epochNormal'>,
+  k: number,
+  withGradients: boolean,
+  out: Float64Array,
+): Float64Array {
   const o = k * EPOCH_NORMAL_ENTRIES;
   const e = solution.epochNormal;
   const ww = e[o]!,
@@ -182,14 +183,22 @@ export function epochInformation(solution: Pick<Solution, 'epochNormal'>, k: num
     nn = e[o + 3]!,
     ne = e[o + 4]!,
     ee = e[o + 5]!;
-  if (!withGradients) return [ww, 0, 0];
+  out[1] = out[2] = 0;
+  if (!withGradients) {
+    out[0] = ww;
+    return out;
+  }
   // Cofactors of the symmetric 3×3.
   const cWW = nn * ee - ne * ne;
   const cNN = ww * ee - we * we;
   const cEE = ww * nn - wn * wn;
   const det = ww * cWW - wn * (wn * ee - ne * we) + we * (wn * ne - nn * we);
-  if (!(det > 0)) return [0, 0, 0];
-  return [det / cWW, det / cNN, det / cEE];
+  out[0] = 0;
+  if (!(det > 0)) return out;
+  out[0] = det / cWW;
+  out[1] = det / cNN;
+  out[2] = det / cEE;
+  return out;
 }
 
 export interface NoiseInflation {
@@ -206,22 +215,20 @@ export interface NoiseInflation {
  * information taken from the network's reduced normal matrix).
  *
  * @param solution post-fit residuals per design observation and the per-epoch normal entries
- * @param satellite satellite of each design observation (asked for only when needed)
  */
 export function noiseInflation(
   options: Pick<ZwdEstimationOptions, 'correlatedNoise' | 'zwd' | 'gradients'>,
-  design: Pick<Design, 'epochStart' | 'epochMs' | 'sigmaM'>,
+  design: Pick<Design, 'epochStart' | 'epochMs' | 'sigmaM' | 'satelliteIndex' | 'satelliteCount' | 'samplingMs'>,
   solution: Pick<Solution, 'fittedResidualM' | 'epochNormal'>,
   used: Uint8Array,
   withGradients: boolean,
-  satellite: () => readonly string[],
 ): NoiseInflation {
   const epochs = design.epochMs.length;
   const ones = () => new Float64Array(epochs).fill(1);
   const none: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
   if (options.correlatedNoise === false || epochs < 3) return none;
-  const samplingMs = medianSpacingMs(design.epochMs);
-  const rho = residualAutocorrelation(design, solution, used, satellite(), samplingMs);
+  const samplingMs = design.samplingMs;
+  const rho = residualAutocorrelation(design, solution, used, samplingMs);
   const hours = samplingMs / 3_600_000;
   const stepVariance = (q: number | null) => (q === null ? null : q * q * hours);
   const qW = stepVariance(options.zwd.randomWalkMPerSqrtH);
@@ -230,12 +237,14 @@ export function noiseInflation(
   let sumW = 0,
     sumG = 0,
     count = 0;
+  const information = new Float64Array(3);
   for (let k = 0; k < epochs; k++) {
-    const [iW, iN, iE] = epochInformation(solution, k, withGradients);
+    epochInformation(solution, k, withGradients, information);
+    const iW = information[0]!;
     out.zwd[k] = varianceInflation(iW, qW, rho);
     if (withGradients) {
-      out.north[k] = varianceInflation(iN, qG, rho);
-      out.east[k] = varianceInflation(iE, qG, rho);
+      out.north[k] = varianceInflation(information[1]!, qG, rho);
+      out.east[k] = varianceInflation(information[2]!, qG, rho);
     }
     if (iW > 0) {
       sumW += out.zwd[k]!;
@@ -250,12 +259,4 @@ export function noiseInflation(
     gradientVarianceInflation: withGradients && count ? sumG / count : 1,
   };
   return out;
-}
-
-/** Median spacing of consecutive epochs [ms]. */
-export function medianSpacingMs(epochMs: Float64Array): number {
-  const d: number[] = [];
-  for (let k = 1; k < epochMs.length; k++) d.push(epochMs[k]! - epochMs[k - 1]!);
-  d.sort((a, b) => a - b);
-  return d[Math.floor(d.length / 2)]!;
 }

@@ -19,6 +19,7 @@ import { ModelDomainError } from '../domain/errors.js';
 import { chenHerringGradientMapping } from '../domain/gradients/gradient-mapping.js';
 import { DEFAULT_MAPPING_MODEL, MAPPING_MODELS } from '../domain/mapping/registry.js';
 import { fractionalDayOfYear } from '../domain/time.js';
+import { selectInPlace } from './order-statistics.js';
 import type { ZwdEstimationInput } from './types.js';
 
 /** Largest number of nodes of one parameter; more is a request error (interval too short for the span). */
@@ -121,6 +122,11 @@ export interface Design {
   northMapping: Float64Array;
   eastMapping: Float64Array;
   elevationRad: Float64Array;
+  /** Satellite of each observation as an index 0..satelliteCount−1 (in order of first appearance in the input). */
+  satelliteIndex: Int32Array;
+  satelliteCount: number;
+  /** Median spacing of consecutive epochs [ms] (NaN with fewer than two epochs). */
+  samplingMs: number;
   /** The states of the solution (every epoch, or the regular nodes). */
   zwd: NodeLayout;
   gradients: NodeLayout | null;
@@ -148,11 +154,13 @@ export function buildDesign(input: ZwdEstimationInput): Design {
 
   // All observations in epoch order (stable sort: ties keep the input order); duplicates are
   // checked on all of them, then those below the cutoff are dropped (and counted).
-  const all = Array.from({ length: n }, (_, i) => i);
+  const all = new Array<number>(n);
+  for (let i = 0; i < n; i++) all[i] = i;
   let sorted = true;
   for (let i = 1; i < n && sorted; i++) sorted = obs.epochMs[i - 1]! <= obs.epochMs[i]!;
   if (!sorted) all.sort((a, b) => obs.epochMs[a]! - obs.epochMs[b]!);
-  checkDuplicates(input, all);
+  const satellites = satelliteIndices(obs.satellite);
+  checkDuplicates(input, all, satellites);
   const kept: number[] = [];
   let belowCutoff = 0;
   for (const i of all) {
@@ -190,6 +198,7 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   const northMapping = new Float64Array(m);
   const eastMapping = new Float64Array(m);
   const elevationRad = new Float64Array(m);
+  const satelliteIndex = new Int32Array(m);
   for (let k = 0; k < epochTimes.length; k++) {
     const wet = wetAt(k);
     for (let s = epochStarts[k]!; s < epochStarts[k + 1]!; s++) wetMapping[s] = wet(obs.elevationRad[inputIndex[s]!]!);
@@ -204,6 +213,7 @@ export function buildDesign(input: ZwdEstimationInput): Design {
     northMapping[s] = mg * Math.cos(obs.azimuthRad[i]!);
     eastMapping[s] = mg * Math.sin(obs.azimuthRad[i]!);
     elevationRad[s] = e;
+    satelliteIndex[s] = satellites.index[i]!;
   }
 
   const { a, b } = initialWeighting(options);
@@ -258,6 +268,9 @@ export function buildDesign(input: ZwdEstimationInput): Design {
     northMapping,
     eastMapping,
     elevationRad,
+    satelliteIndex,
+    satelliteCount: satellites.count,
+    samplingMs: medianSpacingMs(epochMsAll),
     zwd,
     gradients,
     zwdOutput,
@@ -350,26 +363,57 @@ function wetMappingPerEpoch(input: ZwdEstimationInput, epochMs: Float64Array): (
   };
 }
 
+/** Median spacing of consecutive epochs [ms]; NaN with fewer than two. */
+function medianSpacingMs(epochMs: Float64Array): number {
+  if (epochMs.length < 2) return Number.NaN;
+  const d = new Float64Array(epochMs.length - 1);
+  for (let k = 1; k < epochMs.length; k++) d[k - 1] = epochMs[k]! - epochMs[k - 1]!;
+  return selectInPlace(d, d.length, Math.floor(d.length / 2));
+}
+
+/** Each observation's satellite as an index in order of first appearance, and the number of satellites. */
+function satelliteIndices(satellite: readonly string[]): { index: Int32Array; count: number } {
+  const index = new Int32Array(satellite.length);
+  const ids = new Map<string, number>();
+  for (let i = 0; i < satellite.length; i++) {
+    let id = ids.get(satellite[i]!);
+    if (id === undefined) {
+      id = ids.size;
+      ids.set(satellite[i]!, id);
+    }
+    index[i] = id;
+  }
+  return { index, count: ids.size };
+}
+
 /** A satellite observed twice at one epoch is a caller's mistake (400), named by both indices. */
-function checkDuplicates(input: ZwdEstimationInput, sortedByEpoch: readonly number[]): void {
+function checkDuplicates(
+  input: ZwdEstimationInput,
+  sortedByEpoch: readonly number[],
+  satellites: { index: Int32Array; count: number },
+): void {
   const { epochMs, satellite } = input.observations;
-  const seen = new Map<string, number>();
+  // Per satellite: the epoch (by its running number) and the observation where it was last seen.
+  const seenInEpoch = new Int32Array(satellites.count).fill(-1);
+  const seenAt = new Int32Array(satellites.count);
   let currentEpoch = Number.NaN;
+  let epochNumber = -1;
   for (const i of sortedByEpoch) {
     if (epochMs[i] !== currentEpoch) {
       currentEpoch = epochMs[i]!;
-      seen.clear();
+      epochNumber++;
     }
-    const sat = satellite[i]!;
-    const other = seen.get(sat);
-    if (other !== undefined) {
+    const id = satellites.index[i]!;
+    if (seenInEpoch[id] === epochNumber) {
+      const other = seenAt[id]!;
       const [a, b] = other < i ? [other, i] : [i, other];
       throw new ModelDomainError(
         `observations.${b}`,
-        `duplicate observation: satellite ${sat} at ${new Date(currentEpoch).toISOString()} is also observations.${a}; each (epoch, satellite) pair may appear once`,
+        `duplicate observation: satellite ${satellite[i]!} at ${new Date(currentEpoch).toISOString()} is also observations.${a}; each (epoch, satellite) pair may appear once`,
         400,
       );
     }
-    seen.set(sat, i);
+    seenInEpoch[id] = epochNumber;
+    seenAt[id] = i;
   }
 }

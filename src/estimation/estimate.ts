@@ -14,11 +14,12 @@
  */
 
 import { ModelDomainError } from '../domain/errors.js';
-import { epochInformation, kernelFactor, medianSpacingMs, noiseInflation, type NoiseInflation } from './correlated-noise.js';
+import { epochInformation, kernelFactor, noiseInflation, type NoiseInflation } from './correlated-noise.js';
 import { buildDesign, initialWeighting, locate, nodeEpochMs, setWeights, type Design, type NodeLayout } from './design.js';
 import { SingularParameterError } from './frontal-ldl.js';
 import { epochStateRejectionWindowMs, nodeRejectionWindowMs, rejectionCandidates } from './outliers.js';
 import { MIN_TESTABLE_REDUNDANCY, parameterLayout, solveOnce, type ParameterLayout, type Solution } from './least-squares.js';
+import { selectInPlace } from './order-statistics.js';
 import { screenedSolution } from './screening.js';
 import { screeningBound, varianceComponents } from './variance-components.js';
 import type {
@@ -136,9 +137,7 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
   if (low > 0)
     warnings.push(`${low} observations below 3° were used: the mapping functions are fitted from 3° up and are extrapolated there`);
 
-  const noise = noiseInflation(input.options, design, solution, used, layout.gradientCount > 0, () =>
-    Array.from(design.inputIndex, (i) => input.observations.satellite[i]!),
-  );
+  const noise = noiseInflation(input.options, design, solution, used, layout.gradientCount > 0);
   const bands = elevationBands(design, solution, used, rejectedDesign);
   for (const b of bands) {
     const name = `${((b.lowerRad * 180) / Math.PI).toFixed(0)}–${Math.min(90, (b.upperRad * 180) / Math.PI).toFixed(0)}°`;
@@ -195,25 +194,29 @@ function rejectionWindowMs(input: ZwdEstimationInput, design: Design, layout: Pa
   if (design.zwd.regular) return nodeRejectionWindowMs(options.zwd.intervalS);
   const epochs = design.epochMs.length;
   if (epochs < 2) return 0;
-  const samplingMs = medianSpacingMs(design.epochMs);
+  const samplingMs = design.samplingMs;
   const hours = samplingMs / 3_600_000;
   const withGradients = layout.gradientCount > 0;
   const zwdQ = options.zwd.randomWalkMPerSqrtH === null ? null : options.zwd.randomWalkMPerSqrtH ** 2 * hours;
   const gradientQ = options.gradients?.randomWalkMPerSqrtH == null ? null : options.gradients.randomWalkMPerSqrtH ** 2 * hours;
-  const lw: number[] = [];
-  const ln: number[] = [];
-  const le: number[] = [];
+  const gradientStates = withGradients && !design.gradients!.regular;
+  const lw = new Float64Array(epochs);
+  const ln = new Float64Array(gradientStates ? epochs : 0);
+  const le = new Float64Array(gradientStates ? epochs : 0);
+  const information = new Float64Array(3);
+  let count = 0;
   for (let k = 0; k < epochs; k++) {
-    const [iW, iN, iE] = epochInformation(solution, k, withGradients);
-    if (!(iW > 0)) continue;
-    if (!design.zwd.regular) lw.push(kernelFactor(iW, zwdQ));
-    if (withGradients && !design.gradients!.regular) {
-      ln.push(kernelFactor(iN, gradientQ));
-      le.push(kernelFactor(iE, gradientQ));
+    epochInformation(solution, k, withGradients, information);
+    if (!(information[0]! > 0)) continue;
+    lw[count] = kernelFactor(information[0]!, zwdQ);
+    if (gradientStates) {
+      ln[count] = kernelFactor(information[1]!, gradientQ);
+      le[count] = kernelFactor(information[2]!, gradientQ);
     }
+    count++;
   }
-  const median = (xs: number[]) => (xs.sort((a, b) => a - b), xs[Math.floor(xs.length / 2)]!);
-  const lambdas = [lw, ln, le].filter((xs) => xs.length > 0).map(median);
+  const median = (xs: Float64Array) => selectInPlace(xs, count, Math.floor(count / 2));
+  const lambdas = [lw, ln, le].filter((xs) => xs.length > 0 && count > 0).map(median);
   return epochStateRejectionWindowMs(lambdas, samplingMs);
 }
 

@@ -294,31 +294,25 @@ export class FrontalLdl {
     return x;
   }
 
-  /** Elements of N⁻¹ on the pattern of L (Takahashi recursion, see module comment), for a narrow front. */
+  /**
+   * Elements of N⁻¹ on the pattern of L (Takahashi recursion, see module comment), kept for reading
+   * with SelectedInverse.get. Evaluated by the reverse sweep: every Z_rq of the recursion is a lookup in
+   * the dense reverse front instead of a search of the pattern (the same products in the same order,
+   * so the same numbers).
+   */
   selectedInverse(): SelectedInverse {
-    const P = this.parameters;
-    const diagonal = new Float64Array(P);
     const offDiagonal = new Float64Array(this.stored);
-    const inverse = new SelectedInverse(this.position, this.neighbourStart, this.neighbour, diagonal, offDiagonal);
-    for (let k = P - 1; k >= 0; k--) {
-      const p = this.order[k]!;
-      const start = this.neighbourStart[k]!;
-      const end = this.neighbourStart[k + 1]!;
-      let zpp = 1 / this.pivot[p]!;
-      for (let a = start; a < end; a++) {
-        const q = this.neighbour[a]!;
-        let v = 0;
-        for (let b = start; b < end; b++) v -= this.factor[b]! * inverse.get(this.neighbour[b]!, q);
-        offDiagonal[a] = v;
-      }
-      for (let a = start; a < end; a++) zpp -= this.factor[a]! * offDiagonal[a]!;
-      diagonal[p] = zpp;
-    }
-    return inverse;
+    this.sweep({}, offDiagonal);
+    return new SelectedInverse(this.position, this.neighbourStart, this.neighbour, this.inverseDiagonal, offDiagonal);
   }
 
   /** Selected inverse by the reverse sweep (module comment); fills inverseDiagonal. */
   reverseSweep(visitor: ReverseSweepVisitor = {}): void {
+    this.sweep(visitor, null);
+  }
+
+  /** The reverse sweep; `offDiagonal` (when given) receives Z_pq at the index of L_qp (the pattern's order). */
+  private sweep(visitor: ReverseSweepVisitor, offDiagonal: Float64Array | null): void {
     const P = this.parameters;
     const mf = this.maxFront;
     const z = new Float64Array(mf * mf);
@@ -404,6 +398,7 @@ export class FrontalLdl {
           const t = nslots[a]!;
           z[s * mf + t] = zrow[a]!;
           z[t * mf + s] = zrow[a]!;
+          if (offDiagonal) offDiagonal[start + a] = zrow[a]!;
           visitor.onPair?.(p, this.neighbour[start + a]!, zrow[a]!);
         }
       }

@@ -221,6 +221,9 @@ function assembleAndFactor(design: Design, layout: ParameterLayout, fams: Family
   const slots = new Int32Array(LOCAL_PARAMETERS);
   const interp = new Float64Array(LOCAL_PARAMETERS);
   const epochNormal = new Float64Array(epochs * EPOCH_NORMAL_ENTRIES);
+  const m3 = new Float64Array(9);
+  const h3 = new Float64Array(3);
+  const d3 = new Float64Array(3);
   let observationsUsed = 0;
   let epochsUsed = 0;
 
@@ -291,13 +294,29 @@ function assembleAndFactor(design: Design, layout: ParameterLayout, fams: Family
         dE += w * east[s]! * east[s]!;
       }
     }
-    epochNormal.set([mWW, mWN, mWE, mNN, mNE, mEE], k * EPOCH_NORMAL_ENTRIES);
-    // N_k = B M Bᵀ, g_k = B h, added to the front.
-    const m3 = [mWW, mWN, mWE, mWN, mNN, mNE, mWE, mNE, mEE];
-    const h3 = [hW, hN, hE];
-    const d3 = [dW, dN, dE];
+    const o = k * EPOCH_NORMAL_ENTRIES;
+    epochNormal[o] = mWW;
+    epochNormal[o + 1] = mWN;
+    epochNormal[o + 2] = mWE;
+    epochNormal[o + 3] = mNN;
+    epochNormal[o + 4] = mNE;
+    epochNormal[o + 5] = mEE;
+    // N_k = B M Bᵀ, g_k = B h, added to the front. A local parameter of weight 0 (the second state of an
+    // interval at its own epoch: every-epoch states) adds nothing and is skipped.
+    m3[0] = mWW;
+    m3[1] = m3[3] = mWN;
+    m3[2] = m3[6] = mWE;
+    m3[4] = mNN;
+    m3[5] = m3[7] = mNE;
+    m3[8] = mEE;
+    h3[0] = hW;
+    h3[1] = hN;
+    h3[2] = hE;
+    d3[0] = dW;
+    d3[1] = dN;
+    d3[2] = dE;
     epochParameters(design, layout, k, ids, interp);
-    for (let p = 0; p < nLocal; p++) slots[p] = ids[p]! >= 0 ? solver.slot(ids[p]!) : -1;
+    for (let p = 0; p < nLocal; p++) slots[p] = ids[p]! >= 0 && interp[p] !== 0 ? solver.slot(ids[p]!) : -1;
     for (let p = 0; p < nLocal; p++) {
       if (slots[p]! < 0) continue;
       const fp = FAMILY[p]!;
@@ -337,16 +356,20 @@ function postFitResiduals(
   const biasM = new Float64Array(epochs).fill(Number.NaN);
   const fittedResidualM = new Float64Array(design.residualM.length);
   const residualVarianceM2 = new Float64Array(design.residualM.length);
-  const q6 = new Float64Array(LOCAL_PARAMETERS * LOCAL_PARAMETERS);
+  const local = new Int32Array(LOCAL_PARAMETERS);
+  const xf = new Float64Array(3);
   const q3 = new Float64Array(9);
   let observationSquareSum = 0;
   let observationRedundancy = 0;
   let residualSquareSumM2 = 0;
   for (let k = 0; k < epochs; k++) {
     epochParameters(design, layout, k, ids, interp);
-    // Interpolated values (Bᵀx) and their covariance Bᵀ Q B.
-    const xf = [0, 0, 0];
-    for (let p = 0; p < nLocal; p++) if (ids[p]! >= 0) xf[FAMILY[p]!]! += interp[p]! * x[ids[p]!]!;
+    // Interpolated values (Bᵀx) and their covariance Bᵀ Q B, over the local parameters of non-zero
+    // weight (every-epoch states: the epoch's own three).
+    let nonZero = 0;
+    for (let p = 0; p < nLocal; p++) if (ids[p]! >= 0 && interp[p] !== 0) local[nonZero++] = p;
+    xf.fill(0);
+    for (let a = 0; a < nonZero; a++) xf[FAMILY[local[a]!]!]! += interp[local[a]!]! * x[ids[local[a]!]!]!;
     const start = design.epochStart[k]!;
     const end = design.epochStart[k + 1]!;
     let sw = 0;
@@ -371,16 +394,13 @@ function postFitResiduals(
     const mW = bias ? swW / sw : 0;
     const mN = bias ? swN / sw : 0;
     const mE = bias ? swE / sw : 0;
-    for (let p = 0; p < nLocal; p++) {
-      for (let r = 0; r <= p; r++) {
-        const v = ids[p]! >= 0 && ids[r]! >= 0 ? inverse.get(ids[p]!, ids[r]!) : 0;
-        q6[p * LOCAL_PARAMETERS + r] = v;
-        q6[r * LOCAL_PARAMETERS + p] = v;
-      }
-    }
     q3.fill(0);
-    for (let p = 0; p < nLocal; p++) {
-      for (let r = 0; r < nLocal; r++) q3[FAMILY[p]! * 3 + FAMILY[r]!]! += interp[p]! * q6[p * LOCAL_PARAMETERS + r]! * interp[r]!;
+    for (let a = 0; a < nonZero; a++) {
+      const p = local[a]!;
+      for (let c = 0; c < nonZero; c++) {
+        const r = local[c]!;
+        q3[FAMILY[p]! * 3 + FAMILY[r]!]! += interp[p]! * inverse.get(ids[p]!, ids[r]!) * interp[r]!;
+      }
     }
     const qWW = q3[0]!,
       qWN = q3[1]!,

@@ -608,7 +608,6 @@ function stationNoise(problem: SubProblem, input: NetworkEstimationInput): Noise
       { fittedResidualM: solution.fittedResidualM[s]!, epochNormal: solution.epochNormal[s]! },
       solution.included[s]!,
       net.gradients !== null,
-      () => Array.from(st.networkIndex, (i) => input.observations.satellite[i]!),
     ),
   );
 }

@@ -68,7 +68,11 @@ export function observationsFromColumns(c: Record<string, unknown[] | undefined>
     }
     epochMs[i] = lastMs;
   }
-  const radians = (column: unknown[]) => Array.from(column as number[], (v) => v * DEG);
+  const radians = (column: unknown[]) => {
+    const out = new Array<number>(n);
+    for (let i = 0; i < n; i++) out[i] = (column[i] as number) * DEG;
+    return out;
+  };
   const sigma = c.sigma_m as (number | null)[] | undefined;
   return {
     epochMs,
