@@ -23,6 +23,7 @@ import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import pg from 'pg';
+import { BENCH_PG_URL, pgAvailable } from './postgres-available.js';
 import { buildApp } from '../src/http/app.js';
 import { provenance } from '../src/domain/provenance.js';
 import { createRepository, type StorageConfig } from '../src/storage/factory.js';
@@ -32,7 +33,7 @@ import type { Repository } from '../src/storage/repository.js';
 import { SQLITE_FILE_NAME, migrateSqlite } from '../src/storage/sqlite/sqlite-repository.js';
 import { seedWorkspaceNetwork } from '../test/helpers/workspace-network.js';
 
-const PG_URL = process.env.BENCH_DATABASE_URL ?? 'postgres://postgres@127.0.0.1:5432/test';
+const PG_URL = BENCH_PG_URL;
 const STATIONS = Number(process.env.ARCHIVE_BENCH_STATIONS ?? 50);
 const DAYS = Number(process.env.ARCHIVE_BENCH_DAYS ?? 365);
 const FIVE_MIN = 300_000;
@@ -300,17 +301,6 @@ async function readFigures(
 }
 
 // ---------------------------------------------------------------- PostgreSQL
-
-async function pgAvailable(): Promise<boolean> {
-  const client = new pg.Client({ connectionString: PG_URL, connectionTimeoutMillis: 2000 });
-  try {
-    await client.connect();
-    await client.end();
-    return true;
-  } catch {
-    return false;
-  }
-}
 
 async function fillPostgres(schema: string, layout: 'before' | 'archive'): Promise<number> {
   const pool = new pg.Pool({ connectionString: PG_URL, max: 1, options: `-c search_path=${schema}` });

@@ -20,6 +20,7 @@ import { provenance } from '../../src/domain/provenance.js';
 import { createRepository, type StorageConfig } from '../../src/storage/factory.js';
 import { MIGRATIONS, SchemaMismatchError, checkSchemaCompatibility } from '../../src/storage/migrations.js';
 import type { DelayRow, MetRow, Repository } from '../../src/storage/repository.js';
+import { delayFromArray, metFromArray, type MetArrayRow } from '../../src/storage/rows.js';
 import { migratePostgres } from '../../src/storage/postgres/postgres-repository.js';
 import { SQLITE_FILE_NAME, migrateSqlite } from '../../src/storage/sqlite/sqlite-repository.js';
 import { BACKENDS, TEST_PG_URL } from '../helpers/storage.js';
@@ -144,28 +145,9 @@ async function rawDb(config: StorageConfig): Promise<RawDb> {
 /** PostgreSQL returns BIGINT as a string: epochs back to numbers, as the repository does. */
 const normalise = (v: unknown) => (typeof v === 'string' && /^\d{10,}$/.test(v) ? Number(v) : v);
 
-const toDelayRow = (r: unknown[]): DelayRow => ({
-  epochMs: r[1] as number,
-  source: r[2] as string,
-  ztdM: r[3] as number,
-  ztdSigmaM: r[4] as number | null,
-  zwdM: r[5] as number | null,
-  zwdSigmaM: r[6] as number | null,
-  northGradientM: r[7] as number | null,
-  eastGradientM: r[8] as number | null,
-  northGradientSigmaM: r[9] as number | null,
-  eastGradientSigmaM: r[10] as number | null,
-  modelFingerprint: r[11] as string,
-});
-const toMetRow = (r: unknown[]): MetRow => ({
-  epochMs: r[1] as number,
-  source: r[2] as string,
-  pressureHpa: r[3] as number,
-  temperatureC: r[4] as number | null,
-  relativeHumidityPct: r[5] as number | null,
-  dewpointC: r[6] as number | null,
-  vapourPressureHpa: r[7] as number | null,
-});
+/** Snapshot rows (station_id first, then the columns of DELAY_SELECT / MET_SELECT) as the repository types. */
+const toDelayRow = (r: unknown[]): DelayRow => delayFromArray(r.slice(1));
+const toMetRow = (r: unknown[]): MetRow => metFromArray(r.slice(1) as MetArrayRow);
 
 describe('the archive layout migration is contracting (expand/contract, common practice)', () => {
   it('a release that does not know it reports not-ready on the migrated schema, naming the migration', () => {
