@@ -21,7 +21,7 @@ import { createRepository, type StorageConfig } from '../../src/storage/factory.
 import { MIGRATIONS, SchemaMismatchError, checkSchemaCompatibility } from '../../src/storage/migrations.js';
 import type { DelayRow, MetRow, Repository } from '../../src/storage/repository.js';
 import { delayFromArray, metFromArray, type MetArrayRow } from '../../src/storage/rows.js';
-import { migratePostgres } from '../../src/storage/postgres/postgres-repository.js';
+import { MIGRATION_LOCK_CLASS, migratePostgres, migrationLockKey } from '../../src/storage/postgres/postgres-repository.js';
 import { SQLITE_FILE_NAME, migrateSqlite } from '../../src/storage/sqlite/sqlite-repository.js';
 import { BACKENDS, TEST_PG_URL } from '../helpers/storage.js';
 
@@ -320,3 +320,33 @@ for (const backend of BACKENDS) {
     });
   });
 }
+
+describe.skipIf(!TEST_PG_URL)('the PostgreSQL migration lock is per schema (a long layout migration holds it)', () => {
+  it('a schema migrates while another schema’s migration lock is held; the held schema’s start waits', async () => {
+    const schemas = ['held', 'free'].map((n) => `t_lock_${n}_${Date.now().toString(36)}`);
+    const holder = new pg.Client({ connectionString: TEST_PG_URL });
+    await holder.connect();
+    const cleanup = async () => {
+      for (const s of schemas) await holder.query(`DROP SCHEMA IF EXISTS "${s}" CASCADE`);
+      await holder.end();
+    };
+    try {
+      await holder.query('SELECT pg_advisory_lock($1, $2)', [MIGRATION_LOCK_CLASS, migrationLockKey(schemas[0]!)]);
+      const free = await createRepository({ dataDir: ':memory:', databaseUrl: TEST_PG_URL, pgSchema: schemas[1] });
+      await free.ping();
+      await free.close();
+      let heldOpened = false;
+      const held = createRepository({ dataDir: ':memory:', databaseUrl: TEST_PG_URL, pgSchema: schemas[0] }).then((r) => {
+        heldOpened = true;
+        return r;
+      });
+      await new Promise((resolve) => setTimeout(resolve, 500));
+      expect(heldOpened).toBe(false);
+      await holder.query('SELECT pg_advisory_unlock($1, $2)', [MIGRATION_LOCK_CLASS, migrationLockKey(schemas[0]!)]);
+      await (await held).close();
+      expect(heldOpened).toBe(true);
+    } finally {
+      await cleanup();
+    }
+  }, 60_000);
+});

@@ -96,8 +96,19 @@ import {
   storedSoundingFromArray,
 } from '../sounding-rows.js';
 
-/** Key of the advisory lock that serialises migrations (an arbitrary constant of this service). */
-export const MIGRATION_LOCK_KEY = 7_421_903_311;
+/**
+ * The advisory lock that serialises migrations is (MIGRATION_LOCK_CLASS, migrationLockKey(schema)): the
+ * replicas of one schema migrate one after the other, while other schemas on the same server (other
+ * deployments, test runs) do not wait for a long migration (the archive layout copies every row).
+ * MIGRATION_LOCK_CLASS is an arbitrary constant of this service.
+ */
+export const MIGRATION_LOCK_CLASS = 742_190_331;
+/** The schema's half of the migration lock: FNV-1a of its name as a signed 32-bit integer. */
+export function migrationLockKey(schema: string): number {
+  let h = 0x811c9dc5;
+  for (let i = 0; i < schema.length; i++) h = Math.imul(h ^ schema.charCodeAt(i), 0x01000193);
+  return h | 0;
+}
 /** Rows bound per statement in bulk writes. */
 const CHUNK_ROWS = 10_000;
 /**
@@ -161,7 +172,8 @@ export async function migratePostgres(pool: pg.Pool, schema: string, migrations:
     // Waiting for another replica's migration, or a migration of a big table, may take longer than
     // the statement timeout meant for requests.
     await client.query('SET statement_timeout = 0');
-    await client.query('SELECT pg_advisory_lock($1)', [MIGRATION_LOCK_KEY]);
+    const lock = [MIGRATION_LOCK_CLASS, migrationLockKey(schema)];
+    await client.query('SELECT pg_advisory_lock($1, $2)', lock);
     try {
       await client.query(`CREATE SCHEMA IF NOT EXISTS ${quoteIdent(schema)}`);
       await client.query(`SET search_path TO ${quoteIdent(schema)}`);
@@ -188,7 +200,7 @@ export async function migratePostgres(pool: pg.Pool, schema: string, migrations:
         applied.push(m.version);
       }
     } finally {
-      await client.query('SELECT pg_advisory_unlock($1)', [MIGRATION_LOCK_KEY]);
+      await client.query('SELECT pg_advisory_unlock($1, $2)', lock);
       await client.query('RESET search_path');
       await client.query('RESET statement_timeout');
     }
