@@ -13,27 +13,17 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import pg from 'pg';
+import { BENCH_PG_URL, pgAvailable } from './postgres-available.js';
 import { DEMO_NETWORK, round1, truthSeries } from '../scripts/synthetic/network.js';
 import { buildApp } from '../src/http/app.js';
 import type { StorageConfig } from '../src/storage/factory.js';
 
 const KEY = 'bench-key-0123456789abcdef';
-const PG_URL = process.env.BENCH_DATABASE_URL ?? 'postgres://postgres@127.0.0.1:5432/test';
+const PG_URL = BENCH_PG_URL;
 const FIVE_MIN = 300_000;
 const YEAR_RECORDS = 365 * 288; // 105 120
 const INGEST_RECORDS = 100_000;
 const T0 = Date.UTC(2025, 0, 1);
-
-async function pgAvailable(): Promise<boolean> {
-  const client = new pg.Client({ connectionString: PG_URL, connectionTimeoutMillis: 2000 });
-  try {
-    await client.connect();
-    await client.end();
-    return true;
-  } catch {
-    return false;
-  }
-}
 
 async function timed<T>(work: () => Promise<T>): Promise<[T, number]> {
   const start = performance.now();

@@ -79,20 +79,129 @@ export const zenithDelayFromArray = (r: unknown[]): ZenithDelayRow => ({
   modelFingerprint: r[4] as string,
 });
 
+/** The two series tables (migrations.ts, version 4: clustered by station, source, epoch). */
+export type SeriesTable = 'met_records' | 'delay_records';
+
+/** What reads select from: delay rows carry a segment id, the view delay_rows joins the fingerprint back. */
+export const READ_RELATION: Record<SeriesTable, string> = { met_records: 'met_records', delay_records: 'delay_rows' };
+
+/** Per (station, source) envelopes of the epochs: met_series, delay_segments (one per fingerprint). */
+export const ENVELOPE_TABLE: Record<SeriesTable, 'met_series' | 'delay_segments'> = {
+  met_records: 'met_series',
+  delay_records: 'delay_segments',
+};
+
+const placeholder = (dialect: 'sqlite' | 'postgres') => (n: number) => (dialect === 'sqlite' ? '?' : `$${n}`);
+
 /**
- * SQL of a one-station time-range read, ordered by (epoch, source), bounds inclusive, optionally of
- * one source. `table` and `columns` are this module's constants, never caller input; the values are
- * bound parameters: `?` for SQLite, `$1..$4` for PostgreSQL.
+ * SQL of the sources of a station whose envelope meets [from, to], in ascending order (bound: station,
+ * from, to). A read without a source probes each of them: the rows are clustered by source first.
  */
-export function rangeReadSql(
-  table: 'met_records' | 'delay_records',
-  columns: string,
-  bySource: boolean,
-  dialect: 'sqlite' | 'postgres',
-): string {
-  const p = (n: number) => (dialect === 'sqlite' ? '?' : `$${n}`);
-  const source = bySource ? ` AND source = ${p(4)}` : '';
-  return `SELECT ${columns} FROM ${table} WHERE station_id = ${p(1)} AND epoch_ms BETWEEN ${p(2)} AND ${p(3)}${source} ORDER BY epoch_ms, source`;
+export function sourcesSql(table: SeriesTable, dialect: 'sqlite' | 'postgres'): string {
+  const p = placeholder(dialect);
+  return (
+    `SELECT DISTINCT source FROM ${ENVELOPE_TABLE[table]} WHERE station_id = ${p(1)} AND last_epoch_ms >= ${p(2)} ` +
+    `AND first_epoch_ms <= ${p(3)} ORDER BY source`
+  );
+}
+
+/**
+ * SQL of a one-station, one-source time-range read, ordered by epoch, bounds inclusive (bound: station,
+ * source, from, to): one range of the primary key (station_id, source, epoch_ms). `table` and `columns`
+ * are this module's constants, never caller input.
+ */
+export function rangeReadSql(table: SeriesTable, columns: string, dialect: 'sqlite' | 'postgres'): string {
+  const p = placeholder(dialect);
+  return (
+    `SELECT ${columns} FROM ${READ_RELATION[table]} WHERE station_id = ${p(1)} AND source = ${p(2)} ` +
+    `AND epoch_ms BETWEEN ${p(3)} AND ${p(4)} ORDER BY epoch_ms`
+  );
+}
+
+/**
+ * SQL that widens the envelope of one (station, source) — for delays of one (station, source,
+ * fingerprint) segment — to cover [first, last], creating it when missing. Bound: station, source,
+ * [fingerprint,] first, last. The delay form returns segment_id.
+ */
+export function envelopeSql(table: SeriesTable, dialect: 'sqlite' | 'postgres'): string {
+  const p = placeholder(dialect);
+  const [least, greatest] = dialect === 'sqlite' ? ['MIN', 'MAX'] : ['LEAST', 'GREATEST'];
+  const t = ENVELOPE_TABLE[table];
+  const widen =
+    `DO UPDATE SET first_epoch_ms = ${least}(${t}.first_epoch_ms, excluded.first_epoch_ms), ` +
+    `last_epoch_ms = ${greatest}(${t}.last_epoch_ms, excluded.last_epoch_ms)`;
+  return table === 'met_records'
+    ? `INSERT INTO met_series (station_id, source, first_epoch_ms, last_epoch_ms) VALUES (${p(1)}, ${p(2)}, ${p(3)}, ${p(4)}) ` +
+        `ON CONFLICT (station_id, source) ${widen}`
+    : `INSERT INTO delay_segments (station_id, source, model_fingerprint, first_epoch_ms, last_epoch_ms) ` +
+        `VALUES (${p(1)}, ${p(2)}, ${p(3)}, ${p(4)}, ${p(5)}) ON CONFLICT (station_id, source, model_fingerprint) ${widen} RETURNING segment_id`;
+}
+
+/** The first and last epoch of each source of `rows` [ms], by source in ascending order. */
+export function epochEnvelopes(rows: readonly { epochMs: number; source: string }[]): Map<string, [number, number]> {
+  const out = new Map<string, [number, number]>();
+  for (const r of rows) {
+    const e = out.get(r.source);
+    if (!e) out.set(r.source, [r.epochMs, r.epochMs]);
+    else {
+      if (r.epochMs < e[0]) e[0] = r.epochMs;
+      if (r.epochMs > e[1]) e[1] = r.epochMs;
+    }
+  }
+  return new Map([...out].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)));
+}
+
+/**
+ * Longest shared range of a many-station delay read that goes through the epoch index [ms]: a network
+ * read at one epoch or over one hour (interval=PT1H). Longer ranges read per station, where the primary
+ * key gives each station's rows in one walk.
+ */
+export const NETWORK_EPOCH_READ_MAX_MS = 3_600_000;
+/** Fewest stations for which the epoch index pays: below it, per-station probes read fewer rows. */
+export const NETWORK_EPOCH_READ_MIN_STATIONS = 50;
+
+/** Whether a many-station read is a network read of one short range, for the epoch index. */
+export function sharedShortRange(ranges: readonly { fromMs: number; toMs: number }[]): boolean {
+  if (ranges.length < NETWORK_EPOCH_READ_MIN_STATIONS) return false;
+  const { fromMs, toMs } = ranges[0]!;
+  return toMs - fromMs <= NETWORK_EPOCH_READ_MAX_MS && ranges.every((r) => r.fromMs === fromMs && r.toMs === toMs);
+}
+
+/**
+ * SQL of the delay rows of every station in [from, to] through the epoch index delay_records_epoch
+ * (bound: from, to[, source]), station_id first, ordered by station then (epoch, source).
+ */
+export function networkEpochReadSql(columns: string, bySource: boolean, dialect: 'sqlite' | 'postgres'): string {
+  const p = placeholder(dialect);
+  return (
+    `SELECT station_id, ${columns} FROM delay_rows WHERE epoch_ms BETWEEN ${p(1)} AND ${p(2)}` +
+    `${bySource ? ` AND source = ${p(3)}` : ''} ORDER BY station_id, epoch_ms, source`
+  );
+}
+
+/**
+ * Merges raw rows of several sources, each list ordered by epoch and the lists in ascending source
+ * order, into one list ordered by (epoch, source): the order every read of the Repository promises.
+ * `epochAt` is the column of the epoch in a row.
+ */
+export function mergeSources(lists: readonly unknown[][][], epochAt: number): unknown[][] {
+  if (lists.length === 1) return lists[0]!;
+  const out: unknown[][] = [];
+  const next = lists.map(() => 0);
+  for (;;) {
+    let best = -1;
+    let bestMs = Infinity;
+    for (let k = 0; k < lists.length; k++) {
+      const row = lists[k]![next[k]!];
+      // Strictly less: on equal epochs the earlier list (the smaller source) goes first.
+      if (row !== undefined && Number(row[epochAt]) < bestMs) {
+        best = k;
+        bestMs = Number(row[epochAt]);
+      }
+    }
+    if (best < 0) return out;
+    out.push(lists[best]![next[best]!++]!);
+  }
 }
 
 /** Rows of a many-station read (`station_id` first, then `columns`) grouped by station, in read order. */

@@ -83,9 +83,18 @@ import {
   toStation,
   zenithDelayFromArray,
   type MetArrayRow,
+  type SeriesTable,
   type StationDbRow,
-  rangeReadSql,
+  ENVELOPE_TABLE,
+  envelopeSql,
+  epochEnvelopes,
   groupByStation,
+  mergeSources,
+  networkEpochReadSql,
+  rangeReadSql,
+  READ_RELATION,
+  sharedShortRange,
+  sourcesSql,
 } from '../rows.js';
 import {
   SOUNDING_SELECT,
@@ -96,8 +105,19 @@ import {
   storedSoundingFromArray,
 } from '../sounding-rows.js';
 
-/** Key of the advisory lock that serialises migrations (an arbitrary constant of this service). */
-export const MIGRATION_LOCK_KEY = 7_421_903_311;
+/**
+ * The advisory lock that serialises migrations is (MIGRATION_LOCK_CLASS, migrationLockKey(schema)): the
+ * replicas of one schema migrate one after the other, while other schemas on the same server (other
+ * deployments, test runs) do not wait for a long migration (the archive layout copies every row).
+ * MIGRATION_LOCK_CLASS is an arbitrary constant of this service.
+ */
+export const MIGRATION_LOCK_CLASS = 742_190_331;
+/** The schema's half of the migration lock: FNV-1a of its name as a signed 32-bit integer. */
+export function migrationLockKey(schema: string): number {
+  let h = 0x811c9dc5;
+  for (let i = 0; i < schema.length; i++) h = Math.imul(h ^ schema.charCodeAt(i), 0x01000193);
+  return h | 0;
+}
 /** Rows bound per statement in bulk writes. */
 const CHUNK_ROWS = 10_000;
 /**
@@ -111,6 +131,14 @@ interface WrittenCounts {
   written: string;
 }
 const SCHEMA_PATTERN = /^[a-z_][a-z0-9_]{0,62}$/;
+
+/**
+ * FROM clause of a many-station read: the ranges bound as arrays $1 (station ids), $2 (from), $3 (to),
+ * one row per station and source whose envelope meets its range: q(station_id, from_ms, to_ms, source).
+ */
+const RANGES_WITH_SOURCES = (table: SeriesTable) =>
+  `(SELECT DISTINCT r.station_id, r.from_ms, r.to_ms, e.source FROM unnest($1::text[], $2::bigint[], $3::bigint[]) AS r(station_id, from_ms, to_ms) ` +
+  `JOIN ${ENVELOPE_TABLE[table]} e ON e.station_id = r.station_id AND e.last_epoch_ms >= r.from_ms AND e.first_epoch_ms <= r.to_ms) AS q`;
 
 export interface PostgresOptions {
   connectionString: string;
@@ -153,7 +181,8 @@ export async function migratePostgres(pool: pg.Pool, schema: string, migrations:
     // Waiting for another replica's migration, or a migration of a big table, may take longer than
     // the statement timeout meant for requests.
     await client.query('SET statement_timeout = 0');
-    await client.query('SELECT pg_advisory_lock($1)', [MIGRATION_LOCK_KEY]);
+    const lock = [MIGRATION_LOCK_CLASS, migrationLockKey(schema)];
+    await client.query('SELECT pg_advisory_lock($1, $2)', lock);
     try {
       await client.query(`CREATE SCHEMA IF NOT EXISTS ${quoteIdent(schema)}`);
       await client.query(`SET search_path TO ${quoteIdent(schema)}`);
@@ -180,7 +209,7 @@ export async function migratePostgres(pool: pg.Pool, schema: string, migrations:
         applied.push(m.version);
       }
     } finally {
-      await client.query('SELECT pg_advisory_unlock($1)', [MIGRATION_LOCK_KEY]);
+      await client.query('SELECT pg_advisory_unlock($1, $2)', lock);
       await client.query('RESET search_path');
       await client.query('RESET statement_timeout');
     }
@@ -369,9 +398,30 @@ export class PostgresRepository implements Repository {
     if (found.rowCount === 0) throw new UnknownStationError(stationId);
   }
 
+  /**
+   * Widens the envelopes of the sources of `rows` in source order (call inside the write transaction);
+   * for delays, returns source → segment id of `fingerprint`.
+   */
+  private async widenEnvelopes(
+    client: pg.PoolClient,
+    table: SeriesTable,
+    stationId: string,
+    rows: readonly { epochMs: number; source: string }[],
+    fingerprint?: string,
+  ): Promise<Map<string, number>> {
+    const segments = new Map<string, number>();
+    for (const [source, [firstMs, lastMs]] of epochEnvelopes(rows)) {
+      const values = fingerprint === undefined ? [stationId, source, firstMs, lastMs] : [stationId, source, fingerprint, firstMs, lastMs];
+      const result = await client.query<{ segment_id: number }>(envelopeSql(table, 'postgres'), values);
+      if (fingerprint !== undefined) segments.set(source, result.rows[0]!.segment_id);
+    }
+    return segments;
+  }
+
   async writeMet(stationId: string, rows: readonly MetRow[]): Promise<WriteCounts> {
     return this.transaction(async (client) => {
       await this.lockStation(client, stationId);
+      await this.widenEnvelopes(client, 'met_records', stationId, rows);
       let returned = 0;
       let inserted = 0;
       const sorted = byKey(rows);
@@ -380,7 +430,7 @@ export class PostgresRepository implements Repository {
         const result = await client.query<WrittenCounts>(
           `WITH written AS (INSERT INTO met_records (station_id, epoch_ms, source, pressure_hpa, temperature_c, relative_humidity_pct, dewpoint_c, vapour_pressure_hpa)
            SELECT $1, * FROM unnest($2::bigint[], $3::text[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::float8[])
-           ON CONFLICT (station_id, epoch_ms, source) DO UPDATE SET
+           ON CONFLICT (station_id, source, epoch_ms) DO UPDATE SET
              pressure_hpa = EXCLUDED.pressure_hpa, temperature_c = EXCLUDED.temperature_c,
              relative_humidity_pct = EXCLUDED.relative_humidity_pct, dewpoint_c = EXCLUDED.dewpoint_c,
              vapour_pressure_hpa = EXCLUDED.vapour_pressure_hpa
@@ -454,18 +504,19 @@ export class PostgresRepository implements Repository {
         'north_gradient_sigma_m',
         'east_gradient_sigma_m',
       ];
-      const current = cols.map((c) => `delay_records.${c}`).join(', ') + ', delay_records.model_fingerprint';
-      const excluded = cols.map((c) => `EXCLUDED.${c}`).join(', ') + ', EXCLUDED.model_fingerprint';
+      const current = cols.map((c) => `delay_records.${c}`).join(', ') + ', delay_records.segment_id';
+      const excluded = cols.map((c) => `EXCLUDED.${c}`).join(', ') + ', EXCLUDED.segment_id';
+      const segments = await this.widenEnvelopes(client, 'delay_records', stationId, rows, modelFingerprint);
       const sorted = byKey(rows);
       for (let start = 0; start < sorted.length; start += CHUNK_ROWS) {
         const chunk = sorted.slice(start, start + CHUNK_ROWS);
         const result = await client.query<WrittenCounts>(
-          `WITH written AS (INSERT INTO delay_records (station_id, epoch_ms, source, ${cols.join(', ')}, model_fingerprint)
-           SELECT $1, e, s, v1, v2, v3, v4, v5, v6, v7, v8, $12
-           FROM unnest($2::bigint[], $3::text[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::float8[], $9::float8[], $10::float8[], $11::float8[])
-             AS t (e, s, v1, v2, v3, v4, v5, v6, v7, v8)
-           ON CONFLICT (station_id, epoch_ms, source) DO UPDATE SET
-             ${cols.map((c) => `${c} = EXCLUDED.${c}`).join(', ')}, model_fingerprint = EXCLUDED.model_fingerprint
+          `WITH written AS (INSERT INTO delay_records (station_id, epoch_ms, source, ${cols.join(', ')}, segment_id)
+           SELECT $1, e, s, v1, v2, v3, v4, v5, v6, v7, v8, g
+           FROM unnest($2::bigint[], $3::text[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::float8[], $9::float8[], $10::float8[], $11::float8[], $12::int[])
+             AS t (e, s, v1, v2, v3, v4, v5, v6, v7, v8, g)
+           ON CONFLICT (station_id, source, epoch_ms) DO UPDATE SET
+             ${cols.map((c) => `${c} = EXCLUDED.${c}`).join(', ')}, segment_id = EXCLUDED.segment_id
            WHERE (${current}) IS DISTINCT FROM (${excluded})
            RETURNING (xmax = 0) AS inserted)
            ${COUNT_WRITTEN}`,
@@ -481,7 +532,7 @@ export class PostgresRepository implements Repository {
             chunk.map((r) => r.eastGradientM),
             chunk.map((r) => r.northGradientSigmaM),
             chunk.map((r) => r.eastGradientSigmaM),
-            modelFingerprint,
+            chunk.map((r) => segments.get(r.source)),
           ],
         );
         returned += Number(result.rows[0]!.written);
@@ -505,9 +556,12 @@ export class PostgresRepository implements Repository {
     range: TimeRange,
     options: PageReadOptions,
   ): AsyncGenerator<SeriesPageRows[K][], void, undefined> {
-    return seriesPages(kind, stationId, range, options, 'postgres', async (text, values) => {
-      const result = await this.pool.query<unknown[]>({ text, values: positionalValues(values), rowMode: 'array' });
-      return result.rows;
+    return seriesPages(kind, stationId, range, options, 'postgres', {
+      sources: (table, id, r) => this.sourcesOf(table, id, r),
+      fetchPage: async (text, values) => {
+        const result = await this.pool.query<unknown[]>({ text, values: positionalValues(values), rowMode: 'array' });
+        return result.rows;
+      },
     });
   }
 
@@ -560,12 +614,7 @@ export class PostgresRepository implements Repository {
   }
 
   async latestEpochMs(stationId: string, series: 'met' | 'delays'): Promise<number | null> {
-    const table = series === 'met' ? 'met_records' : 'delay_records';
-    const result = await this.pool.query<{ latest: string | null }>(`SELECT MAX(epoch_ms) AS latest FROM ${table} WHERE station_id = $1`, [
-      stationId,
-    ]);
-    const latest = result.rows[0]?.latest ?? null;
-    return latest === null ? null : Number(latest);
+    return (await this.latestEpochsMs([stationId], series)).get(stationId) ?? null;
   }
 
   async readZenithDelaysMany(ranges: readonly StationRange[], source?: string): Promise<Map<string, ZenithDelayRow[]>> {
@@ -589,8 +638,9 @@ export class PostgresRepository implements Repository {
     if (ranges.length === 0) return out;
     const result = await this.pool.query<[string, string, string]>({
       text:
-        'SELECT t.station_id, t.source, COUNT(*) FROM unnest($1::text[], $2::bigint[], $3::bigint[]) AS q(station_id, from_ms, to_ms) ' +
-        'JOIN delay_records t ON t.station_id = q.station_id AND t.epoch_ms BETWEEN q.from_ms AND q.to_ms GROUP BY t.station_id, t.source',
+        `SELECT t.station_id, t.source, COUNT(*) FROM ${RANGES_WITH_SOURCES('delay_records')} ` +
+        'JOIN delay_records t ON t.station_id = q.station_id AND t.source = q.source AND t.epoch_ms BETWEEN q.from_ms AND q.to_ms ' +
+        'GROUP BY t.station_id, t.source',
       values: [ranges.map((r) => r.stationId), ranges.map((r) => r.fromMs), ranges.map((r) => r.toMs)],
       rowMode: 'array',
     });
@@ -603,11 +653,11 @@ export class PostgresRepository implements Repository {
   }
 
   async latestEpochsMs(stationIds: readonly string[], series: 'met' | 'delays'): Promise<Map<string, number>> {
-    const table = series === 'met' ? 'met_records' : 'delay_records';
+    const table = ENVELOPE_TABLE[series === 'met' ? 'met_records' : 'delay_records'];
     if (stationIds.length === 0) return new Map();
-    // One index probe per station (max of the primary key's epoch within the station).
+    // The envelopes cover every stored row (migration 4), so their maximum is the latest epoch.
     const result = await this.pool.query<[string, string | null]>({
-      text: `SELECT q.id, (SELECT MAX(epoch_ms) FROM ${table} t WHERE t.station_id = q.id) FROM unnest($1::text[]) AS q(id)`,
+      text: `SELECT q.id, (SELECT MAX(last_epoch_ms) FROM ${table} t WHERE t.station_id = q.id) FROM unnest($1::text[]) AS q(id)`,
       values: [stationIds],
       rowMode: 'array',
     });
@@ -617,27 +667,33 @@ export class PostgresRepository implements Repository {
   }
 
   /**
-   * Raw rows (station_id first) of many one-station range reads in one statement: the ranges are
-   * bound as three arrays and joined on the primary key (station_id, epoch_ms).
+   * Raw rows (station_id first) of many one-station range reads in one statement. A network read at
+   * one epoch or one hour (every station the same short range) of delays walks the epoch index
+   * delay_records_epoch; otherwise the ranges are bound as three arrays, joined with each station's
+   * sources (the envelope table) and then with the primary key (station_id, source, epoch_ms).
    */
-  private async readRanges(
-    table: 'met_records' | 'delay_records',
-    columns: string,
-    ranges: readonly StationRange[],
-    source?: string,
-  ): Promise<unknown[][]> {
+  private async readRanges(table: SeriesTable, columns: string, ranges: readonly StationRange[], source?: string): Promise<unknown[][]> {
     if (ranges.length === 0) return [];
+    if (table === 'delay_records' && sharedShortRange(ranges)) {
+      const wanted = new Set(ranges.map((r) => r.stationId));
+      const result = await this.pool.query<unknown[]>({
+        text: networkEpochReadSql(columns, source !== undefined, 'postgres'),
+        values: source === undefined ? [ranges[0]!.fromMs, ranges[0]!.toMs] : [ranges[0]!.fromMs, ranges[0]!.toMs, source],
+        rowMode: 'array',
+      });
+      return result.rows.filter((r) => wanted.has(r[0] as string));
+    }
     const qualified = columns
       .split(', ')
       .map((c) => `t.${c}`)
       .join(', ');
-    const bySource = source === undefined ? '' : ' AND t.source = $4';
+    const bySource = source === undefined ? '' : ' AND q.source = $4';
     const values: unknown[] = [ranges.map((r) => r.stationId), ranges.map((r) => r.fromMs), ranges.map((r) => r.toMs)];
     if (source !== undefined) values.push(source);
     const result = await this.pool.query<unknown[]>({
       text:
-        `SELECT t.station_id, ${qualified} FROM unnest($1::text[], $2::bigint[], $3::bigint[]) AS q(station_id, from_ms, to_ms) ` +
-        `JOIN ${table} t ON t.station_id = q.station_id AND t.epoch_ms BETWEEN q.from_ms AND q.to_ms${bySource} ` +
+        `SELECT t.station_id, ${qualified} FROM ${RANGES_WITH_SOURCES(table)} ` +
+        `JOIN ${READ_RELATION[table]} t ON t.station_id = q.station_id AND t.source = q.source AND t.epoch_ms BETWEEN q.from_ms AND q.to_ms${bySource} ` +
         'ORDER BY t.station_id, t.epoch_ms, t.source',
       values,
       rowMode: 'array',
@@ -645,20 +701,29 @@ export class PostgresRepository implements Repository {
     return result.rows;
   }
 
-  /** Raw rows of a one-station time-range read. */
-  private async readRange(
-    table: 'met_records' | 'delay_records',
-    columns: string,
-    stationId: string,
-    range: TimeRange,
-    source?: string,
-  ): Promise<unknown[][]> {
-    const result = await this.pool.query<unknown[]>({
-      text: rangeReadSql(table, columns, source !== undefined, 'postgres'),
-      values: source === undefined ? [stationId, range.fromMs, range.toMs] : [stationId, range.fromMs, range.toMs, source],
+  /** The sources of a station whose envelope meets the range, ascending. */
+  private async sourcesOf(table: SeriesTable, stationId: string, range: TimeRange): Promise<string[]> {
+    const result = await this.pool.query<[string]>({
+      text: sourcesSql(table, 'postgres'),
+      values: [stationId, range.fromMs, range.toMs],
       rowMode: 'array',
     });
-    return result.rows;
+    return result.rows.map((r) => r[0]);
+  }
+
+  /** Raw rows of a one-station time-range read ordered by (epoch, source): one primary-key range per source, merged. */
+  private async readRange(table: SeriesTable, columns: string, stationId: string, range: TimeRange, source?: string): Promise<unknown[][]> {
+    const sources = source === undefined ? await this.sourcesOf(table, stationId, range) : [source];
+    const lists: unknown[][][] = [];
+    for (const s of sources) {
+      const result = await this.pool.query<unknown[]>({
+        text: rangeReadSql(table, columns, 'postgres'),
+        values: [stationId, s, range.fromMs, range.toMs],
+        rowMode: 'array',
+      });
+      lists.push(result.rows);
+    }
+    return mergeSources(lists, 0);
   }
 
   connectionStats(): ConnectionStats {

@@ -87,9 +87,16 @@ import {
   toStation,
   zenithDelayFromArray,
   type MetArrayRow,
+  type SeriesTable,
   type StationDbRow,
-  rangeReadSql,
+  envelopeSql,
+  epochEnvelopes,
   groupByStation,
+  mergeSources,
+  networkEpochReadSql,
+  rangeReadSql,
+  sharedShortRange,
+  sourcesSql,
 } from '../rows.js';
 import {
   SOUNDING_SELECT,
@@ -121,7 +128,7 @@ const DELAY_VALUE_COLUMNS = [
   'east_gradient_m',
   'north_gradient_sigma_m',
   'east_gradient_sigma_m',
-  'model_fingerprint',
+  'segment_id',
 ] as const;
 
 /**
@@ -130,12 +137,12 @@ const DELAY_VALUE_COLUMNS = [
  * changes() counts inserted + updated rows and an idempotent re-send writes nothing. `table` and the
  * columns are this module's constants.
  */
-function upsertSql(table: 'met_records' | 'delay_records', valueColumns: readonly string[], rowCount: number): string {
+function upsertSql(table: SeriesTable, valueColumns: readonly string[], rowCount: number): string {
   const columns = ['station_id', 'epoch_ms', 'source', ...valueColumns];
   const tuple = `(${columns.map(() => '?').join(', ')})`;
   return (
     `INSERT INTO ${table} (${columns.join(', ')}) VALUES ${Array<string>(rowCount).fill(tuple).join(', ')} ` +
-    `ON CONFLICT (station_id, epoch_ms, source) DO UPDATE SET ${valueColumns.map((c) => `${c} = excluded.${c}`).join(', ')} ` +
+    `ON CONFLICT (station_id, source, epoch_ms) DO UPDATE SET ${valueColumns.map((c) => `${c} = excluded.${c}`).join(', ')} ` +
     `WHERE ${valueColumns.map((c) => `${c} IS NOT excluded.${c}`).join(' OR ')}`
   );
 }
@@ -146,8 +153,13 @@ interface SeriesWriter {
   batch: Database.Statement;
   /** Upsert of one row (the tail of a write). */
   single: Database.Statement;
-  /** Rows of a station in an inclusive epoch range, all sources. */
+  /** Rows of a station and source in an inclusive epoch range. */
   countRange: Database.Statement;
+  /**
+   * Widens the envelope of a (station, source[, fingerprint]) to [first, last] or creates it; returns
+   * the segment id for delays (met_series has none).
+   */
+  envelope: Database.Statement;
   /** Bound values per row: station_id, epoch_ms, source and the value columns. */
   width: number;
 }
@@ -195,18 +207,20 @@ function putMetValues(r: MetRow, values: unknown[], o: number): void {
   values[o + 4] = r.vapourPressureHpa;
 }
 
-/** A delay row's values in the order of DELAY_VALUE_COLUMNS. */
-function putDelayValues(r: DelayRow, values: unknown[], o: number): void {
-  values[o] = r.ztdM;
-  values[o + 1] = r.ztdSigmaM;
-  values[o + 2] = r.zwdM;
-  values[o + 3] = r.zwdSigmaM;
-  values[o + 4] = r.northGradientM;
-  values[o + 5] = r.eastGradientM;
-  values[o + 6] = r.northGradientSigmaM;
-  values[o + 7] = r.eastGradientSigmaM;
-  values[o + 8] = r.modelFingerprint;
-}
+/** A delay row's values in the order of DELAY_VALUE_COLUMNS; `segments`: source → segment id of this write. */
+const putDelayValues =
+  (segments: ReadonlyMap<string, number>) =>
+  (r: DelayRow, values: unknown[], o: number): void => {
+    values[o] = r.ztdM;
+    values[o + 1] = r.ztdSigmaM;
+    values[o + 2] = r.zwdM;
+    values[o + 3] = r.zwdSigmaM;
+    values[o + 4] = r.northGradientM;
+    values[o + 5] = r.eastGradientM;
+    values[o + 6] = r.northGradientSigmaM;
+    values[o + 7] = r.eastGradientSigmaM;
+    values[o + 8] = segments.get(r.source);
+  };
 
 export class SqliteRepository implements Repository {
   readonly backend = 'sqlite' as const;
@@ -261,8 +275,9 @@ export class SqliteRepository implements Repository {
       insertModelSet: this.db.prepare(
         'INSERT INTO model_sets (model_fingerprint, models_json) VALUES (?, ?) ON CONFLICT (model_fingerprint) DO NOTHING',
       ),
-      latestMet: this.db.prepare('SELECT MAX(epoch_ms) AS latest FROM met_records WHERE station_id = ?'),
-      latestDelays: this.db.prepare('SELECT MAX(epoch_ms) AS latest FROM delay_records WHERE station_id = ?'),
+      // The envelopes cover every stored row (migration 4), so their maximum is the latest epoch.
+      latestMet: this.db.prepare('SELECT MAX(last_epoch_ms) AS latest FROM met_series WHERE station_id = ?'),
+      latestDelays: this.db.prepare('SELECT MAX(last_epoch_ms) AS latest FROM delay_segments WHERE station_id = ?'),
     };
     this.metWriter = this.seriesWriter('met_records', MET_VALUE_COLUMNS);
     this.delayWriter = this.seriesWriter('delay_records', DELAY_VALUE_COLUMNS);
@@ -271,13 +286,33 @@ export class SqliteRepository implements Repository {
   private readonly metWriter: SeriesWriter;
   private readonly delayWriter: SeriesWriter;
 
-  private seriesWriter(table: 'met_records' | 'delay_records', valueColumns: readonly string[]): SeriesWriter {
+  private seriesWriter(table: SeriesTable, valueColumns: readonly string[]): SeriesWriter {
     return {
       batch: this.db.prepare(upsertSql(table, valueColumns, UPSERT_BATCH_ROWS)),
       single: this.db.prepare(upsertSql(table, valueColumns, 1)),
-      countRange: this.db.prepare(`SELECT COUNT(*) FROM ${table} WHERE station_id = ? AND epoch_ms BETWEEN ? AND ?`).pluck(),
+      countRange: this.db.prepare(`SELECT COUNT(*) FROM ${table} WHERE station_id = ? AND source = ? AND epoch_ms BETWEEN ? AND ?`).pluck(),
+      envelope: this.db.prepare(envelopeSql(table, 'sqlite')),
       width: 3 + valueColumns.length,
     };
+  }
+
+  /**
+   * Widens the envelopes of the sources of `rows` (call inside the write transaction); for delays,
+   * returns source → segment id of `fingerprint`.
+   */
+  private widenEnvelopes(
+    writer: SeriesWriter,
+    stationId: string,
+    rows: readonly { epochMs: number; source: string }[],
+    fingerprint?: string,
+  ): Map<string, number> {
+    const segments = new Map<string, number>();
+    for (const [source, [firstMs, lastMs]] of epochEnvelopes(rows)) {
+      const values = fingerprint === undefined ? [stationId, source, firstMs, lastMs] : [stationId, source, fingerprint, firstMs, lastMs];
+      if (fingerprint === undefined) writer.envelope.run(values);
+      else segments.set(source, (writer.envelope.get(values) as { segment_id: number }).segment_id);
+    }
+    return segments;
   }
 
   /**
@@ -285,9 +320,9 @@ export class SqliteRepository implements Repository {
    * value columns into `values` from `offset` on, in the order of the writer's value columns.
    *
    * Counts: changes() of the upserts = inserted + updated. The transaction holds the write lock, so
-   * the only rows that appear in [first, last] epoch of `rows` meanwhile are this write's inserts:
-   * inserted = rows in that range after − before (other sources' rows count in both and cancel;
-   * an update adds none). Both counts are one walk of the primary key's index over the range.
+   * the only rows that appear in each source's [first, last] epoch of `rows` meanwhile are this
+   * write's inserts: inserted = rows in those ranges after − before (an update adds none). Each count
+   * is one walk of the primary key (station, source, epoch) over the range.
    */
   private upsertSeries<R extends { epochMs: number; source: string }>(
     writer: SeriesWriter,
@@ -296,13 +331,13 @@ export class SqliteRepository implements Repository {
     put: (row: R, values: unknown[], offset: number) => void,
   ): WriteCounts {
     if (rows.length === 0) return { inserted: 0, updated: 0, unchanged: 0 };
-    let firstMs = Infinity;
-    let lastMs = -Infinity;
-    for (const r of rows) {
-      if (r.epochMs < firstMs) firstMs = r.epochMs;
-      if (r.epochMs > lastMs) lastMs = r.epochMs;
-    }
-    const before = Number(writer.countRange.get(stationId, firstMs, lastMs));
+    const envelopes = epochEnvelopes(rows);
+    const countRows = () => {
+      let n = 0;
+      for (const [source, [firstMs, lastMs]] of envelopes) n += Number(writer.countRange.get(stationId, source, firstMs, lastMs));
+      return n;
+    };
+    const before = countRows();
     const { width } = writer;
     const values = new Array<unknown>(UPSERT_BATCH_ROWS * width);
     let changed = 0;
@@ -327,7 +362,7 @@ export class SqliteRepository implements Repository {
       put(r, one, 3);
       changed += writer.single.run(one).changes;
     }
-    const inserted = Number(writer.countRange.get(stationId, firstMs, lastMs)) - before;
+    const inserted = countRows() - before;
     return { inserted, updated: changed - inserted, unchanged: rows.length - changed };
   }
 
@@ -414,6 +449,7 @@ export class SqliteRepository implements Repository {
   async writeMet(stationId: string, rows: readonly MetRow[]): Promise<WriteCounts> {
     const tx = this.db.transaction(() => {
       if (!this.stmt.getStation.get(stationId)) throw new UnknownStationError(stationId);
+      this.widenEnvelopes(this.metWriter, stationId, rows);
       return this.upsertSeries(this.metWriter, stationId, rows, putMetValues);
     });
     return withConflictRetry(async () => tx.immediate());
@@ -433,7 +469,7 @@ export class SqliteRepository implements Repository {
     const tx = this.db.transaction(() => {
       if (!this.stmt.getStation.get(stationId)) throw new UnknownStationError(stationId);
       this.stmt.insertModelSet.run(modelSet.modelFingerprint, JSON.stringify(modelSet.models));
-      return this.upsertSeries(this.delayWriter, stationId, rows, putDelayValues);
+      return this.upsertDelays(stationId, rows, modelSet.modelFingerprint);
     });
     return withConflictRetry(async () => tx.immediate());
   }
@@ -445,9 +481,15 @@ export class SqliteRepository implements Repository {
     const tx = this.db.transaction(() => {
       for (const w of writes) if (!this.stmt.getStation.get(w.stationId)) throw new UnknownStationError(w.stationId);
       this.stmt.insertModelSet.run(modelSet.modelFingerprint, JSON.stringify(modelSet.models));
-      return writes.map((w) => this.upsertSeries(this.delayWriter, w.stationId, w.rows, putDelayValues));
+      return writes.map((w) => this.upsertDelays(w.stationId, w.rows, modelSet.modelFingerprint));
     });
     return withConflictRetry(async () => tx.immediate());
+  }
+
+  /** Upserts one station's delay rows under their segments (call inside the write transaction). */
+  private upsertDelays(stationId: string, rows: readonly DelayRow[], fingerprint: string): WriteCounts {
+    const segments = this.widenEnvelopes(this.delayWriter, stationId, rows, fingerprint);
+    return this.upsertSeries(this.delayWriter, stationId, rows, putDelayValues(segments));
   }
 
   async readDelays(stationId: string, range: TimeRange, source?: string): Promise<DelayRow[]> {
@@ -464,10 +506,9 @@ export class SqliteRepository implements Repository {
     range: TimeRange,
     options: PageReadOptions,
   ): AsyncGenerator<SeriesPageRows[K][], void, undefined> {
-    return seriesPages(kind, stationId, range, options, 'sqlite', (sql, values) => {
-      let statement = this.rangeStatements.get(sql);
-      if (!statement) this.rangeStatements.set(sql, (statement = this.db.prepare(sql).raw(true)));
-      return statement.all(values) as unknown[][];
+    return seriesPages(kind, stationId, range, options, 'sqlite', {
+      sources: (table, id, r) => this.sourcesOf(table, id, r),
+      fetchPage: (sql, values) => this.statement(sql).all(values) as unknown[][],
     });
   }
 
@@ -491,18 +532,18 @@ export class SqliteRepository implements Repository {
   }
 
   async countDelaySources(ranges: readonly StationRange[]): Promise<Map<string, Map<string, number>>> {
-    const statement = (this.countSourcesStatement ??= this.db
-      .prepare('SELECT source, COUNT(*) FROM delay_records WHERE station_id = ? AND epoch_ms BETWEEN ? AND ? GROUP BY source')
-      .raw(true));
+    const count = this.delayWriter.countRange;
     const out = new Map<string, Map<string, number>>();
     for (const r of ranges) {
-      const rows = statement.all(r.stationId, r.fromMs, r.toMs) as [string, number][];
-      if (rows.length) out.set(r.stationId, new Map(rows.map(([source, n]) => [source, Number(n)])));
+      const counts = new Map<string, number>();
+      for (const source of this.sourcesOf('delay_records', r.stationId, r)) {
+        const n = Number(count.get(r.stationId, source, r.fromMs, r.toMs));
+        if (n > 0) counts.set(source, n);
+      }
+      if (counts.size) out.set(r.stationId, counts);
     }
     return out;
   }
-
-  private countSourcesStatement: Database.Statement | undefined;
 
   async readDelayCoverage(query: CoverageQuery): Promise<Map<string, SeriesCoverage[]>> {
     const sql = coverageSql((n) => `?${n}`, 'station_id IN (SELECT value FROM json_each(?1))');
@@ -527,21 +568,33 @@ export class SqliteRepository implements Repository {
   }
 
   /**
-   * Raw rows (station_id first) of many one-station range reads: one indexed statement per station,
+   * Raw rows (station_id first) of many one-station range reads. A network read at one epoch or one
+   * hour (every station the same range, at most NETWORK_EPOCH_READ_MAX_MS long) of delays is one walk
+   * of the epoch index (delay_records_epoch); otherwise one indexed statement per station and source,
    * run back to back (better-sqlite3 is in-process, so a loop costs no round trips).
    */
-  private readRanges(
-    table: 'met_records' | 'delay_records',
-    columns: string,
-    ranges: readonly StationRange[],
-    source?: string,
-  ): unknown[][] {
+  private readRanges(table: SeriesTable, columns: string, ranges: readonly StationRange[], source?: string): unknown[][] {
+    if (table === 'delay_records' && sharedShortRange(ranges)) return this.readAtEpochs(columns, ranges, source);
     const out: unknown[][] = [];
     const withId = `station_id, ${columns}`;
     for (const r of ranges) {
-      for (const row of this.readRange(table, withId, r.stationId, r, source)) out.push(row);
+      for (const row of this.readRange(table, withId, r.stationId, r, source, 1)) out.push(row);
     }
     return out;
+  }
+
+  /** readRanges through the epoch index: the rows of every station in the shared range, kept for the asked ones. */
+  private readAtEpochs(columns: string, ranges: readonly StationRange[], source?: string): unknown[][] {
+    const wanted = new Set(ranges.map((r) => r.stationId));
+    const rows = this.statement(networkEpochReadSql(columns, source !== undefined, 'sqlite')).all(
+      ...(source === undefined ? [ranges[0]!.fromMs, ranges[0]!.toMs] : [ranges[0]!.fromMs, ranges[0]!.toMs, source]),
+    ) as unknown[][];
+    return rows.filter((r) => wanted.has(r[0] as string));
+  }
+
+  /** The sources of a station whose envelope meets the range, ascending. */
+  private sourcesOf(table: SeriesTable, stationId: string, range: TimeRange): string[] {
+    return this.statement(sourcesSql(table, 'sqlite')).pluck().all(stationId, range.fromMs, range.toMs) as string[];
   }
 
   async putSounding(stationId: string, sounding: StoredSounding, modelSet: StoredModelSet): Promise<{ created: boolean }> {
@@ -589,21 +642,26 @@ export class SqliteRepository implements Repository {
     return { total: 1, idle: 1, waiting: 0 };
   }
 
-  private readonly rangeStatements = new Map<string, Database.Statement>();
+  private readonly statements = new Map<string, Database.Statement>();
 
-  /** Raw rows of a one-station time-range read; statements prepared once per shape. */
-  private readRange(
-    table: 'met_records' | 'delay_records',
-    columns: string,
-    stationId: string,
-    range: TimeRange,
-    source?: string,
-  ): unknown[][] {
-    const sql = rangeReadSql(table, columns, source !== undefined, 'sqlite');
-    let statement = this.rangeStatements.get(sql);
-    if (!statement) this.rangeStatements.set(sql, (statement = this.db.prepare(sql).raw(true)));
-    const values = source === undefined ? [stationId, range.fromMs, range.toMs] : [stationId, range.fromMs, range.toMs, source];
-    return statement.all(...values) as unknown[][];
+  /** A raw-mode statement of this module's SQL, prepared once per text. */
+  private statement(sql: string): Database.Statement {
+    let statement = this.statements.get(sql);
+    if (!statement) this.statements.set(sql, (statement = this.db.prepare(sql).raw(true)));
+    return statement;
+  }
+
+  /**
+   * Raw rows of a one-station time-range read ordered by (epoch, source): one primary-key range per
+   * source, merged. `epochAt`: the column of epoch_ms in `columns`.
+   */
+  private readRange(table: SeriesTable, columns: string, stationId: string, range: TimeRange, source?: string, epochAt = 0): unknown[][] {
+    const statement = this.statement(rangeReadSql(table, columns, 'sqlite'));
+    const sources = source === undefined ? this.sourcesOf(table, stationId, range) : [source];
+    return mergeSources(
+      sources.map((s) => statement.all(stationId, s, range.fromMs, range.toMs) as unknown[][]),
+      epochAt,
+    );
   }
 
   async ping(): Promise<void> {
