@@ -75,3 +75,8 @@ export const COVERAGE_DEFAULT_GAP_MIN_S = 3600;
 export const COVERAGE_GAP_MIN_RANGE_S = [60, 366 * 86_400] as const;
 export const COVERAGE_DEFAULT_MAX_GAPS = 20;
 export const COVERAGE_MAX_GAPS_LIMIT = 1000;
+
+/** Station-days (items) of one reprocessing campaign at most (src/services/campaigns; POST /v1/campaigns). */
+export const MAX_CAMPAIGN_ITEMS = 100_000;
+/** Stations named in one campaign at most. */
+export const MAX_CAMPAIGN_STATIONS = 10_000;
