@@ -102,7 +102,7 @@ export default async function campaignsBench(): Promise<string[]> {
     try {
       const rows = await db.query<{ station_id: string; day: string; n: string; f: string }>(
         `SELECT station_id, to_char(to_timestamp(epoch_ms / 1000.0) AT TIME ZONE 'UTC', 'YYYY-MM-DD') AS day, COUNT(*) AS n,
-                COUNT(DISTINCT model_fingerprint) AS f FROM "${schema}".delay_records WHERE source = 'zwd-estimates' GROUP BY 1, 2`,
+                COUNT(DISTINCT model_fingerprint) AS f FROM "${schema}".delay_rows WHERE source = 'zwd-estimates' GROUP BY 1, 2`,
       );
       const wrong = rows.rows.filter((r) => {
         const d = deposited.get(`${r.station_id}|${r.day}`);

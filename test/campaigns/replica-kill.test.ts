@@ -94,7 +94,7 @@ describe.skipIf(!TEST_PG_URL)('a campaign survives kill -9 of one of two replica
     const rows = await db.query<{ station_id: string; day: string; n: string; fingerprints: string }>(
       `SELECT station_id, to_char(to_timestamp(epoch_ms / 1000.0) AT TIME ZONE 'UTC', 'YYYY-MM-DD') AS day, COUNT(*) AS n,
               COUNT(DISTINCT model_fingerprint) AS fingerprints
-       FROM "${schema}".delay_records WHERE source = 'zwd-estimates' GROUP BY 1, 2`,
+       FROM "${schema}".delay_rows WHERE source = 'zwd-estimates' GROUP BY 1, 2`,
     );
     expect(rows.rows).toHaveLength(40);
     for (const r of rows.rows) {
