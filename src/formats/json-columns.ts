@@ -146,18 +146,18 @@ export function columnsJsonBytes(columns: Record<string, JsonColumn>): Uint8Arra
 }
 
 /**
- * JSON bytes of `answer` with `raw` (already JSON bytes) as the value of its top-level `key`, in the
- * key's place: the small rest of an answer goes through JSON.stringify, its big part is written apart.
+ * JSON bytes of `answer` with raw JSON bytes as the values of some of its top-level keys, each in its key's
+ * place: the small rest of an answer goes through JSON.stringify, its big parts are written apart.
  */
-export function jsonWithRawMember(answer: Record<string, unknown>, key: string, raw: Uint8Array): Uint8Array {
-  const marker = `\u0000raw:${key}\u0000`;
-  const text = JSON.stringify({ ...answer, [key]: marker });
-  const at = text.indexOf(JSON.stringify(marker));
-  const head = Buffer.from(text.slice(0, at), 'utf8');
-  const tail = Buffer.from(text.slice(at + JSON.stringify(marker).length), 'utf8');
-  const out = new Uint8Array(head.length + raw.length + tail.length);
-  out.set(head, 0);
-  out.set(raw, head.length);
-  out.set(tail, head.length + raw.length);
-  return out;
+export function jsonWithRawMembers(answer: Record<string, unknown>, raw: Record<string, Uint8Array>): Uint8Array {
+  const markers = Object.keys(raw).map((key) => ({ key, text: JSON.stringify(`\u0000raw:${key}\u0000`) }));
+  const text = JSON.stringify({ ...answer, ...Object.fromEntries(markers.map((m) => [m.key, JSON.parse(m.text) as string])) });
+  const parts: Uint8Array[] = [];
+  let from = 0;
+  for (const { key, at } of markers.map((m) => ({ ...m, at: text.indexOf(m.text) })).sort((a, b) => a.at - b.at)) {
+    parts.push(Buffer.from(text.slice(from, at), 'utf8'), raw[key]!);
+    from = at + markers.find((m) => m.key === key)!.text.length;
+  }
+  parts.push(Buffer.from(text.slice(from), 'utf8'));
+  return Buffer.concat(parts);
 }

@@ -8,7 +8,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { mulberry32 } from '../../scripts/synthetic-residuals.js';
-import { columnsJsonBytes, jsonWithRawMember } from '../../src/formats/json-columns.js';
+import { columnsJsonBytes, jsonWithRawMembers } from '../../src/formats/json-columns.js';
 import { roundTo } from '../../src/formats/output-precision.js';
 
 const text = (bytes: Uint8Array) => Buffer.from(bytes).toString('utf8');
@@ -46,11 +46,11 @@ describe('columnsJsonBytes against JSON.stringify of the rounded values (ECMA-26
   });
 });
 
-describe('jsonWithRawMember: raw JSON bytes in the place of one key', () => {
+describe('jsonWithRawMembers: raw JSON bytes in the place of some keys', () => {
   it('keeps the key order and the rest of the answer', () => {
     const raw = new TextEncoder().encode('{"x":[1,2]}');
-    const out = JSON.parse(text(jsonWithRawMember({ a: 1, slants: null, b: 'é' }, 'slants', raw)));
-    expect(out).toEqual({ a: 1, slants: { x: [1, 2] }, b: 'é' });
-    expect(Object.keys(out)).toEqual(['a', 'slants', 'b']);
+    const out = JSON.parse(text(jsonWithRawMembers({ a: 1, slants: null, b: 'é', c: [] }, { c: raw, slants: raw })));
+    expect(out).toEqual({ a: 1, slants: { x: [1, 2] }, b: 'é', c: { x: [1, 2] } });
+    expect(Object.keys(out)).toEqual(['a', 'slants', 'b', 'c']);
   });
 });

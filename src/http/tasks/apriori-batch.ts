@@ -24,7 +24,7 @@ import { precipitableWater } from '../../domain/water-vapour/precipitable-water.
 import { aprioriZenithDelays } from '../../domain/zenith/apriori.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import { FormatError } from '../../formats/format-error.js';
-import { columnsJsonBytes, jsonWithRawMember } from '../../formats/json-columns.js';
+import { columnsJsonBytes, jsonWithRawMembers } from '../../formats/json-columns.js';
 import { issuesToFieldErrors } from '../field-errors.js';
 import { checkCoefficients, mappingFactorsRequest } from '../schemas/mapping-factors.js';
 import { precipitableWaterRequest } from '../schemas/precipitable-water.js';
@@ -459,7 +459,7 @@ export async function handleSlantDelaysRequest(input: BatchTaskInput): Promise<T
     const answer = { zenith, ...met, slants: null as unknown, geoid_undulation_m, ...others };
     if (shape.shape === 'columns') {
       // The columns are written as bytes in one pass (json-columns.ts), the small rest by JSON.stringify.
-      const json = jsonWithRawMember(answer, 'slants', columnsJsonBytes(jsonColumnsOf(columns, shape.fields, SLANT_FIELDS)));
+      const json = jsonWithRawMembers(answer, { slants: columnsJsonBytes(jsonColumnsOf(columns, shape.fields, SLANT_FIELDS)) });
       return { ok: true, output: { json, observations } };
     }
     answer.slants = slantEntries(columns, shape.fields ?? SLANT_FIELD_NAMES);
