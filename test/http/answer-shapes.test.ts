@@ -424,7 +424,7 @@ describe('estimation answers as columns and Arrow (shape, fields, Accept)', () =
     const ztd = table.getChild('ztd_m')!.toArray() as Float64Array;
     rows.series.forEach((e: { ztd_m: number }, i: number) => expect(ztd[i]).toBe(e.ztd_m));
     const rest = JSON.parse(table.schema.metadata.get('answer')!);
-    expectColumnsOfRows(rest.zwd_nodes, rows.zwd_nodes, PRECISION.zwd_nodes);
+    expectColumnsOfRows(rest.zwd_nodes, rows.zwd_nodes, PRECISION.zwd_nodes!);
     expect(rest.series).toBeUndefined();
     expect(rest.model_fingerprint).toBe(rows.model_fingerprint);
   });

@@ -20,7 +20,7 @@ import { CallerError } from '../../services/caller-error.js';
 import { storedMetAtAntenna, type MetColumns } from '../../services/station-met.js';
 import type { DelayColumns } from '../../services/zwd-estimation.js';
 import type { DelayRow, Repository, Station, WriteCounts } from '../../storage/repository.js';
-import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, sentQueryKeys, transferOf } from '../raw-body.js';
+import { asBuffer, bodyInWorkerValidator, readEstimationBodies, rawBodyOf, sentQueryKeys, transferOf } from '../raw-body.js';
 import { answerShapeOf } from '../answer-shape.js';
 import { problemSchema } from '../schemas/common.js';
 import { tableAnswer } from '../table-answer.js';
@@ -91,7 +91,7 @@ export function delayRows(c: DelayColumns, source: string, modelFingerprint: str
 }
 
 const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
-  keepJsonBodiesAsBytes(app);
+  readEstimationBodies(app, MAX_OBSERVATIONS);
   app.post(
     '/v1/stations/:station_id/zwd-estimates',
     {

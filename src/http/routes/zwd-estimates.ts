@@ -4,7 +4,7 @@
  */
 
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, sentQueryKeys, transferOf } from '../raw-body.js';
+import { asBuffer, bodyInWorkerValidator, readEstimationBodies, rawBodyOf, sentQueryKeys, transferOf } from '../raw-body.js';
 import { answerShapeOf, ARROW_STREAM_TYPE } from '../answer-shape.js';
 import { problemSchema } from '../schemas/common.js';
 import {
@@ -17,7 +17,7 @@ import {
 } from '../schemas/zwd-estimates.js';
 
 const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
-  keepJsonBodiesAsBytes(app);
+  readEstimationBodies(app, MAX_OBSERVATIONS);
   app.post(
     '/v1/zwd-estimates',
     {
