@@ -7,7 +7,7 @@
  * the object form's field, and names the column and the row.
  */
 
-import { tableFromArrays, tableFromIPC, tableToIPC, type Table } from 'apache-arrow';
+import { Float64, tableFromArrays, tableFromIPC, tableToIPC, vectorFromArray, type Table } from 'apache-arrow';
 import { describe, expect, it } from 'vitest';
 import { generateSyntheticResiduals, mulberry32, toRequestBody } from '../../scripts/synthetic-residuals.js';
 import { OFFLOAD_BODY_BYTES } from '../../src/limits.js';
@@ -236,6 +236,21 @@ describe('POST /v1/slant-delays in columns and Arrow', () => {
           ).body,
         ),
       ).toEqual(['directions.elevation_deg.1']);
+    });
+
+    it('a null in an Arrow number column is refused as in JSON (it was read as 0, a valid azimuth)', async () => {
+      const azimuths = directions.slice(0, 3).map((d, i) => (i === 1 ? null : d.azimuth_deg));
+      const table = tableFromArrays({
+        elevation_deg: Float64Array.from(directions.slice(0, 3), (d) => d.elevation_deg),
+        azimuth_deg: vectorFromArray(azimuths, new Float64()),
+      }) as Table;
+      table.schema.metadata.set('request', JSON.stringify(base));
+      const res = await api()
+        .post('/v1/slant-delays')
+        .set('content-type', ARROW)
+        .send(Buffer.from(tableToIPC(table, 'stream')))
+        .expect(400);
+      expect(problemFields(res.body)).toEqual(['directions.azimuth_deg.1']);
     });
 
     it('an unknown field in `fields`, an unknown shape, a body that is not Arrow', async () => {
