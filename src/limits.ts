@@ -53,6 +53,17 @@ export const STORED_GRADIENT_RANGE_M = [-0.05, 0.05] as const;
  */
 export const OFFLOAD_BODY_BYTES = 128 * 1024;
 /**
+ * What a byte of an a-priori batch costs on the event loop, by the form of its rows, relative to a
+ * byte of rows as JSON objects (the form OFFLOAD_BODY_BYTES was set for). A body stays on the loop
+ * while its bytes × this weight ≤ OFFLOAD_BODY_BYTES, so every form holds the loop about as long.
+ * Measured (issue 14, CPU time of the whole task in-process, slant delays, 2 000–10 000 directions,
+ * load average 10–15): JSON objects ~75 ns/byte (parse, zod per row, stringify), JSON column arrays
+ * ~32 ns/byte (one check loop, numbers written in one pass), Arrow IPC ~14 ns/byte (typed columns,
+ * no parse). So 10 000 directions as columns (~250 kB) or Arrow (~160 kB) stay on the loop (the
+ * hand-over to a worker cost more than their work), the same directions as objects (~450 kB) do not.
+ */
+export const OFFLOAD_COST_PER_BYTE = { jsonRows: 1, jsonColumns: 32 / 75, arrow: 14 / 75 } as const;
+/**
  * Stations of one network estimation (POST /v1/network-estimates). The estimator's cost per epoch
  * grows as the square of the stations (every epoch's reduced matrix is dense in all stations).
  */

@@ -11,6 +11,7 @@
 import { tableFromArrays, tableToIPC, tableFromIPC, type Table } from 'apache-arrow';
 import { z } from 'zod';
 import { FormatError } from '../formats/format-error.js';
+import type { JsonColumn } from '../formats/json-columns.js';
 import { HttpProblem } from './problem.js';
 import { strictObject } from './schemas/common.js';
 
@@ -82,6 +83,20 @@ export function selectColumns(
   return out;
 }
 
+/** The selected columns with their decimals, for columnsJsonBytes (src/formats/json-columns.ts). */
+export function jsonColumnsOf(
+  columns: Record<string, ArrayLike<number> | readonly unknown[]>,
+  fields: readonly string[] | undefined,
+  decimals: FieldDecimals,
+): Record<string, JsonColumn> {
+  const out: Record<string, JsonColumn> = {};
+  for (const name of fields ?? Object.keys(columns)) {
+    const values = columns[name];
+    if (values) out[name] = { values, decimals: decimals[name] };
+  }
+  return out;
+}
+
 /** The rows as an Arrow IPC stream; `rest` (the answer without its rows) goes into the schema metadata "answer". */
 export function arrowAnswer(
   columns: Record<string, Float64Array | string[]>,
@@ -95,18 +110,42 @@ export function arrowAnswer(
   return tableToIPC(table, 'stream');
 }
 
-/** An Arrow IPC stream request: its columns, and the rest of the request from the schema metadata "request" (JSON). */
-export function readArrowRequest(bytes: Uint8Array): { columns: Record<string, unknown[]>; rest: unknown } {
+/** An Arrow column as a Float64Array when it is a number column without nulls (no copy for float64), else undefined. */
+function typedNumberColumn(vector: { nullCount: number; toArray(): unknown }): Float64Array | undefined {
+  if (vector.nullCount > 0) return undefined;
+  const values = vector.toArray();
+  if (values instanceof Float64Array) return values;
+  if (values instanceof BigInt64Array || values instanceof BigUint64Array) return Float64Array.from(values, Number);
+  // Float16 columns come as raw Uint16Array halves: left to the element-wise path.
+  const exact = [Float32Array, Int32Array, Int16Array, Int8Array, Uint32Array, Uint8Array];
+  if (exact.some((T) => values instanceof T)) return Float64Array.from(values as ArrayLike<number>);
+  return undefined;
+}
+
+/**
+ * An Arrow IPC stream request: its columns, and the rest of the request from the schema metadata "request" (JSON).
+ * With `typed`, number columns without nulls come as Float64Arrays (a float64 column without a copy), for readers
+ * that check and compute on typed columns (columns.ts accepts them); otherwise every column is a plain array
+ * (nulls as null).
+ */
+export function readArrowRequest(bytes: Uint8Array): { columns: Record<string, unknown[]>; rest: unknown };
+export function readArrowRequest(bytes: Uint8Array, typed: true): { columns: Record<string, unknown[] | Float64Array>; rest: unknown };
+export function readArrowRequest(bytes: Uint8Array, typed = false): { columns: Record<string, unknown[] | Float64Array>; rest: unknown } {
   let table: Table;
   try {
     table = tableFromIPC(bytes);
   } catch (err) {
     throw new FormatError('body', `not an Arrow IPC stream (${err instanceof Error ? err.message : String(err)})`);
   }
-  const columns: Record<string, unknown[]> = {};
+  const columns: Record<string, unknown[] | Float64Array> = {};
   for (const field of table.schema.fields) {
     const vector = table.getChild(field.name)!;
-    columns[field.name] = Array.from(vector.toArray() as ArrayLike<unknown>, (v) => (typeof v === 'bigint' ? Number(v) : v));
+    const asTyped = typed ? typedNumberColumn(vector) : undefined;
+    columns[field.name] =
+      asTyped ??
+      Array.from(vector.nullCount > 0 ? [...vector] : (vector.toArray() as ArrayLike<unknown>), (v) =>
+        typeof v === 'bigint' ? Number(v) : v,
+      );
   }
   const meta = table.schema.metadata.get('request');
   let rest: unknown = {};

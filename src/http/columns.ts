@@ -54,6 +54,23 @@ function checkerOf(schema: z.ZodType): (value: unknown) => string | undefined {
 
 export type Columns = Record<string, unknown[] | undefined>;
 
+/** A column as sent: a JSON array, or a Float64Array of an Arrow number column (readArrowRequest with `typed`). */
+type SentColumn = unknown[] | Float64Array;
+const isColumn = (v: unknown): v is SentColumn => Array.isArray(v) || v instanceof Float64Array;
+
+/**
+ * The first row of a Float64Array column outside the bounded range (one loop, no per-value call), or -1.
+ * A NaN fails every comparison, so it is caught like any out-of-range value.
+ */
+function firstOutOfRange(column: Float64Array, range: NonNullable<ReturnType<typeof numberRangeOf>>): number {
+  const { min, max, exclusiveMin } = range;
+  for (let i = 0; i < column.length; i++) {
+    const v = column[i]!;
+    if (!((exclusiveMin ? v > min : v >= min) && v <= max)) return i;
+  }
+  return -1;
+}
+
 /**
  * Checks a columnar batch: an object with one array per column, all of one length in 1..maxRows,
  * no unknown column, every value valid. Returns the columns (as sent) and the row count, or the
@@ -83,7 +100,7 @@ export function readColumns(
         errors.push({ field: `${path}.${name}`, message: `required column (an array of one value per ${noun.replace(/s$/, '')})` });
       continue;
     }
-    if (!Array.isArray(column)) {
+    if (!isColumn(column)) {
       errors.push({ field: `${path}.${name}`, message: 'must be an array' });
       continue;
     }
@@ -97,8 +114,10 @@ export function readColumns(
   if (rows < 1 || rows > maxRows) return { ok: false, errors: [{ field: path, message: `must hold 1..${maxRows} ${noun}` }] };
 
   for (const [name, spec] of Object.entries(specs)) {
-    const column = given[name] as unknown[] | undefined;
+    const column = given[name] as SentColumn | undefined;
     if (!column) continue;
+    const range = numberRangeOf(spec.schema);
+    if (column instanceof Float64Array && range && firstOutOfRange(column, range) < 0) continue; // all valid: one loop
     const check = checkerOf(spec.schema);
     for (let i = 0; i < rows; i++) {
       const v = column[i];
@@ -114,9 +133,10 @@ export function readColumns(
   return { ok: true, columns: given as Columns, rows };
 }
 
-/** A number column as a Float64Array (a missing column → undefined; null entries → NaN). */
-export function float64Column(column: unknown[] | undefined, scale = 1): Float64Array | undefined {
+/** A number column as a Float64Array (a missing column → undefined; null entries → NaN); a Float64Array at scale 1 as it is. */
+export function float64Column(column: unknown[] | Float64Array | undefined, scale = 1): Float64Array | undefined {
   if (!column) return undefined;
+  if (column instanceof Float64Array && scale === 1) return column;
   const out = new Float64Array(column.length);
   for (let i = 0; i < column.length; i++) out[i] = column[i] === null ? NaN : (column[i] as number) * scale;
   return out;

@@ -7,13 +7,77 @@
 import type { FastifyInstance, FastifyRequest, FastifySchemaCompiler } from 'fastify';
 import { validatorCompiler } from 'fastify-type-provider-zod';
 import { ARROW_STREAM_TYPE } from './answer-shape.js';
-import { HttpProblem } from './problem.js';
+import { HttpProblem, type FieldError } from './problem.js';
+import { arrowRowCounter, csvRowCounter, jsonRowCounter, type RowCounter } from './row-count.js';
 
 /** In this plugin scope, application/json (and Arrow IPC stream) bodies reach the handler as a Buffer. */
 export function keepJsonBodiesAsBytes(app: FastifyInstance): void {
   app.removeContentTypeParser('application/json');
   app.addContentTypeParser('application/json', { parseAs: 'buffer' }, (_request, body, done) => done(null, body));
   app.addContentTypeParser(ARROW_STREAM_TYPE, { parseAs: 'buffer' }, (_request, body, done) => done(null, body));
+}
+
+/**
+ * In this plugin scope (the estimation routes), JSON, Arrow and CSV bodies are read here rather than by
+ * fastify's parsers: the route's body limit is enforced, and the observations are counted while the
+ * bytes arrive (row-count.ts). Over `maxRows`, the answer is a 413 naming the limit as soon as the
+ * count passes it: the rest of the body is dropped as it comes, never held.
+ * JSON and Arrow reach the handler as a Buffer, CSV as a string, as with keepJsonBodiesAsBytes.
+ */
+export function readEstimationBodies(app: FastifyInstance, maxRows: number): void {
+  const formats: [string, () => RowCounter, boolean][] = [
+    ['application/json', jsonRowCounter, false],
+    [ARROW_STREAM_TYPE, arrowRowCounter, false],
+    ['text/csv', csvRowCounter, true],
+  ];
+  for (const [type, counterOf, asText] of formats) {
+    if (app.hasContentTypeParser(type)) app.removeContentTypeParser(type);
+    app.addContentTypeParser(type, (request, payload, done) => {
+      const limit = request.routeOptions.bodyLimit ?? app.initialConfig.bodyLimit ?? Infinity;
+      let counter: RowCounter | undefined = counterOf();
+      const chunks: Buffer[] = [];
+      let bytes = 0;
+      let finished = false;
+      // The rest of the body is not held: it is read and dropped (the client gets the answer while it sends, and
+      // a client that stops on it can keep its connection) up to the body limit, past which the socket is closed.
+      const refuse = (detail: string, errors?: FieldError[]) => {
+        finished = true;
+        chunks.length = 0;
+        // Handed to the handler (rawBodyOf throws it): an error from a parser would make fastify close the
+        // connection at once, and the client, still sending, could lose the answer to the reset.
+        done(null, new RefusedBody(new HttpProblem(413, detail, errors)));
+      };
+      payload.on('data', (chunk: Buffer) => {
+        bytes += chunk.length;
+        if (finished) {
+          if (bytes > limit) request.raw.socket.destroy();
+          return;
+        }
+        if (bytes > limit) return refuse(`request body is larger than this route accepts (${limit} bytes)`);
+        chunks.push(chunk);
+        try {
+          counter?.push(chunk);
+        } catch {
+          counter = undefined; // not readable as this format: the full reader says why
+        }
+        if (counter && counter.rows > maxRows) {
+          const message = `more than ${maxRows} observations (counted while reading, ${counter.rows} so far); split the request (at most ${maxRows} observations each)`;
+          refuse(`observations: ${message}`, [{ field: 'observations', message }]);
+        }
+      });
+      payload.on('end', () => {
+        if (finished) return;
+        finished = true;
+        const body = Buffer.concat(chunks, bytes);
+        done(null, asText ? body.toString('utf8') : body);
+      });
+      payload.on('error', (err) => {
+        if (finished) return;
+        finished = true;
+        done(err, undefined);
+      });
+    });
+  }
 }
 
 /** Route validator: params and query as usual; the body passes through (validated in the worker). */
@@ -51,8 +115,14 @@ export const transferOf = (raw: RawBody): ArrayBuffer[] => (typeof raw.body === 
 /** Bytes from a worker as a Buffer for the reply, without a copy. */
 export const asBuffer = (bytes: Uint8Array): Buffer => Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 
+/** A body refused while it was read (readEstimationBodies): the problem to answer. */
+class RefusedBody {
+  constructor(readonly problem: HttpProblem) {}
+}
+
 /** The body as bytes (JSON; movable to a worker) or text (CSV); any other content type is a 415. */
 export function rawBodyOf(request: FastifyRequest): RawBody {
+  if (request.body instanceof RefusedBody) throw request.body.problem;
   const raw = request.body as Buffer | string;
   const type = (request.headers['content-type'] ?? '').split(';')[0]!.trim().toLowerCase();
   const format = type === 'text/csv' ? 'csv' : type === 'application/json' ? 'json' : type === ARROW_STREAM_TYPE ? 'arrow' : undefined;

@@ -7,7 +7,7 @@
  * the object form's field, and names the column and the row.
  */
 
-import { tableFromArrays, tableFromIPC, tableToIPC, type Table } from 'apache-arrow';
+import { Float64, tableFromArrays, tableFromIPC, tableToIPC, vectorFromArray, Table } from 'apache-arrow';
 import { describe, expect, it } from 'vitest';
 import { generateSyntheticResiduals, mulberry32, toRequestBody } from '../../scripts/synthetic-residuals.js';
 import { OFFLOAD_BODY_BYTES } from '../../src/limits.js';
@@ -238,6 +238,21 @@ describe('POST /v1/slant-delays in columns and Arrow', () => {
       ).toEqual(['directions.elevation_deg.1']);
     });
 
+    it('a null in an Arrow number column is refused as in JSON (it was read as 0, a valid azimuth)', async () => {
+      const azimuths = directions.slice(0, 3).map((d, i) => (i === 1 ? null : d.azimuth_deg));
+      const table = new Table({
+        elevation_deg: vectorFromArray(Float64Array.from(directions.slice(0, 3), (d) => d.elevation_deg)),
+        azimuth_deg: vectorFromArray(azimuths, new Float64()),
+      });
+      table.schema.metadata.set('request', JSON.stringify(base));
+      const res = await api()
+        .post('/v1/slant-delays')
+        .set('content-type', ARROW)
+        .send(Buffer.from(tableToIPC(table, 'stream')))
+        .expect(400);
+      expect(problemFields(res.body)).toEqual(['directions.azimuth_deg.1']);
+    });
+
     it('an unknown field in `fields`, an unknown shape, a body that is not Arrow', async () => {
       const r = await api()
         .post('/v1/slant-delays?fields=total_mm')
@@ -338,6 +353,105 @@ describe('POST /v1/zwd-estimates with observations as columns or an Arrow table'
   });
 });
 
+/**
+ * Every numeric column of a columns answer against the rows answer: equal within half a unit of the
+ * documented last decimal (delays 1e-6 m, PWV 1e-4 mm, Tm 1e-4 K: src/formats/output-precision.ts);
+ * text and counts exactly; a field a row lacks is null.
+ */
+function expectColumnsOfRows(
+  columns: Record<string, unknown[]>,
+  rows: Record<string, unknown>[],
+  decimals: Record<string, number | undefined>,
+) {
+  const fields = [...new Set(rows.flatMap((r) => Object.keys(r)))];
+  expect(Object.keys(columns).sort()).toEqual(fields.sort());
+  for (const f of fields) {
+    expect(columns[f]).toHaveLength(rows.length);
+    rows.forEach((r, i) => {
+      const [want, got] = [r[f], columns[f]![i]];
+      if (typeof want === 'number') expect(Math.abs((got as number) - want)).toBeLessThanOrEqual(0.5 * 10 ** -decimals[f]! * (1 + 1e-9));
+      else expect(got).toEqual(want ?? null);
+    });
+  }
+}
+
+/** The documented decimals per field (README "Large requests"; delays 6, PWV 4, Tm 4, τ 4, counts 0). */
+const PRECISION: Record<string, Record<string, number | undefined>> = {
+  series: {
+    correction_m: 6,
+    zwd_m: 6,
+    sigma_m: 6,
+    north_gradient_m: 6,
+    east_gradient_m: 6,
+    north_gradient_sigma_m: 6,
+    east_gradient_sigma_m: 6,
+    epoch_bias_m: 6,
+    observations: 0,
+    ztd_m: 6,
+    zhd_m: 6,
+    tm_k: 4,
+    pwv_mm: 4,
+    pwv_sigma_mm: 4,
+    pwv_total_sigma_mm: 4,
+  },
+  zwd_nodes: { correction_m: 6, zwd_m: 6, sigma_m: 6, observations_nearby: 0 },
+  gradient_nodes: { north_m: 6, east_m: 6, north_sigma_m: 6, east_sigma_m: 6, observations_nearby: 0 },
+  rejected: { index: 0, residual_m: 6, fitted_residual_m: 6, normalized_residual: 4 },
+};
+
+describe('estimation answers as columns and Arrow (shape, fields, Accept)', () => {
+  const api = useApp();
+  const body = {
+    ...estimationBody,
+    met: [{ epoch: estimation.observations[0]!.epoch, pressure_hpa: 955, temperature_c: 12 }],
+    observations: estimation.observations,
+  };
+
+  it('shape=columns: every table as one array per field, equal to the rows within the documented precision', async () => {
+    const rows = (await api().post('/v1/zwd-estimates').send(body).expect(200)).body;
+    const cols = (await api().post('/v1/zwd-estimates?shape=columns').send(body).expect(200)).body;
+    for (const [table, decimals] of Object.entries(PRECISION)) expectColumnsOfRows(cols[table], rows[table], decimals);
+    expect(rows.rejected.length).toBeGreaterThan(0);
+    expect(rows.series.some((e: { pwv_mm?: number }) => e.pwv_mm !== undefined)).toBe(true);
+    // Delays at 1e-6 m: the text holds no more than six decimals.
+    expect(cols.series.ztd_m.every((x: number) => Math.abs(x * 1e6 - Math.round(x * 1e6)) < 1e-6)).toBe(true);
+    expect(cols.statistics).toEqual(rows.statistics);
+    expect(cols.model_fingerprint).toBe(rows.model_fingerprint);
+  });
+
+  it('fields selects series fields and table.field of the other tables, in rows and in columns', async () => {
+    const q = 'fields=epoch,zwd_m,zwd_nodes.sigma_m';
+    const rows = (await api().post(`/v1/zwd-estimates?${q}`).send(body).expect(200)).body;
+    const cols = (await api().post(`/v1/zwd-estimates?shape=columns&${q}`).send(body).expect(200)).body;
+    expect(Object.keys(rows.series[0])).toEqual(['epoch', 'zwd_m']);
+    expect(Object.keys(rows.zwd_nodes[0])).toEqual(['sigma_m']);
+    expect(Object.keys(cols.series)).toEqual(['epoch', 'zwd_m']);
+    expect(Object.keys(cols.zwd_nodes)).toEqual(['sigma_m']);
+    expect(Object.keys(cols.gradient_nodes)).toContain('north_m'); // a table named in no field keeps all its fields
+  });
+
+  it('Accept: Arrow answers series as the table at full precision, the rest (other tables as columns) in the metadata', async () => {
+    const rows = (await api().post('/v1/zwd-estimates').send(body).expect(200)).body;
+    const res = await api().post('/v1/zwd-estimates').set('accept', ARROW).buffer(true).parse(binaryParser).send(body).expect(200);
+    expect(res.headers['content-type']).toContain(ARROW);
+    const table = tableFromIPC(res.body as Buffer);
+    expect(table.numRows).toBe(rows.series.length);
+    const ztd = table.getChild('ztd_m')!.toArray() as Float64Array;
+    rows.series.forEach((e: { ztd_m: number }, i: number) => expect(ztd[i]).toBe(e.ztd_m));
+    const rest = JSON.parse(table.schema.metadata.get('answer')!);
+    expectColumnsOfRows(rest.zwd_nodes, rows.zwd_nodes, PRECISION.zwd_nodes!);
+    expect(rest.series).toBeUndefined();
+    expect(rest.model_fingerprint).toBe(rows.model_fingerprint);
+  });
+
+  it('an unknown field is a 400 naming the fields allowed', async () => {
+    const res = await api().post('/v1/zwd-estimates?fields=zwd_m,pwv').send(body).expect(400);
+    expect(problemFields(res.body)).toEqual(['query.fields']);
+    expect(res.body.errors[0].message).toContain('unknown field pwv');
+    expect(res.body.errors[0].message).toContain('zwd_nodes.sigma_m');
+  });
+});
+
 for (const backend of BACKENDS) {
   describe(`station estimation with observations as columns on ${backend.name}`, () => {
     const { api, auth } = useArchiveApp(backend);
@@ -360,6 +474,27 @@ for (const backend of BACKENDS) {
         .send({ ...body, observations: columnsWithGaps(estimation.observations) })
         .expect(200);
       expect(columns.body.series).toEqual(objects.body.series);
+      // The answer as columns and as Arrow: the same series, station_id and stored as in the rows answer.
+      const shaped = await api()
+        .post('/v1/stations/COL1/zwd-estimates?source=objects&shape=columns&fields=ztd_m')
+        .set('authorization', auth)
+        .send({ ...body, observations: estimation.observations })
+        .expect(200);
+      expect(shaped.body.series.ztd_m).toEqual(objects.body.series.map((e: { ztd_m: number }) => Math.round(e.ztd_m * 1e6) / 1e6));
+      expect(shaped.body.stored).toEqual({ source: 'objects', inserted: 0, updated: 0, unchanged: objects.body.series.length });
+      const arrow = await api()
+        .post('/v1/stations/COL1/zwd-estimates?source=objects')
+        .set('authorization', auth)
+        .set('accept', ARROW)
+        .buffer(true)
+        .parse(binaryParser)
+        .send({ ...body, observations: estimation.observations })
+        .expect(200);
+      const table = tableFromIPC(arrow.body as Buffer);
+      expect(Array.from(table.getChild('ztd_m')!.toArray() as Float64Array)).toEqual(
+        objects.body.series.map((e: { ztd_m: number }) => e.ztd_m),
+      );
+      expect(JSON.parse(table.schema.metadata.get('answer')!).station_id).toBe('COL1');
       const read = async (source: string) =>
         (await api().get(`/v1/stations/COL1/delays?source=${source}`).set('authorization', auth).expect(200)).body;
       const [a, b] = [await read('objects'), await read('columns')];

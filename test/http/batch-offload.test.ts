@@ -10,7 +10,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { mulberry32 } from '../../scripts/synthetic-residuals.js';
-import { OFFLOAD_BODY_BYTES } from '../../src/limits.js';
+import { OFFLOAD_BODY_BYTES, OFFLOAD_COST_PER_BYTE } from '../../src/limits.js';
 import { problemFields, useApp } from '../helpers/app.js';
 
 const site = { latitude_deg: 47.5, longitude_deg: 8.25, height_m: 420 };
@@ -126,6 +126,28 @@ describe('a-priori batches above OFFLOAD_BODY_BYTES run in the worker pool, with
     expect(big.body.records).toEqual(small.flatMap((s) => s.records));
     expect(big.body.models).toEqual(small[0].models);
     expect(big.body.warnings).toEqual(small[0].warnings);
+  });
+});
+
+describe('the loop-or-pool choice weighs the form of the rows (OFFLOAD_COST_PER_BYTE)', () => {
+  const api = useApp();
+  const common = { site, epoch, zenith: { zhd_m: 2.3, zwd_m: 0.12 } };
+  const cols = { elevation_deg: directions.map((d) => d.elevation_deg), azimuth_deg: directions.map((d) => d.azimuth_deg) };
+
+  it('4 000 directions as column arrays stay on the loop where the same directions as objects go to the pool; same answer', async () => {
+    const asColumns = { ...common, directions: cols };
+    // Above the objects' threshold in bytes, below it once weighted as column arrays.
+    expect(size(asColumns)).toBeGreaterThan(OFFLOAD_BODY_BYTES);
+    expect(size(asColumns) * OFFLOAD_COST_PER_BYTE.jsonColumns).toBeLessThanOrEqual(OFFLOAD_BODY_BYTES);
+    const before = await tasksRun(api, 'slant-delays-request');
+    const loop = await api().post('/v1/slant-delays').send(asColumns).expect(200);
+    expect(await tasksRun(api, 'slant-delays-request')).toBe(before);
+    const pool = await api()
+      .post('/v1/slant-delays')
+      .send({ ...common, directions })
+      .expect(200);
+    expect(await tasksRun(api, 'slant-delays-request')).toBe(before + 1);
+    expect(loop.body).toEqual(pool.body);
   });
 });
 

@@ -20,11 +20,13 @@ import { CallerError } from '../../services/caller-error.js';
 import { storedMetAtAntenna, type MetColumns } from '../../services/station-met.js';
 import type { DelayColumns } from '../../services/zwd-estimation.js';
 import type { DelayRow, Repository, Station, WriteCounts } from '../../storage/repository.js';
-import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, sentQueryKeys, transferOf } from '../raw-body.js';
+import { asBuffer, bodyInWorkerValidator, readEstimationBodies, rawBodyOf, sentQueryKeys, transferOf } from '../raw-body.js';
+import { answerShapeOf } from '../answer-shape.js';
 import { problemSchema } from '../schemas/common.js';
+import { tableAnswer } from '../table-answer.js';
 import { DEFAULT_ESTIMATE_SOURCE, stationZwdEstimatesQuery, stationZwdEstimatesResponse } from '../schemas/station-zwd-estimates.js';
 import { stationParams } from '../schemas/stations.js';
-import { zwdEstimationBody } from '../schemas/zwd-estimates.js';
+import { zwdEstimationBody, ZWD_ANSWER_FIELD_NAMES, ZWD_ANSWER_TABLES } from '../schemas/zwd-estimates.js';
 import { requireStation, type StationRouteOptions } from './station-common.js';
 import { DAY_MS } from './series-range.js';
 
@@ -89,7 +91,7 @@ export function delayRows(c: DelayColumns, source: string, modelFingerprint: str
 }
 
 const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
-  keepJsonBodiesAsBytes(app);
+  readEstimationBodies(app, MAX_OBSERVATIONS);
   app.post(
     '/v1/stations/:station_id/zwd-estimates',
     {
@@ -124,6 +126,7 @@ const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = asy
     },
     async (request, reply) => {
       const stationId = request.params.station_id;
+      const answer = answerShapeOf(request.query, request.headers.accept, ZWD_ANSWER_FIELD_NAMES);
       const station = await requireStation(app.repository, stationId);
       const source = request.query.source ?? DEFAULT_ESTIMATE_SOURCE;
       const sent = rawBodyOf(request);
@@ -139,11 +142,18 @@ const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = asy
           query: request.query as Record<string, unknown>,
           queryKeys: sentQueryKeys(request.raw.url),
           station: { site, storedMet },
+          answer,
         },
         transferOf(raw),
       );
       const stored = await storeDelays(app.repository, stationId, source, output);
       request.auditDetail = { source, records: stored.inserted + stored.updated + stored.unchanged, ...stored };
+      if (answer.format === 'arrow') {
+        // The worker sent the rows answer; the Arrow table is made here, with what was stored in its metadata.
+        const rows = JSON.parse(Buffer.from(output.json).toString('utf8')) as Record<string, unknown>;
+        const shaped = tableAnswer(rows, ZWD_ANSWER_TABLES, answer, { station_id: stationId, stored: { source, ...stored } });
+        return reply.type(shaped.contentType).send(asBuffer(shaped.bytes) as never);
+      }
       const tail = `,"station_id":${JSON.stringify(stationId)},"stored":${JSON.stringify({ source, ...stored })}}`;
       return reply.type('application/json').send(Buffer.concat([asBuffer(output.json), Buffer.from(tail)]) as never);
     },

@@ -4,7 +4,8 @@
  */
 
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, sentQueryKeys, transferOf } from '../raw-body.js';
+import { asBuffer, bodyInWorkerValidator, readEstimationBodies, rawBodyOf, sentQueryKeys, transferOf } from '../raw-body.js';
+import { answerShapeOf, ARROW_STREAM_TYPE } from '../answer-shape.js';
 import { problemSchema } from '../schemas/common.js';
 import {
   MAX_OBSERVATIONS,
@@ -12,10 +13,11 @@ import {
   zwdCsvQuerySchema,
   zwdEstimatesRequest,
   zwdEstimatesResponse,
+  ZWD_ANSWER_FIELD_NAMES,
 } from '../schemas/zwd-estimates.js';
 
 const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
-  keepJsonBodiesAsBytes(app);
+  readEstimationBodies(app, MAX_OBSERVATIONS);
   app.post(
     '/v1/zwd-estimates',
     {
@@ -27,6 +29,7 @@ const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
           'Formal errors of the nodes and of δw at every epoch (with the covariance of the adjacent nodes); outlier screening by the normalised residual τ = v/(σ̂0 σ_v) (Pope 1976).',
           'With met records, each epoch also gets ZHD from the measured pressure, ZWD = ZTD − ZHD, Tm (Bevis et al. 1992) and PWV (Bevis et al. 1994).',
           `Bodies: application/json (this schema) or text/csv: a table with the header row epoch,satellite,elevation_deg,azimuth_deg,residual_m[,sigma_m], with the site and options as query parameters (latitude_deg, longitude_deg, height_m required; zwd_interval_s, gradients=on|off, gradient_interval_s, ..., "null" or "off" for null). Up to ${MAX_OBSERVATIONS} observations. Body limit: ${ZWD_BODY_LIMIT_BYTES} bytes (64 MiB; 7 days of 30 s data is about 21 MB of JSON).`,
+          `Answer shapes: \`shape=rows\` (default), \`shape=columns\` (every table as one array per field, rounded to the documented precision), \`fields\` to select (fields of series, or table.field of zwd_nodes, gradient_nodes, rejected); \`Accept: ${ARROW_STREAM_TYPE}\` answers an Apache Arrow IPC stream with series as the table and the rest of the answer (the other tables as columns) as JSON in the schema metadata "answer".`,
         ].join(' '),
         tags: ['estimation'],
         querystring: zwdCsvQuerySchema,
@@ -46,11 +49,16 @@ const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
       const raw = rawBodyOf(request);
       const output = await app.compute.run(
         'zwd-estimate-request',
-        { ...raw, query: request.query as Record<string, unknown>, queryKeys: sentQueryKeys(request.raw.url) },
+        {
+          ...raw,
+          query: request.query as Record<string, unknown>,
+          queryKeys: sentQueryKeys(request.raw.url),
+          answer: answerShapeOf(request.query, request.headers.accept, ZWD_ANSWER_FIELD_NAMES),
+        },
         transferOf(raw),
       );
       // Already serialised in the worker; the bytes are sent as they are.
-      return reply.type('application/json').send(asBuffer(output.json) as never);
+      return reply.type(output.contentType ?? 'application/json').send(asBuffer(output.json) as never);
     },
   );
 };

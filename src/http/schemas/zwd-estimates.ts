@@ -26,6 +26,9 @@ import {
 } from './common.js';
 import { MAX_MET_RECORDS, MAX_OBSERVATIONS, MAX_QUERY_VALUE_CHARS } from '../../limits.js';
 import { readNumber } from '../../formats/number-text.js';
+import { OUTPUT_DECIMALS } from '../../formats/output-precision.js';
+import { answerShapeQuery } from '../answer-shape.js';
+import { tableFieldNames, type TableSpecs } from '../table-answer.js';
 import { GRADIENTS_GROUP, rangeText, ZWD_OPTIONS, type OptionSpec } from '../../services/zwd-options.js';
 
 export { MAX_INTERVAL_S, MAX_MET_RECORDS, MAX_OBSERVATIONS, ZWD_BODY_LIMIT_BYTES } from '../../limits.js';
@@ -186,6 +189,8 @@ export const zwdCsvQuerySchema = strictObject({
   apriori_zhd_m: queryParam(zwdAprioriSchema.shape.zhd_m),
   apriori_zwd_m: queryParam(zwdAprioriSchema.shape.zwd_m),
   ...zwdOptionQueryFields,
+  // The answer's shape (rows, columns, Arrow by Accept) and field selection: with JSON and CSV bodies alike.
+  ...answerShapeQuery.shape,
 });
 
 /** Query values (as validated) → the JSON `options` object they stand for. */
@@ -318,11 +323,61 @@ export const zwdStatisticsResponse = z.object({
   gradient_nodes_without_data: z.number().int(),
 });
 
+/**
+ * The row tables of an estimation answer with the decimals of each field in a columns answer (the
+ * precision table, src/formats/output-precision.ts; undefined: text; counts 0). series is the main
+ * table: the Arrow table, and its fields need no `table.` prefix in `fields` (src/http/table-answer.ts).
+ */
+const D = OUTPUT_DECIMALS;
+export const ZWD_ANSWER_TABLES: TableSpecs = {
+  main: 'series',
+  tables: {
+    series: {
+      epoch: undefined,
+      correction_m: D.m,
+      zwd_m: D.m,
+      zhd_source: undefined,
+      sigma_m: D.m,
+      north_gradient_m: D.m,
+      east_gradient_m: D.m,
+      north_gradient_sigma_m: D.m,
+      east_gradient_sigma_m: D.m,
+      epoch_bias_m: D.m,
+      observations: 0,
+      ztd_m: D.m,
+      met: undefined,
+      zhd_m: D.m,
+      tm_k: D.k,
+      pwv_mm: D.mm,
+      pwv_sigma_mm: D.mm,
+      pwv_total_sigma_mm: D.mm,
+    },
+    zwd_nodes: { epoch: undefined, correction_m: D.m, zwd_m: D.m, sigma_m: D.m, observations_nearby: 0 },
+    gradient_nodes: { epoch: undefined, north_m: D.m, east_m: D.m, north_sigma_m: D.m, east_sigma_m: D.m, observations_nearby: 0 },
+    // τ to 1e-4: far below the screening threshold (≈ 3) it is compared with.
+    rejected: { index: 0, epoch: undefined, satellite: undefined, residual_m: D.m, fitted_residual_m: D.m, normalized_residual: 4 },
+  },
+};
+
+/** Every name `fields` accepts in an estimation answer. */
+export const ZWD_ANSWER_FIELD_NAMES = tableFieldNames(ZWD_ANSWER_TABLES);
+
+/** A row table of the answer: rows (shape=rows; only the selected fields with `fields`), or one array per field (shape=columns). */
+const answerTable = <T extends z.ZodObject>(row: T, description: string) =>
+  z
+    .union([z.array(row), z.array(row.partial()), z.record(z.string(), z.array(z.union([z.number(), z.string(), z.null()])))])
+    .describe(
+      `${description}. shape=rows: one object per row (with \`fields\`: the selected fields); shape=columns: one array per field, rounded to the documented precision (delays 1e-6 m, PWV 1e-4 mm, Tm 1e-4 K), null where a row has no value`,
+    );
+
 export const zwdEstimatesResponse = z.object({
-  zwd_nodes: z.array(zwdNodeResponse),
-  gradient_nodes: z.array(gradientNodeResponse).describe('Empty when gradients are off'),
-  series: z.array(zwdSeriesEntryResponse).describe('One entry per epoch with observations above the cutoff'),
-  rejected: z.array(rejectedObservationResponse),
+  zwd_nodes: answerTable(zwdNodeResponse, 'ZWD nodes'),
+  gradient_nodes: answerTable(gradientNodeResponse, 'Gradient nodes; empty when gradients are off'),
+  series: answerTable(
+    zwdSeriesEntryResponse,
+    'One entry per epoch with observations above the cutoff (the Arrow table of an Arrow answer)',
+  ),
+  rejected: answerTable(rejectedObservationResponse, 'Observations rejected by the screening'),
   statistics: zwdStatisticsResponse,
   apriori: z.object({
     zhd_m: z.number().describe('A-priori ZHD used for ztd_m [m]'),

@@ -19,7 +19,8 @@ import type { TaskOutcome } from '../../workers/task-outcome.js';
 import type { ZwdObservationColumns } from '../../estimation/types.js';
 import { MAX_OBSERVATIONS } from '../../limits.js';
 import { observationsFromColumns, observationsFromObjects, toZwdRequest, zwdEstimatesResponseOf } from '../adapters/zwd-estimation.js';
-import { readArrowRequest } from '../answer-shape.js';
+import { readArrowRequest, type AnswerShape } from '../answer-shape.js';
+import { tableAnswer } from '../table-answer.js';
 import { columnSpecsOf, readColumns } from '../columns.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
 import { stationZwdEstimatesQuery } from '../schemas/station-zwd-estimates.js';
@@ -32,6 +33,7 @@ import {
   zwdEstimationColumnarRest,
   zwdEstimationObjectRows,
   zwdObservationSchema,
+  ZWD_ANSWER_TABLES,
   type ZwdEstimationBody,
 } from '../schemas/zwd-estimates.js';
 
@@ -41,6 +43,8 @@ export interface ZwdRequestTaskInput {
   format: 'json' | 'csv' | 'arrow';
   /** Raw query parameters (options of a CSV request). */
   query: Record<string, unknown>;
+  /** The answer's shape (answer-shape.ts: rows, columns, Arrow; `fields`); absent = rows as JSON. */
+  answer?: AnswerShape | undefined;
   /** The query parameter names as sent (raw-body.ts sentQueryKeys); absent = those of `query`. */
   queryKeys?: string[] | undefined;
   /** A station's estimation: the site is the station's (then `site` in the body is refused). */
@@ -55,10 +59,13 @@ export interface ZwdRequestTaskInput {
 
 export interface ZwdRequestTaskOutput {
   /**
-   * The answer as UTF-8 JSON (moved, not copied, to the event loop). For a station: without its
-   * closing brace, so the route appends `stored`.
+   * The answer as UTF-8 JSON or Arrow (moved, not copied, to the event loop). For a station: JSON without
+   * its closing brace, so the route appends `stored`; with an Arrow shape the whole answer as rows JSON,
+   * which the route shapes (table-answer.ts) with `stored` added.
    */
   json: Uint8Array;
+  /** The answer's media type when it is not JSON (an Arrow IPC stream). */
+  contentType?: string;
   /** Observations sent, for the metrics. */
   observations: number;
   /** A station's estimation: what to store. */
@@ -67,10 +74,15 @@ export interface ZwdRequestTaskOutput {
   models?: Record<string, string | number | boolean | null>;
 }
 
+const ROWS: AnswerShape = { shape: 'rows', format: 'json', fields: undefined };
+
 const utf8 = (text: string): Uint8Array => new TextEncoder().encode(text);
 
 const bodyText = (body: Uint8Array | string) =>
   typeof body === 'string' ? body : Buffer.from(body.buffer, body.byteOffset, body.byteLength).toString('utf8');
+
+/** Query parameters of every body type: the stored series (`source`) and the answer's shape. */
+const ANSWER_QUERY_KEYS = new Set(['source', 'shape', 'fields']);
 
 /**
  * The site, a-priori and option query parameters belong to text/csv bodies; with a JSON body they
@@ -78,7 +90,7 @@ const bodyText = (body: Uint8Array | string) =>
  * (`source`, the stored series of a station's estimation, applies to both).
  */
 function refuseCsvQueryWithJson(queryKeys: readonly string[]): void {
-  const ignored = queryKeys.filter((k) => k !== 'source');
+  const ignored = queryKeys.filter((k) => !ANSWER_QUERY_KEYS.has(k));
   if (ignored.length === 0) return;
   const errors = ignored.map((k) => ({
     field: `query.${k}`,
@@ -177,7 +189,11 @@ export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<Task
     const request = toZwdRequest(site, body, observations, station?.storedMet);
     const result = runZwdEstimation(request);
     const count = observations.epochMs.length;
-    if (!station) return { ok: true, output: { json: utf8(JSON.stringify(zwdEstimatesResponseOf(result))), observations: count } };
+    const shape = input.answer ?? ROWS;
+    if (!station) {
+      const shaped = tableAnswer(zwdEstimatesResponseOf(result), ZWD_ANSWER_TABLES, shape);
+      return { ok: true, output: { json: shaped.bytes, contentType: shaped.contentType, observations: count } };
+    }
 
     const metUsed = body.met !== undefined ? 'request' : request.met ? 'archive' : 'none';
     const metWarnings = [
@@ -190,11 +206,13 @@ export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<Task
     const delays = delayColumns(result);
     checkStorableDelays(delays);
     metWarnings.push(...checkStorableZwd(delays).map((w) => w.text));
-    const json = JSON.stringify({ ...zwdEstimatesResponseOf(result, metWarnings), met_used: metUsed });
+    const answer = { ...zwdEstimatesResponseOf(result, metWarnings), met_used: metUsed };
+    // Arrow: the route shapes the answer once it knows what was stored (the table and the rest travel as they are).
+    const json = shape.format === 'arrow' ? utf8(JSON.stringify(answer)) : tableAnswer(answer, ZWD_ANSWER_TABLES, shape).bytes;
     return {
       ok: true,
       output: {
-        json: utf8(json.slice(0, -1)),
+        json: shape.format === 'arrow' ? json : json.subarray(0, json.length - 1),
         observations: count,
         delays,
         modelFingerprint: result.modelFingerprint,

@@ -1,0 +1,152 @@
+/**
+ * The observation limit checked while the body arrives (issue 14 item 3): a body over MAX_OBSERVATIONS
+ * is refused with a 413 naming the limit before it has been sent in full, for JSON objects, JSON column
+ * arrays, CSV and an Arrow IPC stream; the counters (src/http/row-count.ts) never count more rows than
+ * the full readers do (the reference: the row count of the generated body, and apache-arrow's own reader).
+ * Memory is measured in bench/estimation-memory (RSS), not here.
+ */
+
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { RecordBatchStreamWriter, tableFromArrays, tableFromIPC, tableToIPC, type Table } from 'apache-arrow';
+import type { FastifyInstance } from 'fastify';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { buildApp } from '../../src/http/app.js';
+import { arrowRowCounter, csvRowCounter, jsonRowCounter, type RowCounter } from '../../src/http/row-count.js';
+import { MAX_OBSERVATIONS } from '../../src/limits.js';
+
+const ARROW = 'application/vnd.apache.arrow.stream';
+const site = { latitude_deg: 46.2, longitude_deg: 7.4, height_m: 520 };
+const row = { epoch: '2026-06-21T06:30:00Z', satellite: 'G05', elevation_deg: 40.5, azimuth_deg: 120, residual_m: 0.0123 };
+
+/** Feeds `text` to a counter in chunks of `size` bytes (chunk edges anywhere, also inside strings and escapes). */
+function countIn(counter: RowCounter, bytes: Uint8Array, size: number): number {
+  for (let at = 0; at < bytes.length; at += size) counter.push(bytes.subarray(at, at + size));
+  return counter.rows;
+}
+const utf8 = (text: string) => new TextEncoder().encode(text);
+
+describe('row counters: the rows of the body, whatever the chunking', () => {
+  const objects = Array.from({ length: 1234 }, (_, i) => ({ ...row, satellite: i % 7 ? 'G05' : 'E"1\\}' }));
+  const met = Array.from({ length: 50 }, () => ({ epoch: row.epoch, pressure_hpa: 950, temperature_c: 10 }));
+  for (const size of [1, 7, 4096]) {
+    it(`JSON objects and columns, met and option arrays beside them not counted (chunks of ${size} bytes)`, () => {
+      const asObjects = JSON.stringify({ site, met, options: { zwd_interval_s: 900 }, observations: objects });
+      expect(countIn(jsonRowCounter(), utf8(asObjects), size)).toBe(1234);
+      const columns = Object.fromEntries(Object.keys(row).map((k) => [k, objects.map((o) => o[k as keyof typeof row])]));
+      expect(countIn(jsonRowCounter(), utf8(JSON.stringify({ met, observations: columns, site })), size)).toBe(1234);
+    });
+    it(`CSV data lines (chunks of ${size} bytes)`, () => {
+      const csv =
+        ['epoch,satellite,elevation_deg,azimuth_deg,residual_m', ...objects.map((o) => Object.values(o).join(','))].join('\n') + '\n';
+      expect(countIn(csvRowCounter(), utf8(csv), size)).toBe(1234);
+    });
+  }
+  it('Arrow: the lengths of the record batches, several batches, read back by apache-arrow itself', () => {
+    const batch = (n: number) =>
+      tableFromArrays({ elevation_deg: Float64Array.from({ length: n }, () => 40), residual_m: new Float64Array(n) }) as Table;
+    const writer = new RecordBatchStreamWriter();
+    for (const n of [1000, 2500, 17]) for (const b of batch(n).batches) writer.write(b);
+    writer.finish();
+    const bytes = writer.toUint8Array(true);
+    expect(tableFromIPC(bytes).numRows).toBe(3517);
+    for (const size of [3, 64, 100_000]) expect(countIn(arrowRowCounter(), bytes, size)).toBe(3517);
+  });
+});
+
+describe('POST /v1/zwd-estimates over the observation limit: 413 before the body is sent in full', () => {
+  let app: FastifyInstance;
+  let port: number;
+  beforeAll(async () => {
+    app = await buildApp();
+    await app.listen({ port: 0, host: '127.0.0.1' });
+    port = (app.server.address() as AddressInfo).port;
+  });
+  afterAll(async () => {
+    await app.close();
+  });
+
+  /**
+   * Streams `head`, then `piece` again and again (up to `pieces` times) without a Content-Length, and
+   * reports the answer and how many bytes had been written when it came.
+   */
+  function stream(
+    type: string,
+    head: Uint8Array,
+    piece: Uint8Array,
+    pieces: number,
+    query = '',
+  ): Promise<{ status: number; body: string; sent: number; total: number }> {
+    return new Promise((resolve, reject) => {
+      let sent = 0;
+      let answered = false;
+      const req = http.request(
+        { port, host: '127.0.0.1', method: 'POST', path: `/v1/zwd-estimates${query}`, headers: { 'content-type': type } },
+        (res) => {
+          answered = true; // what a client does on an early answer: stop sending
+          const parts: Buffer[] = [];
+          res.on('data', (c: Buffer) => parts.push(c));
+          res.on('end', () => {
+            req.destroy();
+            resolve({ status: res.statusCode!, body: Buffer.concat(parts).toString(), sent, total: head.length + piece.length * pieces });
+          });
+        },
+      );
+      req.on('error', (err) => (answered ? undefined : reject(err)));
+      req.write(head);
+      sent += head.length;
+      let n = 0;
+      const more = () => {
+        while (!answered && n < pieces) {
+          n++;
+          sent += piece.length;
+          if (!req.write(piece)) return void req.once('drain', more);
+        }
+        if (!answered) req.end();
+      };
+      more();
+    });
+  }
+
+  const pieces = Math.ceil((MAX_OBSERVATIONS * 3) / 1000); // three times the limit, in pieces of 1 000 rows
+  const expectRefusedEarly = (r: { status: number; body: string; sent: number; total: number }) => {
+    expect(r.status).toBe(413);
+    expect(JSON.parse(r.body).errors[0]).toMatchObject({ field: 'observations' });
+    expect(JSON.parse(r.body).errors[0].message).toContain(`more than ${MAX_OBSERVATIONS} observations`);
+    expect(r.sent).toBeLessThan(r.total * 0.6); // the answer came while most of the body was still unsent
+  };
+
+  it('JSON objects', async () => {
+    const piece = utf8(Array.from({ length: 1000 }, () => JSON.stringify(row) + ',').join(''));
+    expectRefusedEarly(await stream('application/json', utf8(`{"site":${JSON.stringify(site)},"observations":[`), piece, pieces));
+  });
+
+  it('JSON column arrays', async () => {
+    const piece = utf8(Array.from({ length: 1000 }, () => '"2026-06-21T06:30:00Z",').join(''));
+    expectRefusedEarly(await stream('application/json', utf8(`{"site":${JSON.stringify(site)},"observations":{"epoch":[`), piece, pieces));
+  });
+
+  it('CSV', async () => {
+    const piece = utf8(Array.from({ length: 1000 }, () => Object.values(row).join(',') + '\n').join(''));
+    const head = utf8('epoch,satellite,elevation_deg,azimuth_deg,residual_m\n');
+    // CSV takes the site from the query.
+    const query = `?latitude_deg=${site.latitude_deg}&longitude_deg=${site.longitude_deg}&height_m=${site.height_m}`;
+    expectRefusedEarly(await stream('text/csv', head, piece, pieces, query));
+  });
+
+  it('Arrow IPC stream (record batches of 1 000 rows)', async () => {
+    const table = tableFromArrays({ elevation_deg: Float64Array.from({ length: 1000 }, () => 40) }) as Table;
+    const whole = tableToIPC(table, 'stream');
+    // The stream's schema message, then its record batch message again and again (the end marker never comes).
+    const schemaEnd = arrowSchemaLength(whole);
+    const batch = whole.subarray(schemaEnd, whole.length - 8);
+    // Ten times the limit: a batch is only ~8 kB, and the loopback socket buffers a few MB ahead of the server.
+    expectRefusedEarly(await stream(ARROW, whole.subarray(0, schemaEnd), batch, pieces * 10));
+  });
+});
+
+/** Bytes of the first message (the schema) of an Arrow IPC stream: marker, length, metadata (no body). */
+function arrowSchemaLength(bytes: Uint8Array): number {
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  return 8 + view.getInt32(4, true);
+}
