@@ -40,6 +40,7 @@ import stationMetRoute from './routes/station-met.js';
 import stationPwvRoute from './routes/station-precipitable-water.js';
 import stationZwdEstimatesRoute from './routes/station-zwd-estimates.js';
 import stationSoundingsRoute from './routes/station-soundings.js';
+import stationResidualsRoute from './routes/station-residuals.js';
 import stationsRoute from './routes/stations.js';
 import zenithDelaysRoute from './routes/zenith-delays.js';
 import zwdEstimatesRoute from './routes/zwd-estimates.js';
@@ -198,6 +199,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(stationPwvRoute, stationOptions);
   await app.register(stationZwdEstimatesRoute, stationOptions);
   await app.register(stationSoundingsRoute, stationOptions);
+  await app.register(stationResidualsRoute);
   await app.register(networkPwvRoute, stationOptions);
   await app.register(profileDelaysRoute);
   await app.register(adminKeysRoute);

@@ -11,6 +11,7 @@ import type { readDelayDepositTask, readMetJsonUploadTask } from './tasks/json-u
 import type { readMetUploadTask } from './tasks/met-upload.js';
 import type { handleNetworkRequest } from './tasks/network-request.js';
 import type { handleZwdRequest, scanZwdRequest } from './tasks/zwd-request.js';
+import type { readResidualDepositTask } from './tasks/residual-deposit.js';
 
 export type ComputeTasks = {
   /** A whole POST .../zwd-estimates request: parse, validate, estimate, serialise (and for a station, the rows to store). */
@@ -31,6 +32,8 @@ export type ComputeTasks = {
   'met-json-upload-read': typeof readMetJsonUploadTask;
   /** A large delay deposit (JSON), the same way. */
   'delay-deposit-read': typeof readDelayDepositTask;
+  /** A residual deposit (one station-day): read, check, encode in the compact stored form. */
+  'residual-deposit-read': typeof readResidualDepositTask;
 };
 
 export type ComputeTaskName = keyof ComputeTasks;
@@ -41,6 +44,7 @@ const aprioriBatchModule = new URL(`./tasks/apriori-batch.${ext}`, import.meta.u
 const networkRequestModule = new URL(`./tasks/network-request.${ext}`, import.meta.url).href;
 const metUploadModule = new URL(`./tasks/met-upload.${ext}`, import.meta.url).href;
 const jsonUploadModule = new URL(`./tasks/json-upload.${ext}`, import.meta.url).href;
+const residualDepositModule = new URL(`./tasks/residual-deposit.${ext}`, import.meta.url).href;
 
 export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
   'zwd-estimate-request': { module: zwdRequestModule, exportName: 'handleZwdRequest' },
@@ -52,4 +56,5 @@ export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
   'met-upload-read': { module: metUploadModule, exportName: 'readMetUploadTask' },
   'met-json-upload-read': { module: jsonUploadModule, exportName: 'readMetJsonUploadTask' },
   'delay-deposit-read': { module: jsonUploadModule, exportName: 'readDelayDepositTask' },
+  'residual-deposit-read': { module: residualDepositModule, exportName: 'readResidualDepositTask' },
 };

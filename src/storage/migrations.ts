@@ -82,6 +82,57 @@ export function checkSchemaCompatibility(applied: readonly AppliedMigration[], k
 export const SCHEMA_MIGRATIONS_TABLE_SQL =
   'CREATE TABLE IF NOT EXISTS schema_migrations (version INTEGER PRIMARY KEY, name TEXT NOT NULL, applied_at TEXT NOT NULL, min_reader_version INTEGER)';
 
+/**
+ * Migration 4 (src/campaigns): a station-day of residuals in its compact stored form
+ * (src/campaigns/residual-form.ts); a campaign (its options as the API's JSON and its fingerprint);
+ * one item per station-day with its state (pending → running → done | failed | cancelled), the
+ * replica and attempt token of the last claim, and the CPU time it took.
+ */
+const RESIDUALS_AND_CAMPAIGNS_SQL = `
+CREATE TABLE residual_days (
+  station_id         TEXT NOT NULL REFERENCES stations (station_id) ON DELETE CASCADE,
+  day                TEXT NOT NULL,
+  observation_count  BIGINT NOT NULL,
+  sha256             TEXT NOT NULL,
+  stored_bytes       BIGINT NOT NULL,
+  stored_at          TEXT NOT NULL,
+  data               {blob} NOT NULL,
+  PRIMARY KEY (station_id, day)
+);
+
+CREATE TABLE campaigns (
+  campaign_id        TEXT PRIMARY KEY,
+  name               TEXT,
+  state              TEXT NOT NULL,
+  start_date         TEXT NOT NULL,
+  end_date           TEXT NOT NULL,
+  options_json       TEXT NOT NULL,
+  model_fingerprint  TEXT NOT NULL,
+  source             TEXT NOT NULL,
+  created_at         TEXT NOT NULL,
+  started_at         TEXT,
+  finished_at        TEXT
+);
+
+CREATE TABLE campaign_items (
+  campaign_id        TEXT NOT NULL REFERENCES campaigns (campaign_id) ON DELETE CASCADE,
+  station_id         TEXT NOT NULL,
+  day                TEXT NOT NULL,
+  state              TEXT NOT NULL,
+  attempts           BIGINT NOT NULL DEFAULT 0,
+  claim_token        TEXT,
+  replica            TEXT,
+  residual_sha256    TEXT,
+  model_fingerprint  TEXT,
+  reason             TEXT,
+  cpu_ms             DOUBLE PRECISION,
+  finished_at_ms     BIGINT,
+  PRIMARY KEY (campaign_id, station_id, day)
+);
+
+CREATE INDEX campaign_items_state ON campaign_items (campaign_id, state);
+`;
+
 export const MIGRATIONS: readonly Migration[] = [
   {
     version: 1,
@@ -231,6 +282,16 @@ CREATE TABLE audit_events (
 CREATE INDEX audit_events_at ON audit_events (at_ms);
 CREATE INDEX audit_events_station ON audit_events (station_id, at_ms);
 `,
+    },
+  },
+  {
+    // Expand-only: three new tables, which a release of schema 3 never reads.
+    version: 4,
+    name: 'residual deposits per station-day, reprocessing campaigns and their items',
+    minReaderVersion: 3,
+    sql: {
+      sqlite: RESIDUALS_AND_CAMPAIGNS_SQL.replace('{blob}', 'BLOB'),
+      postgres: RESIDUALS_AND_CAMPAIGNS_SQL.replace('{blob}', 'BYTEA'),
     },
   },
 ];

@@ -10,6 +10,7 @@
  */
 
 import type { ModelSet } from '../domain/provenance.js';
+import type { GuardStatement, SqlExecutor } from './sql-executor.js';
 import type { AuditEvent, AuditQuery, DeletedStationMark, StoredApiKey, StoredAuditEvent } from './access-rows.js';
 
 export interface StationInput {
@@ -179,8 +180,10 @@ export interface Repository {
   /**
    * Upserts delay rows of one station and their model set in one transaction. Every row's
    * modelFingerprint must equal modelSet.modelFingerprint. Keys must be unique within `rows`.
+   * `guard` (a campaign item's "mark done"): run first in the same transaction; when it changes no
+   * row, nothing is written and GuardRefusedError is thrown (src/storage/sql-executor.ts).
    */
-  writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts>;
+  writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet, guard?: GuardStatement): Promise<WriteCounts>;
   /**
    * writeDelays for several stations under one model set in ONE transaction: every station's rows
    * are stored, or none (a network estimation). UnknownStationError when any station does not exist.
@@ -230,6 +233,9 @@ export interface Repository {
 
   /** Latest epoch stored for the station in the series [ms], or null when it is empty. */
   latestEpochMs(stationId: string, series: 'met' | 'delays'): Promise<number | null>;
+
+  /** Reads and transactional statement lists on this database, for stores with tables of their own (src/campaigns). */
+  sqlExecutor(): SqlExecutor;
 
   /** Answers when the database is reachable and its schema is at the latest migration; throws otherwise. */
   ping(): Promise<void>;

@@ -51,7 +51,7 @@ export interface RouteRole {
  * The station archive's routes: one station's series, the network reads across stations and the
  * storing network estimation (/v1/network/...; /v1/network-estimates, which stores nothing, is open).
  */
-const PROTECTED_PREFIXES = ['/v1/stations', '/v1/network/'];
+const PROTECTED_PREFIXES = ['/v1/stations', '/v1/network/', '/v1/campaigns'];
 export const WRITE_METHODS = new Set(['PUT', 'POST', 'PATCH', 'DELETE']);
 
 export interface AuthPluginOptions {

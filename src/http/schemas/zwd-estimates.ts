@@ -103,7 +103,7 @@ export const zwdObservationColumnsSchema = strictObject(
   `The observations as column arrays of equal length (1..${MAX_OBSERVATIONS}), one per field of an observation; sigma_m may be absent, or null on a row`,
 );
 
-const observationObjects = sizedArray(
+export const observationObjects = sizedArray(
   z.array(zwdObservationSchema, { error: 'must be an array of observations' }),
   MAX_OBSERVATIONS,
   'observations',

@@ -62,6 +62,7 @@ import {
   type StoredAuditEvent,
 } from '../access-rows.js';
 import { withConflictRetry } from '../errors.js';
+import { GuardRefusedError, numberedPlaceholders, type GuardStatement, type SqlExecutor, type SqlStatement } from '../sql-executor.js';
 import { positionalValues, seriesPages } from '../paged-read.js';
 import {
   DELAY_SELECT,
@@ -405,17 +406,18 @@ export class PostgresRepository implements Repository {
     return (await this.readRange('met_records', SURFACE_MET_SELECT, stationId, range, source)).map(surfaceMetFromArray);
   }
 
-  async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts> {
-    return (await this.writeDelaysMany([{ stationId, rows }], modelSet))[0]!;
+  async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet, guard?: GuardStatement): Promise<WriteCounts> {
+    return (await this.writeDelaysMany([{ stationId, rows }], modelSet, guard))[0]!;
   }
 
-  async writeDelaysMany(writes: readonly StationDelayRows[], modelSet: StoredModelSet): Promise<WriteCounts[]> {
+  async writeDelaysMany(writes: readonly StationDelayRows[], modelSet: StoredModelSet, guard?: GuardStatement): Promise<WriteCounts[]> {
     for (const w of writes)
       for (const r of w.rows)
         if (r.modelFingerprint !== modelSet.modelFingerprint) throw new Error('delay row fingerprint differs from its model set');
     return this.transaction(async (client) => {
       // Stations locked in id order, so that two writes of overlapping networks cannot deadlock.
       for (const id of [...new Set(writes.map((w) => w.stationId))].sort()) await this.lockStation(client, id);
+      if (guard && !(await client.query(numberedPlaceholders(guard.sql), [...guard.params])).rowCount) throw new GuardRefusedError();
       await client.query(
         'INSERT INTO model_sets (model_fingerprint, models_json) VALUES ($1, $2) ON CONFLICT (model_fingerprint) DO NOTHING',
         [modelSet.modelFingerprint, JSON.stringify(modelSet.models)],
@@ -480,6 +482,20 @@ export class PostgresRepository implements Repository {
       }
       return { inserted, updated: returned - inserted, unchanged: rows.length - returned };
     }
+  }
+
+  sqlExecutor(): SqlExecutor {
+    return {
+      dialect: 'postgres',
+      all: async <T>(sql: string, params: readonly unknown[] = []) =>
+        (await this.pool.query(numberedPlaceholders(sql), [...params])).rows as T[],
+      batch: (statements: readonly SqlStatement[]) =>
+        this.transaction(async (client) => {
+          const changed: number[] = [];
+          for (const s of statements) changed.push((await client.query(numberedPlaceholders(s.sql), [...s.params])).rowCount ?? 0);
+          return changed;
+        }),
+    };
   }
 
   async readDelays(stationId: string, range: TimeRange, source?: string): Promise<DelayRow[]> {

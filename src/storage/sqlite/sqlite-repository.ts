@@ -66,6 +66,7 @@ import {
   type StoredAuditEvent,
 } from '../access-rows.js';
 import { withConflictRetry } from '../errors.js';
+import { GuardRefusedError, type GuardStatement, type SqlExecutor, type SqlStatement } from '../sql-executor.js';
 import { seriesPages } from '../paged-read.js';
 import {
   DELAY_SELECT,
@@ -418,11 +419,12 @@ export class SqliteRepository implements Repository {
     return this.readRange('met_records', SURFACE_MET_SELECT, stationId, range, source).map(surfaceMetFromArray);
   }
 
-  async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet): Promise<WriteCounts> {
+  async writeDelays(stationId: string, rows: readonly DelayRow[], modelSet: StoredModelSet, guard?: GuardStatement): Promise<WriteCounts> {
     for (const r of rows)
       if (r.modelFingerprint !== modelSet.modelFingerprint) throw new Error('delay row fingerprint differs from its model set');
     const tx = this.db.transaction(() => {
       if (!this.stmt.getStation.get(stationId)) throw new UnknownStationError(stationId);
+      if (guard && this.db.prepare(guard.sql).run(...guard.params).changes === 0) throw new GuardRefusedError();
       this.stmt.insertModelSet.run(modelSet.modelFingerprint, JSON.stringify(modelSet.models));
       return this.upsertSeries(this.delayWriter, stationId, rows, putDelayValues);
     });
@@ -439,6 +441,18 @@ export class SqliteRepository implements Repository {
       return writes.map((w) => this.upsertSeries(this.delayWriter, w.stationId, w.rows, putDelayValues));
     });
     return withConflictRetry(async () => tx.immediate());
+  }
+
+  sqlExecutor(): SqlExecutor {
+    const db = this.db;
+    return {
+      dialect: 'sqlite',
+      all: async <T>(sql: string, params: readonly unknown[] = []) => db.prepare(sql).all(...params) as T[],
+      batch: async (statements: readonly SqlStatement[]) => {
+        const tx = db.transaction(() => statements.map((s) => db.prepare(s.sql).run(...s.params).changes));
+        return withConflictRetry(async () => tx.immediate());
+      },
+    };
   }
 
   async readDelays(stationId: string, range: TimeRange, source?: string): Promise<DelayRow[]> {
