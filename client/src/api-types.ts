@@ -5711,6 +5711,676 @@ export interface paths {
     patch?: never;
     trace?: never;
   };
+  '/v1/stations/{station_id}/residuals/{day}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * The residuals deposited for one station-day
+     * @description JSON column arrays sorted by epoch then satellite; `Accept: text/csv` gives the observation CSV. Role needed: read. Reads need a key of role read or above when TROPO_READ_KEYS_REQUIRED=true.
+     */
+    get: {
+      parameters: {
+        query?: never;
+        header?: never;
+        path: {
+          /** @description Station identifier: 1-32 characters of letters, digits, "-" and "_" */
+          station_id: string;
+          /** @description UTC calendar day, YYYY-MM-DD */
+          day: string;
+        };
+        cookie?: never;
+      };
+      requestBody?: never;
+      responses: {
+        /** @description Default Response */
+        200: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              station_id: string;
+              day: string;
+              /** @description The deposited observations as column arrays, sorted by epoch then satellite */
+              observations: {
+                epoch: string[];
+                satellite: string[];
+                elevation_deg: number[];
+                azimuth_deg: number[];
+                residual_m: number[];
+                /** @description Present when the deposit had sigmas; null on a row without one */
+                sigma_m?: (number | null)[];
+              };
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        400: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        401: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        403: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
+    /**
+     * Deposit the residuals of one station-day (for campaigns)
+     * @description The observations in the forms the estimation routes take: JSON `{observations: [...]}` (objects or column arrays), text/csv (the observation CSV), or an Arrow IPC stream (the table is the observations). Every epoch must lie within the UTC day (400 naming the row otherwise); each (epoch, satellite) once. Stored in a compact form (docs/campaigns.md): replaces a deposit of the same day (201 when new, 200 when replaced). `sha256` is of the canonical stored form, so the same observations sent again give the same digest. Up to 500000 observations. Body limit: 67108864 bytes. Role needed: write. Needs `Authorization: Bearer <key>` of role write or admin (401 without a key, 403 with a key of role read or one not accepted).
+     */
+    put: {
+      parameters: {
+        query?: never;
+        header?: never;
+        path: {
+          /** @description Station identifier: 1-32 characters of letters, digits, "-" and "_" */
+          station_id: string;
+          /** @description UTC calendar day, YYYY-MM-DD */
+          day: string;
+        };
+        cookie?: never;
+      };
+      requestBody: {
+        content: {
+          'application/json': {
+            /** @description The residuals of one station and one UTC day: every epoch within the day. An array of objects, or an object of column arrays */
+            observations:
+              | {
+                  /**
+                   * Format: date-time
+                   * @description Epoch, ISO 8601 date-time (UTC, e.g. 2026-03-14T12:00:00Z; an offset is converted to UTC)
+                   */
+                  epoch: string;
+                  /** @description Satellite identifier; each (epoch, satellite) pair may appear once */
+                  satellite: string;
+                  /** @description Vacuum (geometric) elevation angle; below 3° the answer carries a warning; mapping functions refuse elevations below 1° (a profile is still traced there) [deg], (0, 90] deg */
+                  elevation_deg: number;
+                  /** @description Azimuth from north through east [deg], [0, 360] deg */
+                  azimuth_deg: number;
+                  /** @description Residual formed with the a-priori troposphere (observed − computed); may contain a receiver clock [m], [-1000000, 1000000] m */
+                  residual_m: number;
+                  /** @description Standard deviation of residual_m; absent = from options.weighting and sigma0_m [m], > 0, at most 10 */
+                  sigma_m?: number;
+                }[]
+              | {
+                  epoch: string[];
+                  satellite: string[];
+                  elevation_deg: number[];
+                  azimuth_deg: number[];
+                  residual_m: number[];
+                  sigma_m: number[];
+                };
+          };
+        };
+      };
+      responses: {
+        /** @description Default Response */
+        200: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              station_id: string;
+              /** @description UTC day, YYYY-MM-DD */
+              day: string;
+              observation_count: number;
+              /** @description SHA-256 (hex) of the canonical stored form: the same observations sent again give the same digest */
+              sha256: string;
+              /** @description Size of the stored form [bytes] */
+              stored_bytes: number;
+            };
+          };
+        };
+        /** @description Default Response */
+        201: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              station_id: string;
+              /** @description UTC day, YYYY-MM-DD */
+              day: string;
+              observation_count: number;
+              /** @description SHA-256 (hex) of the canonical stored form: the same observations sent again give the same digest */
+              sha256: string;
+              /** @description Size of the stored form [bytes] */
+              stored_bytes: number;
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        400: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        401: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        403: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        413: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        415: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
+    post?: never;
+    /**
+     * Delete the residuals of one station-day
+     * @description Removes the deposit for good (results stored from it stay). 404 when there is none. Role needed: admin. Needs `Authorization: Bearer <key>` of role admin (401 without a key, 403 with a key of role read or write or one not accepted).
+     */
+    delete: {
+      parameters: {
+        query?: never;
+        header?: never;
+        path: {
+          /** @description Station identifier: 1-32 characters of letters, digits, "-" and "_" */
+          station_id: string;
+          /** @description UTC calendar day, YYYY-MM-DD */
+          day: string;
+        };
+        cookie?: never;
+      };
+      requestBody?: never;
+      responses: {
+        /** @description Deleted */
+        204: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content?: never;
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        400: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        401: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        403: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/v1/stations/{station_id}/residuals': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * A station's residual deposits: one entry per day
+     * @description Optional `start` and `end` (days, inclusive) narrow the list. Role needed: read. Reads need a key of role read or above when TROPO_READ_KEYS_REQUIRED=true.
+     */
+    get: {
+      parameters: {
+        query?: {
+          /** @description First day listed (inclusive), YYYY-MM-DD */
+          start?: string;
+          /** @description Last day listed (inclusive), YYYY-MM-DD */
+          end?: string;
+        };
+        header?: never;
+        path: {
+          /** @description Station identifier: 1-32 characters of letters, digits, "-" and "_" */
+          station_id: string;
+        };
+        cookie?: never;
+      };
+      requestBody?: never;
+      responses: {
+        /** @description Default Response */
+        200: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              station_id: string;
+              days: {
+                /** @description UTC day, YYYY-MM-DD */
+                day: string;
+                observation_count: number;
+                /** @description SHA-256 (hex) of the canonical stored form: the same observations sent again give the same digest */
+                sha256: string;
+                /** @description Size of the stored form [bytes] */
+                stored_bytes: number;
+                /** @description ISO 8601 UTC of the last deposit */
+                stored_at: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        400: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        401: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        403: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
   '/v1/network/precipitable-water': {
     parameters: {
       query?: never;

@@ -16,28 +16,17 @@
 
 import { readFileSync } from 'node:fs';
 import { basename } from 'node:path';
+import type { Answer } from './api.js';
 import { partText, splitCsvByDay } from './day-split.js';
 import { SILENT, type Progress } from './progress.js';
 import { segment, type Service } from './service.js';
 import { defaultStatePath, sha256Hex, UploadState } from './upload-state.js';
 
-/** Answer of `PUT /v1/stations/{station_id}/residuals/{day}` (written against the interface of issue 14). */
-export interface ResidualDayAnswer {
-  station_id: string;
-  day: string;
-  observation_count: number;
-  sha256: string;
-  stored_bytes: number;
-}
+/** Answer of `PUT /v1/stations/{station_id}/residuals/{day}`. */
+export type ResidualDayAnswer = Answer<'/v1/stations/{station_id}/residuals/{day}', 'put'>;
 
 /** One entry of `GET /v1/stations/{station_id}/residuals`. */
-export interface ResidualDayListing {
-  day: string;
-  observation_count: number;
-  sha256: string;
-  stored_bytes: number;
-  stored_at: string;
-}
+export type ResidualDayListing = Answer<'/v1/stations/{station_id}/residuals', 'get'>['days'][number];
 
 export interface ResidualDepositOptions {
   stationId: string;
@@ -64,7 +53,10 @@ export interface ResidualDepositResult {
 
 /** The station's deposited days, by day. */
 export async function listResidualDays(service: Service, stationId: string): Promise<Map<string, ResidualDayListing>> {
-  const answer = await service.json<{ days: ResidualDayListing[] }>('GET', `/v1/stations/${segment(stationId)}/residuals`);
+  const answer = await service.json<Answer<'/v1/stations/{station_id}/residuals', 'get'>>(
+    'GET',
+    `/v1/stations/${segment(stationId)}/residuals`,
+  );
   return new Map(answer.days.map((d) => [d.day, d]));
 }
 
