@@ -119,7 +119,7 @@ export class Service {
     } else if (body !== undefined) {
       headers['content-type'] = options.contentType ?? 'application/octet-stream';
     }
-    const response = await this.fetchImpl(this.url(path, options.query), { method, headers, body: body as BodyInit | undefined });
+    const response = await this.fetchImpl(this.url(path, options.query), { method, headers, body: body as RequestInit['body'] });
     if (response.ok) return response;
     throw await problemOf(response, method, path);
   }
