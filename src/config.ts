@@ -185,6 +185,21 @@ export const configSchema = z.object({
     .describe(
       'worker threads for estimations, 1..256; by default the CPU quota of the container (cgroup v2 `cpu.max`, v1 `cpu.cfs_quota_us`) rounded up, else the number of cores',
     ),
+  TROPODELAY_CAMPAIGN_CONCURRENCY: integer(0, 256)
+    .default(1)
+    .describe(
+      'campaign items (station-days) one replica estimates at once, 0..256; 0 = this replica takes no campaign items (it still accepts campaigns)',
+    ),
+  TROPODELAY_CAMPAIGN_ITEM_TIMEOUT_S: integer(5, 86_400)
+    .default(600)
+    .describe(
+      "a campaign item not finished after this long is given to another replica [s], 5..86 400 (PostgreSQL; a killed replica's items wait this long); longer than one station-day takes",
+    ),
+  TROPODELAY_REPLICA_NAME: z
+    .string()
+    .regex(/^[A-Za-z0-9._:@-]{1,64}$/, { error: 'must be 1-64 characters of letters, digits and . _ : @ -' })
+    .optional()
+    .describe('name of this replica in campaign progress and reports; default host name and process id'),
   ESTIMATION_QUEUE_LIMIT: integer(0, 10_000)
     .default(32)
     .describe('estimations that may wait for a worker before new ones get 503 + Retry-After, 0..10 000'),

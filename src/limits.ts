@@ -65,3 +65,8 @@ export const MAX_NETWORK_STATIONS = 100;
  * (not built yet).
  */
 export const MAX_NETWORK_STATION_OBSERVATIONS = 5_000_000;
+
+/** Station-days (items) of one reprocessing campaign at most (src/services/campaigns; POST /v1/campaigns). */
+export const MAX_CAMPAIGN_ITEMS = 100_000;
+/** Stations named in one campaign at most. */
+export const MAX_CAMPAIGN_STATIONS = 10_000;

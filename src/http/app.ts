@@ -41,6 +41,8 @@ import stationPwvRoute from './routes/station-precipitable-water.js';
 import stationZwdEstimatesRoute from './routes/station-zwd-estimates.js';
 import stationSoundingsRoute from './routes/station-soundings.js';
 import stationResidualsRoute from './routes/station-residuals.js';
+import campaignsRoute from './routes/campaigns.js';
+import campaignsPlugin, { type CampaignSettings } from './plugins/campaigns.js';
 import stationsRoute from './routes/stations.js';
 import zenithDelaysRoute from './routes/zenith-delays.js';
 import zwdEstimatesRoute from './routes/zwd-estimates.js';
@@ -62,6 +64,8 @@ export interface ArchiveOptions {
   schedulePurge?: boolean;
   readKeysRequired: boolean;
   maxReadRangeDays: number;
+  /** Campaign items on this replica (plugins/campaigns.ts); default: one at a time. */
+  campaigns?: CampaignSettings;
 }
 
 export interface AppOptions {
@@ -93,6 +97,11 @@ export function archiveOptionsFromConfig(config: Config): ArchiveOptions {
     deleteRetentionDays: config.TROPODELAY_DELETE_RETENTION_DAYS,
     readKeysRequired: config.TROPO_READ_KEYS_REQUIRED,
     maxReadRangeDays: config.TROPO_MAX_READ_RANGE_DAYS,
+    campaigns: {
+      concurrency: config.TROPODELAY_CAMPAIGN_CONCURRENCY,
+      itemTimeoutS: config.TROPODELAY_CAMPAIGN_ITEM_TIMEOUT_S,
+      replica: config.TROPODELAY_REPLICA_NAME,
+    },
   };
 }
 
@@ -102,6 +111,7 @@ const IN_MEMORY_ARCHIVE: ArchiveOptions = {
   readKeysRequired: false,
   schedulePurge: false,
   maxReadRangeDays: DEFAULT_MAX_READ_RANGE_DAYS,
+  campaigns: { concurrency: 0 },
 };
 
 /** Bare strings as keys of role write named key-1, key-2 ... (the deprecated form). */
@@ -200,6 +210,8 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(stationZwdEstimatesRoute, stationOptions);
   await app.register(stationSoundingsRoute, stationOptions);
   await app.register(stationResidualsRoute);
+  await app.register(campaignsPlugin, { storage: archive.storage, settings: archive.campaigns ?? {} });
+  await app.register(campaignsRoute);
   await app.register(networkPwvRoute, stationOptions);
   await app.register(profileDelaysRoute);
   await app.register(adminKeysRoute);

@@ -12,6 +12,7 @@ import type { readMetUploadTask } from './tasks/met-upload.js';
 import type { handleNetworkRequest } from './tasks/network-request.js';
 import type { handleZwdRequest, scanZwdRequest } from './tasks/zwd-request.js';
 import type { readResidualDepositTask } from './tasks/residual-deposit.js';
+import type { estimateCampaignItemTask } from './tasks/campaign-item.js';
 
 export type ComputeTasks = {
   /** A whole POST .../zwd-estimates request: parse, validate, estimate, serialise (and for a station, the rows to store). */
@@ -34,6 +35,8 @@ export type ComputeTasks = {
   'delay-deposit-read': typeof readDelayDepositTask;
   /** A residual deposit (one station-day): read, check, encode in the compact stored form. */
   'residual-deposit-read': typeof readResidualDepositTask;
+  /** One campaign item (a station-day from its deposit): estimate; the runner stores the rows. */
+  'campaign-item-estimate': typeof estimateCampaignItemTask;
 };
 
 export type ComputeTaskName = keyof ComputeTasks;
@@ -45,6 +48,7 @@ const networkRequestModule = new URL(`./tasks/network-request.${ext}`, import.me
 const metUploadModule = new URL(`./tasks/met-upload.${ext}`, import.meta.url).href;
 const jsonUploadModule = new URL(`./tasks/json-upload.${ext}`, import.meta.url).href;
 const residualDepositModule = new URL(`./tasks/residual-deposit.${ext}`, import.meta.url).href;
+const campaignItemModule = new URL(`./tasks/campaign-item.${ext}`, import.meta.url).href;
 
 export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
   'zwd-estimate-request': { module: zwdRequestModule, exportName: 'handleZwdRequest' },
@@ -57,4 +61,5 @@ export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
   'met-json-upload-read': { module: jsonUploadModule, exportName: 'readMetJsonUploadTask' },
   'delay-deposit-read': { module: jsonUploadModule, exportName: 'readDelayDepositTask' },
   'residual-deposit-read': { module: residualDepositModule, exportName: 'readResidualDepositTask' },
+  'campaign-item-estimate': { module: campaignItemModule, exportName: 'estimateCampaignItemTask' },
 };

@@ -30,6 +30,9 @@ describe('configuration from the environment', () => {
     expect(c.DB_STATEMENT_TIMEOUT_MS).toBe(30_000);
     expect(c.READY_CHECK_TIMEOUT_MS).toBe(2_000);
     expect(c.TROPO_MIN_FREE_DISK_MB).toBe(64);
+    expect(c.TROPODELAY_CAMPAIGN_CONCURRENCY).toBe(1);
+    expect(c.TROPODELAY_CAMPAIGN_ITEM_TIMEOUT_S).toBe(600);
+    expect(c.TROPODELAY_REPLICA_NAME).toBeUndefined();
   });
 
   it.each([
