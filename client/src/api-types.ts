@@ -6381,6 +6381,933 @@ export interface paths {
     patch?: never;
     trace?: never;
   };
+  '/v1/campaigns': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * The campaigns, newest first, with their progress
+     * @description Role needed: read. Reads need a key of role read or above when TROPO_READ_KEYS_REQUIRED=true.
+     */
+    get: {
+      parameters: {
+        query?: never;
+        header?: never;
+        path?: never;
+        cookie?: never;
+      };
+      requestBody?: never;
+      responses: {
+        /** @description Default Response */
+        200: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              campaigns: {
+                campaign_id: string;
+                name: string | null;
+                /**
+                 * @description finished also when some items failed: the counts say
+                 * @enum {string}
+                 */
+                state: 'queued' | 'running' | 'finished' | 'cancelled';
+                start_date: string;
+                end_date: string;
+                items_total: number;
+                items_done: number;
+                items_failed: number;
+                items_pending: number;
+                items_running: number;
+                items_cancelled: number;
+                /** @description The fingerprint of the campaign's model set: every result should carry it */
+                model_fingerprint: string;
+                created_at: string;
+                started_at: string | null;
+                finished_at: string | null;
+                replicas: {
+                  /** @description Replica name (TROPODELAY_REPLICA_NAME, else host:pid) */
+                  replica: string;
+                  items_done: number;
+                  /** @description Process CPU time of the replica while it worked on the items it finished [s] */
+                  cpu_s: number;
+                }[];
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        401: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        403: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
+    put?: never;
+    /**
+     * Submit a reprocessing campaign: one option set over the deposited residuals of stations and days
+     * @description One item per station-day with residuals deposited (PUT /v1/stations/{station_id}/residuals/{day}) in [start_date, end_date] for the stations (all stations with deposits when omitted). Every item is estimated as by POST /v1/stations/{station_id}/zwd-estimates with `options` and the station's stored met, on any replica, and stored under the source "zwd-estimates" with the campaign's fingerprint, exactly once. 202 with the campaign; 400 naming the field for bad input; 422 when no station-day in the span has residuals. Body limit: 1048576 bytes. Role needed: write. Needs `Authorization: Bearer <key>` of role write or admin (401 without a key, 403 with a key of role read or one not accepted).
+     */
+    post: {
+      parameters: {
+        query?: never;
+        header?: never;
+        path?: never;
+        cookie?: never;
+      };
+      requestBody: {
+        content: {
+          'application/json': {
+            /** @description A name for people */
+            name?: string;
+            /** @description The stations; omitted = every station with residuals deposited in the span */
+            stations?: string[];
+            /** @description First UTC day of the span, YYYY-MM-DD (inclusive) */
+            start_date: string;
+            /** @description Last UTC day of the span, YYYY-MM-DD (inclusive) */
+            end_date: string;
+            /**
+             * @description The single-station estimation options (those of POST /v1/zwd-estimates, docs/zwd-estimation.md), one set for every station-day
+             * @default {}
+             */
+            options?: {
+              /**
+               * @description Spacing Δ of the ZWD nodes of the output, on round UTC epochs jΔ (multiples of Δ since 1970-01-01T00:00Z); with parametrisation "nodes" also the spacing of the piecewise-linear model [s], (0, 2592000] s
+               * @default 300
+               */
+              zwd_interval_s?: number;
+              /**
+               * @description Random-walk density q of the ZWD: consecutive states x_{j+1} − x_j = 0 ± q √(Δt/1 h) (states at every epoch, or nodes) [m/√h], (0, 10] m/√h; null = no constraint
+               * @default 0.01
+               */
+              zwd_random_walk_m_per_sqrt_h?: number | null;
+              /**
+               * @description A-priori constraint on the first ZWD node, x_0 = 0 ± σ [m], (0, 10] m; null = none
+               * @default 0.5
+               */
+              zwd_apriori_sigma_m?: number | null;
+              /**
+               * @description Estimate one free bias per epoch (receiver clock and other common terms); pre-eliminated
+               * @default true
+               */
+              epoch_bias?: boolean;
+              /**
+               * @description σ_i of observations without sigma_m, σ² = a² + b²/sin²e: "elevation" b = sigma0_m, a = 0; "uniform" a = sigma0_m, b = 0; "elevation-components" b = sigma0_m and a = sigma_constant_m (both re-estimated with scale_sigmas); one of elevation, uniform, elevation-components
+               * @default elevation
+               * @enum {string}
+               */
+              weighting?: 'elevation' | 'uniform' | 'elevation-components';
+              /**
+               * @description σ0 of the weighting scheme (zenith standard deviation of a residual) [m], (0, 1] m
+               * @default 0.003
+               */
+              sigma0_m?: number;
+              /**
+               * @description Observations below this elevation are dropped (and counted) [deg], [0, 90) deg
+               * @default 7
+               */
+              elevation_cutoff_deg?: number;
+              /**
+               * @description Reject while the largest |normalised residual| (Pope τ = v/(σ̂0 σ_v)) exceeds k [], [2, 1000]; null = no screening
+               * @default 4
+               */
+              outlier_threshold?: number | null;
+              /**
+               * @description one-per-solution: reject the largest τ > k, re-solve, repeat. one-per-window: in each iteration also reject the largest τ > k of every stretch more than a window away from the others (nodes: max(3 ZWD intervals, 30 min); every-epoch: the smoother kernel length, 5–30 min; same result at a cost linear in the span); one of one-per-window, one-per-solution
+               * @default one-per-window
+               * @enum {string}
+               */
+              outlier_rejection?: 'one-per-window' | 'one-per-solution';
+              /**
+               * @description Screening stops after this many rejections, with a warning [], [0, 100000]
+               * @default 1000
+               */
+              max_rejections?: number;
+              /**
+               * @description Re-estimate the observation weights from the residuals (variance components: σ0, or a and b of "elevation-components") and solve again; the random-walk and a-priori constraints keep their sigmas. false = the weights as given
+               * @default true
+               */
+              scale_sigmas?: boolean;
+              /**
+               * @description a of weighting "elevation-components" (σ² = a² + b²/sin²e), the starting value when scale_sigmas re-estimates it; ignored by the other schemes [m], [0, 1] m; null = sigma0_m / 3
+               * @default null
+               */
+              sigma_constant_m?: number | null;
+              /**
+               * @description every-epoch: a random-walk state of ZWD and gradients at every epoch, nodes interpolated with the Brownian-bridge variance (formal errors hold at any node spacing). nodes: piecewise linear between the nodes (the variation between nodes is not in σ); one of every-epoch, nodes
+               * @default every-epoch
+               * @enum {string}
+               */
+              parametrisation?: 'every-epoch' | 'nodes';
+              /**
+               * @description Estimate the residuals' time correlation per satellite arc and inflate the formal errors by it (docs/zwd-estimation.md, "Formal errors")
+               * @default true
+               */
+              correlated_noise?: boolean;
+              /**
+               * @description Wet mapping function of the estimator (src/domain/mapping registry). vmf1 needs per-epoch coefficients in the JSON body's vmf1_coefficients [{epoch, a_h, a_w}], interpolated linearly in time and spanning every observation epoch (a text/csv request cannot carry them); one of niell, vmf1, chao, cosecant
+               * @default niell
+               * @enum {string}
+               */
+              wet_mapping?: 'niell' | 'vmf1' | 'chao' | 'cosecant';
+              /**
+               * @description Longest gap between met records that is interpolated across (the same setting as met_max_gap_s of the station PWV route) [s], (0, 86400] s
+               * @default 10800
+               */
+              met_max_gap_s?: number;
+              /** @default {} */
+              gradients?: {
+                /**
+                 * @description Spacing of the gradient nodes of the output (round UTC epochs; with parametrisation "nodes" the model's nodes) [s], (0, 2592000] s
+                 * @default 21600
+                 */
+                interval_s?: number;
+                /**
+                 * @description Random-walk density q of each gradient component: consecutive states x_{j+1} − x_j = 0 ± q √(Δt/1 h) [m/√h], (0, 10] m/√h; null = no constraint
+                 * @default 0.001
+                 */
+                random_walk_m_per_sqrt_h?: number | null;
+                /**
+                 * @description A-priori constraint on the first gradient node, x_0 = 0 ± σ [m], (0, 1] m; null = none
+                 * @default 0.01
+                 */
+                apriori_sigma_m?: number | null;
+              } | null;
+            };
+          };
+        };
+      };
+      responses: {
+        /** @description Default Response */
+        202: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              campaign_id: string;
+              name: string | null;
+              /**
+               * @description finished also when some items failed: the counts say
+               * @enum {string}
+               */
+              state: 'queued' | 'running' | 'finished' | 'cancelled';
+              start_date: string;
+              end_date: string;
+              items_total: number;
+              items_done: number;
+              items_failed: number;
+              items_pending: number;
+              items_running: number;
+              items_cancelled: number;
+              /** @description The fingerprint of the campaign's model set: every result should carry it */
+              model_fingerprint: string;
+              created_at: string;
+              started_at: string | null;
+              finished_at: string | null;
+              replicas: {
+                /** @description Replica name (TROPODELAY_REPLICA_NAME, else host:pid) */
+                replica: string;
+                items_done: number;
+                /** @description Process CPU time of the replica while it worked on the items it finished [s] */
+                cpu_s: number;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        400: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        401: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        403: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        422: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/v1/campaigns/{campaign_id}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * A campaign's progress: items by state, work per replica
+     * @description Role needed: read. Reads need a key of role read or above when TROPO_READ_KEYS_REQUIRED=true.
+     */
+    get: {
+      parameters: {
+        query?: never;
+        header?: never;
+        path: {
+          /** @description Campaign id (from POST /v1/campaigns) */
+          campaign_id: string;
+        };
+        cookie?: never;
+      };
+      requestBody?: never;
+      responses: {
+        /** @description Default Response */
+        200: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              campaign_id: string;
+              name: string | null;
+              /**
+               * @description finished also when some items failed: the counts say
+               * @enum {string}
+               */
+              state: 'queued' | 'running' | 'finished' | 'cancelled';
+              start_date: string;
+              end_date: string;
+              items_total: number;
+              items_done: number;
+              items_failed: number;
+              items_pending: number;
+              items_running: number;
+              items_cancelled: number;
+              /** @description The fingerprint of the campaign's model set: every result should carry it */
+              model_fingerprint: string;
+              created_at: string;
+              started_at: string | null;
+              finished_at: string | null;
+              replicas: {
+                /** @description Replica name (TROPODELAY_REPLICA_NAME, else host:pid) */
+                replica: string;
+                items_done: number;
+                /** @description Process CPU time of the replica while it worked on the items it finished [s] */
+                cpu_s: number;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        401: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        403: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/v1/campaigns/{campaign_id}/cancel': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /**
+     * Cancel a campaign
+     * @description Pending items are not started; running ones finish or are abandoned without storing anything. 409 when the campaign has already finished. Body limit: 1048576 bytes. Role needed: write. Needs `Authorization: Bearer <key>` of role write or admin (401 without a key, 403 with a key of role read or one not accepted).
+     */
+    post: {
+      parameters: {
+        query?: never;
+        header?: never;
+        path: {
+          /** @description Campaign id (from POST /v1/campaigns) */
+          campaign_id: string;
+        };
+        cookie?: never;
+      };
+      requestBody?: never;
+      responses: {
+        /** @description Default Response */
+        200: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              campaign_id: string;
+              name: string | null;
+              /**
+               * @description finished also when some items failed: the counts say
+               * @enum {string}
+               */
+              state: 'queued' | 'running' | 'finished' | 'cancelled';
+              start_date: string;
+              end_date: string;
+              items_total: number;
+              items_done: number;
+              items_failed: number;
+              items_pending: number;
+              items_running: number;
+              items_cancelled: number;
+              /** @description The fingerprint of the campaign's model set: every result should carry it */
+              model_fingerprint: string;
+              created_at: string;
+              started_at: string | null;
+              finished_at: string | null;
+              replicas: {
+                /** @description Replica name (TROPODELAY_REPLICA_NAME, else host:pid) */
+                replica: string;
+                items_done: number;
+                /** @description Process CPU time of the replica while it worked on the items it finished [s] */
+                cpu_s: number;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        401: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        403: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        409: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/v1/campaigns/{campaign_id}/report': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * A campaign's report: homogeneity of its results in the archive, exceptions, throughput
+     * @description Reads back the fingerprints the archive holds now for every station-day the campaign did: homogeneous when all carry the campaign's fingerprint; a station-day re-estimated later with other options (or gone) is an exception, as is a failed item. Role needed: read. Reads need a key of role read or above when TROPO_READ_KEYS_REQUIRED=true.
+     */
+    get: {
+      parameters: {
+        query?: never;
+        header?: never;
+        path: {
+          /** @description Campaign id (from POST /v1/campaigns) */
+          campaign_id: string;
+        };
+        cookie?: never;
+      };
+      requestBody?: never;
+      responses: {
+        /** @description Default Response */
+        200: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              campaign_id: string;
+              /**
+               * @description finished also when some items failed: the counts say
+               * @enum {string}
+               */
+              state: 'queued' | 'running' | 'finished' | 'cancelled';
+              /** @description Every station-day the campaign did holds results of its fingerprint only */
+              homogeneous: boolean;
+              model_fingerprint: string;
+              /** @description The fingerprints stored now for the station-days the campaign did, with how many station-days carry each */
+              fingerprints: {
+                fingerprint: string;
+                station_days: number;
+              }[];
+              /** @description Failed items, and done station-days whose stored results differ from the campaign (another fingerprint, or gone) */
+              exceptions: {
+                station_id: string;
+                day: string;
+                reason: string;
+                fingerprint?: string;
+              }[];
+              items: {
+                total: number;
+                done: number;
+                failed: number;
+                cancelled: number;
+                pending: number;
+                running: number;
+              };
+              throughput: {
+                /** @description Items done per second of wall-clock time from the first claim to the end (or now) */
+                station_days_per_s: number | null;
+                elapsed_s: number | null;
+                per_replica: {
+                  /** @description Replica name (TROPODELAY_REPLICA_NAME, else host:pid) */
+                  replica: string;
+                  items_done: number;
+                  /** @description Process CPU time of the replica while it worked on the items it finished [s] */
+                  cpu_s: number;
+                  /** @description Items done per second of the replica's CPU time */
+                  station_days_per_cpu_s: number | null;
+                }[];
+              };
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        401: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        403: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
   '/v1/network/precipitable-water': {
     parameters: {
       query?: never;

@@ -1,9 +1,11 @@
 /**
  * Reprocessing campaigns: submit (`POST /v1/campaigns`), follow until finished or cancelled (polling
  * `GET /v1/campaigns/{campaign_id}`), cancel (`POST …/cancel`), list, and fetch the report
- * (`GET …/report`). Shapes written against the interface of issue 14 (the routes of the campaigns work).
+ * (`GET …/report`). Types generated from the OpenAPI document (api-types.ts).
  */
 
+import type { Answer } from './api.js';
+import type { paths } from './api-types.js';
 import { SILENT, type Progress } from './progress.js';
 import { segment, type Service } from './service.js';
 
@@ -13,46 +15,14 @@ export type CampaignState = (typeof CAMPAIGN_STATES)[number];
 /** The states after which a campaign no longer changes. */
 export const FINAL_STATES: ReadonlySet<CampaignState> = new Set(['finished', 'cancelled']);
 
-export interface CampaignRequest {
-  name?: string;
-  /** Station ids; absent = every station with deposits in the span. */
-  stations?: string[];
-  /** YYYY-MM-DD, inclusive. */
-  start_date: string;
-  end_date: string;
-  /** The single-station estimation options (as in `POST /v1/zwd-estimates`). */
-  options: Record<string, unknown>;
-}
-
-export interface CampaignSubmitted {
-  campaign_id: string;
-  state: CampaignState;
-  items_total: number;
-  model_fingerprint: string;
-  created_at: string;
-}
-
-export interface CampaignStatus extends CampaignSubmitted {
-  name?: string | null;
-  items_done: number;
-  items_failed: number;
-  items_pending: number;
-  items_running: number;
-  started_at?: string | null;
-  finished_at?: string | null;
-  replicas?: Array<{ replica: string; items_done: number; cpu_s: number }>;
-}
-
-export interface CampaignReport {
-  campaign_id: string;
-  state: CampaignState;
-  homogeneous: boolean;
-  model_fingerprint: string;
-  fingerprints: Array<{ fingerprint: string; station_days: number }>;
-  exceptions: Array<{ station_id: string; day: string; reason: string; fingerprint?: string }>;
-  items: { total: number; done: number; failed: number; cancelled: number };
-  throughput: { station_days_per_s: number; per_replica: unknown[] };
-}
+/**
+ * Body of `POST /v1/campaigns`: stations (absent = every station with deposits in the span), start_date and
+ * end_date (YYYY-MM-DD, inclusive), the estimation options.
+ */
+export type CampaignRequest = NonNullable<paths['/v1/campaigns']['post']['requestBody']>['content']['application/json'];
+export type CampaignSubmitted = Answer<'/v1/campaigns', 'post'>;
+export type CampaignStatus = Answer<'/v1/campaigns/{campaign_id}', 'get'>;
+export type CampaignReport = Answer<'/v1/campaigns/{campaign_id}/report', 'get'>;
 
 const campaignPath = (id: string) => `/v1/campaigns/${segment(id)}`;
 
@@ -64,8 +34,8 @@ export function campaignStatus(service: Service, campaignId: string): Promise<Ca
   return service.json('GET', campaignPath(campaignId));
 }
 
-export async function listCampaigns(service: Service): Promise<CampaignStatus[]> {
-  return (await service.json<{ campaigns: CampaignStatus[] }>('GET', '/v1/campaigns')).campaigns;
+export async function listCampaigns(service: Service): Promise<Answer<'/v1/campaigns', 'get'>['campaigns']> {
+  return (await service.json<Answer<'/v1/campaigns', 'get'>>('GET', '/v1/campaigns')).campaigns;
 }
 
 export function cancelCampaign(service: Service, campaignId: string): Promise<CampaignStatus> {
