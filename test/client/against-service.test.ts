@@ -9,19 +9,10 @@ import { copyFileSync, existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { NetCDFReader } from 'netcdfjs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { main } from '../../client/src/cli.js';
 import { uploadMet } from '../../client/src/met-upload.js';
 import { Service, ServiceError } from '../../client/src/service.js';
 import { buildSyntheticCsv } from './synthetic-files.js';
-import {
-  adminJson,
-  capturedIo,
-  CountingProxy,
-  createStation,
-  startRunningService,
-  WRITE_KEY,
-  type RunningService,
-} from './running-service.js';
+import { adminJson, runCli, CountingProxy, createStation, startRunningService, WRITE_KEY, type RunningService } from './running-service.js';
 
 let svc: RunningService;
 beforeAll(async () => {
@@ -32,12 +23,7 @@ afterAll(async () => {
   await svc?.stop();
 });
 
-/** `tropo-client <args> --url … --key …` in this process; its exit code and captured output. */
-async function cli(args: string[], terminal = false) {
-  const io = capturedIo(terminal);
-  const code = await main([...args, '--url', svc.baseUrl, '--key', WRITE_KEY], io);
-  return { code, stdout: io.stdout.text, stderr: io.stderr.text };
-}
+const cli = (args: string[], terminal = false) => runCli(svc.baseUrl, args, terminal);
 
 /** A fixture copied into the work folder (its resume state is written next to it). */
 function workCopy(fixture: string, name = fixture.split('/').pop()!): string {

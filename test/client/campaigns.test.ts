@@ -8,8 +8,7 @@
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { main } from '../../client/src/cli.js';
-import { adminJson, capturedIo, createStation, startRunningService, WRITE_KEY, type RunningService } from './running-service.js';
+import { adminJson, createStation, startRunningService, runCli, type RunningService } from './running-service.js';
 import { buildSyntheticCsv } from './synthetic-files.js';
 
 let svc: RunningService;
@@ -26,11 +25,7 @@ afterAll(async () => {
   await svc?.stop();
 });
 
-async function cli(args: string[], terminal = false) {
-  const io = capturedIo(terminal);
-  const code = await main([...args, '--url', svc.baseUrl, '--key', WRITE_KEY], io);
-  return { code, stdout: io.stdout.text, stderr: io.stderr.text };
-}
+const cli = (args: string[], terminal = false) => runCli(svc.baseUrl, args, terminal);
 
 const SPAN = ['--start-date', '2026-03-14', '--end-date', '2026-03-15', '--stations', 'CAMP1'];
 

@@ -10,6 +10,7 @@ import { createServer, request as httpRequest, type Server } from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Writable } from 'node:stream';
+import { main } from '../../client/src/cli.js';
 import { startServerProcess, type ServerProcess } from '../helpers/server-process.js';
 
 export const WRITE_KEY = 'client-tests-writer-0123456789';
@@ -150,4 +151,11 @@ export class CapturedStream extends Writable {
 /** stdout, stderr (a terminal or not) and an empty environment for `main` of the CLI. */
 export function capturedIo(stderrIsTerminal = false): { stdout: CapturedStream; stderr: CapturedStream; env: Record<string, string> } {
   return { stdout: new CapturedStream(false), stderr: new CapturedStream(stderrIsTerminal), env: {} };
+}
+
+/** `tropo-client <args> --url <service> --key <write key>` in this process: its exit code and captured output. */
+export async function runCli(baseUrl: string, args: string[], terminal = false): Promise<{ code: number; stdout: string; stderr: string }> {
+  const io = capturedIo(terminal);
+  const code = await main([...args, '--url', baseUrl, '--key', WRITE_KEY], io);
+  return { code, stdout: io.stdout.text, stderr: io.stderr.text };
 }
