@@ -6,6 +6,7 @@
  * sent again. The expected counts are those of the input file, counted here without the client's code.
  */
 
+import { spawn } from 'node:child_process';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -17,6 +18,7 @@ import {
   capturedIo,
   CountingProxy,
   createStation,
+  runCli as runCliAt,
   startRunningService,
   WRITE_KEY,
   type RunningService,
@@ -91,6 +93,46 @@ describe('residuals-deposit: three days, interrupted and resumed', () => {
     const third = await depositResiduals(new Service({ baseUrl: proxy.url, key: WRITE_KEY }), { stationId: 'DEPO1', file });
     expect(third).toMatchObject({ daysSent: 0, daysSkipped: 3 });
     expect(proxy.count('PUT', PUTS)).toBe(0);
+  });
+
+  it('resumes after the CLI process is killed while a day is in flight', async () => {
+    await createStation(svc.baseUrl, 'DEPO2');
+    const file = join(svc.workDir, 'depo2.csv');
+    writeFileSync(file, csv);
+    proxy.reset();
+    const secondDayArrived = proxy.holdAfter('PUT', 1);
+    const child = spawn(
+      process.execPath,
+      [
+        '--import',
+        'tsx',
+        'client/src/cli.ts',
+        'residuals-deposit',
+        '--station',
+        'DEPO2',
+        '--file',
+        file,
+        '--url',
+        proxy.url,
+        '--key',
+        WRITE_KEY,
+      ],
+      { stdio: 'ignore' },
+    );
+    const exited = new Promise<NodeJS.Signals | null>((resolve) => child.once('exit', (_code, signal) => resolve(signal)));
+    await secondDayArrived;
+    child.kill('SIGKILL');
+    expect(await exited).toBe('SIGKILL');
+    const listed = await adminJson(svc.baseUrl, 'GET', '/v1/stations/DEPO2/residuals');
+    expect(listed.body.days.map((d: any) => d.day)).toEqual(['2026-03-14']);
+
+    proxy.reset();
+    const rerun = await runCliAt(proxy.url, ['residuals-deposit', '--station', 'DEPO2', '--file', file, '--json']);
+    expect(rerun.code, rerun.stderr).toBe(0);
+    expect(JSON.parse(rerun.stdout)).toMatchObject({ daysSkipped: 1, daysSent: 2 });
+    expect(proxy.count('PUT', /^\/v1\/stations\/DEPO2\/residuals\//)).toBe(2);
+    const after = await adminJson(svc.baseUrl, 'GET', '/v1/stations/DEPO2/residuals');
+    expect(after.body.days.map((d: any) => [d.day, d.observation_count])).toEqual(Object.entries(expected));
   });
 
   it('sends a day again when the file changed on that day or the service holds other content for it', async () => {

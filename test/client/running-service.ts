@@ -82,6 +82,7 @@ export async function createStation(baseUrl: string, stationId: string): Promise
 export class CountingProxy {
   readonly counts = new Map<string, number>();
   private failing: { method: string; after: number; seen: number } | undefined;
+  private holding: { method: string; after: number; seen: number; arrived: () => void } | undefined;
   private server: Server | undefined;
   url = '';
 
@@ -95,6 +96,11 @@ export class CountingProxy {
         res
           .writeHead(503, { 'content-type': 'application/problem+json' })
           .end(JSON.stringify({ title: 'Service Unavailable', status: 503 }));
+        return;
+      }
+      if (this.holding && req.method === this.holding.method && ++this.holding.seen > this.holding.after) {
+        // never forwarded, never answered: the client waits until it is killed
+        this.holding.arrived();
         return;
       }
       this.counts.set(key, (this.counts.get(key) ?? 0) + 1);
@@ -114,9 +120,20 @@ export class CountingProxy {
     this.failing = { method, after, seen: 0 };
   }
 
+  /**
+   * The first n requests of `method` pass; the next one is held (neither forwarded nor answered), as a
+   * connection that hangs. Resolves when that request has arrived.
+   */
+  holdAfter(method: string, after: number): Promise<void> {
+    return new Promise((arrived) => {
+      this.holding = { method, after, seen: 0, arrived };
+    });
+  }
+
   /** Forward everything again and forget the counts. */
   reset(): void {
     this.failing = undefined;
+    this.holding = undefined;
     this.counts.clear();
   }
 
@@ -131,6 +148,7 @@ export class CountingProxy {
   }
 
   stop(): Promise<void> {
+    this.server?.closeAllConnections();
     return new Promise((resolve) => (this.server ? this.server.close(() => resolve()) : resolve()));
   }
 }
