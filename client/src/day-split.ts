@@ -92,11 +92,18 @@ export function splitCsvByDay(text: string, fileName: string, unreadable: Unread
   const epochColumn = csvFields(header).findIndex((name) => name.trim() === 'epoch');
   if (epochColumn < 0) throw new InputFileError(`${fileName}, line ${headerIndex + 1}: the header has no epoch column (${header})`);
   const rows: Array<{ line: string; fileLine: number; day: string }> = [];
+  // every satellite of an epoch repeats the epoch text: read each text once
+  let lastEpoch: string | undefined;
+  let lastDay: string | undefined;
   for (let i = headerIndex + 1; i < lines.length; i++) {
     const line = lines[i]!;
     if (line.trim() === '') continue;
-    const epoch = csvFields(line)[epochColumn]?.trim() ?? '';
-    const day = utcDayOf(epoch) ?? (unreadable === 'keep-with-previous' ? rows.at(-1)?.day : undefined);
+    const epoch = (line.includes('"') ? csvFields(line)[epochColumn] : line.split(',', epochColumn + 1)[epochColumn])?.trim() ?? '';
+    if (epoch !== lastEpoch) {
+      lastEpoch = epoch;
+      lastDay = utcDayOf(epoch);
+    }
+    const day = lastDay ?? (unreadable === 'keep-with-previous' ? rows.at(-1)?.day : undefined);
     if (day === undefined)
       throw new InputFileError(
         `${fileName}, line ${i + 1}: epoch ${JSON.stringify(epoch)} is not an ISO 8601 date-time such as 2026-03-14T00:00:00Z`,
