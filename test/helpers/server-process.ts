@@ -50,7 +50,8 @@ export async function startServerProcess(env: Record<string, string> = {}, disca
     child,
     stop: () =>
       new Promise((resolve) => {
-        if (child.exitCode !== null) return resolve(child.exitCode);
+        // A child killed by a signal has exitCode null and signalCode set; it will not emit 'exit' again.
+        if (child.exitCode !== null || child.signalCode !== null) return resolve(child.exitCode);
         child.once('exit', (code) => resolve(code));
         child.kill('SIGTERM');
       }),
