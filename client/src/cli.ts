@@ -73,7 +73,7 @@ export async function main(
     const service = serviceOf(values, io.env);
     const progress = quiet ? SILENT : progressFor(values.progress as ProgressMode | 'auto', io.stderr);
     const outcome = await RUNNERS[parsed.spec!.name]!({ service, values, positionals, progress, io });
-    if (values.json === true) io.stdout.write(JSON.stringify(outcome.result) + '\n');
+    if (values.json === true && outcome.result !== undefined) io.stdout.write(JSON.stringify(outcome.result) + '\n');
     else if (values.quiet !== true && outcome.summary) io.stdout.write(outcome.summary + '\n');
     return outcome.failed ? 1 : 0;
   } catch (err) {

@@ -142,7 +142,8 @@ export async function uploadMet(service: Service, options: MetUploadOptions): Pr
   let done = 0;
   try {
     for (const day of days) {
-      const bodySha256 = sha256Hex(day.body);
+      // the source goes with the body: the same file under another ?source= is another upload
+      const bodySha256 = sha256Hex(`source=${options.source ?? ''}\n${day.body}`);
       if (!options.force && state.get(options.stationId, day.day)?.bodySha256 === bodySha256) {
         result.daysSkipped++;
         progress.update(++done, `${day.day} already uploaded`);

@@ -61,6 +61,9 @@ describe('met-upload: CSV, RINEX and JSON files, read back', () => {
 
     const again = JSON.parse((await cli(['met-upload', '--station', 'BRAKE', '--file', file, '--source', 'mast', '--json'])).stdout);
     expect(again).toMatchObject({ daysSent: 0, daysSkipped: 3, inserted: 0 });
+    // the same file under another source is another upload: every day sent, stored beside the first
+    const other = JSON.parse((await cli(['met-upload', '--station', 'BRAKE', '--file', file, '--source', 'mast-2', '--json'])).stdout);
+    expect(other).toMatchObject({ daysSent: 3, daysSkipped: 0, inserted: 72 });
   });
 
   it('uploads a 2-day RINEX 2.11 met file as two RINEX parts; the GPS-time warning is passed on', async () => {
@@ -163,6 +166,15 @@ describe('estimate: an estimation from a file', () => {
     const written = JSON.parse(readFileSync(out, 'utf8'));
     expect(written.zwd_nodes).toEqual((await direct.json()).zwd_nodes);
     expect(written.zwd_nodes).toHaveLength(3); // 00:00, 00:15, 00:30 (900 s nodes over half an hour)
+  });
+
+  it('without --out writes the answer alone on stdout, also with --json (one JSON document)', async () => {
+    const file = join(svc.workDir, 'stdout.csv');
+    writeFileSync(file, buildSyntheticCsv({ hours: 0.5 }));
+    const params = ['latitude_deg=46.2', 'longitude_deg=7.4', 'height_m=520', 'zwd_interval_s=900', 'gradients=off'];
+    const run = await cli(['estimate', '--file', file, ...params.flatMap((p) => ['--param', p]), '--json']);
+    expect(run.code, run.stderr).toBe(0);
+    expect(JSON.parse(run.stdout).zwd_nodes).toHaveLength(3);
   });
 
   it('passes the service’s refusal on with the field it names (exit 1)', async () => {
