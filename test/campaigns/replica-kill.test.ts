@@ -19,7 +19,7 @@ import { postgresBackend, TEST_PG_URL } from '../helpers/storage.js';
 const STATIONS = inventedStations(4);
 const DAYS = consecutiveDays('2026-05-01', 10);
 /** A killed replica's item is delivered again after this long [s]. */
-const ITEM_TIMEOUT_S = 8;
+const ITEM_TIMEOUT_S = 15;
 
 describe.skipIf(!TEST_PG_URL)('a campaign survives kill -9 of one of two replicas (PostgreSQL)', () => {
   const cleanups: (() => Promise<unknown>)[] = [];
