@@ -7,7 +7,7 @@ import globals from 'globals';
 import tseslint from 'typescript-eslint';
 
 export default tseslint.config(
-  { ignores: ['dist/', 'coverage/', 'data/', 'node_modules/', 'openapi/'] },
+  { ignores: ['dist/', 'coverage/', 'data/', 'node_modules/', 'openapi/', 'client/dist/'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
