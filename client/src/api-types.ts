@@ -1028,7 +1028,7 @@ export interface paths {
     put?: never;
     /**
      * Zenith wet delay and gradients estimated from residuals, with random-walk constraints
-     * @description Least-squares estimate of r_i = m_w(e_i) δw(t_k) + m_g(e_i) [cos a_i G_N(t_k) + sin a_i G_E(t_k)] + b_k + ε_i with Niell (1996) wet mapping at the site latitude, Chen & Herring (1997) gradient mapping (C = 0.0032), δw, G_N, G_E piecewise linear between nodes T0 + jΔ under random-walk constraints, and one free bias b_k per epoch (pre-eliminated). Formal errors of the nodes and of δw at every epoch (with the covariance of the adjacent nodes); outlier screening by the normalised residual τ = v/(σ̂0 σ_v) (Pope 1976). With met records, each epoch also gets ZHD from the measured pressure, ZWD = ZTD − ZHD, Tm (Bevis et al. 1992) and PWV (Bevis et al. 1994). Bodies: application/json (this schema) or text/csv: a table with the header row epoch,satellite,elevation_deg,azimuth_deg,residual_m[,sigma_m], with the site and options as query parameters (latitude_deg, longitude_deg, height_m required; zwd_interval_s, gradients=on|off, gradient_interval_s, ..., "null" or "off" for null). Up to 500000 observations. Body limit: 67108864 bytes (64 MiB; 7 days of 30 s data is about 21 MB of JSON).
+     * @description Least-squares estimate of r_i = m_w(e_i) δw(t_k) + m_g(e_i) [cos a_i G_N(t_k) + sin a_i G_E(t_k)] + b_k + ε_i with Niell (1996) wet mapping at the site latitude, Chen & Herring (1997) gradient mapping (C = 0.0032), δw, G_N, G_E piecewise linear between nodes T0 + jΔ under random-walk constraints, and one free bias b_k per epoch (pre-eliminated). Formal errors of the nodes and of δw at every epoch (with the covariance of the adjacent nodes); outlier screening by the normalised residual τ = v/(σ̂0 σ_v) (Pope 1976). With met records, each epoch also gets ZHD from the measured pressure, ZWD = ZTD − ZHD, Tm (Bevis et al. 1992) and PWV (Bevis et al. 1994). Bodies: application/json (this schema) or text/csv: a table with the header row epoch,satellite,elevation_deg,azimuth_deg,residual_m[,sigma_m], with the site and options as query parameters (latitude_deg, longitude_deg, height_m required; zwd_interval_s, gradients=on|off, gradient_interval_s, ..., "null" or "off" for null). Up to 500000 observations. Body limit: 67108864 bytes (64 MiB; 7 days of 30 s data is about 21 MB of JSON). Answer shapes: `shape=rows` (default), `shape=columns` (every table as one array per field, rounded to the documented precision), `fields` to select (fields of series, or table.field of zwd_nodes, gradient_nodes, rejected); `Accept: application/vnd.apache.arrow.stream` answers an Apache Arrow IPC stream with series as the table and the rest of the answer (the other tables as columns) as JSON in the schema metadata "answer".
      */
     post: {
       parameters: {
@@ -1083,6 +1083,10 @@ export interface paths {
           met_max_gap_s?: number;
           /** @description Estimate gradients (on) or not (off) */
           gradients?: 'on' | 'off';
+          /** @description rows: an array of objects (default); columns: one array per field, rounded to the documented precision */
+          shape?: 'rows' | 'columns';
+          /** @description Comma-separated per-row fields to return (default: all); applies to rows, columns and Arrow answers */
+          fields?: string;
         };
         header?: never;
         path?: never;
@@ -1279,84 +1283,178 @@ export interface paths {
           };
           content: {
             'application/json': {
-              zwd_nodes: {
-                /** @description Node epoch jΔ on round UTC epochs */
-                epoch: string;
-                /** @description Estimated correction δw to the a-priori ZWD [m] */
-                correction_m: number;
-                /** @description A-priori ZWD + correction [m] (the nodes carry no met: series[].zwd_m is ztd_m − the ZHD of its zhd_source) */
-                zwd_m: number;
-                /** @description Formal standard deviation [m] (with the Brownian-bridge variance between epochs and the correlated-noise factor) */
-                sigma_m: number;
-                /** @description Used observations within one interval of the node; 0 = the value comes from the random walk alone (a node without data) */
-                observations_nearby: number;
-              }[];
-              /** @description Empty when gradients are off */
-              gradient_nodes: {
-                epoch: string;
-                /** @description North gradient G_N [m] */
-                north_m: number;
-                /** @description East gradient G_E [m] */
-                east_m: number;
-                north_sigma_m: number;
-                east_sigma_m: number;
-                /** @description Used observations within one interval of the node; 0 = a node without data */
-                observations_nearby: number;
-              }[];
-              /** @description One entry per epoch with observations above the cutoff */
-              series: {
-                epoch: string;
-                /** @description δw interpolated between the adjacent nodes [m] */
-                correction_m: number;
-                /** @description ZWD = ztd_m − ZHD, one meaning at every epoch [m]: with met in the request, ZHD is the Saastamoinen ZHD of the surface pressure (interpolated within met_max_gap_s; across longer gaps bridged linearly, held from the nearest record beyond the records: zhd_source "met-bridged"); without met, the a-priori ZHD (zhd_source "apriori"). Continuous wherever ztd_m is */
-                zwd_m: number;
-                /**
-                 * @description Where the ZHD behind zwd_m comes from: met (measured or interpolated pressure), met-bridged (an epoch without met), apriori (a request without met)
-                 * @enum {string}
-                 */
-                zhd_source: 'met' | 'met-bridged' | 'apriori';
-                /** @description Formal standard deviation of δw (with the covariance of the adjacent nodes) [m] */
-                sigma_m: number;
-                /** @description G_N at the epoch [m]; null when gradients are off */
-                north_gradient_m: number | null;
-                /** @description G_E at the epoch [m]; null when gradients are off */
-                east_gradient_m: number | null;
-                north_gradient_sigma_m: number | null;
-                east_gradient_sigma_m: number | null;
-                /** @description Estimated epoch bias [m]; null when epoch_bias is off or all observations of the epoch were rejected */
-                epoch_bias_m: number | null;
-                /** @description Observations of the epoch used in the final solution */
-                observations: number;
-                /** @description A-priori ZHD + a-priori ZWD + δw [m] */
-                ztd_m: number;
-                /**
-                 * @description Met at this epoch: measured, interpolated or missing (only with met); "missing" epochs have no PWV and a bridged ZHD
-                 * @enum {string}
-                 */
-                met?: 'measured' | 'interpolated' | 'missing';
-                /** @description Saastamoinen ZHD of the surface pressure [m] (with met; at "missing" epochs the bridged pressure): zwd_m = ztd_m − zhd_m */
-                zhd_m?: number;
-                /** @description Weighted mean temperature, Bevis et al. (1992) [K] (with met) */
-                tm_k?: number;
-                /** @description Precipitable water vapour [mm] (with met) */
-                pwv_mm?: number;
-                /** @description Standard deviation of pwv_mm from the formal error of δw [mm] */
-                pwv_sigma_mm?: number;
-                /** @description Standard deviation of pwv_mm including the Tm regression uncertainty (4.74 K) [mm] */
-                pwv_total_sigma_mm?: number;
-              }[];
-              rejected: {
-                /** @description Index of the observation in the request (data row for CSV, 0-based) */
-                index: number;
-                epoch: string;
-                satellite: string;
-                /** @description The residual as sent [m] */
-                residual_m: number;
-                /** @description Post-fit residual when it was rejected [m] */
-                fitted_residual_m: number;
-                /** @description Pope τ = v/(σ̂0 σ_v) when it was rejected (signed) */
-                normalized_residual: number;
-              }[];
+              /** @description ZWD nodes. shape=rows: one object per row (with `fields`: the selected fields); shape=columns: one array per field, rounded to the documented precision (delays 1e-6 m, PWV 1e-4 mm, Tm 1e-4 K), null where a row has no value */
+              zwd_nodes:
+                | {
+                    /** @description Node epoch jΔ on round UTC epochs */
+                    epoch: string;
+                    /** @description Estimated correction δw to the a-priori ZWD [m] */
+                    correction_m: number;
+                    /** @description A-priori ZWD + correction [m] (the nodes carry no met: series[].zwd_m is ztd_m − the ZHD of its zhd_source) */
+                    zwd_m: number;
+                    /** @description Formal standard deviation [m] (with the Brownian-bridge variance between epochs and the correlated-noise factor) */
+                    sigma_m: number;
+                    /** @description Used observations within one interval of the node; 0 = the value comes from the random walk alone (a node without data) */
+                    observations_nearby: number;
+                  }[]
+                | {
+                    /** @description Node epoch jΔ on round UTC epochs */
+                    epoch?: string;
+                    /** @description Estimated correction δw to the a-priori ZWD [m] */
+                    correction_m?: number;
+                    /** @description A-priori ZWD + correction [m] (the nodes carry no met: series[].zwd_m is ztd_m − the ZHD of its zhd_source) */
+                    zwd_m?: number;
+                    /** @description Formal standard deviation [m] (with the Brownian-bridge variance between epochs and the correlated-noise factor) */
+                    sigma_m?: number;
+                    /** @description Used observations within one interval of the node; 0 = the value comes from the random walk alone (a node without data) */
+                    observations_nearby?: number;
+                  }[]
+                | {
+                    [key: string]: (number | string | null)[];
+                  };
+              /** @description Gradient nodes; empty when gradients are off. shape=rows: one object per row (with `fields`: the selected fields); shape=columns: one array per field, rounded to the documented precision (delays 1e-6 m, PWV 1e-4 mm, Tm 1e-4 K), null where a row has no value */
+              gradient_nodes:
+                | {
+                    epoch: string;
+                    /** @description North gradient G_N [m] */
+                    north_m: number;
+                    /** @description East gradient G_E [m] */
+                    east_m: number;
+                    north_sigma_m: number;
+                    east_sigma_m: number;
+                    /** @description Used observations within one interval of the node; 0 = a node without data */
+                    observations_nearby: number;
+                  }[]
+                | {
+                    epoch?: string;
+                    /** @description North gradient G_N [m] */
+                    north_m?: number;
+                    /** @description East gradient G_E [m] */
+                    east_m?: number;
+                    north_sigma_m?: number;
+                    east_sigma_m?: number;
+                    /** @description Used observations within one interval of the node; 0 = a node without data */
+                    observations_nearby?: number;
+                  }[]
+                | {
+                    [key: string]: (number | string | null)[];
+                  };
+              /** @description One entry per epoch with observations above the cutoff (the Arrow table of an Arrow answer). shape=rows: one object per row (with `fields`: the selected fields); shape=columns: one array per field, rounded to the documented precision (delays 1e-6 m, PWV 1e-4 mm, Tm 1e-4 K), null where a row has no value */
+              series:
+                | {
+                    epoch: string;
+                    /** @description δw interpolated between the adjacent nodes [m] */
+                    correction_m: number;
+                    /** @description ZWD = ztd_m − ZHD, one meaning at every epoch [m]: with met in the request, ZHD is the Saastamoinen ZHD of the surface pressure (interpolated within met_max_gap_s; across longer gaps bridged linearly, held from the nearest record beyond the records: zhd_source "met-bridged"); without met, the a-priori ZHD (zhd_source "apriori"). Continuous wherever ztd_m is */
+                    zwd_m: number;
+                    /**
+                     * @description Where the ZHD behind zwd_m comes from: met (measured or interpolated pressure), met-bridged (an epoch without met), apriori (a request without met)
+                     * @enum {string}
+                     */
+                    zhd_source: 'met' | 'met-bridged' | 'apriori';
+                    /** @description Formal standard deviation of δw (with the covariance of the adjacent nodes) [m] */
+                    sigma_m: number;
+                    /** @description G_N at the epoch [m]; null when gradients are off */
+                    north_gradient_m: number | null;
+                    /** @description G_E at the epoch [m]; null when gradients are off */
+                    east_gradient_m: number | null;
+                    north_gradient_sigma_m: number | null;
+                    east_gradient_sigma_m: number | null;
+                    /** @description Estimated epoch bias [m]; null when epoch_bias is off or all observations of the epoch were rejected */
+                    epoch_bias_m: number | null;
+                    /** @description Observations of the epoch used in the final solution */
+                    observations: number;
+                    /** @description A-priori ZHD + a-priori ZWD + δw [m] */
+                    ztd_m: number;
+                    /**
+                     * @description Met at this epoch: measured, interpolated or missing (only with met); "missing" epochs have no PWV and a bridged ZHD
+                     * @enum {string}
+                     */
+                    met?: 'measured' | 'interpolated' | 'missing';
+                    /** @description Saastamoinen ZHD of the surface pressure [m] (with met; at "missing" epochs the bridged pressure): zwd_m = ztd_m − zhd_m */
+                    zhd_m?: number;
+                    /** @description Weighted mean temperature, Bevis et al. (1992) [K] (with met) */
+                    tm_k?: number;
+                    /** @description Precipitable water vapour [mm] (with met) */
+                    pwv_mm?: number;
+                    /** @description Standard deviation of pwv_mm from the formal error of δw [mm] */
+                    pwv_sigma_mm?: number;
+                    /** @description Standard deviation of pwv_mm including the Tm regression uncertainty (4.74 K) [mm] */
+                    pwv_total_sigma_mm?: number;
+                  }[]
+                | {
+                    epoch?: string;
+                    /** @description δw interpolated between the adjacent nodes [m] */
+                    correction_m?: number;
+                    /** @description ZWD = ztd_m − ZHD, one meaning at every epoch [m]: with met in the request, ZHD is the Saastamoinen ZHD of the surface pressure (interpolated within met_max_gap_s; across longer gaps bridged linearly, held from the nearest record beyond the records: zhd_source "met-bridged"); without met, the a-priori ZHD (zhd_source "apriori"). Continuous wherever ztd_m is */
+                    zwd_m?: number;
+                    /**
+                     * @description Where the ZHD behind zwd_m comes from: met (measured or interpolated pressure), met-bridged (an epoch without met), apriori (a request without met)
+                     * @enum {string}
+                     */
+                    zhd_source?: 'met' | 'met-bridged' | 'apriori';
+                    /** @description Formal standard deviation of δw (with the covariance of the adjacent nodes) [m] */
+                    sigma_m?: number;
+                    /** @description G_N at the epoch [m]; null when gradients are off */
+                    north_gradient_m?: number | null;
+                    /** @description G_E at the epoch [m]; null when gradients are off */
+                    east_gradient_m?: number | null;
+                    north_gradient_sigma_m?: number | null;
+                    east_gradient_sigma_m?: number | null;
+                    /** @description Estimated epoch bias [m]; null when epoch_bias is off or all observations of the epoch were rejected */
+                    epoch_bias_m?: number | null;
+                    /** @description Observations of the epoch used in the final solution */
+                    observations?: number;
+                    /** @description A-priori ZHD + a-priori ZWD + δw [m] */
+                    ztd_m?: number;
+                    /**
+                     * @description Met at this epoch: measured, interpolated or missing (only with met); "missing" epochs have no PWV and a bridged ZHD
+                     * @enum {string}
+                     */
+                    met?: 'measured' | 'interpolated' | 'missing';
+                    /** @description Saastamoinen ZHD of the surface pressure [m] (with met; at "missing" epochs the bridged pressure): zwd_m = ztd_m − zhd_m */
+                    zhd_m?: number;
+                    /** @description Weighted mean temperature, Bevis et al. (1992) [K] (with met) */
+                    tm_k?: number;
+                    /** @description Precipitable water vapour [mm] (with met) */
+                    pwv_mm?: number;
+                    /** @description Standard deviation of pwv_mm from the formal error of δw [mm] */
+                    pwv_sigma_mm?: number;
+                    /** @description Standard deviation of pwv_mm including the Tm regression uncertainty (4.74 K) [mm] */
+                    pwv_total_sigma_mm?: number;
+                  }[]
+                | {
+                    [key: string]: (number | string | null)[];
+                  };
+              /** @description Observations rejected by the screening. shape=rows: one object per row (with `fields`: the selected fields); shape=columns: one array per field, rounded to the documented precision (delays 1e-6 m, PWV 1e-4 mm, Tm 1e-4 K), null where a row has no value */
+              rejected:
+                | {
+                    /** @description Index of the observation in the request (data row for CSV, 0-based) */
+                    index: number;
+                    epoch: string;
+                    satellite: string;
+                    /** @description The residual as sent [m] */
+                    residual_m: number;
+                    /** @description Post-fit residual when it was rejected [m] */
+                    fitted_residual_m: number;
+                    /** @description Pope τ = v/(σ̂0 σ_v) when it was rejected (signed) */
+                    normalized_residual: number;
+                  }[]
+                | {
+                    /** @description Index of the observation in the request (data row for CSV, 0-based) */
+                    index?: number;
+                    epoch?: string;
+                    satellite?: string;
+                    /** @description The residual as sent [m] */
+                    residual_m?: number;
+                    /** @description Post-fit residual when it was rejected [m] */
+                    fitted_residual_m?: number;
+                    /** @description Pope τ = v/(σ̂0 σ_v) when it was rejected (signed) */
+                    normalized_residual?: number;
+                  }[]
+                | {
+                    [key: string]: (number | string | null)[];
+                  };
               statistics: {
                 observations_total: number;
                 /** @description Dropped for elevation below elevation_cutoff_deg (not errors) */
@@ -1550,7 +1648,7 @@ export interface paths {
     put?: never;
     /**
      * ZWD and gradients of several stations estimated jointly, with the clocks pre-eliminated
-     * @description Per observation r = m_w(e) δw_a(t) + m_g(e) [cos A G_N,a(t) + sin A G_E,a(t)] + ρ_a(t) + σ_k(t) + ε: ZWD and gradients per station with the random-walk model of POST /v1/zwd-estimates (piecewise-linear nodes), one receiver clock ρ per station and epoch and, with satellite_clocks "estimated", one clock σ per satellite and epoch, both pre-eliminated epoch by epoch (equivalent to double differences with their full covariance; one datum clock per connected group and epoch). With satellite_clocks "known" (point positioning) every station is solved alone, as by POST /v1/zwd-estimates. Per station: the series of POST /v1/zwd-estimates (sigma_m: σ of the absolute ZWD) plus relative_sigma_m, σ relative to the reference station. common_mode: σ of the network-mean ZWD with the clocks estimated and known, its correlation with the clocks, the extent in km and in nadir angle; a warning when the absolute level is not determined to options.common_mode_sigma_threshold_m. Satellites seen by one station at an epoch and epochs with one station carry no information with the clocks estimated: dropped and counted. Bodies: application/json (this schema) or text/csv: a table with the header row station,epoch,satellite,elevation_deg,azimuth_deg,residual_m[,sigma_m], the stations as query parameters station=ID,latitude_deg,longitude_deg,height_m[,apriori_zhd_m[,apriori_zwd_m]] (once per station) and the options as query parameters (those of POST /v1/zwd-estimates plus satellite_clocks, reference_station, common_mode_sigma_threshold_m). Limits, checked before any work: up to 100 stations and 500000 observations, and stations × observations at most 5000000 (413 naming observations and saying how much fits; a 10-station day of 30-s data fits, as text/csv of about 31 MB; as JSON it is about 67 MB, above the body limit); the answer's output nodes over all stations within the estimation's answer cap (422). Body limit 67108864 bytes. Requests too large for one body go through the archive or a job; such jobs are not built yet.
+     * @description Per observation r = m_w(e) δw_a(t) + m_g(e) [cos A G_N,a(t) + sin A G_E,a(t)] + ρ_a(t) + σ_k(t) + ε: ZWD and gradients per station with the random-walk model of POST /v1/zwd-estimates (piecewise-linear nodes), one receiver clock ρ per station and epoch and, with satellite_clocks "estimated", one clock σ per satellite and epoch, both pre-eliminated epoch by epoch (equivalent to double differences with their full covariance; one datum clock per connected group and epoch). With satellite_clocks "known" (point positioning) every station is solved alone, as by POST /v1/zwd-estimates. Per station: the series of POST /v1/zwd-estimates (sigma_m: σ of the absolute ZWD) plus relative_sigma_m, σ relative to the reference station; with met records of the station (met[], each naming its station) also ZHD from the pressure, ZWD = ZTD − ZHD, Tm and PWV with its σ per epoch, as POST /v1/zwd-estimates does (pressure bridged across met gaps; zhd_source met | met-bridged | apriori). common_mode: σ of the network-mean ZWD with the clocks estimated and known, its correlation with the clocks, the extent in km and in nadir angle; a warning when the absolute level is not determined to options.common_mode_sigma_threshold_m. Satellites seen by one station at an epoch and epochs with one station carry no information with the clocks estimated: dropped and counted. Bodies: application/json (this schema; observations as an array of objects or as column arrays with a station column, met as records naming their station); application/vnd.apache.arrow.stream (the observations as an Arrow IPC table with a station column, the rest of the request as JSON in the schema metadata "request"); or text/csv: a table with the header row station,epoch,satellite,elevation_deg,azimuth_deg,residual_m[,sigma_m], the stations as query parameters station=ID,latitude_deg,longitude_deg,height_m[,apriori_zhd_m[,apriori_zwd_m]] (once per station) and the options as query parameters (those of POST /v1/zwd-estimates plus satellite_clocks, reference_station, common_mode_sigma_threshold_m); a text/csv request carries no met (as with POST /v1/zwd-estimates). All forms give the same answer. Limits, checked before any work: up to 100 stations and 500000 observations, and stations × observations at most 5000000 (413 naming observations and saying how much fits; a 10-station day of 30-s data fits, as text/csv of about 31 MB; as JSON it is about 67 MB, above the body limit); the answer's output nodes over all stations within the estimation's answer cap (422). Body limit 67108864 bytes. Requests too large for one body go through the archive or a job; such jobs are not built yet.
      */
     post: {
       parameters: {
@@ -1632,24 +1730,50 @@ export interface paths {
                 zwd_m?: number;
               };
             }[];
-            /** @description Zero-difference residuals of all stations, in any order */
-            observations: {
+            /** @description Zero-difference residuals of all stations, in any order: an array of objects, or an object of column arrays (as POST /v1/zwd-estimates, plus a station column) */
+            observations:
+              | {
+                  /**
+                   * Format: date-time
+                   * @description Epoch, ISO 8601 date-time (UTC, e.g. 2026-03-14T12:00:00Z; an offset is converted to UTC)
+                   */
+                  epoch: string;
+                  /** @description Satellite identifier; each (epoch, satellite) pair may appear once */
+                  satellite: string;
+                  /** @description Vacuum (geometric) elevation angle; below 3° the answer carries a warning; mapping functions refuse elevations below 1° (a profile is still traced there) [deg], (0, 90] deg */
+                  elevation_deg: number;
+                  /** @description Azimuth from north through east [deg], [0, 360] deg */
+                  azimuth_deg: number;
+                  /** @description Residual formed with the a-priori troposphere (observed − computed); may contain a receiver clock [m], [-1000000, 1000000] m */
+                  residual_m: number;
+                  /** @description Standard deviation of residual_m; absent = from options.weighting and sigma0_m [m], > 0, at most 10 */
+                  sigma_m?: number;
+                  /** @description Station of the observation: one of stations[].id */
+                  station: string;
+                }[]
+              | {
+                  epoch: string[];
+                  satellite: string[];
+                  elevation_deg: number[];
+                  azimuth_deg: number[];
+                  residual_m: number[];
+                  sigma_m: number[];
+                  station: string[];
+                };
+            /** @description Surface met at the stations' site heights, each record naming its station, in any order (at most 100000 records over all stations): per station as `met` of POST /v1/zwd-estimates (interpolated linearly within options.met_max_gap_s, the pressure bridged across longer gaps), giving that station's series ZHD, ZWD = ZTD − ZHD, Tm and PWV per epoch. A station without records gets zhd_source "apriori" */
+            met?: {
               /**
                * Format: date-time
                * @description Epoch, ISO 8601 date-time (UTC, e.g. 2026-03-14T12:00:00Z; an offset is converted to UTC)
                */
               epoch: string;
-              /** @description Satellite identifier; each (epoch, satellite) pair may appear once */
-              satellite: string;
-              /** @description Vacuum (geometric) elevation angle; below 3° the answer carries a warning; mapping functions refuse elevations below 1° (a profile is still traced there) [deg], (0, 90] deg */
-              elevation_deg: number;
-              /** @description Azimuth from north through east [deg], [0, 360] deg */
-              azimuth_deg: number;
-              /** @description Residual formed with the a-priori troposphere (observed − computed); may contain a receiver clock [m], [-1000000, 1000000] m */
-              residual_m: number;
-              /** @description Standard deviation of residual_m; absent = from options.weighting and sigma0_m [m], > 0, at most 10 */
-              sigma_m?: number;
-              /** @description Station of the observation: one of stations[].id */
+              /** @description Measured surface pressure at the site height [hPa], [300, 1100] hPa */
+              pressure_hpa: number;
+              /** @description Measured surface temperature at the site height [°C], [-90, 60] °C */
+              temperature_c: number;
+              /** @description Relative humidity [%], 0..100; accepted, not needed for PWV */
+              relative_humidity_pct?: number;
+              /** @description Station of the record: one of stations[].id */
               station: string;
             }[];
             /**
@@ -2068,7 +2192,7 @@ export interface paths {
     put?: never;
     /**
      * Estimate ZWD jointly for archive stations and store every station's series
-     * @description The estimation of POST /v1/network-estimates for stations of the archive: `stations` name archive stations (id, optional apriori; no site: the stored coordinates are the sites; a station not in the archive is a 404 naming stations.N.id). text/csv: station=ID[,apriori_zhd_m[,apriori_zwd_m]] once per station. Every station's series is stored as its delay series under ?source= (default "network-estimates") and the result's model_fingerprint, all stations in one transaction: all or nothing. A station whose estimated ZTD falls outside the range a direct deposit accepts makes the whole request a 422 and nothing is stored. Per observation r = m_w(e) δw_a(t) + m_g(e) [cos A G_N,a(t) + sin A G_E,a(t)] + ρ_a(t) + σ_k(t) + ε: ZWD and gradients per station with the random-walk model of POST /v1/zwd-estimates (piecewise-linear nodes), one receiver clock ρ per station and epoch and, with satellite_clocks "estimated", one clock σ per satellite and epoch, both pre-eliminated epoch by epoch (equivalent to double differences with their full covariance; one datum clock per connected group and epoch). With satellite_clocks "known" (point positioning) every station is solved alone, as by POST /v1/zwd-estimates. Limits, checked before any work: up to 100 stations and 500000 observations, and stations × observations at most 5000000 (413 naming observations and saying how much fits; a 10-station day of 30-s data fits, as text/csv of about 31 MB; as JSON it is about 67 MB, above the body limit); the answer's output nodes over all stations within the estimation's answer cap (422). Body limit 67108864 bytes. Requests too large for one body go through the archive or a job; such jobs are not built yet. Writes need `Authorization: Bearer <key>`. Role needed: write. Needs `Authorization: Bearer <key>` of role write or admin (401 without a key, 403 with a key of role read or one not accepted).
+     * @description The estimation of POST /v1/network-estimates for stations of the archive: `stations` name archive stations (id, optional apriori; no site: the stored coordinates are the sites; a station not in the archive is a 404 naming stations.N.id). text/csv: station=ID[,apriori_zhd_m[,apriori_zwd_m]] once per station. JSON and Arrow bodies as for POST /v1/network-estimates. Every station's series is stored as its delay series under ?source= (default "network-estimates") and the result's model_fingerprint, all stations in one transaction: all or nothing; per epoch the values POST /v1/stations/{id}/zwd-estimates stores for the same data and met (zwd_m = ZTD − ZHD of the station's met in the request, else of the a-priori ZHD; the station's stored met is not read). A station whose estimated ZTD falls outside the range a direct deposit accepts makes the whole request a 422 and nothing is stored. Per observation r = m_w(e) δw_a(t) + m_g(e) [cos A G_N,a(t) + sin A G_E,a(t)] + ρ_a(t) + σ_k(t) + ε: ZWD and gradients per station with the random-walk model of POST /v1/zwd-estimates (piecewise-linear nodes), one receiver clock ρ per station and epoch and, with satellite_clocks "estimated", one clock σ per satellite and epoch, both pre-eliminated epoch by epoch (equivalent to double differences with their full covariance; one datum clock per connected group and epoch). With satellite_clocks "known" (point positioning) every station is solved alone, as by POST /v1/zwd-estimates. Limits, checked before any work: up to 100 stations and 500000 observations, and stations × observations at most 5000000 (413 naming observations and saying how much fits; a 10-station day of 30-s data fits, as text/csv of about 31 MB; as JSON it is about 67 MB, above the body limit); the answer's output nodes over all stations within the estimation's answer cap (422). Body limit 67108864 bytes. Requests too large for one body go through the archive or a job; such jobs are not built yet. Writes need `Authorization: Bearer <key>`. Role needed: write. Needs `Authorization: Bearer <key>` of role write or admin (401 without a key, 403 with a key of role read or one not accepted).
      */
     post: {
       parameters: {
@@ -2143,24 +2267,50 @@ export interface paths {
                 zwd_m?: number;
               };
             }[];
-            /** @description Zero-difference residuals of all stations, in any order */
-            observations: {
+            /** @description Zero-difference residuals of all stations, in any order: an array of objects, or an object of column arrays (as POST /v1/zwd-estimates, plus a station column) */
+            observations:
+              | {
+                  /**
+                   * Format: date-time
+                   * @description Epoch, ISO 8601 date-time (UTC, e.g. 2026-03-14T12:00:00Z; an offset is converted to UTC)
+                   */
+                  epoch: string;
+                  /** @description Satellite identifier; each (epoch, satellite) pair may appear once */
+                  satellite: string;
+                  /** @description Vacuum (geometric) elevation angle; below 3° the answer carries a warning; mapping functions refuse elevations below 1° (a profile is still traced there) [deg], (0, 90] deg */
+                  elevation_deg: number;
+                  /** @description Azimuth from north through east [deg], [0, 360] deg */
+                  azimuth_deg: number;
+                  /** @description Residual formed with the a-priori troposphere (observed − computed); may contain a receiver clock [m], [-1000000, 1000000] m */
+                  residual_m: number;
+                  /** @description Standard deviation of residual_m; absent = from options.weighting and sigma0_m [m], > 0, at most 10 */
+                  sigma_m?: number;
+                  /** @description Station of the observation: one of stations[].id */
+                  station: string;
+                }[]
+              | {
+                  epoch: string[];
+                  satellite: string[];
+                  elevation_deg: number[];
+                  azimuth_deg: number[];
+                  residual_m: number[];
+                  sigma_m: number[];
+                  station: string[];
+                };
+            /** @description Surface met at the stations' site heights, each record naming its station, in any order (at most 100000 records over all stations): per station as `met` of POST /v1/zwd-estimates (interpolated linearly within options.met_max_gap_s, the pressure bridged across longer gaps), giving that station's series ZHD, ZWD = ZTD − ZHD, Tm and PWV per epoch. A station without records gets zhd_source "apriori" */
+            met?: {
               /**
                * Format: date-time
                * @description Epoch, ISO 8601 date-time (UTC, e.g. 2026-03-14T12:00:00Z; an offset is converted to UTC)
                */
               epoch: string;
-              /** @description Satellite identifier; each (epoch, satellite) pair may appear once */
-              satellite: string;
-              /** @description Vacuum (geometric) elevation angle; below 3° the answer carries a warning; mapping functions refuse elevations below 1° (a profile is still traced there) [deg], (0, 90] deg */
-              elevation_deg: number;
-              /** @description Azimuth from north through east [deg], [0, 360] deg */
-              azimuth_deg: number;
-              /** @description Residual formed with the a-priori troposphere (observed − computed); may contain a receiver clock [m], [-1000000, 1000000] m */
-              residual_m: number;
-              /** @description Standard deviation of residual_m; absent = from options.weighting and sigma0_m [m], > 0, at most 10 */
-              sigma_m?: number;
-              /** @description Station of the observation: one of stations[].id */
+              /** @description Measured surface pressure at the site height [hPa], [300, 1100] hPa */
+              pressure_hpa: number;
+              /** @description Measured surface temperature at the site height [°C], [-90, 60] °C */
+              temperature_c: number;
+              /** @description Relative humidity [%], 0..100; accepted, not needed for PWV */
+              relative_humidity_pct?: number;
+              /** @description Station of the record: one of stations[].id */
               station: string;
             }[];
             /**
@@ -2772,6 +2922,26 @@ export interface paths {
             };
           };
         };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
       };
     };
     /**
@@ -3203,6 +3373,26 @@ export interface paths {
             };
           };
         };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
       };
     };
     put?: never;
@@ -3336,6 +3526,26 @@ export interface paths {
         };
         /** @description RFC 9457 problem details (application/problem+json) */
         404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
           headers: {
             [name: string]: unknown;
           };
@@ -3740,6 +3950,26 @@ export interface paths {
         };
         /** @description RFC 9457 problem details (application/problem+json) */
         404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
           headers: {
             [name: string]: unknown;
           };
@@ -4194,6 +4424,26 @@ export interface paths {
             };
           };
         };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
       };
     };
     put?: never;
@@ -4264,6 +4514,10 @@ export interface paths {
           met_max_gap_s?: number;
           /** @description Estimate gradients (on) or not (off) */
           gradients?: 'on' | 'off';
+          /** @description rows: an array of objects (default); columns: one array per field, rounded to the documented precision */
+          shape?: 'rows' | 'columns';
+          /** @description Comma-separated per-row fields to return (default: all); applies to rows, columns and Arrow answers */
+          fields?: string;
           /** @description Source under which the estimated series is stored (default "zwd-estimates") */
           source?: string;
         };
@@ -4456,84 +4710,178 @@ export interface paths {
           };
           content: {
             'application/json': {
-              zwd_nodes: {
-                /** @description Node epoch jΔ on round UTC epochs */
-                epoch: string;
-                /** @description Estimated correction δw to the a-priori ZWD [m] */
-                correction_m: number;
-                /** @description A-priori ZWD + correction [m] (the nodes carry no met: series[].zwd_m is ztd_m − the ZHD of its zhd_source) */
-                zwd_m: number;
-                /** @description Formal standard deviation [m] (with the Brownian-bridge variance between epochs and the correlated-noise factor) */
-                sigma_m: number;
-                /** @description Used observations within one interval of the node; 0 = the value comes from the random walk alone (a node without data) */
-                observations_nearby: number;
-              }[];
-              /** @description Empty when gradients are off */
-              gradient_nodes: {
-                epoch: string;
-                /** @description North gradient G_N [m] */
-                north_m: number;
-                /** @description East gradient G_E [m] */
-                east_m: number;
-                north_sigma_m: number;
-                east_sigma_m: number;
-                /** @description Used observations within one interval of the node; 0 = a node without data */
-                observations_nearby: number;
-              }[];
-              /** @description One entry per epoch with observations above the cutoff */
-              series: {
-                epoch: string;
-                /** @description δw interpolated between the adjacent nodes [m] */
-                correction_m: number;
-                /** @description ZWD = ztd_m − ZHD, one meaning at every epoch [m]: with met in the request, ZHD is the Saastamoinen ZHD of the surface pressure (interpolated within met_max_gap_s; across longer gaps bridged linearly, held from the nearest record beyond the records: zhd_source "met-bridged"); without met, the a-priori ZHD (zhd_source "apriori"). Continuous wherever ztd_m is */
-                zwd_m: number;
-                /**
-                 * @description Where the ZHD behind zwd_m comes from: met (measured or interpolated pressure), met-bridged (an epoch without met), apriori (a request without met)
-                 * @enum {string}
-                 */
-                zhd_source: 'met' | 'met-bridged' | 'apriori';
-                /** @description Formal standard deviation of δw (with the covariance of the adjacent nodes) [m] */
-                sigma_m: number;
-                /** @description G_N at the epoch [m]; null when gradients are off */
-                north_gradient_m: number | null;
-                /** @description G_E at the epoch [m]; null when gradients are off */
-                east_gradient_m: number | null;
-                north_gradient_sigma_m: number | null;
-                east_gradient_sigma_m: number | null;
-                /** @description Estimated epoch bias [m]; null when epoch_bias is off or all observations of the epoch were rejected */
-                epoch_bias_m: number | null;
-                /** @description Observations of the epoch used in the final solution */
-                observations: number;
-                /** @description A-priori ZHD + a-priori ZWD + δw [m] */
-                ztd_m: number;
-                /**
-                 * @description Met at this epoch: measured, interpolated or missing (only with met); "missing" epochs have no PWV and a bridged ZHD
-                 * @enum {string}
-                 */
-                met?: 'measured' | 'interpolated' | 'missing';
-                /** @description Saastamoinen ZHD of the surface pressure [m] (with met; at "missing" epochs the bridged pressure): zwd_m = ztd_m − zhd_m */
-                zhd_m?: number;
-                /** @description Weighted mean temperature, Bevis et al. (1992) [K] (with met) */
-                tm_k?: number;
-                /** @description Precipitable water vapour [mm] (with met) */
-                pwv_mm?: number;
-                /** @description Standard deviation of pwv_mm from the formal error of δw [mm] */
-                pwv_sigma_mm?: number;
-                /** @description Standard deviation of pwv_mm including the Tm regression uncertainty (4.74 K) [mm] */
-                pwv_total_sigma_mm?: number;
-              }[];
-              rejected: {
-                /** @description Index of the observation in the request (data row for CSV, 0-based) */
-                index: number;
-                epoch: string;
-                satellite: string;
-                /** @description The residual as sent [m] */
-                residual_m: number;
-                /** @description Post-fit residual when it was rejected [m] */
-                fitted_residual_m: number;
-                /** @description Pope τ = v/(σ̂0 σ_v) when it was rejected (signed) */
-                normalized_residual: number;
-              }[];
+              /** @description ZWD nodes. shape=rows: one object per row (with `fields`: the selected fields); shape=columns: one array per field, rounded to the documented precision (delays 1e-6 m, PWV 1e-4 mm, Tm 1e-4 K), null where a row has no value */
+              zwd_nodes:
+                | {
+                    /** @description Node epoch jΔ on round UTC epochs */
+                    epoch: string;
+                    /** @description Estimated correction δw to the a-priori ZWD [m] */
+                    correction_m: number;
+                    /** @description A-priori ZWD + correction [m] (the nodes carry no met: series[].zwd_m is ztd_m − the ZHD of its zhd_source) */
+                    zwd_m: number;
+                    /** @description Formal standard deviation [m] (with the Brownian-bridge variance between epochs and the correlated-noise factor) */
+                    sigma_m: number;
+                    /** @description Used observations within one interval of the node; 0 = the value comes from the random walk alone (a node without data) */
+                    observations_nearby: number;
+                  }[]
+                | {
+                    /** @description Node epoch jΔ on round UTC epochs */
+                    epoch?: string;
+                    /** @description Estimated correction δw to the a-priori ZWD [m] */
+                    correction_m?: number;
+                    /** @description A-priori ZWD + correction [m] (the nodes carry no met: series[].zwd_m is ztd_m − the ZHD of its zhd_source) */
+                    zwd_m?: number;
+                    /** @description Formal standard deviation [m] (with the Brownian-bridge variance between epochs and the correlated-noise factor) */
+                    sigma_m?: number;
+                    /** @description Used observations within one interval of the node; 0 = the value comes from the random walk alone (a node without data) */
+                    observations_nearby?: number;
+                  }[]
+                | {
+                    [key: string]: (number | string | null)[];
+                  };
+              /** @description Gradient nodes; empty when gradients are off. shape=rows: one object per row (with `fields`: the selected fields); shape=columns: one array per field, rounded to the documented precision (delays 1e-6 m, PWV 1e-4 mm, Tm 1e-4 K), null where a row has no value */
+              gradient_nodes:
+                | {
+                    epoch: string;
+                    /** @description North gradient G_N [m] */
+                    north_m: number;
+                    /** @description East gradient G_E [m] */
+                    east_m: number;
+                    north_sigma_m: number;
+                    east_sigma_m: number;
+                    /** @description Used observations within one interval of the node; 0 = a node without data */
+                    observations_nearby: number;
+                  }[]
+                | {
+                    epoch?: string;
+                    /** @description North gradient G_N [m] */
+                    north_m?: number;
+                    /** @description East gradient G_E [m] */
+                    east_m?: number;
+                    north_sigma_m?: number;
+                    east_sigma_m?: number;
+                    /** @description Used observations within one interval of the node; 0 = a node without data */
+                    observations_nearby?: number;
+                  }[]
+                | {
+                    [key: string]: (number | string | null)[];
+                  };
+              /** @description One entry per epoch with observations above the cutoff (the Arrow table of an Arrow answer). shape=rows: one object per row (with `fields`: the selected fields); shape=columns: one array per field, rounded to the documented precision (delays 1e-6 m, PWV 1e-4 mm, Tm 1e-4 K), null where a row has no value */
+              series:
+                | {
+                    epoch: string;
+                    /** @description δw interpolated between the adjacent nodes [m] */
+                    correction_m: number;
+                    /** @description ZWD = ztd_m − ZHD, one meaning at every epoch [m]: with met in the request, ZHD is the Saastamoinen ZHD of the surface pressure (interpolated within met_max_gap_s; across longer gaps bridged linearly, held from the nearest record beyond the records: zhd_source "met-bridged"); without met, the a-priori ZHD (zhd_source "apriori"). Continuous wherever ztd_m is */
+                    zwd_m: number;
+                    /**
+                     * @description Where the ZHD behind zwd_m comes from: met (measured or interpolated pressure), met-bridged (an epoch without met), apriori (a request without met)
+                     * @enum {string}
+                     */
+                    zhd_source: 'met' | 'met-bridged' | 'apriori';
+                    /** @description Formal standard deviation of δw (with the covariance of the adjacent nodes) [m] */
+                    sigma_m: number;
+                    /** @description G_N at the epoch [m]; null when gradients are off */
+                    north_gradient_m: number | null;
+                    /** @description G_E at the epoch [m]; null when gradients are off */
+                    east_gradient_m: number | null;
+                    north_gradient_sigma_m: number | null;
+                    east_gradient_sigma_m: number | null;
+                    /** @description Estimated epoch bias [m]; null when epoch_bias is off or all observations of the epoch were rejected */
+                    epoch_bias_m: number | null;
+                    /** @description Observations of the epoch used in the final solution */
+                    observations: number;
+                    /** @description A-priori ZHD + a-priori ZWD + δw [m] */
+                    ztd_m: number;
+                    /**
+                     * @description Met at this epoch: measured, interpolated or missing (only with met); "missing" epochs have no PWV and a bridged ZHD
+                     * @enum {string}
+                     */
+                    met?: 'measured' | 'interpolated' | 'missing';
+                    /** @description Saastamoinen ZHD of the surface pressure [m] (with met; at "missing" epochs the bridged pressure): zwd_m = ztd_m − zhd_m */
+                    zhd_m?: number;
+                    /** @description Weighted mean temperature, Bevis et al. (1992) [K] (with met) */
+                    tm_k?: number;
+                    /** @description Precipitable water vapour [mm] (with met) */
+                    pwv_mm?: number;
+                    /** @description Standard deviation of pwv_mm from the formal error of δw [mm] */
+                    pwv_sigma_mm?: number;
+                    /** @description Standard deviation of pwv_mm including the Tm regression uncertainty (4.74 K) [mm] */
+                    pwv_total_sigma_mm?: number;
+                  }[]
+                | {
+                    epoch?: string;
+                    /** @description δw interpolated between the adjacent nodes [m] */
+                    correction_m?: number;
+                    /** @description ZWD = ztd_m − ZHD, one meaning at every epoch [m]: with met in the request, ZHD is the Saastamoinen ZHD of the surface pressure (interpolated within met_max_gap_s; across longer gaps bridged linearly, held from the nearest record beyond the records: zhd_source "met-bridged"); without met, the a-priori ZHD (zhd_source "apriori"). Continuous wherever ztd_m is */
+                    zwd_m?: number;
+                    /**
+                     * @description Where the ZHD behind zwd_m comes from: met (measured or interpolated pressure), met-bridged (an epoch without met), apriori (a request without met)
+                     * @enum {string}
+                     */
+                    zhd_source?: 'met' | 'met-bridged' | 'apriori';
+                    /** @description Formal standard deviation of δw (with the covariance of the adjacent nodes) [m] */
+                    sigma_m?: number;
+                    /** @description G_N at the epoch [m]; null when gradients are off */
+                    north_gradient_m?: number | null;
+                    /** @description G_E at the epoch [m]; null when gradients are off */
+                    east_gradient_m?: number | null;
+                    north_gradient_sigma_m?: number | null;
+                    east_gradient_sigma_m?: number | null;
+                    /** @description Estimated epoch bias [m]; null when epoch_bias is off or all observations of the epoch were rejected */
+                    epoch_bias_m?: number | null;
+                    /** @description Observations of the epoch used in the final solution */
+                    observations?: number;
+                    /** @description A-priori ZHD + a-priori ZWD + δw [m] */
+                    ztd_m?: number;
+                    /**
+                     * @description Met at this epoch: measured, interpolated or missing (only with met); "missing" epochs have no PWV and a bridged ZHD
+                     * @enum {string}
+                     */
+                    met?: 'measured' | 'interpolated' | 'missing';
+                    /** @description Saastamoinen ZHD of the surface pressure [m] (with met; at "missing" epochs the bridged pressure): zwd_m = ztd_m − zhd_m */
+                    zhd_m?: number;
+                    /** @description Weighted mean temperature, Bevis et al. (1992) [K] (with met) */
+                    tm_k?: number;
+                    /** @description Precipitable water vapour [mm] (with met) */
+                    pwv_mm?: number;
+                    /** @description Standard deviation of pwv_mm from the formal error of δw [mm] */
+                    pwv_sigma_mm?: number;
+                    /** @description Standard deviation of pwv_mm including the Tm regression uncertainty (4.74 K) [mm] */
+                    pwv_total_sigma_mm?: number;
+                  }[]
+                | {
+                    [key: string]: (number | string | null)[];
+                  };
+              /** @description Observations rejected by the screening. shape=rows: one object per row (with `fields`: the selected fields); shape=columns: one array per field, rounded to the documented precision (delays 1e-6 m, PWV 1e-4 mm, Tm 1e-4 K), null where a row has no value */
+              rejected:
+                | {
+                    /** @description Index of the observation in the request (data row for CSV, 0-based) */
+                    index: number;
+                    epoch: string;
+                    satellite: string;
+                    /** @description The residual as sent [m] */
+                    residual_m: number;
+                    /** @description Post-fit residual when it was rejected [m] */
+                    fitted_residual_m: number;
+                    /** @description Pope τ = v/(σ̂0 σ_v) when it was rejected (signed) */
+                    normalized_residual: number;
+                  }[]
+                | {
+                    /** @description Index of the observation in the request (data row for CSV, 0-based) */
+                    index?: number;
+                    epoch?: string;
+                    satellite?: string;
+                    /** @description The residual as sent [m] */
+                    residual_m?: number;
+                    /** @description Post-fit residual when it was rejected [m] */
+                    fitted_residual_m?: number;
+                    /** @description Pope τ = v/(σ̂0 σ_v) when it was rejected (signed) */
+                    normalized_residual?: number;
+                  }[]
+                | {
+                    [key: string]: (number | string | null)[];
+                  };
               statistics: {
                 observations_total: number;
                 /** @description Dropped for elevation below elevation_cutoff_deg (not errors) */
@@ -4937,6 +5285,26 @@ export interface paths {
             };
           };
         };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
       };
     };
     /**
@@ -5264,6 +5632,26 @@ export interface paths {
             };
           };
         };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
       };
     };
     post?: never;
@@ -5354,6 +5742,26 @@ export interface paths {
         };
         /** @description RFC 9457 problem details (application/problem+json) */
         404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
           headers: {
             [name: string]: unknown;
           };
@@ -5509,6 +5917,26 @@ export interface paths {
         };
         /** @description RFC 9457 problem details (application/problem+json) */
         404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
           headers: {
             [name: string]: unknown;
           };
@@ -5683,6 +6111,26 @@ export interface paths {
         };
         /** @description RFC 9457 problem details (application/problem+json) */
         404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
           headers: {
             [name: string]: unknown;
           };
@@ -7477,6 +7925,156 @@ export interface paths {
                 model_fingerprint: string;
                 met_max_gap_s: number;
                 max_ztd_sigma_m: number;
+              };
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        400: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/v1/network/coverage': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * Data coverage per station and source: first and last epoch, record count, gaps
+     * @description What the archive holds of the delay series (from which PWV is computed), per station and source: first and last epoch, record count, and the gaps — spacings between consecutive records longer than `gap_min_s` (default 1 h).
+     *     Stations: all, a list (`stations`) or those inside `bbox`, as for GET /v1/network/precipitable-water; every selected station appears, with `sources: []` when it holds no record in the range.
+     *     Computed in the database (aggregates and a window over each series), so a station-year costs one scan, not one row per record through the service. Gaps before the first or after the last record of the range are not counted (first_epoch and last_epoch show them). Role needed: read. Reads need a key of role read or above when TROPO_READ_KEYS_REQUIRED=true.
+     */
+    get: {
+      parameters: {
+        query?: {
+          /** @description Station ids, comma-separated (at most 2000); default: every station (or those in bbox) */
+          stations?: string;
+          /** @description Only stations inside this box: west,south,east,north [deg] (WGS84; west > east crosses the 180° meridian) */
+          bbox?: string;
+          /** @description Only records at or after this epoch (a date: 00:00Z of that day); default: the first stored */
+          from?: string;
+          /** @description Only records at or before this epoch (a date: the whole UTC day); default: the last stored */
+          to?: string;
+          /** @description A gap is a spacing between two consecutive records of one station and source longer than this [s]; default 3600 (1 h), range [60, 31622400] */
+          gap_min_s?: number;
+          /** @description Most gaps listed per station and source: the longest, in time order (all are counted in gap_count); default 20 */
+          max_gaps?: number;
+        };
+        header?: never;
+        path?: never;
+        cookie?: never;
+      };
+      requestBody?: never;
+      responses: {
+        /** @description Default Response */
+        200: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              /** @description Start of the range looked at; null: from the first stored record */
+              from: string | null;
+              /** @description End of the range looked at; null: to the last stored record */
+              to: string | null;
+              gap_min_s: number;
+              max_gaps: number;
+              /**
+               * @description The series looked at: the stored delays (ZTD), from which PWV is computed
+               * @enum {string}
+               */
+              series: 'delays';
+              stations: {
+                station_id: string;
+                name: string;
+                /** @description Geodetic latitude (WGS84) [deg] */
+                latitude_deg: number;
+                /** @description Longitude, east positive [deg] */
+                longitude_deg: number;
+                /** @description Antenna height above the WGS84 ellipsoid [m] */
+                height_m: number;
+                /** @description Geoid undulation N of EGM96 at the station (height of mean sea level above the ellipsoid) [m], to 1 cm */
+                geoid_undulation_m: number;
+                /** @description Antenna altitude above mean sea level (the EGM96 geoid): height_m − geoid_undulation_m [m], to 1 cm */
+                altitude_m: number;
+                /** @description One entry per source with records in the range, by source name; empty: none */
+                sources: {
+                  source: string;
+                  first_epoch: string;
+                  last_epoch: string;
+                  record_count: number;
+                  /** @description Gaps longer than gap_min_s between first_epoch and last_epoch */
+                  gap_count: number;
+                  /** @description Sum of their lengths [s] */
+                  gap_total_s: number;
+                  /** @description The longest max_gaps of them, in time order */
+                  gaps: {
+                    /** @description Epoch of the last record before the gap */
+                    from: string;
+                    /** @description Epoch of the first record after the gap */
+                    to: string;
+                    /** @description to − from [s] */
+                    length_s: number;
+                  }[];
+                }[];
+              }[];
+              summary: {
+                station_count: number;
+                stations_with_records: number;
+                /** @description Station–source pairs with records */
+                source_series: number;
+                record_count: number;
+                gap_count: number;
+                first_epoch: string | null;
+                last_epoch: string | null;
               };
             };
           };
