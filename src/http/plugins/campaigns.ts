@@ -98,10 +98,15 @@ async function campaigns(app: FastifyInstance, options: CampaignPluginOptions): 
       if (!closing) restart = setTimeout(() => void startQueue(), RESTART_DELAY_MS);
     }
   };
-  if (settings.concurrency > 0) app.addHook('onReady', async () => void startQueue());
+  // The start is not awaited by onReady (a database that is slow to answer must not hold up the
+  // service), but a close waits for it: a queue stopped while its start is still running would start
+  // afterwards and keep its connections open.
+  let starting: Promise<void> | undefined;
+  if (settings.concurrency > 0) app.addHook('onReady', async () => void (starting = startQueue()));
   app.addHook('preClose', async () => {
     closing = true;
     clearTimeout(restart);
+    await starting;
     await queue.stop();
   });
 }
