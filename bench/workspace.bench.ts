@@ -87,7 +87,11 @@ async function networkCalls(name: string, storage: StorageConfig): Promise<strin
   return lines;
 }
 
-/** The page's main-thread busy time so far [ms] (DevTools Performance.getMetrics TaskDuration): CPU-side, less inflated by load than wall time. */
+/**
+ * The renderer's main-thread busy time so far [ms] (DevTools Performance.getMetrics TaskDuration):
+ * CPU-side, less inflated by load than wall time. Cumulative since the page was created, so the
+ * network figure also holds work before navigation start (it can exceed the wall figure).
+ */
 async function mainThreadMs(cdp: CDPSession): Promise<number> {
   const { metrics } = await cdp.send('Performance.getMetrics');
   return 1000 * (metrics.find((m) => m.name === 'TaskDuration')?.value ?? 0);
