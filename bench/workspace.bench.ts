@@ -17,6 +17,7 @@ import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import pg from 'pg';
+import type { CDPSession } from 'playwright-core';
 import { buildWeb } from '../scripts/build-web.js';
 import { buildApp } from '../src/http/app.js';
 import type { StorageConfig } from '../src/storage/factory.js';
@@ -86,6 +87,16 @@ async function networkCalls(name: string, storage: StorageConfig): Promise<strin
   return lines;
 }
 
+/**
+ * The renderer's main-thread busy time so far [ms] (DevTools Performance.getMetrics TaskDuration):
+ * CPU-side, less inflated by load than wall time. Cumulative since the page was created, so the
+ * network figure also holds work before navigation start (it can exceed the wall figure).
+ */
+async function mainThreadMs(cdp: CDPSession): Promise<number> {
+  const { metrics } = await cdp.send('Performance.getMetrics');
+  return 1000 * (metrics.find((m) => m.name === 'TaskDuration')?.value ?? 0);
+}
+
 /** The browser figures alone (also run by `run`). */
 export async function page(): Promise<string[]> {
   if (!chromiumAvailable) return ['page: skipped (no chromium at /usr/bin/chromium)'];
@@ -106,22 +117,32 @@ export async function page(): Promise<string[]> {
     const networkMeans: number[] = [];
     const draw: number[] = [];
     const fetchYear: number[] = [];
+    const networkBusy: number[] = [];
+    const yearBusy: number[] = [];
     for (let i = 0; i < 6; i++) {
       const context = await browser.newContext({ viewport: { width: 1280, height: 1000 } });
       const p = await context.newPage();
+      const cdp = await context.newCDPSession(p);
+      await cdp.send('Performance.enable');
       await p.goto(base);
       await p.waitForFunction(() => performance.getEntriesByName('network-drawn').length > 0, undefined, { timeout: 60_000 });
+      const busyAtDrawn = await mainThreadMs(cdp);
       const drawn = await p.evaluate(() => performance.getEntriesByName('network-drawn')[0]!.startTime);
       await p.waitForSelector('body[data-ready="true"]', { timeout: 60_000 });
       const meansDrawn = await p.evaluate(() => performance.getEntriesByName('network-means-drawn')[0]!.startTime);
+      // WS0001 is also the station start() shows: clear its mark so the wait below is for this selection's draw,
+      // not a measure of it still in flight when the year is clicked.
+      await p.evaluate(() => delete document.body.dataset.station);
       await p.selectOption('#station-select', 'WS0001');
       await p.waitForFunction(() => document.body.dataset.station === 'WS0001');
       const clicked = await p.evaluate(() => {
         performance.clearMeasures();
         return performance.now();
       });
+      const busyBeforeYear = await mainThreadMs(cdp);
       await p.click('.spans button[data-days="365"]');
       await p.waitForFunction(() => performance.getEntriesByName('station-draw').length > 0, undefined, { timeout: 120_000 });
+      const busyYear = (await mainThreadMs(cdp)) - busyBeforeYear;
       const [drawMs, dataAt, points] = await p.evaluate(() => {
         const m = performance.getEntriesByName('station-draw')[0]!;
         return [
@@ -135,6 +156,8 @@ export async function page(): Promise<string[]> {
         networkMeans.push(meansDrawn);
         draw.push(drawMs);
         fetchYear.push(dataAt - clicked);
+        networkBusy.push(busyAtDrawn);
+        yearBusy.push(busyYear);
       }
       if (i === 1) lines.push(`page: station-year of ${points} points`);
       await context.close();
@@ -143,6 +166,8 @@ export async function page(): Promise<string[]> {
     lines.push(`page: ${STATIONS} stations, navigation to the hourly means drawn over it: ${fmt(networkMeans)}`);
     lines.push(`page: station-year drawn (data in memory → charts painted): ${fmt(draw)}`);
     lines.push(`page: station-year fetched and parsed (click → data in memory): ${fmt(fetchYear)}`);
+    lines.push(`page: main-thread busy time (CPU side), navigation → network view drawn: ${fmt(networkBusy)}`);
+    lines.push(`page: main-thread busy time (CPU side), click → station-year drawn (fetch, JSON parse, columns, charts): ${fmt(yearBusy)}`);
   } finally {
     await browser.close();
     await app.close();

@@ -5,17 +5,23 @@
  */
 import uPlot from 'uplot';
 
+/**
+ * A y column: a Float64Array when every value is present (no boxed number per point), an array with
+ * nulls (gaps) otherwise.
+ */
+export type Column = Float64Array | (number | null)[];
+
 export interface PwvColumns {
   /** seconds since 1970 */
   t: Float64Array;
-  pwv: (number | null)[];
-  lower: (number | null)[];
-  upper: (number | null)[];
-  flagged: (number | null)[];
-  pressure: (number | null)[];
-  temperature: (number | null)[];
+  pwv: Column;
+  lower: Column;
+  upper: Column;
+  flagged: Column;
+  pressure: Column;
+  temperature: Column;
   /** PWV of the soundings at their epochs (soundings.ts), null elsewhere; absent = no sounding series. */
-  sounding?: (number | null)[];
+  sounding?: Column;
 }
 
 const LINE = '#23395b';
@@ -73,7 +79,7 @@ export class StationCharts {
       tzDate,
       axes: [timeAxis, { label: 'mm' }],
     };
-    const pwvData = [c.t as unknown as number[], c.pwv, c.lower, c.upper, c.flagged];
+    const pwvData: Column[] = [c.t, c.pwv, c.lower, c.upper, c.flagged];
     if (c.sounding) {
       pwvOpts.series.push({
         label: 'sounding PWV mm',
@@ -84,7 +90,7 @@ export class StationCharts {
       });
       pwvData.push(c.sounding);
     }
-    this.pwv = new uPlot(pwvOpts, pwvData as uPlot.AlignedData, this.pwvBox);
+    this.pwv = new uPlot(pwvOpts, pwvData as unknown as uPlot.AlignedData, this.pwvBox);
     const metOpts: uPlot.Options = {
       width: width(this.metBox),
       height: 200,
@@ -99,7 +105,7 @@ export class StationCharts {
       tzDate,
       axes: [timeAxis, { scale: 'hpa', label: 'hPa' }, { scale: 'c', side: 1, label: '°C', grid: { show: false } }],
     };
-    this.met = new uPlot(metOpts, [c.t as unknown as number[], c.pressure, c.temperature] as uPlot.AlignedData, this.metBox);
+    this.met = new uPlot(metOpts, [c.t, c.pressure, c.temperature] as unknown as uPlot.AlignedData, this.metBox);
   }
 
   /** The PWV chart's canvas as PNG (axes, grid and series are all on it). */

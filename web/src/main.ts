@@ -13,9 +13,9 @@ import {
   type PwvRecord,
 } from './api.js';
 import { loadCoverage } from './coverage.js';
-import { StationCharts, type PwvColumns } from './chart.js';
+import { StationCharts, type Column, type PwvColumns } from './chart.js';
 import { FLAG_TEXT, MARKED_FLAGS } from './flags.js';
-import { drawLegend, drawMap, type StationMap } from './map.js';
+import { drawLegend, drawMap, loadLand, type StationMap } from './map.js';
 import { FIXED_SCALE, fittedScale } from './palette.js';
 import { StationTable } from './table.js';
 import { loadSoundings, showSoundingStatistics, withSoundings, type StationSoundings } from './soundings.js';
@@ -102,7 +102,7 @@ function showHour(stations: NetworkAnswer['stations'], byStation: Map<string, Ho
  * per station, the values the page is about), which replace them. A newer hour chosen meanwhile
  * wins: an answer for an hour no longer shown is dropped.
  */
-async function loadHour(onFirstPaint?: () => void): Promise<void> {
+async function loadHour(onFirstPaint?: () => void, mapDrawn?: Promise<unknown>): Promise<void> {
   const hourMs = state.hourMs;
   const hourText = `${new Date(hourMs).toISOString().slice(0, 13)}Z`;
   const epoch = isoHour(hourMs);
@@ -110,6 +110,8 @@ async function loadHour(onFirstPaint?: () => void): Promise<void> {
   const means = getJson<NetworkAnswer>(networkUrl({ epoch, interval: 'PT1H' }));
   means.catch(() => undefined); // awaited below; no unhandled rejection while the first step runs
   const atHour = await getJson<NetworkAnswer>(networkUrl({ epoch }));
+  performance.mark('network-at-hour');
+  await mapDrawn; // at start the calls run while the map is drawn
   if (state.hourMs !== hourMs) return;
   const records = new Map<string, HourValue>();
   for (const r of atHour.records) {
@@ -122,6 +124,7 @@ async function loadHour(onFirstPaint?: () => void): Promise<void> {
     });
   }
   const first = showHour(atHour.stations, records);
+  performance.mark('network-shown');
   $('map-caption').textContent = `${atHour.stations.length} stations coloured by PWV at ${epoch.slice(11, 16)}Z; hourly means loading…`;
   tableStatus.textContent = `(${hourText}, values at the hour, ${first} of ${atHour.stations.length} stations; hourly means loading…)`;
   onFirstPaint?.();
@@ -140,29 +143,50 @@ async function loadHour(onFirstPaint?: () => void): Promise<void> {
   document.body.dataset.hour = epoch;
 }
 
+/** A column filled with NaN for "no value": typed as it is when complete, else with nulls for uPlot's gaps. */
+function gapsAsNull(col: Float64Array): Column {
+  let i = 0;
+  while (i < col.length && !Number.isNaN(col[i])) i++;
+  if (i === col.length) return col;
+  const out: (number | null)[] = [];
+  for (const v of col) out.push(Number.isNaN(v) ? null : v);
+  return out;
+}
+
+/**
+ * The chart columns in one pass over the records: epochs parsed once (also used by coverage()),
+ * values in Float64Arrays, so a station-year allocates no object per point.
+ */
 function columns(records: PwvRecord[]): PwvColumns {
   const n = records.length;
-  const c: PwvColumns = {
-    t: new Float64Array(n),
-    pwv: new Array(n),
-    lower: new Array(n),
-    upper: new Array(n),
-    flagged: new Array(n),
-    pressure: new Array(n),
-    temperature: new Array(n),
-  };
+  const t = new Float64Array(n);
+  const pwv = new Float64Array(n);
+  const lower = new Float64Array(n);
+  const upper = new Float64Array(n);
+  const pressure = new Float64Array(n);
+  const temperature = new Float64Array(n);
+  const flagged: (number | null)[] = new Array<number | null>(n).fill(null);
   for (let i = 0; i < n; i++) {
     const r = records[i]!;
-    c.t[i] = Date.parse(r.epoch) / 1000;
-    c.pwv[i] = r.pwv_mm;
-    const s = r.pwv_sigma_mm;
-    c.lower[i] = r.pwv_mm !== null && s !== null ? r.pwv_mm - s : null;
-    c.upper[i] = r.pwv_mm !== null && s !== null ? r.pwv_mm + s : null;
-    c.flagged[i] = MARKED_FLAGS.includes(r.quality) ? r.pwv_mm : null;
-    c.pressure[i] = r.pressure_hpa;
-    c.temperature[i] = r.temperature_c;
+    t[i] = Date.parse(r.epoch) / 1000;
+    const v = r.pwv_mm ?? NaN;
+    const s = r.pwv_sigma_mm ?? NaN;
+    pwv[i] = v;
+    lower[i] = v - s;
+    upper[i] = v + s;
+    if (r.pwv_mm !== null && MARKED_FLAGS.includes(r.quality)) flagged[i] = r.pwv_mm;
+    pressure[i] = r.pressure_hpa ?? NaN;
+    temperature[i] = r.temperature_c ?? NaN;
   }
-  return c;
+  return {
+    t,
+    pwv: gapsAsNull(pwv),
+    lower: gapsAsNull(lower),
+    upper: gapsAsNull(upper),
+    flagged,
+    pressure: gapsAsNull(pressure),
+    temperature: gapsAsNull(temperature),
+  };
 }
 
 function definitionList(dl: HTMLElement, items: [string, string][]): void {
@@ -177,14 +201,14 @@ function definitionList(dl: HTMLElement, items: [string, string][]): void {
 }
 
 /** First/last epoch, sources and the gaps longer than three typical spacings (and 15 min). */
-function coverage(records: PwvRecord[]): [string, string][] {
+function coverage(records: PwvRecord[], tSec: Float64Array): [string, string][] {
   if (records.length === 0) return [['records', 'none in this span']];
-  const t = records.map((r) => Date.parse(r.epoch));
+  const t = tSec.map((s) => s * 1000);
   const steps = t
-    .slice(1)
+    .subarray(1)
     .map((x, i) => x - t[i]!)
     .filter((d) => d > 0)
-    .sort((a, b) => a - b);
+    .sort();
   const typical = steps.length ? steps[Math.floor(steps.length / 2)]! : 0;
   const limit = Math.max(3 * typical, 15 * 60_000);
   const gaps: [number, number][] = [];
@@ -220,7 +244,10 @@ async function loadStation(): Promise<void> {
     if (!known.has(s)) sourceSelect.append(new Option(s, s));
   }
   performance.mark('station-data');
-  charts.draw(soundings instanceof Error ? columns(records) : withSoundings(columns(records), soundings.soundings));
+  const cols = columns(records);
+  performance.mark('station-columns');
+  charts.draw(soundings instanceof Error ? cols : withSoundings(cols, soundings.soundings));
+  performance.mark('station-charts');
   await new Promise<void>((resolve) => requestAnimationFrame(() => resolve()));
   performance.measure('station-draw', 'station-data');
   const counts = new Map<string, number>();
@@ -229,7 +256,7 @@ async function loadStation(): Promise<void> {
     $('flag-list'),
     Object.keys(FLAG_TEXT).map((f) => [`${f}: ${counts.get(f) ?? 0}`, FLAG_TEXT[f]!] as [string, string]),
   );
-  definitionList($('coverage'), coverage(records));
+  definitionList($('coverage'), coverage(records, cols.t));
   showSoundings(soundings);
   state.downloads.stationCsv = networkUrl({ ...params, format: 'csv' });
   state.downloads.stationNc = networkUrl({ ...params, format: 'netcdf' });
@@ -280,18 +307,23 @@ const newestEpochMs = (a: NetworkAnswer) => a.records.reduce((m, x) => Math.max(
 
 async function start(): Promise<void> {
   const latest = await getJson<NetworkAnswer>(LATEST_URL);
+  performance.mark('network-latest');
   const newest = newestEpochMs(latest);
   setHour(Number.isFinite(newest) ? newest : Date.now());
   stationSelect.replaceChildren(); // start() runs again after a key is entered
   for (const s of latest.stations) stationSelect.append(new Option(`${s.station_id} ${s.name}`, s.station_id));
-  state.map = await drawMap(
+  let firstPaint = () => {};
+  const painted = new Promise<void>((resolve) => (firstPaint = resolve));
+  const mapDrawn = drawMap(
     $('map') as unknown as SVGSVGElement,
     latest.stations,
     (id) => void pickStation(id).catch((e) => report(e, stationStatus)),
-  );
-  let firstPaint = () => {};
-  const painted = new Promise<void>((resolve) => (firstPaint = resolve));
-  const hour = loadHour(firstPaint);
+  ).then((map) => {
+    state.map = map;
+    performance.mark('network-map');
+  });
+  const hour = loadHour(firstPaint, mapDrawn);
+  await mapDrawn;
   // First paint: the map and table with the values at the hour (bench/workspace.bench.ts reads both marks).
   await Promise.race([painted, hour]);
   await new Promise<void>((resolve) => requestAnimationFrame(() => resolve()));
@@ -385,4 +417,5 @@ $('time-controls').addEventListener('submit', (e) => e.preventDefault());
 $('station-controls').addEventListener('submit', (e) => e.preventDefault());
 
 keyStatus.textContent = readKey() ? 'Key in use for this tab.' : '';
+void loadLand().catch(() => undefined); // drawMap reports a failure; here only started early
 start().catch((e) => report(e, tableStatus));

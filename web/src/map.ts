@@ -20,7 +20,8 @@ export interface StationMap {
 }
 
 let landPromise: Promise<Topology> | null = null;
-function loadLand(): Promise<Topology> {
+/** Fetches the land outline once; main.ts calls it at load so it arrives while the stations are asked for. */
+export function loadLand(): Promise<Topology> {
   landPromise ??= fetch('assets/land-50m.json').then((r) => r.json() as Promise<Topology>);
   return landPromise;
 }
@@ -69,10 +70,14 @@ export async function drawMap(svg: SVGSVGElement, stations: NetworkStation[], on
     const title = el('title', {});
     title.textContent = `${s.station_id} ${s.name}`;
     c.append(title);
-    c.addEventListener('click', () => onPick(s.station_id));
     circles.set(s.station_id, c);
     group.append(c);
   }
+  // One listener for all stations (a thousand listeners cost more than the circles).
+  group.addEventListener('click', (e) => {
+    const id = (e.target as Element).closest('circle')?.getAttribute('data-station');
+    if (id) onPick(id);
+  });
   svg.append(group);
   const names = new Map(stations.map((s) => [s.station_id, s.name]));
   return {

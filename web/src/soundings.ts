@@ -48,7 +48,7 @@ export function withSoundings(c: PwvColumns, soundings: readonly ListedSounding[
   const points = soundings.map((s) => ({ t: Date.parse(s.epoch) / 1000, pwv: s.pwv_mm })).sort((a, b) => a.t - b.t);
   const n = c.t.length;
   const t: number[] = [];
-  const out: Omit<PwvColumns, 't'> & { sounding: (number | null)[] } = {
+  const out: Record<Exclude<keyof PwvColumns, 't'>, (number | null)[]> = {
     pwv: [],
     lower: [],
     upper: [],

@@ -49,6 +49,11 @@ export class StationTable {
       head.append(th);
     }
     this.updateHeader();
+    // One listener for every row's button (rows are rebuilt at each hour).
+    table.tBodies[0]!.addEventListener('click', (e) => {
+      const id = (e.target as Element).closest('button')?.closest('tr')?.dataset.station;
+      if (id) this.onPick(id);
+    });
   }
 
   setRows(rows: TableRow[]): void {
@@ -97,7 +102,6 @@ export class StationTable {
           b.className = 'link';
           b.textContent = String(v);
           b.setAttribute('aria-label', `Show the series of ${r.stationId}`);
-          b.addEventListener('click', () => this.onPick(r.stationId));
           td.append(b);
         } else {
           td.textContent = v === null ? '–' : c.numeric ? (v as number).toFixed(c.digits) : String(v);
