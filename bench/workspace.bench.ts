@@ -23,23 +23,13 @@ import { buildApp } from '../src/http/app.js';
 import type { StorageConfig } from '../src/storage/factory.js';
 import { chromiumAvailable, launchBrowser } from '../test/helpers/browser.js';
 import { seedWorkspaceNetwork } from '../test/helpers/workspace-network.js';
+import { BENCH_PG_URL, pgAvailable } from './postgres-available.js';
 
 const KEY = 'bench-key-0123456789abcdef';
-const PG_URL = process.env.BENCH_DATABASE_URL ?? 'postgres://postgres@127.0.0.1:5432/test';
+const PG_URL = BENCH_PG_URL;
 const STATIONS = 1000;
 const T0 = Date.UTC(2026, 6, 10);
 const RUNS = 10;
-
-async function pgAvailable(): Promise<boolean> {
-  const client = new pg.Client({ connectionString: PG_URL, connectionTimeoutMillis: 2000 });
-  try {
-    await client.connect();
-    await client.end();
-    return true;
-  } catch {
-    return false;
-  }
-}
 
 const fmt = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b);
