@@ -107,10 +107,12 @@ async function loadHour(onFirstPaint?: () => void, mapDrawn?: Promise<unknown>):
   const hourText = `${new Date(hourMs).toISOString().slice(0, 13)}Z`;
   const epoch = isoHour(hourMs);
   tableStatus.textContent = `(${hourText}, loading…)`;
-  const means = getJson<NetworkAnswer>(networkUrl({ epoch, interval: 'PT1H' }));
-  means.catch(() => undefined); // awaited below; no unhandled rejection while the first step runs
+  // The records first, the means only once they are in: the service answers one call at a time per
+  // database, and the means (a whole hour of records per station) would hold up the cheap first step.
   const atHour = await getJson<NetworkAnswer>(networkUrl({ epoch }));
   performance.mark('network-at-hour');
+  const means = getJson<NetworkAnswer>(networkUrl({ epoch, interval: 'PT1H' }));
+  means.catch(() => undefined); // awaited below; no unhandled rejection while the first step runs
   await mapDrawn; // at start the calls run while the map is drawn
   if (state.hourMs !== hourMs) return;
   const records = new Map<string, HourValue>();
