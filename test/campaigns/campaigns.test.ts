@@ -13,7 +13,7 @@ import { CampaignStore } from '../../src/storage/campaigns/campaign-store.js';
 import { GuardRefusedError } from '../../src/storage/sql-executor.js';
 import { useArchiveApp, type ArchiveApp } from '../helpers/archive-app.js';
 import { inventedStations, stationDay, type StationDayData } from '../helpers/campaign-network.js';
-import { BACKENDS } from '../helpers/storage.js';
+import { BACKENDS, ztdOnlyRow } from '../helpers/storage.js';
 
 const MM = 1e-3;
 const STATIONS = inventedStations(2);
@@ -157,19 +157,7 @@ for (const backend of BACKENDS) {
       expect(await store.claim(campaignId, item, 'token-a', 'replica-a', new Date().toISOString())).toBe(true);
       // The job expired; another replica claims the item again.
       expect(await store.claim(campaignId, item, 'token-b', 'replica-b', new Date().toISOString())).toBe(true);
-      const row = {
-        epochMs: Date.parse(`${DAYS[0]}T01:00:00Z`),
-        source: 'exactly-once',
-        ztdM: 2.4,
-        ztdSigmaM: 0.003,
-        zwdM: null,
-        zwdSigmaM: null,
-        northGradientM: null,
-        eastGradientM: null,
-        northGradientSigmaM: null,
-        eastGradientSigmaM: null,
-        modelFingerprint: 'f0',
-      };
+      const row = ztdOnlyRow(Date.parse(`${DAYS[0]}T01:00:00Z`), 'exactly-once', 2.4, 'f0', 0.003);
       const modelSet = { modelFingerprint: 'f0', models: { test: 'exactly-once' } };
       const done = { residualSha256: 'x', modelFingerprint: 'f0', cpuMs: 1, finishedAtMs: Date.now() };
       // The first replica, presumed dead, finishes late: its guard refuses and nothing is stored.

@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import { randomBytes } from 'node:crypto';
 import pg from 'pg';
 import type { StorageConfig } from '../../src/storage/factory.js';
+import type { DelayRow } from '../../src/storage/repository.js';
 
 /** PostgreSQL for tests: TEST_DATABASE_URL, else DATABASE_URL; unset = SQLite only. */
 export const TEST_PG_URL = process.env.TEST_DATABASE_URL || process.env.DATABASE_URL || undefined;
@@ -46,3 +47,23 @@ export const postgresBackend: BackendUnderTest = {
 
 /** The backends the storage suites run on: SQLite always, PostgreSQL when a URL is set. */
 export const BACKENDS: BackendUnderTest[] = TEST_PG_URL ? [sqliteBackend, postgresBackend] : [sqliteBackend];
+
+/**
+ * A delay row with a ZTD and its σ only (no ZWD, no gradients): the row the storage, network-read and
+ * campaign tests write when the stored values themselves are not the point.
+ */
+export function ztdOnlyRow(epochMs: number, source: string, ztdM: number, modelFingerprint: string, ztdSigmaM = 0.004): DelayRow {
+  return {
+    epochMs,
+    source,
+    ztdM,
+    ztdSigmaM,
+    zwdM: null,
+    zwdSigmaM: null,
+    northGradientM: null,
+    eastGradientM: null,
+    northGradientSigmaM: null,
+    eastGradientSigmaM: null,
+    modelFingerprint,
+  };
+}

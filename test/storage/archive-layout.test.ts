@@ -23,7 +23,7 @@ import type { DelayRow, MetRow, Repository } from '../../src/storage/repository.
 import { delayFromArray, metFromArray, type MetArrayRow } from '../../src/storage/rows.js';
 import { MIGRATION_LOCK_CLASS, migratePostgres, migrationLockKey } from '../../src/storage/postgres/postgres-repository.js';
 import { SQLITE_FILE_NAME, migrateSqlite } from '../../src/storage/sqlite/sqlite-repository.js';
-import { BACKENDS, TEST_PG_URL } from '../helpers/storage.js';
+import { BACKENDS, TEST_PG_URL, ztdOnlyRow } from '../helpers/storage.js';
 
 const LAYOUT = MIGRATIONS.find((m) => m.name.startsWith('archive layout'))!;
 const BEFORE_LAYOUT = MIGRATIONS.filter((m) => m.version < LAYOUT.version);
@@ -273,19 +273,7 @@ for (const backend of BACKENDS) {
             stationId: id,
             rows: Array.from({ length: 12 }, (_, k) => k).flatMap((k) => {
               const epochMs = T0 + hour * 3_600_000 + k * FIVE_MIN;
-              const row = (source: string, ztdM: number): DelayRow => ({
-                epochMs,
-                source,
-                ztdM,
-                ztdSigmaM: 0.004,
-                zwdM: null,
-                zwdSigmaM: null,
-                northGradientM: null,
-                eastGradientM: null,
-                northGradientSigmaM: null,
-                eastGradientSigmaM: null,
-                modelFingerprint: model.model_fingerprint,
-              });
+              const row = (source: string, ztdM: number): DelayRow => ztdOnlyRow(epochMs, source, ztdM, model.model_fingerprint);
               return i % 3 === 0 ? [row('b', 2.4 + i * 1e-3), row('a', 2.3 + k * 1e-4)] : [row('a', 2.3 + k * 1e-4)];
             }),
           })),

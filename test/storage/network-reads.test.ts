@@ -8,26 +8,14 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { provenance } from '../../src/domain/provenance.js';
 import { createRepository } from '../../src/storage/factory.js';
 import type { DelayRow, Repository } from '../../src/storage/repository.js';
-import { BACKENDS } from '../helpers/storage.js';
+import { BACKENDS, ztdOnlyRow } from '../helpers/storage.js';
 
 const T0 = Date.UTC(2026, 2, 1);
 const MIN = 60_000;
 const models = provenance({ test: 'network reads' });
 const modelSet = { modelFingerprint: models.model_fingerprint, models: models.models };
 
-const delay = (epochMs: number, source: string, ztdM: number): DelayRow => ({
-  epochMs,
-  source,
-  ztdM,
-  ztdSigmaM: 0.004,
-  zwdM: null,
-  zwdSigmaM: null,
-  northGradientM: null,
-  eastGradientM: null,
-  northGradientSigmaM: null,
-  eastGradientSigmaM: null,
-  modelFingerprint: models.model_fingerprint,
-});
+const delay = (epochMs: number, source: string, ztdM: number): DelayRow => ztdOnlyRow(epochMs, source, ztdM, models.model_fingerprint);
 
 for (const backend of BACKENDS) {
   describe(`many-station reads on ${backend.name}`, () => {
