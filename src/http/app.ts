@@ -202,8 +202,8 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(slantDelaysRoute);
   await app.register(precipitableWaterRoute);
   await app.register(zwdEstimatesRoute);
-  await app.register(networkEstimatesRoute);
   const stationOptions = { maxReadRangeDays: archive.maxReadRangeDays };
+  await app.register(networkEstimatesRoute, stationOptions);
   await app.register(stationsRoute);
   await app.register(stationMetRoute, stationOptions);
   await app.register(stationDelaysRoute, stationOptions);

@@ -9,7 +9,7 @@ import type { TaskLocation } from '../workers/compute-pool.js';
 import type { handleMappingFactorsRequest, handlePrecipitableWaterRequest, handleSlantDelaysRequest } from './tasks/apriori-batch.js';
 import type { readDelayDepositTask, readMetJsonUploadTask } from './tasks/json-upload.js';
 import type { readMetUploadTask } from './tasks/met-upload.js';
-import type { handleNetworkRequest } from './tasks/network-request.js';
+import type { handleNetworkRequest, scanNetworkRequest } from './tasks/network-request.js';
 import type { handleZwdRequest, scanZwdRequest } from './tasks/zwd-request.js';
 import type { readResidualDepositTask } from './tasks/residual-deposit.js';
 import type { estimateCampaignItemTask } from './tasks/campaign-item.js';
@@ -21,6 +21,8 @@ export type ComputeTasks = {
   'network-estimate-request': typeof handleNetworkRequest;
   /** First pass of a station's estimation: the epoch range of the observations and whether the body has met. */
   'zwd-request-scan': typeof scanZwdRequest;
+  /** First pass of the storing network estimation: the epoch range, the stations and which have met in the body. */
+  'network-request-scan': typeof scanNetworkRequest;
   /** A large POST /v1/slant-delays (body above OFFLOAD_BODY_BYTES): parse, validate, compute, serialise. */
   'slant-delays-request': typeof handleSlantDelaysRequest;
   /** A large POST /v1/mapping-factors, the same way. */
@@ -54,6 +56,7 @@ export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
   'zwd-estimate-request': { module: zwdRequestModule, exportName: 'handleZwdRequest' },
   'network-estimate-request': { module: networkRequestModule, exportName: 'handleNetworkRequest' },
   'zwd-request-scan': { module: zwdRequestModule, exportName: 'scanZwdRequest' },
+  'network-request-scan': { module: networkRequestModule, exportName: 'scanNetworkRequest' },
   'slant-delays-request': { module: aprioriBatchModule, exportName: 'handleSlantDelaysRequest' },
   'mapping-factors-request': { module: aprioriBatchModule, exportName: 'handleMappingFactorsRequest' },
   'precipitable-water-request': { module: aprioriBatchModule, exportName: 'handlePrecipitableWaterRequest' },

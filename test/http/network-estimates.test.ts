@@ -405,6 +405,7 @@ for (const backend of BACKENDS) {
         expect(res.body.stored[i]).toEqual({
           station: st.station,
           source: 'net-run-1',
+          met_used: 'none',
           inserted: st.series.length,
           updated: 0,
           unchanged: 0,

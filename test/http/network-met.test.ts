@@ -11,7 +11,8 @@
  *   Tm ≈ 270–290 K): pwv_sigma_mm / sigma_m stays within [0.14, 0.17] per mm, so with the clocks
  *   estimated PWV carries the (large) σ of the absolute ZWD.
  * - The stored rows (GET /v1/stations/{id}/delays) of the network storing route equal those the
- *   single-station storing route stores for the same data and met.
+ *   single-station storing route stores for the same data and met; without met in the request, a
+ *   station's stored met serves, as it does on the single-station storing route (same rows to 1e-9 m).
  * Stations, places and met values are invented.
  */
 
@@ -19,7 +20,7 @@ import { describe, expect, it } from 'vitest';
 import { problemFields, useApp } from '../helpers/app.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
-import { APRIORI, MM, networkBody, observationsOf, SHARED_MODEL, sim, siteOf, TOL_M } from './network-fixtures.js';
+import { APRIORI, csvOf, MM, networkBody, observationsOf, SHARED_MODEL, sim, siteOf, TOL_M } from './network-fixtures.js';
 
 /** Met every 10 min from 05:50 to 07:10 with a 40-min gap (06:10–06:50) longer than MET_OPTIONS.met_max_gap_s. */
 const MET_EPOCHS = ['05:50', '06:00', '06:10', '06:50', '07:00', '07:10'].map((t) => `2026-06-21T${t}:00.000Z`);
@@ -244,5 +245,130 @@ for (const backend of BACKENDS) {
         }
       },
     );
+  });
+}
+
+for (const backend of BACKENDS) {
+  describe(`POST /v1/network/zwd-estimates on ${backend.name}: a station without met in the request uses its stored met`, () => {
+    const { api, auth } = useArchiveApp(backend);
+    const s = sim(53, 'known');
+    // Stored met for the first two stations (the second's sensor 12 m below the antenna),
+    // request met for the third, none for the fourth.
+    const [archived, offset, inRequest, without] = s.stations;
+
+    async function setUp() {
+      for (const [i, st] of s.stations.entries()) {
+        const metHeight = st === offset ? { met_height_m: siteOf(st).height_m - 12 } : {};
+        await api()
+          .put(`/v1/stations/${st.name}`)
+          .set('authorization', auth)
+          .send({ name: `${st.name} (invented)`, ...siteOf(st), ...metHeight })
+          .expect((r) => expect([200, 201]).toContain(r.status));
+        if (st === archived || st === offset)
+          await api()
+            .post(`/v1/stations/${st.name}/met`)
+            .set('authorization', auth)
+            .send({ records: metOf(i) })
+            .expect(200);
+      }
+    }
+
+    const read = async (station: string, source: string) =>
+      (
+        await api()
+          .get(`/v1/stations/${station}/delays`)
+          .query({ from: '2026-06-21T05:00:00Z', to: '2026-06-21T08:00:00Z', source })
+          .expect(200)
+      ).body.records as Record<string, number | string | null>[];
+
+    it('met_used per station, and every stored row equals the single-station storing route’s', { timeout: 180_000 }, async () => {
+      await setUp();
+      const network = await api()
+        .post('/v1/network/zwd-estimates?source=net-stored-met')
+        .set('authorization', auth)
+        .send({
+          stations: s.stations.map((st) => ({ id: st.name, apriori: APRIORI })),
+          observations: observationsOf(s),
+          met: metOf(2).map((r) => ({ station: inRequest!.name, ...r })),
+          options: { ...MET_OPTIONS, satellite_clocks: 'known' },
+        })
+        .expect(200);
+      expect(network.body.stored.map((x: { met_used: string }) => x.met_used)).toEqual(['archive', 'archive', 'request', 'none']);
+      expect(network.body.warnings.join(' ')).toContain(`station ${archived!.name}: met from 6 records of the station's stored met series`);
+      for (const [i, st] of s.stations.entries()) {
+        // The single-station storing route reads the stored met itself when the body has none.
+        const met = st === inRequest ? { met: metOf(i) } : {};
+        const single = await api()
+          .post(`/v1/stations/${st.name}/zwd-estimates?source=single-stored-met`)
+          .set('authorization', auth)
+          .send({ apriori: APRIORI, observations: observationsOf(s, st.name), ...met, options: MET_OPTIONS })
+          .expect(200);
+        expect(single.body.met_used).toBe(network.body.stored[i].met_used);
+        const [net, one] = [await read(st.name, 'net-stored-met'), await read(st.name, 'single-stored-met')];
+        expect(net.length).toBeGreaterThan(50);
+        expect(net).toHaveLength(one.length);
+        net.forEach((r, k) => {
+          for (const f of ['ztd_m', 'zwd_m', 'zwd_sigma_m', 'east_gradient_m']) {
+            expect(Math.abs((r[f] as number) - (one[k]![f] as number)), `${st.name} ${f} at ${r.epoch}`).toBeLessThan(TOL_M);
+          }
+        });
+        const series = network.body.stations[i].series as Entry[];
+        if (st === without) expect(series.every((e) => e.pwv_mm === undefined)).toBe(true);
+        else expect(series.some((e) => typeof e.pwv_mm === 'number')).toBe(true);
+      }
+      // The sensor 12 m below the antenna: its stored pressure is reduced to the antenna (about 1.4 hPa less,
+      // ≈ 3 mm less ZHD; 1 hPa ≈ 8 m near sea level, common practice), so its ZHD is not the raw record's.
+      const raw = await api()
+        .post('/v1/network-estimates')
+        .send({
+          stations: [{ id: offset!.name, site: siteOf(offset!), apriori: APRIORI }],
+          observations: observationsOf(s, offset!.name).map((o) => ({ ...o, station: offset!.name })),
+          met: metOf(1).map((r) => ({ station: offset!.name, ...r })),
+          options: { ...MET_OPTIONS, satellite_clocks: 'known' },
+        });
+      expect(raw.status).toBe(200);
+      const reducedZhd = (network.body.stations[1].series as Entry[])[0]!.zhd_m as number;
+      const rawZhd = (raw.body.stations[0].series as Entry[])[0]!.zhd_m as number;
+      expect((rawZhd - reducedZhd) * 1000).toBeGreaterThan(2.5);
+      expect((rawZhd - reducedZhd) * 1000).toBeLessThan(3.5);
+    });
+
+    it('a CSV request (which carries no met) uses the stored met too', { timeout: 120_000 }, async () => {
+      await setUp();
+      const query = [
+        ...s.stations.map((st) => `station=${st.name},${APRIORI.zhd_m},${APRIORI.zwd_m}`),
+        'satellite_clocks=known',
+        'parametrisation=nodes',
+        'correlated_noise=false',
+        'scale_sigmas=false',
+        'zwd_interval_s=300',
+        'met_max_gap_s=1200',
+        'source=net-csv',
+      ].join('&');
+      const res = await api()
+        .post(`/v1/network/zwd-estimates?${query}`)
+        .set('authorization', auth)
+        .set('content-type', 'text/csv')
+        .send(csvOf(observationsOf(s)))
+        .expect(200);
+      expect(res.body.stored.map((x: { met_used: string }) => x.met_used)).toEqual(['archive', 'archive', 'none', 'none']);
+    });
+
+    it('stored met beyond the read range: 400 naming observations, nothing stored', async () => {
+      await setUp();
+      const far = observationsOf(s).map((o, k) => (k === 0 ? { ...o, epoch: '2025-01-01T00:00:00.000Z' } : o));
+      const res = await api()
+        .post('/v1/network/zwd-estimates?source=net-far')
+        .set('authorization', auth)
+        .send({
+          stations: s.stations.map((st) => ({ id: st.name, apriori: APRIORI })),
+          observations: far,
+          options: { ...MET_OPTIONS, satellite_clocks: 'known' },
+        })
+        .expect(400);
+      expect(problemFields(res.body)).toEqual(['observations']);
+      expect(res.body.errors[0].message).toContain('send `met` in the request or split the observations');
+      expect(await read(archived!.name, 'net-far')).toHaveLength(0);
+    });
   });
 }

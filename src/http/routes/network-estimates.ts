@@ -8,7 +8,12 @@
 
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { Site } from '../../domain/site.js';
+import { MAX_MET_RECORDS } from '../../limits.js';
+import { CallerError } from '../../services/caller-error.js';
+import type { MetColumns } from '../../services/station-met.js';
 import type { DelayColumns } from '../../services/zwd-estimation.js';
+import type { Repository, Station } from '../../storage/repository.js';
+import type { MetUsed, NetworkScanOutput } from '../tasks/network-request.js';
 import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, transferOf } from '../raw-body.js';
 
 import { problemSchema } from '../schemas/common.js';
@@ -25,7 +30,8 @@ import {
   networkStoredQuerySchema,
   ZWD_BODY_LIMIT_BYTES,
 } from '../schemas/network-estimates.js';
-import { delayRows } from './station-zwd-estimates.js';
+import type { StationRouteOptions } from './station-common.js';
+import { delayRows, storedMetFor } from './station-zwd-estimates.js';
 
 const MODEL_TEXT =
   'Per observation r = m_w(e) δw_a(t) + m_g(e) [cos A G_N,a(t) + sin A G_E,a(t)] + ρ_a(t) + σ_k(t) + ε: ZWD and gradients per station with the random-walk model of POST /v1/zwd-estimates (piecewise-linear nodes), one receiver clock ρ per station and epoch and, with satellite_clocks "estimated", one clock σ per satellite and epoch, both pre-eliminated epoch by epoch (equivalent to double differences with their full covariance; one datum clock per connected group and epoch). With satellite_clocks "known" (point positioning) every station is solved alone, as by POST /v1/zwd-estimates.';
@@ -35,7 +41,7 @@ const LIMITS_TEXT = `Limits, checked before any work: up to ${MAX_NETWORK_STATIO
 const BODY_TEXT =
   'Bodies: application/json (this schema; observations as an array of objects or as column arrays with a station column, met as records naming their station); application/vnd.apache.arrow.stream (the observations as an Arrow IPC table with a station column, the rest of the request as JSON in the schema metadata "request"); or text/csv: a table with the header row station,epoch,satellite,elevation_deg,azimuth_deg,residual_m[,sigma_m], the stations as query parameters station=ID,latitude_deg,longitude_deg,height_m[,apriori_zhd_m[,apriori_zwd_m]] (once per station) and the options as query parameters (those of POST /v1/zwd-estimates plus satellite_clocks, reference_station, common_mode_sigma_threshold_m); a text/csv request carries no met (as with POST /v1/zwd-estimates). All forms give the same answer.';
 
-const networkEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
+const networkEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = async (app, options) => {
   keepJsonBodiesAsBytes(app);
   app.post(
     '/v1/network-estimates',
@@ -82,7 +88,7 @@ const networkEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
         summary: "Estimate ZWD jointly for archive stations and store every station's series",
         description: [
           'The estimation of POST /v1/network-estimates for stations of the archive: `stations` name archive stations (id, optional apriori; no site: the stored coordinates are the sites; a station not in the archive is a 404 naming stations.N.id). text/csv: station=ID[,apriori_zhd_m[,apriori_zwd_m]] once per station. JSON and Arrow bodies as for POST /v1/network-estimates.',
-          `Every station's series is stored as its delay series under ?source= (default "${DEFAULT_NETWORK_SOURCE}") and the result's model_fingerprint, all stations in one transaction: all or nothing; per epoch the values POST /v1/stations/{id}/zwd-estimates stores for the same data and met (zwd_m = ZTD − ZHD of the station's met in the request, else of the a-priori ZHD; the station's stored met is not read). A station whose estimated ZTD falls outside the range a direct deposit accepts makes the whole request a 422 and nothing is stored.`,
+          `Every station's series is stored as its delay series under ?source= (default "${DEFAULT_NETWORK_SOURCE}") and the result's model_fingerprint, all stations in one transaction: all or nothing; per epoch the values POST /v1/stations/{id}/zwd-estimates stores for the same data and met (zwd_m = ZTD − ZHD of the station's met). A station's met: its records in the request's met[]; for a station without records there, its stored met series (records with pressure and temperature, reduced from met_height_m to the antenna height) from 1 day before the first to 1 day after the last observation of the request, read as that route reads it (a span beyond the maximum read range, or more than MAX_MET_RECORDS stored records for all such stations together, is a 400 naming observations); else the a-priori ZHD. stored[].met_used says which (request | archive | none); text/csv requests use the stored met. A station whose estimated ZTD falls outside the range a direct deposit accepts makes the whole request a 422 and nothing is stored.`,
           MODEL_TEXT,
           LIMITS_TEXT,
           'Writes need `Authorization: Bearer <key>`.',
@@ -107,33 +113,69 @@ const networkEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
     },
     async (request, reply) => {
       const source = request.query.source ?? DEFAULT_NETWORK_SOURCE;
-      const raw = rawBodyOf(request);
+      const query = request.query as Record<string, unknown>;
+      const sent = rawBodyOf(request);
+      const scanned = await app.compute.run('network-request-scan', { ...sent, query }, transferOf(sent));
+      // JSON and Arrow bytes were moved to the scan and back; a text body is still the request's.
+      const raw = { body: scanned.body ?? sent.body, format: sent.format };
+      const archive = new Map((await app.repository.listStations()).map((s) => [s.stationId, s]));
       const archiveSites: Record<string, Site> = {};
-      for (const s of await app.repository.listStations())
+      for (const s of archive.values())
         archiveSites[s.stationId] = { latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, heightM: s.heightM };
-      const output = await app.compute.run(
-        'network-estimate-request',
-        { ...raw, query: request.query as Record<string, unknown>, archiveSites },
-        transferOf(raw),
-      );
-      const stored = await storeNetwork(app.repository, source, output.delays!, output.modelFingerprint!, output.models!);
+      const storedMet = await networkStoredMet(app.repository, archive, scanned, options.maxReadRangeDays);
+      const output = await app.compute.run('network-estimate-request', { ...raw, query, archiveSites, storedMet }, transferOf(raw));
+      const stored = await storeNetwork(app.repository, source, output.delays!, output.modelFingerprint!, output.models!, output.metUsed!);
       const tail = `,"stored":${JSON.stringify(stored)}}`;
       return reply.type('application/json').send(Buffer.concat([asBuffer(output.json), Buffer.from(tail)]) as never);
     },
   );
 };
 
+/**
+ * The stored met of the request's archive stations that have no met records in the request, read as the
+ * single-station storing route reads it (storedMetFor: 1 day around the observations, at the antenna
+ * height, bounded by the read range).
+ * @throws CallerError 400 naming `observations` when the stations' stored met together exceeds MAX_MET_RECORDS
+ */
+async function networkStoredMet(
+  repository: Repository,
+  archive: Map<string, Station>,
+  scan: NetworkScanOutput,
+  maxReadRangeDays: number,
+): Promise<Record<string, MetColumns>> {
+  const out: Record<string, MetColumns> = {};
+  const withMet = new Set(scan.metStations);
+  let records = 0;
+  for (const id of new Set(scan.stations)) {
+    const station = archive.get(id);
+    if (!station || withMet.has(id)) continue;
+    const met = await storedMetFor(repository, station, { range: scan.range, hasMet: false }, maxReadRangeDays);
+    if (!met || met.epochMs.length === 0) continue;
+    records += met.epochMs.length;
+    if (records > MAX_MET_RECORDS) {
+      throw CallerError.field(
+        400,
+        'observations',
+        `the stations without met in the request have more than ${MAX_MET_RECORDS} stored met records around the observations together (MAX_MET_RECORDS, all stations of one estimation): send \`met\` in the request or split the observations or the stations`,
+      );
+    }
+    out[id] = met;
+  }
+  return out;
+}
+
 /** Every station's rows in one transaction (Repository.writeDelaysMany): all stored or none. */
 async function storeNetwork(
-  repository: import('../../storage/repository.js').Repository,
+  repository: Repository,
   source: string,
   delays: { station: string; columns: DelayColumns }[],
   modelFingerprint: string,
   models: Record<string, string | number | boolean | null>,
+  metUsed: MetUsed[],
 ) {
   const writes = delays.map((d) => ({ stationId: d.station, rows: delayRows(d.columns, source, modelFingerprint) }));
   const counts = await repository.writeDelaysMany(writes, { modelFingerprint, models });
-  return delays.map((d, i) => ({ station: d.station, source, ...counts[i]! }));
+  return delays.map((d, i) => ({ station: d.station, source, met_used: metUsed[i]!, ...counts[i]! }));
 }
 
 export default networkEstimatesRoute;

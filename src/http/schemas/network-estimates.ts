@@ -265,6 +265,11 @@ export const networkStoredEstimatesResponse = networkEstimatesResponse.extend({
       z.object({
         station: z.string(),
         source: z.string(),
+        met_used: z
+          .enum(['request', 'archive', 'none'])
+          .describe(
+            "Where the station's met came from: its records in the request's met[], its stored met series, or neither (ZHD a-priori, no PWV)",
+          ),
         inserted: z.number().int(),
         updated: z.number().int(),
         unchanged: z.number().int(),

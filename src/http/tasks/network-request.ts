@@ -14,8 +14,9 @@ import type { NetworkObservationColumns } from '../../estimation/network/types.j
 import { FormatError } from '../../formats/format-error.js';
 import { MAX_OBSERVATIONS } from '../../limits.js';
 import { CallerError } from '../../services/caller-error.js';
-import { networkDelayColumns, runNetworkEstimation } from '../../services/network-estimation.js';
+import { networkDelayColumns, runNetworkEstimation, type NetworkEstimationRequest } from '../../services/network-estimation.js';
 import { checkStorableDelays, checkStorableZwd, type DelayColumns } from '../../services/zwd-estimation.js';
+import type { MetColumns } from '../../services/station-met.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import { readNetworkObservationCsv, stationsFromQuery } from '../adapters/network-csv.js';
 import {
@@ -40,6 +41,7 @@ import {
   type NetworkStoredEstimatesRequest,
 } from '../schemas/network-estimates.js';
 import { optionsFromQuery } from '../schemas/zwd-estimates.js';
+import { epochRangeOf, epochTextsOf } from './epoch-range.js';
 import { asOutcome, fail } from './task-errors.js';
 
 export interface NetworkRequestTaskInput {
@@ -50,6 +52,11 @@ export interface NetworkRequestTaskInput {
   query: Record<string, unknown>;
   /** The storing route: the archive's stations by id (their sites); a station not in it is a 404. */
   archiveSites?: Record<string, Site>;
+  /**
+   * The storing route: the stored met (at the antenna height) of the stations without met records in the
+   * request, by station id; read by the route after scanNetworkRequest.
+   */
+  storedMet?: Record<string, MetColumns>;
 }
 
 export interface NetworkRequestTaskOutput {
@@ -60,7 +67,12 @@ export interface NetworkRequestTaskOutput {
   delays?: { station: string; columns: DelayColumns }[];
   modelFingerprint?: string;
   models?: Record<string, string | number | boolean | null>;
+  /** The storing route: where each station's met came from, in the request's station order. */
+  metUsed?: MetUsed[];
 }
+
+/** Where a station's met came from: the request's `met`, the station's stored met series, or neither. */
+export type MetUsed = 'request' | 'archive' | 'none';
 
 const utf8 = (text: string): Uint8Array => new TextEncoder().encode(text);
 
@@ -182,7 +194,9 @@ export async function handleNetworkRequest(input: NetworkRequestTaskInput): Prom
         apriori: s.apriori,
       }));
     }
-    const result = runNetworkEstimation(toNetworkRequest(stations, body, validated.observations));
+    const request = toNetworkRequest(stations, body, validated.observations);
+    const metUsed = archive ? withStoredMet(request, stations, input.storedMet ?? {}) : undefined;
+    const result = runNetworkEstimation(request);
     const observations = validated.observations.epochMs.length;
     if (!archive) return { ok: true, output: { json: utf8(JSON.stringify(networkEstimatesResponseOf(result))), observations } };
 
@@ -201,12 +215,96 @@ export async function handleNetworkRequest(input: NetworkRequestTaskInput): Prom
       }
       return { station: st.station, columns };
     });
+    result.output.stations.forEach((st, s) => {
+      if (metUsed![s] === 'archive')
+        storeWarnings.push(
+          `station ${st.station}: met from ${storedMetCount(input.storedMet, st.station)} records of the station's stored met series`,
+        );
+    });
     const json = JSON.stringify(networkEstimatesResponseOf(result, storeWarnings));
     return {
       ok: true,
-      output: { json: utf8(json.slice(0, -1)), observations, delays, modelFingerprint: result.modelFingerprint, models: result.models },
+      output: {
+        json: utf8(json.slice(0, -1)),
+        observations,
+        delays,
+        modelFingerprint: result.modelFingerprint,
+        models: result.models,
+        metUsed,
+      },
     };
   } catch (err) {
     return asOutcome(columnar ? asColumnField(err) : err);
   }
+}
+
+const storedMetCount = (stored: Record<string, MetColumns> | undefined, station: string) => stored?.[station]?.epochMs.length ?? 0;
+
+/**
+ * The storing route: the stored met of stations without met records in the request joins the request's
+ * met (already at the antenna height, as request met is at the site); per station where its met came from.
+ */
+function withStoredMet(request: NetworkEstimationRequest, stations: NetworkStationBody[], stored: Record<string, MetColumns>): MetUsed[] {
+  const inRequest = new Set(request.met?.station ?? []);
+  const used = stations.map((s): MetUsed => (inRequest.has(s.id) ? 'request' : storedMetCount(stored, s.id) > 0 ? 'archive' : 'none'));
+  if (!used.includes('archive')) return used;
+  const met = request.met ?? { station: [], epochMs: [], pressureHpa: [], temperatureC: [] };
+  const humidity = request.metRelativeHumidityPct ?? met.epochMs.map(() => null);
+  stations.forEach((s, i) => {
+    if (used[i] !== 'archive') return;
+    const rows = stored[s.id]!;
+    for (let k = 0; k < rows.epochMs.length; k++) {
+      met.station.push(s.id);
+      met.epochMs.push(rows.epochMs[k]!);
+      met.pressureHpa.push(rows.pressureHpa[k]!);
+      met.temperatureC.push(rows.temperatureC[k]!);
+      humidity.push(null);
+    }
+  });
+  request.met = met;
+  request.metRelativeHumidityPct = humidity;
+  return used;
+}
+
+export interface NetworkScanOutput {
+  /** First and last observation epoch over all stations [ms]; null when none could be read (the estimation says why). */
+  range: { firstMs: number; lastMs: number } | null;
+  /** The station ids of the request (`stations[].id`, or the CSV query's `station=`), as far as they could be read. */
+  stations: string[];
+  /** The stations that have met records in the request. */
+  metStations: string[];
+  /** Observations counted by the scan (the compute-size metric). */
+  observations: number;
+  /** The body bytes, moved back for the estimation task (absent for a text body). */
+  body?: Uint8Array;
+}
+
+const stringsOf = (values: unknown): string[] => (Array.isArray(values) ? values.filter((v): v is string => typeof v === 'string') : []);
+
+/**
+ * The first pass of the storing network route: the observations' epoch range, the request's stations and
+ * which of them have met in the request, so that the route reads the stored met of the others only.
+ * Errors are left to the estimation task (an unreadable body scans as nothing).
+ */
+export async function scanNetworkRequest(input: NetworkRequestTaskInput): Promise<TaskOutcome<NetworkScanOutput>> {
+  const back = typeof input.body === 'string' ? {} : { body: input.body };
+  let raw: { stations?: unknown; observations?: unknown; met?: unknown };
+  try {
+    raw = (rawBody(input, true) ?? {}) as typeof raw;
+  } catch {
+    return { ok: true, output: { range: null, stations: [], metStations: [], observations: 0, ...back } };
+  }
+  const listed = Array.isArray(raw.stations) ? raw.stations : [];
+  const stations = stringsOf(listed.map((s) => (s !== null && typeof s === 'object' ? (s as { id?: unknown }).id : undefined)));
+  const metStations = [
+    ...new Set(
+      stringsOf(
+        Array.isArray(raw.met)
+          ? raw.met.map((r) => (r !== null && typeof r === 'object' ? (r as { station?: unknown }).station : undefined))
+          : [],
+      ),
+    ),
+  ];
+  const epochs = epochTextsOf(raw.observations);
+  return { ok: true, output: { range: epochRangeOf(epochs), stations, metStations, observations: epochs.length, ...back } };
 }
