@@ -13,6 +13,7 @@
 import { readFileSync } from 'node:fs';
 import { z } from 'zod';
 import { defaultWorkerCount } from './cpu-quota.js';
+import { MAX_NETWORK_DAY_STATION_OBSERVATIONS } from './limits.js';
 
 /** Longest from..to range one read of a station series may ask for [days] (a station-year plus a leap day). */
 export const DEFAULT_MAX_READ_RANGE_DAYS = 366;
@@ -189,6 +190,11 @@ export const configSchema = z.object({
     .default(1)
     .describe(
       'campaign items (station-days) one replica estimates at once, 0..256; 0 = this replica takes no campaign items (it still accepts campaigns)',
+    ),
+  TROPODELAY_NETWORK_DAY_MAX_STATION_OBSERVATIONS: integer(1, 1_000_000_000)
+    .default(MAX_NETWORK_DAY_STATION_OBSERVATIONS)
+    .describe(
+      'largest stations × observations of one network estimation from residual deposits (`POST /v1/network/days/{day}/zwd-estimates`), 1..1 000 000 000; the default holds a 50-station day of 30-s data (about 1.5 GB of memory in the worker)',
     ),
   TROPODELAY_CAMPAIGN_ITEM_TIMEOUT_S: integer(5, 86_400)
     .default(600)

@@ -72,10 +72,18 @@ export const MAX_NETWORK_STATIONS = 100;
  * Stations × observations of one network estimation, checked before any work: the size of the
  * work (the design, the per-epoch clock elimination) in one request. 5 000 000 holds a 10-station
  * day of 30-s data (~0.47 M observations; ~31 MB as text/csv, within ZWD_BODY_LIMIT_BYTES) or 25
- * stations over about 7 hours; larger networks and longer spans go through the archive or a job
- * (not built yet).
+ * stations over about 7 hours; larger networks go through the archive (residual deposits and
+ * POST /v1/network/days/{day}/zwd-estimates, MAX_NETWORK_DAY_STATION_OBSERVATIONS).
  */
 export const MAX_NETWORK_STATION_OBSERVATIONS = 5_000_000;
+/**
+ * Stations × observations of one network estimation from residual deposits
+ * (POST /v1/network/days/{day}/zwd-estimates; no body to carry them), by default: a 50-station day of
+ * 30-s data with about 18 satellites in view (2.6 M observations, 130 M) fits. In-process such a day costs
+ * about 50 s of CPU time and 1.5 GB (README, Benchmarks, network); TROPODELAY_NETWORK_DAY_MAX_STATION_OBSERVATIONS
+ * lowers it for replicas with less memory.
+ */
+export const MAX_NETWORK_DAY_STATION_OBSERVATIONS = 150_000_000;
 /**
  * Data coverage (GET /v1/network/coverage): a gap is a spacing between consecutive records longer
  * than gap_min_s [s], default one hour (the step of the hourly products: a longer hole leaves an

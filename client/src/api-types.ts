@@ -1648,7 +1648,7 @@ export interface paths {
     put?: never;
     /**
      * ZWD and gradients of several stations estimated jointly, with the clocks pre-eliminated
-     * @description Per observation r = m_w(e) δw_a(t) + m_g(e) [cos A G_N,a(t) + sin A G_E,a(t)] + ρ_a(t) + σ_k(t) + ε: ZWD and gradients per station with the random-walk model of POST /v1/zwd-estimates (piecewise-linear nodes), one receiver clock ρ per station and epoch and, with satellite_clocks "estimated", one clock σ per satellite and epoch, both pre-eliminated epoch by epoch (equivalent to double differences with their full covariance; one datum clock per connected group and epoch). With satellite_clocks "known" (point positioning) every station is solved alone, as by POST /v1/zwd-estimates. Per station: the series of POST /v1/zwd-estimates (sigma_m: σ of the absolute ZWD) plus relative_sigma_m, σ relative to the reference station; with met records of the station (met[], each naming its station) also ZHD from the pressure, ZWD = ZTD − ZHD, Tm and PWV with its σ per epoch, as POST /v1/zwd-estimates does (pressure bridged across met gaps; zhd_source met | met-bridged | apriori). common_mode: σ of the network-mean ZWD with the clocks estimated and known, its correlation with the clocks, the extent in km and in nadir angle; a warning when the absolute level is not determined to options.common_mode_sigma_threshold_m. Satellites seen by one station at an epoch and epochs with one station carry no information with the clocks estimated: dropped and counted. Bodies: application/json (this schema; observations as an array of objects or as column arrays with a station column, met as records naming their station); application/vnd.apache.arrow.stream (the observations as an Arrow IPC table with a station column, the rest of the request as JSON in the schema metadata "request"); or text/csv: a table with the header row station,epoch,satellite,elevation_deg,azimuth_deg,residual_m[,sigma_m], the stations as query parameters station=ID,latitude_deg,longitude_deg,height_m[,apriori_zhd_m[,apriori_zwd_m]] (once per station) and the options as query parameters (those of POST /v1/zwd-estimates plus satellite_clocks, reference_station, common_mode_sigma_threshold_m); a text/csv request carries no met (as with POST /v1/zwd-estimates). All forms give the same answer. Limits, checked before any work: up to 100 stations and 500000 observations, and stations × observations at most 5000000 (413 naming observations and saying how much fits; a 10-station day of 30-s data fits, as text/csv of about 31 MB; as JSON it is about 67 MB, above the body limit); the answer's output nodes over all stations within the estimation's answer cap (422). Body limit 67108864 bytes. Requests too large for one body go through the archive or a job; such jobs are not built yet.
+     * @description Per observation r = m_w(e) δw_a(t) + m_g(e) [cos A G_N,a(t) + sin A G_E,a(t)] + ρ_a(t) + σ_k(t) + ε: ZWD and gradients per station with the random-walk model of POST /v1/zwd-estimates (piecewise-linear nodes), one receiver clock ρ per station and epoch and, with satellite_clocks "estimated", one clock σ per satellite and epoch, both pre-eliminated epoch by epoch (equivalent to double differences with their full covariance; one datum clock per connected group and epoch). With satellite_clocks "known" (point positioning) every station is solved alone, as by POST /v1/zwd-estimates. Per station: the series of POST /v1/zwd-estimates (sigma_m: σ of the absolute ZWD) plus relative_sigma_m, σ relative to the reference station; with met records of the station (met[], each naming its station) also ZHD from the pressure, ZWD = ZTD − ZHD, Tm and PWV with its σ per epoch, as POST /v1/zwd-estimates does (pressure bridged across met gaps; zhd_source met | met-bridged | apriori). common_mode: σ of the network-mean ZWD with the clocks estimated and known, its correlation with the clocks, the extent in km and in nadir angle; a warning when the absolute level is not determined to options.common_mode_sigma_threshold_m. Satellites seen by one station at an epoch and epochs with one station carry no information with the clocks estimated: dropped and counted. Bodies: application/json (this schema; observations as an array of objects or as column arrays with a station column, met as records naming their station); application/vnd.apache.arrow.stream (the observations as an Arrow IPC table with a station column, the rest of the request as JSON in the schema metadata "request"); or text/csv: a table with the header row station,epoch,satellite,elevation_deg,azimuth_deg,residual_m[,sigma_m], the stations as query parameters station=ID,latitude_deg,longitude_deg,height_m[,apriori_zhd_m[,apriori_zwd_m]] (once per station) and the options as query parameters (those of POST /v1/zwd-estimates plus satellite_clocks, reference_station, common_mode_sigma_threshold_m); a text/csv request carries no met (as with POST /v1/zwd-estimates). All forms give the same answer. Limits, checked before any work: up to 100 stations and 500000 observations, and stations × observations at most 5000000 (413 naming observations and saying how much fits; a 10-station day of 30-s data fits, as text/csv of about 31 MB; as JSON it is about 67 MB, above the body limit); the answer's output nodes over all stations within the estimation's answer cap (422). Body limit 67108864 bytes. Networks too large for one body go through the archive: residual deposits per station-day (PUT /v1/stations/{station_id}/residuals/{day}) and POST /v1/network/days/{day}/zwd-estimates.
      */
     post: {
       parameters: {
@@ -2192,7 +2192,7 @@ export interface paths {
     put?: never;
     /**
      * Estimate ZWD jointly for archive stations and store every station's series
-     * @description The estimation of POST /v1/network-estimates for stations of the archive: `stations` name archive stations (id, optional apriori; no site: the stored coordinates are the sites; a station not in the archive is a 404 naming stations.N.id). text/csv: station=ID[,apriori_zhd_m[,apriori_zwd_m]] once per station. JSON and Arrow bodies as for POST /v1/network-estimates. Every station's series is stored as its delay series under ?source= (default "network-estimates") and the result's model_fingerprint, all stations in one transaction: all or nothing; per epoch the values POST /v1/stations/{id}/zwd-estimates stores for the same data and met (zwd_m = ZTD − ZHD of the station's met). A station's met: its records in the request's met[]; for a station without records there, its stored met series (records with pressure and temperature, reduced from met_height_m to the antenna height) from 1 day before the first to 1 day after the last observation of the request, read as that route reads it (a span beyond the maximum read range, or more than MAX_MET_RECORDS stored records for all such stations together, is a 400 naming observations); else the a-priori ZHD. stored[].met_used says which (request | archive | none); text/csv requests use the stored met. A station whose estimated ZTD falls outside the range a direct deposit accepts makes the whole request a 422 and nothing is stored. Per observation r = m_w(e) δw_a(t) + m_g(e) [cos A G_N,a(t) + sin A G_E,a(t)] + ρ_a(t) + σ_k(t) + ε: ZWD and gradients per station with the random-walk model of POST /v1/zwd-estimates (piecewise-linear nodes), one receiver clock ρ per station and epoch and, with satellite_clocks "estimated", one clock σ per satellite and epoch, both pre-eliminated epoch by epoch (equivalent to double differences with their full covariance; one datum clock per connected group and epoch). With satellite_clocks "known" (point positioning) every station is solved alone, as by POST /v1/zwd-estimates. Limits, checked before any work: up to 100 stations and 500000 observations, and stations × observations at most 5000000 (413 naming observations and saying how much fits; a 10-station day of 30-s data fits, as text/csv of about 31 MB; as JSON it is about 67 MB, above the body limit); the answer's output nodes over all stations within the estimation's answer cap (422). Body limit 67108864 bytes. Requests too large for one body go through the archive or a job; such jobs are not built yet. Writes need `Authorization: Bearer <key>`. Role needed: write. Needs `Authorization: Bearer <key>` of role write or admin (401 without a key, 403 with a key of role read or one not accepted).
+     * @description The estimation of POST /v1/network-estimates for stations of the archive: `stations` name archive stations (id, optional apriori; no site: the stored coordinates are the sites; a station not in the archive is a 404 naming stations.N.id). text/csv: station=ID[,apriori_zhd_m[,apriori_zwd_m]] once per station. JSON and Arrow bodies as for POST /v1/network-estimates. Every station's series is stored as its delay series under ?source= (default "network-estimates") and the result's model_fingerprint, all stations in one transaction: all or nothing; per epoch the values POST /v1/stations/{id}/zwd-estimates stores for the same data and met (zwd_m = ZTD − ZHD of the station's met). A station's met: its records in the request's met[]; for a station without records there, its stored met series (records with pressure and temperature, reduced from met_height_m to the antenna height) from 1 day before the first to 1 day after the last observation of the request, read as that route reads it (a span beyond the maximum read range, or more than MAX_MET_RECORDS stored records for all such stations together, is a 400 naming observations); else the a-priori ZHD. stored[].met_used says which (request | archive | none); text/csv requests use the stored met. A station whose estimated ZTD falls outside the range a direct deposit accepts makes the whole request a 422 and nothing is stored. Per observation r = m_w(e) δw_a(t) + m_g(e) [cos A G_N,a(t) + sin A G_E,a(t)] + ρ_a(t) + σ_k(t) + ε: ZWD and gradients per station with the random-walk model of POST /v1/zwd-estimates (piecewise-linear nodes), one receiver clock ρ per station and epoch and, with satellite_clocks "estimated", one clock σ per satellite and epoch, both pre-eliminated epoch by epoch (equivalent to double differences with their full covariance; one datum clock per connected group and epoch). With satellite_clocks "known" (point positioning) every station is solved alone, as by POST /v1/zwd-estimates. Limits, checked before any work: up to 100 stations and 500000 observations, and stations × observations at most 5000000 (413 naming observations and saying how much fits; a 10-station day of 30-s data fits, as text/csv of about 31 MB; as JSON it is about 67 MB, above the body limit); the answer's output nodes over all stations within the estimation's answer cap (422). Body limit 67108864 bytes. Networks too large for one body go through the archive: residual deposits per station-day (PUT /v1/stations/{station_id}/residuals/{day}) and POST /v1/network/days/{day}/zwd-estimates. Writes need `Authorization: Bearer <key>`. Role needed: write. Needs `Authorization: Bearer <key>` of role write or admin (401 without a key, 403 with a key of role read or one not accepted).
      */
     post: {
       parameters: {
@@ -2725,6 +2725,521 @@ export interface paths {
         };
         /** @description RFC 9457 problem details (application/problem+json) */
         415: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        422: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/v1/network/days/{day}/zwd-estimates': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /**
+     * Estimate ZWD jointly from the stations' deposited residuals of one day and store every station's series
+     * @description The estimation and storing of POST /v1/network/zwd-estimates, with the observations taken from the archive: each station in `stations` must have its residuals of the UTC day deposited (PUT /v1/stations/{station_id}/residuals/{day}); a station without a deposit is a 404 naming stations.N.id. The body holds no observations: `stations` (archive ids, optional apriori), optional `met` (records naming their station; a station without records uses its stored met) and `options` (those of POST /v1/network-estimates). Sized for networks beyond one request body: stations × observations up to 150000000 (TROPODELAY_NETWORK_DAY_MAX_STATION_OBSERVATIONS; a 50-station day of 30-s data with about 18 satellites in view is 130 M and takes about a minute of one core and 1.5 GB in a worker), checked before any work: 413 naming stations. The answer and what is stored are those of POST /v1/network/zwd-estimates for the same observations. Writes need `Authorization: Bearer <key>`. Body limit: 67108864 bytes. Role needed: write. Needs `Authorization: Bearer <key>` of role write or admin (401 without a key, 403 with a key of role read or one not accepted).
+     */
+    post: {
+      parameters: {
+        query?: {
+          /** @description Source under which every station's series is stored (default "network-estimates") */
+          source?: string;
+        };
+        header?: never;
+        path: {
+          /** @description UTC calendar day, YYYY-MM-DD */
+          day: string;
+        };
+        cookie?: never;
+      };
+      requestBody: {
+        content: {
+          'application/json': {
+            /** @description Archive stations whose residuals of the day are deposited (their stored coordinates are the sites), and optional a-priori delays */
+            stations: {
+              /** @description Station id: 1-32 characters of letters, digits, "-" and "_"; observations[].station refers to it */
+              id: string;
+              /** @description The a-priori zenith delays the residuals were formed with */
+              apriori?: {
+                /** @description ZHD the residuals were formed with; default: Saastamoinen ZHD of the standard atmosphere at the site [m], [1, 3] m */
+                zhd_m?: number;
+                /** @description ZWD the residuals were formed with; default 0 [m], [0, 1] m */
+                zwd_m?: number;
+              };
+            }[];
+            /** @description Surface met at the stations' site heights, each record naming its station, in any order (at most 100000 records over all stations): per station as `met` of POST /v1/zwd-estimates (interpolated linearly within options.met_max_gap_s, the pressure bridged across longer gaps), giving that station's series ZHD, ZWD = ZTD − ZHD, Tm and PWV per epoch. A station without records gets zhd_source "apriori" */
+            met?: {
+              /**
+               * Format: date-time
+               * @description Epoch, ISO 8601 date-time (UTC, e.g. 2026-03-14T12:00:00Z; an offset is converted to UTC)
+               */
+              epoch: string;
+              /** @description Measured surface pressure at the site height [hPa], [300, 1100] hPa */
+              pressure_hpa: number;
+              /** @description Measured surface temperature at the site height [°C], [-90, 60] °C */
+              temperature_c: number;
+              /** @description Relative humidity [%], 0..100; accepted, not needed for PWV */
+              relative_humidity_pct?: number;
+              /** @description Station of the record: one of stations[].id */
+              station: string;
+            }[];
+            /**
+             * @description Estimation options: those of POST /v1/zwd-estimates (docs/zwd-estimation.md) plus satellite_clocks, reference_station and common_mode_sigma_threshold_m
+             * @default {}
+             */
+            options?: {
+              /**
+               * @description Spacing Δ of the ZWD nodes of the output, on round UTC epochs jΔ (multiples of Δ since 1970-01-01T00:00Z); with parametrisation "nodes" also the spacing of the piecewise-linear model [s], (0, 2592000] s
+               * @default 300
+               */
+              zwd_interval_s?: number;
+              /**
+               * @description Random-walk density q of the ZWD: consecutive states x_{j+1} − x_j = 0 ± q √(Δt/1 h) (states at every epoch, or nodes) [m/√h], (0, 10] m/√h; null = no constraint
+               * @default 0.01
+               */
+              zwd_random_walk_m_per_sqrt_h?: number | null;
+              /**
+               * @description A-priori constraint on the first ZWD node, x_0 = 0 ± σ [m], (0, 10] m; null = none
+               * @default 0.5
+               */
+              zwd_apriori_sigma_m?: number | null;
+              /**
+               * @description Estimate one free bias per epoch (receiver clock and other common terms); pre-eliminated
+               * @default true
+               */
+              epoch_bias?: boolean;
+              /**
+               * @description σ_i of observations without sigma_m, σ² = a² + b²/sin²e: "elevation" b = sigma0_m, a = 0; "uniform" a = sigma0_m, b = 0; "elevation-components" b = sigma0_m and a = sigma_constant_m (both re-estimated with scale_sigmas); one of elevation, uniform, elevation-components
+               * @default elevation
+               * @enum {string}
+               */
+              weighting?: 'elevation' | 'uniform' | 'elevation-components';
+              /**
+               * @description σ0 of the weighting scheme (zenith standard deviation of a residual) [m], (0, 1] m
+               * @default 0.003
+               */
+              sigma0_m?: number;
+              /**
+               * @description Observations below this elevation are dropped (and counted) [deg], [0, 90) deg
+               * @default 7
+               */
+              elevation_cutoff_deg?: number;
+              /**
+               * @description Reject while the largest |normalised residual| (Pope τ = v/(σ̂0 σ_v)) exceeds k [], [2, 1000]; null = no screening
+               * @default 4
+               */
+              outlier_threshold?: number | null;
+              /**
+               * @description one-per-solution: reject the largest τ > k, re-solve, repeat. one-per-window: in each iteration also reject the largest τ > k of every stretch more than a window away from the others (nodes: max(3 ZWD intervals, 30 min); every-epoch: the smoother kernel length, 5–30 min; same result at a cost linear in the span); one of one-per-window, one-per-solution
+               * @default one-per-window
+               * @enum {string}
+               */
+              outlier_rejection?: 'one-per-window' | 'one-per-solution';
+              /**
+               * @description Screening stops after this many rejections, with a warning [], [0, 100000]
+               * @default 1000
+               */
+              max_rejections?: number;
+              /**
+               * @description Re-estimate the observation weights from the residuals (variance components: σ0, or a and b of "elevation-components") and solve again; the random-walk and a-priori constraints keep their sigmas. false = the weights as given
+               * @default true
+               */
+              scale_sigmas?: boolean;
+              /**
+               * @description a of weighting "elevation-components" (σ² = a² + b²/sin²e), the starting value when scale_sigmas re-estimates it; ignored by the other schemes [m], [0, 1] m; null = sigma0_m / 3
+               * @default null
+               */
+              sigma_constant_m?: number | null;
+              /**
+               * @description every-epoch: a random-walk state of ZWD and gradients at every epoch, nodes interpolated with the Brownian-bridge variance (formal errors hold at any node spacing). nodes: piecewise linear between the nodes (the variation between nodes is not in σ); one of every-epoch, nodes
+               * @default every-epoch
+               * @enum {string}
+               */
+              parametrisation?: 'every-epoch' | 'nodes';
+              /**
+               * @description Estimate the residuals' time correlation per satellite arc and inflate the formal errors by it (docs/zwd-estimation.md, "Formal errors")
+               * @default true
+               */
+              correlated_noise?: boolean;
+              /**
+               * @description Wet mapping function of the estimator (src/domain/mapping registry). vmf1 needs per-epoch coefficients in the JSON body's vmf1_coefficients [{epoch, a_h, a_w}], interpolated linearly in time and spanning every observation epoch (a text/csv request cannot carry them); one of niell, vmf1, chao, cosecant
+               * @default niell
+               * @enum {string}
+               */
+              wet_mapping?: 'niell' | 'vmf1' | 'chao' | 'cosecant';
+              /**
+               * @description Longest gap between met records that is interpolated across (the same setting as met_max_gap_s of the station PWV route) [s], (0, 86400] s
+               * @default 10800
+               */
+              met_max_gap_s?: number;
+              /** @default {} */
+              gradients?: {
+                /**
+                 * @description Spacing of the gradient nodes of the output (round UTC epochs; with parametrisation "nodes" the model's nodes) [s], (0, 2592000] s
+                 * @default 21600
+                 */
+                interval_s?: number;
+                /**
+                 * @description Random-walk density q of each gradient component: consecutive states x_{j+1} − x_j = 0 ± q √(Δt/1 h) [m/√h], (0, 10] m/√h; null = no constraint
+                 * @default 0.001
+                 */
+                random_walk_m_per_sqrt_h?: number | null;
+                /**
+                 * @description A-priori constraint on the first gradient node, x_0 = 0 ± σ [m], (0, 1] m; null = none
+                 * @default 0.01
+                 */
+                apriori_sigma_m?: number | null;
+              } | null;
+              /**
+               * @description estimated: a clock per satellite and epoch, pre-eliminated (the network solution; only ZWD differences are well determined in a small network); known: the residuals were formed with satellite clocks of a global solution (point positioning: independent single-station solutions)
+               * @default estimated
+               * @enum {string}
+               */
+              satellite_clocks?: 'estimated' | 'known';
+              /**
+               * @description Station the relative ZWD (relative_sigma_m) refers to; null = the station nearest the network centroid
+               * @default null
+               */
+              reference_station?: string | null;
+              /**
+               * @description A warning (absolute-level-poorly-determined) is given when σ of the network-mean ZWD (median over epochs) exceeds this [m], (0, 1]; default 0.005
+               * @default 0.005
+               */
+              common_mode_sigma_threshold_m?: number;
+            };
+          };
+        };
+      };
+      responses: {
+        /** @description Default Response */
+        200: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              /** @description Station the relative sigmas refer to */
+              reference_station: string;
+              /**
+               * @description How the satellite clocks were treated (a one-station network: known)
+               * @enum {string}
+               */
+              satellite_clocks: 'estimated' | 'known';
+              /** @description One per station, in the order of the request */
+              stations: {
+                station: string;
+                zwd_nodes: {
+                  /** @description Node epoch jΔ on round UTC epochs */
+                  epoch: string;
+                  /** @description Estimated correction δw to the a-priori ZWD [m] */
+                  correction_m: number;
+                  /** @description A-priori ZWD + correction [m] (the nodes carry no met: series[].zwd_m is ztd_m − the ZHD of its zhd_source) */
+                  zwd_m: number;
+                  /** @description Formal standard deviation [m] (with the Brownian-bridge variance between epochs and the correlated-noise factor) */
+                  sigma_m: number;
+                  /** @description Used observations within one interval of the node; 0 = the value comes from the random walk alone (a node without data) */
+                  observations_nearby: number;
+                  /** @description σ of the value minus the reference station's [m]; 0 for the reference; null when the reference has no value then */
+                  relative_sigma_m: number | null;
+                }[];
+                /** @description Empty when gradients are off */
+                gradient_nodes: {
+                  epoch: string;
+                  /** @description North gradient G_N [m] */
+                  north_m: number;
+                  /** @description East gradient G_E [m] */
+                  east_m: number;
+                  north_sigma_m: number;
+                  east_sigma_m: number;
+                  /** @description Used observations within one interval of the node; 0 = a node without data */
+                  observations_nearby: number;
+                }[];
+                /** @description One entry per epoch of the station (the single-station series; sigma_m is σ of the absolute ZWD) */
+                series: {
+                  epoch: string;
+                  /** @description δw interpolated between the adjacent nodes [m] */
+                  correction_m: number;
+                  /** @description ZWD = ztd_m − ZHD, one meaning at every epoch [m]: with met in the request, ZHD is the Saastamoinen ZHD of the surface pressure (interpolated within met_max_gap_s; across longer gaps bridged linearly, held from the nearest record beyond the records: zhd_source "met-bridged"); without met, the a-priori ZHD (zhd_source "apriori"). Continuous wherever ztd_m is */
+                  zwd_m: number;
+                  /**
+                   * @description Where the ZHD behind zwd_m comes from: met (measured or interpolated pressure), met-bridged (an epoch without met), apriori (a request without met)
+                   * @enum {string}
+                   */
+                  zhd_source: 'met' | 'met-bridged' | 'apriori';
+                  /** @description Formal standard deviation of δw (with the covariance of the adjacent nodes) [m] */
+                  sigma_m: number;
+                  /** @description G_N at the epoch [m]; null when gradients are off */
+                  north_gradient_m: number | null;
+                  /** @description G_E at the epoch [m]; null when gradients are off */
+                  east_gradient_m: number | null;
+                  north_gradient_sigma_m: number | null;
+                  east_gradient_sigma_m: number | null;
+                  /** @description Estimated epoch bias [m]; null when epoch_bias is off or all observations of the epoch were rejected */
+                  epoch_bias_m: number | null;
+                  /** @description Observations of the epoch used in the final solution */
+                  observations: number;
+                  /** @description A-priori ZHD + a-priori ZWD + δw [m] */
+                  ztd_m: number;
+                  /**
+                   * @description Met at this epoch: measured, interpolated or missing (only with met); "missing" epochs have no PWV and a bridged ZHD
+                   * @enum {string}
+                   */
+                  met?: 'measured' | 'interpolated' | 'missing';
+                  /** @description Saastamoinen ZHD of the surface pressure [m] (with met; at "missing" epochs the bridged pressure): zwd_m = ztd_m − zhd_m */
+                  zhd_m?: number;
+                  /** @description Weighted mean temperature, Bevis et al. (1992) [K] (with met) */
+                  tm_k?: number;
+                  /** @description Precipitable water vapour [mm] (with met) */
+                  pwv_mm?: number;
+                  /** @description Standard deviation of pwv_mm from the formal error of δw [mm] */
+                  pwv_sigma_mm?: number;
+                  /** @description Standard deviation of pwv_mm including the Tm regression uncertainty (4.74 K) [mm] */
+                  pwv_total_sigma_mm?: number;
+                  /** @description σ of the value minus the reference station's [m]; 0 for the reference; null when the reference has no value then */
+                  relative_sigma_m: number | null;
+                }[];
+                /** @description index: the observation in the request (data row for CSV, 0-based) */
+                rejected: {
+                  /** @description Index of the observation in the request (data row for CSV, 0-based) */
+                  index: number;
+                  epoch: string;
+                  satellite: string;
+                  /** @description The residual as sent [m] */
+                  residual_m: number;
+                  /** @description Post-fit residual when it was rejected [m] */
+                  fitted_residual_m: number;
+                  /** @description Pope τ = v/(σ̂0 σ_v) when it was rejected (signed) */
+                  normalized_residual: number;
+                }[];
+                statistics: {
+                  observations_total: number;
+                  observations_below_cutoff: number;
+                  /** @description Observations of a satellite no other station saw at that epoch: no information on its clock, not used */
+                  observations_single_station_satellite: number;
+                  observations_used: number;
+                  observations_rejected: number;
+                  epochs: number;
+                };
+                /** @description Median over the epochs of σ of the absolute ZWD [m] */
+                sigma_m: number | null;
+                /** @description Median over the epochs of σ of the ZWD relative to the reference station [m] */
+                relative_sigma_m: number | null;
+                apriori: {
+                  /** @description A-priori ZHD used for ztd_m [m] */
+                  zhd_m: number;
+                  /** @description A-priori ZWD used [m] */
+                  zwd_m: number;
+                  /** @enum {string} */
+                  zhd_source: 'caller' | 'standard-atmosphere';
+                };
+              }[];
+              /** @description What the network can see of the common mode (the network-mean ZWD) */
+              common_mode: {
+                /** @description σ of the network-mean ZWD with the satellite clocks estimated (median over epochs) [m]; null when they were known */
+                mean_zwd_sigma_clocks_estimated_m: number | null;
+                /** @description The same with the satellite clocks known (independent stations) [m] */
+                mean_zwd_sigma_clocks_known_m: number | null;
+                /** @description Correlation of the network-mean ZWD with the mean clock term of the epoch (median); near ±1 when the clocks absorb the common mode */
+                correlation_with_clocks: number | null;
+                /** @description Largest distance between two stations (chord) [km] */
+                extent_km: number;
+                /** @description Largest angle between two stations seen from a GNSS satellite 20 200 km above the centroid [deg] */
+                extent_nadir_deg: number;
+              };
+              statistics: {
+                stations: number;
+                epochs: number;
+                observations_total: number;
+                observations_used: number;
+                observations_rejected: number;
+                /** @description Dropped: their satellite was seen by one station only at that epoch */
+                observations_single_station_satellite: number;
+                /** @description (epoch, satellite) pairs dropped for that reason */
+                single_station_satellites: number;
+                /** @description Epochs with observations of one station only (no information with satellite clocks estimated) */
+                single_station_epochs: number;
+                unknowns: number;
+                clock_unknowns: number;
+                constraints: number;
+                degrees_of_freedom: number;
+                rms_m: number | null;
+                variance_factor: number | null;
+                /** @description Factor on the formal errors (√variance factor with scale_sigmas); null when it differs per station */
+                sigma_scale: number | null;
+                solutions: number;
+                screening_complete: boolean;
+              };
+              /** @description The models and settings that produced this result */
+              models: {
+                [key: string]: string | number | boolean | null;
+              };
+              /** @description Short hash of `models`: results are homogeneous only when it is equal */
+              model_fingerprint: string;
+              /** @description Values defaulted or extrapolated, elevations below 3°, and similar */
+              warnings: string[];
+              /** @description Per station: its series as stored in the station's delay series under this source and the result's model_fingerprint */
+              stored: {
+                station: string;
+                source: string;
+                /**
+                 * @description Where the station's met came from: its records in the request's met[], its stored met series, or neither (ZHD a-priori, no PWV)
+                 * @enum {string}
+                 */
+                met_used: 'request' | 'archive' | 'none';
+                inserted: number;
+                updated: number;
+                unchanged: number;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        400: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        401: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        403: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        413: {
           headers: {
             [name: string]: unknown;
           };

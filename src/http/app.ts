@@ -9,7 +9,7 @@ import { validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-z
 import { configuredApiKeys, DEFAULT_MAX_READ_RANGE_DAYS, defaultConfig, type Config, type ConfiguredKey } from '../config.js';
 import type { StorageConfig } from '../storage/factory.js';
 import type { Repository } from '../storage/repository.js';
-import { MAX_QUERY_VALUE_CHARS } from '../limits.js';
+import { MAX_NETWORK_DAY_STATION_OBSERVATIONS, MAX_QUERY_VALUE_CHARS } from '../limits.js';
 import { HttpProblem } from './problem.js';
 import { checkResponsesAgainstSchemas } from './response-check.js';
 import audit from './plugins/audit.js';
@@ -29,6 +29,7 @@ import adminKeysRoute from './routes/admin-keys.js';
 import adminStationsRoute from './routes/admin-stations.js';
 import healthRoute from './routes/health.js';
 import mappingFactorsRoute from './routes/mapping-factors.js';
+import networkDaysRoute from './routes/network-days.js';
 import networkEstimatesRoute from './routes/network-estimates.js';
 import networkPwvRoute from './routes/network-precipitable-water.js';
 import networkCoverageRoute from './routes/network-coverage.js';
@@ -67,6 +68,8 @@ export interface ArchiveOptions {
   maxReadRangeDays: number;
   /** Campaign items on this replica (plugins/campaigns.ts); default: one at a time. */
   campaigns?: CampaignSettings;
+  /** Largest stations × observations of a network day from deposits; default MAX_NETWORK_DAY_STATION_OBSERVATIONS. */
+  networkDayMaxStationObservations?: number;
 }
 
 export interface AppOptions {
@@ -98,6 +101,7 @@ export function archiveOptionsFromConfig(config: Config): ArchiveOptions {
     deleteRetentionDays: config.TROPODELAY_DELETE_RETENTION_DAYS,
     readKeysRequired: config.TROPO_READ_KEYS_REQUIRED,
     maxReadRangeDays: config.TROPO_MAX_READ_RANGE_DAYS,
+    networkDayMaxStationObservations: config.TROPODELAY_NETWORK_DAY_MAX_STATION_OBSERVATIONS,
     campaigns: {
       concurrency: config.TROPODELAY_CAMPAIGN_CONCURRENCY,
       itemTimeoutS: config.TROPODELAY_CAMPAIGN_ITEM_TIMEOUT_S,
@@ -204,6 +208,10 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(zwdEstimatesRoute);
   const stationOptions = { maxReadRangeDays: archive.maxReadRangeDays };
   await app.register(networkEstimatesRoute, stationOptions);
+  await app.register(networkDaysRoute, {
+    ...stationOptions,
+    maxStationObservations: archive.networkDayMaxStationObservations ?? MAX_NETWORK_DAY_STATION_OBSERVATIONS,
+  });
   await app.register(stationsRoute);
   await app.register(stationMetRoute, stationOptions);
   await app.register(stationDelaysRoute, stationOptions);

@@ -9,7 +9,7 @@ import type { TaskLocation } from '../workers/compute-pool.js';
 import type { handleMappingFactorsRequest, handlePrecipitableWaterRequest, handleSlantDelaysRequest } from './tasks/apriori-batch.js';
 import type { readDelayDepositTask, readMetJsonUploadTask } from './tasks/json-upload.js';
 import type { readMetUploadTask } from './tasks/met-upload.js';
-import type { handleNetworkRequest, scanNetworkRequest } from './tasks/network-request.js';
+import type { handleNetworkDayRequest, handleNetworkRequest, scanNetworkRequest } from './tasks/network-request.js';
 import type { handleZwdRequest, scanZwdRequest } from './tasks/zwd-request.js';
 import type { readResidualDepositTask } from './tasks/residual-deposit.js';
 import type { estimateCampaignItemTask } from './tasks/campaign-item.js';
@@ -23,6 +23,8 @@ export type ComputeTasks = {
   'zwd-request-scan': typeof scanZwdRequest;
   /** First pass of the storing network estimation: the epoch range, the stations and which have met in the body. */
   'network-request-scan': typeof scanNetworkRequest;
+  /** POST /v1/network/days/{day}/zwd-estimates: the stations' deposits of the day decoded and estimated jointly (what to store). */
+  'network-day-estimate': typeof handleNetworkDayRequest;
   /** A large POST /v1/slant-delays (body above OFFLOAD_BODY_BYTES): parse, validate, compute, serialise. */
   'slant-delays-request': typeof handleSlantDelaysRequest;
   /** A large POST /v1/mapping-factors, the same way. */
@@ -57,6 +59,7 @@ export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
   'network-estimate-request': { module: networkRequestModule, exportName: 'handleNetworkRequest' },
   'zwd-request-scan': { module: zwdRequestModule, exportName: 'scanZwdRequest' },
   'network-request-scan': { module: networkRequestModule, exportName: 'scanNetworkRequest' },
+  'network-day-estimate': { module: networkRequestModule, exportName: 'handleNetworkDayRequest' },
   'slant-delays-request': { module: aprioriBatchModule, exportName: 'handleSlantDelaysRequest' },
   'mapping-factors-request': { module: aprioriBatchModule, exportName: 'handleMappingFactorsRequest' },
   'precipitable-water-request': { module: aprioriBatchModule, exportName: 'handlePrecipitableWaterRequest' },

@@ -64,7 +64,26 @@ export interface NetworkEstimationRequest {
   referenceStation: string | null;
   /** The absolute-level warning is given when σ of the network-mean ZWD exceeds this [m]. */
   commonModeSigmaThresholdM: number;
+  /** Largest stations × observations; absent = a request body's (MAX_NETWORK_STATION_OBSERVATIONS). */
+  sizeLimit?: NetworkSizeLimit | undefined;
 }
+
+/** The size limit of one network estimation and how its 413 reads (field, limit's name, what to do instead). */
+export interface NetworkSizeLimit {
+  stationObservations: number;
+  field: string;
+  name: string;
+  advice: string;
+}
+
+/** The limit of a request that carries its observations in the body. */
+export const BODY_SIZE_LIMIT: NetworkSizeLimit = {
+  stationObservations: MAX_NETWORK_STATION_OBSERVATIONS,
+  field: 'observations',
+  name: 'MAX_NETWORK_STATION_OBSERVATIONS',
+  advice:
+    'Larger networks and longer days go through the archive: deposit each station-day (PUT /v1/stations/{id}/residuals/{day}) and estimate the day with POST /v1/network/days/{day}/zwd-estimates',
+};
 
 export interface StationApriori {
   zhdM: number;
@@ -87,15 +106,16 @@ export interface NetworkEstimationResult {
  * @throws CallerError 413 when stations × observations exceed MAX_NETWORK_STATION_OBSERVATIONS,
  *   422 when the answer would hold more than MAX_ANSWER_NODES output nodes (both before any work)
  */
-export function checkNetworkSize(request: Pick<NetworkEstimationRequest, 'stations' | 'observations' | 'options'>): void {
+export function checkNetworkSize(request: Pick<NetworkEstimationRequest, 'stations' | 'observations' | 'options' | 'sizeLimit'>): void {
   const stations = request.stations.length;
   const observations = request.observations.epochMs.length;
-  if (stations * observations > MAX_NETWORK_STATION_OBSERVATIONS) {
-    const fit = Math.floor(MAX_NETWORK_STATION_OBSERVATIONS / Math.max(stations, 1));
+  const limit = request.sizeLimit ?? BODY_SIZE_LIMIT;
+  if (stations * observations > limit.stationObservations) {
+    const fit = Math.floor(limit.stationObservations / Math.max(stations, 1));
     throw CallerError.field(
       413,
-      'observations',
-      `${stations} stations × ${observations} observations = ${stations * observations}; one request takes at most ${MAX_NETWORK_STATION_OBSERVATIONS} (stations × observations, MAX_NETWORK_STATION_OBSERVATIONS): ask for less, e.g. at most ${fit} observations with these ${stations} stations (a shorter span or a longer sampling interval) or fewer stations. Requests too large for one body go through the archive or a job, which are not built yet`,
+      limit.field,
+      `${stations} stations × ${observations} observations = ${stations * observations}; one request takes at most ${limit.stationObservations} (stations × observations, ${limit.name}): ask for less, e.g. at most ${fit} observations with these ${stations} stations (a shorter span or a longer sampling interval) or fewer stations. ${limit.advice}`,
     );
   }
   const { zwdNodes, gradientNodes } = answerSize(request.observations.epochMs, request.options);

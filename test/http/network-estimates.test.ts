@@ -266,7 +266,7 @@ describe('POST /v1/network-estimates', () => {
         expect(problemFields(res.body)).toEqual(['observations']);
         expect(res.body.detail).toMatch(/at most 5000000/);
         expect(res.body.detail).toMatch(/at most 50000 observations with these 100 stations/);
-        expect(res.body.detail).toMatch(/archive or a job, which are not built yet/);
+        expect(res.body.detail).toContain('POST /v1/network/days/{day}/zwd-estimates');
       },
     );
 

@@ -36,7 +36,7 @@ import { delayRows, storedMetFor } from './station-zwd-estimates.js';
 const MODEL_TEXT =
   'Per observation r = m_w(e) δw_a(t) + m_g(e) [cos A G_N,a(t) + sin A G_E,a(t)] + ρ_a(t) + σ_k(t) + ε: ZWD and gradients per station with the random-walk model of POST /v1/zwd-estimates (piecewise-linear nodes), one receiver clock ρ per station and epoch and, with satellite_clocks "estimated", one clock σ per satellite and epoch, both pre-eliminated epoch by epoch (equivalent to double differences with their full covariance; one datum clock per connected group and epoch). With satellite_clocks "known" (point positioning) every station is solved alone, as by POST /v1/zwd-estimates.';
 
-const LIMITS_TEXT = `Limits, checked before any work: up to ${MAX_NETWORK_STATIONS} stations and ${MAX_OBSERVATIONS} observations, and stations × observations at most ${MAX_NETWORK_STATION_OBSERVATIONS} (413 naming observations and saying how much fits; a 10-station day of 30-s data fits, as text/csv of about 31 MB; as JSON it is about 67 MB, above the body limit); the answer's output nodes over all stations within the estimation's answer cap (422). Body limit ${ZWD_BODY_LIMIT_BYTES} bytes. Requests too large for one body go through the archive or a job; such jobs are not built yet.`;
+const LIMITS_TEXT = `Limits, checked before any work: up to ${MAX_NETWORK_STATIONS} stations and ${MAX_OBSERVATIONS} observations, and stations × observations at most ${MAX_NETWORK_STATION_OBSERVATIONS} (413 naming observations and saying how much fits; a 10-station day of 30-s data fits, as text/csv of about 31 MB; as JSON it is about 67 MB, above the body limit); the answer's output nodes over all stations within the estimation's answer cap (422). Body limit ${ZWD_BODY_LIMIT_BYTES} bytes. Networks too large for one body go through the archive: residual deposits per station-day (PUT /v1/stations/{station_id}/residuals/{day}) and POST /v1/network/days/{day}/zwd-estimates.`;
 
 const BODY_TEXT =
   'Bodies: application/json (this schema; observations as an array of objects or as column arrays with a station column, met as records naming their station); application/vnd.apache.arrow.stream (the observations as an Arrow IPC table with a station column, the rest of the request as JSON in the schema metadata "request"); or text/csv: a table with the header row station,epoch,satellite,elevation_deg,azimuth_deg,residual_m[,sigma_m], the stations as query parameters station=ID,latitude_deg,longitude_deg,height_m[,apriori_zhd_m[,apriori_zwd_m]] (once per station) and the options as query parameters (those of POST /v1/zwd-estimates plus satellite_clocks, reference_station, common_mode_sigma_threshold_m); a text/csv request carries no met (as with POST /v1/zwd-estimates). All forms give the same answer.';
@@ -137,7 +137,7 @@ const networkEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = async 
  * height, bounded by the read range).
  * @throws CallerError 400 naming `observations` when the stations' stored met together exceeds MAX_MET_RECORDS
  */
-async function networkStoredMet(
+export async function networkStoredMet(
   repository: Repository,
   archive: Map<string, Station>,
   scan: NetworkScanOutput,
@@ -165,7 +165,7 @@ async function networkStoredMet(
 }
 
 /** Every station's rows in one transaction (Repository.writeDelaysMany): all stored or none. */
-async function storeNetwork(
+export async function storeNetwork(
   repository: Repository,
   source: string,
   delays: { station: string; columns: DelayColumns }[],

@@ -134,6 +134,20 @@ export const networkStoredEstimatesRequest = strictObject({
 });
 
 /**
+ * POST /v1/network/days/{day}/zwd-estimates: the storing request without observations; they are the
+ * stations' residual deposits of the day (PUT /v1/stations/{id}/residuals/{day}).
+ */
+export const networkDayEstimatesRequest = strictObject({
+  stations: stationsField(networkStoredStationSchema).describe(
+    'Archive stations whose residuals of the day are deposited (their stored coordinates are the sites), and optional a-priori delays',
+  ),
+  met: metField,
+  options: networkOptionsSchema,
+});
+
+export type NetworkDayEstimatesRequest = z.output<typeof networkDayEstimatesRequest>;
+
+/**
  * The bodies as the worker checks them, by the form of their observations: objects (zod, field errors
  * such as observations.3.station), or columns (checked by src/http/columns.ts; the rest here).
  */

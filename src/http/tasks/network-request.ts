@@ -8,13 +8,20 @@
  * (`archiveSites`, read by the route) and every station's delay columns come back to be stored.
  */
 
+import { DEG } from '../../domain/constants.js';
 import { ModelDomainError } from '../../domain/errors.js';
 import type { Site } from '../../domain/site.js';
 import type { NetworkObservationColumns } from '../../estimation/network/types.js';
 import { FormatError } from '../../formats/format-error.js';
+import { decodeResidualDay } from '../../formats/residual-day-form.js';
 import { MAX_OBSERVATIONS } from '../../limits.js';
 import { CallerError } from '../../services/caller-error.js';
-import { networkDelayColumns, runNetworkEstimation, type NetworkEstimationRequest } from '../../services/network-estimation.js';
+import {
+  networkDelayColumns,
+  runNetworkEstimation,
+  type NetworkEstimationRequest,
+  type NetworkSizeLimit,
+} from '../../services/network-estimation.js';
 import { checkStorableDelays, checkStorableZwd, type DelayColumns } from '../../services/zwd-estimation.js';
 import type { MetColumns } from '../../services/station-met.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
@@ -37,6 +44,7 @@ import {
   networkStoredColumnarRest,
   networkStoredObjectRows,
   networkStoredQuerySchema,
+  type NetworkDayEstimatesRequest,
   type NetworkEstimatesRequest,
   type NetworkStoredEstimatesRequest,
 } from '../schemas/network-estimates.js';
@@ -176,63 +184,19 @@ export async function handleNetworkRequest(input: NetworkRequestTaskInput): Prom
     if (!validated.ok) return validated.outcome;
     const { body } = validated;
     columnar = validated.columnar;
-    let stations: NetworkStationBody[];
     if (archive) {
-      const listed = body.stations as NetworkStoredEstimatesRequest['stations'];
-      const missing = listed.findIndex((s) => archive[s.id] === undefined);
-      if (missing >= 0) {
-        const id = listed[missing]!.id;
-        return fail(404, [
-          { field: `stations.${missing}.id`, message: `no station "${id}" in the archive; create it with PUT /v1/stations/${id}` },
-        ]);
-      }
-      stations = listed.map((s) => ({ ...s, site: archive[s.id]! }));
-    } else {
-      stations = (body.stations as NetworkEstimatesRequest['stations']).map((s) => ({
-        id: s.id,
-        site: { latitudeDeg: s.site.latitude_deg, longitudeDeg: s.site.longitude_deg, heightM: s.site.height_m },
-        apriori: s.apriori,
-      }));
+      const stations = archiveStations(body.stations as NetworkStoredEstimatesRequest['stations'], archive);
+      if (!Array.isArray(stations)) return stations;
+      return storedEstimate(stations, body, validated.observations, input.storedMet ?? {});
     }
-    const request = toNetworkRequest(stations, body, validated.observations);
-    const metUsed = archive ? withStoredMet(request, stations, input.storedMet ?? {}) : undefined;
-    const result = runNetworkEstimation(request);
+    const stations = (body.stations as NetworkEstimatesRequest['stations']).map((s) => ({
+      id: s.id,
+      site: { latitudeDeg: s.site.latitude_deg, longitudeDeg: s.site.longitude_deg, heightM: s.site.height_m },
+      apriori: s.apriori,
+    }));
+    const result = runNetworkEstimation(toNetworkRequest(stations, body, validated.observations));
     const observations = validated.observations.epochMs.length;
-    if (!archive) return { ok: true, output: { json: utf8(JSON.stringify(networkEstimatesResponseOf(result))), observations } };
-
-    // Storing: every station's series must be one a direct deposit would accept, or nothing is stored;
-    // each station's series is checked as the single-station storing route checks its one.
-    const storeWarnings: string[] = [];
-    const delays = result.output.stations.map((st, s) => {
-      const columns = networkDelayColumns(result, s);
-      try {
-        checkStorableDelays(columns);
-        storeWarnings.push(...checkStorableZwd(columns).map((w) => `station ${st.station}: ${w.text}`));
-      } catch (err) {
-        if (err instanceof CallerError)
-          throw CallerError.field(422, `stations.${s}`, `station ${st.station}: ${err.errors[0]?.message ?? err.message}`);
-        throw err;
-      }
-      return { station: st.station, columns };
-    });
-    result.output.stations.forEach((st, s) => {
-      if (metUsed![s] === 'archive')
-        storeWarnings.push(
-          `station ${st.station}: met from ${storedMetCount(input.storedMet, st.station)} records of the station's stored met series`,
-        );
-    });
-    const json = JSON.stringify(networkEstimatesResponseOf(result, storeWarnings));
-    return {
-      ok: true,
-      output: {
-        json: utf8(json.slice(0, -1)),
-        observations,
-        delays,
-        modelFingerprint: result.modelFingerprint,
-        models: result.models,
-        metUsed,
-      },
-    };
+    return { ok: true, output: { json: utf8(JSON.stringify(networkEstimatesResponseOf(result))), observations } };
   } catch (err) {
     return asOutcome(columnar ? asColumnField(err) : err);
   }
@@ -307,4 +271,136 @@ export async function scanNetworkRequest(input: NetworkRequestTaskInput): Promis
   ];
   const epochs = epochTextsOf(raw.observations);
   return { ok: true, output: { range: epochRangeOf(epochs), stations, metStations, observations: epochs.length, ...back } };
+}
+
+/** The listed stations with their archive sites, or the 404 naming the first that is not in the archive. */
+function archiveStations(
+  listed: NetworkStoredEstimatesRequest['stations'],
+  archive: Record<string, Site>,
+): NetworkStationBody[] | TaskOutcome<never> {
+  const missing = listed.findIndex((s) => archive[s.id] === undefined);
+  if (missing >= 0) {
+    const id = listed[missing]!.id;
+    return fail(404, [
+      { field: `stations.${missing}.id`, message: `no station "${id}" in the archive; create it with PUT /v1/stations/${id}` },
+    ]);
+  }
+  return listed.map((s) => ({ ...s, site: archive[s.id]! }));
+}
+
+/**
+ * The storing routes' estimation: the stations' stored met where the request has none, the estimation,
+ * and every station's series checked as the single-station storing route checks its one (a series a
+ * direct deposit would refuse makes the whole request a 422: nothing is stored). The answer's JSON
+ * comes without its closing brace: the route appends `stored`.
+ */
+function storedEstimate(
+  stations: NetworkStationBody[],
+  body: ValidatedBody,
+  observations: NetworkObservationColumns,
+  storedMet: Record<string, MetColumns>,
+  sizeLimit?: NetworkSizeLimit,
+): TaskOutcome<NetworkRequestTaskOutput> {
+  const request = { ...toNetworkRequest(stations, body, observations), sizeLimit };
+  const metUsed = withStoredMet(request, stations, storedMet);
+  const result = runNetworkEstimation(request);
+  const storeWarnings: string[] = [];
+  const delays = result.output.stations.map((st, s) => {
+    const columns = networkDelayColumns(result, s);
+    try {
+      checkStorableDelays(columns);
+      storeWarnings.push(...checkStorableZwd(columns).map((w) => `station ${st.station}: ${w.text}`));
+    } catch (err) {
+      if (err instanceof CallerError)
+        throw CallerError.field(422, `stations.${s}`, `station ${st.station}: ${err.errors[0]?.message ?? err.message}`);
+      throw err;
+    }
+    return { station: st.station, columns };
+  });
+  result.output.stations.forEach((st, s) => {
+    if (metUsed[s] === 'archive')
+      storeWarnings.push(
+        `station ${st.station}: met from ${storedMetCount(storedMet, st.station)} records of the station's stored met series`,
+      );
+  });
+  const json = JSON.stringify(networkEstimatesResponseOf(result, storeWarnings));
+  return {
+    ok: true,
+    output: {
+      json: utf8(json.slice(0, -1)),
+      observations: observations.epochMs.length,
+      delays,
+      modelFingerprint: result.modelFingerprint,
+      models: result.models,
+      metUsed,
+    },
+  };
+}
+
+export interface NetworkDayTaskInput {
+  /** The UTC day, YYYY-MM-DD. */
+  day: string;
+  /** The request body, checked by the route against networkDayEstimatesRequest. */
+  body: NetworkDayEstimatesRequest;
+  /** The stations' residual deposits of the day in their stored form, in the order of body.stations. */
+  residuals: Uint8Array[];
+  archiveSites: Record<string, Site>;
+  storedMet: Record<string, MetColumns>;
+  /** Largest stations × observations (the replica's setting). */
+  maxStationObservations: number;
+}
+
+/** The day's deposits of the stations as the network's observation columns (station order, then each deposit's order). */
+export function depositedObservations(
+  day: string,
+  stations: readonly string[],
+  residuals: readonly Uint8Array[],
+): NetworkObservationColumns {
+  const days = residuals.map((bytes) => decodeResidualDay(day, bytes));
+  const n = days.reduce((sum, d) => sum + d.epochMs.length, 0);
+  const columns: NetworkObservationColumns = {
+    station: new Array<string>(n),
+    epochMs: new Array<number>(n),
+    satellite: new Array<string>(n),
+    elevationRad: new Array<number>(n),
+    azimuthRad: new Array<number>(n),
+    residualM: new Array<number>(n),
+  };
+  const sigmas = days.some((d) => d.sigmaM !== undefined) ? new Array<number | null>(n).fill(null) : undefined;
+  let i = 0;
+  days.forEach((d, s) => {
+    for (let k = 0; k < d.epochMs.length; k++, i++) {
+      columns.station[i] = stations[s]!;
+      columns.epochMs[i] = d.epochMs[k]!;
+      columns.satellite[i] = d.satellite[k]!;
+      columns.elevationRad[i] = d.elevationDeg[k]! * DEG;
+      columns.azimuthRad[i] = d.azimuthDeg[k]! * DEG;
+      columns.residualM[i] = d.residualM[k]!;
+      if (sigmas && d.sigmaM) sigmas[i] = d.sigmaM[k] ?? null;
+    }
+  });
+  if (sigmas) columns.sigmaM = sigmas;
+  return columns;
+}
+
+/** POST /v1/network/days/{day}/zwd-estimates: the stations' deposits of the day estimated jointly; the rows to store. */
+export async function handleNetworkDayRequest(input: NetworkDayTaskInput): Promise<TaskOutcome<NetworkRequestTaskOutput>> {
+  try {
+    const stations = archiveStations(input.body.stations, input.archiveSites);
+    if (!Array.isArray(stations)) return stations;
+    const observations = depositedObservations(
+      input.day,
+      stations.map((s) => s.id),
+      input.residuals,
+    );
+    return storedEstimate(stations, input.body, observations, input.storedMet, {
+      stationObservations: input.maxStationObservations,
+      field: 'stations',
+      name: 'TROPODELAY_NETWORK_DAY_MAX_STATION_OBSERVATIONS',
+      advice:
+        'Estimate fewer stations together (a subnetwork with a few distant stations keeps the absolute level) or raise the setting where the replica has the memory',
+    });
+  } catch (err) {
+    return asOutcome(err);
+  }
 }
