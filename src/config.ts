@@ -194,7 +194,7 @@ export const configSchema = z.object({
   TROPODELAY_NETWORK_DAY_MAX_STATION_OBSERVATIONS: integer(1, 1_000_000_000)
     .default(MAX_NETWORK_DAY_STATION_OBSERVATIONS)
     .describe(
-      'largest stations × observations of one network estimation from residual deposits (`POST /v1/network/days/{day}/zwd-estimates`), 1..1 000 000 000; the default holds a 50-station day of 30-s data (about 1.5 GB of memory in the worker)',
+      'largest stations × observations of one network estimation from residual deposits (`POST /v1/network/days/{day}/zwd-estimates`), 1..1 000 000 000; the default holds a 50-station day of 30-s data (about 1.9 GB of memory in the replica)',
     ),
   TROPODELAY_CAMPAIGN_ITEM_TIMEOUT_S: integer(5, 86_400)
     .default(600)
