@@ -9,6 +9,7 @@
 
 import { DEG } from '../../domain/constants.js';
 import { decodeResidualDay } from '../../formats/residual-day-form.js';
+import { MAX_OBSERVATIONS } from '../../limits.js';
 import type { ItemEstimateInput } from '../../services/campaigns/campaign-runner.js';
 import { checkStorableDelays, delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
@@ -70,6 +71,16 @@ function windowObservations(input: Omit<ItemEstimateInput, 'source'>) {
 export async function estimateCampaignItemTask(input: Omit<ItemEstimateInput, 'source'>): Promise<TaskOutcome<CampaignItemOutput>> {
   try {
     const observations = windowObservations(input);
+    if (observations.epochMs.length > MAX_OBSERVATIONS) {
+      const n = observations.epochMs.length;
+      return {
+        ok: false,
+        error: {
+          status: 413,
+          detail: `${n} observations in the item's window; one estimation takes at most ${MAX_OBSERVATIONS}: use a shorter window`,
+        },
+      };
+    }
     if (!observations.epochMs.some((t) => t >= input.keepFromMs && t < input.keepToMs)) {
       return { ok: true, output: { delays: NO_DELAYS(), modelFingerprint: '', models: {}, observations: 0, noInput: true } };
     }
