@@ -102,10 +102,12 @@ describe('campaign upload: windows over uploaded residuals, interrupted and resu
     ]);
 
     proxy.reset();
-    const third = await runCli(proxy.url, ['campaign', 'upload', campaignId, '--station', 'UPLD1', '--file', file]);
+    const third = await runCli(proxy.url, ['campaign', 'upload', campaignId, '--station', 'UPLD1', '--file', file], true);
     expect(third.code, third.stderr).toBe(0);
     expect(proxy.count('PUT', UPLOAD_PUTS)).toBe(0);
     expect(third.stdout).toMatch(/0 day\(s\) uploaded .*2 already held, 1 outside the span/);
+    // The progress bar on a terminal: both days of the span, each already held.
+    expect(third.stderr).toMatch(new RegExp(`campaign ${campaignId} UPLD1 \\[#{40}\\] 100% \\| 2/2`));
   });
 
   it('follows the campaign with a bar to the end; the report is homogeneous over both windows', async () => {
