@@ -9,6 +9,9 @@
  * Network: invented stations CAMP01 …, days of residuals from the committed synthetic generator at
  * BENCH_CAMPAIGN_SAMPLING_S (default 300 s: 288 epochs, about 2 000–3 000 observations a day).
  * BENCH_CAMPAIGN_STATION_DAYS (default 1000) = stations × days (20 stations × 50 days by default).
+ * BENCH_CAMPAIGN_RESIDUALS=uploaded: the campaign is submitted first with `residuals: "uploaded"` and the
+ * station-days are uploaded to it through replica a while its items run (each as its day arrives); the
+ * kill comes when half are done, as with deposits.
  * BENCH_DATABASE_URL (default postgres://postgres@127.0.0.1:5432/test); skipped when none answers.
  */
 
@@ -16,7 +19,15 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import pg from 'pg';
-import { call, consecutiveDays, depositNetwork, inventedStations, replicaEnv } from '../test/helpers/campaign-network.js';
+import {
+  call,
+  consecutiveDays,
+  depositNetwork,
+  inventedStations,
+  replicaEnv,
+  stationDay,
+  type StationDayData,
+} from '../test/helpers/campaign-network.js';
 import { startServerProcess, type ServerProcess } from '../test/helpers/server-process.js';
 import { randomBytes } from 'node:crypto';
 
@@ -25,6 +36,7 @@ const STATION_DAYS = Number(process.env.BENCH_CAMPAIGN_STATION_DAYS ?? 1000);
 const SAMPLING_S = Number(process.env.BENCH_CAMPAIGN_SAMPLING_S ?? 300);
 const STATIONS = 20;
 const ITEM_TIMEOUT_S = 20;
+const UPLOADED = process.env.BENCH_CAMPAIGN_RESIDUALS === 'uploaded';
 
 const load = () => loadavg()[0]!.toFixed(1);
 
@@ -51,18 +63,49 @@ export default async function campaignsBench(): Promise<string[]> {
     const stations = inventedStations(STATIONS);
     const days = consecutiveDays('2026-01-01', Math.ceil(STATION_DAYS / STATIONS));
     let t0 = performance.now();
-    const deposited = await depositNetwork(a.baseUrl, stations, days, 24, SAMPLING_S);
-    const observations = [...deposited.values()].reduce((n, d) => n + d.body.observations.length, 0);
-    out.push(
-      `deposits: ${deposited.size} station-days, ${observations} observations (${(observations / deposited.size).toFixed(0)} a day at ${SAMPLING_S} s), ` +
-        `${((performance.now() - t0) / 1000).toFixed(1)} s through HTTP (load average ${load()})`,
-    );
+    let deposited = new Map<string, StationDayData>();
+    let uploads: Promise<void> = Promise.resolve();
+    if (!UPLOADED) {
+      deposited = await depositNetwork(a.baseUrl, stations, days, 24, SAMPLING_S);
+      const observations = [...deposited.values()].reduce((n, d) => n + d.body.observations.length, 0);
+      out.push(
+        `deposits: ${deposited.size} station-days, ${observations} observations (${(observations / deposited.size).toFixed(0)} a day at ${SAMPLING_S} s), ` +
+          `${((performance.now() - t0) / 1000).toFixed(1)} s through HTTP (load average ${load()})`,
+      );
+    } else {
+      for (const s of stations) await call(a.baseUrl, 'PUT', `/v1/stations/${s.id}`, s.body);
+    }
 
     t0 = performance.now();
-    const submitted = await call(b.baseUrl, 'POST', '/v1/campaigns', { name: 'bench', start_date: days[0], end_date: days.at(-1) });
+    const submitted = await call(b.baseUrl, 'POST', '/v1/campaigns', {
+      name: 'bench',
+      start_date: days[0],
+      end_date: days.at(-1),
+      ...(UPLOADED ? { residuals: 'uploaded', stations: stations.map((s) => s.id) } : {}),
+    });
     if (submitted.status !== 202) throw new Error(`submit: ${submitted.status} ${JSON.stringify(submitted.body)}`);
     const id = submitted.body.campaign_id as string;
     const total = submitted.body.items_total as number;
+    if (UPLOADED) {
+      // Day by day across the network, so that items become ready from the start while the uploads go on.
+      uploads = (async () => {
+        const u0 = performance.now();
+        let observations = 0;
+        for (const day of days) {
+          for (const [k, s] of stations.entries()) {
+            const d = stationDay(s, k, day, 24, SAMPLING_S);
+            const r = await call(a.baseUrl, 'PUT', `/v1/campaigns/${id}/residuals/${s.id}/${day}`, d.body);
+            if (r.status !== 201) throw new Error(`upload ${s.id} ${day}: ${r.status} ${JSON.stringify(r.body)}`);
+            deposited.set(`${s.id}|${day}`, d);
+            observations += d.body.observations.length;
+          }
+        }
+        out.push(
+          `uploads to the campaign: ${deposited.size} station-days, ${observations} observations, ${((performance.now() - u0) / 1000).toFixed(1)} s ` +
+            `through HTTP while the items ran (load average ${load()})`,
+        );
+      })();
+    }
     let killedAt = -1;
     let status;
     for (;;) {
@@ -77,6 +120,7 @@ export default async function campaignsBench(): Promise<string[]> {
       if (status.state === 'finished') break;
       await new Promise((r) => setTimeout(r, 250));
     }
+    await uploads;
     const wallS = (performance.now() - t0) / 1000;
     const report = (await call(a.baseUrl, 'GET', `/v1/campaigns/${id}/report`)).body;
     out.push(

@@ -7386,7 +7386,20 @@ export interface paths {
                 state: 'queued' | 'running' | 'finished' | 'cancelled';
                 start_date: string;
                 end_date: string;
+                /** @enum {string} */
+                residuals: 'deposited' | 'uploaded';
+                /** @description Station-windows (hours); null = station-days */
+                window: {
+                  length_hours: number;
+                  step_hours: number;
+                } | null;
+                /** @description When POST …/uploads-complete closed the uploads (uploaded residuals only) */
+                uploads_closed_at: string | null;
                 items_total: number;
+                /** @description Items whose uploaded residuals have not all arrived (they wait) */
+                items_awaiting_residuals: number;
+                /** @description Items that got no residuals before the uploads were closed */
+                items_no_residuals: number;
                 items_done: number;
                 items_failed: number;
                 items_pending: number;
@@ -7492,8 +7505,8 @@ export interface paths {
     };
     put?: never;
     /**
-     * Submit a reprocessing campaign: one option set over the deposited residuals of stations and days
-     * @description One item per station-day with residuals deposited (PUT /v1/stations/{station_id}/residuals/{day}) in [start_date, end_date] for the stations (all stations with deposits when omitted). Every item is estimated as by POST /v1/stations/{station_id}/zwd-estimates with `options` and the station's stored met, on any replica, and stored under the source "zwd-estimates" with the campaign's fingerprint, exactly once. 202 with the campaign; 400 naming the field for bad input; 422 when no station-day in the span has residuals. Body limit: 1048576 bytes. Role needed: write. Needs `Authorization: Bearer <key>` of role write or admin (401 without a key, 403 with a key of role read or one not accepted).
+     * Submit a reprocessing campaign: one option set over the residuals of stations and days (or windows)
+     * @description `residuals: "deposited"` (default): one item per station-day with residuals deposited (PUT /v1/stations/{station_id}/residuals/{day}) in [start_date, end_date] for the stations (all stations with deposits when omitted). `residuals: "uploaded"`: one item per named station and day, awaiting its residuals (PUT /v1/campaigns/{campaign_id}/residuals/{station_id}/{day}); each runs as soon as they have arrived. `window`: station-windows instead of station-days; each item estimates from its whole window and stores its centre `step_hours`. Every item is estimated as by POST /v1/stations/{station_id}/zwd-estimates with `options` and the station's stored met, on any replica, and stored under the source "zwd-estimates" with the campaign's fingerprint, exactly once per epoch. 202 with the campaign; 400 naming the field for bad input; 422 when no station-day in the span has deposited residuals. Body limit: 1048576 bytes. Role needed: write. Needs `Authorization: Bearer <key>` of role write or admin (401 without a key, 403 with a key of role read or one not accepted).
      */
     post: {
       parameters: {
@@ -7514,7 +7527,7 @@ export interface paths {
             /** @description Last UTC day of the span, YYYY-MM-DD (inclusive) */
             end_date: string;
             /**
-             * @description The single-station estimation options (those of POST /v1/zwd-estimates, docs/zwd-estimation.md), one set for every station-day
+             * @description The single-station estimation options (those of POST /v1/zwd-estimates, docs/zwd-estimation.md), one set for every item
              * @default {}
              */
             options?: {
@@ -7621,6 +7634,19 @@ export interface paths {
                 apriori_sigma_m?: number | null;
               } | null;
             };
+            /**
+             * @description "deposited": read from the station archive (PUT /v1/stations/{station_id}/residuals/{day}); "uploaded": sent to the campaign after submission (PUT /v1/campaigns/{campaign_id}/residuals/{station_id}/{day}); `stations` required
+             * @default deposited
+             * @enum {string}
+             */
+            residuals?: 'deposited' | 'uploaded';
+            /** @description Station-windows instead of station-days: one item per station and window; each stores the centre step_hours of its window (docs/campaigns.md, "Station-windows") */
+            window?: {
+              /** @description Length of a window: the observations one item estimates from [h], [1, 240] */
+              length_hours: number;
+              /** @description Step from one window to the next = the part of each window whose estimates are stored (its centre); ≤ length_hours [h], [1, 240] */
+              step_hours: number;
+            };
           };
         };
       };
@@ -7641,7 +7667,20 @@ export interface paths {
               state: 'queued' | 'running' | 'finished' | 'cancelled';
               start_date: string;
               end_date: string;
+              /** @enum {string} */
+              residuals: 'deposited' | 'uploaded';
+              /** @description Station-windows (hours); null = station-days */
+              window: {
+                length_hours: number;
+                step_hours: number;
+              } | null;
+              /** @description When POST …/uploads-complete closed the uploads (uploaded residuals only) */
+              uploads_closed_at: string | null;
               items_total: number;
+              /** @description Items whose uploaded residuals have not all arrived (they wait) */
+              items_awaiting_residuals: number;
+              /** @description Items that got no residuals before the uploads were closed */
+              items_no_residuals: number;
               items_done: number;
               items_failed: number;
               items_pending: number;
@@ -7829,7 +7868,20 @@ export interface paths {
               state: 'queued' | 'running' | 'finished' | 'cancelled';
               start_date: string;
               end_date: string;
+              /** @enum {string} */
+              residuals: 'deposited' | 'uploaded';
+              /** @description Station-windows (hours); null = station-days */
+              window: {
+                length_hours: number;
+                step_hours: number;
+              } | null;
+              /** @description When POST …/uploads-complete closed the uploads (uploaded residuals only) */
+              uploads_closed_at: string | null;
               items_total: number;
+              /** @description Items whose uploaded residuals have not all arrived (they wait) */
+              items_awaiting_residuals: number;
+              /** @description Items that got no residuals before the uploads were closed */
+              items_no_residuals: number;
               items_done: number;
               items_failed: number;
               items_pending: number;
@@ -7981,7 +8033,20 @@ export interface paths {
               state: 'queued' | 'running' | 'finished' | 'cancelled';
               start_date: string;
               end_date: string;
+              /** @enum {string} */
+              residuals: 'deposited' | 'uploaded';
+              /** @description Station-windows (hours); null = station-days */
+              window: {
+                length_hours: number;
+                step_hours: number;
+              } | null;
+              /** @description When POST …/uploads-complete closed the uploads (uploaded residuals only) */
+              uploads_closed_at: string | null;
               items_total: number;
+              /** @description Items whose uploaded residuals have not all arrived (they wait) */
+              items_awaiting_residuals: number;
+              /** @description Items that got no residuals before the uploads were closed */
+              items_no_residuals: number;
               items_done: number;
               items_failed: number;
               items_pending: number;
@@ -8149,25 +8214,32 @@ export interface paths {
               /** @description Every station-day the campaign did holds results of its fingerprint only */
               homogeneous: boolean;
               model_fingerprint: string;
-              /** @description The fingerprints stored now for the station-days the campaign did, with how many station-days carry each */
+              /** @description The fingerprints stored now for the items the campaign did, with how many items (station-days, or station-windows) carry each */
               fingerprints: {
                 fingerprint: string;
                 station_days: number;
               }[];
-              /** @description Failed items, and done station-days whose stored results differ from the campaign (another fingerprint, or gone) */
+              /** @description Failed items, items without input (no residuals uploaded, or still awaited), and done items whose stored results differ from the campaign (another fingerprint, or gone) */
               exceptions: {
                 station_id: string;
+                /** @description The item's day (windows: the day its stored part starts) */
                 day: string;
+                /** @description Windows: start of the item's stored part (ISO 8601 UTC) */
+                kept_from?: string;
+                /** @description Windows: end of the item's stored part, exclusive */
+                kept_to?: string;
                 reason: string;
                 fingerprint?: string;
               }[];
               items: {
                 total: number;
+                awaiting_residuals: number;
+                pending: number;
+                running: number;
                 done: number;
                 failed: number;
                 cancelled: number;
-                pending: number;
-                running: number;
+                no_residuals: number;
               };
               throughput: {
                 /** @description Items done per second of wall-clock time from the first claim to the end (or now) */
@@ -8270,6 +8342,596 @@ export interface paths {
     };
     put?: never;
     post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/v1/campaigns/{campaign_id}/residuals/{station_id}/{day}': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    /**
+     * Upload the residuals of one station-day to a campaign of uploaded residuals
+     * @description The body as for PUT /v1/stations/{station_id}/residuals/{day} (JSON objects or column arrays, text/csv, Arrow IPC), with the same rules and stored form; kept with the campaign, not in the station archive. Items whose days have all arrived are queued at once (`items_ready`). The same observations again answer 200 with the same sha256; other observations replace the day while no item reading it has started (409 after). 400 naming params.day outside the span or params.station_id not in the campaign; 409 for a campaign of deposited residuals, a campaign that ended or whose uploads were closed. Up to 500000 observations; body limit 67108864 bytes. Role needed: write. Needs `Authorization: Bearer <key>` of role write or admin (401 without a key, 403 with a key of role read or one not accepted).
+     */
+    put: {
+      parameters: {
+        query?: never;
+        header?: never;
+        path: {
+          /** @description Campaign id (from POST /v1/campaigns) */
+          campaign_id: string;
+          /** @description Station identifier: 1-32 characters of letters, digits, "-" and "_" */
+          station_id: string;
+          /** @description UTC calendar day, YYYY-MM-DD */
+          day: string;
+        };
+        cookie?: never;
+      };
+      requestBody: {
+        content: {
+          'application/json': {
+            /** @description The residuals of one station and one UTC day: every epoch within the day. An array of objects, or an object of column arrays */
+            observations:
+              | {
+                  /**
+                   * Format: date-time
+                   * @description Epoch, ISO 8601 date-time (UTC, e.g. 2026-03-14T12:00:00Z; an offset is converted to UTC)
+                   */
+                  epoch: string;
+                  /** @description Satellite identifier; each (epoch, satellite) pair may appear once */
+                  satellite: string;
+                  /** @description Vacuum (geometric) elevation angle; below 3° the answer carries a warning; mapping functions refuse elevations below 1° (a profile is still traced there) [deg], (0, 90] deg */
+                  elevation_deg: number;
+                  /** @description Azimuth from north through east [deg], [0, 360] deg */
+                  azimuth_deg: number;
+                  /** @description Residual formed with the a-priori troposphere (observed − computed); may contain a receiver clock [m], [-1000000, 1000000] m */
+                  residual_m: number;
+                  /** @description Standard deviation of residual_m; absent = from options.weighting and sigma0_m [m], > 0, at most 10 */
+                  sigma_m?: number;
+                }[]
+              | {
+                  epoch: string[];
+                  satellite: string[];
+                  elevation_deg: number[];
+                  azimuth_deg: number[];
+                  residual_m: number[];
+                  sigma_m: number[];
+                };
+          };
+        };
+      };
+      responses: {
+        /** @description Default Response */
+        200: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              station_id: string;
+              /** @description UTC day, YYYY-MM-DD */
+              day: string;
+              observation_count: number;
+              /** @description SHA-256 (hex) of the canonical stored form: the same observations sent again give the same digest */
+              sha256: string;
+              /** @description Size of the stored form [bytes] */
+              stored_bytes: number;
+              campaign_id: string;
+              /** @description Items that became pending with this upload (all the days they read have arrived) */
+              items_ready: number;
+            };
+          };
+        };
+        /** @description Default Response */
+        201: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              station_id: string;
+              /** @description UTC day, YYYY-MM-DD */
+              day: string;
+              observation_count: number;
+              /** @description SHA-256 (hex) of the canonical stored form: the same observations sent again give the same digest */
+              sha256: string;
+              /** @description Size of the stored form [bytes] */
+              stored_bytes: number;
+              campaign_id: string;
+              /** @description Items that became pending with this upload (all the days they read have arrived) */
+              items_ready: number;
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        400: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        401: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        403: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        409: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        413: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        415: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/v1/campaigns/{campaign_id}/residuals': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    /**
+     * The station-days uploaded to a campaign, with the sha256 of each (what a resumed upload skips)
+     * @description Role needed: read. Reads need a key of role read or above when TROPO_READ_KEYS_REQUIRED=true.
+     */
+    get: {
+      parameters: {
+        query?: never;
+        header?: never;
+        path: {
+          /** @description Campaign id (from POST /v1/campaigns) */
+          campaign_id: string;
+        };
+        cookie?: never;
+      };
+      requestBody?: never;
+      responses: {
+        /** @description Default Response */
+        200: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              campaign_id: string;
+              days: {
+                station_id: string;
+                /** @description UTC day, YYYY-MM-DD */
+                day: string;
+                observation_count: number;
+                /** @description SHA-256 (hex) of the canonical stored form: the same observations sent again give the same digest */
+                sha256: string;
+                /** @description Size of the stored form [bytes] */
+                stored_bytes: number;
+                /** @description ISO 8601 UTC of the upload */
+                stored_at: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        401: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        403: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
+    put?: never;
+    post?: never;
+    delete?: never;
+    options?: never;
+    head?: never;
+    patch?: never;
+    trace?: never;
+  };
+  '/v1/campaigns/{campaign_id}/uploads-complete': {
+    parameters: {
+      query?: never;
+      header?: never;
+      path?: never;
+      cookie?: never;
+    };
+    get?: never;
+    put?: never;
+    /**
+     * Close a campaign's uploads: nothing more will come
+     * @description Items with some of their days uploaded run with what has arrived; items with none end as no_residuals and the report lists them. Later uploads are refused (409). 409 for a campaign of deposited residuals. Body limit: 1048576 bytes. Role needed: write. Needs `Authorization: Bearer <key>` of role write or admin (401 without a key, 403 with a key of role read or one not accepted).
+     */
+    post: {
+      parameters: {
+        query?: never;
+        header?: never;
+        path: {
+          /** @description Campaign id (from POST /v1/campaigns) */
+          campaign_id: string;
+        };
+        cookie?: never;
+      };
+      requestBody?: never;
+      responses: {
+        /** @description Default Response */
+        200: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              campaign_id: string;
+              name: string | null;
+              /**
+               * @description finished also when some items failed: the counts say
+               * @enum {string}
+               */
+              state: 'queued' | 'running' | 'finished' | 'cancelled';
+              start_date: string;
+              end_date: string;
+              /** @enum {string} */
+              residuals: 'deposited' | 'uploaded';
+              /** @description Station-windows (hours); null = station-days */
+              window: {
+                length_hours: number;
+                step_hours: number;
+              } | null;
+              /** @description When POST …/uploads-complete closed the uploads (uploaded residuals only) */
+              uploads_closed_at: string | null;
+              items_total: number;
+              /** @description Items whose uploaded residuals have not all arrived (they wait) */
+              items_awaiting_residuals: number;
+              /** @description Items that got no residuals before the uploads were closed */
+              items_no_residuals: number;
+              items_done: number;
+              items_failed: number;
+              items_pending: number;
+              items_running: number;
+              items_cancelled: number;
+              /** @description The fingerprint of the campaign's model set: every result should carry it */
+              model_fingerprint: string;
+              created_at: string;
+              started_at: string | null;
+              finished_at: string | null;
+              replicas: {
+                /** @description Replica name (TROPODELAY_REPLICA_NAME, else host:pid) */
+                replica: string;
+                items_done: number;
+                /** @description Process CPU time of the replica while it worked on the items it finished [s] */
+                cpu_s: number;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        401: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        403: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        404: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        409: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+        /** @description RFC 9457 problem details (application/problem+json) */
+        503: {
+          headers: {
+            [name: string]: unknown;
+          };
+          content: {
+            'application/json': {
+              type: string;
+              title: string;
+              status: number;
+              detail: string;
+              instance?: string;
+              /** @description One entry per offending field, with its allowed range */
+              errors?: {
+                field: string;
+                message: string;
+              }[];
+            };
+          };
+        };
+      };
+    };
     delete?: never;
     options?: never;
     head?: never;

@@ -1,7 +1,9 @@
 /**
  * Reprocessing campaigns: submit (`POST /v1/campaigns`), follow until finished or cancelled (polling
- * `GET /v1/campaigns/{campaign_id}`), cancel (`POST …/cancel`), list, and fetch the report
- * (`GET …/report`). Types generated from the OpenAPI document (api-types.ts).
+ * `GET /v1/campaigns/{campaign_id}`), cancel (`POST …/cancel`), close the uploads of a campaign of
+ * uploaded residuals (`POST …/uploads-complete`; the uploads themselves: residual-deposit.ts with
+ * `campaignId`), list, and fetch the report (`GET …/report`). Types generated from the OpenAPI
+ * document (api-types.ts).
  */
 
 import type { Answer } from './api.js';
@@ -16,8 +18,9 @@ export type CampaignState = (typeof CAMPAIGN_STATES)[number];
 export const FINAL_STATES: ReadonlySet<CampaignState> = new Set(['finished', 'cancelled']);
 
 /**
- * Body of `POST /v1/campaigns`: stations (absent = every station with deposits in the span), start_date and
- * end_date (YYYY-MM-DD, inclusive), the estimation options.
+ * Body of `POST /v1/campaigns`: stations (absent = every station with deposits in the span; required with
+ * residuals "uploaded"), start_date and end_date (YYYY-MM-DD, inclusive), the estimation options,
+ * `residuals` ("deposited" or "uploaded") and an optional `window` ({length_hours, step_hours}).
  */
 export type CampaignRequest = NonNullable<paths['/v1/campaigns']['post']['requestBody']>['content']['application/json'];
 export type CampaignSubmitted = Answer<'/v1/campaigns', 'post'>;
@@ -42,6 +45,11 @@ export function cancelCampaign(service: Service, campaignId: string): Promise<Ca
   return service.json('POST', `${campaignPath(campaignId)}/cancel`);
 }
 
+/** Nothing more will be uploaded: items with some input run with it, the others end as no_residuals. */
+export function closeCampaignUploads(service: Service, campaignId: string): Promise<CampaignStatus> {
+  return service.json('POST', `${campaignPath(campaignId)}/uploads-complete`);
+}
+
 export function campaignReport(service: Service, campaignId: string): Promise<CampaignReport> {
   return service.json('GET', `${campaignPath(campaignId)}/report`);
 }
@@ -62,7 +70,7 @@ export async function followCampaign(service: Service, campaignId: string, optio
   progress.start(status.items_total, `campaign ${campaignId}`);
   try {
     for (;;) {
-      progress.update(status.items_done + status.items_failed, describe(status), status.items_total);
+      progress.update(status.items_done + status.items_failed + status.items_no_residuals, describe(status), status.items_total);
       if (FINAL_STATES.has(status.state) || options.signal?.aborted) return status;
       await sleep(intervalMs, options.signal);
       status = await campaignStatus(service, campaignId);
@@ -72,11 +80,15 @@ export async function followCampaign(service: Service, campaignId: string, optio
   }
 }
 
-/** "running: 12 done, 1 failed, 3 running, 24 pending" */
+/** "running: 12 done, 1 failed, 3 running, 24 pending" (+ ", 5 awaiting residuals, 1 without residuals" when there are). */
 export function describe(status: CampaignStatus): string {
+  const uploads = [
+    status.items_awaiting_residuals ? `${status.items_awaiting_residuals} awaiting residuals` : '',
+    status.items_no_residuals ? `${status.items_no_residuals} without residuals` : '',
+  ].filter(Boolean);
   return (
     `${status.state}: ${status.items_done} done, ${status.items_failed} failed, ` +
-    `${status.items_running} running, ${status.items_pending} pending`
+    `${status.items_running} running, ${status.items_pending} pending${uploads.length ? `, ${uploads.join(', ')}` : ''}`
   );
 }
 

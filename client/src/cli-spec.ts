@@ -125,17 +125,68 @@ export const COMMANDS: CommandSpec[] = [
   },
   {
     name: 'campaign submit',
-    summary: 'Submit a reprocessing campaign over the deposited residuals of a span of days; --follow then shows its progress until done.',
+    summary:
+      'Submit a reprocessing campaign over the residuals of a span of days (deposited, or uploaded afterwards with campaign upload), as station-days or station-windows; --follow then shows its progress until done.',
     options: {
       'start-date': { type: 'string', value: 'YYYY-MM-DD', description: 'first day (UTC)', required: true },
       'end-date': { type: 'string', value: 'YYYY-MM-DD', description: 'last day, inclusive', required: true },
-      stations: { type: 'string', value: 'A,B,...', description: 'station ids (default: every station with deposits in the span)' },
+      stations: {
+        type: 'string',
+        value: 'A,B,...',
+        description: 'station ids (default: every station with deposits in the span; required with --residuals uploaded)',
+      },
       name: { type: 'string', value: 'TEXT', description: 'a name for the campaign' },
       options: { type: 'string', value: 'JSON|@FILE', description: 'estimation options as JSON text or @file.json', default: '{}' },
+      residuals: {
+        type: 'string',
+        value: 'FROM',
+        choices: ['deposited', 'uploaded'],
+        description: 'deposited in the archive, or uploaded to the campaign after submission (campaign upload)',
+        default: 'deposited',
+      },
+      'window-hours': {
+        type: 'string',
+        value: 'HOURS',
+        description: 'station-windows of this many hours instead of station-days (the service states its range)',
+      },
+      'step-hours': {
+        type: 'string',
+        value: 'HOURS',
+        description: 'step between windows = the centre part of each window that is stored (1..window-hours; default window-hours)',
+      },
       follow: { type: 'boolean', description: 'follow the campaign until finished or cancelled' },
       'interval-s': INTERVAL,
     },
-    examples: ['tropo-client campaign submit --start-date 2026-03-01 --end-date 2026-03-31 --options \'{"zwd_interval_s":900}\' --follow'],
+    examples: [
+      'tropo-client campaign submit --start-date 2026-03-01 --end-date 2026-03-31 --options \'{"zwd_interval_s":900}\' --follow',
+      'tropo-client campaign submit --start-date 2026-03-01 --end-date 2026-03-31 --stations FERN,GLEN --residuals uploaded --window-hours 48 --step-hours 24',
+    ],
+  },
+  {
+    name: 'campaign upload',
+    summary:
+      "Upload a station's residuals from a CSV of many days to a campaign of uploaded residuals, one UTC day per request; a rerun skips the days the campaign still holds as sent.",
+    positionals: CAMPAIGN_ID,
+    options: {
+      station: STATION,
+      file: {
+        type: 'string',
+        value: 'FILE',
+        description: 'observation CSV: epoch, satellite, elevation_deg, azimuth_deg, residual_m[, sigma_m]',
+        required: true,
+      },
+      state: STATE,
+      force: { type: 'boolean', description: 'send every day, even those already uploaded' },
+    },
+    examples: ['tropo-client campaign upload 3f2a… --station FERN --file fern-march.csv'],
+  },
+  {
+    name: 'campaign close-uploads',
+    summary:
+      'Tell a campaign of uploaded residuals that nothing more will come: items with some input run, the others end without residuals.',
+    positionals: CAMPAIGN_ID,
+    options: {},
+    examples: ['tropo-client campaign close-uploads 3f2a…'],
   },
   {
     name: 'campaign follow',

@@ -12,6 +12,7 @@ import { pathToFileURL } from 'node:url';
 import {
   campaignReport,
   cancelCampaign,
+  closeCampaignUploads,
   describe,
   followCampaign,
   listCampaigns,
@@ -172,6 +173,8 @@ const RUNNERS: Record<string, (ctx: Context) => Promise<Outcome>> = {
       ...(stringOption(values, 'name') !== undefined ? { name: stringOption(values, 'name') } : {}),
       ...(stringOption(values, 'stations') !== undefined ? { stations: stringOption(values, 'stations')!.split(',').filter(Boolean) } : {}),
       options: jsonOption(values, 'options'),
+      residuals: values.residuals as 'deposited' | 'uploaded',
+      ...windowOption(values),
     });
     if (values.follow !== true)
       return {
@@ -180,6 +183,25 @@ const RUNNERS: Record<string, (ctx: Context) => Promise<Outcome>> = {
       };
     const status = await followCampaign(service, submitted.campaign_id, { intervalMs: intervalMs(values), progress });
     return followed(status);
+  },
+  'campaign upload': async ({ service, values, positionals, progress }) => {
+    const result = await depositResiduals(service, {
+      campaignId: positionals[0]!,
+      stationId: stringOption(values, 'station')!,
+      file: stringOption(values, 'file')!,
+      statePath: stringOption(values, 'state'),
+      force: values.force === true,
+      progress,
+    });
+    const outside = result.daysOutsideSpan ? `, ${result.daysOutsideSpan} outside the span (not sent)` : '';
+    return {
+      result,
+      summary: `${result.daysSent} day(s) uploaded (${result.observationsSent} observations), ${result.daysSkipped} already held${outside}; ${result.itemsReady} item(s) ready`,
+    };
+  },
+  'campaign close-uploads': async ({ service, positionals }) => {
+    const status = await closeCampaignUploads(service, positionals[0]!);
+    return { result: status, summary: `campaign ${status.campaign_id}: ${describe(status)}` };
   },
   'campaign follow': async ({ service, values, positionals, progress }) =>
     followed(await followCampaign(service, positionals[0]!, { intervalMs: intervalMs(values), progress })),
@@ -241,6 +263,24 @@ function dateOption(values: OptionValues, name: string): string {
   if (!/^\d{4}-\d\d-\d\d$/.test(text) || Number.isNaN(Date.parse(`${text}T00:00:00Z`)))
     throw new UsageError(`--${name} must be a date YYYY-MM-DD, got ${JSON.stringify(text)}`);
   return text;
+}
+
+/** `--window-hours L [--step-hours S]` → the request's window (whole hours; S defaults to L). */
+function windowOption(values: OptionValues): { window?: { length_hours: number; step_hours: number } } {
+  const length = stringOption(values, 'window-hours');
+  const step = stringOption(values, 'step-hours');
+  if (length === undefined) {
+    if (step !== undefined) throw new UsageError('--step-hours needs --window-hours');
+    return {};
+  }
+  // A whole number here; the range (and step ≤ length) is the service's to check: it answers 400 naming window.*.
+  const hours = (name: string, text: string) => {
+    const n = Number(text);
+    if (!Number.isInteger(n) || n < 1) throw new UsageError(`--${name} must be a whole number of hours, got ${JSON.stringify(text)}`);
+    return n;
+  };
+  const lengthHours = hours('window-hours', length);
+  return { window: { length_hours: lengthHours, step_hours: step === undefined ? lengthHours : hours('step-hours', step) } };
 }
 
 function intervalMs(values: OptionValues): number {

@@ -12,6 +12,8 @@ export { uploadMet, metDaysOf, type MetUploadOptions, type MetUploadResult, type
 export {
   depositResiduals,
   listResidualDays,
+  listCampaignUploads,
+  type CampaignUploadAnswer,
   type ResidualDepositOptions,
   type ResidualDepositResult,
   type ResidualDayAnswer,
@@ -29,6 +31,7 @@ export {
   submitCampaign,
   followCampaign,
   cancelCampaign,
+  closeCampaignUploads,
   campaignStatus,
   campaignReport,
   listCampaigns,

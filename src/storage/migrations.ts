@@ -133,6 +133,37 @@ CREATE TABLE campaign_items (
 CREATE INDEX campaign_items_state ON campaign_items (campaign_id, state);
 `;
 
+/**
+ * Migration 6 (docs/campaigns.md): campaigns whose residuals are uploaded with them and campaigns of
+ * station-windows. campaigns gains the input kind ('deposits' | 'upload'), the window length and step
+ * (NULL = station-days) and when its uploads were closed; campaign_items gains when an item became
+ * pending (ready_at_ms) and when its job was queued (queued_at_ms; NULL = not known to be queued, which
+ * the sweep of src/services/campaigns repairs); campaign_residual_days holds the station-days uploaded
+ * to a campaign, in the stored form of residual_days.
+ */
+const CAMPAIGN_UPLOADS_AND_WINDOWS_SQL = `
+ALTER TABLE campaigns ADD COLUMN input_kind TEXT NOT NULL DEFAULT 'deposits';
+ALTER TABLE campaigns ADD COLUMN window_length_ms BIGINT;
+ALTER TABLE campaigns ADD COLUMN window_step_ms BIGINT;
+ALTER TABLE campaigns ADD COLUMN uploads_closed_at TEXT;
+ALTER TABLE campaign_items ADD COLUMN ready_at_ms BIGINT;
+ALTER TABLE campaign_items ADD COLUMN queued_at_ms BIGINT;
+
+CREATE TABLE campaign_residual_days (
+  campaign_id        TEXT NOT NULL REFERENCES campaigns (campaign_id) ON DELETE CASCADE,
+  station_id         TEXT NOT NULL,
+  day                TEXT NOT NULL,
+  observation_count  BIGINT NOT NULL,
+  sha256             TEXT NOT NULL,
+  stored_bytes       BIGINT NOT NULL,
+  stored_at          TEXT NOT NULL,
+  data               {blob} NOT NULL,
+  PRIMARY KEY (campaign_id, station_id, day)
+);
+
+CREATE INDEX campaign_items_unqueued ON campaign_items (state, queued_at_ms);
+`;
+
 export const MIGRATIONS: readonly Migration[] = [
   {
     version: 1,
@@ -301,6 +332,17 @@ CREATE INDEX audit_events_station ON audit_events (station_id, at_ms);
     sql: {
       sqlite: RESIDUALS_AND_CAMPAIGNS_SQL.replace('{blob}', 'BLOB'),
       postgres: RESIDUALS_AND_CAMPAIGNS_SQL.replace('{blob}', 'BYTEA'),
+    },
+  },
+  {
+    // Expand-only: new nullable or defaulted columns and a new table; a release of schema 5 reads and
+    // writes campaigns as before (its campaigns are of deposits and station-days, the defaults).
+    version: 6,
+    name: 'campaign uploads, station-windows and queued marks of campaign items',
+    minReaderVersion: 5,
+    sql: {
+      sqlite: CAMPAIGN_UPLOADS_AND_WINDOWS_SQL.replace('{blob}', 'BLOB'),
+      postgres: CAMPAIGN_UPLOADS_AND_WINDOWS_SQL.replace('{blob}', 'BYTEA'),
     },
   },
 ];

@@ -148,6 +148,10 @@ for (const backend of BACKENDS) {
           optionsJson: '{}',
           modelFingerprint: 'f0',
           source: 'exactly-once',
+          inputKind: 'deposits',
+          windowLengthMs: null,
+          windowStepMs: null,
+          uploadsClosedAt: null,
           createdAt: new Date().toISOString(),
           startedAt: null,
           finishedAt: null,
@@ -175,6 +179,7 @@ for (const backend of BACKENDS) {
           repository: t.app().repository,
           campaigns: store,
           residuals: undefined as never,
+          uploads: undefined as never,
           estimate: async () => {
             estimated++;
             return { ok: false, reason: 'must not run' };

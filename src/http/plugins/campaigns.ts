@@ -1,8 +1,10 @@
 /**
  * Campaigns on this replica: decorates the app with `campaigns` (the CampaignService) and serves the
  * work queue (pg-boss on PostgreSQL, the in-process queue on SQLite) with `concurrency` items at a
- * time, each estimated in the worker pool (task campaign-item-estimate). Stops taking items when the
- * app closes (preClose: the items in hand finish or are redelivered).
+ * time, each estimated in the worker pool (task campaign-item-estimate). On PostgreSQL it also sweeps,
+ * at start and every `sweepIntervalS`, for pending items whose job was never sent (a replica died
+ * between its commit and the queue send) and queues them. Stops taking items when the app closes
+ * (preClose: the items in hand finish or are redelivered).
  */
 
 import { hostname } from 'node:os';
@@ -11,6 +13,7 @@ import fp from 'fastify-plugin';
 import { CampaignService } from '../../services/campaigns/campaigns.js';
 import { runItem, type ItemEstimate, type ItemEstimateInput } from '../../services/campaigns/campaign-runner.js';
 import { CampaignStore } from '../../storage/campaigns/campaign-store.js';
+import { CampaignUploadStore } from '../../storage/campaigns/campaign-upload-store.js';
 import { ResidualStore } from '../../storage/campaigns/residual-store.js';
 import { InProcessQueue, PgBossQueue, type QueueSettings, type WorkQueue } from '../../storage/campaigns/work-queue.js';
 import type { StorageConfig } from '../../storage/factory.js';
@@ -32,6 +35,10 @@ export interface CampaignSettings {
   itemTimeoutS?: number;
   /** Default: host name and process id. */
   replica?: string | undefined;
+  /** PostgreSQL: how often to look for pending items whose job was never sent [s]. Default 60. */
+  sweepIntervalS?: number;
+  /** ... ready for at least this long [s] (a submission in progress is not swept). Default 60. */
+  sweepGraceS?: number;
 }
 
 export interface CampaignPluginOptions {
@@ -48,6 +55,7 @@ async function campaigns(app: FastifyInstance, options: CampaignPluginOptions): 
   const sql = app.repository.sqlExecutor();
   const store = new CampaignStore(sql);
   const residuals = new ResidualStore(sql);
+  const uploads = new CampaignUploadStore(sql);
   const settings: QueueSettings = {
     concurrency: options.settings.concurrency ?? 1,
     itemTimeoutS: options.settings.itemTimeoutS ?? 600,
@@ -66,13 +74,22 @@ async function campaigns(app: FastifyInstance, options: CampaignPluginOptions): 
           (err) => app.log.error({ err }, 'campaign queue (pg-boss)'),
         )
       : new InProcessQueue(settings, () => store.unfinishedItems());
-  app.decorate('campaigns', new CampaignService(app.repository, store, residuals, queue));
+  const service = new CampaignService(app.repository, store, residuals, queue, uploads);
+  app.decorate('campaigns', service);
   app.decorate('replicaName', replica);
 
   const estimate = async (input: ItemEstimateInput): Promise<ItemEstimate> => {
     const { source, ...task } = input;
     try {
       const out = await app.compute.run('campaign-item-estimate', task);
+      if (out.noInput) {
+        const at = (ms: number) => new Date(ms).toISOString();
+        return {
+          ok: false,
+          noInput: true,
+          reason: `no observations from ${at(input.keepFromMs)} to ${at(input.keepToMs)} (the part this item stores)`,
+        };
+      }
       return {
         ok: true,
         rows: delayRows(out.delays, source, out.modelFingerprint),
@@ -84,15 +101,37 @@ async function campaigns(app: FastifyInstance, options: CampaignPluginOptions): 
       throw err;
     }
   };
-  const deps = { repository: app.repository, campaigns: store, residuals, estimate, replica };
+  const deps = { repository: app.repository, campaigns: store, residuals, uploads, estimate, replica };
   let restart: NodeJS.Timeout | undefined;
+  let sweepTimer: NodeJS.Timeout | undefined;
   let closing = false;
+  const sweepGraceMs = (options.settings.sweepGraceS ?? 60) * 1000;
+  const sweepIntervalMs = (options.settings.sweepIntervalS ?? 60) * 1000;
+  let sweeping: Promise<void> | undefined;
+  const sweep = () => {
+    sweeping ??= service
+      .sweepUnqueued(sweepGraceMs)
+      .then((queued) => {
+        if (queued.length > 0) app.log.warn({ items: queued.length }, 'campaign items whose job was never sent were queued by the sweep');
+      })
+      .catch((err: unknown) => app.log.error({ err }, 'campaign sweep'))
+      .finally(() => {
+        sweeping = undefined;
+      });
+    return sweeping;
+  };
   const startQueue = async () => {
     try {
       await queue.start(async (item) => {
         const outcome = await runItem(item, deps);
         app.log.debug({ item, outcome }, 'campaign item');
       });
+      // The in-process queue (SQLite, one process) takes up every unfinished item at start; the sweep is for pg-boss.
+      if (queue.kind === 'pg-boss' && !closing) {
+        await sweep();
+        sweepTimer = setInterval(() => void sweep(), sweepIntervalMs);
+        sweepTimer.unref();
+      }
     } catch (err) {
       app.log.error({ err }, `campaign queue did not start; trying again in ${RESTART_DELAY_MS / 1000} s`);
       if (!closing) restart = setTimeout(() => void startQueue(), RESTART_DELAY_MS);
@@ -106,7 +145,9 @@ async function campaigns(app: FastifyInstance, options: CampaignPluginOptions): 
   app.addHook('preClose', async () => {
     closing = true;
     clearTimeout(restart);
+    clearInterval(sweepTimer);
     await starting;
+    await sweeping;
     await queue.stop();
   });
 }

@@ -1,14 +1,42 @@
 /**
- * Reprocessing campaigns: POST /v1/campaigns, the list, one campaign's progress, cancel, the report
- * (docs/campaigns.md).
+ * Reprocessing campaigns: POST /v1/campaigns, the list, one campaign's progress, cancel, the report,
+ * the residuals uploaded to a campaign and the close of its uploads (docs/campaigns.md).
  */
 
 import { z } from 'zod';
 import { MAX_CAMPAIGN_STATIONS } from '../../limits.js';
+import { MAX_WINDOW_HOURS } from '../../services/campaigns/item-windows.js';
+import { ITEM_STATES } from '../../storage/campaigns/campaign-store.js';
 import { strictObject } from './common.js';
-import { daySchema } from './residuals.js';
+import { daySchema, residualPutResponse } from './residuals.js';
 import { stationIdSchema } from './stations.js';
 import { zwdOptionsSchema } from './zwd-estimates.js';
+
+/** Where a campaign's residuals come from (API values; the store's input kinds). */
+export const RESIDUAL_INPUTS = { deposited: 'deposits', uploaded: 'upload' } as const;
+
+const hoursMessage = `must be a whole number of hours in [1, ${MAX_WINDOW_HOURS}]`;
+const windowHours = (description: string) =>
+  z
+    .number({ error: hoursMessage })
+    .int({ error: hoursMessage })
+    .gte(1, { error: hoursMessage })
+    .lte(MAX_WINDOW_HOURS, { error: hoursMessage })
+    .describe(`${description} [h], [1, ${MAX_WINDOW_HOURS}]`);
+
+export const campaignWindowSchema = strictObject({
+  length_hours: windowHours('Length of a window: the observations one item estimates from'),
+  step_hours: windowHours(
+    'Step from one window to the next = the part of each window whose estimates are stored (its centre); ≤ length_hours',
+  ),
+})
+  .refine((w) => w.step_hours <= w.length_hours, {
+    error: 'must be ≤ length_hours (the stored centre parts of the windows tile the span)',
+    path: ['step_hours'],
+  })
+  .describe(
+    'Station-windows instead of station-days: one item per station and window; each stores the centre step_hours of its window (docs/campaigns.md, "Station-windows")',
+  );
 
 export const campaignBody = strictObject({
   name: z
@@ -26,11 +54,23 @@ export const campaignBody = strictObject({
   start_date: daySchema.describe('First UTC day of the span, YYYY-MM-DD (inclusive)'),
   end_date: daySchema.describe('Last UTC day of the span, YYYY-MM-DD (inclusive)'),
   options: zwdOptionsSchema.describe(
-    'The single-station estimation options (those of POST /v1/zwd-estimates, docs/zwd-estimation.md), one set for every station-day',
+    'The single-station estimation options (those of POST /v1/zwd-estimates, docs/zwd-estimation.md), one set for every item',
   ),
+  residuals: z
+    .enum(['deposited', 'uploaded'], { error: 'must be "deposited" or "uploaded"' })
+    .default('deposited')
+    .describe(
+      '"deposited": read from the station archive (PUT /v1/stations/{station_id}/residuals/{day}); "uploaded": sent to the campaign after submission (PUT /v1/campaigns/{campaign_id}/residuals/{station_id}/{day}); `stations` required',
+    ),
+  window: campaignWindowSchema.optional(),
 });
 
-export const campaignParams = strictObject({ campaign_id: z.string().min(1).max(64).describe('Campaign id (from POST /v1/campaigns)') });
+/** The schema's window → whole hours (or null for station-days). */
+export type CampaignWindowBody = z.infer<typeof campaignWindowSchema>;
+
+const campaignIdSchema = z.string().min(1).max(64).describe('Campaign id (from POST /v1/campaigns)');
+export const campaignParams = strictObject({ campaign_id: campaignIdSchema });
+export const campaignUploadParams = strictObject({ campaign_id: campaignIdSchema, station_id: stationIdSchema, day: daySchema });
 
 const replicaWork = z.object({
   replica: z.string().describe('Replica name (TROPODELAY_REPLICA_NAME, else host:pid)'),
@@ -44,7 +84,15 @@ export const campaignResponse = z.object({
   state: z.enum(['queued', 'running', 'finished', 'cancelled']).describe('finished also when some items failed: the counts say'),
   start_date: z.string(),
   end_date: z.string(),
+  residuals: z.enum(['deposited', 'uploaded']),
+  window: z
+    .object({ length_hours: z.number(), step_hours: z.number() })
+    .nullable()
+    .describe('Station-windows (hours); null = station-days'),
+  uploads_closed_at: z.string().nullable().describe('When POST …/uploads-complete closed the uploads (uploaded residuals only)'),
   items_total: z.number().int(),
+  items_awaiting_residuals: z.number().int().describe('Items whose uploaded residuals have not all arrived (they wait)'),
+  items_no_residuals: z.number().int().describe('Items that got no residuals before the uploads were closed'),
   items_done: z.number().int(),
   items_failed: z.number().int(),
   items_pending: z.number().int(),
@@ -66,17 +114,26 @@ export const campaignReportResponse = z.object({
   model_fingerprint: z.string(),
   fingerprints: z
     .array(z.object({ fingerprint: z.string(), station_days: z.number().int() }))
-    .describe('The fingerprints stored now for the station-days the campaign did, with how many station-days carry each'),
+    .describe(
+      'The fingerprints stored now for the items the campaign did, with how many items (station-days, or station-windows) carry each',
+    ),
   exceptions: z
-    .array(z.object({ station_id: z.string(), day: z.string(), reason: z.string(), fingerprint: z.string().optional() }))
-    .describe('Failed items, and done station-days whose stored results differ from the campaign (another fingerprint, or gone)'),
+    .array(
+      z.object({
+        station_id: z.string(),
+        day: z.string().describe("The item's day (windows: the day its stored part starts)"),
+        kept_from: z.string().optional().describe("Windows: start of the item's stored part (ISO 8601 UTC)"),
+        kept_to: z.string().optional().describe("Windows: end of the item's stored part, exclusive"),
+        reason: z.string(),
+        fingerprint: z.string().optional(),
+      }),
+    )
+    .describe(
+      'Failed items, items without input (no residuals uploaded, or still awaited), and done items whose stored results differ from the campaign (another fingerprint, or gone)',
+    ),
   items: z.object({
     total: z.number().int(),
-    done: z.number().int(),
-    failed: z.number().int(),
-    cancelled: z.number().int(),
-    pending: z.number().int(),
-    running: z.number().int(),
+    ...(Object.fromEntries(ITEM_STATES.map((state) => [state, z.number().int()])) as Record<(typeof ITEM_STATES)[number], z.ZodNumber>),
   }),
   throughput: z.object({
     station_days_per_s: z.number().nullable().describe('Items done per second of wall-clock time from the first claim to the end (or now)'),
@@ -85,4 +142,14 @@ export const campaignReportResponse = z.object({
       replicaWork.extend({ station_days_per_cpu_s: z.number().nullable().describe("Items done per second of the replica's CPU time") }),
     ),
   }),
+});
+
+export const campaignUploadResponse = residualPutResponse.extend({
+  campaign_id: z.string(),
+  items_ready: z.number().int().describe('Items that became pending with this upload (all the days they read have arrived)'),
+});
+
+export const campaignUploadListResponse = z.object({
+  campaign_id: z.string(),
+  days: z.array(residualPutResponse.extend({ stored_at: z.string().describe('ISO 8601 UTC of the upload') })),
 });

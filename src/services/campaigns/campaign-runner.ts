@@ -1,28 +1,35 @@
 /**
- * One campaign item (a station-day) on one replica: claim it, read its residuals and the station's
- * stored met, estimate (in the worker pool, through `estimate`), and store the results with the
- * campaign's source in the transaction that marks the item done (the guard of CampaignStore). A
- * redelivered item that is already done does nothing; one whose claim was taken over or whose
- * campaign was cancelled stores nothing.
+ * One campaign item (a station-day or a station-window) on one replica: claim it, read its residuals
+ * (deposited in the archive, or uploaded with the campaign; every day its window touches) and the
+ * station's stored met, estimate (in the worker pool, through `estimate`), and store the results of its
+ * kept part (item-windows.ts) with the campaign's source in the transaction that marks the item done
+ * (the guard of CampaignStore). A redelivered item that is already done does nothing; one whose claim
+ * was taken over or whose campaign was cancelled stores nothing.
  */
 
-import { randomUUID } from 'node:crypto';
-import { dayStartMs } from '../../formats/residual-day-form.js';
-import type { CampaignStore } from '../../storage/campaigns/campaign-store.js';
-import type { ResidualStore } from '../../storage/campaigns/residual-store.js';
+import { createHash, randomUUID } from 'node:crypto';
+import type { CampaignUploadStore } from '../../storage/campaigns/campaign-upload-store.js';
+import type { CampaignRecord, CampaignStore } from '../../storage/campaigns/campaign-store.js';
+import type { ResidualDayData, ResidualStore } from '../../storage/campaigns/residual-store.js';
 import type { WorkItem } from '../../storage/campaigns/work-queue.js';
 import type { DelayRow, Repository, Station, StoredModelSet } from '../../storage/repository.js';
 import { GuardRefusedError } from '../../storage/sql-executor.js';
 import { storedMetAtAntenna, type MetColumns } from '../station-met.js';
+import { inputDaysOf, itemSpanOf } from './campaigns.js';
 
 const DAY_MS = 86_400_000;
-/** Stored met is read this far around the day [ms] (as the station estimation reads 1 day around its observations). */
+/** Stored met is read this far around the item's window [ms] (as the station estimation reads 1 day around its observations). */
 const MET_MARGIN_MS = DAY_MS;
 
 export interface ItemEstimateInput {
-  /** The compact stored form of the day's residuals. */
-  residuals: Uint8Array;
-  day: string;
+  /** The compact stored form of each day's residuals the item reads, in day order. */
+  residuals: { day: string; data: Uint8Array }[];
+  /** Only observations in [fromMs, toMs) are estimated from (the item's window). */
+  fromMs: number;
+  toMs: number;
+  /** The epochs it stores: [keepFromMs, keepToMs); none there = no input for this item. */
+  keepFromMs: number;
+  keepToMs: number;
   /** The campaign's options as the API's JSON. */
   options: unknown;
   site: Pick<Station, 'latitudeDeg' | 'longitudeDeg' | 'heightM'>;
@@ -30,12 +37,16 @@ export interface ItemEstimateInput {
   source: string;
 }
 
-export type ItemEstimate = { ok: true; rows: DelayRow[]; modelSet: StoredModelSet } | { ok: false; reason: string };
+export type ItemEstimate =
+  | { ok: true; rows: DelayRow[]; modelSet: StoredModelSet }
+  /** `noInput`: no observation in the item's kept part (nothing to estimate there; not a failure of the estimator). */
+  | { ok: false; reason: string; noInput?: boolean };
 
 export interface RunnerDeps {
   repository: Repository;
   campaigns: CampaignStore;
   residuals: ResidualStore;
+  uploads: CampaignUploadStore;
   /** The estimation of one day; `{ok: false}` for a day the estimator refuses; a throw = try again later. */
   estimate(input: ItemEstimateInput): Promise<ItemEstimate>;
   replica: string;
@@ -43,7 +54,7 @@ export interface RunnerDeps {
   cpuMs?: () => number;
 }
 
-export type ItemOutcome = 'done' | 'failed' | 'cancelled' | 'skipped' | 'lost';
+export type ItemOutcome = 'done' | 'failed' | 'no_residuals' | 'cancelled' | 'skipped' | 'lost';
 
 const processCpuMs = () => {
   const u = process.cpuUsage();
@@ -64,14 +75,7 @@ export async function runItem(item: WorkItem, deps: RunnerDeps): Promise<ItemOut
   inFlight++;
   let outcome: ItemOutcome;
   try {
-    outcome = await estimateAndStore(
-      item,
-      token,
-      campaign.optionsJson,
-      campaign.source,
-      deps,
-      () => (cpu() - cpuStart) / Math.max(1, inFlight),
-    );
+    outcome = await estimateAndStore(item, token, campaign, deps, () => (cpu() - cpuStart) / Math.max(1, inFlight));
   } finally {
     inFlight--;
   }
@@ -82,36 +86,64 @@ export async function runItem(item: WorkItem, deps: RunnerDeps): Promise<ItemOut
 async function estimateAndStore(
   item: WorkItem,
   token: string,
-  optionsJson: string,
-  source: string,
+  campaign: CampaignRecord,
   deps: RunnerDeps,
   cpuSoFar: () => number,
 ): Promise<ItemOutcome> {
   const { campaigns, repository } = deps;
   const fail = async (reason: string) =>
     (await campaigns.finishWithout(item.campaignId, item, token, 'failed', reason, cpuSoFar())) ? 'failed' : 'lost';
-  const deposit = await deps.residuals.get(item.stationId, item.day);
-  if (!deposit) return fail('no residuals deposited for this station-day (deleted after the campaign was submitted)');
+  const span = itemSpanOf(campaign, item.day);
+  const inputs: ResidualDayData[] = [];
+  for (const day of inputDaysOf(campaign, item.day)) {
+    const found =
+      campaign.inputKind === 'upload'
+        ? await deps.uploads.get(item.campaignId, item.stationId, day)
+        : await deps.residuals.get(item.stationId, day);
+    if (found) inputs.push(found);
+  }
+  if (inputs.length === 0) {
+    return fail(
+      campaign.inputKind === 'upload'
+        ? 'no residuals uploaded for this item'
+        : 'no residuals deposited for this station-day (deleted after the campaign was submitted)',
+    );
+  }
   const station = await repository.getStation(item.stationId);
   if (!station) return fail('the station does not exist any more');
-  const storedMet = await metAround(repository, station, item.day);
+  const storedMet = await metAround(repository, station, span.fromMs, span.toMs);
   const estimate = await deps.estimate({
-    residuals: deposit.data,
-    day: item.day,
-    options: JSON.parse(optionsJson) as unknown,
+    residuals: inputs.map((d) => ({ day: d.day, data: d.data })),
+    fromMs: span.fromMs,
+    toMs: span.toMs,
+    keepFromMs: span.keepFromMs,
+    keepToMs: span.keepToMs,
+    options: JSON.parse(campaign.optionsJson) as unknown,
     site: station,
     storedMet,
-    source,
+    source: campaign.source,
   });
+  if (!estimate.ok && estimate.noInput) {
+    const ended = await campaigns.finishWithout(item.campaignId, item, token, 'no_residuals', estimate.reason, cpuSoFar());
+    return ended ? 'no_residuals' : 'lost';
+  }
   if (!estimate.ok) return fail(estimate.reason);
+  // Only the kept part is stored: the margins of a window belong to its neighbours (item-windows.ts).
+  const rows = estimate.rows.filter((r) => r.epochMs >= span.keepFromMs && r.epochMs < span.keepToMs);
   const guard = campaigns.doneGuard(item.campaignId, item, token, {
-    residualSha256: deposit.sha256,
+    // One day: its digest; several: the digest of their digests in day order.
+    residualSha256:
+      inputs.length === 1
+        ? inputs[0]!.sha256
+        : createHash('sha256')
+            .update(inputs.map((d) => `${d.day}:${d.sha256}`).join('\n'))
+            .digest('hex'),
     modelFingerprint: estimate.modelSet.modelFingerprint,
     cpuMs: cpuSoFar(),
     finishedAtMs: Date.now(),
   });
   try {
-    await repository.writeDelays(item.stationId, estimate.rows, estimate.modelSet, guard);
+    await repository.writeDelays(item.stationId, rows, estimate.modelSet, guard);
     return 'done';
   } catch (err) {
     if (!(err instanceof GuardRefusedError)) throw err;
@@ -128,10 +160,9 @@ async function estimateAndStore(
   }
 }
 
-/** The station's stored met from a day before to a day after the station-day, at the antenna height. */
-async function metAround(repository: Repository, station: Station, day: string): Promise<MetColumns | undefined> {
-  const start = dayStartMs(day);
-  const rows = await repository.readMet(station.stationId, { fromMs: start - MET_MARGIN_MS, toMs: start + DAY_MS + MET_MARGIN_MS });
+/** The station's stored met from a day before to a day after the item's window, at the antenna height. */
+async function metAround(repository: Repository, station: Station, fromMs: number, toMs: number): Promise<MetColumns | undefined> {
+  const rows = await repository.readMet(station.stationId, { fromMs: fromMs - MET_MARGIN_MS, toMs: toMs + MET_MARGIN_MS });
   const met = storedMetAtAntenna(station, rows);
   return met.epochMs.length > 0 ? met : undefined;
 }
