@@ -335,11 +335,13 @@ CREATE INDEX audit_events_station ON audit_events (station_id, at_ms);
     },
   },
   {
-    // Expand-only: new nullable or defaulted columns and a new table; a release of schema 5 reads and
-    // writes campaigns as before (its campaigns are of deposits and station-days, the defaults).
+    // New nullable or defaulted columns and a new table, but not readable by a release of schema 5: its
+    // check for a finished campaign does not know the state awaiting_residuals and could end an upload
+    // campaign whose items still wait; so a schema-5 release refuses to serve on it (rolling updates:
+    // replace the old replicas rather than running both).
     version: 6,
     name: 'campaign uploads, station-windows and queued marks of campaign items',
-    minReaderVersion: 5,
+    minReaderVersion: 6,
     sql: {
       sqlite: CAMPAIGN_UPLOADS_AND_WINDOWS_SQL.replace('{blob}', 'BLOB'),
       postgres: CAMPAIGN_UPLOADS_AND_WINDOWS_SQL.replace('{blob}', 'BYTEA'),
