@@ -18,10 +18,16 @@ import { checkStorableDelays, checkStorableZwd, delayColumns, runZwdEstimation, 
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import type { ZwdObservationColumns } from '../../estimation/types.js';
 import { MAX_OBSERVATIONS } from '../../limits.js';
-import { observationsFromColumns, observationsFromObjects, toZwdRequest, zwdEstimatesResponseOf } from '../adapters/zwd-estimation.js';
+import {
+  checkedObservationColumns,
+  observationsFromColumns,
+  observationsFromObjects,
+  toZwdRequest,
+  zwdEstimatesResponseOf,
+} from '../adapters/zwd-estimation.js';
 import { readArrowRequest, type AnswerShape } from '../answer-shape.js';
 import { tableAnswer } from '../table-answer.js';
-import { columnSpecsOf, readColumns } from '../columns.js';
+import { columnSpecsOf, readColumns, type ColumnSpec } from '../columns.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
 import { stationZwdEstimatesQuery } from '../schemas/station-zwd-estimates.js';
 import { asOutcome, fail } from './task-errors.js';
@@ -136,7 +142,7 @@ function rawBody(input: ZwdRequestTaskInput, siteKnown: boolean): unknown {
   };
 }
 
-const OBSERVATION_COLUMNS = columnSpecsOf(zwdObservationSchema.shape);
+const OBSERVATION_COLUMNS = columnSpecsOf(zwdObservationSchema.shape) as Record<keyof typeof zwdObservationSchema.shape, ColumnSpec>;
 
 const isColumnObject = (v: unknown) => v !== null && typeof v === 'object' && !Array.isArray(v);
 
@@ -154,7 +160,9 @@ function validatedBody(raw: unknown, siteKnown: boolean): Validated {
   const given = (raw ?? {}) as { observations?: unknown };
   const columnar = isColumnObject(given.observations);
   let observations: ZwdObservationColumns | undefined;
-  if (columnar) {
+  if (columnar) observations = checkedObservationColumns(given.observations, OBSERVATION_COLUMNS, MAX_OBSERVATIONS);
+  if (columnar && !observations) {
+    // Something is off: the full check names the column and the row.
     const read = readColumns(given.observations, 'observations', OBSERVATION_COLUMNS, MAX_OBSERVATIONS, 'observations');
     if (!read.ok) return { ok: false, outcome: fail(400, read.errors) };
     observations = observationsFromColumns(read.columns);
