@@ -56,7 +56,7 @@ export function observationsFromObjects(list: ObservationObjects): ZwdObservatio
  * Observations as column arrays (checked by src/http/columns.ts) → domain columns. An epoch text is
  * parsed once, however many satellites share it.
  */
-export function observationsFromColumns(c: Record<string, unknown[] | undefined>): ZwdObservationColumns {
+export function observationsFromColumns(c: Record<string, ArrayLike<unknown> | undefined>): ZwdObservationColumns {
   const epochs = c.epoch as string[];
   const n = epochs.length;
   const epochMs = new Array<number>(n);
@@ -70,18 +70,19 @@ export function observationsFromColumns(c: Record<string, unknown[] | undefined>
     }
     epochMs[i] = lastMs;
   }
-  const radians = (column: unknown[]) => {
+  const radians = (column: ArrayLike<unknown>) => {
     const out = new Array<number>(n);
     for (let i = 0; i < n; i++) out[i] = (column[i] as number) * DEG;
     return out;
   };
-  const sigma = c.sigma_m as (number | null)[] | undefined;
+  const sent = c.sigma_m as ArrayLike<number | null> | undefined;
+  const sigma = sent && (Array.isArray(sent) ? (sent as (number | null)[]) : Array.from(sent));
   return {
     epochMs,
     satellite: c.satellite as string[],
     elevationRad: radians(c.elevation_deg!),
     azimuthRad: radians(c.azimuth_deg!),
-    residualM: c.residual_m as number[],
+    residualM: Array.isArray(c.residual_m) ? (c.residual_m as number[]) : Array.from(c.residual_m as ArrayLike<number>),
     sigmaM: sigma?.some((v) => v !== null) ? sigma : undefined,
   };
 }

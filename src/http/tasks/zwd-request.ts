@@ -109,7 +109,8 @@ function refuseCsvQueryWithJson(queryKeys: readonly string[]): void {
 function rawBody(input: ZwdRequestTaskInput, siteKnown: boolean): unknown {
   if (input.format === 'arrow') {
     // The observations are the table; the rest of the request is JSON in the schema metadata "request".
-    const { columns, rest } = readArrowRequest(input.body as Uint8Array);
+    // Number columns without nulls come as Float64Arrays (no array of boxed values per column).
+    const { columns, rest } = readArrowRequest(input.body as Uint8Array, true);
     return { ...(rest !== null && typeof rest === 'object' ? rest : {}), observations: columns };
   }
   const text = bodyText(input.body);
