@@ -9,7 +9,9 @@
  *   test/helpers/realistic-sky.ts: the service's CPU time per request (its process, all threads, from /proc)
  *   for objects and for columns JSON, against the same request in-process (the estimation service
  *   runZwdEstimation, target ≤ 2×; and the estimator alone), and the station-days per CPU-second that makes
- *   (target ≥ 30 per replica). `BENCH_PART=estimation npm run bench -- columns` runs this part only.
+ *   (target ≥ 30 per replica); beside it the lighter answers (`shape=columns`, and Arrow in and out) and the
+ *   edge each leaves (through HTTP − in-process service). `BENCH_PART=estimation npm run bench -- columns`
+ *   runs this part only.
  * Ranges over rounds (min–max), after warm-up.
  */
 
@@ -173,11 +175,25 @@ async function estimationDayLines(server: ServerProcess, name: string, day: (typ
   const columnsBody = JSON.stringify({ ...bodies.request, observations: bodies.columns });
   const objectsBody = JSON.stringify({ ...bodies.request, observations: bodies.objects });
   const pid = server.child.pid!;
-  const serverCpu = async (body: string, rounds: number) => {
+  const table = tableFromArrays({
+    epoch: bodies.columns.epoch,
+    satellite: bodies.columns.satellite,
+    elevation_deg: Float64Array.from(bodies.columns.elevation_deg),
+    azimuth_deg: Float64Array.from(bodies.columns.azimuth_deg),
+    residual_m: Float64Array.from(bodies.columns.residual_m),
+  }) as Table;
+  table.schema.metadata.set('request', JSON.stringify(bodies.request));
+  const arrowBody = tableToIPC(table, 'stream') as Uint8Array<ArrayBuffer>;
+  const serverCpu = async (
+    body: string | Uint8Array<ArrayBuffer>,
+    rounds: number,
+    path = '/v1/zwd-estimates',
+    type = 'application/json',
+  ) => {
     const per: number[] = [];
     for (let r = 0; r < rounds; r++) {
       const before = cpuSeconds(pid);
-      await post(server, '/v1/zwd-estimates', body, 'application/json');
+      await post(server, path, body, type, type);
       per.push(cpuSeconds(pid) - before);
     }
     return per;
@@ -199,8 +215,12 @@ async function estimationDayLines(server: ServerProcess, name: string, day: (typ
   // Requests of 2–8 MB take several ticks of /proc's 10 ms clock: rounds enough for a stable median.
   await serverCpu(columnsBody, 3); // warm-up
   await serverCpu(objectsBody, 1);
+  await serverCpu(arrowBody, 1, '/v1/zwd-estimates', ARROW);
   const columns = await serverCpu(columnsBody, 9);
   const objects = await serverCpu(objectsBody, 5);
+  // The lighter answers: columns JSON in, columns out (rounded, 0.3 of the rows' bytes); Arrow in and out.
+  const columnsOut = await serverCpu(columnsBody, 9, '/v1/zwd-estimates?shape=columns');
+  const arrow = await serverCpu(arrowBody, 9, '/v1/zwd-estimates', ARROW);
   const ms = (xs: number[]) =>
     `${(median(xs) * 1000).toFixed(0)} ms (${range(
       xs.map((x) => x * 1000),
@@ -209,8 +229,10 @@ async function estimationDayLines(server: ServerProcess, name: string, day: (typ
   return [
     `one realistic day, ${name}: ${bodies.count} observations, default options (${solutions} solutions); CPU per day, median (range):`,
     `  through HTTP, service process: columns JSON (${(columnsBody.length / 1e6).toFixed(1)} MB) ${ms(columns)}, objects JSON (${(objectsBody.length / 1e6).toFixed(1)} MB) ${ms(objects)}`,
+    `  through HTTP, lighter answers: columns JSON in, shape=columns out ${ms(columnsOut)}; Arrow in and out (${(arrowBody.length / 1e6).toFixed(1)} MB) ${ms(arrow)}`,
     `  in-process: estimation service (runZwdEstimation) ${ms(service)}, estimator alone (estimateZwd) ${ms(estimator)}`,
     `  columns through HTTP / in-process service ${(median(columns) / median(service)).toFixed(2)} (target ≤ 2); ${(1 / median(columns)).toFixed(1)} station-days per CPU-second through HTTP with columns, ${(1 / median(objects)).toFixed(1)} with objects (target ≥ 30)`,
+    `  the edge (columns through HTTP − in-process service, medians): rows answer ${((median(columns) - median(service)) * 1000).toFixed(0)} ms, shape=columns answer ${((median(columnsOut) - median(service)) * 1000).toFixed(0)} ms, Arrow ${((median(arrow) - median(service)) * 1000).toFixed(0)} ms (target ≤ 16)`,
   ];
 }
 

@@ -36,6 +36,19 @@ describe('row counters: the rows of the body, whatever the chunking', () => {
       const columns = Object.fromEntries(Object.keys(row).map((k) => [k, objects.map((o) => o[k as keyof typeof row])]));
       expect(countIn(jsonRowCounter(), utf8(JSON.stringify({ met, observations: columns, site })), size)).toBe(1234);
     });
+    it(`JSON columns pretty-printed, strings with brackets, commas and escapes in them (chunks of ${size} bytes)`, () => {
+      const tricky = ['G]1', 'E,2', 'R[3', 'C{4}', 'J\\"5'];
+      const columns = {
+        satellite: objects.map((_, i) => tricky[i % tricky.length]!),
+        epoch: objects.map((o) => o.epoch),
+        elevation_deg: objects.map((_, i) => 5 + (i % 80) + 1e-13 * i),
+        residual_m: objects.map((_, i) => -1.5e-3 * i),
+      };
+      // The reference: the length of the columns as JSON.parse reads them back.
+      const body = JSON.stringify({ options: { gradients: { interval_s: 3600 } }, observations: columns, met }, null, 2);
+      expect((JSON.parse(body) as { observations: { epoch: unknown[] } }).observations.epoch).toHaveLength(1234);
+      expect(countIn(jsonRowCounter(), utf8(body), size)).toBe(1234);
+    });
     it(`CSV data lines (chunks of ${size} bytes)`, () => {
       const csv =
         ['epoch,satellite,elevation_deg,azimuth_deg,residual_m', ...objects.map((o) => Object.values(o).join(','))].join('\n') + '\n';

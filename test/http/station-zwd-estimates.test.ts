@@ -10,7 +10,7 @@
 import { describe, expect, it } from 'vitest';
 import { generateSyntheticResiduals, toCsv, toRequestBody } from '../../scripts/synthetic-residuals.js';
 import { storedMetFor } from '../../src/http/routes/station-zwd-estimates.js';
-import { scanZwdRequest } from '../../src/http/tasks/zwd-request.js';
+import { handleZwdRequest, scanZwdRequest } from '../../src/http/tasks/zwd-request.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
 
@@ -224,6 +224,51 @@ describe('scanZwdRequest (first pass of a station estimation: the stored met win
     const csv =
       'satellite,elevation_deg,azimuth_deg,residual_m,epoch\nG01,30,40,0.1,2026-01-01T00:00:30Z\nG02,30,40,0.1,2026-01-01T00:05:00Z\n';
     expect((await scan(csv, 'csv')).range).toEqual({ firstMs: Date.UTC(2026, 0, 1, 0, 0, 30), lastMs: Date.UTC(2026, 0, 1, 0, 5) });
+  });
+});
+
+describe('the scan hands its parsed body to the estimation (issue 14: a station body is parsed once)', () => {
+  const station = { site: { latitudeDeg: SITE.latitude_deg, longitudeDeg: SITE.longitude_deg, heightM: SITE.height_m } };
+  const columns = Object.fromEntries(
+    Object.keys(observations[0]!).map((k) => [k, observations.map((o) => o[k as keyof (typeof observations)[0]])]),
+  );
+  // The reference: the estimation task reading the body itself, as before the hand-over.
+  const bodies: [string, string, 'json' | 'csv', Record<string, unknown>][] = [
+    ['JSON objects with met', JSON.stringify({ observations, met: MET, apriori: APRIORI, options: OPTIONS }), 'json', {}],
+    [
+      'JSON columns with σ on some rows',
+      JSON.stringify({ observations: { ...columns, sigma_m: observations.map((_, i) => (i % 3 ? null : 0.004)) } }),
+      'json',
+      {},
+    ],
+    ['CSV with options in the query', toCsv(data), 'csv', { zwd_interval_s: '900' }],
+  ];
+  for (const [name, body, format, query] of bodies) {
+    it(`${name}: the same answer bytes and stored columns as from the body`, async () => {
+      const queryKeys = Object.keys(query);
+      const scanned = await scanZwdRequest({ body, format, query, queryKeys });
+      if (!scanned.ok) throw new Error(scanned.error.detail);
+      const prepared = scanned.output.prepared;
+      expect(prepared).toBeDefined();
+      expect(prepared!.epochMs).toBeInstanceOf(Float64Array);
+      const [viaScan, direct] = await Promise.all([
+        handleZwdRequest({ body: '', format, query, queryKeys, station, prepared }),
+        handleZwdRequest({ body, format, query, queryKeys, station }),
+      ]);
+      if (!viaScan.ok || !direct.ok) throw new Error('estimation failed');
+      expect(Buffer.from(viaScan.output.json).equals(Buffer.from(direct.output.json))).toBe(true);
+      expect(viaScan.output.delays).toEqual(direct.output.delays);
+      const epochs = observations.map((o) => Date.parse(o.epoch));
+      expect(scanned.output.range).toEqual({ firstMs: Math.min(...epochs), lastMs: Math.max(...epochs) });
+    });
+  }
+  it('a body the checks refuse is not handed on: the estimation reads it and names the field', async () => {
+    const bad = JSON.stringify({ observations: { ...columns, elevation_deg: columns.elevation_deg!.map((v, i) => (i === 4 ? 91 : v)) } });
+    const scanned = await scanZwdRequest({ body: bad, format: 'json', query: {}, queryKeys: [] });
+    expect(scanned.ok && scanned.output.prepared).toBeFalsy();
+    const outcome = await handleZwdRequest({ body: bad, format: 'json', query: {}, queryKeys: [], station });
+    expect(outcome.ok).toBe(false);
+    if (!outcome.ok) expect(outcome.error.errors?.[0]?.field).toBe('observations.elevation_deg.4');
   });
 });
 

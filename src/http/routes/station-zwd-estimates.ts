@@ -22,6 +22,7 @@ import type { DelayColumns } from '../../services/zwd-estimation.js';
 import type { DelayRow, Repository, Station, WriteCounts } from '../../storage/repository.js';
 import { asBuffer, bodyInWorkerValidator, readEstimationBodies, rawBodyOf, sentQueryKeys, transferOf } from '../raw-body.js';
 import { answerShapeOf } from '../answer-shape.js';
+import { preparedBuffers } from '../tasks/prepared-request.js';
 import { problemSchema } from '../schemas/common.js';
 import { tableAnswer } from '../table-answer.js';
 import { DEFAULT_ESTIMATE_SOURCE, stationZwdEstimatesQuery, stationZwdEstimatesResponse } from '../schemas/station-zwd-estimates.js';
@@ -130,21 +131,19 @@ const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = asy
       const station = await requireStation(app.repository, stationId);
       const source = request.query.source ?? DEFAULT_ESTIMATE_SOURCE;
       const sent = rawBodyOf(request);
-      const scanned = await app.compute.run('zwd-request-scan', sent, transferOf(sent));
-      // JSON bytes were moved to the scan and back; a text body is still the request's.
-      const raw = { body: scanned.body ?? sent.body, format: sent.format };
+      const query = request.query as Record<string, unknown>;
+      const queryKeys = sentQueryKeys(request.raw.url);
+      const scanned = await app.compute.run('zwd-request-scan', { ...sent, query, queryKeys }, transferOf(sent));
+      // A body that passed the checks comes back parsed (typed columns, moved on to the estimation); otherwise
+      // JSON bytes were moved to the scan and back, and a text body is still the request's.
+      const { prepared } = scanned;
+      const raw = prepared ? { body: '', format: sent.format } : { body: scanned.body ?? sent.body, format: sent.format };
       const storedMet = await storedMetFor(app.repository, station, scanned, options.maxReadRangeDays);
       const site = { latitudeDeg: station.latitudeDeg, longitudeDeg: station.longitudeDeg, heightM: station.heightM };
       const output = await app.compute.run(
         'zwd-estimate-request',
-        {
-          ...raw,
-          query: request.query as Record<string, unknown>,
-          queryKeys: sentQueryKeys(request.raw.url),
-          station: { site, storedMet },
-          answer,
-        },
-        transferOf(raw),
+        { ...raw, prepared, query, queryKeys, station: { site, storedMet }, answer },
+        prepared ? preparedBuffers(prepared) : transferOf(raw),
       );
       const stored = await storeDelays(app.repository, stationId, source, output);
       request.auditDetail = { source, records: stored.inserted + stored.updated + stored.unchanged, ...stored };

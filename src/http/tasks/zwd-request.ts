@@ -18,13 +18,20 @@ import { checkStorableDelays, checkStorableZwd, delayColumns, runZwdEstimation, 
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import type { ZwdObservationColumns } from '../../estimation/types.js';
 import { MAX_OBSERVATIONS } from '../../limits.js';
-import { observationsFromColumns, observationsFromObjects, toZwdRequest, zwdEstimatesResponseOf } from '../adapters/zwd-estimation.js';
+import {
+  checkedObservationColumns,
+  observationsFromColumns,
+  observationsFromObjects,
+  toZwdRequest,
+  zwdEstimatesResponseOf,
+} from '../adapters/zwd-estimation.js';
 import { readArrowRequest, type AnswerShape } from '../answer-shape.js';
 import { tableAnswer } from '../table-answer.js';
-import { columnSpecsOf, readColumns } from '../columns.js';
+import { columnSpecsOf, readColumns, type ColumnSpec } from '../columns.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
 import { stationZwdEstimatesQuery } from '../schemas/station-zwd-estimates.js';
 import { asOutcome, fail } from './task-errors.js';
+import type { PreparedRequest } from './prepared-request.js';
 import {
   optionsFromQuery,
   zwdCsvQuerySchema,
@@ -37,6 +44,8 @@ import {
   type ZwdEstimationBody,
 } from '../schemas/zwd-estimates.js';
 
+export type { PreparedRequest } from './prepared-request.js';
+
 export interface ZwdRequestTaskInput {
   /** The request body as received: JSON bytes, an Arrow IPC stream or CSV text. */
   body: Uint8Array | string;
@@ -47,6 +56,11 @@ export interface ZwdRequestTaskInput {
   answer?: AnswerShape | undefined;
   /** The query parameter names as sent (raw-body.ts sentQueryKeys); absent = those of `query`. */
   queryKeys?: string[] | undefined;
+  /**
+   * The body already parsed and checked by the scan of a station's estimation (scanZwdRequest): then
+   * `body` is not read again.
+   */
+  prepared?: PreparedRequest | undefined;
   /** A station's estimation: the site is the station's (then `site` in the body is refused). */
   station?: {
     site: Site;
@@ -103,7 +117,8 @@ function refuseCsvQueryWithJson(queryKeys: readonly string[]): void {
 function rawBody(input: ZwdRequestTaskInput, siteKnown: boolean): unknown {
   if (input.format === 'arrow') {
     // The observations are the table; the rest of the request is JSON in the schema metadata "request".
-    const { columns, rest } = readArrowRequest(input.body as Uint8Array);
+    // Number columns without nulls come as Float64Arrays (no array of boxed values per column).
+    const { columns, rest } = readArrowRequest(input.body as Uint8Array, true);
     return { ...(rest !== null && typeof rest === 'object' ? rest : {}), observations: columns };
   }
   const text = bodyText(input.body);
@@ -136,13 +151,52 @@ function rawBody(input: ZwdRequestTaskInput, siteKnown: boolean): unknown {
   };
 }
 
-const OBSERVATION_COLUMNS = columnSpecsOf(zwdObservationSchema.shape);
+const OBSERVATION_COLUMNS = columnSpecsOf(zwdObservationSchema.shape) as Record<keyof typeof zwdObservationSchema.shape, ColumnSpec>;
 
 const isColumnObject = (v: unknown) => v !== null && typeof v === 'object' && !Array.isArray(v);
 
 type Validated =
   | { ok: true; body: Omit<ZwdEstimationBody, 'observations'>; observations: ZwdObservationColumns; site?: Site }
   | { ok: false; outcome: TaskOutcome<never> };
+
+function preparedOf(body: Omit<ZwdEstimationBody, 'observations'>, o: ZwdObservationColumns): PreparedRequest {
+  const n = o.epochMs.length;
+  const index = new Map<string, number>();
+  const satellites: string[] = [];
+  const satelliteIndex = new Uint32Array(n);
+  for (let i = 0; i < n; i++) {
+    const name = o.satellite[i]!;
+    let k = index.get(name);
+    if (k === undefined) index.set(name, (k = satellites.push(name) - 1));
+    satelliteIndex[i] = k;
+  }
+  const sigma = o.sigmaM;
+  return {
+    body,
+    epochMs: Float64Array.from(o.epochMs),
+    satelliteIndex,
+    satellites,
+    elevationRad: Float64Array.from(o.elevationRad),
+    azimuthRad: Float64Array.from(o.azimuthRad),
+    residualM: Float64Array.from(o.residualM),
+    sigmaM: sigma && Float64Array.from(sigma, (v) => v ?? NaN),
+  };
+}
+
+function observationsOfPrepared(p: PreparedRequest): ZwdObservationColumns {
+  const n = p.epochMs.length;
+  const satellite = new Array<string>(n);
+  for (let i = 0; i < n; i++) satellite[i] = p.satellites[p.satelliteIndex[i]!]!;
+  const sigma = p.sigmaM;
+  return {
+    epochMs: Array.from(p.epochMs),
+    satellite,
+    elevationRad: Array.from(p.elevationRad),
+    azimuthRad: Array.from(p.azimuthRad),
+    residualM: Array.from(p.residualM),
+    sigmaM: sigma && Array.from(sigma, (v) => (Number.isNaN(v) ? null : v)),
+  };
+}
 
 /**
  * The body checked against the route's schema. Observations as objects go through zod with the rest;
@@ -154,7 +208,9 @@ function validatedBody(raw: unknown, siteKnown: boolean): Validated {
   const given = (raw ?? {}) as { observations?: unknown };
   const columnar = isColumnObject(given.observations);
   let observations: ZwdObservationColumns | undefined;
-  if (columnar) {
+  if (columnar) observations = checkedObservationColumns(given.observations, OBSERVATION_COLUMNS, MAX_OBSERVATIONS);
+  if (columnar && !observations) {
+    // Something is off: the full check names the column and the row.
     const read = readColumns(given.observations, 'observations', OBSERVATION_COLUMNS, MAX_OBSERVATIONS, 'observations');
     if (!read.ok) return { ok: false, outcome: fail(400, read.errors) };
     observations = observationsFromColumns(read.columns);
@@ -182,7 +238,9 @@ function validatedBody(raw: unknown, siteKnown: boolean): Validated {
 export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<TaskOutcome<ZwdRequestTaskOutput>> {
   try {
     const station = input.station;
-    const validated = validatedBody(rawBody(input, station !== undefined), station !== undefined);
+    const validated: Validated = input.prepared
+      ? { ok: true, body: input.prepared.body, observations: observationsOfPrepared(input.prepared) }
+      : validatedBody(rawBody(input, station !== undefined), station !== undefined);
     if (!validated.ok) return validated.outcome;
     const { body, observations } = validated;
     const site = station?.site ?? validated.site!;
@@ -230,8 +288,10 @@ export interface EpochRangeOutput {
   /** The body carries its own met (JSON `met`). */
   hasMet: boolean;
   observations: number;
-  /** The body bytes, moved back for the estimation task (absent for a text body). */
+  /** The body bytes, moved back for the estimation task (absent for a text body, or when `prepared`). */
   body?: Uint8Array;
+  /** The body parsed and checked, for the estimation task (its typed columns moved, not copied); absent when the check failed. */
+  prepared?: PreparedRequest;
 }
 
 /**
@@ -241,7 +301,33 @@ export interface EpochRangeOutput {
  */
 const bytesBack = (body: Uint8Array | string) => (typeof body === 'string' ? {} : { body });
 
-export async function scanZwdRequest(input: Pick<ZwdRequestTaskInput, 'body' | 'format'>): Promise<TaskOutcome<EpochRangeOutput>> {
+export async function scanZwdRequest(
+  input: Pick<ZwdRequestTaskInput, 'body' | 'format'> & Partial<Pick<ZwdRequestTaskInput, 'query' | 'queryKeys'>>,
+): Promise<TaskOutcome<EpochRangeOutput>> {
+  // A body that passes the estimation's own checks is parsed once: the range from its checked epochs, and
+  // the parsed body handed on. Anything else is left to the estimation task, which reads the bytes and says why.
+  if (input.query !== undefined) {
+    try {
+      const validated = validatedBody(rawBody({ ...input, query: input.query }, true), true);
+      if (validated.ok) {
+        const epochMs = validated.observations.epochMs;
+        let firstMs = Infinity;
+        let lastMs = -Infinity;
+        for (const ms of epochMs) {
+          if (ms < firstMs) firstMs = ms;
+          if (ms > lastMs) lastMs = ms;
+        }
+        const prepared = preparedOf(validated.body, validated.observations);
+        // The typed columns own their buffers: the worker moves them to the event loop (compute-worker.ts).
+        return {
+          ok: true,
+          output: { range: { firstMs, lastMs }, hasMet: validated.body.met !== undefined, observations: epochMs.length, prepared },
+        };
+      }
+    } catch {
+      // not readable: the estimation task reads it again and answers the error
+    }
+  }
   let epochs: unknown[] = [];
   let hasMet = false;
   try {
