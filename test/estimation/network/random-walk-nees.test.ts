@@ -14,8 +14,11 @@
 
 import { describe, expect, it } from 'vitest';
 import { piecewiseLinear } from '../../../scripts/synthetic-residuals.js';
+import { provenance } from '../../../src/domain/provenance.js';
 import { estimateNetwork } from '../../../src/estimation/network/estimate-network.js';
 import type { NetworkEstimationOptions } from '../../../src/estimation/network/types.js';
+import { networkModels } from '../../../src/services/network-estimation.js';
+import { DEFAULT_ZWD_OPTIONS } from '../../../src/services/zwd-options.js';
 import { networkOptions, simulateNetwork, stationAt, toNetworkInput, truthZwd, type NetworkSim } from './network-simulator.js';
 
 const C = [52.3, 7.9] as const;
@@ -168,5 +171,18 @@ describe('the result states its parametrisation', () => {
     );
     expect(odd.parametrisation).toMatchObject({ zwdNodeIntervalS: 225, gradientNodeIntervalS: 1800 });
     expect(odd.stations[0]!.zwdNodes[1]!.epochMs - odd.stations[0]!.zwdNodes[0]!.epochMs).toBe(450_000);
+  });
+});
+
+describe('the models and fingerprint of a network result name the parametrisation', () => {
+  it('the estimator line carries the statement, and the old 6-h gradient model has another fingerprint', () => {
+    const sim = randomWalkNetwork(7);
+    const statementOf = (parametrisation: 'nodes' | 'every-epoch') =>
+      estimateNetwork(toNetworkInput(sim, networkOptions({ outlierThreshold: null, parametrisation }))).parametrisation;
+    const every = statementOf('every-epoch');
+    const nodes = statementOf('nodes');
+    const modelsOf = (p: typeof every) => provenance(networkModels(DEFAULT_ZWD_OPTIONS, 'estimated', ['caller'], p));
+    expect(modelsOf(every).models.estimator).toContain(every!.statement);
+    expect(modelsOf(every).model_fingerprint).not.toBe(modelsOf(nodes).model_fingerprint);
   });
 });
