@@ -351,7 +351,7 @@ function networkParametrisation(model: NetworkEstimationInput['options']): Netwo
   return {
     zwdNodeIntervalS: z,
     gradientNodeIntervalS: g,
-    statement: `piecewise-linear nodes on round UTC epochs (ZWD every ${z} s${g === null ? '' : `, gradients every ${g} s`}), random-walk constraints; the random walk's variance between and on the nodes, q² Δ (0.0866 − 0.166 u + 1.464 u²) with u = α (1 − α), added to every σ (network-interpolation-variance-1)`,
+    statement: `piecewise-linear nodes on round UTC epochs (ZWD every ${z} s${g === null ? '' : `, gradients every ${g} s`}), random-walk constraints; the random walk's variance between and on the nodes, q² Δ (0.0866 − 0.166 u + 1.464 u²) with u = α (1 − α), added to every σ (none when every epoch is a node; network-interpolation-variance-1)`,
   };
 }
 
@@ -856,14 +856,18 @@ function outputNodes(model: NodeLayout, output: NodeLayout): { nodeMs: Float64Ar
 
 /**
  * The variance the piecewise-linear model leaves out of the random walk (interpolation-variance.ts)
- * at fraction α of a ZWD or gradient interval [m²]; 0 without a random walk or with one node.
+ * at fraction α of a ZWD or gradient interval [m²]; 0 without a random walk, with one node, or when
+ * every epoch is a node (a state at every epoch).
  */
 function missingVariance(
   net: NetworkDesign,
   options: NetworkEstimationInput['options'],
 ): { zwd: (alpha: number) => number; gradient: (alpha: number) => number } {
-  const zwdSpanH = net.zwd.count > 1 ? net.zwd.intervalMs / 3_600_000 : 0;
-  const gradientSpanH = net.gradients && net.gradients.count > 1 ? net.gradients.intervalMs / 3_600_000 : 0;
+  // Every epoch on a node (nodes at the sampling interval): the model is the random walk at every
+  // epoch itself, and nothing is missing.
+  const onNodes = (alpha: Float64Array) => alpha.every((a) => a < 1e-9 || a > 1 - 1e-9);
+  const zwdSpanH = net.zwd.count > 1 && !onNodes(net.zwdAlpha) ? net.zwd.intervalMs / 3_600_000 : 0;
+  const gradientSpanH = net.gradients && net.gradients.count > 1 && !onNodes(net.gradientAlpha) ? net.gradients.intervalMs / 3_600_000 : 0;
   const zq = options.zwd.randomWalkMPerSqrtH;
   const gq = options.gradients?.randomWalkMPerSqrtH ?? null;
   return {

@@ -127,6 +127,10 @@ describe('random-walk truth, satellite clocks estimated: NEES in 0.5–2', () =>
     expectHonest(nees);
   });
 
+  it('nodes at every epoch (60 s, a random-walk state at every epoch): nothing added, and honest', () => {
+    expectHonest(neesOf(sims, spacing(SAMPLING_S, SAMPLING_S)));
+  });
+
   it('the default (states at every epoch asked): nodes of 300 s / 1 800 s, hourly and 6-hourly output nodes', () => {
     expectHonest(
       neesOf(sims, {
