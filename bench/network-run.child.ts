@@ -11,6 +11,10 @@ import { networkOptions, simulateNetwork, stationAt, toNetworkInput } from '../t
 const stations = Number(process.argv[2] ?? 10);
 const hours = Number(process.argv[3] ?? 24);
 const screening = (process.argv[4] ?? 'on') === 'on';
+// "default": the route's defaults (states at every epoch asked → the network's model nodes of
+// 300 s / 1 800 s, correlated-noise inflation, variance components); "nodes-6h": the network's model
+// before (the caller's 300-s ZWD and 6-h gradient nodes), for comparisons in the same conditions.
+const model = process.argv[5] ?? 'default';
 // Stations on rings around an invented centre, up to 600 km out (all see mostly the same sky).
 const list = Array.from({ length: stations }, (_, i) =>
   stationAt(`B${String(i).padStart(3, '0')}`, 48, 11, i === 0 ? 0 : 100 + ((i * 37) % 500), (i * 137.5) % 360),
@@ -31,7 +35,15 @@ const sim = simulateNetwork({
   satelliteClockAmplitudeM: 300_000,
   grossErrors: Math.round((stations * hours) / 4),
 });
-const input = toNetworkInput(sim, networkOptions({ scaleSigmas: true, outlierThreshold: screening ? 4 : null }));
+const input = toNetworkInput(
+  sim,
+  networkOptions({
+    scaleSigmas: true,
+    correlatedNoise: true,
+    outlierThreshold: screening ? 4 : null,
+    parametrisation: model === 'nodes-6h' ? 'nodes' : 'every-epoch',
+  }),
+);
 const rssBeforeMb = process.memoryUsage().rss / 1e6;
 const cpu0 = process.cpuUsage();
 const started = performance.now();
@@ -44,6 +56,8 @@ process.stdout.write(
     stations,
     hours,
     screening,
+    model,
+    parametrisation: out.parametrisation?.statement ?? null,
     observations: out.statistics.observationsTotal,
     epochs: out.statistics.epochs,
     solutions: out.statistics.solutions,

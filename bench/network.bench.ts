@@ -2,7 +2,9 @@
  * Network estimation benchmark (issue 12): one day of 30-s data with about 18 satellites in view
  * (six planes of nine satellites, 7° cutoff) for 10, 25 and 50 stations (50 stations ≈ 2.6 M
  * observations), satellite and receiver clocks estimated, gradients, outlier screening (k = 4,
- * one-per-window) with a few gross errors, sigmas scaled: the default options. Each run is a fresh
+ * one-per-window) with a few gross errors, sigmas scaled, correlated-noise inflation, states at every
+ * epoch asked (so the network's model nodes of 300 s / 1 800 s): the route's defaults (the child's
+ * fifth argument "nodes-6h" runs the older 300-s / 6-h node model for comparisons). Each run is a fresh
  * child process (bench/network-run.child.ts), so its peak resident set size is its own; the time
  * is that of estimateNetwork alone (wall clock and CPU time of the process, one thread).
  * Linearity in the length of the series: 6 h against 24 h at 10 stations.

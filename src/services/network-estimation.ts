@@ -23,7 +23,12 @@ import { siteHeights } from '../domain/geometry/geoid.js';
 import { standardAtmosphere } from '../domain/meteo/standard-atmosphere.js';
 import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
 import { estimateNetwork } from '../estimation/network/estimate-network.js';
-import type { NetworkEstimationOutput, NetworkObservationColumns, SatelliteClockHandling } from '../estimation/network/types.js';
+import type {
+  NetworkEstimationOutput,
+  NetworkObservationColumns,
+  NetworkParametrisation,
+  SatelliteClockHandling,
+} from '../estimation/network/types.js';
 import { MAX_ANSWER_NODES, MAX_MET_RECORDS, MAX_NETWORK_STATION_OBSERVATIONS } from '../limits.js';
 import { answerSize } from './answer-size.js';
 import { CallerError } from './caller-error.js';
@@ -192,6 +197,7 @@ export function networkModels(
   options: ZwdOptionValues,
   satelliteClocks: SatelliteClockHandling,
   zhdSources: readonly StationApriori['zhdSource'][],
+  parametrisation: NetworkParametrisation | null = null,
 ): ModelSet {
   const allCaller = zhdSources.every((s) => s === 'caller');
   const noneCaller = zhdSources.every((s) => s === 'standard-atmosphere');
@@ -200,7 +206,7 @@ export function networkModels(
     ...zwdModels(options, allCaller ? 'caller' : 'standard-atmosphere'),
     estimator:
       satelliteClocks === 'estimated'
-        ? 'network least squares: piecewise-linear nodes on round UTC epochs, random-walk constraints, receiver and satellite clocks per epoch pre-eliminated (one datum clock per connected group of stations and epoch), outlier screening across the network'
+        ? `network least squares: ${parametrisation?.statement ?? 'piecewise-linear nodes on round UTC epochs, random-walk constraints'}, receiver and satellite clocks per epoch pre-eliminated (one datum clock per connected group of stations and epoch), outlier screening across the network`
         : 'network least squares with satellite clocks known: independent single-station solutions, piecewise-linear nodes on round UTC epochs, random-walk constraints, receiver clocks per epoch pre-eliminated',
     apriori_zhd: allCaller ? 'caller' : noneCaller ? standard : `caller where given, else ${standard}`,
     satellite_clocks: satelliteClocks,
@@ -290,6 +296,7 @@ export function runNetworkEstimation(request: NetworkEstimationRequest): Network
       request.options,
       output.satelliteClocks,
       apriori.map((a) => a.zhdSource),
+      output.parametrisation,
     ),
   );
   return { output, apriori, series, models, modelFingerprint: model_fingerprint, warnings };

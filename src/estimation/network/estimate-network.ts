@@ -17,9 +17,11 @@
  * A network of one station is solved as in the "known" case (satellite clocks cannot be estimated
  * from one station), with a warning when "estimated" was asked for.
  *
- * With satellite clocks estimated the network solution uses piecewise-linear nodes, white-noise
- * formal errors and, with scale_sigmas, a scaling of the formal errors instead of re-weighted
- * observations; each difference from the caller's options is a warning (estimatedClockModelNotes).
+ * With satellite clocks estimated the network solution uses piecewise-linear nodes: the caller's
+ * with parametrisation "nodes", else (states at every epoch asked, the default) nodes of at most
+ * 300 s (ZWD) and 1 800 s (gradients) that divide the output spacing (networkModelOptions); the
+ * random walk's variance between and on the nodes is added to every σ (interpolation-variance.ts),
+ * and the result states the parametrisation (output.parametrisation → models, fingerprint).
  *
  * Outlier screening across the network (estimated clocks): Pope's τ with the network's variance
  * factor; in "one-per-window" mode the candidates of one iteration are at least the window apart
@@ -29,7 +31,7 @@
 
 import { ModelDomainError } from '../../domain/errors.js';
 import { geodeticToEcef, type Ecef } from '../../domain/geometry/topocentric.js';
-import { nodeEpochMs } from '../design.js';
+import { nodeEpochMs, nodeLayout, type NodeLayout } from '../design.js';
 import { SingularParameterError } from '../frontal-ldl.js';
 import { MIN_TESTABLE_REDUNDANCY } from '../least-squares.js';
 import { nodeRejectionWindowMs } from '../outliers.js';
@@ -40,12 +42,14 @@ import { MAX_REWEIGHTINGS, nearestEpoch } from '../estimate.js';
 import { initialWeighting, setWeights } from '../design.js';
 import { screeningBound, varianceComponents } from '../variance-components.js';
 import { noiseInflation, type NoiseInflation } from '../correlated-noise.js';
+import { interpolationVariance } from './interpolation-variance.js';
 import { median } from './median.js';
 import { pointPositioning, pooledStatistics } from './point-positioning.js';
 import { ReducedEpochCache } from './reduced-epochs.js';
 import { solveNetworkOnce, stationLayout, type NetworkSolution } from './network-solve.js';
 import type {
   NetworkCommonMode,
+  NetworkParametrisation,
   NetworkEpochEstimate,
   NetworkEstimationInput,
   NetworkEstimationOutput,
@@ -102,7 +106,8 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
       'a network of one station: satellite clocks cannot be estimated from one station, so they were taken as known (the single-station solution)',
     );
   }
-  if (estimated) warnings.push(...estimatedClockModelNotes(options));
+  // With the clocks estimated: the model's nodes (networkModelOptions), stated in the result.
+  const model = networkModelOptions(options);
 
   let results: NetworkStationResult[];
   let commonMode: NetworkCommonMode;
@@ -110,25 +115,35 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
   const geometry = networkExtent(ecef);
 
   if (estimated) {
-    const designs = stationDesigns(obs, subsets, options);
-    const problem = solveWithScreening(buildNetworkDesign(obs, subsets, options, true, designs), input, reference);
+    const modelInput = { ...input, options: model };
+    const designs = stationDesigns(obs, subsets, model);
+    const problem = solveWithScreening(buildNetworkDesign(obs, subsets, model, true, designs), modelInput, reference);
     warnings.push(...problem.warnings);
     // The same data with the satellite clocks known, for the common-mode comparison.
     const known = subsets.map((sub, s) => {
-      const net = buildNetworkDesign(obs, [sub], options, false, [designs[s]!]);
-      return { net, solution: solveNamed(net, options, [problem.used[s]!], 0) };
+      const net = buildNetworkDesign(obs, [sub], model, false, [designs[s]!]);
+      return { net, solution: solveNamed(net, model, [problem.used[s]!], 0) };
     });
-    const noise = stationNoise(problem, input);
-    results = stationResults(problem, reference, noise);
+    const noise = stationNoise(problem, modelInput);
+    results = stationResults(problem, reference, noise, model, options);
     const singles = singleStationCounts(problem.net);
     const meanFactor = meanNoiseFactorPerEpoch(problem.net, noise);
-    const meanEstimated = median(problem.solution.epochs.map((e, k) => Math.sqrt(e.meanVariance * meanFactor[k]!) * problem.sigmaScale));
+    const missing = missingVariance(problem.net, model);
+    // The stations' random walks between the nodes are independent: Σ_s m / S² = m / S on the mean.
+    const meanEstimated = median(
+      problem.solution.epochs.map((e, k) =>
+        Math.sqrt(e.meanVariance * meanFactor[k]! * problem.sigmaScale ** 2 + missing.zwd(problem.net.zwdAlpha[k]!) / stations.length),
+      ),
+    );
     const meanKnown = knownMeanSigma(
       known.map(({ net, solution }, s) => {
         const st = net.stations[0]!;
         return Array.from(st.design.epochMs, (t, ks) => ({
           epochMs: t,
-          sigmaM: Math.sqrt(solution.epochs[st.networkEpoch[ks]!]!.variance[0]! * noise[s]!.zwd[ks]!) * problem.sigmaScale,
+          sigmaM: Math.sqrt(
+            solution.epochs[st.networkEpoch[ks]!]!.variance[0]! * noise[s]!.zwd[ks]! * problem.sigmaScale ** 2 +
+              missing.zwd(net.zwdAlpha[st.networkEpoch[ks]!]!),
+          ),
         }));
       }),
     );
@@ -196,6 +211,7 @@ export function estimateNetwork(input: NetworkEstimationInput): NetworkEstimatio
   return {
     referenceStation: stations[reference]!.name,
     satelliteClocks: estimated ? 'estimated' : 'known',
+    parametrisation: estimated ? networkParametrisation(model) : null,
     stations: results,
     commonMode,
     statistics,
@@ -303,19 +319,40 @@ function checkDuplicates(o: NetworkEstimationInput['observations'], stationOf: I
   }
 }
 
+/** Longest ZWD node spacing of the network model when the caller asked for states at every epoch [s]. */
+export const NETWORK_ZWD_NODE_MAX_S = 300;
+/** Longest gradient node spacing of the network model when the caller asked for states at every epoch [s]. */
+export const NETWORK_GRADIENT_NODE_MAX_S = 1800;
+
 /**
- * What the network solution with satellite clocks estimated does differently from the
- * single-station estimator's options (the point-positioning case has none of these: it is the
- * single-station estimator).
+ * The options the network solves with, satellite clocks estimated (docs/network-estimation.md,
+ * "Model"). States at every epoch ("every-epoch", the default) are replaced by piecewise-linear
+ * nodes whose spacing divides the caller's output spacing Δ and is at most NETWORK_ZWD_NODE_MAX_S
+ * (ZWD) or NETWORK_GRADIENT_NODE_MAX_S (gradients): Δ / ⌈Δ / max⌉, so every output node on a round
+ * UTC epoch jΔ is a model node. With "nodes" the caller's spacings are the model's.
  */
-function estimatedClockModelNotes(options: NetworkEstimationInput['options']): string[] {
-  const notes: string[] = [];
-  if ((options.parametrisation ?? 'every-epoch') !== 'nodes') {
-    notes.push(
-      `with satellite clocks estimated the network estimator uses piecewise-linear nodes (parametrisation "nodes", ZWD every ${options.zwd.intervalS} s), not a state at every epoch`,
-    );
-  }
-  return notes;
+export function networkModelOptions(options: NetworkEstimationInput['options']): NetworkEstimationInput['options'] {
+  if (options.parametrisation === 'nodes') return options;
+  const divide = (intervalS: number, maxS: number) => intervalS / Math.ceil(intervalS / maxS - 1e-9);
+  return {
+    ...options,
+    parametrisation: 'nodes',
+    zwd: { ...options.zwd, intervalS: divide(options.zwd.intervalS, NETWORK_ZWD_NODE_MAX_S) },
+    gradients: options.gradients
+      ? { ...options.gradients, intervalS: divide(options.gradients.intervalS, NETWORK_GRADIENT_NODE_MAX_S) }
+      : null,
+  };
+}
+
+/** The statement of what produced the numbers (the model's node spacings), for the result's models. */
+function networkParametrisation(model: NetworkEstimationInput['options']): NetworkParametrisation {
+  const z = model.zwd.intervalS;
+  const g = model.gradients?.intervalS ?? null;
+  return {
+    zwdNodeIntervalS: z,
+    gradientNodeIntervalS: g,
+    statement: `piecewise-linear nodes on round UTC epochs (ZWD every ${z} s${g === null ? '' : `, gradients every ${g} s`}), random-walk constraints; the random walk's variance between and on the nodes, q² Δ (0.0866 − 0.166 u + 1.464 u²) with u = α (1 − α), added to every σ (none when every epoch is a node; network-interpolation-variance-1)`,
+  };
 }
 
 /**
@@ -636,7 +673,13 @@ function inflatedRelative(vs: number, vr: number, relative: number, fs: number, 
   return Math.max(fs * vs + fr * vr - 2 * Math.sqrt(fs * fr) * cov, 0);
 }
 
-function stationResults(problem: SubProblem, reference: number, noise: NoiseInflation[]): NetworkStationResult[] {
+function stationResults(
+  problem: SubProblem,
+  reference: number,
+  noise: NoiseInflation[],
+  model: NetworkEstimationInput['options'],
+  options: NetworkEstimationInput['options'],
+): NetworkStationResult[] {
   const { net, solution, sigmaScale: scale } = problem;
   const refDesign = net.stations[reference]!.design;
   const refNoise = noise[reference]!;
@@ -646,6 +689,19 @@ function stationResults(problem: SubProblem, reference: number, noise: NoiseInfl
   const diag = solution.inverseDiagonal;
   const adj = solution.adjacentCovariance;
   const singleCounts = singleStationCounts(net).perStation;
+  const missing = missingVariance(net, model);
+  // The output nodes: on the caller's spacings, each a model node or beyond the model's ends.
+  const first = net.epochMs[0]!;
+  const last = net.epochMs[net.epochMs.length - 1]!;
+  const zwdOut = outputNodes(net.zwd, nodeLayout(first, last, options.zwd.intervalS, 'options.zwd_interval_s'));
+  const gradientOut =
+    net.gradients && options.gradients
+      ? outputNodes(net.gradients, nodeLayout(first, last, options.gradients.intervalS, 'options.gradients.interval_s'))
+      : null;
+  const zq2 = (model.zwd.randomWalkMPerSqrtH ?? Number.POSITIVE_INFINITY) ** 2;
+  const gq2 = (model.gradients?.randomWalkMPerSqrtH ?? Number.POSITIVE_INFINITY) ** 2;
+  /** Random-walk variance q² |t − end| of an output node beyond the model's ends [m²]. */
+  const beyond = (q2: number, dtH: number) => (dtH > 0 ? q2 * dtH : 0);
   /**
    * Included observations of station s strictly within one node interval of each node
    * (|t − node| < Δ, as the single-station estimator counts them: an epoch on the neighbouring node
@@ -664,38 +720,45 @@ function stationResults(problem: SubProblem, reference: number, noise: NoiseInfl
     return out;
   };
   return net.stations.map((st, s) => {
-    const zwdNearby = nearby(s, net.zwd.nodeMs, net.zwd.intervalMs);
-    const gradientNearby = net.gradients ? nearby(s, net.gradients.nodeMs, net.gradients.intervalMs) : [];
+    const zwdNearby = nearby(s, zwdOut.nodeMs, options.zwd.intervalS * 1000);
+    const gradientNearby = gradientOut ? nearby(s, gradientOut.nodeMs, options.gradients!.intervalS * 1000) : [];
     const o = s * P;
     const ro = reference * P;
     const d = st.design;
     const f = noise[s]!;
-    const zwdNodes = Array.from({ length: layout.zwdCount }, (_, j) => {
-      const t = nodeEpochMs(net.zwd, j);
+    const zwdNodes = Array.from({ length: zwdOut.nodeMs.length }, (_, i) => {
+      const t = zwdOut.nodeMs[i]!;
+      const j = zwdOut.modelNode[i]!;
+      const far = beyond(zq2, zwdOut.beyondH[i]!);
       const fs = f.zwd[nearestEpoch(d.epochMs, t)]!;
       const fr = refNoise.zwd[nearestEpoch(refDesign.epochMs, t)]!;
       const cov = solution.nodeCovarianceWithReference[s]![j]!;
       const rel = s === reference ? 0 : inflatedRelative(diag[o + j]!, diag[ro + j]!, diag[o + j]! + diag[ro + j]! - 2 * cov, fs, fr);
+      // The random walk's missing variance on a node (α = 0; beyond the model's ends the random
+      // walk from the end node), each station's own and independent.
+      const m = missing.zwd(0) + far;
       return {
         epochMs: t,
         correctionM: x[o + j]!,
-        sigmaM: Math.sqrt(diag[o + j]! * fs) * scale,
-        relativeSigmaM: Number.isNaN(rel) ? null : Math.sqrt(rel) * scale,
-        observationsNearby: zwdNearby[j]!,
+        sigmaM: Math.sqrt(diag[o + j]! * fs * scale * scale + m),
+        relativeSigmaM: Number.isNaN(rel) ? null : s === reference ? 0 : Math.sqrt(rel * scale * scale + 2 * m),
+        observationsNearby: zwdNearby[i]!,
       };
     });
-    const gradientNodes: GradientNodeEstimate[] = Array.from({ length: layout.gradientCount }, (_, l) => {
+    const gradientNodes: GradientNodeEstimate[] = Array.from({ length: gradientOut?.nodeMs.length ?? 0 }, (_, i) => {
+      const l = gradientOut!.modelNode[i]!;
       const n = o + layout.northOffset + l;
       const e = o + layout.eastOffset + l;
-      const t = nodeEpochMs(net.gradients!, l);
+      const t = gradientOut!.nodeMs[i]!;
       const near = nearestEpoch(d.epochMs, t);
+      const m = missing.gradient(0) + beyond(gq2, gradientOut!.beyondH[i]!);
       return {
         epochMs: t,
         northM: x[n]!,
         eastM: x[e]!,
-        northSigmaM: Math.sqrt(diag[n]! * f.north[near]!) * scale,
-        eastSigmaM: Math.sqrt(diag[e]! * f.east[near]!) * scale,
-        observationsNearby: gradientNearby[l]!,
+        northSigmaM: Math.sqrt(diag[n]! * f.north[near]! * scale * scale + m),
+        eastSigmaM: Math.sqrt(diag[e]! * f.east[near]! * scale * scale + m),
+        observationsNearby: gradientNearby[i]!,
       };
     });
     const epochs: NetworkEpochEstimate[] = Array.from({ length: d.epochMs.length }, (_, ks) => {
@@ -719,15 +782,19 @@ function stationResults(problem: SubProblem, reference: number, noise: NoiseInfl
       const vr = Math.max(ec.variance[reference]!, 0);
       // The reference station may have no epoch here (its variance is then not kept): its factor alone.
       const relative = Number.isNaN(vr) ? ec.relativeVariance[s]! * fs : inflatedRelative(vs, vr, ec.relativeVariance[s]!, fs, fr);
+      // The random walk between the nodes (interpolation-variance.ts): the station's own and, for
+      // the relative σ, the reference's (independent, at the same α: the node layout is common).
+      const mw = missing.zwd(net.zwdAlpha[k]!);
+      const mg = layout.gradientCount > 0 ? missing.gradient(net.gradientAlpha[k]!) : 0;
       return {
         epochMs: d.epochMs[ks]!,
         correctionM: w.value,
-        sigmaM: Math.sqrt(vs * fs) * scale,
-        relativeSigmaM: s === reference ? 0 : Math.sqrt(relative) * scale,
+        sigmaM: Math.sqrt(vs * fs * scale * scale + mw),
+        relativeSigmaM: s === reference ? 0 : Math.sqrt(relative * scale * scale + 2 * mw),
         northGradientM: north?.value ?? null,
         eastGradientM: east?.value ?? null,
-        northGradientSigmaM: north ? north.sigma * Math.sqrt(f.north[ks]!) : null,
-        eastGradientSigmaM: east ? east.sigma * Math.sqrt(f.east[ks]!) : null,
+        northGradientSigmaM: north ? Math.sqrt(north.sigma ** 2 * f.north[ks]! + mg) : null,
+        eastGradientSigmaM: east ? Math.sqrt(east.sigma ** 2 * f.east[ks]! + mg) : null,
         epochBiasM: Number.isNaN(bias) ? null : bias,
         observationsUsed: count,
       };
@@ -753,6 +820,60 @@ function stationResults(problem: SubProblem, reference: number, noise: NoiseInfl
       medianRelativeSigmaM: median(epochs.map((e) => e.relativeSigmaM)) ?? Number.NaN,
     };
   });
+}
+
+/**
+ * The output nodes (caller's spacing, round UTC epochs) against the model's nodes: each output node
+ * inside the model's span is a model node (the model spacing divides the output spacing:
+ * networkModelOptions); one before the first or after the last model node takes the end node
+ * and the random walk over the distance (beyondH > 0), as the single-station estimator
+ * extrapolates beyond its states.
+ */
+function outputNodes(model: NodeLayout, output: NodeLayout): { nodeMs: Float64Array; modelNode: Int32Array; beyondH: Float64Array } {
+  const n = output.count;
+  const modelNode = new Int32Array(n);
+  const beyondH = new Float64Array(n);
+  const firstMs = model.nodeMs[0]!;
+  const lastMs = model.nodeMs[model.count - 1]!;
+  for (let i = 0; i < n; i++) {
+    const t = output.nodeMs[i]!;
+    if (t <= firstMs || model.count === 1) {
+      modelNode[i] = 0;
+      beyondH[i] = Math.abs(firstMs - t) / 3_600_000;
+    } else if (t >= lastMs) {
+      modelNode[i] = model.count - 1;
+      beyondH[i] = (t - lastMs) / 3_600_000;
+    } else {
+      const j = Math.round((t - firstMs) / model.intervalMs);
+      if (Math.abs(model.nodeMs[j]! - t) > 1e-6 * model.intervalMs) {
+        throw new Error(`output node ${new Date(t).toISOString()} is not a model node (model spacing ${model.intervalMs} ms)`);
+      }
+      modelNode[i] = j;
+    }
+  }
+  return { nodeMs: output.nodeMs, modelNode, beyondH };
+}
+
+/**
+ * The variance the piecewise-linear model leaves out of the random walk (interpolation-variance.ts)
+ * at fraction α of a ZWD or gradient interval [m²]; 0 without a random walk, with one node, or when
+ * every epoch is a node (a state at every epoch).
+ */
+function missingVariance(
+  net: NetworkDesign,
+  options: NetworkEstimationInput['options'],
+): { zwd: (alpha: number) => number; gradient: (alpha: number) => number } {
+  // Every epoch on a node (nodes at the sampling interval): the model is the random walk at every
+  // epoch itself, and nothing is missing.
+  const onNodes = (alpha: Float64Array) => alpha.every((a) => a < 1e-9 || a > 1 - 1e-9);
+  const zwdSpanH = net.zwd.count > 1 && !onNodes(net.zwdAlpha) ? net.zwd.intervalMs / 3_600_000 : 0;
+  const gradientSpanH = net.gradients && net.gradients.count > 1 && !onNodes(net.gradientAlpha) ? net.gradients.intervalMs / 3_600_000 : 0;
+  const zq = options.zwd.randomWalkMPerSqrtH;
+  const gq = options.gradients?.randomWalkMPerSqrtH ?? null;
+  return {
+    zwd: (alpha) => interpolationVariance(zq, zwdSpanH, alpha),
+    gradient: (alpha) => interpolationVariance(gq, gradientSpanH, alpha),
+  };
 }
 
 /** Satellites seen by one station at an epoch (all observations taken as used), and epochs with one station. */

@@ -146,9 +146,21 @@ export interface NetworkEstimationStatistics {
   screeningComplete: boolean;
 }
 
+/** What the network solution with satellite clocks estimated solved with (estimate-network.ts, networkModelOptions). */
+export interface NetworkParametrisation {
+  /** Spacing of the model's piecewise-linear ZWD nodes [s] (divides the output spacing). */
+  zwdNodeIntervalS: number;
+  /** The same for the gradients [s]; null without gradients. */
+  gradientNodeIntervalS: number | null;
+  /** One line for the result's models (and so its fingerprint). */
+  statement: string;
+}
+
 export interface NetworkEstimationOutput {
   referenceStation: string;
   satelliteClocks: SatelliteClockHandling;
+  /** The model of the joint solution (satellite clocks estimated); null when every station was solved alone. */
+  parametrisation: NetworkParametrisation | null;
   stations: NetworkStationResult[];
   commonMode: NetworkCommonMode;
   statistics: NetworkEstimationStatistics;

@@ -11,7 +11,8 @@
  *   satellites seen by every station present at the epoch enter (with that, the double
  *   differences are a basis of all clock-free combinations). The caller arranges the data so.
  *
- * Both carry the random-walk and a-priori constraints as pseudo-observations.
+ * Both carry the random-walk and a-priori constraints as pseudo-observations, and add to every σ
+ * the random walk's variance between the nodes as the estimator does (missingVariance below).
  */
 
 import { CholeskyDecomposition, inverse, Matrix } from 'ml-matrix';
@@ -139,8 +140,24 @@ function sigmaOf(input: NetworkEstimationInput, i: number): number {
   return input.options.weighting === 'elevation' ? input.options.sigma0M / Math.sin(o.elevationRad[i]!) : input.options.sigma0M;
 }
 
+/**
+ * The random walk's variance that piecewise-linear nodes leave out, added to every reported σ as the
+ * estimator does (docs/network-estimation.md, "Honest σ between nodes"; written out here, not
+ * imported): q² Δ g(α), g = 0.0866 − 0.166 u + 1.464 u², u = α (1 − α), for each station
+ * independently. The solves themselves are compared before it: it is added to both sides alike.
+ */
+function missingVariance(q: number | null, dtMs: number, count: number, alpha: number): number {
+  if (q === null || count < 2) return 0;
+  const u = alpha * (1 - alpha);
+  return q * q * (dtMs / 3_600_000) * (0.0866 - 0.166 * u + 1.464 * u * u);
+}
+
 function summarise(input: NetworkEstimationInput, L: Layout, epochs: number[], x: number[], Q: Matrix, reference: number) {
   const S = input.stations.length;
+  const zq = input.options.zwd.randomWalkMPerSqrtH;
+  const gq = input.options.gradients?.randomWalkMPerSqrtH ?? null;
+  const zwdNode = missingVariance(zq, L.zwdDt, L.zwdCount, 0);
+  const gradientNode = missingVariance(gq, L.gradDt, L.gradCount, 0);
   const pick = (off: number, n: number, f: (p: number) => number) =>
     Array.from({ length: S }, (_, s) => Array.from({ length: n }, (_, j) => f(s * L.per + off + j)));
   const meanSigmaM = epochs.map((t) => {
@@ -154,18 +171,18 @@ function summarise(input: NetworkEstimationInput, L: Layout, epochs: number[], x
     }
     let v = 0;
     for (const [p, wp] of c) for (const [q, wq] of c) v += wp * wq * Q.get(p, q);
-    return Math.sqrt(v);
+    return Math.sqrt(v + missingVariance(zq, L.zwdDt, L.zwdCount, a) / S);
   });
   return {
     zwdM: pick(0, L.zwdCount, (p) => x[p]!),
-    zwdSigmaM: pick(0, L.zwdCount, (p) => Math.sqrt(Q.get(p, p))),
+    zwdSigmaM: pick(0, L.zwdCount, (p) => Math.sqrt(Q.get(p, p) + zwdNode)),
     northM: pick(L.zwdCount, L.gradCount, (p) => x[p]!),
-    northSigmaM: pick(L.zwdCount, L.gradCount, (p) => Math.sqrt(Q.get(p, p))),
+    northSigmaM: pick(L.zwdCount, L.gradCount, (p) => Math.sqrt(Q.get(p, p) + gradientNode)),
     relativeSigmaM: Array.from({ length: S }, (_, s) =>
       Array.from({ length: L.zwdCount }, (_, j) => {
         const p = s * L.per + j;
         const r = reference * L.per + j;
-        return Math.sqrt(Math.max(Q.get(p, p) + Q.get(r, r) - 2 * Q.get(p, r), 0));
+        return s === reference ? 0 : Math.sqrt(Math.max(Q.get(p, p) + Q.get(r, r) - 2 * Q.get(p, r), 0) + 2 * zwdNode);
       }),
     ),
     meanSigmaM,
