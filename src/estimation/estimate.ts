@@ -16,6 +16,7 @@
 import { ModelDomainError } from '../domain/errors.js';
 import { epochInformation, kernelFactor, noiseInflation, type NoiseInflation } from './correlated-noise.js';
 import { buildDesign, initialWeighting, locate, nodeEpochMs, setWeights, type Design, type NodeLayout } from './design.js';
+import { hasEpochStates, solveEpochStates } from './epoch-states.js';
 import { SingularParameterError } from './frontal-ldl.js';
 import { epochStateRejectionWindowMs, nodeRejectionWindowMs, rejectionCandidates } from './outliers.js';
 import { MIN_TESTABLE_REDUNDANCY, parameterLayout, solveOnce, type ParameterLayout, type Solution } from './least-squares.js';
@@ -284,7 +285,9 @@ function checkColumns(input: ZwdEstimationInput): void {
 
 function solveNamed(design: Design, layout: ParameterLayout, input: ZwdEstimationInput, used: Uint8Array): Solution {
   try {
-    return solveOnce(design, input.options, used);
+    // States at every epoch (the default): the block tridiagonal solver; it returns null on a small
+    // pivot, and the frontal solver then names the undetermined parameter.
+    return (hasEpochStates(design) ? solveEpochStates(design, input.options, used) : null) ?? solveOnce(design, input.options, used);
   } catch (err) {
     if (!(err instanceof SingularParameterError)) throw err;
     throw new ModelDomainError('observations', singularMessage(design, layout, input, used, err.parameter), 422);
