@@ -106,9 +106,9 @@ export function solveEpochStates(design: Design, options: ZwdEstimationOptions, 
   const epochStart = design.epochStart;
 
   const epochNormal = new Float64Array(K * EPOCH_NORMAL_ENTRIES);
-  // Per epoch: Σw and the weighted means (for the residual pass), S_k⁻¹, u_k, the step weights.
+  // Per epoch: Σw and the weighted means r̄, m̄ (for the residual pass), S_k⁻¹, u_k, the step weights.
   const epochWeight = new Float64Array(K);
-  const means = new Float64Array(K * 3);
+  const means = new Float64Array(K * 4);
   const sInv = new Float64Array(K * BLOCK);
   const u = new Float64Array(K * 3);
   const stepW = new Float64Array(K);
@@ -125,21 +125,11 @@ export function solveEpochStates(design: Design, options: ZwdEstimationOptions, 
   for (let k = 0; k < K; k++) {
     const start = epochStart[k]!;
     const end = epochStart[k + 1]!;
-    // Pass 1: weighted means over the epoch (the bias elimination), as least-squares.ts.
-    let sw = 0;
-    let swr = 0;
-    let swW = 0;
-    let swN = 0;
-    let swE = 0;
-    for (let s = start; s < end; s++) {
-      if (!used[s]) continue;
-      const w = weight[s]!;
-      sw += w;
-      swr += w * residual[s]!;
-      swW += w * wet[s]!;
-      swN += w * north[s]!;
-      swE += w * east[s]!;
-    }
+    // One pass: sums of w d, w d dᵀ with d = (m − m_ref, r − r_ref) taken from the epoch's first used
+    // observation (so that ±300 km receiver clocks in r cost no digits), centred afterwards:
+    // M = Σ w d dᵀ − (Σ w d)(Σ w d)ᵀ/Σ w = Σ w (m − m̄)(m − m̄)ᵀ, h likewise (least-squares.ts takes two passes).
+    let first = start;
+    while (first < end && !used[first]) first++;
     let mWW = 0,
       mWN = 0,
       mWE = 0,
@@ -152,28 +142,33 @@ export function solveEpochStates(design: Design, options: ZwdEstimationOptions, 
     let dW = 0,
       dN = 0,
       dE = 0;
-    if (sw !== 0) {
+    if (first < end) {
       epochsUsed++;
-      const mr = bias ? swr / sw : 0;
-      const mW = bias ? swW / sw : 0;
-      const mN = bias ? swN / sw : 0;
-      const mE = bias ? swE / sw : 0;
-      epochWeight[k] = sw;
-      means[3 * k] = mW;
-      means[3 * k + 1] = mN;
-      means[3 * k + 2] = mE;
-      // Pass 2: centred M = Σ w (m − m̄)(m − m̄)ᵀ, h = Σ w (m − m̄)(r − r̄), and Σ w m² (the own diagonal).
-      for (let s = start; s < end; s++) {
+      const rRef = bias ? residual[first]! : 0;
+      const wRef = bias ? wet[first]! : 0;
+      const nRef = bias ? north[first]! : 0;
+      const eRef = bias ? east[first]! : 0;
+      let sw = 0,
+        sR = 0,
+        sW = 0,
+        sN = 0,
+        sE = 0;
+      for (let s = first; s < end; s++) {
         if (!used[s]) continue;
         observationsUsed++;
         const w = weight[s]!;
-        const dr = residual[s]! - mr;
-        const cw = wet[s]! - mW;
-        const cn = north[s]! - mN;
-        const ce = east[s]! - mE;
+        const dr = residual[s]! - rRef;
+        const cw = wet[s]! - wRef;
+        const cn = north[s]! - nRef;
+        const ce = east[s]! - eRef;
         const wcw = w * cw;
         const wcn = w * cn;
         const wce = w * ce;
+        sw += w;
+        sR += w * dr;
+        sW += wcw;
+        sN += wcn;
+        sE += wce;
         mWW += wcw * cw;
         mWN += wcw * cn;
         mWE += wcw * ce;
@@ -183,10 +178,38 @@ export function solveEpochStates(design: Design, options: ZwdEstimationOptions, 
         hW += wcw * dr;
         hN += wcn * dr;
         hE += wce * dr;
-        dW += w * wet[s]! * wet[s]!;
-        dN += w * north[s]! * north[s]!;
-        dE += w * east[s]! * east[s]!;
       }
+      let aR = 0,
+        aW = 0,
+        aN = 0,
+        aE = 0;
+      if (bias) {
+        aR = sR / sw;
+        aW = sW / sw;
+        aN = sN / sw;
+        aE = sE / sw;
+        mWW -= sW * aW;
+        mWN -= sW * aN;
+        mWE -= sW * aE;
+        mNN -= sN * aN;
+        mNE -= sN * aE;
+        mEE -= sE * aE;
+        hW -= sW * aR;
+        hN -= sN * aR;
+        hE -= sE * aR;
+      }
+      const mW = wRef + aW;
+      const mN = nRef + aN;
+      const mE = eRef + aE;
+      epochWeight[k] = sw;
+      means[4 * k] = rRef + aR;
+      means[4 * k + 1] = mW;
+      means[4 * k + 2] = mN;
+      means[4 * k + 3] = mE;
+      // Σ w m² (the parameter's own diagonal for the singularity test): the centred sum plus Σw m̄².
+      dW = mWW + sw * mW * mW;
+      dN = mNN + sw * mN * mN;
+      dE = mEE + sw * mE * mE;
       const o = k * EPOCH_NORMAL_ENTRIES;
       epochNormal[o] = mWW;
       epochNormal[o + 1] = mWN;
@@ -330,7 +353,7 @@ export function solveEpochStates(design: Design, options: ZwdEstimationOptions, 
   }
   const inverse = new EpochStateInverse(K, diagonal, block, next);
 
-  // Post-fit residuals v, biases b̂ and σ_v² (least-squares.ts, postFitResiduals), with the epoch means of the assembly.
+  // Post-fit residuals v, biases b̂ and σ_v² (least-squares.ts, postFitResiduals) from the epoch means of the assembly.
   const n = residual.length;
   const biasM = new Float64Array(K).fill(Number.NaN);
   const fittedResidualM = new Float64Array(n);
@@ -347,18 +370,12 @@ export function solveEpochStates(design: Design, options: ZwdEstimationOptions, 
     const xW = x[k]!;
     const xN = x[K + k]!;
     const xE = x[2 * K + k]!;
-    let swe = 0;
-    for (let s = start; s < end; s++) {
-      if (!used[s]) continue;
-      const e = residual[s]! - wet[s]! * xW - north[s]! * xN - east[s]! * xE;
-      fittedResidualM[s] = e;
-      swe += weight[s]! * e;
-    }
-    const bk = bias ? swe / sw : 0;
-    if (bias) biasM[k] = bk;
-    const mW = means[3 * k]!;
-    const mN = means[3 * k + 1]!;
-    const mE = means[3 * k + 2]!;
+    const mr = means[4 * k]!;
+    const mW = means[4 * k + 1]!;
+    const mN = means[4 * k + 2]!;
+    const mE = means[4 * k + 3]!;
+    // b̂ = Σ w (r − mᵀx) / Σ w = r̄ − m̄ᵀx, so v = r − mᵀx − b̂ = (r − r̄) − (m − m̄)ᵀx in one pass.
+    if (bias) biasM[k] = mr - (mW * xW + mN * xN + mE * xE);
     const b = k * BLOCK;
     const qWW = block[b]!,
       qWN = block[b + 1]!,
@@ -369,16 +386,15 @@ export function solveEpochStates(design: Design, options: ZwdEstimationOptions, 
     const biasVariance = bias ? 1 / sw : 0;
     for (let s = start; s < end; s++) {
       if (!used[s]) continue;
-      const v = fittedResidualM[s]! - bk;
+      const cw = wet[s]! - mW;
+      const cn = north[s]! - mN;
+      const ce = east[s]! - mE;
+      const v = residual[s]! - mr - (cw * xW + cn * xN + ce * xE);
       fittedResidualM[s] = v;
       const w = weight[s]!;
       observationSquareSum += w * v * v;
       residualSquareSumM2 += v * v;
-      const cw = wet[s]! - mW;
-      const cn = north[s]! - mN;
-      const ce = east[s]! - mE;
-      // The same grouping as least-squares.ts (the same rounding).
-      const quad = qWW * cw * cw + (2 * (qWN * cw * cn + qWE * cw * ce + qNE * cn * ce) + qNN * cn * cn + qEE * ce * ce);
+      const quad = qWW * cw * cw + 2 * (qWN * cw * cn + qWE * cw * ce + qNE * cn * ce) + qNN * cn * cn + qEE * ce * ce;
       const sigma = sigmaM[s]!;
       const qv = sigma * sigma - biasVariance - quad;
       residualVarianceM2[s] = qv;

@@ -76,13 +76,7 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
         return dof > 0 ? s.weightedSquareSum / dof : null;
       },
       candidates: (s, sigmaZero) =>
-        rejectionCandidates(
-          design,
-          s,
-          used,
-          sigmaZero,
-          options.outlierThreshold!,
-          options.outlierRejection,
+        rejectionCandidates(design, s, used, sigmaZero, options.outlierThreshold!, options.outlierRejection, () =>
           rejectionWindowMs(input, design, layout, s),
         ),
       normalizedResidual: (c) => c.normalizedResidual,
