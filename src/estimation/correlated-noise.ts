@@ -105,17 +105,19 @@ export function residualAutocorrelation(
   // Lag by lag, each over every arc, until the first lag that is not significant (the lags after it
   // are never needed).
   const rho: number[] = [];
+  // With runs, four lags are summed in one pass (four independent sums, each over the same terms in
+  // the same order as lag by lag): up to three lags past the last significant one are summed in vain.
+  const group = new Float64Array(2 * LAG_GROUP);
   for (let l = 0; l < lags.length; l++) {
     const m = lags[l]!;
     const spanMs = m * samplingMs;
     let sum = 0;
     let pairs = 0;
     if (runs) {
-      for (let r = 0; r < runs.length; r += 2) {
-        const end = runs[r + 1]! - m;
-        for (let i = runs[r]!; i < end; i++) sum += z[i]! * z[i + m]!;
-        if (end > runs[r]!) pairs += end - runs[r]!;
-      }
+      const g = l % LAG_GROUP;
+      if (g === 0) runLagSums(z, runs, lags, l, group);
+      sum = group[g]!;
+      pairs = group[LAG_GROUP + g]!;
     } else {
       for (let id = 0; id < counts.length; id++) {
         const end = start[id + 1]! - m;
@@ -138,6 +140,58 @@ export function residualAutocorrelation(
     rho.push(r);
   }
   return rho;
+}
+
+/** Lags summed together over the runs. */
+const LAG_GROUP = 4;
+
+/**
+ * Σ z_i z_{i+m} over the pairs within the runs, and the number of pairs, for the lags
+ * lags[l..l+LAG_GROUP) (the last one repeated past the end): sums in out[0..LAG_GROUP), pairs after them.
+ */
+function runLagSums(z: Float64Array, runs: Int32Array, lags: readonly number[], l: number, out: Float64Array): void {
+  const last = lags.length - 1;
+  const m0 = lags[l]!;
+  const m1 = lags[Math.min(l + 1, last)]!;
+  const m2 = lags[Math.min(l + 2, last)]!;
+  const m3 = lags[Math.min(l + 3, last)]!;
+  let s0 = 0,
+    s1 = 0,
+    s2 = 0,
+    s3 = 0;
+  let p0 = 0,
+    p1 = 0,
+    p2 = 0,
+    p3 = 0;
+  for (let r = 0; r < runs.length; r += 2) {
+    const a = runs[r]!;
+    const e = runs[r + 1]!;
+    // Pairs of all four lags (m0 ≤ m1 ≤ m2 ≤ m3), then the further pairs of the shorter lags, i ascending for each.
+    const common = e - m3;
+    let i = a;
+    for (; i < common; i++) {
+      const zi = z[i]!;
+      s0 += zi * z[i + m0]!;
+      s1 += zi * z[i + m1]!;
+      s2 += zi * z[i + m2]!;
+      s3 += zi * z[i + m3]!;
+    }
+    for (let j = i; j < e - m2; j++) s2 += z[j]! * z[j + m2]!;
+    for (let j = i; j < e - m1; j++) s1 += z[j]! * z[j + m1]!;
+    for (let j = i; j < e - m0; j++) s0 += z[j]! * z[j + m0]!;
+    if (e - m0 > a) p0 += e - m0 - a;
+    if (e - m1 > a) p1 += e - m1 - a;
+    if (e - m2 > a) p2 += e - m2 - a;
+    if (e - m3 > a) p3 += e - m3 - a;
+  }
+  out[0] = s0;
+  out[1] = s1;
+  out[2] = s2;
+  out[3] = s3;
+  out[4] = p0;
+  out[5] = p1;
+  out[6] = p2;
+  out[7] = p3;
 }
 
 /**
@@ -181,10 +235,11 @@ export function varianceInflation(information: number, stepVariance: number | nu
   } else {
     const l2 = lambda * lambda;
     const s0 = (1 + l2) / (1 - l2);
+    const c = 2 / (1 - l2);
     let lm = 1;
     for (let m = 1; m <= rho.length; m++) {
       lm *= lambda;
-      sum += (rho[m - 1]! * lm * (2 / (1 - l2) + m - 1)) / s0;
+      sum += (rho[m - 1]! * lm * (c + m - 1)) / s0;
     }
   }
   const r = 1 + 2 * sum;

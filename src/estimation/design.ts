@@ -259,12 +259,20 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   const zwdAlpha = new Float64Array(epochs);
   const gradientInterval = new Int32Array(epochs);
   const gradientAlpha = new Float64Array(epochs);
+  // States at every epoch: epoch k is state k (the last epoch: interval K − 2 at α = 1), what
+  // locate's bisection finds, without it.
+  const at = (layout: NodeLayout, k: number) =>
+    layout.regular || layout.count < 2
+      ? locate(layout, epochTimes[k]!)
+      : k + 1 < layout.count
+        ? { interval: k, alpha: 0 }
+        : { interval: k - 1, alpha: 1 };
   for (let k = 0; k < epochs; k++) {
-    const z = locate(zwd, epochTimes[k]!);
+    const z = at(zwd, k);
     zwdInterval[k] = z.interval;
     zwdAlpha[k] = z.alpha;
     if (gradients) {
-      const g = locate(gradients, epochTimes[k]!);
+      const g = at(gradients, k);
       gradientInterval[k] = g.interval;
       gradientAlpha[k] = g.alpha;
     }

@@ -229,10 +229,17 @@ function elevationBands(
   const sumTau2 = new Float64Array(nb);
   const tested = new Float64Array(nb);
   const rejectedCount = new Float64Array(nb);
+  // The band of an elevation: the last lower edge at or below it (a bisection of the edges; the
+  // first band takes anything below 5°, the last anything above 60°).
   const band = (e: number) => {
-    let b = 0;
-    while (b < nb - 1 && e >= edges[b + 1]!) b++;
-    return b;
+    let lo = 0;
+    let hi = nb - 1;
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (e >= edges[mid]!) lo = mid;
+      else hi = mid - 1;
+    }
+    return lo;
   };
   for (let s = 0; s < used.length; s++) {
     if (!used[s]) continue;
