@@ -235,12 +235,14 @@ export function varianceInflation(information: number, stepVariance: number | nu
   } else {
     const l2 = lambda * lambda;
     const s0 = (1 + l2) / (1 - l2);
+    // Σ ρ(m) S(m)/S(0), S(0) divided out once (it runs per epoch and family over every lag).
     const c = 2 / (1 - l2);
     let lm = 1;
     for (let m = 1; m <= rho.length; m++) {
       lm *= lambda;
-      sum += (rho[m - 1]! * lm * (c + m - 1)) / s0;
+      sum += rho[m - 1]! * lm * (c + m - 1);
     }
+    sum /= s0;
   }
   const r = 1 + 2 * sum;
   const noiseShare = (1 + lambda * lambda) / (1 + lambda) ** 2;
