@@ -89,15 +89,82 @@ export class EpochStateInverse implements InverseElements {
 }
 
 /**
+ * One solution with fresh arrays (see EpochStateSolver).
+ *
  * @param used 1 for each design observation that takes part (0 = rejected)
  * @returns the solution, or null when a pivot is below the tolerance (the caller then runs the
  *          frontal solver, which throws SingularParameterError naming the parameter)
  */
 export function solveEpochStates(design: Design, options: ZwdEstimationOptions, used: Uint8Array): Solution | null {
+  return new EpochStateSolver(design, options).solve(used);
+}
+
+/**
+ * The solver of one design, for the solutions of the screening loop one after the other: its arrays
+ * (≈ 2 × 8 bytes per observation and 40 × 8 per epoch) are allocated once and each solve() writes its
+ * solution into them, so a solution's arrays are valid until the next solve() (the loop never looks
+ * back). Allocating them per solution made garbage collection a tenth of a four-constellation day.
+ */
+export class EpochStateSolver {
+  // The solver's arrays (written by solveInto; a solution's arrays are some of them).
+  readonly epochs: number;
+  readonly stepW: Float64Array;
+  readonly stepG: Float64Array;
+  readonly epochNormal: Float64Array;
+  readonly epochWeight: Float64Array;
+  readonly means: Float64Array;
+  readonly sInv: Float64Array;
+  readonly u: Float64Array;
+  readonly x: Float64Array;
+  readonly diagonal: Float64Array;
+  readonly block: Float64Array;
+  readonly next: Float64Array;
+  readonly biasM: Float64Array;
+  readonly fittedResidualM: Float64Array;
+  readonly residualVarianceM2: Float64Array;
+
+  constructor(
+    private readonly design: Design,
+    private readonly options: ZwdEstimationOptions,
+  ) {
+    const K = design.epochMs.length;
+    const n = design.residualM.length;
+    this.epochs = K;
+    // Random-walk weights of the steps k → k+1 (0 after the last epoch), the same in every solution.
+    this.stepW = new Float64Array(K);
+    this.stepG = new Float64Array(K);
+    for (let k = 0; k + 1 < K; k++) {
+      this.stepW[k] = randomWalkStepWeight(options.zwd, design.epochMs[k]!, design.epochMs[k + 1]!)!;
+      this.stepG[k] = randomWalkStepWeight(options.gradients!, design.epochMs[k]!, design.epochMs[k + 1]!)!;
+    }
+    this.epochNormal = new Float64Array(K * EPOCH_NORMAL_ENTRIES);
+    this.epochWeight = new Float64Array(K);
+    this.means = new Float64Array(K * 4);
+    this.sInv = new Float64Array(K * BLOCK);
+    this.u = new Float64Array(K * 3);
+    this.x = new Float64Array(3 * K);
+    this.diagonal = new Float64Array(3 * K);
+    this.block = new Float64Array(K * BLOCK);
+    this.next = new Float64Array(K * 3);
+    this.biasM = new Float64Array(K);
+    this.fittedResidualM = new Float64Array(n);
+    this.residualVarianceM2 = new Float64Array(n);
+  }
+
+  /**
+   * @param used 1 for each design observation that takes part (0 = rejected)
+   * @returns the solution (its arrays are overwritten by the next call), or null when a pivot is
+   *          below the tolerance (the caller then runs the frontal solver, which names the parameter)
+   */
+  solve(used: Uint8Array): Solution | null {
+    return solveInto(this.design, this.options, used, this);
+  }
+}
+
+function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Array, solver: EpochStateSolver): Solution | null {
   const gradients = options.gradients!;
   const K = design.epochMs.length;
   const bias = options.epochBias;
-  const epochMs = design.epochMs;
   const wet = design.wetMapping;
   const north = design.northMapping;
   const east = design.eastMapping;
@@ -105,18 +172,14 @@ export function solveEpochStates(design: Design, options: ZwdEstimationOptions, 
   const residual = design.residualM;
   const epochStart = design.epochStart;
 
-  const epochNormal = new Float64Array(K * EPOCH_NORMAL_ENTRIES);
   // Per epoch: Σw and the weighted means r̄, m̄ (for the residual pass), S_k⁻¹, u_k, the step weights.
-  const epochWeight = new Float64Array(K);
-  const means = new Float64Array(K * 4);
-  const sInv = new Float64Array(K * BLOCK);
-  const u = new Float64Array(K * 3);
-  const stepW = new Float64Array(K);
-  const stepG = new Float64Array(K);
-  for (let k = 0; k + 1 < K; k++) {
-    stepW[k] = randomWalkStepWeight(options.zwd, epochMs[k]!, epochMs[k + 1]!)!;
-    stepG[k] = randomWalkStepWeight(gradients, epochMs[k]!, epochMs[k + 1]!)!;
-  }
+  const epochNormal = solver.epochNormal.fill(0);
+  const epochWeight = solver.epochWeight.fill(0);
+  const means = solver.means;
+  const sInv = solver.sInv;
+  const u = solver.u;
+  const stepW = solver.stepW;
+  const stepG = solver.stepG;
   const aprioriW = options.zwd.aprioriSigmaM === null ? 0 : 1 / options.zwd.aprioriSigmaM ** 2;
   const aprioriG = gradients.aprioriSigmaM === null ? 0 : 1 / gradients.aprioriSigmaM ** 2;
 
@@ -282,11 +345,10 @@ export function solveEpochStates(design: Design, options: ZwdEstimationOptions, 
   }
 
   // Back substitution and selected inverse (RTS smoother), last epoch first.
-  const P = 3 * K;
-  const x = new Float64Array(P);
-  const diagonal = new Float64Array(P);
-  const block = new Float64Array(K * BLOCK);
-  const next = new Float64Array(K * 3);
+  const x = solver.x;
+  const diagonal = solver.diagonal;
+  const block = solver.block;
+  const next = solver.next;
   const last = K - 1;
   x[last] = u[3 * last]!;
   x[K + last] = u[3 * last + 1]!;
@@ -354,10 +416,9 @@ export function solveEpochStates(design: Design, options: ZwdEstimationOptions, 
   const inverse = new EpochStateInverse(K, diagonal, block, next);
 
   // Post-fit residuals v, biases b̂ and σ_v² (least-squares.ts, postFitResiduals) from the epoch means of the assembly.
-  const n = residual.length;
-  const biasM = new Float64Array(K).fill(Number.NaN);
-  const fittedResidualM = new Float64Array(n);
-  const residualVarianceM2 = new Float64Array(n);
+  const biasM = solver.biasM.fill(Number.NaN);
+  const fittedResidualM = solver.fittedResidualM.fill(0);
+  const residualVarianceM2 = solver.residualVarianceM2.fill(0);
   const sigmaM = design.sigmaM;
   let observationSquareSum = 0;
   let observationRedundancy = 0;

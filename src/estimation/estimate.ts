@@ -16,7 +16,7 @@
 import { ModelDomainError } from '../domain/errors.js';
 import { epochInformation, kernelFactor, noiseInflation, type NoiseInflation } from './correlated-noise.js';
 import { buildDesign, initialWeighting, locate, nodeEpochMs, setWeights, type Design, type NodeLayout } from './design.js';
-import { hasEpochStates, solveEpochStates } from './epoch-states.js';
+import { EpochStateSolver, hasEpochStates } from './epoch-states.js';
 import { SingularParameterError } from './frontal-ldl.js';
 import { epochStateRejectionWindowMs, nodeRejectionWindowMs, rejectionCandidates } from './outliers.js';
 import { MIN_TESTABLE_REDUNDANCY, parameterLayout, solveOnce, type ParameterLayout, type Solution } from './least-squares.js';
@@ -63,6 +63,8 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
   let weighting = initialWeighting(options);
   let givenScale = 1;
   let reweightings = 0;
+  // States at every epoch (the default): the block tridiagonal solver, its arrays reused from solution to solution.
+  const epochStates = hasEpochStates(design) ? new EpochStateSolver(design, options) : null;
   const unknownsOf = (s: Solution) => layout.parameters + (options.epochBias ? s.epochsUsed : 0);
 
   // Each pass (screening.ts): solve; re-estimate the observation weights (variance components, from
@@ -70,7 +72,7 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
   // while either changed anything.
   const screened = screenedSolution(
     {
-      solve: () => solveNamed(design, layout, input, used),
+      solve: () => solveNamed(design, layout, input, used, epochStates),
       varianceFactor: (s) => {
         const dof = s.observationsUsed + s.constraints - unknownsOf(s);
         return dof > 0 ? s.weightedSquareSum / dof : null;
@@ -284,11 +286,17 @@ function checkColumns(input: ZwdEstimationInput): void {
   if (n === 0) throw new ModelDomainError('observations', 'at least one observation is needed', 400);
 }
 
-function solveNamed(design: Design, layout: ParameterLayout, input: ZwdEstimationInput, used: Uint8Array): Solution {
+function solveNamed(
+  design: Design,
+  layout: ParameterLayout,
+  input: ZwdEstimationInput,
+  used: Uint8Array,
+  epochStates: EpochStateSolver | null,
+): Solution {
   try {
-    // States at every epoch (the default): the block tridiagonal solver; it returns null on a small
-    // pivot, and the frontal solver then names the undetermined parameter.
-    return (hasEpochStates(design) ? solveEpochStates(design, input.options, used) : null) ?? solveOnce(design, input.options, used);
+    // The block tridiagonal solver returns null on a small pivot: the frontal solver then names the
+    // undetermined parameter.
+    return epochStates?.solve(used) ?? solveOnce(design, input.options, used);
   } catch (err) {
     if (!(err instanceof SingularParameterError)) throw err;
     throw new ModelDomainError('observations', singularMessage(design, layout, input, used, err.parameter), 422);

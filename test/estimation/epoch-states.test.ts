@@ -203,7 +203,11 @@ describe('estimateZwd end to end against the frontal path (default options: scre
   /** estimateZwd with the block solver switched off: every solution through the frontal LDLᵀ, as before issue 14. */
   async function frontalEstimator(): Promise<typeof estimateZwd> {
     vi.resetModules();
-    vi.doMock('../../src/estimation/epoch-states.js', () => ({ hasEpochStates: () => false, solveEpochStates: () => null }));
+    vi.doMock('../../src/estimation/epoch-states.js', () => ({
+      hasEpochStates: () => false,
+      solveEpochStates: () => null,
+      EpochStateSolver: class {},
+    }));
     const module = await import('../../src/estimation/estimate.js');
     vi.doUnmock('../../src/estimation/epoch-states.js');
     return module.estimateZwd;
