@@ -20,12 +20,13 @@
  * one (PIVOT_TOLERANCE against the parameter's own accumulated diagonal). On a small pivot this
  * solver gives up (returns null) and the caller runs the frontal solver, which names the parameter.
  *
- * The numbers equal the frontal solver's up to rounding (the same sums, the products in another
- * order): test/estimation/epoch-states.test.ts compares the two.
+ * The numbers equal the frontal solver's up to rounding (the same system; the epoch sums in one pass
+ * about a reference observation, the products in another order): test/estimation/epoch-states.test.ts
+ * compares the two (measured on the benchmark days: ZWD within 4e-14 m, σ within 1.4e-11 relative).
  *
- * Cost per solution: two passes over the observations for the sums (as before), then a few dozen
- * flops per epoch, against the front's slot bookkeeping per parameter; and two passes for the
- * residuals, which reuse the epoch means of the assembly.
+ * Cost per solution: one pass over the observations for the sums and one for the residuals (with the
+ * epoch means of the assembly; least-squares.ts takes two each), and a few dozen flops per epoch
+ * instead of the front's slot bookkeeping per parameter.
  */
 
 import type { Design } from './design.js';
