@@ -222,6 +222,21 @@ describe('estimateZwd end to end against the frontal path (default options: scre
       expectEstimatesAgree(fast, reference(input));
     }
   });
+
+  it('the synthetic generator day: own sigmas on half the observations, two variance components, one rejection per solution', async () => {
+    const reference = await frontalEstimator();
+    const data = generateSyntheticResiduals({ durationS: 86_400, latitudeDeg: 46.2 });
+    const input = toEstimationInput(
+      data,
+      46.2,
+      { weighting: 'elevation-components', scaleSigmas: true, outlierRejection: 'one-per-solution' },
+      true,
+    );
+    input.observations.sigmaM = input.observations.sigmaM!.map((sigma, i) => (i % 2 === 0 ? sigma : null));
+    const fast = estimateZwd(input);
+    expect(fast.rejected.length).toBeGreaterThan(1);
+    expectEstimatesAgree(fast, reference(input));
+  });
 });
 
 describe('residual autocorrelation over regular runs against the pair-by-pair definition', () => {
