@@ -10,11 +10,13 @@
  * (random-walk states at every epoch, 300 s output nodes, 6 h gradient output nodes, epoch biases,
  * variance components, correlated-noise inflation, screening k = 4 one-per-window). Times are
  * ranges (min–max) and medians of repeated runs after warm-up, interleaved so that load from
- * other processes hits both sizes alike. Set BENCH_SKIP_DENSE=1 to skip the dense solver.
+ * other processes hits both sizes alike. Set BENCH_SKIP_DENSE=1 to skip the dense solver, and
+ * BENCH_ESTIMATION_REFERENCE=<root of an older source tree> to time its estimator against this one
+ * by turns (CPU time, the same process).
  */
 
 import { execFileSync } from 'node:child_process';
-import { fileURLToPath } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { generateSyntheticResiduals } from '../scripts/synthetic-residuals.js';
 import { estimateZwd } from '../src/estimation/estimate.js';
 import type { ZwdEstimationInput } from '../src/estimation/types.js';
@@ -73,6 +75,33 @@ function interleaved(inputs: ZwdEstimationInput[], rounds: number): Timing[] {
   return times.map((t, i) => summarise(t, solutions[i]!));
 }
 
+/**
+ * Before/after in one process: the estimator of an older source tree (BENCH_ESTIMATION_REFERENCE =
+ * its root, e.g. `git archive <commit> src | tar -x -C /tmp/before`, with node_modules linked) and
+ * this one, run by turns on the same inputs so that load from other processes hits both alike.
+ */
+async function againstReference(root: string, inputs: ZwdEstimationInput[]): Promise<string[]> {
+  const module = (await import(pathToFileURL(`${root}/src/estimation/estimate.ts`).href)) as { estimateZwd: typeof estimateZwd };
+  const before = module.estimateZwd;
+  const out: string[] = [];
+  for (const input of inputs) {
+    const times: [number[], number[]] = [[], []];
+    for (let r = 0; r < 33; r++) {
+      for (const [i, estimate] of [before, estimateZwd].entries()) {
+        const started = process.cpuUsage();
+        estimate(input);
+        const used = process.cpuUsage(started);
+        if (r >= 3) times[i]!.push((used.user + used.system) / 1000);
+      }
+    }
+    const [a, b] = times.map((t) => summarise(t, 0)) as [Timing, Timing];
+    out.push(
+      `  against ${root}, interleaved, ${input.observations.epochMs.length} observations, CPU ms median (range) over 30 runs: before ${a.median.toFixed(1)} (${a.min.toFixed(1)}–${a.max.toFixed(1)}), now ${b.median.toFixed(1)} (${b.min.toFixed(1)}–${b.max.toFixed(1)}): ${(b.median / a.median).toFixed(2)}×`,
+    );
+  }
+  return out;
+}
+
 export default async function (): Promise<string[]> {
   const lines: string[] = [];
   const oneDay = realisticDays(1);
@@ -93,13 +122,17 @@ export default async function (): Promise<string[]> {
   lines.push(
     `CPU time (process.cpuUsage), default options: GPS-like day (30 satellites, 7–11 in view) ${gps.observations.epochMs.length} observations: median ${gpsCpu.median.toFixed(1)} ms, range ${gpsCpu.min.toFixed(1)}–${gpsCpu.max.toFixed(1)} ms over 15 runs (${gpsCpu.solutions} solutions); the four-constellation day: median ${fourCpu.median.toFixed(1)} ms, range ${fourCpu.min.toFixed(1)}–${fourCpu.max.toFixed(1)} ms over 9 runs`,
   );
+  const reference = process.env.BENCH_ESTIMATION_REFERENCE;
+  if (reference) lines.push(...(await againstReference(reference, [gps, oneDay])));
   const plain = (input: ZwdEstimationInput) => ({
     ...input,
     options: { ...input.options, outlierThreshold: null, scaleSigmas: false, correlatedNoise: false },
   });
-  const [p1] = interleaved([plain(oneDay)], 5) as [Timing];
+  // Warm-up first: without screening and the other steps the JIT meets new paths (cold runs cost 5–10×).
+  interleaved([plain(oneDay)], 5);
+  const [p1] = interleaved([plain(oneDay)], 9) as [Timing];
   lines.push(
-    `  one solution of the same day (no screening, no variance components, no correlated-noise step): median ${p1.median.toFixed(0)} ms, range ${p1.min.toFixed(0)}–${p1.max.toFixed(0)} ms`,
+    `  one solution of the same day (no screening, no variance components, no correlated-noise step): median ${p1.median.toFixed(0)} ms, range ${p1.min.toFixed(0)}–${p1.max.toFixed(0)} ms over 9 runs after 5 warm-up runs`,
   );
 
   const child = fileURLToPath(new URL('./estimation-memory.child.ts', import.meta.url));

@@ -97,22 +97,37 @@ export function residualAutocorrelation(
   // lags between are interpolated linearly).
   const lags: number[] = [];
   for (let m = 1; m <= maxLag; m += m < DENSE_LAGS ? 1 : LAG_STEP) lags.push(m);
+  // Runs: stretches of an arc whose consecutive epochs are exactly one sampling interval apart.
+  // When every other step of an arc is longer than an interval and a millisecond, a pair m places
+  // apart is m intervals apart (within 0.5 ms) exactly when both lie in one run: the lag loop then
+  // visits the runs instead of testing every pair (the same pairs, summed in the same order).
+  const runs = regularRuns(t, start, counts.length, samplingMs);
   // Lag by lag, each over every arc, until the first lag that is not significant (the lags after it
   // are never needed).
   const rho: number[] = [];
+  // With runs, four lags are summed in one pass (four independent sums, each over the same terms in
+  // the same order as lag by lag): up to three lags past the last significant one are summed in vain.
+  const group = new Float64Array(2 * LAG_GROUP);
   for (let l = 0; l < lags.length; l++) {
     const m = lags[l]!;
     const spanMs = m * samplingMs;
     let sum = 0;
     let pairs = 0;
-    for (let id = 0; id < counts.length; id++) {
-      const end = start[id + 1]! - m;
-      // In an arc without gaps the partner m intervals on is m places on; where the arc has a gap
-      // the pair is skipped (pairs are lost independently of their values: no bias).
-      for (let i = start[id]!; i < end; i++) {
-        if (Math.abs(t[i + m]! - t[i]! - spanMs) > 0.5) continue;
-        sum += z[i]! * z[i + m]!;
-        pairs++;
+    if (runs) {
+      const g = l % LAG_GROUP;
+      if (g === 0) runLagSums(z, runs, lags, l, group);
+      sum = group[g]!;
+      pairs = group[LAG_GROUP + g]!;
+    } else {
+      for (let id = 0; id < counts.length; id++) {
+        const end = start[id + 1]! - m;
+        // In an arc without gaps the partner m intervals on is m places on; where the arc has a gap
+        // the pair is skipped (pairs are lost independently of their values: no bias).
+        for (let i = start[id]!; i < end; i++) {
+          if (Math.abs(t[i + m]! - t[i]! - spanMs) > 0.5) continue;
+          sum += z[i]! * z[i + m]!;
+          pairs++;
+        }
       }
     }
     if (pairs < 10) break;
@@ -125,6 +140,83 @@ export function residualAutocorrelation(
     rho.push(r);
   }
   return rho;
+}
+
+/** Lags summed together over the runs. */
+const LAG_GROUP = 4;
+
+/**
+ * Σ z_i z_{i+m} over the pairs within the runs, and the number of pairs, for the lags
+ * lags[l..l+LAG_GROUP) (the last one repeated past the end): sums in out[0..LAG_GROUP), pairs after them.
+ */
+function runLagSums(z: Float64Array, runs: Int32Array, lags: readonly number[], l: number, out: Float64Array): void {
+  const last = lags.length - 1;
+  const m0 = lags[l]!;
+  const m1 = lags[Math.min(l + 1, last)]!;
+  const m2 = lags[Math.min(l + 2, last)]!;
+  const m3 = lags[Math.min(l + 3, last)]!;
+  let s0 = 0,
+    s1 = 0,
+    s2 = 0,
+    s3 = 0;
+  let p0 = 0,
+    p1 = 0,
+    p2 = 0,
+    p3 = 0;
+  for (let r = 0; r < runs.length; r += 2) {
+    const a = runs[r]!;
+    const e = runs[r + 1]!;
+    // Pairs of all four lags (m0 ≤ m1 ≤ m2 ≤ m3), then the further pairs of the shorter lags, i ascending for each.
+    const common = e - m3;
+    let i = a;
+    for (; i < common; i++) {
+      const zi = z[i]!;
+      s0 += zi * z[i + m0]!;
+      s1 += zi * z[i + m1]!;
+      s2 += zi * z[i + m2]!;
+      s3 += zi * z[i + m3]!;
+    }
+    for (let j = i; j < e - m2; j++) s2 += z[j]! * z[j + m2]!;
+    for (let j = i; j < e - m1; j++) s1 += z[j]! * z[j + m1]!;
+    for (let j = i; j < e - m0; j++) s0 += z[j]! * z[j + m0]!;
+    if (e - m0 > a) p0 += e - m0 - a;
+    if (e - m1 > a) p1 += e - m1 - a;
+    if (e - m2 > a) p2 += e - m2 - a;
+    if (e - m3 > a) p3 += e - m3 - a;
+  }
+  out[0] = s0;
+  out[1] = s1;
+  out[2] = s2;
+  out[3] = s3;
+  out[4] = p0;
+  out[5] = p1;
+  out[6] = p2;
+  out[7] = p3;
+}
+
+/**
+ * [start, end) of every run of consecutive epochs exactly samplingMs apart, arc after arc (flat
+ * pairs), or null when some step within an arc is neither samplingMs nor longer than samplingMs + 1 ms
+ * (irregular sampling: the caller then tests every pair).
+ */
+function regularRuns(t: Float64Array, arcStart: Int32Array, arcs: number, samplingMs: number): Int32Array | null {
+  const out = new Int32Array(2 * t.length);
+  let n = 0;
+  for (let id = 0; id < arcs; id++) {
+    const end = arcStart[id + 1]!;
+    let runStart = arcStart[id]!;
+    for (let i = runStart + 1; i <= end; i++) {
+      if (i < end) {
+        const step = t[i]! - t[i - 1]!;
+        if (step === samplingMs) continue;
+        if (!(step > samplingMs + 1)) return null;
+      }
+      out[n++] = runStart;
+      out[n++] = i;
+      runStart = i;
+    }
+  }
+  return out.subarray(0, n);
 }
 
 /**
@@ -143,11 +235,14 @@ export function varianceInflation(information: number, stepVariance: number | nu
   } else {
     const l2 = lambda * lambda;
     const s0 = (1 + l2) / (1 - l2);
+    // Σ ρ(m) S(m)/S(0), S(0) divided out once (it runs per epoch and family over every lag).
+    const c = 2 / (1 - l2);
     let lm = 1;
     for (let m = 1; m <= rho.length; m++) {
       lm *= lambda;
-      sum += (rho[m - 1]! * lm * (2 / (1 - l2) + m - 1)) / s0;
+      sum += rho[m - 1]! * lm * (c + m - 1);
     }
+    sum /= s0;
   }
   const r = 1 + 2 * sum;
   const noiseShare = (1 + lambda * lambda) / (1 + lambda) ** 2;

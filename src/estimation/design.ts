@@ -122,6 +122,8 @@ export interface Design {
   northMapping: Float64Array;
   eastMapping: Float64Array;
   elevationRad: Float64Array;
+  /** sin²e of each observation [-] (the elevation weighting and the variance components, computed once). */
+  sinElevationSquared: Float64Array;
   /** Satellite of each observation as an index 0..satelliteCount−1 (in order of first appearance in the input). */
   satelliteIndex: Int32Array;
   satelliteCount: number;
@@ -153,29 +155,38 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   const n = obs.epochMs.length;
 
   // All observations in epoch order (stable sort: ties keep the input order); duplicates are
-  // checked on all of them, then those below the cutoff are dropped (and counted).
-  const all = new Array<number>(n);
-  for (let i = 0; i < n; i++) all[i] = i;
+  // checked on all of them, then those below the cutoff are dropped (and counted). Typed arrays and
+  // counted loops (no per-observation pushes): this runs once per request over every observation.
   let sorted = true;
   for (let i = 1; i < n && sorted; i++) sorted = obs.epochMs[i - 1]! <= obs.epochMs[i]!;
-  if (!sorted) all.sort((a, b) => obs.epochMs[a]! - obs.epochMs[b]!);
+  let all: Int32Array;
+  if (sorted) {
+    all = new Int32Array(n);
+    for (let i = 0; i < n; i++) all[i] = i;
+  } else {
+    const order = new Array<number>(n);
+    for (let i = 0; i < n; i++) order[i] = i;
+    order.sort((a, b) => obs.epochMs[a]! - obs.epochMs[b]!);
+    all = Int32Array.from(order);
+  }
   const satellites = satelliteIndices(obs.satellite);
   checkDuplicates(input, all, satellites);
-  const kept: number[] = [];
-  let belowCutoff = 0;
-  for (const i of all) {
-    if (obs.elevationRad[i]! < options.elevationCutoffRad) belowCutoff++;
-    else kept.push(i);
+  const kept = new Int32Array(n);
+  let m = 0;
+  const cutoff = options.elevationCutoffRad;
+  for (let a = 0; a < n; a++) {
+    const i = all[a]!;
+    if (obs.elevationRad[i]! >= cutoff) kept[m++] = i;
   }
-  if (kept.length === 0) {
+  const belowCutoff = n - m;
+  if (m === 0) {
     throw new ModelDomainError(
       'observations',
       `none of the ${n} observations is at or above the elevation cutoff (${((options.elevationCutoffRad * 180) / Math.PI).toFixed(2)}°); lower options.elevation_cutoff_deg or send higher observations`,
       422,
     );
   }
-  const m = kept.length;
-  const inputIndex = Int32Array.from(kept);
+  const inputIndex = kept.slice(0, m);
 
   const epochStarts: number[] = [];
   const epochTimes: number[] = [];
@@ -198,6 +209,7 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   const northMapping = new Float64Array(m);
   const eastMapping = new Float64Array(m);
   const elevationRad = new Float64Array(m);
+  const sinElevationSquared = new Float64Array(m);
   const satelliteIndex = new Int32Array(m);
   for (let k = 0; k < epochTimes.length; k++) {
     const wet = wetAt(k);
@@ -213,11 +225,13 @@ export function buildDesign(input: ZwdEstimationInput): Design {
     northMapping[s] = mg * Math.cos(obs.azimuthRad[i]!);
     eastMapping[s] = mg * Math.sin(obs.azimuthRad[i]!);
     elevationRad[s] = e;
+    const sinE = Math.sin(e);
+    sinElevationSquared[s] = sinE * sinE;
     satelliteIndex[s] = satellites.index[i]!;
   }
 
   const { a, b } = initialWeighting(options);
-  setWeights({ elevationRad, givenSigmaM, sigmaM, weight }, a, b, 1);
+  setWeights({ sinElevationSquared, givenSigmaM, sigmaM, weight }, a, b, 1);
 
   const epochs = epochTimes.length;
   const first = epochTimes[0]!;
@@ -245,12 +259,20 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   const zwdAlpha = new Float64Array(epochs);
   const gradientInterval = new Int32Array(epochs);
   const gradientAlpha = new Float64Array(epochs);
+  // States at every epoch: epoch k is state k (the last epoch: interval K − 2 at α = 1), what
+  // locate's bisection finds, without it.
+  const at = (layout: NodeLayout, k: number) =>
+    layout.regular || layout.count < 2
+      ? locate(layout, epochTimes[k]!)
+      : k + 1 < layout.count
+        ? { interval: k, alpha: 0 }
+        : { interval: k - 1, alpha: 1 };
   for (let k = 0; k < epochs; k++) {
-    const z = locate(zwd, epochTimes[k]!);
+    const z = at(zwd, k);
     zwdInterval[k] = z.interval;
     zwdAlpha[k] = z.alpha;
     if (gradients) {
-      const g = locate(gradients, epochTimes[k]!);
+      const g = at(gradients, k);
       gradientInterval[k] = g.interval;
       gradientAlpha[k] = g.alpha;
     }
@@ -268,6 +290,7 @@ export function buildDesign(input: ZwdEstimationInput): Design {
     northMapping,
     eastMapping,
     elevationRad,
+    sinElevationSquared,
     satelliteIndex,
     satelliteCount: satellites.count,
     samplingMs: medianSpacingMs(epochMsAll),
@@ -299,15 +322,14 @@ export function initialWeighting(options: ZwdEstimationInput['options']): { a: n
  * for the others (scale: the observations' variance factor of the caller's sigmas).
  */
 export function setWeights(
-  d: Pick<Design, 'elevationRad' | 'givenSigmaM' | 'sigmaM' | 'weight'>,
+  d: Pick<Design, 'sinElevationSquared' | 'givenSigmaM' | 'sigmaM' | 'weight'>,
   a: number,
   b: number,
   givenScale: number,
 ): void {
   for (let s = 0; s < d.sigmaM.length; s++) {
     const given = d.givenSigmaM[s]!;
-    const sinE = Math.sin(d.elevationRad[s]!);
-    const variance = Number.isNaN(given) ? a * a + (b * b) / (sinE * sinE) : given * given * givenScale;
+    const variance = Number.isNaN(given) ? a * a + (b * b) / d.sinElevationSquared[s]! : given * given * givenScale;
     d.sigmaM[s] = Math.sqrt(variance);
     d.weight[s] = 1 / variance;
   }
@@ -387,18 +409,15 @@ function satelliteIndices(satellite: readonly string[]): { index: Int32Array; co
 }
 
 /** A satellite observed twice at one epoch is a caller's mistake (400), named by both indices. */
-function checkDuplicates(
-  input: ZwdEstimationInput,
-  sortedByEpoch: readonly number[],
-  satellites: { index: Int32Array; count: number },
-): void {
+function checkDuplicates(input: ZwdEstimationInput, sortedByEpoch: Int32Array, satellites: { index: Int32Array; count: number }): void {
   const { epochMs, satellite } = input.observations;
   // Per satellite: the epoch (by its running number) and the observation where it was last seen.
   const seenInEpoch = new Int32Array(satellites.count).fill(-1);
   const seenAt = new Int32Array(satellites.count);
   let currentEpoch = Number.NaN;
   let epochNumber = -1;
-  for (const i of sortedByEpoch) {
+  for (let r = 0; r < sortedByEpoch.length; r++) {
+    const i = sortedByEpoch[r]!;
     if (epochMs[i] !== currentEpoch) {
       currentEpoch = epochMs[i]!;
       epochNumber++;

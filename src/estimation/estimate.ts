@@ -16,6 +16,7 @@
 import { ModelDomainError } from '../domain/errors.js';
 import { epochInformation, kernelFactor, noiseInflation, type NoiseInflation } from './correlated-noise.js';
 import { buildDesign, initialWeighting, locate, nodeEpochMs, setWeights, type Design, type NodeLayout } from './design.js';
+import { EpochStateSolver, hasEpochStates } from './epoch-states.js';
 import { SingularParameterError } from './frontal-ldl.js';
 import { epochStateRejectionWindowMs, nodeRejectionWindowMs, rejectionCandidates } from './outliers.js';
 import { MIN_TESTABLE_REDUNDANCY, parameterLayout, solveOnce, type ParameterLayout, type Solution } from './least-squares.js';
@@ -62,6 +63,8 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
   let weighting = initialWeighting(options);
   let givenScale = 1;
   let reweightings = 0;
+  // States at every epoch (the default): the block tridiagonal solver, its arrays reused from solution to solution.
+  const epochStates = hasEpochStates(design) ? new EpochStateSolver(design, options) : null;
   const unknownsOf = (s: Solution) => layout.parameters + (options.epochBias ? s.epochsUsed : 0);
 
   // Each pass (screening.ts): solve; re-estimate the observation weights (variance components, from
@@ -69,19 +72,13 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
   // while either changed anything.
   const screened = screenedSolution(
     {
-      solve: () => solveNamed(design, layout, input, used),
+      solve: () => solveNamed(design, layout, input, used, epochStates),
       varianceFactor: (s) => {
         const dof = s.observationsUsed + s.constraints - unknownsOf(s);
         return dof > 0 ? s.weightedSquareSum / dof : null;
       },
       candidates: (s, sigmaZero) =>
-        rejectionCandidates(
-          design,
-          s,
-          used,
-          sigmaZero,
-          options.outlierThreshold!,
-          options.outlierRejection,
+        rejectionCandidates(design, s, used, sigmaZero, options.outlierThreshold!, options.outlierRejection, () =>
           rejectionWindowMs(input, design, layout, s),
         ),
       normalizedResidual: (c) => c.normalizedResidual,
@@ -234,10 +231,17 @@ function elevationBands(
   const sumTau2 = new Float64Array(nb);
   const tested = new Float64Array(nb);
   const rejectedCount = new Float64Array(nb);
+  // The band of an elevation: the last lower edge at or below it (a bisection of the edges; the
+  // first band takes anything below 5°, the last anything above 60°).
   const band = (e: number) => {
-    let b = 0;
-    while (b < nb - 1 && e >= edges[b + 1]!) b++;
-    return b;
+    let lo = 0;
+    let hi = nb - 1;
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (e >= edges[mid]!) lo = mid;
+      else hi = mid - 1;
+    }
+    return lo;
   };
   for (let s = 0; s < used.length; s++) {
     if (!used[s]) continue;
@@ -282,9 +286,17 @@ function checkColumns(input: ZwdEstimationInput): void {
   if (n === 0) throw new ModelDomainError('observations', 'at least one observation is needed', 400);
 }
 
-function solveNamed(design: Design, layout: ParameterLayout, input: ZwdEstimationInput, used: Uint8Array): Solution {
+function solveNamed(
+  design: Design,
+  layout: ParameterLayout,
+  input: ZwdEstimationInput,
+  used: Uint8Array,
+  epochStates: EpochStateSolver | null,
+): Solution {
   try {
-    return solveOnce(design, input.options, used);
+    // The block tridiagonal solver returns null on a small pivot: the frontal solver then names the
+    // undetermined parameter.
+    return epochStates?.solve(used) ?? solveOnce(design, input.options, used);
   } catch (err) {
     if (!(err instanceof SingularParameterError)) throw err;
     throw new ModelDomainError('observations', singularMessage(design, layout, input, used, err.parameter), 422);

@@ -32,7 +32,7 @@
  */
 
 import type { Design } from './design.js';
-import { FrontalLdl, type SelectedInverse } from './frontal-ldl.js';
+import { FrontalLdl } from './frontal-ldl.js';
 import type { PiecewiseLinearSettings, ZwdEstimationOptions } from './types.js';
 
 /** Parameters touched by one epoch: ZWD nodes j, j+1 and, with gradients, north l, l+1 and east l, l+1. */
@@ -55,9 +55,17 @@ export function parameterLayout(design: Design): ParameterLayout {
   return { zwdCount, gradientCount, northOffset: zwdCount, eastOffset: zwdCount + gradientCount, parameters: zwdCount + 2 * gradientCount };
 }
 
+/** Elements of N⁻¹ a solution provides: the diagonal, and get(p, q) on the solver's pattern. */
+export interface InverseElements {
+  readonly diagonal: Float64Array;
+  /** (N⁻¹)_pq; throws outside the computed pattern. */
+  get(p: number, q: number): number;
+}
+
 export interface Solution {
   x: Float64Array;
-  inverse: SelectedInverse;
+  /** Every pair of parameters that share an epoch, and consecutive states of one family, are on the pattern. */
+  inverse: InverseElements;
   /** b̂_k per epoch [m]; NaN when the epoch has no used observation or biases are off. */
   biasM: Float64Array;
   /** Post-fit residual v_i per design observation [m] (0 for unused ones). */
@@ -343,7 +351,7 @@ function postFitResiduals(
   bias: boolean,
   used: Uint8Array,
   x: Float64Array,
-  inverse: SelectedInverse,
+  inverse: InverseElements,
 ) {
   const withGradients = layout.gradientCount > 0;
   const nLocal = withGradients ? LOCAL_PARAMETERS : 2;

@@ -73,6 +73,7 @@ export function epochStateRejectionWindowMs(lambdas: readonly number[], sampling
  *
  * @param sigmaZero σ̂0 (√variance factor), or 1 when the degrees of freedom are 0
  * @param threshold k
+ * @param windowMs the window W of "one-per-window" mode [ms], evaluated only when two or more candidates compete
  */
 export function rejectionCandidates(
   design: Design,
@@ -81,36 +82,47 @@ export function rejectionCandidates(
   sigmaZero: number,
   threshold: number,
   mode: OutlierRejectionMode,
-  windowMs: number,
+  windowMs: () => number,
 ): RejectionCandidate[] {
   const above: RejectionCandidate[] = [];
+  // |τ| > k needs v² > (k σ̂0)² σ_v²: observations below that bound less a relative 1e-9 (far more
+  // than the rounding of either form) are passed over without the square root; the others get τ exactly.
+  const bound = (threshold * sigmaZero) ** 2 * (1 - 1e-9);
   for (let s = 0; s < used.length; s++) {
     if (!used[s]) continue;
     const sigma = design.sigmaM[s]!;
     const qv = solution.residualVarianceM2[s]!;
     if (!(qv > MIN_TESTABLE_REDUNDANCY * sigma * sigma)) continue;
+    const v = solution.fittedResidualM[s]!;
+    if (v * v <= bound * qv) continue;
     const tau = solution.fittedResidualM[s]! / (sigmaZero * Math.sqrt(qv));
     if (Math.abs(tau) > threshold) above.push({ index: s, normalizedResidual: tau });
   }
   if (above.length === 0) return [];
   above.sort((a, b) => Math.abs(b.normalizedResidual) - Math.abs(a.normalizedResidual) || a.index - b.index);
-  if (mode === 'one-per-solution') return [above[0]!];
+  if (mode === 'one-per-solution' || above.length === 1) return [above[0]!];
+  const window = windowMs();
 
   // Greedy in decreasing |τ|: a candidate is taken when no taken one is within the window.
-  const epochOf = epochIndexOf(design);
   const takenMs: number[] = [];
   const out: RejectionCandidate[] = [];
   for (const c of above) {
-    const t = design.epochMs[epochOf[c.index]!]!;
-    if (takenMs.some((u) => Math.abs(u - t) < windowMs)) continue;
+    const t = design.epochMs[epochIndexOf(design.epochStart, c.index)]!;
+    if (takenMs.some((u) => Math.abs(u - t) < window)) continue;
     takenMs.push(t);
     out.push(c);
   }
   return out;
 }
 
-function epochIndexOf(design: Design): Int32Array {
-  const out = new Int32Array(design.residualM.length);
-  for (let k = 0; k + 1 < design.epochStart.length; k++) out.fill(k, design.epochStart[k]!, design.epochStart[k + 1]!);
-  return out;
+/** Epoch k of design observation s: epochStart[k] ≤ s < epochStart[k + 1] (binary search; candidates are few). */
+function epochIndexOf(epochStart: Int32Array, s: number): number {
+  let lo = 0;
+  let hi = epochStart.length - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (epochStart[mid]! <= s) lo = mid;
+    else hi = mid;
+  }
+  return lo;
 }

@@ -9,7 +9,7 @@ import type { WeightingScheme } from './types.js';
 
 /** One station's observations: its design (sigmas, elevations), post-fit residuals and σ_v², used flags. */
 export interface VarianceComponentPart {
-  design: Pick<Design, 'sigmaM' | 'givenSigmaM' | 'elevationRad'>;
+  design: Pick<Design, 'sigmaM' | 'givenSigmaM' | 'sinElevationSquared'>;
   fittedResidualM: Float64Array;
   residualVarianceM2: Float64Array;
   used: Uint8Array;
@@ -60,7 +60,7 @@ export function varianceComponents(
         givenRedundancy += r;
         continue;
       }
-      const g = 1 / Math.sin(design.elevationRad[s]!) ** 2;
+      const g = 1 / design.sinElevationSquared[s]!;
       const omega = 1 / (r * sigma2) ** 2;
       const ua = r;
       const ub = r * g;
