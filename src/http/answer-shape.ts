@@ -8,7 +8,9 @@
  *                                                        of the answer as JSON in the schema metadata "answer"
  */
 
-import { tableFromArrays, tableToIPC, tableFromIPC, type Table } from 'apache-arrow';
+import { Message, tableFromArrays, tableToIPC, tableFromIPC, type Table } from 'apache-arrow';
+import { RecordBatch as RecordBatchHeader } from 'apache-arrow/ipc/metadata/message';
+import { VectorAssembler } from 'apache-arrow/visitor/vectorassembler';
 import { z } from 'zod';
 import { FormatError } from '../formats/format-error.js';
 import type { JsonColumn } from '../formats/json-columns.js';
@@ -107,7 +109,54 @@ export function arrowAnswer(
   for (const name of fields ?? Object.keys(columns)) if (columns[name]) chosen[name] = columns[name];
   const table = tableFromArrays(chosen) as Table;
   table.schema.metadata.set('answer', JSON.stringify(rest));
-  return tableToIPC(table, 'stream');
+  return ipcStreamBytes(table);
+}
+
+const CONTINUATION = -1;
+const align8 = (n: number) => (n + 7) & ~7;
+
+/**
+ * tableToIPC(table, 'stream'), byte for byte, written into one buffer of its exact size: the messages are
+ * encoded by apache-arrow itself (Message.encode of the schema and of each record batch's header, the body
+ * laid out by its VectorAssembler), only the stream writer's chunk queue and the join of its chunks are left
+ * out (a tenth of a 10 000-direction Arrow answer's CPU). The stream, as the writer writes it (Arrow columnar
+ * format, "Encapsulated message format" and "IPC Streaming Format"): per message the continuation marker
+ * 0xFFFFFFFF, the metadata size, the flatbuffer padded to 8 bytes, then the body buffers each padded to 8;
+ * the end-of-stream marker 0xFFFFFFFF 0x00000000. Tables with dictionaries take tableToIPC.
+ */
+export function ipcStreamBytes(table: Table): Uint8Array {
+  if (table.batches.some((batch) => batch.dictionaries.size > 0)) return tableToIPC(table, 'stream');
+  const schema = Message.encode(Message.from(table.schema));
+  const batches = table.batches.map((batch) => {
+    const body = VectorAssembler.assemble(batch);
+    const header = Message.encode(Message.from(new RecordBatchHeader(batch.numRows, body.nodes, body.bufferRegions), body.byteLength));
+    return { header, buffers: body.buffers };
+  });
+  let size = align8(8 + schema.byteLength) + 8; // the schema message and the end-of-stream marker
+  for (const { header, buffers } of batches) {
+    size += align8(8 + header.byteLength);
+    for (const buffer of buffers) size += align8(buffer.byteLength);
+  }
+  const bytes = new Uint8Array(size); // zero-filled: the padding
+  const view = new DataView(bytes.buffer);
+  let at = 0;
+  const message = (flatbuffer: Uint8Array) => {
+    const aligned = align8(8 + flatbuffer.byteLength);
+    view.setInt32(at, CONTINUATION, true);
+    view.setInt32(at + 4, aligned - 8, true);
+    bytes.set(flatbuffer, at + 8);
+    at += aligned;
+  };
+  message(schema);
+  for (const { header, buffers } of batches) {
+    message(header);
+    for (const buffer of buffers) {
+      bytes.set(new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength), at);
+      at += align8(buffer.byteLength);
+    }
+  }
+  view.setInt32(at, CONTINUATION, true); // end of stream: the marker and a metadata size of 0
+  return bytes;
 }
 
 /** An Arrow column as a Float64Array when it is a number column without nulls (no copy for float64), else undefined. */

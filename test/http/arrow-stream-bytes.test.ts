@@ -1,0 +1,58 @@
+/**
+ * The Arrow answers' IPC stream written into one buffer (ipcStreamBytes, src/http/answer-shape.ts) against
+ * apache-arrow's own stream writer (tableToIPC, the library's reference implementation of the Arrow columnar
+ * format's "IPC Streaming Format"): the same bytes, for the slant answer's float64 columns with the answer in
+ * the schema metadata, and for a table with text, nulls, integers and several record batches; and read back
+ * by apache-arrow's reader (tableFromIPC, RecordBatchStreamReader) to the same values. pyarrow is not
+ * installed here; the reader of the library is the independent reader available (common practice).
+ */
+
+import { describe, expect, it } from 'vitest';
+import { RecordBatchStreamReader, Table, tableFromArrays, tableFromIPC, tableToIPC, vectorFromArray } from 'apache-arrow';
+import { mulberry32 } from '../../scripts/synthetic-residuals.js';
+import { arrowAnswer, ipcStreamBytes } from '../../src/http/answer-shape.js';
+
+const uniform = mulberry32(2014);
+const column = (n: number, scale: number) => Float64Array.from({ length: n }, () => (uniform() - 0.3) * scale);
+
+describe('ipcStreamBytes against apache-arrow tableToIPC (the Arrow IPC streaming format)', () => {
+  it('float64 columns of a 10 000-direction answer with the answer in the metadata: the same bytes', () => {
+    const columns = { elevation_deg: column(10_000, 90), mapping_wet: column(10_000, 10), total_m: column(10_000, 30) };
+    const table = tableFromArrays(columns) as Table;
+    table.schema.metadata.set('answer', JSON.stringify({ warnings: ['é'], provenance: { zhd: 'x' } }));
+    const bytes = ipcStreamBytes(table);
+    expect(Buffer.from(bytes).equals(Buffer.from(tableToIPC(table, 'stream')))).toBe(true);
+    const read = tableFromIPC(bytes);
+    expect(read.numRows).toBe(10_000);
+    expect(read.getChild('total_m')!.toArray()).toEqual(columns.total_m);
+    expect(JSON.parse(read.schema.metadata.get('answer')!)).toEqual({ warnings: ['é'], provenance: { zhd: 'x' } });
+  });
+
+  it('text, nulls, integers, odd lengths and two record batches: the same bytes, read back batch by batch', () => {
+    const first = tableFromArrays({ id: ['G01', 'E05', 'C19'], x: Float64Array.from([1.5, -2, 3]) }) as Table;
+    const second = new Table({
+      id: vectorFromArray(['R07', null, 'J02', 'G32', 'E11']),
+      x: vectorFromArray([0.25, null, 7, 8, 9]),
+    });
+    const table = first.concat(second);
+    table.schema.metadata.set('answer', '{}');
+    const bytes = ipcStreamBytes(table);
+    expect(Buffer.from(bytes).equals(Buffer.from(tableToIPC(table, 'stream')))).toBe(true);
+    const batches = [...RecordBatchStreamReader.from(bytes)];
+    expect(batches.map((b) => b.numRows)).toEqual([3, 5]);
+    expect([...tableFromIPC(bytes).getChild('id')!]).toEqual(['G01', 'E05', 'C19', 'R07', null, 'J02', 'G32', 'E11']);
+  });
+
+  it('an empty selection of rows: the schema and the end-of-stream marker, as tableToIPC writes them', () => {
+    const table = tableFromArrays({ total_m: new Float64Array(0) }) as Table;
+    expect(Buffer.from(ipcStreamBytes(table)).equals(Buffer.from(tableToIPC(table, 'stream')))).toBe(true);
+  });
+
+  it('arrowAnswer: the selected fields in the caller order, the rest of the answer in the metadata "answer"', () => {
+    const columns = { a: column(7, 1), b: column(7, 1), c: column(7, 1) };
+    const read = tableFromIPC(arrowAnswer(columns, ['c', 'a'], { zenith: { ztd_m: 2.4 } }));
+    expect(read.schema.fields.map((f) => f.name)).toEqual(['c', 'a']);
+    expect(read.getChild('c')!.toArray()).toEqual(columns.c);
+    expect(JSON.parse(read.schema.metadata.get('answer')!)).toEqual({ zenith: { ztd_m: 2.4 } });
+  });
+});
