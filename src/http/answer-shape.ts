@@ -116,13 +116,50 @@ const CONTINUATION = -1;
 const align8 = (n: number) => (n + 7) & ~7;
 
 /**
+ * Buffers of Arrow answers, handed back by the route once the answer has left (releaseAnswerBytes, called on
+ * the response's 'finish': Node has handed every byte to the operating system) and reused by the next answer on
+ * this thread. V8 counts every ArrayBuffer as external memory, and ~64 MB of them since the last full garbage
+ * collection start the next one, a mark of the whole service heap: with a fresh 0.7 MB buffer per 10 000
+ * directions that was one full collection every ~90 answers (issue 14). Only buffers up to
+ * POOLED_ANSWER_BYTES are kept, at most POOLED_ANSWERS of them; an answer made in a worker thread leaves with
+ * its buffer (moved), and comes back to this pool when released on the event loop.
+ */
+const POOLED_ANSWER_BYTES = 2 * 1024 * 1024;
+const POOLED_ANSWERS = 8;
+const freeAnswerBuffers: ArrayBuffer[] = [];
+const issuedAnswerBuffers = new WeakSet<ArrayBuffer>();
+
+/** size bytes, all 0, from the pool when one of its buffers fits (at most 4× larger), else new. */
+function answerBytes(size: number): Uint8Array {
+  if (size <= POOLED_ANSWER_BYTES) {
+    const i = freeAnswerBuffers.findIndex((b) => b.byteLength >= size && b.byteLength <= 4 * size);
+    if (i >= 0) return new Uint8Array(freeAnswerBuffers.splice(i, 1)[0]!, 0, size).fill(0);
+    const fresh = new ArrayBuffer(Math.max(size, 64 * 1024));
+    issuedAnswerBuffers.add(fresh);
+    return new Uint8Array(fresh, 0, size);
+  }
+  return new Uint8Array(size);
+}
+
+/**
+ * Hands the buffer of an answer made by ipcStreamBytes back to the pool. Call it only once nothing reads the
+ * bytes any more (the response's 'finish'); bytes of any other origin are ignored.
+ */
+export function releaseAnswerBytes(bytes: Uint8Array): void {
+  const buffer = bytes.buffer;
+  if (!(buffer instanceof ArrayBuffer) || !issuedAnswerBuffers.has(buffer) || buffer.byteLength === 0) return;
+  if (freeAnswerBuffers.length < POOLED_ANSWERS && !freeAnswerBuffers.includes(buffer)) freeAnswerBuffers.push(buffer);
+}
+
+/**
  * tableToIPC(table, 'stream'), byte for byte, written into one buffer of its exact size: the messages are
  * encoded by apache-arrow itself (Message.encode of the schema and of each record batch's header, the body
  * laid out by its VectorAssembler), only the stream writer's chunk queue and the join of its chunks are left
  * out (a tenth of a 10 000-direction Arrow answer's CPU). The stream, as the writer writes it (Arrow columnar
  * format, "Encapsulated message format" and "IPC Streaming Format"): per message the continuation marker
  * 0xFFFFFFFF, the metadata size, the flatbuffer padded to 8 bytes, then the body buffers each padded to 8;
- * the end-of-stream marker 0xFFFFFFFF 0x00000000. Tables with dictionaries take tableToIPC.
+ * the end-of-stream marker 0xFFFFFFFF 0x00000000. Tables with dictionaries take tableToIPC. The bytes may be a
+ * view of a pooled buffer: hand them back with releaseAnswerBytes once sent, or simply drop them.
  */
 export function ipcStreamBytes(table: Table): Uint8Array {
   if (table.batches.some((batch) => batch.dictionaries.size > 0)) return tableToIPC(table, 'stream');
@@ -137,8 +174,8 @@ export function ipcStreamBytes(table: Table): Uint8Array {
     size += align8(8 + header.byteLength);
     for (const buffer of buffers) size += align8(buffer.byteLength);
   }
-  const bytes = new Uint8Array(size); // zero-filled: the padding
-  const view = new DataView(bytes.buffer);
+  const bytes = answerBytes(size); // zero-filled: the padding
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   let at = 0;
   const message = (flatbuffer: Uint8Array) => {
     const aligned = align8(8 + flatbuffer.byteLength);

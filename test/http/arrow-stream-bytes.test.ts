@@ -4,13 +4,15 @@
  * format's "IPC Streaming Format"): the same bytes, for the slant answer's float64 columns with the answer in
  * the schema metadata, and for a table with text, nulls, integers and several record batches; and read back
  * by apache-arrow's reader (tableFromIPC, RecordBatchStreamReader) to the same values. pyarrow is not
- * installed here; the reader of the library is the independent reader available (common practice).
+ * installed here; the reader of the library is the independent reader available (common practice). A buffer
+ * handed back (releaseAnswerBytes) is reused, and the answer written into it is still tableToIPC's bytes, its
+ * padding zeroed over what the buffer held before.
  */
 
 import { describe, expect, it } from 'vitest';
 import { RecordBatchStreamReader, Table, tableFromArrays, tableFromIPC, tableToIPC, vectorFromArray } from 'apache-arrow';
 import { mulberry32 } from '../../scripts/synthetic-residuals.js';
-import { arrowAnswer, ipcStreamBytes } from '../../src/http/answer-shape.js';
+import { arrowAnswer, ipcStreamBytes, releaseAnswerBytes } from '../../src/http/answer-shape.js';
 
 const uniform = mulberry32(2014);
 const column = (n: number, scale: number) => Float64Array.from({ length: n }, () => (uniform() - 0.3) * scale);
@@ -54,5 +56,23 @@ describe('ipcStreamBytes against apache-arrow tableToIPC (the Arrow IPC streamin
     expect(read.schema.fields.map((f) => f.name)).toEqual(['c', 'a']);
     expect(read.getChild('c')!.toArray()).toEqual(columns.c);
     expect(JSON.parse(read.schema.metadata.get('answer')!)).toEqual({ zenith: { ztd_m: 2.4 } });
+  });
+
+  it('a released answer buffer is reused, and the answer written into it is still the bytes of tableToIPC', () => {
+    const big = tableFromArrays({ a: Float64Array.from({ length: 9000 }, (_, i) => i - 0.5), b: new Float64Array(9000).fill(-1) }) as Table;
+    const first = ipcStreamBytes(big);
+    releaseAnswerBytes(first);
+    const small = tableFromArrays({
+      b: Float64Array.from({ length: 5001 }, (_, i) => i / 7),
+      c: Float64Array.from({ length: 5001 }, (_, i) => -i),
+    }) as Table;
+    small.schema.metadata.set('answer', '{"x":1}');
+    const second = ipcStreamBytes(small);
+    // The same memory, now with the smaller table: every byte (padding included) as tableToIPC writes it.
+    expect(second.buffer).toBe(first.buffer);
+    expect(Buffer.from(second).equals(Buffer.from(tableToIPC(small, 'stream')))).toBe(true);
+    const third = ipcStreamBytes(big);
+    expect(third.buffer).not.toBe(second.buffer); // still in use (not released)
+    expect(Buffer.from(third).equals(Buffer.from(tableToIPC(big, 'stream')))).toBe(true);
   });
 });

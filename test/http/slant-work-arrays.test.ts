@@ -8,6 +8,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { tableFromIPC } from 'apache-arrow';
+import type { AnswerShape } from '../../src/http/answer-shape.js';
 import { handleSlantDelaysRequest, type BatchTaskInput } from '../../src/http/tasks/apriori-batch.js';
 
 const site = { latitude_deg: -33.4, longitude_deg: 151.2, height_m: 35 };
@@ -46,7 +47,7 @@ describe('slant answers do not depend on the requests before them (reused work a
     const all = directions(n, 5);
     const request = (d: { elevation_deg: number[]; azimuth_deg: number[] }) =>
       new TextEncoder().encode(JSON.stringify({ site, epoch: '2026-01-05T00:00:00Z', met, directions: d }));
-    const arrow = { shape: 'rows', format: 'arrow', fields: ['total_m'] } as const;
+    const arrow: AnswerShape = { shape: 'rows', format: 'arrow', fields: ['total_m'] };
     const whole = tableFromIPC(await answer({ body: request(all), answer: arrow }))
       .getChild('total_m')!
       .toArray() as Float64Array;
