@@ -8,8 +8,8 @@
  *                                                        of the answer as JSON in the schema metadata "answer"
  */
 
-import { Message, tableFromArrays, tableToIPC, tableFromIPC, type Table } from 'apache-arrow';
-import { RecordBatch as RecordBatchHeader } from 'apache-arrow/ipc/metadata/message';
+import { Field, Float64, Message, Schema, tableFromArrays, tableToIPC, tableFromIPC, type Table } from 'apache-arrow';
+import { BufferRegion, FieldNode, RecordBatch as RecordBatchHeader } from 'apache-arrow/ipc/metadata/message';
 import { VectorAssembler } from 'apache-arrow/visitor/vectorassembler';
 import { z } from 'zod';
 import { FormatError } from '../formats/format-error.js';
@@ -107,9 +107,42 @@ export function arrowAnswer(
 ): Uint8Array {
   const chosen: Record<string, Float64Array | string[]> = {};
   for (const name of fields ?? Object.keys(columns)) if (columns[name]) chosen[name] = columns[name];
+  const answer = JSON.stringify(rest);
+  const numbers = Object.values(chosen);
+  if (numbers.length > 0 && numbers[0]!.length > 0 && numbers.every((c) => c instanceof Float64Array && c.length === numbers[0]!.length)) {
+    return float64StreamBytes(chosen as Record<string, Float64Array>, answer);
+  }
   const table = tableFromArrays(chosen) as Table;
-  table.schema.metadata.set('answer', JSON.stringify(rest));
+  table.schema.metadata.set('answer', answer);
   return ipcStreamBytes(table);
+}
+
+/**
+ * Float64 columns of one length (at least one row) without nulls, and the answer in the schema metadata "answer": the bytes of
+ * ipcStreamBytes(tableFromArrays(columns)) (tested byte for byte against tableToIPC), without the Table, its
+ * vectors and the VectorAssembler's walk over them (a sixth of an Arrow answer's CPU): the schema (each column
+ * a float64 field, not nullable, as tableFromArrays makes it) and the record batch header are written by
+ * apache-arrow's Message.encode; the body is, per column, an empty validity buffer and the values. (tableFromArrays
+ * marks a float64 column without nulls not nullable, and an empty one nullable: the empty answer takes the Table.)
+ */
+function float64StreamBytes(columns: Record<string, Float64Array>, answer: string): Uint8Array {
+  const names = Object.keys(columns);
+  const n = columns[names[0]!]!.length;
+  const schema = new Schema(
+    names.map((name) => new Field(name, new Float64(), false)),
+    new Map([['answer', answer]]),
+  );
+  const nodes: FieldNode[] = [];
+  const regions: BufferRegion[] = [];
+  let bodyLength = 0;
+  for (let i = 0; i < names.length; i++) {
+    nodes.push(new FieldNode(n, 0));
+    regions.push(new BufferRegion(bodyLength, 0), new BufferRegion(bodyLength, align8(8 * n)));
+    bodyLength += align8(8 * n);
+  }
+  const schemaMessage = Message.encode(Message.from(schema));
+  const header = Message.encode(Message.from(new RecordBatchHeader(n, nodes, regions), bodyLength));
+  return streamOf(schemaMessage, [{ header, buffers: names.map((name) => columns[name]!) }]);
 }
 
 const CONTINUATION = -1;
@@ -169,6 +202,11 @@ export function ipcStreamBytes(table: Table): Uint8Array {
     const header = Message.encode(Message.from(new RecordBatchHeader(batch.numRows, body.nodes, body.bufferRegions), body.byteLength));
     return { header, buffers: body.buffers };
   });
+  return streamOf(schema, batches);
+}
+
+/** The stream of an encoded schema message and record batches (encoded header, body buffers), in one buffer. */
+function streamOf(schema: Uint8Array, batches: { header: Uint8Array; buffers: ArrayBufferView[] }[]): Uint8Array {
   let size = align8(8 + schema.byteLength) + 8; // the schema message and the end-of-stream marker
   for (const { header, buffers } of batches) {
     size += align8(8 + header.byteLength);

@@ -50,6 +50,18 @@ describe('ipcStreamBytes against apache-arrow tableToIPC (the Arrow IPC streamin
     expect(Buffer.from(ipcStreamBytes(table)).equals(Buffer.from(tableToIPC(table, 'stream')))).toBe(true);
   });
 
+  for (const n of [10_000, 1, 0]) {
+    it(`arrowAnswer of ${n} float64 rows (written without a Table): the bytes of tableToIPC(tableFromArrays(…))`, () => {
+      const columns = { elevation_deg: column(n, 90), azimuth_deg: column(n, 360), total_m: column(n, 30) };
+      const rest = { zenith: { zhd_m: 2.3 }, warnings: ['ü'] };
+      const reference = tableFromArrays({ total_m: columns.total_m, elevation_deg: columns.elevation_deg }) as Table;
+      reference.schema.metadata.set('answer', JSON.stringify(rest));
+      const bytes = arrowAnswer(columns, ['total_m', 'elevation_deg'], rest);
+      expect(Buffer.from(bytes).equals(Buffer.from(tableToIPC(reference, 'stream')))).toBe(true);
+      expect(tableFromIPC(bytes).getChild('total_m')!.toArray()).toEqual(columns.total_m);
+    });
+  }
+
   it('arrowAnswer: the selected fields in the caller order, the rest of the answer in the metadata "answer"', () => {
     const columns = { a: column(7, 1), b: column(7, 1), c: column(7, 1) };
     const read = tableFromIPC(arrowAnswer(columns, ['c', 'a'], { zenith: { ztd_m: 2.4 } }));
