@@ -8,7 +8,19 @@
  *                                                        of the answer as JSON in the schema metadata "answer"
  */
 
-import { Field, Float64, Message, Schema, tableFromArrays, tableToIPC, tableFromIPC, type Table } from 'apache-arrow';
+import {
+  DataType,
+  Field,
+  Float64,
+  Message,
+  MessageReader,
+  Precision,
+  Schema,
+  tableFromArrays,
+  tableToIPC,
+  tableFromIPC,
+  type Table,
+} from 'apache-arrow';
 import { BufferRegion, FieldNode, RecordBatch as RecordBatchHeader } from 'apache-arrow/ipc/metadata/message';
 import { VectorAssembler } from 'apache-arrow/visitor/vectorassembler';
 import { z } from 'zod';
@@ -246,15 +258,11 @@ function typedNumberColumn(vector: { nullCount: number; toArray(): unknown }): F
   return undefined;
 }
 
-/**
- * An Arrow IPC stream request: its columns, and the rest of the request from the schema metadata "request" (JSON).
- * With `typed`, number columns without nulls come as Float64Arrays (a float64 column without a copy), for readers
- * that check and compute on typed columns (columns.ts accepts them); otherwise every column is a plain array
- * (nulls as null).
- */
-export function readArrowRequest(bytes: Uint8Array): { columns: Record<string, unknown[]>; rest: unknown };
-export function readArrowRequest(bytes: Uint8Array, typed: true): { columns: Record<string, unknown[] | Float64Array>; rest: unknown };
-export function readArrowRequest(bytes: Uint8Array, typed = false): { columns: Record<string, unknown[] | Float64Array>; rest: unknown } {
+/** Every column of an Arrow IPC stream through apache-arrow's Table (typed: number columns without nulls as Float64Arrays). */
+function tableColumns(
+  bytes: Uint8Array,
+  typed: boolean,
+): { columns: Record<string, unknown[] | Float64Array>; metadata: Map<string, string> } {
   let table: Table;
   try {
     table = tableFromIPC(bytes);
@@ -271,7 +279,57 @@ export function readArrowRequest(bytes: Uint8Array, typed = false): { columns: R
         typeof v === 'bigint' ? Number(v) : v,
       );
   }
-  const meta = table.schema.metadata.get('request');
+  return { columns, metadata: table.schema.metadata };
+}
+
+/**
+ * The common request of the batch routes read without a Table: a stream of one record batch whose columns are all
+ * float64 without nulls (no dictionaries, distinct names; apache-arrow refuses compressed bodies), each column a Float64Array view of the
+ * body (the same values tableColumns gives). The messages are decoded by apache-arrow's MessageReader. Anything
+ * else, a malformed stream included, is undefined: tableColumns reads it (and words its errors).
+ */
+function float64Stream(bytes: Uint8Array): { columns: Record<string, Float64Array>; metadata: Map<string, string> } | undefined {
+  try {
+    const reader = new MessageReader(bytes);
+    const schema = reader.readSchema();
+    if (!schema || schema.dictionaries.size > 0) return undefined;
+    const names = schema.fields.map((f) => f.name);
+    if (new Set(names).size !== names.length) return undefined;
+    if (!schema.fields.every((f) => DataType.isFloat(f.type) && f.type.precision === Precision.DOUBLE)) return undefined;
+    const message = reader.readMessage();
+    if (!message || !message.isRecordBatch()) return undefined;
+    const header = message.header() as RecordBatchHeader;
+    const body = reader.readMessageBody(message.bodyLength);
+    if (reader.readMessage() !== null) return undefined; // another batch: the general reader joins them
+    const n = Number(header.length);
+    if (header.nodes.length !== names.length || header.buffers.length !== 2 * names.length) return undefined;
+    const columns: Record<string, Float64Array> = {};
+    for (let i = 0; i < names.length; i++) {
+      const node = header.nodes[i]!;
+      const data = header.buffers[2 * i + 1]!;
+      const offset = body.byteOffset + Number(data.offset);
+      if (Number(node.length) !== n || Number(node.nullCount) !== 0 || Number(data.length) < 8 * n) return undefined;
+      if (offset % 8 !== 0 || Number(data.offset) + 8 * n > body.byteLength) return undefined;
+      columns[names[i]!] = new Float64Array(body.buffer, offset, n);
+    }
+    return { columns, metadata: schema.metadata };
+  } catch {
+    return undefined;
+  }
+}
+
+/**
+ * An Arrow IPC stream request: its columns, and the rest of the request from the schema metadata "request" (JSON).
+ * With `typed`, number columns without nulls come as Float64Arrays (a float64 column without a copy), for readers
+ * that check and compute on typed columns (columns.ts accepts them); otherwise every column is a plain array
+ * (nulls as null).
+ */
+export function readArrowRequest(bytes: Uint8Array): { columns: Record<string, unknown[]>; rest: unknown };
+export function readArrowRequest(bytes: Uint8Array, typed: true): { columns: Record<string, unknown[] | Float64Array>; rest: unknown };
+export function readArrowRequest(bytes: Uint8Array, typed = false): { columns: Record<string, unknown[] | Float64Array>; rest: unknown } {
+  const flat = typed ? float64Stream(bytes) : undefined;
+  const read = flat ?? tableColumns(bytes, typed);
+  const meta = read.metadata.get('request');
   let rest: unknown = {};
   if (meta !== undefined) {
     try {
@@ -280,5 +338,5 @@ export function readArrowRequest(bytes: Uint8Array, typed = false): { columns: R
       throw new FormatError('body.metadata.request', 'must be the rest of the request (everything but the rows) as JSON');
     }
   }
-  return { columns, rest };
+  return { columns: read.columns, rest };
 }
