@@ -165,25 +165,26 @@ const align8 = (n: number) => (n + 7) & ~7;
  * the response's 'finish': Node has handed every byte to the operating system) and reused by the next answer on
  * this thread. V8 counts every ArrayBuffer as external memory, and ~64 MB of them since the last full garbage
  * collection start the next one, a mark of the whole service heap: with a fresh 0.7 MB buffer per 10 000
- * directions that was one full collection every ~90 answers (issue 14). Only buffers up to
- * POOLED_ANSWER_BYTES are kept, at most POOLED_ANSWERS of them; an answer made in a worker thread leaves with
- * its buffer (moved), and comes back to this pool when released on the event loop.
+ * directions that was one full collection every ~90 answers (issue 14). Only answers of 64 kB up to
+ * POOLED_ANSWER_BYTES take pooled buffers, and at most POOLED_ANSWERS free ones are kept. An answer made in a
+ * worker thread leaves with its buffer (moved) and is not pooled: releasing it on the event loop does nothing.
  */
 const POOLED_ANSWER_BYTES = 2 * 1024 * 1024;
 const POOLED_ANSWERS = 8;
 const freeAnswerBuffers: ArrayBuffer[] = [];
 const issuedAnswerBuffers = new WeakSet<ArrayBuffer>();
 
-/** size bytes, all 0, from the pool when one of its buffers fits (at most 4× larger), else new. */
+/** Answers smaller than this are not pooled (their buffers cost little; a pooled one would be mostly unused). */
+const SMALLEST_POOLED_ANSWER_BYTES = 64 * 1024;
+
+/** size bytes, all 0: from the pool when one of its buffers fits (at most 4× larger), else new. */
 function answerBytes(size: number): Uint8Array {
-  if (size <= POOLED_ANSWER_BYTES) {
-    const i = freeAnswerBuffers.findIndex((b) => b.byteLength >= size && b.byteLength <= 4 * size);
-    if (i >= 0) return new Uint8Array(freeAnswerBuffers.splice(i, 1)[0]!, 0, size).fill(0);
-    const fresh = new ArrayBuffer(Math.max(size, 64 * 1024));
-    issuedAnswerBuffers.add(fresh);
-    return new Uint8Array(fresh, 0, size);
-  }
-  return new Uint8Array(size);
+  if (size < SMALLEST_POOLED_ANSWER_BYTES || size > POOLED_ANSWER_BYTES) return new Uint8Array(size);
+  const i = freeAnswerBuffers.findIndex((b) => b.byteLength >= size && b.byteLength <= 4 * size);
+  if (i >= 0) return new Uint8Array(freeAnswerBuffers.splice(i, 1)[0]!, 0, size).fill(0);
+  const fresh = new ArrayBuffer(size);
+  issuedAnswerBuffers.add(fresh);
+  return new Uint8Array(fresh);
 }
 
 /**
