@@ -87,4 +87,12 @@ describe('ipcStreamBytes against apache-arrow tableToIPC (the Arrow IPC streamin
     expect(third.buffer).not.toBe(second.buffer); // still in use (not released)
     expect(Buffer.from(third).equals(Buffer.from(tableToIPC(big, 'stream')))).toBe(true);
   });
+
+  it('answers under 64 kB are not pooled: each takes a buffer of its own size', () => {
+    const small = tableFromArrays({ total_m: column(100, 30) }) as Table;
+    const first = ipcStreamBytes(small);
+    expect(first.buffer.byteLength).toBe(first.byteLength);
+    releaseAnswerBytes(first);
+    expect(ipcStreamBytes(small).buffer).not.toBe(first.buffer);
+  });
 });
