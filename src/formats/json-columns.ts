@@ -16,41 +16,7 @@
  * Pure: arrays in, bytes out.
  */
 
-const ZERO = 0x30;
-const MINUS = 0x2d;
-const DOT = 0x2e;
-const POW10 = Array.from({ length: 16 }, (_, d) => 10 ** d);
-const MAX_EXACT = 2 ** 53;
-
-/** The longest number written: sign, 16 digits, the point. */
-const MAX_NUMBER_BYTES = 24;
-const INT32_LIMIT = 2 ** 31;
-
-/**
- * Writes the digits of a non-negative integer k < 2^53 at `at`, at least `minDigits` of them (leading zeros),
- * from the last digit back; returns the position after them. Below 2^31 the division is an int32 one.
- */
-function writeDigits(b: Uint8Array, at: number, k: number, minDigits: number): number {
-  let count = 1;
-  while (count < 16 && k >= POW10[count]!) count++;
-  if (count < minDigits) count = minDigits;
-  let i = at + count - 1;
-  if (k < INT32_LIMIT) {
-    let v = k | 0;
-    for (; i >= at; i--) {
-      const q = (v / 10) | 0;
-      b[i] = ZERO + v - q * 10;
-      v = q;
-    }
-  } else {
-    for (; i >= at; i--) {
-      const q = Math.floor(k / 10);
-      b[i] = ZERO + k - q * 10;
-      k = q;
-    }
-  }
-  return at + count;
-}
+import { MAX_ROUNDED_DECIMAL_BYTES, writeRoundedDecimal, writeRoundedDecimalList } from './rounded-decimal-bytes.js';
 
 /** A growing byte buffer for JSON text. */
 class JsonBytes {
@@ -75,35 +41,10 @@ class JsonBytes {
     this.reserve(1);
     this.bytes[this.length++] = b;
   }
-  /** x rounded to `decimals` (0..15) as JSON; null for a non-finite value. */
+  /** x rounded to `decimals` (0..15) as JSON; null for a non-finite value (rounded-decimal-bytes.ts). */
   rounded(x: number, decimals: number): void {
-    if (!Number.isFinite(x)) return this.ascii('null');
-    const scale = POW10[decimals]!;
-    const units = Math.round(x * scale); // Math.round as roundTo rounds: halves towards +∞
-    const k = Math.abs(units);
-    if (k >= MAX_EXACT) return this.ascii(JSON.stringify(units / scale));
-    this.reserve(MAX_NUMBER_BYTES);
-    const b = this.bytes;
-    let at = this.length;
-    if (k === 0) {
-      b[at] = ZERO; // also -0 and tiny negatives, as JSON.stringify(-0) = "0"
-      this.length = at + 1;
-      return;
-    }
-    if (units < 0) b[at++] = MINUS;
-    const whole = Math.floor(k / scale);
-    let fraction = k - whole * scale;
-    at = writeDigits(b, at, whole, 1);
-    if (fraction !== 0) {
-      let width = decimals;
-      while (fraction % 10 === 0) {
-        fraction /= 10;
-        width--;
-      }
-      b[at++] = DOT;
-      at = writeDigits(b, at, fraction, width);
-    }
-    this.length = at;
+    this.reserve(MAX_ROUNDED_DECIMAL_BYTES);
+    this.length = writeRoundedDecimal(this.bytes, this.length, x, decimals);
   }
   done(): Uint8Array {
     return this.bytes.subarray(0, this.length);
@@ -119,8 +60,13 @@ export interface JsonColumn {
 /** `{"name":[…],…}` as UTF-8 bytes, numbers rounded per column (roundTo of output-precision.ts). */
 export function columnsJsonBytes(columns: Record<string, JsonColumn>): Uint8Array {
   let rows = 0;
-  for (const c of Object.values(columns)) rows += c.values.length;
-  const out = new JsonBytes(rows * 12 + 64);
+  let longest = 0;
+  for (const c of Object.values(columns)) {
+    rows += c.values.length;
+    longest = Math.max(longest, c.values.length);
+  }
+  // A Float64Array column is written in one loop into room reserved for its longest text (below).
+  const out = new JsonBytes(rows * 12 + 64 + longest * (MAX_ROUNDED_DECIMAL_BYTES + 1));
   out.byte(0x7b); // {
   let first = true;
   for (const [name, { values, decimals }] of Object.entries(columns)) {
@@ -132,6 +78,12 @@ export function columnsJsonBytes(columns: Record<string, JsonColumn>): Uint8Arra
       continue;
     }
     out.byte(0x5b); // [
+    if (values instanceof Float64Array) {
+      out.reserve(values.length * (MAX_ROUNDED_DECIMAL_BYTES + 1) + 1);
+      out.length = writeRoundedDecimalList(out.bytes, out.length, values, decimals);
+      out.byte(0x5d); // ]
+      continue;
+    }
     const numbers = values as ArrayLike<number>;
     for (let i = 0; i < numbers.length; i++) {
       if (i > 0) out.byte(0x2c);

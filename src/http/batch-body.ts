@@ -9,7 +9,7 @@
 import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import { OFFLOAD_BODY_BYTES, OFFLOAD_COST_PER_BYTE } from '../limits.js';
 import type { TaskOutcome } from '../workers/task-outcome.js';
-import { ARROW_STREAM_TYPE } from './answer-shape.js';
+import { ARROW_STREAM_TYPE, releaseAnswerBytes } from './answer-shape.js';
 import { HttpProblem } from './problem.js';
 import { asBuffer, movableBytes } from './raw-body.js';
 import type { BatchTaskInput, BatchTaskOutput } from './tasks/apriori-batch.js';
@@ -56,6 +56,8 @@ export async function answerBatchRequest(
     const body = movableBytes(new Uint8Array(raw.buffer, raw.byteOffset, raw.byteLength));
     output = await app.compute.run(task, { body, bodyFormat, ...options }, [body.buffer]);
   }
-  // Already serialised; the bytes are sent as they are.
+  // Already serialised; the bytes are sent as they are. An Arrow answer's buffer goes back to its pool once
+  // Node has handed the last byte to the operating system (answer-shape.ts releaseAnswerBytes).
+  if (output.contentType === ARROW_STREAM_TYPE) reply.raw.once('finish', () => releaseAnswerBytes(output.json));
   return reply.type(output.contentType ?? 'application/json').send(asBuffer(output.json) as never);
 }

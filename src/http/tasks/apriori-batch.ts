@@ -19,7 +19,7 @@ import { checkMappingElevation, mappingDefinedAt } from '../../domain/mapping/el
 import { assumedHeightReferenceWarning } from '../../domain/mapping/vmf1.js';
 import { MODEL_NAMES, provenance } from '../../domain/provenance.js';
 import type { Site } from '../../domain/site.js';
-import { allocateSlantBatch, computeSlantDelays } from '../../domain/slant.js';
+import { allocateSlantBatch, computeSlantDelays, type SlantBatch } from '../../domain/slant.js';
 import { precipitableWater } from '../../domain/water-vapour/precipitable-water.js';
 import { aprioriZenithDelays } from '../../domain/zenith/apriori.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
@@ -107,15 +107,68 @@ export const SLANT_FIELDS: FieldDecimals = {
 };
 export const SLANT_FIELD_NAMES = Object.keys(SLANT_FIELDS);
 
+/**
+ * Batches up to this many directions compute in work arrays kept from one request to the next on this thread
+ * (the event loop, or one worker); larger ones get arrays of their own. 10 000 directions allocated ~0.9 MB of
+ * ArrayBuffers a request for these arrays, and V8 counts ArrayBuffers as external memory: a full garbage
+ * collection of the service's heap every ~20 requests (issue 14).
+ */
+const REUSED_WORK_DIRECTIONS = 16_384;
+
+/** The per-direction work arrays of one slant batch: the model's outputs, radians, the answer's azimuths. */
+interface SlantWork {
+  batch: SlantBatch;
+  elevationsRad: Float64Array;
+  azimuthsRad: Float64Array;
+  azimuthDeg: Float64Array;
+}
+
+function allocateSlantWork(n: number): SlantWork {
+  return {
+    batch: allocateSlantBatch(n),
+    elevationsRad: new Float64Array(n),
+    azimuthsRad: new Float64Array(n),
+    azimuthDeg: new Float64Array(n),
+  };
+}
+
+let reusedWork: SlantWork | undefined;
+
+/**
+ * Work arrays for n directions. Those of a batch up to REUSED_WORK_DIRECTIONS are views of arrays kept for the
+ * next request on this thread: valid until the next call, so the answer is serialised before the task returns
+ * (handleSlantDelaysRequest has no await between the computation and the bytes).
+ */
+function slantWork(n: number): SlantWork {
+  if (n > REUSED_WORK_DIRECTIONS) return allocateSlantWork(n);
+  reusedWork ??= allocateSlantWork(REUSED_WORK_DIRECTIONS);
+  const view = (a: Float64Array) => a.subarray(0, n);
+  const b = reusedWork.batch;
+  return {
+    batch: {
+      mappingHydrostatic: view(b.mappingHydrostatic),
+      mappingWet: view(b.mappingWet),
+      mappingGradient: view(b.mappingGradient),
+      hydrostaticM: view(b.hydrostaticM),
+      wetM: view(b.wetM),
+      gradientM: view(b.gradientM),
+      totalM: view(b.totalM),
+    },
+    elevationsRad: view(reusedWork.elevationsRad),
+    azimuthsRad: view(reusedWork.azimuthsRad),
+    azimuthDeg: view(reusedWork.azimuthDeg),
+  };
+}
+
 /** Step 1: the directions (elevation, azimuth) as given, or from satellite ECEF positions (look angles, nadir). */
 function directionsOf(
   rows: SlantRows,
   site: Site,
+  work: SlantWork,
 ): { elevationsRad: Float64Array; azimuthsRad: Float64Array; nadirDeg: Float64Array | undefined } {
+  const { elevationsRad, azimuthsRad } = work;
   if (rows.kind === 'directions') {
     const n = rows.elevationDeg.length;
-    const elevationsRad = new Float64Array(n);
-    const azimuthsRad = new Float64Array(n);
     for (let i = 0; i < n; i++) {
       // The field name is built only for the direction that fails (a template per row was 5 % of a batch).
       if (!mappingDefinedAt(rows.elevationDeg[i]!)) checkMappingElevation(rows.elevationDeg[i]!, `directions.${i}.elevation_deg`);
@@ -125,8 +178,6 @@ function directionsOf(
     return { elevationsRad, azimuthsRad, nadirDeg: undefined };
   }
   const n = rows.id.length;
-  const elevationsRad = new Float64Array(n);
-  const azimuthsRad = new Float64Array(n);
   const nadirDeg = new Float64Array(n);
   const latRad = site.latitudeDeg * DEG;
   const lonRad = site.longitudeDeg * DEG;
@@ -151,14 +202,17 @@ function directionsOf(
 /** Step 3: the per-direction answer as columns (every field of SLANT_FIELDS that applies). */
 function slantColumns(
   rows: SlantRows,
-  out: ReturnType<typeof computeSlantDelays>,
-  elevationsRad: Float64Array,
-  azimuthsRad: Float64Array,
+  out: SlantBatch,
+  elevationsDeg: Float64Array,
+  work: SlantWork,
   nadirDeg: Float64Array | undefined,
 ): Record<string, Float64Array | string[]> {
+  const azimuthDeg = work.azimuthDeg;
+  if (rows.kind === 'directions') for (let i = 0; i < azimuthDeg.length; i++) azimuthDeg[i] = normaliseAzimuthDeg(rows.azimuthDeg[i]!);
+  else for (let i = 0; i < azimuthDeg.length; i++) azimuthDeg[i] = normaliseAzimuthDeg(work.azimuthsRad[i]! / DEG);
   return {
-    elevation_deg: rows.kind === 'directions' ? rows.elevationDeg : elevationsRad.map((e) => e / DEG),
-    azimuth_deg: (rows.kind === 'directions' ? rows.azimuthDeg : azimuthsRad.map((a) => a / DEG)).map(normaliseAzimuthDeg),
+    elevation_deg: elevationsDeg,
+    azimuth_deg: azimuthDeg,
     ...(rows.kind === 'satellites' ? { satellite: rows.id, nadir_deg: nadirDeg! } : {}),
     mapping_hydrostatic: out.mappingHydrostatic,
     mapping_wet: out.mappingWet,
@@ -183,7 +237,10 @@ function slantEntries(columns: Record<string, Float64Array | string[]>, fields: 
   return slants;
 }
 
-/** POST /v1/slant-delays: the answer to a validated request, its per-direction part as columns. */
+/**
+ * POST /v1/slant-delays: the answer to a validated request, its per-direction part as columns. The columns of
+ * a batch up to REUSED_WORK_DIRECTIONS are work arrays of this thread: serialise them before the next call.
+ */
 export function slantDelaysAnswer(body: SlantFields, rows: SlantRows) {
   const site = toSite(body.site);
   const warnings: string[] = [...metUnitWarnings(body.met)];
@@ -197,8 +254,8 @@ export function slantDelaysAnswer(body: SlantFields, rows: SlantRows) {
   const northGradientM = body.zenith?.north_gradient_m ?? 0;
   const eastGradientM = body.zenith?.east_gradient_m ?? 0;
 
-  const { elevationsRad, azimuthsRad, nadirDeg } = directionsOf(rows, site);
-  const n = elevationsRad.length;
+  const work = slantWork(rows.kind === 'directions' ? rows.elevationDeg.length : rows.id.length);
+  const { elevationsRad, azimuthsRad, nadirDeg } = directionsOf(rows, site, work);
 
   const mapping = prepareMapping(site, body.epoch, body.model, body.coefficients);
   const assumed = assumedHeightReferenceWarning(toCoefficients(body.coefficients));
@@ -209,13 +266,13 @@ export function slantDelaysAnswer(body: SlantFields, rows: SlantRows) {
     { zhdM, zwdM, northGradientM, eastGradientM },
     elevationsRad,
     azimuthsRad,
-    allocateSlantBatch(n),
+    work.batch,
   );
 
   const elevationsDeg = rows.kind === 'directions' ? rows.elevationDeg : elevationsRad.map((e) => e / DEG);
   warnings.push(...lowElevationWarning(elevationsDeg, rows.kind));
   return {
-    columns: slantColumns(rows, out, elevationsRad, azimuthsRad, nadirDeg),
+    columns: slantColumns(rows, out, elevationsDeg, work, nadirDeg),
     rest: {
       zenith: {
         zhd_m: zhdM,
