@@ -2,20 +2,19 @@
  * Peak memory of one replica under estimation load through HTTP (issue 14: "peak RSS per replica under
  * the estimation benchmark stated, and under 600 MB with default settings"; "30 days of data can be sent
  * in one request"). The service runs in its own process (as `npm run bench` runs it: node's
- * --max-semi-space-size=32 on every thread unless the pool sets its workers' own) with a worker pool of
+ * --max-semi-space-size=32, which applies to every thread: a worker's resourceLimits cannot lower it) with a worker pool of
  * TROPODELAY_ESTIMATION_WORKERS=2, as on a 2-core replica; two clients send one GPS-like day (30 satellites
  * at 30 s, 7–11 in view) as column arrays, back to back, then one 30-day request of the same sky (the
  * largest under MAX_OBSERVATIONS) as columns JSON and then as an Arrow table while the clients go on.
  *
  * The figure is the service process's peak resident set (VmHWM of /proc/<pid>/status: the main thread,
- * the workers and their heaps), after each phase. Settings compared in interleaved rounds
- * (BENCH_ROUNDS, default 2): the defaults (memory budget, workers' young generation) and the same
- * service without them (TROPODELAY_COMPUTE_MEMORY_BUDGET_MB=0, TROPODELAY_WORKER_YOUNG_GENERATION_MB=0),
- * as before issue 14's memory work. The service CPU per 1-day request (its process, all threads,
- * /proc/<pid>/stat) shows what the smaller young generation costs.
+ * the workers and their heaps) in each phase (reset between phases through /proc/<pid>/clear_refs). Settings compared in interleaved rounds
+ * (BENCH_ROUNDS, default 2): the defaults (the pool's memory budget: a 30-day request runs alone and its
+ * threads are replaced after it) and the same service without it (TROPODELAY_COMPUTE_MEMORY_BUDGET_MB=0).
+ * The service CPU per 1-day request (its process, all threads, /proc/<pid>/stat) beside it.
  */
 
-import { readFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { MAX_OBSERVATIONS } from '../src/limits.js';
 import { startServerProcess, type ServerProcess } from '../test/helpers/server-process.js';
 import { columnsArrow, columnsJson, gpsLikeColumns } from '../test/helpers/gps-like-days.js';
@@ -27,6 +26,9 @@ const statusMb = (pid: number, field: string) => {
   const m = new RegExp(`${field}:\\s+(\\d+) kB`).exec(readFileSync(`/proc/${pid}/status`, 'utf8'));
   return m ? Number(m[1]) / 1024 : NaN;
 };
+
+/** Resets the process's peak resident set (VmHWM) to its current one, so that each phase reports its own peak. */
+const resetPeak = (pid: number) => writeFileSync(`/proc/${pid}/clear_refs`, '5');
 
 /** CPU seconds of a process, all threads (utime + stime of /proc/<pid>/stat). */
 const cpuS = (pid: number) => {
@@ -65,6 +67,9 @@ async function round(
   const pid = server.child.pid!;
   try {
     const idleMb = statusMb(pid, 'VmRSS');
+    // Warm-up: the worker threads start (and, under tsx, compile) with the first tasks.
+    await Promise.all([post(server, dayBody, 'application/json'), post(server, dayBody, 'application/json')]);
+    resetPeak(pid);
     let running = true;
     let dayRequests = 0;
     const client = async () => {
@@ -78,10 +83,12 @@ async function round(
     await new Promise((r) => setTimeout(r, 8000));
     const dayCpuMs = ((cpuS(pid) - cpu0) / Math.max(1, dayRequests)) * 1000;
     const dayPeakMb = statusMb(pid, 'VmHWM');
+    resetPeak(pid);
     const t0 = performance.now();
     await post(server, monthJson, 'application/json');
     const jsonS = (performance.now() - t0) / 1000;
     const jsonPeakMb = statusMb(pid, 'VmHWM');
+    resetPeak(pid);
     const t1 = performance.now();
     await post(server, monthArrow, ARROW);
     const arrowS = (performance.now() - t1) / 1000;
@@ -109,10 +116,7 @@ export default async function bench(): Promise<string[]> {
   const monthArrow = columnsArrow(month);
   const settings = {
     defaults: {},
-    'without budget and worker young generation (as before)': {
-      TROPODELAY_COMPUTE_MEMORY_BUDGET_MB: '0',
-      TROPODELAY_WORKER_YOUNG_GENERATION_MB: '0',
-    },
+    'without the memory budget (as before)': { TROPODELAY_COMPUTE_MEMORY_BUDGET_MB: '0' },
   };
   const results = new Map<string, Round[]>(Object.keys(settings).map((k) => [k, []]));
   for (let r = 0; r < rounds; r++)
@@ -124,10 +128,10 @@ export default async function bench(): Promise<string[]> {
       ([name, rs]) =>
         `  ${name}: idle ${range(rs.map((x) => x.idleMb))}; two clients of 1-day requests ${range(rs.map((x) => x.dayPeakMb))} (service CPU ${range(
           rs.map((x) => x.dayCpuMs),
-        )} ms a request); plus 30 days as columns JSON ${range(rs.map((x) => x.jsonPeakMb))} (${range(
+        )} ms a request); 30 days as columns JSON ${range(rs.map((x) => x.jsonPeakMb))} (${range(
           rs.map((x) => x.jsonS),
           1,
-        )} s), and as Arrow ${range(rs.map((x) => x.arrowPeakMb))} (${range(
+        )} s), then as Arrow ${range(rs.map((x) => x.arrowPeakMb))} (${range(
           rs.map((x) => x.arrowS),
           1,
         )} s); ${range(rs.map((x) => x.dayRequests))} day requests a round (target < 600)`,

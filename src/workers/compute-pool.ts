@@ -153,11 +153,26 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
   private pool: Piscina | undefined;
   private running = 0;
   private readonly budget: MemoryBudget | undefined;
+  /** Tasks handed to piscina and not yet answered (queued there or running). */
+  private onThreads = 0;
+  /** Worker sets replaced after a task over the memory budget (recycle()). */
+  recycled = 0;
   /** Exponentially weighted mean run time of recent tasks [s]; null before the first. */
   private meanRunS: number | null = null;
 
   constructor(private readonly options: ComputePoolOptions<Tasks>) {
     if (options.memoryBudgetBytes) this.budget = new MemoryBudget(options.memoryBudgetBytes);
+  }
+
+  /** The piscina pool, started with the first task (and again after recycle()). */
+  private threads(): Piscina {
+    return (this.pool ??= new Piscina({
+      ...workerLocation(),
+      minThreads: this.options.threads, // all started at once: no thread is spawned in the middle of a load
+      maxThreads: this.options.threads,
+      maxQueue: this.options.queueLimit,
+      idleTimeout: 60_000,
+    }));
   }
 
   /** Tasks waiting for a worker or for memory (ComputePoolOptions.memoryBudgetBytes). */
@@ -180,13 +195,6 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
     transfer: ArrayBuffer[] = [],
     memoryBytes = 0,
   ): Promise<TaskOutput<Tasks[K]>> {
-    const pool = (this.pool ??= new Piscina({
-      ...workerLocation(),
-      minThreads: this.options.threads, // all started at once: no thread is spawned in the middle of a load
-      maxThreads: this.options.threads,
-      maxQueue: this.options.queueLimit,
-      idleTimeout: 60_000,
-    }));
     const location = this.options.tasks[task];
     let response: ComputeResponse;
     this.running++;
@@ -196,8 +204,20 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
         // Waiting for memory counts against the same queue limit as waiting for a thread.
         if (this.budget.mustWait(memoryBytes) && this.queued >= this.options.queueLimit) throw new ComputePoolFullError(this.retryAfterS());
         release = await this.budget.admit(memoryBytes);
+        // A task over the whole budget runs alone: it starts on new threads, so that the heaps the earlier
+        // tasks grew (V8 keeps a thread's heap at its high-water mark) are not held beside its own.
+        if (memoryBytes > this.budget.budgetBytes && this.onThreads === 0 && this.pool) await this.recycle();
       }
-      response = (await pool.run({ ...location, input } satisfies ComputeRequest, { transferList: transfer })) as ComputeResponse;
+      this.onThreads++;
+      try {
+        response = (await this.threads().run({ ...location, input } satisfies ComputeRequest, {
+          transferList: transfer,
+        })) as ComputeResponse;
+      } finally {
+        this.onThreads--;
+      }
+      // And it ends on new threads too: the heap it grew goes with its thread before the next task is admitted.
+      if (this.budget && memoryBytes > this.budget.budgetBytes && this.onThreads === 0) await this.recycle();
     } catch (err) {
       this.running--;
       if (err instanceof Error && /queue is at limit/i.test(err.message)) throw new ComputePoolFullError(this.retryAfterS());
@@ -227,6 +247,17 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
       threads: this.options.threads,
       meanRunS: this.meanRunS,
     });
+  }
+
+  /**
+   * Replaces the worker threads (the next task starts new ones): the old threads end with their heaps.
+   * Only when no task is on them.
+   */
+  private async recycle(): Promise<void> {
+    const old = this.pool;
+    this.pool = undefined;
+    this.recycled++;
+    await old?.destroy();
   }
 
   async close(): Promise<void> {

@@ -10,7 +10,7 @@ import { describe, expect, it } from 'vitest';
 import { DEFAULT_COMPUTE_MEMORY_BUDGET_MB, loadConfig } from '../../src/config.js';
 import { taskMemoryBytes } from '../../src/http/plugins/compute-pool.js';
 import { MAX_OBSERVATIONS, TASK_MEMORY_PER_BODY_BYTE, ZWD_BODY_LIMIT_BYTES } from '../../src/limits.js';
-import { MemoryBudget } from '../../src/workers/compute-pool.js';
+import { ComputePool, ComputePoolFullError, MemoryBudget } from '../../src/workers/compute-pool.js';
 
 const MB = 1024 * 1024;
 
@@ -117,4 +117,37 @@ describe('TROPODELAY_COMPUTE_MEMORY_BUDGET_MB', () => {
       /TROPODELAY_COMPUTE_MEMORY_BUDGET_MB="-1": must be a whole number in 0\.\.1048576/,
     );
   });
+});
+
+describe('ComputePool with a memory budget (real worker threads)', () => {
+  const probe = { module: new URL('../helpers/pool-probe-task.ts', import.meta.url).href, exportName: 'threadIdTask' };
+  type Tasks = { probe: (input: { waitMs?: number }) => Promise<{ ok: true; output: { threadId: number; observations: number } }> };
+
+  it('a task over the whole budget runs alone on new threads, and they are replaced after it (their heaps given back)', async () => {
+    const pool = new ComputePool<Tasks>({ threads: 2, queueLimit: 8, tasks: { probe }, memoryBudgetBytes: 1000 });
+    try {
+      const before = new Set<number>();
+      for (const r of await Promise.all([1, 2, 3, 4].map(() => pool.run('probe', { waitMs: 20 }, [], 100)))) before.add(r.threadId);
+      expect(pool.recycled).toBe(0);
+      const huge = await pool.run('probe', {}, [], 5000);
+      expect(before.has(huge.threadId)).toBe(false); // a new thread
+      expect(pool.recycled).toBe(2); // before and after it
+      const after = await pool.run('probe', {}, [], 100);
+      expect(before.has(after.threadId)).toBe(false); // a new thread
+    } finally {
+      await pool.close();
+    }
+  }, 60_000);
+
+  it('a full queue of tasks waiting for memory is a ComputePoolFullError', async () => {
+    const pool = new ComputePool<Tasks>({ threads: 1, queueLimit: 1, tasks: { probe }, memoryBudgetBytes: 1000 });
+    try {
+      const first = pool.run('probe', { waitMs: 300 }, [], 800);
+      const waiting = pool.run('probe', {}, [], 800); // waits for memory (the one queue place)
+      await expect(pool.run('probe', {}, [], 800)).rejects.toBeInstanceOf(ComputePoolFullError);
+      await Promise.all([first, waiting]);
+    } finally {
+      await pool.close();
+    }
+  }, 60_000);
 });
