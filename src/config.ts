@@ -16,9 +16,9 @@ import { defaultWorkerCount } from './cpu-quota.js';
 
 /**
  * Memory budget of the worker tasks running at once [MB] (src/workers/compute-pool.ts MemoryBudget).
- * 192 MB holds two 1-day estimations (~16 MB each as columns JSON) and a request up to ~27 MB of
- * columns JSON (~300 000 observations) beside them; anything larger runs alone, so two near-limit
- * requests never overlap (issue 14: peak RSS under 600 MB; bench/service-memory.bench.ts).
+ * 192 MB holds two 1-day estimations (~16 MB each as columns JSON) and a request of up to ~23 MB of
+ * columns JSON (~260 000 observations) beside them; anything larger runs alone (on new threads), so two
+ * near-limit requests never overlap (issue 14; bench/service-memory.bench.ts).
  */
 export const DEFAULT_COMPUTE_MEMORY_BUDGET_MB = 192;
 

@@ -16,9 +16,10 @@ export const BATCH_BODY_LIMIT_BYTES = 32 * 1024 * 1024;
  * Memory a worker task takes while it runs, per byte of its request body, by the body's form (the
  * compute pool's memory budget, TROPODELAY_COMPUTE_MEMORY_BUDGET_MB). Measured (issue 14,
  * bench/service-memory.child.ts: peak resident set of the whole estimation task in one process over
- * the set before it, 17 GPS-like days, 467 790 observations): columns JSON 41.3 MB → +285 MB (6.9 per
- * byte), Arrow 16.3 MB → +187 MB (11.5). CSV rows become objects before the checks: taken as 10
- * (not measured). JSON objects cost about as much per byte as columns (more bytes per observation).
+ * the set before it, 17 GPS-like days, 467 790 observations): columns JSON 41.3 MB → +240 MB (5.8 per
+ * byte; its steps one by one, each kept, +285 MB: 6.9), Arrow 16.3 MB → +187 MB (11.5). CSV rows become
+ * objects before the checks: taken as 10 (not measured). JSON objects: as columns (more bytes per
+ * observation, more work per byte).
  */
 export const TASK_MEMORY_PER_BODY_BYTE = { json: 7, arrow: 12, csv: 10 } as const;
 /**
