@@ -11,12 +11,14 @@
  * the workers and their heaps) in each phase (reset between phases through /proc/<pid>/clear_refs). Settings compared in interleaved rounds
  * (BENCH_ROUNDS, default 2): the defaults (the pool's memory budget: a 30-day request runs alone and its
  * threads are replaced after it) and the same service without it (TROPODELAY_COMPUTE_MEMORY_BUDGET_MB=0).
- * The service CPU per 1-day request (its process, all threads, /proc/<pid>/stat) beside it.
+ * The service CPU per 1-day request (its process, all threads, /proc/<pid>/stat) beside it. BENCH_FROM_DIST=1
+ * runs the service as `npm start` does (compiled dist/, no tsx) instead.
  */
 
-import { readFileSync, writeFileSync } from 'node:fs';
+import { spawn } from 'node:child_process';
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { MAX_OBSERVATIONS } from '../src/limits.js';
-import { startServerProcess, type ServerProcess } from '../test/helpers/server-process.js';
+import { freePort, serverEnvironment, startServerProcess, type ServerProcess } from '../test/helpers/server-process.js';
 import { columnsArrow, columnsJson, gpsLikeColumns } from '../test/helpers/gps-like-days.js';
 
 const ARROW = 'application/vnd.apache.arrow.stream';
@@ -35,6 +37,41 @@ const cpuS = (pid: number) => {
   const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
   return (Number(fields[11]) + Number(fields[12])) / CLOCK_TICKS;
 };
+
+/**
+ * The service as `npm start` runs it (`node --max-semi-space-size=32 dist/server.js`, no tsx), from a
+ * dist/ built beforehand (`npx tsc -p tsconfig.build.json`): BENCH_FROM_DIST=1.
+ */
+async function startFromDist(env: Record<string, string>): Promise<ServerProcess> {
+  if (!existsSync('dist/server.js')) throw new Error('BENCH_FROM_DIST=1: build dist/ first (npx tsc -p tsconfig.build.json)');
+  const port = await freePort();
+  const child = spawn(process.execPath, ['--max-semi-space-size=32', 'dist/server.js'], {
+    env: { ...serverEnvironment(port, env), NODE_OPTIONS: '' },
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  const baseUrl = `http://127.0.0.1:${port}`;
+  for (const deadline = Date.now() + 30_000; ;) {
+    if (
+      await fetch(`${baseUrl}/v1/health`).then(
+        (r) => r.ok,
+        () => false,
+      )
+    )
+      break;
+    if (Date.now() > deadline || child.exitCode !== null) throw new Error('service did not start');
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  return {
+    baseUrl,
+    child,
+    stop: () =>
+      new Promise((resolve) => {
+        if (child.exitCode !== null || child.signalCode !== null) return resolve(child.exitCode);
+        child.once('exit', (code) => resolve(code));
+        child.kill('SIGTERM');
+      }),
+  };
+}
 
 async function post(server: ServerProcess, body: Uint8Array<ArrayBuffer>, type: string): Promise<void> {
   const res = await fetch(`${server.baseUrl}/v1/zwd-estimates?fields=ztd_m,sigma_m`, {
@@ -63,7 +100,8 @@ async function round(
   monthJson: Uint8Array<ArrayBuffer>,
   monthArrow: Uint8Array<ArrayBuffer>,
 ): Promise<Round> {
-  const server = await startServerProcess({ TROPODELAY_ESTIMATION_WORKERS: '2', ...env }, true);
+  const settings = { TROPODELAY_ESTIMATION_WORKERS: '2', ...env };
+  const server = process.env.BENCH_FROM_DIST === '1' ? await startFromDist(settings) : await startServerProcess(settings, true);
   const pid = server.child.pid!;
   try {
     const idleMb = statusMb(pid, 'VmRSS');
@@ -123,7 +161,7 @@ export default async function bench(): Promise<string[]> {
     for (const [name, env] of Object.entries(settings)) results.get(name)!.push(await round(env, dayBody, monthJson, monthArrow));
   const loadavg = readFileSync('/proc/loadavg', 'utf8').split(' ').slice(0, 3).join(' ');
   return [
-    `service memory, 2 workers, ${rounds} interleaved rounds, load average at the end ${loadavg}; 1 day = ${day.count} observations (${(dayBody.length / 1e6).toFixed(1)} MB columns JSON), 30 days = ${month.count} (columns JSON ${(monthJson.length / 1e6).toFixed(1)} MB, Arrow ${(monthArrow.length / 1e6).toFixed(1)} MB); peak RSS of the service process (MB):`,
+    `service memory (${process.env.BENCH_FROM_DIST === '1' ? 'node dist/server.js, as npm start' : 'through tsx'}), 2 workers, ${rounds} interleaved rounds, load average at the end ${loadavg}; 1 day = ${day.count} observations (${(dayBody.length / 1e6).toFixed(1)} MB columns JSON), 30 days = ${month.count} (columns JSON ${(monthJson.length / 1e6).toFixed(1)} MB, Arrow ${(monthArrow.length / 1e6).toFixed(1)} MB); peak RSS of the service process (MB):`,
     ...[...results].map(
       ([name, rs]) =>
         `  ${name}: idle ${range(rs.map((x) => x.idleMb))}; two clients of 1-day requests ${range(rs.map((x) => x.dayPeakMb))} (service CPU ${range(
