@@ -1,37 +1,79 @@
 /**
  * Peak memory of one replica under estimation load through HTTP (issue 14: "peak RSS per replica under
- * the estimation benchmark stated, and under 600 MB with default settings"). The service runs in its own
- * process with its default settings (worker pool of TROPODELAY_ESTIMATION_WORKERS=2, as on a 2-core
- * replica); two clients send one day of 30-s synthetic data as column arrays, back to back, then one
- * near-limit request (the largest number of observations under MAX_OBSERVATIONS, columns JSON, and the
- * same as an Arrow table) while the clients go on. The figure is the service process's peak resident set
- * (VmHWM of /proc/<pid>/status: the main thread, the workers and their heaps), and the resident set after.
+ * the estimation benchmark stated, and under 600 MB with default settings"; "30 days of data can be sent
+ * in one request"). The service runs in its own process (as `npm run bench` runs it: node's
+ * --max-semi-space-size=32, which applies to every thread: a worker's resourceLimits cannot lower it) with a worker pool of
+ * TROPODELAY_ESTIMATION_WORKERS=2, as on a 2-core replica; two clients send one GPS-like day (30 satellites
+ * at 30 s, 7–11 in view) as column arrays, back to back, then one 30-day request of the same sky (the
+ * largest under MAX_OBSERVATIONS) as columns JSON and then as an Arrow table while the clients go on.
+ *
+ * The figure is the service process's peak resident set (VmHWM of /proc/<pid>/status: the main thread,
+ * the workers and their heaps) in each phase (reset between phases through /proc/<pid>/clear_refs). Settings compared in interleaved rounds
+ * (BENCH_ROUNDS, default 2): the defaults (the pool's memory budget: a 30-day request runs alone and its
+ * threads are replaced after it) and the same service without it (TROPODELAY_COMPUTE_MEMORY_BUDGET_MB=0).
+ * The service CPU per 1-day request (its process, all threads, /proc/<pid>/stat) beside it. BENCH_FROM_DIST=1
+ * runs the service as `npm start` does (compiled dist/, no tsx) instead.
  */
 
-import { readFileSync } from 'node:fs';
-import { tableFromArrays, tableToIPC, type Table } from 'apache-arrow';
-import { generateSyntheticResiduals, toRequestBody } from '../scripts/synthetic-residuals.js';
+import { spawn } from 'node:child_process';
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { MAX_OBSERVATIONS } from '../src/limits.js';
-import { startServerProcess, type ServerProcess } from '../test/helpers/server-process.js';
+import { freePort, serverEnvironment, startServerProcess, type ServerProcess } from '../test/helpers/server-process.js';
+import { columnsArrow, columnsJson, gpsLikeColumns } from '../test/helpers/gps-like-days.js';
 
 const ARROW = 'application/vnd.apache.arrow.stream';
+const CLOCK_TICKS = 100;
 
 const statusMb = (pid: number, field: string) => {
   const m = new RegExp(`${field}:\\s+(\\d+) kB`).exec(readFileSync(`/proc/${pid}/status`, 'utf8'));
   return m ? Number(m[1]) / 1024 : NaN;
 };
 
-/** Synthetic observations of `days` days as the API's columns, with the rest of the request. */
-function columnsRequest(days: number, maxRows = Infinity) {
-  const body = toRequestBody(generateSyntheticResiduals({ durationS: days * 86_400, grossErrors: 5 * days }));
-  const rows = body.observations.slice(0, maxRows);
-  const columns = Object.fromEntries(
-    (['epoch', 'satellite', 'elevation_deg', 'azimuth_deg', 'residual_m'] as const).map((k) => [k, rows.map((r) => r[k])]),
-  );
-  return { rest: { site: body.site, apriori: { zhd_m: 2.2 } }, columns, count: rows.length };
+/** Resets the process's peak resident set (VmHWM) to its current one, so that each phase reports its own peak. */
+const resetPeak = (pid: number) => writeFileSync(`/proc/${pid}/clear_refs`, '5');
+
+/** CPU seconds of a process, all threads (utime + stime of /proc/<pid>/stat). */
+const cpuS = (pid: number) => {
+  const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+  return (Number(fields[11]) + Number(fields[12])) / CLOCK_TICKS;
+};
+
+/**
+ * The service as `npm start` runs it (`node --max-semi-space-size=32 dist/server.js`, no tsx), from a
+ * dist/ built beforehand (`npx tsc -p tsconfig.build.json`): BENCH_FROM_DIST=1.
+ */
+async function startFromDist(env: Record<string, string>): Promise<ServerProcess> {
+  if (!existsSync('dist/server.js')) throw new Error('BENCH_FROM_DIST=1: build dist/ first (npx tsc -p tsconfig.build.json)');
+  const port = await freePort();
+  const child = spawn(process.execPath, ['--max-semi-space-size=32', 'dist/server.js'], {
+    env: { ...serverEnvironment(port, env), NODE_OPTIONS: '' },
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  const baseUrl = `http://127.0.0.1:${port}`;
+  for (const deadline = Date.now() + 30_000; ;) {
+    if (
+      await fetch(`${baseUrl}/v1/health`).then(
+        (r) => r.ok,
+        () => false,
+      )
+    )
+      break;
+    if (Date.now() > deadline || child.exitCode !== null) throw new Error('service did not start');
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  return {
+    baseUrl,
+    child,
+    stop: () =>
+      new Promise((resolve) => {
+        if (child.exitCode !== null || child.signalCode !== null) return resolve(child.exitCode);
+        child.once('exit', (code) => resolve(code));
+        child.kill('SIGTERM');
+      }),
+  };
 }
 
-async function post(server: ServerProcess, body: string | Uint8Array<ArrayBuffer>, type: string) {
+async function post(server: ServerProcess, body: Uint8Array<ArrayBuffer>, type: string): Promise<void> {
   const res = await fetch(`${server.baseUrl}/v1/zwd-estimates?fields=ztd_m,sigma_m`, {
     method: 'POST',
     body,
@@ -41,26 +83,31 @@ async function post(server: ServerProcess, body: string | Uint8Array<ArrayBuffer
   if (!res.ok) throw new Error(`${res.status}`);
 }
 
-export default async function bench(): Promise<string[]> {
-  const server = await startServerProcess({ TROPODELAY_ESTIMATION_WORKERS: '2' }, true);
+interface Round {
+  idleMb: number;
+  dayPeakMb: number;
+  dayCpuMs: number;
+  jsonPeakMb: number;
+  jsonS: number;
+  arrowPeakMb: number;
+  arrowS: number;
+  dayRequests: number;
+}
+
+async function round(
+  env: Record<string, string>,
+  dayBody: Uint8Array<ArrayBuffer>,
+  monthJson: Uint8Array<ArrayBuffer>,
+  monthArrow: Uint8Array<ArrayBuffer>,
+): Promise<Round> {
+  const settings = { TROPODELAY_ESTIMATION_WORKERS: '2', ...env };
+  const server = process.env.BENCH_FROM_DIST === '1' ? await startFromDist(settings) : await startServerProcess(settings, true);
   const pid = server.child.pid!;
   try {
-    const day = columnsRequest(1);
-    const dayBody = JSON.stringify({ ...day.rest, observations: day.columns });
-    // The near-limit request: 22 days hold more than MAX_OBSERVATIONS at this sky; the first MAX_OBSERVATIONS rows.
-    const big = columnsRequest(22, MAX_OBSERVATIONS);
-    const bigJson = JSON.stringify({ ...big.rest, observations: big.columns });
-    const table = tableFromArrays({
-      epoch: big.columns.epoch as string[],
-      satellite: big.columns.satellite as string[],
-      elevation_deg: Float64Array.from(big.columns.elevation_deg as number[]),
-      azimuth_deg: Float64Array.from(big.columns.azimuth_deg as number[]),
-      residual_m: Float64Array.from(big.columns.residual_m as number[]),
-    }) as Table;
-    table.schema.metadata.set('request', JSON.stringify(big.rest));
-    const bigArrow = tableToIPC(table, 'stream') as Uint8Array<ArrayBuffer>;
-
     const idleMb = statusMb(pid, 'VmRSS');
+    // Warm-up: the worker threads start (and, under tsx, compile) with the first tasks.
+    await Promise.all([post(server, dayBody, 'application/json'), post(server, dayBody, 'application/json')]);
+    resetPeak(pid);
     let running = true;
     let dayRequests = 0;
     const client = async () => {
@@ -69,24 +116,63 @@ export default async function bench(): Promise<string[]> {
         dayRequests++;
       }
     };
+    const cpu0 = cpuS(pid);
     const clients = [client(), client()];
-    await new Promise((r) => setTimeout(r, 5000));
-    const loadMb = statusMb(pid, 'VmHWM');
+    await new Promise((r) => setTimeout(r, 8000));
+    const dayCpuMs = ((cpuS(pid) - cpu0) / Math.max(1, dayRequests)) * 1000;
+    const dayPeakMb = statusMb(pid, 'VmHWM');
+    resetPeak(pid);
     const t0 = performance.now();
-    await post(server, bigJson, 'application/json');
+    await post(server, monthJson, 'application/json');
     const jsonS = (performance.now() - t0) / 1000;
-    const afterJsonMb = statusMb(pid, 'VmHWM');
+    const jsonPeakMb = statusMb(pid, 'VmHWM');
+    resetPeak(pid);
     const t1 = performance.now();
-    await post(server, bigArrow, ARROW);
+    await post(server, monthArrow, ARROW);
     const arrowS = (performance.now() - t1) / 1000;
     running = false;
     await Promise.all(clients);
-    const peakMb = statusMb(pid, 'VmHWM');
-    return [
-      `service memory, default settings with 2 workers (MB): idle ${idleMb.toFixed(0)}, peak under two clients of 1-day requests (${day.count} observations, columns JSON) ${loadMb.toFixed(0)},`,
-      `  peak with a near-limit request too (${big.count} observations: columns JSON ${(bigJson.length / 1e6).toFixed(1)} MB in ${jsonS.toFixed(1)} s) ${afterJsonMb.toFixed(0)}, and as Arrow (${(bigArrow.length / 1e6).toFixed(1)} MB in ${arrowS.toFixed(1)} s) ${peakMb.toFixed(0)} (target < 600); ${dayRequests} day requests meanwhile`,
-    ];
+    return { idleMb, dayPeakMb, dayCpuMs, jsonPeakMb, jsonS, arrowPeakMb: statusMb(pid, 'VmHWM'), arrowS, dayRequests };
   } finally {
     await server.stop();
   }
+}
+
+const range = (xs: number[], digits = 0) => {
+  const lo = Math.min(...xs).toFixed(digits);
+  const hi = Math.max(...xs).toFixed(digits);
+  return lo === hi ? lo : `${lo}–${hi}`;
+};
+
+export default async function bench(): Promise<string[]> {
+  const rounds = Number(process.env.BENCH_ROUNDS ?? 2);
+  const day = gpsLikeColumns(1);
+  const dayBody = columnsJson(day);
+  const month = gpsLikeColumns(30);
+  if (month.count > MAX_OBSERVATIONS) throw new Error(`30 days are ${month.count} observations, over MAX_OBSERVATIONS`);
+  const monthJson = columnsJson(month);
+  const monthArrow = columnsArrow(month);
+  const settings = {
+    defaults: {},
+    'without the memory budget (as before)': { TROPODELAY_COMPUTE_MEMORY_BUDGET_MB: '0' },
+  };
+  const results = new Map<string, Round[]>(Object.keys(settings).map((k) => [k, []]));
+  for (let r = 0; r < rounds; r++)
+    for (const [name, env] of Object.entries(settings)) results.get(name)!.push(await round(env, dayBody, monthJson, monthArrow));
+  const loadavg = readFileSync('/proc/loadavg', 'utf8').split(' ').slice(0, 3).join(' ');
+  return [
+    `service memory (${process.env.BENCH_FROM_DIST === '1' ? 'node dist/server.js, as npm start' : 'through tsx'}), 2 workers, ${rounds} interleaved rounds, load average at the end ${loadavg}; 1 day = ${day.count} observations (${(dayBody.length / 1e6).toFixed(1)} MB columns JSON), 30 days = ${month.count} (columns JSON ${(monthJson.length / 1e6).toFixed(1)} MB, Arrow ${(monthArrow.length / 1e6).toFixed(1)} MB); peak RSS of the service process (MB):`,
+    ...[...results].map(
+      ([name, rs]) =>
+        `  ${name}: idle ${range(rs.map((x) => x.idleMb))}; two clients of 1-day requests ${range(rs.map((x) => x.dayPeakMb))} (service CPU ${range(
+          rs.map((x) => x.dayCpuMs),
+        )} ms a request); 30 days as columns JSON ${range(rs.map((x) => x.jsonPeakMb))} (${range(
+          rs.map((x) => x.jsonS),
+          1,
+        )} s), then as Arrow ${range(rs.map((x) => x.arrowPeakMb))} (${range(
+          rs.map((x) => x.arrowS),
+          1,
+        )} s); ${range(rs.map((x) => x.dayRequests))} day requests a round (target < 600)`,
+    ),
+  ];
 }

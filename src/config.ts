@@ -15,6 +15,14 @@ import { z } from 'zod';
 import { defaultWorkerCount } from './cpu-quota.js';
 import { MAX_NETWORK_DAY_STATION_OBSERVATIONS } from './limits.js';
 
+/**
+ * Memory budget of the worker tasks running at once [MB] (src/workers/compute-pool.ts MemoryBudget).
+ * 192 MB holds two 1-day estimations (~16 MB each as columns JSON) and a request of up to ~23 MB of
+ * columns JSON (~260 000 observations) beside them; anything larger runs alone (on new threads), so two
+ * near-limit requests never overlap (issue 14; bench/service-memory.bench.ts).
+ */
+export const DEFAULT_COMPUTE_MEMORY_BUDGET_MB = 192;
+
 /** Longest from..to range one read of a station series may ask for [days] (a station-year plus a leap day). */
 export const DEFAULT_MAX_READ_RANGE_DAYS = 366;
 
@@ -209,6 +217,11 @@ export const configSchema = z.object({
   ESTIMATION_QUEUE_LIMIT: integer(0, 10_000)
     .default(32)
     .describe('estimations that may wait for a worker before new ones get 503 + Retry-After, 0..10 000'),
+  TROPODELAY_COMPUTE_MEMORY_BUDGET_MB: integer(0, 1_048_576)
+    .default(DEFAULT_COMPUTE_MEMORY_BUDGET_MB)
+    .describe(
+      'memory the worker tasks running at once may take together [MB], each estimated from its body (src/limits.ts TASK_MEMORY_PER_BODY_BYTE); a task that does not fit waits (it counts against ESTIMATION_QUEUE_LIMIT), one larger than the budget runs alone; 0 = no budget',
+    ),
   RATE_LIMIT_PER_MINUTE: integer(0, 10_000_000)
     .default(0)
     .describe('requests per minute per API key or client address; health, ready and metrics exempt'),

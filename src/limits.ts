@@ -4,12 +4,32 @@
  * checks they make before any work. Nothing here imports anything.
  */
 
-/** Body limit of the ZWD-estimation routes [bytes]: 64 MiB, room for 7 days of 30 s data (~160 000 observations, ~21 MB of JSON). */
-export const ZWD_BODY_LIMIT_BYTES = 64 * 1024 * 1024;
+/**
+ * Body limit of the ZWD-estimation routes [bytes]: 96 MiB, room for MAX_OBSERVATIONS as column arrays
+ * (30 GPS-like days without gaps, ~826 000 observations, are ~73 MB as columns JSON, ~31 MB as Arrow;
+ * as JSON objects ~130 MB, above it: send long spans as columns, Arrow or CSV).
+ */
+export const ZWD_BODY_LIMIT_BYTES = 96 * 1024 * 1024;
 /** Body limit of the batch routes (mapping factors, slant delays, PWV, series uploads) [bytes]: 32 MiB. */
 export const BATCH_BODY_LIMIT_BYTES = 32 * 1024 * 1024;
-/** Observations of one estimation. */
-export const MAX_OBSERVATIONS = 500_000;
+/**
+ * Memory a worker task takes while it runs, per byte of its request body, by the body's form (the
+ * compute pool's memory budget, TROPODELAY_COMPUTE_MEMORY_BUDGET_MB). Measured (issue 14,
+ * bench/service-memory.child.ts: peak resident set of the whole estimation task in one process over
+ * the set before it, 17 GPS-like days, 467 790 observations): columns JSON 41.3 MB → +240 MB (5.8 per
+ * byte; its steps one by one, each kept, +285 MB: 6.9), Arrow 16.3 MB → +187 MB (11.5). CSV rows become
+ * objects before the checks: taken as 10 (not measured). JSON objects: as columns (more bytes per
+ * observation, more work per byte).
+ */
+export const TASK_MEMORY_PER_BODY_BYTE = { json: 7, arrow: 12, csv: 10 } as const;
+/**
+ * Observations of one estimation (and of one network estimation, residual deposit or observation CSV):
+ * 30 days of data from one constellation of 30 satellites at 30 s (7–11 in view: ~826 000 without
+ * gaps, test/helpers/gps-like-days.ts; issue 14), with room for 12 in view; counted while the body
+ * arrives. Such a request runs alone in the worker pool (its memory estimate is above
+ * TROPODELAY_COMPUTE_MEMORY_BUDGET_MB); its peak memory: README, Benchmarks, row memory.
+ */
+export const MAX_OBSERVATIONS = 900_000;
 /** Met records of one estimation (sent or read from the archive), and of one series upload. */
 export const MAX_MET_RECORDS = 100_000;
 /** Longest node interval of an estimation [s]: 30 days. */

@@ -37,12 +37,17 @@ export function readEstimationBodies(app: FastifyInstance, maxRows: number): voi
       let counter: RowCounter | undefined = counterOf();
       const chunks: Buffer[] = [];
       let bytes = 0;
+      // With a Content-Length within the limit the body is copied into one buffer as it arrives, so that it
+      // is never held twice (the chunks and their concatenation: 2 × 70 MB for 30 days as columns JSON).
+      const declared = Number(request.headers['content-length']);
+      let whole = Number.isInteger(declared) && declared > 0 && declared <= limit ? Buffer.allocUnsafeSlow(declared) : undefined;
       let finished = false;
       // The rest of the body is not held: it is read and dropped (the client gets the answer while it sends, and
       // a client that stops on it can keep its connection) up to the body limit, past which the socket is closed.
       const refuse = (detail: string, errors?: FieldError[]) => {
         finished = true;
         chunks.length = 0;
+        whole = undefined;
         // Handed to the handler (rawBodyOf throws it): an error from a parser would make fastify close the
         // connection at once, and the client, still sending, could lose the answer to the reset.
         done(null, new RefusedBody(new HttpProblem(413, detail, errors)));
@@ -54,7 +59,11 @@ export function readEstimationBodies(app: FastifyInstance, maxRows: number): voi
           return;
         }
         if (bytes > limit) return refuse(`request body is larger than this route accepts (${limit} bytes)`);
-        chunks.push(chunk);
+        if (whole && bytes <= whole.length) chunk.copy(whole, bytes - chunk.length);
+        else if (whole) {
+          chunks.push(whole.subarray(0, bytes - chunk.length), chunk); // more than declared (not seen from Node's parser)
+          whole = undefined;
+        } else chunks.push(chunk);
         try {
           counter?.push(chunk);
         } catch {
@@ -68,7 +77,7 @@ export function readEstimationBodies(app: FastifyInstance, maxRows: number): voi
       payload.on('end', () => {
         if (finished) return;
         finished = true;
-        const body = Buffer.concat(chunks, bytes);
+        const body = whole ? (bytes === whole.length ? whole : whole.subarray(0, bytes)) : Buffer.concat(chunks, bytes);
         done(null, asText ? body.toString('utf8') : body);
       });
       payload.on('error', (err) => {

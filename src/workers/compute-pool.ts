@@ -31,6 +31,13 @@ export interface ComputePoolOptions<Tasks extends Record<string, ComputeTask>> {
   queueLimit: number;
   /** The tasks by name. */
   tasks: { [K in keyof Tasks]: TaskLocation };
+  /**
+   * Memory the running tasks may take together [bytes] (each task's own estimate, `run`'s `memoryBytes`);
+   * 0 or absent: no budget. A task that does not fit waits, and the tasks after it wait behind it (first
+   * come, first served, so a large task is not starved by a stream of small ones); a task larger than the
+   * whole budget runs alone. Tasks that declare no memory are not held.
+   */
+  memoryBudgetBytes?: number;
   /** Called after each task with its name and run time [s]. */
   onTaskDone?: (task: keyof Tasks & string, durationS: number) => void;
 }
@@ -82,23 +89,102 @@ export function retryAfterEstimateS(load: { queued: number; running: number; thr
 /** Weight of the newest run time in the moving mean: about the last 10 tasks count. */
 const MEAN_WEIGHT = 0.2;
 
+/**
+ * Admission by memory (ComputePoolOptions.memoryBudgetBytes): a first-come, first-served semaphore
+ * counted in bytes. `admit` resolves when the task's bytes fit beside those already admitted and no
+ * task waits before it; a task larger than the whole budget is admitted when nothing else is.
+ */
+export class MemoryBudget {
+  private inUse = 0;
+  private admitted = 0;
+  private readonly waiting: { bytes: number; go: () => void }[] = [];
+
+  constructor(readonly budgetBytes: number) {}
+
+  /** Tasks waiting for memory. */
+  get queued(): number {
+    return this.waiting.length;
+  }
+
+  /** Bytes of the tasks admitted and not yet released. */
+  get bytesInUse(): number {
+    return this.inUse;
+  }
+
+  /** Whether a task of `bytes` would wait (for memory, or behind a task waiting for it). */
+  mustWait(bytes: number): boolean {
+    return this.waiting.length > 0 || !this.fits(bytes);
+  }
+
+  private fits(bytes: number): boolean {
+    return this.admitted === 0 || this.inUse + bytes <= this.budgetBytes;
+  }
+
+  /** Waits until `bytes` may run; the caller calls the returned release once, when the task has ended. */
+  async admit(bytes: number): Promise<() => void> {
+    if (!this.mustWait(bytes)) this.take(bytes);
+    else await new Promise<void>((go) => this.waiting.push({ bytes, go })); // wake() takes the bytes for it
+    let released = false;
+    return () => {
+      if (released) return;
+      released = true;
+      this.inUse -= bytes;
+      this.admitted--;
+      this.wake();
+    };
+  }
+
+  private take(bytes: number): void {
+    this.inUse += bytes;
+    this.admitted++;
+  }
+
+  /** Admits the waiting tasks in order, as many as fit. */
+  private wake(): void {
+    while (this.waiting.length > 0 && this.fits(this.waiting[0]!.bytes)) {
+      const next = this.waiting.shift()!;
+      this.take(next.bytes);
+      next.go();
+    }
+  }
+}
+
 export class ComputePool<Tasks extends Record<string, ComputeTask>> {
   private pool: Piscina | undefined;
   private running = 0;
+  private readonly budget: MemoryBudget | undefined;
+  /** Tasks handed to piscina and not yet answered (queued there or running). */
+  private onThreads = 0;
+  /** Worker sets replaced after a task over the memory budget (recycle()). */
+  recycled = 0;
   /** Exponentially weighted mean run time of recent tasks [s]; null before the first. */
   private meanRunS: number | null = null;
 
-  constructor(private readonly options: ComputePoolOptions<Tasks>) {}
+  constructor(private readonly options: ComputePoolOptions<Tasks>) {
+    if (options.memoryBudgetBytes) this.budget = new MemoryBudget(options.memoryBudgetBytes);
+  }
 
-  /** Tasks waiting for a worker. */
+  /** The piscina pool, started with the first task (and again after recycle()). */
+  private threads(): Piscina {
+    return (this.pool ??= new Piscina({
+      ...workerLocation(),
+      minThreads: this.options.threads, // all started at once: no thread is spawned in the middle of a load
+      maxThreads: this.options.threads,
+      maxQueue: this.options.queueLimit,
+      idleTimeout: 60_000,
+    }));
+  }
+
+  /** Tasks waiting for a worker or for memory (ComputePoolOptions.memoryBudgetBytes). */
   get queued(): number {
-    return this.pool?.queueSize ?? 0;
+    return (this.pool?.queueSize ?? 0) + (this.budget?.queued ?? 0);
   }
 
   /**
    * Runs a task in a worker. `transfer`: array buffers of the input moved to the worker instead of
    * copied (they are detached here afterwards); the worker moves the typed arrays of its output back
-   * the same way (compute-worker.ts).
+   * the same way (compute-worker.ts). `memoryBytes`: what the task may take while it runs (an
+   * estimate, see memoryBudgetBytes); 0 = not held by the budget.
    *
    * @throws ComputePoolFullError when the queue is full
    * @throws ComputeTaskError when the task answers with an error outcome
@@ -107,23 +193,37 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
     task: K,
     input: TaskInput<Tasks[K]>,
     transfer: ArrayBuffer[] = [],
+    memoryBytes = 0,
   ): Promise<TaskOutput<Tasks[K]>> {
-    const pool = (this.pool ??= new Piscina({
-      ...workerLocation(),
-      minThreads: this.options.threads, // all started at once: no thread is spawned in the middle of a load
-      maxThreads: this.options.threads,
-      maxQueue: this.options.queueLimit,
-      idleTimeout: 60_000,
-    }));
     const location = this.options.tasks[task];
     let response: ComputeResponse;
     this.running++;
+    let release: (() => void) | undefined;
     try {
-      response = (await pool.run({ ...location, input } satisfies ComputeRequest, { transferList: transfer })) as ComputeResponse;
+      if (this.budget && memoryBytes > 0) {
+        // Waiting for memory counts against the same queue limit as waiting for a thread.
+        if (this.budget.mustWait(memoryBytes) && this.queued >= this.options.queueLimit) throw new ComputePoolFullError(this.retryAfterS());
+        release = await this.budget.admit(memoryBytes);
+        // A task over the whole budget runs alone: it starts on new threads, so that the heaps the earlier
+        // tasks grew (V8 keeps a thread's heap at its high-water mark) are not held beside its own.
+        if (memoryBytes > this.budget.budgetBytes && this.onThreads === 0 && this.pool) await this.recycle();
+      }
+      this.onThreads++;
+      try {
+        response = (await this.threads().run({ ...location, input } satisfies ComputeRequest, {
+          transferList: transfer,
+        })) as ComputeResponse;
+      } finally {
+        this.onThreads--;
+      }
+      // And it ends on new threads too: the heap it grew goes with its thread before the next task is admitted.
+      if (this.budget && memoryBytes > this.budget.budgetBytes && this.onThreads === 0) await this.recycle();
     } catch (err) {
       this.running--;
       if (err instanceof Error && /queue is at limit/i.test(err.message)) throw new ComputePoolFullError(this.retryAfterS());
       throw err;
+    } finally {
+      release?.();
     }
     this.running--;
     const durationS = response.durationMs / 1000;
@@ -147,6 +247,17 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
       threads: this.options.threads,
       meanRunS: this.meanRunS,
     });
+  }
+
+  /**
+   * Replaces the worker threads (the next task starts new ones): the old threads end with their heaps.
+   * Only when no task is on them.
+   */
+  private async recycle(): Promise<void> {
+    const old = this.pool;
+    this.pool = undefined;
+    this.recycled++;
+    await old?.destroy();
   }
 
   async close(): Promise<void> {

@@ -10,6 +10,7 @@ import type { Config } from '../../config.js';
 import { ComputePool, ComputePoolFullError, ComputeTaskError, type TaskInput, type TaskOutput } from '../../workers/compute-pool.js';
 import { COMPUTE_TASKS, type ComputeTaskName, type ComputeTasks } from '../compute-tasks.js';
 import { HttpProblem } from '../problem.js';
+import { TASK_MEMORY_PER_BODY_BYTE } from '../../limits.js';
 
 type ComputeTaskInput<T extends ComputeTaskName> = TaskInput<ComputeTasks[T]>;
 type ComputeTaskOutput<T extends ComputeTaskName> = TaskOutput<ComputeTasks[T]>;
@@ -26,7 +27,21 @@ declare module 'fastify' {
 }
 
 export interface ComputePoolPluginOptions {
-  config: Pick<Config, 'ESTIMATION_WORKERS' | 'ESTIMATION_QUEUE_LIMIT'>;
+  config: Pick<Config, 'ESTIMATION_WORKERS' | 'ESTIMATION_QUEUE_LIMIT' | 'TROPODELAY_COMPUTE_MEMORY_BUDGET_MB'>;
+}
+
+const MB = 1024 * 1024;
+
+/**
+ * What a task may take while it runs [bytes], for the pool's memory budget: its request body (JSON or
+ * Arrow bytes, CSV text) times the measured cost per body byte of its form (TASK_MEMORY_PER_BODY_BYTE);
+ * a task without a body (a campaign item) is not held by the budget.
+ */
+export function taskMemoryBytes(input: unknown): number {
+  const { body, format } = (input ?? {}) as { body?: unknown; format?: unknown };
+  const size = typeof body === 'string' ? body.length : body instanceof Uint8Array ? body.byteLength : 0;
+  const perByte = TASK_MEMORY_PER_BODY_BYTE[format as keyof typeof TASK_MEMORY_PER_BODY_BYTE] ?? TASK_MEMORY_PER_BODY_BYTE.json;
+  return size * perByte;
 }
 
 async function computePool(app: FastifyInstance, { config }: ComputePoolPluginOptions): Promise<void> {
@@ -34,12 +49,13 @@ async function computePool(app: FastifyInstance, { config }: ComputePoolPluginOp
     tasks: COMPUTE_TASKS,
     threads: config.ESTIMATION_WORKERS,
     queueLimit: config.ESTIMATION_QUEUE_LIMIT,
+    memoryBudgetBytes: config.TROPODELAY_COMPUTE_MEMORY_BUDGET_MB * MB,
     onTaskDone: (task, durationS) => app.metrics.computeDuration.observe({ task }, durationS),
   });
   app.decorate('compute', {
     async run<T extends ComputeTaskName>(task: T, input: ComputeTaskInput<T>, transfer?: ArrayBuffer[]): Promise<ComputeTaskOutput<T>> {
       try {
-        const output = await pool.run(task, input, transfer);
+        const output = await pool.run(task, input, transfer, taskMemoryBytes(input));
         app.metrics.computeSize.observe({ task }, output.observations);
         return output;
       } catch (err) {

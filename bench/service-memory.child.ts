@@ -1,0 +1,82 @@
+/**
+ * Where the bytes of one large estimation request go, stage by stage, in one process (run by hand:
+ * `node --expose-gc --import tsx bench/service-memory.child.ts <days> <json|arrow> [stages]`): GPS-like days (one
+ * constellation of 30 satellites at 30 s, 7–11 in view) as columns JSON or Arrow, then the worker task
+ * (handleZwdRequest) as the pool runs it. For each stage: the heap and array buffers kept after it
+ * (after a full GC) and the resident-set peak during it (VmHWM, reset before the stage through
+ * /proc/self/clear_refs), so the stage's own transient bytes show. With `stages` (columns JSON), the task's steps
+ * one by one: body text, JSON.parse, column checks, domain columns, estimation, answer bytes.
+ */
+
+import { readFileSync, writeFileSync } from 'node:fs';
+import { handleZwdRequest } from '../src/http/tasks/zwd-request.js';
+import { columnsArrow, columnsJson, gpsLikeColumns } from '../test/helpers/gps-like-days.js';
+import { readColumns, columnSpecsOf } from '../src/http/columns.js';
+import { observationsFromColumns, toZwdRequest, zwdEstimatesResponseOf } from '../src/http/adapters/zwd-estimation.js';
+import { zwdEstimatesColumnarRest, zwdObservationSchema, ZWD_ANSWER_TABLES } from '../src/http/schemas/zwd-estimates.js';
+import { runZwdEstimation } from '../src/services/zwd-estimation.js';
+import { tableAnswer } from '../src/http/table-answer.js';
+
+const MB = 1024 * 1024;
+const status = (field: string) => Number(new RegExp(`${field}:\\s+(\\d+) kB`).exec(readFileSync('/proc/self/status', 'utf8'))![1]) / 1024;
+const gc = () => (globalThis as { gc?: () => void }).gc?.();
+
+async function main() {
+  const days = Number(process.argv[2] ?? 30);
+  const format = (process.argv[3] ?? 'json') as 'json' | 'arrow';
+  let body: Uint8Array<ArrayBuffer> | undefined;
+  {
+    const req = gpsLikeColumns(days);
+    body = format === 'json' ? columnsJson(req) : columnsArrow(req);
+    process.stdout.write(`${days} GPS-like days: ${req.count} observations, ${format} ${(body.byteLength / 1e6).toFixed(1)} MB\n`);
+  }
+  gc();
+  const line = (stage: string) => {
+    const m = process.memoryUsage();
+    process.stdout.write(
+      `${stage.padEnd(28)} peak RSS ${status('VmHWM').toFixed(0).padStart(5)} MB, after: RSS ${(m.rss / MB).toFixed(0).padStart(5)}, heap ${(m.heapUsed / MB).toFixed(0).padStart(4)}, buffers ${(m.arrayBuffers / MB).toFixed(0).padStart(4)}\n`,
+    );
+  };
+  line('before the task');
+  if (format === 'json' && process.argv[4] === 'stages') {
+    // The task's stages one by one (as handleZwdRequest runs them for columns JSON), each kept alive.
+    const stage = <T>(name: string, run: () => T): T => {
+      writeFileSync('/proc/self/clear_refs', '5');
+      const out = run();
+      gc();
+      line(name);
+      return out;
+    };
+    const text = stage('body as text', () => Buffer.from(body!).toString('utf8'));
+    const raw = stage('JSON.parse', () => JSON.parse(text) as { observations: Record<string, unknown[]> });
+    const read = stage('column checks', () =>
+      readColumns(raw.observations, 'observations', columnSpecsOf(zwdObservationSchema.shape), Infinity, 'observations'),
+    );
+    if (!read.ok) throw new Error('columns');
+    const obs = stage('domain columns', () => observationsFromColumns(read.columns));
+    const rest = zwdEstimatesColumnarRest.parse(raw) as unknown as Parameters<typeof toZwdRequest>[1] & {
+      site: { latitude_deg: number; longitude_deg: number; height_m: number };
+    };
+    const site = { latitudeDeg: rest.site.latitude_deg, longitudeDeg: rest.site.longitude_deg, heightM: rest.site.height_m };
+    const result = stage('estimation', () => runZwdEstimation(toZwdRequest(site, rest, obs)));
+    stage('answer bytes', () =>
+      tableAnswer(zwdEstimatesResponseOf(result), ZWD_ANSWER_TABLES, { shape: 'rows', format: 'json', fields: ['ztd_m', 'sigma_m'] }),
+    );
+    return;
+  }
+  writeFileSync('/proc/self/clear_refs', '5');
+  const outcome = await handleZwdRequest({
+    body: body!,
+    format,
+    query: {},
+    answer: { shape: 'rows', format: 'json', fields: ['ztd_m', 'sigma_m'] },
+  });
+  line('task (kept: body, answer)');
+  if (!outcome.ok) throw new Error(JSON.stringify(outcome.error));
+  process.stdout.write(`answer ${(outcome.output.json.byteLength / 1e6).toFixed(1)} MB\n`);
+  body = undefined;
+  gc();
+  line('after, body dropped');
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) await main();
