@@ -23,6 +23,13 @@ export const BATCH_BODY_LIMIT_BYTES = 32 * 1024 * 1024;
  */
 export const TASK_MEMORY_PER_BODY_BYTE = { json: 7, arrow: 12, csv: 10 } as const;
 /**
+ * Memory of a network day from residual deposits (POST /v1/network/days/{day}/zwd-estimates, no body) in
+ * the pool's memory budget, per station × observation [bytes]: `npm run bench -- network-day`, 50 stations,
+ * 2.37 M observations (118.5 M), peak RSS 1 869 MB of a fresh service process, about 150 MB of it before
+ * the request: (1 869 − 150) MB / 118.5 M ≈ 14.5, taken as 15.
+ */
+export const NETWORK_DAY_MEMORY_PER_STATION_OBSERVATION = 15;
+/**
  * Observations of one estimation (and of one network estimation, residual deposit or observation CSV):
  * 30 days of data from one constellation of 30 satellites at 30 s (7–11 in view: ~826 000 without
  * gaps, test/helpers/gps-like-days.ts; issue 14), with room for 12 in view; counted while the body

@@ -9,7 +9,12 @@
 import { describe, expect, it } from 'vitest';
 import { DEFAULT_COMPUTE_MEMORY_BUDGET_MB, loadConfig } from '../../src/config.js';
 import { taskMemoryBytes } from '../../src/http/plugins/compute-pool.js';
-import { MAX_OBSERVATIONS, TASK_MEMORY_PER_BODY_BYTE, ZWD_BODY_LIMIT_BYTES } from '../../src/limits.js';
+import {
+  MAX_OBSERVATIONS,
+  NETWORK_DAY_MEMORY_PER_STATION_OBSERVATION,
+  TASK_MEMORY_PER_BODY_BYTE,
+  ZWD_BODY_LIMIT_BYTES,
+} from '../../src/limits.js';
 import { ComputePool, ComputePoolFullError, MemoryBudget } from '../../src/workers/compute-pool.js';
 
 const MB = 1024 * 1024;
@@ -98,6 +103,17 @@ describe('taskMemoryBytes: body bytes × the cost per byte of the form', () => {
     expect(taskMemoryBytes({ body: new Uint8Array(1000), format: 'arrow' })).toBe(1000 * TASK_MEMORY_PER_BODY_BYTE.arrow);
     expect(taskMemoryBytes({ body: 'x'.repeat(1000), format: 'csv' })).toBe(1000 * TASK_MEMORY_PER_BODY_BYTE.csv);
     expect(taskMemoryBytes({ itemId: 7 })).toBe(0);
+  });
+
+  it('a task without a body that states its memory (a network day from deposits) is held by it', () => {
+    // 50 stations × 2.37 M observations at 15 bytes (measured by `npm run bench -- network-day`): ~1.8 GB, alone.
+    const networkDay = taskMemoryBytes({
+      day: '2026-10-01',
+      residuals: [],
+      memoryBytes: 50 * 2.37e6 * NETWORK_DAY_MEMORY_PER_STATION_OBSERVATION,
+    });
+    expect(networkDay).toBe(50 * 2.37e6 * NETWORK_DAY_MEMORY_PER_STATION_OBSERVATION);
+    expect(networkDay).toBeGreaterThan(DEFAULT_COMPUTE_MEMORY_BUDGET_MB * MB);
   });
 
   it('with the default budget, a 1-day request (2.3 MB of columns JSON) runs beside others and a body near the limit runs alone', () => {

@@ -38,7 +38,9 @@ const MB = 1024 * 1024;
  * a task without a body (a campaign item) is not held by the budget.
  */
 export function taskMemoryBytes(input: unknown): number {
-  const { body, format } = (input ?? {}) as { body?: unknown; format?: unknown };
+  const { body, format, memoryBytes } = (input ?? {}) as { body?: unknown; format?: unknown; memoryBytes?: unknown };
+  // A task without a body whose route knows its size (a network day from deposits) says so itself.
+  if (typeof memoryBytes === 'number') return memoryBytes;
   const size = typeof body === 'string' ? body.length : body instanceof Uint8Array ? body.byteLength : 0;
   const perByte = TASK_MEMORY_PER_BODY_BYTE[format as keyof typeof TASK_MEMORY_PER_BODY_BYTE] ?? TASK_MEMORY_PER_BODY_BYTE.json;
   return size * perByte;

@@ -9,6 +9,7 @@
 
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { Site } from '../../domain/site.js';
+import { NETWORK_DAY_MEMORY_PER_STATION_OBSERVATION } from '../../limits.js';
 import { CallerError } from '../../services/caller-error.js';
 import { ResidualStore } from '../../storage/campaigns/residual-store.js';
 import { problemSchema } from '../schemas/common.js';
@@ -110,6 +111,7 @@ const networkDaysRoute: FastifyPluginAsyncZod<NetworkDaysRouteOptions> = async (
         archiveSites,
         storedMet,
         maxStationObservations: options.maxStationObservations,
+        memoryBytes: body.stations.length * observations * NETWORK_DAY_MEMORY_PER_STATION_OBSERVATION,
       });
       const stored = await storeNetwork(app.repository, source, output.delays!, output.modelFingerprint!, output.models!, output.metUsed!);
       request.auditDetail = {

@@ -348,6 +348,8 @@ export interface NetworkDayTaskInput {
   storedMet: Record<string, MetColumns>;
   /** Largest stations × observations (the replica's setting). */
   maxStationObservations: number;
+  /** The task's memory in the pool's budget [bytes] (stations × observations × NETWORK_DAY_MEMORY_PER_STATION_OBSERVATION). */
+  memoryBytes: number;
 }
 
 /** The day's deposits of the stations as the network's observation columns (station order, then each deposit's order). */
