@@ -13,35 +13,17 @@ import { resourceUsage } from 'node:process';
 import { buildApp } from '../src/http/app.js';
 import { encodeResidualDay } from '../src/formats/residual-day-form.js';
 import { ResidualStore } from '../src/storage/campaigns/residual-store.js';
-import { simulateNetwork, stationAt, type SimStation } from '../test/estimation/network/network-simulator.js';
+import type { SimStation } from '../test/estimation/network/network-simulator.js';
+import { benchNetwork, benchStations } from './bench-network.js';
 
 const RAD = 180 / Math.PI;
 const KEY = 'bench-key-0123456789abcdef';
 const mode = process.argv[2] as 'deposit' | 'serve';
 const dir = process.argv[3]!;
 const stations = Number(process.argv[4] ?? 50);
-const list = Array.from({ length: stations }, (_, i) =>
-  stationAt(`B${String(i).padStart(3, '0')}`, 48, 11, i === 0 ? 0 : 100 + ((i * 37) % 500), (i * 137.5) % 360),
-);
-
-function simulate(stationList: SimStation[], startIso: string, hours: number) {
-  return simulateNetwork({
-    seed: 61,
-    stations: stationList,
-    startIso,
-    durationS: hours * 3600 - 30, // the last epoch 23:59:30: a deposit holds one UTC day
-    samplingS: 30,
-    minElevationDeg: 7,
-    sigma0M: 0.003,
-    satellitesPerPlane: 9,
-    zwd: { intervalS: 300, randomWalkMPerSqrtH: 0.01, initialSigmaM: 0.05 },
-    gradients: { intervalS: 21_600, randomWalkMPerSqrtH: 0.001, initialSigmaM: 0.0005 },
-    commonOffsetM: 0,
-    receiverClockAmplitudeM: 300_000,
-    satelliteClockAmplitudeM: 300_000,
-    grossErrors: Math.round((stationList.length * hours) / 4),
-  });
-}
+const list = benchStations(stations);
+// The last epoch 23:59:30 (a deposit holds one UTC day).
+const simulate = (stationList: SimStation[], startIso: string, hours: number) => benchNetwork(stationList, startIso, hours * 3600 - 30);
 
 const app = await buildApp({
   logger: false,

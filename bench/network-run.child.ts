@@ -6,7 +6,8 @@
 
 import { resourceUsage } from 'node:process';
 import { estimateNetwork } from '../src/estimation/network/estimate-network.js';
-import { networkOptions, simulateNetwork, stationAt, toNetworkInput } from '../test/estimation/network/network-simulator.js';
+import { networkOptions, toNetworkInput } from '../test/estimation/network/network-simulator.js';
+import { benchNetwork, benchStations } from './bench-network.js';
 
 const stations = Number(process.argv[2] ?? 10);
 const hours = Number(process.argv[3] ?? 24);
@@ -15,26 +16,7 @@ const screening = (process.argv[4] ?? 'on') === 'on';
 // 300 s / 1 800 s, correlated-noise inflation, variance components); "nodes-6h": the network's model
 // before (the caller's 300-s ZWD and 6-h gradient nodes), for comparisons in the same conditions.
 const model = process.argv[5] ?? 'default';
-// Stations on rings around an invented centre, up to 600 km out (all see mostly the same sky).
-const list = Array.from({ length: stations }, (_, i) =>
-  stationAt(`B${String(i).padStart(3, '0')}`, 48, 11, i === 0 ? 0 : 100 + ((i * 37) % 500), (i * 137.5) % 360),
-);
-const sim = simulateNetwork({
-  seed: 61,
-  stations: list,
-  startIso: '2026-10-01T00:00:00Z',
-  durationS: hours * 3600,
-  samplingS: 30,
-  minElevationDeg: 7,
-  sigma0M: 0.003,
-  satellitesPerPlane: 9,
-  zwd: { intervalS: 300, randomWalkMPerSqrtH: 0.01, initialSigmaM: 0.05 },
-  gradients: { intervalS: 21_600, randomWalkMPerSqrtH: 0.001, initialSigmaM: 0.0005 },
-  commonOffsetM: 0,
-  receiverClockAmplitudeM: 300_000,
-  satelliteClockAmplitudeM: 300_000,
-  grossErrors: Math.round((stations * hours) / 4),
-});
+const sim = benchNetwork(benchStations(stations), '2026-10-01T00:00:00Z', hours * 3600);
 const input = toNetworkInput(
   sim,
   networkOptions({

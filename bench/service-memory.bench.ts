@@ -15,10 +15,9 @@
  * runs the service as `npm start` does (compiled dist/, no tsx) instead.
  */
 
-import { spawn } from 'node:child_process';
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { MAX_OBSERVATIONS } from '../src/limits.js';
-import { freePort, serverEnvironment, startServerProcess, type ServerProcess } from '../test/helpers/server-process.js';
+import { startServerProcess, type ServerProcess } from '../test/helpers/server-process.js';
 import { columnsArrow, columnsJson, gpsLikeColumns } from '../test/helpers/gps-like-days.js';
 
 const ARROW = 'application/vnd.apache.arrow.stream';
@@ -37,41 +36,6 @@ const cpuS = (pid: number) => {
   const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
   return (Number(fields[11]) + Number(fields[12])) / CLOCK_TICKS;
 };
-
-/**
- * The service as `npm start` runs it (`node --max-semi-space-size=32 dist/server.js`, no tsx), from a
- * dist/ built beforehand (`npx tsc -p tsconfig.build.json`): BENCH_FROM_DIST=1.
- */
-async function startFromDist(env: Record<string, string>): Promise<ServerProcess> {
-  if (!existsSync('dist/server.js')) throw new Error('BENCH_FROM_DIST=1: build dist/ first (npx tsc -p tsconfig.build.json)');
-  const port = await freePort();
-  const child = spawn(process.execPath, ['--max-semi-space-size=32', 'dist/server.js'], {
-    env: { ...serverEnvironment(port, env), NODE_OPTIONS: '' },
-    stdio: ['ignore', 'ignore', 'inherit'],
-  });
-  const baseUrl = `http://127.0.0.1:${port}`;
-  for (const deadline = Date.now() + 30_000; ;) {
-    if (
-      await fetch(`${baseUrl}/v1/health`).then(
-        (r) => r.ok,
-        () => false,
-      )
-    )
-      break;
-    if (Date.now() > deadline || child.exitCode !== null) throw new Error('service did not start');
-    await new Promise((r) => setTimeout(r, 100));
-  }
-  return {
-    baseUrl,
-    child,
-    stop: () =>
-      new Promise((resolve) => {
-        if (child.exitCode !== null || child.signalCode !== null) return resolve(child.exitCode);
-        child.once('exit', (code) => resolve(code));
-        child.kill('SIGTERM');
-      }),
-  };
-}
 
 async function post(server: ServerProcess, body: Uint8Array<ArrayBuffer>, type: string): Promise<void> {
   const res = await fetch(`${server.baseUrl}/v1/zwd-estimates?fields=ztd_m,sigma_m`, {
@@ -101,7 +65,10 @@ async function round(
   monthArrow: Uint8Array<ArrayBuffer>,
 ): Promise<Round> {
   const settings = { TROPODELAY_ESTIMATION_WORKERS: '2', ...env };
-  const server = process.env.BENCH_FROM_DIST === '1' ? await startFromDist(settings) : await startServerProcess(settings, true);
+  const fromDist = process.env.BENCH_FROM_DIST === '1';
+  // BENCH_FROM_DIST=1: the service as `npm start` runs it, from a dist/ built beforehand (npx tsc -p tsconfig.build.json).
+  if (fromDist && !existsSync('dist/server.js')) throw new Error('BENCH_FROM_DIST=1: build dist/ first (npx tsc -p tsconfig.build.json)');
+  const server = await startServerProcess(settings, true, fromDist);
   const pid = server.child.pid!;
   try {
     const idleMb = statusMb(pid, 'VmRSS');

@@ -49,11 +49,14 @@ export function serverEnvironment(port: number, env: Record<string, string> = {}
 /**
  * @param env extra environment, settings by their current or deprecated name (log level defaults to warn)
  * @param discardLogs send the service's stdout (its log lines) nowhere, e.g. to measure at TROPODELAY_LOG_LEVEL=info
+ * @param fromDist run dist/server.js as `npm start` does instead of src/server.ts under tsx
  */
-export async function startServerProcess(env: Record<string, string> = {}, discardLogs = false): Promise<ServerProcess> {
+export async function startServerProcess(env: Record<string, string> = {}, discardLogs = false, fromDist = false): Promise<ServerProcess> {
   const port = await freePort();
-  const child = spawn(process.execPath, ['--import', 'tsx', 'src/server.ts'], {
-    env: serverEnvironment(port, env),
+  // fromDist: as `npm start` runs it (node --max-semi-space-size=32 dist/server.js, no tsx); dist/ built beforehand.
+  const args = fromDist ? ['--max-semi-space-size=32', 'dist/server.js'] : ['--import', 'tsx', 'src/server.ts'];
+  const child = spawn(process.execPath, args, {
+    env: { ...serverEnvironment(port, env), ...(fromDist ? { NODE_OPTIONS: '' } : {}) },
     stdio: ['ignore', discardLogs ? 'ignore' : 'inherit', 'inherit'],
   });
   const baseUrl = `http://127.0.0.1:${port}`;

@@ -225,6 +225,19 @@ describe.runIf(TEST_PG_URL && pgDumpOnPath)(
           .expect(200);
       }
       dumpDir = mkdtempSync(join(tmpdir(), 'tropodelay-pgdump-'));
+      // The campaign queue (pg-boss) starts after the app is ready without holding it up, creating its
+      // tables as it goes; dump once it has, so that the schema does not change under the dump.
+      for (const deadline = Date.now() + 30_000; ;) {
+        const started = await admin(TEST_PG_URL!, (c) =>
+          c.query(`SELECT 1 FROM "${storage.pgSchema}".queue WHERE name = 'tropodelay-campaign-items'`).then(
+            (r) => r.rowCount === 1,
+            () => false,
+          ),
+        );
+        if (started) break;
+        if (Date.now() > deadline) throw new Error('the campaign queue did not start within 30 s');
+        await new Promise((r) => setTimeout(r, 100));
+      }
     });
     afterAll(async () => {
       await app?.close();

@@ -30,6 +30,7 @@ import { tableAnswer } from '../table-answer.js';
 import { columnSpecsOf, readColumns, type ColumnSpec } from '../columns.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
 import { stationZwdEstimatesQuery } from '../schemas/station-zwd-estimates.js';
+import { epochRangeOf, epochTextsOf } from './epoch-range.js';
 import { asOutcome, fail } from './task-errors.js';
 import type { PreparedRequest } from './prepared-request.js';
 import {
@@ -341,27 +342,10 @@ export async function scanZwdRequest(
       const text = bodyText(input.body);
       const parsed = JSON.parse(text) as { observations?: unknown; met?: unknown } | null;
       hasMet = parsed !== null && typeof parsed === 'object' && parsed.met !== undefined;
-      if (parsed && Array.isArray(parsed.observations))
-        epochs = parsed.observations.map((o) => (o && typeof o === 'object' ? (o as { epoch?: unknown }).epoch : undefined));
-      else if (parsed && isColumnObject(parsed.observations)) {
-        const column = (parsed.observations as { epoch?: unknown }).epoch;
-        if (Array.isArray(column)) epochs = column;
-      }
+      if (parsed) epochs = epochTextsOf(parsed.observations);
     }
   } catch {
     return { ok: true, output: { range: null, hasMet, observations: 0, ...bytesBack(input.body) } };
   }
-  let firstMs = Infinity;
-  let lastMs = -Infinity;
-  for (const e of epochs) {
-    if (typeof e !== 'string' || e.length > 64) continue;
-    const ms = Date.parse(e);
-    if (Number.isNaN(ms)) continue;
-    if (ms < firstMs) firstMs = ms;
-    if (ms > lastMs) lastMs = ms;
-  }
-  return {
-    ok: true,
-    output: { range: firstMs <= lastMs ? { firstMs, lastMs } : null, hasMet, observations: epochs.length, ...bytesBack(input.body) },
-  };
+  return { ok: true, output: { range: epochRangeOf(epochs), hasMet, observations: epochs.length, ...bytesBack(input.body) } };
 }

@@ -19,6 +19,7 @@ import type {
   ReplicaWork,
   StationDay,
 } from '../../storage/campaigns/campaign-store.js';
+import { ITEM_STATES } from '../../storage/campaigns/campaign-store.js';
 import type { ResidualDayInfo, ResidualStore } from '../../storage/campaigns/residual-store.js';
 import type { WorkItem, WorkQueue } from '../../storage/campaigns/work-queue.js';
 import type { Repository } from '../../storage/repository.js';
@@ -267,15 +268,7 @@ export class CampaignService {
 
   /** The campaign's items of this station that read `day`. */
   private async itemsReading(campaign: CampaignRecord, stationId: string, day: string): Promise<ItemRecord[]> {
-    const items = await this.store.itemsOfStation(campaign.campaignId, stationId, [
-      'awaiting_residuals',
-      'pending',
-      'running',
-      'done',
-      'failed',
-      'cancelled',
-      'no_residuals',
-    ]);
+    const items = await this.store.itemsOfStation(campaign.campaignId, stationId, ITEM_STATES);
     return items.filter((i) => inputDaysOf(campaign, i.day).includes(day));
   }
 
