@@ -123,9 +123,13 @@ export default async function bench(): Promise<string[]> {
     defaults: {},
     'without the memory budget (as before)': { TROPODELAY_COMPUTE_MEMORY_BUDGET_MB: '0' },
   };
-  const results = new Map<string, Round[]>(Object.keys(settings).map((k) => [k, []]));
+  // BENCH_SETTINGS=defaults: the defaults alone (e.g. to compare two builds of dist/ in alternate runs).
+  const chosen = Object.entries(settings).filter(
+    ([name]) => process.env.BENCH_SETTINGS === undefined || process.env.BENCH_SETTINGS === name,
+  );
+  const results = new Map<string, Round[]>(chosen.map(([k]) => [k, []]));
   for (let r = 0; r < rounds; r++)
-    for (const [name, env] of Object.entries(settings)) results.get(name)!.push(await round(env, dayBody, monthJson, monthArrow));
+    for (const [name, env] of chosen) results.get(name)!.push(await round(env, dayBody, monthJson, monthArrow));
   const loadavg = readFileSync('/proc/loadavg', 'utf8').split(' ').slice(0, 3).join(' ');
   return [
     `service memory (${process.env.BENCH_FROM_DIST === '1' ? 'node dist/server.js, as npm start' : 'through tsx'}), 2 workers, ${rounds} interleaved rounds, load average at the end ${loadavg}; 1 day = ${day.count} observations (${(dayBody.length / 1e6).toFixed(1)} MB columns JSON), 30 days = ${month.count} (columns JSON ${(monthJson.length / 1e6).toFixed(1)} MB, Arrow ${(monthArrow.length / 1e6).toFixed(1)} MB); peak RSS of the service process (MB):`,

@@ -5,11 +5,16 @@
  * (handleZwdRequest) as the pool runs it. For each stage: the heap and array buffers kept after it
  * (after a full GC) and the resident-set peak during it (VmHWM, reset before the stage through
  * /proc/self/clear_refs), so the stage's own transient bytes show. With `stages` (columns JSON), the task's steps
- * one by one: body text, JSON.parse, column checks, domain columns, estimation, answer bytes.
+ * one by one: body text, JSON.parse, column checks, domain columns, estimation, answer bytes. With `held`, what
+ * the pool's task (zwdRequestTask) still holds when its estimation starts (heap and array buffers after a full GC
+ * at the zwdEstimationStart channel), in alternate runs: the task owning its input (as in the pool) and the body
+ * also held by the caller (as the task held it before it dropped it once read); `held` takes the run count.
  */
 
 import { readFileSync, writeFileSync } from 'node:fs';
-import { handleZwdRequest } from '../src/http/tasks/zwd-request.js';
+import { subscribe } from 'node:diagnostics_channel';
+import { getHeapStatistics } from 'node:v8';
+import { handleZwdRequest, zwdEstimationStart, zwdRequestTask } from '../src/http/tasks/zwd-request.js';
 import { columnsArrow, columnsJson, gpsLikeColumns } from '../test/helpers/gps-like-days.js';
 import { readColumns, columnSpecsOf } from '../src/http/columns.js';
 import { observationsFromColumns, toZwdRequest, zwdEstimatesResponseOf } from '../src/http/adapters/zwd-estimation.js';
@@ -38,6 +43,45 @@ async function main() {
     );
   };
   line('before the task');
+  if (process.argv[4] === 'held') {
+    // At the estimation's start, after a full GC: the heap over that before the task, and whether the body's
+    // bytes were collected (a WeakRef to them, made in an earlier job so that it does not keep them alive).
+    const runs = Number(process.argv[5] ?? 4);
+    const bytes = body!;
+    body = undefined;
+    let atStart: { heapMb: number; bodyCollected: boolean } | undefined;
+    let bodyRef: WeakRef<ArrayBuffer> | undefined;
+    const heapMb = () => {
+      gc();
+      return getHeapStatistics().used_heap_size / MB;
+    };
+    subscribe(zwdEstimationStart.name, () => (atStart = { heapMb: heapMb(), bodyCollected: bodyRef!.deref() === undefined }));
+    for (let r = 0; r < runs; r++) {
+      const callerHolds = r % 2 === 1;
+      const base = heapMb();
+      // The input object is the task's alone (as the pool's thread receives it); the caller's copy is the only other holder.
+      let held: Uint8Array | undefined = bytes.slice();
+      bodyRef = new WeakRef(held.buffer as ArrayBuffer);
+      const input = {
+        body: held,
+        format,
+        query: {},
+        answer: { shape: 'rows' as const, format: 'json' as const, fields: ['ztd_m', 'sigma_m'] },
+      };
+      if (!callerHolds) held = undefined;
+      await new Promise((resolve) => setImmediate(resolve));
+      const rssBefore = status('VmRSS');
+      writeFileSync('/proc/self/clear_refs', '5');
+      const outcome = await zwdRequestTask(input);
+      const peakMb = status('VmHWM') - rssBefore;
+      if (!outcome.ok) throw new Error(JSON.stringify(outcome.error));
+      held = undefined;
+      process.stdout.write(
+        `${callerHolds ? 'body held by the caller' : 'task owns its input    '}: at the estimation's start heap +${(atStart!.heapMb - base).toFixed(1)} MB, body bytes ${atStart!.bodyCollected ? 'collected' : 'alive'}; the task's peak RSS +${peakMb.toFixed(0)} MB\n`,
+      );
+    }
+    return;
+  }
   if (format === 'json' && process.argv[4] === 'stages') {
     // The task's stages one by one (as handleZwdRequest runs them for columns JSON), each kept alive.
     const stage = <T>(name: string, run: () => T): T => {

@@ -10,13 +10,13 @@ import type { handleMappingFactorsRequest, handlePrecipitableWaterRequest, handl
 import type { readDelayDepositTask, readMetJsonUploadTask } from './tasks/json-upload.js';
 import type { readMetUploadTask } from './tasks/met-upload.js';
 import type { handleNetworkDayRequest, handleNetworkRequest, scanNetworkRequest } from './tasks/network-request.js';
-import type { handleZwdRequest, scanZwdRequest } from './tasks/zwd-request.js';
+import type { scanZwdRequest, zwdRequestTask } from './tasks/zwd-request.js';
 import type { readResidualDepositTask } from './tasks/residual-deposit.js';
 import type { estimateCampaignItemTask } from './tasks/campaign-item.js';
 
 export type ComputeTasks = {
   /** A whole POST .../zwd-estimates request: parse, validate, estimate, serialise (and for a station, the rows to store). */
-  'zwd-estimate-request': typeof handleZwdRequest;
+  'zwd-estimate-request': typeof zwdRequestTask;
   /** A whole POST /v1/network-estimates or /v1/network/zwd-estimates request: parse, validate, estimate, serialise (and what to store). */
   'network-estimate-request': typeof handleNetworkRequest;
   /** First pass of a station's estimation: the epoch range of the observations and whether the body has met. */
@@ -55,7 +55,7 @@ const residualDepositModule = new URL(`./tasks/residual-deposit.${ext}`, import.
 const campaignItemModule = new URL(`./tasks/campaign-item.${ext}`, import.meta.url).href;
 
 export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
-  'zwd-estimate-request': { module: zwdRequestModule, exportName: 'handleZwdRequest' },
+  'zwd-estimate-request': { module: zwdRequestModule, exportName: 'zwdRequestTask' },
   'network-estimate-request': { module: networkRequestModule, exportName: 'handleNetworkRequest' },
   'zwd-request-scan': { module: zwdRequestModule, exportName: 'scanZwdRequest' },
   'network-request-scan': { module: networkRequestModule, exportName: 'scanNetworkRequest' },

@@ -9,6 +9,7 @@
  * inner layers never import. src/http/compute-tasks.ts registers it with the pool.
  */
 
+import diagnostics_channel from 'node:diagnostics_channel';
 import type { Site } from '../../domain/site.js';
 import { FormatError } from '../../formats/format-error.js';
 import { readObservationCsv } from '../../formats/observation-csv.js';
@@ -235,19 +236,43 @@ function validatedBody(raw: unknown, siteKnown: boolean): Validated {
   return { ok: true, body, observations, ...(site ? { site } : {}) };
 }
 
-/** POST /v1/zwd-estimates and POST /v1/stations/{id}/zwd-estimates: parse, validate, estimate, serialise. */
+/**
+ * Published (node:diagnostics_channel) just before the estimation starts, with the observation count:
+ * bench/service-memory.child.ts measures there what the task still holds (heap and array buffers after
+ * a full GC). No subscriber, no cost.
+ */
+export const zwdEstimationStart = diagnostics_channel.channel('tropodelay:zwd-request:estimation-start');
+
+/**
+ * POST /v1/zwd-estimates and POST /v1/stations/{id}/zwd-estimates: parse, validate, estimate, serialise.
+ * The caller's input is left as it is (in-process callers may send it again); the pool runs
+ * zwdRequestTask, which owns its input.
+ */
 export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<TaskOutcome<ZwdRequestTaskOutput>> {
+  return zwdRequestTask({ ...input });
+}
+
+/**
+ * handleZwdRequest as the worker pool runs it (src/http/compute-tasks.ts): the input is the task's own
+ * (moved to the thread), so the body bytes and a prepared body's typed columns are dropped from it once
+ * read, and with them the text and the parsed JSON become garbage before the estimation (issue 14: the
+ * 30-day body's 73 MB of bytes were otherwise held through the estimation's peak).
+ */
+export async function zwdRequestTask(input: ZwdRequestTaskInput): Promise<TaskOutcome<ZwdRequestTaskOutput>> {
   try {
     const station = input.station;
     const validated: Validated = input.prepared
       ? { ok: true, body: input.prepared.body, observations: observationsOfPrepared(input.prepared) }
       : validatedBody(rawBody(input, station !== undefined), station !== undefined);
+    input.body = '';
+    input.prepared = undefined;
     if (!validated.ok) return validated.outcome;
     const { body, observations } = validated;
     const site = station?.site ?? validated.site!;
     const request = toZwdRequest(site, body, observations, station?.storedMet);
-    const result = runZwdEstimation(request);
     const count = observations.epochMs.length;
+    if (zwdEstimationStart.hasSubscribers) zwdEstimationStart.publish({ observations: count });
+    const result = runZwdEstimation(request);
     const shape = input.answer ?? ROWS;
     if (!station) {
       const shaped = tableAnswer(zwdEstimatesResponseOf(result), ZWD_ANSWER_TABLES, shape);
