@@ -16,6 +16,7 @@
  */
 
 import { Message } from 'apache-arrow';
+import type { z } from 'zod';
 
 export interface RowCounter {
   push(chunk: Uint8Array): void;
@@ -24,6 +25,34 @@ export interface RowCounter {
 }
 
 const NEWLINE = 0x0a;
+
+/** The shortest date-time an ISO 8601 epoch schema (`z.iso.datetime`, src/http/schemas/common.ts) accepts: 2026-03-14T12:00:00Z. */
+const SHORTEST_ISO_DATETIME_CHARS = 20;
+
+/**
+ * The fewest bytes one row of `shape` takes in a JSON body, in the form that takes fewest: column arrays (a
+ * value and a comma per required column; as objects a row also repeats its keys). Optional fields count 0, a
+ * number 1 byte (one digit), a string its quotes and the schema's minimum length, an ISO date-time 20
+ * characters, any other value 1 byte (no JSON value is shorter). A body of R rows takes at least
+ * R × this many bytes (its last commas are fewer than the bytes of the column names), so a body declared
+ * shorter than (maxRows + 1) × this cannot hold more than maxRows valid rows: its rows need not be counted
+ * while it arrives (the full check after parsing still names the field of anything off).
+ */
+export function fewestJsonBytesPerRow(shape: Record<string, z.ZodType>): number {
+  let bytes = 0;
+  for (const field of Object.values(shape)) {
+    if (field.safeParse(undefined).success) continue; // optional: absent in the fewest bytes
+    const spec = field as unknown as { type: string; format?: string | null; minLength?: number | null };
+    const value =
+      spec.type === 'number'
+        ? 1
+        : spec.type === 'string'
+          ? 2 + (spec.format === 'datetime' ? SHORTEST_ISO_DATETIME_CHARS : (spec.minLength ?? 0))
+          : 1;
+    bytes += value + 1; // and its comma
+  }
+  return bytes;
+}
 
 /** CSV: data lines so far (line ends minus the header's). */
 export function csvRowCounter(): RowCounter {

@@ -9,9 +9,14 @@
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { RecordBatchStreamWriter, tableFromArrays, tableFromIPC, tableToIPC, type Table } from 'apache-arrow';
-import type { FastifyInstance } from 'fastify';
+import { Readable } from 'node:stream';
+import Fastify, { type FastifyInstance } from 'fastify';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildApp } from '../../src/http/app.js';
+import { FEWEST_JSON_OBSERVATION_BYTES, rawBodyOf, readEstimationBodies } from '../../src/http/raw-body.js';
+import { columnSpecsOf, readColumns } from '../../src/http/columns.js';
+import { HttpProblem } from '../../src/http/problem.js';
+import { zwdObservationSchema } from '../../src/http/schemas/zwd-estimates.js';
 import { arrowRowCounter, csvRowCounter, jsonRowCounter, type RowCounter } from '../../src/http/row-count.js';
 import { MAX_OBSERVATIONS } from '../../src/limits.js';
 
@@ -163,3 +168,89 @@ function arrowSchemaLength(bytes: Uint8Array): number {
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   return 8 + view.getInt32(4, true);
 }
+
+describe('JSON bodies too short to hold more than the limit are not counted (the boundary)', () => {
+  // The smallest valid observation in column arrays: the shortest date-time z.iso.datetime accepts
+  // (ISO 8601 / RFC 3339 need seconds with a "Z"; from the zod schema itself below), a one-character
+  // satellite (the schema's minimum), one-digit numbers.
+  const specs = columnSpecsOf(zwdObservationSchema.shape);
+  const smallest = { epoch: '2026-03-14T12:00:00Z', satellite: 'G', elevation_deg: 9, azimuth_deg: 0, residual_m: 0 };
+
+  it('the fewest bytes per observation, derived from the schema, are no more than the smallest valid observation takes', () => {
+    expect(FEWEST_JSON_OBSERVATION_BYTES).toBe(33); // 23 + 4 + 3 × 2, counted by hand from the schema (common practice)
+    for (const shorter of ['2026-03-14T12:00Z', '2026-03-14T12Z', '2026-03-14T12:00+01', '20260314T120000Z'])
+      expect(zwdObservationSchema.shape.epoch.safeParse(shorter).success, shorter).toBe(false);
+    expect(zwdObservationSchema.safeParse(smallest).success).toBe(true);
+    // R of them as columns (the reference: JSON.stringify and the body schema): at least R × the fewest bytes.
+    for (const rows of [1, 2, 1000]) {
+      const columns = Object.fromEntries(Object.entries(smallest).map(([k, v]) => [k, Array.from({ length: rows }, () => v)]));
+      const body = JSON.stringify({ site, observations: columns });
+      // The worker's full column check (src/http/columns.ts readColumns) accepts them.
+      const read = readColumns(
+        (JSON.parse(body) as { observations: unknown }).observations,
+        'observations',
+        specs,
+        MAX_OBSERVATIONS,
+        'observations',
+      );
+      expect(read.ok).toBe(true);
+      expect(body.length).toBeGreaterThanOrEqual(rows * FEWEST_JSON_OBSERVATION_BYTES);
+      expect(JSON.stringify(columns).length).toBeLessThan(rows * FEWEST_JSON_OBSERVATION_BYTES + 100); // and not far above: a tight bound
+    }
+  });
+
+  // A small app with the estimation bodies' reader and a limit of 100 observations: the boundary is 101 × 33 bytes.
+  let app: FastifyInstance;
+  const maxRows = 100;
+  const countFrom = (maxRows + 1) * FEWEST_JSON_OBSERVATION_BYTES;
+  beforeAll(async () => {
+    app = Fastify();
+    await app.register(async (scope) => {
+      readEstimationBodies(scope, maxRows);
+      scope.post('/echo', async (request, reply) => {
+        try {
+          return { bytes: rawBodyOf(request).body.length };
+        } catch (err) {
+          if (!(err instanceof HttpProblem)) throw err;
+          return reply.code(err.status).send({ errors: err.errors });
+        }
+      });
+    });
+    await app.ready();
+  });
+  afterAll(async () => {
+    await app.close();
+  });
+  /** A column of `rows` one-digit values, padded with spaces to exactly `length` bytes. */
+  const bodyOf = (rows: number, length: number) => {
+    const text = `{"observations":{"residual_m":[${Array.from({ length: rows }, () => '0').join(',')}]}}`;
+    expect(text.length).toBeLessThanOrEqual(length);
+    return text + ' '.repeat(length - text.length);
+  };
+  const post = (payload: string, chunked = false) =>
+    app.inject({
+      method: 'POST',
+      url: '/echo',
+      headers: { 'content-type': 'application/json', ...(chunked ? { 'transfer-encoding': 'chunked' } : {}) },
+      payload: chunked ? Readable.from([Buffer.from(payload)]) : payload,
+    });
+
+  it('one byte below the boundary: not counted (the body reaches the handler, which leaves the check to the worker)', async () => {
+    const r = await post(bodyOf(2 * maxRows, countFrom - 1));
+    expect(r.statusCode).toBe(200);
+    expect(r.json()).toEqual({ bytes: countFrom - 1 });
+  });
+  it('at the boundary: counted and refused with the 413 naming observations, as before', async () => {
+    const r = await post(bodyOf(maxRows + 1, countFrom));
+    expect(r.statusCode).toBe(413);
+    expect(r.json().errors[0]).toMatchObject({ field: 'observations' });
+    expect(r.json().errors[0].message).toContain(`more than ${maxRows} observations (counted while reading`);
+  });
+  it('at the boundary with the limit itself: counted, not refused', async () => {
+    expect((await post(bodyOf(maxRows, countFrom))).statusCode).toBe(200);
+  });
+  it('without a Content-Length: counted whatever its length', async () => {
+    const r = await post(bodyOf(2 * maxRows, countFrom - 1), true);
+    expect(r.statusCode).toBe(413);
+  });
+});
