@@ -9,7 +9,8 @@
 
 import { describe, expect, it } from 'vitest';
 import { truthZwdAt } from '../../scripts/synthetic-residuals.js';
-import { useArchiveApp, type ArchiveApp } from '../helpers/archive-app.js';
+import { waitForCampaign } from '../helpers/campaign-progress.js';
+import { useArchiveApp } from '../helpers/archive-app.js';
 import { inventedStations, stationDay, type StationDayData } from '../helpers/campaign-network.js';
 import { BACKENDS } from '../helpers/storage.js';
 
@@ -32,16 +33,6 @@ function asColumns(body: StationDayData['body']) {
       residual_m: o.map((r) => r.residual_m),
     },
   };
-}
-
-async function waitFor(t: ArchiveApp, id: string, done: (body: any) => boolean, timeoutMs = 120_000) {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const r = await t.api().get(`/v1/campaigns/${id}`).expect(200);
-    if (done(r.body)) return r.body;
-    if (Date.now() > deadline) throw new Error(`campaign ${id}: ${JSON.stringify(r.body)}`);
-    await new Promise((res) => setTimeout(res, 200));
-  }
 }
 
 for (const backend of BACKENDS) {
@@ -85,7 +76,7 @@ for (const backend of BACKENDS) {
       await upload('CAMP01', DAYS[1]!, asColumns(data.get(`CAMP01|${DAYS[1]}`)!.body)).expect(201);
       await upload('CAMP02', DAYS[0]!, data.get(`CAMP02|${DAYS[0]}`)!.body).expect(201);
 
-      const progress = await waitFor(t, id, (b) => b.items_done === 3);
+      const progress = await waitForCampaign(t, id, (b) => b.items_done === 3);
       // CAMP02's second day has not arrived: the campaign waits for it.
       expect(progress).toMatchObject({ state: 'running', items_awaiting_residuals: 1, items_pending: 0, items_running: 0 });
       const waiting = await t.api().get(`/v1/campaigns/${id}/report`).expect(200);

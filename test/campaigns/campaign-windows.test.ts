@@ -9,7 +9,8 @@
 
 import { describe, expect, it } from 'vitest';
 import { generateSyntheticResiduals, toRequestBody, truthZwdAt, type SyntheticData } from '../../scripts/synthetic-residuals.js';
-import { useArchiveApp, type ArchiveApp } from '../helpers/archive-app.js';
+import { waitForCampaign } from '../helpers/campaign-progress.js';
+import { useArchiveApp } from '../helpers/archive-app.js';
 import { inventedStations } from '../helpers/campaign-network.js';
 import { BACKENDS } from '../helpers/storage.js';
 
@@ -37,16 +38,6 @@ const within = (all: readonly Observation[], fromMs: number, toMs: number) =>
   all.filter((o) => Date.parse(o.epoch) >= fromMs && Date.parse(o.epoch) < toMs);
 const dayMs = (day: string) => Date.parse(`${day}T00:00:00Z`);
 
-async function waitFor(t: ArchiveApp, id: string, done: (body: any) => boolean, timeoutMs = 180_000) {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const r = await t.api().get(`/v1/campaigns/${id}`).expect(200);
-    if (done(r.body)) return r.body;
-    if (Date.now() > deadline) throw new Error(`campaign ${id}: ${JSON.stringify(r.body)}`);
-    await new Promise((res) => setTimeout(res, 200));
-  }
-}
-
 for (const backend of BACKENDS) {
   describe(`station-windows on ${backend.name}`, () => {
     const t = useArchiveApp(backend);
@@ -73,7 +64,7 @@ for (const backend of BACKENDS) {
       // 3 days / 12 h = 6 kept parts, each with a window of 12 h on either side.
       expect(submitted.body).toMatchObject({ items_total: 6, window: { length_hours: 36, step_hours: 12 }, residuals: 'deposited' });
       const id = submitted.body.campaign_id;
-      const done = await waitFor(t, id, (b) => b.state === 'finished');
+      const done = await waitForCampaign(t, id, (b) => b.state === 'finished', 180_000);
       expect(done).toMatchObject({ items_done: 6, items_failed: 0 });
 
       const rows = await t
@@ -145,11 +136,11 @@ for (const backend of BACKENDS) {
       // The first window (kept: day 1) reads days 1 and 2 (day 0 is outside the span): ready with day 2.
       expect((await upload(DAYS[0]!).expect(201)).body.items_ready).toBe(0);
       expect((await upload(DAYS[1]!).expect(201)).body.items_ready).toBe(1);
-      await waitFor(t, id, (b) => b.items_done === 1);
+      await waitForCampaign(t, id, (b) => b.items_done === 1, 180_000);
       // Day 3 never comes: closing runs the window of day 2 with days 1-2, and the window of day 3 has
       // nothing in its kept part (no input).
       await t.api().post(`/v1/campaigns/${id}/uploads-complete`).set('Authorization', t.auth).expect(200);
-      const done = await waitFor(t, id, (b) => b.state === 'finished');
+      const done = await waitForCampaign(t, id, (b) => b.state === 'finished', 180_000);
       expect(done).toMatchObject({ items_done: 2, items_no_residuals: 1, items_failed: 0 });
       const report = await t.api().get(`/v1/campaigns/${id}/report`).expect(200);
       expect(report.body.homogeneous).toBe(true);

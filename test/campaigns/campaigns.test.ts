@@ -11,6 +11,7 @@ import { truthZwdAt } from '../../scripts/synthetic-residuals.js';
 import { runItem } from '../../src/services/campaigns/campaign-runner.js';
 import { CampaignStore } from '../../src/storage/campaigns/campaign-store.js';
 import { GuardRefusedError } from '../../src/storage/sql-executor.js';
+import { waitForCampaign } from '../helpers/campaign-progress.js';
 import { useArchiveApp, type ArchiveApp } from '../helpers/archive-app.js';
 import { inventedStations, stationDay, type StationDayData } from '../helpers/campaign-network.js';
 import { BACKENDS, ztdOnlyRow } from '../helpers/storage.js';
@@ -35,15 +36,8 @@ async function setUpNetwork(t: ArchiveApp): Promise<Map<string, StationDayData>>
   return days;
 }
 
-async function waitUntilDone(t: ArchiveApp, id: string, timeoutMs = 120_000) {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const r = await t.api().get(`/v1/campaigns/${id}`).expect(200);
-    if (r.body.state === 'finished' || r.body.state === 'cancelled') return r.body;
-    if (Date.now() > deadline) throw new Error(`campaign ${id} still ${r.body.state}: ${JSON.stringify(r.body)}`);
-    await new Promise((res) => setTimeout(res, 200));
-  }
-}
+const waitUntilDone = (t: ArchiveApp, id: string) =>
+  waitForCampaign(t, id, (b: { state: string }) => b.state === 'finished' || b.state === 'cancelled');
 
 for (const backend of BACKENDS) {
   describe(`campaigns on ${backend.name}`, () => {
