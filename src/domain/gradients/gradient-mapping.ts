@@ -44,7 +44,17 @@ export const GRADIENT_MODELS: Record<string, GradientModel> = {
     citation: 'Chen & Herring (1997), C=0.0032',
     prepare: () => chenHerringGradientMapping,
     mapBatch(elevationsRad, _hydrostatic, out) {
-      for (let i = 0; i < elevationsRad.length; i++) out[i] = chenHerringGradientMapping(elevationsRad[i]!);
+      // sin e · tan e = s² / √(1 − s²) with s = sin e: a square root instead of a second transcendental
+      // call (Math.tan) per direction; equal to the single-elevation form to 1e-12 (test/domain/mapping.test.ts).
+      for (let i = 0; i < elevationsRad.length; i++) {
+        const e = elevationsRad[i]!;
+        if (e >= ZENITH_RAD) {
+          out[i] = 0;
+          continue;
+        }
+        const s = Math.sin(e);
+        out[i] = 1 / ((s * s) / Math.sqrt(1 - s * s) + CHEN_HERRING_C);
+      }
     },
   },
   tilting: {
