@@ -28,10 +28,8 @@ describe.skipIf(!TEST_PG_URL)('a campaign survives kill -9 of one of two replica
     for (const c of cleanups.reverse()) await c().catch(() => undefined);
   });
 
-  it('stores every station-day exactly once and reports homogeneous', { timeout: 600_000 }, async () => {
-    const fresh = await postgresBackend.fresh();
-    cleanups.push(fresh.cleanup);
-    const schema = fresh.config.pgSchema!;
+  /** Two replicas (replica-a, replica-b) on the schema, each with a data directory of its own; stopped and removed after the test. */
+  async function startReplicas(schema: string): Promise<[ServerProcess, ServerProcess]> {
     const replicas: ServerProcess[] = [];
     for (const name of ['replica-a', 'replica-b']) {
       const dir = mkdtempSync(join(tmpdir(), `tropodelay-${name}-`));
@@ -40,7 +38,14 @@ describe.skipIf(!TEST_PG_URL)('a campaign survives kill -9 of one of two replica
       cleanups.push(() => r.stop());
       replicas.push(r);
     }
-    const [a, b] = replicas as [ServerProcess, ServerProcess];
+    return replicas as [ServerProcess, ServerProcess];
+  }
+
+  it('stores every station-day exactly once and reports homogeneous', { timeout: 600_000 }, async () => {
+    const fresh = await postgresBackend.fresh();
+    cleanups.push(fresh.cleanup);
+    const schema = fresh.config.pgSchema!;
+    const [a, b] = await startReplicas(schema);
     const deposited = await depositNetwork(a.baseUrl, STATIONS, DAYS, 6, 120);
 
     const db = new pg.Client({ connectionString: TEST_PG_URL });
@@ -120,15 +125,7 @@ describe.skipIf(!TEST_PG_URL)('a campaign survives kill -9 of one of two replica
       const fresh = await postgresBackend.fresh();
       cleanups.push(fresh.cleanup);
       const schema = fresh.config.pgSchema!;
-      const replicas: ServerProcess[] = [];
-      for (const name of ['replica-a', 'replica-b']) {
-        const dir = mkdtempSync(join(tmpdir(), `tropodelay-${name}-`));
-        cleanups.push(async () => rmSync(dir, { recursive: true, force: true }));
-        const r = await startServerProcess(replicaEnv(TEST_PG_URL!, schema, dir, name, ITEM_TIMEOUT_S));
-        cleanups.push(() => r.stop());
-        replicas.push(r);
-      }
-      const [a, b] = replicas as [ServerProcess, ServerProcess];
+      const [a, b] = await startReplicas(schema);
       const stations = STATIONS;
       const days = DAYS.slice(0, 5);
       for (const s of stations) expect((await call(a.baseUrl, 'PUT', `/v1/stations/${s.id}`, s.body)).status).toBe(201);

@@ -13,7 +13,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { depositResiduals } from '../../client/src/residual-deposit.js';
 import { Service, ServiceError } from '../../client/src/service.js';
 import { adminJson, CountingProxy, createStation, runCli, startRunningService, WRITE_KEY, type RunningService } from './running-service.js';
-import { buildSyntheticCsv } from './synthetic-files.js';
+import { buildSyntheticCsv, rowsPerDay } from './synthetic-files.js';
 
 let svc: RunningService;
 let proxy: CountingProxy;
@@ -26,13 +26,6 @@ afterAll(async () => {
   await proxy?.stop();
   await svc?.stop();
 });
-
-/** Rows per UTC day of an observation CSV, by the first 10 characters of its Z epochs. */
-function rowsPerDay(csv: string): Record<string, number> {
-  const counts: Record<string, number> = {};
-  for (const line of csv.trim().split('\n').slice(1)) counts[line.slice(0, 10)] = (counts[line.slice(0, 10)] ?? 0) + 1;
-  return counts;
-}
 
 const UPLOAD_PUTS = /^\/v1\/campaigns\/[^/]+\/residuals\/UPLD1\/\d{4}-\d\d-\d\d$/;
 

@@ -23,7 +23,7 @@ import {
   WRITE_KEY,
   type RunningService,
 } from './running-service.js';
-import { buildSyntheticCsv } from './synthetic-files.js';
+import { buildSyntheticCsv, rowsPerDay } from './synthetic-files.js';
 
 let svc: RunningService;
 let proxy: CountingProxy;
@@ -36,13 +36,6 @@ afterAll(async () => {
   await proxy?.stop();
   await svc?.stop();
 });
-
-/** Rows per UTC day of an observation CSV, by the first 10 characters of its Z epochs. */
-function rowsPerDay(csv: string): Record<string, number> {
-  const counts: Record<string, number> = {};
-  for (const line of csv.trim().split('\n').slice(1)) counts[line.slice(0, 10)] = (counts[line.slice(0, 10)] ?? 0) + 1;
-  return counts;
-}
 
 const PUTS = /^\/v1\/stations\/DEPO1\/residuals\/\d{4}-\d\d-\d\d$/;
 

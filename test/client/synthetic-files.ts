@@ -16,3 +16,10 @@ export function buildSyntheticCsv(o: { hours: number; startIso?: string; seed?: 
     }),
   );
 }
+
+/** Rows per UTC day of an observation CSV, by the first 10 characters of its Z epochs. */
+export function rowsPerDay(csv: string): Record<string, number> {
+  const counts: Record<string, number> = {};
+  for (const line of csv.trim().split('\n').slice(1)) counts[line.slice(0, 10)] = (counts[line.slice(0, 10)] ?? 0) + 1;
+  return counts;
+}
