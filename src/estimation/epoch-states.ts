@@ -102,9 +102,11 @@ export function solveEpochStates(design: Design, options: ZwdEstimationOptions, 
 
 /**
  * The solver of one design, for the solutions of the screening loop one after the other: its arrays
- * (≈ 2 × 8 bytes per observation and 40 × 8 per epoch) are allocated once and each solve() writes its
+ * (2 × 8 bytes per observation and 29 × 8 per epoch) are allocated once and each solve() writes its
  * solution into them, so a solution's arrays are valid until the next solve() (the loop never looks
  * back). Allocating them per solution made garbage collection a tenth of a four-constellation day.
+ * Two pairs share their storage (the recursions read each epoch's entry before they overwrite it):
+ * Z_k is written over S_k⁻¹ and x_k over u_k by the backward sweep.
  */
 export class EpochStateSolver {
   // The solver's arrays (written by solveInto; a solution's arrays are some of them).
@@ -114,11 +116,11 @@ export class EpochStateSolver {
   readonly epochNormal: Float64Array;
   readonly epochWeight: Float64Array;
   readonly means: Float64Array;
-  readonly sInv: Float64Array;
-  readonly u: Float64Array;
+  /** S_k⁻¹ after the forward sweep, Z_k after the backward one (BLOCK entries per epoch). */
+  readonly block: Float64Array;
+  /** u_k after the forward sweep, x_k after the backward one (parameter order: δw_k = k, G_N,k = K + k, G_E,k = 2K + k). */
   readonly x: Float64Array;
   readonly diagonal: Float64Array;
-  readonly block: Float64Array;
   readonly next: Float64Array;
   readonly biasM: Float64Array;
   readonly fittedResidualM: Float64Array;
@@ -141,11 +143,9 @@ export class EpochStateSolver {
     this.epochNormal = new Float64Array(K * EPOCH_NORMAL_ENTRIES);
     this.epochWeight = new Float64Array(K);
     this.means = new Float64Array(K * 4);
-    this.sInv = new Float64Array(K * BLOCK);
-    this.u = new Float64Array(K * 3);
+    this.block = new Float64Array(K * BLOCK);
     this.x = new Float64Array(3 * K);
     this.diagonal = new Float64Array(3 * K);
-    this.block = new Float64Array(K * BLOCK);
     this.next = new Float64Array(K * 3);
     this.biasM = new Float64Array(K);
     this.fittedResidualM = new Float64Array(n);
@@ -174,11 +174,12 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
   const epochStart = design.epochStart;
 
   // Per epoch: Σw and the weighted means r̄, m̄ (for the residual pass), S_k⁻¹, u_k, the step weights.
+  // S_k⁻¹ and u_k are stored where the backward sweep puts Z_k and x_k (EpochStateSolver).
   const epochNormal = solver.epochNormal.fill(0);
   const epochWeight = solver.epochWeight.fill(0);
   const means = solver.means;
-  const sInv = solver.sInv;
-  const u = solver.u;
+  const sInv = solver.block;
+  const u = solver.x;
   const stepW = solver.stepW;
   const stepG = solver.stepG;
   const aprioriW = options.zwd.aprioriSigmaM === null ? 0 : 1 / options.zwd.aprioriSigmaM ** 2;
@@ -308,9 +309,9 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
       sNN -= pG * pG * sInv[b + 3]!;
       sNE -= pG * pG * sInv[b + 4]!;
       sEE -= pG * pG * sInv[b + 5]!;
-      yW += pW * u[3 * (k - 1)]!;
-      yN += pG * u[3 * (k - 1) + 1]!;
-      yE += pG * u[3 * (k - 1) + 2]!;
+      yW += pW * u[k - 1]!;
+      yN += pG * u[K + k - 1]!;
+      yE += pG * u[2 * K + k - 1]!;
     }
     // Pivots of the LDLᵀ of S_k in the frontal order δw, G_N, G_E: the singularity test of frontal-ldl.ts.
     const lNW = sWN / sWW;
@@ -340,21 +341,19 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
     sInv[b + 3] = iNN;
     sInv[b + 4] = iNE;
     sInv[b + 5] = iEE;
-    u[3 * k] = iWW * yW + iWN * yN + iWE * yE;
-    u[3 * k + 1] = iWN * yW + iNN * yN + iNE * yE;
-    u[3 * k + 2] = iWE * yW + iNE * yN + iEE * yE;
+    u[k] = iWW * yW + iWN * yN + iWE * yE;
+    u[K + k] = iWN * yW + iNN * yN + iNE * yE;
+    u[2 * K + k] = iWE * yW + iNE * yN + iEE * yE;
   }
 
-  // Back substitution and selected inverse (RTS smoother), last epoch first.
-  const x = solver.x;
+  // Back substitution and selected inverse (RTS smoother), last epoch first, in place: epoch k reads
+  // its own u_k and S_k⁻¹ and the x_{k+1}, Z_{k+1} written just before, then overwrites u_k with x_k
+  // and S_k⁻¹ with Z_k (x_{K−1} = u_{K−1} and Z_{K−1} = S_{K−1}⁻¹ are there already).
+  const x = u;
+  const block = sInv;
   const diagonal = solver.diagonal;
-  const block = solver.block;
   const next = solver.next;
   const last = K - 1;
-  x[last] = u[3 * last]!;
-  x[K + last] = u[3 * last + 1]!;
-  x[2 * K + last] = u[3 * last + 2]!;
-  block.set(sInv.subarray(last * BLOCK, last * BLOCK + BLOCK), last * BLOCK);
   for (let k = last - 1; k >= 0; k--) {
     const b = k * BLOCK;
     const iWW = sInv[b]!,
@@ -378,9 +377,9 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
     const xW = x[k + 1]!;
     const xN = x[K + k + 1]!;
     const xE = x[2 * K + k + 1]!;
-    x[k] = u[3 * k]! + gWW * xW + gWN * xN + gWE * xE;
-    x[K + k] = u[3 * k + 1]! + gNW * xW + gNN * xN + gNE * xE;
-    x[2 * K + k] = u[3 * k + 2]! + gEW * xW + gEN * xN + gEE * xE;
+    x[k] = u[k]! + gWW * xW + gWN * xN + gWE * xE;
+    x[K + k] = u[K + k]! + gNW * xW + gNN * xN + gNE * xE;
+    x[2 * K + k] = u[2 * K + k]! + gEW * xW + gEN * xN + gEE * xE;
     // C = G Z_{k+1} = Z_{k,k+1}.
     const z = b + BLOCK;
     const zWW = block[z]!,
