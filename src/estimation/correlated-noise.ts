@@ -54,9 +54,9 @@ export function residualAutocorrelation(
   samplingMs: number,
 ): number[] {
   // Per satellite, its used observations in epoch order (the design is sorted by epoch), packed
-  // satellite after satellite into t (epoch) and z (normalised residual).
+  // satellite after satellite into epoch (the epoch's index; its time is design.epochMs[epoch[i]]) and
+  // z (normalised residual): 12 bytes per used observation, the step's only per-observation arrays.
   const n = used.length;
-  const satId = new Int32Array(n);
   // Arcs numbered in order of first appearance among the used observations.
   const ids = new Int32Array(design.satelliteCount).fill(-1);
   const counts: number[] = [];
@@ -69,7 +69,6 @@ export function residualAutocorrelation(
       ids[design.satelliteIndex[s]!] = id;
       counts.push(0);
     }
-    satId[s] = id;
     counts[id]!++;
     total++;
   }
@@ -77,14 +76,15 @@ export function residualAutocorrelation(
   const start = new Int32Array(counts.length + 1);
   for (let id = 0; id < counts.length; id++) start[id + 1] = start[id]! + counts[id]!;
   const fill = start.slice(0, counts.length);
-  const t = new Float64Array(total);
+  const epoch = new Int32Array(total);
   const z = new Float64Array(total);
+  const epochMs = design.epochMs;
   let c0 = 0;
   for (let k = 0; k + 1 < design.epochStart.length; k++) {
     for (let s = design.epochStart[k]!; s < design.epochStart[k + 1]!; s++) {
       if (!used[s]) continue;
-      const at = fill[satId[s]!]!++;
-      t[at] = design.epochMs[k]!;
+      const at = fill[ids[design.satelliteIndex[s]!]!]!++;
+      epoch[at] = k;
       const value = solution.fittedResidualM[s]! / design.sigmaM[s]!;
       z[at] = value;
       c0 += value * value;
@@ -101,7 +101,7 @@ export function residualAutocorrelation(
   // When every other step of an arc is longer than an interval and a millisecond, a pair m places
   // apart is m intervals apart (within 0.5 ms) exactly when both lie in one run: the lag loop then
   // visits the runs instead of testing every pair (the same pairs, summed in the same order).
-  const runs = regularRuns(t, start, counts.length, samplingMs);
+  const runs = regularRuns(epoch, epochMs, start, counts.length, samplingMs);
   // Lag by lag, each over every arc, until the first lag that is not significant (the lags after it
   // are never needed).
   const rho: number[] = [];
@@ -124,7 +124,7 @@ export function residualAutocorrelation(
         // In an arc without gaps the partner m intervals on is m places on; where the arc has a gap
         // the pair is skipped (pairs are lost independently of their values: no bias).
         for (let i = start[id]!; i < end; i++) {
-          if (Math.abs(t[i + m]! - t[i]! - spanMs) > 0.5) continue;
+          if (Math.abs(epochMs[epoch[i + m]!]! - epochMs[epoch[i]!]! - spanMs) > 0.5) continue;
           sum += z[i]! * z[i + m]!;
           pairs++;
         }
@@ -197,26 +197,38 @@ function runLagSums(z: Float64Array, runs: Int32Array, lags: readonly number[], 
 /**
  * [start, end) of every run of consecutive epochs exactly samplingMs apart, arc after arc (flat
  * pairs), or null when some step within an arc is neither samplingMs nor longer than samplingMs + 1 ms
- * (irregular sampling: the caller then tests every pair).
+ * (irregular sampling: the caller then tests every pair). Two passes: the runs are counted first, so
+ * that the array is as long as they need (a run per arc and gap, not two entries per observation).
+ *
+ * @param epoch epoch index of each packed observation, arc after arc  @param epochMs time of each epoch [ms]
  */
-function regularRuns(t: Float64Array, arcStart: Int32Array, arcs: number, samplingMs: number): Int32Array | null {
-  const out = new Int32Array(2 * t.length);
+function regularRuns(epoch: Int32Array, epochMs: Float64Array, arcStart: Int32Array, arcs: number, samplingMs: number): Int32Array | null {
+  let runs = 0;
+  for (let id = 0; id < arcs; id++) {
+    const end = arcStart[id + 1]!;
+    const first = arcStart[id]!;
+    for (let i = first + 1; i <= end; i++) {
+      if (i < end) {
+        const step = epochMs[epoch[i]!]! - epochMs[epoch[i - 1]!]!;
+        if (step === samplingMs) continue;
+        if (!(step > samplingMs + 1)) return null;
+      }
+      runs++;
+    }
+  }
+  const out = new Int32Array(2 * runs);
   let n = 0;
   for (let id = 0; id < arcs; id++) {
     const end = arcStart[id + 1]!;
     let runStart = arcStart[id]!;
     for (let i = runStart + 1; i <= end; i++) {
-      if (i < end) {
-        const step = t[i]! - t[i - 1]!;
-        if (step === samplingMs) continue;
-        if (!(step > samplingMs + 1)) return null;
-      }
+      if (i < end && epochMs[epoch[i]!]! - epochMs[epoch[i - 1]!]! === samplingMs) continue;
       out[n++] = runStart;
       out[n++] = i;
       runStart = i;
     }
   }
-  return out.subarray(0, n);
+  return out;
 }
 
 /**
