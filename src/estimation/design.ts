@@ -103,7 +103,11 @@ export function locate(layout: NodeLayout, epochMs: number): { interval: number;
   return { interval, alpha: (epochMs - t[interval]!) / (t[interval + 1]! - t[interval]!) };
 }
 
-/** Observations above the cutoff, sorted by epoch, with everything the normal equations need. */
+/**
+ * Observations above the cutoff, sorted by epoch, with everything the normal equations need: 64 bytes
+ * per observation (72 with caller's sigmas). What the solutions do not read (the elevation, the
+ * satellite names, the epochs as given) stays in the input, reached through inputIndex.
+ */
 export interface Design {
   /** Input index of each used observation, in epoch order. */
   inputIndex: Int32Array;
@@ -114,14 +118,13 @@ export interface Design {
   /** 1/σ_i² [1/m²]. */
   weight: Float64Array;
   sigmaM: Float64Array;
-  /** σ_i given by the caller [m], NaN where the weighting scheme gives it. */
-  givenSigmaM: Float64Array;
+  /** σ_i given by the caller [m], NaN where the weighting scheme gives it; null when no observation has its own σ. */
+  givenSigmaM: Float64Array | null;
   /** Wet mapping factor m_w(e) of the chosen model [-]. */
   wetMapping: Float64Array;
   /** m_g(e) cos a and m_g(e) sin a [-]. */
   northMapping: Float64Array;
   eastMapping: Float64Array;
-  elevationRad: Float64Array;
   /** sin²e of each observation [-] (the elevation weighting and the variance components, computed once). */
   sinElevationSquared: Float64Array;
   /** Satellite of each observation as an index 0..satelliteCount−1 (in order of first appearance in the input). */
@@ -154,16 +157,15 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   const { options } = input;
   const n = obs.epochMs.length;
 
-  // All observations in epoch order (stable sort: ties keep the input order); duplicates are
-  // checked on all of them, then those below the cutoff are dropped (and counted). Typed arrays and
-  // counted loops (no per-observation pushes): this runs once per request over every observation.
+  // All observations in epoch order (stable sort: ties keep the input order; null: the input order
+  // is the epoch order); duplicates are checked on all of them, then those below the cutoff are
+  // dropped (and counted). Typed arrays and counted loops (no per-observation pushes): this runs once
+  // per request over every observation. No index array for sorted input, and the kept ones counted
+  // before they are listed, so that the arrays of all observations are only the satellite indices.
   let sorted = true;
   for (let i = 1; i < n && sorted; i++) sorted = obs.epochMs[i - 1]! <= obs.epochMs[i]!;
-  let all: Int32Array;
-  if (sorted) {
-    all = new Int32Array(n);
-    for (let i = 0; i < n; i++) all[i] = i;
-  } else {
+  let all: Int32Array | null = null;
+  if (!sorted) {
     const order = new Array<number>(n);
     for (let i = 0; i < n; i++) order[i] = i;
     order.sort((a, b) => obs.epochMs[a]! - obs.epochMs[b]!);
@@ -171,13 +173,9 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   }
   const satellites = satelliteIndices(obs.satellite);
   checkDuplicates(input, all, satellites);
-  const kept = new Int32Array(n);
-  let m = 0;
   const cutoff = options.elevationCutoffRad;
-  for (let a = 0; a < n; a++) {
-    const i = all[a]!;
-    if (obs.elevationRad[i]! >= cutoff) kept[m++] = i;
-  }
+  let m = 0;
+  for (let i = 0; i < n; i++) if (obs.elevationRad[i]! >= cutoff) m++;
   const belowCutoff = n - m;
   if (m === 0) {
     throw new ModelDomainError(
@@ -186,7 +184,11 @@ export function buildDesign(input: ZwdEstimationInput): Design {
       422,
     );
   }
-  const inputIndex = kept.slice(0, m);
+  const inputIndex = new Int32Array(m);
+  for (let a = 0, s = 0; a < n; a++) {
+    const i = all === null ? a : all[a]!;
+    if (obs.elevationRad[i]! >= cutoff) inputIndex[s++] = i;
+  }
 
   const epochStarts: number[] = [];
   const epochTimes: number[] = [];
@@ -204,11 +206,10 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   const residualM = new Float64Array(m);
   const weight = new Float64Array(m);
   const sigmaM = new Float64Array(m);
-  const givenSigmaM = new Float64Array(m).fill(Number.NaN);
+  let givenSigmaM: Float64Array | null = null;
   const wetMapping = new Float64Array(m);
   const northMapping = new Float64Array(m);
   const eastMapping = new Float64Array(m);
-  const elevationRad = new Float64Array(m);
   const sinElevationSquared = new Float64Array(m);
   const satelliteIndex = new Int32Array(m);
   for (let k = 0; k < epochTimes.length; k++) {
@@ -219,12 +220,12 @@ export function buildDesign(input: ZwdEstimationInput): Design {
     const i = inputIndex[s]!;
     const e = obs.elevationRad[i]!;
     const given = obs.sigmaM?.[i];
-    if (given !== undefined && given !== null) givenSigmaM[s] = given;
+    // Allocated at the first σ the caller gave (NaN-filled: the weighting scheme's), so a request without any has none.
+    if (given !== undefined && given !== null && !Number.isNaN(given)) (givenSigmaM ??= new Float64Array(m).fill(Number.NaN))[s] = given;
     residualM[s] = obs.residualM[i]!;
     const mg = chenHerringGradientMapping(e);
     northMapping[s] = mg * Math.cos(obs.azimuthRad[i]!);
     eastMapping[s] = mg * Math.sin(obs.azimuthRad[i]!);
-    elevationRad[s] = e;
     const sinE = Math.sin(e);
     sinElevationSquared[s] = sinE * sinE;
     satelliteIndex[s] = satellites.index[i]!;
@@ -289,7 +290,6 @@ export function buildDesign(input: ZwdEstimationInput): Design {
     wetMapping,
     northMapping,
     eastMapping,
-    elevationRad,
     sinElevationSquared,
     satelliteIndex,
     satelliteCount: satellites.count,
@@ -327,8 +327,9 @@ export function setWeights(
   b: number,
   givenScale: number,
 ): void {
+  const givenSigmaM = d.givenSigmaM;
   for (let s = 0; s < d.sigmaM.length; s++) {
-    const given = d.givenSigmaM[s]!;
+    const given = givenSigmaM === null ? Number.NaN : givenSigmaM[s]!;
     const variance = Number.isNaN(given) ? a * a + (b * b) / d.sinElevationSquared[s]! : given * given * givenScale;
     d.sigmaM[s] = Math.sqrt(variance);
     d.weight[s] = 1 / variance;
@@ -408,16 +409,23 @@ function satelliteIndices(satellite: readonly string[]): { index: Int32Array; co
   return { index, count: ids.size };
 }
 
-/** A satellite observed twice at one epoch is a caller's mistake (400), named by both indices. */
-function checkDuplicates(input: ZwdEstimationInput, sortedByEpoch: Int32Array, satellites: { index: Int32Array; count: number }): void {
+/**
+ * A satellite observed twice at one epoch is a caller's mistake (400), named by both indices.
+ * @param sortedByEpoch input indices in epoch order; null when the input is in epoch order
+ */
+function checkDuplicates(
+  input: ZwdEstimationInput,
+  sortedByEpoch: Int32Array | null,
+  satellites: { index: Int32Array; count: number },
+): void {
   const { epochMs, satellite } = input.observations;
   // Per satellite: the epoch (by its running number) and the observation where it was last seen.
   const seenInEpoch = new Int32Array(satellites.count).fill(-1);
   const seenAt = new Int32Array(satellites.count);
   let currentEpoch = Number.NaN;
   let epochNumber = -1;
-  for (let r = 0; r < sortedByEpoch.length; r++) {
-    const i = sortedByEpoch[r]!;
+  for (let r = 0; r < epochMs.length; r++) {
+    const i = sortedByEpoch === null ? r : sortedByEpoch[r]!;
     if (epochMs[i] !== currentEpoch) {
       currentEpoch = epochMs[i]!;
       epochNumber++;

@@ -129,13 +129,15 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
       'no degrees of freedom (one observation per epoch with epoch_bias on, or as many unknowns as observations): the variance factor is not estimable and the weights are not re-estimated',
     );
   }
+  // Elevations from the input (the design does not copy them): the same values.
+  const elevationRad = input.observations.elevationRad;
   let low = 0;
-  for (let s = 0; s < used.length; s++) if (used[s] && design.elevationRad[s]! < MAPPING_FIT_LOWEST_ELEVATION_RAD) low++;
+  for (let s = 0; s < used.length; s++) if (used[s] && elevationRad[design.inputIndex[s]!]! < MAPPING_FIT_LOWEST_ELEVATION_RAD) low++;
   if (low > 0)
     warnings.push(`${low} observations below 3° were used: the mapping functions are fitted from 3° up and are extrapolated there`);
 
   const noise = noiseInflation(input.options, design, solution, used, layout.gradientCount > 0);
-  const bands = elevationBands(design, solution, used, rejectedDesign);
+  const bands = elevationBands(design, elevationRad, solution, used, rejectedDesign);
   for (const b of bands) {
     const name = `${((b.lowerRad * 180) / Math.PI).toFixed(0)}–${Math.min(90, (b.upperRad * 180) / Math.PI).toFixed(0)}°`;
     const total = b.observationsUsed + b.observationsRejected;
@@ -217,9 +219,13 @@ function rejectionWindowMs(input: ZwdEstimationInput, design: Design, layout: Pa
   return epochStateRejectionWindowMs(lambdas, samplingMs);
 }
 
-/** Post-fit residuals and rejections per elevation band. */
+/**
+ * Post-fit residuals and rejections per elevation band.
+ * @param elevationRad the input's elevations [rad] (indexed through design.inputIndex)
+ */
 function elevationBands(
   design: Design,
+  elevationRad: readonly number[],
   solution: Solution,
   used: Uint8Array,
   rejectedDesign: readonly number[],
@@ -245,7 +251,7 @@ function elevationBands(
   };
   for (let s = 0; s < used.length; s++) {
     if (!used[s]) continue;
-    const b = band(design.elevationRad[s]!);
+    const b = band(elevationRad[design.inputIndex[s]!]!);
     const v = solution.fittedResidualM[s]!;
     count[b]!++;
     sumV2[b]! += v * v;
@@ -255,7 +261,7 @@ function elevationBands(
       tested[b]!++;
     }
   }
-  for (const s of rejectedDesign) rejectedCount[band(design.elevationRad[s]!)]!++;
+  for (const s of rejectedDesign) rejectedCount[band(elevationRad[design.inputIndex[s]!]!)]!++;
   const out: ElevationBandStatistics[] = [];
   for (let b = 0; b < nb; b++) {
     if (count[b] === 0 && rejectedCount[b] === 0) continue;

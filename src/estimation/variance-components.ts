@@ -48,6 +48,7 @@ export function varianceComponents(
   let givenOmega = 0,
     givenRedundancy = 0;
   for (const { design, fittedResidualM, residualVarianceM2, used } of parts) {
+    const givenSigmaM = design.givenSigmaM;
     for (let s = 0; s < used.length; s++) {
       if (!used[s]) continue;
       const sigma2 = design.sigmaM[s]! ** 2;
@@ -55,7 +56,7 @@ export function varianceComponents(
       if (!(r > 1e-6)) continue;
       const v2 = fittedResidualM[s]! ** 2;
       if (v2 > bound * residualVarianceM2[s]!) continue; // a rejection candidate: not noise
-      if (!Number.isNaN(design.givenSigmaM[s]!)) {
+      if (givenSigmaM !== null && !Number.isNaN(givenSigmaM[s]!)) {
         givenOmega += v2 / sigma2;
         givenRedundancy += r;
         continue;

@@ -362,7 +362,13 @@ export function seriesZwd(
 /** Unit guards on the request (unit-guards.ts): refusals throw, warnings are added to `warnings`. */
 function guardObservations(request: ZwdEstimationRequest, warnings: Warning[]): void {
   const { elevationRad, azimuthRad } = request.observations;
-  const toDeg = (v: readonly number[]) => v.map((x) => x / DEG);
+  // The angles in degrees, one column after the other in one typed array (8 bytes an observation),
+  // instead of a new array of numbers per column.
+  const degrees = new Float64Array(elevationRad.length);
+  const toDeg = (v: readonly number[]) => {
+    for (let i = 0; i < v.length; i++) degrees[i] = v[i]! / DEG;
+    return degrees;
+  };
   elevationUnitGuard(toDeg(elevationRad), { field: 'observations', refuseElevations: true });
   const azimuth = azimuthUnitWarning(toDeg(azimuthRad), 'observations');
   if (azimuth) warnings.push(azimuth);

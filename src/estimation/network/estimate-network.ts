@@ -372,7 +372,7 @@ function uniformWeightFactor(
   const ratios: number[] = [];
   if (now.a > 0 || next.a > 0) ratios.push(now.a > 0 ? (now.a / next.a) ** 2 : Number.NaN);
   if (now.b > 0 || next.b > 0) ratios.push(now.b > 0 ? (now.b / next.b) ** 2 : Number.NaN);
-  const anyGiven = net.stations.some((st) => st.design.givenSigmaM.some((g) => !Number.isNaN(g)));
+  const anyGiven = net.stations.some((st) => st.design.givenSigmaM !== null);
   if (anyGiven) ratios.push(nowGiven / nextGiven);
   if (ratios.length === 0 || ratios.some((r) => !Number.isFinite(r))) return null;
   return ratios.every((r) => Math.abs(r / ratios[0]! - 1) < 1e-12) ? ratios[0]! : null;
@@ -537,8 +537,8 @@ function solveWithScreening(net: NetworkDesign, input: NetworkEstimationInput, r
   }
   let low = 0;
   net.stations.forEach((st, s) => {
-    for (let i = 0; i < st.design.elevationRad.length; i++)
-      if (solution.included[s]![i] && st.design.elevationRad[i]! < MAPPING_FIT_LOWEST_ELEVATION_RAD) low++;
+    for (let i = 0; i < st.design.residualM.length; i++)
+      if (solution.included[s]![i] && obs.elevationRad[st.networkIndex[i]!]! < MAPPING_FIT_LOWEST_ELEVATION_RAD) low++;
   });
   if (low > 0)
     warnings.push(`${low} observations below 3° were used: the Niell mapping functions are fitted from 3° up and are extrapolated there`);
