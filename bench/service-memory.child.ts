@@ -13,6 +13,7 @@
 
 import { readFileSync, writeFileSync } from 'node:fs';
 import { subscribe } from 'node:diagnostics_channel';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { getHeapStatistics } from 'node:v8';
 import { handleZwdRequest, zwdEstimationStart, zwdRequestTask } from '../src/http/tasks/zwd-request.js';
 import { columnsArrow, columnsJson, gpsLikeColumns } from '../test/helpers/gps-like-days.js';
@@ -80,6 +81,56 @@ async function main() {
         `${callerHolds ? 'body held by the caller' : 'task owns its input    '}: at the estimation's start heap +${(atStart!.heapMb - base).toFixed(1)} MB, body bytes ${atStart!.bodyCollected ? 'collected' : 'alive'}; the task's peak RSS +${peakMb.toFixed(0)} MB\n`,
       );
     }
+    return;
+  }
+  if (format === 'json' && process.argv[4] === 'estimator') {
+    // The estimation step alone (runZwdEstimation on the domain request), in a process that has settled: its
+    // peak RSS over the RSS before it, per observation. argv[5]: the root of the source tree whose estimation
+    // service runs (default this one; `git archive <commit> src | tar -x -C <dir>` for the code before).
+    const root = process.argv[5] ?? fileURLToPath(new URL('..', import.meta.url));
+    const run = (
+      (await import(pathToFileURL(`${root}/src/services/zwd-estimation.ts`).href)) as { runZwdEstimation: typeof runZwdEstimation }
+    ).runZwdEstimation;
+    let request: Parameters<typeof runZwdEstimation>[0] | undefined;
+    {
+      const raw = JSON.parse(Buffer.from(body!).toString('utf8')) as { observations: Record<string, unknown[]> };
+      const read = readColumns(raw.observations, 'observations', columnSpecsOf(zwdObservationSchema.shape), Infinity, 'observations');
+      if (!read.ok) throw new Error('columns');
+      const rest = zwdEstimatesColumnarRest.parse(raw) as unknown as Parameters<typeof toZwdRequest>[1] & {
+        site: { latitude_deg: number; longitude_deg: number; height_m: number };
+      };
+      const site = { latitudeDeg: rest.site.latitude_deg, longitudeDeg: rest.site.longitude_deg, heightM: rest.site.height_m };
+      request = toZwdRequest(site, rest, observationsFromColumns(read.columns));
+    }
+    body = undefined;
+    const observations = request.observations.epochMs.length;
+    // Let the collector and V8's page unmapper hand back what building the request freed.
+    for (let i = 0; i < 3; i++) {
+      gc();
+      await new Promise((resolve) => setTimeout(resolve, 300));
+    }
+    const before = status('VmRSS');
+    const heapBefore = process.memoryUsage();
+    writeFileSync('/proc/self/clear_refs', '5');
+    const started = process.cpuUsage();
+    const result = run(request);
+    const cpu = process.cpuUsage(started);
+    const peak = status('VmHWM') - before;
+    gc();
+    const after = process.memoryUsage();
+    process.stdout.write(
+      `${JSON.stringify({
+        root,
+        observations,
+        solutions: result.estimate.statistics.solutions,
+        rssBeforeMb: +before.toFixed(1),
+        peakOverBeforeMb: +peak.toFixed(1),
+        peakBytesPerObservation: Math.round((peak * MB) / observations),
+        keptHeapMb: +((after.heapUsed - heapBefore.heapUsed) / MB).toFixed(1),
+        keptArrayBuffersMb: +((after.arrayBuffers - heapBefore.arrayBuffers) / MB).toFixed(1),
+        cpuMs: Math.round((cpu.user + cpu.system) / 1000),
+      })}\n`,
+    );
     return;
   }
   if (format === 'json' && process.argv[4] === 'stages') {
