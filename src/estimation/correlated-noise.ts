@@ -48,7 +48,7 @@ const LAG_STEP = 4;
  *
  */
 export function residualAutocorrelation(
-  design: Pick<Design, 'epochStart' | 'epochMs' | 'sigmaM' | 'satelliteIndex' | 'satelliteCount'>,
+  design: Pick<Design, 'epochStart' | 'epochMs' | 'observationVarianceM2' | 'satelliteIndex' | 'satelliteCount'>,
   solution: Pick<Solution, 'fittedResidualM'>,
   used: Uint8Array,
   samplingMs: number,
@@ -85,7 +85,7 @@ export function residualAutocorrelation(
       if (!used[s]) continue;
       const at = fill[ids[design.satelliteIndex[s]!]!]!++;
       epoch[at] = k;
-      const value = solution.fittedResidualM[s]! / design.sigmaM[s]!;
+      const value = solution.fittedResidualM[s]! / Math.sqrt(design.observationVarianceM2[s]!);
       z[at] = value;
       c0 += value * value;
     }
@@ -325,7 +325,7 @@ export interface NoiseInflation {
  */
 export function noiseInflation(
   options: Pick<ZwdEstimationOptions, 'correlatedNoise' | 'zwd' | 'gradients'>,
-  design: Pick<Design, 'epochStart' | 'epochMs' | 'sigmaM' | 'satelliteIndex' | 'satelliteCount' | 'samplingMs'>,
+  design: Pick<Design, 'epochStart' | 'epochMs' | 'observationVarianceM2' | 'satelliteIndex' | 'satelliteCount' | 'samplingMs'>,
   solution: Pick<Solution, 'fittedResidualM' | 'epochNormal'>,
   used: Uint8Array,
   withGradients: boolean,

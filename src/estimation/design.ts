@@ -104,9 +104,10 @@ export function locate(layout: NodeLayout, epochMs: number): { interval: number;
 }
 
 /**
- * Observations above the cutoff, sorted by epoch, with everything the normal equations need: 64 bytes
- * per observation (72 with caller's sigmas). What the solutions do not read (the elevation, the
- * satellite names, the epochs as given) stays in the input, reached through inputIndex.
+ * Observations above the cutoff, sorted by epoch, with everything the normal equations need: 56 bytes
+ * per observation (64 with caller's sigmas). What the solutions do not read (the elevation, the
+ * satellite names, the epochs as given) stays in the input, reached through inputIndex; the weight and
+ * σ_i are one column, their variance.
  */
 export interface Design {
   /** Input index of each used observation, in epoch order. */
@@ -115,9 +116,12 @@ export interface Design {
   epochStart: Int32Array;
   epochMs: Float64Array;
   residualM: Float64Array;
-  /** 1/σ_i² [1/m²]. */
-  weight: Float64Array;
-  sigmaM: Float64Array;
+  /**
+   * σ_i² [m²]. The weight is 1/σ_i² and σ_i = √σ_i², computed where they are read: the same doubles as
+   * columns of each would hold (setWeights derives both from this one number), at 8 bytes an observation
+   * instead of 16.
+   */
+  observationVarianceM2: Float64Array;
   /** σ_i given by the caller [m], NaN where the weighting scheme gives it; null when no observation has its own σ. */
   givenSigmaM: Float64Array | null;
   /** Wet mapping factor m_w(e) of the chosen model [-]. */
@@ -204,8 +208,7 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   const epochMsAll = Float64Array.from(epochTimes);
   const wetAt = wetMappingPerEpoch(input, epochMsAll);
   const residualM = new Float64Array(m);
-  const weight = new Float64Array(m);
-  const sigmaM = new Float64Array(m);
+  const observationVarianceM2 = new Float64Array(m);
   let givenSigmaM: Float64Array | null = null;
   const wetMapping = new Float64Array(m);
   const northMapping = new Float64Array(m);
@@ -232,7 +235,7 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   }
 
   const { a, b } = initialWeighting(options);
-  setWeights({ sinElevationSquared, givenSigmaM, sigmaM, weight }, a, b, 1);
+  setWeights({ sinElevationSquared, givenSigmaM, observationVarianceM2 }, a, b, 1);
 
   const epochs = epochTimes.length;
   const first = epochTimes[0]!;
@@ -284,8 +287,7 @@ export function buildDesign(input: ZwdEstimationInput): Design {
     epochStart: Int32Array.from(epochStarts),
     epochMs: epochMsAll,
     residualM,
-    weight,
-    sigmaM,
+    observationVarianceM2,
     givenSigmaM,
     wetMapping,
     northMapping,
@@ -322,17 +324,17 @@ export function initialWeighting(options: ZwdEstimationInput['options']): { a: n
  * for the others (scale: the observations' variance factor of the caller's sigmas).
  */
 export function setWeights(
-  d: Pick<Design, 'sinElevationSquared' | 'givenSigmaM' | 'sigmaM' | 'weight'>,
+  d: Pick<Design, 'sinElevationSquared' | 'givenSigmaM' | 'observationVarianceM2'>,
   a: number,
   b: number,
   givenScale: number,
 ): void {
   const givenSigmaM = d.givenSigmaM;
-  for (let s = 0; s < d.sigmaM.length; s++) {
+  const out = d.observationVarianceM2;
+  for (let s = 0; s < out.length; s++) {
     const given = givenSigmaM === null ? Number.NaN : givenSigmaM[s]!;
     const variance = Number.isNaN(given) ? a * a + (b * b) / d.sinElevationSquared[s]! : given * given * givenScale;
-    d.sigmaM[s] = Math.sqrt(variance);
-    d.weight[s] = 1 / variance;
+    out[s] = variance;
   }
 }
 

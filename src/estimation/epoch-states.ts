@@ -169,7 +169,7 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
   const wet = design.wetMapping;
   const north = design.northMapping;
   const east = design.eastMapping;
-  const weight = design.weight;
+  const variance = design.observationVarianceM2;
   const residual = design.residualM;
   const epochStart = design.epochStart;
 
@@ -221,7 +221,7 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
       for (let s = first; s < end; s++) {
         if (!used[s]) continue;
         observationsUsed++;
-        const w = weight[s]!;
+        const w = 1 / variance[s]!;
         const dr = residual[s]! - rRef;
         const cw = wet[s]! - wRef;
         const cn = north[s]! - nRef;
@@ -419,7 +419,6 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
   const biasM = solver.biasM.fill(Number.NaN);
   const fittedResidualM = solver.fittedResidualM.fill(0);
   const residualVarianceM2 = solver.residualVarianceM2.fill(0);
-  const sigmaM = design.sigmaM;
   let observationSquareSum = 0;
   let observationRedundancy = 0;
   let residualSquareSumM2 = 0;
@@ -452,11 +451,11 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
       const ce = east[s]! - mE;
       const v = residual[s]! - mr - (cw * xW + cn * xN + ce * xE);
       fittedResidualM[s] = v;
-      const w = weight[s]!;
+      const w = 1 / variance[s]!;
       observationSquareSum += w * v * v;
       residualSquareSumM2 += v * v;
       const quad = qWW * cw * cw + 2 * (qWN * cw * cn + qWE * cw * ce + qNE * cn * ce) + qNN * cn * cn + qEE * ce * ce;
-      const sigma = sigmaM[s]!;
+      const sigma = Math.sqrt(variance[s]!);
       const qv = sigma * sigma - biasVariance - quad;
       residualVarianceM2[s] = qv;
       observationRedundancy += qv * w;

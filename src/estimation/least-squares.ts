@@ -249,7 +249,7 @@ function assembleAndFactor(design: Design, layout: ParameterLayout, fams: Family
     let swE = 0;
     for (let s = start; s < end; s++) {
       if (!used[s]) continue;
-      const w = design.weight[s]!;
+      const w = 1 / design.observationVarianceM2[s]!;
       sw += w;
       swr += w * design.residualM[s]!;
       swW += w * wet[s]!;
@@ -279,7 +279,7 @@ function assembleAndFactor(design: Design, layout: ParameterLayout, fams: Family
     for (let s = start; s < end; s++) {
       if (!used[s]) continue;
       observationsUsed++;
-      const w = design.weight[s]!;
+      const w = 1 / design.observationVarianceM2[s]!;
       const dr = design.residualM[s]! - mr;
       const cw = wet[s]! - mW;
       const cn = north[s]! - mN;
@@ -387,7 +387,7 @@ function postFitResiduals(
     let swE = 0;
     for (let s = start; s < end; s++) {
       if (!used[s]) continue;
-      const w = design.weight[s]!;
+      const w = 1 / design.observationVarianceM2[s]!;
       const e = design.residualM[s]! - wet[s]! * xf[0]! - north[s]! * xf[1]! - east[s]! * xf[2]!;
       fittedResidualM[s] = e;
       sw += w;
@@ -421,7 +421,7 @@ function postFitResiduals(
       if (!used[s]) continue;
       const v = fittedResidualM[s]! - b;
       fittedResidualM[s] = v;
-      const w = design.weight[s]!;
+      const w = 1 / design.observationVarianceM2[s]!;
       observationSquareSum += w * v * v;
       residualSquareSumM2 += v * v;
       const cw = wet[s]! - mW;
@@ -431,7 +431,7 @@ function postFitResiduals(
         const ce = east[s]! - mE;
         quad += 2 * (qWN * cw * cn + qWE * cw * ce + qNE * cn * ce) + qNN * cn * cn + qEE * ce * ce;
       }
-      const sigma = design.sigmaM[s]!;
+      const sigma = Math.sqrt(design.observationVarianceM2[s]!);
       const qv = sigma * sigma - biasVariance - quad;
       residualVarianceM2[s] = qv;
       observationRedundancy += qv * w;

@@ -90,7 +90,7 @@ export function rejectionCandidates(
   const bound = (threshold * sigmaZero) ** 2 * (1 - 1e-9);
   for (let s = 0; s < used.length; s++) {
     if (!used[s]) continue;
-    const sigma = design.sigmaM[s]!;
+    const sigma = Math.sqrt(design.observationVarianceM2[s]!);
     const qv = solution.residualVarianceM2[s]!;
     if (!(qv > MIN_TESTABLE_REDUNDANCY * sigma * sigma)) continue;
     const v = solution.fittedResidualM[s]!;

@@ -9,7 +9,7 @@ import type { WeightingScheme } from './types.js';
 
 /** One station's observations: its design (sigmas, elevations), post-fit residuals and σ_v², used flags. */
 export interface VarianceComponentPart {
-  design: Pick<Design, 'sigmaM' | 'givenSigmaM' | 'sinElevationSquared'>;
+  design: Pick<Design, 'observationVarianceM2' | 'givenSigmaM' | 'sinElevationSquared'>;
   fittedResidualM: Float64Array;
   residualVarianceM2: Float64Array;
   used: Uint8Array;
@@ -51,7 +51,8 @@ export function varianceComponents(
     const givenSigmaM = design.givenSigmaM;
     for (let s = 0; s < used.length; s++) {
       if (!used[s]) continue;
-      const sigma2 = design.sigmaM[s]! ** 2;
+      // σ_i² as (√σ_i²)²: the square of σ_i as the sigma column held it (the same double as before).
+      const sigma2 = Math.sqrt(design.observationVarianceM2[s]!) ** 2;
       const r = residualVarianceM2[s]! / sigma2;
       if (!(r > 1e-6)) continue;
       const v2 = fittedResidualM[s]! ** 2;

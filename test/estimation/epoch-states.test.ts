@@ -289,7 +289,7 @@ describe('residual autocorrelation over regular runs against the pair-by-pair de
       let v = 0;
       z.push(times.map(() => (v = 0.8 * v + rand())));
     }
-    // As a design: epochs are the distinct times, observations grouped by epoch; sigma 1 so z = v.
+    // As a design: epochs are the distinct times, observations grouped by epoch; σ² = 1 so z = v.
     const epochs = [...new Set(t.flat())].sort((p, q) => p - q);
     const epochStart: number[] = [];
     const satelliteIndex: number[] = [];
@@ -308,7 +308,7 @@ describe('residual autocorrelation over regular runs against the pair-by-pair de
     const design = {
       epochStart: Int32Array.from(epochStart),
       epochMs: Float64Array.from(epochs),
-      sigmaM: new Float64Array(n).fill(1),
+      observationVarianceM2: new Float64Array(n).fill(1),
       satelliteIndex: Int32Array.from(satelliteIndex),
       satelliteCount: 4,
     };

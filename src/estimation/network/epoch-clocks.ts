@@ -199,7 +199,7 @@ export class EpochClockSystem {
       const i = net.entryObservation[e]!;
       const st = net.stations[s]!;
       const design = st.design;
-      const w = design.weight[i]!;
+      const w = 1 / design.observationVarianceM2[i]!;
       const a = this.localOf[s]!;
       eL[x] = a;
       eW[x] = w;

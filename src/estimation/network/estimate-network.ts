@@ -591,7 +591,7 @@ function networkCandidates(
   net.stations.forEach((st, s) => {
     for (let i = 0; i < st.design.residualM.length; i++) {
       if (!solution.included[s]![i]) continue;
-      const sigma = st.design.sigmaM[i]!;
+      const sigma = Math.sqrt(st.design.observationVarianceM2[i]!);
       const qv = solution.residualVarianceM2[s]![i]!;
       if (!(qv > MIN_TESTABLE_REDUNDANCY * sigma * sigma)) continue;
       const tau = solution.fittedResidualM[s]![i]! / (sigmaZero * Math.sqrt(qv));

@@ -269,7 +269,7 @@ function reduceClockLikeParts(net: NetworkDesign): void {
         for (let e = a; e < b; e++) {
           const st = net.stations[net.entryStation[e]!]!;
           const i = net.entryObservation[e]!;
-          const w = st.design.weight[i]!;
+          const w = 1 / st.design.observationVarianceM2[i]!;
           sumW[key[e]!]! += w;
           sumWR[key[e]!]! += w * st.reducedResidualM[i]!;
         }

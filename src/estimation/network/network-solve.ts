@@ -478,7 +478,7 @@ export function solveNetworkOnce(
             clockTerm += omegaTau - 2 * tau[kk]!;
           }
         }
-        const sigma = st.design.sigmaM[i]!;
+        const sigma = Math.sqrt(st.design.observationVarianceM2[i]!);
         residualVarianceM2[s]![i] = sigma * sigma - clockTerm - quad;
       }
     }
