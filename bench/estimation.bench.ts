@@ -12,7 +12,9 @@
  * ranges (min–max) and medians of repeated runs after warm-up, interleaved so that load from
  * other processes hits both sizes alike. Set BENCH_SKIP_DENSE=1 to skip the dense solver, and
  * BENCH_ESTIMATION_REFERENCE=<root of an older source tree> to time its estimator against this one
- * by turns (CPU time, the same process).
+ * by turns (CPU time, the same process), and to compare the peak memory of the estimation step on 30
+ * GPS-like days (bench/service-memory.child.ts `estimator`, a fresh process each, the two trees by turns,
+ * BENCH_MEMORY_ROUNDS rounds, default 3; 0 skips it).
  */
 
 import { execFileSync } from 'node:child_process';
@@ -102,6 +104,48 @@ async function againstReference(root: string, inputs: ZwdEstimationInput[]): Pro
   return out;
 }
 
+interface StepMemory {
+  observations: number;
+  peakOverBeforeMb: number;
+  peakBytesPerObservation: number;
+  keptHeapMb: number;
+}
+
+/**
+ * The estimation step (runZwdEstimation) on 30 GPS-like days, its peak RSS over the RSS before it, for an older
+ * source tree and this one, each run in a fresh process (node's flags of `npm run bench`, --max-semi-space-size=32
+ * included), the trees by turns so that load and the machine's state hit both alike.
+ */
+function memoryAgainstReference(root: string, rounds: number): string[] {
+  if (!(rounds > 0)) return [];
+  const child = fileURLToPath(new URL('./service-memory.child.ts', import.meta.url));
+  const here = fileURLToPath(new URL('..', import.meta.url));
+  const runs: [StepMemory[], StepMemory[]] = [[], []];
+  for (let r = 0; r < rounds; r++) {
+    for (const [i, tree] of [root, here].entries()) {
+      const out = execFileSync(process.execPath, ['--expose-gc', '--import', 'tsx', child, '30', 'json', 'estimator', tree], {
+        encoding: 'utf8',
+      });
+      runs[i]!.push(JSON.parse(out.trim().split('\n').pop()!) as StepMemory);
+    }
+  }
+  const range = (xs: number[], unit: string) => `${Math.min(...xs).toFixed(0)}–${Math.max(...xs).toFixed(0)} ${unit}`;
+  const describe = (m: StepMemory[]) =>
+    `+${range(
+      m.map((x) => x.peakOverBeforeMb),
+      'MB',
+    )} (${range(
+      m.map((x) => x.peakBytesPerObservation),
+      'bytes an observation',
+    )}; heap kept ${range(
+      m.map((x) => x.keptHeapMb),
+      'MB',
+    )})`;
+  return [
+    `  estimation step on 30 GPS-like days (${runs[1][0]!.observations} observations), peak RSS over the RSS before it, ${rounds} fresh processes each, by turns: before ${describe(runs[0])}, now ${describe(runs[1])}`,
+  ];
+}
+
 export default async function (): Promise<string[]> {
   const lines: string[] = [];
   const oneDay = realisticDays(1);
@@ -124,6 +168,7 @@ export default async function (): Promise<string[]> {
   );
   const reference = process.env.BENCH_ESTIMATION_REFERENCE;
   if (reference) lines.push(...(await againstReference(reference, [gps, oneDay])));
+  if (reference) lines.push(...memoryAgainstReference(reference, Number(process.env.BENCH_MEMORY_ROUNDS ?? 3)));
   const plain = (input: ZwdEstimationInput) => ({
     ...input,
     options: { ...input.options, outlierThreshold: null, scaleSigmas: false, correlatedNoise: false },
