@@ -104,8 +104,8 @@ export function locate(layout: NodeLayout, epochMs: number): { interval: number;
 }
 
 /**
- * Observations above the cutoff, sorted by epoch, with everything the normal equations need: 56 bytes
- * per observation (64 with caller's sigmas). What the solutions do not read (the elevation, the
+ * Observations above the cutoff, sorted by epoch, with everything the normal equations need: 53 bytes
+ * per observation up to 256 satellites (61 with caller's sigmas). What the solutions do not read (the elevation, the
  * satellite names, the epochs as given) stays in the input, reached through inputIndex; the weight and
  * σ_i are one column, their variance.
  */
@@ -131,8 +131,11 @@ export interface Design {
   eastMapping: Float64Array;
   /** sin²e of each observation [-] (the elevation weighting and the variance components, computed once). */
   sinElevationSquared: Float64Array;
-  /** Satellite of each observation as an index 0..satelliteCount−1 (in order of first appearance in the input). */
-  satelliteIndex: Int32Array;
+  /**
+   * Satellite of each observation as an index 0..satelliteCount−1 (in order of first appearance in the input),
+   * in the narrowest array that holds satelliteCount (one byte for up to 256 satellites: four constellations).
+   */
+  satelliteIndex: Uint8Array | Uint16Array | Int32Array;
   satelliteCount: number;
   /** Median spacing of consecutive epochs [ms] (NaN with fewer than two epochs). */
   samplingMs: number;
@@ -214,7 +217,7 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   const northMapping = new Float64Array(m);
   const eastMapping = new Float64Array(m);
   const sinElevationSquared = new Float64Array(m);
-  const satelliteIndex = new Int32Array(m);
+  const satelliteIndex = satelliteIndexArray(satellites.count, m);
   for (let k = 0; k < epochTimes.length; k++) {
     const wet = wetAt(k);
     for (let s = epochStarts[k]!; s < epochStarts[k + 1]!; s++) wetMapping[s] = wet(obs.elevationRad[inputIndex[s]!]!);
@@ -394,6 +397,12 @@ function medianSpacingMs(epochMs: Float64Array): number {
   const d = new Float64Array(epochMs.length - 1);
   for (let k = 1; k < epochMs.length; k++) d[k - 1] = epochMs[k]! - epochMs[k - 1]!;
   return selectInPlace(d, d.length, Math.floor(d.length / 2));
+}
+
+/** An array of `length` satellite indices 0..count−1, of the narrowest type that holds them. */
+function satelliteIndexArray(count: number, length: number): Uint8Array | Uint16Array | Int32Array {
+  if (count <= 1 << 8) return new Uint8Array(length);
+  return count <= 1 << 16 ? new Uint16Array(length) : new Int32Array(length);
 }
 
 /** Each observation's satellite as an index in order of first appearance, and the number of satellites. */

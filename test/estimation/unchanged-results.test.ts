@@ -1,13 +1,17 @@
 import { describe, expect, it } from 'vitest';
+import { buildDesign } from '../../src/estimation/design.js';
 import { estimateZwd } from '../../src/estimation/estimate.js';
 import { estimateNetwork } from '../../src/estimation/network/estimate-network.js';
-import { digestCases, outputDigest } from '../helpers/estimation-digests.js';
+import { digestCases, namedPerHour, outputDigest } from '../helpers/estimation-digests.js';
+import { simulateSky } from '../helpers/realistic-sky.js';
+import { skyInput } from '../helpers/synthetic-input.js';
 
 /**
- * Issue 14, the estimator's bytes per observation: the design keeps no copy of the elevations, no caller's-σ
- * column when no σ was sent and no index arrays of all observations; the block solver writes Z_k over
- * S_k⁻¹ and x_k over u_k; the correlated-noise step packs epoch indices instead of epoch times. None of it
- * may move a bit of any result.
+ * Issue 14, the estimator's bytes per observation: the design keeps no copy of the elevations, one column of
+ * variances instead of weights and sigmas, no caller's-σ column when no σ was sent, satellite indices in the
+ * narrowest integer array and no index arrays of all observations; the block solver writes Z_k over S_k⁻¹ and
+ * x_k over u_k; the correlated-noise step packs epoch indices instead of epoch times. None of it may move a
+ * bit of any result.
  *
  * Expected: the digests (test/helpers/estimation-digests.ts: SHA-256 of the whole output, numbers bit for
  * bit) of the code before those changes, commit bbb0200, recorded by running the same cases against that
@@ -25,6 +29,7 @@ const BEFORE_BBB0200: Record<string, string> = {
   'GPS-like day, no gradients': 'd5775d79ff769ac51444fb5baadbb32335e586ba0a7cea3c5ae64cb264f3d976',
   'GPS-like day, no epoch biases': '3ccc7c4cf417dcabd849352aef830eaaa167c717ad99c0e2eb690e59468777ff',
   'GPS-like day, out of epoch order': 'ff02eee8424f20dc9e00c51c11e6f7df4412c9da45fe8ccd3c24f57ba6f815f3',
+  'GPS-like day, a satellite name per hour (more than 256 names)': 'cbe7bf49bf07fc7e697b47644475afc6b282b832570822a990ab9c139aa7edee',
   'generated day, no sigmas': '2edbe564e023769c43eebd191b600930af9e4f0d6a1037454283c3e2a6ebf77e',
   "generated day, caller's sigmas": '0ef65db4098f967c27b2733409c6fc5b16a81919f1390dc58c70e92bca7eca36',
   "generated day, caller's sigmas, elevation-components": '57a3c5520cbb201b82a3b677654ad6271419e0115f92526d6fd8dd86576a9acd',
@@ -49,6 +54,14 @@ describe('estimator outputs bit for bit as before the memory changes (digests of
       30_000,
     );
   }
+
+  it('the satellite indices take one byte up to 256 satellites, two above (both paths are among the cases)', () => {
+    const gps = skyInput(simulateSky({ seed: 11, durationS: 86_400, grossErrors: 25, constellations: ['gps'] }));
+    expect(buildDesign(gps).satelliteIndex).toBeInstanceOf(Uint8Array);
+    const perHour = buildDesign(namedPerHour(gps));
+    expect(perHour.satelliteCount).toBeGreaterThan(256);
+    expect(perHour.satelliteIndex).toBeInstanceOf(Uint16Array);
+  });
 
   it('a digest moves with the last bit of one number', () => {
     // 0.1 and the next double above it (one unit in the last place): the serialisation keeps them apart.

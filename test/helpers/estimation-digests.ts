@@ -46,6 +46,15 @@ function shuffled(input: ZwdEstimationInput): ZwdEstimationInput {
   };
 }
 
+/** Each satellite renamed per hour of the day (`G07-13`): an arc per hour, and on a GPS-like day more than 256 names. */
+export function namedPerHour(input: ZwdEstimationInput): ZwdEstimationInput {
+  const o = input.observations;
+  return {
+    ...input,
+    observations: { ...o, satellite: o.satellite.map((name, i) => `${name}-${Math.floor(o.epochMs[i]! / 3_600_000) % 24}`) },
+  };
+}
+
 /** Named cases: each runs an estimator on its input and returns the output. */
 export function digestCases(estimateZwd: typeof EstimateZwd, estimateNetwork: typeof EstimateNetwork): Record<string, () => unknown> {
   const gps = simulateSky({ seed: 11, durationS: 86_400, grossErrors: 25, constellations: ['gps'] });
@@ -62,6 +71,7 @@ export function digestCases(estimateZwd: typeof EstimateZwd, estimateNetwork: ty
     'GPS-like day, no gradients': () => estimateZwd(skyInput(gps, { gradients: null })),
     'GPS-like day, no epoch biases': () => estimateZwd(skyInput(gps, { epochBias: false })),
     'GPS-like day, out of epoch order': () => estimateZwd(shuffled(skyInput(gps))),
+    'GPS-like day, a satellite name per hour (more than 256 names)': () => estimateZwd(namedPerHour(skyInput(gps))),
     'generated day, no sigmas': () => estimateZwd(toEstimationInput(generated, 46.2, { scaleSigmas: true })),
     "generated day, caller's sigmas": () => estimateZwd(withSigmas()),
     "generated day, caller's sigmas, elevation-components": () => estimateZwd(withSigmas({ weighting: 'elevation-components' })),
