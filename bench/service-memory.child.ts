@@ -9,6 +9,9 @@
  * the pool's task (zwdRequestTask) still holds when its estimation starts (heap and array buffers after a full GC
  * at the zwdEstimationStart channel), in alternate runs: the task owning its input (as in the pool) and the body
  * also held by the caller (as the task held it before it dropped it once read); `held` takes the run count.
+ * With `estimator [root]` (columns JSON), the estimation step alone (runZwdEstimation on the domain request, in a
+ * process that has settled after building it): its peak RSS over the RSS before it and per observation, as JSON,
+ * for the source tree at root (default this one; bench/estimation.bench.ts runs it for two trees by turns).
  */
 
 import { readFileSync, writeFileSync } from 'node:fs';
