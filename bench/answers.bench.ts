@@ -9,7 +9,9 @@
  *
  * "Before" is this tree's answer objects + tableAnswer, or with BENCH_ANSWERS_REFERENCE=<root of an older
  * source tree> (e.g. `git archive <commit> src | tar -x -C /tmp/before`, node_modules linked) that tree's,
- * so that what changed inside the answer objects (the epoch texts) is timed too.
+ * so that what changed inside the answer objects (the epoch texts) is timed too; with it also the slant-delay
+ * task (handleSlantDelaysRequest, rows answer, 10 000 directions: the body read, the models and the answer)
+ * of both trees by turns.
  */
 
 import { readFileSync } from 'node:fs';
@@ -20,6 +22,7 @@ import { observationsFromColumns, toZwdRequest, zwdEstimatesResponseOf } from '.
 import type { AnswerShape } from '../src/http/answer-shape.js';
 import { ZWD_ANSWER_TABLES, zwdEstimatesRequest } from '../src/http/schemas/zwd-estimates.js';
 import { tableAnswer } from '../src/http/table-answer.js';
+import { handleSlantDelaysRequest } from '../src/http/tasks/apriori-batch.js';
 import { runZwdEstimation, type ZwdEstimationResult } from '../src/services/zwd-estimation.js';
 import { simulateSky } from '../test/helpers/realistic-sky.js';
 
@@ -90,6 +93,45 @@ async function objectsPath(): Promise<{ label: string; answer: ObjectsPath }> {
   };
 }
 
+/** The slant-delay task of this tree and of the reference tree by turns, 10 000 directions, rows answer. */
+async function slantLines(root: string): Promise<string[]> {
+  const n = 10_000;
+  const body = JSON.stringify({
+    site: { latitude_deg: 47.5, longitude_deg: 8.25, height_m: 420 },
+    epoch: '2026-06-21T06:30:00Z',
+    met: { pressure_hpa: 965.3, temperature_c: 18.2, relative_humidity_pct: 61 },
+    directions: {
+      elevation_deg: Array.from({ length: n }, (_, i) => 3 + (87 * i) / n),
+      azimuth_deg: Array.from({ length: n }, (_, i) => (i * 37) % 360),
+    },
+  });
+  const module = (await import(pathToFileURL(`${root}/src/http/tasks/apriori-batch.ts`).href)) as {
+    handleSlantDelaysRequest: typeof handleSlantDelaysRequest;
+  };
+  const run = (handle: typeof handleSlantDelaysRequest) => async () => {
+    const outcome = await handle({ body: new Uint8Array(Buffer.from(body)) });
+    if (!outcome.ok) throw new Error('slant delays: not answered');
+    return outcome.output.json;
+  };
+  const before = run(module.handleSlantDelaysRequest);
+  const after = run(handleSlantDelaysRequest);
+  if (!Buffer.from(await before()).equals(Buffer.from(await after()))) throw new Error('slant delays: the answers differ');
+  const times: [number[], number[]] = [[], []];
+  const loadBefore = loadAverage();
+  for (let r = 0; r < WARM_UP + RUNS; r++) {
+    for (const [i, f] of [before, after].entries()) {
+      const started = process.cpuUsage();
+      await f();
+      const used = process.cpuUsage(started);
+      if (r >= WARM_UP) times[i]!.push((used.user + used.system) / 1e6);
+    }
+  }
+  const ratio = times[1].map((x, i) => x / times[0][i]!);
+  return [
+    `slant delays, 10 000 directions, rows answer (handleSlantDelaysRequest): ${root} ${ms(times[0])} → this tree ${ms(times[1])}; ratio by turns ${median(ratio).toFixed(2)} (${Math.min(...ratio).toFixed(2)}–${Math.max(...ratio).toFixed(2)}); load average ${loadBefore} → ${loadAverage()}`,
+  ];
+}
+
 export default async function bench(): Promise<string[]> {
   const lines: string[] = [];
   const reference = await objectsPath();
@@ -108,5 +150,7 @@ export default async function bench(): Promise<string[]> {
       );
     }
   }
+  const root = process.env.BENCH_ANSWERS_REFERENCE;
+  if (root) lines.push(...(await slantLines(root)));
   return lines;
 }

@@ -12,7 +12,7 @@
  * src/formats/output-precision.ts) and written as JSON bytes in one pass (src/formats/json-columns.ts).
  */
 
-import { columnsJsonBytes, jsonWithRawMembers, type JsonColumn } from '../formats/json-columns.js';
+import { columnsJsonBytes, jsonWithRawMembers, utf8Bytes, type JsonColumn } from '../formats/json-columns.js';
 import type { AnswerShape, FieldDecimals } from './answer-shape.js';
 import { arrowAnswer, ARROW_STREAM_TYPE } from './answer-shape.js';
 
@@ -33,7 +33,7 @@ export function tableFieldNames(specs: TableSpecs): string[] {
 }
 
 /** The fields selected per table (undefined: all), from the validated `fields` of the shape. */
-function selectedFields(specs: TableSpecs, fields: readonly string[] | undefined): Record<string, string[] | undefined> {
+export function selectedFields(specs: TableSpecs, fields: readonly string[] | undefined): Record<string, string[] | undefined> {
   const out: Record<string, string[] | undefined> = {};
   if (!fields) return out;
   for (const name of fields) {
@@ -119,16 +119,4 @@ export function tableAnswer(answer: Row, specs: TableSpecs, shape: AnswerShape, 
     if (fields && Array.isArray(answer[table])) shaped[table] = pick(answer[table] as Row[], fields);
   }
   return { bytes: utf8Bytes(JSON.stringify(shaped)), contentType: 'application/json' };
-}
-
-/**
- * A text as UTF-8 bytes that own their buffer. ASCII text (the usual answer: numbers, ISO epochs, ASCII
- * names and warnings) is its own UTF-8: written as latin1, without transcoding (a 1.2 MB answer: ~0.3 ms
- * instead of ~0.7–1.5 ms); the UTF-8 length equals the text's length exactly when every character is ASCII.
- */
-function utf8Bytes(text: string): Uint8Array {
-  if (Buffer.byteLength(text, 'utf8') !== text.length) return new TextEncoder().encode(text);
-  const bytes = new Uint8Array(text.length);
-  Buffer.from(bytes.buffer).write(text, 0, 'latin1');
-  return bytes;
 }

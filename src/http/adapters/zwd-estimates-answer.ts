@@ -25,14 +25,14 @@ import { MAX_ROUNDED_DECIMAL_BYTES, writeRoundedDecimal } from '../../formats/ro
 import type { ZwdEstimationResult } from '../../services/zwd-estimation.js';
 import type { AnswerShape } from '../answer-shape.js';
 import { ZWD_ANSWER_TABLES } from '../schemas/zwd-estimates.js';
-import { tableAnswer, type TableAnswer } from '../table-answer.js';
+import { selectedFields, tableAnswer, type TableAnswer } from '../table-answer.js';
 import { zwdAnswerSummaryOf, zwdEstimatesResponseOf } from './zwd-estimation.js';
 
 /**
- * One field of a row table, as a column: numbers (NaN for null: both are written null, in rows as
- * JSON.stringify writes NaN and null, in columns as the rounded writer writes a non-finite value) with the
- * rows that have no such field marked in `absent`, or texts (undefined: no such field in the row); neither
- * when no row has the field (met fields of an answer without met).
+ * One field of a row table, as a column: numbers (NaN for null: the rounded writer writes a non-finite
+ * value as null, as it wrote the null of a row object) with the rows that have no such field marked in
+ * `absent`, or texts (undefined: no such field in the row); neither when no row has the field (met fields
+ * of an answer without met).
  */
 interface AnswerField {
   name: string;
@@ -286,17 +286,6 @@ function fieldsOf(table: AnswerTable, selected: readonly string[] | undefined, t
   return out;
 }
 
-/** The fields `fields` selects per table (undefined: all), as tableAnswer reads them. */
-function selectedFields(fields: readonly string[] | undefined): Record<string, string[] | undefined> {
-  const out: Record<string, string[] | undefined> = {};
-  for (const name of fields ?? []) {
-    const dot = name.indexOf('.');
-    const [table, field] = dot < 0 ? [ZWD_ANSWER_TABLES.main, name] : [name.slice(0, dot), name.slice(dot + 1)];
-    (out[table] ??= []).push(field);
-  }
-  return out;
-}
-
 /**
  * The answer of POST /v1/zwd-estimates in the shape asked for: `shape=columns` JSON written by this
  * module; rows and Arrow through the answer objects and tableAnswer as before.
@@ -304,7 +293,7 @@ function selectedFields(fields: readonly string[] | undefined): Record<string, s
 export function zwdEstimatesAnswer(r: ZwdEstimationResult, shape: AnswerShape): TableAnswer {
   if (shape.format === 'arrow' || shape.shape === 'rows') return tableAnswer(zwdEstimatesResponseOf(r), ZWD_ANSWER_TABLES, shape);
   const tables = answerTables(r);
-  const selected = selectedFields(shape.fields);
+  const selected = selectedFields(ZWD_ANSWER_TABLES, shape.fields);
   // About 12 bytes a rounded value: room for a day without growing.
   const out = new JsonBytes((tables.series!.rows + tables.zwd_nodes!.rows) * 250 + 4096);
   out.byte(0x7b); // {
