@@ -11,8 +11,11 @@
  *   runZwdEstimation, target ≤ 2×; and the estimator alone), and the station-days per CPU-second that makes
  *   (target ≥ 30 per replica); beside it the lighter answers (`shape=columns`, and Arrow in and out) and the
  *   edge each leaves (through HTTP − in-process service). `BENCH_PART=estimation npm run bench -- columns`
- *   runs this part only.
- * Ranges over rounds (min–max), after warm-up.
+ *   runs this part only. /proc counts CPU in ticks of 10 ms, so the service's CPU is read per block of
+ *   requests back to back (`blockSize` of DAYS: 0.5–0.7 s of CPU a block quiet, a tick is ≤ 2 % of it) and
+ *   divided by the block's requests; the four request forms take turns block by block, 6 blocks each, so
+ *   that a change of load falls on all of them.
+ * Ranges over rounds or blocks (min–max), after warm-up.
  */
 
 import { readFileSync } from 'node:fs';
@@ -120,10 +123,15 @@ async function slantLines(server: ServerProcess): Promise<string[]> {
  *   25 gross errors: the issue's "30-satellite data" (its own measurement was a day of 23 k observations);
  * - "four constellations": GPS, GLONASS, Galileo, BeiDou MEO (28–38 in view), ≈ 93 000 observations,
  *   100 gross errors.
+ * `blockSize`: requests per block through HTTP (≈ 0.5–0.7 s of service CPU a block on the quiet machine).
  */
 const DAYS = {
-  'GPS-like (30 satellites, 7–11 in view)': { constellations: ['gps'] as const, grossErrors: 25 },
-  'four constellations (28–38 in view)': { constellations: ['gps', 'glonass', 'galileo', 'beidou'] as const, grossErrors: 100 },
+  'GPS-like (30 satellites, 7–11 in view)': { constellations: ['gps'] as const, grossErrors: 25, blockSize: 10 },
+  'four constellations (28–38 in view)': {
+    constellations: ['gps', 'glonass', 'galileo', 'beidou'] as const,
+    grossErrors: 100,
+    blockSize: 4,
+  },
 };
 
 /** One realistic day as the API's columns and objects. */
@@ -154,6 +162,12 @@ function realisticDayBodies(day: (typeof DAYS)[keyof typeof DAYS]) {
   }));
   return { request, columns, objects, count: epoch.length };
 }
+
+/** Blocks of requests per form through HTTP (the median and range are over these). */
+const BLOCKS = 6;
+
+/** The 1-, 5- and 15-minute load averages (/proc/loadavg), to print beside the figures. */
+const loadAverage = () => readFileSync('/proc/loadavg', 'utf8').split(' ').slice(0, 3).join(' ');
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 
@@ -190,26 +204,28 @@ async function estimationDayLines(server: ServerProcess, name: string, day: (typ
   }) as Table;
   table.schema.metadata.set('request', JSON.stringify(bodies.request));
   const arrowBody = tableToIPC(table, 'stream') as Uint8Array<ArrayBuffer>;
-  const serverCpu = async (
-    body: string | Uint8Array<ArrayBuffer>,
-    rounds: number,
-    path = '/v1/zwd-estimates',
-    type = 'application/json',
-  ) => {
-    const per: number[] = [];
-    const loop = eventLoop.get(path + type) ?? [];
-    for (let r = 0; r < rounds; r++) {
-      const before = cpuSeconds(pid);
-      const loopBefore = eventLoopCpuSeconds(pid);
-      await post(server, path, body, type, type);
-      per.push(cpuSeconds(pid) - before);
-      loop.push(eventLoopCpuSeconds(pid) - loopBefore);
-    }
-    eventLoop.set(path + type, loop);
-    return per;
+  // The service's CPU per request, from /proc in ticks of 10 ms: read over a block of requests back to back
+  // (CPU of the block / its requests), so that a figure resolves a tenth of a tick per request at 10 a block.
+  type Form = { key: string; body: string | Uint8Array<ArrayBuffer>; path: string; type: string };
+  const form = (key: string, body: Form['body'], path = '/v1/zwd-estimates', type = 'application/json'): Form => ({
+    key,
+    body,
+    path,
+    type,
+  });
+  const forms = {
+    columns: form('columns', columnsBody),
+    objects: form('objects', objectsBody),
+    columnsOut: form('shape=columns', columnsBody, '/v1/zwd-estimates?shape=columns'),
+    arrow: form('Arrow', arrowBody, '/v1/zwd-estimates', ARROW),
   };
-  // The event loop's share (body reading and row counting, fastify, the socket), per request form.
-  const eventLoop = new Map<string, number[]>();
+  /** CPU seconds per request of one block of `size` requests: the whole process, and its event-loop thread. */
+  const block = async (f: Form, size: number) => {
+    const before = cpuSeconds(pid);
+    const loopBefore = eventLoopCpuSeconds(pid);
+    for (let i = 0; i < size; i++) await post(server, f.path, f.body, f.type, f.type);
+    return { process: (cpuSeconds(pid) - before) / size, loop: (eventLoopCpuSeconds(pid) - loopBefore) / size };
+  };
   const parsed = zwdEstimatesRequest.parse({ ...bodies.request, observations: bodies.objects });
   const domainSite = { latitudeDeg: parsed.site.latitude_deg, longitudeDeg: parsed.site.longitude_deg, heightM: parsed.site.height_m };
   const request = toZwdRequest(domainSite, parsed, observationsFromColumns(bodies.columns));
@@ -224,33 +240,40 @@ async function estimationDayLines(server: ServerProcess, name: string, day: (typ
     number[],
   ];
   const solutions = estimateZwd(estimatorInput).statistics.solutions;
-  // Requests of 2–8 MB take several ticks of /proc's 10 ms clock: rounds enough for a stable median.
-  await serverCpu(columnsBody, 3); // warm-up
-  await serverCpu(objectsBody, 1);
-  await serverCpu(arrowBody, 1, '/v1/zwd-estimates', ARROW);
-  eventLoop.clear(); // the warm-up left out
-  const columns = await serverCpu(columnsBody, 9);
-  const objects = await serverCpu(objectsBody, 5);
-  // The lighter answers: columns JSON in, columns out (rounded, 0.3 of the rows' bytes); Arrow in and out.
-  const columnsOut = await serverCpu(columnsBody, 9, '/v1/zwd-estimates?shape=columns');
-  const arrow = await serverCpu(arrowBody, 9, '/v1/zwd-estimates', ARROW);
+  // Warm-up (left out): every form.
+  await block(forms.columns, 3);
+  for (const f of [forms.objects, forms.columnsOut, forms.arrow]) await block(f, 1);
+  const blockSize = day.blockSize;
+  // The forms by turns, block after block, so that all of them see the same load.
+  const perForm = new Map<Form, { process: number[]; loop: number[] }>(Object.values(forms).map((f) => [f, { process: [], loop: [] }]));
+  const loadBefore = loadAverage();
+  for (let b = 0; b < BLOCKS; b++) {
+    for (const f of Object.values(forms)) {
+      const { process: p, loop } = await block(f, blockSize);
+      perForm.get(f)!.process.push(p);
+      perForm.get(f)!.loop.push(loop);
+    }
+  }
+  const loadAfter = loadAverage();
+  const columns = perForm.get(forms.columns)!.process;
+  const objects = perForm.get(forms.objects)!.process;
+  const columnsOut = perForm.get(forms.columnsOut)!.process;
+  const arrow = perForm.get(forms.arrow)!.process;
   const ms = (xs: number[]) =>
-    `${(median(xs) * 1000).toFixed(0)} ms (${range(
+    `${(median(xs) * 1000).toFixed(1)} ms (${range(
       xs.map((x) => x * 1000),
-      0,
+      1,
     )})`;
-  const loopMs = (key: string) => {
-    const xs = eventLoop.get(key)!;
-    return `${((xs.reduce((a, b) => a + b, 0) / xs.length) * 1000).toFixed(1)} ms`;
-  };
+  const loopMs = (f: Form) => ms(perForm.get(f)!.loop);
   return [
     `one realistic day, ${name}: ${bodies.count} observations, default options (${solutions} solutions); CPU per day, median (range):`,
+    `  through HTTP: service CPU from /proc per block of ${blockSize} requests back to back ÷ ${blockSize}, ${BLOCKS} blocks per form, the four forms by turns; load average ${loadBefore} → ${loadAfter}`,
     `  through HTTP, service process: columns JSON (${(columnsBody.length / 1e6).toFixed(1)} MB) ${ms(columns)}, objects JSON (${(objectsBody.length / 1e6).toFixed(1)} MB) ${ms(objects)}`,
     `  through HTTP, lighter answers: columns JSON in, shape=columns out ${ms(columnsOut)}; Arrow in and out (${(arrowBody.length / 1e6).toFixed(1)} MB) ${ms(arrow)}`,
     `  in-process: estimation service (runZwdEstimation) ${ms(service)}, estimator alone (estimateZwd) ${ms(estimator)}`,
     `  columns through HTTP / in-process service ${(median(columns) / median(service)).toFixed(2)} (target ≤ 2); ${(1 / median(columns)).toFixed(1)} station-days per CPU-second through HTTP with columns, ${(1 / median(objects)).toFixed(1)} with objects (target ≥ 30)`,
-    `  of it on the event-loop thread (mean: a request is about one tick of /proc's 10 ms clock): columns JSON ${loopMs('/v1/zwd-estimatesapplication/json')}, shape=columns ${loopMs('/v1/zwd-estimates?shape=columnsapplication/json')}, Arrow ${loopMs('/v1/zwd-estimates' + ARROW)}`,
-    `  the edge (columns through HTTP − in-process service, medians): rows answer ${((median(columns) - median(service)) * 1000).toFixed(0)} ms, shape=columns answer ${((median(columnsOut) - median(service)) * 1000).toFixed(0)} ms, Arrow ${((median(arrow) - median(service)) * 1000).toFixed(0)} ms (target ≤ 16)`,
+    `  of it on the event-loop thread (median (range) over the blocks): columns JSON ${loopMs(forms.columns)}, objects JSON ${loopMs(forms.objects)}, shape=columns ${loopMs(forms.columnsOut)}, Arrow ${loopMs(forms.arrow)}`,
+    `  the edge (columns through HTTP − in-process service, medians): rows answer ${((median(columns) - median(service)) * 1000).toFixed(1)} ms, shape=columns answer ${((median(columnsOut) - median(service)) * 1000).toFixed(1)} ms, Arrow ${((median(arrow) - median(service)) * 1000).toFixed(1)} ms (target ≤ 16)`,
   ];
 }
 

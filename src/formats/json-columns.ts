@@ -18,8 +18,11 @@
 
 import { MAX_ROUNDED_DECIMAL_BYTES, writeRoundedDecimal, writeRoundedDecimalList } from './rounded-decimal-bytes.js';
 
-/** A growing byte buffer for JSON text. */
-class JsonBytes {
+/**
+ * A growing byte buffer for JSON text: bytes written straight into it, ASCII text by its char codes and
+ * other text as UTF-8, so that a big answer is never one big string transcoded at the end.
+ */
+export class JsonBytes {
   bytes: Uint8Array;
   length = 0;
   constructor(capacity: number) {
@@ -31,6 +34,7 @@ class JsonBytes {
     grown.set(this.bytes.subarray(0, this.length));
     this.bytes = grown;
   }
+  /** Any text as its UTF-8 bytes (the name is historical: JSON text of ASCII names and arrays). */
   ascii(text: string): void {
     const encoded = Buffer.from(text, 'utf8');
     this.reserve(encoded.length);
@@ -41,10 +45,47 @@ class JsonBytes {
     this.reserve(1);
     this.bytes[this.length++] = b;
   }
+  /** Bytes as they are. */
+  raw(bytes: Uint8Array): void {
+    this.reserve(bytes.length);
+    this.bytes.set(bytes, this.length);
+    this.length += bytes.length;
+  }
   /** x rounded to `decimals` (0..15) as JSON; null for a non-finite value (rounded-decimal-bytes.ts). */
   rounded(x: number, decimals: number): void {
     this.reserve(MAX_ROUNDED_DECIMAL_BYTES);
     this.length = writeRoundedDecimal(this.bytes, this.length, x, decimals);
+  }
+  /** A number as JSON.stringify writes it: String(x) (shortest round trip; ASCII), null when not finite. */
+  number(x: number): void {
+    const text = Number.isFinite(x) ? String(x) : 'null';
+    this.reserve(text.length);
+    const b = this.bytes;
+    let at = this.length;
+    for (let i = 0; i < text.length; i++) b[at++] = text.charCodeAt(i);
+    this.length = at;
+  }
+  /**
+   * A string as JSON.stringify writes it, as UTF-8: quoted, with its characters as they are when all are
+   * printable ASCII without `"` or `\\`; anything else (control characters, quotes, backslashes, non-ASCII,
+   * lone surrogates) through JSON.stringify itself and UTF-8.
+   */
+  string(text: string): void {
+    const n = text.length;
+    this.reserve(n + 2);
+    const b = this.bytes;
+    let at = this.length;
+    b[at++] = 0x22; // "
+    for (let i = 0; i < n; i++) {
+      const c = text.charCodeAt(i);
+      if (c < 0x20 || c === 0x22 || c === 0x5c || c >= 0x80) {
+        this.ascii(JSON.stringify(text));
+        return;
+      }
+      b[at++] = c;
+    }
+    b[at++] = 0x22;
+    this.length = at;
   }
   done(): Uint8Array {
     return this.bytes.subarray(0, this.length);
@@ -112,4 +153,18 @@ export function jsonWithRawMembers(answer: Record<string, unknown>, raw: Record<
   }
   parts.push(Buffer.from(text.slice(from), 'utf8'));
   return Buffer.concat(parts);
+}
+
+/**
+ * A text (JSON.stringify's, say) as UTF-8 bytes that own their buffer exactly (a worker moves them instead
+ * of copying). ASCII text (the usual answer: numbers, ISO epochs, ASCII names and warnings) is its own
+ * UTF-8: written as latin1, without transcoding (a 1.2 MB answer: ~0.3 ms instead of 0.7–1.5 ms by
+ * TextEncoder); the UTF-8 length equals the text's length exactly when every character is ASCII. Any
+ * other text goes through TextEncoder, as before.
+ */
+export function utf8Bytes(text: string): Uint8Array {
+  if (Buffer.byteLength(text, 'utf8') !== text.length) return new TextEncoder().encode(text);
+  const bytes = new Uint8Array(text.length);
+  Buffer.from(bytes.buffer).write(text, 0, 'latin1');
+  return bytes;
 }

@@ -12,7 +12,7 @@
  * src/formats/output-precision.ts) and written as JSON bytes in one pass (src/formats/json-columns.ts).
  */
 
-import { columnsJsonBytes, jsonWithRawMembers, type JsonColumn } from '../formats/json-columns.js';
+import { columnsJsonBytes, jsonWithRawMembers, utf8Bytes, type JsonColumn } from '../formats/json-columns.js';
 import type { AnswerShape, FieldDecimals } from './answer-shape.js';
 import { arrowAnswer, ARROW_STREAM_TYPE } from './answer-shape.js';
 
@@ -33,7 +33,7 @@ export function tableFieldNames(specs: TableSpecs): string[] {
 }
 
 /** The fields selected per table (undefined: all), from the validated `fields` of the shape. */
-function selectedFields(specs: TableSpecs, fields: readonly string[] | undefined): Record<string, string[] | undefined> {
+export function selectedFields(specs: TableSpecs, fields: readonly string[] | undefined): Record<string, string[] | undefined> {
   const out: Record<string, string[] | undefined> = {};
   if (!fields) return out;
   for (const name of fields) {
@@ -118,5 +118,5 @@ export function tableAnswer(answer: Row, specs: TableSpecs, shape: AnswerShape, 
   for (const [table, fields] of Object.entries(selected)) {
     if (fields && Array.isArray(answer[table])) shaped[table] = pick(answer[table] as Row[], fields);
   }
-  return { bytes: new TextEncoder().encode(JSON.stringify(shaped)), contentType: 'application/json' };
+  return { bytes: utf8Bytes(JSON.stringify(shaped)), contentType: 'application/json' };
 }

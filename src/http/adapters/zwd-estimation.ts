@@ -10,11 +10,13 @@ import { warningTexts } from '../../services/warnings.js';
 import type { EpochEstimate, ZwdObservationColumns } from '../../estimation/types.js';
 import type { EpochMetResult, EpochZwd, ZwdEstimationRequest, ZwdEstimationResult } from '../../services/zwd-estimation.js';
 import { GRADIENTS_GROUP, ZWD_OPTIONS, type OptionSpec, type ZwdOptionValues } from '../../services/zwd-options.js';
+import { isoEpochText } from '../../formats/iso-epoch-text.js';
 import type { ZwdEstimatesResponse, ZwdEstimationBody } from '../schemas/zwd-estimates.js';
 import type { ColumnSpec } from '../columns.js';
 import { numberRangeOf } from '../schemas/common.js';
 
-const iso = (ms: number) => new Date(ms).toISOString();
+/** An epoch's text in answers: toISOString's, without a Date per epoch (iso-epoch-text.ts). */
+const iso = isoEpochText;
 
 /** options (validated, defaults applied) → domain option values, entry by entry of the table. */
 export function toOptionValues(options: ZwdEstimationBody['options']): ZwdOptionValues {
@@ -265,7 +267,6 @@ export function seriesEntryOf(e: EpochEstimate, zwd: EpochZwd, m: EpochMetResult
 export function zwdEstimatesResponseOf(r: ZwdEstimationResult, extraWarnings: readonly string[] = []): ZwdEstimatesResponse {
   const { estimate: out, aprioriZwdM } = r;
   const aprioriZtdM = r.aprioriZhdM + aprioriZwdM;
-  const s = out.statistics;
   return {
     zwd_nodes: out.zwdNodes.map((n) => ({
       epoch: iso(n.epochMs),
@@ -291,6 +292,14 @@ export function zwdEstimatesResponseOf(r: ZwdEstimationResult, extraWarnings: re
       fitted_residual_m: x.fittedResidualM,
       normalized_residual: x.normalizedResidual,
     })),
+    ...zwdAnswerSummaryOf(r, extraWarnings),
+  };
+}
+
+/** The answer's members after its tables (zwdEstimatesResponseOf's), for JSON.stringify. */
+export function zwdAnswerSummaryOf(r: ZwdEstimationResult, extraWarnings: readonly string[] = []) {
+  const s = r.estimate.statistics;
+  return {
     statistics: {
       observations_total: s.observationsTotal,
       observations_below_cutoff: s.observationsBelowCutoff,
@@ -327,7 +336,7 @@ export function zwdEstimatesResponseOf(r: ZwdEstimationResult, extraWarnings: re
       zwd_nodes_without_data: s.zwdNodesWithoutData,
       gradient_nodes_without_data: s.gradientNodesWithoutData,
     },
-    apriori: { zhd_m: r.aprioriZhdM, zwd_m: aprioriZwdM, zhd_source: r.zhdSource },
+    apriori: { zhd_m: r.aprioriZhdM, zwd_m: r.aprioriZwdM, zhd_source: r.zhdSource },
     geoid_undulation_m: r.geoidUndulationM,
     models: r.models,
     model_fingerprint: r.modelFingerprint,

@@ -24,7 +24,7 @@ import { precipitableWater } from '../../domain/water-vapour/precipitable-water.
 import { aprioriZenithDelays } from '../../domain/zenith/apriori.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import { FormatError } from '../../formats/format-error.js';
-import { columnsJsonBytes, jsonWithRawMembers } from '../../formats/json-columns.js';
+import { columnsJsonBytes, jsonWithRawMembers, utf8Bytes } from '../../formats/json-columns.js';
 import { issuesToFieldErrors } from '../field-errors.js';
 import { checkCoefficients, mappingFactorsRequest } from '../schemas/mapping-factors.js';
 import { precipitableWaterRequest } from '../schemas/precipitable-water.js';
@@ -491,7 +491,7 @@ function answerBatch<S extends z.ZodType>(
     if (input.bodyFormat === 'arrow') return fail(415, [{ field: 'body', message: 'this route takes application/json only' }]);
     const parsed = schema.safeParse(parseJsonBody(input.body));
     if (!parsed.success) return fail(400, issuesToFieldErrors(parsed.error.issues));
-    const json = new TextEncoder().encode(JSON.stringify(answer(parsed.data)));
+    const json = utf8Bytes(JSON.stringify(answer(parsed.data)));
     return { ok: true, output: { json, observations: size(parsed.data) } };
   } catch (err) {
     return asOutcome(err);
@@ -520,7 +520,7 @@ export async function handleSlantDelaysRequest(input: BatchTaskInput): Promise<T
       return { ok: true, output: { json, observations } };
     }
     answer.slants = slantEntries(columns, shape.fields ?? SLANT_FIELD_NAMES);
-    return { ok: true, output: { json: new TextEncoder().encode(JSON.stringify(answer)), observations } };
+    return { ok: true, output: { json: utf8Bytes(JSON.stringify(answer)), observations } };
   } catch (err) {
     return asOutcome(err);
   }

@@ -26,6 +26,7 @@ import {
   toZwdRequest,
   zwdEstimatesResponseOf,
 } from '../adapters/zwd-estimation.js';
+import { zwdEstimatesAnswer } from '../adapters/zwd-estimates-answer.js';
 import { readArrowRequest, type AnswerShape } from '../answer-shape.js';
 import { tableAnswer } from '../table-answer.js';
 import { columnSpecsOf, readColumns, type ColumnSpec } from '../columns.js';
@@ -275,7 +276,7 @@ export async function zwdRequestTask(input: ZwdRequestTaskInput): Promise<TaskOu
     const result = runZwdEstimation(request);
     const shape = input.answer ?? ROWS;
     if (!station) {
-      const shaped = tableAnswer(zwdEstimatesResponseOf(result), ZWD_ANSWER_TABLES, shape);
+      const shaped = zwdEstimatesAnswer(result, shape);
       return { ok: true, output: { json: shaped.bytes, contentType: shaped.contentType, observations: count } };
     }
 

@@ -1,0 +1,277 @@
+/**
+ * The `shape=columns` estimation answer written as bytes from the domain result
+ * (src/http/adapters/zwd-estimates-answer.ts) against the path it replaces, kept here as the reference: the
+ * answer objects of zwdEstimatesResponseOf turned into columns by tableAnswer (json-columns.ts). Byte for
+ * byte (issue 14, a speed change: equality with the code before it is the test), on both benchmark days of
+ * `npm run bench -- columns` (test/helpers/realistic-sky.ts, seed 11: GPS-like with 25 gross errors, four
+ * constellations with 100), with and without gradients, with met present (measured, interpolated and
+ * missing epochs) and absent, with `fields` selections, and over random results (fast-check) with the
+ * numbers JSON.stringify writes in its other forms (exponents, -0, NaN, ±Infinity) and any text. Rows and
+ * Arrow still go through the answer objects; their epoch texts (isoEpochText) are checked against
+ * Date.prototype.toISOString here and in test/formats/iso-epoch-text.test.ts.
+ */
+
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { DEG } from '../../src/domain/constants.js';
+import { zwdEstimatesAnswer } from '../../src/http/adapters/zwd-estimates-answer.js';
+import { observationsFromColumns, toZwdRequest, zwdEstimatesResponseOf } from '../../src/http/adapters/zwd-estimation.js';
+import type { AnswerShape } from '../../src/http/answer-shape.js';
+import { ZWD_ANSWER_FIELD_NAMES, ZWD_ANSWER_TABLES, zwdEstimatesRequest } from '../../src/http/schemas/zwd-estimates.js';
+import { tableAnswer } from '../../src/http/table-answer.js';
+import { runZwdEstimation, type ZwdEstimationResult } from '../../src/services/zwd-estimation.js';
+import { simulateSky, type SkyOptions } from '../helpers/realistic-sky.js';
+
+/** The rows answer as it was built before: JSON.stringify of the answer objects, encoded by TextEncoder. */
+const referenceRowsBytes = (r: ZwdEstimationResult) => Buffer.from(new TextEncoder().encode(JSON.stringify(zwdEstimatesResponseOf(r))));
+
+/** The answer as it was built before: answer objects, then tableAnswer. */
+const referenceBytes = (r: ZwdEstimationResult, shape: AnswerShape) =>
+  Buffer.from(tableAnswer(zwdEstimatesResponseOf(r), ZWD_ANSWER_TABLES, shape).bytes);
+const writtenBytes = (r: ZwdEstimationResult, shape: AnswerShape) => Buffer.from(zwdEstimatesAnswer(r, shape).bytes);
+
+const rows = (fields?: string[]): AnswerShape => ({ shape: 'rows', format: 'json', fields });
+const columns = (fields?: string[]): AnswerShape => ({ shape: 'columns', format: 'json', fields });
+
+/** Selections of `fields` (validated names, as answerShapeOf passes them): main-table fields, other tables' fields, a repeat. */
+const SELECTIONS: (string[] | undefined)[] = [
+  undefined,
+  ['zwd_m', 'sigma_m'],
+  ['pwv_mm', 'epoch', 'met'],
+  ['ztd_m', 'zwd_nodes.sigma_m', 'rejected.satellite', 'gradient_nodes.north_m'],
+  ['zwd_nodes.epoch', 'zwd_nodes.zwd_m'],
+  ['zwd_m', 'zwd_m', 'tm_k'],
+];
+
+/** A day of the sky simulation through the estimation service, as the route runs it (body schema, adapters). */
+function estimatedDay(sky: Partial<SkyOptions>, extra: Record<string, unknown> = {}): ZwdEstimationResult {
+  const s = simulateSky({ seed: 11, durationS: 86_400, grossErrors: 25, constellations: ['gps'], ...sky });
+  const iso = new Map<number, string>();
+  const observations = {
+    epoch: s.epochMs.map((ms) => iso.get(ms) ?? (iso.set(ms, new Date(ms).toISOString()), iso.get(ms)!)),
+    satellite: s.satellite,
+    elevation_deg: s.elevationRad.map((e) => e / DEG),
+    azimuth_deg: s.azimuthRad.map((a) => a / DEG),
+    residual_m: s.residualM,
+  };
+  const body = {
+    site: { latitude_deg: s.options.latitudeDeg, longitude_deg: 7.4, height_m: s.options.heightM },
+    apriori: { zhd_m: 2.2 },
+    ...extra,
+  };
+  // The rest of the body through its schema (defaults applied), the observation columns converted as the route does.
+  const first = { epoch: observations.epoch[0], satellite: s.satellite[0], elevation_deg: 45, azimuth_deg: 0, residual_m: 0 };
+  const parsed = zwdEstimatesRequest.parse({ ...body, observations: [first] });
+  const site = { latitudeDeg: parsed.site.latitude_deg, longitudeDeg: parsed.site.longitude_deg, heightM: parsed.site.height_m };
+  return runZwdEstimation(toZwdRequest(site, parsed, observationsFromColumns(observations)));
+}
+
+/** Met records every 10 min over the first 14 h of the day (then none: the rest of the series has met "missing"). */
+function metRecords(dayStartMs: number) {
+  return Array.from({ length: 85 }, (_, i) => ({
+    epoch: new Date(dayStartMs + i * 600_000).toISOString(),
+    pressure_hpa: 955 + 3 * Math.sin(i / 20),
+    temperature_c: 12 + 6 * Math.sin(i / 30),
+    ...(i % 2 === 0 ? { relative_humidity_pct: 60 } : {}),
+  }));
+}
+
+function expectSameBytesInEveryShape(r: ZwdEstimationResult): void {
+  for (const fields of SELECTIONS) {
+    const shape = columns(fields);
+    expect(writtenBytes(r, shape).equals(referenceBytes(r, shape)), `fields=${fields?.join(',') ?? 'all'}`).toBe(true);
+  }
+}
+
+/** Every epoch text of the rows answer is toISOString's text of the domain epoch (ECMA-262 Date Time String Format). */
+function expectIsoEpochs(r: ZwdEstimationResult): void {
+  // The rows answer: JSON.stringify of the objects as UTF-8 (TextEncoder before; latin1 for ASCII text now).
+  expect(writtenBytes(r, rows()).equals(referenceRowsBytes(r))).toBe(true);
+  const answer = JSON.parse(writtenBytes(r, rows()).toString('utf8')) as Record<string, { epoch: string }[]>;
+  const texts = (list: { epochMs: number }[]) => list.map((x) => new Date(x.epochMs).toISOString());
+  expect(answer.series!.map((e) => e.epoch)).toEqual(texts(r.estimate.epochs));
+  expect(answer.zwd_nodes!.map((e) => e.epoch)).toEqual(texts(r.estimate.zwdNodes));
+  expect(answer.gradient_nodes!.map((e) => e.epoch)).toEqual(texts(r.estimate.gradientNodes));
+  expect(answer.rejected!.map((e) => e.epoch)).toEqual(texts(r.estimate.rejected));
+}
+
+describe('byte for byte the answer objects + tableAnswer, the benchmark days', () => {
+  const gpsLike = estimatedDay({});
+  it('GPS-like day (default options: gradients, rejections, no met)', () => {
+    expect(gpsLike.estimate.rejected.length).toBeGreaterThan(0);
+    expect(gpsLike.estimate.gradientNodes.length).toBeGreaterThan(0);
+    expect(gpsLike.epochMet).toBeNull();
+    expectSameBytesInEveryShape(gpsLike);
+    expectIsoEpochs(gpsLike);
+  });
+
+  it('GPS-like day without gradients (null gradient fields, no gradient nodes)', () => {
+    const r = estimatedDay({}, { options: { gradients: null } });
+    expect(r.estimate.gradientNodes).toHaveLength(0);
+    expect(r.estimate.epochs[0]!.northGradientM).toBeNull();
+    expectSameBytesInEveryShape(r);
+  });
+
+  it('GPS-like day with met over part of the day (measured or interpolated, and missing epochs)', () => {
+    const r = estimatedDay({}, { met: metRecords(gpsLike.estimate.epochs[0]!.epochMs - 300_000) });
+    const qualities = new Set(r.epochMet!.map((m) => m.met));
+    expect(qualities.has('missing')).toBe(true);
+    expect(qualities.size).toBeGreaterThan(1);
+    expectSameBytesInEveryShape(r);
+  });
+
+  it('four-constellation day', () => {
+    const r = estimatedDay({ constellations: ['gps', 'glonass', 'galileo', 'beidou'], grossErrors: 100 });
+    expect(r.estimate.rejected.length).toBeGreaterThan(0);
+    expectSameBytesInEveryShape(r);
+    expectIsoEpochs(r);
+  });
+
+  it('every field name of the answer alone', () => {
+    for (const name of ZWD_ANSWER_FIELD_NAMES) {
+      for (const shape of [rows([name]), columns([name])])
+        expect(writtenBytes(gpsLike, shape).equals(referenceBytes(gpsLike, shape))).toBe(true);
+    }
+  });
+
+  it('warnings with non-ASCII text, quotes, backslashes, control characters and a lone surrogate come out as JSON.stringify + UTF-8', () => {
+    const r: ZwdEstimationResult = {
+      ...gpsLike,
+      warnings: [...gpsLike.warnings, { code: 'met-missing', text: 'Δt ≥ 30 s, "quoted" \\ back\nline \u0001 \ud800 😀' }],
+    } as ZwdEstimationResult;
+    for (const shape of [rows(), columns()]) {
+      const bytes = writtenBytes(r, shape);
+      expect(bytes.equals(shape.shape === 'rows' ? referenceRowsBytes(r) : referenceBytes(r, shape))).toBe(true);
+      expect((JSON.parse(bytes.toString('utf8')) as { warnings: string[] }).warnings.at(-1)).toBe(r.warnings.at(-1)!.text);
+    }
+  });
+
+  it('an answer without rows in any table', () => {
+    const empty = {
+      ...gpsLike,
+      estimate: { ...gpsLike.estimate, zwdNodes: [], gradientNodes: [], epochs: [], rejected: [] },
+      epochZwd: [],
+      epochMet: [],
+    } as ZwdEstimationResult;
+    expectSameBytesInEveryShape(empty);
+  });
+
+  it('the bytes own their buffer exactly (the worker moves them instead of copying)', () => {
+    for (const shape of [rows(), columns()]) {
+      const { bytes } = zwdEstimatesAnswer(gpsLike, shape);
+      expect([bytes.byteOffset, bytes.byteLength]).toEqual([0, bytes.buffer.byteLength]);
+    }
+  });
+});
+
+describe('byte for byte over random results (fast-check)', () => {
+  // Doubles of every kind JSON.stringify writes differently: exponents, -0, subnormals, NaN and ±Infinity (null).
+  const anyNumber = fc.oneof(
+    fc.double(),
+    fc.double({ min: -1e3, max: 1e3, noNaN: true }),
+    fc.constantFrom(0, -0, 1e21, 1e-7, 5e-324, -1.7976931348623157e308, 0.1 + 0.2, NaN, Infinity, -Infinity),
+    fc.integer(),
+  );
+  const anyNullable = fc.option(anyNumber, { nil: null });
+  const anyText = fc.oneof(fc.string(), fc.string({ unit: 'binary' }), fc.string({ unit: 'grapheme' }));
+  const anyEpochMs = fc.integer({ min: 0, max: 4_102_444_800_000 });
+  const node = fc.record({ epochMs: anyEpochMs, correctionM: anyNumber, sigmaM: anyNumber, observationsNearby: fc.nat() });
+  const gradientNode = fc.record({
+    epochMs: anyEpochMs,
+    northM: anyNumber,
+    eastM: anyNumber,
+    northSigmaM: anyNumber,
+    eastSigmaM: anyNumber,
+    observationsNearby: fc.nat(),
+  });
+  const epochRow = fc.record({
+    epoch: fc.record({
+      epochMs: anyEpochMs,
+      correctionM: anyNumber,
+      sigmaM: anyNumber,
+      northGradientM: anyNullable,
+      eastGradientM: anyNullable,
+      northGradientSigmaM: anyNullable,
+      eastGradientSigmaM: anyNullable,
+      epochBiasM: anyNullable,
+      observationsUsed: fc.nat(),
+    }),
+    zwd: fc.record({ zwdM: anyNumber, zhdM: anyNumber, zhdSource: fc.oneof(fc.constantFrom('met', 'met-bridged'), anyText) }),
+    met: fc.record({
+      met: fc.oneof(fc.constantFrom('measured', 'interpolated', 'missing'), anyText),
+      zhdM: anyNullable,
+      zwdM: anyNullable,
+      tmK: anyNullable,
+      pwvMm: anyNullable,
+      pwvSigmaMm: anyNullable,
+      pwvTotalSigmaMm: anyNullable,
+    }),
+  });
+  const rejection = fc.record({
+    index: fc.nat(),
+    epochMs: anyEpochMs,
+    satellite: anyText,
+    residualM: anyNumber,
+    fittedResidualM: anyNumber,
+    normalizedResidual: anyNumber,
+  });
+  const result = fc
+    .record({
+      nodes: fc.array(node, { maxLength: 5 }),
+      gradients: fc.array(gradientNode, { maxLength: 5 }),
+      epochs: fc.array(epochRow, { maxLength: 8 }),
+      withMet: fc.boolean(),
+      rejected: fc.array(rejection, { maxLength: 4 }),
+      aprioriZhdM: anyNumber,
+      aprioriZwdM: anyNumber,
+      warnings: fc.array(anyText, { maxLength: 3 }),
+      fingerprint: anyText,
+    })
+    .map(
+      (g): ZwdEstimationResult =>
+        ({
+          estimate: {
+            zwdNodes: g.nodes,
+            gradientNodes: g.gradients,
+            epochs: g.epochs.map((e) => e.epoch),
+            rejected: g.rejected,
+            statistics: realStatistics,
+          },
+          aprioriZhdM: g.aprioriZhdM,
+          aprioriZwdM: g.aprioriZwdM,
+          zhdSource: 'caller',
+          geoidUndulationM: 47.3,
+          epochZwd: g.epochs.map((e) => e.zwd),
+          epochMet: g.withMet ? g.epochs.map((e) => e.met) : null,
+          bridgedEpochs: 0,
+          models: { mapping: 'niell' },
+          modelFingerprint: g.fingerprint,
+          warnings: g.warnings.map((text) => ({ code: 'met-missing', text })),
+        }) as unknown as ZwdEstimationResult,
+    );
+  const realStatistics = estimatedDay({ durationS: 3600, grossErrors: 0 }).estimate.statistics;
+  const anyShape = fc
+    .record({
+      shape: fc.constant('columns' as const),
+      fields: fc.option(fc.array(fc.constantFrom(...ZWD_ANSWER_FIELD_NAMES), { minLength: 1, maxLength: 6 }), { nil: undefined }),
+    })
+    .map((s): AnswerShape => ({ ...s, format: 'json' }));
+
+  it('columns, with and without fields', () => {
+    fc.assert(
+      fc.property(result, anyShape, (r, shape) => {
+        expect(writtenBytes(r, shape).equals(referenceBytes(r, shape))).toBe(true);
+      }),
+      { numRuns: 400 },
+    );
+  });
+
+  it('rows: the UTF-8 of JSON.stringify of the answer objects, ASCII or not', () => {
+    fc.assert(
+      fc.property(result, (r) => {
+        expect(writtenBytes(r, rows()).equals(referenceRowsBytes(r))).toBe(true);
+      }),
+      { numRuns: 300 },
+    );
+  });
+});
