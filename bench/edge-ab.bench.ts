@@ -7,14 +7,14 @@
  * through `POST /v1/slant-delays` (Arrow in and out; columns JSON in, `shape=columns` out) after every mapping
  * model ran in each service.
  *
- * `BENCH_EDGE_OLD=<dir of a built dist/> BENCH_EDGE_NEW=dist npm run bench -- edge-ab` (both default to
- * dist/: the spread between two equal processes), `BENCH_EDGE_OLD_FLAGS` / `BENCH_EDGE_NEW_FLAGS` (node flags of
- * each, beside --max-semi-space-size=32, e.g. `--initial-old-space-size=128`). `BENCH_EDGE_BLOCKS` (default 10), `BENCH_EDGE_PART`
- * (gps | arrow | columns, default all). The answers of both are compared byte for byte (Arrow: by length, its
- * flatbuffer bytes differ run to run).
+ * `BENCH_EDGE_OLD=<dir of a built dist/> BENCH_EDGE_NEW=dist npm run bench -- edge-ab` (both default to dist/,
+ * built first when older than the sources: the spread between two equal processes); `BENCH_EDGE_OLD_FLAGS` /
+ * `BENCH_EDGE_NEW_FLAGS`: node flags of each beside --max-semi-space-size=32 (e.g. `--initial-old-space-size=128`);
+ * `BENCH_EDGE_BLOCKS` (default 10); `BENCH_EDGE_PART` (gps | arrow | columns, default all). The answers of both
+ * are compared byte for byte (Arrow: by length, its flatbuffer bytes differ run to run).
  */
 
-import { spawn, type ChildProcess } from 'node:child_process';
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdtempSync, openSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
@@ -169,6 +169,9 @@ const fmt = (xs: number[]) => `${median(xs).toFixed(2)} (${Math.min(...xs).toFix
 export default async function edgeAb(): Promise<string[]> {
   const oldDir = process.env.BENCH_EDGE_OLD ?? 'dist';
   const newDir = process.env.BENCH_EDGE_NEW ?? 'dist';
+  // This tree's dist/ compiled from the current sources (as npm start does), so that "new" is the code checked out.
+  if ([oldDir, newDir].includes('dist') && spawnSync(process.execPath, ['scripts/build-if-stale.mjs'], { stdio: 'inherit' }).status !== 0)
+    throw new Error('the build of dist/ failed');
   const blocks = Number(process.env.BENCH_EDGE_BLOCKS ?? 10);
   const part = process.env.BENCH_EDGE_PART;
   const all = { gps: gpsDay, arrow: slantArrow, columns: slantColumns };
