@@ -292,6 +292,7 @@ interface ArrayRead {
  */
 function readNumberArray(b: Uint8Array, i: number, spec: JsonNumberColumnSpec, capacity: number, rows: number, maxRows: number): ArrayRead {
   const { min, max, exclusiveMin, nullable } = spec;
+  const view = new DataView(b.buffer, b.byteOffset, b.byteLength);
   let values = new Float64Array(capacity);
   let count = 0;
   let nulls = false;
@@ -311,7 +312,7 @@ function readNumberArray(b: Uint8Array, i: number, spec: JsonNumberColumnSpec, c
       nulls = true;
       i += 4;
     } else {
-      i = readJsonNumber(b, i, values, count);
+      i = readJsonNumber(b, view, i, values, count);
       const v = values[count]!;
       if (!((exclusiveMin ? v > min : v >= min) && v <= max)) throw NOT_READ; // NaN (not a number) fails too
     }
@@ -332,10 +333,15 @@ function readNumberArray(b: Uint8Array, i: number, spec: JsonNumberColumnSpec, c
   return { values, rows: count, end: i + 1, nulls };
 }
 
+/** Slots of the cache of short texts in readTextArray (a power of two). */
+const SHORT_CACHE = 256;
+
 /** A text array at `i` (its bracket): every value a string of printable ASCII without escapes, accepted by the spec. */
 function readTextArray(b: Uint8Array, i: number, spec: JsonTextColumnSpec, capacity: number, rows: number, maxRows: number): ArrayRead {
   const interner = new TextInterner(b, spec.accept);
   const view = new DataView(b.buffer, b.byteOffset, b.byteLength);
+  const shortKeys = new Float64Array(SHORT_CACHE).fill(-1);
+  const shortIndex = new Int32Array(SHORT_CACHE);
   let values = new Uint32Array(capacity);
   let count = 0;
   const n = b.length;
@@ -358,15 +364,27 @@ function readTextArray(b: Uint8Array, i: number, spec: JsonTextColumnSpec, capac
     let k: number;
     if (j === sameEnd && b[j] === QUOTE) k = lastIndex;
     else {
+      let h = 0x811c9dc5;
+      let key = 0; // the bytes of a short text as one number (exact up to 6 bytes)
       for (j = start; ; j++) {
         if (j >= n) throw NOT_READ;
         const c = b[j]!;
         if (c === QUOTE) break;
         if (c < SPACE || c >= 0x7f || c === BACKSLASH) throw NOT_READ;
+        h = Math.imul(h ^ c, 0x01000193);
+        key = key * 256 + c;
       }
-      let h = 0x811c9dc5;
-      for (let m = start; m < j; m++) h = Math.imul(h ^ b[m]!, 0x01000193);
-      k = interner.indexOf(start, j, h);
+      // Short texts (satellite names) through a small cache by their bytes as a number: no byte
+      // comparison, no probe of the table. Every byte is ≥ 0x20, so the number tells the text.
+      if (j - start <= 6) {
+        const slot = h & (SHORT_CACHE - 1);
+        if (shortKeys[slot] === key) k = shortIndex[slot]!;
+        else {
+          k = interner.indexOf(start, j, h);
+          shortKeys[slot] = key;
+          shortIndex[slot] = k;
+        }
+      } else k = interner.indexOf(start, j, h);
     }
     lastStart = start;
     lastLength = j - start;

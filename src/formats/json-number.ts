@@ -139,6 +139,19 @@ function roundedWideValue(wh: number, wl: number, e: number): number {
   return NaN;
 }
 
+/**
+ * The value of four ASCII digits in the 32-bit little-endian word `w` (its first byte the first digit), or
+ * −1 when a byte is not a digit. Per byte b: b is a digit when b & 0xf0 = 0x30 (0x30..0x3f, so b + 6 carries
+ * into no other byte) and then (b + 6) & 0xf0 = 0x30 (not 0x3a..0x3f). The value by pairs: 10 · d₀ + d₁ and 10 · d₂ + d₃ in
+ * the even bytes, then 100 · (first pair) + (second pair).
+ */
+function fourDigits(w: number): number {
+  if ((w & 0xf0f0f0f0) !== 0x30303030 || ((w + 0x06060606) & 0xf0f0f0f0) !== 0x30303030) return -1;
+  const d = w - 0x30303030;
+  const pairs = (d * 10 + (d >>> 8)) & 0x00ff00ff;
+  return (pairs & 0xff) * 100 + (pairs >>> 16);
+}
+
 /** Latin-1 text of bytes [start, end) (a number is ASCII), for Number(). */
 function asciiText(bytes: Uint8Array, start: number, end: number): string {
   let text = '';
@@ -147,11 +160,12 @@ function asciiText(bytes: Uint8Array, start: number, end: number): string {
 }
 
 /**
- * The JSON number that starts at `start` in `bytes` (UTF-8), exactly as JSON.parse reads it, written to
+ * The JSON number that starts at `start` in `bytes` (UTF-8; `view` a DataView of the same bytes, for
+ * reading four digits at a time), exactly as JSON.parse reads it, written to
  * `out[at]` (NaN when the bytes there are not a JSON number: JSON has no NaN). Returns the index after
  * the number's last byte; the caller checks that what follows is allowed there (`1.5x`, `01` stop early).
  */
-export function readJsonNumber(bytes: Uint8Array, start: number, out: Float64Array, at: number): number {
+export function readJsonNumber(bytes: Uint8Array, view: DataView, start: number, out: Float64Array, at: number): number {
   const n = bytes.length;
   let i = start;
   let c = i < n ? bytes[i]! : 0;
@@ -196,12 +210,31 @@ export function readJsonNumber(bytes: Uint8Array, start: number, out: Float64Arr
         c = ++i < n ? bytes[i]! : 0;
       }
     }
+    // Four digits at a time while they fit (a fraction of 14–16 digits is most of a column's bytes).
+    while (digits <= HI_DIGITS - 4 && i + 4 <= n) {
+      const four = fourDigits(view.getInt32(i, true));
+      if (four < 0) break;
+      hi = hi * 10_000 + four;
+      digits += 4;
+      e -= 4;
+      i += 4;
+    }
+    c = i < n ? bytes[i]! : 0;
     while (c >= 48 && c <= 57 && digits < HI_DIGITS) {
       hi = hi * 10 + (c - 48);
       digits++;
       e--;
       c = ++i < n ? bytes[i]! : 0;
     }
+    while (digits <= MAX_DIGITS - 4 && i + 4 <= n) {
+      const four = fourDigits(view.getInt32(i, true));
+      if (four < 0) break;
+      lo = lo * 10_000 + four;
+      digits += 4;
+      e -= 4;
+      i += 4;
+    }
+    c = i < n ? bytes[i]! : 0;
     while (c >= 48 && c <= 57 && digits < MAX_DIGITS) {
       lo = lo * 10 + (c - 48);
       digits++;
@@ -263,7 +296,7 @@ export function jsonNumberOf(text: string): number | undefined {
     if (c > 0x7f) return undefined; // not ASCII: not a JSON number
     bytes[i] = c;
   }
-  const end = readJsonNumber(bytes, 0, one, 0);
+  const end = readJsonNumber(bytes, new DataView(bytes.buffer), 0, one, 0);
   const v = one[0]!;
   return end === text.length && !Number.isNaN(v) ? v : undefined;
 }

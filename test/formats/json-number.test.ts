@@ -178,9 +178,32 @@ describe('the grammar: a JSON number exactly when JSON.parse reads one (RFC 8259
   it('stops where the number ends, as a JSON reader must (what follows is the caller’s to check)', () => {
     const bytes = new TextEncoder().encode('[12.5e1,-0.25]');
     const out = new Float64Array(2);
-    const end = readJsonNumber(bytes, 1, out, 0);
+    const view = new DataView(bytes.buffer);
+    const end = readJsonNumber(bytes, view, 1, out, 0);
     expect([end, out[0]]).toEqual([7, 125]);
-    expect([readJsonNumber(bytes, end + 1, out, 1), out[1]]).toEqual([13, -0.25]);
+    expect([readJsonNumber(bytes, view, end + 1, out, 1), out[1]]).toEqual([13, -0.25]);
+  });
+
+  it('a number followed by what may follow it in JSON (, ] } space) and more bytes: its value, and its end', () => {
+    const after = fc.string({ unit: fc.constantFrom(...',]} \n\t\r0123456789.e+-*/:;<=>?@[\\^_`'), minLength: 1, maxLength: 8 });
+    fc.assert(
+      fc.property(
+        finite,
+        fc.integer({ min: 1, max: 21 }),
+        fc.constantFrom(',', ']', '}', ' ', '\n', '\t', '\r'),
+        after,
+        (x, p, stop, tail) => {
+          const texts = [String(x), x.toPrecision(p)];
+          return texts.every((text) => {
+            const bytes = new TextEncoder().encode(`${text}${stop}${tail}`);
+            const out = new Float64Array(1);
+            const end = readJsonNumber(bytes, new DataView(bytes.buffer), 0, out, 0);
+            return end === text.length && Object.is(out[0], Number(text));
+          });
+        },
+      ),
+      FC(200_000),
+    );
   });
 
   it('random ASCII texts: a value exactly when JSON.parse reads a number, and the same value', () => {
