@@ -5,7 +5,8 @@
  * The reference is that path's answer, byte for byte (common practice for a change of speed): the
  * benchmark days (test/helpers/realistic-sky.ts, as bench/columns.bench.ts builds them) as rows and as
  * `shape=columns`, the station route's prepared columns, and the error of every malformed body below
- * (status, detail and field errors as the general path gives them).
+ * (status, detail and field errors as the general path gives them); the network route likewise on the
+ * invented network of test/http/network-fixtures.ts.
  */
 
 import { describe, expect, it } from 'vitest';
@@ -16,6 +17,9 @@ import { columnSpecsOf, jsonColumnSpecsOf } from '../../src/http/columns.js';
 import { zwdObservationSchema } from '../../src/http/schemas/zwd-estimates.js';
 import { readJsonColumnsBody } from '../../src/formats/json-columns-reader.js';
 import { MAX_OBSERVATIONS } from '../../src/limits.js';
+import { handleNetworkRequest } from '../../src/http/tasks/network-request.js';
+import { networkObservationSchema } from '../../src/http/schemas/network-estimates.js';
+import { networkBody, sim } from './network-fixtures.js';
 import { simulateSky } from '../helpers/realistic-sky.js';
 import { skyInput } from '../helpers/synthetic-input.js';
 
@@ -200,6 +204,46 @@ describe('malformed and unusual bodies: the status and errors of the general pat
   it('the query parameters of text/csv bodies are refused with a JSON body, as before', async () => {
     const text = `{"site":${JSON.stringify(site)},"observations":${obs}}`;
     const { read, general } = await bothPaths(text, { query: { latitude_deg: '1' }, queryKeys: ['latitude_deg'] });
+    expect(read.ok).toBe(false);
+    expect(read).toEqual(general);
+  });
+});
+
+describe('the network route (handleNetworkRequest): the answer and errors of the general path', () => {
+  const s = sim(51, 'estimated');
+  const body = networkBody(s, { zwd_interval_s: 600 });
+  const rows = body.observations;
+  const columns = {
+    station: rows.map((r) => r.station!),
+    epoch: rows.map((r) => r.epoch),
+    satellite: rows.map((r) => r.satellite),
+    elevation_deg: rows.map((r) => r.elevation_deg),
+    azimuth_deg: rows.map((r) => r.azimuth_deg),
+    residual_m: rows.map((r) => r.residual_m),
+    sigma_m: rows.map((_, i) => (i % 3 === 0 ? 0.004 : null)),
+  };
+  const both = async (text: string) => ({
+    read: await handleNetworkRequest({ body: bytesOf(text), format: 'json', query: {} }),
+    general: await handleNetworkRequest({ body: text, format: 'json', query: {} }),
+  });
+
+  it('a network hour as columns (σ on some rows): byte for byte', { timeout: 120_000 }, async () => {
+    const text = JSON.stringify({ ...body, observations: columns });
+    const specs = jsonColumnSpecsOf(columnSpecsOf(networkObservationSchema.shape));
+    expect(readJsonColumnsBody(bytesOf(text), 'observations', specs, MAX_OBSERVATIONS)).toBeDefined(); // the reader's path
+    const { read, general } = await both(text);
+    expect(read.ok && general.ok).toBe(true);
+    if (!read.ok || !general.ok) return;
+    expect(Buffer.from(read.output.json).equals(Buffer.from(general.output.json))).toBe(true);
+  });
+
+  it.each([
+    ['a station not in stations', { ...columns, station: columns.station.map((v, i) => (i === 5 ? 'NOWHERE' : v)) }],
+    ['a bad station id', { ...columns, station: columns.station.map((v, i) => (i === 5 ? '' : v)) }],
+    ['a missing station column', { ...columns, station: undefined }],
+    ['an elevation out of range', { ...columns, elevation_deg: columns.elevation_deg.map((v, i) => (i === 7 ? -1 : v)) }],
+  ])('%s', { timeout: 60_000 }, async (_name, observations) => {
+    const { read, general } = await both(JSON.stringify({ ...body, observations }));
     expect(read.ok).toBe(false);
     expect(read).toEqual(general);
   });
