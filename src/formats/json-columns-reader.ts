@@ -168,6 +168,9 @@ function bytesEqual(b: Uint8Array, start: number, end: number, text: string): bo
 /** A Float64Array holding `values` first values of `a`, in a buffer of its own of that size. */
 const trimmed = (a: Float64Array, values: number) => (a.length === values ? a : a.slice(0, values));
 
+/** Longest probe sequence of a look-up in TextInterner (the table is at most half full: ~2 probes on average). */
+const MAX_PROBES = 64;
+
 /**
  * Distinct texts by their bytes (open addressing on an FNV-1a hash): a text is decoded, checked and
  * stored once, and each row gets its index.
@@ -190,9 +193,12 @@ class TextInterner {
     const length = end - start;
     const mask = this.slots.length - 1;
     let slot = h & mask;
-    for (;;) {
+    for (let probes = 0; ; probes++) {
       const k = this.slots[slot]! - 1;
       if (k < 0) break;
+      // Texts made to share a hash (FNV-1a is not keyed) would make each look-up long: past MAX_PROBES
+      // the body goes to the general path (JSON.parse, whose sets are hashed with a per-process seed).
+      if (probes === MAX_PROBES) throw NOT_READ;
       if (this.hashes[k] === h && this.lengths[k] === length) {
         const s = this.starts[k]!;
         let same = true;

@@ -160,3 +160,26 @@ describe('bodies it leaves to the general path (undefined): invalid JSON, and JS
     expect(read(text)).toBeUndefined();
   });
 });
+
+describe('texts made to collide in the hash table are left to the general path (bounded look-ups)', () => {
+  /** FNV-1a (32 bits) of an ASCII text, as the reader hashes the bytes of a text. */
+  const fnv1a = (text: string) => {
+    let h = 0x811c9dc5;
+    for (let i = 0; i < text.length; i++) h = Math.imul(h ^ text.charCodeAt(i), 0x01000193);
+    return h;
+  };
+
+  it('200 distinct 7-character texts sharing the low 16 bits of their hash: undefined; 200 ordinary ones: read', () => {
+    const colliding: string[] = [];
+    const target = fnv1a('Xa00000') & 0xffff;
+    for (let k = 0; colliding.length < 200; k++) {
+      const text = `X${k.toString(36).padStart(6, '0')}`;
+      if ((fnv1a(text) & 0xffff) === target) colliding.push(text);
+    }
+    const body = (texts: string[]) => JSON.stringify({ observations: { t: texts, x: texts.map(() => 1), y: texts.map(() => 2) } });
+    const specs = { ...SPECS, t: { kind: 'text' as const, required: true, accept: () => true } };
+    expect(readJsonColumnsBody(bytesOf(body(colliding)), 'observations', specs, 1000)).toBeUndefined();
+    const ordinary = colliding.map((_, k) => `Y${k.toString(36).padStart(6, '0')}`);
+    expect(readJsonColumnsBody(bytesOf(body(ordinary)), 'observations', specs, 1000)?.texts.t!.distinct).toEqual(ordinary);
+  });
+});
