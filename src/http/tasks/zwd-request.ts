@@ -184,8 +184,9 @@ type Validated =
 
 const isReadColumns = (o: ZwdObservationColumns | JsonColumnsBody): o is JsonColumnsBody => 'rows' in o;
 
-const domainColumnsOf = (o: ZwdObservationColumns | JsonColumnsBody): ZwdObservationColumns =>
-  isReadColumns(o) ? observationsFromJsonColumns(o) : o;
+/** The validated body with its observations as domain columns (those read in one pass converted). */
+const inDomainColumns = (v: Validated): Validated =>
+  v.ok && isReadColumns(v.observations) ? { ...v, observations: observationsFromJsonColumns(v.observations) } : v;
 
 function preparedOf(body: Omit<ZwdEstimationBody, 'observations'>, o: ZwdObservationColumns): PreparedRequest {
   const n = o.epochMs.length;
@@ -333,14 +334,15 @@ export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<Task
 export async function zwdRequestTask(input: ZwdRequestTaskInput): Promise<TaskOutcome<ZwdRequestTaskOutput>> {
   try {
     const station = input.station;
+    // Domain columns at once: the reader's typed columns are not held through the estimation.
     const validated: Validated = input.prepared
       ? { ok: true, body: input.prepared.body, observations: observationsOfPrepared(input.prepared) }
-      : validatedInput(input, station !== undefined);
+      : inDomainColumns(validatedInput(input, station !== undefined));
     input.body = '';
     input.prepared = undefined;
     if (!validated.ok) return validated.outcome;
     const { body } = validated;
-    const observations = domainColumnsOf(validated.observations);
+    const observations = validated.observations as ZwdObservationColumns;
     const site = station?.site ?? validated.site!;
     const request = toZwdRequest(site, body, observations, station?.storedMet);
     const count = observations.epochMs.length;
