@@ -12,6 +12,7 @@
  */
 
 import type { z } from 'zod';
+import type { JsonColumnSpec } from '../formats/json-columns-reader.js';
 import type { FieldError } from './problem.js';
 import { numberRangeOf } from './schemas/common.js';
 
@@ -140,4 +141,23 @@ export function float64Column(column: unknown[] | Float64Array | undefined, scal
   const out = new Float64Array(column.length);
   for (let i = 0; i < column.length; i++) out[i] = column[i] === null ? NaN : (column[i] as number) * scale;
   return out;
+}
+
+/**
+ * The checks of `specs` as the one-pass JSON reader takes them (src/formats/json-columns-reader.ts): a
+ * bounded number column by its range (null allowed where the column is optional, as readColumns allows
+ * it), any other column as text checked by its schema once per distinct text. The reader answers only
+ * when every check passes, so it accepts exactly what readColumns accepts among the bodies it reads.
+ */
+export function jsonColumnSpecsOf(specs: Record<string, ColumnSpec>): Record<string, JsonColumnSpec> {
+  return Object.fromEntries(
+    Object.entries(specs).map(([name, spec]): [string, JsonColumnSpec] => {
+      const range = numberRangeOf(spec.schema);
+      if (range) {
+        const { min, max, exclusiveMin } = range;
+        return [name, { kind: 'number', required: !spec.optional, min, max, exclusiveMin, nullable: spec.optional }];
+      }
+      return [name, { kind: 'text', required: !spec.optional, accept: (text) => spec.schema.safeParse(text).success }];
+    }),
+  );
 }

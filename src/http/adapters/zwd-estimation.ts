@@ -13,6 +13,7 @@ import { GRADIENTS_GROUP, ZWD_OPTIONS, type OptionSpec, type ZwdOptionValues } f
 import { isoEpochText } from '../../formats/iso-epoch-text.js';
 import type { ZwdEstimatesResponse, ZwdEstimationBody } from '../schemas/zwd-estimates.js';
 import type { ColumnSpec } from '../columns.js';
+import type { JsonColumnsBody } from '../../formats/json-columns-reader.js';
 import { numberRangeOf } from '../schemas/common.js';
 
 /** An epoch's text in answers: toISOString's, without a Date per epoch (iso-epoch-text.ts). */
@@ -193,6 +194,51 @@ export function checkedObservationColumns(raw: unknown, specs: ObservationColumn
     azimuthRad: azimuthRad as number[],
     residualM: residualM as number[],
     sigmaM: anySigma ? sigma : undefined,
+  };
+}
+
+/**
+ * Observation columns read in one pass from the JSON body (src/formats/json-columns-reader.ts, every value
+ * checked there) → domain columns: an epoch text parsed once per distinct text, satellites from their
+ * distinct names, angles to radians, σ with null for a row without one (absent when no row has one). The
+ * same values as checkedObservationColumns gives for the parsed body.
+ */
+export function observationsFromJsonColumns(read: JsonColumnsBody): ZwdObservationColumns {
+  const n = read.rows;
+  const epochs = read.texts.epoch!;
+  const msOf = epochs.distinct.map((text) => Date.parse(text));
+  const epochMs = new Array<number>(n);
+  for (let i = 0; i < n; i++) epochMs[i] = msOf[epochs.index[i]!]!;
+  const satellites = read.texts.satellite!;
+  const satellite = new Array<string>(n);
+  for (let i = 0; i < n; i++) satellite[i] = satellites.distinct[satellites.index[i]!]!;
+  const scaled = (column: Float64Array, scale: number) => {
+    const out = new Array<number>(n);
+    for (let i = 0; i < n; i++) out[i] = column[i]! * scale;
+    return out;
+  };
+  const sent = read.numbers.sigma_m;
+  let sigmaM: (number | null)[] | undefined;
+  if (sent) {
+    let anySigma = false;
+    const sigma = new Array<number | null>(n);
+    for (let i = 0; i < n; i++) {
+      const v = sent[i]!;
+      if (Number.isNaN(v)) sigma[i] = null;
+      else {
+        sigma[i] = v;
+        anySigma = true;
+      }
+    }
+    if (anySigma) sigmaM = sigma;
+  }
+  return {
+    epochMs,
+    satellite,
+    elevationRad: scaled(read.numbers.elevation_deg!, DEG),
+    azimuthRad: scaled(read.numbers.azimuth_deg!, DEG),
+    residualM: scaled(read.numbers.residual_m!, 1),
+    sigmaM,
   };
 }
 

@@ -14,6 +14,7 @@ import type { Site } from '../../domain/site.js';
 import type { NetworkObservationColumns } from '../../estimation/network/types.js';
 import { FormatError } from '../../formats/format-error.js';
 import { decodeResidualDay } from '../../formats/residual-day-form.js';
+import { readJsonColumnsBody } from '../../formats/json-columns-reader.js';
 import { MAX_OBSERVATIONS } from '../../limits.js';
 import { CallerError } from '../../services/caller-error.js';
 import {
@@ -33,8 +34,9 @@ import {
   toNetworkRequest,
   type NetworkStationBody,
 } from '../adapters/network-estimation.js';
+import { observationsFromJsonColumns } from '../adapters/zwd-estimation.js';
 import { readArrowRequest } from '../answer-shape.js';
-import { columnSpecsOf, readColumns } from '../columns.js';
+import { columnSpecsOf, jsonColumnSpecsOf, readColumns } from '../columns.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
 import {
   networkColumnarRest,
@@ -124,6 +126,7 @@ function rawBody(input: NetworkRequestTaskInput, storing: boolean): unknown {
 }
 
 const OBSERVATION_COLUMNS = columnSpecsOf(networkObservationSchema.shape);
+const OBSERVATION_JSON_COLUMNS = jsonColumnSpecsOf(OBSERVATION_COLUMNS);
 
 const isColumnObject = (v: unknown) => v !== null && typeof v === 'object' && !Array.isArray(v);
 
@@ -163,6 +166,26 @@ function validatedBody(raw: unknown, storing: boolean): Validated {
   return { ok: true, body: body as ValidatedBody, observations, columnar };
 }
 
+/**
+ * The body read and checked: a JSON body whose observations are valid column arrays in one pass from its
+ * bytes (src/formats/json-columns-reader.ts, as the single-station routes read it; the rest of it through
+ * the schema as before), anything else parsed and checked by validatedBody, with its errors.
+ */
+function validatedInput(input: NetworkRequestTaskInput, storing: boolean): Validated {
+  const read =
+    input.format === 'json' && typeof input.body !== 'string'
+      ? readJsonColumnsBody(input.body, 'observations', OBSERVATION_JSON_COLUMNS, MAX_OBSERVATIONS)
+      : undefined;
+  if (!read) return validatedBody(rawBody(input, storing), storing);
+  const parsed = (storing ? networkStoredColumnarRest : networkColumnarRest).safeParse(read.rest);
+  if (!parsed.success) return { ok: false, outcome: fail(400, issuesToFieldErrors(parsed.error.issues)) };
+  const { observations: _columns, ...body } = parsed.data as NetworkEstimatesRequest;
+  const stations = read.texts.station!;
+  const station = new Array<string>(read.rows);
+  for (let i = 0; i < read.rows; i++) station[i] = stations.distinct[stations.index[i]!]!;
+  return { ok: true, body: body as ValidatedBody, observations: { station, ...observationsFromJsonColumns(read) }, columnar: true };
+}
+
 /** An estimator's `observations.<row>.<field>` as the columnar form names it, `observations.<field>.<row>`. */
 function asColumnField(err: unknown): unknown {
   if (!(err instanceof ModelDomainError) && !(err instanceof CallerError)) return err;
@@ -180,7 +203,7 @@ export async function handleNetworkRequest(input: NetworkRequestTaskInput): Prom
   let columnar = false;
   try {
     const archive = input.archiveSites;
-    const validated = validatedBody(rawBody(input, archive !== undefined), archive !== undefined);
+    const validated = validatedInput(input, archive !== undefined);
     if (!validated.ok) return validated.outcome;
     const { body } = validated;
     columnar = validated.columnar;

@@ -10,6 +10,7 @@
  */
 
 import diagnostics_channel from 'node:diagnostics_channel';
+import { DEG } from '../../domain/constants.js';
 import type { Site } from '../../domain/site.js';
 import { FormatError } from '../../formats/format-error.js';
 import { readObservationCsv } from '../../formats/observation-csv.js';
@@ -19,9 +20,11 @@ import { checkStorableDelays, checkStorableZwd, delayColumns, runZwdEstimation, 
 import type { TaskOutcome } from '../../workers/task-outcome.js';
 import type { ZwdObservationColumns } from '../../estimation/types.js';
 import { MAX_OBSERVATIONS } from '../../limits.js';
+import { readJsonColumnsBody, type JsonColumnsBody } from '../../formats/json-columns-reader.js';
 import {
   checkedObservationColumns,
   observationsFromColumns,
+  observationsFromJsonColumns,
   observationsFromObjects,
   toZwdRequest,
   zwdEstimatesResponseOf,
@@ -29,7 +32,7 @@ import {
 import { zwdEstimatesAnswer } from '../adapters/zwd-estimates-answer.js';
 import { readArrowRequest, type AnswerShape } from '../answer-shape.js';
 import { tableAnswer } from '../table-answer.js';
-import { columnSpecsOf, readColumns, type ColumnSpec } from '../columns.js';
+import { columnSpecsOf, jsonColumnSpecsOf, readColumns, type ColumnSpec } from '../columns.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
 import { stationZwdEstimatesQuery } from '../schemas/station-zwd-estimates.js';
 import { epochRangeOf, epochTextsOf } from './epoch-range.js';
@@ -155,12 +158,36 @@ function rawBody(input: ZwdRequestTaskInput, siteKnown: boolean): unknown {
 }
 
 const OBSERVATION_COLUMNS = columnSpecsOf(zwdObservationSchema.shape) as Record<keyof typeof zwdObservationSchema.shape, ColumnSpec>;
+const OBSERVATION_JSON_COLUMNS = jsonColumnSpecsOf(OBSERVATION_COLUMNS);
 
 const isColumnObject = (v: unknown) => v !== null && typeof v === 'object' && !Array.isArray(v);
 
+/**
+ * A JSON body whose observations are valid column arrays, read in one pass from its bytes
+ * (src/formats/json-columns-reader.ts: no text of the body, no parsed arrays); undefined for anything
+ * else, which rawBody and validatedBody then read as before, with their errors.
+ */
+function readColumnsBody(input: Pick<ZwdRequestTaskInput, 'body' | 'format' | 'query' | 'queryKeys'>): JsonColumnsBody | undefined {
+  if (input.format !== 'json' || typeof input.body === 'string') return undefined;
+  refuseCsvQueryWithJson(input.queryKeys ?? Object.keys(input.query ?? {}));
+  return readJsonColumnsBody(input.body, 'observations', OBSERVATION_JSON_COLUMNS, MAX_OBSERVATIONS);
+}
+
 type Validated =
-  | { ok: true; body: Omit<ZwdEstimationBody, 'observations'>; observations: ZwdObservationColumns; site?: Site }
+  | {
+      ok: true;
+      body: Omit<ZwdEstimationBody, 'observations'>;
+      /** The observations as domain columns, or (read in one pass) as the reader's columns. */
+      observations: ZwdObservationColumns | JsonColumnsBody;
+      site?: Site;
+    }
   | { ok: false; outcome: TaskOutcome<never> };
+
+const isReadColumns = (o: ZwdObservationColumns | JsonColumnsBody): o is JsonColumnsBody => 'rows' in o;
+
+/** The validated body with its observations as domain columns (those read in one pass converted). */
+const inDomainColumns = (v: Validated): Validated =>
+  v.ok && isReadColumns(v.observations) ? { ...v, observations: observationsFromJsonColumns(v.observations) } : v;
 
 function preparedOf(body: Omit<ZwdEstimationBody, 'observations'>, o: ZwdObservationColumns): PreparedRequest {
   const n = o.epochMs.length;
@@ -186,6 +213,36 @@ function preparedOf(body: Omit<ZwdEstimationBody, 'observations'>, o: ZwdObserva
   };
 }
 
+/**
+ * Columns read in one pass → a prepared request, in their own typed arrays (angles scaled to radians in
+ * place): the same values as preparedOf(observationsFromJsonColumns(read)).
+ */
+function preparedOfRead(body: Omit<ZwdEstimationBody, 'observations'>, read: JsonColumnsBody): PreparedRequest {
+  const n = read.rows;
+  const epochs = read.texts.epoch!;
+  const msOf = epochs.distinct.map((text) => Date.parse(text));
+  const epochMs = new Float64Array(n);
+  for (let i = 0; i < n; i++) epochMs[i] = msOf[epochs.index[i]!]!;
+  const { elevation_deg: elevationRad, azimuth_deg: azimuthRad, residual_m: residualM, sigma_m: sigma } = read.numbers;
+  for (let i = 0; i < n; i++) {
+    elevationRad![i]! *= DEG;
+    azimuthRad![i]! *= DEG;
+  }
+  let anySigma = false;
+  if (sigma) for (let i = 0; i < n && !anySigma; i++) anySigma = !Number.isNaN(sigma[i]);
+  const satellites = read.texts.satellite!;
+  return {
+    body,
+    epochMs,
+    satelliteIndex: satellites.index,
+    satellites: satellites.distinct,
+    elevationRad: elevationRad!,
+    azimuthRad: azimuthRad!,
+    residualM: residualM!,
+    sigmaM: anySigma ? sigma : undefined,
+  };
+}
+
 function observationsOfPrepared(p: PreparedRequest): ZwdObservationColumns {
   const n = p.epochMs.length;
   const satellite = new Array<string>(n);
@@ -199,6 +256,22 @@ function observationsOfPrepared(p: PreparedRequest): ZwdObservationColumns {
     residualM: Array.from(p.residualM),
     sigmaM: sigma && Array.from(sigma, (v) => (Number.isNaN(v) ? null : v)),
   };
+}
+
+const restSchemaOf = (siteKnown: boolean) => (siteKnown ? zwdEstimationColumnarRest : zwdEstimatesColumnarRest);
+
+/** The validated rest of a body (schema parsed), and the site it names. */
+function validatedRest(
+  parsed: { success: true; data: unknown } | { success: false; error: { issues: Parameters<typeof issuesToFieldErrors>[0] } },
+): { ok: true; body: Omit<ZwdEstimationBody, 'observations'>; objects: unknown; site?: Site } | { ok: false; outcome: TaskOutcome<never> } {
+  if (!parsed.success) return { ok: false, outcome: fail(400, issuesToFieldErrors(parsed.error.issues)) };
+  const {
+    site: s,
+    observations: objects,
+    ...body
+  } = parsed.data as ZwdEstimationBody & { site?: { latitude_deg: number; longitude_deg: number; height_m: number } };
+  const site = s ? { latitudeDeg: s.latitude_deg, longitudeDeg: s.longitude_deg, heightM: s.height_m } : undefined;
+  return { ok: true, body, objects, ...(site ? { site } : {}) };
 }
 
 /**
@@ -218,23 +291,23 @@ function validatedBody(raw: unknown, siteKnown: boolean): Validated {
     if (!read.ok) return { ok: false, outcome: fail(400, read.errors) };
     observations = observationsFromColumns(read.columns);
   }
-  const schema = siteKnown
-    ? columnar
-      ? zwdEstimationColumnarRest
-      : zwdEstimationObjectRows
-    : columnar
-      ? zwdEstimatesColumnarRest
-      : zwdEstimatesObjectRows;
-  const parsed = schema.safeParse(raw);
-  if (!parsed.success) return { ok: false, outcome: fail(400, issuesToFieldErrors(parsed.error.issues)) };
-  const {
-    site: s,
-    observations: objects,
-    ...body
-  } = parsed.data as ZwdEstimationBody & { site?: { latitude_deg: number; longitude_deg: number; height_m: number } };
-  observations ??= observationsFromObjects(objects as Parameters<typeof observationsFromObjects>[0]);
-  const site = s ? { latitudeDeg: s.latitude_deg, longitudeDeg: s.longitude_deg, heightM: s.height_m } : undefined;
-  return { ok: true, body, observations, ...(site ? { site } : {}) };
+  const schema = columnar ? restSchemaOf(siteKnown) : siteKnown ? zwdEstimationObjectRows : zwdEstimatesObjectRows;
+  const rest = validatedRest(schema.safeParse(raw));
+  if (!rest.ok) return rest;
+  observations ??= observationsFromObjects(rest.objects as Parameters<typeof observationsFromObjects>[0]);
+  return { ok: true, body: rest.body, observations, ...(rest.site ? { site: rest.site } : {}) };
+}
+
+/**
+ * The body read and checked: in one pass from its bytes when it is JSON with valid observation columns
+ * (the rest of it through the schema as before), else parsed and checked as before (validatedBody).
+ */
+function validatedInput(input: ZwdRequestTaskInput, siteKnown: boolean): Validated {
+  const read = readColumnsBody(input);
+  if (!read) return validatedBody(rawBody(input, siteKnown), siteKnown);
+  const rest = validatedRest(restSchemaOf(siteKnown).safeParse(read.rest));
+  if (!rest.ok) return rest;
+  return { ok: true, body: rest.body, observations: read, ...(rest.site ? { site: rest.site } : {}) };
 }
 
 /**
@@ -262,13 +335,15 @@ export async function handleZwdRequest(input: ZwdRequestTaskInput): Promise<Task
 export async function zwdRequestTask(input: ZwdRequestTaskInput): Promise<TaskOutcome<ZwdRequestTaskOutput>> {
   try {
     const station = input.station;
+    // Domain columns at once: the reader's typed columns are not held through the estimation.
     const validated: Validated = input.prepared
       ? { ok: true, body: input.prepared.body, observations: observationsOfPrepared(input.prepared) }
-      : validatedBody(rawBody(input, station !== undefined), station !== undefined);
+      : inDomainColumns(validatedInput(input, station !== undefined));
     input.body = '';
     input.prepared = undefined;
     if (!validated.ok) return validated.outcome;
-    const { body, observations } = validated;
+    const { body } = validated;
+    const observations = validated.observations as ZwdObservationColumns;
     const site = station?.site ?? validated.site!;
     const request = toZwdRequest(site, body, observations, station?.storedMet);
     const count = observations.epochMs.length;
@@ -335,16 +410,18 @@ export async function scanZwdRequest(
   // the parsed body handed on. Anything else is left to the estimation task, which reads the bytes and says why.
   if (input.query !== undefined) {
     try {
-      const validated = validatedBody(rawBody({ ...input, query: input.query }, true), true);
+      const validated = validatedInput({ ...input, query: input.query }, true);
       if (validated.ok) {
-        const epochMs = validated.observations.epochMs;
+        const o = validated.observations;
+        const prepared = isReadColumns(o) ? preparedOfRead(validated.body, o) : preparedOf(validated.body, o);
+        const epochMs = prepared.epochMs;
         let firstMs = Infinity;
         let lastMs = -Infinity;
-        for (const ms of epochMs) {
+        for (let i = 0; i < epochMs.length; i++) {
+          const ms = epochMs[i]!;
           if (ms < firstMs) firstMs = ms;
           if (ms > lastMs) lastMs = ms;
         }
-        const prepared = preparedOf(validated.body, validated.observations);
         // The typed columns own their buffers: the worker moves them to the event loop (compute-worker.ts).
         return {
           ok: true,
