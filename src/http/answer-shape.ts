@@ -21,7 +21,7 @@ import {
   tableFromIPC,
   type Table,
 } from 'apache-arrow';
-import { BufferRegion, FieldNode, RecordBatch as RecordBatchHeader } from 'apache-arrow/ipc/metadata/message';
+import { BufferRegion, FieldNode, RecordBatch as RecordBatchHeader, type DictionaryBatch } from 'apache-arrow/ipc/metadata/message';
 import { VectorAssembler } from 'apache-arrow/visitor/vectorassembler';
 import { z } from 'zod';
 import { FormatError } from '../formats/format-error.js';
@@ -119,7 +119,11 @@ export function arrowAnswer(
 ): Uint8Array {
   const chosen: Record<string, Float64Array | string[]> = {};
   for (const name of fields ?? Object.keys(columns)) if (columns[name]) chosen[name] = columns[name];
-  const answer = JSON.stringify(rest);
+  return arrowAnswerOfText(chosen, JSON.stringify(rest));
+}
+
+/** The columns as an Arrow IPC stream with `answer` (the rest of the answer, JSON text) in the schema metadata "answer". */
+export function arrowAnswerOfText(chosen: Record<string, Float64Array | string[]>, answer: string): Uint8Array {
   const numbers = Object.values(chosen);
   if (numbers.length > 0 && numbers[0]!.length > 0 && numbers.every((c) => c instanceof Float64Array && c.length === numbers[0]!.length)) {
     return float64StreamBytes(chosen as Record<string, Float64Array>, answer);
@@ -283,35 +287,137 @@ function tableColumns(
   return { columns, metadata: table.schema.metadata };
 }
 
+/** How a column of a directly read stream is laid out (Arrow columnar format, "Buffer Layouts"). */
+type DirectColumn = 'float64' | 'utf8' | 'dictionary';
+
+/** The layout of a field the direct reader takes, or undefined (the general reader takes the stream). */
+function directColumnOf(type: DataType): DirectColumn | undefined {
+  if (DataType.isFloat(type) && type.precision === Precision.DOUBLE) return 'float64';
+  if (DataType.isUtf8(type)) return 'utf8';
+  if (DataType.isDictionary(type) && DataType.isUtf8(type.dictionary) && type.indices.bitWidth === 32 && type.indices.isSigned)
+    return 'dictionary';
+  return undefined;
+}
+
+/** Whether bytes[start, end) hold ASCII only (then latin1 decodes them as UTF-8 does). */
+function isAscii(bytes: Uint8Array, start: number, end: number): boolean {
+  for (let i = start; i < end; i++) if (bytes[i]! > 0x7f) return false;
+  return true;
+}
+
+/** UTF-8 as apache-arrow decodes a Utf8 value (util/utf8: a TextDecoder('utf-8'), replacement characters, a leading BOM dropped). */
+const utf8Decoder = new TextDecoder('utf-8');
+
 /**
- * The common request of the batch routes read without a Table: a stream of one record batch whose columns are all
- * float64 without nulls (no dictionaries, distinct names; apache-arrow refuses compressed bodies), each column a Float64Array view of the
- * body (the same values tableColumns gives). The messages are decoded by apache-arrow's MessageReader. Anything
- * else, a malformed stream included, is undefined: tableColumns reads it (and words its errors).
+ * The texts of a Utf8 column of n values without nulls (offsets: n + 1 int32 into `data`), or undefined when the
+ * offsets do not fit the data (the general reader words the error). A text equal in bytes to the previous row's is
+ * the previous row's string (the epoch of every satellite of an epoch): decoded once, and the checks of the
+ * column (checkedTextColumn in adapters/zwd-estimation.ts) pass over it by identity.
  */
-function float64Stream(bytes: Uint8Array): { columns: Record<string, Float64Array>; metadata: Map<string, string> } | undefined {
+function utf8Texts(body: Uint8Array, offsetsRegion: BufferRegion, dataRegion: BufferRegion, n: number): string[] | undefined {
+  if (Number(offsetsRegion.length) < 4 * (n + 1) || Number(offsetsRegion.offset) + 4 * (n + 1) > body.byteLength) return undefined;
+  const dataStart = Number(dataRegion.offset);
+  const dataLength = Number(dataRegion.length);
+  if (dataStart + dataLength > body.byteLength) return undefined;
+  const offsets = new DataView(body.buffer, body.byteOffset + Number(offsetsRegion.offset), 4 * (n + 1));
+  const data = body.subarray(dataStart, dataStart + dataLength);
+  const latin1 = Buffer.from(data.buffer, data.byteOffset, data.byteLength);
+  const texts = new Array<string>(n);
+  let start = offsets.getInt32(0, true);
+  if (start < 0) return undefined;
+  let lastStart = -1;
+  let lastEnd = -1;
+  let last = '';
+  for (let i = 0; i < n; i++) {
+    const end = offsets.getInt32(4 * (i + 1), true);
+    if (end < start || end > dataLength) return undefined;
+    let same = lastStart >= 0 && end - start === lastEnd - lastStart;
+    for (let k = 0; same && k < end - start; k++) same = data[start + k] === data[lastStart + k];
+    if (!same) {
+      last = isAscii(data, start, end) ? latin1.toString('latin1', start, end) : utf8Decoder.decode(data.subarray(start, end));
+      lastStart = start;
+      lastEnd = end;
+    }
+    texts[i] = last;
+    start = end;
+  }
+  return texts;
+}
+
+/**
+ * The common request of the batch routes read without a Table: a stream of one record batch (after at most one
+ * dictionary batch per dictionary, none a delta) whose columns are float64, Utf8 or Utf8 dictionary-encoded with
+ * int32 indices (what apache-arrow's tableFromArrays makes of texts), none with nulls (distinct names;
+ * apache-arrow refuses compressed bodies). A float64 column is a Float64Array view of the body, a text column an
+ * array of texts, each text decoded once per run of equal rows (Utf8) or once per dictionary entry: the same
+ * values tableColumns gives. The messages are decoded by apache-arrow's MessageReader. Anything else, a
+ * malformed stream included, is undefined: tableColumns reads it (and words its errors).
+ */
+function directStream(bytes: Uint8Array): { columns: Record<string, Float64Array | string[]>; metadata: Map<string, string> } | undefined {
   try {
     const reader = new MessageReader(bytes);
     const schema = reader.readSchema();
-    if (!schema || schema.dictionaries.size > 0) return undefined;
+    if (!schema) return undefined;
     const names = schema.fields.map((f) => f.name);
     if (new Set(names).size !== names.length) return undefined;
-    if (!schema.fields.every((f) => DataType.isFloat(f.type) && f.type.precision === Precision.DOUBLE)) return undefined;
-    const message = reader.readMessage();
+    const kinds = schema.fields.map((f) => directColumnOf(f.type));
+    if (kinds.some((k) => k === undefined)) return undefined;
+    const dictionaries = new Map<number, string[]>();
+    let message = reader.readMessage();
+    while (message?.isDictionaryBatch()) {
+      const batch = message.header() as DictionaryBatch;
+      const body = reader.readMessageBody(message.bodyLength);
+      const id = Number(batch.id);
+      const type = schema.dictionaries.get(id);
+      if (batch.isDelta || dictionaries.has(id) || !type || !DataType.isUtf8(type)) return undefined;
+      const m = Number(batch.data.length);
+      const [node] = batch.nodes;
+      const buffers = batch.buffers;
+      if (batch.nodes.length !== 1 || buffers.length !== 3 || Number(node!.length) !== m || Number(node!.nullCount) !== 0) return undefined;
+      const texts = m === 0 ? [] : utf8Texts(body, buffers[1]!, buffers[2]!, m);
+      if (!texts) return undefined;
+      dictionaries.set(id, texts);
+      message = reader.readMessage();
+    }
     if (!message || !message.isRecordBatch()) return undefined;
     const header = message.header() as RecordBatchHeader;
     const body = reader.readMessageBody(message.bodyLength);
     if (reader.readMessage() !== null) return undefined; // another batch: the general reader joins them
     const n = Number(header.length);
-    if (header.nodes.length !== names.length || header.buffers.length !== 2 * names.length) return undefined;
-    const columns: Record<string, Float64Array> = {};
+    const width = (k: DirectColumn | undefined) => (k === 'utf8' ? 3 : 2);
+    if (header.nodes.length !== names.length || header.buffers.length !== kinds.reduce((sum, k) => sum + width(k), 0)) return undefined;
+    if (n === 0 && kinds.some((k) => k !== 'float64')) return undefined;
+    const columns: Record<string, Float64Array | string[]> = {};
+    let b = 0;
     for (let i = 0; i < names.length; i++) {
       const node = header.nodes[i]!;
-      const data = header.buffers[2 * i + 1]!;
-      const offset = body.byteOffset + Number(data.offset);
-      if (Number(node.length) !== n || Number(node.nullCount) !== 0 || Number(data.length) < 8 * n) return undefined;
-      if (offset % 8 !== 0 || Number(data.offset) + 8 * n > body.byteLength) return undefined;
-      columns[names[i]!] = new Float64Array(body.buffer, offset, n);
+      const kind = kinds[i]!;
+      const first = header.buffers[b + 1]!;
+      b += width(kind);
+      if (Number(node.length) !== n || Number(node.nullCount) !== 0) return undefined;
+      if (kind === 'utf8') {
+        const texts = utf8Texts(body, first, header.buffers[b - 1]!, n);
+        if (!texts) return undefined;
+        columns[names[i]!] = texts;
+        continue;
+      }
+      const size = kind === 'float64' ? 8 : 4;
+      const offset = body.byteOffset + Number(first.offset);
+      if (Number(first.length) < size * n || offset % size !== 0 || Number(first.offset) + size * n > body.byteLength) return undefined;
+      if (kind === 'float64') {
+        columns[names[i]!] = new Float64Array(body.buffer, offset, n);
+        continue;
+      }
+      const entries = dictionaries.get((schema.fields[i]!.type as { id: number }).id);
+      if (!entries) return undefined;
+      const indices = new Int32Array(body.buffer, offset, n);
+      const texts = new Array<string>(n);
+      for (let r = 0; r < n; r++) {
+        const text = entries[indices[r]!];
+        if (text === undefined) return undefined;
+        texts[r] = text;
+      }
+      columns[names[i]!] = texts;
     }
     return { columns, metadata: schema.metadata };
   } catch {
@@ -328,7 +434,7 @@ function float64Stream(bytes: Uint8Array): { columns: Record<string, Float64Arra
 export function readArrowRequest(bytes: Uint8Array): { columns: Record<string, unknown[]>; rest: unknown };
 export function readArrowRequest(bytes: Uint8Array, typed: true): { columns: Record<string, unknown[] | Float64Array>; rest: unknown };
 export function readArrowRequest(bytes: Uint8Array, typed = false): { columns: Record<string, unknown[] | Float64Array>; rest: unknown } {
-  const flat = typed ? float64Stream(bytes) : undefined;
+  const flat = typed ? directStream(bytes) : undefined;
   const read = flat ?? tableColumns(bytes, typed);
   const meta = read.metadata.get('request');
   let rest: unknown = {};

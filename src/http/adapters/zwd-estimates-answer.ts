@@ -34,14 +34,14 @@ import { zwdAnswerSummaryOf, zwdEstimatesResponseOf } from './zwd-estimation.js'
  * `absent`, or texts (undefined: no such field in the row); neither when no row has the field (met fields
  * of an answer without met).
  */
-interface AnswerField {
+export interface AnswerField {
   name: string;
   numbers?: number[];
   absent?: Uint8Array;
   texts?: (string | undefined)[];
 }
 
-interface AnswerTable {
+export interface AnswerTable {
   rows: number;
   fields: AnswerField[];
 }
@@ -61,7 +61,7 @@ function answerTables(r: ZwdEstimationResult): Record<string, AnswerTable> {
 const numberColumn = (n: number) => new Array<number>(n);
 const textColumn = (n: number) => new Array<string | undefined>(n);
 
-function zwdNodeTable(nodes: ZwdEstimationResult['estimate']['zwdNodes'], aprioriZwdM: number): AnswerTable {
+export function zwdNodeTable(nodes: ZwdEstimationResult['estimate']['zwdNodes'], aprioriZwdM: number): AnswerTable {
   const n = nodes.length;
   const epoch = textColumn(n);
   const [correction, zwd, sigma, nearby] = [numberColumn(n), numberColumn(n), numberColumn(n), numberColumn(n)];
@@ -85,7 +85,7 @@ function zwdNodeTable(nodes: ZwdEstimationResult['estimate']['zwdNodes'], aprior
   };
 }
 
-function gradientNodeTable(nodes: ZwdEstimationResult['estimate']['gradientNodes']): AnswerTable {
+export function gradientNodeTable(nodes: ZwdEstimationResult['estimate']['gradientNodes']): AnswerTable {
   const n = nodes.length;
   const epoch = textColumn(n);
   const [north, east, northSigma, eastSigma, nearby] = [
@@ -195,7 +195,7 @@ function seriesTable(r: ZwdEstimationResult, aprioriZtdM: number): AnswerTable {
   return { rows: n, fields };
 }
 
-function rejectedTable(rejected: ZwdEstimationResult['estimate']['rejected']): AnswerTable {
+export function rejectedTable(rejected: ZwdEstimationResult['estimate']['rejected']): AnswerTable {
   const n = rejected.length;
   const epoch = textColumn(n);
   const satellite = textColumn(n);
@@ -228,7 +228,7 @@ const CLOSE_BRACKET = 0x5d;
 
 /** `"name":` as bytes, once per field name. */
 const keyBytes = new Map<string, Uint8Array>();
-const keyOf = (name: string) =>
+export const keyOf = (name: string) =>
   keyBytes.get(name) ?? (keyBytes.set(name, Buffer.from(`${JSON.stringify(name)}:`, 'utf8')), keyBytes.get(name)!);
 
 /** Whether any row has the field (a column is written), or the table has no rows (every column is, empty). */
@@ -239,7 +239,12 @@ function hasColumn(table: AnswerTable, field: AnswerField): boolean {
 }
 
 /** `{"field":[…],…}`: numbers rounded to the field's decimals, absent values null, fields without any value left out. */
-function writeColumns(out: JsonBytes, table: AnswerTable, fields: readonly AnswerField[], decimals: Record<string, number | undefined>) {
+export function writeColumns(
+  out: JsonBytes,
+  table: AnswerTable,
+  fields: readonly AnswerField[],
+  decimals: Record<string, number | undefined>,
+) {
   out.byte(0x7b); // {
   let first = true;
   for (const field of fields) {
@@ -274,7 +279,7 @@ function writeColumns(out: JsonBytes, table: AnswerTable, fields: readonly Answe
 }
 
 /** The fields of a table in the answer: all in the spec's order, or those `fields` selects (in its order, once each). */
-function fieldsOf(table: AnswerTable, selected: readonly string[] | undefined, tableKey: string): AnswerField[] {
+export function fieldsOf(table: AnswerTable, selected: readonly string[] | undefined, tableKey: string): AnswerField[] {
   if (!selected) return table.fields;
   const byName = new Map(table.fields.map((f) => [f.name, f]));
   const out: AnswerField[] = [];
@@ -288,7 +293,8 @@ function fieldsOf(table: AnswerTable, selected: readonly string[] | undefined, t
 
 /**
  * The answer of POST /v1/zwd-estimates in the shape asked for: `shape=columns` JSON written by this
- * module; rows and Arrow through the answer objects and tableAnswer as before.
+ * module; rows and Arrow through the answer objects and tableAnswer as before. (The route's Arrow answer is
+ * written from the result by zwd-estimates-arrow.ts; this Arrow branch is the path its test compares with.)
  */
 export function zwdEstimatesAnswer(r: ZwdEstimationResult, shape: AnswerShape): TableAnswer {
   if (shape.format === 'arrow' || shape.shape === 'rows') return tableAnswer(zwdEstimatesResponseOf(r), ZWD_ANSWER_TABLES, shape);

@@ -30,6 +30,7 @@ import {
   zwdEstimatesResponseOf,
 } from '../adapters/zwd-estimation.js';
 import { zwdEstimatesAnswer } from '../adapters/zwd-estimates-answer.js';
+import { zwdEstimatesArrowAnswer } from '../adapters/zwd-estimates-arrow.js';
 import { readArrowRequest, type AnswerShape } from '../answer-shape.js';
 import { tableAnswer } from '../table-answer.js';
 import { columnSpecsOf, jsonColumnSpecsOf, readColumns, type ColumnSpec } from '../columns.js';
@@ -351,7 +352,7 @@ export async function zwdRequestTask(input: ZwdRequestTaskInput): Promise<TaskOu
     const result = runZwdEstimation(request);
     const shape = input.answer ?? ROWS;
     if (!station) {
-      const shaped = zwdEstimatesAnswer(result, shape);
+      const shaped = shape.format === 'arrow' ? zwdEstimatesArrowAnswer(result, shape) : zwdEstimatesAnswer(result, shape);
       return { ok: true, output: { json: shaped.bytes, contentType: shaped.contentType, observations: count } };
     }
 

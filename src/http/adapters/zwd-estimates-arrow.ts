@@ -1,0 +1,118 @@
+/**
+ * The Arrow answer of POST /v1/zwd-estimates (`Accept: application/vnd.apache.arrow.stream`) written straight
+ * from the domain result (issue 14): the series as the Arrow table, the rest of the answer (zwd_nodes,
+ * gradient_nodes and rejected as rounded columns, then statistics, apriori, models, warnings) as JSON in the
+ * schema metadata "answer" — the table and the metadata of tableAnswer(zwdEstimatesResponseOf(r), …) without
+ * the answer's row objects, the columns made of them, and the text of the rest parsed and written again.
+ *
+ * - The series columns hold what seriesEntryOf (zwd-estimation.ts) puts in a row, a missing member as null
+ *   (table-answer.ts rowsToColumns), a field that no row has left out; a column of numbers only is a
+ *   Float64Array, any other (texts, numbers with nulls) an array, so that arrowAnswer (answer-shape.ts) makes
+ *   the same table of it as before: apache-arrow's tableFromArrays infers the same types from the same values.
+ * - The metadata text is the JSON of the other tables written by the columns writer of zwd-estimates-answer.ts
+ *   (byte for byte what json-columns.ts wrote for them) and JSON.stringify of the summary: the text the old path
+ *   gave through JSON.parse and JSON.stringify, since JSON.stringify's own text reads back to itself.
+ *
+ * test/http/zwd-estimates-arrow-answer.test.ts decodes both answers with apache-arrow and compares them.
+ */
+
+import { JsonBytes } from '../../formats/json-columns.js';
+import { isoEpochText } from '../../formats/iso-epoch-text.js';
+import type { ZwdEstimationResult } from '../../services/zwd-estimation.js';
+import { arrowAnswerOfText, ARROW_STREAM_TYPE, type AnswerShape } from '../answer-shape.js';
+import { ZWD_ANSWER_TABLES } from '../schemas/zwd-estimates.js';
+import { selectedFields, type TableAnswer } from '../table-answer.js';
+import { fieldsOf, gradientNodeTable, keyOf, rejectedTable, writeColumns, zwdNodeTable } from './zwd-estimates-answer.js';
+import { zwdAnswerSummaryOf } from './zwd-estimation.js';
+
+type Value = number | string | null | undefined;
+
+/** Per series field, its value at epoch k as seriesEntryOf gives it (undefined: the row has no such member). */
+function seriesFieldsOf(r: ZwdEstimationResult): Record<string, (k: number) => Value> {
+  const epochs = r.estimate.epochs;
+  const zwd = r.epochZwd;
+  const met = r.epochMet;
+  const aprioriZtdM = r.aprioriZhdM + r.aprioriZwdM;
+  /** A met value: absent without met, and (but zhd_m) where the epoch's met is missing. */
+  const metValue = (value: (m: NonNullable<typeof met>[number]) => number | null | undefined) => (k: number) => {
+    const m = met?.[k];
+    return m === undefined || m.met === 'missing' ? undefined : value(m);
+  };
+  return {
+    epoch: (k) => isoEpochText(epochs[k]!.epochMs),
+    correction_m: (k) => epochs[k]!.correctionM,
+    zwd_m: (k) => zwd[k]!.zwdM,
+    zhd_source: (k) => zwd[k]!.zhdSource,
+    sigma_m: (k) => epochs[k]!.sigmaM,
+    north_gradient_m: (k) => epochs[k]!.northGradientM,
+    east_gradient_m: (k) => epochs[k]!.eastGradientM,
+    north_gradient_sigma_m: (k) => epochs[k]!.northGradientSigmaM,
+    east_gradient_sigma_m: (k) => epochs[k]!.eastGradientSigmaM,
+    epoch_bias_m: (k) => epochs[k]!.epochBiasM,
+    observations: (k) => epochs[k]!.observationsUsed,
+    ztd_m: (k) => aprioriZtdM + epochs[k]!.correctionM,
+    met: (k) => met?.[k]?.met,
+    zhd_m: (k) => {
+      const m = met?.[k];
+      return m === undefined ? undefined : m.met === 'missing' ? zwd[k]!.zhdM : m.zhdM;
+    },
+    tm_k: metValue((m) => m.tmK),
+    pwv_mm: metValue((m) => m.pwvMm),
+    pwv_sigma_mm: metValue((m) => m.pwvSigmaMm),
+    pwv_total_sigma_mm: metValue((m) => m.pwvTotalSigmaMm),
+  };
+}
+
+/**
+ * One series column: a Float64Array while every value is a number, else an array with null for a missing value;
+ * undefined when no row has the field (and there are rows), as rowsToColumns leaves such a field out.
+ */
+function seriesColumn(n: number, valueAt: (k: number) => Value): Float64Array | unknown[] | undefined {
+  const numbers = new Float64Array(n);
+  let k = 0;
+  for (; k < n; k++) {
+    const v = valueAt(k);
+    if (typeof v !== 'number') break;
+    numbers[k] = v;
+  }
+  if (k === n) return numbers;
+  const values = new Array<unknown>(n);
+  let present = false;
+  for (let i = 0; i < n; i++) {
+    const v = i < k ? numbers[i] : valueAt(i);
+    if (v !== undefined) present = true;
+    values[i] = v ?? null;
+  }
+  return present ? values : undefined;
+}
+
+/** The Arrow answer of POST /v1/zwd-estimates from the domain result, with `fields` of the shape. */
+export function zwdEstimatesArrowAnswer(r: ZwdEstimationResult, shape: AnswerShape): TableAnswer {
+  const selected = selectedFields(ZWD_ANSWER_TABLES, shape.fields);
+  const getters = seriesFieldsOf(r);
+  const n = r.estimate.epochs.length;
+  const columns: Record<string, Float64Array | unknown[]> = {};
+  for (const name of selected.series ?? Object.keys(ZWD_ANSWER_TABLES.tables.series!)) {
+    const valueAt = getters[name];
+    if (!valueAt) throw new Error(`series.${name}: not a field of the estimation answer`);
+    const column = seriesColumn(n, valueAt); // no rows: an empty Float64Array per field, as before
+    if (column) columns[name] = column;
+  }
+  const { estimate: out } = r;
+  const tables = {
+    zwd_nodes: zwdNodeTable(out.zwdNodes, r.aprioriZwdM),
+    gradient_nodes: gradientNodeTable(out.gradientNodes),
+    rejected: rejectedTable(out.rejected),
+  };
+  const json = new JsonBytes((tables.zwd_nodes.rows + tables.gradient_nodes.rows + tables.rejected.rows) * 100 + 4096);
+  json.byte(0x7b); // {
+  for (const [key, table] of Object.entries(tables)) {
+    json.raw(keyOf(key));
+    writeColumns(json, table, fieldsOf(table, selected[key], key), ZWD_ANSWER_TABLES.tables[key]!);
+    json.byte(0x2c); // ,
+  }
+  const summary = Buffer.from(JSON.stringify(zwdAnswerSummaryOf(r)), 'utf8');
+  json.raw(summary.subarray(1)); // without its opening brace
+  const text = Buffer.from(json.bytes.buffer, json.bytes.byteOffset, json.length).toString('utf8');
+  return { bytes: arrowAnswerOfText(columns as Record<string, Float64Array | string[]>, text), contentType: ARROW_STREAM_TYPE };
+}
