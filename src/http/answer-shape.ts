@@ -305,14 +305,18 @@ function isAscii(bytes: Uint8Array, start: number, end: number): boolean {
   return true;
 }
 
+/** Texts of up to this many bytes are interned by their bytes as a number (length and 6 bytes: < 2^51, exact). */
+const SHORT_TEXT_BYTES = 6;
+
 /** UTF-8 as apache-arrow decodes a Utf8 value (util/utf8: a TextDecoder('utf-8'), replacement characters, a leading BOM dropped). */
 const utf8Decoder = new TextDecoder('utf-8');
 
 /**
  * The texts of a Utf8 column of n values without nulls (offsets: n + 1 int32 into `data`), or undefined when the
  * offsets do not fit the data (the general reader words the error). A text equal in bytes to the previous row's is
- * the previous row's string (the epoch of every satellite of an epoch): decoded once, and the checks of the
- * column (checkedTextColumn in adapters/zwd-estimation.ts) pass over it by identity.
+ * the previous row's string (the epoch of every satellite of an epoch), and a short ASCII text (a satellite) is
+ * made once per distinct text: each decoded once, and the checks of the column (checkedTextColumn in
+ * adapters/zwd-estimation.ts) pass over repeats by identity.
  */
 function utf8Texts(body: Uint8Array, offsetsRegion: BufferRegion, dataRegion: BufferRegion, n: number): string[] | undefined {
   if (Number(offsetsRegion.length) < 4 * (n + 1) || Number(offsetsRegion.offset) + 4 * (n + 1) > body.byteLength) return undefined;
@@ -323,6 +327,7 @@ function utf8Texts(body: Uint8Array, offsetsRegion: BufferRegion, dataRegion: Bu
   const data = body.subarray(dataStart, dataStart + dataLength);
   const latin1 = Buffer.from(data.buffer, data.byteOffset, data.byteLength);
   const texts = new Array<string>(n);
+  const shortTexts = new Map<number, string>();
   let start = offsets.getInt32(0, true);
   if (start < 0) return undefined;
   let lastStart = -1;
@@ -334,7 +339,14 @@ function utf8Texts(body: Uint8Array, offsetsRegion: BufferRegion, dataRegion: Bu
     let same = lastStart >= 0 && end - start === lastEnd - lastStart;
     for (let k = 0; same && k < end - start; k++) same = data[start + k] === data[lastStart + k];
     if (!same) {
-      last = isAscii(data, start, end) ? latin1.toString('latin1', start, end) : utf8Decoder.decode(data.subarray(start, end));
+      const length = end - start;
+      if (length <= SHORT_TEXT_BYTES && isAscii(data, start, end)) {
+        // A short ASCII text (a satellite): its bytes as one number, its string made once.
+        let key = length;
+        for (let k = start; k < end; k++) key = key * 256 + data[k]!;
+        last = shortTexts.get(key) ?? latin1.toString('latin1', start, end);
+        if (shortTexts.size < 4096) shortTexts.set(key, last);
+      } else last = isAscii(data, start, end) ? latin1.toString('latin1', start, end) : utf8Decoder.decode(data.subarray(start, end));
       lastStart = start;
       lastEnd = end;
     }
