@@ -19,7 +19,6 @@
 import { readFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
 import { Dictionary, Int32, Table, Utf8, tableToIPC, vectorFromArray } from 'apache-arrow';
-import { DEG } from '../src/domain/constants.js';
 import { zwdEstimatesArrowAnswer } from '../src/http/adapters/zwd-estimates-arrow.js';
 import { observationsFromColumns, toZwdRequest, zwdEstimatesResponseOf } from '../src/http/adapters/zwd-estimation.js';
 import { readArrowRequest, type AnswerShape } from '../src/http/answer-shape.js';
@@ -27,7 +26,7 @@ import { ZWD_ANSWER_TABLES, zwdEstimatesRequest } from '../src/http/schemas/zwd-
 import { tableAnswer } from '../src/http/table-answer.js';
 import { handleZwdRequest } from '../src/http/tasks/zwd-request.js';
 import { runZwdEstimation } from '../src/services/zwd-estimation.js';
-import { simulateSky } from '../test/helpers/realistic-sky.js';
+import { dayRequest } from '../test/helpers/gps-like-days.js';
 
 const RUNS = Number(process.env.BENCH_RUNS ?? 30);
 const WARM_UP = 8;
@@ -41,16 +40,7 @@ const ARROW_ANSWER: AnswerShape = { shape: 'rows', format: 'arrow', fields: unde
 
 /** One day as the Arrow request, texts as `text`, and the estimation service's request for it. */
 function dayOf(day: (typeof DAYS)[keyof typeof DAYS]) {
-  const s = simulateSky({ seed: 11, durationS: 86_400, grossErrors: day.grossErrors, constellations: [...day.constellations] });
-  const iso = new Map<number, string>();
-  const columns = {
-    epoch: s.epochMs.map((ms) => iso.get(ms) ?? (iso.set(ms, new Date(ms).toISOString()), iso.get(ms)!)),
-    satellite: s.satellite,
-    elevation_deg: s.elevationRad.map((e) => e / DEG),
-    azimuth_deg: s.azimuthRad.map((a) => a / DEG),
-    residual_m: s.residualM,
-  };
-  const rest = { site: { latitude_deg: s.options.latitudeDeg, longitude_deg: 7.4, height_m: s.options.heightM }, apriori: { zhd_m: 2.2 } };
+  const { columns, rest } = dayRequest({ grossErrors: day.grossErrors, constellations: [...day.constellations] });
   const body = (text: 'dictionary' | 'utf8') => {
     const type = () => (text === 'utf8' ? new Utf8() : new Dictionary(new Utf8(), new Int32())); // a dictionary id per column
     const table = new Table({

@@ -25,10 +25,9 @@ import { MAPPING_MODEL_KEYS } from '../src/domain/mapping/registry.js';
 import { estimateZwd } from '../src/estimation/estimate.js';
 import { runZwdEstimation, toEstimatorOptions } from '../src/services/zwd-estimation.js';
 import { startServerProcess, type ServerProcess } from '../test/helpers/server-process.js';
-import { simulateSky } from '../test/helpers/realistic-sky.js';
-import { skyInput } from '../test/helpers/synthetic-input.js';
 import { observationsFromColumns, toZwdRequest } from '../src/http/adapters/zwd-estimation.js';
 import { zwdEstimatesRequest } from '../src/http/schemas/zwd-estimates.js';
+import { dayRequest } from '../test/helpers/gps-like-days.js';
 
 const ARROW = 'application/vnd.apache.arrow.stream';
 const N = 10_000;
@@ -136,31 +135,15 @@ const DAYS = {
 
 /** One realistic day as the API's columns and objects. */
 function realisticDayBodies(day: (typeof DAYS)[keyof typeof DAYS]) {
-  const input = skyInput(
-    simulateSky({ seed: 11, durationS: 86_400, grossErrors: day.grossErrors, constellations: [...day.constellations] }),
-  );
-  const o = input.observations;
-  const iso = new Map<number, string>();
-  const epoch = o.epochMs.map((ms) => iso.get(ms) ?? (iso.set(ms, new Date(ms).toISOString()), iso.get(ms)!));
-  const columns = {
-    epoch,
-    satellite: o.satellite,
-    elevation_deg: o.elevationRad.map((e) => e / DEG),
-    azimuth_deg: o.azimuthRad.map((a) => a / DEG),
-    residual_m: o.residualM,
-  };
-  const request = {
-    site: { latitude_deg: input.latitudeRad / DEG, longitude_deg: 7.4, height_m: input.heightM ?? 500 },
-    apriori: { zhd_m: 2.2 },
-  };
-  const objects = epoch.map((e, i) => ({
+  const { rest: request, columns, count } = dayRequest({ grossErrors: day.grossErrors, constellations: [...day.constellations] });
+  const objects = columns.epoch.map((e, i) => ({
     epoch: e,
-    satellite: o.satellite[i],
+    satellite: columns.satellite[i],
     elevation_deg: columns.elevation_deg[i],
     azimuth_deg: columns.azimuth_deg[i],
-    residual_m: o.residualM[i],
+    residual_m: columns.residual_m[i],
   }));
-  return { request, columns, objects, count: epoch.length };
+  return { request, columns, objects, count };
 }
 
 /** Blocks of requests per form through HTTP (the median and range are over these). */

@@ -19,11 +19,9 @@ import { existsSync, mkdtempSync, openSync, readFileSync, rmSync } from 'node:fs
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { tableFromArrays, tableToIPC, type Table } from 'apache-arrow';
-import { DEG } from '../src/domain/constants.js';
 import { MAPPING_MODEL_KEYS } from '../src/domain/mapping/registry.js';
 import { freePort, serverEnvironment } from '../test/helpers/server-process.js';
-import { simulateSky } from '../test/helpers/realistic-sky.js';
-import { skyInput } from '../test/helpers/synthetic-input.js';
+import { dayRequest } from '../test/helpers/gps-like-days.js';
 
 const ARROW = 'application/vnd.apache.arrow.stream';
 const N = 10_000;
@@ -105,23 +103,11 @@ export async function send(s: Service, w: Workload): Promise<Buffer> {
 }
 
 export function gpsDay(): Workload {
-  const input = skyInput(simulateSky({ seed: 11, durationS: 86_400, grossErrors: 25, constellations: ['gps'] }));
-  const o = input.observations;
-  const iso = new Map<number, string>();
-  const epoch = o.epochMs.map((ms) => iso.get(ms) ?? (iso.set(ms, new Date(ms).toISOString()), iso.get(ms)!));
-  const body = JSON.stringify({
-    site: { latitude_deg: input.latitudeRad / DEG, longitude_deg: 7.4, height_m: input.heightM ?? 500 },
-    apriori: { zhd_m: 2.2 },
-    observations: {
-      epoch,
-      satellite: o.satellite,
-      elevation_deg: o.elevationRad.map((e) => e / DEG),
-      azimuth_deg: o.azimuthRad.map((a) => a / DEG),
-      residual_m: o.residualM,
-    },
-  });
+  const { rest, columns } = dayRequest();
+  const body = JSON.stringify({ ...rest, observations: columns });
+  const count = columns.epoch.length;
   return {
-    name: `GPS-like day (${epoch.length} observations, columns JSON ${(body.length / 1e6).toFixed(1)} MB)`,
+    name: `GPS-like day (${count} observations, columns JSON ${(body.length / 1e6).toFixed(1)} MB)`,
     path: '/v1/zwd-estimates',
     body,
     type: 'application/json',

@@ -5,9 +5,7 @@
  * view, 100 gross errors).
  */
 
-import { DEG } from '../src/domain/constants.js';
-import { simulateSky } from '../test/helpers/realistic-sky.js';
-import { skyInput } from '../test/helpers/synthetic-input.js';
+import { dayRequest } from '../test/helpers/gps-like-days.js';
 
 export const DAYS = {
   gps: { name: 'GPS-like day', constellations: ['gps'] as const, grossErrors: 25 },
@@ -16,20 +14,6 @@ export const DAYS = {
 
 export function dayBody(day: keyof typeof DAYS): Uint8Array<ArrayBuffer> {
   const { constellations, grossErrors } = DAYS[day];
-  const input = skyInput(simulateSky({ seed: 11, durationS: 86_400, grossErrors, constellations: [...constellations] }));
-  const o = input.observations;
-  const iso = new Map<number, string>();
-  const epoch = o.epochMs.map((ms) => iso.get(ms) ?? (iso.set(ms, new Date(ms).toISOString()), iso.get(ms)!));
-  const body = {
-    site: { latitude_deg: input.latitudeRad / DEG, longitude_deg: 7.4, height_m: input.heightM ?? 500 },
-    apriori: { zhd_m: 2.2 },
-    observations: {
-      epoch,
-      satellite: o.satellite,
-      elevation_deg: o.elevationRad.map((e) => e / DEG),
-      azimuth_deg: o.azimuthRad.map((a) => a / DEG),
-      residual_m: o.residualM,
-    },
-  };
-  return new Uint8Array(Buffer.from(JSON.stringify(body)));
+  const { rest, columns } = dayRequest({ grossErrors, constellations: [...constellations] });
+  return new Uint8Array(Buffer.from(JSON.stringify({ ...rest, observations: columns })));
 }

@@ -7,21 +7,29 @@
 
 import { tableFromArrays, tableToIPC, type Table } from 'apache-arrow';
 import { DEG } from '../../src/domain/constants.js';
-import { simulateSky } from './realistic-sky.js';
+import { simulateSky, type Sky, type SkyOptions } from './realistic-sky.js';
 
 export interface GpsLikeRequest {
-  rest: { site: { latitude_deg: number; longitude_deg: number; height_m: number }; apriori: { zhd_m: number } };
+  rest: { site: { latitude_deg: number; longitude_deg: number; height_m: number }; apriori: { zhd_m: number } } & Record<string, unknown>;
   columns: { epoch: string[]; satellite: string[]; elevation_deg: number[]; azimuth_deg: number[]; residual_m: number[] };
   /** Observations. */
   count: number;
 }
 
-export function gpsLikeColumns(days: number): GpsLikeRequest {
-  const sky = simulateSky({ seed: 11, durationS: days * 86_400, grossErrors: 25 * days, constellations: ['gps'] });
+/**
+ * A simulated sky as the estimation API's request: the observation columns (epochs as ISO texts, one text per
+ * distinct epoch; angles in degrees) and the rest of the body (the sky's site, a-priori ZHD 2.2 m, `extra`).
+ * The one definition of the benchmark and byte-for-byte days (bench/columns.bench.ts and the tests beside it).
+ */
+export function skyRequest(sky: Sky, extra: Record<string, unknown> = {}): GpsLikeRequest {
   const iso = new Map<number, string>();
   const epoch = sky.epochMs.map((ms) => iso.get(ms) ?? (iso.set(ms, new Date(ms).toISOString()), iso.get(ms)!));
   return {
-    rest: { site: { latitude_deg: sky.options.latitudeDeg, longitude_deg: 7.4, height_m: sky.options.heightM }, apriori: { zhd_m: 2.2 } },
+    rest: {
+      site: { latitude_deg: sky.options.latitudeDeg, longitude_deg: 7.4, height_m: sky.options.heightM },
+      apriori: { zhd_m: 2.2 },
+      ...extra,
+    },
     columns: {
       epoch,
       satellite: sky.satellite,
@@ -31,6 +39,15 @@ export function gpsLikeColumns(days: number): GpsLikeRequest {
     },
     count: epoch.length,
   };
+}
+
+/** The benchmarks' day of the sky simulation (seed 11, one day at 30 s, GPS-like, 25 gross errors), with `sky` overrides. */
+export function dayRequest(sky: Partial<SkyOptions> = {}, extra: Record<string, unknown> = {}): GpsLikeRequest {
+  return skyRequest(simulateSky({ seed: 11, durationS: 86_400, grossErrors: 25, constellations: ['gps'], ...sky }), extra);
+}
+
+export function gpsLikeColumns(days: number): GpsLikeRequest {
+  return dayRequest({ durationS: days * 86_400, grossErrors: 25 * days });
 }
 
 /** The request as columns JSON (UTF-8 bytes); `extra` goes beside site and apriori (e.g. options). */

@@ -10,7 +10,6 @@
  */
 
 import { describe, expect, it } from 'vitest';
-import { DEG } from '../../src/domain/constants.js';
 import type { AnswerShape } from '../../src/http/answer-shape.js';
 import { handleZwdRequest, scanZwdRequest, type ZwdRequestTaskInput } from '../../src/http/tasks/zwd-request.js';
 import { columnSpecsOf, jsonColumnSpecsOf } from '../../src/http/columns.js';
@@ -20,29 +19,15 @@ import { MAX_OBSERVATIONS } from '../../src/limits.js';
 import { handleNetworkRequest } from '../../src/http/tasks/network-request.js';
 import { networkObservationSchema } from '../../src/http/schemas/network-estimates.js';
 import { networkBody, sim } from './network-fixtures.js';
-import { simulateSky } from '../helpers/realistic-sky.js';
-import { skyInput } from '../helpers/synthetic-input.js';
+import { dayRequest } from '../helpers/gps-like-days.js';
 
 const ROWS: AnswerShape = { shape: 'rows', format: 'json', fields: undefined };
 const COLUMNS: AnswerShape = { shape: 'columns', format: 'json', fields: undefined };
 
 /** One realistic day as the request's site, apriori and observation columns (as bench/columns.bench.ts builds it). */
 function realisticDay(constellations: ('gps' | 'glonass' | 'galileo' | 'beidou')[], grossErrors: number) {
-  const input = skyInput(simulateSky({ seed: 11, durationS: 86_400, grossErrors, constellations }));
-  const o = input.observations;
-  const iso = new Map<number, string>();
-  const epoch = o.epochMs.map((ms) => iso.get(ms) ?? (iso.set(ms, new Date(ms).toISOString()), iso.get(ms)!));
-  return {
-    site: { latitude_deg: input.latitudeRad / DEG, longitude_deg: 7.4, height_m: input.heightM ?? 500 },
-    apriori: { zhd_m: 2.2 },
-    observations: {
-      epoch,
-      satellite: o.satellite,
-      elevation_deg: o.elevationRad.map((e) => e / DEG),
-      azimuth_deg: o.azimuthRad.map((a) => a / DEG),
-      residual_m: o.residualM,
-    },
-  };
+  const { rest, columns } = dayRequest({ constellations, grossErrors });
+  return { ...rest, observations: columns };
 }
 
 const bytesOf = (text: string) => new Uint8Array(Buffer.from(text, 'utf8'));

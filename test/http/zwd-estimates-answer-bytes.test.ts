@@ -13,14 +13,15 @@
 
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { DEG } from '../../src/domain/constants.js';
 import { zwdEstimatesAnswer } from '../../src/http/adapters/zwd-estimates-answer.js';
 import { observationsFromColumns, toZwdRequest, zwdEstimatesResponseOf } from '../../src/http/adapters/zwd-estimation.js';
 import type { AnswerShape } from '../../src/http/answer-shape.js';
 import { ZWD_ANSWER_FIELD_NAMES, ZWD_ANSWER_TABLES, zwdEstimatesRequest } from '../../src/http/schemas/zwd-estimates.js';
 import { tableAnswer } from '../../src/http/table-answer.js';
 import { runZwdEstimation, type ZwdEstimationResult } from '../../src/services/zwd-estimation.js';
-import { simulateSky, type SkyOptions } from '../helpers/realistic-sky.js';
+import { type SkyOptions } from '../helpers/realistic-sky.js';
+import { anyZwdEstimationResult } from '../helpers/estimation-result-arbitrary.js';
+import { dayRequest } from '../helpers/gps-like-days.js';
 
 /** The rows answer as it was built before: JSON.stringify of the answer objects, encoded by TextEncoder. */
 const referenceRowsBytes = (r: ZwdEstimationResult) => Buffer.from(new TextEncoder().encode(JSON.stringify(zwdEstimatesResponseOf(r))));
@@ -45,22 +46,9 @@ const SELECTIONS: (string[] | undefined)[] = [
 
 /** A day of the sky simulation through the estimation service, as the route runs it (body schema, adapters). */
 function estimatedDay(sky: Partial<SkyOptions>, extra: Record<string, unknown> = {}): ZwdEstimationResult {
-  const s = simulateSky({ seed: 11, durationS: 86_400, grossErrors: 25, constellations: ['gps'], ...sky });
-  const iso = new Map<number, string>();
-  const observations = {
-    epoch: s.epochMs.map((ms) => iso.get(ms) ?? (iso.set(ms, new Date(ms).toISOString()), iso.get(ms)!)),
-    satellite: s.satellite,
-    elevation_deg: s.elevationRad.map((e) => e / DEG),
-    azimuth_deg: s.azimuthRad.map((a) => a / DEG),
-    residual_m: s.residualM,
-  };
-  const body = {
-    site: { latitude_deg: s.options.latitudeDeg, longitude_deg: 7.4, height_m: s.options.heightM },
-    apriori: { zhd_m: 2.2 },
-    ...extra,
-  };
+  const { columns: observations, rest: body } = dayRequest(sky, extra);
   // The rest of the body through its schema (defaults applied), the observation columns converted as the route does.
-  const first = { epoch: observations.epoch[0], satellite: s.satellite[0], elevation_deg: 45, azimuth_deg: 0, residual_m: 0 };
+  const first = { epoch: observations.epoch[0], satellite: observations.satellite[0], elevation_deg: 45, azimuth_deg: 0, residual_m: 0 };
   const parsed = zwdEstimatesRequest.parse({ ...body, observations: [first] });
   const site = { latitudeDeg: parsed.site.latitude_deg, longitudeDeg: parsed.site.longitude_deg, heightM: parsed.site.height_m };
   return runZwdEstimation(toZwdRequest(site, parsed, observationsFromColumns(observations)));
@@ -165,91 +153,7 @@ describe('byte for byte the answer objects + tableAnswer, the benchmark days', (
 });
 
 describe('byte for byte over random results (fast-check)', () => {
-  // Doubles of every kind JSON.stringify writes differently: exponents, -0, subnormals, NaN and ±Infinity (null).
-  const anyNumber = fc.oneof(
-    fc.double(),
-    fc.double({ min: -1e3, max: 1e3, noNaN: true }),
-    fc.constantFrom(0, -0, 1e21, 1e-7, 5e-324, -1.7976931348623157e308, 0.1 + 0.2, NaN, Infinity, -Infinity),
-    fc.integer(),
-  );
-  const anyNullable = fc.option(anyNumber, { nil: null });
-  const anyText = fc.oneof(fc.string(), fc.string({ unit: 'binary' }), fc.string({ unit: 'grapheme' }));
-  const anyEpochMs = fc.integer({ min: 0, max: 4_102_444_800_000 });
-  const node = fc.record({ epochMs: anyEpochMs, correctionM: anyNumber, sigmaM: anyNumber, observationsNearby: fc.nat() });
-  const gradientNode = fc.record({
-    epochMs: anyEpochMs,
-    northM: anyNumber,
-    eastM: anyNumber,
-    northSigmaM: anyNumber,
-    eastSigmaM: anyNumber,
-    observationsNearby: fc.nat(),
-  });
-  const epochRow = fc.record({
-    epoch: fc.record({
-      epochMs: anyEpochMs,
-      correctionM: anyNumber,
-      sigmaM: anyNumber,
-      northGradientM: anyNullable,
-      eastGradientM: anyNullable,
-      northGradientSigmaM: anyNullable,
-      eastGradientSigmaM: anyNullable,
-      epochBiasM: anyNullable,
-      observationsUsed: fc.nat(),
-    }),
-    zwd: fc.record({ zwdM: anyNumber, zhdM: anyNumber, zhdSource: fc.oneof(fc.constantFrom('met', 'met-bridged'), anyText) }),
-    met: fc.record({
-      met: fc.oneof(fc.constantFrom('measured', 'interpolated', 'missing'), anyText),
-      zhdM: anyNullable,
-      zwdM: anyNullable,
-      tmK: anyNullable,
-      pwvMm: anyNullable,
-      pwvSigmaMm: anyNullable,
-      pwvTotalSigmaMm: anyNullable,
-    }),
-  });
-  const rejection = fc.record({
-    index: fc.nat(),
-    epochMs: anyEpochMs,
-    satellite: anyText,
-    residualM: anyNumber,
-    fittedResidualM: anyNumber,
-    normalizedResidual: anyNumber,
-  });
-  const result = fc
-    .record({
-      nodes: fc.array(node, { maxLength: 5 }),
-      gradients: fc.array(gradientNode, { maxLength: 5 }),
-      epochs: fc.array(epochRow, { maxLength: 8 }),
-      withMet: fc.boolean(),
-      rejected: fc.array(rejection, { maxLength: 4 }),
-      aprioriZhdM: anyNumber,
-      aprioriZwdM: anyNumber,
-      warnings: fc.array(anyText, { maxLength: 3 }),
-      fingerprint: anyText,
-    })
-    .map(
-      (g): ZwdEstimationResult =>
-        ({
-          estimate: {
-            zwdNodes: g.nodes,
-            gradientNodes: g.gradients,
-            epochs: g.epochs.map((e) => e.epoch),
-            rejected: g.rejected,
-            statistics: realStatistics,
-          },
-          aprioriZhdM: g.aprioriZhdM,
-          aprioriZwdM: g.aprioriZwdM,
-          zhdSource: 'caller',
-          geoidUndulationM: 47.3,
-          epochZwd: g.epochs.map((e) => e.zwd),
-          epochMet: g.withMet ? g.epochs.map((e) => e.met) : null,
-          bridgedEpochs: 0,
-          models: { mapping: 'niell' },
-          modelFingerprint: g.fingerprint,
-          warnings: g.warnings.map((text) => ({ code: 'met-missing', text })),
-        }) as unknown as ZwdEstimationResult,
-    );
-  const realStatistics = estimatedDay({ durationS: 3600, grossErrors: 0 }).estimate.statistics;
+  const result = anyZwdEstimationResult(estimatedDay({ durationS: 3600, grossErrors: 0 }));
   const anyShape = fc
     .record({
       shape: fc.constant('columns' as const),

@@ -16,7 +16,6 @@
 import { Dictionary, Float64, Int32, Table, Utf8, tableFromIPC, tableToIPC, vectorFromArray, type Vector } from 'apache-arrow';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { DEG } from '../../src/domain/constants.js';
 import { zwdEstimatesArrowAnswer } from '../../src/http/adapters/zwd-estimates-arrow.js';
 import { observationsFromColumns, toZwdRequest, zwdEstimatesResponseOf } from '../../src/http/adapters/zwd-estimation.js';
 import { readArrowRequest, type AnswerShape } from '../../src/http/answer-shape.js';
@@ -24,7 +23,9 @@ import { ZWD_ANSWER_FIELD_NAMES, ZWD_ANSWER_TABLES, zwdEstimatesRequest } from '
 import { tableAnswer } from '../../src/http/table-answer.js';
 import { handleZwdRequest } from '../../src/http/tasks/zwd-request.js';
 import { runZwdEstimation, type ZwdEstimationResult } from '../../src/services/zwd-estimation.js';
-import { simulateSky, type SkyOptions } from '../helpers/realistic-sky.js';
+import { type SkyOptions } from '../helpers/realistic-sky.js';
+import { anyZwdEstimationResult } from '../helpers/estimation-result-arbitrary.js';
+import { dayRequest } from '../helpers/gps-like-days.js';
 
 const arrow = (fields?: string[]): AnswerShape => ({ shape: 'rows', format: 'arrow', fields });
 
@@ -62,25 +63,6 @@ const SELECTIONS: (string[] | undefined)[] = [
   ['zwd_nodes.epoch', 'zwd_nodes.zwd_m'],
   ['zwd_m', 'zwd_m', 'tm_k'],
 ];
-
-/** One simulated day as the API's observation columns and the rest of the request. */
-function dayRequest(sky: Partial<SkyOptions>, extra: Record<string, unknown> = {}) {
-  const s = simulateSky({ seed: 11, durationS: 86_400, grossErrors: 25, constellations: ['gps'], ...sky });
-  const iso = new Map<number, string>();
-  const columns = {
-    epoch: s.epochMs.map((ms) => iso.get(ms) ?? (iso.set(ms, new Date(ms).toISOString()), iso.get(ms)!)),
-    satellite: s.satellite,
-    elevation_deg: s.elevationRad.map((e) => e / DEG),
-    azimuth_deg: s.azimuthRad.map((a) => a / DEG),
-    residual_m: s.residualM,
-  };
-  const rest = {
-    site: { latitude_deg: s.options.latitudeDeg, longitude_deg: 7.4, height_m: s.options.heightM },
-    apriori: { zhd_m: 2.2 },
-    ...extra,
-  };
-  return { columns, rest };
-}
 
 /** A day through the estimation service, as the route runs it (body schema, adapters). */
 function estimatedDay(sky: Partial<SkyOptions>, extra: Record<string, unknown> = {}): ZwdEstimationResult {
@@ -142,59 +124,7 @@ describe('the Arrow answer written from the result, decoded as the answer object
   });
 
   it('over random results (fast-check): numbers of every kind, nulls, any text', () => {
-    const anyNumber = fc.oneof(fc.double(), fc.constantFrom(0, -0, 1e21, 1e-7, NaN, Infinity), fc.integer());
-    const anyNullable = fc.option(anyNumber, { nil: null });
-    const anyText = fc.oneof(fc.string(), fc.string({ unit: 'binary' }));
-    const anyEpochMs = fc.integer({ min: 0, max: 4_102_444_800_000 });
-    const epochRow = fc.record({
-      epoch: fc.record({
-        epochMs: anyEpochMs,
-        correctionM: anyNumber,
-        sigmaM: anyNumber,
-        northGradientM: anyNullable,
-        eastGradientM: anyNullable,
-        northGradientSigmaM: anyNullable,
-        eastGradientSigmaM: anyNullable,
-        epochBiasM: anyNullable,
-        observationsUsed: fc.nat(),
-      }),
-      zwd: fc.record({ zwdM: anyNumber, zhdM: anyNumber, zhdSource: fc.oneof(fc.constantFrom('met', 'met-bridged'), anyText) }),
-      met: fc.record({
-        met: fc.constantFrom('measured', 'interpolated', 'missing'),
-        zhdM: anyNullable,
-        tmK: anyNullable,
-        pwvMm: anyNullable,
-        pwvSigmaMm: anyNullable,
-        pwvTotalSigmaMm: anyNullable,
-      }),
-    });
-    const rejection = fc.record({
-      index: fc.nat(),
-      epochMs: anyEpochMs,
-      satellite: anyText,
-      residualM: anyNumber,
-      fittedResidualM: anyNumber,
-      normalizedResidual: anyNumber,
-    });
-    const result = fc
-      .record({
-        epochs: fc.array(epochRow, { maxLength: 6 }),
-        withMet: fc.boolean(),
-        rejected: fc.array(rejection, { maxLength: 3 }),
-        aprioriZwdM: anyNumber,
-        warnings: fc.array(anyText, { maxLength: 2 }),
-      })
-      .map(
-        (g) =>
-          ({
-            ...gpsLike,
-            estimate: { ...gpsLike.estimate, epochs: g.epochs.map((e) => e.epoch), rejected: g.rejected },
-            aprioriZwdM: g.aprioriZwdM,
-            epochZwd: g.epochs.map((e) => e.zwd),
-            epochMet: g.withMet ? g.epochs.map((e) => e.met) : null,
-            warnings: g.warnings.map((text) => ({ code: 'met-missing', text })),
-          }) as unknown as ZwdEstimationResult,
-      );
+    const result = anyZwdEstimationResult(gpsLike);
     const anyFields = fc.option(fc.array(fc.constantFrom(...ZWD_ANSWER_FIELD_NAMES), { minLength: 1, maxLength: 5 }), { nil: undefined });
     fc.assert(
       fc.property(result, anyFields, (r, fields) => expectSameArrowAnswer(r, arrow(fields))),
