@@ -18,7 +18,7 @@ export interface AnswerSize {
 
 /** Output nodes of an estimation over the epochs [ms] with the options' node intervals; zero nodes without epochs. */
 export function answerSize(
-  epochMs: readonly number[],
+  epochMs: Float64Array | readonly number[],
   options: Pick<ZwdOptionValues, 'zwdIntervalS' | 'gradients' | 'gradientIntervalS'>,
 ): AnswerSize {
   let first = Infinity;
@@ -39,7 +39,7 @@ export function answerSize(
  *   MAX_ANSWER_NODES output nodes
  */
 export function checkAnswerSize(
-  epochMs: readonly number[],
+  epochMs: Float64Array | readonly number[],
   options: Pick<ZwdOptionValues, 'zwdIntervalS' | 'gradients' | 'gradientIntervalS'>,
 ): void {
   const { zwdNodes, gradientNodes } = answerSize(epochMs, options);
