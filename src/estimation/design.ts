@@ -227,7 +227,8 @@ export function buildDesign(given: EstimationInput): Design {
     const i = inputIndex[s]!;
     const e = obs.elevationRad[i]!;
     // Allocated at the first σ the caller gave (NaN-filled: the weighting scheme's), so a request without any has none.
-    if (obs.sigmaM !== undefined && !Number.isNaN(obs.sigmaM[i]!)) (givenSigmaM ??= new Float64Array(m).fill(Number.NaN))[s] = obs.sigmaM[i]!;
+    if (obs.sigmaM !== undefined && !Number.isNaN(obs.sigmaM[i]!))
+      (givenSigmaM ??= new Float64Array(m).fill(Number.NaN))[s] = obs.sigmaM[i]!;
     residualM[s] = obs.residualM[i]!;
     const mg = chenHerringGradientMapping(e);
     northMapping[s] = mg * Math.cos(obs.azimuthRad[i]!);

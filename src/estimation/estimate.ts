@@ -15,7 +15,16 @@
 
 import { ModelDomainError } from '../domain/errors.js';
 import { epochInformation, kernelFactor, noiseInflation, type NoiseInflation } from './correlated-noise.js';
-import { buildDesign, initialWeighting, typedObservationColumns, locate, nodeEpochMs, setWeights, type Design, type NodeLayout } from './design.js';
+import {
+  buildDesign,
+  initialWeighting,
+  typedObservationColumns,
+  locate,
+  nodeEpochMs,
+  setWeights,
+  type Design,
+  type NodeLayout,
+} from './design.js';
 import { EpochStateSolver, hasEpochStates } from './epoch-states.js';
 import { SingularParameterError } from './frontal-ldl.js';
 import { epochStateRejectionWindowMs, nodeRejectionWindowMs, rejectionCandidates } from './outliers.js';
@@ -313,7 +322,13 @@ function solveNamed(
 }
 
 /** Which node is undetermined, how many observations touch it, and which constraint could fix it. */
-function singularMessage(design: Design, layout: ParameterLayout, input: TypedEstimationInput, used: Uint8Array, parameter: number): string {
+function singularMessage(
+  design: Design,
+  layout: ParameterLayout,
+  input: TypedEstimationInput,
+  used: Uint8Array,
+  parameter: number,
+): string {
   const { options } = input;
   const isZwd = parameter < layout.zwdCount;
   const isNorth = !isZwd && parameter < layout.eastOffset;
