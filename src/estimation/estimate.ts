@@ -39,7 +39,6 @@ import type {
   EstimationInput,
   RejectedObservation,
   TypedEstimationInput,
-  ZwdEstimationInput,
   ZwdEstimationOutput,
   ZwdNodeEstimate,
 } from './types.js';
