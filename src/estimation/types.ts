@@ -26,9 +26,9 @@ export interface ZwdObservationColumns {
 }
 
 /**
- * The same columns as Float64Arrays, σ NaN where the caller gave none: what the HTTP adapters give and the
- * estimator reads (an array input is copied into these once, estimate.ts typedObservationColumns), so that
- * its loops read one element kind at each site.
+ * The same columns as Float64Arrays, σ NaN where the caller gave none: what the estimator reads (an array
+ * input is copied into these once, design.ts typedObservationColumns), so that its loops read one element
+ * kind at each site; the JSON reader's and a prepared request's columns arrive in this form without a copy.
  */
 export interface TypedObservationColumns {
   epochMs: Float64Array;
@@ -133,7 +133,7 @@ export interface ZwdEstimationInput {
   options: ZwdEstimationOptions;
 }
 
-/** Observation columns either way: arrays (tests, the network estimator) or Float64Arrays (the HTTP adapters). */
+/** Observation columns either way: arrays (tests, the network estimator, parsed JSON) or Float64Arrays (the JSON reader's). */
 export type ObservationColumns = ZwdObservationColumns | TypedObservationColumns;
 
 /** ZwdEstimationInput with columns either way: what estimateZwd and buildDesign take. */
