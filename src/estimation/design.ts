@@ -20,7 +20,7 @@ import { chenHerringGradientMapping } from '../domain/gradients/gradient-mapping
 import { DEFAULT_MAPPING_MODEL, MAPPING_MODELS } from '../domain/mapping/registry.js';
 import { fractionalDayOfYear } from '../domain/time.js';
 import { selectInPlace } from './order-statistics.js';
-import type { ZwdEstimationInput } from './types.js';
+import type { EstimationInput, ObservationColumns, TypedEstimationInput, TypedObservationColumns, ZwdEstimationInput } from './types.js';
 
 /** Largest number of nodes of one parameter; more is a request error (interval too short for the span). */
 export const MAX_NODES = 200_000;
@@ -159,7 +159,8 @@ export interface Design {
  * @throws ModelDomainError 422 when no observation is above the cutoff, 400 for a duplicate
  *         (epoch, satellite) pair or too many nodes
  */
-export function buildDesign(input: ZwdEstimationInput): Design {
+export function buildDesign(given: EstimationInput): Design {
+  const input: TypedEstimationInput = { ...given, observations: typedObservationColumns(given.observations) };
   const obs = input.observations;
   const { options } = input;
   const n = obs.epochMs.length;
@@ -225,9 +226,9 @@ export function buildDesign(input: ZwdEstimationInput): Design {
   for (let s = 0; s < m; s++) {
     const i = inputIndex[s]!;
     const e = obs.elevationRad[i]!;
-    const given = obs.sigmaM?.[i];
     // Allocated at the first σ the caller gave (NaN-filled: the weighting scheme's), so a request without any has none.
-    if (given !== undefined && given !== null && !Number.isNaN(given)) (givenSigmaM ??= new Float64Array(m).fill(Number.NaN))[s] = given;
+    if (obs.sigmaM !== undefined && !Number.isNaN(obs.sigmaM[i]!))
+      (givenSigmaM ??= new Float64Array(m).fill(Number.NaN))[s] = obs.sigmaM[i]!;
     residualM[s] = obs.residualM[i]!;
     const mg = chenHerringGradientMapping(e);
     northMapping[s] = mg * Math.cos(obs.azimuthRad[i]!);
@@ -346,7 +347,7 @@ export function setWeights(
  * coefficients are prepared once; models with coefficients (VMF1 aw) once per epoch, with the
  * coefficients interpolated linearly in time (held constant outside the given epochs).
  */
-function wetMappingPerEpoch(input: ZwdEstimationInput, epochMs: Float64Array): (k: number) => (elevationRad: number) => number {
+function wetMappingPerEpoch(input: TypedEstimationInput, epochMs: Float64Array): (k: number) => (elevationRad: number) => number {
   const choice = input.options.wetMapping ?? { model: DEFAULT_MAPPING_MODEL };
   const model = MAPPING_MODELS[choice.model];
   if (!model) {
@@ -421,11 +422,35 @@ function satelliteIndices(satellite: readonly string[]): { index: Int32Array; co
 }
 
 /**
+ * The columns as Float64Arrays: those given as Float64Arrays as they are (the HTTP adapters', no copy),
+ * arrays copied once, σ null → NaN. The estimator's loops then read one element kind at each site
+ * (V8 deoptimises element reads that see both arrays and typed arrays).
+ */
+export function typedObservationColumns(o: ObservationColumns): TypedObservationColumns {
+  const typed = (c: Float64Array | readonly number[]) => (c instanceof Float64Array ? c : Float64Array.from(c));
+  let sigmaM: Float64Array | undefined;
+  if (o.sigmaM instanceof Float64Array) sigmaM = o.sigmaM;
+  else if (o.sigmaM) {
+    const sent = o.sigmaM;
+    sigmaM = new Float64Array(sent.length);
+    for (let i = 0; i < sent.length; i++) sigmaM[i] = sent[i] ?? Number.NaN;
+  }
+  return {
+    epochMs: typed(o.epochMs),
+    satellite: o.satellite,
+    elevationRad: typed(o.elevationRad),
+    azimuthRad: typed(o.azimuthRad),
+    residualM: typed(o.residualM),
+    sigmaM,
+  };
+}
+
+/**
  * A satellite observed twice at one epoch is a caller's mistake (400), named by both indices.
  * @param sortedByEpoch input indices in epoch order; null when the input is in epoch order
  */
 function checkDuplicates(
-  input: ZwdEstimationInput,
+  input: TypedEstimationInput,
   sortedByEpoch: Int32Array | null,
   satellites: { index: Int32Array; count: number },
 ): void {

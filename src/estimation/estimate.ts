@@ -15,7 +15,16 @@
 
 import { ModelDomainError } from '../domain/errors.js';
 import { epochInformation, kernelFactor, noiseInflation, type NoiseInflation } from './correlated-noise.js';
-import { buildDesign, initialWeighting, locate, nodeEpochMs, setWeights, type Design, type NodeLayout } from './design.js';
+import {
+  buildDesign,
+  initialWeighting,
+  typedObservationColumns,
+  locate,
+  nodeEpochMs,
+  setWeights,
+  type Design,
+  type NodeLayout,
+} from './design.js';
 import { EpochStateSolver, hasEpochStates } from './epoch-states.js';
 import { SingularParameterError } from './frontal-ldl.js';
 import { epochStateRejectionWindowMs, nodeRejectionWindowMs, rejectionCandidates } from './outliers.js';
@@ -27,8 +36,9 @@ import type {
   ElevationBandStatistics,
   EpochEstimate,
   GradientNodeEstimate,
+  EstimationInput,
   RejectedObservation,
-  ZwdEstimationInput,
+  TypedEstimationInput,
   ZwdEstimationOutput,
   ZwdNodeEstimate,
 } from './types.js';
@@ -51,8 +61,9 @@ export const BAND_REJECTION_WARNING = 0.02;
  * @throws ModelDomainError 400 for inconsistent input (duplicate (epoch, satellite), too many
  *         nodes), 422 when no observation is above the cutoff or a node is not determined
  */
-export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
-  checkColumns(input);
+export function estimateZwd(given: EstimationInput): ZwdEstimationOutput {
+  checkColumns(given);
+  const input: TypedEstimationInput = { ...given, observations: typedObservationColumns(given.observations) };
   const { options } = input;
   const design = buildDesign(input);
   const layout = parameterLayout(design);
@@ -187,7 +198,7 @@ export function estimateZwd(input: ZwdEstimationInput): ZwdEstimationOutput {
 }
 
 /** Window of "one-per-window" screening (outliers.ts) [ms]. */
-function rejectionWindowMs(input: ZwdEstimationInput, design: Design, layout: ParameterLayout, solution: Solution): number {
+function rejectionWindowMs(input: TypedEstimationInput, design: Design, layout: ParameterLayout, solution: Solution): number {
   const { options } = input;
   // Piecewise-linear ZWD nodes: the ZWD interval decides (as before issue 10).
   if (design.zwd.regular) return nodeRejectionWindowMs(options.zwd.intervalS);
@@ -225,7 +236,7 @@ function rejectionWindowMs(input: ZwdEstimationInput, design: Design, layout: Pa
  */
 function elevationBands(
   design: Design,
-  elevationRad: readonly number[],
+  elevationRad: Float64Array,
   solution: Solution,
   used: Uint8Array,
   rejectedDesign: readonly number[],
@@ -277,7 +288,7 @@ function elevationBands(
   return out;
 }
 
-function checkColumns(input: ZwdEstimationInput): void {
+function checkColumns(input: EstimationInput): void {
   const o = input.observations;
   const n = o.epochMs.length;
   for (const [name, column] of [
@@ -295,7 +306,7 @@ function checkColumns(input: ZwdEstimationInput): void {
 function solveNamed(
   design: Design,
   layout: ParameterLayout,
-  input: ZwdEstimationInput,
+  input: TypedEstimationInput,
   used: Uint8Array,
   epochStates: EpochStateSolver | null,
 ): Solution {
@@ -310,7 +321,13 @@ function solveNamed(
 }
 
 /** Which node is undetermined, how many observations touch it, and which constraint could fix it. */
-function singularMessage(design: Design, layout: ParameterLayout, input: ZwdEstimationInput, used: Uint8Array, parameter: number): string {
+function singularMessage(
+  design: Design,
+  layout: ParameterLayout,
+  input: TypedEstimationInput,
+  used: Uint8Array,
+  parameter: number,
+): string {
   const { options } = input;
   const isZwd = parameter < layout.zwdCount;
   const isNorth = !isZwd && parameter < layout.eastOffset;
@@ -406,7 +423,7 @@ function atNode(
 }
 
 function zwdNodes(
-  input: ZwdEstimationInput,
+  input: TypedEstimationInput,
   design: Design,
   layout: ParameterLayout,
   solution: Solution,
@@ -422,7 +439,7 @@ function zwdNodes(
 }
 
 function gradientNodes(
-  input: ZwdEstimationInput,
+  input: TypedEstimationInput,
   design: Design,
   layout: ParameterLayout,
   solution: Solution,

@@ -25,6 +25,20 @@ export interface ZwdObservationColumns {
   sigmaM?: (number | null)[] | undefined;
 }
 
+/**
+ * The same columns as Float64Arrays, σ NaN where the caller gave none: what the estimator reads (an array
+ * input is copied into these once, design.ts typedObservationColumns), so that its loops read one element
+ * kind at each site; the JSON reader's and a prepared request's columns arrive in this form without a copy.
+ */
+export interface TypedObservationColumns {
+  epochMs: Float64Array;
+  satellite: readonly string[];
+  elevationRad: Float64Array;
+  azimuthRad: Float64Array;
+  residualM: Float64Array;
+  sigmaM: Float64Array | undefined;
+}
+
 /** Node spacing and random-walk constraints of one piecewise-linear parameter (ZWD or a gradient component). */
 export interface PiecewiseLinearSettings {
   /** Node spacing Δ [s], > 0. */
@@ -117,6 +131,19 @@ export interface ZwdEstimationInput {
   heightM?: number | undefined;
   observations: ZwdObservationColumns;
   options: ZwdEstimationOptions;
+}
+
+/** Observation columns either way: arrays (tests, the network estimator, parsed JSON) or Float64Arrays (the JSON reader's). */
+export type ObservationColumns = ZwdObservationColumns | TypedObservationColumns;
+
+/** ZwdEstimationInput with columns either way: what estimateZwd and buildDesign take. */
+export interface EstimationInput extends Omit<ZwdEstimationInput, 'observations'> {
+  observations: ObservationColumns;
+}
+
+/** ZwdEstimationInput with typed columns: what the estimator reads. */
+export interface TypedEstimationInput extends Omit<ZwdEstimationInput, 'observations'> {
+  observations: TypedObservationColumns;
 }
 
 export interface ZwdNodeEstimate {

@@ -39,40 +39,20 @@ export function varianceComponents(
   givenScale: number,
   bound: number,
 ): { changed: boolean; weighting: { a: number; b: number }; givenScale: number } {
-  // Normal equations of the fit (sums for θ_a, θ_b) and the given-sigma factor.
-  let saa = 0,
-    sab = 0,
-    sbb = 0,
-    sa = 0,
-    sb = 0;
-  let givenOmega = 0,
-    givenRedundancy = 0;
-  for (const { design, fittedResidualM, residualVarianceM2, used } of parts) {
-    const givenSigmaM = design.givenSigmaM;
-    for (let s = 0; s < used.length; s++) {
-      if (!used[s]) continue;
-      // σ_i² as (√σ_i²)²: the square of σ_i as the sigma column held it (the same double as before).
-      const sigma2 = Math.sqrt(design.observationVarianceM2[s]!) ** 2;
-      const r = residualVarianceM2[s]! / sigma2;
-      if (!(r > 1e-6)) continue;
-      const v2 = fittedResidualM[s]! ** 2;
-      if (v2 > bound * residualVarianceM2[s]!) continue; // a rejection candidate: not noise
-      if (givenSigmaM !== null && !Number.isNaN(givenSigmaM[s]!)) {
-        givenOmega += v2 / sigma2;
-        givenRedundancy += r;
-        continue;
-      }
-      const g = 1 / design.sinElevationSquared[s]!;
-      const omega = 1 / (r * sigma2) ** 2;
-      const ua = r;
-      const ub = r * g;
-      saa += omega * ua * ua;
-      sab += omega * ua * ub;
-      sbb += omega * ub * ub;
-      sa += omega * ua * v2;
-      sb += omega * ub * v2;
+  // Normal equations of the fit (sums for θ_a, θ_b) and the given-sigma factor, part after part.
+  const sums = new Float64Array(SUMS);
+  for (const part of parts) {
+    for (let start = 0; start < part.used.length; start += SUMS_CHUNK) {
+      addPartSums(part, start, Math.min(start + SUMS_CHUNK, part.used.length), bound, sums);
     }
   }
+  const saa = sums[0]!,
+    sab = sums[1]!,
+    sbb = sums[2]!,
+    sa = sums[3]!,
+    sb = sums[4]!,
+    givenOmega = sums[5]!,
+    givenRedundancy = sums[6]!;
   let thetaA = current.a ** 2;
   let thetaB = current.b ** 2;
   if (scheme === 'elevation' && sbb > 0) thetaB = sb / sbb;
@@ -90,6 +70,64 @@ export function varianceComponents(
     Math.max(rel(thetaA, current.a ** 2), rel(thetaB, current.b ** 2), rel(nextGiven, givenScale)) > REWEIGHTING_TOLERANCE &&
     thetaA + thetaB > 0;
   return { changed, weighting: { a: Math.sqrt(thetaA), b: Math.sqrt(thetaB) }, givenScale: nextGiven };
+}
+
+/** Sums of varianceComponents: saa, sab, sbb, sa, sb, given-sigma Σ v²/σ², given-sigma Σ r. */
+const SUMS = 7;
+
+/** Observations per call of addPartSums. */
+const SUMS_CHUNK = 256;
+
+/**
+ * The terms of a part's observations start..end−1 added to the sums, in order (the same additions, in the
+ * same order, as one loop over all). A short loop in a function of its own: V8 optimises it whole after a
+ * few calls, with type feedback for every statement. As one long loop inside varianceComponents, it was
+ * compiled by on-stack replacement during its first run, before the statements after it had ever run; that
+ * code deoptimised there on every later call ("insufficient type feedback") and the loop mostly ran
+ * unoptimised, boxing every double (issue 14: ~10 MB of heap numbers a GPS-like request when it happened).
+ */
+function addPartSums(part: VarianceComponentPart, start: number, end: number, bound: number, sums: Float64Array): void {
+  const { design, fittedResidualM, residualVarianceM2, used } = part;
+  const givenSigmaM = design.givenSigmaM;
+  const variance = design.observationVarianceM2;
+  const sinElevationSquared = design.sinElevationSquared;
+  let saa = sums[0]!,
+    sab = sums[1]!,
+    sbb = sums[2]!,
+    sa = sums[3]!,
+    sb = sums[4]!,
+    givenOmega = sums[5]!,
+    givenRedundancy = sums[6]!;
+  for (let s = start; s < end; s++) {
+    if (!used[s]) continue;
+    // σ_i² as (√σ_i²)²: the square of σ_i as the sigma column held it (the same double as before).
+    const sigma2 = Math.sqrt(variance[s]!) ** 2;
+    const r = residualVarianceM2[s]! / sigma2;
+    if (!(r > 1e-6)) continue;
+    const v2 = fittedResidualM[s]! ** 2;
+    if (v2 > bound * residualVarianceM2[s]!) continue; // a rejection candidate: not noise
+    if (givenSigmaM !== null && !Number.isNaN(givenSigmaM[s]!)) {
+      givenOmega += v2 / sigma2;
+      givenRedundancy += r;
+      continue;
+    }
+    const g = 1 / sinElevationSquared[s]!;
+    const omega = 1 / (r * sigma2) ** 2;
+    const ua = r;
+    const ub = r * g;
+    saa += omega * ua * ua;
+    sab += omega * ua * ub;
+    sbb += omega * ub * ub;
+    sa += omega * ua * v2;
+    sb += omega * ub * v2;
+  }
+  sums[0] = saa;
+  sums[1] = sab;
+  sums[2] = sbb;
+  sums[3] = sa;
+  sums[4] = sb;
+  sums[5] = givenOmega;
+  sums[6] = givenRedundancy;
 }
 
 /** (k σ̂0)²: |v| above k σ̂0 σ_v is a rejection candidate; Infinity without screening. */

@@ -175,6 +175,22 @@ const MAX_PROBES = 64;
  * Distinct texts by their bytes (open addressing on an FNV-1a hash): a text is decoded, checked and
  * stored once, and each row gets its index.
  */
+/** Longest text made by one String.fromCharCode call (its arguments go on the stack); longer ones in pieces. */
+const TEXT_PIECE = 1024;
+
+/**
+ * The text of bytes [start, end) (printable ASCII, checked by the caller) as one string: one call per piece
+ * instead of a string per character (issue 14: `text +=` a character made ~1.8 MB of intermediate strings a
+ * GPS-like day, 20 per epoch text).
+ */
+function asciiText(b: Uint8Array, start: number, end: number): string {
+  let text = '';
+  for (let p = start; p < end; p += TEXT_PIECE) {
+    text += String.fromCharCode.apply(null, b.subarray(p, Math.min(p + TEXT_PIECE, end)) as unknown as number[]);
+  }
+  return text;
+}
+
 class TextInterner {
   private slots = new Int32Array(1024); // distinct index + 1; 0 = empty
   private starts: number[] = [];
@@ -212,8 +228,7 @@ class TextInterner {
       }
       slot = (slot + 1) & mask;
     }
-    let text = '';
-    for (let j = start; j < end; j++) text += String.fromCharCode(b[j]!);
+    const text = asciiText(b, start, end);
     if (!this.accept(text)) throw NOT_READ;
     const k = this.distinct.push(text) - 1;
     this.starts.push(start);

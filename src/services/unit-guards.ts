@@ -26,7 +26,7 @@ const median = (v: readonly number[]): number => medianInPlace(Float64Array.from
  * naming `observations` with what was measured and how to fix it.
  * @param epochMs epoch of each observation [ms]; @param residualM residual [m, as sent]
  */
-export function guardResidualUnit(epochMs: readonly number[], residualM: readonly number[]): void {
+export function guardResidualUnit(epochMs: Float64Array | readonly number[], residualM: Float64Array | readonly number[]): void {
   const n = epochMs.length;
   // The observations grouped by epoch: in input order when the epochs are sorted (the usual case), else
   // by a sort on the epoch (the order within an epoch does not change a median). Typed arrays and no

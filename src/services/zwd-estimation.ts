@@ -19,12 +19,14 @@ import { conversionFactor } from '../domain/water-vapour/conversion.js';
 import { precipitableWaterFromSurfaceMet } from '../domain/water-vapour/precipitable-water.js';
 import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
 import { estimateZwd } from '../estimation/estimate.js';
+import { typedObservationColumns } from '../estimation/design.js';
 import type {
   EpochEstimate,
   WetMappingChoice,
   ZwdEstimationOptions,
   ZwdEstimationOutput,
-  ZwdObservationColumns,
+  ObservationColumns,
+  TypedObservationColumns,
 } from '../estimation/types.js';
 import { STORED_ZTD_RANGE_M, STORED_ZWD_RANGE_M } from '../limits.js';
 import { CallerError } from './caller-error.js';
@@ -42,7 +44,7 @@ import { optionModels, type ZwdOptionValues } from './zwd-options.js';
 
 export interface ZwdEstimationRequest {
   site: Site;
-  observations: ZwdObservationColumns;
+  observations: ObservationColumns;
   /** The a-priori delays the residuals were formed with [m]; absent ZHD = standard atmosphere, absent ZWD = 0. */
   apriori: { zhdM?: number | undefined; zwdM?: number | undefined };
   /** Surface met at the site height, in any order (a repeated epoch is refused, naming `met.<index>`). */
@@ -258,11 +260,13 @@ function metPerEpoch(
  */
 export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationResult {
   const { site, options } = request;
-  checkAnswerSize(request.observations.epochMs, options);
+  // Float64Arrays from here on (the HTTP adapters' as they are, arrays copied once): one element kind in every loop.
+  const observations = typedObservationColumns(request.observations);
+  checkAnswerSize(observations.epochMs, options);
   const latitudeRad = site.latitudeDeg * DEG;
   const warnings: Warning[] = [];
-  guardObservations(request, warnings);
-  const wetMapping = wetMappingChoice(request);
+  guardObservations(observations, warnings, request.metRelativeHumidityPct);
+  const wetMapping = wetMappingChoice(request, observations.epochMs);
   // The standard atmosphere and the mapping functions are defined on heights above mean sea level.
   const heights = siteHeights(site.latitudeDeg, site.longitudeDeg, site.heightM);
   const zhdSource = request.apriori.zhdM === undefined ? ('standard-atmosphere' as const) : ('caller' as const);
@@ -278,11 +282,11 @@ export function runZwdEstimation(request: ZwdEstimationRequest): ZwdEstimationRe
     );
   }
 
-  guardResidualUnit(request.observations.epochMs, request.observations.residualM);
+  guardResidualUnit(observations.epochMs, observations.residualM);
   const estimate = estimateZwd({
     latitudeRad,
     heightM: heights.aboveSeaLevelM,
-    observations: request.observations,
+    observations,
     options: { ...toEstimatorOptions(options), wetMapping },
   });
   warnings.push(...estimate.warnings.map((text) => warning('estimator', text)));
@@ -360,20 +364,24 @@ export function seriesZwd(
 }
 
 /** Unit guards on the request (unit-guards.ts): refusals throw, warnings are added to `warnings`. */
-function guardObservations(request: ZwdEstimationRequest, warnings: Warning[]): void {
-  const { elevationRad, azimuthRad } = request.observations;
+function guardObservations(
+  observations: TypedObservationColumns,
+  warnings: Warning[],
+  metRelativeHumidityPct: ZwdEstimationRequest['metRelativeHumidityPct'],
+): void {
+  const { elevationRad, azimuthRad } = observations;
   // The angles in degrees, one column after the other in one typed array (8 bytes an observation),
   // instead of a new array of numbers per column.
   const degrees = new Float64Array(elevationRad.length);
-  const toDeg = (v: readonly number[]) => {
+  const toDeg = (v: Float64Array) => {
     for (let i = 0; i < v.length; i++) degrees[i] = v[i]! / DEG;
     return degrees;
   };
   elevationUnitGuard(toDeg(elevationRad), { field: 'observations', refuseElevations: true });
   const azimuth = azimuthUnitWarning(toDeg(azimuthRad), 'observations');
   if (azimuth) warnings.push(azimuth);
-  if (request.metRelativeHumidityPct) {
-    const rh = relativeHumidityUnitWarning('met.relative_humidity_pct', request.metRelativeHumidityPct);
+  if (metRelativeHumidityPct) {
+    const rh = relativeHumidityUnitWarning('met.relative_humidity_pct', metRelativeHumidityPct);
     if (rh) warnings.push(rh);
   }
 }
@@ -383,7 +391,7 @@ function guardObservations(request: ZwdEstimationRequest, warnings: Warning[]): 
  * which must bracket every observation epoch (a 400 naming `vmf1_coefficients` otherwise: the
  * estimator would hold the end values, an extrapolation nobody asked for).
  */
-function wetMappingChoice(request: ZwdEstimationRequest): WetMappingChoice {
+function wetMappingChoice(request: ZwdEstimationRequest, observationEpochMs: Float64Array): WetMappingChoice {
   const model = request.options.wetMapping as MappingModelKey;
   const c = request.vmf1Coefficients;
   if (!MAPPING_MODELS[model].requiresCoefficients) {
@@ -418,7 +426,7 @@ function wetMappingChoice(request: ZwdEstimationRequest): WetMappingChoice {
   const last = c.epochMs[order[order.length - 1]!]!;
   let obsFirst = Number.POSITIVE_INFINITY;
   let obsLast = Number.NEGATIVE_INFINITY;
-  for (const t of request.observations.epochMs) {
+  for (const t of observationEpochMs) {
     if (t < obsFirst) obsFirst = t;
     if (t > obsLast) obsLast = t;
   }

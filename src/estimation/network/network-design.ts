@@ -218,16 +218,18 @@ export function stationDesigns(columns: NetworkColumns, subsets: StationSubset[]
   const stationOptions: ZwdEstimationOptions = { ...options, parametrisation: 'nodes' };
   return subsets.map((st) => {
     const pick = <T>(c: readonly T[]) => st.observations.map((i) => c[i]!);
+    // Numbers straight into the Float64Arrays the estimator reads (no second copy there); σ null → NaN.
+    const pickNumbers = (c: readonly (number | null)[]) => Float64Array.from(st.observations, (i) => c[i] ?? Number.NaN);
     try {
       return buildDesign({
         latitudeRad: st.latitudeRad,
         observations: {
-          epochMs: pick(columns.epochMs),
+          epochMs: pickNumbers(columns.epochMs),
           satellite: pick(columns.satellite),
-          elevationRad: pick(columns.elevationRad),
-          azimuthRad: pick(columns.azimuthRad),
-          residualM: pick(columns.residualM),
-          sigmaM: columns.sigmaM ? pick(columns.sigmaM) : undefined,
+          elevationRad: pickNumbers(columns.elevationRad),
+          azimuthRad: pickNumbers(columns.azimuthRad),
+          residualM: pickNumbers(columns.residualM),
+          sigmaM: columns.sigmaM ? pickNumbers(columns.sigmaM) : undefined,
         },
         options: stationOptions,
       });

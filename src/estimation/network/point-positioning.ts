@@ -29,17 +29,19 @@ export interface PointPositioningStation {
 export function pointPositioning(input: NetworkEstimationInput, subset: StationSubset): PointPositioningStation {
   const o = input.observations;
   const pick = <T>(c: readonly T[]) => subset.observations.map((i) => c[i]!);
+  // Numbers straight into the Float64Arrays the estimator reads (no second copy there); σ null → NaN.
+  const pickNumbers = (c: readonly (number | null)[]) => Float64Array.from(subset.observations, (i) => c[i] ?? Number.NaN);
   let output: ZwdEstimationOutput;
   try {
     output = estimateZwd({
       latitudeRad: subset.latitudeRad,
       observations: {
-        epochMs: pick(o.epochMs),
+        epochMs: pickNumbers(o.epochMs),
         satellite: pick(o.satellite),
-        elevationRad: pick(o.elevationRad),
-        azimuthRad: pick(o.azimuthRad),
-        residualM: pick(o.residualM),
-        sigmaM: o.sigmaM ? pick(o.sigmaM) : undefined,
+        elevationRad: pickNumbers(o.elevationRad),
+        azimuthRad: pickNumbers(o.azimuthRad),
+        residualM: pickNumbers(o.residualM),
+        sigmaM: o.sigmaM ? pickNumbers(o.sigmaM) : undefined,
       },
       options: input.options,
     });

@@ -7,7 +7,7 @@ import { DEG } from '../../domain/constants.js';
 import type { Site } from '../../domain/site.js';
 import type { MetColumns } from '../../services/station-met.js';
 import { warningTexts } from '../../services/warnings.js';
-import type { EpochEstimate, ZwdObservationColumns } from '../../estimation/types.js';
+import type { EpochEstimate, ObservationColumns, TypedObservationColumns, ZwdObservationColumns } from '../../estimation/types.js';
 import type { EpochMetResult, EpochZwd, ZwdEstimationRequest, ZwdEstimationResult } from '../../services/zwd-estimation.js';
 import { GRADIENTS_GROUP, ZWD_OPTIONS, type OptionSpec, type ZwdOptionValues } from '../../services/zwd-options.js';
 import { isoEpochText } from '../../formats/iso-epoch-text.js';
@@ -243,13 +243,46 @@ export function observationsFromJsonColumns(read: JsonColumnsBody): ZwdObservati
 }
 
 /**
+ * Observation columns read in one pass from the JSON body → the estimator's typed columns, taking the
+ * reader's columns over: the angles scaled to radians in place, residuals and σ (NaN for a row without
+ * one; absent when no row has one) as they are, epochs parsed once per distinct text. The read must not
+ * be used after. The same values as observationsFromJsonColumns gives, without a copy of the numbers
+ * (issue 14: the arrays of numbers were ~1.3 ms and 0.8 MB of garbage a GPS-like day).
+ */
+export function typedObservationsFromJsonColumns(read: JsonColumnsBody): TypedObservationColumns {
+  const n = read.rows;
+  const epochs = read.texts.epoch!;
+  const msOf = epochs.distinct.map((text) => Date.parse(text));
+  const epochMs = new Float64Array(n);
+  for (let i = 0; i < n; i++) epochMs[i] = msOf[epochs.index[i]!]!;
+  const satellites = read.texts.satellite!;
+  const satellite = new Array<string>(n);
+  for (let i = 0; i < n; i++) satellite[i] = satellites.distinct[satellites.index[i]!]!;
+  const { elevation_deg: elevationRad, azimuth_deg: azimuthRad, residual_m: residualM, sigma_m: sigma } = read.numbers;
+  for (let i = 0; i < n; i++) {
+    elevationRad![i]! *= DEG;
+    azimuthRad![i]! *= DEG;
+  }
+  let anySigma = false;
+  if (sigma) for (let i = 0; i < n && !anySigma; i++) anySigma = !Number.isNaN(sigma[i]!);
+  return {
+    epochMs,
+    satellite,
+    elevationRad: elevationRad!,
+    azimuthRad: azimuthRad!,
+    residualM: residualM!,
+    sigmaM: anySigma ? sigma : undefined,
+  };
+}
+
+/**
  * The validated body (site from the body or the station) and its observations in domain columns → the
  * domain request. `storedMet` serves when the body has no met.
  */
 export function toZwdRequest(
   site: Site,
   body: Omit<ZwdEstimationBody, 'observations'>,
-  observations: ZwdObservationColumns,
+  observations: ObservationColumns,
   storedMet?: MetColumns,
 ): ZwdEstimationRequest {
   const met: MetColumns | undefined = body.met

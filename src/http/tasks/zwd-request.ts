@@ -18,15 +18,15 @@ import { CallerError } from '../../services/caller-error.js';
 import type { MetColumns } from '../../services/station-met.js';
 import { checkStorableDelays, checkStorableZwd, delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
-import type { ZwdObservationColumns } from '../../estimation/types.js';
+import type { ObservationColumns, TypedObservationColumns } from '../../estimation/types.js';
 import { MAX_OBSERVATIONS } from '../../limits.js';
 import { readJsonColumnsBody, type JsonColumnsBody } from '../../formats/json-columns-reader.js';
 import {
   checkedObservationColumns,
   observationsFromColumns,
-  observationsFromJsonColumns,
   observationsFromObjects,
   toZwdRequest,
+  typedObservationsFromJsonColumns,
   zwdEstimatesResponseOf,
 } from '../adapters/zwd-estimation.js';
 import { zwdEstimatesAnswer } from '../adapters/zwd-estimates-answer.js';
@@ -179,18 +179,18 @@ type Validated =
       ok: true;
       body: Omit<ZwdEstimationBody, 'observations'>;
       /** The observations as domain columns, or (read in one pass) as the reader's columns. */
-      observations: ZwdObservationColumns | JsonColumnsBody;
+      observations: ObservationColumns | JsonColumnsBody;
       site?: Site;
     }
   | { ok: false; outcome: TaskOutcome<never> };
 
-const isReadColumns = (o: ZwdObservationColumns | JsonColumnsBody): o is JsonColumnsBody => 'rows' in o;
+const isReadColumns = (o: ObservationColumns | JsonColumnsBody): o is JsonColumnsBody => 'rows' in o;
 
-/** The validated body with its observations as domain columns (those read in one pass converted). */
+/** The validated body with its observations as domain columns (those read in one pass taken over as typed columns). */
 const inDomainColumns = (v: Validated): Validated =>
-  v.ok && isReadColumns(v.observations) ? { ...v, observations: observationsFromJsonColumns(v.observations) } : v;
+  v.ok && isReadColumns(v.observations) ? { ...v, observations: typedObservationsFromJsonColumns(v.observations) } : v;
 
-function preparedOf(body: Omit<ZwdEstimationBody, 'observations'>, o: ZwdObservationColumns): PreparedRequest {
+function preparedOf(body: Omit<ZwdEstimationBody, 'observations'>, o: ObservationColumns): PreparedRequest {
   const n = o.epochMs.length;
   const index = new Map<string, number>();
   const satellites: string[] = [];
@@ -244,18 +244,18 @@ function preparedOfRead(body: Omit<ZwdEstimationBody, 'observations'>, read: Jso
   };
 }
 
-function observationsOfPrepared(p: PreparedRequest): ZwdObservationColumns {
+/** A prepared request's columns as the estimator's typed columns: its own arrays, taken over (no copy). */
+function observationsOfPrepared(p: PreparedRequest): TypedObservationColumns {
   const n = p.epochMs.length;
   const satellite = new Array<string>(n);
   for (let i = 0; i < n; i++) satellite[i] = p.satellites[p.satelliteIndex[i]!]!;
-  const sigma = p.sigmaM;
   return {
-    epochMs: Array.from(p.epochMs),
+    epochMs: p.epochMs,
     satellite,
-    elevationRad: Array.from(p.elevationRad),
-    azimuthRad: Array.from(p.azimuthRad),
-    residualM: Array.from(p.residualM),
-    sigmaM: sigma && Array.from(sigma, (v) => (Number.isNaN(v) ? null : v)),
+    elevationRad: p.elevationRad,
+    azimuthRad: p.azimuthRad,
+    residualM: p.residualM,
+    sigmaM: p.sigmaM,
   };
 }
 
@@ -284,7 +284,7 @@ function validatedRest(
 function validatedBody(raw: unknown, siteKnown: boolean): Validated {
   const given = (raw ?? {}) as { observations?: unknown };
   const columnar = isColumnObject(given.observations);
-  let observations: ZwdObservationColumns | undefined;
+  let observations: ObservationColumns | undefined;
   if (columnar) observations = checkedObservationColumns(given.observations, OBSERVATION_COLUMNS, MAX_OBSERVATIONS);
   if (columnar && !observations) {
     // Something is off: the full check names the column and the row.
@@ -344,7 +344,7 @@ export async function zwdRequestTask(input: ZwdRequestTaskInput): Promise<TaskOu
     input.prepared = undefined;
     if (!validated.ok) return validated.outcome;
     const { body } = validated;
-    const observations = validated.observations as ZwdObservationColumns;
+    const observations = validated.observations as ObservationColumns;
     const site = station?.site ?? validated.site!;
     const request = toZwdRequest(site, body, observations, station?.storedMet);
     const count = observations.epochMs.length;
