@@ -11,23 +11,41 @@
  *   runZwdEstimation, target ≤ 2×; and the estimator alone), and the station-days per CPU-second that makes
  *   (target ≥ 30 per replica); beside it the lighter answers (`shape=columns`, and Arrow in and out) and the
  *   edge each leaves (through HTTP − in-process service). `BENCH_PART=estimation npm run bench -- columns`
- *   runs this part only. /proc counts CPU in ticks of 10 ms, so the service's CPU is read per block of
+ *   runs this part only; BENCH_FROM_DIST=1 runs the service and the in-process side from dist/. /proc counts
+ *   CPU in ticks of 10 ms, so the service's CPU is read per block of
  *   requests back to back (`blockSize` of DAYS: 0.5–0.7 s of CPU a block quiet, a tick is ≤ 2 % of it) and
  *   divided by the block's requests; the four request forms take turns block by block, 6 blocks each, so
  *   that a change of load falls on all of them.
  * Ranges over rounds or blocks (min–max), after warm-up.
  */
 
-import { readFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { tableFromArrays, tableToIPC, type Table } from 'apache-arrow';
 import { DEG } from '../src/domain/constants.js';
 import { MAPPING_MODEL_KEYS } from '../src/domain/mapping/registry.js';
-import { estimateZwd } from '../src/estimation/estimate.js';
-import { runZwdEstimation, toEstimatorOptions } from '../src/services/zwd-estimation.js';
 import { startServerProcess, type ServerProcess } from '../test/helpers/server-process.js';
-import { observationsFromColumns, toZwdRequest } from '../src/http/adapters/zwd-estimation.js';
-import { zwdEstimatesRequest } from '../src/http/schemas/zwd-estimates.js';
 import { dayRequest } from '../test/helpers/gps-like-days.js';
+
+/**
+ * BENCH_FROM_DIST=1: the service as `npm start` runs it (node dist/server.js) and the in-process functions from
+ * the same tsc output (dist/, built beforehand: `npx tsc -p tsconfig.build.json`), so that both sides of the ratio
+ * run the code a replica runs; otherwise both from the TypeScript sources under tsx (as the tests run them).
+ */
+const FROM_DIST = process.env.BENCH_FROM_DIST === '1';
+const root = FROM_DIST ? '../dist' : '../src';
+type Modules = [
+  typeof import('../src/estimation/estimate.js'),
+  typeof import('../src/services/zwd-estimation.js'),
+  typeof import('../src/http/adapters/zwd-estimation.js'),
+  typeof import('../src/http/schemas/zwd-estimates.js'),
+];
+const [{ estimateZwd }, { runZwdEstimation, toEstimatorOptions }, { observationsFromColumns, toZwdRequest }, { zwdEstimatesRequest }] =
+  (await Promise.all([
+    import(`${root}/estimation/estimate.js`),
+    import(`${root}/services/zwd-estimation.js`),
+    import(`${root}/http/adapters/zwd-estimation.js`),
+    import(`${root}/http/schemas/zwd-estimates.js`),
+  ])) as Modules;
 
 const ARROW = 'application/vnd.apache.arrow.stream';
 const N = 10_000;
@@ -250,7 +268,7 @@ async function estimationDayLines(server: ServerProcess, name: string, day: (typ
   const loopMs = (f: Form) => ms(perForm.get(f)!.loop);
   return [
     `one realistic day, ${name}: ${bodies.count} observations, default options (${solutions} solutions); CPU per day, median (range):`,
-    `  through HTTP: service CPU from /proc per block of ${blockSize} requests back to back ÷ ${blockSize}, ${BLOCKS} blocks per form, the four forms by turns; load average ${loadBefore} → ${loadAfter}`,
+    `  ${FROM_DIST ? 'service and in-process code from dist/ (as npm start runs it)' : 'service and in-process code under tsx (BENCH_FROM_DIST=1: from dist/)'}; through HTTP: service CPU from /proc per block of ${blockSize} requests back to back ÷ ${blockSize}, ${BLOCKS} blocks per form, the four forms by turns; load average ${loadBefore} → ${loadAfter}`,
     `  through HTTP, service process: columns JSON (${(columnsBody.length / 1e6).toFixed(1)} MB) ${ms(columns)}, objects JSON (${(objectsBody.length / 1e6).toFixed(1)} MB) ${ms(objects)}`,
     `  through HTTP, lighter answers: columns JSON in, shape=columns out ${ms(columnsOut)}; Arrow in and out (${(arrowBody.length / 1e6).toFixed(1)} MB) ${ms(arrow)}`,
     `  in-process: estimation service (runZwdEstimation) ${ms(service)}, estimator alone (estimateZwd) ${ms(estimator)}`,
@@ -267,7 +285,8 @@ async function estimationLines(server: ServerProcess): Promise<string[]> {
 }
 
 export default async function bench(): Promise<string[]> {
-  const server = await startServerProcess({}, true);
+  if (FROM_DIST && !existsSync('dist/server.js')) throw new Error('BENCH_FROM_DIST=1: build dist/ first (npx tsc -p tsconfig.build.json)');
+  const server = await startServerProcess({}, true, FROM_DIST);
   try {
     // BENCH_PART=slant or estimation runs one part only.
     const part = process.env.BENCH_PART;

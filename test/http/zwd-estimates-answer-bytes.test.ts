@@ -14,14 +14,13 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { zwdEstimatesAnswer } from '../../src/http/adapters/zwd-estimates-answer.js';
-import { observationsFromColumns, toZwdRequest, zwdEstimatesResponseOf } from '../../src/http/adapters/zwd-estimation.js';
+import { zwdEstimatesResponseOf } from '../../src/http/adapters/zwd-estimation.js';
 import type { AnswerShape } from '../../src/http/answer-shape.js';
-import { ZWD_ANSWER_FIELD_NAMES, ZWD_ANSWER_TABLES, zwdEstimatesRequest } from '../../src/http/schemas/zwd-estimates.js';
+import { ZWD_ANSWER_FIELD_NAMES, ZWD_ANSWER_TABLES } from '../../src/http/schemas/zwd-estimates.js';
 import { tableAnswer } from '../../src/http/table-answer.js';
-import { runZwdEstimation, type ZwdEstimationResult } from '../../src/services/zwd-estimation.js';
-import { type SkyOptions } from '../helpers/realistic-sky.js';
+import type { ZwdEstimationResult } from '../../src/services/zwd-estimation.js';
 import { anyZwdEstimationResult } from '../helpers/estimation-result-arbitrary.js';
-import { dayRequest } from '../helpers/gps-like-days.js';
+import { estimatedDay, metRecords } from '../helpers/estimated-day.js';
 
 /** The rows answer as it was built before: JSON.stringify of the answer objects, encoded by TextEncoder. */
 const referenceRowsBytes = (r: ZwdEstimationResult) => Buffer.from(new TextEncoder().encode(JSON.stringify(zwdEstimatesResponseOf(r))));
@@ -43,26 +42,6 @@ const SELECTIONS: (string[] | undefined)[] = [
   ['zwd_nodes.epoch', 'zwd_nodes.zwd_m'],
   ['zwd_m', 'zwd_m', 'tm_k'],
 ];
-
-/** A day of the sky simulation through the estimation service, as the route runs it (body schema, adapters). */
-function estimatedDay(sky: Partial<SkyOptions>, extra: Record<string, unknown> = {}): ZwdEstimationResult {
-  const { columns: observations, rest: body } = dayRequest(sky, extra);
-  // The rest of the body through its schema (defaults applied), the observation columns converted as the route does.
-  const first = { epoch: observations.epoch[0], satellite: observations.satellite[0], elevation_deg: 45, azimuth_deg: 0, residual_m: 0 };
-  const parsed = zwdEstimatesRequest.parse({ ...body, observations: [first] });
-  const site = { latitudeDeg: parsed.site.latitude_deg, longitudeDeg: parsed.site.longitude_deg, heightM: parsed.site.height_m };
-  return runZwdEstimation(toZwdRequest(site, parsed, observationsFromColumns(observations)));
-}
-
-/** Met records every 10 min over the first 14 h of the day (then none: the rest of the series has met "missing"). */
-function metRecords(dayStartMs: number) {
-  return Array.from({ length: 85 }, (_, i) => ({
-    epoch: new Date(dayStartMs + i * 600_000).toISOString(),
-    pressure_hpa: 955 + 3 * Math.sin(i / 20),
-    temperature_c: 12 + 6 * Math.sin(i / 30),
-    ...(i % 2 === 0 ? { relative_humidity_pct: 60 } : {}),
-  }));
-}
 
 function expectSameBytesInEveryShape(r: ZwdEstimationResult): void {
   for (const fields of SELECTIONS) {

@@ -17,14 +17,14 @@ import { Dictionary, Float64, Int32, Table, Utf8, tableFromIPC, tableToIPC, vect
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { zwdEstimatesArrowAnswer } from '../../src/http/adapters/zwd-estimates-arrow.js';
-import { observationsFromColumns, toZwdRequest, zwdEstimatesResponseOf } from '../../src/http/adapters/zwd-estimation.js';
+import { zwdEstimatesResponseOf } from '../../src/http/adapters/zwd-estimation.js';
 import { readArrowRequest, type AnswerShape } from '../../src/http/answer-shape.js';
-import { ZWD_ANSWER_FIELD_NAMES, ZWD_ANSWER_TABLES, zwdEstimatesRequest } from '../../src/http/schemas/zwd-estimates.js';
+import { ZWD_ANSWER_FIELD_NAMES, ZWD_ANSWER_TABLES } from '../../src/http/schemas/zwd-estimates.js';
 import { tableAnswer } from '../../src/http/table-answer.js';
 import { handleZwdRequest } from '../../src/http/tasks/zwd-request.js';
-import { runZwdEstimation, type ZwdEstimationResult } from '../../src/services/zwd-estimation.js';
-import { type SkyOptions } from '../helpers/realistic-sky.js';
+import type { ZwdEstimationResult } from '../../src/services/zwd-estimation.js';
 import { anyZwdEstimationResult } from '../helpers/estimation-result-arbitrary.js';
+import { estimatedDay, metRecords } from '../helpers/estimated-day.js';
 import { dayRequest } from '../helpers/gps-like-days.js';
 
 const arrow = (fields?: string[]): AnswerShape => ({ shape: 'rows', format: 'arrow', fields });
@@ -63,25 +63,6 @@ const SELECTIONS: (string[] | undefined)[] = [
   ['zwd_nodes.epoch', 'zwd_nodes.zwd_m'],
   ['zwd_m', 'zwd_m', 'tm_k'],
 ];
-
-/** A day through the estimation service, as the route runs it (body schema, adapters). */
-function estimatedDay(sky: Partial<SkyOptions>, extra: Record<string, unknown> = {}): ZwdEstimationResult {
-  const { columns, rest } = dayRequest(sky, extra);
-  const first = { epoch: columns.epoch[0], satellite: columns.satellite[0], elevation_deg: 45, azimuth_deg: 0, residual_m: 0 };
-  const parsed = zwdEstimatesRequest.parse({ ...rest, observations: [first] });
-  const site = { latitudeDeg: parsed.site.latitude_deg, longitudeDeg: parsed.site.longitude_deg, heightM: parsed.site.height_m };
-  return runZwdEstimation(toZwdRequest(site, parsed, observationsFromColumns(columns)));
-}
-
-/** Met records every 10 min over the first 14 h of the day (then none: the rest of the series has met "missing"). */
-function metRecords(dayStartMs: number) {
-  return Array.from({ length: 85 }, (_, i) => ({
-    epoch: new Date(dayStartMs + i * 600_000).toISOString(),
-    pressure_hpa: 955 + 3 * Math.sin(i / 20),
-    temperature_c: 12 + 6 * Math.sin(i / 30),
-    ...(i % 2 === 0 ? { relative_humidity_pct: 60 } : {}),
-  }));
-}
 
 describe('the Arrow answer written from the result, decoded as the answer objects + tableAnswer', () => {
   const gpsLike = estimatedDay({});
