@@ -18,6 +18,7 @@ import { CallerError } from '../../services/caller-error.js';
 import type { MetColumns } from '../../services/station-met.js';
 import { checkStorableDelays, checkStorableZwd, delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
+import { typedObservationColumns } from '../../estimation/design.js';
 import type { ObservationColumns, TypedObservationColumns } from '../../estimation/types.js';
 import { MAX_OBSERVATIONS } from '../../limits.js';
 import { readJsonColumnsBody, type JsonColumnsBody } from '../../formats/json-columns-reader.js';
@@ -186,9 +187,20 @@ type Validated =
 
 const isReadColumns = (o: ObservationColumns | JsonColumnsBody): o is JsonColumnsBody => 'rows' in o;
 
-/** The validated body with its observations as domain columns (those read in one pass taken over as typed columns). */
+/**
+ * The validated body with its observations as the estimator's typed columns: those read in one pass taken over,
+ * the others (Arrow, objects, CSV, JSON the reader left to JSON.parse) copied once here, so that their arrays are
+ * garbage before the estimation instead of held beside the estimator's own copy (+33 MB at 30 days).
+ */
 const inDomainColumns = (v: Validated): Validated =>
-  v.ok && isReadColumns(v.observations) ? { ...v, observations: typedObservationsFromJsonColumns(v.observations) } : v;
+  v.ok
+    ? {
+        ...v,
+        observations: isReadColumns(v.observations)
+          ? typedObservationsFromJsonColumns(v.observations)
+          : typedObservationColumns(v.observations),
+      }
+    : v;
 
 function preparedOf(body: Omit<ZwdEstimationBody, 'observations'>, o: ObservationColumns): PreparedRequest {
   const n = o.epochMs.length;
