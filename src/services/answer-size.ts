@@ -18,13 +18,15 @@ export interface AnswerSize {
 
 // Counted loops in functions of their own (no iterator, nothing after the loop): optimised whole, they box no
 // number (issue 14: the for-of loop ran unoptimised on most requests, ~1.5 MB of iterator results a GPS-like day).
-function earliest(epochMs: Float64Array | readonly number[]): number {
+/** The earliest epoch [ms]; +Infinity without epochs. */
+export function earliest(epochMs: Float64Array | readonly number[]): number {
   let first = Infinity;
   for (let i = 0; i < epochMs.length; i++) if (epochMs[i]! < first) first = epochMs[i]!;
   return first;
 }
 
-function latest(epochMs: Float64Array | readonly number[]): number {
+/** The latest epoch [ms]; -Infinity without epochs. */
+export function latest(epochMs: Float64Array | readonly number[]): number {
   let last = -Infinity;
   for (let i = 0; i < epochMs.length; i++) if (epochMs[i]! > last) last = epochMs[i]!;
   return last;

@@ -38,7 +38,7 @@ import {
   relativeHumidityUnitWarning,
 } from './unit-guards.js';
 import type { MetColumns } from './station-met.js';
-import { checkAnswerSize } from './answer-size.js';
+import { checkAnswerSize, earliest, latest } from './answer-size.js';
 import { collapseByCode, warning, type Warning } from './warnings.js';
 import { optionModels, type ZwdOptionValues } from './zwd-options.js';
 
@@ -424,12 +424,8 @@ function wetMappingChoice(request: ZwdEstimationRequest, observationEpochMs: Flo
   }
   const first = c.epochMs[order[0]!]!;
   const last = c.epochMs[order[order.length - 1]!]!;
-  let obsFirst = Number.POSITIVE_INFINITY;
-  let obsLast = Number.NEGATIVE_INFINITY;
-  for (const t of observationEpochMs) {
-    if (t < obsFirst) obsFirst = t;
-    if (t > obsLast) obsLast = t;
-  }
+  const obsFirst = earliest(observationEpochMs);
+  const obsLast = latest(observationEpochMs);
   if (obsFirst < first || obsLast > last) {
     throw CallerError.field(
       400,

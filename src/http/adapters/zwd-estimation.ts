@@ -198,66 +198,17 @@ export function checkedObservationColumns(raw: unknown, specs: ObservationColumn
 }
 
 /**
- * Observation columns read in one pass from the JSON body (src/formats/json-columns-reader.ts, every value
- * checked there) → domain columns: an epoch text parsed once per distinct text, satellites from their
- * distinct names, angles to radians, σ with null for a row without one (absent when no row has one). The
- * same values as checkedObservationColumns gives for the parsed body.
+ * The numeric columns of a one-pass read (src/formats/json-columns-reader.ts, every value checked there) in
+ * domain units, taking the reader's columns over: epochs parsed once per distinct text, the angles scaled to
+ * radians in place, residuals and σ (NaN for a row without one; absent when no row has one) as they are. The
+ * read's numbers must not be used after. Satellites are left to the caller (names or indices).
  */
-export function observationsFromJsonColumns(read: JsonColumnsBody): ZwdObservationColumns {
-  const n = read.rows;
-  const epochs = read.texts.epoch!;
-  const msOf = epochs.distinct.map((text) => Date.parse(text));
-  const epochMs = new Array<number>(n);
-  for (let i = 0; i < n; i++) epochMs[i] = msOf[epochs.index[i]!]!;
-  const satellites = read.texts.satellite!;
-  const satellite = new Array<string>(n);
-  for (let i = 0; i < n; i++) satellite[i] = satellites.distinct[satellites.index[i]!]!;
-  const scaled = (column: Float64Array, scale: number) => {
-    const out = new Array<number>(n);
-    for (let i = 0; i < n; i++) out[i] = column[i]! * scale;
-    return out;
-  };
-  const sent = read.numbers.sigma_m;
-  let sigmaM: (number | null)[] | undefined;
-  if (sent) {
-    let anySigma = false;
-    const sigma = new Array<number | null>(n);
-    for (let i = 0; i < n; i++) {
-      const v = sent[i]!;
-      if (Number.isNaN(v)) sigma[i] = null;
-      else {
-        sigma[i] = v;
-        anySigma = true;
-      }
-    }
-    if (anySigma) sigmaM = sigma;
-  }
-  return {
-    epochMs,
-    satellite,
-    elevationRad: scaled(read.numbers.elevation_deg!, DEG),
-    azimuthRad: scaled(read.numbers.azimuth_deg!, DEG),
-    residualM: scaled(read.numbers.residual_m!, 1),
-    sigmaM,
-  };
-}
-
-/**
- * Observation columns read in one pass from the JSON body → the estimator's typed columns, taking the
- * reader's columns over: the angles scaled to radians in place, residuals and σ (NaN for a row without
- * one; absent when no row has one) as they are, epochs parsed once per distinct text. The read must not
- * be used after. The same values as observationsFromJsonColumns gives, without a copy of the numbers
- * (issue 14: the arrays of numbers were ~1.3 ms and 0.8 MB of garbage a GPS-like day).
- */
-export function typedObservationsFromJsonColumns(read: JsonColumnsBody): TypedObservationColumns {
+export function domainNumbersOfRead(read: JsonColumnsBody): Omit<TypedObservationColumns, 'satellite'> {
   const n = read.rows;
   const epochs = read.texts.epoch!;
   const msOf = epochs.distinct.map((text) => Date.parse(text));
   const epochMs = new Float64Array(n);
   for (let i = 0; i < n; i++) epochMs[i] = msOf[epochs.index[i]!]!;
-  const satellites = read.texts.satellite!;
-  const satellite = new Array<string>(n);
-  for (let i = 0; i < n; i++) satellite[i] = satellites.distinct[satellites.index[i]!]!;
   const { elevation_deg: elevationRad, azimuth_deg: azimuthRad, residual_m: residualM, sigma_m: sigma } = read.numbers;
   for (let i = 0; i < n; i++) {
     elevationRad![i]! *= DEG;
@@ -265,13 +216,36 @@ export function typedObservationsFromJsonColumns(read: JsonColumnsBody): TypedOb
   }
   let anySigma = false;
   if (sigma) for (let i = 0; i < n && !anySigma; i++) anySigma = !Number.isNaN(sigma[i]!);
+  return { epochMs, elevationRad: elevationRad!, azimuthRad: azimuthRad!, residualM: residualM!, sigmaM: anySigma ? sigma : undefined };
+}
+
+/**
+ * Observation columns read in one pass from the JSON body → the estimator's typed columns (domainNumbersOfRead,
+ * no copy of the numbers; issue 14: arrays of them were ~1.3 ms and 0.8 MB of garbage a GPS-like day) and the
+ * satellites by name. The read must not be used after.
+ */
+export function typedObservationsFromJsonColumns(read: JsonColumnsBody): TypedObservationColumns {
+  const n = read.rows;
+  const satellites = read.texts.satellite!;
+  const satellite = new Array<string>(n);
+  for (let i = 0; i < n; i++) satellite[i] = satellites.distinct[satellites.index[i]!]!;
+  return { ...domainNumbersOfRead(read), satellite };
+}
+
+/**
+ * The same as arrays of numbers, σ null for a row without one (the network estimator's columns): the values
+ * checkedObservationColumns gives for the parsed body. The read must not be used after.
+ */
+export function observationsFromJsonColumns(read: JsonColumnsBody): ZwdObservationColumns {
+  const t = typedObservationsFromJsonColumns(read);
+  const sigma = t.sigmaM;
   return {
-    epochMs,
-    satellite,
-    elevationRad: elevationRad!,
-    azimuthRad: azimuthRad!,
-    residualM: residualM!,
-    sigmaM: anySigma ? sigma : undefined,
+    epochMs: Array.from(t.epochMs),
+    satellite: t.satellite as string[], // built just above for this call: nobody else holds it
+    elevationRad: Array.from(t.elevationRad),
+    azimuthRad: Array.from(t.azimuthRad),
+    residualM: Array.from(t.residualM),
+    sigmaM: sigma && Array.from(sigma, (v) => (Number.isNaN(v) ? null : v)),
   };
 }
 

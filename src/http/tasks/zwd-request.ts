@@ -10,10 +10,10 @@
  */
 
 import diagnostics_channel from 'node:diagnostics_channel';
-import { DEG } from '../../domain/constants.js';
 import type { Site } from '../../domain/site.js';
 import { FormatError } from '../../formats/format-error.js';
 import { readObservationCsv } from '../../formats/observation-csv.js';
+import { earliest, latest } from '../../services/answer-size.js';
 import { CallerError } from '../../services/caller-error.js';
 import type { MetColumns } from '../../services/station-met.js';
 import { checkStorableDelays, checkStorableZwd, delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
@@ -24,6 +24,7 @@ import { MAX_OBSERVATIONS } from '../../limits.js';
 import { readJsonColumnsBody, type JsonColumnsBody } from '../../formats/json-columns-reader.js';
 import {
   checkedObservationColumns,
+  domainNumbersOfRead,
   observationsFromColumns,
   observationsFromObjects,
   toZwdRequest,
@@ -226,34 +227,10 @@ function preparedOf(body: Omit<ZwdEstimationBody, 'observations'>, o: Observatio
   };
 }
 
-/**
- * Columns read in one pass → a prepared request, in their own typed arrays (angles scaled to radians in
- * place): the same values as preparedOf(observationsFromJsonColumns(read)).
- */
+/** Columns read in one pass → a prepared request, in the reader's own typed arrays (domainNumbersOfRead). */
 function preparedOfRead(body: Omit<ZwdEstimationBody, 'observations'>, read: JsonColumnsBody): PreparedRequest {
-  const n = read.rows;
-  const epochs = read.texts.epoch!;
-  const msOf = epochs.distinct.map((text) => Date.parse(text));
-  const epochMs = new Float64Array(n);
-  for (let i = 0; i < n; i++) epochMs[i] = msOf[epochs.index[i]!]!;
-  const { elevation_deg: elevationRad, azimuth_deg: azimuthRad, residual_m: residualM, sigma_m: sigma } = read.numbers;
-  for (let i = 0; i < n; i++) {
-    elevationRad![i]! *= DEG;
-    azimuthRad![i]! *= DEG;
-  }
-  let anySigma = false;
-  if (sigma) for (let i = 0; i < n && !anySigma; i++) anySigma = !Number.isNaN(sigma[i]);
   const satellites = read.texts.satellite!;
-  return {
-    body,
-    epochMs,
-    satelliteIndex: satellites.index,
-    satellites: satellites.distinct,
-    elevationRad: elevationRad!,
-    azimuthRad: azimuthRad!,
-    residualM: residualM!,
-    sigmaM: anySigma ? sigma : undefined,
-  };
+  return { body, ...domainNumbersOfRead(read), satelliteIndex: satellites.index, satellites: satellites.distinct };
 }
 
 /** A prepared request's columns as the estimator's typed columns: its own arrays, taken over (no copy). */
@@ -428,13 +405,8 @@ export async function scanZwdRequest(
         const o = validated.observations;
         const prepared = isReadColumns(o) ? preparedOfRead(validated.body, o) : preparedOf(validated.body, o);
         const epochMs = prepared.epochMs;
-        let firstMs = Infinity;
-        let lastMs = -Infinity;
-        for (let i = 0; i < epochMs.length; i++) {
-          const ms = epochMs[i]!;
-          if (ms < firstMs) firstMs = ms;
-          if (ms > lastMs) lastMs = ms;
-        }
+        const firstMs = earliest(epochMs);
+        const lastMs = latest(epochMs);
         // The typed columns own their buffers: the worker moves them to the event loop (compute-worker.ts).
         return {
           ok: true,
