@@ -21,7 +21,14 @@ import { DEFAULT_MAPPING_MODEL, MAPPING_MODELS } from '../domain/mapping/registr
 import { fractionalDayOfYear } from '../domain/time.js';
 import { selectInPlace } from './order-statistics.js';
 import { FRESH_ARRAYS, type ArraySource } from './reused-arrays.js';
-import type { EstimationInput, ObservationColumns, TypedEstimationInput, TypedObservationColumns, ZwdEstimationInput } from './types.js';
+import type {
+  EstimationInput,
+  IndexedSatellites,
+  ObservationColumns,
+  TypedEstimationInput,
+  TypedObservationColumns,
+  ZwdEstimationInput,
+} from './types.js';
 
 /** Largest number of nodes of one parameter; more is a request error (interval too short for the span). */
 export const MAX_NODES = 200_000;
@@ -415,8 +422,19 @@ function satelliteIndexArray(count: number, length: number, arrays: ArraySource)
   return count <= 1 << 16 ? arrays.uint16('design.satelliteIndex', length) : arrays.int32('design.satelliteIndex', length);
 }
 
+/** The satellite of observation i by name. */
+export function satelliteName(satellite: readonly string[] | IndexedSatellites, i: number): string {
+  return 'names' in satellite ? satellite.names[satellite.index[i]!]! : satellite[i]!;
+}
+
+/** Observations in a satellite column. */
+export function satelliteColumnLength(satellite: readonly string[] | IndexedSatellites): number {
+  return 'names' in satellite ? satellite.index.length : satellite.length;
+}
+
 /** Each observation's satellite as an index in order of first appearance, and the number of satellites. */
-function satelliteIndices(satellite: readonly string[], arrays: ArraySource): { index: Int32Array; count: number } {
+function satelliteIndices(satellite: readonly string[] | IndexedSatellites, arrays: ArraySource): { index: Int32Array; count: number } {
+  if ('names' in satellite) return renumberedSatellites(satellite, arrays);
   const index = arrays.int32('design.satelliteOfInput', satellite.length);
   const ids = new Map<string, number>();
   for (let i = 0; i < satellite.length; i++) {
@@ -428,6 +446,26 @@ function satelliteIndices(satellite: readonly string[], arrays: ArraySource): { 
     index[i] = id;
   }
   return { index, count: ids.size };
+}
+
+/**
+ * Indices into names renumbered in order of first appearance (the numbers the names would get): one look-up
+ * per distinct name (a name listed twice is one satellite) and a typed-array read per observation.
+ */
+function renumberedSatellites(satellite: IndexedSatellites, arrays: ArraySource): { index: Int32Array; count: number } {
+  const given = satellite.index;
+  const firstOfName = new Map<string, number>();
+  const canonical = satellite.names.map((name, k) => firstOfName.get(name) ?? (firstOfName.set(name, k), k));
+  const index = arrays.int32('design.satelliteOfInput', given.length);
+  const ids = arrays.int32('design.satelliteOfName', canonical.length).fill(-1);
+  let count = 0;
+  for (let i = 0; i < given.length; i++) {
+    const name = canonical[given[i]!]!;
+    let id = ids[name]!;
+    if (id < 0) id = ids[name] = count++;
+    index[i] = id;
+  }
+  return { index, count };
 }
 
 /**
@@ -481,7 +519,7 @@ function checkDuplicates(
       const [a, b] = other < i ? [other, i] : [i, other];
       throw new ModelDomainError(
         `observations.${b}`,
-        `duplicate observation: satellite ${satellite[i]!} at ${new Date(currentEpoch).toISOString()} is also observations.${a}; each (epoch, satellite) pair may appear once`,
+        `duplicate observation: satellite ${satelliteName(satellite, i)} at ${new Date(currentEpoch).toISOString()} is also observations.${a}; each (epoch, satellite) pair may appear once`,
         400,
       );
     }

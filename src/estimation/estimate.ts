@@ -21,6 +21,8 @@ import {
   typedObservationColumns,
   locate,
   nodeEpochMs,
+  satelliteColumnLength,
+  satelliteName,
   setWeights,
   type Design,
   type NodeLayout,
@@ -102,7 +104,7 @@ export function estimateZwd(given: EstimationInput): ZwdEstimationOutput {
         rejected.push({
           index: i,
           epochMs: input.observations.epochMs[i]!,
-          satellite: input.observations.satellite[i]!,
+          satellite: satelliteName(input.observations.satellite, i),
           residualM: input.observations.residualM[i]!,
           fittedResidualM: s.fittedResidualM[c.index]!,
           normalizedResidual: c.normalizedResidual,
@@ -302,7 +304,7 @@ function checkColumns(input: EstimationInput): void {
   const o = input.observations;
   const n = o.epochMs.length;
   for (const [name, column] of [
-    ['satellite', o.satellite],
+    ['satellite', { length: satelliteColumnLength(o.satellite) }],
     ['elevation', o.elevationRad],
     ['azimuth', o.azimuthRad],
     ['residual', o.residualM],
