@@ -32,6 +32,7 @@
 
 import type { Design } from './design.js';
 import { EPOCH_NORMAL_ENTRIES, type Solution } from './least-squares.js';
+import { FRESH_ARRAYS, type ArraySource } from './reused-arrays.js';
 import type { ZwdEstimationOptions, ZwdEstimationStatistics } from './types.js';
 
 /** Longest lag the autocorrelation is estimated for [s]: 1 h (correlation times up to ~20 min). */
@@ -52,13 +53,14 @@ export function residualAutocorrelation(
   solution: Pick<Solution, 'fittedResidualM'>,
   used: Uint8Array,
   samplingMs: number,
+  arrays: ArraySource = FRESH_ARRAYS,
 ): number[] {
   // Per satellite, its used observations in epoch order (the design is sorted by epoch), packed
   // satellite after satellite into epoch (the epoch's index; its time is design.epochMs[epoch[i]]) and
   // z (normalised residual): 12 bytes per used observation, the step's only per-observation arrays.
   const n = used.length;
   // Arcs numbered in order of first appearance among the used observations.
-  const ids = new Int32Array(design.satelliteCount).fill(-1);
+  const ids = arrays.int32('noise.arcOfSatellite', design.satelliteCount).fill(-1);
   const counts: number[] = [];
   let total = 0;
   for (let s = 0; s < n; s++) {
@@ -76,8 +78,8 @@ export function residualAutocorrelation(
   const start = new Int32Array(counts.length + 1);
   for (let id = 0; id < counts.length; id++) start[id + 1] = start[id]! + counts[id]!;
   const fill = start.slice(0, counts.length);
-  const epoch = new Int32Array(total);
-  const z = new Float64Array(total);
+  const epoch = arrays.int32('noise.epoch', total);
+  const z = arrays.float64('noise.z', total);
   const epochMs = design.epochMs;
   let c0 = 0;
   for (let k = 0; k + 1 < design.epochStart.length; k++) {
@@ -329,18 +331,18 @@ export function noiseInflation(
   solution: Pick<Solution, 'fittedResidualM' | 'epochNormal'>,
   used: Uint8Array,
   withGradients: boolean,
+  arrays: ArraySource = FRESH_ARRAYS,
 ): NoiseInflation {
   const epochs = design.epochMs.length;
-  const ones = () => new Float64Array(epochs).fill(1);
-  const none: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
-  if (options.correlatedNoise === false || epochs < 3) return none;
+  const ones = (role: string) => arrays.float64(role, epochs).fill(1);
+  const out: NoiseInflation = { zwd: ones('noise.zwd'), north: ones('noise.north'), east: ones('noise.east'), statistics: null };
+  if (options.correlatedNoise === false || epochs < 3) return out;
   const samplingMs = design.samplingMs;
-  const rho = residualAutocorrelation(design, solution, used, samplingMs);
+  const rho = residualAutocorrelation(design, solution, used, samplingMs, arrays);
   const hours = samplingMs / 3_600_000;
   const stepVariance = (q: number | null) => (q === null ? null : q * q * hours);
   const qW = stepVariance(options.zwd.randomWalkMPerSqrtH);
   const qG = options.gradients ? stepVariance(options.gradients.randomWalkMPerSqrtH) : null;
-  const out: NoiseInflation = { zwd: ones(), north: ones(), east: ones(), statistics: null };
   let sumW = 0,
     sumG = 0,
     count = 0;

@@ -20,7 +20,15 @@ import { chenHerringGradientMapping } from '../domain/gradients/gradient-mapping
 import { DEFAULT_MAPPING_MODEL, MAPPING_MODELS } from '../domain/mapping/registry.js';
 import { fractionalDayOfYear } from '../domain/time.js';
 import { selectInPlace } from './order-statistics.js';
-import type { EstimationInput, ObservationColumns, TypedEstimationInput, TypedObservationColumns, ZwdEstimationInput } from './types.js';
+import { FRESH_ARRAYS, type ArraySource } from './reused-arrays.js';
+import type {
+  EstimationInput,
+  IndexedSatellites,
+  ObservationColumns,
+  TypedEstimationInput,
+  TypedObservationColumns,
+  ZwdEstimationInput,
+} from './types.js';
 
 /** Largest number of nodes of one parameter; more is a request error (interval too short for the span). */
 export const MAX_NODES = 200_000;
@@ -156,10 +164,12 @@ export interface Design {
 }
 
 /**
+ * @param arrays where the design's typed arrays come from (reused-arrays.ts): the single-station estimator
+ *        passes the thread's reused ones; the design must then not outlive its estimation
  * @throws ModelDomainError 422 when no observation is above the cutoff, 400 for a duplicate
  *         (epoch, satellite) pair or too many nodes
  */
-export function buildDesign(given: EstimationInput): Design {
+export function buildDesign(given: EstimationInput, arrays: ArraySource = FRESH_ARRAYS): Design {
   const input: TypedEstimationInput = { ...given, observations: typedObservationColumns(given.observations) };
   const obs = input.observations;
   const { options } = input;
@@ -179,7 +189,7 @@ export function buildDesign(given: EstimationInput): Design {
     order.sort((a, b) => obs.epochMs[a]! - obs.epochMs[b]!);
     all = Int32Array.from(order);
   }
-  const satellites = satelliteIndices(obs.satellite);
+  const satellites = satelliteIndices(obs.satellite, arrays);
   checkDuplicates(input, all, satellites);
   const cutoff = options.elevationCutoffRad;
   let m = 0;
@@ -192,34 +202,36 @@ export function buildDesign(given: EstimationInput): Design {
       422,
     );
   }
-  const inputIndex = new Int32Array(m);
+  const inputIndex = arrays.int32('design.inputIndex', m);
   for (let a = 0, s = 0; a < n; a++) {
     const i = all === null ? a : all[a]!;
     if (obs.elevationRad[i]! >= cutoff) inputIndex[s++] = i;
   }
 
-  const epochStarts: number[] = [];
-  const epochTimes: number[] = [];
-  for (let s = 0; s < m; s++) {
+  // The epochs counted, then listed (no arrays grown by push).
+  let epochs = 0;
+  for (let s = 0; s < m; s++) if (s === 0 || obs.epochMs[inputIndex[s]!] !== obs.epochMs[inputIndex[s - 1]!]) epochs++;
+  const epochStarts = arrays.int32('design.epochStart', epochs + 1);
+  const epochMsAll = arrays.float64('design.epochMs', epochs);
+  for (let s = 0, k = 0; s < m; s++) {
     const t = obs.epochMs[inputIndex[s]!]!;
-    if (s === 0 || t !== epochTimes[epochTimes.length - 1]) {
-      epochStarts.push(s);
-      epochTimes.push(t);
+    if (s === 0 || t !== epochMsAll[k - 1]) {
+      epochStarts[k] = s;
+      epochMsAll[k++] = t;
     }
   }
-  epochStarts.push(m);
+  epochStarts[epochs] = m;
 
-  const epochMsAll = Float64Array.from(epochTimes);
   const wetAt = wetMappingPerEpoch(input, epochMsAll);
-  const residualM = new Float64Array(m);
-  const observationVarianceM2 = new Float64Array(m);
+  const residualM = arrays.float64('design.residualM', m);
+  const observationVarianceM2 = arrays.float64('design.observationVarianceM2', m);
   let givenSigmaM: Float64Array | null = null;
-  const wetMapping = new Float64Array(m);
-  const northMapping = new Float64Array(m);
-  const eastMapping = new Float64Array(m);
-  const sinElevationSquared = new Float64Array(m);
-  const satelliteIndex = satelliteIndexArray(satellites.count, m);
-  for (let k = 0; k < epochTimes.length; k++) {
+  const wetMapping = arrays.float64('design.wetMapping', m);
+  const northMapping = arrays.float64('design.northMapping', m);
+  const eastMapping = arrays.float64('design.eastMapping', m);
+  const sinElevationSquared = arrays.float64('design.sinElevationSquared', m);
+  const satelliteIndex = satelliteIndexArray(satellites.count, m, arrays);
+  for (let k = 0; k < epochs; k++) {
     const wet = wetAt(k);
     for (let s = epochStarts[k]!; s < epochStarts[k + 1]!; s++) wetMapping[s] = wet(obs.elevationRad[inputIndex[s]!]!);
   }
@@ -228,7 +240,7 @@ export function buildDesign(given: EstimationInput): Design {
     const e = obs.elevationRad[i]!;
     // Allocated at the first σ the caller gave (NaN-filled: the weighting scheme's), so a request without any has none.
     if (obs.sigmaM !== undefined && !Number.isNaN(obs.sigmaM[i]!))
-      (givenSigmaM ??= new Float64Array(m).fill(Number.NaN))[s] = obs.sigmaM[i]!;
+      (givenSigmaM ??= arrays.float64('design.givenSigmaM', m).fill(Number.NaN))[s] = obs.sigmaM[i]!;
     residualM[s] = obs.residualM[i]!;
     const mg = chenHerringGradientMapping(e);
     northMapping[s] = mg * Math.cos(obs.azimuthRad[i]!);
@@ -241,9 +253,8 @@ export function buildDesign(given: EstimationInput): Design {
   const { a, b } = initialWeighting(options);
   setWeights({ sinElevationSquared, givenSigmaM, observationVarianceM2 }, a, b, 1);
 
-  const epochs = epochTimes.length;
-  const first = epochTimes[0]!;
-  const last = epochTimes[epochs - 1]!;
+  const first = epochMsAll[0]!;
+  const last = epochMsAll[epochs - 1]!;
   const parametrisation = options.parametrisation ?? 'every-epoch';
   const zwdOutput = nodeLayout(first, last, options.zwd.intervalS, 'options.zwd_interval_s');
   const gradientOutput = options.gradients ? nodeLayout(first, last, options.gradients.intervalS, 'options.gradients.interval_s') : null;
@@ -263,32 +274,18 @@ export function buildDesign(given: EstimationInput): Design {
     gradientOutput && everyEpoch(options.gradients!, 'each gradient component')
       ? epochStateLayout(epochMsAll, options.gradients!.intervalS)
       : gradientOutput;
-  const zwdInterval = new Int32Array(epochs);
-  const zwdAlpha = new Float64Array(epochs);
-  const gradientInterval = new Int32Array(epochs);
-  const gradientAlpha = new Float64Array(epochs);
-  // States at every epoch: epoch k is state k (the last epoch: interval K − 2 at α = 1), what
-  // locate's bisection finds, without it.
-  const at = (layout: NodeLayout, k: number) =>
-    layout.regular || layout.count < 2
-      ? locate(layout, epochTimes[k]!)
-      : k + 1 < layout.count
-        ? { interval: k, alpha: 0 }
-        : { interval: k - 1, alpha: 1 };
+  const zwdInterval = arrays.int32('design.zwdInterval', epochs);
+  const zwdAlpha = arrays.float64('design.zwdAlpha', epochs);
+  const gradientInterval = arrays.int32('design.gradientInterval', epochs);
+  const gradientAlpha = arrays.float64('design.gradientAlpha', epochs);
   for (let k = 0; k < epochs; k++) {
-    const z = at(zwd, k);
-    zwdInterval[k] = z.interval;
-    zwdAlpha[k] = z.alpha;
-    if (gradients) {
-      const g = at(gradients, k);
-      gradientInterval[k] = g.interval;
-      gradientAlpha[k] = g.alpha;
-    }
+    placeEpoch(zwd, k, epochMsAll[k]!, zwdInterval, zwdAlpha);
+    if (gradients) placeEpoch(gradients, k, epochMsAll[k]!, gradientInterval, gradientAlpha);
   }
 
   return {
     inputIndex,
-    epochStart: Int32Array.from(epochStarts),
+    epochStart: epochStarts,
     epochMs: epochMsAll,
     residualM,
     observationVarianceM2,
@@ -311,6 +308,25 @@ export function buildDesign(given: EstimationInput): Design {
     gradientAlpha,
     observationsBelowCutoff: belowCutoff,
   };
+}
+
+/**
+ * Interval and node-(j+1) weight of epoch k (at tMs) in a layout, written to interval[k] and alpha[k]. States at
+ * every epoch: epoch k is state k (the last epoch: interval K − 2 at α = 1), what locate's bisection finds,
+ * without it (and without an object per epoch).
+ */
+function placeEpoch(layout: NodeLayout, k: number, tMs: number, interval: Int32Array, alpha: Float64Array): void {
+  if (layout.regular || layout.count < 2) {
+    const at = locate(layout, tMs);
+    interval[k] = at.interval;
+    alpha[k] = at.alpha;
+  } else if (k + 1 < layout.count) {
+    interval[k] = k;
+    alpha[k] = 0;
+  } else {
+    interval[k] = k - 1;
+    alpha[k] = 1;
+  }
 }
 
 /**
@@ -401,14 +417,25 @@ function medianSpacingMs(epochMs: Float64Array): number {
 }
 
 /** An array of `length` satellite indices 0..count−1, of the narrowest type that holds them. */
-function satelliteIndexArray(count: number, length: number): Uint8Array | Uint16Array | Int32Array {
-  if (count <= 1 << 8) return new Uint8Array(length);
-  return count <= 1 << 16 ? new Uint16Array(length) : new Int32Array(length);
+function satelliteIndexArray(count: number, length: number, arrays: ArraySource): Uint8Array | Uint16Array | Int32Array {
+  if (count <= 1 << 8) return arrays.uint8('design.satelliteIndex', length);
+  return count <= 1 << 16 ? arrays.uint16('design.satelliteIndex', length) : arrays.int32('design.satelliteIndex', length);
+}
+
+/** The satellite of observation i by name. */
+export function satelliteName(satellite: readonly string[] | IndexedSatellites, i: number): string {
+  return 'names' in satellite ? satellite.names[satellite.index[i]!]! : satellite[i]!;
+}
+
+/** Observations in a satellite column. */
+export function satelliteColumnLength(satellite: readonly string[] | IndexedSatellites): number {
+  return 'names' in satellite ? satellite.index.length : satellite.length;
 }
 
 /** Each observation's satellite as an index in order of first appearance, and the number of satellites. */
-function satelliteIndices(satellite: readonly string[]): { index: Int32Array; count: number } {
-  const index = new Int32Array(satellite.length);
+function satelliteIndices(satellite: readonly string[] | IndexedSatellites, arrays: ArraySource): { index: Int32Array; count: number } {
+  if ('names' in satellite) return renumberedSatellites(satellite, arrays);
+  const index = arrays.int32('design.satelliteOfInput', satellite.length);
   const ids = new Map<string, number>();
   for (let i = 0; i < satellite.length; i++) {
     let id = ids.get(satellite[i]!);
@@ -419,6 +446,26 @@ function satelliteIndices(satellite: readonly string[]): { index: Int32Array; co
     index[i] = id;
   }
   return { index, count: ids.size };
+}
+
+/**
+ * Indices into names renumbered in order of first appearance (the numbers the names would get): one look-up
+ * per distinct name (a name listed twice is one satellite) and a typed-array read per observation.
+ */
+function renumberedSatellites(satellite: IndexedSatellites, arrays: ArraySource): { index: Int32Array; count: number } {
+  const given = satellite.index;
+  const firstOfName = new Map<string, number>();
+  const canonical = satellite.names.map((name, k) => firstOfName.get(name) ?? (firstOfName.set(name, k), k));
+  const index = arrays.int32('design.satelliteOfInput', given.length);
+  const ids = arrays.int32('design.satelliteOfName', canonical.length).fill(-1);
+  let count = 0;
+  for (let i = 0; i < given.length; i++) {
+    const name = canonical[given[i]!]!;
+    let id = ids[name]!;
+    if (id < 0) id = ids[name] = count++;
+    index[i] = id;
+  }
+  return { index, count };
 }
 
 /**
@@ -472,7 +519,7 @@ function checkDuplicates(
       const [a, b] = other < i ? [other, i] : [i, other];
       throw new ModelDomainError(
         `observations.${b}`,
-        `duplicate observation: satellite ${satellite[i]!} at ${new Date(currentEpoch).toISOString()} is also observations.${a}; each (epoch, satellite) pair may appear once`,
+        `duplicate observation: satellite ${satelliteName(satellite, i)} at ${new Date(currentEpoch).toISOString()} is also observations.${a}; each (epoch, satellite) pair may appear once`,
         400,
       );
     }

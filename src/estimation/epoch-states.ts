@@ -39,6 +39,7 @@ import {
   type InverseElements,
   type Solution,
 } from './least-squares.js';
+import { FRESH_ARRAYS, type ArraySource } from './reused-arrays.js';
 import type { ZwdEstimationOptions } from './types.js';
 
 /** True when every family has a state at every epoch (and gradients are estimated): this solver applies. */
@@ -126,30 +127,32 @@ export class EpochStateSolver {
   readonly fittedResidualM: Float64Array;
   readonly residualVarianceM2: Float64Array;
 
+  /** @param arrays where its arrays come from (reused-arrays.ts); a solution is then valid until the next estimation too */
   constructor(
     private readonly design: Design,
     private readonly options: ZwdEstimationOptions,
+    arrays: ArraySource = FRESH_ARRAYS,
   ) {
     const K = design.epochMs.length;
     const n = design.residualM.length;
     this.epochs = K;
     // Random-walk weights of the steps k → k+1 (0 after the last epoch), the same in every solution.
-    this.stepW = new Float64Array(K);
-    this.stepG = new Float64Array(K);
+    this.stepW = arrays.float64('epochStates.stepW', K);
+    this.stepG = arrays.float64('epochStates.stepG', K);
     for (let k = 0; k + 1 < K; k++) {
       this.stepW[k] = randomWalkStepWeight(options.zwd, design.epochMs[k]!, design.epochMs[k + 1]!)!;
       this.stepG[k] = randomWalkStepWeight(options.gradients!, design.epochMs[k]!, design.epochMs[k + 1]!)!;
     }
-    this.epochNormal = new Float64Array(K * EPOCH_NORMAL_ENTRIES);
-    this.epochWeight = new Float64Array(K);
-    this.means = new Float64Array(K * 4);
-    this.block = new Float64Array(K * BLOCK);
-    this.x = new Float64Array(3 * K);
-    this.diagonal = new Float64Array(3 * K);
-    this.next = new Float64Array(K * 3);
-    this.biasM = new Float64Array(K);
-    this.fittedResidualM = new Float64Array(n);
-    this.residualVarianceM2 = new Float64Array(n);
+    this.epochNormal = arrays.float64('epochStates.epochNormal', K * EPOCH_NORMAL_ENTRIES);
+    this.epochWeight = arrays.float64('epochStates.epochWeight', K);
+    this.means = arrays.float64('epochStates.means', K * 4);
+    this.block = arrays.float64('epochStates.block', K * BLOCK);
+    this.x = arrays.float64('epochStates.x', 3 * K);
+    this.diagonal = arrays.float64('epochStates.diagonal', 3 * K);
+    this.next = arrays.float64('epochStates.next', K * 3);
+    this.biasM = arrays.float64('epochStates.biasM', K);
+    this.fittedResidualM = arrays.float64('epochStates.fittedResidualM', n);
+    this.residualVarianceM2 = arrays.float64('epochStates.residualVarianceM2', n);
   }
 
   /**

@@ -21,6 +21,8 @@ import {
   typedObservationColumns,
   locate,
   nodeEpochMs,
+  satelliteColumnLength,
+  satelliteName,
   setWeights,
   type Design,
   type NodeLayout,
@@ -30,6 +32,7 @@ import { SingularParameterError } from './frontal-ldl.js';
 import { epochStateRejectionWindowMs, nodeRejectionWindowMs, rejectionCandidates } from './outliers.js';
 import { MIN_TESTABLE_REDUNDANCY, parameterLayout, solveOnce, type ParameterLayout, type Solution } from './least-squares.js';
 import { selectInPlace } from './order-statistics.js';
+import { threadArrays, type ArraySource } from './reused-arrays.js';
 import { screenedSolution } from './screening.js';
 import { screeningBound, varianceComponents } from './variance-components.js';
 import type {
@@ -65,9 +68,12 @@ export function estimateZwd(given: EstimationInput): ZwdEstimationOutput {
   checkColumns(given);
   const input: TypedEstimationInput = { ...given, observations: typedObservationColumns(given.observations) };
   const { options } = input;
-  const design = buildDesign(input);
+  // The per-observation and per-epoch arrays are the thread's reused ones (reused-arrays.ts): none of them
+  // is part of the output.
+  const arrays = threadArrays;
+  const design = buildDesign(input, arrays);
   const layout = parameterLayout(design);
-  const used = new Uint8Array(design.residualM.length).fill(1);
+  const used = arrays.uint8('estimate.used', design.residualM.length).fill(1);
   const rejected: RejectedObservation[] = [];
   const rejectedDesign: number[] = [];
   const warnings: string[] = [...design.parametrisationNotes];
@@ -75,7 +81,7 @@ export function estimateZwd(given: EstimationInput): ZwdEstimationOutput {
   let givenScale = 1;
   let reweightings = 0;
   // States at every epoch (the default): the block tridiagonal solver, its arrays reused from solution to solution.
-  const epochStates = hasEpochStates(design) ? new EpochStateSolver(design, options) : null;
+  const epochStates = hasEpochStates(design) ? new EpochStateSolver(design, options, arrays) : null;
   const unknownsOf = (s: Solution) => layout.parameters + (options.epochBias ? s.epochsUsed : 0);
 
   // Each pass (screening.ts): solve; re-estimate the observation weights (variance components, from
@@ -90,7 +96,7 @@ export function estimateZwd(given: EstimationInput): ZwdEstimationOutput {
       },
       candidates: (s, sigmaZero) =>
         rejectionCandidates(design, s, used, sigmaZero, options.outlierThreshold!, options.outlierRejection, () =>
-          rejectionWindowMs(input, design, layout, s),
+          rejectionWindowMs(input, design, layout, s, arrays),
         ),
       normalizedResidual: (c) => c.normalizedResidual,
       reject: (c, s) => {
@@ -98,7 +104,7 @@ export function estimateZwd(given: EstimationInput): ZwdEstimationOutput {
         rejected.push({
           index: i,
           epochMs: input.observations.epochMs[i]!,
-          satellite: input.observations.satellite[i]!,
+          satellite: satelliteName(input.observations.satellite, i),
           residualM: input.observations.residualM[i]!,
           fittedResidualM: s.fittedResidualM[c.index]!,
           normalizedResidual: c.normalizedResidual,
@@ -147,7 +153,7 @@ export function estimateZwd(given: EstimationInput): ZwdEstimationOutput {
   if (low > 0)
     warnings.push(`${low} observations below 3° were used: the mapping functions are fitted from 3° up and are extrapolated there`);
 
-  const noise = noiseInflation(input.options, design, solution, used, layout.gradientCount > 0);
+  const noise = noiseInflation(input.options, design, solution, used, layout.gradientCount > 0, arrays);
   const bands = elevationBands(design, elevationRad, solution, used, rejectedDesign);
   for (const b of bands) {
     const name = `${((b.lowerRad * 180) / Math.PI).toFixed(0)}–${Math.min(90, (b.upperRad * 180) / Math.PI).toFixed(0)}°`;
@@ -198,7 +204,13 @@ export function estimateZwd(given: EstimationInput): ZwdEstimationOutput {
 }
 
 /** Window of "one-per-window" screening (outliers.ts) [ms]. */
-function rejectionWindowMs(input: TypedEstimationInput, design: Design, layout: ParameterLayout, solution: Solution): number {
+function rejectionWindowMs(
+  input: TypedEstimationInput,
+  design: Design,
+  layout: ParameterLayout,
+  solution: Solution,
+  arrays: ArraySource,
+): number {
   const { options } = input;
   // Piecewise-linear ZWD nodes: the ZWD interval decides (as before issue 10).
   if (design.zwd.regular) return nodeRejectionWindowMs(options.zwd.intervalS);
@@ -210,9 +222,9 @@ function rejectionWindowMs(input: TypedEstimationInput, design: Design, layout: 
   const zwdQ = options.zwd.randomWalkMPerSqrtH === null ? null : options.zwd.randomWalkMPerSqrtH ** 2 * hours;
   const gradientQ = options.gradients?.randomWalkMPerSqrtH == null ? null : options.gradients.randomWalkMPerSqrtH ** 2 * hours;
   const gradientStates = withGradients && !design.gradients!.regular;
-  const lw = new Float64Array(epochs);
-  const ln = new Float64Array(gradientStates ? epochs : 0);
-  const le = new Float64Array(gradientStates ? epochs : 0);
+  const lw = arrays.float64('rejectionWindow.zwd', epochs);
+  const ln = arrays.float64('rejectionWindow.north', gradientStates ? epochs : 0);
+  const le = arrays.float64('rejectionWindow.east', gradientStates ? epochs : 0);
   const information = new Float64Array(3);
   let count = 0;
   for (let k = 0; k < epochs; k++) {
@@ -292,7 +304,7 @@ function checkColumns(input: EstimationInput): void {
   const o = input.observations;
   const n = o.epochMs.length;
   for (const [name, column] of [
-    ['satellite', o.satellite],
+    ['satellite', { length: satelliteColumnLength(o.satellite) }],
     ['elevation', o.elevationRad],
     ['azimuth', o.azimuthRad],
     ['residual', o.residualM],
@@ -466,11 +478,21 @@ function gradientNodes(
 
 /** Value and variance of (1 − α) x_p + α x_q, with the covariance of the two nodes. */
 function interpolate(solution: Solution, p: number, q: number, alpha: number): { value: number; variance: number } {
-  if (q < 0) return { value: solution.x[p]!, variance: solution.inverse.diagonal[p]! };
+  return { value: interpolatedValue(solution, p, q, alpha), variance: interpolatedVariance(solution, p, q, alpha) };
+}
+
+/** (1 − α) x_p + α x_q; x_p alone when q < 0. */
+function interpolatedValue(solution: Solution, p: number, q: number, alpha: number): number {
+  return q < 0 ? solution.x[p]! : (1 - alpha) * solution.x[p]! + alpha * solution.x[q]!;
+}
+
+/** Variance of (1 − α) x_p + α x_q (not below 0), with the covariance of the two nodes; that of x_p when q < 0. */
+function interpolatedVariance(solution: Solution, p: number, q: number, alpha: number): number {
+  if (q < 0) return solution.inverse.diagonal[p]!;
   const b = 1 - alpha;
   const variance =
     b * b * solution.inverse.diagonal[p]! + 2 * alpha * b * solution.inverse.get(p, q) + alpha * alpha * solution.inverse.diagonal[q]!;
-  return { value: b * solution.x[p]! + alpha * solution.x[q]!, variance: Math.max(variance, 0) };
+  return Math.max(variance, 0);
 }
 
 function epochEstimates(
@@ -482,28 +504,28 @@ function epochEstimates(
 ): EpochEstimate[] {
   const epochs = design.epochMs.length;
   const out: EpochEstimate[] = new Array(epochs);
+  // Values and variances straight into the epoch's object (no object per interpolation: ~0.4 MB a GPS-like day).
+  const withGradients = layout.gradientCount > 0;
+  const two = layout.gradientCount > 1;
   for (let k = 0; k < epochs; k++) {
     const j = design.zwdInterval[k]!;
-    const w = interpolate(solution, j, layout.zwdCount > 1 ? j + 1 : -1, design.zwdAlpha[k]!);
-    let north = null;
-    let east = null;
-    if (layout.gradientCount > 0) {
-      const l = design.gradientInterval[k]!;
-      const two = layout.gradientCount > 1;
-      north = interpolate(solution, layout.northOffset + l, two ? layout.northOffset + l + 1 : -1, design.gradientAlpha[k]!);
-      east = interpolate(solution, layout.eastOffset + l, two ? layout.eastOffset + l + 1 : -1, design.gradientAlpha[k]!);
-    }
+    const q = layout.zwdCount > 1 ? j + 1 : -1;
+    const alpha = design.zwdAlpha[k]!;
+    const l = design.gradientInterval[k]!;
+    const beta = design.gradientAlpha[k]!;
+    const n = layout.northOffset + l;
+    const e = layout.eastOffset + l;
     let count = 0;
     for (let s = design.epochStart[k]!; s < design.epochStart[k + 1]!; s++) count += used[s]!;
     const bias = solution.biasM[k]!;
     out[k] = {
       epochMs: design.epochMs[k]!,
-      correctionM: w.value,
-      sigmaM: Math.sqrt(w.variance * noise.zwd[k]!),
-      northGradientM: north?.value ?? null,
-      eastGradientM: east?.value ?? null,
-      northGradientSigmaM: north ? Math.sqrt(north.variance * noise.north[k]!) : null,
-      eastGradientSigmaM: east ? Math.sqrt(east.variance * noise.east[k]!) : null,
+      correctionM: interpolatedValue(solution, j, q, alpha),
+      sigmaM: Math.sqrt(interpolatedVariance(solution, j, q, alpha) * noise.zwd[k]!),
+      northGradientM: withGradients ? interpolatedValue(solution, n, two ? n + 1 : -1, beta) : null,
+      eastGradientM: withGradients ? interpolatedValue(solution, e, two ? e + 1 : -1, beta) : null,
+      northGradientSigmaM: withGradients ? Math.sqrt(interpolatedVariance(solution, n, two ? n + 1 : -1, beta) * noise.north[k]!) : null,
+      eastGradientSigmaM: withGradients ? Math.sqrt(interpolatedVariance(solution, e, two ? e + 1 : -1, beta) * noise.east[k]!) : null,
       epochBiasM: Number.isNaN(bias) ? null : bias,
       observationsUsed: count,
     };

@@ -32,11 +32,22 @@ export interface ZwdObservationColumns {
  */
 export interface TypedObservationColumns {
   epochMs: Float64Array;
-  satellite: readonly string[];
+  /** A name per observation, or (the JSON reader's and a prepared request's) an index into the distinct names. */
+  satellite: readonly string[] | IndexedSatellites;
   elevationRad: Float64Array;
   azimuthRad: Float64Array;
   residualM: Float64Array;
   sigmaM: Float64Array | undefined;
+}
+
+/**
+ * Satellites as indices into their distinct names (the JSON reader's interned texts): no name per observation,
+ * and the design numbers the satellites from the indices instead of looking every name up (issue 14).
+ */
+export interface IndexedSatellites {
+  /** names[index[i]] is the satellite of observation i. */
+  index: Uint32Array;
+  names: readonly string[];
 }
 
 /** Node spacing and random-walk constraints of one piecewise-linear parameter (ZWD or a gradient component). */

@@ -20,6 +20,7 @@ import { precipitableWaterFromSurfaceMet } from '../domain/water-vapour/precipit
 import { zenithHydrostaticDelayM } from '../domain/zenith/hydrostatic.js';
 import { estimateZwd } from '../estimation/estimate.js';
 import { typedObservationColumns } from '../estimation/design.js';
+import { threadArrays } from '../estimation/reused-arrays.js';
 import type {
   EpochEstimate,
   WetMappingChoice,
@@ -370,9 +371,9 @@ function guardObservations(
   metRelativeHumidityPct: ZwdEstimationRequest['metRelativeHumidityPct'],
 ): void {
   const { elevationRad, azimuthRad } = observations;
-  // The angles in degrees, one column after the other in one typed array (8 bytes an observation),
-  // instead of a new array of numbers per column.
-  const degrees = new Float64Array(elevationRad.length);
+  // The angles in degrees, one column after the other in one typed array (8 bytes an observation), instead
+  // of a new array of numbers per column; the thread's reused one (the guards keep nothing of it).
+  const degrees = threadArrays.float64('guards.degrees', elevationRad.length);
   const toDeg = (v: Float64Array) => {
     for (let i = 0; i < v.length; i++) degrees[i] = v[i]! / DEG;
     return degrees;

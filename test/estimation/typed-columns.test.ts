@@ -8,8 +8,10 @@
 
 import { describe, expect, it } from 'vitest';
 import { DEG } from '../../src/domain/constants.js';
+import { satelliteName } from '../../src/estimation/design.js';
 import { estimateZwd } from '../../src/estimation/estimate.js';
-import type { TypedEstimationInput, ZwdEstimationInput } from '../../src/estimation/types.js';
+import { ModelDomainError } from '../../src/domain/errors.js';
+import type { IndexedSatellites, TypedEstimationInput, ZwdEstimationInput } from '../../src/estimation/types.js';
 import { readJsonColumnsBody } from '../../src/formats/json-columns-reader.js';
 import { observationsFromJsonColumns, typedObservationsFromJsonColumns } from '../../src/http/adapters/zwd-estimation.js';
 import { columnSpecsOf, jsonColumnSpecsOf } from '../../src/http/columns.js';
@@ -106,7 +108,7 @@ describe('typedObservationsFromJsonColumns gives the values of observationsFromJ
     const typed = typedObservationsFromJsonColumns(read(body));
     expect(typed.epochMs).toBeInstanceOf(Float64Array);
     expect(Array.from(typed.epochMs)).toEqual(arrays.epochMs);
-    expect(typed.satellite).toEqual(arrays.satellite);
+    expect(Array.from(arrays.satellite, (_, i) => satelliteName(typed.satellite, i))).toEqual(arrays.satellite);
     expect(Array.from(typed.elevationRad)).toEqual(arrays.elevationRad);
     expect(Array.from(typed.azimuthRad)).toEqual(arrays.azimuthRad);
     expect(Array.from(typed.residualM)).toEqual(arrays.residualM);
@@ -121,5 +123,54 @@ describe('typedObservationsFromJsonColumns gives the values of observationsFromJ
     const none = { observations: { ...body.observations, sigma_m: [null, null, null] } };
     expect(observationsFromJsonColumns(read(none)).sigmaM).toBeUndefined();
     expect(typedObservationsFromJsonColumns(read(none)).sigmaM).toBeUndefined();
+  });
+});
+
+/**
+ * The satellites as indices into names (as the JSON reader gives them): `names` in reverse order of first
+ * appearance (so the indices are not the numbers the design gives), and with `twice` every name listed a second
+ * time, odd observations pointing at the second listing.
+ */
+function indexedSatellites(satellite: readonly string[], twice = false): IndexedSatellites {
+  const distinct = [...new Set(satellite)].reverse();
+  const names = twice ? [...distinct, ...distinct] : distinct;
+  const at = new Map(distinct.map((name, k) => [name, k]));
+  const index = Uint32Array.from(satellite, (name, i) => at.get(name)! + (twice && i % 2 === 1 ? distinct.length : 0));
+  return { index, names };
+}
+
+describe('satellites as indices into names give the outputs of names, bit for bit (digests)', () => {
+  const gps = skyInput(simulateSky({ seed: 11, durationS: 86_400, grossErrors: 25, constellations: ['gps'] }));
+  const withIndices = (input: ZwdEstimationInput, twice = false): TypedEstimationInput => {
+    const typed = typedInput(input);
+    return { ...typed, observations: { ...typed.observations, satellite: indexedSatellites(input.observations.satellite, twice) } };
+  };
+
+  it('GPS-like day, names not in order of first appearance', () => {
+    expect(outputDigest(estimateZwd(withIndices(gps)))).toBe(outputDigest(estimateZwd(gps)));
+  }, 30_000);
+
+  it('GPS-like day, every name listed twice (one satellite each)', () => {
+    expect(outputDigest(estimateZwd(withIndices(gps, true)))).toBe(outputDigest(estimateZwd(gps)));
+  }, 30_000);
+
+  it('a duplicate (epoch, satellite) through two listings of one name is still refused, named as with names', () => {
+    const o = gps.observations;
+    // Observation 1 made a second observation of observation 0's satellite at its epoch.
+    const duplicated = { ...gps, observations: { ...o, epochMs: [...o.epochMs], satellite: [...o.satellite] } };
+    duplicated.observations.epochMs[1] = o.epochMs[0]!;
+    duplicated.observations.satellite[1] = o.satellite[0]!;
+    const refusal = (input: ZwdEstimationInput | TypedEstimationInput) => {
+      try {
+        estimateZwd(input);
+      } catch (err) {
+        if (err instanceof ModelDomainError) return `${err.status} ${err.field} ${err.message}`;
+        throw err;
+      }
+      throw new Error('expected a refusal');
+    };
+    const expected = refusal(duplicated);
+    expect(expected).toMatch(/^400 observations\.1 duplicate observation/);
+    expect(refusal(withIndices(duplicated, true))).toBe(expected);
   });
 });

@@ -8,6 +8,7 @@ import type { Site } from '../../domain/site.js';
 import type { MetColumns } from '../../services/station-met.js';
 import { warningTexts } from '../../services/warnings.js';
 import type { EpochEstimate, ObservationColumns, TypedObservationColumns, ZwdObservationColumns } from '../../estimation/types.js';
+import { satelliteName } from '../../estimation/design.js';
 import type { EpochMetResult, EpochZwd, ZwdEstimationRequest, ZwdEstimationResult } from '../../services/zwd-estimation.js';
 import { GRADIENTS_GROUP, ZWD_OPTIONS, type OptionSpec, type ZwdOptionValues } from '../../services/zwd-options.js';
 import { isoEpochText } from '../../formats/iso-epoch-text.js';
@@ -222,14 +223,12 @@ export function domainNumbersOfRead(read: JsonColumnsBody): Omit<TypedObservatio
 /**
  * Observation columns read in one pass from the JSON body → the estimator's typed columns (domainNumbersOfRead,
  * no copy of the numbers; issue 14: arrays of them were ~1.3 ms and 0.8 MB of garbage a GPS-like day) and the
- * satellites by name. The read must not be used after.
+ * satellites as the reader's indices into its distinct names (no name per observation). The read must not be
+ * used after.
  */
 export function typedObservationsFromJsonColumns(read: JsonColumnsBody): TypedObservationColumns {
-  const n = read.rows;
   const satellites = read.texts.satellite!;
-  const satellite = new Array<string>(n);
-  for (let i = 0; i < n; i++) satellite[i] = satellites.distinct[satellites.index[i]!]!;
-  return { ...domainNumbersOfRead(read), satellite };
+  return { ...domainNumbersOfRead(read), satellite: { index: satellites.index, names: satellites.distinct } };
 }
 
 /**
@@ -241,7 +240,7 @@ export function observationsFromJsonColumns(read: JsonColumnsBody): ZwdObservati
   const sigma = t.sigmaM;
   return {
     epochMs: Array.from(t.epochMs),
-    satellite: t.satellite as string[], // built just above for this call: nobody else holds it
+    satellite: Array.from({ length: read.rows }, (_, i) => satelliteName(t.satellite, i)),
     elevationRad: Array.from(t.elevationRad),
     azimuthRad: Array.from(t.azimuthRad),
     residualM: Array.from(t.residualM),

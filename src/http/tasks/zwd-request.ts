@@ -18,7 +18,7 @@ import { CallerError } from '../../services/caller-error.js';
 import type { MetColumns } from '../../services/station-met.js';
 import { checkStorableDelays, checkStorableZwd, delayColumns, runZwdEstimation, type DelayColumns } from '../../services/zwd-estimation.js';
 import type { TaskOutcome } from '../../workers/task-outcome.js';
-import { typedObservationColumns } from '../../estimation/design.js';
+import { satelliteName, typedObservationColumns } from '../../estimation/design.js';
 import type { ObservationColumns, TypedObservationColumns } from '../../estimation/types.js';
 import { MAX_OBSERVATIONS } from '../../limits.js';
 import { readJsonColumnsBody, type JsonColumnsBody } from '../../formats/json-columns-reader.js';
@@ -209,7 +209,7 @@ function preparedOf(body: Omit<ZwdEstimationBody, 'observations'>, o: Observatio
   const satellites: string[] = [];
   const satelliteIndex = new Uint32Array(n);
   for (let i = 0; i < n; i++) {
-    const name = o.satellite[i]!;
+    const name = satelliteName(o.satellite, i);
     let k = index.get(name);
     if (k === undefined) index.set(name, (k = satellites.push(name) - 1));
     satelliteIndex[i] = k;
@@ -235,12 +235,9 @@ function preparedOfRead(body: Omit<ZwdEstimationBody, 'observations'>, read: Jso
 
 /** A prepared request's columns as the estimator's typed columns: its own arrays, taken over (no copy). */
 function observationsOfPrepared(p: PreparedRequest): TypedObservationColumns {
-  const n = p.epochMs.length;
-  const satellite = new Array<string>(n);
-  for (let i = 0; i < n; i++) satellite[i] = p.satellites[p.satelliteIndex[i]!]!;
   return {
     epochMs: p.epochMs,
-    satellite,
+    satellite: { index: p.satelliteIndex, names: p.satellites },
     elevationRad: p.elevationRad,
     azimuthRad: p.azimuthRad,
     residualM: p.residualM,
