@@ -199,11 +199,6 @@ export function pooledBytes(size: number): Uint8Array<ArrayBuffer> {
   return new Uint8Array(fresh);
 }
 
-/** size bytes, all 0 (pooledBytes, cleared). */
-function answerBytes(size: number): Uint8Array {
-  return pooledBytes(size).fill(0);
-}
-
 /**
  * Hands the buffer of bytes from pooledBytes (an answer made by ipcStreamBytes, say) back to the pool. Call it
  * only once nothing reads the bytes any more; bytes of any other origin, and moved (detached) buffers, are ignored.
@@ -242,25 +237,31 @@ function streamOf(schema: Uint8Array, batches: { header: Uint8Array; buffers: Ar
     size += align8(8 + header.byteLength);
     for (const buffer of buffers) size += align8(buffer.byteLength);
   }
-  const bytes = answerBytes(size); // zero-filled: the padding
+  // A pooled buffer holds an earlier answer's bytes: each piece is written with its padding set to 0.
+  const bytes = pooledBytes(size);
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   let at = 0;
+  const padded = (piece: Uint8Array, from: number, end: number) => {
+    bytes.set(piece, from);
+    bytes.fill(0, from + piece.byteLength, end);
+  };
   const message = (flatbuffer: Uint8Array) => {
     const aligned = align8(8 + flatbuffer.byteLength);
     view.setInt32(at, CONTINUATION, true);
     view.setInt32(at + 4, aligned - 8, true);
-    bytes.set(flatbuffer, at + 8);
+    padded(flatbuffer, at + 8, at + aligned);
     at += aligned;
   };
   message(schema);
   for (const { header, buffers } of batches) {
     message(header);
     for (const buffer of buffers) {
-      bytes.set(new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength), at);
+      padded(new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength), at, at + align8(buffer.byteLength));
       at += align8(buffer.byteLength);
     }
   }
   view.setInt32(at, CONTINUATION, true); // end of stream: the marker and a metadata size of 0
+  view.setInt32(at + 4, 0, true);
   return bytes;
 }
 
