@@ -125,7 +125,7 @@ describe('slant-delays bodies read into pooled buffers, against fastify`s reader
   });
 
   it('requests of different sizes and forms sent together each get the bytes of the request sent alone', async () => {
-    const requests: Sent[] = [4000, 9000, 1500, 12000, 20, 9000].flatMap((n) => [
+    const requests = [4000, 9000, 1500, 12000, 20, 9000].flatMap((n): Sent[] => [
       { path: '/v1/slant-delays?shape=columns', headers: { 'content-type': 'application/json' }, pieces: inPieces(columnsBody(n), 40_000) },
       { path: '/v1/slant-delays', headers: { 'content-type': ARROW, accept: ARROW }, pieces: inPieces(arrowBody(n), 40_000) },
     ]);
@@ -133,7 +133,7 @@ describe('slant-delays bodies read into pooled buffers, against fastify`s reader
       ...r,
       headers: { ...r.headers, 'content-length': r.pieces.reduce((s, p) => s + p.length, 0) },
     }));
-    const alone = [];
+    const alone: { status: number; body: Buffer }[] = [];
     for (const r of declared) alone.push(await send(r));
     expect(alone.every((a) => a.status === 200)).toBe(true);
     for (let round = 0; round < 3; round++) {
