@@ -11,12 +11,12 @@
 import { request as httpRequest } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import type { FastifyInstance } from 'fastify';
-import { tableFromArrays, tableToIPC, type Table } from 'apache-arrow';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import Fastify from 'fastify';
 import { buildApp } from '../../src/http/app.js';
 import { readBatchBodies } from '../../src/http/batch-body.js';
 import { BATCH_BODY_LIMIT_BYTES } from '../../src/limits.js';
+import { slantArrowRequest } from '../helpers/slant-arrow-request.js';
 
 const ARROW = 'application/vnd.apache.arrow.stream';
 const base = {
@@ -74,14 +74,7 @@ const columnsBody = (n: number) =>
 const mappingBody = (n: number) =>
   json({ site: base.site, epoch: base.epoch, elevations_deg: Array.from({ length: n }, (_, i) => 3 + (i % 87)) });
 
-function arrowBody(n: number): Uint8Array {
-  const table = tableFromArrays({
-    elevation_deg: Float64Array.from({ length: n }, (_, i) => 5 + ((i * 13 + n) % 85)),
-    azimuth_deg: Float64Array.from({ length: n }, (_, i) => (i * 29 + n) % 360),
-  }) as Table;
-  table.schema.metadata.set('request', JSON.stringify(base));
-  return tableToIPC(table, 'stream');
-}
+const arrowBody = (n: number) => slantArrowRequest(n, base);
 
 /** A problem answer without its `instance` (the path, which differs between the routes). */
 const problem = (body: Buffer) => ({ ...(JSON.parse(body.toString('utf8')) as object), instance: undefined });
