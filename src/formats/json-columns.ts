@@ -19,14 +19,21 @@
 import { MAX_ROUNDED_DECIMAL_BYTES, writeRoundedDecimal, writeRoundedDecimalList } from './rounded-decimal-bytes.js';
 
 /**
+ * Where the bytes of an answer come from: new by default; a caller may hand buffers from a pool (the batch
+ * routes, src/http/answer-shape.ts pooledBytes), whose content is then undefined until written.
+ */
+export type ByteSource = (size: number) => Uint8Array;
+const newBytes: ByteSource = (size) => new Uint8Array(size);
+
+/**
  * A growing byte buffer for JSON text: bytes written straight into it, ASCII text by its char codes and
  * other text as UTF-8, so that a big answer is never one big string transcoded at the end.
  */
 export class JsonBytes {
   bytes: Uint8Array;
   length = 0;
-  constructor(capacity: number) {
-    this.bytes = new Uint8Array(Math.max(capacity, 64));
+  constructor(capacity: number, source: ByteSource = newBytes) {
+    this.bytes = source(Math.max(capacity, 64));
   }
   reserve(extra: number): void {
     if (this.length + extra <= this.bytes.length) return;
@@ -99,7 +106,7 @@ export interface JsonColumn {
 }
 
 /** `{"name":[…],…}` as UTF-8 bytes, numbers rounded per column (roundTo of output-precision.ts). */
-export function columnsJsonBytes(columns: Record<string, JsonColumn>): Uint8Array {
+export function columnsJsonBytes(columns: Record<string, JsonColumn>, source: ByteSource = newBytes): Uint8Array {
   let rows = 0;
   let longest = 0;
   for (const c of Object.values(columns)) {
@@ -107,7 +114,7 @@ export function columnsJsonBytes(columns: Record<string, JsonColumn>): Uint8Arra
     longest = Math.max(longest, c.values.length);
   }
   // A Float64Array column is written in one loop into room reserved for its longest text (below).
-  const out = new JsonBytes(rows * 12 + 64 + longest * (MAX_ROUNDED_DECIMAL_BYTES + 1));
+  const out = new JsonBytes(rows * 12 + 64 + longest * (MAX_ROUNDED_DECIMAL_BYTES + 1), source);
   out.byte(0x7b); // {
   let first = true;
   for (const [name, { values, decimals }] of Object.entries(columns)) {
@@ -142,7 +149,11 @@ export function columnsJsonBytes(columns: Record<string, JsonColumn>): Uint8Arra
  * JSON bytes of `answer` with raw JSON bytes as the values of some of its top-level keys, each in its key's
  * place: the small rest of an answer goes through JSON.stringify, its big parts are written apart.
  */
-export function jsonWithRawMembers(answer: Record<string, unknown>, raw: Record<string, Uint8Array>): Uint8Array {
+export function jsonWithRawMembers(
+  answer: Record<string, unknown>,
+  raw: Record<string, Uint8Array>,
+  source: ByteSource = newBytes,
+): Uint8Array {
   const markers = Object.keys(raw).map((key) => ({ key, text: JSON.stringify(`\u0000raw:${key}\u0000`) }));
   const text = JSON.stringify({ ...answer, ...Object.fromEntries(markers.map((m) => [m.key, JSON.parse(m.text) as string])) });
   const parts: Uint8Array[] = [];
@@ -152,7 +163,13 @@ export function jsonWithRawMembers(answer: Record<string, unknown>, raw: Record<
     from = at + markers.find((m) => m.key === key)!.text.length;
   }
   parts.push(Buffer.from(text.slice(from), 'utf8'));
-  return Buffer.concat(parts);
+  const bytes = source(parts.reduce((sum, part) => sum + part.byteLength, 0));
+  let at = 0;
+  for (const part of parts) {
+    bytes.set(part, at);
+    at += part.byteLength;
+  }
+  return bytes;
 }
 
 /**

@@ -23,6 +23,7 @@ import {
 } from 'apache-arrow';
 import { BufferRegion, FieldNode, RecordBatch as RecordBatchHeader, type DictionaryBatch } from 'apache-arrow/ipc/metadata/message';
 import { VectorAssembler } from 'apache-arrow/visitor/vectorassembler';
+import { isMainThread } from 'node:worker_threads';
 import { z } from 'zod';
 import { FormatError } from '../formats/format-error.js';
 import type { JsonColumn } from '../formats/json-columns.js';
@@ -165,40 +166,47 @@ const CONTINUATION = -1;
 const align8 = (n: number) => (n + 7) & ~7;
 
 /**
- * Buffers of Arrow answers, handed back by the route once the answer has left (releaseAnswerBytes, called on
- * the response's 'finish': Node has handed every byte to the operating system) and reused by the next answer on
- * this thread. V8 counts every ArrayBuffer as external memory, and ~64 MB of them since the last full garbage
- * collection start the next one, a mark of the whole service heap: with a fresh 0.7 MB buffer per 10 000
- * directions that was one full collection every ~90 answers (issue 14). Only answers of 64 kB up to
- * POOLED_ANSWER_BYTES take pooled buffers, and at most POOLED_ANSWERS free ones are kept. An answer made in a
- * worker thread leaves with its buffer (moved) and is not pooled: releasing it on the event loop does nothing.
+ * Buffers of answers and of request bodies of the a-priori batch routes, handed back once nothing reads them
+ * (releaseAnswerBytes: an answer on the response's 'finish', when Node has handed every byte to the operating
+ * system; a request body once the task on the event loop has read it, batch-body.ts) and reused by the next
+ * request on this thread. V8 counts every ArrayBuffer as external memory, and counts the external memory grown
+ * since the last full garbage collection against the old generation's limit: a route that allocates buffers
+ * but few JavaScript objects (an Arrow request: ~0.1 MB of heap against 0.33 MB of buffers) reaches that limit
+ * before the young generation fills, and each time V8 marks the whole service heap instead of a cheap
+ * scavenge (issue 14; DEVELOPERS.md "Where the time goes: slant delays through HTTP"). Only sizes from
+ * SMALLEST_POOLED_BYTES up to POOLED_BYTES take pooled buffers, and at most POOLED_BUFFERS free ones are
+ * kept. Only the event loop pools: bytes made in a worker thread leave with their buffer (moved whole; a view
+ * of a larger pooled buffer would be copied), and bytes moved to a worker are detached: releasing them does nothing.
  */
-const POOLED_ANSWER_BYTES = 2 * 1024 * 1024;
-const POOLED_ANSWERS = 8;
-const freeAnswerBuffers: ArrayBuffer[] = [];
-const issuedAnswerBuffers = new WeakSet<ArrayBuffer>();
+const POOLED_BYTES = 2 * 1024 * 1024;
+const POOLED_BUFFERS = 8;
+const freeBuffers: ArrayBuffer[] = [];
+const issuedBuffers = new WeakSet<ArrayBuffer>();
 
-/** Answers smaller than this are not pooled (their buffers cost little; a pooled one would be mostly unused). */
-const SMALLEST_POOLED_ANSWER_BYTES = 64 * 1024;
+/** Sizes smaller than this are not pooled (their buffers cost little; a pooled one would be mostly unused). */
+const SMALLEST_POOLED_BYTES = 64 * 1024;
 
-/** size bytes, all 0: from the pool when one of its buffers fits (at most 4× larger), else new. */
-function answerBytes(size: number): Uint8Array {
-  if (size < SMALLEST_POOLED_ANSWER_BYTES || size > POOLED_ANSWER_BYTES) return new Uint8Array(size);
-  const i = freeAnswerBuffers.findIndex((b) => b.byteLength >= size && b.byteLength <= 4 * size);
-  if (i >= 0) return new Uint8Array(freeAnswerBuffers.splice(i, 1)[0]!, 0, size).fill(0);
+/**
+ * size bytes of undefined content (what an earlier user left): from the pool when one of its buffers fits (at
+ * most 4× larger), else new. Hand them back with releaseAnswerBytes once nothing reads them, or simply drop them.
+ */
+export function pooledBytes(size: number): Uint8Array<ArrayBuffer> {
+  if (!isMainThread || size < SMALLEST_POOLED_BYTES || size > POOLED_BYTES) return new Uint8Array(size);
+  const i = freeBuffers.findIndex((b) => b.byteLength >= size && b.byteLength <= 4 * size);
+  if (i >= 0) return new Uint8Array(freeBuffers.splice(i, 1)[0]!, 0, size);
   const fresh = new ArrayBuffer(size);
-  issuedAnswerBuffers.add(fresh);
+  issuedBuffers.add(fresh);
   return new Uint8Array(fresh);
 }
 
 /**
- * Hands the buffer of an answer made by ipcStreamBytes back to the pool. Call it only once nothing reads the
- * bytes any more (the response's 'finish'); bytes of any other origin are ignored.
+ * Hands the buffer of bytes from pooledBytes (an answer made by ipcStreamBytes, say) back to the pool. Call it
+ * only once nothing reads the bytes any more; bytes of any other origin, and moved (detached) buffers, are ignored.
  */
 export function releaseAnswerBytes(bytes: Uint8Array): void {
   const buffer = bytes.buffer;
-  if (!(buffer instanceof ArrayBuffer) || !issuedAnswerBuffers.has(buffer) || buffer.byteLength === 0) return;
-  if (freeAnswerBuffers.length < POOLED_ANSWERS && !freeAnswerBuffers.includes(buffer)) freeAnswerBuffers.push(buffer);
+  if (!(buffer instanceof ArrayBuffer) || !issuedBuffers.has(buffer) || buffer.byteLength === 0) return;
+  if (freeBuffers.length < POOLED_BUFFERS && !freeBuffers.includes(buffer)) freeBuffers.push(buffer);
 }
 
 /**
@@ -229,25 +237,31 @@ function streamOf(schema: Uint8Array, batches: { header: Uint8Array; buffers: Ar
     size += align8(8 + header.byteLength);
     for (const buffer of buffers) size += align8(buffer.byteLength);
   }
-  const bytes = answerBytes(size); // zero-filled: the padding
+  // A pooled buffer holds an earlier answer's bytes: each piece is written with its padding set to 0.
+  const bytes = pooledBytes(size);
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   let at = 0;
+  const padded = (piece: Uint8Array, from: number, end: number) => {
+    bytes.set(piece, from);
+    bytes.fill(0, from + piece.byteLength, end);
+  };
   const message = (flatbuffer: Uint8Array) => {
     const aligned = align8(8 + flatbuffer.byteLength);
     view.setInt32(at, CONTINUATION, true);
     view.setInt32(at + 4, aligned - 8, true);
-    bytes.set(flatbuffer, at + 8);
+    padded(flatbuffer, at + 8, at + aligned);
     at += aligned;
   };
   message(schema);
   for (const { header, buffers } of batches) {
     message(header);
     for (const buffer of buffers) {
-      bytes.set(new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength), at);
+      padded(new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength), at, at + align8(buffer.byteLength));
       at += align8(buffer.byteLength);
     }
   }
   view.setInt32(at, CONTINUATION, true); // end of stream: the marker and a metadata size of 0
+  view.setInt32(at + 4, 0, true);
   return bytes;
 }
 

@@ -6,10 +6,11 @@
  * OFFLOAD_COST_PER_BYTE), in the worker pool above it, so that a 100 000-item batch never holds the loop.
  */
 
-import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
+import type { IncomingMessage } from 'node:http';
+import { errorCodes, type FastifyInstance, type FastifyReply, type FastifyRequest } from 'fastify';
 import { OFFLOAD_BODY_BYTES, OFFLOAD_COST_PER_BYTE } from '../limits.js';
 import type { TaskOutcome } from '../workers/task-outcome.js';
-import { ARROW_STREAM_TYPE, releaseAnswerBytes } from './answer-shape.js';
+import { ARROW_STREAM_TYPE, pooledBytes, releaseAnswerBytes } from './answer-shape.js';
 import { HttpProblem } from './problem.js';
 import { asBuffer, movableBytes } from './raw-body.js';
 import type { BatchTaskInput, BatchTaskOutput } from './tasks/apriori-batch.js';
@@ -30,8 +31,60 @@ export function loopCostBytes(raw: Buffer, format: 'json' | 'arrow'): number {
 }
 
 /**
+ * In this plugin scope, application/json and Arrow IPC stream bodies reach the handler as a Buffer, read as
+ * fastify's `parseAs: 'buffer'` reads them (the route's body limit, the same errors for a body over it or
+ * shorter than its Content-Length), except that a body with a Content-Length is copied as it arrives into one
+ * buffer from the pool of answer-shape.ts (pooledBytes) instead of collected and concatenated into a new one:
+ * answerBatchRequest hands it back once the task on the event loop has read it. Node's HTTP parser still gives
+ * each piece of the body (≤ 64 kB) a buffer of its own; the concatenation was a second buffer of the body's
+ * size per request, counted by V8 against the old generation's limit (answer-shape.ts, pooledBytes).
+ */
+export function readBatchBodies(app: FastifyInstance): void {
+  for (const type of ['application/json', ARROW_STREAM_TYPE]) {
+    if (app.hasContentTypeParser(type)) app.removeContentTypeParser(type);
+    app.addContentTypeParser(type, (request, payload, done) => readBody(request, payload, done));
+  }
+}
+
+function readBody(request: FastifyRequest, payload: IncomingMessage, done: (err: Error | null, body?: Buffer) => void): void {
+  const limit = request.routeOptions.bodyLimit ?? Infinity;
+  const declared = Number(request.headers['content-length']);
+  if (declared > limit) return done(new errorCodes.FST_ERR_CTP_BODY_TOO_LARGE());
+  // Node's HTTP parser delivers no more than the declared length: the bytes fit the buffer.
+  const whole = Number.isInteger(declared) && declared > 0 ? pooledBytes(declared) : undefined;
+  const chunks: Buffer[] = [];
+  let received = 0;
+  const finish = (err: Error | null, body?: Buffer) => {
+    payload.removeListener('data', onData);
+    payload.removeListener('end', onEnd);
+    payload.removeListener('error', onError);
+    if (err && whole) releaseAnswerBytes(whole);
+    done(err, body);
+  };
+  const onData = (chunk: Buffer) => {
+    if (received + chunk.length > limit) return finish(new errorCodes.FST_ERR_CTP_BODY_TOO_LARGE());
+    if (whole && received + chunk.length <= whole.length) whole.set(chunk, received);
+    else chunks.push(chunk);
+    received += chunk.length;
+  };
+  const onEnd = () => {
+    if (whole && received !== declared) return finish(new errorCodes.FST_ERR_CTP_INVALID_CONTENT_LENGTH());
+    finish(null, whole ? Buffer.from(whole.buffer, 0, declared) : Buffer.concat(chunks, received));
+  };
+  const onError = (err: Error & { statusCode?: number }) => {
+    if (!(typeof err.statusCode === 'number' && err.statusCode >= 400)) err.statusCode = 400;
+    finish(err);
+  };
+  payload.on('data', onData);
+  payload.on('end', onEnd);
+  payload.on('error', onError);
+  payload.resume();
+}
+
+/**
  * Answers a batch request: `inLoop` is the task function itself, called here for a small body.
- * Anything but application/json (kept as a Buffer by keepJsonBodiesAsBytes) is a 415.
+ * Anything but application/json (kept as a Buffer by keepJsonBodiesAsBytes or readBatchBodies) is a 415.
+ * Bytes from the pool of answer-shape.ts go back to it once read (the body) or sent (the answer).
  */
 export async function answerBatchRequest(
   app: FastifyInstance,
@@ -50,14 +103,16 @@ export async function answerBatchRequest(
   let output: BatchTaskOutput;
   if (loopCostBytes(raw, bodyFormat) <= OFFLOAD_BODY_BYTES) {
     const outcome = await inLoop({ body: raw, bodyFormat, ...options });
+    releaseAnswerBytes(raw); // read: the task keeps no view of the body past its answer
     if (!outcome.ok) throw new HttpProblem(outcome.error.status, outcome.error.detail, outcome.error.errors);
     output = outcome.output;
   } else {
     const body = movableBytes(new Uint8Array(raw.buffer, raw.byteOffset, raw.byteLength));
     output = await app.compute.run(task, { body, bodyFormat, ...options }, [body.buffer]);
+    releaseAnswerBytes(raw); // a pooled body copied for the worker (one moved is detached: ignored)
   }
-  // Already serialised; the bytes are sent as they are. An Arrow answer's buffer goes back to its pool once
+  // Already serialised; the bytes are sent as they are. A pooled answer's buffer goes back to its pool once
   // Node has handed the last byte to the operating system (answer-shape.ts releaseAnswerBytes).
-  if (output.contentType === ARROW_STREAM_TYPE) reply.raw.once('finish', () => releaseAnswerBytes(output.json));
+  reply.raw.once('finish', () => releaseAnswerBytes(output.json));
   return reply.type(output.contentType ?? 'application/json').send(asBuffer(output.json) as never);
 }

@@ -54,3 +54,23 @@ describe('jsonWithRawMembers: raw JSON bytes in the place of some keys', () => {
     expect(Object.keys(out)).toEqual(['a', 'slants', 'b', 'c']);
   });
 });
+
+describe('bytes from a caller-given source (a pool): content left over by earlier use does not show', () => {
+  // A source whose buffers are larger than asked and full of 0xff, as a reused pooled buffer can be.
+  const leftovers = (size: number) => new Uint8Array(new ArrayBuffer(size + 4096), 0, size).fill(0xff);
+  const columns = {
+    id: { values: ['G01', 'R24'], decimals: undefined },
+    x: { values: Float64Array.from([1.5, -0, 2.000001, 9.1e-7, 1e-9, 100, 12.30000049]), decimals: 6 },
+    y: { values: [0.5, Number.NaN], decimals: 2 },
+  };
+
+  it('columnsJsonBytes and jsonWithRawMembers write the same bytes as with new buffers', () => {
+    const fresh = columnsJsonBytes(columns);
+    const reused = columnsJsonBytes(columns, leftovers);
+    expect(Buffer.from(reused).equals(Buffer.from(fresh))).toBe(true);
+    const answer = { zenith: { ztd_m: 2.4 }, slants: null, warnings: ['é'] };
+    const whole = jsonWithRawMembers(answer, { slants: reused }, leftovers);
+    expect(Buffer.from(whole).equals(Buffer.from(jsonWithRawMembers(answer, { slants: fresh })))).toBe(true);
+    expect(JSON.parse(text(whole))).toEqual({ zenith: { ztd_m: 2.4 }, slants: JSON.parse(text(fresh)) as unknown, warnings: ['é'] });
+  });
+});

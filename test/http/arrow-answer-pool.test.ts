@@ -5,9 +5,10 @@
  * the same request sent alone (the reuse of a released buffer itself: test/http/arrow-stream-bytes.test.ts).
  */
 
-import { tableFromArrays, tableFromIPC, tableToIPC, type Table } from 'apache-arrow';
+import { tableFromIPC } from 'apache-arrow';
 import { describe, expect, it } from 'vitest';
 import { useApp } from '../helpers/app.js';
+import { slantArrowRequest } from '../helpers/slant-arrow-request.js';
 
 const ARROW = 'application/vnd.apache.arrow.stream';
 const base = {
@@ -17,14 +18,7 @@ const base = {
 };
 
 /** An Arrow request of n directions (the rest of the request in the metadata "request"). */
-function arrowRequest(n: number): Buffer {
-  const table = tableFromArrays({
-    elevation_deg: Float64Array.from({ length: n }, (_, i) => 5 + ((i * 13 + n) % 85)),
-    azimuth_deg: Float64Array.from({ length: n }, (_, i) => (i * 29 + n) % 360),
-  }) as Table;
-  table.schema.metadata.set('request', JSON.stringify(base));
-  return Buffer.from(tableToIPC(table, 'stream'));
-}
+const arrowRequest = (n: number) => slantArrowRequest(n, base);
 
 const binaryParser = (res: import('superagent').Response, done: (err: Error | null, body: Buffer) => void) => {
   const stream = res as unknown as NodeJS.ReadableStream;

@@ -1,14 +1,14 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { BATCH_BODY_LIMIT_BYTES, OFFLOAD_BODY_BYTES } from '../../limits.js';
 import { answerShapeOf, answerShapeQuery, ARROW_STREAM_TYPE } from '../answer-shape.js';
-import { answerBatchRequest } from '../batch-body.js';
-import { bodyInWorkerValidator, keepJsonBodiesAsBytes } from '../raw-body.js';
+import { answerBatchRequest, readBatchBodies } from '../batch-body.js';
+import { bodyInWorkerValidator } from '../raw-body.js';
 import { problemSchema } from '../schemas/common.js';
 import { slantDelaysResponse } from '../schemas/slant-delays.js';
 import { slantDelaysBody, handleSlantDelaysRequest, SLANT_FIELD_NAMES } from '../tasks/apriori-batch.js';
 
 const slantDelaysRoute: FastifyPluginAsyncZod = async (app) => {
-  keepJsonBodiesAsBytes(app);
+  readBatchBodies(app);
   app.post(
     '/v1/slant-delays',
     {

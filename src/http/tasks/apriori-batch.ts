@@ -35,7 +35,9 @@ import {
   ARROW_STREAM_TYPE,
   COLUMN_DECIMALS,
   jsonColumnsOf,
+  pooledBytes,
   readArrowRequest,
+  releaseAnswerBytes,
   type AnswerShape,
   type FieldDecimals,
 } from '../answer-shape.js';
@@ -515,8 +517,11 @@ export async function handleSlantDelaysRequest(input: BatchTaskInput): Promise<T
     // The key order of the rows answer as before: zenith, met_used, slants, geoid, provenance, warnings.
     const answer = { zenith, ...met, slants: null as unknown, geoid_undulation_m, ...others };
     if (shape.shape === 'columns') {
-      // The columns are written as bytes in one pass (json-columns.ts), the small rest by JSON.stringify.
-      const json = jsonWithRawMembers(answer, { slants: columnsJsonBytes(jsonColumnsOf(columns, shape.fields, SLANT_FIELDS)) });
+      // The columns are written as bytes in one pass (json-columns.ts), the small rest by JSON.stringify, both
+      // into pooled buffers (answer-shape.ts pooledBytes; the route hands the answer back once sent).
+      const slants = columnsJsonBytes(jsonColumnsOf(columns, shape.fields, SLANT_FIELDS), pooledBytes);
+      const json = jsonWithRawMembers(answer, { slants }, pooledBytes);
+      releaseAnswerBytes(slants); // copied into the answer
       return { ok: true, output: { json, observations } };
     }
     answer.slants = slantEntries(columns, shape.fields ?? SLANT_FIELD_NAMES);
