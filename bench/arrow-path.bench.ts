@@ -3,8 +3,9 @@
  * turns: the request reader (readArrowRequest, typed, as the task calls it) on the request of `npm run bench --
  * columns` (tableFromArrays: epoch and satellite dictionary-encoded Utf8, three float64 columns) and on the same
  * request with plain Utf8 texts (what pyarrow and polars send); the Arrow answer (zwdEstimatesArrowAnswer of both
- * trees; without a reference tree, the answer objects + tableAnswer against it); and the whole task (handleZwdRequest: read, check, estimate,
- * Arrow answer) beside the estimation service alone (runZwdEstimation). Both benchmark days
+ * trees; without a reference tree, the answer objects + tableAnswer against it); and the whole task
+ * (handleZwdRequest: read, check, estimate, Arrow answer) beside the estimation service alone (runZwdEstimation).
+ * Both benchmark days
  * (test/helpers/realistic-sky.ts, seed 11: GPS-like with 25 gross errors, four constellations with 100).
  * CPU time of this process (process.cpuUsage) per call, old and new run after run (so that both see the same
  * load), medians and ranges over RUNS runs after WARM_UP of warm-up, the load average before and after beside

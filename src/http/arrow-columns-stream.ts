@@ -24,12 +24,19 @@ import { Dictionary, Field, Float64, Int32, Message, Schema, Utf8 } from 'apache
 import { BufferRegion, DictionaryBatch, FieldNode, RecordBatch as RecordBatchHeader } from 'apache-arrow/ipc/metadata/message';
 import { align8, streamOf, type StreamMessage } from './answer-shape.js';
 
+/** The texts of a dictionary as a Utf8 column: the UTF-8 bytes of each one after another, and count + 1 offsets into them. */
+export interface Utf8Texts {
+  count: number;
+  offsets: Int32Array;
+  bytes: Uint8Array;
+}
+
 /** A column in the buffers of its record batch. */
 export interface ArrowColumn {
-  /** A float64 column's values (0 where null), or a text column's indices into `entries` (0 where null). */
+  /** A float64 column's values (0 where null), or a text column's indices into its dictionary (0 where null). */
   values: Float64Array | Int32Array;
   /** A text column's dictionary: its distinct texts in order of first appearance; undefined for numbers. */
-  entries: string[] | undefined;
+  dictionary: Utf8Texts | undefined;
   nullCount: number;
   /** Bit k set when row k has a value, sized as apache-arrow's builder sizes it; used only with nulls. */
   validity: Uint8Array;
@@ -58,7 +65,7 @@ export function arrowColumnOf(n: number, valueAt: (k: number) => CellValue): Arr
     if (typeof v !== 'number') break;
     values[k] = v;
   }
-  if (k === n) return { values, entries: undefined, nullCount: 0, validity: NO_VALIDITY, nullable: false };
+  if (k === n) return { values, dictionary: undefined, nullCount: 0, validity: NO_VALIDITY, nullable: false };
   const validity = new Uint8Array(validityBytes(n));
   for (let i = 0; i < k; i++) validity[i >> 3]! |= 1 << (i & 7);
   let nullCount = 0;
@@ -72,32 +79,38 @@ export function arrowColumnOf(n: number, valueAt: (k: number) => CellValue): Arr
     } else if (v === null || v === undefined) {
       nullCount++;
       present ||= v === null;
-    } else if (typeof v === 'string' && nullCount === k) return textColumn(n, valueAt); // nulls, then a text
+    } else if (typeof v === 'string' && nullCount === k)
+      return textColumn(n, valueAt); // nulls, then a text
     else return undefined;
   }
-  return present ? { values, entries: undefined, nullCount, validity, nullable: true } : 'absent';
+  return present ? { values, dictionary: undefined, nullCount, validity, nullable: true } : 'absent';
 }
 
 /**
- * Texts numbered in order of first appearance, as apache-arrow's DictionaryBuilder numbers them, each looked up by
- * a key that is equal exactly where the texts are (the text itself, or a number the caller derives the text from):
- * a repeat of the previous row's key is the previous row's index, a key above every key so far (epochs in time
- * order) a new entry without a lookup; only once the keys stop rising does a map of the keys take over.
+ * Keys numbered in order of first appearance, as apache-arrow's DictionaryBuilder numbers the texts of a column (a
+ * key is equal for two rows exactly where their texts are: the text itself, or a number the text is made of): a
+ * repeat of the previous key is the previous index, a key above every key so far (epochs in time order) a new one
+ * without a lookup; only once the keys stop rising does a map of the keys take over.
  */
-class TextDictionary {
-  readonly entries: string[] = [];
+class FirstAppearance {
+  /** The number of distinct keys so far. */
+  size = 0;
+  /** Whether the last key indexOf was given was new. */
+  added = false;
   private readonly keys: (string | number)[] = [];
   private readonly indices = new Map<string | number, number>();
   private rising = true;
   private lastKey: string | number = '';
   private lastIndex = -1;
 
-  /** The index of row k's text, whose key is `key` (textAt(k) is called for a new entry only). */
-  indexOf(key: string | number, k: number, textAt: (k: number) => string): number {
-    if (key === this.lastKey && this.lastIndex >= 0) return this.lastIndex;
-    let index = this.rising && (this.lastIndex < 0 || key > this.lastKey) ? undefined : this.lookUp(key);
+  /** The index of the key (a new key's is the size before it). */
+  indexOf(key: string | number): number {
+    this.added = false;
+    if (key === this.lastKey && this.size > 0) return this.lastIndex;
+    let index = this.rising && (this.size === 0 || key > this.lastKey) ? undefined : this.lookUp(key);
     if (index === undefined) {
-      index = this.entries.push(textAt(k)) - 1;
+      index = this.size++;
+      this.added = true;
       this.keys.push(key);
       if (!this.rising) this.indices.set(key, index);
     }
@@ -115,34 +128,50 @@ class TextDictionary {
   }
 }
 
-/** A column of texts and nulls (at least one text), dictionary-encoded as apache-arrow's DictionaryBuilder does; undefined when it holds a number. */
+/**
+ * A column of texts and nulls (at least one text), dictionary-encoded as apache-arrow's DictionaryBuilder does;
+ * undefined when it holds a number.
+ */
 function textColumn(n: number, valueAt: (k: number) => CellValue): ArrowColumn | undefined {
   const indices = new Int32Array(n);
   const validity = new Uint8Array(validityBytes(n));
-  const dictionary = new TextDictionary();
-  const textAt = (k: number) => valueAt(k) as string;
+  const seen = new FirstAppearance();
+  const entries: string[] = [];
   let nullCount = 0;
   for (let k = 0; k < n; k++) {
     const v = valueAt(k);
     if (typeof v === 'string') {
-      indices[k] = dictionary.indexOf(v, k, textAt);
+      indices[k] = seen.indexOf(v);
+      if (seen.added) entries.push(v);
       validity[k >> 3]! |= 1 << (k & 7);
     } else if (v === null || v === undefined) nullCount++;
     else return undefined;
   }
-  return { values: indices, entries: dictionary.entries, nullCount, validity, nullable: true };
+  return { values: indices, dictionary: utf8Of(entries), nullCount, validity, nullable: true };
 }
 
 /**
- * A column of n texts without nulls, each looked up by its key (keyAt(k): equal for two rows exactly where their
- * texts are), as tableFromArrays makes it of the texts: texts made from numbers (epochs) are then made once each
- * and not hashed.
+ * A column of n texts without nulls, as tableFromArrays makes it of the texts, given as their UTF-8 bytes
+ * (writeAt(k, out, at) writes row k's, at most maxBytes, into out[at…] and returns where they end) and told apart
+ * by keyAt(k) (equal for two rows exactly where their texts are): texts made of numbers (epochs) are written
+ * once each, neither made as strings nor hashed.
  */
-export function keyedTextColumn(n: number, textAt: (k: number) => string, keyAt: (k: number) => number): ArrowColumn {
+export function keyedTextColumn(
+  n: number,
+  keyAt: (k: number) => number,
+  writeAt: (k: number, out: Uint8Array, at: number) => number,
+  maxBytes: number,
+): ArrowColumn {
   const indices = new Int32Array(n);
-  const dictionary = new TextDictionary();
-  for (let k = 0; k < n; k++) indices[k] = dictionary.indexOf(keyAt(k), k, textAt);
-  return { values: indices, entries: dictionary.entries, nullCount: 0, validity: NO_VALIDITY, nullable: true };
+  const seen = new FirstAppearance();
+  const offsets = new Int32Array(n + 1);
+  const bytes = new Uint8Array(n * maxBytes);
+  for (let k = 0; k < n; k++) {
+    indices[k] = seen.indexOf(keyAt(k));
+    if (seen.added) offsets[seen.size] = writeAt(k, bytes, offsets[seen.size - 1]!);
+  }
+  const dictionary = { count: seen.size, offsets: offsets.subarray(0, seen.size + 1), bytes: bytes.subarray(0, offsets[seen.size]) };
+  return { values: indices, dictionary, nullCount: 0, validity: NO_VALIDITY, nullable: true };
 }
 
 /** The body of a batch message as it is laid out: buffers one after another, each padded to 8 bytes. */
@@ -160,32 +189,31 @@ class Body {
 }
 
 /**
- * The UTF-8 bytes of the texts one after another, and the m + 1 offsets of each text's bytes. Texts of ASCII only
- * are their own bytes; otherwise each text is encoded on its own, as TextEncoder (apache-arrow's encodeUtf8) does:
- * a lone surrogate at the end of one text is U+FFFD, not half of a pair with the next text's first.
+ * The texts as a Utf8 column. Texts of ASCII only are their own bytes; otherwise each text is encoded on its own, as
+ * TextEncoder (apache-arrow's encodeUtf8) does: a lone surrogate at the end of one text is U+FFFD, not half of a
+ * pair with the next text's first.
  */
-function utf8Of(texts: readonly string[]): { offsets: Int32Array; bytes: Uint8Array } {
+function utf8Of(texts: readonly string[]): Utf8Texts {
   const offsets = new Int32Array(texts.length + 1);
   const joined = texts.join('');
   const bytes = Buffer.from(joined, 'utf8');
   if (bytes.length === joined.length) {
     // One byte per character: ASCII only.
     for (let i = 0; i < texts.length; i++) offsets[i + 1] = offsets[i]! + texts[i]!.length;
-    return { offsets, bytes };
+    return { count: texts.length, offsets, bytes };
   }
   const parts = texts.map((text) => Buffer.from(text, 'utf8'));
   for (let i = 0; i < parts.length; i++) offsets[i + 1] = offsets[i]! + parts[i]!.length;
-  return { offsets, bytes: Buffer.concat(parts) };
+  return { count: texts.length, offsets, bytes: Buffer.concat(parts) };
 }
 
 /** The dictionary batch of a text column: its texts as one Utf8 column without nulls. */
-function dictionaryMessage(id: number, entries: readonly string[]): StreamMessage {
-  const { offsets, bytes } = utf8Of(entries);
+function dictionaryMessage(id: number, texts: Utf8Texts): StreamMessage {
   const body = new Body();
   body.add(NO_VALIDITY);
-  body.add(offsets);
-  body.add(bytes);
-  const batch = new RecordBatchHeader(entries.length, [new FieldNode(entries.length, 0)], body.regions);
+  body.add(texts.offsets);
+  body.add(texts.bytes);
+  const batch = new RecordBatchHeader(texts.count, [new FieldNode(texts.count, 0)], body.regions);
   return { header: Message.encode(Message.from(new DictionaryBatch(batch, id), body.length)), buffers: body.buffers };
 }
 
@@ -200,10 +228,10 @@ export function arrowColumnsStream(columns: ReadonlyMap<string, ArrowColumn>, n:
   const nodes: FieldNode[] = [];
   const body = new Body();
   for (const [name, column] of columns) {
-    if (column.entries) {
+    if (column.dictionary) {
       const type = new Dictionary(new Utf8(), new Int32()); // the next dictionary id, as tableFromArrays takes one
       fields.push(new Field(name, type, column.nullable));
-      dictionaries.push(dictionaryMessage(type.id, column.entries));
+      dictionaries.push(dictionaryMessage(type.id, column.dictionary));
     } else fields.push(new Field(name, new Float64(), column.nullable));
     nodes.push(new FieldNode(n, column.nullCount));
     body.add(column.nullCount > 0 ? column.validity : NO_VALIDITY);

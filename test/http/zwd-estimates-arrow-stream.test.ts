@@ -31,6 +31,7 @@ import { zwdEstimatesResponseOf } from '../../src/http/adapters/zwd-estimation.j
 import type { AnswerShape } from '../../src/http/answer-shape.js';
 import { arrowColumnOf, arrowColumnsStream, type ArrowColumn, type CellValue } from '../../src/http/arrow-columns-stream.js';
 import { ZWD_ANSWER_FIELD_NAMES, ZWD_ANSWER_TABLES } from '../../src/http/schemas/zwd-estimates.js';
+import { isoEpochText, ISO_EPOCH_MAX_BYTES, writeIsoEpochAscii } from '../../src/formats/iso-epoch-text.js';
 import { tableAnswer } from '../../src/http/table-answer.js';
 import type { ZwdEstimationResult } from '../../src/services/zwd-estimation.js';
 import { anyZwdEstimationResult } from '../helpers/estimation-result-arbitrary.js';
@@ -53,7 +54,8 @@ function tableToIpcOf(columns: Record<string, PlainColumn>, answer: string, ids:
   const vectors: Record<string, Vector> = {};
   for (const [name, values] of Object.entries(columns)) {
     const id = ids.get(name);
-    vectors[name] = id === undefined ? vectorFromArray(values) : vectorFromArray(values as (string | null)[], new Dictionary(new Utf8(), new Int32(), id));
+    const type = id === undefined ? undefined : new Dictionary(new Utf8(), new Int32(), id);
+    vectors[name] = type ? vectorFromArray(values as (string | null)[], type) : vectorFromArray(values);
   }
   const table = new Table(vectors);
   table.schema.metadata.set('answer', answer);
@@ -125,7 +127,8 @@ describe('the Arrow answer: the bytes tableToIPC writes of the reference answer 
 
   it('epochs repeated, out of order, in fractions of a millisecond, before 1970 and after 9999 (fast-check): one text each', () => {
     // Epochs one whole millisecond apart or less: toISOString writes the whole milliseconds (Date's TimeClip).
-    const anyEpochMs = fc.constantFrom(0, -0.5, 0.5, 999.9, 1000, 1000.2, 1e12, 1e12 + 0.3, 1e12 - 0.3, -1e12, 253_402_300_800_000, 8.64e15, -8.64e15);
+    const near = [0, -0.5, 0.5, 999.9, 1000, 1000.2, 1e12, 1e12 + 0.3, 1e12 - 0.3, -1e12];
+    const anyEpochMs = fc.constantFrom(...near, 253_402_300_800_000, 8.64e15, -8.64e15);
     const withEpochs = (epochMs: number[]) =>
       ({
         ...gpsLike,
@@ -231,6 +234,29 @@ describe('arrowColumnsStream: tableToIPC(tableFromArrays(columns)) byte for byte
   });
 });
 
+describe('writeIsoEpochAscii (the epochs of the Arrow answer as bytes): the bytes of isoEpochText', () => {
+  const bytesOf = (ms: number) => {
+    const out = new Uint8Array(ISO_EPOCH_MAX_BYTES + 3).fill(0x7e);
+    const end = writeIsoEpochAscii(ms, out, 3);
+    return Buffer.from(out.subarray(3, end));
+  };
+  it('whole and fractional milliseconds from before 1970 to the largest date, then the RangeError of an invalid one', () => {
+    const anyMs = fc.oneof(
+      fc.integer({ min: 0, max: 253_402_300_799_999 }),
+      fc.integer({ min: -8.64e15, max: 8.64e15 }),
+      fc.double({ min: -8.64e15, max: 8.64e15, noNaN: true }),
+      fc.constantFrom(0, -0, 86_399_999, 86_400_000, 253_402_300_799_999, 253_402_300_800_000, 8.64e15, -8.64e15, 1e12 + 0.5),
+    );
+    fc.assert(
+      fc.property(anyMs, (ms) => {
+        expect(bytesOf(ms).toString('latin1')).toBe(isoEpochText(ms));
+      }),
+      { numRuns: 5000 },
+    );
+    for (const ms of [NaN, Infinity, 8.64e15 + 1]) expect(() => bytesOf(ms)).toThrow(RangeError);
+  });
+});
+
 /** Whether python3 with pyarrow is installed (Debian's python3-pyarrow). */
 function hasPyarrow(): boolean {
   try {
@@ -257,13 +283,16 @@ describe.skipIf(!hasPyarrow())('pyarrow as an independent reader (Debian python3
     const gpsLike = estimatedDay({});
     const r = estimatedDay({}, { met: metRecords(gpsLike.estimate.epochs[0]!.epochMs - 300_000) });
     const bytes = zwdEstimatesArrowAnswer(r, arrow()).bytes;
-    const read = JSON.parse(execFileSync('python3', ['-c', PYARROW_READ], { input: bytes, maxBuffer: 64 * 1024 * 1024 }).toString('utf8')) as {
+    const read = JSON.parse(
+      execFileSync('python3', ['-c', PYARROW_READ], { input: bytes, maxBuffer: 64 * 1024 * 1024 }).toString('utf8'),
+    ) as {
       fields: [string, string, boolean][];
       columns: Record<string, unknown[]>;
       answer: string;
     };
     const table = tableFromIPC(bytes);
-    const pyarrowType = (type: DataType) => (DataType.isDictionary(type) ? 'dictionary<values=string, indices=int32, ordered=0>' : 'double');
+    const pyarrowType = (type: DataType) =>
+      DataType.isDictionary(type) ? 'dictionary<values=string, indices=int32, ordered=0>' : 'double';
     expect(read.fields).toEqual(table.schema.fields.map((f) => [f.name, pyarrowType(f.type), f.nullable]));
     for (const f of table.schema.fields) expect(read.columns[f.name]).toEqual([...table.getChild(f.name)!]);
     expect(read.answer).toBe(table.schema.metadata.get('answer'));
