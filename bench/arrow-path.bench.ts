@@ -2,9 +2,10 @@
  * What the Arrow form of POST /v1/zwd-estimates costs in-process (issue 14), this tree against an older one by
  * turns: the request reader (readArrowRequest, typed, as the task calls it) on the request of `npm run bench --
  * columns` (tableFromArrays: epoch and satellite dictionary-encoded Utf8, three float64 columns) and on the same
- * request with plain Utf8 texts (what pyarrow and polars send); the Arrow answer (the answer objects +
- * tableAnswer against zwd-estimates-arrow.ts); and the whole task (handleZwdRequest: read, check, estimate,
- * Arrow answer) beside the estimation service alone (runZwdEstimation). Both benchmark days
+ * request with plain Utf8 texts (what pyarrow and polars send); the Arrow answer (zwdEstimatesArrowAnswer of both
+ * trees; without a reference tree, the answer objects + tableAnswer against it); and the whole task
+ * (handleZwdRequest: read, check, estimate, Arrow answer) beside the estimation service alone (runZwdEstimation).
+ * Both benchmark days
  * (test/helpers/realistic-sky.ts, seed 11: GPS-like with 25 gross errors, four constellations with 100).
  * CPU time of this process (process.cpuUsage) per call, old and new run after run (so that both see the same
  * load), medians and ranges over RUNS runs after WARM_UP of warm-up, the load average before and after beside
@@ -102,6 +103,8 @@ export default async function bench(): Promise<string[]> {
     ? {
         read: (await load<{ readArrowRequest: typeof readArrowRequest }>('http/answer-shape.ts')).readArrowRequest,
         task: (await load<{ handleZwdRequest: typeof handleZwdRequest }>('http/tasks/zwd-request.ts')).handleZwdRequest,
+        answer: (await load<{ zwdEstimatesArrowAnswer: typeof zwdEstimatesArrowAnswer }>('http/adapters/zwd-estimates-arrow.ts'))
+          .zwdEstimatesArrowAnswer,
       }
     : undefined;
   const lines = [
@@ -112,11 +115,17 @@ export default async function bench(): Promise<string[]> {
     const result = runZwdEstimation(d.serviceRequest);
     lines.push(`${name}, ${d.count} observations, ${result.estimate.epochs.length} epochs:`);
     lines.push(
-      await compared(
-        'Arrow answer (answer objects + tableAnswer → zwd-estimates-arrow.ts)',
-        () => tableAnswer(zwdEstimatesResponseOf(result), ZWD_ANSWER_TABLES, ARROW_ANSWER),
-        () => zwdEstimatesArrowAnswer(result, ARROW_ANSWER),
-      ),
+      old
+        ? await compared(
+            'Arrow answer (zwdEstimatesArrowAnswer)',
+            () => old.answer(result, ARROW_ANSWER),
+            () => zwdEstimatesArrowAnswer(result, ARROW_ANSWER),
+          )
+        : await compared(
+            'Arrow answer (answer objects + tableAnswer → zwd-estimates-arrow.ts)',
+            () => tableAnswer(zwdEstimatesResponseOf(result), ZWD_ANSWER_TABLES, ARROW_ANSWER),
+            () => zwdEstimatesArrowAnswer(result, ARROW_ANSWER),
+          ),
     );
     if (!old) continue;
     for (const text of ['dictionary', 'utf8'] as const) {

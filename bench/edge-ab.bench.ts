@@ -3,14 +3,14 @@
  * <dist>/server.js` as `npm start` runs it) side by side, requests sent to each in alternating blocks (A B B A …)
  * so that both see the same load, each block's CPU read from /proc: the whole process (all threads) and its
  * event-loop thread (/proc/<pid>/task/<pid>/stat). Workloads: the GPS-like day (26 452 observations, columns
- * JSON, default options, rows answer) through `POST /v1/zwd-estimates`, and 10 000 slant delays a request
+ * JSON, default options, rows answer; or Arrow in and out, `gps-arrow`) through `POST /v1/zwd-estimates`, and 10 000 slant delays a request
  * through `POST /v1/slant-delays` (Arrow in and out; columns JSON in, `shape=columns` out) after every mapping
  * model ran in each service.
  *
  * `BENCH_EDGE_OLD=<dir of a built dist/> BENCH_EDGE_NEW=dist npm run bench -- edge-ab` (both default to dist/,
  * built first when older than the sources: the spread between two equal processes); `BENCH_EDGE_OLD_FLAGS` /
  * `BENCH_EDGE_NEW_FLAGS`: node flags of each beside --max-semi-space-size=32 (e.g. `--initial-old-space-size=128`);
- * `BENCH_EDGE_BLOCKS` (default 10); `BENCH_EDGE_PART` (gps | arrow | columns, default all). The answers of both
+ * `BENCH_EDGE_BLOCKS` (default 10); `BENCH_EDGE_PART` (gps | gps-arrow | arrow | columns, default all). The answers of both
  * are compared byte for byte (Arrow: by length, its flatbuffer bytes differ run to run).
  */
 
@@ -116,6 +116,21 @@ export function gpsDay(): Workload {
   };
 }
 
+/** The GPS-like day as an Arrow request (texts dictionary-encoded, as tableFromArrays makes them), Arrow answer. */
+export function gpsDayArrow(): Workload {
+  const { rest, columns } = dayRequest();
+  const table = tableFromArrays({
+    epoch: columns.epoch,
+    satellite: columns.satellite,
+    elevation_deg: Float64Array.from(columns.elevation_deg),
+    azimuth_deg: Float64Array.from(columns.azimuth_deg),
+    residual_m: Float64Array.from(columns.residual_m),
+  }) as Table;
+  table.schema.metadata.set('request', JSON.stringify(rest));
+  const body = tableToIPC(table, 'stream') as Uint8Array<ArrayBuffer>;
+  return { ...gpsDay(), name: `GPS-like day, Arrow in (${(body.length / 1e6).toFixed(2)} MB) and out`, body, type: ARROW, accept: ARROW };
+}
+
 export function slantArrow(): Workload {
   const table = tableFromArrays({ elevation_deg: Float64Array.from(elevation), azimuth_deg: Float64Array.from(azimuth) }) as Table;
   table.schema.metadata.set('request', JSON.stringify(base));
@@ -160,7 +175,7 @@ export default async function edgeAb(): Promise<string[]> {
     throw new Error('the build of dist/ failed');
   const blocks = Number(process.env.BENCH_EDGE_BLOCKS ?? 10);
   const part = process.env.BENCH_EDGE_PART;
-  const all = { gps: gpsDay, arrow: slantArrow, columns: slantColumns };
+  const all = { gps: gpsDay, 'gps-arrow': gpsDayArrow, arrow: slantArrow, columns: slantColumns };
   const workloads = Object.entries(all)
     .filter(([k]) => !part || part.split(',').includes(k))
     .map(([, make]) => make());

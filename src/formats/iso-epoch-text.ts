@@ -39,3 +39,46 @@ export function isoEpochText(ms: number): string {
   const seconds = Math.floor(rest / 1000);
   return `${cachedDate}${TWO_DIGITS[hours]!}:${TWO_DIGITS[minutes]!}:${TWO_DIGITS[seconds]!}.${THREE_DIGITS[rest - seconds * 1000]!}Z`;
 }
+
+/** Bytes of the longest text of isoEpochText: a signed six-digit year ("+275760-09-13T00:00:00.000Z"). */
+export const ISO_EPOCH_MAX_BYTES = 27;
+
+/** "YYYY-MM-DDT" of cachedAsciiDay, as ASCII bytes. */
+const cachedAsciiDate = new Uint8Array(11);
+let cachedAsciiDay = NaN;
+
+/** The ASCII text into out[at…], returning where it ends. */
+function writeAscii(text: string, out: Uint8Array, at: number): number {
+  for (let i = 0; i < text.length; i++) out[at + i] = text.charCodeAt(i);
+  return at + text.length;
+}
+
+/** value (an integer, < 10^width) as `width` decimal digits into out[at…]; int32 arithmetic (a double's % is fmod). */
+function writeDigits(out: Uint8Array, at: number, value: number, width: number): void {
+  for (let i = width - 1, v = value | 0; i >= 0; i--, v = (v / 10) | 0) out[at + i] = 0x30 + (v % 10);
+}
+
+/**
+ * The text of isoEpochText(ms) as ASCII bytes into out[at…] (room for ISO_EPOCH_MAX_BYTES), returning where it
+ * ends (or toISOString's RangeError): the text without a string made per epoch, for the Arrow answer's dictionary
+ * of epochs (issue 14; at load ~11 a string per epoch, then its pieces joined, cost ~0.2 µs an epoch, the bytes ~0.06 µs).
+ */
+export function writeIsoEpochAscii(ms: number, out: Uint8Array, at: number): number {
+  if (!(ms >= 0 && ms < YEAR_10000_MS) || Math.floor(ms) !== ms) return writeAscii(new Date(ms).toISOString(), out, at);
+  const day = Math.floor(ms / MS_PER_DAY);
+  if (day !== cachedAsciiDay) {
+    writeAscii(new Date(day * MS_PER_DAY).toISOString().slice(0, 11), cachedAsciiDate, 0);
+    cachedAsciiDay = day;
+  }
+  for (let i = 0; i < 11; i++) out[at + i] = cachedAsciiDate[i]!; // (a loop: TypedArray set costs more for 11 bytes)
+  const time = (ms - day * MS_PER_DAY) | 0; // [0, 86 399 999]
+  writeDigits(out, at + 11, (time / 3_600_000) | 0, 2);
+  out[at + 13] = 0x3a; // :
+  writeDigits(out, at + 14, ((time / 60_000) | 0) % 60, 2);
+  out[at + 16] = 0x3a; // :
+  writeDigits(out, at + 17, ((time / 1000) | 0) % 60, 2);
+  out[at + 19] = 0x2e; // .
+  writeDigits(out, at + 20, time % 1000, 3);
+  out[at + 23] = 0x5a; // Z
+  return at + 24;
+}

@@ -163,7 +163,8 @@ function float64StreamBytes(columns: Record<string, Float64Array>, answer: strin
 }
 
 const CONTINUATION = -1;
-const align8 = (n: number) => (n + 7) & ~7;
+/** n rounded up to a multiple of 8 (the alignment of every message and body buffer of the stream). */
+export const align8 = (n: number) => (n + 7) & ~7;
 
 /**
  * Buffers of answers and of request bodies of the a-priori batch routes, handed back once nothing reads them
@@ -230,8 +231,17 @@ export function ipcStreamBytes(table: Table): Uint8Array {
   return streamOf(schema, batches);
 }
 
-/** The stream of an encoded schema message and record batches (encoded header, body buffers), in one buffer. */
-function streamOf(schema: Uint8Array, batches: { header: Uint8Array; buffers: ArrayBufferView[] }[]): Uint8Array {
+/** A message of the stream after the schema (a dictionary or record batch): its encoded header and its body buffers. */
+export interface StreamMessage {
+  header: Uint8Array;
+  buffers: ArrayBufferView[];
+}
+
+/**
+ * The stream of an encoded schema message and the messages after it (encoded header, body buffers), in one buffer
+ * (from the answer pool, as ipcStreamBytes' answers).
+ */
+export function streamOf(schema: Uint8Array, batches: StreamMessage[]): Uint8Array {
   let size = align8(8 + schema.byteLength) + 8; // the schema message and the end-of-stream marker
   for (const { header, buffers } of batches) {
     size += align8(8 + header.byteLength);
