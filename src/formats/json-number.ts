@@ -106,51 +106,54 @@ const isPowerOfTwo = (q: number, k: number) => q === TWO_TO[k + 1074];
 /**
  * W · 10^e correctly rounded, W = wh + wl exactly (|wl| ≤ ulp(wh)/2, W ≥ 2^53, |e| ≤ 22), or NaN when the
  * rounding is not decided here (a near-tie). Returned through `wide[0]`: a double returned by a function
- * that is not inlined is a heap number, garbage for each value.
+ * that is not inlined is a heap number, garbage for each value; the two below are each small enough for V8
+ * to inline here (one function of both was not: a heap number per wide value, issue 14).
  */
 const wide = new Float64Array(1);
 function roundedWide(wh: number, wl: number, e: number): void {
-  wide[0] = roundedWideValue(wh, wl, e);
+  wide[0] = e >= 0 ? roundedProduct(wh, wl, e) : roundedQuotient(wh, wl, -e);
 }
 
-function roundedWideValue(wh: number, wl: number, e: number): number {
-  if (e >= 0) {
-    // x = (wh + wl) · P; r(q) = x − q = (c1 − q) + c2 + wl·P with c1 + c2 = wh · P exactly.
-    const P = POW10[e]!;
-    const c1 = wh * P;
-    const c2 = productError(wh, e, c1);
-    const wlP = wl * P;
-    let q = c1;
-    for (let step = 0; step < 4; step++) {
-      const d = c1 - q; // exact (Sterbenz: q within a few ulps of c1)
-      const r = d + c2 + wlP;
-      // Both half gaps exceed q · 2^−54 (the one below a power of two equals it): well inside, q.
-      if (Math.abs(r) < q * QUICK) return q;
-      const band = (Math.abs(d) + Math.abs(c2) + Math.abs(wlP)) * BAND;
-      const k = binaryExponent(q);
-      const up = gapAbove(k) / 2;
-      const down = isPowerOfTwo(q, k) ? up / 2 : up;
-      if (r < up - band && r > -down + band) return q;
-      if (r > up + band) q += 2 * up;
-      else if (r < -down - band) q -= 2 * down;
-      else return NaN;
-    }
-    return NaN;
+/** (wh + wl) · 10^e correctly rounded, or NaN (roundedWide). */
+function roundedProduct(wh: number, wl: number, e: number): number {
+  // x = (wh + wl) · P; r(q) = x − q = (c1 − q) + c2 + wl·P with c1 + c2 = wh · P exactly.
+  const P = POW10[e]!;
+  const c1 = wh * P;
+  const c2 = productError(wh, e, c1);
+  const wlP = wl * P;
+  let q = c1;
+  for (let step = 0; step < 4; step++) {
+    const d = c1 - q; // exact (Sterbenz: q within a few ulps of c1)
+    const r = d + c2 + wlP;
+    // Both half gaps exceed q · 2^−54 (the one below a power of two equals it): well inside, q.
+    if (Math.abs(r) < q * QUICK) return q;
+    const band = (Math.abs(d) + Math.abs(c2) + Math.abs(wlP)) * BAND;
+    const k = binaryExponent(q);
+    const up = gapAbove(k) / 2;
+    const down = isPowerOfTwo(q, k) ? up / 2 : up;
+    if (r < up - band && r > -down + band) return q;
+    if (r > up + band) q += 2 * up;
+    else if (r < -down - band) q -= 2 * down;
+    else return NaN;
   }
+  return NaN;
+}
+
+/** (wh + wl) / 10^k correctly rounded, or NaN (roundedWide). */
+function roundedQuotient(wh: number, wl: number, k: number): number {
   // x = (wh + wl) / P; r(q) · P = (wh − a1) − a2 + wl with a1 + a2 = q · P exactly. The first q with wl in
   // it: one step (a second product) for ~8 % of a day's numbers instead of ~31 % from wh / P alone.
-  const P = POW10[-e]!;
+  const P = POW10[k]!;
   let q = wh / P + wl / P;
   for (let step = 0; step < 4; step++) {
     const a1 = q * P;
-    const a2 = productError(q, -e, a1);
+    const a2 = productError(q, k, a1);
     const d = wh - a1; // exact (Sterbenz)
     const r = d - a2 + wl;
-    if (Math.abs(r) < a1 * QUICK) return q; // as above, in units of W (a1 ≈ q · P)
     const band = (Math.abs(d) + Math.abs(a2) + Math.abs(wl)) * BAND;
-    const k = binaryExponent(q);
-    const gap = gapAbove(k);
-    const powerOfTwo = isPowerOfTwo(q, k);
+    const b = binaryExponent(q);
+    const gap = gapAbove(b);
+    const powerOfTwo = isPowerOfTwo(q, b);
     const up = (gap / 2) * P; // exact: a power of two times 10^k
     const down = powerOfTwo ? up / 2 : up;
     if (r < up - band && r > -down + band) return q;
