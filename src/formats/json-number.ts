@@ -105,17 +105,18 @@ const isPowerOfTwo = (q: number, k: number) => q === TWO_TO[k + 1074];
 
 /**
  * W · 10^e correctly rounded, W = wh + wl exactly (|wl| ≤ ulp(wh)/2, W ≥ 2^53, |e| ≤ 22), or NaN when the
- * rounding is not decided here (a near-tie). Returned through `wide[0]`: a double returned by a function
- * that is not inlined is a heap number, garbage for each value; the two below are each small enough for V8
- * to inline here (one function of both was not: a heap number per wide value, issue 14).
+ * rounding is not decided here (a near-tie), written to `wide[0]`: a double returned by a function that V8
+ * does not inline is a heap number, garbage for each value (issue 14: ~46 000 a GPS-like day when the
+ * function holding both ways below was too big to inline).
  */
 const wide = new Float64Array(1);
 function roundedWide(wh: number, wl: number, e: number): void {
-  wide[0] = e >= 0 ? roundedProduct(wh, wl, e) : roundedQuotient(wh, wl, -e);
+  if (e >= 0) roundedProduct(wh, wl, e);
+  else roundedQuotient(wh, wl, -e);
 }
 
-/** (wh + wl) · 10^e correctly rounded, or NaN (roundedWide). */
-function roundedProduct(wh: number, wl: number, e: number): number {
+/** (wh + wl) · 10^e correctly rounded, or NaN, to `wide[0]` (roundedWide). */
+function roundedProduct(wh: number, wl: number, e: number): void {
   // x = (wh + wl) · P; r(q) = x − q = (c1 − q) + c2 + wl·P with c1 + c2 = wh · P exactly.
   const P = POW10[e]!;
   const c1 = wh * P;
@@ -126,21 +127,27 @@ function roundedProduct(wh: number, wl: number, e: number): number {
     const d = c1 - q; // exact (Sterbenz: q within a few ulps of c1)
     const r = d + c2 + wlP;
     // Both half gaps exceed q · 2^−54 (the one below a power of two equals it): well inside, q.
-    if (Math.abs(r) < q * QUICK) return q;
+    if (Math.abs(r) < q * QUICK) {
+      wide[0] = q;
+      return;
+    }
     const band = (Math.abs(d) + Math.abs(c2) + Math.abs(wlP)) * BAND;
     const k = binaryExponent(q);
     const up = gapAbove(k) / 2;
     const down = isPowerOfTwo(q, k) ? up / 2 : up;
-    if (r < up - band && r > -down + band) return q;
+    if (r < up - band && r > -down + band) {
+      wide[0] = q;
+      return;
+    }
     if (r > up + band) q += 2 * up;
     else if (r < -down - band) q -= 2 * down;
-    else return NaN;
+    else break;
   }
-  return NaN;
+  wide[0] = NaN;
 }
 
-/** (wh + wl) / 10^k correctly rounded, or NaN (roundedWide). */
-function roundedQuotient(wh: number, wl: number, k: number): number {
+/** (wh + wl) / 10^k correctly rounded, or NaN, to `wide[0]` (roundedWide). */
+function roundedQuotient(wh: number, wl: number, k: number): void {
   // x = (wh + wl) / P; r(q) · P = (wh − a1) − a2 + wl with a1 + a2 = q · P exactly. The first q with wl in
   // it: one step (a second product) for ~8 % of a day's numbers instead of ~31 % from wh / P alone.
   const P = POW10[k]!;
@@ -156,12 +163,15 @@ function roundedQuotient(wh: number, wl: number, k: number): number {
     const powerOfTwo = isPowerOfTwo(q, b);
     const up = (gap / 2) * P; // exact: a power of two times 10^k
     const down = powerOfTwo ? up / 2 : up;
-    if (r < up - band && r > -down + band) return q;
+    if (r < up - band && r > -down + band) {
+      wide[0] = q;
+      return;
+    }
     if (r > up + band) q += gap;
     else if (r < -down - band) q -= powerOfTwo ? gap / 2 : gap;
-    else return NaN;
+    else break;
   }
-  return NaN;
+  wide[0] = NaN;
 }
 
 /**
@@ -265,7 +275,7 @@ export function readPlainNumber(bytes: Uint8Array, view: DataView, start: number
     const wh = t + lo;
     if (wh < TWO_53) x = wh / POW10[-e]!;
     else {
-      roundedWide(wh, lo - (wh - t), e);
+      roundedQuotient(wh, lo - (wh - t), -e);
       x = wide[0]!;
     }
     if (Number.isNaN(x)) return -1; // a near-tie: Number() of the text, by the general path
