@@ -73,7 +73,9 @@ export default async function jsonReadBench(): Promise<string[]> {
   const lines: string[] = [];
   const part = process.env.BENCH_PART; // "parse" or "task": that part only
   for (const day of Object.keys(DAYS) as (keyof typeof DAYS)[]) {
-    lines.push(`${DAYS[day].name}, ${rounds} rounds by turns, CPU time of each process (all threads) per run${FROM_DIST ? ', from dist/' : ''}:`);
+    lines.push(
+      `${DAYS[day].name}, ${rounds} rounds by turns, CPU time of each process (all threads) per run${FROM_DIST ? ', from dist/' : ''}:`,
+    );
     if (part !== 'task') {
       const load0 = load();
       const [oldParse, newParse] = await byTurns([reference ? `parse-read:${reference}` : 'parse-text', 'parse-read'], day, rounds);

@@ -43,11 +43,17 @@ async function runOf(): Promise<() => Promise<unknown>> {
     };
   }
   if (kind === 'parse-read') {
-    const { readJsonColumnsBody: read } = await moduleOf<{ readJsonColumnsBody: typeof readJsonColumnsBody }>('formats/json-columns-reader', root);
+    const { readJsonColumnsBody: read } = await moduleOf<{ readJsonColumnsBody: typeof readJsonColumnsBody }>(
+      'formats/json-columns-reader',
+      root,
+    );
     const { typedObservationsFromJsonColumns: typed } = await moduleOf<{
       typedObservationsFromJsonColumns: typeof typedObservationsFromJsonColumns;
     }>('http/adapters/zwd-estimation', root);
-    const columns = await moduleOf<{ columnSpecsOf: typeof columnSpecsOf; jsonColumnSpecsOf: typeof jsonColumnSpecsOf }>('http/columns', root);
+    const columns = await moduleOf<{ columnSpecsOf: typeof columnSpecsOf; jsonColumnSpecsOf: typeof jsonColumnSpecsOf }>(
+      'http/columns',
+      root,
+    );
     const schemas = await moduleOf<{ zwdObservationSchema: typeof zwdObservationSchema }>('http/schemas/zwd-estimates', root);
     const specs = columns.jsonColumnSpecsOf(columns.columnSpecsOf(schemas.zwdObservationSchema.shape));
     return async () => {
