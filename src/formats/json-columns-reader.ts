@@ -14,7 +14,7 @@
  * checks), whose errors name what is wrong. So this reader never changes an answer or an error.
  */
 
-import { readJsonNumber } from './json-number.js';
+import { readJsonNumber, readPlainNumber } from './json-number.js';
 
 /** A number column: values in [min, max] (min excluded when `exclusiveMin`); null (read as NaN) where `nullable`. */
 export interface JsonNumberColumnSpec {
@@ -175,24 +175,13 @@ const MAX_PROBES = 64;
  * Distinct texts by their bytes (open addressing on an FNV-1a hash): a text is decoded, checked and
  * stored once, and each row gets its index.
  */
-/** Longest text made by one String.fromCharCode call (its arguments go on the stack); longer ones in pieces. */
-const TEXT_PIECE = 1024;
-
-/**
- * The text of bytes [start, end) (printable ASCII, checked by the caller) as one string: one call per piece
- * instead of a string per character (issue 14: `text +=` a character made ~1.8 MB of intermediate strings a
- * GPS-like day, 20 per epoch text).
- */
-function asciiText(b: Uint8Array, start: number, end: number): string {
-  let text = '';
-  for (let p = start; p < end; p += TEXT_PIECE) {
-    text += String.fromCharCode.apply(null, b.subarray(p, Math.min(p + TEXT_PIECE, end)) as unknown as number[]);
-  }
-  return text;
-}
-
 class TextInterner {
   private slots = new Int32Array(1024); // distinct index + 1; 0 = empty
+  /**
+   * The same bytes as a Buffer, for each new text in one call (printable ASCII, checked by the caller, so
+   * its latin1 text is its text; issue 14: a String.fromCharCode call per piece of a subarray cost ~3× as much).
+   */
+  private readonly bytes: Buffer;
   private starts: number[] = [];
   private lengths: number[] = [];
   private hashes: number[] = [];
@@ -201,7 +190,9 @@ class TextInterner {
   constructor(
     private readonly b: Uint8Array,
     private readonly accept: (text: string) => boolean,
-  ) {}
+  ) {
+    this.bytes = Buffer.from(b.buffer, b.byteOffset, b.byteLength);
+  }
 
   /** The index of the text of bytes [start, end) with hash h; throws when the text is refused. */
   indexOf(start: number, end: number, h: number): number {
@@ -228,7 +219,7 @@ class TextInterner {
       }
       slot = (slot + 1) & mask;
     }
-    const text = asciiText(b, start, end);
+    const text = this.bytes.toString('latin1', start, end);
     if (!this.accept(text)) throw NOT_READ;
     const k = this.distinct.push(text) - 1;
     this.starts.push(start);
@@ -237,6 +228,11 @@ class TextInterner {
     this.slots[slot] = k + 1;
     if (this.distinct.length * 2 > this.slots.length) this.grow();
     return k;
+  }
+
+  /** The length in bytes of the distinct text k. */
+  lengthOf(k: number): number {
+    return this.lengths[k]!;
   }
 
   private grow(): void {
@@ -333,7 +329,8 @@ function readNumberArray(b: Uint8Array, i: number, spec: JsonNumberColumnSpec, c
       nulls = true;
       i += 4;
     } else {
-      i = readJsonNumber(b, view, i, values, count);
+      const end = readPlainNumber(b, view, i, values, count);
+      i = end >= 0 ? end : readJsonNumber(b, view, i, values, count);
       const v = values[count]!;
       if (!((exclusiveMin ? v > min : v >= min) && v <= max)) throw NOT_READ; // NaN (not a number) fails too
     }
@@ -357,11 +354,28 @@ function readNumberArray(b: Uint8Array, i: number, spec: JsonNumberColumnSpec, c
 /** Slots of the cache of short texts in readTextArray (a power of two). */
 const SHORT_CACHE = 256;
 
+/**
+ * The first four bytes of a text (from its first byte) when they hold its closing quote (a text of up to
+ * three bytes: a satellite), else 0. Such a word tells the text: the same word, the same text (what
+ * follows the quote in the word is part of the key, so at worst a miss). 0 is no such word (a text
+ * holds no byte 0).
+ */
+function shortTextWord(b: Uint8Array, view: DataView, start: number): number {
+  if (start + 4 > b.length) return 0;
+  const w = view.getInt32(start, true);
+  // a byte equal to the quote: (byte ^ 0x22) is 0 (the classic zero-byte test: (v − 0x01…) & ~v & 0x80…)
+  const v = w ^ 0x22222222;
+  return ((v - 0x01010101) & ~v & 0x80808080) !== 0 ? w : 0;
+}
+
+/** Slot of a short text's word in the cache: the top bits of its product with a large odd constant. */
+const shortSlot = (w: number) => Math.imul(w, 0x9e3779b1) >>> 24;
+
 /** A text array at `i` (its bracket): every value a string of printable ASCII without escapes, accepted by the spec. */
 function readTextArray(b: Uint8Array, i: number, spec: JsonTextColumnSpec, capacity: number, rows: number, maxRows: number): ArrayRead {
   const interner = new TextInterner(b, spec.accept);
   const view = new DataView(b.buffer, b.byteOffset, b.byteLength);
-  const shortKeys = new Float64Array(SHORT_CACHE).fill(-1);
+  const shortWords = new Int32Array(SHORT_CACHE);
   const shortIndex = new Int32Array(SHORT_CACHE);
   let values = new Uint32Array(capacity);
   let count = 0;
@@ -374,41 +388,45 @@ function readTextArray(b: Uint8Array, i: number, spec: JsonTextColumnSpec, capac
   for (;;) {
     if (b[i] !== QUOTE) throw NOT_READ;
     const start = i + 1;
-    // Compared with the (checked) text of the row before first: runs of one text (an epoch on every
-    // satellite in view) cost one comparison a byte; only a new text is checked, hashed and looked up.
-    let j = start;
-    const offset = lastStart - start;
-    const sameEnd = start + lastLength;
-    const wordsEnd = Math.min(sameEnd, n) - 4;
-    while (j <= wordsEnd && view.getInt32(j) === view.getInt32(j + offset)) j += 4;
-    while (j < sameEnd && b[j] === b[j + offset]) j++;
     let k: number;
-    if (j === sameEnd && b[j] === QUOTE) k = lastIndex;
-    else {
-      let h = 0x811c9dc5;
-      let key = 0; // the bytes of a short text as one number (exact up to 6 bytes)
-      for (j = start; ; j++) {
-        if (j >= n) throw NOT_READ;
-        const c = b[j]!;
-        if (c === QUOTE) break;
-        if (c < SPACE || c >= 0x7f || c === BACKSLASH) throw NOT_READ;
-        h = Math.imul(h ^ c, 0x01000193);
-        key = key * 256 + c;
-      }
-      // Short texts (satellite names) through a small cache by their bytes as a number: no byte
-      // comparison, no probe of the table. Every byte is ≥ 0x20, so the number tells the text.
-      if (j - start <= 6) {
-        const slot = h & (SHORT_CACHE - 1);
-        if (shortKeys[slot] === key) k = shortIndex[slot]!;
-        else {
-          k = interner.indexOf(start, j, h);
-          shortKeys[slot] = key;
+    let end: number;
+    // A short text (a satellite) by its first word, when it was met before: one look-up, no byte loop.
+    const word = shortTextWord(b, view, start);
+    const slot = shortSlot(word);
+    if (word !== 0 && shortWords[slot] === word) {
+      k = shortIndex[slot]!;
+      end = start + interner.lengthOf(k);
+    } else {
+      // Compared with the (checked) text of the row before, eight bytes at a time: runs of one text (an
+      // epoch on every satellite in view) cost one comparison per eight bytes; only a new text is checked,
+      // hashed and looked up. As doubles: the row before's bytes are printable ASCII, so its eight bytes are
+      // neither ±0 nor NaN, and equal doubles are equal bytes.
+      let j = start;
+      const offset = lastStart - start;
+      const sameEnd = start + lastLength;
+      const wordsEnd = Math.min(sameEnd, n) - 8;
+      while (j <= wordsEnd && view.getFloat64(j, true) === view.getFloat64(j + offset, true)) j += 8;
+      while (j < sameEnd && b[j] === b[j + offset]) j++;
+      if (j === sameEnd && b[j] === QUOTE) k = lastIndex;
+      else {
+        let h = 0x811c9dc5;
+        for (j = start; ; j++) {
+          if (j >= n) throw NOT_READ;
+          const c = b[j]!;
+          if (c === QUOTE) break;
+          if (c < SPACE || c >= 0x7f || c === BACKSLASH) throw NOT_READ;
+          h = Math.imul(h ^ c, 0x01000193);
+        }
+        k = interner.indexOf(start, j, h);
+        if (word !== 0) {
+          shortWords[slot] = word;
           shortIndex[slot] = k;
         }
-      } else k = interner.indexOf(start, j, h);
+      }
+      end = j;
     }
     lastStart = start;
-    lastLength = j - start;
+    lastLength = end - start;
     lastIndex = k;
     if (count === values.length) {
       if (rows >= 0 || count >= maxRows) throw NOT_READ;
@@ -417,7 +435,7 @@ function readTextArray(b: Uint8Array, i: number, spec: JsonTextColumnSpec, capac
       values = grown;
     }
     values[count++] = k;
-    i = skipSpace(b, j + 1);
+    i = skipSpace(b, end + 1);
     const c = b[i];
     if (c === COMMA) {
       i = skipSpace(b, i + 1);

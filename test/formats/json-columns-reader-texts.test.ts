@@ -1,7 +1,7 @@
 /**
- * The texts of readJsonColumnsBody (src/formats/json-columns-reader.ts) made in pieces of 1024 bytes (one
- * String.fromCharCode call each) against JSON.parse (ECMA-262 JSON.parse): texts of every length around the
- * piece boundaries give JSON.parse's strings. The column check here is the test's own (any text).
+ * The texts of readJsonColumnsBody (src/formats/json-columns-reader.ts) against JSON.parse (ECMA-262
+ * JSON.parse): texts of every length around 1024 bytes (where they were once made in pieces) and long ones
+ * give JSON.parse's strings. The column check here is the test's own (any text).
  */
 
 import { describe, expect, it } from 'vitest';

@@ -183,3 +183,37 @@ describe('texts made to collide in the hash table are left to the general path (
     expect(readJsonColumnsBody(bytesOf(body(ordinary)), 'observations', specs, 1000)?.texts.t!.distinct).toEqual(ordinary);
   });
 });
+
+describe('texts told apart by their first word (up to three bytes) or by the row before (eight bytes at a time)', () => {
+  const specs: Record<string, JsonColumnSpec> = { t: { kind: 'text', required: true, accept: () => true } };
+  const EPOCH = '2026-06-21T00:00:30.000Z';
+
+  it('short texts of 0..5 bytes and epochs differing in one byte anywhere, in runs, with and without spaces: JSON.parse’s texts', () => {
+    const short = fc.string({ unit: fc.constantFrom(...'G0145 ,]:'), maxLength: 5 });
+    const epoch = fc
+      .tuple(fc.nat({ max: EPOCH.length - 1 }), fc.constantFrom(...'0123456789:TZ.-'))
+      .map(([at, c]) => `${EPOCH.slice(0, at)}${c}${EPOCH.slice(at + 1)}`);
+    const runs = fc.array(fc.tuple(fc.oneof(short, epoch, fc.constant(EPOCH)), fc.integer({ min: 1, max: 4 })), {
+      minLength: 1,
+      maxLength: 30,
+    });
+    fc.assert(
+      fc.property(runs, fc.boolean(), (r, spaced) => {
+        const texts = r.flatMap(([text, n]) => Array<string>(n).fill(text));
+        const body = `{"observations":{"t":[${texts.map((t) => JSON.stringify(t)).join(spaced ? ' , ' : ',')}]}}`;
+        const got = readJsonColumnsBody(bytesOf(body), 'observations', specs, 1000);
+        expect(got, body).toBeDefined();
+        expect(Array.from(got!.texts.t!.index, (k) => got!.texts.t!.distinct[k])).toEqual(texts);
+        expect(got!.texts.t!.distinct).toEqual([...new Set(texts)]);
+      }),
+      { numRuns: 2000, seed: 20261203 },
+    );
+  });
+
+  it('bodies cut anywhere (a text’s first word or eight bytes running past the end): undefined, nothing thrown', () => {
+    const body = `{"observations":{"t":["G04","G0","${EPOCH}","${EPOCH}","G04",""]}}`;
+    for (let end = 0; end < body.length; end++)
+      expect(readJsonColumnsBody(bytesOf(body.slice(0, end)), 'observations', specs, 10)).toBeUndefined();
+    expect(readJsonColumnsBody(bytesOf(body), 'observations', specs, 10)?.texts.t!.distinct).toEqual(['G04', 'G0', EPOCH, '']);
+  });
+});

@@ -4,13 +4,16 @@
  * any number of digits) for the value, and JSON.parse (RFC 8259 §6 grammar) for what is a JSON number.
  * fast-check draws the texts: doubles printed by String, toPrecision, toExponential and toFixed, long
  * digit strings with exponents, and exact midpoints between two doubles (the ties the exact check must
- * leave to Number()) with their last digit moved by one either way. BENCH-free: the counts below are
- * the test's; JSON_NUMBER_RUNS scales them (e.g. 10 for ten times as many).
+ * leave to Number()) with their last digit moved by one either way. readJsonNumber reads the plain shape
+ * (no exponent, up to 15 integer digits) by readPlainNumber first, so all of these go through it where
+ * it answers; the last block holds readPlainNumber alone to Number() on the texts of observation columns
+ * and checks it answers them (not leaving them all to the general path). BENCH-free: the counts below
+ * are the test's; JSON_NUMBER_RUNS scales them (e.g. 10 for ten times as many).
  */
 
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { jsonNumberOf, readJsonNumber } from '../../src/formats/json-number.js';
+import { jsonNumberOf, readJsonNumber, readPlainNumber } from '../../src/formats/json-number.js';
 
 // A fixed seed keeps CI deterministic; change it locally to explore other cases.
 const SCALE = Number(process.env.JSON_NUMBER_RUNS ?? 1);
@@ -212,5 +215,115 @@ describe('the grammar: a JSON number exactly when JSON.parse reads one (RFC 8259
       fc.property(fc.string({ unit, maxLength: 12 }), (text) => Object.is(jsonNumberOf(text), parsed(text))),
       FC(200_000),
     );
+  });
+});
+
+/** readPlainNumber of the whole of `text`: its value, or undefined when it leaves the text to the general path. */
+function plainOf(text: string): number | undefined {
+  const bytes = new TextEncoder().encode(`${text},`); // as in a column: a delimiter after the number
+  const out = new Float64Array(1);
+  const end = readPlainNumber(bytes, new DataView(bytes.buffer), 0, out, 0);
+  if (end < 0) return undefined;
+  if (end !== text.length) throw new Error(`${text}: read to ${end}`);
+  return out[0];
+}
+
+describe('readPlainNumber (the plain shape read first): Number()’s value whenever it answers, and it answers the plain texts', () => {
+  /** Texts without exponent of up to 15 integer digits. */
+  const plain = (texts: string[]) => texts.filter((t) => !/e/i.test(t) && t.replace(/^-?/, '').split('.')[0]!.length <= 15);
+  /** The text and its last digit moved by one either way: the decisions next to a half gap (where an ulp off would show). */
+  const withNeighbours = (text: string) => {
+    const last = Number(text[text.length - 1]);
+    const body = text.slice(0, -1);
+    return [text, `${body}${(last + 1) % 10}`, `${body}${(last + 9) % 10}`];
+  };
+
+  it('doubles of the magnitudes of observation columns (1e-3..1e7, both signs) by String, toPrecision(15..17), toFixed(0..20), and their neighbours', () => {
+    let texts = 0; // of up to 17 significant digits (String, toPrecision): what it is for
+    let answered = 0;
+    fc.assert(
+      fc.property(
+        fc.double({ min: 1e-3, max: 1e7, noNaN: true }),
+        fc.boolean(),
+        fc.integer({ min: 15, max: 17 }),
+        fc.integer({ min: 0, max: 20 }),
+        (x, negative, p, d) => {
+          const v = negative ? -x : x;
+          for (const t of plain([String(v), v.toPrecision(p)]).flatMap(withNeighbours)) {
+            texts++;
+            const read = plainOf(t);
+            if (read !== undefined) answered++;
+            if (read !== undefined && !Object.is(read, Number(t))) return false;
+          }
+          return plain([v.toFixed(d)]).every((t) => {
+            const read = plainOf(t);
+            return read === undefined || Object.is(read, Number(t));
+          });
+        },
+      ),
+      FC(100_000),
+    );
+    // left to the general path: near-ties, and texts of more than 15 digits after the first four of the fraction
+    expect(answered / texts).toBeGreaterThan(0.99);
+  });
+
+  it('exact midpoints between neighbouring doubles and their last digit ±1, where plain: Number()’s value or no answer', () => {
+    fc.assert(
+      fc.property(fc.double({ min: 1e-5, max: 1e12, noNaN: true }), fc.integer({ min: 16, max: 22 }), (x, digits) => {
+        const mid = midpointText(x);
+        const cut = mid.includes('.') ? mid.slice(0, Math.max(mid.indexOf('.') + 2, digits + 1)) : mid;
+        return [...withNeighbours(cut), `-${cut}`].every((t) => {
+          const v = plainOf(t);
+          return v === undefined || Object.is(v, Number(t));
+        });
+      }),
+      FC(50_000),
+    );
+  });
+
+  it('digit strings: up to 15 integer digits, 1..22 fraction digits (W from 1 to 10^37): Number()’s value where it answers', () => {
+    const digits = (min: number, max: number) => fc.string({ unit: fc.constantFrom(...'0123456789'), minLength: min, maxLength: max });
+    let answered = 0;
+    fc.assert(
+      fc.property(fc.boolean(), digits(1, 15), digits(1, 22), (negative, whole, fraction) => {
+        const text = `${negative ? '-' : ''}${whole.replace(/^0+(?=\d)/, '')}.${fraction}`;
+        const v = plainOf(text);
+        if (v !== undefined) answered++;
+        return v === undefined || Object.is(v, Number(text));
+      }),
+      FC(100_000),
+    );
+    expect(answered).toBeGreaterThan(FC(100_000).numRuns / 4);
+  });
+
+  it.each([
+    ['1e5', 'an exponent'],
+    ['1.5E-3', 'an exponent'],
+    ['01', 'a leading zero'],
+    ['1.', 'no fraction digit'],
+    ['-', 'no digit'],
+    ['+1', 'a plus sign'],
+    ['.5', 'no integer digit'],
+    ['1234567890123456', '16 integer digits'],
+    ['1234567890123456.5', '16 integer digits'],
+    ['0.00000000000000000000001', '23 fraction digits'],
+    ['1.2345678901234567890123', '20 fraction digits after the first four'],
+  ])('leaves %j to the general path (%s)', (text) => {
+    expect(plainOf(text)).toBeUndefined();
+    expect(jsonNumberOf(text)).toEqual(parsed(text)); // which reads it as JSON.parse does
+  });
+
+  it('stops where the number ends: at the end of the bytes, and before what is not a digit', () => {
+    const out = new Float64Array(1);
+    for (const [text, end, value] of [
+      ['12', 2, 12],
+      ['-0.5', 4, -0.5],
+      ['7.25]', 4, 7.25],
+      ['3.0001x', 6, 3.0001],
+      ['1.5.3', 3, 1.5],
+    ] as const) {
+      const bytes = new TextEncoder().encode(text);
+      expect([text, readPlainNumber(bytes, new DataView(bytes.buffer), 0, out, 0), out[0]]).toEqual([text, end, value]);
+    }
   });
 });
