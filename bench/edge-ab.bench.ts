@@ -10,7 +10,8 @@
  * `BENCH_EDGE_OLD=<dir of a built dist/> BENCH_EDGE_NEW=dist npm run bench -- edge-ab` (both default to dist/,
  * built first when older than the sources: the spread between two equal processes); `BENCH_EDGE_OLD_FLAGS` /
  * `BENCH_EDGE_NEW_FLAGS`: node flags of each beside --max-semi-space-size=32 (e.g. `--initial-old-space-size=128`);
- * `BENCH_EDGE_BLOCKS` (default 10); `BENCH_EDGE_PART` (gps | arrow | columns, default all). The answers of both
+ * `BENCH_EDGE_BLOCKS` (default 10); `BENCH_EDGE_PART` (gps | gps-columns | gps-arrow | arrow | columns,
+ * comma-separated, default all; gps-columns: the GPS-like day with the `shape=columns` answer, gps-arrow: Arrow in and out). The answers of both
  * are compared byte for byte (Arrow: by length, its flatbuffer bytes differ run to run).
  */
 
@@ -21,7 +22,7 @@ import { join, resolve } from 'node:path';
 import { tableFromArrays, tableToIPC, type Table } from 'apache-arrow';
 import { MAPPING_MODEL_KEYS } from '../src/domain/mapping/registry.js';
 import { freePort, serverEnvironment } from '../test/helpers/server-process.js';
-import { dayRequest } from '../test/helpers/gps-like-days.js';
+import { columnsArrow, dayRequest } from '../test/helpers/gps-like-days.js';
 
 const ARROW = 'application/vnd.apache.arrow.stream';
 const N = 10_000;
@@ -116,6 +117,17 @@ export function gpsDay(): Workload {
   };
 }
 
+/** The GPS-like day as columns JSON with the `shape=columns` answer. */
+export function gpsDayColumnsOut(): Workload {
+  return { ...gpsDay(), name: 'GPS-like day, columns JSON in, shape=columns out', path: '/v1/zwd-estimates?shape=columns' };
+}
+
+/** The GPS-like day as an Arrow table in, `Accept: Arrow` out (the same form as the columns bench). */
+export function gpsDayArrow(): Workload {
+  const body = columnsArrow(dayRequest());
+  return { ...gpsDay(), name: `GPS-like day, Arrow in (${(body.length / 1e6).toFixed(1)} MB) and out`, body, type: ARROW, accept: ARROW };
+}
+
 export function slantArrow(): Workload {
   const table = tableFromArrays({ elevation_deg: Float64Array.from(elevation), azimuth_deg: Float64Array.from(azimuth) }) as Table;
   table.schema.metadata.set('request', JSON.stringify(base));
@@ -160,7 +172,7 @@ export default async function edgeAb(): Promise<string[]> {
     throw new Error('the build of dist/ failed');
   const blocks = Number(process.env.BENCH_EDGE_BLOCKS ?? 10);
   const part = process.env.BENCH_EDGE_PART;
-  const all = { gps: gpsDay, arrow: slantArrow, columns: slantColumns };
+  const all = { gps: gpsDay, 'gps-columns': gpsDayColumnsOut, 'gps-arrow': gpsDayArrow, arrow: slantArrow, columns: slantColumns };
   const workloads = Object.entries(all)
     .filter(([k]) => !part || part.split(',').includes(k))
     .map(([, make]) => make());

@@ -183,6 +183,7 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
       maxThreads: this.options.threads,
       maxQueue: this.options.queueLimit,
       idleTimeout: 60_000,
+      recordTiming: false, // piscina's run and wait histograms: unread here (the plugin keeps its own metrics)
     }));
   }
 
