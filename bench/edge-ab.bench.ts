@@ -11,8 +11,8 @@
  * built first when older than the sources: the spread between two equal processes); `BENCH_EDGE_OLD_FLAGS` /
  * `BENCH_EDGE_NEW_FLAGS`: node flags of each beside --max-semi-space-size=32 (e.g. `--initial-old-space-size=128`);
  * `BENCH_EDGE_BLOCKS` (default 10); `BENCH_EDGE_PART` (gps | gps-columns | gps-arrow | arrow | columns,
- * comma-separated, default all; gps-columns: the GPS-like day with the `shape=columns` answer, gps-arrow: Arrow in and out). The answers of both
- * are compared byte for byte (Arrow: by length, its flatbuffer bytes differ run to run).
+ * comma-separated, default all; gps-columns: the GPS-like day with the `shape=columns` answer, gps-arrow: Arrow in
+ * and out). The answers of both are compared byte for byte (Arrow: by length, its flatbuffer bytes differ run to run).
  */
 
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
