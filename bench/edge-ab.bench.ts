@@ -3,15 +3,16 @@
  * <dist>/server.js` as `npm start` runs it) side by side, requests sent to each in alternating blocks (A B B A …)
  * so that both see the same load, each block's CPU read from /proc: the whole process (all threads) and its
  * event-loop thread (/proc/<pid>/task/<pid>/stat). Workloads: the GPS-like day (26 452 observations, columns
- * JSON, default options, rows answer; or Arrow in and out, `gps-arrow`) through `POST /v1/zwd-estimates`, and 10 000 slant delays a request
+ * JSON, default options, rows answer) through `POST /v1/zwd-estimates`, and 10 000 slant delays a request
  * through `POST /v1/slant-delays` (Arrow in and out; columns JSON in, `shape=columns` out) after every mapping
  * model ran in each service.
  *
  * `BENCH_EDGE_OLD=<dir of a built dist/> BENCH_EDGE_NEW=dist npm run bench -- edge-ab` (both default to dist/,
  * built first when older than the sources: the spread between two equal processes); `BENCH_EDGE_OLD_FLAGS` /
  * `BENCH_EDGE_NEW_FLAGS`: node flags of each beside --max-semi-space-size=32 (e.g. `--initial-old-space-size=128`);
- * `BENCH_EDGE_BLOCKS` (default 10); `BENCH_EDGE_PART` (gps | gps-arrow | arrow | columns, default all). The answers of both
- * are compared byte for byte (Arrow: by length, its flatbuffer bytes differ run to run).
+ * `BENCH_EDGE_BLOCKS` (default 10); `BENCH_EDGE_PART` (gps | gps-columns | gps-arrow | arrow | columns,
+ * comma-separated, default all; gps-columns: the GPS-like day with the `shape=columns` answer, gps-arrow: Arrow in
+ * and out). The answers of both are compared byte for byte (Arrow: by length, its flatbuffer bytes differ run to run).
  */
 
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
@@ -21,7 +22,7 @@ import { join, resolve } from 'node:path';
 import { tableFromArrays, tableToIPC, type Table } from 'apache-arrow';
 import { MAPPING_MODEL_KEYS } from '../src/domain/mapping/registry.js';
 import { freePort, serverEnvironment } from '../test/helpers/server-process.js';
-import { dayRequest } from '../test/helpers/gps-like-days.js';
+import { columnsArrow, dayRequest } from '../test/helpers/gps-like-days.js';
 
 const ARROW = 'application/vnd.apache.arrow.stream';
 const N = 10_000;
@@ -116,19 +117,15 @@ export function gpsDay(): Workload {
   };
 }
 
-/** The GPS-like day as an Arrow request (texts dictionary-encoded, as tableFromArrays makes them), Arrow answer. */
+/** The GPS-like day as columns JSON with the `shape=columns` answer. */
+export function gpsDayColumnsOut(): Workload {
+  return { ...gpsDay(), name: 'GPS-like day, columns JSON in, shape=columns out', path: '/v1/zwd-estimates?shape=columns' };
+}
+
+/** The GPS-like day as an Arrow table in, `Accept: Arrow` out (the same form as the columns bench). */
 export function gpsDayArrow(): Workload {
-  const { rest, columns } = dayRequest();
-  const table = tableFromArrays({
-    epoch: columns.epoch,
-    satellite: columns.satellite,
-    elevation_deg: Float64Array.from(columns.elevation_deg),
-    azimuth_deg: Float64Array.from(columns.azimuth_deg),
-    residual_m: Float64Array.from(columns.residual_m),
-  }) as Table;
-  table.schema.metadata.set('request', JSON.stringify(rest));
-  const body = tableToIPC(table, 'stream') as Uint8Array<ArrayBuffer>;
-  return { ...gpsDay(), name: `GPS-like day, Arrow in (${(body.length / 1e6).toFixed(2)} MB) and out`, body, type: ARROW, accept: ARROW };
+  const body = columnsArrow(dayRequest());
+  return { ...gpsDay(), name: `GPS-like day, Arrow in (${(body.length / 1e6).toFixed(1)} MB) and out`, body, type: ARROW, accept: ARROW };
 }
 
 export function slantArrow(): Workload {
@@ -175,7 +172,7 @@ export default async function edgeAb(): Promise<string[]> {
     throw new Error('the build of dist/ failed');
   const blocks = Number(process.env.BENCH_EDGE_BLOCKS ?? 10);
   const part = process.env.BENCH_EDGE_PART;
-  const all = { gps: gpsDay, 'gps-arrow': gpsDayArrow, arrow: slantArrow, columns: slantColumns };
+  const all = { gps: gpsDay, 'gps-columns': gpsDayColumnsOut, 'gps-arrow': gpsDayArrow, arrow: slantArrow, columns: slantColumns };
   const workloads = Object.entries(all)
     .filter(([k]) => !part || part.split(',').includes(k))
     .map(([, make]) => make());

@@ -22,6 +22,13 @@ export interface TaskLocation {
 }
 
 export type TaskInput<F extends ComputeTask> = Parameters<F>[0];
+
+/**
+ * A task's input as a caller hands it over: a `body` of bytes may come as the chunks it arrived in, moved to
+ * the worker instead of joined on the calling thread; the worker joins them before the task runs
+ * (compute-worker.ts), so the task sees one array as before.
+ */
+export type HandedInput<I> = I extends { body: infer B } ? Omit<I, 'body'> & { body: B | Uint8Array[] } : I;
 export type TaskOutput<F extends ComputeTask> = Extract<Awaited<ReturnType<F>>, { ok: true }>['output'];
 
 export interface ComputePoolOptions<Tasks extends Record<string, ComputeTask>> {
@@ -45,6 +52,8 @@ export interface ComputePoolOptions<Tasks extends Record<string, ComputeTask>> {
 /** What the worker thread gets and answers (compute-worker.ts). */
 export interface ComputeRequest extends TaskLocation {
   input: unknown;
+  /** Array buffers the caller is done with (ComputePool.release), moved along to be dropped by the worker. */
+  released: ArrayBuffer[];
 }
 
 export interface ComputeResponse {
@@ -159,6 +168,8 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
   recycled = 0;
   /** Exponentially weighted mean run time of recent tasks [s]; null before the first. */
   private meanRunS: number | null = null;
+  /** Array buffers given back by the caller (release()), moved with the next task (a set: a transfer list takes each once). */
+  private released = new Set<ArrayBuffer>();
 
   constructor(private readonly options: ComputePoolOptions<Tasks>) {
     if (options.memoryBudgetBytes) this.budget = new MemoryBudget(options.memoryBudgetBytes);
@@ -172,6 +183,7 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
       maxThreads: this.options.threads,
       maxQueue: this.options.queueLimit,
       idleTimeout: 60_000,
+      recordTiming: false, // piscina's run and wait histograms: unread here (the plugin keeps its own metrics)
     }));
   }
 
@@ -191,7 +203,7 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
    */
   async run<K extends keyof Tasks & string>(
     task: K,
-    input: TaskInput<Tasks[K]>,
+    input: HandedInput<TaskInput<Tasks[K]>>,
     transfer: ArrayBuffer[] = [],
     memoryBytes = 0,
   ): Promise<TaskOutput<Tasks[K]>> {
@@ -209,9 +221,11 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
         if (memoryBytes > this.budget.budgetBytes && this.onThreads === 0 && this.pool) await this.recycle();
       }
       this.onThreads++;
+      const released = [...this.released];
+      this.released.clear();
       try {
-        response = (await this.threads().run({ ...location, input } satisfies ComputeRequest, {
-          transferList: transfer,
+        response = (await this.threads().run({ ...location, input, released } satisfies ComputeRequest, {
+          transferList: [...transfer, ...released],
         })) as ComputeResponse;
       } finally {
         this.onThreads--;
@@ -232,6 +246,19 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
     const outcome = response.outcome as TaskOutcome<TaskOutput<Tasks[K]>>;
     if (!outcome.ok) throw new ComputeTaskError(outcome.error);
     return outcome.output;
+  }
+
+  /**
+   * Gives back an array buffer of a task's output that the caller is done with (an answer's bytes once the
+   * socket has taken them): it is moved to a worker thread with the next task and dropped there. Until the
+   * garbage collector frees it, an array buffer counts toward its thread's external memory, and on the event
+   * loop, which allocates little else, that pressure is what made V8 mark the loop's whole old generation
+   * every few GPS-like requests (DEVELOPERS.md, "What the hand-over costs"); the worker threads collect their
+   * young garbage after every task anyway. The buffer must be the output's alone (nothing else on this thread
+   * may use it afterwards).
+   */
+  release(buffer: ArrayBuffer): void {
+    this.released.add(buffer);
   }
 
   /**
@@ -261,6 +288,7 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
   }
 
   async close(): Promise<void> {
+    this.released.clear();
     await this.pool?.destroy();
     this.pool = undefined;
   }

@@ -1,6 +1,8 @@
 /**
  * Worker-thread entry of the compute pool (piscina calls the default export with each task): imports
- * the task's module once (by the URL its owner registered), calls the exported function, times it.
+ * the task's module once (by the URL its owner registered), joins a body handed over in chunks, calls the
+ * exported function, times it. The array buffers the caller released (ComputePool.release) come with the
+ * request and are left to this thread's garbage collector.
  */
 
 import { createRequire } from 'node:module';
@@ -27,11 +29,31 @@ export default async function computeWorker(request: ComputeRequest): Promise<Co
   const run = (await loading)[request.exportName];
   if (typeof run !== 'function') throw new Error(`compute task ${request.exportName} not found in ${request.module}`);
   const started = performance.now();
+  request.released.length = 0; // not held through the task
+  joinBody(request.input);
   const outcome: unknown = await run(request.input);
   const response: ComputeResponse = { outcome, durationMs: performance.now() - started };
   const transfer = ownedBuffers(outcome);
   // A movable result: piscina transfers these buffers to the caller instead of copying them.
   return (transfer.length ? move({ [transferableSymbol]: transfer, [valueSymbol]: response } as never) : response) as ComputeResponse;
+}
+
+/**
+ * A body handed over as chunks (HandedInput, compute-pool.ts) joined, in place, into one array that owns its
+ * buffer, as the task expects: the copy the event loop used to make as the bytes arrived (src/http/raw-body.ts),
+ * made here instead. In place, so that the chunks are garbage once joined (a task drops its body once read).
+ */
+function joinBody(input: unknown): void {
+  const handed = input as { body?: unknown } | null;
+  if (!Array.isArray(handed?.body)) return;
+  const chunks = handed.body as Uint8Array[];
+  const joined = Buffer.allocUnsafeSlow(chunks.reduce((bytes, chunk) => bytes + chunk.byteLength, 0));
+  let at = 0;
+  for (const chunk of chunks) {
+    joined.set(chunk, at);
+    at += chunk.byteLength;
+  }
+  handed.body = joined;
 }
 
 /**

@@ -1,8 +1,28 @@
-/** A compute task for the pool's own tests: answers the worker thread's id (after `waitMs`). */
+/** Compute tasks for the pool's own tests. */
 
+import { createHash } from 'node:crypto';
 import { threadId } from 'node:worker_threads';
 
+/** Answers the worker thread's id (after `waitMs`). */
 export async function threadIdTask(input: { waitMs?: number }): Promise<{ ok: true; output: { threadId: number; observations: number } }> {
   if (input.waitMs) await new Promise((r) => setTimeout(r, input.waitMs));
   return { ok: true, output: { threadId, observations: 0 } };
+}
+
+/** What the task sees of its body (one array: its length, its SHA-256, whether it owns its buffer), and `size` bytes back. */
+export async function bodyProbeTask(input: { body: Uint8Array; size: number }): Promise<{
+  ok: true;
+  output: { length: number; sha256: string; ownsBuffer: boolean; json: Uint8Array; observations: number };
+}> {
+  const { body } = input;
+  return {
+    ok: true,
+    output: {
+      length: body.byteLength,
+      sha256: createHash('sha256').update(body).digest('hex'),
+      ownsBuffer: body instanceof Uint8Array && body.byteOffset === 0 && body.byteLength === body.buffer.byteLength,
+      json: new Uint8Array(input.size).fill(7),
+      observations: 0,
+    },
+  };
 }

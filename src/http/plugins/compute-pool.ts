@@ -7,17 +7,30 @@
 import type { FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
 import type { Config } from '../../config.js';
-import { ComputePool, ComputePoolFullError, ComputeTaskError, type TaskInput, type TaskOutput } from '../../workers/compute-pool.js';
+import {
+  ComputePool,
+  ComputePoolFullError,
+  ComputeTaskError,
+  type HandedInput,
+  type TaskInput,
+  type TaskOutput,
+} from '../../workers/compute-pool.js';
 import { COMPUTE_TASKS, type ComputeTaskName, type ComputeTasks } from '../compute-tasks.js';
 import { HttpProblem } from '../problem.js';
+import { ownsBuffer } from '../raw-body.js';
 import { TASK_MEMORY_PER_BODY_BYTE } from '../../limits.js';
 
-type ComputeTaskInput<T extends ComputeTaskName> = TaskInput<ComputeTasks[T]>;
+type ComputeTaskInput<T extends ComputeTaskName> = HandedInput<TaskInput<ComputeTasks[T]>>;
 type ComputeTaskOutput<T extends ComputeTaskName> = TaskOutput<ComputeTasks[T]>;
 
 export interface Compute {
   /** Runs a task in a worker; a full queue is a 503 problem, a task's error outcome its 4xx problem. */
   run<T extends ComputeTaskName>(task: T, input: ComputeTaskInput<T>, transfer?: ArrayBuffer[]): Promise<ComputeTaskOutput<T>>;
+  /**
+   * Gives back the bytes of an output the route is done with (ComputePool.release), when they are their
+   * buffer whole (as moved from the worker); nothing else may use them afterwards.
+   */
+  release(bytes: Uint8Array): void;
 }
 
 declare module 'fastify' {
@@ -41,10 +54,14 @@ export function taskMemoryBytes(input: unknown): number {
   const { body, format, memoryBytes } = (input ?? {}) as { body?: unknown; format?: unknown; memoryBytes?: unknown };
   // A task without a body whose route knows its size (a network day from deposits) says so itself.
   if (typeof memoryBytes === 'number') return memoryBytes;
-  const size = typeof body === 'string' ? body.length : body instanceof Uint8Array ? body.byteLength : 0;
+  const size = typeof body === 'string' ? body.length : bytesOf(body);
   const perByte = TASK_MEMORY_PER_BODY_BYTE[format as keyof typeof TASK_MEMORY_PER_BODY_BYTE] ?? TASK_MEMORY_PER_BODY_BYTE.json;
   return size * perByte;
 }
+
+/** Bytes of a body as handed to the pool: one array, or the chunks it arrived in (HandedInput). */
+const bytesOf = (body: unknown): number =>
+  body instanceof Uint8Array ? body.byteLength : Array.isArray(body) ? body.reduce((n: number, chunk) => n + bytesOf(chunk), 0) : 0;
 
 async function computePool(app: FastifyInstance, { config }: ComputePoolPluginOptions): Promise<void> {
   const pool = new ComputePool<ComputeTasks>({
@@ -69,6 +86,9 @@ async function computePool(app: FastifyInstance, { config }: ComputePoolPluginOp
       } finally {
         app.metrics.workerQueue.set(pool.queued);
       }
+    },
+    release: (bytes: Uint8Array) => {
+      if (ownsBuffer(bytes)) pool.release(bytes.buffer);
     },
   });
   app.addHook('onClose', async () => pool.close());

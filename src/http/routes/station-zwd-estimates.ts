@@ -20,7 +20,15 @@ import { CallerError } from '../../services/caller-error.js';
 import { storedMetAtAntenna, type MetColumns } from '../../services/station-met.js';
 import type { DelayColumns } from '../../services/zwd-estimation.js';
 import type { DelayRow, Repository, Station, WriteCounts } from '../../storage/repository.js';
-import { asBuffer, bodyInWorkerValidator, readEstimationBodies, rawBodyOf, sentQueryKeys, transferOf } from '../raw-body.js';
+import {
+  asBuffer,
+  bodyInWorkerValidator,
+  readEstimationBodies,
+  rawBodyOf,
+  replyWithBytes,
+  sentQueryKeys,
+  transferOf,
+} from '../raw-body.js';
 import { answerShapeOf } from '../answer-shape.js';
 import { preparedBuffers } from '../tasks/prepared-request.js';
 import { problemSchema } from '../schemas/common.js';
@@ -147,14 +155,18 @@ const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = asy
       );
       const stored = await storeDelays(app.repository, stationId, source, output);
       request.auditDetail = { source, records: stored.inserted + stored.updated + stored.unchanged, ...stored };
+      // The worker's answer bytes are read into the answer made here, then given back (ComputePool.release).
       if (answer.format === 'arrow') {
         // The worker sent the rows answer; the Arrow table is made here, with what was stored in its metadata.
         const rows = JSON.parse(Buffer.from(output.json).toString('utf8')) as Record<string, unknown>;
+        app.compute.release(output.json);
         const shaped = tableAnswer(rows, ZWD_ANSWER_TABLES, answer, { station_id: stationId, stored: { source, ...stored } });
         return reply.type(shaped.contentType).send(asBuffer(shaped.bytes) as never);
       }
       const tail = `,"station_id":${JSON.stringify(stationId)},"stored":${JSON.stringify({ source, ...stored })}}`;
-      return reply.type('application/json').send(Buffer.concat([asBuffer(output.json), Buffer.from(tail)]) as never);
+      const bytes = Buffer.concat([asBuffer(output.json), Buffer.from(tail)]);
+      app.compute.release(output.json);
+      return replyWithBytes(reply, bytes, 'application/json', app.compute.release);
     },
   );
 };

@@ -4,7 +4,7 @@
  */
 
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { asBuffer, bodyInWorkerValidator, readEstimationBodies, rawBodyOf, sentQueryKeys, transferOf } from '../raw-body.js';
+import { bodyInWorkerValidator, readEstimationBodies, rawBodyOf, replyWithBytes, sentQueryKeys, transferOf } from '../raw-body.js';
 import { answerShapeOf, ARROW_STREAM_TYPE } from '../answer-shape.js';
 import { problemSchema } from '../schemas/common.js';
 import {
@@ -57,8 +57,8 @@ const zwdEstimatesRoute: FastifyPluginAsyncZod = async (app) => {
         },
         transferOf(raw),
       );
-      // Already serialised in the worker; the bytes are sent as they are.
-      return reply.type(output.contentType ?? 'application/json').send(asBuffer(output.json) as never);
+      // Already serialised in the worker; the bytes are sent as they are, and given back once sent.
+      return replyWithBytes(reply, output.json, output.contentType ?? 'application/json', app.compute.release);
     },
   );
 };
