@@ -71,8 +71,8 @@ describe.skipIf(!TEST_PG_URL)('a campaign survives kill -9 of one of two replica
       const done = items.filter((i) => i.state === 'done').length;
       heldByKilled = items.filter((i) => i.state === 'running' && i.replica === 'replica-b');
       if (done >= 5 && heldByKilled.length > 0) break;
-      if (polls > 6000 || done >= 30) throw new Error(`no moment with replica-b holding an item after 5 were done (${done} done)`);
-      await new Promise((r) => setTimeout(r, 20));
+      if (polls > 30000 || done >= 30) throw new Error(`no moment with replica-b holding an item after 5 were done (${done} done)`);
+      await new Promise((r) => setTimeout(r, 5));
     }
     b.child.kill('SIGKILL');
     await new Promise((r) => b.child.once('exit', r));
@@ -151,16 +151,20 @@ describe.skipIf(!TEST_PG_URL)('a campaign survives kill -9 of one of two replica
           )
         ).rows;
 
-      // The uploads go on through replica a while the items run; b is killed with -9 while it holds one.
+      // The uploads go on through replica a while the items run; b is killed with -9 while it holds one. A day's
+      // stations are uploaded together, so that both replicas have items at once, and at 30 s, so that an item runs
+      // long enough to be seen running (at 120 s one took a few ms and the polls below could miss every one of b's).
       const uploaded = new Map<string, ReturnType<typeof stationDay>>();
       const uploads = (async () => {
         for (const day of days) {
-          for (const [k, s] of stations.entries()) {
-            const d = stationDay(s, k, day, 6, 120);
-            const r = await call(a.baseUrl, 'PUT', `/v1/campaigns/${id}/residuals/${s.id}/${day}`, d.body);
-            if (r.status !== 201) throw new Error(`upload ${s.id} ${day}: ${r.status} ${JSON.stringify(r.body)}`);
-            uploaded.set(`${s.id}|${day}`, d);
-          }
+          await Promise.all(
+            stations.map(async (s, k) => {
+              const d = stationDay(s, k, day, 6, 30);
+              const r = await call(a.baseUrl, 'PUT', `/v1/campaigns/${id}/residuals/${s.id}/${day}`, d.body);
+              if (r.status !== 201) throw new Error(`upload ${s.id} ${day}: ${r.status} ${JSON.stringify(r.body)}`);
+              uploaded.set(`${s.id}|${day}`, d);
+            }),
+          );
         }
       })();
       let heldByKilled: { station_id: string; day: string }[] = [];
@@ -169,8 +173,8 @@ describe.skipIf(!TEST_PG_URL)('a campaign survives kill -9 of one of two replica
         const done = items.filter((i) => i.state === 'done').length;
         heldByKilled = items.filter((i) => i.state === 'running' && i.replica === 'replica-b');
         if (done >= 3 && heldByKilled.length > 0) break;
-        if (polls > 6000 || done >= 16) throw new Error(`no moment with replica-b holding an item after 3 were done (${done} done)`);
-        await new Promise((r) => setTimeout(r, 20));
+        if (polls > 30000 || done >= 16) throw new Error(`no moment with replica-b holding an item after 3 were done (${done} done)`);
+        await new Promise((r) => setTimeout(r, 5));
       }
       b.child.kill('SIGKILL');
       await new Promise((r) => b.child.once('exit', r));
