@@ -168,7 +168,7 @@ export const align8 = (n: number) => (n + 7) & ~7;
 
 /**
  * Buffers of answers and of request bodies of the a-priori batch routes, handed back once nothing reads them
- * (releaseAnswerBytes: an answer on the response's 'finish', when Node has handed every byte to the operating
+ * (releasePooledBytes: an answer on the response's 'finish', when Node has handed every byte to the operating
  * system; a request body once the task on the event loop has read it, batch-body.ts) and reused by the next
  * request on this thread. V8 counts every ArrayBuffer as external memory, and counts the external memory grown
  * since the last full garbage collection against the old generation's limit: a route that allocates buffers
@@ -189,7 +189,7 @@ const SMALLEST_POOLED_BYTES = 64 * 1024;
 
 /**
  * size bytes of undefined content (what an earlier user left): from the pool when one of its buffers fits (at
- * most 4× larger), else new. Hand them back with releaseAnswerBytes once nothing reads them, or simply drop them.
+ * most 4× larger), else new. Hand them back with releasePooledBytes once nothing reads them, or simply drop them.
  */
 export function pooledBytes(size: number): Uint8Array<ArrayBuffer> {
   if (!isMainThread || size < SMALLEST_POOLED_BYTES || size > POOLED_BYTES) return new Uint8Array(size);
@@ -201,10 +201,11 @@ export function pooledBytes(size: number): Uint8Array<ArrayBuffer> {
 }
 
 /**
- * Hands the buffer of bytes from pooledBytes (an answer made by ipcStreamBytes, say) back to the pool. Call it
- * only once nothing reads the bytes any more; bytes of any other origin, and moved (detached) buffers, are ignored.
+ * Hands the buffer of bytes from pooledBytes (an answer made by ipcStreamBytes, or a body read by readBatchBodies)
+ * back to the pool. Call it only once nothing reads the bytes any more; bytes of any other origin, and moved
+ * (detached) buffers, are ignored.
  */
-export function releaseAnswerBytes(bytes: Uint8Array): void {
+export function releasePooledBytes(bytes: Uint8Array): void {
   const buffer = bytes.buffer;
   if (!(buffer instanceof ArrayBuffer) || !issuedBuffers.has(buffer) || buffer.byteLength === 0) return;
   if (freeBuffers.length < POOLED_BUFFERS && !freeBuffers.includes(buffer)) freeBuffers.push(buffer);
@@ -218,7 +219,7 @@ export function releaseAnswerBytes(bytes: Uint8Array): void {
  * format, "Encapsulated message format" and "IPC Streaming Format"): per message the continuation marker
  * 0xFFFFFFFF, the metadata size, the flatbuffer padded to 8 bytes, then the body buffers each padded to 8;
  * the end-of-stream marker 0xFFFFFFFF 0x00000000. Tables with dictionaries take tableToIPC. The bytes may be a
- * view of a pooled buffer: hand them back with releaseAnswerBytes once sent, or simply drop them.
+ * view of a pooled buffer: hand them back with releasePooledBytes once sent, or simply drop them.
  */
 export function ipcStreamBytes(table: Table): Uint8Array {
   if (table.batches.some((batch) => batch.dictionaries.size > 0)) return tableToIPC(table, 'stream');

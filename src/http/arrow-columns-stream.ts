@@ -220,7 +220,7 @@ function dictionaryMessage(id: number, texts: Utf8Texts): StreamMessage {
 /**
  * The stream of the columns (in this order, each of n ≥ 1 rows) with `answer` in the schema metadata "answer": the
  * bytes tableToIPC writes of tableFromArrays of the same columns (with the same dictionary ids). The bytes may be
- * a view of a pooled buffer (answer-shape.ts, releaseAnswerBytes).
+ * a view of a pooled buffer (answer-shape.ts, releasePooledBytes).
  */
 export function arrowColumnsStream(columns: ReadonlyMap<string, ArrowColumn>, n: number, answer: string): Uint8Array {
   const fields: Field[] = [];

@@ -10,7 +10,7 @@ import type { IncomingMessage } from 'node:http';
 import { errorCodes, type FastifyInstance, type FastifyReply, type FastifyRequest } from 'fastify';
 import { OFFLOAD_BODY_BYTES, OFFLOAD_COST_PER_BYTE } from '../limits.js';
 import type { TaskOutcome } from '../workers/task-outcome.js';
-import { ARROW_STREAM_TYPE, pooledBytes, releaseAnswerBytes } from './answer-shape.js';
+import { ARROW_STREAM_TYPE, pooledBytes, releasePooledBytes } from './answer-shape.js';
 import { HttpProblem } from './problem.js';
 import { asBuffer, movableBytes } from './raw-body.js';
 import type { BatchTaskInput, BatchTaskOutput } from './tasks/apriori-batch.js';
@@ -58,7 +58,7 @@ function readBody(request: FastifyRequest, payload: IncomingMessage, done: (err:
     payload.removeListener('data', onData);
     payload.removeListener('end', onEnd);
     payload.removeListener('error', onError);
-    if (err && whole) releaseAnswerBytes(whole);
+    if (err && whole) releasePooledBytes(whole);
     done(err, body);
   };
   const onData = (chunk: Buffer) => {
@@ -103,16 +103,16 @@ export async function answerBatchRequest(
   let output: BatchTaskOutput;
   if (loopCostBytes(raw, bodyFormat) <= OFFLOAD_BODY_BYTES) {
     const outcome = await inLoop({ body: raw, bodyFormat, ...options });
-    releaseAnswerBytes(raw); // read: the task keeps no view of the body past its answer
+    releasePooledBytes(raw); // read: the task keeps no view of the body past its answer
     if (!outcome.ok) throw new HttpProblem(outcome.error.status, outcome.error.detail, outcome.error.errors);
     output = outcome.output;
   } else {
     const body = movableBytes(new Uint8Array(raw.buffer, raw.byteOffset, raw.byteLength));
     output = await app.compute.run(task, { body, bodyFormat, ...options }, [body.buffer]);
-    releaseAnswerBytes(raw); // a pooled body copied for the worker (one moved is detached: ignored)
+    releasePooledBytes(raw); // a pooled body copied for the worker (one moved is detached: ignored)
   }
   // Already serialised; the bytes are sent as they are. A pooled answer's buffer goes back to its pool once
-  // Node has handed the last byte to the operating system (answer-shape.ts releaseAnswerBytes).
-  reply.raw.once('finish', () => releaseAnswerBytes(output.json));
+  // Node has handed the last byte to the operating system (answer-shape.ts releasePooledBytes).
+  reply.raw.once('finish', () => releasePooledBytes(output.json));
   return reply.type(output.contentType ?? 'application/json').send(asBuffer(output.json) as never);
 }

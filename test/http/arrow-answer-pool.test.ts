@@ -1,6 +1,6 @@
 /**
  * Arrow answers are written into pooled buffers, handed back when the response has left
- * (src/http/answer-shape.ts releaseAnswerBytes, src/http/batch-body.ts). Common practice for reused buffers:
+ * (src/http/answer-shape.ts releasePooledBytes, src/http/batch-body.ts). Common practice for reused buffers:
  * answers sent at the same time over separate connections, of different sizes, each hold exactly the bytes of
  * the same request sent alone (the reuse of a released buffer itself: test/http/arrow-stream-bytes.test.ts).
  */

@@ -5,14 +5,14 @@
  * the schema metadata, and for a table with text, nulls, integers and several record batches; and read back
  * by apache-arrow's reader (tableFromIPC, RecordBatchStreamReader) to the same values. pyarrow is not
  * installed here; the reader of the library is the independent reader available (common practice). A buffer
- * handed back (releaseAnswerBytes) is reused, and the answer written into it is still tableToIPC's bytes, its
+ * handed back (releasePooledBytes) is reused, and the answer written into it is still tableToIPC's bytes, its
  * padding zeroed over what the buffer held before.
  */
 
 import { describe, expect, it } from 'vitest';
 import { RecordBatchStreamReader, Table, tableFromArrays, tableFromIPC, tableToIPC, vectorFromArray } from 'apache-arrow';
 import { mulberry32 } from '../../scripts/synthetic-residuals.js';
-import { arrowAnswer, ipcStreamBytes, releaseAnswerBytes } from '../../src/http/answer-shape.js';
+import { arrowAnswer, ipcStreamBytes, releasePooledBytes } from '../../src/http/answer-shape.js';
 
 const uniform = mulberry32(2014);
 const column = (n: number, scale: number) => Float64Array.from({ length: n }, () => (uniform() - 0.3) * scale);
@@ -73,7 +73,7 @@ describe('ipcStreamBytes against apache-arrow tableToIPC (the Arrow IPC streamin
   it('a released answer buffer is reused, and the answer written into it is still the bytes of tableToIPC', () => {
     const big = tableFromArrays({ a: Float64Array.from({ length: 9000 }, (_, i) => i - 0.5), b: new Float64Array(9000).fill(-1) }) as Table;
     const first = ipcStreamBytes(big);
-    releaseAnswerBytes(first);
+    releasePooledBytes(first);
     first.fill(0xff); // left over in the pooled buffer: the padding of the next answer must still be 0
     const small = tableFromArrays({
       b: Float64Array.from({ length: 5001 }, (_, i) => i / 7),
@@ -93,7 +93,7 @@ describe('ipcStreamBytes against apache-arrow tableToIPC (the Arrow IPC streamin
     const small = tableFromArrays({ total_m: column(100, 30) }) as Table;
     const first = ipcStreamBytes(small);
     expect(first.buffer.byteLength).toBe(first.byteLength);
-    releaseAnswerBytes(first);
+    releasePooledBytes(first);
     expect(ipcStreamBytes(small).buffer).not.toBe(first.buffer);
   });
 });

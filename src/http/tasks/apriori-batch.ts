@@ -37,7 +37,7 @@ import {
   jsonColumnsOf,
   pooledBytes,
   readArrowRequest,
-  releaseAnswerBytes,
+  releasePooledBytes,
   type AnswerShape,
   type FieldDecimals,
 } from '../answer-shape.js';
@@ -521,7 +521,7 @@ export async function handleSlantDelaysRequest(input: BatchTaskInput): Promise<T
       // into pooled buffers (answer-shape.ts pooledBytes; the route hands the answer back once sent).
       const slants = columnsJsonBytes(jsonColumnsOf(columns, shape.fields, SLANT_FIELDS), pooledBytes);
       const json = jsonWithRawMembers(answer, { slants }, pooledBytes);
-      releaseAnswerBytes(slants); // copied into the answer
+      releasePooledBytes(slants); // copied into the answer
       return { ok: true, output: { json, observations } };
     }
     answer.slants = slantEntries(columns, shape.fields ?? SLANT_FIELD_NAMES);
