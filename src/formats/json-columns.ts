@@ -181,7 +181,10 @@ export function jsonWithRawMembers(
  */
 export function utf8Bytes(text: string): Uint8Array {
   if (Buffer.byteLength(text, 'utf8') !== text.length) return new TextEncoder().encode(text);
-  const bytes = new Uint8Array(text.length);
-  Buffer.from(bytes.buffer).write(text, 0, 'latin1');
-  return bytes;
+  // Not zero-filled first (every byte is written), a buffer of its own of exactly the text's length: a plain
+  // Uint8Array over it, as before (the zero fill and the Buffer made over a Uint8Array were ~0.15–0.3 ms of a
+  // 1.2 MB answer).
+  const bytes = Buffer.allocUnsafeSlow(text.length);
+  bytes.write(text, 0, 'latin1');
+  return new Uint8Array(bytes.buffer, 0, text.length);
 }

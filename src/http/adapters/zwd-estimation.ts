@@ -12,6 +12,7 @@ import { satelliteName } from '../../estimation/design.js';
 import type { EpochMetResult, EpochZwd, ZwdEstimationRequest, ZwdEstimationResult } from '../../services/zwd-estimation.js';
 import { GRADIENTS_GROUP, ZWD_OPTIONS, type OptionSpec, type ZwdOptionValues } from '../../services/zwd-options.js';
 import { isoEpochText } from '../../formats/iso-epoch-text.js';
+import { isoEpochMs } from '../../formats/iso-epoch.js';
 import type { ZwdEstimatesResponse, ZwdEstimationBody } from '../schemas/zwd-estimates.js';
 import type { ColumnSpec } from '../columns.js';
 import type { JsonColumnsBody } from '../../formats/json-columns-reader.js';
@@ -207,7 +208,8 @@ export function checkedObservationColumns(raw: unknown, specs: ObservationColumn
 export function domainNumbersOfRead(read: JsonColumnsBody): Omit<TypedObservationColumns, 'satellite'> {
   const n = read.rows;
   const epochs = read.texts.epoch!;
-  const msOf = epochs.distinct.map((text) => Date.parse(text));
+  const msOf = new Float64Array(epochs.distinct.length);
+  for (let k = 0; k < msOf.length; k++) msOf[k] = isoEpochMs(epochs.distinct[k]!); // Date.parse's value
   const epochMs = new Float64Array(n);
   for (let i = 0; i < n; i++) epochMs[i] = msOf[epochs.index[i]!]!;
   const { elevation_deg: elevationRad, azimuth_deg: azimuthRad, residual_m: residualM, sigma_m: sigma } = read.numbers;
