@@ -375,17 +375,23 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
   const inverse = new EpochStateInverse(K, diagonal, block, next);
 
   // Post-fit residuals v, biases b̂ and σ_v² (least-squares.ts, postFitResiduals) from the epoch means of the assembly.
-  const biasM = solver.biasM.fill(Number.NaN);
-  const fittedResidualM = solver.fittedResidualM.fill(0);
-  const residualVarianceM2 = solver.residualVarianceM2.fill(0);
+  // Rejected observations get 0 and 0, epochs without observations or biases NaN (written here, not filled first).
+  const biasM = solver.biasM;
+  const fittedResidualM = solver.fittedResidualM;
+  const residualVarianceM2 = solver.residualVarianceM2;
   let observationSquareSum = 0;
   let observationRedundancy = 0;
   let residualSquareSumM2 = 0;
   for (let k = 0; k < K; k++) {
     const sw = epochWeight[k]!;
-    if (sw === 0) continue;
     const start = epochStart[k]!;
     const end = epochStart[k + 1]!;
+    biasM[k] = Number.NaN;
+    if (sw === 0) {
+      fittedResidualM.fill(0, start, end);
+      residualVarianceM2.fill(0, start, end);
+      continue;
+    }
     const xW = x[k]!;
     const xN = x[K + k]!;
     const xE = x[2 * K + k]!;
@@ -404,7 +410,11 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
       qEE = block[b + 5]!;
     const biasVariance = bias ? 1 / sw : 0;
     for (let s = start; s < end; s++) {
-      if (!used[s]) continue;
+      if (!used[s]) {
+        fittedResidualM[s] = 0;
+        residualVarianceM2[s] = 0;
+        continue;
+      }
       const cw = wet[s]! - mW;
       const cn = north[s]! - mN;
       const ce = east[s]! - mE;
