@@ -124,14 +124,12 @@ export interface Design {
   epochStart: Int32Array;
   epochMs: Float64Array;
   residualM: Float64Array;
-  /** σ_i² [m²] (setWeights). */
-  observationVarianceM2: Float64Array;
   /**
-   * 1/σ_i² [1/m²] and σ_i = √σ_i² [m], written by setWeights with σ_i²: the passes of every solution read
-   * them instead of a division and a square root per observation each (the same doubles).
+   * σ_i² [m²]. The weight is 1/σ_i² and σ_i = √σ_i², computed where they are read: the same doubles as
+   * columns of each would hold (setWeights derives both from this one number), at 8 bytes an observation
+   * instead of 16 (columns of both measured no faster: within 1 %, issue 14).
    */
-  observationWeight: Float64Array;
-  observationSigmaM: Float64Array;
+  observationVarianceM2: Float64Array;
   /** Counts the setWeights calls on this design: a solver's epoch sums of another revision are stale (epoch-states.ts). */
   weightsRevision: number;
   /** σ_i given by the caller [m], NaN where the weighting scheme gives it; null when no observation has its own σ. */
@@ -143,8 +141,6 @@ export interface Design {
   eastMapping: Float64Array;
   /** sin²e of each observation [-] (the elevation weighting and the variance components, computed once). */
   sinElevationSquared: Float64Array;
-  /** 1/sin²e [-] (g_i of the variance components, computed once). */
-  inverseSinElevationSquared: Float64Array;
   /**
    * Satellite of each observation as an index 0..satelliteCount−1 (in order of first appearance in the input),
    * in the narrowest array that holds satelliteCount (one byte for up to 256 satellites: four constellations).
@@ -231,14 +227,11 @@ export function buildDesign(given: EstimationInput, arrays: ArraySource = FRESH_
   const wetAt = wetMappingPerEpoch(input, epochMsAll);
   const residualM = arrays.float64('design.residualM', m);
   const observationVarianceM2 = arrays.float64('design.observationVarianceM2', m);
-  const observationWeight = arrays.float64('design.observationWeight', m);
-  const observationSigmaM = arrays.float64('design.observationSigmaM', m);
   let givenSigmaM: Float64Array | null = null;
   const wetMapping = arrays.float64('design.wetMapping', m);
   const northMapping = arrays.float64('design.northMapping', m);
   const eastMapping = arrays.float64('design.eastMapping', m);
   const sinElevationSquared = arrays.float64('design.sinElevationSquared', m);
-  const inverseSinElevationSquared = arrays.float64('design.inverseSinElevationSquared', m);
   const satelliteIndex = satelliteIndexArray(satellites.count, m, arrays);
   for (let k = 0; k < epochs; k++) {
     const wet = wetAt(k);
@@ -256,12 +249,11 @@ export function buildDesign(given: EstimationInput, arrays: ArraySource = FRESH_
     eastMapping[s] = mg * Math.sin(obs.azimuthRad[i]!);
     const sinE = Math.sin(e);
     sinElevationSquared[s] = sinE * sinE;
-    inverseSinElevationSquared[s] = 1 / sinElevationSquared[s]!;
     satelliteIndex[s] = satellites.index[i]!;
   }
 
   const { a, b } = initialWeighting(options);
-  const weights = { sinElevationSquared, givenSigmaM, observationVarianceM2, observationWeight, observationSigmaM, weightsRevision: 0 };
+  const weights = { sinElevationSquared, givenSigmaM, observationVarianceM2, weightsRevision: 0 };
   setWeights(weights, a, b, 1);
 
   const first = epochMsAll[0]!;
@@ -300,15 +292,12 @@ export function buildDesign(given: EstimationInput, arrays: ArraySource = FRESH_
     epochMs: epochMsAll,
     residualM,
     observationVarianceM2,
-    observationWeight,
-    observationSigmaM,
     weightsRevision: weights.weightsRevision,
     givenSigmaM,
     wetMapping,
     northMapping,
     eastMapping,
     sinElevationSquared,
-    inverseSinElevationSquared,
     satelliteIndex,
     satelliteCount: satellites.count,
     samplingMs: medianSpacingMs(epochMsAll),
@@ -356,25 +345,20 @@ export function initialWeighting(options: ZwdEstimationInput['options']): { a: n
 
 /**
  * σ_i² = a² + b²/sin²e_i for observations without their own sigma; the caller's σ_i times √scale
- * for the others (scale: the observations' variance factor of the caller's sigmas); with them the weight
- * 1/σ_i² and σ_i.
+ * for the others (scale: the observations' variance factor of the caller's sigmas).
  */
 export function setWeights(
-  d: Pick<Design, 'sinElevationSquared' | 'givenSigmaM' | 'observationVarianceM2' | 'observationWeight' | 'observationSigmaM' | 'weightsRevision'>,
+  d: Pick<Design, 'sinElevationSquared' | 'givenSigmaM' | 'observationVarianceM2' | 'weightsRevision'>,
   a: number,
   b: number,
   givenScale: number,
 ): void {
   const givenSigmaM = d.givenSigmaM;
   const out = d.observationVarianceM2;
-  const weight = d.observationWeight;
-  const sigma = d.observationSigmaM;
   for (let s = 0; s < out.length; s++) {
     const given = givenSigmaM === null ? Number.NaN : givenSigmaM[s]!;
     const variance = Number.isNaN(given) ? a * a + (b * b) / d.sinElevationSquared[s]! : given * given * givenScale;
     out[s] = variance;
-    weight[s] = 1 / variance;
-    sigma[s] = Math.sqrt(variance);
   }
   d.weightsRevision++;
 }

@@ -181,8 +181,7 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
   const wet = design.wetMapping;
   const north = design.northMapping;
   const east = design.eastMapping;
-  const weight = design.observationWeight;
-  const sigmaM = design.observationSigmaM;
+  const variance = design.observationVarianceM2;
   const residual = design.residualM;
   const epochStart = design.epochStart;
 
@@ -420,11 +419,11 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
       const ce = east[s]! - mE;
       const v = residual[s]! - mr - (cw * xW + cn * xN + ce * xE);
       fittedResidualM[s] = v;
-      const w = weight[s]!;
+      const w = 1 / variance[s]!;
       observationSquareSum += w * v * v;
       residualSquareSumM2 += v * v;
       const quad = qWW * cw * cw + 2 * (qWN * cw * cn + qWE * cw * ce + qNE * cn * ce) + qNN * cn * cn + qEE * ce * ce;
-      const sigma = sigmaM[s]!;
+      const sigma = Math.sqrt(variance[s]!);
       const qv = sigma * sigma - biasVariance - quad;
       residualVarianceM2[s] = qv;
       observationRedundancy += qv * w;
@@ -482,7 +481,7 @@ function epochSums(
   const wet = design.wetMapping;
   const north = design.northMapping;
   const east = design.eastMapping;
-  const weight = design.observationWeight;
+  const variance = design.observationVarianceM2;
   const residual = design.residualM;
   const start = design.epochStart[k]!;
   const end = design.epochStart[k + 1]!;
@@ -514,7 +513,7 @@ function epochSums(
     for (let s = first; s < end; s++) {
       if (!used[s]) continue;
       count++;
-      const w = weight[s]!;
+      const w = 1 / variance[s]!;
       const dr = residual[s]! - rRef;
       const cw = wet[s]! - wRef;
       const cn = north[s]! - nRef;

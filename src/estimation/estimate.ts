@@ -283,7 +283,7 @@ function elevationBands(
     count[b]!++;
     sumV2[b]! += v * v;
     const qv = solution.residualVarianceM2[s]!;
-    if (qv > MIN_TESTABLE_REDUNDANCY * design.observationSigmaM[s]! ** 2) {
+    if (qv > MIN_TESTABLE_REDUNDANCY * Math.sqrt(design.observationVarianceM2[s]!) ** 2) {
       sumTau2[b]! += (v * v) / qv;
       tested[b]!++;
     }

@@ -88,10 +88,9 @@ export function rejectionCandidates(
   // |τ| > k needs v² > (k σ̂0)² σ_v²: observations below that bound less a relative 1e-9 (far more
   // than the rounding of either form) are passed over without the square root; the others get τ exactly.
   const bound = (threshold * sigmaZero) ** 2 * (1 - 1e-9);
-  const sigmaM = design.observationSigmaM;
   for (let s = 0; s < used.length; s++) {
     if (!used[s]) continue;
-    const sigma = sigmaM[s]!;
+    const sigma = Math.sqrt(design.observationVarianceM2[s]!);
     const qv = solution.residualVarianceM2[s]!;
     if (!(qv > MIN_TESTABLE_REDUNDANCY * sigma * sigma)) continue;
     const v = solution.fittedResidualM[s]!;

@@ -9,7 +9,7 @@ import type { WeightingScheme } from './types.js';
 
 /** One station's observations: its design (sigmas, elevations), post-fit residuals and σ_v², used flags. */
 export interface VarianceComponentPart {
-  design: Pick<Design, 'observationSigmaM' | 'givenSigmaM' | 'inverseSinElevationSquared'>;
+  design: Pick<Design, 'observationVarianceM2' | 'givenSigmaM' | 'sinElevationSquared'>;
   fittedResidualM: Float64Array;
   residualVarianceM2: Float64Array;
   used: Uint8Array;
@@ -89,8 +89,8 @@ const SUMS_CHUNK = 256;
 function addPartSums(part: VarianceComponentPart, start: number, end: number, bound: number, sums: Float64Array): void {
   const { design, fittedResidualM, residualVarianceM2, used } = part;
   const givenSigmaM = design.givenSigmaM;
-  const sigmaM = design.observationSigmaM;
-  const inverseSinElevationSquared = design.inverseSinElevationSquared;
+  const variance = design.observationVarianceM2;
+  const sinElevationSquared = design.sinElevationSquared;
   let saa = sums[0]!,
     sab = sums[1]!,
     sbb = sums[2]!,
@@ -101,7 +101,7 @@ function addPartSums(part: VarianceComponentPart, start: number, end: number, bo
   for (let s = start; s < end; s++) {
     if (!used[s]) continue;
     // σ_i² as (√σ_i²)²: the square of σ_i as the sigma column held it (the same double as before).
-    const sigma2 = sigmaM[s]! ** 2;
+    const sigma2 = Math.sqrt(variance[s]!) ** 2;
     const r = residualVarianceM2[s]! / sigma2;
     if (!(r > 1e-6)) continue;
     const v2 = fittedResidualM[s]! ** 2;
@@ -111,7 +111,7 @@ function addPartSums(part: VarianceComponentPart, start: number, end: number, bo
       givenRedundancy += r;
       continue;
     }
-    const g = inverseSinElevationSquared[s]!;
+    const g = 1 / sinElevationSquared[s]!;
     const omega = 1 / (r * sigma2) ** 2;
     const ua = r;
     const ub = r * g;
