@@ -165,6 +165,9 @@ function runLagSums(z: Float64Array, runs: Int32Array, lags: readonly number[], 
     p1 = 0,
     p2 = 0,
     p3 = 0;
+  // The sums so far are written after every run, not after the loop: compiled by on-stack replacement during
+  // a request's first groups, the code deoptimised at statements after the loop on later calls (`--trace-deopt`).
+  out.fill(0);
   for (let r = 0; r < runs.length; r += 2) {
     const a = runs[r]!;
     const e = runs[r + 1]!;
@@ -185,15 +188,15 @@ function runLagSums(z: Float64Array, runs: Int32Array, lags: readonly number[], 
     if (e - m1 > a) p1 += e - m1 - a;
     if (e - m2 > a) p2 += e - m2 - a;
     if (e - m3 > a) p3 += e - m3 - a;
+    out[0] = s0;
+    out[1] = s1;
+    out[2] = s2;
+    out[3] = s3;
+    out[4] = p0;
+    out[5] = p1;
+    out[6] = p2;
+    out[7] = p3;
   }
-  out[0] = s0;
-  out[1] = s1;
-  out[2] = s2;
-  out[3] = s3;
-  out[4] = p0;
-  out[5] = p1;
-  out[6] = p2;
-  out[7] = p3;
 }
 
 /**
@@ -266,6 +269,48 @@ function inflationOf(lambda: number, sum: number): number {
   const r = 1 + 2 * sum;
   const noiseShare = (1 + lambda * lambda) / (1 + lambda) ** 2;
   return Math.max(1, 1 + noiseShare * (r - 1));
+}
+
+/**
+ * The factors of every epoch into out (noiseInflation), and [Σ ZWD factor, Σ mean gradient factor, epochs]
+ * over the epochs with information. The loop alone in a function: run once per request inside
+ * noiseInflation, it was compiled by on-stack replacement and deoptimised at the statements after it on every
+ * call (`--trace-deopt`, the pattern of addPartSums in variance-components.ts), so that part of it ran in the
+ * interpreter each time; a function of its own is optimised whole.
+ */
+function epochFactors(
+  solution: Pick<Solution, 'epochNormal'>,
+  withGradients: boolean,
+  qW: number | null,
+  qG: number | null,
+  rho: readonly number[],
+  out: NoiseInflation,
+): Float64Array {
+  const epochs = out.zwd.length;
+  let sumW = 0,
+    sumG = 0,
+    count = 0;
+  const information = new Float64Array(3);
+  const rhoLags = Float64Array.from(rho);
+  const lagSums = new Float64Array(3);
+  for (let k = 0; k < epochs; k++) {
+    epochInformation(solution, k, withGradients, information);
+    const iW = information[0]!;
+    if (withGradients) {
+      epochInflations(information, qW, qG, rho, rhoLags, lagSums);
+      out.zwd[k] = lagSums[0]!;
+      out.north[k] = lagSums[1]!;
+      out.east[k] = lagSums[2]!;
+    } else {
+      out.zwd[k] = varianceInflation(iW, qW, rho);
+    }
+    if (iW > 0) {
+      sumW += out.zwd[k]!;
+      sumG += (out.north[k]! + out.east[k]!) / 2;
+      count++;
+    }
+  }
+  return Float64Array.of(sumW, sumG, count);
 }
 
 /**
@@ -405,29 +450,10 @@ export function noiseInflation(
   const stepVariance = (q: number | null) => (q === null ? null : q * q * hours);
   const qW = stepVariance(options.zwd.randomWalkMPerSqrtH);
   const qG = options.gradients ? stepVariance(options.gradients.randomWalkMPerSqrtH) : null;
-  let sumW = 0,
-    sumG = 0,
-    count = 0;
-  const information = new Float64Array(3);
-  const rhoLags = Float64Array.from(rho);
-  const lagSums = new Float64Array(3);
-  for (let k = 0; k < epochs; k++) {
-    epochInformation(solution, k, withGradients, information);
-    const iW = information[0]!;
-    if (withGradients) {
-      epochInflations(information, qW, qG, rho, rhoLags, lagSums);
-      out.zwd[k] = lagSums[0]!;
-      out.north[k] = lagSums[1]!;
-      out.east[k] = lagSums[2]!;
-    } else {
-      out.zwd[k] = varianceInflation(iW, qW, rho);
-    }
-    if (iW > 0) {
-      sumW += out.zwd[k]!;
-      sumG += (out.north[k]! + out.east[k]!) / 2;
-      count++;
-    }
-  }
+  const sums = epochFactors(solution, withGradients, qW, qG, rho, out);
+  const sumW = sums[0]!;
+  const sumG = sums[1]!;
+  const count = sums[2]!;
   out.statistics = {
     samplingS: samplingMs / 1000,
     autocorrelation: rho,
