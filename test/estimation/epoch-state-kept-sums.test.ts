@@ -57,10 +57,7 @@ describe('block solver with the epoch sums kept between solutions, against a fre
           for (const s of [5, Math.floor(n / 2), n - 3]) used[s] = 0;
         },
       ],
-      [
-        'every observation of epoch 100 rejected',
-        () => used.fill(0, design.epochStart[100]!, design.epochStart[101]!),
-      ],
+      ['every observation of epoch 100 rejected', () => used.fill(0, design.epochStart[100]!, design.epochStart[101]!)],
       ['epoch 100 taken back', () => used.fill(1, design.epochStart[100]!, design.epochStart[101]!)],
       ['new weights (elevation-dependent 4 mm)', () => setWeights(design, 0, 0.004, 1)],
       ['new weights with the same flags again', () => setWeights(design, 0.001, 0.003, 1)],
