@@ -165,6 +165,9 @@ function runLagSums(z: Float64Array, runs: Int32Array, lags: readonly number[], 
     p1 = 0,
     p2 = 0,
     p3 = 0;
+  // The sums so far are written after every run, not after the loop: compiled by on-stack replacement during
+  // a request's first groups, the code deoptimised at statements after the loop on later calls (`--trace-deopt`).
+  out.fill(0);
   for (let r = 0; r < runs.length; r += 2) {
     const a = runs[r]!;
     const e = runs[r + 1]!;
@@ -185,15 +188,15 @@ function runLagSums(z: Float64Array, runs: Int32Array, lags: readonly number[], 
     if (e - m1 > a) p1 += e - m1 - a;
     if (e - m2 > a) p2 += e - m2 - a;
     if (e - m3 > a) p3 += e - m3 - a;
+    out[0] = s0;
+    out[1] = s1;
+    out[2] = s2;
+    out[3] = s3;
+    out[4] = p0;
+    out[5] = p1;
+    out[6] = p2;
+    out[7] = p3;
   }
-  out[0] = s0;
-  out[1] = s1;
-  out[2] = s2;
-  out[3] = s3;
-  out[4] = p0;
-  out[5] = p1;
-  out[6] = p2;
-  out[7] = p3;
 }
 
 /**
@@ -258,9 +261,113 @@ export function varianceInflation(information: number, stepVariance: number | nu
     }
     sum /= s0;
   }
+  return inflationOf(lambda, sum);
+}
+
+/** The factor of varianceInflation from λ and Σ ρ(m) S(m)/S(0). */
+function inflationOf(lambda: number, sum: number): number {
   const r = 1 + 2 * sum;
   const noiseShare = (1 + lambda * lambda) / (1 + lambda) ** 2;
   return Math.max(1, 1 + noiseShare * (r - 1));
+}
+
+/**
+ * The factors of every epoch into out (noiseInflation), and [Σ ZWD factor, Σ mean gradient factor, epochs]
+ * over the epochs with information. The loop alone in a function: run once per request inside
+ * noiseInflation, it was compiled by on-stack replacement and deoptimised at the statements after it on every
+ * call (`--trace-deopt`, the pattern of addPartSums in variance-components.ts), so that part of it ran in the
+ * interpreter each time; a function of its own is optimised whole.
+ */
+function epochFactors(
+  solution: Pick<Solution, 'epochNormal'>,
+  withGradients: boolean,
+  qW: number | null,
+  qG: number | null,
+  rho: readonly number[],
+  out: NoiseInflation,
+): Float64Array {
+  const epochs = out.zwd.length;
+  let sumW = 0,
+    sumG = 0,
+    count = 0;
+  const information = new Float64Array(3);
+  const rhoLags = Float64Array.from(rho);
+  const lagSums = new Float64Array(3);
+  for (let k = 0; k < epochs; k++) {
+    epochInformation(solution, k, withGradients, information);
+    const iW = information[0]!;
+    if (withGradients) {
+      epochInflations(information, qW, qG, rho, rhoLags, lagSums);
+      out.zwd[k] = lagSums[0]!;
+      out.north[k] = lagSums[1]!;
+      out.east[k] = lagSums[2]!;
+    } else {
+      out.zwd[k] = varianceInflation(iW, qW, rho);
+    }
+    if (iW > 0) {
+      sumW += out.zwd[k]!;
+      sumG += (out.north[k]! + out.east[k]!) / 2;
+      count++;
+    }
+  }
+  return Float64Array.of(sumW, sumG, count);
+}
+
+/**
+ * varianceInflation of ZWD, north and east of one epoch at once, into out[0..2]: the three lag sums
+ * in one loop (three independent chains of additions that the processor overlaps, where one family
+ * after the other waits on each addition); each sum has the same terms in the same order as
+ * varianceInflation's, so the factors are the same doubles. A family whose λ is not below 1 − 1e-12
+ * (or without information) is left to varianceInflation.
+ *
+ * @param information I of ZWD, north, east [1/m²]  @param qW @param qG Q of ZWD and gradients [m²]
+ * @param rhoLags ρ as a Float64Array (the same values)
+ */
+function epochInflations(
+  information: Float64Array,
+  qW: number | null,
+  qG: number | null,
+  rho: readonly number[],
+  rhoLags: Float64Array,
+  out: Float64Array,
+): void {
+  const iW = information[0]!;
+  const iN = information[1]!;
+  const iE = information[2]!;
+  const lags = rhoLags.length;
+  const lW = iW > 0 ? kernelFactor(iW, qW) : 1;
+  const lN = iN > 0 ? kernelFactor(iN, qG) : 1;
+  const lE = iE > 0 ? kernelFactor(iE, qG) : 1;
+  if (lags === 0 || !(lW < 1 - 1e-12 && lN < 1 - 1e-12 && lE < 1 - 1e-12)) {
+    out[0] = varianceInflation(iW, qW, rho);
+    out[1] = varianceInflation(iN, qG, rho);
+    out[2] = varianceInflation(iE, qG, rho);
+    return;
+  }
+  const l2W = lW * lW;
+  const l2N = lN * lN;
+  const l2E = lE * lE;
+  const cW = 2 / (1 - l2W);
+  const cN = 2 / (1 - l2N);
+  const cE = 2 / (1 - l2E);
+  let lmW = 1,
+    lmN = 1,
+    lmE = 1;
+  let sumW = 0,
+    sumN = 0,
+    sumE = 0;
+  for (let m = 1; m <= lags; m++) {
+    const r = rhoLags[m - 1]!;
+    lmW *= lW;
+    lmN *= lN;
+    lmE *= lE;
+    sumW += r * lmW * (cW + m - 1);
+    sumN += r * lmN * (cN + m - 1);
+    sumE += r * lmE * (cE + m - 1);
+  }
+  out[0] = inflationOf(lW, sumW / ((1 + l2W) / (1 - l2W)));
+  out[1] = inflationOf(lN, sumN / ((1 + l2N) / (1 - l2N)));
+  out[2] = inflationOf(lE, sumE / ((1 + l2E) / (1 - l2E)));
 }
 
 /**
@@ -343,24 +450,10 @@ export function noiseInflation(
   const stepVariance = (q: number | null) => (q === null ? null : q * q * hours);
   const qW = stepVariance(options.zwd.randomWalkMPerSqrtH);
   const qG = options.gradients ? stepVariance(options.gradients.randomWalkMPerSqrtH) : null;
-  let sumW = 0,
-    sumG = 0,
-    count = 0;
-  const information = new Float64Array(3);
-  for (let k = 0; k < epochs; k++) {
-    epochInformation(solution, k, withGradients, information);
-    const iW = information[0]!;
-    out.zwd[k] = varianceInflation(iW, qW, rho);
-    if (withGradients) {
-      out.north[k] = varianceInflation(information[1]!, qG, rho);
-      out.east[k] = varianceInflation(information[2]!, qG, rho);
-    }
-    if (iW > 0) {
-      sumW += out.zwd[k]!;
-      sumG += (out.north[k]! + out.east[k]!) / 2;
-      count++;
-    }
-  }
+  const sums = epochFactors(solution, withGradients, qW, qG, rho, out);
+  const sumW = sums[0]!;
+  const sumG = sums[1]!;
+  const count = sums[2]!;
   out.statistics = {
     samplingS: samplingMs / 1000,
     autocorrelation: rho,

@@ -126,6 +126,12 @@ export class EpochStateSolver {
   readonly biasM: Float64Array;
   readonly fittedResidualM: Float64Array;
   readonly residualVarianceM2: Float64Array;
+  /** h_k per epoch (W, N, E), the used observations per epoch, and the used flags the sums were taken with. */
+  readonly epochRhs: Float64Array;
+  readonly epochUsed: Int32Array;
+  readonly sumsUsed: Uint8Array;
+  /** design.weightsRevision of the epoch sums held; −1: none held. */
+  sumsRevision = -1;
 
   /** @param arrays where its arrays come from (reused-arrays.ts); a solution is then valid until the next estimation too */
   constructor(
@@ -153,6 +159,9 @@ export class EpochStateSolver {
     this.biasM = arrays.float64('epochStates.biasM', K);
     this.fittedResidualM = arrays.float64('epochStates.fittedResidualM', n);
     this.residualVarianceM2 = arrays.float64('epochStates.residualVarianceM2', n);
+    this.epochRhs = arrays.float64('epochStates.epochRhs', K * 3);
+    this.epochUsed = arrays.int32('epochStates.epochUsed', K);
+    this.sumsUsed = arrays.uint8('epochStates.sumsUsed', n);
   }
 
   /**
@@ -178,8 +187,16 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
 
   // Per epoch: Σw and the weighted means r̄, m̄ (for the residual pass), S_k⁻¹, u_k, the step weights.
   // S_k⁻¹ and u_k are stored where the backward sweep puts Z_k and x_k (EpochStateSolver).
-  const epochNormal = solver.epochNormal.fill(0);
-  const epochWeight = solver.epochWeight.fill(0);
+  // The epoch sums (M_k, h_k, Σw, the means) are kept from solution to solution: an epoch whose used
+  // flags are those of the sums held, with weights of the same revision, keeps them (after a rejection
+  // only the rejected observations' epochs are summed again; the residuals and partials never change).
+  const epochNormal = solver.epochNormal;
+  const epochWeight = solver.epochWeight;
+  const epochRhs = solver.epochRhs;
+  const epochUsed = solver.epochUsed;
+  const sumsUsed = solver.sumsUsed;
+  const allEpochs = solver.sumsRevision !== design.weightsRevision;
+  solver.sumsRevision = -1; // until every epoch's sums are there (a small pivot returns before)
   const means = solver.means;
   const sInv = solver.block;
   const u = solver.x;
@@ -193,98 +210,35 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
   for (let k = 0; k < K; k++) {
     const start = epochStart[k]!;
     const end = epochStart[k + 1]!;
-    // One pass: sums of w d, w d dᵀ with d = (m − m_ref, r − r_ref) taken from the epoch's first used
-    // observation (so that ±300 km receiver clocks in r cost no digits), centred afterwards:
-    // M = Σ w d dᵀ − (Σ w d)(Σ w d)ᵀ/Σ w = Σ w (m − m̄)(m − m̄)ᵀ, h likewise (least-squares.ts takes two passes).
-    let first = start;
-    while (first < end && !used[first]) first++;
-    let mWW = 0,
-      mWN = 0,
-      mWE = 0,
-      mNN = 0,
-      mNE = 0,
-      mEE = 0;
-    let hW = 0,
-      hN = 0,
-      hE = 0;
+    if (allEpochs || !sameFlags(used, sumsUsed, start, end)) {
+      epochSums(design, bias, used, k, epochNormal, epochWeight, epochRhs, epochUsed, means);
+      sumsUsed.set(used.subarray(start, end), start);
+    }
+    const o = k * EPOCH_NORMAL_ENTRIES;
+    const mWW = epochNormal[o]!,
+      mWN = epochNormal[o + 1]!,
+      mWE = epochNormal[o + 2]!,
+      mNN = epochNormal[o + 3]!,
+      mNE = epochNormal[o + 4]!,
+      mEE = epochNormal[o + 5]!;
+    const hW = epochRhs[3 * k]!,
+      hN = epochRhs[3 * k + 1]!,
+      hE = epochRhs[3 * k + 2]!;
     let dW = 0,
       dN = 0,
       dE = 0;
-    if (first < end) {
+    const count = epochUsed[k]!;
+    if (count > 0) {
       epochsUsed++;
-      const rRef = bias ? residual[first]! : 0;
-      const wRef = bias ? wet[first]! : 0;
-      const nRef = bias ? north[first]! : 0;
-      const eRef = bias ? east[first]! : 0;
-      let sw = 0,
-        sR = 0,
-        sW = 0,
-        sN = 0,
-        sE = 0;
-      for (let s = first; s < end; s++) {
-        if (!used[s]) continue;
-        observationsUsed++;
-        const w = 1 / variance[s]!;
-        const dr = residual[s]! - rRef;
-        const cw = wet[s]! - wRef;
-        const cn = north[s]! - nRef;
-        const ce = east[s]! - eRef;
-        const wcw = w * cw;
-        const wcn = w * cn;
-        const wce = w * ce;
-        sw += w;
-        sR += w * dr;
-        sW += wcw;
-        sN += wcn;
-        sE += wce;
-        mWW += wcw * cw;
-        mWN += wcw * cn;
-        mWE += wcw * ce;
-        mNN += wcn * cn;
-        mNE += wcn * ce;
-        mEE += wce * ce;
-        hW += wcw * dr;
-        hN += wcn * dr;
-        hE += wce * dr;
-      }
-      let aR = 0,
-        aW = 0,
-        aN = 0,
-        aE = 0;
-      if (bias) {
-        aR = sR / sw;
-        aW = sW / sw;
-        aN = sN / sw;
-        aE = sE / sw;
-        mWW -= sW * aW;
-        mWN -= sW * aN;
-        mWE -= sW * aE;
-        mNN -= sN * aN;
-        mNE -= sN * aE;
-        mEE -= sE * aE;
-        hW -= sW * aR;
-        hN -= sN * aR;
-        hE -= sE * aR;
-      }
-      const mW = wRef + aW;
-      const mN = nRef + aN;
-      const mE = eRef + aE;
-      epochWeight[k] = sw;
-      means[4 * k] = rRef + aR;
-      means[4 * k + 1] = mW;
-      means[4 * k + 2] = mN;
-      means[4 * k + 3] = mE;
+      observationsUsed += count;
       // Σ w m² (the parameter's own diagonal for the singularity test): the centred sum plus Σw m̄².
+      const sw = epochWeight[k]!;
+      const mW = means[4 * k + 1]!;
+      const mN = means[4 * k + 2]!;
+      const mE = means[4 * k + 3]!;
       dW = mWW + sw * mW * mW;
       dN = mNN + sw * mN * mN;
       dE = mEE + sw * mE * mE;
-      const o = k * EPOCH_NORMAL_ENTRIES;
-      epochNormal[o] = mWW;
-      epochNormal[o + 1] = mWN;
-      epochNormal[o + 2] = mWE;
-      epochNormal[o + 3] = mNN;
-      epochNormal[o + 4] = mNE;
-      epochNormal[o + 5] = mEE;
     }
 
     // S_k = A_k − D_{k−1} S_{k−1}⁻¹ D_{k−1}, y_k = h_k + D_{k−1} u_{k−1}.
@@ -411,6 +365,7 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
     block[b + 4] = iNE + cNW * gEW + cNN * gEN + cNE * gEE;
     block[b + 5] = iEE + cEW * gEW + cEN * gEN + cEE * gEE;
   }
+  solver.sumsRevision = design.weightsRevision;
   for (let k = 0; k < K; k++) {
     diagonal[k] = block[k * BLOCK]!;
     diagonal[K + k] = block[k * BLOCK + 3]!;
@@ -419,17 +374,23 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
   const inverse = new EpochStateInverse(K, diagonal, block, next);
 
   // Post-fit residuals v, biases b̂ and σ_v² (least-squares.ts, postFitResiduals) from the epoch means of the assembly.
-  const biasM = solver.biasM.fill(Number.NaN);
-  const fittedResidualM = solver.fittedResidualM.fill(0);
-  const residualVarianceM2 = solver.residualVarianceM2.fill(0);
+  // Rejected observations get 0 and 0, epochs without observations or biases NaN (written here, not filled first).
+  const biasM = solver.biasM;
+  const fittedResidualM = solver.fittedResidualM;
+  const residualVarianceM2 = solver.residualVarianceM2;
   let observationSquareSum = 0;
   let observationRedundancy = 0;
   let residualSquareSumM2 = 0;
   for (let k = 0; k < K; k++) {
     const sw = epochWeight[k]!;
-    if (sw === 0) continue;
     const start = epochStart[k]!;
     const end = epochStart[k + 1]!;
+    biasM[k] = Number.NaN;
+    if (sw === 0) {
+      fittedResidualM.fill(0, start, end);
+      residualVarianceM2.fill(0, start, end);
+      continue;
+    }
     const xW = x[k]!;
     const xN = x[K + k]!;
     const xE = x[2 * K + k]!;
@@ -448,7 +409,11 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
       qEE = block[b + 5]!;
     const biasVariance = bias ? 1 / sw : 0;
     for (let s = start; s < end; s++) {
-      if (!used[s]) continue;
+      if (!used[s]) {
+        fittedResidualM[s] = 0;
+        residualVarianceM2[s] = 0;
+        continue;
+      }
       const cw = wet[s]! - mW;
       const cn = north[s]! - mN;
       const ce = east[s]! - mE;
@@ -490,4 +455,121 @@ function solveInto(design: Design, options: ZwdEstimationOptions, used: Uint8Arr
     epochNormal,
     constraints: constraintCount(parameterLayout(design), options),
   };
+}
+
+/** True when used[start..end) equals held[start..end). */
+function sameFlags(used: Uint8Array, held: Uint8Array, start: number, end: number): boolean {
+  for (let s = start; s < end; s++) if (used[s] !== held[s]) return false;
+  return true;
+}
+
+/**
+ * The sums of epoch k into the solver's arrays: M_k (centred, EPOCH_NORMAL_ENTRIES), h_k, Σw, the
+ * weighted means r̄, m̄, and the number of used observations; zeros (means untouched) when none is used.
+ */
+function epochSums(
+  design: Design,
+  bias: boolean,
+  used: Uint8Array,
+  k: number,
+  epochNormal: Float64Array,
+  epochWeight: Float64Array,
+  epochRhs: Float64Array,
+  epochUsed: Int32Array,
+  means: Float64Array,
+): void {
+  const wet = design.wetMapping;
+  const north = design.northMapping;
+  const east = design.eastMapping;
+  const variance = design.observationVarianceM2;
+  const residual = design.residualM;
+  const start = design.epochStart[k]!;
+  const end = design.epochStart[k + 1]!;
+  // One pass: sums of w d, w d dᵀ with d = (m − m_ref, r − r_ref) taken from the epoch's first used
+  // observation (so that ±300 km receiver clocks in r cost no digits), centred afterwards:
+  // M = Σ w d dᵀ − (Σ w d)(Σ w d)ᵀ/Σ w = Σ w (m − m̄)(m − m̄)ᵀ, h likewise (least-squares.ts takes two passes).
+  let first = start;
+  while (first < end && !used[first]) first++;
+  let mWW = 0,
+    mWN = 0,
+    mWE = 0,
+    mNN = 0,
+    mNE = 0,
+    mEE = 0;
+  let hW = 0,
+    hN = 0,
+    hE = 0;
+  let sw = 0;
+  let count = 0;
+  if (first < end) {
+    const rRef = bias ? residual[first]! : 0;
+    const wRef = bias ? wet[first]! : 0;
+    const nRef = bias ? north[first]! : 0;
+    const eRef = bias ? east[first]! : 0;
+    let sR = 0,
+      sW = 0,
+      sN = 0,
+      sE = 0;
+    for (let s = first; s < end; s++) {
+      if (!used[s]) continue;
+      count++;
+      const w = 1 / variance[s]!;
+      const dr = residual[s]! - rRef;
+      const cw = wet[s]! - wRef;
+      const cn = north[s]! - nRef;
+      const ce = east[s]! - eRef;
+      const wcw = w * cw;
+      const wcn = w * cn;
+      const wce = w * ce;
+      sw += w;
+      sR += w * dr;
+      sW += wcw;
+      sN += wcn;
+      sE += wce;
+      mWW += wcw * cw;
+      mWN += wcw * cn;
+      mWE += wcw * ce;
+      mNN += wcn * cn;
+      mNE += wcn * ce;
+      mEE += wce * ce;
+      hW += wcw * dr;
+      hN += wcn * dr;
+      hE += wce * dr;
+    }
+    let aR = 0,
+      aW = 0,
+      aN = 0,
+      aE = 0;
+    if (bias) {
+      aR = sR / sw;
+      aW = sW / sw;
+      aN = sN / sw;
+      aE = sE / sw;
+      mWW -= sW * aW;
+      mWN -= sW * aN;
+      mWE -= sW * aE;
+      mNN -= sN * aN;
+      mNE -= sN * aE;
+      mEE -= sE * aE;
+      hW -= sW * aR;
+      hN -= sN * aR;
+      hE -= sE * aR;
+    }
+    means[4 * k] = rRef + aR;
+    means[4 * k + 1] = wRef + aW;
+    means[4 * k + 2] = nRef + aN;
+    means[4 * k + 3] = eRef + aE;
+  }
+  epochWeight[k] = sw;
+  epochUsed[k] = count;
+  const o = k * EPOCH_NORMAL_ENTRIES;
+  epochNormal[o] = mWW;
+  epochNormal[o + 1] = mWN;
+  epochNormal[o + 2] = mWE;
+  epochNormal[o + 3] = mNN;
+  epochNormal[o + 4] = mNE;
+  epochNormal[o + 5] = mEE;
+  epochRhs[3 * k] = hW;
+  epochRhs[3 * k + 1] = hN;
+  epochRhs[3 * k + 2] = hE;
 }

@@ -64,7 +64,12 @@ export function nodeRejectionWindowMs(zwdIntervalS: number): number {
  */
 export function epochStateRejectionWindowMs(lambdas: readonly number[], samplingMs: number): number {
   let epochs = 0;
-  for (const l of lambdas) epochs = Math.max(epochs, l >= 1 ? Infinity : l <= 0 ? 1 : Math.log(1e-3) / Math.log(l));
+  // An indexed loop: `for … of` was compiled for one elements kind of the array and deoptimised on the other
+  // (medians that are whole numbers make an array of small integers), several times a request (`--trace-deopt`).
+  for (let i = 0; i < lambdas.length; i++) {
+    const l = lambdas[i]!;
+    epochs = Math.max(epochs, l >= 1 ? Infinity : l <= 0 ? 1 : Math.log(1e-3) / Math.log(l));
+  }
   return Math.min(Math.max(epochs * samplingMs, MIN_EPOCH_STATE_WINDOW_S * 1000), MIN_REJECTION_WINDOW_S * 1000);
 }
 
