@@ -93,6 +93,7 @@ const QUADRANT_EDGE_RAD = 1e-6;
  */
 export function zeroGradientTerm(a: number): number {
   if (a > Math.PI + QUADRANT_EDGE_RAD && a < THREE_HALVES_PI - QUADRANT_EDGE_RAD) return -0; // cos a < 0, sin a < 0
-  if ((a >= 0 && a < Math.PI - QUADRANT_EDGE_RAD) || (a > THREE_HALVES_PI + QUADRANT_EDGE_RAD && a < TWO_PI)) return 0; // sin a ≥ 0 or cos a > 0
+  // sin a ≥ 0, or cos a > 0:
+  if ((a >= 0 && a < Math.PI - QUADRANT_EDGE_RAD) || (a > THREE_HALVES_PI + QUADRANT_EDGE_RAD && a < TWO_PI)) return 0;
   return 0 * Math.cos(a) + 0 * Math.sin(a);
 }
