@@ -60,15 +60,40 @@ export function computeSlantDelays(
   const { zhdM, zwdM, northGradientM, eastGradientM } = zenith;
   mapping.mapBatch(elevationsRad, out.mappingHydrostatic, out.mappingWet);
   gradientModel.mapBatch(elevationsRad, out.mappingHydrostatic, out.mappingGradient);
+  // Without gradients (both +0, the default) the azimuth term is a signed zero that needs no cosine or sine.
+  const noGradients = Object.is(northGradientM, 0) && Object.is(eastGradientM, 0);
   for (let i = 0; i < elevationsRad.length; i++) {
     const a = azimuthsRad[i]!;
     const hyd = out.mappingHydrostatic[i]! * zhdM;
     const wet = out.mappingWet[i]! * zwdM;
-    const grad = out.mappingGradient[i]! * (northGradientM * Math.cos(a) + eastGradientM * Math.sin(a));
+    const azimuthTerm = noGradients ? zeroGradientTerm(a) : northGradientM * Math.cos(a) + eastGradientM * Math.sin(a);
+    const grad = out.mappingGradient[i]! * azimuthTerm;
     out.hydrostaticM[i] = hyd;
     out.wetM[i] = wet;
     out.gradientM[i] = grad;
     out.totalM[i] = hyd + wet + grad;
   }
   return out;
+}
+
+const TWO_PI = 2 * Math.PI;
+const THREE_HALVES_PI = 1.5 * Math.PI;
+/** Azimuths within this of π or 3π/2 [rad], and any outside [0, 2π), take the cosine and sine themselves. */
+const QUADRANT_EDGE_RAD = 1e-6;
+
+/**
+ * 0 · cos a + 0 · sin a, exactly as computed (a signed zero: the gradient columns keep their sign bit in an
+ * Arrow answer), without the two transcendental calls (a fifth of a 10 000-direction batch without gradients).
+ * +0 · x is −0 exactly when x < 0 (or x is −0), and +0 + −0 is +0: the term is −0 only where both cos a < 0
+ * and sin a < 0, in the third quadrant (π, 3π/2). Inside [0, 2π) and more than QUADRANT_EDGE_RAD from π and
+ * 3π/2, where those two change sign, |cos a| or |sin a| that decides is above 1e-7, far beyond the error of
+ * Math.cos and Math.sin, so the sign is known without them; anywhere else they are computed as written.
+ *
+ * @param a azimuth [rad]
+ */
+export function zeroGradientTerm(a: number): number {
+  if (a > Math.PI + QUADRANT_EDGE_RAD && a < THREE_HALVES_PI - QUADRANT_EDGE_RAD) return -0; // cos a < 0, sin a < 0
+  // sin a ≥ 0, or cos a > 0:
+  if ((a >= 0 && a < Math.PI - QUADRANT_EDGE_RAD) || (a > THREE_HALVES_PI + QUADRANT_EDGE_RAD && a < TWO_PI)) return 0;
+  return 0 * Math.cos(a) + 0 * Math.sin(a);
 }

@@ -83,6 +83,24 @@ describe('azimuths in [0, 360)', () => {
     expect(normaliseAzimuthRad(-1e-17)).toBe(0); // −1e-17 + 2π rounds to 2π
   });
 
+  it('keeps every azimuth of [0, 360) bit for bit (−0 included) and wraps the others (common practice)', () => {
+    const inRange = [
+      -0,
+      0,
+      5e-324,
+      1e-300,
+      0.1,
+      90,
+      179.99999999999997,
+      359.99999999999994,
+      ...Array.from({ length: 3600 }, (_, i) => i / 10 + 0.01),
+    ];
+    for (const a of inRange) expect(Object.is(normaliseAzimuthDeg(a), a), `${a}`).toBe(true);
+    expect(normaliseAzimuthDeg(720.25)).toBe(0.25);
+    expect(normaliseAzimuthDeg(-90)).toBe(270);
+    expect(normaliseAzimuthDeg(-1e-300)).toBe(0); // −1e-300 + 360 rounds to 360
+  });
+
   it('look angles to a point due north at a hair west of the meridian stay below 360°', () => {
     const lat = 10 * DEG;
     const site = geodeticToEcef(lat, 0, 0);

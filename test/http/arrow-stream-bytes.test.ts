@@ -62,6 +62,23 @@ describe('ipcStreamBytes against apache-arrow tableToIPC (the Arrow IPC streamin
     });
   }
 
+  it('arrowAnswer of alternating sizes and selections (record batch headers kept per rows and columns): each the bytes of tableToIPC', () => {
+    for (const [n, fields] of [
+      [10_000, ['total_m', 'elevation_deg']],
+      [3, ['total_m', 'elevation_deg']],
+      [10_000, ['azimuth_deg', 'total_m', 'elevation_deg']],
+      [10_000, ['elevation_deg', 'azimuth_deg']],
+      [3, ['azimuth_deg']],
+      [10_000, ['total_m', 'elevation_deg']],
+    ] as const) {
+      const columns = { elevation_deg: column(n, 90), azimuth_deg: column(n, 360), total_m: column(n, 30) };
+      const reference = tableFromArrays(Object.fromEntries(fields.map((f) => [f, columns[f]]))) as Table;
+      reference.schema.metadata.set('answer', JSON.stringify({ n }));
+      const bytes = arrowAnswer(columns, fields, { n });
+      expect(Buffer.from(bytes).equals(Buffer.from(tableToIPC(reference, 'stream'))), `${n} rows, ${fields.join(', ')}`).toBe(true);
+    }
+  });
+
   it('arrowAnswer: the selected fields in the caller order, the rest of the answer in the metadata "answer"', () => {
     const columns = { a: column(7, 1), b: column(7, 1), c: column(7, 1) };
     const read = tableFromIPC(arrowAnswer(columns, ['c', 'a'], { zenith: { ztd_m: 2.4 } }));

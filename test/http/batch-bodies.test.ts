@@ -1,7 +1,8 @@
 /**
- * The slant-delays route reads its bodies itself (src/http/batch-body.ts readBatchBodies: a declared body copied
- * into a pooled buffer as it arrives, handed back once read). Compared with fastify's own `parseAs: 'buffer'`
- * reader, which the mapping-factors route still uses (the same body limit, 32 MiB, and the same error handler):
+ * The slant-delays and mapping-factors routes read their bodies themselves (src/http/batch-body.ts readBatchBodies: a
+ * declared body copied into a pooled buffer as it arrives, handed back once read). Compared with fastify's own
+ * `parseAs: 'buffer'` reader, which the precipitable-water route still uses (the same body limit, 32 MiB, and the
+ * same error handler):
  * the refusals of a body over the limit are the same answers; a body sent without a Content-Length (chunked) is
  * answered as the same body with one; and requests of different sizes and forms sent together, on pooled
  * buffers reused between them, each get the bytes of the same request sent alone (common practice for reused
@@ -73,6 +74,11 @@ const columnsBody = (n: number) =>
   });
 const mappingBody = (n: number) =>
   json({ site: base.site, epoch: base.epoch, elevations_deg: Array.from({ length: n }, (_, i) => 3 + (i % 87)) });
+const pwvBody = (n: number) =>
+  json({
+    site: base.site,
+    records: Array.from({ length: n }, (_, i) => ({ epoch: base.epoch, ztd_m: 2.4 + i * 1e-4, pressure_hpa: 965.3 })),
+  });
 
 const arrowBody = (n: number) => slantArrowRequest(n, base);
 
@@ -83,14 +89,17 @@ const problem = (body: Buffer) => ({ ...(JSON.parse(body.toString('utf8')) as ob
 const inPieces = (bytes: Uint8Array, size: number) =>
   Array.from({ length: Math.ceil(bytes.length / size) }, (_, i) => bytes.subarray(i * size, (i + 1) * size));
 
-describe('slant-delays bodies read into pooled buffers, against fastify`s reader (mapping-factors)', () => {
-  it('a declared Content-Length over the limit: the same 413 from both, before the body is read', async () => {
+describe('slant-delays and mapping-factors bodies read into pooled buffers, against fastify`s reader (precipitable-water)', () => {
+  it('a declared Content-Length over the limit: the same 413 from all three, before the body is read', async () => {
     const headers = { 'content-type': 'application/json', 'content-length': BATCH_BODY_LIMIT_BYTES + 1 };
     const slant = await send({ path: '/v1/slant-delays', headers, pieces: [columnsBody(10)] });
     const mapping = await send({ path: '/v1/mapping-factors', headers, pieces: [mappingBody(10)] });
+    const fastifys = await send({ path: '/v1/precipitable-water', headers, pieces: [pwvBody(10)] });
     expect(slant.status).toBe(413);
-    expect(slant.status).toBe(mapping.status);
-    expect(problem(slant.body)).toEqual(problem(mapping.body));
+    for (const read of [slant, mapping]) {
+      expect(read.status).toBe(fastifys.status);
+      expect(problem(read.body)).toEqual(problem(fastifys.body));
+    }
   });
 
   it('a chunked body growing past the limit: the same 413 from both', async () => {
@@ -99,15 +108,19 @@ describe('slant-delays bodies read into pooled buffers, against fastify`s reader
     const headers = { 'content-type': 'application/json', 'transfer-encoding': 'chunked' };
     const slant = await send({ path: '/v1/slant-delays', headers, pieces: pieces(columnsBody(10)) });
     const mapping = await send({ path: '/v1/mapping-factors', headers, pieces: pieces(mappingBody(10)) });
+    const fastifys = await send({ path: '/v1/precipitable-water', headers, pieces: pieces(pwvBody(10)) });
     expect(slant.status).toBe(413);
-    expect(slant.status).toBe(mapping.status);
-    expect(problem(slant.body)).toEqual(problem(mapping.body));
+    for (const read of [slant, mapping]) {
+      expect(read.status).toBe(fastifys.status);
+      expect(problem(read.body)).toEqual(problem(fastifys.body));
+    }
   });
 
   it('a chunked body (no Content-Length) gets the answer of the same body with one, JSON and Arrow', async () => {
     for (const [path, type, body] of [
       ['/v1/slant-delays?shape=columns', 'application/json', columnsBody(3000)],
       ['/v1/slant-delays', ARROW, arrowBody(3000)],
+      ['/v1/mapping-factors', 'application/json', mappingBody(9000)],
     ] as const) {
       const declared = await send({ path, headers: { 'content-type': type, 'content-length': body.length }, pieces: [body] });
       const chunked = await send({ path, headers: { 'content-type': type, 'transfer-encoding': 'chunked' }, pieces: inPieces(body, 7000) });
@@ -121,6 +134,7 @@ describe('slant-delays bodies read into pooled buffers, against fastify`s reader
     const requests = [4000, 9000, 1500, 12000, 20, 9000].flatMap((n): Sent[] => [
       { path: '/v1/slant-delays?shape=columns', headers: { 'content-type': 'application/json' }, pieces: inPieces(columnsBody(n), 40_000) },
       { path: '/v1/slant-delays', headers: { 'content-type': ARROW, accept: ARROW }, pieces: inPieces(arrowBody(n), 40_000) },
+      { path: '/v1/mapping-factors', headers: { 'content-type': 'application/json' }, pieces: inPieces(mappingBody(n), 40_000) },
     ]);
     const declared = requests.map((r) => ({
       ...r,

@@ -85,6 +85,7 @@ export function normaliseAzimuthRad(azimuthRad: number): number {
 
 /** An azimuth in [0, 360) [deg]; 360 becomes 0 (the same direction). */
 export function normaliseAzimuthDeg(azimuthDeg: number): number {
+  if (azimuthDeg >= 0 && azimuthDeg < 360) return azimuthDeg; // as x % 360 gives it there, without the remainder (a tenth of a slant batch)
   let a = azimuthDeg % 360;
   if (a < 0) a += 360;
   return a >= 360 ? 0 : a;

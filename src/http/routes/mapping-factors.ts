@@ -1,13 +1,13 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { BATCH_BODY_LIMIT_BYTES, OFFLOAD_BODY_BYTES } from '../../limits.js';
-import { answerBatchRequest } from '../batch-body.js';
-import { bodyInWorkerValidator, keepJsonBodiesAsBytes } from '../raw-body.js';
+import { answerBatchRequest, readBatchBodies } from '../batch-body.js';
+import { bodyInWorkerValidator } from '../raw-body.js';
 import { problemSchema } from '../schemas/common.js';
 import { mappingFactorsResponse } from '../schemas/mapping-factors.js';
 import { mappingFactorsBody, handleMappingFactorsRequest } from '../tasks/apriori-batch.js';
 
 const mappingFactorsRoute: FastifyPluginAsyncZod = async (app) => {
-  keepJsonBodiesAsBytes(app);
+  readBatchBodies(app);
   app.post(
     '/v1/mapping-factors',
     {
