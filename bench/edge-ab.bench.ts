@@ -12,7 +12,9 @@
  * `BENCH_EDGE_NEW_FLAGS`: node flags of each beside --max-semi-space-size=32 (e.g. `--initial-old-space-size=128`);
  * `BENCH_EDGE_BLOCKS` (default 10); `BENCH_EDGE_PART` (gps | gps-columns | gps-arrow | arrow | columns,
  * comma-separated, default all; gps-columns: the GPS-like day with the `shape=columns` answer, gps-arrow: Arrow in
- * and out). The answers of both are compared byte for byte (Arrow: by length, its flatbuffer bytes differ run to run).
+ * and out); `BENCH_EDGE_WARM`: requests per workload and service before timing (default 10 or the block size if
+ * smaller: a fresh service). The answers of both are compared byte for byte (Arrow: by length, its flatbuffer
+ * bytes differ run to run).
  */
 
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
@@ -171,6 +173,11 @@ export default async function edgeAb(): Promise<string[]> {
   if ([oldDir, newDir].includes('dist') && spawnSync(process.execPath, ['scripts/build-if-stale.mjs'], { stdio: 'inherit' }).status !== 0)
     throw new Error('the build of dist/ failed');
   const blocks = Number(process.env.BENCH_EDGE_BLOCKS ?? 10);
+  // A replica that has run for a while costs less than a fresh one: code run once a request (fastify, node's
+  // HTTP, apache-arrow's reader and writer, zod) is optimised by V8 only after hundreds to thousands of requests
+  // (slant Arrow: 2.7–3.4 ms a request in the first 500, 1.6–1.9 ms from about the 3 000th on). The default
+  // warm-up (10 requests) measures a fresh service; BENCH_EDGE_WARM=<n> measures after n requests per workload.
+  const warmRequests = process.env.BENCH_EDGE_WARM ? Number(process.env.BENCH_EDGE_WARM) : undefined;
   const part = process.env.BENCH_EDGE_PART;
   const all = { gps: gpsDay, 'gps-columns': gpsDayColumnsOut, 'gps-arrow': gpsDayArrow, arrow: slantArrow, columns: slantColumns };
   const workloads = Object.entries(all)
@@ -189,7 +196,7 @@ export default async function edgeAb(): Promise<string[]> {
       // Warm-up, and the same answer from both (Arrow: the same length; its metadata bytes vary).
       const answers: Buffer[] = [];
       for (const s of services) {
-        for (let i = 0; i < Math.min(w.block, 10); i++) await send(s, w);
+        for (let i = 0; i < (warmRequests ?? Math.min(w.block, 10)); i++) await send(s, w);
         answers.push(await send(s, w));
       }
       const same = w.accept === ARROW ? answers[0]!.length === answers[1]!.length : answers[0]!.equals(answers[1]!);
