@@ -11,7 +11,7 @@
  */
 
 import { existsSync } from 'node:fs';
-import { constants, PerformanceObserver } from 'node:perf_hooks';
+import { constants, PerformanceObserver, type PerformanceEntry } from 'node:perf_hooks';
 import { Session } from 'node:inspector/promises';
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -103,7 +103,7 @@ const ALLOC_BATCH = 20;
 const scavenges = { count: 0, ms: 0 };
 new PerformanceObserver((list) => {
   for (const e of list.getEntries()) {
-    if ((e.detail as { kind?: number } | undefined)?.kind === constants.NODE_PERFORMANCE_GC_MINOR) {
+    if ((e as PerformanceEntry & { detail?: { kind?: number } }).detail?.kind === constants.NODE_PERFORMANCE_GC_MINOR) {
       scavenges.count++;
       scavenges.ms += e.duration;
     }
