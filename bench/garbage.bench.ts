@@ -7,7 +7,8 @@
  * child process (all threads: garbage collection on V8's helper threads counts) and the bytes allocated on the
  * heap (the sampling heap profiler with the collected objects kept: an estimate of all bytes allocated).
  * Medians and ranges over BENCH_ROUNDS (default 20) rounds of BENCH_GARBAGE_BATCH (default 5) requests,
- * the load average beside them: first the CPU rounds (no profiler), then the allocation rounds. The largest allocation sites of one tree:
+ * the load average beside them: first the CPU rounds (no profiler; with the scavenges a request and their pauses),
+ * then the allocation rounds. The largest allocation sites of one tree:
  * `node --max-semi-space-size=32 --import tsx bench/garbage.child.ts <root> sites` (a dist/ build of
  * `npx tsc -p tsconfig.build.json` gives line numbers).
  * `BENCH_GARBAGE_REFERENCE=/tmp/before npm run bench -- garbage`.
@@ -24,6 +25,9 @@ const load = () => readFileSync('/proc/loadavg', 'utf8').split(' ').slice(0, 3).
 interface Answer {
   cpuMs: number;
   allocatedBytes: number;
+  /** Scavenges (minor GCs) and their pauses [ms, wall]: counts so far from the child, a request from next(). */
+  scavenges?: number;
+  scavengeMs?: number;
 }
 
 /** A child handling requests with the tree at `root`; `next()` runs one batch and gives CPU [ms] and bytes a request. */
@@ -35,14 +39,20 @@ async function treeProcess(root: string, batch: number) {
   let resolve: (a: Answer) => void = () => undefined;
   child.on('message', (m) => resolve(m as Answer));
   const answer = () => new Promise<Answer>((r) => (resolve = r));
-  let last = (await answer()).cpuMs;
+  let last = await answer();
   return {
     async next(kind: 'cpu' | 'alloc'): Promise<Answer> {
       child.send(kind);
       const a = await answer();
-      const used = a.cpuMs - last;
-      last = a.cpuMs;
-      return { cpuMs: used / batch, allocatedBytes: a.allocatedBytes };
+      const since = (key: 'cpuMs' | 'scavenges' | 'scavengeMs') => ((a[key] ?? 0) - (last[key] ?? 0)) / batch;
+      const answered = {
+        cpuMs: since('cpuMs'),
+        allocatedBytes: a.allocatedBytes,
+        scavenges: since('scavenges'),
+        scavengeMs: since('scavengeMs'),
+      };
+      last = a;
+      return answered;
     },
     stop: () => child.send('stop'),
   };
@@ -87,10 +97,17 @@ export default async function garbageBench(): Promise<string[]> {
       1,
       'MB',
     );
+  const gc = (xs: Answer[], key: 'scavenges' | 'scavengeMs', unit: string) =>
+    figure(
+      xs.map((x) => x[key] ?? 0),
+      2,
+      unit,
+    );
   const ratios = old.map((o, k) => cur[k]!.cpuMs / o.cpuMs);
   return [
     `GPS-like day, handleZwdRequest (rows answer), ${rounds} rounds of ${batch} requests by turns:`,
     `  CPU a request (process, all threads; load ${load0} → ${load1}): before ${cpu(old)}, now ${cpu(cur)}; now/before per round ${figure(ratios, 2, '')}`,
+    `  scavenges a request (CPU rounds, --max-semi-space-size=32): before ${gc(old, 'scavenges', '')}, now ${gc(cur, 'scavenges', '')}; their pauses a request: before ${gc(old, 'scavengeMs', 'ms')}, now ${gc(cur, 'scavengeMs', 'ms')}`,
     `  heap allocated a request (sampled, ${Math.ceil(rounds / 2)} rounds of 20 requests; load ${load1} → ${load()}): before ${mb(oldAlloc)}, now ${mb(curAlloc)}`,
   ];
 }

@@ -6,11 +6,12 @@
  * threads counts), or (message "alloc") the bytes the sampling heap profiler saw allocated in 20 requests, a
  * request (every object sampled with probability ~size/interval, those collected since kept in the profile:
  * an estimate of all bytes allocated on the heap; the profiler costs CPU, so the CPU batches run without it,
- * before the first "alloc"). With argument 2 "sites" it instead prints the largest allocation sites of
- * 20 runs and exits.
+ * before the first "alloc"); with each answer, the scavenges so far (minor GCs: count and pauses). With
+ * argument 2 "sites" it instead prints the largest allocation sites of 20 runs and exits.
  */
 
 import { existsSync } from 'node:fs';
+import { constants, PerformanceObserver, type PerformanceEntry } from 'node:perf_hooks';
 import { Session } from 'node:inspector/promises';
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -96,18 +97,37 @@ if (process.argv[3] === 'sites') {
 // under the sampling heap profiler, started for them and stopped after (the profile is read after the stop, so
 // its own objects are not counted; starting it deoptimises some code once, spread over the batch).
 const ALLOC_BATCH = 20;
+// Scavenges (minor GCs) so far and their pauses [ms, wall] (the parent takes differences): how often the
+// requests' garbage fills the young generation (the bench's --max-semi-space-size=32 makes that rarer than the
+// service's default).
+const scavenges = { count: 0, ms: 0 };
+new PerformanceObserver((list) => {
+  for (const e of list.getEntries()) {
+    if ((e as PerformanceEntry & { detail?: { kind?: number } }).detail?.kind === constants.NODE_PERFORMANCE_GC_MINOR) {
+      scavenges.count++;
+      scavenges.ms += e.duration;
+    }
+  }
+}).observe({ entryTypes: ['gc'] });
 process.on('message', (message) => {
   if (message === 'stop') process.exit(0);
   void (async () => {
     if (message === 'cpu') {
       for (let i = 0; i < batch; i++) await run();
-      process.send!({ cpuMs: cpuMs(), allocatedBytes: 0 });
+      // The observer's entries come a little later (a batch's last ones may count with the next batch).
+      await new Promise((r) => setTimeout(r, 5));
+      process.send!({ cpuMs: cpuMs(), allocatedBytes: 0, scavenges: scavenges.count, scavengeMs: scavenges.ms });
       return;
     }
     const profile = await sampled(async () => {
       for (let i = 0; i < ALLOC_BATCH; i++) await run();
     });
-    process.send!({ cpuMs: cpuMs(), allocatedBytes: totalBytes(profile) / ALLOC_BATCH });
+    process.send!({
+      cpuMs: cpuMs(),
+      allocatedBytes: totalBytes(profile) / ALLOC_BATCH,
+      scavenges: scavenges.count,
+      scavengeMs: scavenges.ms,
+    });
   })();
 });
-process.send!({ cpuMs: cpuMs(), allocatedBytes: 0 });
+process.send!({ cpuMs: cpuMs(), allocatedBytes: 0, scavenges: scavenges.count, scavengeMs: scavenges.ms });

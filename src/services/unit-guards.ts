@@ -18,8 +18,19 @@ export const RESIDUAL_MAD_LIMIT_M = 1;
 /** A ZWD below −10 mm over the series (median) is not weather: the residuals' sign is likely reversed. */
 export const NEGATIVE_ZWD_LIMIT_M = -0.01;
 
-/** Median of the values (not NaN); NaN when there are none. */
-const median = (v: readonly number[]): number => medianInPlace(Float64Array.from(v), v.length);
+/**
+ * Median of the finite values, in their order (NaN when there are none): copied straight into a typed array,
+ * so that no array of boxed numbers is made on the way (issue 14: a filtered array per request).
+ */
+function finiteMedian(v: ArrayLike<number>): number {
+  const finite = new Float64Array(v.length);
+  let count = 0;
+  for (let i = 0; i < v.length; i++) {
+    const x = v[i]!;
+    if (Number.isFinite(x)) finite[count++] = x;
+  }
+  return medianInPlace(finite, count);
+}
 
 /**
  * Refuses residuals that look like millimetres (or another unit a thousand times too small): 400
@@ -77,8 +88,8 @@ export function guardResidualUnit(epochMs: Float64Array | readonly number[], res
 }
 
 /** A warning when the estimated ZWD series is clearly negative (median below NEGATIVE_ZWD_LIMIT_M). */
-export function negativeZwdWarning(zwdM: readonly number[]): Warning | null {
-  const m = median(zwdM.filter(Number.isFinite));
+export function negativeZwdWarning(zwdM: ArrayLike<number>): Warning | null {
+  const m = finiteMedian(zwdM);
   if (!(m < NEGATIVE_ZWD_LIMIT_M)) return null;
   return warning(
     'zwd-negative',

@@ -359,7 +359,9 @@ export function seriesZwd(
       ),
     );
   }
-  const negative = negativeZwdWarning(epochZwd.map((z) => z.zwdM));
+  const zwdM = new Float64Array(epochZwd.length);
+  for (let k = 0; k < epochZwd.length; k++) zwdM[k] = epochZwd[k]!.zwdM;
+  const negative = negativeZwdWarning(zwdM);
   if (negative) warnings.push(negative);
   return { epochMet: fromMet?.epochMet ?? null, epochZwd, bridgedEpochs, warnings };
 }
@@ -518,7 +520,7 @@ export function checkStorableDelays(c: DelayColumns): void {
  * @returns the warnings to add to the answer
  */
 export function checkStorableZwd(c: DelayColumns): Warning[] {
-  const negative = negativeZwdWarning(Array.from(c.zwdM));
+  const negative = negativeZwdWarning(c.zwdM);
   if (negative) throw CallerError.field(422, 'observations', `${negative.text}; nothing stored`);
   const [min, max] = STORED_ZWD_RANGE_M;
   let dropped = 0;
