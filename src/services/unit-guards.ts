@@ -39,41 +39,40 @@ function finiteMedian(v: ArrayLike<number>): number {
  */
 export function guardResidualUnit(epochMs: Float64Array | readonly number[], residualM: Float64Array | readonly number[]): void {
   const n = epochMs.length;
-  // The observations grouped by epoch: in input order when the epochs are sorted (the usual case: no order
-  // array at all), else by a sort on the epoch (the order within an epoch does not change a median). Typed
-  // arrays and no list per epoch: this runs on every estimation request (a day of 30 s data has ~3 000 epochs).
+  // The observations grouped by epoch: in input order when the epochs are sorted (the usual case: no copy at
+  // all), else copied in the order of a sort on the epoch (the order within an epoch does not change a median).
+  // Typed arrays and no list per epoch: this runs on every estimation request (a day of 30 s data has ~3 000
+  // epochs).
   let sorted = true;
   for (let i = 1; i < n && sorted; i++) sorted = epochMs[i - 1]! <= epochMs[i]!;
-  const group = new Float64Array(n);
-  const deviations = new Float64Array(n);
-  let count = 0;
-  if (sorted) {
-    for (let a = 0; a < n;) {
-      const t = epochMs[a]!;
-      let b = a + 1;
-      while (b < n && epochMs[b] === t) b++;
-      if (b - a >= 2) {
-        for (let k = a; k < b; k++) group[k - a] = residualM[k]!;
-        const m = medianInPlace(group, b - a);
-        for (let k = a; k < b; k++) deviations[count++] = Math.abs(residualM[k]! - m);
-      }
-      a = b;
-    }
-  } else {
+  let epochs = epochMs;
+  let residuals = residualM;
+  if (!sorted) {
     const order = new Int32Array(n);
     for (let i = 0; i < n; i++) order[i] = i;
     order.sort((a, b) => epochMs[a]! - epochMs[b]!);
-    for (let a = 0; a < n;) {
-      const t = epochMs[order[a]!]!;
-      let b = a + 1;
-      while (b < n && epochMs[order[b]!] === t) b++;
-      if (b - a >= 2) {
-        for (let k = a; k < b; k++) group[k - a] = residualM[order[k]!]!;
-        const m = medianInPlace(group, b - a);
-        for (let k = a; k < b; k++) deviations[count++] = Math.abs(residualM[order[k]!]! - m);
-      }
-      a = b;
+    const sortedEpochs = new Float64Array(n);
+    const sortedResiduals = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      sortedEpochs[i] = epochMs[order[i]!]!;
+      sortedResiduals[i] = residualM[order[i]!]!;
     }
+    epochs = sortedEpochs;
+    residuals = sortedResiduals;
+  }
+  const group = new Float64Array(n);
+  const deviations = new Float64Array(n);
+  let count = 0;
+  for (let a = 0; a < n;) {
+    const t = epochs[a]!;
+    let b = a + 1;
+    while (b < n && epochs[b] === t) b++;
+    if (b - a >= 2) {
+      for (let k = a; k < b; k++) group[k - a] = residuals[k]!;
+      const m = medianInPlace(group, b - a);
+      for (let k = a; k < b; k++) deviations[count++] = Math.abs(residuals[k]! - m);
+    }
+    a = b;
   }
   if (count < 10) return;
   const mad = medianInPlace(deviations, count);
