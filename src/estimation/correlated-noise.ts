@@ -239,6 +239,11 @@ function regularRuns(epoch: Int32Array, epochMs: Float64Array, arcStart: Int32Ar
 /**
  * Variance inflation factor of a random-walk state (see header).
  *
+ * epochInflations computes the same factor for ZWD, north and east at once (the three lag sums in one loop,
+ * 0.94× of a GPS-like day's estimator CPU by turns against three calls of this function): a change to the
+ * sum here must be made there too (test/estimation/unchanged-results.test.ts covers both: with and without
+ * gradients).
+ *
  * @param information I: information of the epoch on the parameter [1/m²]
  * @param stepVariance Q: random-walk variance per sampling interval [m²]; null = no random walk
  * @param rho ρ(1), ρ(2), …
