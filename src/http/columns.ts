@@ -19,10 +19,14 @@ import { numberRangeOf } from './schemas/common.js';
 /** At most this many field errors per request (the rest are counted in the detail line). */
 const MAX_COLUMN_ERRORS = 20;
 
-/** One column of a columnar batch: its row schema (unwrapped of `.optional()`) and whether it may be absent. */
+/**
+ * One column of a columnar batch: its row schema (unwrapped of `.optional()`), whether it may be absent,
+ * and whether a value is valid (`accepts`: the schema's own answer, see acceptorOf).
+ */
 export interface ColumnSpec {
   schema: z.ZodType;
   optional: boolean;
+  accepts: (value: unknown) => boolean;
 }
 
 /** The columns of a row schema (a strictObject's shape), in its order. */
@@ -31,9 +35,36 @@ export function columnSpecsOf(shape: Record<string, z.ZodType>): Record<string, 
     Object.entries(shape).map(([name, schema]) => {
       const optional = schema.safeParse(undefined).success;
       const inner = optional && 'unwrap' in schema && typeof schema.unwrap === 'function' ? (schema.unwrap() as z.ZodType) : schema;
-      return [name, { schema: inner, optional }];
+      return [name, { schema: inner, optional, accepts: acceptorOf(inner) }];
     }),
   );
+}
+
+/**
+ * The pattern of an ISO date-time schema (`z.iso.datetime`, as epochSchema) when the pattern is all it
+ * checks: a string schema of zod's `datetime` format, no check chained to it (`.min`, `.refine` …), no
+ * coercion, a pattern without state (no `g`/`y` flag). zod's own check of such a schema is "a string,
+ * and `pattern.test` passes" ($ZodISODateTime is a $ZodStringFormat whose check is that test), so the
+ * test alone gives the same answer. Anything else: undefined (the schema is asked).
+ */
+function datetimePatternOf(schema: z.ZodType): RegExp | undefined {
+  const def = (schema as unknown as { _zod?: { def?: Record<string, unknown> } })._zod?.def;
+  if (!def || def.type !== 'string' || def.format !== 'datetime' || def.coerce) return undefined;
+  if (Array.isArray(def.checks) && def.checks.length > 0) return undefined;
+  const pattern = def.pattern;
+  if (!(pattern instanceof RegExp) || pattern.global || pattern.sticky) return undefined;
+  return pattern;
+}
+
+/**
+ * Whether a value is valid by the schema: for an ISO date-time schema its pattern tested directly (issue
+ * 14: zod's safeParse around the same test cost ~0.05 µs more per distinct epoch, and a result object), else
+ * `schema.safeParse(value).success`. Errors and their messages still come from the schema (checkerOf).
+ */
+export function acceptorOf(schema: z.ZodType): (value: unknown) => boolean {
+  const pattern = datetimePatternOf(schema);
+  if (pattern) return (value) => typeof value === 'string' && pattern.test(value);
+  return (value) => schema.safeParse(value).success;
 }
 
 /** A value checker with the schema's message: a range test for bounded numbers, a memoised zod parse otherwise. */
@@ -157,7 +188,7 @@ export function jsonColumnSpecsOf(specs: Record<string, ColumnSpec>): Record<str
         const { min, max, exclusiveMin } = range;
         return [name, { kind: 'number', required: !spec.optional, min, max, exclusiveMin, nullable: spec.optional }];
       }
-      return [name, { kind: 'text', required: !spec.optional, accept: (text) => spec.schema.safeParse(text).success }];
+      return [name, { kind: 'text', required: !spec.optional, accept: spec.accepts }];
     }),
   );
 }

@@ -149,6 +149,38 @@ describe('byte for byte over random results (fast-check)', () => {
     );
   });
 
+  // The epochs of a columns answer are written as bytes from their milliseconds (writeIsoEpochAscii), the
+  // reference makes isoEpochText's string: the same text for any epoch a Date holds (source: ECMA-262
+  // Date Time String Format; before 1970 and from year 10000 on, and fractional milliseconds, take
+  // toISOString in both).
+  it('columns: epochs before 1970, from year 10000 on, with fractional milliseconds', () => {
+    const anyEpoch = fc.oneof(
+      fc.integer({ min: -8.64e15, max: 8.64e15 }),
+      fc.double({ min: -8.64e15, max: 8.64e15, noNaN: true }),
+      fc.integer({ min: -62_198_755_200_000, max: 0 }), // years 0..1970
+      fc.integer({ min: 253_402_300_799_000, max: 253_402_300_801_000 }), // around 10000-01-01
+    );
+    const withEpochs = <T extends { epochMs: number }>(list: T[], epochs: number[]) =>
+      list.map((x, i) => ({ ...x, epochMs: epochs[i % epochs.length]! }));
+    fc.assert(
+      fc.property(result, fc.array(anyEpoch, { minLength: 1, maxLength: 20 }), anyShape, (r, epochs, shape) => {
+        const e = r.estimate;
+        const moved = {
+          ...r,
+          estimate: {
+            ...e,
+            epochs: withEpochs(e.epochs, epochs),
+            zwdNodes: withEpochs(e.zwdNodes, epochs),
+            gradientNodes: withEpochs(e.gradientNodes, epochs),
+            rejected: withEpochs(e.rejected, epochs),
+          },
+        };
+        expect(writtenBytes(moved, shape).equals(referenceBytes(moved, shape))).toBe(true);
+      }),
+      { numRuns: 300 },
+    );
+  });
+
   it('rows: the UTF-8 of JSON.stringify of the answer objects, ASCII or not', () => {
     fc.assert(
       fc.property(result, (r) => {

@@ -20,7 +20,7 @@
  */
 
 import { JsonBytes } from '../../formats/json-columns.js';
-import { isoEpochText } from '../../formats/iso-epoch-text.js';
+import { ISO_EPOCH_MAX_BYTES, writeIsoEpochAscii } from '../../formats/iso-epoch-text.js';
 import { MAX_ROUNDED_DECIMAL_BYTES, writeRoundedDecimal } from '../../formats/rounded-decimal-bytes.js';
 import type { ZwdEstimationResult } from '../../services/zwd-estimation.js';
 import type { AnswerShape } from '../answer-shape.js';
@@ -31,14 +31,16 @@ import { zwdAnswerSummaryOf, zwdEstimatesResponseOf } from './zwd-estimation.js'
 /**
  * One field of a row table, as a column: numbers (NaN for null: the rounded writer writes a non-finite
  * value as null, as it wrote the null of a row object) with the rows that have no such field marked in
- * `absent`, or texts (undefined: no such field in the row); neither when no row has the field (met fields
- * of an answer without met).
+ * `absent`, texts (undefined: no such field in the row), or epochs [ms since 1970] written as the text
+ * isoEpochText gives (writeIsoEpochAscii: no string made per epoch); none of them when no row has the
+ * field (met fields of an answer without met).
  */
 export interface AnswerField {
   name: string;
   numbers?: number[];
   absent?: Uint8Array;
   texts?: (string | undefined)[];
+  epochsMs?: number[];
 }
 
 export interface AnswerTable {
@@ -63,11 +65,11 @@ const textColumn = (n: number) => new Array<string | undefined>(n);
 
 export function zwdNodeTable(nodes: ZwdEstimationResult['estimate']['zwdNodes'], aprioriZwdM: number): AnswerTable {
   const n = nodes.length;
-  const epoch = textColumn(n);
+  const epoch = numberColumn(n);
   const [correction, zwd, sigma, nearby] = [numberColumn(n), numberColumn(n), numberColumn(n), numberColumn(n)];
   for (let i = 0; i < n; i++) {
     const node = nodes[i]!;
-    epoch[i] = isoEpochText(node.epochMs);
+    epoch[i] = node.epochMs;
     correction[i] = node.correctionM;
     zwd[i] = aprioriZwdM + node.correctionM;
     sigma[i] = node.sigmaM;
@@ -76,7 +78,7 @@ export function zwdNodeTable(nodes: ZwdEstimationResult['estimate']['zwdNodes'],
   return {
     rows: n,
     fields: [
-      { name: 'epoch', texts: epoch },
+      { name: 'epoch', epochsMs: epoch },
       { name: 'correction_m', numbers: correction },
       { name: 'zwd_m', numbers: zwd },
       { name: 'sigma_m', numbers: sigma },
@@ -87,7 +89,7 @@ export function zwdNodeTable(nodes: ZwdEstimationResult['estimate']['zwdNodes'],
 
 export function gradientNodeTable(nodes: ZwdEstimationResult['estimate']['gradientNodes']): AnswerTable {
   const n = nodes.length;
-  const epoch = textColumn(n);
+  const epoch = numberColumn(n);
   const [north, east, northSigma, eastSigma, nearby] = [
     numberColumn(n),
     numberColumn(n),
@@ -97,7 +99,7 @@ export function gradientNodeTable(nodes: ZwdEstimationResult['estimate']['gradie
   ];
   for (let i = 0; i < n; i++) {
     const g = nodes[i]!;
-    epoch[i] = isoEpochText(g.epochMs);
+    epoch[i] = g.epochMs;
     north[i] = g.northM;
     east[i] = g.eastM;
     northSigma[i] = g.northSigmaM;
@@ -107,7 +109,7 @@ export function gradientNodeTable(nodes: ZwdEstimationResult['estimate']['gradie
   return {
     rows: n,
     fields: [
-      { name: 'epoch', texts: epoch },
+      { name: 'epoch', epochsMs: epoch },
       { name: 'north_m', numbers: north },
       { name: 'east_m', numbers: east },
       { name: 'north_sigma_m', numbers: northSigma },
@@ -129,7 +131,7 @@ function putMet(column: number[], absent: Uint8Array, k: number, v: number | nul
 function seriesTable(r: ZwdEstimationResult, aprioriZtdM: number): AnswerTable {
   const epochs = r.estimate.epochs;
   const n = epochs.length;
-  const epoch = textColumn(n);
+  const epoch = numberColumn(n);
   const zhdSource = textColumn(n);
   const [correction, zwd, sigma, north, east, northSigma, eastSigma, bias, used, ztd] = Array.from({ length: 10 }, () =>
     numberColumn(n),
@@ -137,7 +139,7 @@ function seriesTable(r: ZwdEstimationResult, aprioriZtdM: number): AnswerTable {
   for (let k = 0; k < n; k++) {
     const e = epochs[k]!;
     const z = r.epochZwd[k]!;
-    epoch[k] = isoEpochText(e.epochMs);
+    epoch[k] = e.epochMs;
     correction[k] = e.correctionM;
     zwd[k] = z.zwdM;
     zhdSource[k] = z.zhdSource;
@@ -151,7 +153,7 @@ function seriesTable(r: ZwdEstimationResult, aprioriZtdM: number): AnswerTable {
     ztd[k] = aprioriZtdM + e.correctionM;
   }
   const fields: AnswerField[] = [
-    { name: 'epoch', texts: epoch },
+    { name: 'epoch', epochsMs: epoch },
     { name: 'correction_m', numbers: correction },
     { name: 'zwd_m', numbers: zwd },
     { name: 'zhd_source', texts: zhdSource },
@@ -197,13 +199,13 @@ function seriesTable(r: ZwdEstimationResult, aprioriZtdM: number): AnswerTable {
 
 export function rejectedTable(rejected: ZwdEstimationResult['estimate']['rejected']): AnswerTable {
   const n = rejected.length;
-  const epoch = textColumn(n);
+  const epoch = numberColumn(n);
   const satellite = textColumn(n);
   const [index, residual, fitted, normalized] = [numberColumn(n), numberColumn(n), numberColumn(n), numberColumn(n)];
   for (let i = 0; i < n; i++) {
     const x = rejected[i]!;
     index[i] = x.index;
-    epoch[i] = isoEpochText(x.epochMs);
+    epoch[i] = x.epochMs;
     satellite[i] = x.satellite;
     residual[i] = x.residualM;
     fitted[i] = x.fittedResidualM;
@@ -213,7 +215,7 @@ export function rejectedTable(rejected: ZwdEstimationResult['estimate']['rejecte
     rows: n,
     fields: [
       { name: 'index', numbers: index },
-      { name: 'epoch', texts: epoch },
+      { name: 'epoch', epochsMs: epoch },
       { name: 'satellite', texts: satellite },
       { name: 'residual_m', numbers: residual },
       { name: 'fitted_residual_m', numbers: fitted },
@@ -224,6 +226,7 @@ export function rejectedTable(rejected: ZwdEstimationResult['estimate']['rejecte
 
 const NULL = Uint8Array.from([0x6e, 0x75, 0x6c, 0x6c]);
 const COMMA = 0x2c;
+const QUOTE = 0x22;
 const CLOSE_BRACKET = 0x5d;
 
 /** `"name":` as bytes, once per field name. */
@@ -234,6 +237,7 @@ export const keyOf = (name: string) =>
 /** Whether any row has the field (a column is written), or the table has no rows (every column is, empty). */
 function hasColumn(table: AnswerTable, field: AnswerField): boolean {
   if (table.rows === 0) return true;
+  if (field.epochsMs) return true; // every row has its epoch
   if (field.numbers) return !field.absent || field.absent.includes(0);
   return field.texts?.some((v) => v !== undefined) ?? false;
 }
@@ -254,8 +258,19 @@ export function writeColumns(
     out.raw(keyOf(field.name));
     out.byte(0x5b); // [
     const d = decimals[field.name];
-    const { numbers, absent, texts } = field;
-    if (numbers && d !== undefined) {
+    const { numbers, absent, texts, epochsMs } = field;
+    if (epochsMs) {
+      out.reserve(table.rows * (ISO_EPOCH_MAX_BYTES + 3));
+      const b = out.bytes;
+      let at = out.length;
+      for (let i = 0; i < table.rows; i++) {
+        if (i > 0) b[at++] = COMMA;
+        b[at++] = QUOTE;
+        at = writeIsoEpochAscii(epochsMs[i]!, b, at);
+        b[at++] = QUOTE;
+      }
+      out.length = at;
+    } else if (numbers && d !== undefined) {
       out.reserve(table.rows * (MAX_ROUNDED_DECIMAL_BYTES + 1));
       const b = out.bytes;
       let at = out.length;
