@@ -6,28 +6,35 @@
  * fresh child process (malloc-heap.child.ts), since the thresholds are the process's own; minor page faults
  * from process.resourceUsage(). glibc only: another C library has no such thresholds.
  *
- * Blocks of 200 kB, 40 MB a round: above glibc's default mmap threshold (128 kB), so without the call the first
- * free raises the thresholds to only ~200 kB / 400 kB and every round of 40 MB goes back to the kernel. (The
- * service's own pattern, 64 kB blocks and ~12.5 MB freed together, does not tell in a child run under tsx,
- * whose start-up already leaves the thresholds above it: ~70 faults in five rounds without the call.)
+ * Rounds of 12 blocks of 1 MB (12 MB, below the 16 MiB trim threshold the call sets). Without the call, blocks
+ * of 1 MB are mapped and unmapped one by one (above the mmap threshold the child's start-up under tsx leaves,
+ * 200–400 kB, measured) and every round faults its pages in again. (The service's own pattern, 64 kB blocks,
+ * does not tell in such a child: tsx's start-up already leaves the thresholds above 12.5 MB of them.)
  */
 
 import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
+import { MALLOC_THRESHOLD_BLOCK_BYTES } from '../../src/malloc-heap.js';
 
 const glibc = (process.report.getReport() as { header?: { glibcVersionRuntime?: string } }).header?.glibcVersionRuntime;
 
-/** Pages of one round (malloc-heap.child.ts: 200 blocks of 200 kB). */
-const PAGES_A_ROUND = (200 * 200_000) / 4096;
+const BLOCKS = 12;
+const BLOCK_BYTES = 1_000_000;
+const PAGES_A_ROUND = (BLOCKS * BLOCK_BYTES) / 4096;
 
 /** Minor page faults of rounds 2–6 (the first round faults its pages in either way), in a fresh process. */
 function faultsAfterFirstRound(raise: boolean): number {
   const child = spawnSync(
     process.execPath,
-    ['--import', 'tsx', new URL('./malloc-heap.child.ts', import.meta.url).pathname, raise ? '1' : '0'],
-    {
-      encoding: 'utf8',
-    },
+    [
+      '--import',
+      'tsx',
+      new URL('./malloc-heap.child.ts', import.meta.url).pathname,
+      raise ? '1' : '0',
+      String(BLOCKS),
+      String(BLOCK_BYTES),
+    ],
+    { encoding: 'utf8' },
   );
   if (child.status !== 0) throw new Error(child.stderr);
   return Number(child.stdout);
@@ -35,9 +42,10 @@ function faultsAfterFirstRound(raise: boolean): number {
 
 describe.skipIf(!glibc)('raiseMallocThresholds: mallopt(3), dynamic mmap and trim thresholds', () => {
   it('blocks freed together are kept: the next rounds fault (almost) no page in again', () => {
-    // Without it the trim threshold (twice the largest mapped block freed so far) is below a round's 40 MB, so
-    // every round's pages go back to the kernel and fault in again (5 rounds ≈ 48 800 faults, measured); with it
-    // the trim threshold is 64 MB (measured: 30–70 faults).
+    // A round fits under the trim threshold the call sets (twice the block it frees), and its blocks under the mmap threshold.
+    expect(BLOCKS * BLOCK_BYTES).toBeLessThan(2 * MALLOC_THRESHOLD_BLOCK_BYTES);
+    expect(BLOCK_BYTES).toBeLessThan(MALLOC_THRESHOLD_BLOCK_BYTES);
+    // Measured: without the call 14 400–15 200 faults in five rounds (every page, every round), with it 7–20.
     const before = faultsAfterFirstRound(false);
     const after = faultsAfterFirstRound(true);
     expect(before).toBeGreaterThan(2 * PAGES_A_ROUND);
