@@ -7,7 +7,7 @@
  * twice the largest mapped block freed so far: a few MB in a service that has run GPS-like days. Then the freed
  * top of the heap went back to the kernel, and the next request's copies faulted every page in again,
  * zero-filled by the kernel: 350–550 page faults and ~2 ms of the event loop's CPU a request in that state
- * (bench/edge-threads.ts), against ~20 otherwise; whether a run fell into it depended on how the frees fell.
+ * (bench/edge-threads.ts), against 18–63 otherwise; whether a run fell into it depended on how the frees fell.
  *
  * glibc raises its thresholds when a block it mapped (one above the mmap threshold) is freed: mallopt(3),
  * M_MMAP_THRESHOLD, "dynamic mmap threshold": the mmap threshold becomes the freed block's size and the trim
