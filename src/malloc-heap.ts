@@ -3,11 +3,12 @@
  *
  * Node's HTTP parser copies every body chunk it reads into a fresh malloc'd buffer (≤ 64 kB each, ~36 for the
  * 2.3 MB GPS-like day); the estimation routes move those buffers to a worker thread, whose collector frees
- * several requests' worth at a time (~7–9 MB). glibc's trim threshold is 128 kB at start and rises by itself to
- * twice the largest mapped block freed so far: a few MB in a service that has run GPS-like days. Then the freed
- * top of the heap went back to the kernel, and the next request's copies faulted every page in again,
- * zero-filled by the kernel: 350–550 page faults and ~2 ms of the event loop's CPU a request in that state
- * (bench/edge-threads.ts), against 18–63 otherwise; whether a run fell into it depended on how the frees fell.
+ * several requests' worth at a time (a scavenge every ~3–4 requests there: ~7–9 MB, an estimate). glibc's trim
+ * threshold is 128 kB at start and rises by itself to twice the largest mapped block freed so far: a few MB in
+ * a service that has run GPS-like days. Then the freed top of the heap went back to the kernel, and the next
+ * request's copies faulted every page in again, zero-filled by the kernel: 350–550 page faults and ~2 ms of
+ * the event loop's CPU a request in that state (bench/edge-threads.ts), against 18–63 otherwise; whether a run
+ * fell into it depended on how the frees fell.
  *
  * glibc raises its thresholds when a block it mapped (one above the mmap threshold) is freed: mallopt(3),
  * M_MMAP_THRESHOLD, "dynamic mmap threshold": the mmap threshold becomes the freed block's size and the trim
