@@ -1,6 +1,6 @@
 /**
  * Which threads of the service spend the CPU of a workload of bench/edge-ab.bench.ts: every thread's ticks
- * (/proc/<pid>/task/<tid>/stat, by its name) over `requests` requests after warm-up.
+ * and minor page faults (/proc/<pid>/task/<tid>/stat, by its name) over `requests` requests after warm-up.
  * `[BENCH_EDGE_BEFORE=gps:20] tsx bench/edge-threads.ts <gps|arrow|columns> <requests> [extra node flags…]`
  */
 
@@ -12,14 +12,25 @@ const workload = { gps: gpsDay, arrow: slantArrow, columns: slantColumns }[part 
 const service = await startService('threads', process.env.BENCH_EDGE_NEW ?? 'dist', flags);
 const pid = service.child.pid!;
 
-function threadTicks(): Map<string, number> {
-  const out = new Map<string, number>();
+interface ThreadUse {
+  user: number;
+  system: number;
+  minorFaults: number;
+}
+
+/** Per thread (by name; the event loop by its id): CPU ticks in user and kernel mode, minor page faults. */
+function threadTicks(): Map<string, ThreadUse> {
+  const out = new Map<string, ThreadUse>();
   for (const tid of readdirSync(`/proc/${pid}/task`)) {
     const text = readFileSync(`/proc/${pid}/task/${tid}/stat`, 'utf8');
     const name = text.slice(text.indexOf('(') + 1, text.lastIndexOf(')'));
     const fields = text.slice(text.lastIndexOf(')') + 2).split(' ');
     const key = `${tid === String(pid) ? 'event loop' : `${name} ${tid}`}`;
-    out.set(key, (out.get(key) ?? 0) + Number(fields[11]) + Number(fields[12]));
+    const use = out.get(key) ?? { user: 0, system: 0, minorFaults: 0 };
+    use.user += Number(fields[11]);
+    use.system += Number(fields[12]);
+    use.minorFaults += Number(fields[7]);
+    out.set(key, use);
   }
   return out;
 }
@@ -37,10 +48,16 @@ const n = Number(count);
 for (let i = 0; i < n; i++) await send(service, workload);
 const after = threadTicks();
 let total = 0;
+const perRequest = (ticks: number) => ((ticks * 10) / n).toFixed(3);
 for (const [name, t] of after) {
-  const d = t - (before.get(name) ?? 0);
-  total += d;
-  if (d > 0) process.stdout.write(`${name.padEnd(20)} ${((d * 10) / n).toFixed(3)} ms a request\n`);
+  const b = before.get(name) ?? { user: 0, system: 0, minorFaults: 0 };
+  const [user, system] = [t.user - b.user, t.system - b.system];
+  total += user + system;
+  if (user + system > 0)
+    process.stdout.write(
+      `${name.padEnd(20)} ${perRequest(user + system)} ms a request (user ${perRequest(user)}, system ${perRequest(system)}; ` +
+        `${((t.minorFaults - b.minorFaults) / n).toFixed(0)} page faults)\n`,
+    );
 }
 process.stdout.write(
   `${'all threads'.padEnd(20)} ${((total * 10) / n).toFixed(3)} ms a request; load ${readFileSync('/proc/loadavg', 'utf8').split(' ')[0]}\n`,

@@ -10,8 +10,10 @@
 import { ConfigError, configWarnings, loadConfig, type Config } from './config.js';
 import { archiveOptionsFromConfig, buildApp, type ArchiveOptions } from './http/app.js';
 import { loggerOptions } from './http/logger-options.js';
+import { raiseMallocThresholds } from './malloc-heap.js';
 
 async function main(): Promise<void> {
+  raiseMallocThresholds();
   let config: Config;
   let archive: ArchiveOptions;
   try {
