@@ -123,11 +123,11 @@ export const niellModel: MappingModel = {
       wet(elevationRad: number): number {
         return marini(Math.sin(elevationRad), w.a, w.b, w.c);
       },
-      mapBatch(elevationsRad, outHydrostatic, outWet) {
+      mapBatch(elevationsRad, sinElevations, outHydrostatic, outWet) {
         const hc = NIELL_HEIGHT_CORRECTION;
         const [topH, topW, topC] = [mariniNumerator(h.a, h.b, h.c), mariniNumerator(w.a, w.b, w.c), mariniNumerator(hc.a, hc.b, hc.c)];
         for (let i = 0; i < elevationsRad.length; i++) {
-          const s = Math.sin(elevationsRad[i]!);
+          const s = sinElevations[i]!;
           const heightCorrection = (1 / s - mariniWithNumerator(s, topC, hc.a, hc.b, hc.c)) * heightKm; // eq. 6, as niellHeightCorrection
           outHydrostatic[i] = mariniWithNumerator(s, topH, h.a, h.b, h.c) + heightCorrection;
           outWet[i] = mariniWithNumerator(s, topW, w.a, w.b, w.c);

@@ -83,11 +83,11 @@ export const vmf1Model: MappingModel = {
       wet(elevationRad: number): number {
         return marini(Math.sin(elevationRad), aw, VMF1_WET_B, VMF1_WET_C);
       },
-      mapBatch(elevationsRad, outHydrostatic, outWet) {
+      mapBatch(elevationsRad, sinElevations, outHydrostatic, outWet) {
         const topH = mariniNumerator(ah, VMF1_HYDROSTATIC_B, ch);
         const topW = mariniNumerator(aw, VMF1_WET_B, VMF1_WET_C);
         for (let i = 0; i < elevationsRad.length; i++) {
-          const s = Math.sin(elevationsRad[i]!);
+          const s = sinElevations[i]!;
           outHydrostatic[i] = mariniWithNumerator(s, topH, ah, VMF1_HYDROSTATIC_B, ch) + (correct ? niellHeightCorrection(s, heightKm) : 0);
           outWet[i] = mariniWithNumerator(s, topW, aw, VMF1_WET_B, VMF1_WET_C);
         }
