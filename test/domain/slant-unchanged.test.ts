@@ -122,10 +122,10 @@ describe('slant delays unchanged by the shared sin e (digests of main at de20892
     allocateSlantBatch: (n) => ({ ...allocateSlantBatch(n) }),
   });
 
-  it('covers every mapping model × gradient model of the registries', () => {
-    const pairs = new Set(Object.keys(digests).map((name) => name.split(',')[0]));
-    expect(pairs.size).toBe(Object.keys(MAPPING_MODELS).length * Object.keys(GRADIENT_MODELS).length);
-    expect(Object.keys(digests).sort()).toEqual(Object.keys(BEFORE_SHARED_SINES).sort());
+  it('every recorded case is computed (4 mapping × 2 gradient models, 3 sites, with and without gradients)', () => {
+    // A model added later is checked against its single form in mapping.test.ts; these pin the models of de20892.
+    expect(Object.keys(BEFORE_SHARED_SINES)).toHaveLength(48);
+    expect(Object.keys(BEFORE_SHARED_SINES).filter((name) => digests[name] === undefined)).toEqual([]);
   });
 
   for (const [name, expected] of Object.entries(BEFORE_SHARED_SINES)) {
