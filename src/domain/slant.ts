@@ -6,10 +6,12 @@
  * (e.g. IERS Conventions (2010) eq. 9.12 with the gradient term of eq. 9.14). Inputs and outputs
  * are typed arrays so that a batch of 10^5 directions costs no allocation per direction. The mapping
  * factors come from the models' own batch loops (MappingEvaluator.mapBatch, GradientModel.mapBatch),
- * so the speed does not depend on how many models have run in the process before.
+ * so the speed does not depend on how many models have run in the process before; sin e is computed
+ * once per direction (elevationSines) and handed to both.
  */
 
 import type { GradientModel } from './gradients/gradient-mapping.js';
+import { elevationSines } from './mapping/elevation-sines.js';
 import type { MappingEvaluator } from './mapping/types.js';
 
 export interface ZenithForSlant {
@@ -20,6 +22,8 @@ export interface ZenithForSlant {
 }
 
 export interface SlantBatch {
+  /** Work column: sin e of each direction [-], shared by the mapping and the gradient model. */
+  sinElevation: Float64Array;
   mappingHydrostatic: Float64Array;
   mappingWet: Float64Array;
   mappingGradient: Float64Array;
@@ -31,6 +35,7 @@ export interface SlantBatch {
 
 export function allocateSlantBatch(n: number): SlantBatch {
   return {
+    sinElevation: new Float64Array(n),
     mappingHydrostatic: new Float64Array(n),
     mappingWet: new Float64Array(n),
     mappingGradient: new Float64Array(n),
@@ -58,8 +63,9 @@ export function computeSlantDelays(
   out: SlantBatch,
 ): SlantBatch {
   const { zhdM, zwdM, northGradientM, eastGradientM } = zenith;
-  mapping.mapBatch(elevationsRad, out.mappingHydrostatic, out.mappingWet);
-  gradientModel.mapBatch(elevationsRad, out.mappingHydrostatic, out.mappingGradient);
+  const sinElevations = elevationSines(elevationsRad, out.sinElevation);
+  mapping.mapBatch(elevationsRad, sinElevations, out.mappingHydrostatic, out.mappingWet);
+  gradientModel.mapBatch(elevationsRad, sinElevations, out.mappingHydrostatic, out.mappingGradient);
   // Without gradients (both +0, the default) the azimuth term is a signed zero that needs no cosine or sine.
   const noGradients = Object.is(northGradientM, 0) && Object.is(eastGradientM, 0);
   for (let i = 0; i < elevationsRad.length; i++) {

@@ -33,9 +33,10 @@ export interface GradientModel {
   prepare(mapping: MappingEvaluator): GradientMapping;
   /**
    * The factor for a batch, out[i] at elevationsRad[i] [rad], given the hydrostatic mapping factors of
-   * the same elevations (the tilted form needs them); one loop per model, like MappingEvaluator.mapBatch.
+   * the same elevations (the tilted form needs them) and sinElevations[i] = Math.sin(elevationsRad[i]) [-]
+   * (elevationSines()); one loop per model, like MappingEvaluator.mapBatch.
    */
-  mapBatch(elevationsRad: ArrayLike<number>, hydrostatic: Float64Array, out: Float64Array): void;
+  mapBatch(elevationsRad: ArrayLike<number>, sinElevations: Float64Array, hydrostatic: Float64Array, out: Float64Array): void;
 }
 
 export const GRADIENT_MODELS: Record<string, GradientModel> = {
@@ -43,7 +44,7 @@ export const GRADIENT_MODELS: Record<string, GradientModel> = {
     key: 'chen-herring',
     citation: 'Chen & Herring (1997), C=0.0032',
     prepare: () => chenHerringGradientMapping,
-    mapBatch(elevationsRad, _hydrostatic, out) {
+    mapBatch(elevationsRad, sinElevations, _hydrostatic, out) {
       // sin e · tan e = s² / √(1 − s²) with s = sin e: a square root instead of a second transcendental
       // call (Math.tan) per direction; equal to the single-elevation form to 1e-12 (test/domain/mapping.test.ts).
       for (let i = 0; i < elevationsRad.length; i++) {
@@ -52,7 +53,7 @@ export const GRADIENT_MODELS: Record<string, GradientModel> = {
           out[i] = 0;
           continue;
         }
-        const s = Math.sin(e);
+        const s = sinElevations[i]!;
         out[i] = 1 / ((s * s) / Math.sqrt(1 - s * s) + CHEN_HERRING_C);
       }
     },
@@ -61,7 +62,7 @@ export const GRADIENT_MODELS: Record<string, GradientModel> = {
     key: 'tilting',
     citation: 'tilted atmosphere m_h(e) cot(e) (MacMillan 1995)',
     prepare: (mapping) => (e) => (e >= ZENITH_RAD ? 0 : mapping.hydrostatic(e) / Math.tan(e)),
-    mapBatch(elevationsRad, hydrostatic, out) {
+    mapBatch(elevationsRad, _sinElevations, hydrostatic, out) {
       for (let i = 0; i < elevationsRad.length; i++) {
         const e = elevationsRad[i]!;
         out[i] = e >= ZENITH_RAD ? 0 : hydrostatic[i]! / Math.tan(e);

@@ -16,17 +16,23 @@ export const CHAO_WET = { a: 0.00035, b: 0.017 } as const;
 
 /** @param elevationRad elevation [rad] @returns mapping factor [-] */
 export function chaoMapping(elevationRad: number, a: number, b: number): number {
-  return 1 / (Math.sin(elevationRad) + a / (Math.tan(elevationRad) + b));
+  return chaoWithSinTan(Math.sin(elevationRad), Math.tan(elevationRad), a, b);
+}
+
+/** chaoMapping() from sin e and tan e [-], for the batch loop that has them already. */
+function chaoWithSinTan(sinElevation: number, tanElevation: number, a: number, b: number): number {
+  return 1 / (sinElevation + a / (tanElevation + b));
 }
 
 const evaluator: MappingEvaluator = {
   hydrostatic: (e) => chaoMapping(e, CHAO_DRY.a, CHAO_DRY.b),
   wet: (e) => chaoMapping(e, CHAO_WET.a, CHAO_WET.b),
-  mapBatch(elevationsRad, outHydrostatic, outWet) {
+  mapBatch(elevationsRad, sinElevations, outHydrostatic, outWet) {
     for (let i = 0; i < elevationsRad.length; i++) {
-      const e = elevationsRad[i]!;
-      outHydrostatic[i] = chaoMapping(e, CHAO_DRY.a, CHAO_DRY.b);
-      outWet[i] = chaoMapping(e, CHAO_WET.a, CHAO_WET.b);
+      const s = sinElevations[i]!;
+      const t = Math.tan(elevationsRad[i]!); // once for both factors
+      outHydrostatic[i] = chaoWithSinTan(s, t, CHAO_DRY.a, CHAO_DRY.b);
+      outWet[i] = chaoWithSinTan(s, t, CHAO_WET.a, CHAO_WET.b);
     }
   },
 };

@@ -8,9 +8,9 @@ import type { MappingEvaluator, MappingModel } from './types.js';
 const evaluator: MappingEvaluator = {
   hydrostatic: (e) => 1 / Math.sin(e),
   wet: (e) => 1 / Math.sin(e),
-  mapBatch(elevationsRad, outHydrostatic, outWet) {
+  mapBatch(elevationsRad, sinElevations, outHydrostatic, outWet) {
     for (let i = 0; i < elevationsRad.length; i++) {
-      const m = 1 / Math.sin(elevationsRad[i]!);
+      const m = 1 / sinElevations[i]!;
       outHydrostatic[i] = m;
       outWet[i] = m;
     }

@@ -37,13 +37,16 @@ export interface MappingEvaluator {
   /** @param elevationRad vacuum elevation [rad], (0, π/2] @returns wet mapping factor [-] */
   wet(elevationRad: number): number;
   /**
-   * Both factors for a batch: outHydrostatic[i], outWet[i] at elevationsRad[i] [rad], (0, π/2].
+   * Both factors for a batch: outHydrostatic[i], outWet[i] at elevationsRad[i] [rad], (0, π/2], given
+   * sinElevations[i] = Math.sin(elevationsRad[i]) [-] (elevationSines(): computed once per direction and
+   * shared with the gradient model, GradientModel.mapBatch). A model uses sinElevations[i] wherever its
+   * single form calls Math.sin(e), so that the batch gives the same bits.
    * Each model writes this loop in its own module, so that the calls inside it always meet the same
    * function: one shared loop calling `hydrostatic`/`wet` of whichever model came in would become a
    * polymorphic call site once a second model has run in the process, and lose V8's inlining (the
    * batch routes measured 2× slower after all models had run).
    */
-  mapBatch(elevationsRad: ArrayLike<number>, outHydrostatic: Float64Array, outWet: Float64Array): void;
+  mapBatch(elevationsRad: ArrayLike<number>, sinElevations: Float64Array, outHydrostatic: Float64Array, outWet: Float64Array): void;
 }
 
 export interface MappingModel {

@@ -22,8 +22,8 @@
  * 0..0.001 (aw) (common practice) and validated by the API.
  */
 
-import { marini, mariniNumerator, mariniWithNumerator } from './continued-fraction.js';
-import { NIELL_HEIGHT_CORRECTION_NAME, niellHeightCorrection } from './niell.js';
+import { marini, mariniNumerator } from './continued-fraction.js';
+import { NIELL_HEIGHT_CORRECTION, NIELL_HEIGHT_CORRECTION_NAME, niellHeightCorrection } from './niell.js';
 import type { CoefficientsHeightReference, MappingCoefficients, MappingContext, MappingEvaluator, MappingModel } from './types.js';
 import { ModelDomainError } from '../errors.js';
 
@@ -83,13 +83,22 @@ export const vmf1Model: MappingModel = {
       wet(elevationRad: number): number {
         return marini(Math.sin(elevationRad), aw, VMF1_WET_B, VMF1_WET_C);
       },
-      mapBatch(elevationsRad, outHydrostatic, outWet) {
-        const topH = mariniNumerator(ah, VMF1_HYDROSTATIC_B, ch);
-        const topW = mariniNumerator(aw, VMF1_WET_B, VMF1_WET_C);
-        for (let i = 0; i < elevationsRad.length; i++) {
-          const s = Math.sin(elevationsRad[i]!);
-          outHydrostatic[i] = mariniWithNumerator(s, topH, ah, VMF1_HYDROSTATIC_B, ch) + (correct ? niellHeightCorrection(s, heightKm) : 0);
-          outWet[i] = mariniWithNumerator(s, topW, aw, VMF1_WET_B, VMF1_WET_C);
+      mapBatch(elevationsRad, sinElevations, outHydrostatic, outWet) {
+        // marini() and niellHeightCorrection() written out with local numbers, as in Niell's loop (see
+        // "The batch loops" in continued-fraction.ts): the same operations in the same order, the same bits.
+        const bh = VMF1_HYDROSTATIC_B;
+        const bw = VMF1_WET_B;
+        const cw = VMF1_WET_C;
+        const { a: ca, b: cb, c: cc } = NIELL_HEIGHT_CORRECTION;
+        const topH = mariniNumerator(ah, bh, ch);
+        const topW = mariniNumerator(aw, bw, cw);
+        const topC = mariniNumerator(ca, cb, cc);
+        const n = elevationsRad.length;
+        for (let i = 0; i < n; i++) {
+          const s = sinElevations[i]!;
+          const heightCorrection = correct ? (1 / s - topC / (s + ca / (s + cb / (s + cc)))) * heightKm : 0;
+          outHydrostatic[i] = topH / (s + ah / (s + bh / (s + ch))) + heightCorrection;
+          outWet[i] = topW / (s + aw / (s + bw / (s + cw)));
         }
       },
     };

@@ -16,6 +16,7 @@ import { geoidUndulationM } from '../../domain/geometry/geoid.js';
 import { geodeticToEcef, lookAngles, normaliseAzimuthDeg } from '../../domain/geometry/topocentric.js';
 import { GRADIENT_MODELS } from '../../domain/gradients/gradient-mapping.js';
 import { checkMappingElevation, mappingDefinedAt } from '../../domain/mapping/elevation-range.js';
+import { elevationSines } from '../../domain/mapping/elevation-sines.js';
 import { assumedHeightReferenceWarning } from '../../domain/mapping/vmf1.js';
 import { MODEL_NAMES, provenance } from '../../domain/provenance.js';
 import type { Site } from '../../domain/site.js';
@@ -148,6 +149,7 @@ function slantWork(n: number): SlantWork {
   const b = reusedWork.batch;
   return {
     batch: {
+      sinElevation: view(b.sinElevation),
       mappingHydrostatic: view(b.mappingHydrostatic),
       mappingWet: view(b.mappingWet),
       mappingGradient: view(b.mappingGradient),
@@ -375,8 +377,9 @@ export function mappingFactorsAnswer(body: MappingBody) {
   const hydrostatic = new Float64Array(n);
   const wet = new Float64Array(n);
   const gradient = new Float64Array(n);
-  mapping.mapBatch(elevationsRad, hydrostatic, wet);
-  GRADIENT_MODELS[gradient_model]!.mapBatch(elevationsRad, hydrostatic, gradient);
+  const sinElevations = elevationSines(elevationsRad, new Float64Array(n));
+  mapping.mapBatch(elevationsRad, sinElevations, hydrostatic, wet);
+  GRADIENT_MODELS[gradient_model]!.mapBatch(elevationsRad, sinElevations, hydrostatic, gradient);
   const assumed = assumedHeightReferenceWarning(toCoefficients(coefficients));
   return {
     model,
