@@ -88,9 +88,13 @@ function slantThroughput() {
       others.push(`${model}+${gradient} ${(perSecond(serviceSlants(model, gradient, out)) / 1e6).toFixed(1)}`);
     }
   }
+  // Both sides get the best of two measurements, one before and one after the kernel's second (the kernel
+  // used to get two and the service one, a tilt against the service on a noisy machine); a process in which
+  // the service's path is slow after the other models stays slow in both.
   const niellAfter = perSecond(serviceSlants('niell', 'chen-herring', out));
   const kernelAfter = perSecond(() => handWrittenNiellKernel(out));
-  return { kernel: Math.max(kernel, kernelAfter), niellFirst, niellAfter, others };
+  const niellAfterAgain = perSecond(serviceSlants('niell', 'chen-herring', out));
+  return { kernel: Math.max(kernel, kernelAfter), niellFirst, niellAfter: Math.max(niellAfter, niellAfterAgain), others };
 }
 
 async function requestsPerSecond(url: string, init: { method: 'GET' | 'POST'; body?: string }): Promise<number> {
