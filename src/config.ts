@@ -23,6 +23,23 @@ import { MAX_NETWORK_DAY_STATION_OBSERVATIONS } from './limits.js';
  */
 export const DEFAULT_COMPUTE_MEMORY_BUDGET_MB = 192;
 
+/**
+ * Days an audit event is kept [days]. Audit trails are often kept a year or more (common practice); 400 days
+ * is a year and a month, so that a yearly review of the past twelve months, done in the month after, finds
+ * every event of them. An agency writing hourly from 1 000 stations stores ~24 000 events a day, so ~9.6 M
+ * rows (a few GB with the indexes on PostgreSQL) at this setting.
+ */
+export const DEFAULT_AUDIT_RETENTION_DAYS = 400;
+
+/**
+ * The campaign sweep (PostgreSQL; src/http/plugins/campaigns.ts): how often a replica looks for pending items
+ * whose queue job was never sent (a replica died between its commit and the send) [s], and how long an item
+ * must have been ready before the sweep takes it [s], so that a submission still sending its jobs is not swept.
+ * A minute each: a lost item waits one to two minutes, and a replica's sweep is one indexed query a minute.
+ */
+export const DEFAULT_CAMPAIGN_SWEEP_INTERVAL_S = 60;
+export const DEFAULT_CAMPAIGN_SWEEP_GRACE_S = 60;
+
 /** Longest from..to range one read of a station series may ask for [days] (a station-year plus a leap day). */
 export const DEFAULT_MAX_READ_RANGE_DAYS = 366;
 
@@ -160,6 +177,11 @@ const accessSettings = {
     .max(36500, { error: 'must be a number of days in [0, 36500]' })
     .default(30)
     .describe('Days a deleted station stays restorable before the purge removes it with its series'),
+  TROPODELAY_AUDIT_RETENTION_DAYS: integer(0, 36500)
+    .default(DEFAULT_AUDIT_RETENTION_DAYS)
+    .describe(
+      'days an audit event is kept, 0..36 500; older ones are deleted by the retention run (at start, hourly, and `POST /v1/admin/purge`) in batches; 0 = keep every event forever',
+    ),
 };
 
 // --------------------------------------------------------------------------------------------------
@@ -208,6 +230,16 @@ export const configSchema = z.object({
     .default(600)
     .describe(
       "a campaign item not finished after this long is given to another replica [s], 5..86 400 (PostgreSQL; a killed replica's items wait this long); longer than one station-day takes",
+    ),
+  TROPODELAY_CAMPAIGN_SWEEP_INTERVAL_S: integer(1, 86_400)
+    .default(DEFAULT_CAMPAIGN_SWEEP_INTERVAL_S)
+    .describe(
+      'how often a replica looks for pending campaign items whose queue job was never sent (a replica died between its commit and the send) and queues them [s], 1..86 400 (PostgreSQL; SQLite takes up every unfinished item at start)',
+    ),
+  TROPODELAY_CAMPAIGN_SWEEP_GRACE_S: integer(1, 86_400)
+    .default(DEFAULT_CAMPAIGN_SWEEP_GRACE_S)
+    .describe(
+      'how long a campaign item must have been ready before the sweep queues it [s], 1..86 400; longer than a submission takes to send its jobs (PostgreSQL)',
     ),
   TROPODELAY_REPLICA_NAME: z
     .string()

@@ -10018,7 +10018,7 @@ export interface paths {
     };
     /**
      * Read the audit trail of writes
-     * @description One event per write request made with an accepted key (PUT/DELETE of stations, uploads, stored estimations, restores, purges, key changes), refused ones included: key name, client address, route, station, source, record counts, status, time. Newest first. Role needed: admin. Needs `Authorization: Bearer <key>` of role admin (401 without a key, 403 with a key of role read or write or one not accepted).
+     * @description One event per write request made with an accepted key (PUT/DELETE of stations, uploads, stored estimations, restores, purges, key changes), refused ones included: key name, client address, route, station, source, record counts, status, time. Newest first. Events older than TROPODELAY_AUDIT_RETENTION_DAYS are deleted by the hourly retention run (0 = kept forever). Role needed: admin. Needs `Authorization: Bearer <key>` of role admin (401 without a key, 403 with a key of role read or write or one not accepted).
      */
     get: {
       parameters: {
@@ -10409,8 +10409,8 @@ export interface paths {
     get?: never;
     put?: never;
     /**
-     * Purge the stations deleted longer ago than the retention period
-     * @description Runs now what runs hourly: removes for good every station marked deleted at or before now minus TROPODELAY_DELETE_RETENTION_DAYS, with its series. To remove one station at once, DELETE /v1/stations/{station_id}?purge=true. Body limit: 1048576 bytes. Role needed: admin. Needs `Authorization: Bearer <key>` of role admin (401 without a key, 403 with a key of role read or write or one not accepted).
+     * Purge the stations deleted longer ago than the retention period, and trim the audit trail
+     * @description Runs now what runs hourly: removes for good every station marked deleted at or before now minus TROPODELAY_DELETE_RETENTION_DAYS, with its series, then deletes the audit events stored before now minus TROPODELAY_AUDIT_RETENTION_DAYS (none when it is 0), in batches. Running it again, or on several replicas at once, deletes nothing twice. To remove one station at once, DELETE /v1/stations/{station_id}?purge=true. Body limit: 1048576 bytes. Role needed: admin. Needs `Authorization: Bearer <key>` of role admin (401 without a key, 403 with a key of role read or write or one not accepted).
      */
     post: {
       parameters: {
@@ -10432,6 +10432,12 @@ export interface paths {
               purged: string[];
               /** @description Stations marked deleted at or before this time (ISO 8601 UTC) were purged */
               cutoff: string;
+              /** @description Audit events deleted by this run (older than TROPODELAY_AUDIT_RETENTION_DAYS) */
+              audit_events_trimmed: number;
+              /** @description Audit events stored before this time (ISO 8601 UTC) were deleted; null when the audit trail is kept forever (0 days) */
+              audit_events_cutoff: string | null;
+              /** @description Days an audit event is kept (TROPODELAY_AUDIT_RETENTION_DAYS); 0 = forever */
+              audit_retention_days: number;
             };
           };
         };

@@ -6,7 +6,14 @@
 import { randomUUID } from 'node:crypto';
 import Fastify, { LogController, type FastifyInstance, type FastifyServerOptions } from 'fastify';
 import { validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
-import { configuredApiKeys, DEFAULT_MAX_READ_RANGE_DAYS, defaultConfig, type Config, type ConfiguredKey } from '../config.js';
+import {
+  configuredApiKeys,
+  DEFAULT_AUDIT_RETENTION_DAYS,
+  DEFAULT_MAX_READ_RANGE_DAYS,
+  defaultConfig,
+  type Config,
+  type ConfiguredKey,
+} from '../config.js';
 import type { StorageConfig } from '../storage/factory.js';
 import type { Repository } from '../storage/repository.js';
 import { MAX_NETWORK_DAY_STATION_OBSERVATIONS, MAX_QUERY_VALUE_CHARS } from '../limits.js';
@@ -62,7 +69,9 @@ export interface ArchiveOptions {
   keyDir?: string;
   /** Days a deleted station stays restorable (default 30). */
   deleteRetentionDays?: number;
-  /** Run the purge of deleted stations at start and hourly (default true). */
+  /** Days an audit event is kept, 0 = forever (default DEFAULT_AUDIT_RETENTION_DAYS). */
+  auditRetentionDays?: number;
+  /** Run the purge of deleted stations and the audit trim at start and hourly (default true). */
   schedulePurge?: boolean;
   readKeysRequired: boolean;
   maxReadRangeDays: number;
@@ -99,6 +108,7 @@ export function archiveOptionsFromConfig(config: Config): ArchiveOptions {
     apiKeys: configuredApiKeys(config),
     keyDir: config.TROPO_DATA_DIR,
     deleteRetentionDays: config.TROPODELAY_DELETE_RETENTION_DAYS,
+    auditRetentionDays: config.TROPODELAY_AUDIT_RETENTION_DAYS,
     readKeysRequired: config.TROPO_READ_KEYS_REQUIRED,
     maxReadRangeDays: config.TROPO_MAX_READ_RANGE_DAYS,
     networkDayMaxStationObservations: config.TROPODELAY_NETWORK_DAY_MAX_STATION_OBSERVATIONS,
@@ -106,6 +116,8 @@ export function archiveOptionsFromConfig(config: Config): ArchiveOptions {
       concurrency: config.TROPODELAY_CAMPAIGN_CONCURRENCY,
       itemTimeoutS: config.TROPODELAY_CAMPAIGN_ITEM_TIMEOUT_S,
       replica: config.TROPODELAY_REPLICA_NAME,
+      sweepIntervalS: config.TROPODELAY_CAMPAIGN_SWEEP_INTERVAL_S,
+      sweepGraceS: config.TROPODELAY_CAMPAIGN_SWEEP_GRACE_S,
     },
   };
 }
@@ -180,7 +192,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   //  8. storage         app.repository (depends on readiness)
   //  9. auth            bearer keys with roles, request.callerKey; its hooks guard the routes registered after it
   // 10. audit           the audit trail of writes (depends on auth and storage)
-  // 11. retention       the purge of deleted stations (depends on storage)
+  // 11. retention       the purge of deleted stations and the audit trim (depends on storage)
   // then the routes, which use app.compute, app.repository and auth's guards.
   await app.register(errorHandler);
   await app.register(jsonBody);
@@ -198,7 +210,11 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     ...(archive.keyDir ? { keyDir: archive.keyDir } : {}),
   });
   await app.register(audit);
-  await app.register(retention, { retentionDays: archive.deleteRetentionDays ?? 30, schedule: archive.schedulePurge ?? true });
+  await app.register(retention, {
+    retentionDays: archive.deleteRetentionDays ?? 30,
+    auditRetentionDays: archive.auditRetentionDays ?? DEFAULT_AUDIT_RETENTION_DAYS,
+    schedule: archive.schedulePurge ?? true,
+  });
   await app.register(rootRoute);
   await app.register(healthRoute);
   await app.register(zenithDelaysRoute);

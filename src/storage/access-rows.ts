@@ -114,6 +114,14 @@ export const toAuditEvent = (r: AuditDbRow): StoredAuditEvent => ({
   requestId: r.request_id,
 });
 
+/**
+ * Rows one batch of the audit trim deletes (Repository.trimAuditEventsBefore): each batch is its own
+ * transaction, so no lock is held longer than one batch takes, and on SQLite the event loop is given back
+ * between batches. Measured with 1 M rows of a year (bench/audit-trim.bench.ts): see DEVELOPERS.md "Audit
+ * retention".
+ */
+export const AUDIT_TRIM_BATCH_ROWS = 5_000;
+
 /** Column order of an audit insert (both backends bind the values in this order). */
 export const AUDIT_COLUMNS = [
   'at_ms',

@@ -133,6 +133,14 @@ export interface PageReadOptions {
   pageRows: number;
 }
 
+/** Options of Repository.trimAuditEventsBefore. */
+export interface AuditTrimOptions {
+  /** Rows per batch (default AUDIT_TRIM_BATCH_ROWS). */
+  batchRows?: number;
+  /** Stops between batches once aborted. */
+  signal?: AbortSignal;
+}
+
 export interface Repository {
   readonly backend: 'sqlite' | 'postgres';
 
@@ -170,6 +178,14 @@ export interface Repository {
   appendAuditEvent(event: AuditEvent): Promise<void>;
   /** Audit events matching the query, newest first. */
   listAuditEvents(query: AuditQuery): Promise<StoredAuditEvent[]>;
+  /**
+   * Deletes the audit events stored before `cutoffMs` (at_ms < cutoffMs, ms since 1970 UTC) in batches of at
+   * most `batchRows` rows, each its own short transaction (no long lock; SQLite yields the event loop between
+   * batches). Idempotent, and safe on several replicas at once (PostgreSQL: each batch skips the rows another
+   * replica is deleting). `signal`: stops between batches when aborted (the app closing); the next run goes on
+   * where it stopped. Returns the rows this call deleted.
+   */
+  trimAuditEventsBefore(cutoffMs: number, options?: AuditTrimOptions): Promise<number>;
 
   /** Upserts met rows of one station in one transaction. Keys must be unique within `rows`. */
   writeMet(stationId: string, rows: readonly MetRow[]): Promise<WriteCounts>;

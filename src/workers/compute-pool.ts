@@ -98,6 +98,80 @@ export function retryAfterEstimateS(load: { queued: number; running: number; thr
 /** Weight of the newest run time in the moving mean: about the last 10 tasks count. */
 const MEAN_WEIGHT = 0.2;
 
+/** A task ahead of a refused one: its estimated run time [s] and its memory estimate [bytes] (0 = not held by the budget). */
+export interface TaskAhead {
+  runS: number;
+  bytes: number;
+}
+
+/**
+ * Retry-After for a refused task when the pool has a memory budget [s]: when the tasks ahead of it will have
+ * run, found by replaying the pool's own rules over them. `handed`: the tasks given to the threads (their
+ * bytes admitted), in the order they were given, so the first `threads` of them are running; `waiting`: the
+ * tasks waiting for memory, first come first served. Each task takes its estimated run time from now (a
+ * running one too, as in retryAfterEstimateS); the threads take the handed tasks in order; when a task ends,
+ * its bytes go back and the waiting tasks are admitted in order while they fit beside those admitted (one
+ * larger than the whole budget when nothing else is admitted), then handed to the threads. The answer is the
+ * time the last one ends, rounded up, at least 1 s. Without memory waits, and with every task of the same run
+ * time, this is the queue part's (queued + running) × mean ÷ threads, rounded up per wave of `threads` tasks.
+ * Work: (tasks) × (threads) steps; the tasks are at most ESTIMATION_QUEUE_LIMIT + threads.
+ */
+export function memoryAwareRetryAfterS(load: {
+  threads: number;
+  budgetBytes: number;
+  handed: readonly TaskAhead[];
+  waiting: readonly TaskAhead[];
+}): number {
+  const threads = Math.max(1, load.threads);
+  const ready = [...load.handed];
+  let next = 0; // the next of `ready` to take a thread
+  let waitingNext = 0; // the next of load.waiting to be admitted
+  let inUse = 0;
+  let admitted = 0;
+  for (const t of load.handed) {
+    if (t.bytes <= 0) continue;
+    inUse += t.bytes;
+    admitted++;
+  }
+  const admit = () => {
+    for (; waitingNext < load.waiting.length; waitingNext++) {
+      const t = load.waiting[waitingNext]!;
+      if (admitted > 0 && inUse + t.bytes > load.budgetBytes) return;
+      inUse += t.bytes;
+      admitted++;
+      ready.push(t);
+    }
+  };
+  admit();
+  const running: { endS: number; bytes: number }[] = [];
+  let nowS = 0;
+  for (;;) {
+    while (running.length < threads && next < ready.length) {
+      const t = ready[next++]!;
+      running.push({ endS: nowS + t.runS, bytes: t.bytes });
+    }
+    if (running.length === 0) break;
+    let first = 0;
+    for (let i = 1; i < running.length; i++) if (running[i]!.endS < running[first]!.endS) first = i;
+    const done = running[first]!;
+    running[first] = running[running.length - 1]!;
+    running.pop();
+    nowS = done.endS;
+    if (done.bytes > 0) {
+      inUse -= done.bytes;
+      admitted--;
+    }
+    admit();
+  }
+  return Math.max(1, Math.ceil(nowS));
+}
+
+/** Moving means of the run time and memory estimate of one task's runs held by the budget. */
+interface HeldRuns {
+  meanRunS: number;
+  meanBytes: number;
+}
+
 /**
  * Admission by memory (ComputePoolOptions.memoryBudgetBytes): a first-come, first-served semaphore
  * counted in bytes. `admit` resolves when the task's bytes fit beside those already admitted and no
@@ -129,10 +203,26 @@ export class MemoryBudget {
     return this.admitted === 0 || this.inUse + bytes <= this.budgetBytes;
   }
 
-  /** Waits until `bytes` may run; the caller calls the returned release once, when the task has ended. */
-  async admit(bytes: number): Promise<() => void> {
-    if (!this.mustWait(bytes)) this.take(bytes);
-    else await new Promise<void>((go) => this.waiting.push({ bytes, go })); // wake() takes the bytes for it
+  /**
+   * Waits until `bytes` may run; the caller calls the returned release once, when the task has ended.
+   * `onAdmitted` is called at the moment the bytes are taken (before the returned promise settles).
+   */
+  async admit(bytes: number, onAdmitted?: () => void): Promise<() => void> {
+    if (!this.mustWait(bytes)) {
+      this.take(bytes);
+      onAdmitted?.();
+    } else {
+      // wake() takes the bytes for it
+      await new Promise<void>((go) =>
+        this.waiting.push({
+          bytes,
+          go: () => {
+            onAdmitted?.();
+            go();
+          },
+        }),
+      );
+    }
     let released = false;
     return () => {
       if (released) return;
@@ -170,6 +260,15 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
   private meanRunS: number | null = null;
   /** Array buffers given back by the caller (release()), moved with the next task (a set: a transfer list takes each once). */
   private released = new Set<ArrayBuffer>();
+  /** Per task: moving means of the runs held by the memory budget (their run time per byte, for Retry-After). */
+  private readonly heldRuns = new Map<string, HeldRuns>();
+  /**
+   * The tasks admitted (by the memory budget, or not held by it) and not yet answered, in the order they were
+   * admitted: on the threads, in piscina's queue, or about to be handed to it (Retry-After).
+   */
+  private readonly handed = new Set<{ task: string; bytes: number }>();
+  /** The tasks waiting for memory, first come first served (Retry-After). */
+  private readonly waitingForMemory = new Set<{ task: string; bytes: number }>();
 
   constructor(private readonly options: ComputePoolOptions<Tasks>) {
     if (options.memoryBudgetBytes) this.budget = new MemoryBudget(options.memoryBudgetBytes);
@@ -209,18 +308,28 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
   ): Promise<TaskOutput<Tasks[K]>> {
     const location = this.options.tasks[task];
     let response: ComputeResponse;
+    const held = this.budget !== undefined && memoryBytes > 0;
+    const entry = { task, bytes: held ? memoryBytes : 0 };
     this.running++;
     let release: (() => void) | undefined;
     try {
-      if (this.budget && memoryBytes > 0) {
+      if (this.budget && held) {
         // Waiting for memory counts against the same queue limit as waiting for a thread.
-        if (this.budget.mustWait(memoryBytes) && this.queued >= this.options.queueLimit) throw new ComputePoolFullError(this.retryAfterS());
-        release = await this.budget.admit(memoryBytes);
+        if (this.budget.mustWait(memoryBytes) && this.queued >= this.options.queueLimit) {
+          this.running--; // the refused task is not ahead of itself
+          throw new ComputePoolFullError(this.retryAfterS());
+        }
+        this.waitingForMemory.add(entry);
+        release = await this.budget.admit(memoryBytes, () => {
+          this.waitingForMemory.delete(entry);
+          this.handed.add(entry);
+        });
         // A task over the whole budget runs alone: it starts on new threads, so that the heaps the earlier
         // tasks grew (V8 keeps a thread's heap at its high-water mark) are not held beside its own.
         if (memoryBytes > this.budget.budgetBytes && this.onThreads === 0 && this.pool) await this.recycle();
       }
       this.onThreads++;
+      this.handed.add(entry); // (already there when the budget admitted it)
       const released = [...this.released];
       this.released.clear();
       try {
@@ -229,19 +338,30 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
         })) as ComputeResponse;
       } finally {
         this.onThreads--;
+        this.handed.delete(entry);
       }
       // And it ends on new threads too: the heap it grew goes with its thread before the next task is admitted.
       if (this.budget && memoryBytes > this.budget.budgetBytes && this.onThreads === 0) await this.recycle();
     } catch (err) {
+      if (err instanceof ComputePoolFullError) throw err; // refused before it was counted ahead of anything
       this.running--;
       if (err instanceof Error && /queue is at limit/i.test(err.message)) throw new ComputePoolFullError(this.retryAfterS());
       throw err;
     } finally {
+      this.handed.delete(entry);
       release?.();
     }
     this.running--;
     const durationS = response.durationMs / 1000;
     this.meanRunS = this.meanRunS === null ? durationS : this.meanRunS + MEAN_WEIGHT * (durationS - this.meanRunS);
+    if (held) {
+      const runs = this.heldRuns.get(task);
+      if (!runs) this.heldRuns.set(task, { meanRunS: durationS, meanBytes: memoryBytes });
+      else {
+        runs.meanRunS += MEAN_WEIGHT * (durationS - runs.meanRunS);
+        runs.meanBytes += MEAN_WEIGHT * (memoryBytes - runs.meanBytes);
+      }
+    }
     this.options.onTaskDone?.(task, durationS);
     const outcome = response.outcome as TaskOutcome<TaskOutput<Tasks[K]>>;
     if (!outcome.ok) throw new ComputeTaskError(outcome.error);
@@ -262,11 +382,37 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
   }
 
   /**
-   * A hint for Retry-After [s] from the real queue (retryAfterEstimateS). `running` counts the tasks
-   * handed to piscina and not yet answered, queued ones included, so the tasks on the threads are
-   * running − queued.
+   * The run time a task of `bytes` is expected to take [s], from the pool's own measurements: for a task held
+   * by the memory budget, its bytes × the mean run time per byte of that task's recent held runs (the ratio of
+   * the moving means: a task's time grows with its body as its memory estimate does, so a 30-day request ahead
+   * counts for 30 one-day ones); otherwise, or before such a run, the moving mean run time of every task (1 s
+   * before any).
+   */
+  estimatedRunS(task: keyof Tasks & string, bytes: number): number {
+    const runs = bytes > 0 ? this.heldRuns.get(task) : undefined;
+    if (runs && runs.meanBytes > 0) return (bytes / runs.meanBytes) * runs.meanRunS;
+    return this.meanRunS !== null && this.meanRunS > 0 ? this.meanRunS : 1;
+  }
+
+  /**
+   * A hint for Retry-After [s]. With a memory budget: memoryAwareRetryAfterS over the tasks on the threads
+   * and those waiting for memory, each of its estimated run time (estimatedRunS). Without one, from the real
+   * queue (retryAfterEstimateS): `running` counts the tasks handed to piscina and not yet answered, queued
+   * ones included, so the tasks on the threads are running − queued.
    */
   private retryAfterS(): number {
+    if (this.budget) {
+      const ahead = (t: { task: string; bytes: number }): TaskAhead => ({
+        runS: this.estimatedRunS(t.task as keyof Tasks & string, t.bytes),
+        bytes: t.bytes,
+      });
+      return memoryAwareRetryAfterS({
+        threads: this.options.threads,
+        budgetBytes: this.budget.budgetBytes,
+        handed: [...this.handed].map(ahead),
+        waiting: [...this.waitingForMemory].map(ahead),
+      });
+    }
     const queued = this.queued;
     return retryAfterEstimateS({
       queued,

@@ -26,3 +26,12 @@ export async function bodyProbeTask(input: { body: Uint8Array; size: number }): 
     },
   };
 }
+
+/**
+ * Runs until the test opens its gate (Atomics.store(gate, 0, 1) and Atomics.notify on the shared array): a task
+ * held on its thread for exactly as long as the test needs, whatever the machine's load.
+ */
+export async function gatedTask(input: { gate: Int32Array }): Promise<{ ok: true; output: { threadId: number; observations: number } }> {
+  Atomics.wait(input.gate, 0, 0);
+  return { ok: true, output: { threadId, observations: 0 } };
+}

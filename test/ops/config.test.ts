@@ -32,6 +32,9 @@ describe('configuration from the environment', () => {
     expect(c.TROPO_MIN_FREE_DISK_MB).toBe(64);
     expect(c.TROPODELAY_CAMPAIGN_CONCURRENCY).toBe(1);
     expect(c.TROPODELAY_CAMPAIGN_ITEM_TIMEOUT_S).toBe(600);
+    expect(c.TROPODELAY_CAMPAIGN_SWEEP_INTERVAL_S).toBe(60);
+    expect(c.TROPODELAY_CAMPAIGN_SWEEP_GRACE_S).toBe(60);
+    expect(c.TROPODELAY_AUDIT_RETENTION_DAYS).toBe(400);
     expect(c.TROPODELAY_REPLICA_NAME).toBeUndefined();
   });
 

@@ -1,7 +1,8 @@
 /**
  * The access part of the repository contract (src/storage/repository.ts, issue 15), on every backend
  * in BACKENDS: soft delete (hidden, id reserved, restorable, purged after a cutoff with its series),
- * API keys (unique names, revocation) and the audit trail (filters, newest first, limit).
+ * API keys (unique names, revocation) and the audit trail (filters, newest first, limit; the trim of events
+ * older than a cutoff, in batches, idempotent, on two replicas at once).
  * Expected values follow from the contract and the scenario written here (common practice).
  */
 
@@ -172,6 +173,46 @@ for (const backend of BACKENDS) {
         'req-1',
       ]);
       expect((await repo.listAuditEvents({ limit: 1 })).map((e) => e.requestId)).toEqual(['req-2']);
+    });
+
+    // The audit trim (TROPODELAY_AUDIT_RETENTION_DAYS): strictly older than the cutoff goes, the cutoff's own
+    // millisecond and later stay; a second run finds nothing (idempotent). Contract of repository.ts.
+    it('the audit trim deletes the events before the cutoff in batches, keeps the rest, and finds nothing the second time', async () => {
+      const repo = await fresh();
+      for (let i = 0; i < 23; i++) await repo.appendAuditEvent(event(i)); // one a minute from T0
+      const cutoffMs = T0 + 10 * 60_000; // events 0..9 are older; event 10 is at the cutoff and stays
+      expect(await repo.trimAuditEventsBefore(cutoffMs, { batchRows: 3 })).toBe(10); // 4 batches: 3 + 3 + 3 + 1
+      const left = await repo.listAuditEvents({ limit: 100 });
+      expect(left.map((e) => e.requestId)).toEqual(Array.from({ length: 13 }, (_, k) => `req-${22 - k}`));
+      expect(Math.min(...left.map((e) => e.atMs))).toBe(cutoffMs);
+      expect(await repo.trimAuditEventsBefore(cutoffMs, { batchRows: 3 })).toBe(0);
+      // The default batch size as well, with a later cutoff.
+      expect(await repo.trimAuditEventsBefore(T0 + 20 * 60_000)).toBe(10);
+      expect((await repo.listAuditEvents({ limit: 100 })).map((e) => e.requestId)).toEqual(['req-22', 'req-21', 'req-20']);
+    });
+
+    it('two trims at once (two replicas) delete each old event once between them, and nothing newer', async () => {
+      const repo = await fresh();
+      for (let i = 0; i < 40; i++) await repo.appendAuditEvent(event(i));
+      const cutoffMs = T0 + 30 * 60_000;
+      const [a, b] = await Promise.all([
+        repo.trimAuditEventsBefore(cutoffMs, { batchRows: 4 }),
+        repo.trimAuditEventsBefore(cutoffMs, { batchRows: 4 }),
+      ]);
+      expect(a + b).toBe(30);
+      expect((await repo.listAuditEvents({ limit: 100 })).map((e) => e.atMs)).toEqual(
+        Array.from({ length: 10 }, (_, k) => T0 + (39 - k) * 60_000),
+      );
+    });
+
+    it('an aborted trim stops after its current batch; the next run goes on where it stopped', async () => {
+      const repo = await fresh();
+      for (let i = 0; i < 10; i++) await repo.appendAuditEvent(event(i));
+      const stop = new AbortController();
+      stop.abort();
+      expect(await repo.trimAuditEventsBefore(T0 + 8 * 60_000, { batchRows: 3, signal: stop.signal })).toBe(3);
+      expect(await repo.trimAuditEventsBefore(T0 + 8 * 60_000, { batchRows: 3 })).toBe(5);
+      expect(await repo.listAuditEvents({ limit: 100 })).toHaveLength(2);
     });
   });
 }

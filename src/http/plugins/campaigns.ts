@@ -2,14 +2,16 @@
  * Campaigns on this replica: decorates the app with `campaigns` (the CampaignService) and serves the
  * work queue (pg-boss on PostgreSQL, the in-process queue on SQLite) with `concurrency` items at a
  * time, each estimated in the worker pool (task campaign-item-estimate). On PostgreSQL it also sweeps,
- * at start and every `sweepIntervalS`, for pending items whose job was never sent (a replica died
- * between its commit and the queue send) and queues them. Stops taking items when the app closes
+ * at start and every `sweepIntervalS` (TROPODELAY_CAMPAIGN_SWEEP_INTERVAL_S), for pending items whose job
+ * was never sent (a replica died between its commit and the queue send) and ready for at least
+ * `sweepGraceS` (TROPODELAY_CAMPAIGN_SWEEP_GRACE_S), and queues them. Stops taking items when the app closes
  * (preClose: the items in hand finish or are redelivered).
  */
 
 import { hostname } from 'node:os';
 import type { FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
+import { DEFAULT_CAMPAIGN_SWEEP_GRACE_S, DEFAULT_CAMPAIGN_SWEEP_INTERVAL_S } from '../../config.js';
 import { CampaignService } from '../../services/campaigns/campaigns.js';
 import { runItem, type ItemEstimate, type ItemEstimateInput } from '../../services/campaigns/campaign-runner.js';
 import { CampaignStore } from '../../storage/campaigns/campaign-store.js';
@@ -35,9 +37,9 @@ export interface CampaignSettings {
   itemTimeoutS?: number;
   /** Default: host name and process id. */
   replica?: string | undefined;
-  /** PostgreSQL: how often to look for pending items whose job was never sent [s]. Default 60. */
+  /** PostgreSQL: how often to look for pending items whose job was never sent [s] (TROPODELAY_CAMPAIGN_SWEEP_INTERVAL_S). */
   sweepIntervalS?: number;
-  /** ... ready for at least this long [s] (a submission in progress is not swept). Default 60. */
+  /** ... ready for at least this long [s] (a submission in progress is not swept; TROPODELAY_CAMPAIGN_SWEEP_GRACE_S). */
   sweepGraceS?: number;
 }
 
@@ -105,8 +107,8 @@ async function campaigns(app: FastifyInstance, options: CampaignPluginOptions): 
   let restart: NodeJS.Timeout | undefined;
   let sweepTimer: NodeJS.Timeout | undefined;
   let closing = false;
-  const sweepGraceMs = (options.settings.sweepGraceS ?? 60) * 1000;
-  const sweepIntervalMs = (options.settings.sweepIntervalS ?? 60) * 1000;
+  const sweepGraceMs = (options.settings.sweepGraceS ?? DEFAULT_CAMPAIGN_SWEEP_GRACE_S) * 1000;
+  const sweepIntervalMs = (options.settings.sweepIntervalS ?? DEFAULT_CAMPAIGN_SWEEP_INTERVAL_S) * 1000;
   let sweeping: Promise<void> | undefined;
   const sweep = () => {
     sweeping ??= service

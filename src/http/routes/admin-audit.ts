@@ -13,7 +13,7 @@ const adminAuditRoute: FastifyPluginAsyncZod = async (app) => {
       schema: {
         summary: 'Read the audit trail of writes',
         description:
-          'One event per write request made with an accepted key (PUT/DELETE of stations, uploads, stored estimations, restores, purges, key changes), refused ones included: key name, client address, route, station, source, record counts, status, time. Newest first.',
+          'One event per write request made with an accepted key (PUT/DELETE of stations, uploads, stored estimations, restores, purges, key changes), refused ones included: key name, client address, route, station, source, record counts, status, time. Newest first. Events older than TROPODELAY_AUDIT_RETENTION_DAYS are deleted by the hourly retention run (0 = kept forever).',
         tags: ['access'],
         querystring: auditQuery,
         response: { 200: auditResponse, 400: problemSchema, 401: problemSchema, 403: problemSchema },

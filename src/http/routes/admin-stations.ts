@@ -67,14 +67,23 @@ const adminStationsRoute: FastifyPluginAsyncZod = async (app) => {
     {
       config: { role: 'admin' },
       schema: {
-        summary: 'Purge the stations deleted longer ago than the retention period',
+        summary: 'Purge the stations deleted longer ago than the retention period, and trim the audit trail',
         description:
-          'Runs now what runs hourly: removes for good every station marked deleted at or before now minus TROPODELAY_DELETE_RETENTION_DAYS, with its series. To remove one station at once, DELETE /v1/stations/{station_id}?purge=true.',
+          'Runs now what runs hourly: removes for good every station marked deleted at or before now minus TROPODELAY_DELETE_RETENTION_DAYS, with its series, then deletes the audit events stored before now minus TROPODELAY_AUDIT_RETENTION_DAYS (none when it is 0), in batches. Running it again, or on several replicas at once, deletes nothing twice. To remove one station at once, DELETE /v1/stations/{station_id}?purge=true.',
         tags: ['access'],
         response: { 200: purgeResponse, 401: problemSchema, 403: problemSchema, 415: problemSchema },
       },
     },
-    async () => app.purgeExpired(),
+    async () => {
+      const { purged, cutoff, audit } = await app.purgeExpired();
+      return {
+        purged,
+        cutoff,
+        audit_events_trimmed: audit.trimmed,
+        audit_events_cutoff: audit.cutoff,
+        audit_retention_days: app.auditRetentionDays,
+      };
+    },
   );
 };
 

@@ -97,4 +97,14 @@ export const deletedStationsResponse = z.object({
 export const purgeResponse = z.object({
   purged: z.array(z.string()).describe('Ids of the stations removed for good with their series'),
   cutoff: z.string().describe('Stations marked deleted at or before this time (ISO 8601 UTC) were purged'),
+  audit_events_trimmed: z
+    .number()
+    .int()
+    .nonnegative()
+    .describe('Audit events deleted by this run (older than TROPODELAY_AUDIT_RETENTION_DAYS)'),
+  audit_events_cutoff: z
+    .string()
+    .nullable()
+    .describe('Audit events stored before this time (ISO 8601 UTC) were deleted; null when the audit trail is kept forever (0 days)'),
+  audit_retention_days: z.number().int().describe('Days an audit event is kept (TROPODELAY_AUDIT_RETENTION_DAYS); 0 = forever'),
 });

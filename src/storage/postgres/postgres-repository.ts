@@ -27,6 +27,7 @@ import {
   type Migration,
 } from '../migrations.js';
 import type {
+  AuditTrimOptions,
   ConnectionStats,
   PageReadOptions,
   SeriesPageKind,
@@ -49,6 +50,7 @@ import type {
 import { StationDeletedError, UnknownStationError } from '../repository.js';
 import {
   AUDIT_COLUMNS,
+  AUDIT_TRIM_BATCH_ROWS,
   auditValues,
   auditWhere,
   toApiKey,
@@ -382,6 +384,22 @@ export class PostgresRepository implements Repository {
       `INSERT INTO audit_events (${AUDIT_COLUMNS.join(', ')}) VALUES (${AUDIT_COLUMNS.map((_, i) => `$${i + 1}`).join(', ')})`,
       auditValues(event),
     );
+  }
+
+  async trimAuditEventsBefore(cutoffMs: number, { batchRows = AUDIT_TRIM_BATCH_ROWS, signal }: AuditTrimOptions = {}): Promise<number> {
+    // One autocommitted statement per batch: row locks on that batch only (inserts and reads go on), and
+    // SKIP LOCKED lets replicas trimming at the same moment take different batches instead of waiting.
+    let total = 0;
+    for (;;) {
+      const result = await this.pool.query(
+        `DELETE FROM audit_events WHERE event_id IN
+           (SELECT event_id FROM audit_events WHERE at_ms < $1 LIMIT $2 FOR UPDATE SKIP LOCKED)`,
+        [cutoffMs, batchRows],
+      );
+      const deleted = result.rowCount ?? 0;
+      total += deleted;
+      if (deleted === 0 || signal?.aborted) return total;
+    }
   }
 
   async listAuditEvents(query: AuditQuery): Promise<StoredAuditEvent[]> {

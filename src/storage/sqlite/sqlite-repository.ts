@@ -31,6 +31,7 @@ import {
   type Migration,
 } from '../migrations.js';
 import type {
+  AuditTrimOptions,
   ConnectionStats,
   PageReadOptions,
   SeriesPageKind,
@@ -53,6 +54,7 @@ import type {
 import { StationDeletedError, UnknownStationError } from '../repository.js';
 import {
   AUDIT_COLUMNS,
+  AUDIT_TRIM_BATCH_ROWS,
   auditValues,
   auditWhere,
   toApiKey,
@@ -273,6 +275,8 @@ export class SqliteRepository implements Repository {
       appendAudit: this.db.prepare(
         `INSERT INTO audit_events (${AUDIT_COLUMNS.join(', ')}) VALUES (${AUDIT_COLUMNS.map(() => '?').join(', ')})`,
       ),
+      // The inner SELECT walks the index audit_events_at; SQLite has no DELETE … LIMIT by default.
+      trimAudit: this.db.prepare('DELETE FROM audit_events WHERE event_id IN (SELECT event_id FROM audit_events WHERE at_ms < ? LIMIT ?)'),
       insertModelSet: this.db.prepare(
         'INSERT INTO model_sets (model_fingerprint, models_json) VALUES (?, ?) ON CONFLICT (model_fingerprint) DO NOTHING',
       ),
@@ -437,6 +441,18 @@ export class SqliteRepository implements Repository {
       this.stmt.appendAudit.run(auditValues(event));
     });
     return withConflictRetry(async () => tx.immediate());
+  }
+
+  async trimAuditEventsBefore(cutoffMs: number, { batchRows = AUDIT_TRIM_BATCH_ROWS, signal }: AuditTrimOptions = {}): Promise<number> {
+    const tx = this.db.transaction(() => this.stmt.trimAudit.run(cutoffMs, batchRows).changes);
+    let total = 0;
+    for (;;) {
+      const deleted = await withConflictRetry(async () => tx.immediate());
+      total += deleted;
+      if (deleted < batchRows || signal?.aborted) return total;
+      // better-sqlite3 runs on the event loop: give it back between batches.
+      await new Promise((resolve) => setImmediate(resolve));
+    }
   }
 
   async listAuditEvents(query: AuditQuery): Promise<StoredAuditEvent[]> {
