@@ -25,7 +25,9 @@ export const DEFAULT_COMPUTE_MEMORY_BUDGET_MB = 192;
 
 /**
  * Warm-up estimations per worker thread at start (TROPODELAY_WARM_UP_ESTIMATIONS; src/http/tasks/warm-up.ts).
- * Chosen by measurement: see README, Benchmarks ("fresh replica").
+ * Chosen by measurement (`npm run bench -- fresh-start` with 0, 10, 20, 40 and 80): 10 already takes most of the
+ * first requests' compilation away, 40 gave the steadiest first 5 and first 40 requests for about 0.5 s more CPU
+ * at start than 10 (DEVELOPERS.md, "The warm-up at start").
  */
 export const DEFAULT_WARM_UP_ESTIMATIONS = 40;
 

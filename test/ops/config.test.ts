@@ -33,7 +33,7 @@ describe('configuration from the environment', () => {
     expect(c.TROPODELAY_CAMPAIGN_CONCURRENCY).toBe(1);
     expect(c.TROPODELAY_CAMPAIGN_ITEM_TIMEOUT_S).toBe(600);
     expect(c.TROPODELAY_REPLICA_NAME).toBeUndefined();
-    expect(c.TROPODELAY_WARM_UP_ESTIMATIONS).toBe(40); // chosen by measurement: README, fresh replica
+    expect(c.TROPODELAY_WARM_UP_ESTIMATIONS).toBe(40); // chosen by measurement: DEVELOPERS.md, "The warm-up at start"
     expect(loadConfig({ TROPODELAY_WARM_UP_ESTIMATIONS: '0' }).TROPODELAY_WARM_UP_ESTIMATIONS).toBe(0); // 0 = off
   });
 
