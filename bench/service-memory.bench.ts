@@ -18,6 +18,7 @@
  */
 
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
+import { DEFAULT_WARM_UP_ESTIMATIONS } from '../src/config.js';
 import { MAX_OBSERVATIONS } from '../src/limits.js';
 import { startServerProcess, type ServerProcess } from '../test/helpers/server-process.js';
 import { columnsArrow, columnsJson, gpsLikeColumns } from '../test/helpers/gps-like-days.js';
@@ -66,7 +67,8 @@ async function round(
   monthJson: Uint8Array<ArrayBuffer>,
   monthArrow: Uint8Array<ArrayBuffer>,
 ): Promise<Round> {
-  const settings = { TROPODELAY_ESTIMATION_WORKERS: '2', ...env };
+  // The service's default warm-up (startServerProcess starts test servers cold): `idle` is then a warm, ready replica.
+  const settings = { TROPODELAY_ESTIMATION_WORKERS: '2', TROPODELAY_WARM_UP_ESTIMATIONS: String(DEFAULT_WARM_UP_ESTIMATIONS), ...env };
   const fromDist = process.env.BENCH_FROM_DIST === '1';
   // BENCH_FROM_DIST=1: the service as `npm start` runs it, from a dist/ built beforehand (npx tsc -p tsconfig.build.json).
   if (fromDist && !existsSync('dist/server.js')) throw new Error('BENCH_FROM_DIST=1: build dist/ first (npx tsc -p tsconfig.build.json)');

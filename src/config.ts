@@ -40,6 +40,14 @@ export const DEFAULT_AUDIT_RETENTION_DAYS = 400;
 export const DEFAULT_CAMPAIGN_SWEEP_INTERVAL_S = 60;
 export const DEFAULT_CAMPAIGN_SWEEP_GRACE_S = 60;
 
+/**
+ * Warm-up estimations per worker thread at start (TROPODELAY_WARM_UP_ESTIMATIONS; src/http/tasks/warm-up.ts).
+ * Chosen by measurement (`npm run bench -- fresh-start` with 0, 10, 20, 40 and 80): 10 already takes most of the
+ * first requests' compilation away, 40 gave the steadiest first 5 and first 40 requests for about 0.5 s more CPU
+ * at start than 10 (DEVELOPERS.md, "The warm-up at start").
+ */
+export const DEFAULT_WARM_UP_ESTIMATIONS = 40;
+
 /** Longest from..to range one read of a station series may ask for [days] (a station-year plus a leap day). */
 export const DEFAULT_MAX_READ_RANGE_DAYS = 366;
 
@@ -253,6 +261,11 @@ export const configSchema = z.object({
     .default(DEFAULT_COMPUTE_MEMORY_BUDGET_MB)
     .describe(
       'memory the worker tasks running at once may take together [MB], each estimated from its body (src/limits.ts TASK_MEMORY_PER_BODY_BYTE); a task that does not fit waits (it counts against ESTIMATION_QUEUE_LIMIT), one larger than the budget runs alone; 0 = no budget',
+    ),
+  TROPODELAY_WARM_UP_ESTIMATIONS: integer(0, 1000)
+    .default(DEFAULT_WARM_UP_ESTIMATIONS)
+    .describe(
+      'estimations of an invented 3-hour slice each worker thread runs at start before it takes requests, so that the first requests do not pay for compiling the estimator; `/v1/ready` answers 503 until every thread is done (requests are still served, more slowly), 0..1000; 0 = no warm-up',
     ),
   RATE_LIMIT_PER_MINUTE: integer(0, 10_000_000)
     .default(0)

@@ -30,6 +30,7 @@ async function main(): Promise<void> {
     config,
     logger: loggerOptions(config),
     archive,
+    startWorkers: true, // warmed before /v1/ready says ready (TROPODELAY_WARM_UP_ESTIMATIONS)
   });
   for (const warning of configWarnings()) app.log.warn(warning);
   app.log.info({ estimationWorkers: config.ESTIMATION_WORKERS, logFormat: config.TROPODELAY_LOG_FORMAT }, 'configuration read');

@@ -11,7 +11,7 @@ export interface paths {
       path?: never;
       cookie?: never;
     };
-    /** Readiness: dependencies reachable (database, migrations); 503 otherwise or while shutting down */
+    /** Readiness: dependencies reachable (database, migrations), estimation workers warmed up at start; 503 otherwise or while shutting down */
     get: {
       parameters: {
         query?: never;

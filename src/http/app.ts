@@ -91,6 +91,12 @@ export interface AppOptions {
   archive?: ArchiveOptions;
   /** Check every JSON answer against its route's response schema (tests; see response-check.ts). */
   validateResponses?: boolean;
+  /**
+   * Start the worker threads with the app, each warmed by TROPODELAY_WARM_UP_ESTIMATIONS estimations, with
+   * /v1/ready not ready until they are (server.ts). Absent: the threads start cold with the first task (the
+   * in-process apps of the tests, which mostly never use them).
+   */
+  startWorkers?: boolean;
 }
 
 /** Archive options from the validated environment (server.ts, the demo). */
@@ -186,9 +192,9 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   //  2. request-log     one line per request, for everything below
   //  3. metrics         app.metrics, used by compute-pool (dependency) and read by /metrics
   //  4. edge            helmet, CORS, rate limit: before any route answers
-  //  5. compute-pool    app.compute (depends on metrics)
-  //  6. openapi         collects the routes registered after it
-  //  7. readiness       app.addReadinessCheck, used by storage (dependency)
+  //  5. openapi         collects the routes registered after it
+  //  6. readiness       app.addReadinessCheck, used by compute-pool and storage (dependency)
+  //  7. compute-pool    app.compute (depends on metrics; readiness for its warm-up check)
   //  8. storage         app.repository (depends on readiness)
   //  9. auth            bearer keys with roles, request.callerKey; its hooks guard the routes registered after it
   // 10. audit           the audit trail of writes (depends on auth and storage)
@@ -199,9 +205,9 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(requestLog);
   await app.register(metrics);
   await app.register(edge, { config });
-  await app.register(computePool, { config });
   await app.register(openapi);
   await app.register(readiness, { timeoutMs: config.READY_CHECK_TIMEOUT_MS });
+  await app.register(computePool, { config, start: options.startWorkers === true });
   const archive = options.archive ?? IN_MEMORY_ARCHIVE;
   await app.register(storage, { storage: archive.storage, ...(archive.repository ? { repository: archive.repository } : {}) });
   await app.register(auth, {

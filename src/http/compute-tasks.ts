@@ -69,3 +69,12 @@ export const COMPUTE_TASKS: { [K in ComputeTaskName]: TaskLocation } = {
   'residual-deposit-read': { module: residualDepositModule, exportName: 'readResidualDepositTask' },
   'campaign-item-estimate': { module: campaignItemModule, exportName: 'estimateCampaignItemTask' },
 };
+
+/**
+ * What each worker thread runs once at start (TROPODELAY_WARM_UP_ESTIMATIONS): estimations of an invented
+ * slice through the request task (tasks/warm-up.ts), before its first request.
+ */
+export const COMPUTE_WARM_UP: TaskLocation = {
+  module: new URL(`./tasks/warm-up.${ext}`, import.meta.url).href,
+  exportName: 'warmUpEstimations',
+};

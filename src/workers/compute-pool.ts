@@ -6,6 +6,9 @@
  * The pool knows no task itself: the layer that owns a task registers it by module and export name
  * (src/http/compute-tasks.ts for the request tasks), and the worker thread imports that module
  * (compute-worker.ts). So nothing here imports the layers above.
+ *
+ * A warm-up (ComputePoolOptions.warmUp, start()) is registered the same way: every thread of the first
+ * set runs it once in its entry, before piscina hands it a task, and reports to this side when done.
  */
 
 import { Piscina } from 'piscina';
@@ -47,7 +50,35 @@ export interface ComputePoolOptions<Tasks extends Record<string, ComputeTask>> {
   memoryBudgetBytes?: number;
   /** Called after each task with its name and run time [s]. */
   onTaskDone?: (task: keyof Tasks & string, durationS: number) => void;
+  /**
+   * What each thread started by start() runs once before its first task (compute-worker.ts): the function
+   * exported at `location`, called with `estimations`; 0 or absent = none. The threads of a recycle()
+   * start cold (they replace threads after a task over the memory budget, which itself takes seconds).
+   */
+  warmUp?: { location: TaskLocation; estimations: number };
 }
+
+/** What a thread's entry gets as piscina's workerData. */
+export interface ComputeWorkerData {
+  warmUp?: { location: TaskLocation; estimations: number };
+}
+
+/** A thread's report of its warm-up, posted to the pool when it is done (or has failed). */
+export interface WarmUpReport {
+  threadId: number;
+  /** Wall time of the warm-up in the thread [ms]. */
+  durationMs: number;
+  /** Why it failed; absent when it ran through. The thread takes tasks either way. */
+  error?: string;
+}
+
+/** The message a thread posts with its report (beside piscina's own messages). */
+export interface WarmUpMessage {
+  warmUpReport: WarmUpReport;
+}
+
+const isWarmUpMessage = (message: unknown): message is WarmUpMessage =>
+  typeof message === 'object' && message !== null && 'warmUpReport' in message;
 
 /** What the worker thread gets and answers (compute-worker.ts). */
 export interface ComputeRequest extends TaskLocation {
@@ -274,10 +305,38 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
     if (options.memoryBudgetBytes) this.budget = new MemoryBudget(options.memoryBudgetBytes);
   }
 
-  /** The piscina pool, started with the first task (and again after recycle()). */
-  private threads(): Piscina {
+  /**
+   * Starts the threads now (instead of with the first task), each running the warm-up (options.warmUp)
+   * before its first task. Resolves with one report per thread once every thread has reported (at once
+   * when there is no warm-up); it never rejects (a thread's failure is in its report). Tasks may be run
+   * meanwhile: they wait for their thread's warm-up.
+   */
+  start(): Promise<WarmUpReport[]> {
+    const warmUp = this.options.warmUp;
+    if (this.pool || !warmUp || warmUp.estimations <= 0) {
+      this.threads();
+      return Promise.resolve([]);
+    }
+    const pool = this.threads({ warmUp });
+    const reports = new Map<number, WarmUpReport>();
+    return new Promise((resolve) => {
+      const listen = (message: unknown) => {
+        if (!isWarmUpMessage(message)) return;
+        // A thread that died while warming is replaced by one that warms too: reports count per thread.
+        reports.set(message.warmUpReport.threadId, message.warmUpReport);
+        if (reports.size < this.options.threads) return;
+        pool.off('message', listen);
+        resolve([...reports.values()]);
+      };
+      pool.on('message', listen);
+    });
+  }
+
+  /** The piscina pool, started with the first task (and again after recycle()); `workerData` only by start(). */
+  private threads(workerData?: ComputeWorkerData): Piscina {
     return (this.pool ??= new Piscina({
       ...workerLocation(),
+      workerData,
       minThreads: this.options.threads, // all started at once: no thread is spawned in the middle of a load
       maxThreads: this.options.threads,
       maxQueue: this.options.queueLimit,

@@ -3,12 +3,20 @@
  * the task's module once (by the URL its owner registered), joins a body handed over in chunks, calls the
  * exported function, times it. The array buffers the caller released (ComputePool.release) come with the
  * request and are left to this thread's garbage collector.
+ *
+ * With a warm-up in its workerData (ComputePool.start, TROPODELAY_WARM_UP_ESTIMATIONS) the thread first runs
+ * it, then reports to the pool (a WarmUpMessage on the parent port, which piscina passes on as the pool's
+ * 'message' event): the default export is then a promise of the task function, and piscina takes no task
+ * from its port before that promise is resolved (piscina's README, "Delaying availability"). Tasks handed to
+ * the thread meanwhile wait for it. The promise never rejects: a failed warm-up is reported and the thread
+ * takes tasks cold (a rejected handler would make piscina fail the thread at every start).
  */
 
 import { createRequire } from 'node:module';
 import { fileURLToPath } from 'node:url';
+import { parentPort, threadId, workerData } from 'node:worker_threads';
 import { move, transferableSymbol, valueSymbol } from 'piscina';
-import type { ComputeRequest, ComputeResponse } from './compute-pool.js';
+import type { ComputeRequest, ComputeResponse, ComputeWorkerData, TaskLocation, WarmUpMessage } from './compute-pool.js';
 
 const modules = new Map<string, Promise<Record<string, unknown>>>();
 const requireHere = createRequire(import.meta.url);
@@ -23,11 +31,17 @@ const load = (url: string): Promise<Record<string, unknown>> =>
     ? Promise.resolve(requireHere(fileURLToPath(url)) as Record<string, unknown>)
     : (import(url) as Promise<Record<string, unknown>>);
 
-export default async function computeWorker(request: ComputeRequest): Promise<ComputeResponse> {
-  let loading = modules.get(request.module);
-  if (!loading) modules.set(request.module, (loading = load(request.module)));
-  const run = (await loading)[request.exportName];
-  if (typeof run !== 'function') throw new Error(`compute task ${request.exportName} not found in ${request.module}`);
+/** The function exported at a task's location, its module loaded once. */
+async function exported(location: TaskLocation): Promise<(input: unknown) => unknown> {
+  let loading = modules.get(location.module);
+  if (!loading) modules.set(location.module, (loading = load(location.module)));
+  const run = (await loading)[location.exportName];
+  if (typeof run !== 'function') throw new Error(`compute task ${location.exportName} not found in ${location.module}`);
+  return run as (input: unknown) => unknown;
+}
+
+async function computeWorker(request: ComputeRequest): Promise<ComputeResponse> {
+  const run = await exported(request);
   const started = performance.now();
   request.released.length = 0; // not held through the task
   joinBody(request.input);
@@ -74,3 +88,27 @@ function ownedBuffers(outcome: unknown): ArrayBuffer[] {
   visit(output, 0);
   return [...found];
 }
+
+/** Runs the warm-up of workerData, if any, and reports it to the pool; never throws. */
+async function warmUp(data: ComputeWorkerData | undefined): Promise<void> {
+  const warm = data?.warmUp;
+  if (!warm || warm.estimations <= 0) return;
+  const started = performance.now();
+  let error: string | undefined;
+  try {
+    await (
+      await exported(warm.location)
+    )(warm.estimations);
+  } catch (err) {
+    error = err instanceof Error ? err.message : String(err);
+  }
+  const message: WarmUpMessage = {
+    warmUpReport: { threadId, durationMs: performance.now() - started, ...(error !== undefined ? { error } : {}) },
+  };
+  parentPort?.postMessage(message);
+}
+
+const data = workerData as ComputeWorkerData | undefined;
+
+/** piscina's handler: the task function, or (with a warm-up) a promise of it resolved once the thread is warm. */
+export default data?.warmUp && data.warmUp.estimations > 0 ? warmUp(data).then(() => computeWorker) : computeWorker;

@@ -35,3 +35,28 @@ export async function gatedTask(input: { gate: Int32Array }): Promise<{ ok: true
   Atomics.wait(input.gate, 0, 0);
   return { ok: true, output: { threadId, observations: 0 } };
 }
+
+/** Where this thread's warm-up probe left its mark (globalThis: the same thread, whatever module instance reads it). */
+const warmMark = globalThis as { warmUpProbeRan?: { estimations: number; atMs: number } };
+
+/** A warm-up for the pool's tests: waits 300 ms (so that tasks handed over meanwhile must wait), then marks the thread. */
+export async function warmUpProbe(estimations: number): Promise<void> {
+  await new Promise((r) => setTimeout(r, 300));
+  warmMark.warmUpProbeRan = { estimations, atMs: performance.now() };
+}
+
+/** A warm-up that fails. */
+export async function failingWarmUp(estimations: number): Promise<void> {
+  await Promise.resolve();
+  throw new Error(`invented failure of a warm-up of ${estimations}`);
+}
+
+/** The thread's id and what its warm-up probe left (undefined when none ran before this task). */
+export async function warmMarkTask(input: { waitMs?: number }): Promise<{
+  ok: true;
+  output: { threadId: number; warmedUpWith: number | undefined; observations: number };
+}> {
+  const warmedUpWith = warmMark.warmUpProbeRan?.estimations;
+  if (input.waitMs) await new Promise((r) => setTimeout(r, input.waitMs));
+  return { ok: true, output: { threadId, warmedUpWith, observations: 0 } };
+}

@@ -47,6 +47,12 @@ export function serverEnvironment(port: number, env: Record<string, string> = {}
 }
 
 /**
+ * A real service in a child process, answering /v1/health. Its worker threads start cold
+ * (TROPODELAY_WARM_UP_ESTIMATIONS=0) unless `env` sets the warm-up: the tests that start servers check other
+ * things and would each pay the warm-up (seconds of CPU under tsx) and a /v1/ready of 503 meanwhile; the
+ * warm-up itself is tested in test/ops/warm-up.test.ts. With a warm-up set it returns once the threads are warm
+ * (the readiness check compute_warm_up passes, whatever the other checks say).
+ *
  * @param env extra environment, settings by their current or deprecated name (log level defaults to warn)
  * @param discardLogs send the service's stdout (its log lines) nowhere, e.g. to measure at TROPODELAY_LOG_LEVEL=info
  * @param fromDist run dist/server.js as `npm start` does instead of src/server.ts under tsx
@@ -56,7 +62,7 @@ export async function startServerProcess(env: Record<string, string> = {}, disca
   // fromDist: as `npm start` runs it (node --max-semi-space-size=32 dist/server.js, no tsx); dist/ built beforehand.
   const args = fromDist ? ['--max-semi-space-size=32', 'dist/server.js'] : ['--import', 'tsx', 'src/server.ts'];
   const child = spawn(process.execPath, args, {
-    env: { ...serverEnvironment(port, env), ...(fromDist ? { NODE_OPTIONS: '' } : {}) },
+    env: { ...serverEnvironment(port, { TROPODELAY_WARM_UP_ESTIMATIONS: '0', ...env }), ...(fromDist ? { NODE_OPTIONS: '' } : {}) },
     stdio: ['ignore', discardLogs ? 'ignore' : 'inherit', 'inherit'],
   });
   const baseUrl = `http://127.0.0.1:${port}`;
@@ -69,6 +75,12 @@ export async function startServerProcess(env: Record<string, string> = {}, disca
       // not listening yet
     }
     if (Date.now() > deadline || child.exitCode !== null) throw new Error('service did not start');
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  while (env['TROPODELAY_WARM_UP_ESTIMATIONS'] !== undefined && env['TROPODELAY_WARM_UP_ESTIMATIONS'] !== '0') {
+    const ready = (await (await fetch(`${baseUrl}/v1/ready`)).json()) as { checks?: Record<string, string> };
+    if (ready.checks?.['compute_warm_up'] === undefined || ready.checks['compute_warm_up'] === 'ok') break;
+    if (Date.now() > deadline + 90_000 || child.exitCode !== null) throw new Error('service did not warm up');
     await new Promise((r) => setTimeout(r, 100));
   }
   return {

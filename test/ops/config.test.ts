@@ -36,6 +36,8 @@ describe('configuration from the environment', () => {
     expect(c.TROPODELAY_CAMPAIGN_SWEEP_GRACE_S).toBe(60);
     expect(c.TROPODELAY_AUDIT_RETENTION_DAYS).toBe(400);
     expect(c.TROPODELAY_REPLICA_NAME).toBeUndefined();
+    expect(c.TROPODELAY_WARM_UP_ESTIMATIONS).toBe(40); // chosen by measurement: DEVELOPERS.md, "The warm-up at start"
+    expect(loadConfig({ TROPODELAY_WARM_UP_ESTIMATIONS: '0' }).TROPODELAY_WARM_UP_ESTIMATIONS).toBe(0); // 0 = off
   });
 
   it.each([
@@ -47,6 +49,9 @@ describe('configuration from the environment', () => {
     ['DB_STATEMENT_TIMEOUT_MS', '50', /DB_STATEMENT_TIMEOUT_MS="50": must be a whole number in 100..3600000/],
     ['READY_CHECK_TIMEOUT_MS', '90000', /READY_CHECK_TIMEOUT_MS="90000"/],
     ['TRUST_PROXY', '*', /TRUST_PROXY="\*": must be false, a hop count/],
+    ['TROPODELAY_WARM_UP_ESTIMATIONS', '-1', /TROPODELAY_WARM_UP_ESTIMATIONS="-1": must be a whole number in 0\.\.1000/],
+    ['TROPODELAY_WARM_UP_ESTIMATIONS', '1001', /TROPODELAY_WARM_UP_ESTIMATIONS="1001": must be a whole number in 0\.\.1000/],
+    ['TROPODELAY_WARM_UP_ESTIMATIONS', 'many', /TROPODELAY_WARM_UP_ESTIMATIONS="many": must be a whole number in 0\.\.1000/],
   ])('rejects %s=%s naming the variable', (name, value, message) => {
     expect(() => loadConfig({ [name]: value })).toThrow(ConfigError);
     expect(() => loadConfig({ [name]: value })).toThrow(message);

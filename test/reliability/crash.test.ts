@@ -33,6 +33,7 @@ function startServer(storage: StorageConfig): Promise<Server> {
     0,
     {
       LOG_LEVEL: 'info',
+      TROPODELAY_WARM_UP_ESTIMATIONS: '0', // cold threads, as startServerProcess's: the writes use none, the warm-up's CPU would slow the stream
       TROPO_DATA_DIR: storage.dataDir,
       TROPO_API_KEYS: TEST_KEY,
       ...(storage.databaseUrl ? { DATABASE_URL: storage.databaseUrl } : {}),

@@ -6,7 +6,8 @@
  * The checks run in parallel, each with a deadline (READY_CHECK_TIMEOUT_MS): a blackholed database
  * makes the probe answer 503 in time instead of hanging the load balancer's probe. The answer is
  * public, so a failed check says only what kind of failure it was; the driver's text is logged with
- * the request id.
+ * the request id. A check that is only not ready yet (the compute pool's warm-up at start) throws
+ * NotReadyYet: its text is shown as it is and nothing is logged (a load balancer probes every few seconds).
  *
  * It also owns the "closing" state of a shutdown: from the first moment of app.close() every answer
  * carries `Connection: close`, so a keep-alive client whose request was in flight does not hold the
@@ -21,6 +22,9 @@ import { SchemaMismatchError } from '../../storage/migrations.js';
 import { problemSchema } from '../schemas/common.js';
 
 type Check = () => Promise<void>;
+
+/** Thrown by a check whose dependency is still starting: the message is public, the probe logs nothing. */
+export class NotReadyYet extends Error {}
 
 declare module 'fastify' {
   interface FastifyInstance {
@@ -39,7 +43,10 @@ export interface ReadinessOptions {
 }
 
 /** A check's outcome as the public answer shows it. */
-async function runCheck(check: Check, timeoutMs: number): Promise<{ ok: true } | { ok: false; text: string; err?: unknown }> {
+async function runCheck(
+  check: Check,
+  timeoutMs: number,
+): Promise<{ ok: true } | { ok: false; text: string; err?: unknown; starting?: boolean }> {
   let timer: NodeJS.Timeout | undefined;
   const deadline = new Promise<'timeout'>((resolve) => {
     timer = setTimeout(() => resolve('timeout'), timeoutMs);
@@ -48,6 +55,7 @@ async function runCheck(check: Check, timeoutMs: number): Promise<{ ok: true } |
     const outcome = await Promise.race([check().then(() => 'ok' as const), deadline]);
     return outcome === 'ok' ? { ok: true } : { ok: false, text: `no answer within ${timeoutMs} ms` };
   } catch (err) {
+    if (err instanceof NotReadyYet) return { ok: false, text: err.message, starting: true };
     // A schema mismatch names migration versions only, so its reason is shown (docs/operations.md, rolling update).
     const text = err instanceof SchemaMismatchError ? err.message : storageUnavailable(err)?.message;
     return { ok: false, text: text ?? 'failed (the reason is in the service log)', err };
@@ -72,7 +80,8 @@ async function readiness(app: FastifyInstance, options: ReadinessOptions): Promi
     '/v1/ready',
     {
       schema: {
-        summary: 'Readiness: dependencies reachable (database, migrations); 503 otherwise or while shutting down',
+        summary:
+          'Readiness: dependencies reachable (database, migrations), estimation workers warmed up at start; 503 otherwise or while shutting down',
         tags: ['operations'],
         response: { 200: readyResponse, 400: problemSchema, 503: readyResponse },
       },
@@ -88,7 +97,7 @@ async function readiness(app: FastifyInstance, options: ReadinessOptions): Promi
         } else {
           ok = false;
           results[name] = outcome.text;
-          request.log.warn({ check: name, err: outcome.err, reason: outcome.text }, 'readiness check failed');
+          if (!outcome.starting) request.log.warn({ check: name, err: outcome.err, reason: outcome.text }, 'readiness check failed');
         }
       }
       return reply.code(ok ? 200 : 503).send({ status: ok ? 'ready' : 'not-ready', checks: results });
