@@ -118,10 +118,9 @@ const networkEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = async 
       const scanned = await app.compute.run('network-request-scan', { ...sent, query }, transferOf(sent));
       // JSON and Arrow bytes were moved to the scan and back; a text body is still the request's.
       const raw = { body: scanned.body ?? sent.body, format: sent.format };
-      const archive = new Map((await app.repository.listStations()).map((s) => [s.stationId, s]));
-      const archiveSites: Record<string, Site> = {};
-      for (const s of archive.values())
-        archiveSites[s.stationId] = { latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, heightM: s.heightM };
+      // The request's stations only (one query), not the whole archive; a station not found is the task's 404.
+      const archive = await app.repository.getStations(scanned.stations);
+      const archiveSites = sitesOf(archive);
       const storedMet = await networkStoredMet(app.repository, archive, scanned, options.maxReadRangeDays);
       const output = await app.compute.run('network-estimate-request', { ...raw, query, archiveSites, storedMet }, transferOf(raw));
       const stored = await storeNetwork(app.repository, source, output.delays!, output.modelFingerprint!, output.models!, output.metUsed!);
@@ -131,6 +130,13 @@ const networkEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = async 
   );
 };
 
+/** The archive stations' sites by id, as the network tasks take them (`archiveSites`). */
+export function sitesOf(archive: ReadonlyMap<string, Station>): Record<string, Site> {
+  const sites: Record<string, Site> = {};
+  for (const s of archive.values()) sites[s.stationId] = { latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, heightM: s.heightM };
+  return sites;
+}
+
 /**
  * The stored met of the request's archive stations that have no met records in the request, read as the
  * single-station storing route reads it (storedMetFor: 1 day around the observations, at the antenna
@@ -139,8 +145,8 @@ const networkEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = async 
  */
 export async function networkStoredMet(
   repository: Repository,
-  archive: Map<string, Station>,
-  scan: NetworkScanOutput,
+  archive: ReadonlyMap<string, Station>,
+  scan: Pick<NetworkScanOutput, 'range' | 'stations' | 'metStations'>,
   maxReadRangeDays: number,
 ): Promise<Record<string, MetColumns>> {
   const out: Record<string, MetColumns> = {};

@@ -33,13 +33,14 @@ export function insideBox(s: Station, box: BoundingBox): boolean {
 }
 
 /**
- * The stations of a network read: all live ones, or those named (404 naming the unknown ids), then
- * those inside the box. Order: by id, or as named.
+ * The stations of a network read: all live ones, or those named (404 naming the unknown ids; only they
+ * are read, Repository.getStations), then those inside the box. Order: by id, or as named.
  */
 export async function selectStations(repository: Repository, ids?: readonly string[], box?: BoundingBox): Promise<Station[]> {
-  let stations = await repository.listStations();
-  if (ids !== undefined) {
-    const byId = new Map(stations.map((s) => [s.stationId, s]));
+  let stations: Station[];
+  if (ids === undefined) stations = await repository.listStations();
+  else {
+    const byId = await repository.getStations(ids);
     const unknown = ids.filter((id) => !byId.has(id));
     if (unknown.length > 0) {
       throw new HttpProblem(

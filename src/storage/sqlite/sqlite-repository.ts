@@ -249,6 +249,8 @@ export class SqliteRepository implements Repository {
       getStation: this.db.prepare('SELECT * FROM stations WHERE station_id = ? AND deleted_at IS NULL'),
       anyStation: this.db.prepare('SELECT station_id, deleted_at FROM stations WHERE station_id = ?'),
       listStations: this.db.prepare('SELECT * FROM stations WHERE deleted_at IS NULL ORDER BY station_id'),
+      // The ids as one JSON array (json_each): one statement for any number of ids, each a primary-key lookup.
+      getStations: this.db.prepare('SELECT * FROM stations WHERE station_id IN (SELECT value FROM json_each(?)) AND deleted_at IS NULL'),
       insertStation: this.db.prepare(
         `INSERT INTO stations (station_id, name, latitude_deg, longitude_deg, height_m, met_height_m, description, created_at, updated_at)
          VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)`,
@@ -385,6 +387,13 @@ export class SqliteRepository implements Repository {
   async getStation(stationId: string): Promise<Station | null> {
     const row = this.stmt.getStation.get(stationId) as StationDbRow | undefined;
     return row ? toStation(row) : null;
+  }
+
+  async getStations(stationIds: readonly string[]): Promise<Map<string, Station>> {
+    const out = new Map<string, Station>();
+    if (stationIds.length === 0) return out;
+    for (const row of this.stmt.getStations.all(JSON.stringify(stationIds)) as StationDbRow[]) out.set(row.station_id, toStation(row));
+    return out;
   }
 
   async listStations(): Promise<Station[]> {
