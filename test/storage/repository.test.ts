@@ -110,6 +110,40 @@ for (const backend of BACKENDS) {
       expect(await repo.getStation('ALD_2')).toBeNull();
     });
 
+    it('getStations: the named live stations by id; unknown, deleted and purged ids absent, an id given twice read once', async () => {
+      const { repo } = await fresh();
+      expect((await repo.getStations([])).size).toBe(0);
+      for (const id of ['QMR-1', 'ALD_2', 'BRK3', 'DEL-4']) await repo.putStation(id, { ...STATION, name: `${id} (invented)` });
+      expect(await repo.deleteStation('DEL-4', '2026-03-14T12:00:00.000Z')).toBe(true);
+      const got = await repo.getStations(['BRK3', 'NOPE', 'QMR-1', 'DEL-4', 'QMR-1']);
+      expect([...got.keys()].sort()).toEqual(['BRK3', 'QMR-1']);
+      // The same stations getStation reads, field for field.
+      expect(got.get('QMR-1')).toEqual(await repo.getStation('QMR-1'));
+      expect(got.get('BRK3')).toEqual(await repo.getStation('BRK3'));
+      // A soft-deleted station is absent, as from getStation and listStations; restored, it is back.
+      expect(await repo.restoreStation('DEL-4')).toBe(true);
+      expect([...(await repo.getStations(['DEL-4'])).keys()]).toEqual(['DEL-4']);
+      expect(await repo.purgeStation('ALD_2')).toBe(true);
+      expect((await repo.getStations(['ALD_2'])).size).toBe(0);
+      // Ids are matched exactly (no case folding, no pattern).
+      expect((await repo.getStations(['qmr-1', 'QMR-%', 'QMR_1'])).size).toBe(0);
+    });
+
+    it(
+      'getStations of 40 000 ids in one call, more than SQLite binds as parameters (32 766), 1 200 of them stations',
+      { timeout: 60_000 },
+      async () => {
+        const { repo } = await fresh();
+        const stations = Array.from({ length: 1200 }, (_, i) => `S${String(i).padStart(5, '0')}`);
+        for (const [i, id] of stations.entries()) await repo.putStation(id, { ...STATION, name: `${id} (invented)`, heightM: i });
+        const ids = Array.from({ length: 40_000 }, (_, i) => (i % 33 === 0 && i / 33 < stations.length ? stations[i / 33]! : `U${i}`));
+        expect(ids.filter((id) => id.startsWith('S'))).toHaveLength(1200);
+        const got = await repo.getStations(ids);
+        expect([...got.keys()].sort()).toEqual(stations);
+        stations.forEach((id, i) => expect(got.get(id)!.heightM).toBe(i));
+      },
+    );
+
     it('stores met rows keyed by (station, epoch, source): a re-send is idempotent, a change is an update', async () => {
       const { repo } = await fresh();
       await repo.putStation('QMR-1', STATION);
