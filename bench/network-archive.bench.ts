@@ -14,9 +14,9 @@
  *   the scan and of the estimation task of 10 stations × 1 h of 30-s data as JSON columns and as JSON objects.
  * - http (two services by turns, as bench/edge-ab.bench.ts): each tree's dist/server.js (one worker) on an archive of
  *   its own, POST /v1/network/zwd-estimates of 4 stations × 15 min (columns JSON: a small request, where what the
- *   route does besides estimating shows) and GET /v1/network/precipitable-water of 10 named stations at their latest
- *   epoch; CPU ms a request of the whole process and of its event loop (/proc), answers compared byte for byte
- *   (without the fields that carry times).
+ *   route does besides estimating shows), GET /v1/network/precipitable-water of 10 named stations at their latest
+ *   epoch, and the same read of the stations in the network's region (bbox); CPU ms a request of the whole process
+ *   and of its event loop (/proc), answers compared byte for byte (the storing route's stored counts aside).
  *
  * NETWORK_ARCHIVE_BENCH_BACKEND: sqlite, postgres or both (default both when PostgreSQL answers at
  * BENCH_DATABASE_URL, default postgres://postgres@127.0.0.1:5432/test; each run in a schema of its own, dropped
@@ -42,6 +42,8 @@ const PG_URL = BENCH_PG_URL;
 const STATIONS = Number(process.env.NETWORK_ARCHIVE_BENCH_STATIONS ?? 1000);
 const BLOCKS = Number(process.env.NETWORK_ARCHIVE_BENCH_BLOCKS ?? 6);
 const DAY = '2026-10-01';
+/** The bench network's region (bench/bench-network.ts: rings up to 600 km around 48° N, 11° E) as west,south,east,north [deg]. */
+const BOX = '2,42,20,54';
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 const fmt = (xs: number[], d = 2) => `${median(xs).toFixed(d)} (${Math.min(...xs).toFixed(d)}–${Math.max(...xs).toFixed(d)})`;
@@ -241,6 +243,16 @@ async function httpPart(roots: { name: string; root: string }[], backend: 'sqlit
       services.push(await startService(r.name, join(r.root, 'dist'), [], env));
     }
     const store = networkBody(4, 0.25, 'columns');
+    const box = BOX.split(',').map(Number) as [number, number, number, number];
+    const inBox = (s: { latitudeDeg: number; longitudeDeg: number }) =>
+      s.latitudeDeg >= box[1] && s.latitudeDeg <= box[3] && s.longitudeDeg >= box[0] && s.longitudeDeg <= box[2];
+    const boxed = (
+      await createRepository(storages[0]!.config).then(async (r) => {
+        const all = await r.listStations();
+        await r.close();
+        return all;
+      })
+    ).filter(inBox).length;
     const named = [
       ...benchStations(4).map((s) => s.name),
       ...Array.from({ length: 6 }, (_, i) => `X${String(100 + i * 97).padStart(5, '0')}`),
@@ -259,6 +271,12 @@ async function httpPart(roots: { name: string; root: string }[], backend: 'sqlit
       {
         name: 'GET /v1/network/precipitable-water, 10 named stations, latest=true',
         send: (base: string) => fetch(`${base}/v1/network/precipitable-water?stations=${named.join(',')}&latest=true`),
+        block: 40,
+      },
+      {
+        // The bench network's region: its 10 stations (4 with delays stored by the first workload) and the invented ones there.
+        name: `GET /v1/network/precipitable-water, bbox=${BOX} (${boxed} of the ${STATIONS} stations), latest=true`,
+        send: (base: string) => fetch(`${base}/v1/network/precipitable-water?bbox=${BOX}&latest=true`),
         block: 40,
       },
     ];

@@ -24,6 +24,18 @@ export interface StationInput {
   description: string | null;
 }
 
+/**
+ * A latitude/longitude box [deg]: latitude within [southDeg, northDeg]; longitude (a stored one above 180
+ * taken as lon − 360) within [westDeg, eastDeg], or, when westDeg > eastDeg (the box crosses 180°), at or
+ * east of westDeg or at or west of eastDeg. Bounds included.
+ */
+export interface StationBox {
+  westDeg: number;
+  southDeg: number;
+  eastDeg: number;
+  northDeg: number;
+}
+
 export interface Station extends StationInput {
   stationId: string;
   /** ISO 8601 UTC. */
@@ -152,6 +164,11 @@ export interface Repository {
   getStations(stationIds: readonly string[]): Promise<Map<string, Station>>;
   /** The stations not marked deleted (the whole table: for answers that list every station). */
   listStations(): Promise<Station[]>;
+  /**
+   * The stations not marked deleted inside `box`, by id: filtered in the database (src/storage/rows.ts
+   * stationsInBoxWhere), so that a network read of a region does not turn the whole table into objects.
+   */
+  listStationsInBox(box: StationBox): Promise<Station[]>;
   /**
    * Soft delete: marks the station deleted at `deletedAt` (ISO 8601 UTC). Its series stay stored
    * but every read and write treats the station as absent. False when there is no such live station.

@@ -12,6 +12,7 @@ import { MIGRATIONS } from '../../src/storage/migrations.js';
 import type { DelayRow, MetRow, Repository, StoredSounding } from '../../src/storage/repository.js';
 import { UnknownStationError } from '../../src/storage/repository.js';
 import { BACKENDS } from '../helpers/storage.js';
+import { insideBox } from '../../src/http/routes/network-precipitable-water.js';
 
 const T0 = Date.UTC(2026, 2, 14, 0, 0, 0);
 const MIN = 60_000;
@@ -143,6 +144,44 @@ for (const backend of BACKENDS) {
         stations.forEach((id, i) => expect(got.get(id)!.heightM).toBe(i));
       },
     );
+
+    it("listStationsInBox: the stations the network routes' insideBox keeps (the filter before, in JS), bounds and 180° included", async () => {
+      const { repo } = await fresh();
+      const lats = [-90, -45.5, 0, 10, 10.000001, 45, 89.9, 90];
+      const lons = [-180, -179.5, -10, 0, 10, 179.9, 180, 190, 350, 359.9];
+      const all = lats.flatMap((lat, i) => lons.map((lon, j) => ({ id: `G${i}_${j}`, lat, lon })));
+      for (const g of all) await repo.putStation(g.id, { ...STATION, name: `${g.id} (invented)`, latitudeDeg: g.lat, longitudeDeg: g.lon });
+      await repo.deleteStation('G3_4', '2026-03-14T12:00:00.000Z'); // (10, 10): inside most boxes, but deleted
+      const boxes = [
+        { westDeg: -10, southDeg: 0, eastDeg: 10, northDeg: 10 },
+        { westDeg: 170, southDeg: -50, eastDeg: -170, northDeg: 50 }, // across 180°
+        { westDeg: 179.9, southDeg: -90, eastDeg: -180, northDeg: 90 },
+        { westDeg: -180, southDeg: -90, eastDeg: 180, northDeg: 90 },
+        { westDeg: 0, southDeg: 10, eastDeg: 0, northDeg: 10 },
+        { westDeg: 5, southDeg: 20, eastDeg: 6, northDeg: 30 }, // empty
+      ];
+      const live = (await repo.listStations()).filter((st) => st.stationId !== 'G3_4');
+      expect(live).toHaveLength(all.length - 1);
+      for (const box of boxes) {
+        const expected = live.filter((st) => insideBox(st, box)).map((st) => st.stationId);
+        const got = await repo.listStationsInBox(box);
+        expect(got.map((st) => st.stationId)).toEqual(expected);
+        expect(got).toEqual(live.filter((st) => insideBox(st, box)));
+      }
+      // By hand: the first box holds latitudes 0 and 10 at longitudes −10, 0, 10, 350 (= −10) and 359.9 (= −0.1), not the deleted (10, 10).
+      expect((await repo.listStationsInBox(boxes[0]!)).map((st) => st.stationId)).toEqual([
+        'G2_2',
+        'G2_3',
+        'G2_4',
+        'G2_8',
+        'G2_9',
+        'G3_2',
+        'G3_3',
+        'G3_8',
+        'G3_9',
+      ]);
+      expect((await repo.listStationsInBox(boxes[5]!)).length).toBe(0);
+    });
 
     it('stores met rows keyed by (station, epoch, source): a re-send is idempotent, a change is an update', async () => {
       const { repo } = await fresh();

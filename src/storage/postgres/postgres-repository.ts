@@ -36,6 +36,7 @@ import type {
   Repository,
   Station,
   StationInput,
+  StationBox,
   SoundingRow,
   StationDelayRows,
   StationRange,
@@ -82,6 +83,8 @@ import {
   metFromArray,
   surfaceMetFromArray,
   toStation,
+  stationsInBoxParams,
+  stationsInBoxWhere,
   zenithDelayFromArray,
   type MetArrayRow,
   type SeriesTable,
@@ -333,6 +336,11 @@ export class PostgresRepository implements Repository {
 
   async listStations(): Promise<Station[]> {
     return (await this.pool.query<StationDbRow>('SELECT * FROM stations WHERE deleted_at IS NULL ORDER BY station_id')).rows.map(toStation);
+  }
+
+  async listStationsInBox(box: StationBox): Promise<Station[]> {
+    const sql = `SELECT * FROM stations WHERE ${stationsInBoxWhere((n) => `$${n}::float8`, box)} ORDER BY station_id`;
+    return (await this.pool.query<StationDbRow>(sql, stationsInBoxParams(box))).rows.map(toStation);
   }
 
   async deleteStation(stationId: string, deletedAt: string): Promise<boolean> {
