@@ -54,13 +54,19 @@ function peakRssKb(pid: number): number {
   return Number(/VmHWM:\s+(\d+)/.exec(readFileSync(`/proc/${pid}/status`, 'utf8'))?.[1] ?? NaN);
 }
 
-export async function startService(name: string, distDir: string, nodeArgs: string[] = []): Promise<Service> {
+/** `env`: settings beside the data directory (by their current or deprecated name; TROPODELAY_DATA_DIR there replaces the fresh one). */
+export async function startService(
+  name: string,
+  distDir: string,
+  nodeArgs: string[] = [],
+  env: Record<string, string> = {},
+): Promise<Service> {
   const server = join(resolve(distDir), 'server.js');
   if (!existsSync(server)) throw new Error(`${server} not found: build it first (npx tsc -p tsconfig.build.json)`);
   const port = await freePort();
   const dataDir = mkdtempSync(join(tmpdir(), 'edge-ab-'));
   const child = spawn(process.execPath, ['--max-semi-space-size=32', ...nodeArgs, server], {
-    env: { ...serverEnvironment(port, { TROPODELAY_DATA_DIR: dataDir }), NODE_OPTIONS: '' },
+    env: { ...serverEnvironment(port, { TROPODELAY_DATA_DIR: dataDir, ...env }), NODE_OPTIONS: '' },
     // BENCH_EDGE_STDOUT=<file>: the service's stdout there (e.g. with --trace-gc among the node flags).
     stdio: ['ignore', process.env.BENCH_EDGE_STDOUT ? openSync(process.env.BENCH_EDGE_STDOUT, 'w') : 'ignore', 'inherit'],
   });

@@ -24,6 +24,18 @@ export interface StationInput {
   description: string | null;
 }
 
+/**
+ * A latitude/longitude box [deg]: latitude within [southDeg, northDeg]; longitude (a stored one above 180
+ * taken as lon − 360) within [westDeg, eastDeg], or, when westDeg > eastDeg (the box crosses 180°), at or
+ * east of westDeg or at or west of eastDeg. Bounds included.
+ */
+export interface StationBox {
+  westDeg: number;
+  southDeg: number;
+  eastDeg: number;
+  northDeg: number;
+}
+
 export interface Station extends StationInput {
   stationId: string;
   /** ISO 8601 UTC. */
@@ -151,8 +163,20 @@ export interface Repository {
   putStation(stationId: string, station: StationInput): Promise<{ station: Station; created: boolean }>;
   /** The station, or null when there is none or it is marked deleted. */
   getStation(stationId: string): Promise<Station | null>;
-  /** The stations not marked deleted. */
+  /**
+   * The stations among `stationIds` that exist and are not marked deleted, by id, in one query whatever the
+   * number of ids (a bound array: no placeholder per id); unknown and deleted ids are absent, an id given twice
+   * is read once. For a request that names its stations: reads only those, where listStations reads the
+   * whole table (issue 14: 4–6 ms of the event loop at 1 000 stations, ~50 ms at 10 000).
+   */
+  getStations(stationIds: readonly string[]): Promise<Map<string, Station>>;
+  /** The stations not marked deleted (the whole table: for answers that list every station). */
   listStations(): Promise<Station[]>;
+  /**
+   * The stations not marked deleted inside `box`, by id: filtered in the database (src/storage/rows.ts
+   * stationsInBoxWhere), so that a network read of a region does not turn the whole table into objects.
+   */
+  listStationsInBox(box: StationBox): Promise<Station[]>;
   /**
    * Soft delete: marks the station deleted at `deletedAt` (ISO 8601 UTC). Its series stay stored
    * but every read and write treats the station as absent. False when there is no such live station.

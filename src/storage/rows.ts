@@ -3,7 +3,7 @@
  * backends. PostgreSQL returns BIGINT as a string; Number() is exact for epochs (< 2^53 ms).
  */
 
-import type { DelayRow, MetRow, Station, SurfaceMetRow, ZenithDelayRow } from './repository.js';
+import type { DelayRow, MetRow, Station, StationBox, SurfaceMetRow, ZenithDelayRow } from './repository.js';
 
 export interface StationDbRow {
   station_id: string;
@@ -28,6 +28,20 @@ export const toStation = (r: StationDbRow): Station => ({
   createdAt: r.created_at,
   updatedAt: r.updated_at,
 });
+
+/**
+ * The condition of Repository.listStationsInBox on the stations table, one text for both dialects
+ * (`p(n)`: the n-th placeholder, 1-based; bind stationsInBoxParams). Longitudes above 180 are taken as
+ * lon − 360, as the network routes' insideBox does; the crossing of 180° decides the form of the test.
+ */
+export function stationsInBoxWhere(p: (n: number) => string, box: StationBox): string {
+  const lon = 'CASE WHEN longitude_deg > 180 THEN longitude_deg - 360 ELSE longitude_deg END';
+  const lonTest = box.westDeg <= box.eastDeg ? `${lon} >= ${p(3)} AND ${lon} <= ${p(4)}` : `(${lon} >= ${p(3)} OR ${lon} <= ${p(4)})`;
+  return `deleted_at IS NULL AND latitude_deg >= ${p(1)} AND latitude_deg <= ${p(2)} AND ${lonTest}`;
+}
+
+/** The values of stationsInBoxWhere's placeholders 1..4. */
+export const stationsInBoxParams = (box: StationBox): number[] => [box.southDeg, box.northDeg, box.westDeg, box.eastDeg];
 
 /** Model sets are stored as canonical JSON (sorted keys, as provenance() returns them). */
 export const MET_SELECT = 'epoch_ms, source, pressure_hpa, temperature_c, relative_humidity_pct, dewpoint_c, vapour_pressure_hpa';

@@ -451,5 +451,44 @@ for (const backend of BACKENDS) {
         .expect(200);
       expect(res.body.stored.map((x: { source: string }) => x.source)).toEqual(s.stations.map(() => 'net-csv'));
     });
+
+    it(
+      'only the named stations matter: 300 other stations in the archive leave the answer as it was; one marked deleted is a 404 as an unknown one',
+      { timeout: 120_000 },
+      async () => {
+        await createStations();
+        const stations = s.stations.map((st) => ({ id: st.name, apriori: APRIORI }));
+        const send = (body: object) => api().post('/v1/network/zwd-estimates?source=net-archive').set('authorization', auth).send(body);
+        const alone = await send(storedBody(stations)).expect(200);
+        const repo = app().repository;
+        for (let i = 0; i < 300; i++)
+          await repo.putStation(`OTHER${i}`, {
+            name: `other ${i} (invented)`,
+            latitudeDeg: -40 + i / 10,
+            longitudeDeg: i,
+            heightM: i,
+            metHeightM: null,
+            description: null,
+          });
+        const among = await send(storedBody(stations)).expect(200);
+        // The same answer; the second time every row is stored already (unchanged).
+        const { stored: storedAlone, ...answerAlone } = alone.body;
+        const { stored: storedAmong, ...answerAmong } = among.body;
+        expect(answerAmong).toEqual(answerAlone);
+        expect(storedAmong.map((x: { unchanged: number }) => x.unchanged)).toEqual(
+          storedAlone.map((x: { inserted: number }) => x.inserted),
+        );
+        // A station marked deleted: absent from the archive, the same 404 and text as an id never created.
+        expect(await repo.deleteStation(s.stations[3]!.name, new Date().toISOString())).toBe(true);
+        const deleted = await send(storedBody(stations)).expect(404);
+        const id = s.stations[3]!.name;
+        expect(deleted.body.errors).toEqual([
+          { field: 'stations.3.id', message: `no station "${id}" in the archive; create it with PUT /v1/stations/${id}` },
+        ]);
+        // The block's tests share the archive (this one runs last, under a source of its own): the station back, the others gone.
+        expect(await repo.restoreStation(id)).toBe(true);
+        for (let i = 0; i < 300; i++) expect(await repo.purgeStation(`OTHER${i}`)).toBe(true);
+      },
+    );
   });
 }

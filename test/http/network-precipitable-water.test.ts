@@ -93,7 +93,7 @@ const TOL_MM = 2e-4;
 
 for (const backend of BACKENDS) {
   describe(`network precipitable water on ${backend.name}`, () => {
-    const { api, auth } = useArchiveApp(backend);
+    const { api, app, auth } = useArchiveApp(backend);
     const get = (query: Record<string, string>) => api().get('/v1/network/precipitable-water').query(query);
 
     it('seeds five invented stations', async () => {
@@ -414,6 +414,18 @@ for (const backend of BACKENDS) {
           if (field) expect(JSON.stringify(res.body.errors ?? [])).toContain(field);
         });
       }
+      it('a station marked deleted is named as unknown (404), as one never created', async () => {
+        await api()
+          .put('/v1/stations/NWZ')
+          .set('authorization', auth)
+          .send({ name: 'Zennor Flats (invented)', latitude_deg: 50, longitude_deg: 1, height_m: 5 })
+          .expect(201);
+        await get({ epoch: iso(T0), stations: 'NWA,NWZ' }).expect(200);
+        expect(await app().repository.deleteStation('NWZ', new Date().toISOString())).toBe(true);
+        const res = await get({ epoch: iso(T0), stations: 'NWA,NWZ,NOPE' }).expect(404);
+        expect(res.body.detail).toBe('no station "NWZ", "NOPE"; GET /v1/stations lists them');
+        expect(res.body.errors).toEqual([{ field: 'query.stations', message: 'unknown station id(s): NWZ, NOPE' }]);
+      });
     });
   });
 }

@@ -12,6 +12,7 @@ import { MIGRATIONS } from '../../src/storage/migrations.js';
 import type { DelayRow, MetRow, Repository, StoredSounding } from '../../src/storage/repository.js';
 import { UnknownStationError } from '../../src/storage/repository.js';
 import { BACKENDS } from '../helpers/storage.js';
+import { insideBox } from '../../src/http/routes/network-precipitable-water.js';
 
 const T0 = Date.UTC(2026, 2, 14, 0, 0, 0);
 const MIN = 60_000;
@@ -108,6 +109,78 @@ for (const backend of BACKENDS) {
       expect(await repo.purgeStation('ALD_2')).toBe(true);
       expect(await repo.purgeStation('ALD_2')).toBe(false);
       expect(await repo.getStation('ALD_2')).toBeNull();
+    });
+
+    it('getStations: the named live stations by id; unknown, deleted and purged ids absent, an id given twice read once', async () => {
+      const { repo } = await fresh();
+      expect((await repo.getStations([])).size).toBe(0);
+      for (const id of ['QMR-1', 'ALD_2', 'BRK3', 'DEL-4']) await repo.putStation(id, { ...STATION, name: `${id} (invented)` });
+      expect(await repo.deleteStation('DEL-4', '2026-03-14T12:00:00.000Z')).toBe(true);
+      const got = await repo.getStations(['BRK3', 'NOPE', 'QMR-1', 'DEL-4', 'QMR-1']);
+      expect([...got.keys()].sort()).toEqual(['BRK3', 'QMR-1']);
+      // The same stations getStation reads, field for field.
+      expect(got.get('QMR-1')).toEqual(await repo.getStation('QMR-1'));
+      expect(got.get('BRK3')).toEqual(await repo.getStation('BRK3'));
+      // A soft-deleted station is absent, as from getStation and listStations; restored, it is back.
+      expect(await repo.restoreStation('DEL-4')).toBe(true);
+      expect([...(await repo.getStations(['DEL-4'])).keys()]).toEqual(['DEL-4']);
+      expect(await repo.purgeStation('ALD_2')).toBe(true);
+      expect((await repo.getStations(['ALD_2'])).size).toBe(0);
+      // Ids are matched exactly (no case folding, no pattern).
+      expect((await repo.getStations(['qmr-1', 'QMR-%', 'QMR_1'])).size).toBe(0);
+    });
+
+    it(
+      'getStations of 40 000 ids in one call, more than SQLite binds as parameters (32 766), 1 200 of them stations',
+      { timeout: 60_000 },
+      async () => {
+        const { repo } = await fresh();
+        const stations = Array.from({ length: 1200 }, (_, i) => `S${String(i).padStart(5, '0')}`);
+        for (const [i, id] of stations.entries()) await repo.putStation(id, { ...STATION, name: `${id} (invented)`, heightM: i });
+        const ids = Array.from({ length: 40_000 }, (_, i) => (i % 33 === 0 && i / 33 < stations.length ? stations[i / 33]! : `U${i}`));
+        expect(ids.filter((id) => id.startsWith('S'))).toHaveLength(1200);
+        const got = await repo.getStations(ids);
+        expect([...got.keys()].sort()).toEqual(stations);
+        stations.forEach((id, i) => expect(got.get(id)!.heightM).toBe(i));
+      },
+    );
+
+    it("listStationsInBox: the stations the network routes' insideBox keeps (the filter before, in JS), bounds and 180° included", async () => {
+      const { repo } = await fresh();
+      const lats = [-90, -45.5, 0, 10, 10.000001, 45, 89.9, 90];
+      const lons = [-180, -179.5, -10, 0, 10, 179.9, 180, 190, 350, 359.9];
+      const all = lats.flatMap((lat, i) => lons.map((lon, j) => ({ id: `G${i}_${j}`, lat, lon })));
+      for (const g of all) await repo.putStation(g.id, { ...STATION, name: `${g.id} (invented)`, latitudeDeg: g.lat, longitudeDeg: g.lon });
+      await repo.deleteStation('G3_4', '2026-03-14T12:00:00.000Z'); // (10, 10): inside most boxes, but deleted
+      const boxes = [
+        { westDeg: -10, southDeg: 0, eastDeg: 10, northDeg: 10 },
+        { westDeg: 170, southDeg: -50, eastDeg: -170, northDeg: 50 }, // across 180°
+        { westDeg: 179.9, southDeg: -90, eastDeg: -180, northDeg: 90 },
+        { westDeg: -180, southDeg: -90, eastDeg: 180, northDeg: 90 },
+        { westDeg: 0, southDeg: 10, eastDeg: 0, northDeg: 10 },
+        { westDeg: 5, southDeg: 20, eastDeg: 6, northDeg: 30 }, // empty
+      ];
+      const live = (await repo.listStations()).filter((st) => st.stationId !== 'G3_4');
+      expect(live).toHaveLength(all.length - 1);
+      for (const box of boxes) {
+        const expected = live.filter((st) => insideBox(st, box)).map((st) => st.stationId);
+        const got = await repo.listStationsInBox(box);
+        expect(got.map((st) => st.stationId)).toEqual(expected);
+        expect(got).toEqual(live.filter((st) => insideBox(st, box)));
+      }
+      // By hand: the first box holds latitudes 0 and 10 at longitudes −10, 0, 10, 350 (= −10) and 359.9 (= −0.1), not the deleted (10, 10).
+      expect((await repo.listStationsInBox(boxes[0]!)).map((st) => st.stationId)).toEqual([
+        'G2_2',
+        'G2_3',
+        'G2_4',
+        'G2_8',
+        'G2_9',
+        'G3_2',
+        'G3_3',
+        'G3_8',
+        'G3_9',
+      ]);
+      expect((await repo.listStationsInBox(boxes[5]!)).length).toBe(0);
     });
 
     it('stores met rows keyed by (station, epoch, source): a re-send is idempotent, a change is an update', async () => {

@@ -8,7 +8,6 @@
  */
 
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import type { Site } from '../../domain/site.js';
 import { NETWORK_DAY_MEMORY_PER_STATION_OBSERVATION } from '../../limits.js';
 import { CallerError } from '../../services/caller-error.js';
 import { ResidualStore } from '../../storage/campaigns/residual-store.js';
@@ -23,7 +22,7 @@ import {
 import { daySchema } from '../schemas/residuals.js';
 import { strictObject } from '../schemas/common.js';
 import type { StationRouteOptions } from './station-common.js';
-import { networkStoredMet, storeNetwork } from './network-estimates.js';
+import { networkStoredMet, sitesOf, storeNetwork } from './network-estimates.js';
 import { asBuffer } from '../raw-body.js';
 
 export interface NetworkDaysRouteOptions extends StationRouteOptions {
@@ -67,10 +66,9 @@ const networkDaysRoute: FastifyPluginAsyncZod<NetworkDaysRouteOptions> = async (
       const { day } = request.params;
       const body = request.body;
       const source = request.query.source ?? DEFAULT_NETWORK_SOURCE;
-      const archive = new Map((await app.repository.listStations()).map((s) => [s.stationId, s]));
-      const archiveSites: Record<string, Site> = {};
-      for (const s of archive.values())
-        archiveSites[s.stationId] = { latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, heightM: s.heightM };
+      // The named stations only (one query), not the whole archive.
+      const archive = await app.repository.getStations(body.stations.map((s) => s.id));
+      const archiveSites = sitesOf(archive);
       const store = residuals();
       const days = [];
       for (const [i, s] of body.stations.entries()) {
@@ -100,7 +98,6 @@ const networkDaysRoute: FastifyPluginAsyncZod<NetworkDaysRouteOptions> = async (
           range: { firstMs: startMs, lastMs: startMs + DAY_MS - 1 },
           stations: body.stations.map((s) => s.id),
           metStations,
-          observations,
         },
         options.maxReadRangeDays,
       );

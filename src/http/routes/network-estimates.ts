@@ -14,6 +14,8 @@ import type { MetColumns } from '../../services/station-met.js';
 import type { DelayColumns } from '../../services/zwd-estimation.js';
 import type { Repository, Station } from '../../storage/repository.js';
 import type { MetUsed, NetworkScanOutput } from '../tasks/network-request.js';
+import { preparedNetworkBuffers } from '../tasks/prepared-request.js';
+import { taskMemoryBytes } from '../plugins/compute-pool.js';
 import { asBuffer, bodyInWorkerValidator, keepJsonBodiesAsBytes, rawBodyOf, transferOf } from '../raw-body.js';
 
 import { problemSchema } from '../schemas/common.js';
@@ -115,21 +117,35 @@ const networkEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = async 
       const source = request.query.source ?? DEFAULT_NETWORK_SOURCE;
       const query = request.query as Record<string, unknown>;
       const sent = rawBodyOf(request);
+      // The body's share of the pool's memory budget, for the estimation task too when the body goes on parsed.
+      const memoryBytes = taskMemoryBytes(sent);
       const scanned = await app.compute.run('network-request-scan', { ...sent, query }, transferOf(sent));
-      // JSON and Arrow bytes were moved to the scan and back; a text body is still the request's.
-      const raw = { body: scanned.body ?? sent.body, format: sent.format };
-      const archive = new Map((await app.repository.listStations()).map((s) => [s.stationId, s]));
-      const archiveSites: Record<string, Site> = {};
-      for (const s of archive.values())
-        archiveSites[s.stationId] = { latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, heightM: s.heightM };
+      // A body that passed the checks comes back parsed (typed columns, moved on to the estimation); otherwise
+      // JSON and Arrow bytes were moved to the scan and back, and a text body is still the request's.
+      const { prepared } = scanned;
+      const raw = prepared ? { body: '', format: sent.format } : { body: scanned.body ?? sent.body, format: sent.format };
+      // The request's stations only (one query), not the whole archive; a station not found is the task's 404.
+      const archive = await app.repository.getStations(scanned.stations);
+      const archiveSites = sitesOf(archive);
       const storedMet = await networkStoredMet(app.repository, archive, scanned, options.maxReadRangeDays);
-      const output = await app.compute.run('network-estimate-request', { ...raw, query, archiveSites, storedMet }, transferOf(raw));
+      const output = await app.compute.run(
+        'network-estimate-request',
+        { ...raw, prepared, query, archiveSites, storedMet, ...(prepared ? { memoryBytes } : {}) },
+        prepared ? preparedNetworkBuffers(prepared) : transferOf(raw),
+      );
       const stored = await storeNetwork(app.repository, source, output.delays!, output.modelFingerprint!, output.models!, output.metUsed!);
       const tail = `,"stored":${JSON.stringify(stored)}}`;
       return reply.type('application/json').send(Buffer.concat([asBuffer(output.json), Buffer.from(tail)]) as never);
     },
   );
 };
+
+/** The archive stations' sites by id, as the network tasks take them (`archiveSites`). */
+export function sitesOf(archive: ReadonlyMap<string, Station>): Record<string, Site> {
+  const sites: Record<string, Site> = {};
+  for (const s of archive.values()) sites[s.stationId] = { latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, heightM: s.heightM };
+  return sites;
+}
 
 /**
  * The stored met of the request's archive stations that have no met records in the request, read as the
@@ -139,8 +155,8 @@ const networkEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = async 
  */
 export async function networkStoredMet(
   repository: Repository,
-  archive: Map<string, Station>,
-  scan: NetworkScanOutput,
+  archive: ReadonlyMap<string, Station>,
+  scan: Pick<NetworkScanOutput, 'range' | 'stations' | 'metStations'>,
   maxReadRangeDays: number,
 ): Promise<Record<string, MetColumns>> {
   const out: Record<string, MetColumns> = {};

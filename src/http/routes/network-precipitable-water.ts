@@ -33,26 +33,26 @@ export function insideBox(s: Station, box: BoundingBox): boolean {
 }
 
 /**
- * The stations of a network read: all live ones, or those named (404 naming the unknown ids), then
- * those inside the box. Order: by id, or as named.
+ * The stations of a network read: all live ones, or those named (404 naming the unknown ids; only they
+ * are read, Repository.getStations), then those inside the box (Repository.listStationsInBox without
+ * ids). Order: by id, or as named.
  */
 export async function selectStations(repository: Repository, ids?: readonly string[], box?: BoundingBox): Promise<Station[]> {
-  let stations = await repository.listStations();
-  if (ids !== undefined) {
-    const byId = new Map(stations.map((s) => [s.stationId, s]));
-    const unknown = ids.filter((id) => !byId.has(id));
-    if (unknown.length > 0) {
-      throw new HttpProblem(
-        404,
-        `no station ${unknown
-          .slice(0, 10)
-          .map((id) => `"${id}"`)
-          .join(', ')}${unknown.length > 10 ? ` and ${unknown.length - 10} more` : ''}; GET /v1/stations lists them`,
-        [{ field: 'query.stations', message: `unknown station id(s): ${unknown.slice(0, 10).join(', ')}` }],
-      );
-    }
-    stations = ids.map((id) => byId.get(id)!);
+  // Without ids: the box is tested in the database (the same test as insideBox), else every station.
+  if (ids === undefined) return box === undefined ? repository.listStations() : repository.listStationsInBox(box);
+  const byId = await repository.getStations(ids);
+  const unknown = ids.filter((id) => !byId.has(id));
+  if (unknown.length > 0) {
+    throw new HttpProblem(
+      404,
+      `no station ${unknown
+        .slice(0, 10)
+        .map((id) => `"${id}"`)
+        .join(', ')}${unknown.length > 10 ? ` and ${unknown.length - 10} more` : ''}; GET /v1/stations lists them`,
+      [{ field: 'query.stations', message: `unknown station id(s): ${unknown.slice(0, 10).join(', ')}` }],
+    );
   }
+  const stations = ids.map((id) => byId.get(id)!);
   return box === undefined ? stations : stations.filter((s) => insideBox(s, box));
 }
 

@@ -14,7 +14,7 @@ import type { Site } from '../../domain/site.js';
 import type { NetworkObservationColumns } from '../../estimation/network/types.js';
 import { FormatError } from '../../formats/format-error.js';
 import { decodeResidualDay } from '../../formats/residual-day-form.js';
-import { readJsonColumnsBody } from '../../formats/json-columns-reader.js';
+import { readJsonColumnsBody, type JsonColumnsBody } from '../../formats/json-columns-reader.js';
 import { MAX_OBSERVATIONS } from '../../limits.js';
 import { CallerError } from '../../services/caller-error.js';
 import {
@@ -34,7 +34,9 @@ import {
   toNetworkRequest,
   type NetworkStationBody,
 } from '../adapters/network-estimation.js';
-import { observationsFromJsonColumns } from '../adapters/zwd-estimation.js';
+import { domainNumbersOfRead, observationsFromJsonColumns } from '../adapters/zwd-estimation.js';
+import { earliest, latest } from '../../services/answer-size.js';
+import type { NetworkRequestRest, PreparedNetworkRequest } from './prepared-request.js';
 import { readArrowRequest } from '../answer-shape.js';
 import { columnSpecsOf, jsonColumnSpecsOf, readColumns } from '../columns.js';
 import { detailOf, issuesToFieldErrors } from '../field-errors.js';
@@ -67,6 +69,13 @@ export interface NetworkRequestTaskInput {
    * request, by station id; read by the route after scanNetworkRequest.
    */
   storedMet?: Record<string, MetColumns>;
+  /**
+   * The storing route: the body already parsed and checked by its scan (scanNetworkRequest); then `body`
+   * is not read again.
+   */
+  prepared?: PreparedNetworkRequest | undefined;
+  /** With `prepared`: the task's memory in the pool's budget [bytes] (that of the body it was parsed from). */
+  memoryBytes?: number | undefined;
 }
 
 export interface NetworkRequestTaskOutput {
@@ -130,13 +139,102 @@ const OBSERVATION_JSON_COLUMNS = jsonColumnSpecsOf(OBSERVATION_COLUMNS);
 
 const isColumnObject = (v: unknown) => v !== null && typeof v === 'object' && !Array.isArray(v);
 
-type ValidatedBody = Pick<NetworkEstimatesRequest, 'met' | 'options'> & {
-  stations: NetworkStoredEstimatesRequest['stations'] | NetworkEstimatesRequest['stations'];
-};
+type ValidatedBody = NetworkRequestRest;
 
 type Validated =
   | { ok: true; body: ValidatedBody; observations: NetworkObservationColumns; columnar: boolean }
   | { ok: false; outcome: TaskOutcome<never> };
+
+/** validatedInput's answer: the observations of a JSON body read in one pass still as the reader's columns. */
+type ValidatedInput =
+  | { ok: true; body: ValidatedBody; observations: NetworkObservationColumns | JsonColumnsBody; columnar: boolean }
+  | { ok: false; outcome: TaskOutcome<never> };
+
+const isReadColumns = (o: NetworkObservationColumns | JsonColumnsBody): o is JsonColumnsBody => 'rows' in o;
+
+/** Columns read in one pass → the network's domain columns (the station column as names). The read must not be used after. */
+function networkObservationsOfRead(read: JsonColumnsBody): NetworkObservationColumns {
+  const stations = read.texts.station!;
+  const station = new Array<string>(read.rows);
+  for (let i = 0; i < read.rows; i++) station[i] = stations.distinct[stations.index[i]!]!;
+  return { station, ...observationsFromJsonColumns(read) };
+}
+
+/** The distinct names of a text column and each row's index into them. */
+function interned(column: readonly string[]): { index: Uint32Array; distinct: string[] } {
+  const n = column.length;
+  const index = new Uint32Array(n);
+  const distinct: string[] = [];
+  const seen = new Map<string, number>();
+  for (let i = 0; i < n; i++) {
+    const name = column[i]!;
+    let k = seen.get(name);
+    if (k === undefined) seen.set(name, (k = distinct.push(name) - 1));
+    index[i] = k;
+  }
+  return { index, distinct };
+}
+
+/**
+ * A checked body as a prepared request (the scan's hand-over): columns read in one pass taken over as they
+ * are (the reader's own typed arrays), domain columns (objects, Arrow, CSV) copied into typed arrays once.
+ */
+function preparedNetworkOf(v: Extract<ValidatedInput, { ok: true }>): PreparedNetworkRequest {
+  const o = v.observations;
+  if (isReadColumns(o)) {
+    const stations = o.texts.station!;
+    const satellites = o.texts.satellite!;
+    return {
+      body: v.body,
+      columnar: v.columnar,
+      stationIndex: stations.index,
+      stations: stations.distinct,
+      satelliteIndex: satellites.index,
+      satellites: satellites.distinct,
+      ...domainNumbersOfRead(o),
+    };
+  }
+  const station = interned(o.station);
+  const satellite = interned(o.satellite);
+  const sigma = o.sigmaM;
+  return {
+    body: v.body,
+    columnar: v.columnar,
+    stationIndex: station.index,
+    stations: station.distinct,
+    epochMs: Float64Array.from(o.epochMs),
+    satelliteIndex: satellite.index,
+    satellites: satellite.distinct,
+    elevationRad: Float64Array.from(o.elevationRad),
+    azimuthRad: Float64Array.from(o.azimuthRad),
+    residualM: Float64Array.from(o.residualM),
+    sigmaM: sigma && Float64Array.from(sigma, (x) => x ?? NaN),
+  };
+}
+
+/**
+ * A prepared request's observations as the network's domain columns: the values validatedInput gives for the
+ * same body (names per row, arrays of numbers, σ null where a row has none).
+ */
+function observationsOfPrepared(p: PreparedNetworkRequest): NetworkObservationColumns {
+  const n = p.epochMs.length;
+  const station = new Array<string>(n);
+  const satellite = new Array<string>(n);
+  for (let i = 0; i < n; i++) {
+    station[i] = p.stations[p.stationIndex[i]!]!;
+    satellite[i] = p.satellites[p.satelliteIndex[i]!]!;
+  }
+  const sigma = p.sigmaM;
+  return {
+    station,
+    epochMs: Array.from(p.epochMs),
+    satellite,
+    elevationRad: Array.from(p.elevationRad),
+    azimuthRad: Array.from(p.azimuthRad),
+    residualM: Array.from(p.residualM),
+    sigmaM: sigma && Array.from(sigma, (x) => (Number.isNaN(x) ? null : x)),
+  };
+}
 
 /**
  * The body checked against the route's schema. Observations as objects go through zod with the rest;
@@ -171,7 +269,7 @@ function validatedBody(raw: unknown, storing: boolean): Validated {
  * bytes (src/formats/json-columns-reader.ts, as the single-station routes read it; the rest of it through
  * the schema as before), anything else parsed and checked by validatedBody, with its errors.
  */
-function validatedInput(input: NetworkRequestTaskInput, storing: boolean): Validated {
+function validatedInput(input: NetworkRequestTaskInput, storing: boolean): ValidatedInput {
   const read =
     input.format === 'json' && typeof input.body !== 'string'
       ? readJsonColumnsBody(input.body, 'observations', OBSERVATION_JSON_COLUMNS, MAX_OBSERVATIONS)
@@ -180,10 +278,16 @@ function validatedInput(input: NetworkRequestTaskInput, storing: boolean): Valid
   const parsed = (storing ? networkStoredColumnarRest : networkColumnarRest).safeParse(read.rest);
   if (!parsed.success) return { ok: false, outcome: fail(400, issuesToFieldErrors(parsed.error.issues)) };
   const { observations: _columns, ...body } = parsed.data as NetworkEstimatesRequest;
-  const stations = read.texts.station!;
-  const station = new Array<string>(read.rows);
-  for (let i = 0; i < read.rows; i++) station[i] = stations.distinct[stations.index[i]!]!;
-  return { ok: true, body: body as ValidatedBody, observations: { station, ...observationsFromJsonColumns(read) }, columnar: true };
+  return { ok: true, body: body as ValidatedBody, observations: read, columnar: true };
+}
+
+/** The body checked, its observations in domain columns: from the scan's prepared request when there is one. */
+function validatedTaskInput(input: NetworkRequestTaskInput, storing: boolean): Validated {
+  const p = input.prepared;
+  if (p) return { ok: true, body: p.body, observations: observationsOfPrepared(p), columnar: p.columnar };
+  const v = validatedInput(input, storing);
+  if (!v.ok || !isReadColumns(v.observations)) return v as Validated;
+  return { ...v, observations: networkObservationsOfRead(v.observations) };
 }
 
 /** An estimator's `observations.<row>.<field>` as the columnar form names it, `observations.<field>.<row>`. */
@@ -203,7 +307,7 @@ export async function handleNetworkRequest(input: NetworkRequestTaskInput): Prom
   let columnar = false;
   try {
     const archive = input.archiveSites;
-    const validated = validatedInput(input, archive !== undefined);
+    const validated = validatedTaskInput(input, archive !== undefined);
     if (!validated.ok) return validated.outcome;
     const { body } = validated;
     columnar = validated.columnar;
@@ -262,18 +366,44 @@ export interface NetworkScanOutput {
   metStations: string[];
   /** Observations counted by the scan (the compute-size metric). */
   observations: number;
-  /** The body bytes, moved back for the estimation task (absent for a text body). */
+  /** The body bytes, moved back for the estimation task (absent for a text body, or when `prepared`). */
   body?: Uint8Array;
+  /** The body parsed and checked, for the estimation task (its typed columns moved, not copied); absent when the check failed. */
+  prepared?: PreparedNetworkRequest;
 }
 
 const stringsOf = (values: unknown): string[] => (Array.isArray(values) ? values.filter((v): v is string => typeof v === 'string') : []);
 
 /**
  * The first pass of the storing network route: the observations' epoch range, the request's stations and
- * which of them have met in the request, so that the route reads the stored met of the others only.
- * Errors are left to the estimation task (an unreadable body scans as nothing).
+ * which of them have met in the request, so that the route reads only those stations and the stored met of
+ * the others only. A body that passes the estimation's own checks is parsed once: the scan answers from the
+ * checked body and hands it on (`prepared`), and the estimation task does not read the bytes again. Anything
+ * else is scanned roughly and left to the estimation task, which reads the bytes and says why (an unreadable
+ * body scans as nothing).
  */
 export async function scanNetworkRequest(input: NetworkRequestTaskInput): Promise<TaskOutcome<NetworkScanOutput>> {
+  try {
+    const validated = validatedInput(input, true);
+    if (validated.ok) {
+      const prepared = preparedNetworkOf(validated);
+      const n = prepared.epochMs.length;
+      const metStations = [...new Set((validated.body.met ?? []).map((r) => r.station))];
+      return {
+        ok: true,
+        output: {
+          range: n > 0 ? { firstMs: earliest(prepared.epochMs), lastMs: latest(prepared.epochMs) } : null,
+          stations: validated.body.stations.map((s) => s.id),
+          metStations,
+          observations: n,
+          // The typed columns own their buffers: the worker moves them to the event loop (compute-worker.ts).
+          prepared,
+        },
+      };
+    }
+  } catch {
+    // not readable: the estimation task reads it again and answers the error
+  }
   const back = typeof input.body === 'string' ? {} : { body: input.body };
   let raw: { stations?: unknown; observations?: unknown; met?: unknown };
   try {

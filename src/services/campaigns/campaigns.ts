@@ -332,7 +332,7 @@ export class CampaignService {
   }
 
   private async checkStations(stations: readonly string[]): Promise<void> {
-    const known = new Set((await this.repository.listStations()).map((s) => s.stationId));
+    const known = await this.repository.getStations(stations);
     const errors = stations
       .map((id, i) => ({ id, i }))
       .filter(({ id }) => !known.has(id))

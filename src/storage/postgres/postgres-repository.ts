@@ -37,6 +37,7 @@ import type {
   Repository,
   Station,
   StationInput,
+  StationBox,
   SoundingRow,
   StationDelayRows,
   StationRange,
@@ -84,6 +85,8 @@ import {
   metFromArray,
   surfaceMetFromArray,
   toStation,
+  stationsInBoxParams,
+  stationsInBoxWhere,
   zenithDelayFromArray,
   type MetArrayRow,
   type SeriesTable,
@@ -322,8 +325,24 @@ export class PostgresRepository implements Repository {
     return result.rows[0] ? toStation(result.rows[0]) : null;
   }
 
+  async getStations(stationIds: readonly string[]): Promise<Map<string, Station>> {
+    const out = new Map<string, Station>();
+    if (stationIds.length === 0) return out;
+    // The ids as one text[] parameter: one round trip for any number of ids, each a primary-key lookup.
+    const result = await this.pool.query<StationDbRow>('SELECT * FROM stations WHERE station_id = ANY($1::text[]) AND deleted_at IS NULL', [
+      [...new Set(stationIds)],
+    ]);
+    for (const row of result.rows) out.set(row.station_id, toStation(row));
+    return out;
+  }
+
   async listStations(): Promise<Station[]> {
     return (await this.pool.query<StationDbRow>('SELECT * FROM stations WHERE deleted_at IS NULL ORDER BY station_id')).rows.map(toStation);
+  }
+
+  async listStationsInBox(box: StationBox): Promise<Station[]> {
+    const sql = `SELECT * FROM stations WHERE ${stationsInBoxWhere((n) => `$${n}::float8`, box)} ORDER BY station_id`;
+    return (await this.pool.query<StationDbRow>(sql, stationsInBoxParams(box))).rows.map(toStation);
   }
 
   async deleteStation(stationId: string, deletedAt: string): Promise<boolean> {

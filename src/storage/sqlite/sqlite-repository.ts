@@ -41,6 +41,7 @@ import type {
   Repository,
   Station,
   StationInput,
+  StationBox,
   SoundingRow,
   StationDelayRows,
   StationRange,
@@ -88,6 +89,8 @@ import {
   metFromArray,
   surfaceMetFromArray,
   toStation,
+  stationsInBoxParams,
+  stationsInBoxWhere,
   zenithDelayFromArray,
   type MetArrayRow,
   type SeriesTable,
@@ -251,6 +254,15 @@ export class SqliteRepository implements Repository {
       getStation: this.db.prepare('SELECT * FROM stations WHERE station_id = ? AND deleted_at IS NULL'),
       anyStation: this.db.prepare('SELECT station_id, deleted_at FROM stations WHERE station_id = ?'),
       listStations: this.db.prepare('SELECT * FROM stations WHERE deleted_at IS NULL ORDER BY station_id'),
+      // The ids as one JSON array (json_each): one statement for any number of ids, each a primary-key lookup.
+      getStations: this.db.prepare('SELECT * FROM stations WHERE station_id IN (SELECT value FROM json_each(?)) AND deleted_at IS NULL'),
+      // The two forms of the box test (within [west, east], or across 180°), prepared once each.
+      stationsInBox: this.db.prepare(
+        `SELECT * FROM stations WHERE ${stationsInBoxWhere((n) => `?${n}`, { westDeg: 0, southDeg: 0, eastDeg: 1, northDeg: 0 })} ORDER BY station_id`,
+      ),
+      stationsInBoxCrossing: this.db.prepare(
+        `SELECT * FROM stations WHERE ${stationsInBoxWhere((n) => `?${n}`, { westDeg: 1, southDeg: 0, eastDeg: 0, northDeg: 0 })} ORDER BY station_id`,
+      ),
       insertStation: this.db.prepare(
         `INSERT INTO stations (station_id, name, latitude_deg, longitude_deg, height_m, met_height_m, description, created_at, updated_at)
          VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)`,
@@ -391,8 +403,22 @@ export class SqliteRepository implements Repository {
     return row ? toStation(row) : null;
   }
 
+  async getStations(stationIds: readonly string[]): Promise<Map<string, Station>> {
+    const out = new Map<string, Station>();
+    if (stationIds.length === 0) return out;
+    for (const row of this.stmt.getStations.all(JSON.stringify(stationIds)) as StationDbRow[]) out.set(row.station_id, toStation(row));
+    return out;
+  }
+
   async listStations(): Promise<Station[]> {
     return (this.stmt.listStations.all() as StationDbRow[]).map(toStation);
+  }
+
+  async listStationsInBox(box: StationBox): Promise<Station[]> {
+    const statement = box.westDeg <= box.eastDeg ? this.stmt.stationsInBox : this.stmt.stationsInBoxCrossing;
+    // Numbered placeholders (?1 …) take their values by number.
+    const params = Object.fromEntries(stationsInBoxParams(box).map((v, i) => [i + 1, v]));
+    return (statement.all(params) as StationDbRow[]).map(toStation);
   }
 
   async deleteStation(stationId: string, deletedAt: string): Promise<boolean> {
