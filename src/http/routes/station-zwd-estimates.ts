@@ -30,6 +30,7 @@ import {
   transferOf,
 } from '../raw-body.js';
 import { answerShapeOf } from '../answer-shape.js';
+import { taskMemoryBytes } from '../plugins/compute-pool.js';
 import { preparedBuffers } from '../tasks/prepared-request.js';
 import { problemSchema } from '../schemas/common.js';
 import { tableAnswer } from '../table-answer.js';
@@ -141,6 +142,8 @@ const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = asy
       const sent = rawBodyOf(request);
       const query = request.query as Record<string, unknown>;
       const queryKeys = sentQueryKeys(request.raw.url);
+      // The body's share of the pool's memory budget, for the estimation task too when the body goes on parsed.
+      const memoryBytes = taskMemoryBytes(sent);
       const scanned = await app.compute.run('zwd-request-scan', { ...sent, query, queryKeys }, transferOf(sent));
       // A body that passed the checks comes back parsed (typed columns, moved on to the estimation); otherwise
       // JSON bytes were moved to the scan and back, and a text body is still the request's.
@@ -150,7 +153,7 @@ const stationZwdEstimatesRoute: FastifyPluginAsyncZod<StationRouteOptions> = asy
       const site = { latitudeDeg: station.latitudeDeg, longitudeDeg: station.longitudeDeg, heightM: station.heightM };
       const output = await app.compute.run(
         'zwd-estimate-request',
-        { ...raw, prepared, query, queryKeys, station: { site, storedMet }, answer },
+        { ...raw, prepared, query, queryKeys, station: { site, storedMet }, answer, ...(prepared ? { memoryBytes } : {}) },
         prepared ? preparedBuffers(prepared) : transferOf(raw),
       );
       const stored = await storeDelays(app.repository, stationId, source, output);

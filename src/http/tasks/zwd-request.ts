@@ -70,6 +70,12 @@ export interface ZwdRequestTaskInput {
    * `body` is not read again.
    */
   prepared?: PreparedRequest | undefined;
+  /**
+   * The body's share of the pool's memory budget [bytes] when `body` is empty because `prepared` carries it
+   * (taskMemoryBytes of the body as received, src/http/plugins/compute-pool.ts): the prepared columns take
+   * what the body took, and without it the task would count as 0 bytes.
+   */
+  memoryBytes?: number | undefined;
   /** A station's estimation: the site is the station's (then `site` in the body is refused). */
   station?: {
     site: Site;
