@@ -16,11 +16,14 @@
  *   requests back to back (`blockSize` of DAYS: 0.5–0.7 s of CPU a block quiet, a tick is ≤ 2 % of it) and
  *   divided by the block's requests; the four request forms take turns block by block, 6 blocks each, so
  *   that a change of load falls on all of them.
- * Ranges over rounds or blocks (min–max), after warm-up.
+ * Ranges over rounds or blocks (min–max), after warm-up. The service starts as `npm start` starts it, its
+ * workers warmed before it is ready (TROPODELAY_WARM_UP_ESTIMATIONS, its default); `BENCH_WARM_UP=0` starts it
+ * cold, as the figures before the warm-up were taken.
  */
 
 import { existsSync, readFileSync } from 'node:fs';
 import { tableFromArrays, tableToIPC, type Table } from 'apache-arrow';
+import { DEFAULT_WARM_UP_ESTIMATIONS } from '../src/config.js';
 import { DEG } from '../src/domain/constants.js';
 import { MAPPING_MODEL_KEYS } from '../src/domain/mapping/registry.js';
 import { startServerProcess, type ServerProcess } from '../test/helpers/server-process.js';
@@ -286,7 +289,9 @@ async function estimationLines(server: ServerProcess): Promise<string[]> {
 
 export default async function bench(): Promise<string[]> {
   if (FROM_DIST && !existsSync('dist/server.js')) throw new Error('BENCH_FROM_DIST=1: build dist/ first (npx tsc -p tsconfig.build.json)');
-  const server = await startServerProcess({}, true, FROM_DIST);
+  // The test servers' helper starts cold unless told otherwise: here the service's own default, or BENCH_WARM_UP.
+  const warmUp = process.env.BENCH_WARM_UP ?? String(DEFAULT_WARM_UP_ESTIMATIONS);
+  const server = await startServerProcess({ TROPODELAY_WARM_UP_ESTIMATIONS: warmUp }, true, FROM_DIST);
   try {
     // BENCH_PART=slant or estimation runs one part only.
     const part = process.env.BENCH_PART;

@@ -10,7 +10,7 @@
  *   CPU; PostgreSQL's are the driver's work on the event loop, the server's not counted).
  * - scan (in-process, two trees): the storing network route's two tasks called as the pool calls them,
  *   scanNetworkRequest then handleNetworkRequest with the archive's sites, from BENCH_NETWORK_OLD and
- *   BENCH_NETWORK_NEW (roots of built trees, their dist/; default /tmp/ref-main and this tree) alternately; CPU ms of
+ *   BENCH_NETWORK_NEW (roots of built trees, their dist/; both default to this tree: the spread of two equal trees) alternately; CPU ms of
  *   the scan and of the estimation task of 10 stations × 1 h of 30-s data as JSON columns and as JSON objects.
  * - http (two services by turns, as bench/edge-ab.bench.ts): each tree's dist/server.js (one worker) on an archive of
  *   its own, POST /v1/network/zwd-estimates of 4 stations × 15 min (columns JSON: a small request, where what the
@@ -330,7 +330,7 @@ export default async function networkArchiveBench(): Promise<string[]> {
   const pgUp = await pgAvailable(PG_URL);
   const backends = (['sqlite', 'postgres'] as const).filter((b) => (wanted === 'both' || wanted === b) && (b === 'sqlite' || pgUp));
   const roots = [
-    { name: 'old', root: process.env.BENCH_NETWORK_OLD ?? '/tmp/ref-main' },
+    { name: 'old', root: process.env.BENCH_NETWORK_OLD ?? '.' },
     { name: 'new', root: process.env.BENCH_NETWORK_NEW ?? '.' },
   ];
   const lines: string[] = [];
