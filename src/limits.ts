@@ -107,7 +107,7 @@ export const MAX_NETWORK_STATION_OBSERVATIONS = 5_000_000;
  * Stations × observations of one network estimation from residual deposits
  * (POST /v1/network/days/{day}/zwd-estimates; no body to carry them), by default: a 50-station day of
  * 30-s data with about 18 satellites in view (2.6 M observations, 130 M) fits. Through HTTP such a day
- * costs about 54 s of CPU time and a peak RSS of 1.9 GB (README, Benchmarks, network-day);
+ * costs about 54 s of CPU time and a peak RSS of 1.9 GB (docs/benchmark-history.md, network-day);
  * TROPODELAY_NETWORK_DAY_MAX_STATION_OBSERVATIONS lowers it for replicas with less memory.
  */
 export const MAX_NETWORK_DAY_STATION_OBSERVATIONS = 150_000_000;
