@@ -172,12 +172,19 @@ export async function warmSlant(s: Service): Promise<void> {
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 const fmt = (xs: number[]) => `${median(xs).toFixed(2)} (${Math.min(...xs).toFixed(2)}–${Math.max(...xs).toFixed(2)})`;
 
+/**
+ * When one of the builds compared is this tree's dist/, compiles it from the current sources first (as npm start
+ * does, scripts/build-if-stale.mjs), so that "new" is the code checked out.
+ */
+export function buildDistIfNamed(...dirs: string[]): void {
+  if (dirs.includes('dist') && spawnSync(process.execPath, ['scripts/build-if-stale.mjs'], { stdio: 'inherit' }).status !== 0)
+    throw new Error('the build of dist/ failed');
+}
+
 export default async function edgeAb(): Promise<string[]> {
   const oldDir = process.env.BENCH_EDGE_OLD ?? 'dist';
   const newDir = process.env.BENCH_EDGE_NEW ?? 'dist';
-  // This tree's dist/ compiled from the current sources (as npm start does), so that "new" is the code checked out.
-  if ([oldDir, newDir].includes('dist') && spawnSync(process.execPath, ['scripts/build-if-stale.mjs'], { stdio: 'inherit' }).status !== 0)
-    throw new Error('the build of dist/ failed');
+  buildDistIfNamed(oldDir, newDir);
   const blocks = Number(process.env.BENCH_EDGE_BLOCKS ?? 10);
   // A replica that has run for a while costs less than a fresh one: code run once a request (fastify, node's
   // HTTP, apache-arrow's reader and writer, zod) is optimised by V8 only after hundreds to thousands of requests

@@ -14,12 +14,12 @@
  * own default only); the old build runs with its defaults.
  */
 
-import { spawn, spawnSync } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { freePort, serverEnvironment } from '../test/helpers/server-process.js';
-import { gpsDay, send } from './edge-ab.bench.js';
+import { buildDistIfNamed, gpsDay, send } from './edge-ab.bench.js';
 
 const REQUESTS = 40;
 
@@ -96,8 +96,7 @@ const range = (xs: number[], digits = 0) => `${Math.min(...xs).toFixed(digits)}â
 export default async function freshStart(): Promise<string[]> {
   const oldDir = process.env.BENCH_FRESH_OLD ?? 'dist';
   const newDir = process.env.BENCH_FRESH_NEW ?? 'dist';
-  if ([oldDir, newDir].includes('dist') && spawnSync(process.execPath, ['scripts/build-if-stale.mjs'], { stdio: 'inherit' }).status !== 0)
-    throw new Error('the build of dist/ failed');
+  buildDistIfNamed(oldDir, newDir);
   const rounds = Number(process.env.BENCH_FRESH_ROUNDS ?? 4);
   const counts = (process.env.BENCH_FRESH_WARM_UP ?? '').split(',').filter(Boolean);
   const variants: Variant[] = [

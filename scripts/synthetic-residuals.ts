@@ -23,6 +23,7 @@
  */
 
 import { type CliSpec, epochOption, numberOption, runCli, UsageError, writeOutput } from './cli.js';
+import { mulberry32 } from '../src/seeded-random.js';
 
 export const ORBIT_RADIUS_M = 26_560_000;
 export const ORBIT_INCLINATION_RAD = (55 * Math.PI) / 180;
@@ -33,17 +34,8 @@ const WGS84_A = 6_378_137;
 const WGS84_F = 1 / 298.257223563;
 const DEG = Math.PI / 180;
 
-/** Mulberry32 (T. Ettinger, public domain; common practice): a small seeded 32-bit generator. */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Mulberry32, the project's one seeded generator (src/seeded-random.ts). */
+export { mulberry32 };
 
 /** Standard normal deviates by the Box–Muller transform (Box & Muller 1958). */
 export function gaussian(uniform: () => number): () => number {

@@ -8,12 +8,11 @@
  * Stations and places are invented.
  */
 
-import { tableFromArrays, tableToIPC, type Table } from 'apache-arrow';
 import { describe, expect, it } from 'vitest';
 import { problemFields, useApp } from '../helpers/app.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
-import { APRIORI, networkBody, observationsOf, sim, siteOf } from './network-fixtures.js';
+import { APRIORI, arrowBody, networkBody, observationsOf, putStations, sim } from './network-fixtures.js';
 
 const ARROW = 'application/vnd.apache.arrow.stream';
 
@@ -24,20 +23,6 @@ const columnsOf = (rows: Row[]) => {
   const keys = [...new Set(rows.flatMap((r) => Object.keys(r)))];
   return Object.fromEntries(keys.map((k) => [k, rows.map((r) => (k in r ? r[k] : null))])) as Record<string, unknown[]>;
 };
-
-/** The observations as an Arrow IPC stream (station and epoch as text, the numbers as float64), `rest` in the metadata. */
-function arrowBody(rows: ReturnType<typeof observationsOf>, rest: Row): Buffer {
-  const table = tableFromArrays({
-    station: rows.map((r) => r.station!),
-    epoch: rows.map((r) => r.epoch),
-    satellite: rows.map((r) => r.satellite),
-    elevation_deg: Float64Array.from(rows, (r) => r.elevation_deg),
-    azimuth_deg: Float64Array.from(rows, (r) => r.azimuth_deg),
-    residual_m: Float64Array.from(rows, (r) => r.residual_m),
-  }) as Table;
-  table.schema.metadata.set('request', JSON.stringify(rest));
-  return Buffer.from(tableToIPC(table, 'stream'));
-}
 
 const s = sim(51, 'estimated');
 const metFor = (name: string, i: number) =>
@@ -144,13 +129,7 @@ for (const backend of BACKENDS) {
     const { api, auth } = useArchiveApp(backend);
 
     it('stores the same series as the object form', { timeout: 180_000 }, async () => {
-      for (const st of s.stations) {
-        await api()
-          .put(`/v1/stations/${st.name}`)
-          .set('authorization', auth)
-          .send({ name: `${st.name} (invented)`, ...siteOf(st) })
-          .expect((r) => expect([200, 201]).toContain(r.status));
-      }
+      await putStations(api, auth, s);
       const rest = { stations: s.stations.map((st) => ({ id: st.name, apriori: APRIORI })), met, options: OPTIONS };
       const observations = observationsOf(s);
       const send = (source: string) => api().post(`/v1/network/zwd-estimates?source=${source}`).set('authorization', auth);

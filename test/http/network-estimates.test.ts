@@ -15,7 +15,19 @@
 
 import { describe, expect, it } from 'vitest';
 import { truthZwd } from '../estimation/network/network-simulator.js';
-import { APRIORI, csvOf, MM, networkBody, observationsOf, REGIONAL, SHARED_MODEL, sim, siteOf, TOL_M } from './network-fixtures.js';
+import {
+  APRIORI,
+  csvOf,
+  MM,
+  networkBody,
+  observationsOf,
+  putStations,
+  REGIONAL,
+  SHARED_MODEL,
+  sim,
+  siteOf,
+  TOL_M,
+} from './network-fixtures.js';
 import { MAX_NETWORK_STATION_OBSERVATIONS } from '../../src/limits.js';
 import { problemFields, useApp } from '../helpers/app.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
@@ -300,15 +312,7 @@ for (const backend of BACKENDS) {
     const { api, app, auth } = useArchiveApp(backend);
     const s = sim(36, 'estimated');
 
-    async function createStations() {
-      for (const st of s.stations) {
-        await api()
-          .put(`/v1/stations/${st.name}`)
-          .set('authorization', auth)
-          .send({ name: `${st.name} (invented)`, ...siteOf(st) })
-          .expect((r) => expect([200, 201]).toContain(r.status));
-      }
-    }
+    const createStations = () => putStations(api, auth, s);
     const storedBody = (stations: { id: string; apriori?: unknown }[]) => ({
       stations,
       observations: observationsOf(s),

@@ -4,6 +4,9 @@
  * 300-km network, and the request bodies made from its output. Stations and places are invented.
  */
 
+import { tableFromArrays, tableToIPC, type Table } from 'apache-arrow';
+import { expect } from 'vitest';
+import type { ArchiveApp } from '../helpers/archive-app.js';
 import { simulateNetwork, stationAt, type NetworkSim, type SimStation } from '../estimation/network/network-simulator.js';
 
 export const MM = 1e-3;
@@ -79,4 +82,29 @@ export function csvOf(observations: ReturnType<typeof observationsOf>): string {
     header,
     ...observations.map((o) => [o.station, o.epoch, o.satellite, o.elevation_deg, o.azimuth_deg, o.residual_m].join(',')),
   ].join('\n');
+}
+
+/** The observations as an Arrow IPC stream (station and epoch as text, the numbers as float64), `rest` in the metadata. */
+export function arrowBody(rows: ReturnType<typeof observationsOf>, rest: Record<string, unknown>): Buffer {
+  const table = tableFromArrays({
+    station: rows.map((r) => r.station!),
+    epoch: rows.map((r) => r.epoch),
+    satellite: rows.map((r) => r.satellite),
+    elevation_deg: Float64Array.from(rows, (r) => r.elevation_deg),
+    azimuth_deg: Float64Array.from(rows, (r) => r.azimuth_deg),
+    residual_m: Float64Array.from(rows, (r) => r.residual_m),
+  }) as Table;
+  table.schema.metadata.set('request', JSON.stringify(rest));
+  return Buffer.from(tableToIPC(table, 'stream'));
+}
+
+/** Puts every station of the simulation into the archive (created, or already there), each at its site. */
+export async function putStations(api: ArchiveApp['api'], auth: string, s: NetworkSim): Promise<void> {
+  for (const st of s.stations) {
+    await api()
+      .put(`/v1/stations/${st.name}`)
+      .set('authorization', auth)
+      .send({ name: `${st.name} (invented)`, ...siteOf(st) })
+      .expect((r) => expect([200, 201]).toContain(r.status));
+  }
 }

@@ -20,7 +20,7 @@ import { describe, expect, it } from 'vitest';
 import { problemFields, useApp } from '../helpers/app.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
-import { APRIORI, csvOf, MM, networkBody, observationsOf, SHARED_MODEL, sim, siteOf, TOL_M } from './network-fixtures.js';
+import { APRIORI, csvOf, MM, networkBody, observationsOf, putStations, SHARED_MODEL, sim, siteOf, TOL_M } from './network-fixtures.js';
 
 /** Met every 10 min from 05:50 to 07:10 with a 40-min gap (06:10–06:50) longer than MET_OPTIONS.met_max_gap_s. */
 const MET_EPOCHS = ['05:50', '06:00', '06:10', '06:50', '07:00', '07:10'].map((t) => `2026-06-21T${t}:00.000Z`);
@@ -195,13 +195,7 @@ for (const backend of BACKENDS) {
       'every stored row (ZTD, ZWD from met and bridged, σ, gradients) equals the single-station route’s',
       { timeout: 120_000 },
       async () => {
-        for (const st of s.stations) {
-          await api()
-            .put(`/v1/stations/${st.name}`)
-            .set('authorization', auth)
-            .send({ name: `${st.name} (invented)`, ...siteOf(st) })
-            .expect((r) => expect([200, 201]).toContain(r.status));
-        }
+        await putStations(api, auth, s);
         const met = s.stations.flatMap((st, i) => metOf(i).map((r) => ({ station: st.name, ...r })));
         const network = await api()
           .post('/v1/network/zwd-estimates?source=net-met')

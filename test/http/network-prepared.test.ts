@@ -9,13 +9,12 @@
  * Stations, places and data are invented (test/estimation/network/network-simulator.ts).
  */
 
-import { tableFromArrays, tableToIPC, type Table } from 'apache-arrow';
 import { describe, expect, it } from 'vitest';
 import type { Site } from '../../src/domain/site.js';
 import type { MetColumns } from '../../src/services/station-met.js';
 import { handleNetworkRequest, scanNetworkRequest, type NetworkRequestTaskInput } from '../../src/http/tasks/network-request.js';
 import { preparedNetworkBuffers } from '../../src/http/tasks/prepared-request.js';
-import { APRIORI, csvOf, observationsOf, RAD, sim } from './network-fixtures.js';
+import { APRIORI, arrowBody, csvOf, observationsOf, RAD, sim } from './network-fixtures.js';
 
 const s = sim(44, 'estimated');
 const rows = observationsOf(s);
@@ -45,19 +44,6 @@ const columnsOf = (list: Record<string, unknown>[]) => {
   return Object.fromEntries(keys.map((k) => [k, list.map((r) => (k in r ? r[k] : null))]));
 };
 
-function arrowBody(): Uint8Array {
-  const table = tableFromArrays({
-    station: rows.map((r) => r.station!),
-    epoch: rows.map((r) => r.epoch),
-    satellite: rows.map((r) => r.satellite),
-    elevation_deg: Float64Array.from(rows, (r) => r.elevation_deg),
-    azimuth_deg: Float64Array.from(rows, (r) => r.azimuth_deg),
-    residual_m: Float64Array.from(rows, (r) => r.residual_m),
-  }) as Table;
-  table.schema.metadata.set('request', JSON.stringify({ stations, met, options: OPTIONS }));
-  return tableToIPC(table, 'stream');
-}
-
 const utf8 = (x: unknown) => new TextEncoder().encode(JSON.stringify(x));
 const FORMS: { name: string; input: () => Pick<NetworkRequestTaskInput, 'body' | 'format' | 'query'>; metStations: string[] }[] = [
   {
@@ -70,7 +56,11 @@ const FORMS: { name: string; input: () => Pick<NetworkRequestTaskInput, 'body' |
     input: () => ({ body: utf8({ stations, observations: withSigma, met, options: OPTIONS }), format: 'json', query: {} }),
     metStations: ids.slice(0, 2),
   },
-  { name: 'an Arrow table', input: () => ({ body: arrowBody(), format: 'arrow', query: {} }), metStations: ids.slice(0, 2) },
+  {
+    name: 'an Arrow table',
+    input: () => ({ body: arrowBody(rows, { stations, met, options: OPTIONS }), format: 'arrow', query: {} }),
+    metStations: ids.slice(0, 2),
+  },
   {
     name: 'a CSV table with station= parameters',
     input: () => ({

@@ -14,7 +14,7 @@ import { generateSyntheticResiduals, toRequestBody } from '../../scripts/synthet
 import { taskMemoryBytes } from '../../src/http/plugins/compute-pool.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
-import { APRIORI, observationsOf, sim, siteOf } from './network-fixtures.js';
+import { APRIORI, observationsOf, putStations, sim } from './network-fixtures.js';
 
 const SITE = { latitude_deg: 46.2, longitude_deg: 7.4, height_m: 520 };
 const { observations } = toRequestBody(generateSyntheticResiduals({ durationS: 3600, latitudeDeg: SITE.latitude_deg, seed: 11 }));
@@ -61,13 +61,7 @@ describe('the estimation task of a storing route counts what its scan counted in
 
   it('POST /v1/network/zwd-estimates', { timeout: 60_000 }, async () => {
     const s = sim(37, 'estimated');
-    for (const st of s.stations) {
-      await api()
-        .put(`/v1/stations/${st.name}`)
-        .set('authorization', auth)
-        .send({ name: `${st.name} (invented)`, ...siteOf(st) })
-        .expect((r) => expect([200, 201]).toContain(r.status));
-    }
+    await putStations(api, auth, s);
     watchPool();
     await api()
       .post('/v1/network/zwd-estimates?source=memory-share')

@@ -20,6 +20,7 @@ import { DEG } from '../../domain/constants.js';
 import { geodeticToEcef, lookAngles } from '../../domain/geometry/topocentric.js';
 import { marini } from '../../domain/mapping/continued-fraction.js';
 import { niellWetCoefficients } from '../../domain/mapping/niell.js';
+import { mulberry32 } from '../../seeded-random.js';
 import { zwdRequestTask } from './zwd-request.js';
 
 /** Mean motion of the invented orbits: √(GM / r³) with GM = 3.986004418e14 m³/s² (IERS 2010, from memory). */
@@ -35,18 +36,6 @@ const DURATION_S = 3 * 3600;
 const CUTOFF_RAD = 7 * DEG;
 const START_MS = Date.parse('2026-06-21T00:00:00Z');
 const SITE = { latitude_deg: 47.5, longitude_deg: 8.25, height_m: 420 };
-
-/** A small seeded generator (mulberry32, common practice): the same slice in every thread and run. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4_294_967_296;
-  };
-}
 
 /** The invented slice as the estimation API's columns JSON body (UTF-8), the form most callers send. */
 export function warmUpBody(): Uint8Array {
