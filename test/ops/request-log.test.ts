@@ -7,7 +7,6 @@
  * pino's level numbers (info = 30, warn = 40: pino documentation, "Logger Level" — from memory).
  */
 
-import { Writable } from 'node:stream';
 import type { FastifyInstance, FastifyRequest } from 'fastify';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -15,23 +14,11 @@ import { defaultConfig } from '../../src/config.js';
 import { buildApp } from '../../src/http/app.js';
 import { loggerOptions } from '../../src/http/logger-options.js';
 import { callerKeyName } from '../../src/http/plugins/request-log.js';
+import { collector, type LogLine } from '../helpers/log-lines.js';
 
 /** RFC 3339 section 5.6 date-time, UTC with milliseconds as pino's isoTime writes it. */
 const RFC3339_UTC = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/;
 const PINO_INFO = 30;
-
-type LogLine = Record<string, unknown>;
-
-function collector(): { stream: Writable; lines: LogLine[] } {
-  const lines: LogLine[] = [];
-  const stream = new Writable({
-    write(chunk: Buffer, _encoding, done) {
-      for (const l of chunk.toString('utf8').split('\n')) if (l.trim()) lines.push(JSON.parse(l) as LogLine);
-      done();
-    },
-  });
-  return { stream, lines };
-}
 
 async function appWithLog(format: 'iso' | 'epoch'): Promise<{ app: FastifyInstance; lines: LogLine[] }> {
   const { stream, lines } = collector();

@@ -7,7 +7,6 @@
  * default and range: test/ops/config.test.ts.
  */
 
-import { Writable } from 'node:stream';
 import type { FastifyInstance } from 'fastify';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -16,19 +15,7 @@ import { buildApp } from '../../src/http/app.js';
 import { loggerOptions } from '../../src/http/logger-options.js';
 import { warmUpBody } from '../../src/http/tasks/warm-up.js';
 import { columnsJson, dayRequest } from '../helpers/gps-like-days.js';
-
-type LogLine = Record<string, unknown>;
-
-function collector(): { stream: Writable; lines: LogLine[] } {
-  const lines: LogLine[] = [];
-  const stream = new Writable({
-    write(chunk: Buffer, _encoding, done) {
-      for (const l of chunk.toString('utf8').split('\n')) if (l.trim()) lines.push(JSON.parse(l) as LogLine);
-      done();
-    },
-  });
-  return { stream, lines };
-}
+import { collector, type LogLine } from '../helpers/log-lines.js';
 
 /** An invented 3-hour slice of the simulated sky (test/helpers/realistic-sky.ts), not the warm-up's own. */
 const body = Buffer.from(columnsJson(dayRequest({ durationS: 3 * 3600, grossErrors: 3 }))).toString('utf8');
