@@ -3,8 +3,9 @@
  * turns in one process (CPU time per call, process.cpuUsage; the two trees in alternating order pair after pair,
  * so that both see the same load), on the GPS-like day as columns JSON (bench/json-read-day.ts):
  * - the `shape=columns` answer of one estimation result (zwdEstimatesAnswer; the result is this tree's);
+ * - the rows answer of that result's answer objects (tableAnswer: JSON.stringify and the UTF-8 bytes);
  * - the read step: the body's bytes → checked typed columns (readJsonColumnsBody, typedObservationsFromJsonColumns);
- * - the whole task with the `shape=columns` answer (zwdRequestTask on the body's bytes).
+ * - the whole task with the rows answer and with the `shape=columns` answer (zwdRequestTask on the body's bytes).
  * Medians and ranges over BENCH_ROUNDS pairs (default 100) after 10, and the median of the per-pair ratios.
  *
  *   BENCH_WORKER_REFERENCE=/tmp/ref-main npm run bench -- worker-task     (build both dist/ first)
@@ -16,6 +17,7 @@ import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import type * as Answer from '../src/http/adapters/zwd-estimates-answer.js';
+import type * as TableAnswer from '../src/http/table-answer.js';
 import type * as Adapters from '../src/http/adapters/zwd-estimation.js';
 import type { AnswerShape } from '../src/http/answer-shape.js';
 import type * as Columns from '../src/http/columns.js';
@@ -27,10 +29,12 @@ import { MAX_OBSERVATIONS } from '../src/limits.js';
 import { dayBody } from './json-read-day.js';
 
 const COLUMNS: AnswerShape = { shape: 'columns', format: 'json', fields: undefined };
+const ROWS: AnswerShape = { shape: 'rows', format: 'json', fields: undefined };
 
 async function treeOf(root: string) {
   const load = async <T>(path: string) => (await import(pathToFileURL(resolve(root, 'dist', `${path}.js`)).href)) as T;
   const answer = await load<typeof Answer>('http/adapters/zwd-estimates-answer');
+  const tableAnswer = await load<typeof TableAnswer>('http/table-answer');
   const adapters = await load<typeof Adapters>('http/adapters/zwd-estimation');
   const columns = await load<typeof Columns>('http/columns');
   const schemas = await load<typeof Schemas>('http/schemas/zwd-estimates');
@@ -38,7 +42,7 @@ async function treeOf(root: string) {
   const reader = await load<typeof Reader>('formats/json-columns-reader');
   const service = await load<typeof Service>('services/zwd-estimation');
   const specs = columns.jsonColumnSpecsOf(columns.columnSpecsOf(schemas.zwdObservationSchema.shape));
-  return { answer, adapters, schemas, task, reader, service, specs };
+  return { answer, tableAnswer, adapters, schemas, task, reader, service, specs };
 }
 
 const cpuMs = () => {
@@ -69,12 +73,22 @@ export default async function workerTaskBench(): Promise<string[]> {
   );
   const result = here.service.runZwdEstimation(request);
 
+  const rowObjects = here.adapters.zwdEstimatesResponseOf(result) as unknown as Record<string, unknown>;
   type Tree = (typeof trees)[number];
   const pieces: [string, (t: Tree) => unknown][] = [
     ['shape=columns answer (zwdEstimatesAnswer)', (t) => t.answer.zwdEstimatesAnswer(result, COLUMNS)],
+    // The answer objects made once (this tree's), the same input for both trees: JSON.stringify and the bytes.
+    ['rows answer from the answer objects (tableAnswer)', (t) => t.tableAnswer.tableAnswer(rowObjects, t.schemas.ZWD_ANSWER_TABLES, ROWS)],
     [
       'read step (bytes → checked typed columns)',
       (t) => t.adapters.typedObservationsFromJsonColumns(t.reader.readJsonColumnsBody(bytes, 'observations', t.specs, MAX_OBSERVATIONS)!),
+    ],
+    [
+      'whole task, rows answer (zwdRequestTask)',
+      async (t) => {
+        const outcome = await t.task.zwdRequestTask({ body: new Uint8Array(bytes), format: 'json', query: {} });
+        if (!outcome.ok) throw new Error('the task failed');
+      },
     ],
     [
       'whole task, shape=columns answer (zwdRequestTask)',

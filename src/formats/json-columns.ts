@@ -188,3 +188,119 @@ export function utf8Bytes(text: string): Uint8Array {
   bytes.write(text, 0, 'latin1');
   return new Uint8Array(bytes.buffer, 0, text.length);
 }
+
+/** Elements of a long array stringified per call by stringifiedBytes (~55 kB of a GPS-like day's series rows). */
+export const ELEMENTS_PER_PIECE = 128;
+
+/**
+ * The largest answer written in pieces [bytes]: the scratch buffer of a thread grows up to this and is kept
+ * (a day's rows answer is ~1.2 MB); a longer answer (30 days: ~36 MB) is written whole, as before, so that the
+ * buffer a worker keeps while idle and the peak of a long request stay what they were.
+ */
+export const SCRATCH_BYTES_MAX = 4 * 1024 * 1024;
+
+/** This thread's scratch buffer (each worker thread has its own module instance), absent while in use. */
+let scratch: Buffer | undefined;
+
+/** Thrown by ScratchWriter past SCRATCH_BYTES_MAX. */
+const SCRATCH_FULL = new Error('answer longer than the scratch buffer');
+
+/** Text written into a growing Buffer (up to SCRATCH_BYTES_MAX): ASCII as latin1 (a copy), any other text as UTF-8. */
+class ScratchWriter {
+  length = 0;
+  constructor(public bytes: Buffer) {}
+  private reserve(extra: number): void {
+    if (this.length + extra <= this.bytes.length) return;
+    if (this.length + extra > SCRATCH_BYTES_MAX) throw SCRATCH_FULL;
+    const grown = Buffer.allocUnsafeSlow(Math.min(Math.max(this.bytes.length * 2, this.length + extra), SCRATCH_BYTES_MAX));
+    this.bytes.copy(grown, 0, 0, this.length);
+    this.bytes = grown;
+  }
+  byte(b: number): void {
+    this.reserve(1);
+    this.bytes[this.length++] = b;
+  }
+  text(text: string): void {
+    const size = Buffer.byteLength(text, 'utf8');
+    this.reserve(size);
+    this.length += this.bytes.write(text, this.length, size, size === text.length ? 'latin1' : 'utf8');
+  }
+}
+
+/** Whether JSON.stringify of `element` calls a toJSON (or serialises a BigInt): then its index would matter. */
+const hasOwnJson = (element: unknown): boolean =>
+  typeof element === 'bigint' ||
+  ((typeof element === 'object' || typeof element === 'function') &&
+    element !== null &&
+    typeof (element as { toJSON?: unknown }).toJSON === 'function');
+
+/** A member written in pieces: an array longer than a piece, whose elements' text does not depend on their index. */
+function inPieces(value: unknown): value is readonly unknown[] {
+  if (!Array.isArray(value) || value.length <= ELEMENTS_PER_PIECE || hasOwnJson(value)) return false;
+  for (let i = 0; i < value.length; i++) if (hasOwnJson(value[i])) return false;
+  return true;
+}
+
+/**
+ * `[e0,e1,…]` as JSON.stringify writes it, a piece of ELEMENTS_PER_PIECE elements per call: each piece's text
+ * `[…]` is written with its opening bracket over the previous piece's closing one, which then becomes a comma.
+ */
+function writeArrayInPieces(out: ScratchWriter, array: readonly unknown[]): void {
+  for (let i = 0; i < array.length; i += ELEMENTS_PER_PIECE) {
+    const joint = out.length - 1;
+    if (i > 0) out.length = joint;
+    out.text(JSON.stringify(Array.prototype.slice.call(array, i, i + ELEMENTS_PER_PIECE)));
+    if (i > 0) out.bytes[joint] = 0x2c; // ,
+  }
+}
+
+/**
+ * The bytes of utf8Bytes(JSON.stringify(value)) for a plain object, without the text of the whole: each
+ * top-level member is stringified alone, and a long array member (an answer's rows) a piece of
+ * ELEMENTS_PER_PIECE elements at a time, into this thread's scratch buffer, then copied into bytes that own
+ * their buffer exactly (the worker moves them). One text of a 1.2 MB answer was a string of V8's large-object
+ * space: flattened for its UTF-8 length (a fresh mapping each time: ~290 page faults), scanned, copied
+ * (DEVELOPERS.md, "The HTTP edge of the estimation routes"). JSON's meaning is kept: members in
+ * Object.keys order, a member whose value has no JSON text (undefined, a function) left out, toJSON called
+ * with the member's key (a member is stringified as `{key: value}`); an array with an element that has a
+ * toJSON (called with its index) or a BigInt is stringified whole. An array or an object with a toJSON at the
+ * top goes through JSON.stringify whole, and so does an answer longer than SCRATCH_BYTES_MAX, once the
+ * buffer is full (its toJSON functions, if any, are then called a second time). Throws what JSON.stringify
+ * throws (a cycle, a BigInt).
+ */
+export function stringifiedBytes(value: object): Uint8Array {
+  if (Array.isArray(value) || hasOwnJson(value)) return utf8Bytes(JSON.stringify(value));
+  const out = new ScratchWriter(scratch ?? Buffer.allocUnsafeSlow(1024 * 1024));
+  scratch = undefined; // not shared with a call made meanwhile (a toJSON that writes an answer)
+  try {
+    writeObject(out, value);
+  } catch (err) {
+    if (err !== SCRATCH_FULL) throw err;
+    return utf8Bytes(JSON.stringify(value));
+  } finally {
+    scratch = out.bytes;
+  }
+  const bytes = Buffer.allocUnsafeSlow(out.length);
+  out.bytes.copy(bytes, 0, 0, out.length);
+  return new Uint8Array(bytes.buffer, 0, bytes.length);
+}
+
+/** `{…}` of a plain object's members into `out` (stringifiedBytes). */
+function writeObject(out: ScratchWriter, value: object): void {
+  out.byte(0x7b); // {
+  for (const key of Object.keys(value)) {
+    const member = (value as Record<string, unknown>)[key];
+    const start = out.length;
+    if (start > 1) out.byte(0x2c); // ,
+    if (inPieces(member)) {
+      out.text(`${JSON.stringify(key)}:`);
+      writeArrayInPieces(out, member);
+      continue;
+    }
+    const text = JSON.stringify({ [key]: member });
+    if (text.length === 2)
+      out.length = start; // {}: no JSON text of this member
+    else out.text(text.slice(1, -1));
+  }
+  out.byte(0x7d); // }
+}

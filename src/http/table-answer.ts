@@ -12,7 +12,7 @@
  * src/formats/output-precision.ts) and written as JSON bytes in one pass (src/formats/json-columns.ts).
  */
 
-import { columnsJsonBytes, jsonWithRawMembers, utf8Bytes, type JsonColumn } from '../formats/json-columns.js';
+import { columnsJsonBytes, jsonWithRawMembers, stringifiedBytes, type JsonColumn } from '../formats/json-columns.js';
 import type { AnswerShape, FieldDecimals } from './answer-shape.js';
 import { arrowAnswer, ARROW_STREAM_TYPE } from './answer-shape.js';
 
@@ -118,5 +118,6 @@ export function tableAnswer(answer: Row, specs: TableSpecs, shape: AnswerShape, 
   for (const [table, fields] of Object.entries(selected)) {
     if (fields && Array.isArray(answer[table])) shaped[table] = pick(answer[table] as Row[], fields);
   }
-  return { bytes: utf8Bytes(JSON.stringify(shaped)), contentType: 'application/json' };
+  // The bytes of JSON.stringify(shaped), its tables' rows stringified a piece at a time (no text of the whole answer).
+  return { bytes: stringifiedBytes(shaped), contentType: 'application/json' };
 }
