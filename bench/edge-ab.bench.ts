@@ -10,7 +10,8 @@
  * `BENCH_EDGE_OLD=<dir of a built dist/> BENCH_EDGE_NEW=dist npm run bench -- edge-ab` (both default to dist/,
  * built first when older than the sources: the spread between two equal processes); `BENCH_EDGE_OLD_FLAGS` /
  * `BENCH_EDGE_NEW_FLAGS`: node flags of each beside --max-semi-space-size=32 (e.g. `--initial-old-space-size=128`);
- * `BENCH_EDGE_BLOCKS` (default 10); `BENCH_EDGE_PART` (gps | gps-columns | gps-arrow | arrow | columns,
+ * `BENCH_EDGE_OLD_ENV` / `BENCH_EDGE_NEW_ENV`: extra environment of each ("NAME=value NAME=value", e.g.
+ * `MALLOC_ARENA_MAX=2`); `BENCH_EDGE_BLOCKS` (default 10); `BENCH_EDGE_PART` (gps | gps-columns | gps-arrow | arrow | columns,
  * comma-separated, default all; gps-columns: the GPS-like day with the `shape=columns` answer, gps-arrow: Arrow in
  * and out); `BENCH_EDGE_WARM`: requests per workload and service before timing (default 10 or the block size if
  * smaller: a fresh service). The answers of both are compared byte for byte (Arrow: by length, its flatbuffer
@@ -181,6 +182,15 @@ export function buildDistIfNamed(...dirs: string[]): void {
     throw new Error('the build of dist/ failed');
 }
 
+/** The environment variable `name` of the bench ("NAME=value NAME=value") as an environment for a service. */
+export const envOf = (name: string): Record<string, string> =>
+  Object.fromEntries(
+    (process.env[name] ?? '')
+      .split(' ')
+      .filter(Boolean)
+      .map((pair) => [pair.slice(0, pair.indexOf('=')), pair.slice(pair.indexOf('=') + 1)]),
+  );
+
 export default async function edgeAb(): Promise<string[]> {
   const oldDir = process.env.BENCH_EDGE_OLD ?? 'dist';
   const newDir = process.env.BENCH_EDGE_NEW ?? 'dist';
@@ -199,9 +209,12 @@ export default async function edgeAb(): Promise<string[]> {
   const flagsOf = (name: string) => (process.env[name] ?? '').split(' ').filter(Boolean);
   const oldFlags = flagsOf('BENCH_EDGE_OLD_FLAGS');
   const newFlags = flagsOf('BENCH_EDGE_NEW_FLAGS');
-  const services = [await startService('old', oldDir, oldFlags), await startService('new', newDir, newFlags)];
+  const services = [
+    await startService('old', oldDir, oldFlags, envOf('BENCH_EDGE_OLD_ENV')),
+    await startService('new', newDir, newFlags, envOf('BENCH_EDGE_NEW_ENV')),
+  ];
   const lines = [
-    `edge by turns: old = ${oldDir} ${oldFlags.join(' ')}, new = ${newDir} ${newFlags.join(' ')}; ${blocks} blocks each, CPU ms per request, median (range) over blocks`,
+    `edge by turns: old = ${oldDir} ${oldFlags.join(' ')} ${process.env.BENCH_EDGE_OLD_ENV ?? ''}, new = ${newDir} ${newFlags.join(' ')} ${process.env.BENCH_EDGE_NEW_ENV ?? ''}; ${blocks} blocks each, CPU ms per request, median (range) over blocks`,
   ];
   try {
     for (const s of services) await warmSlant(s);

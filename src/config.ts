@@ -48,6 +48,16 @@ export const DEFAULT_CAMPAIGN_SWEEP_GRACE_S = 60;
  */
 export const DEFAULT_WARM_UP_ESTIMATIONS = 40;
 
+/**
+ * Quiet time after which an estimation worker thread collects its garbage, and 6 s later once more, which gives
+ * back its young generation (TROPODELAY_WORKER_IDLE_TRIM_S; src/workers/idle-trim.ts) [s]. Off by default: the
+ * young generation regrows slowly afterwards (the code is compiled by then and little survives a scavenge), and
+ * the GPS-like day cost 29 instead of 26 ms of CPU a request for at least 300 requests after a trim (DEVELOPERS.md,
+ * "The young generations of idle threads"), a cost on the request path. 60 suits a replica whose memory matters
+ * more than the first few hundred requests after an idle minute (idle 295 → ~225 MB with 2 threads).
+ */
+export const DEFAULT_WORKER_IDLE_TRIM_S = 0;
+
 /** Longest from..to range one read of a station series may ask for [days] (a station-year plus a leap day). */
 export const DEFAULT_MAX_READ_RANGE_DAYS = 366;
 
@@ -266,6 +276,11 @@ export const configSchema = z.object({
     .default(DEFAULT_WARM_UP_ESTIMATIONS)
     .describe(
       'estimations of an invented 3-hour slice each worker thread runs at start before it takes requests, so that the first requests do not pay for compiling the estimator; `/v1/ready` answers 503 until every thread is done (requests are still served, more slowly), 0..1000; 0 = no warm-up',
+    ),
+  TROPODELAY_WORKER_IDLE_TRIM_S: integer(0, 86_400)
+    .default(DEFAULT_WORKER_IDLE_TRIM_S)
+    .describe(
+      'seconds without a task after which an estimation worker thread collects its garbage, and 6 s later once more, giving its young generation back to the system (~30 MB a thread; 60: idle replica 295 → ~225 MB); the next few hundred requests cost ~10 % more CPU while it grows again, 0..86 400; 0 = never',
     ),
   RATE_LIMIT_PER_MINUTE: integer(0, 10_000_000)
     .default(0)

@@ -56,11 +56,18 @@ export interface ComputePoolOptions<Tasks extends Record<string, ComputeTask>> {
    * start cold (they replace threads after a task over the memory budget, which itself takes seconds).
    */
   warmUp?: { location: TaskLocation; estimations: number };
+  /**
+   * Quiet time after which an idle thread collects its garbage and gives back its young generation [ms]
+   * (idle-trim.ts); 0 or absent = never. The service: TROPODELAY_WORKER_IDLE_TRIM_S.
+   */
+  idleTrimMs?: number;
 }
 
 /** What a thread's entry gets as piscina's workerData. */
 export interface ComputeWorkerData {
   warmUp?: { location: TaskLocation; estimations: number };
+  /** ComputePoolOptions.idleTrimMs. */
+  idleTrimMs: number;
 }
 
 /** A thread's report of its warm-up, posted to the pool when it is done (or has failed). */
@@ -317,7 +324,7 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
       this.threads();
       return Promise.resolve([]);
     }
-    const pool = this.threads({ warmUp });
+    const pool = this.threads(warmUp);
     const reports = new Map<number, WarmUpReport>();
     return new Promise((resolve) => {
       const listen = (message: unknown) => {
@@ -332,11 +339,16 @@ export class ComputePool<Tasks extends Record<string, ComputeTask>> {
     });
   }
 
-  /** The piscina pool, started with the first task (and again after recycle()); `workerData` only by start(). */
-  private threads(workerData?: ComputeWorkerData): Piscina {
+  /** The piscina pool, started with the first task (and again after recycle()); a warm-up only by start(). */
+  private threads(warmUp?: ComputeWorkerData['warmUp']): Piscina {
+    const idleTrimMs = this.options.idleTrimMs ?? 0;
+    const workerData: ComputeWorkerData = { idleTrimMs, ...(warmUp ? { warmUp } : {}) };
     return (this.pool ??= new Piscina({
       ...workerLocation(),
       workerData,
+      // With an idle trim, an idle thread waits for tasks with its event loop running (Atomics.waitAsync), not
+      // blocked in Atomics.wait ('sync', piscina's default), so that the trim's timer can fire (idle-trim.ts).
+      atomics: idleTrimMs > 0 ? 'async' : 'sync',
       minThreads: this.options.threads, // all started at once: no thread is spawned in the middle of a load
       maxThreads: this.options.threads,
       maxQueue: this.options.queueLimit,

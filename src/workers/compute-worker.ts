@@ -10,6 +10,9 @@
  * from its port before that promise is resolved (piscina's README, "Delaying availability"). Tasks handed to
  * the thread meanwhile wait for it. The promise never rejects: a failed warm-up is reported and the thread
  * takes tasks cold (a rejected handler would make piscina fail the thread at every start).
+ *
+ * After the warm-up and after each task the thread schedules its idle trim (idle-trim.ts): one full collection
+ * once it has had no task for workerData.idleTrimMs, which gives its young generation back.
  */
 
 import { createRequire } from 'node:module';
@@ -17,6 +20,7 @@ import { fileURLToPath } from 'node:url';
 import { parentPort, threadId, workerData } from 'node:worker_threads';
 import { move, transferableSymbol, valueSymbol } from 'piscina';
 import type { ComputeRequest, ComputeResponse, ComputeWorkerData, TaskLocation, WarmUpMessage } from './compute-pool.js';
+import { cancelIdleTrim, scheduleIdleTrim } from './idle-trim.js';
 
 const modules = new Map<string, Promise<Record<string, unknown>>>();
 const requireHere = createRequire(import.meta.url);
@@ -41,6 +45,15 @@ async function exported(location: TaskLocation): Promise<(input: unknown) => unk
 }
 
 async function computeWorker(request: ComputeRequest): Promise<ComputeResponse> {
+  cancelIdleTrim();
+  try {
+    return await computeTask(request);
+  } finally {
+    scheduleIdleTrim(data?.idleTrimMs ?? 0);
+  }
+}
+
+async function computeTask(request: ComputeRequest): Promise<ComputeResponse> {
   const run = await exported(request);
   const started = performance.now();
   request.released.length = 0; // not held through the task
@@ -111,4 +124,9 @@ async function warmUp(data: ComputeWorkerData | undefined): Promise<void> {
 const data = workerData as ComputeWorkerData | undefined;
 
 /** piscina's handler: the task function, or (with a warm-up) a promise of it resolved once the thread is warm. */
-export default data?.warmUp && data.warmUp.estimations > 0 ? warmUp(data).then(() => computeWorker) : computeWorker;
+export default data?.warmUp && data.warmUp.estimations > 0
+  ? warmUp(data).then(() => {
+      scheduleIdleTrim(data.idleTrimMs);
+      return computeWorker;
+    })
+  : computeWorker;

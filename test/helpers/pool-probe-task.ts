@@ -1,7 +1,9 @@
 /** Compute tasks for the pool's own tests. */
 
 import { createHash } from 'node:crypto';
+import { getHeapSpaceStatistics } from 'node:v8';
 import { threadId } from 'node:worker_threads';
+import { idleTrimCounts } from '../../src/workers/idle-trim.js';
 
 /** Answers the worker thread's id (after `waitMs`). */
 export async function threadIdTask(input: { waitMs?: number }): Promise<{ ok: true; output: { threadId: number; observations: number } }> {
@@ -59,4 +61,34 @@ export async function warmMarkTask(input: { waitMs?: number }): Promise<{
   const warmedUpWith = warmMark.warmUpProbeRan?.estimations;
   if (input.waitMs) await new Promise((r) => setTimeout(r, input.waitMs));
   return { ok: true, output: { threadId, warmedUpWith, observations: 0 } };
+}
+
+/**
+ * The thread's young generation (V8's new space: its resident bytes, physical_space_size) and its idle trims so far
+ * (src/workers/idle-trim.ts); with `grow`, first allocates objects that survive a few scavenges each (a window
+ * of 200 000 small objects renewed 15 times), which makes V8 grow the young generation, as a request does.
+ */
+export async function youngGenerationTask(input: { grow?: boolean }): Promise<{
+  ok: true;
+  output: { threadId: number; newSpaceBytes: number; idleCollections: number; idleTrims: number; observations: number };
+}> {
+  if (input.grow) {
+    let kept: { i: number; a: number[] }[] = [];
+    for (let i = 0; i < 3_000_000; i++) {
+      kept.push({ i, a: [i] });
+      if (kept.length > 200_000) kept = [];
+    }
+  }
+  const idle = idleTrimCounts();
+  const newSpace = getHeapSpaceStatistics().find((s) => s.space_name === 'new_space')!;
+  return {
+    ok: true,
+    output: {
+      threadId,
+      newSpaceBytes: newSpace.physical_space_size,
+      idleCollections: idle.collections,
+      idleTrims: idle.trims,
+      observations: 0,
+    },
+  };
 }

@@ -5,6 +5,7 @@
 
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:net';
+import { join, resolve } from 'node:path';
 import { configSchema, deprecatedName, environmentName } from '../../src/config.js';
 
 export async function freePort(): Promise<number> {
@@ -55,12 +56,18 @@ export function serverEnvironment(port: number, env: Record<string, string> = {}
  *
  * @param env extra environment, settings by their current or deprecated name (log level defaults to warn)
  * @param discardLogs send the service's stdout (its log lines) nowhere, e.g. to measure at TROPODELAY_LOG_LEVEL=info
- * @param fromDist run dist/server.js as `npm start` does instead of src/server.ts under tsx
+ * @param fromDist run dist/server.js as `npm start` does instead of src/server.ts under tsx (a directory: that
+ *   build's server.js, e.g. another tree's dist/ for a by-turns benchmark)
  */
-export async function startServerProcess(env: Record<string, string> = {}, discardLogs = false, fromDist = false): Promise<ServerProcess> {
+export async function startServerProcess(
+  env: Record<string, string> = {},
+  discardLogs = false,
+  fromDist: boolean | string = false,
+): Promise<ServerProcess> {
   const port = await freePort();
   // fromDist: as `npm start` runs it (node --max-semi-space-size=32 dist/server.js, no tsx); dist/ built beforehand.
-  const args = fromDist ? ['--max-semi-space-size=32', 'dist/server.js'] : ['--import', 'tsx', 'src/server.ts'];
+  const server = typeof fromDist === 'string' ? join(resolve(fromDist), 'server.js') : 'dist/server.js';
+  const args = fromDist ? ['--max-semi-space-size=32', server] : ['--import', 'tsx', 'src/server.ts'];
   const child = spawn(process.execPath, args, {
     env: { ...serverEnvironment(port, { TROPODELAY_WARM_UP_ESTIMATIONS: '0', ...env }), ...(fromDist ? { NODE_OPTIONS: '' } : {}) },
     stdio: ['ignore', discardLogs ? 'ignore' : 'inherit', 'inherit'],

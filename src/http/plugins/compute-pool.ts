@@ -54,7 +54,11 @@ declare module 'fastify' {
 export interface ComputePoolPluginOptions {
   config: Pick<
     Config,
-    'ESTIMATION_WORKERS' | 'ESTIMATION_QUEUE_LIMIT' | 'TROPODELAY_COMPUTE_MEMORY_BUDGET_MB' | 'TROPODELAY_WARM_UP_ESTIMATIONS'
+    | 'ESTIMATION_WORKERS'
+    | 'ESTIMATION_QUEUE_LIMIT'
+    | 'TROPODELAY_COMPUTE_MEMORY_BUDGET_MB'
+    | 'TROPODELAY_WARM_UP_ESTIMATIONS'
+    | 'TROPODELAY_WORKER_IDLE_TRIM_S'
   >;
   /** Start the threads with the app, warmed (server.ts); absent: they start with the first task, cold. */
   start?: boolean;
@@ -95,6 +99,7 @@ async function computePool(app: FastifyInstance, { config, start }: ComputePoolP
     memoryBudgetBytes: config.TROPODELAY_COMPUTE_MEMORY_BUDGET_MB * MB,
     onTaskDone: (task, durationS) => app.metrics.computeDuration.observe({ task }, durationS),
     warmUp: { location: COMPUTE_WARM_UP, estimations },
+    idleTrimMs: config.TROPODELAY_WORKER_IDLE_TRIM_S * 1000,
   });
   const warmUp = start ? warmUpAtStart(app, pool, estimations, config.ESTIMATION_WORKERS) : Promise.resolve([]);
   app.decorate('compute', {
