@@ -3,19 +3,74 @@
  * that a request without a body content — DELETE, GET, HEAD, OPTIONS — may still carry a JSON
  * content type. Generic clients send `Content-Type: application/json` on every request, and a DELETE
  * refused with "body cannot be empty" would be a 400 for no mistake of the caller.
+ *
+ * The bytes are read as fastify's `parseAs: 'string'` reads them (the route's body limit, a 413 for a
+ * body over it, a 400 for one shorter than its Content-Length or a broken stream), with one shortcut:
+ * when the whole declared body is already in the request's buffer as the parser runs — a small body
+ * arrives with its headers, and Node's HTTP parser has pushed it before fastify's onRequest hooks
+ * finish — it is taken from there at once, instead of through the stream's 'data' event and an 'end'
+ * event a tick later. That dance cost about 3 µs of a single-point POST /v1/zenith-delays's ~40 µs of
+ * service CPU (DEVELOPERS.md, "The per-request cost of the single-point routes").
  */
 
-import type { FastifyInstance } from 'fastify';
+import type { IncomingMessage } from 'node:http';
+import { errorCodes, type FastifyInstance, type FastifyRequest } from 'fastify';
 import fp from 'fastify-plugin';
 
 const BODYLESS_METHODS = new Set(['DELETE', 'GET', 'HEAD', 'OPTIONS']);
 
+type TextDone = (err: Error | null, text?: string) => void;
+
+/**
+ * The body as UTF-8 text, with the errors fastify's raw-body reader gives. Node's HTTP parser never
+ * delivers more than Content-Length bytes to a request, so `readableLength === declared` means all of it.
+ */
+export function readBodyText(request: FastifyRequest, payload: IncomingMessage, done: TextDone): void {
+  const limit = request.routeOptions.bodyLimit ?? Infinity;
+  const declared = Number(request.headers['content-length']);
+  if (declared > limit) return done(new errorCodes.FST_ERR_CTP_BODY_TOO_LARGE());
+  if (payload === request.raw && payload.readableLength === declared) {
+    const whole = declared === 0 ? null : (payload.read() as Buffer | null);
+    if (declared === 0 || whole?.length === declared) return done(null, whole === null ? '' : whole.toString('utf8'));
+    if (whole) payload.unshift(whole); // not expected: back where it was, and read below
+  }
+  const chunks: Buffer[] = [];
+  let received = 0;
+  const finish = (err: Error | null, text?: string) => {
+    payload.removeListener('data', onData);
+    payload.removeListener('end', onEnd);
+    payload.removeListener('error', onError);
+    done(err, text);
+  };
+  const onData = (chunk: Buffer | string) => {
+    const bytes = typeof chunk === 'string' ? Buffer.from(chunk) : chunk;
+    if (received + bytes.length > limit) return finish(new errorCodes.FST_ERR_CTP_BODY_TOO_LARGE());
+    chunks.push(bytes);
+    received += bytes.length;
+  };
+  const onEnd = () => {
+    if (!Number.isNaN(declared) && received !== declared) return finish(new errorCodes.FST_ERR_CTP_INVALID_CONTENT_LENGTH());
+    finish(null, (chunks.length === 1 ? chunks[0]! : Buffer.concat(chunks, received)).toString('utf8'));
+  };
+  const onError = (err: Error & { statusCode?: number }) => {
+    if (!(typeof err.statusCode === 'number' && err.statusCode >= 400)) err.statusCode = 400;
+    finish(err);
+  };
+  payload.on('data', onData);
+  payload.on('end', onEnd);
+  payload.on('error', onError);
+  payload.resume();
+}
+
 async function jsonBody(app: FastifyInstance): Promise<void> {
   const parseJson = app.getDefaultJsonParser('error', 'error');
   app.removeContentTypeParser('application/json');
-  app.addContentTypeParser('application/json', { parseAs: 'string' }, (request, body, done) => {
-    if (body === '' && BODYLESS_METHODS.has(request.method)) return done(null, undefined);
-    return parseJson(request, String(body), done);
+  app.addContentTypeParser('application/json', (request, payload, done) => {
+    readBodyText(request, payload, (err, text) => {
+      if (err) done(err);
+      else if (text === '' && BODYLESS_METHODS.has(request.method)) done(null, undefined);
+      else void parseJson(request, text!, done);
+    });
   });
 }
 

@@ -9,7 +9,7 @@ import { belowMappingFit, MAPPING_FIT_MIN_ELEVATION_DEG } from '../../domain/map
 import { MAPPING_MODELS, type MappingModelKey } from '../../domain/mapping/registry.js';
 import type { CoefficientsHeightReference, MappingCoefficients, MappingEvaluator } from '../../domain/mapping/types.js';
 import type { MetInput } from '../../domain/meteo/surface-met.js';
-import { MODEL_NAMES, provenance, type ModelSet, type Provenance } from '../../domain/provenance.js';
+import { MODEL_NAMES, provenance, type ModelSet } from '../../domain/provenance.js';
 import type { Site } from '../../domain/site.js';
 import { fractionalDayOfYear } from '../../domain/time.js';
 import { WET_MODELS } from '../../domain/zenith/wet.js';
@@ -81,10 +81,13 @@ export function mappingProvenance(model: MappingModelKey, gradientModel: string,
   };
 }
 
-/** Provenance of a route's fixed model choices, computed once per combination of keys. */
-export function memoProvenance(cache: Map<string, Provenance>, key: string, models: () => ModelSet): Provenance {
+/**
+ * The provenance fields of an answer as JSON text, `"models":{…},"model_fingerprint":"…"` (JSON.stringify's
+ * bytes, without the braces), computed once per combination of keys: for answers written as text.
+ */
+export function memoProvenanceJson(cache: Map<string, string>, key: string, models: () => ModelSet): string {
   let hit = cache.get(key);
-  if (!hit) cache.set(key, (hit = provenance(models())));
+  if (hit === undefined) cache.set(key, (hit = JSON.stringify(provenance(models())).slice(1, -1)));
   return hit;
 }
 
