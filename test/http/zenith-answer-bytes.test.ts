@@ -11,6 +11,7 @@ import { aprioriZenithDelays, type AprioriZenith } from '../../src/domain/zenith
 import { provenance } from '../../src/domain/provenance.js';
 import { WET_MODEL_KEYS } from '../../src/domain/zenith/wet.js';
 import { zenithAnswerJson } from '../../src/http/routes/zenith-delays.js';
+import { zenithDelaysResponse } from '../../src/http/schemas/zenith-delays.js';
 import { toMetInput, toSite, zenithProvenance } from '../../src/http/routes/shared.js';
 import { metUnitWarnings } from '../../src/http/tasks/apriori-batch.js';
 import { useApp } from '../helpers/app.js';
@@ -73,6 +74,9 @@ describe('zenith-delays answer bytes against JSON.stringify of the previous answ
         if (r.status !== 200) return; // a combination the model refuses (422) is not this test's business
         expect(r.headers['content-type']).toBe('application/json; charset=utf-8');
         expect(r.text).toBe(JSON.stringify(previousAnswer(body)));
+        // The writer is a second spelling of the response schema: a field the schema gains or loses without
+        // the writer following fails here (strict: no key the schema does not know, every required one there).
+        expect(zenithDelaysResponse.strict().safeParse(JSON.parse(r.text)).success).toBe(true);
         compared++;
       }),
       { numRuns: 300, seed: 20261205 },
