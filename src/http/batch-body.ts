@@ -11,6 +11,7 @@ import { errorCodes, type FastifyInstance, type FastifyReply, type FastifyReques
 import { OFFLOAD_BODY_BYTES, OFFLOAD_COST_PER_BYTE } from '../limits.js';
 import type { TaskOutcome } from '../workers/task-outcome.js';
 import { ARROW_STREAM_TYPE, pooledBytes, releasePooledBytes } from './answer-shape.js';
+import { readBodyChunks } from './body-chunks.js';
 import { HttpProblem } from './problem.js';
 import { asBuffer, movableBytes } from './raw-body.js';
 import type { BatchTaskInput, BatchTaskOutput } from './tasks/apriori-batch.js';
@@ -53,32 +54,21 @@ function readBody(request: FastifyRequest, payload: IncomingMessage, done: (err:
   // Node's HTTP parser delivers no more than the declared length: the bytes fit the buffer.
   const whole = Number.isInteger(declared) && declared > 0 ? pooledBytes(declared) : undefined;
   const chunks: Buffer[] = [];
-  let received = 0;
-  const finish = (err: Error | null, body?: Buffer) => {
-    payload.removeListener('data', onData);
-    payload.removeListener('end', onEnd);
-    payload.removeListener('error', onError);
-    if (err && whole) releasePooledBytes(whole);
-    done(err, body);
-  };
-  const onData = (chunk: Buffer) => {
-    if (received + chunk.length > limit) return finish(new errorCodes.FST_ERR_CTP_BODY_TOO_LARGE());
-    if (whole && received + chunk.length <= whole.length) whole.set(chunk, received);
-    else chunks.push(chunk);
-    received += chunk.length;
-  };
-  const onEnd = () => {
-    if (whole && received !== declared) return finish(new errorCodes.FST_ERR_CTP_INVALID_CONTENT_LENGTH());
-    finish(null, whole ? Buffer.from(whole.buffer, 0, declared) : Buffer.concat(chunks, received));
-  };
-  const onError = (err: Error & { statusCode?: number }) => {
-    if (!(typeof err.statusCode === 'number' && err.statusCode >= 400)) err.statusCode = 400;
-    finish(err);
-  };
-  payload.on('data', onData);
-  payload.on('end', onEnd);
-  payload.on('error', onError);
-  payload.resume();
+  readBodyChunks(
+    request,
+    payload,
+    (chunk, at) => {
+      if (whole && at + chunk.length <= whole.length) whole.set(chunk, at);
+      else chunks.push(chunk);
+    },
+    (err, received) => {
+      if (err) {
+        if (whole) releasePooledBytes(whole);
+        return done(err);
+      }
+      done(null, whole ? Buffer.from(whole.buffer, 0, declared) : Buffer.concat(chunks, received));
+    },
+  );
 }
 
 /**

@@ -11,12 +11,11 @@
 
 import { request as httpRequest } from 'node:http';
 import type { AddressInfo } from 'node:net';
-import type { FastifyInstance } from 'fastify';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import Fastify from 'fastify';
-import { buildApp } from '../../src/http/app.js';
 import { readBatchBodies } from '../../src/http/batch-body.js';
 import { BATCH_BODY_LIMIT_BYTES } from '../../src/limits.js';
+import { useListeningApp } from '../helpers/app.js';
 import { slantArrowRequest } from '../helpers/slant-arrow-request.js';
 
 const ARROW = 'application/vnd.apache.arrow.stream';
@@ -26,16 +25,7 @@ const base = {
   met: { pressure_hpa: 965.3, temperature_c: 18.2, relative_humidity_pct: 61 },
 };
 
-let app: FastifyInstance;
-let port: number;
-beforeAll(async () => {
-  app = await buildApp({ validateResponses: true });
-  await app.listen({ port: 0, host: '127.0.0.1' });
-  port = (app.server.address() as AddressInfo).port;
-});
-afterAll(async () => {
-  await app.close();
-});
+const servicePort = useListeningApp();
 
 interface Sent {
   path: string;
@@ -47,11 +37,14 @@ interface Sent {
 /** One request on its own connection: the status and the answer's bytes (a closed connection ends it too). */
 function send({ path, headers, pieces }: Sent): Promise<{ status: number; body: Buffer }> {
   return new Promise((resolve, reject) => {
-    const req = httpRequest({ host: '127.0.0.1', port, path, method: 'POST', headers: { connection: 'close', ...headers } }, (res) => {
-      const parts: Buffer[] = [];
-      res.on('data', (c: Buffer) => parts.push(c));
-      res.on('end', () => resolve({ status: res.statusCode!, body: Buffer.concat(parts) }));
-    });
+    const req = httpRequest(
+      { host: '127.0.0.1', port: servicePort(), path, method: 'POST', headers: { connection: 'close', ...headers } },
+      (res) => {
+        const parts: Buffer[] = [];
+        res.on('data', (c: Buffer) => parts.push(c));
+        res.on('end', () => resolve({ status: res.statusCode!, body: Buffer.concat(parts) }));
+      },
+    );
     // The server may answer and close before the whole body is written: that is the answer under test.
     req.on('error', (err: NodeJS.ErrnoException) => (err.code === 'EPIPE' || err.code === 'ECONNRESET' ? undefined : reject(err)));
     const write = (i: number) => {

@@ -11,8 +11,8 @@ import { request as httpRequest, Agent } from 'node:http';
 import { connect, type AddressInfo } from 'node:net';
 import Fastify, { type FastifyInstance } from 'fastify';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { buildApp } from '../../src/http/app.js';
 import { readBodyText } from '../../src/http/plugins/json-body.js';
+import { useListeningApp } from '../helpers/app.js';
 
 const LIMIT = 4096;
 
@@ -111,16 +111,7 @@ describe('readBodyText against fastify`s parseAs: "string" reader (common practi
 });
 
 describe('POST /v1/zenith-delays through the reader', () => {
-  let app: FastifyInstance;
-  let port: number;
-  beforeAll(async () => {
-    app = await buildApp({ validateResponses: true });
-    await app.listen({ port: 0, host: '127.0.0.1' });
-    port = (app.server.address() as AddressInfo).port;
-  });
-  afterAll(async () => {
-    await app.close();
-  });
+  const servicePort = useListeningApp();
   const zenithBody = (i: number) =>
     JSON.stringify({
       site: { latitude_deg: 47.5, longitude_deg: 8.25, height_m: 420 + i },
@@ -131,9 +122,9 @@ describe('POST /v1/zenith-delays through the reader', () => {
     `POST /v1/zenith-delays HTTP/1.1\r\nhost: x\r\nconnection: close\r\ncontent-type: application/json\r\ncontent-length: ${Buffer.byteLength(b)}\r\n\r\n${b}`;
 
   it('answers the same bytes to a body sent whole and one sent in pieces', async () => {
-    const whole = await rawSend(port, [zenithRequest(zenithBody(0))]);
+    const whole = await rawSend(servicePort(), [zenithRequest(zenithBody(0))]);
     const request = zenithRequest(zenithBody(0));
-    const pieces = await rawSend(port, [request.slice(0, request.length - 40), request.slice(-40, -10), request.slice(-10)]);
+    const pieces = await rawSend(servicePort(), [request.slice(0, request.length - 40), request.slice(-40, -10), request.slice(-10)]);
     expect(JSON.parse(whole).zhd_m).toBeGreaterThan(2);
     expect(pieces).toBe(whole);
   });
@@ -143,7 +134,14 @@ describe('POST /v1/zenith-delays through the reader', () => {
     const post = (b: string) =>
       new Promise<{ text: string; socket: unknown }>((resolve, reject) => {
         const req = httpRequest(
-          { host: '127.0.0.1', port, path: '/v1/zenith-delays', method: 'POST', agent, headers: { 'content-type': 'application/json' } },
+          {
+            host: '127.0.0.1',
+            port: servicePort(),
+            path: '/v1/zenith-delays',
+            method: 'POST',
+            agent,
+            headers: { 'content-type': 'application/json' },
+          },
           (res) => {
             const parts: Buffer[] = [];
             res.on('data', (c: Buffer) => parts.push(c));
@@ -158,13 +156,12 @@ describe('POST /v1/zenith-delays through the reader', () => {
       for (let i = 0; i < 20; i++) answers.push(await post(zenithBody(i)));
       expect(new Set(answers.map((a) => a.socket)).size).toBe(1);
       for (let i = 0; i < 20; i++) {
-        const alone = await app.inject({
+        const alone = await fetch(`http://127.0.0.1:${servicePort()}/v1/zenith-delays`, {
           method: 'POST',
-          url: '/v1/zenith-delays',
-          headers: { 'content-type': 'application/json' },
-          payload: zenithBody(i),
+          headers: { 'content-type': 'application/json', connection: 'close' },
+          body: zenithBody(i),
         });
-        expect(answers[i]!.text).toBe(alone.body);
+        expect(answers[i]!.text).toBe(await alone.text());
       }
     } finally {
       agent.destroy();

@@ -16,6 +16,7 @@
 import type { IncomingMessage } from 'node:http';
 import { errorCodes, type FastifyInstance, type FastifyRequest } from 'fastify';
 import fp from 'fastify-plugin';
+import { readBodyChunks } from '../body-chunks.js';
 
 const BODYLESS_METHODS = new Set(['DELETE', 'GET', 'HEAD', 'OPTIONS']);
 
@@ -35,33 +36,15 @@ export function readBodyText(request: FastifyRequest, payload: IncomingMessage, 
     if (whole) payload.unshift(whole); // not expected: back where it was, and read below
   }
   const chunks: Buffer[] = [];
-  let received = 0;
-  const finish = (err: Error | null, text?: string) => {
-    payload.removeListener('data', onData);
-    payload.removeListener('end', onEnd);
-    payload.removeListener('error', onError);
-    done(err, text);
-  };
-  const onData = (chunk: Buffer | string) => {
-    const bytes = typeof chunk === 'string' ? Buffer.from(chunk) : chunk;
-    if (received + bytes.length > limit) return finish(new errorCodes.FST_ERR_CTP_BODY_TOO_LARGE());
-    chunks.push(bytes);
-    received += bytes.length;
-  };
-  const onEnd = () => {
-    // Content-Length counts the bytes on the wire: a payload a preParsing hook replaced (none today) may differ.
-    if (payload === request.raw && !Number.isNaN(declared) && received !== declared)
-      return finish(new errorCodes.FST_ERR_CTP_INVALID_CONTENT_LENGTH());
-    finish(null, (chunks.length === 1 ? chunks[0]! : Buffer.concat(chunks, received)).toString('utf8'));
-  };
-  const onError = (err: Error & { statusCode?: number }) => {
-    if (!(typeof err.statusCode === 'number' && err.statusCode >= 400)) err.statusCode = 400;
-    finish(err);
-  };
-  payload.on('data', onData);
-  payload.on('end', onEnd);
-  payload.on('error', onError);
-  payload.resume();
+  readBodyChunks(
+    request,
+    payload,
+    (chunk) => chunks.push(chunk),
+    (err, received) => {
+      if (err) return done(err);
+      done(null, (chunks.length === 1 ? chunks[0]! : Buffer.concat(chunks, received)).toString('utf8'));
+    },
+  );
 }
 
 async function jsonBody(app: FastifyInstance): Promise<void> {
