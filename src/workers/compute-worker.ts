@@ -11,8 +11,9 @@
  * the thread meanwhile wait for it. The promise never rejects: a failed warm-up is reported and the thread
  * takes tasks cold (a rejected handler would make piscina fail the thread at every start).
  *
- * After the warm-up and after each task the thread schedules its idle trim (idle-trim.ts): one full collection
- * once it has had no task for workerData.idleTrimMs, which gives its young generation back.
+ * After the warm-up and after each task the thread schedules its idle trim (idle-trim.ts): once it has had no
+ * task for workerData.idleTrimMs, two full collections 6 s apart, which give its young generation back (off by
+ * default: idleTrimMs 0).
  */
 
 import { createRequire } from 'node:module';
