@@ -45,10 +45,15 @@ describe.skipIf(!glibc)('raiseMallocThresholds: mallopt(3), dynamic mmap and tri
     // A round fits under the trim threshold the call sets (twice the block it frees), and its blocks under the mmap threshold.
     expect(BLOCKS * BLOCK_BYTES).toBeLessThan(2 * MALLOC_THRESHOLD_BLOCK_BYTES);
     expect(BLOCK_BYTES).toBeLessThan(MALLOC_THRESHOLD_BLOCK_BYTES);
-    // Measured: without the call 14 400–15 200 faults in five rounds (every page, every round), with it 7–20.
+    // Measured: without the call 14 400–15 200 faults in five rounds (every page, every round), with it 7–20. On a
+    // loaded machine (load ~8) once 2 963 without the call: frees that land late, while the next round allocates,
+    // keep the heap's top in use, so fewer rounds fault again. So the case without the call is held to at least
+    // one round's pages faulted again (the scenario does tell), and the call to a tenth of that and under a
+    // quarter of a round: a call that kept nothing would fault ~every page of every round.
     const before = faultsAfterFirstRound(false);
     const after = faultsAfterFirstRound(true);
-    expect(before).toBeGreaterThan(2 * PAGES_A_ROUND);
+    expect(before).toBeGreaterThan(0.9 * PAGES_A_ROUND);
     expect(after).toBeLessThan(PAGES_A_ROUND / 4);
+    expect(after).toBeLessThan(before / 10);
   });
 });
