@@ -8,7 +8,8 @@ import { MessageChannel } from 'node:worker_threads';
 import { raiseMallocThresholds } from '../../src/malloc-heap.js';
 
 const [blockCount, blockBytes] = [Number(process.argv[3]), Number(process.argv[4])];
-const turn = () => new Promise((resolve) => setTimeout(resolve, 50)); // a dropped message is freed after a turn of the loop (50 ms: room on a loaded machine)
+// A dropped message is freed after a turn of the loop (50 ms: room on a loaded machine).
+const turn = () => new Promise((resolve) => setTimeout(resolve, 50));
 const free = (buffers: ArrayBuffer[]) => {
   const { port1, port2 } = new MessageChannel();
   port2.close();
