@@ -25,6 +25,9 @@ import { MAX_ROUNDED_DECIMAL_BYTES, writeRoundedDecimal, writeRoundedDecimalList
 export type ByteSource = (size: number) => Uint8Array;
 const newBytes: ByteSource = (size) => new Uint8Array(size);
 
+/** A number as JSON.stringify writes it: String(x) (ECMAScript Number::toString, the shortest round trip; ASCII), null when not finite. */
+export const jsonNumberText = (x: number): string => (Number.isFinite(x) ? String(x) : 'null');
+
 /**
  * A growing byte buffer for JSON text: bytes written straight into it, ASCII text by its char codes and
  * other text as UTF-8, so that a big answer is never one big string transcoded at the end.
@@ -63,9 +66,9 @@ export class JsonBytes {
     this.reserve(MAX_ROUNDED_DECIMAL_BYTES);
     this.length = writeRoundedDecimal(this.bytes, this.length, x, decimals);
   }
-  /** A number as JSON.stringify writes it: String(x) (shortest round trip; ASCII), null when not finite. */
+  /** A number as JSON.stringify writes it (jsonNumberText). */
   number(x: number): void {
-    const text = Number.isFinite(x) ? String(x) : 'null';
+    const text = jsonNumberText(x);
     this.reserve(text.length);
     const b = this.bytes;
     let at = this.length;

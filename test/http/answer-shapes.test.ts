@@ -14,6 +14,7 @@ import { OFFLOAD_BODY_BYTES } from '../../src/limits.js';
 import { problemFields, useApp } from '../helpers/app.js';
 import { useArchiveApp } from '../helpers/archive-app.js';
 import { BACKENDS } from '../helpers/storage.js';
+import { arrowBody } from './network-fixtures.js';
 
 const ARROW = 'application/vnd.apache.arrow.stream';
 const site = { latitude_deg: 47.5, longitude_deg: 8.25, height_m: 420 };
@@ -313,19 +314,10 @@ describe('POST /v1/zwd-estimates with observations as columns or an Arrow table'
       .post('/v1/zwd-estimates')
       .send({ ...estimationBody, observations: estimation.observations })
       .expect(200);
-    const o = estimation.observations;
-    const table = tableFromArrays({
-      epoch: o.map((r) => r.epoch),
-      satellite: o.map((r) => r.satellite),
-      elevation_deg: Float64Array.from(o, (r) => r.elevation_deg),
-      azimuth_deg: Float64Array.from(o, (r) => r.azimuth_deg),
-      residual_m: Float64Array.from(o, (r) => r.residual_m),
-    }) as Table;
-    table.schema.metadata.set('request', JSON.stringify(estimationBody));
     const arrow = await api()
       .post('/v1/zwd-estimates')
       .set('content-type', ARROW)
-      .send(Buffer.from(tableToIPC(table, 'stream')))
+      .send(arrowBody(estimation.observations, estimationBody))
       .expect(200);
     expect(arrow.body).toEqual(json.body);
   });

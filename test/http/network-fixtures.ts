@@ -84,10 +84,23 @@ export function csvOf(observations: ReturnType<typeof observationsOf>): string {
   ].join('\n');
 }
 
-/** The observations as an Arrow IPC stream (station and epoch as text, the numbers as float64), `rest` in the metadata. */
-export function arrowBody(rows: ReturnType<typeof observationsOf>, rest: Record<string, unknown>): Buffer {
+/** An observation of a request body in its object form (with a station for the network routes). */
+interface ObservationRow {
+  station?: string;
+  epoch: string;
+  satellite: string;
+  elevation_deg: number;
+  azimuth_deg: number;
+  residual_m: number;
+}
+
+/**
+ * The observations as an Arrow IPC stream (station, when the rows have one, and epoch as text, the numbers as
+ * float64), `rest` in the metadata.
+ */
+export function arrowBody(rows: readonly ObservationRow[], rest: Record<string, unknown>): Buffer {
   const table = tableFromArrays({
-    station: rows.map((r) => r.station!),
+    ...(rows[0]?.station !== undefined ? { station: rows.map((r) => r.station!) } : {}),
     epoch: rows.map((r) => r.epoch),
     satellite: rows.map((r) => r.satellite),
     elevation_deg: Float64Array.from(rows, (r) => r.elevation_deg),

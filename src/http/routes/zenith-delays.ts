@@ -1,14 +1,12 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { aprioriZenithDelays, type AprioriZenith } from '../../domain/zenith/apriori.js';
+import { jsonNumberText } from '../../formats/json-columns.js';
 import { problemSchema } from '../schemas/common.js';
 import { zenithDelaysRequest, zenithDelaysResponse } from '../schemas/zenith-delays.js';
 import { metUnitWarnings } from '../tasks/apriori-batch.js';
 import { memoProvenanceJson, toMetInput, toSite, zenithProvenance } from './shared.js';
 
 const PROVENANCE_JSON = new Map<string, string>();
-
-/** A number as JSON.stringify writes it (ECMAScript Number::toString; NaN and ±Infinity as null). */
-const jsonNumber = (x: number): string => (Number.isFinite(x) ? String(x) : 'null');
 
 /**
  * The 200 answer (zenithDelaysResponse) as JSON text, written field by field: the bytes JSON.stringify gives
@@ -20,11 +18,11 @@ const jsonNumber = (x: number): string => (Number.isFinite(x) ? String(x) : 'nul
 export function zenithAnswerJson(z: AprioriZenith, provenanceJson: string, warnings: readonly string[]): string {
   const m = z.met;
   return (
-    `{"zhd_m":${jsonNumber(z.zhdM)},"zwd_m":${jsonNumber(z.zwdM)},"ztd_m":${jsonNumber(z.ztdM)},` +
-    `"met_used":{"pressure_hpa":${jsonNumber(m.pressureHpa)},"temperature_c":${jsonNumber(m.temperatureC)},` +
-    `"vapour_pressure_hpa":${jsonNumber(m.vapourPressureHpa)},"source":{"pressure":${JSON.stringify(m.source.pressure)},` +
+    `{"zhd_m":${jsonNumberText(z.zhdM)},"zwd_m":${jsonNumberText(z.zwdM)},"ztd_m":${jsonNumberText(z.ztdM)},` +
+    `"met_used":{"pressure_hpa":${jsonNumberText(m.pressureHpa)},"temperature_c":${jsonNumberText(m.temperatureC)},` +
+    `"vapour_pressure_hpa":${jsonNumberText(m.vapourPressureHpa)},"source":{"pressure":${JSON.stringify(m.source.pressure)},` +
     `"temperature":${JSON.stringify(m.source.temperature)},"humidity":${JSON.stringify(m.source.humidity)}}},` +
-    `"geoid_undulation_m":${jsonNumber(z.geoidUndulationM)},${provenanceJson},"warnings":${JSON.stringify(warnings)}}`
+    `"geoid_undulation_m":${jsonNumberText(z.geoidUndulationM)},${provenanceJson},"warnings":${JSON.stringify(warnings)}}`
   );
 }
 
